@@ -1,0 +1,35 @@
+import { Module } from '@nestjs/common';
+import { APP_FILTER } from '@nestjs/core';
+import { TypeOrmModule } from '@nestjs/typeorm';
+import { AuditModule } from './audit/audit.module';
+import { AuthModule } from './auth/auth.module';
+import { ProblemFilter } from './common/errors/problem.filter';
+import { AppConfig } from './config/app-config';
+import { ConfigModule } from './config/config.module';
+import { dataSourceOptions } from './database/data-source-options';
+import { HealthModule } from './health/health.module';
+import { JobsModule } from './jobs/jobs.module';
+import { MailModule } from './mail/mail.module';
+import { PaymentsModule } from './payments/payments.module';
+import { StudiesModule } from './studies/studies.module';
+import { UsersModule } from './users/users.module';
+
+@Module({
+  imports: [
+    ConfigModule,
+    TypeOrmModule.forRootAsync({
+      inject: [AppConfig],
+      useFactory: (config: AppConfig) => dataSourceOptions(config.databaseUrl),
+    }),
+    JobsModule,
+    AuditModule,
+    MailModule,
+    UsersModule,
+    AuthModule,
+    StudiesModule,
+    PaymentsModule,
+    HealthModule,
+  ],
+  providers: [{ provide: APP_FILTER, useClass: ProblemFilter }],
+})
+export class AppModule {}

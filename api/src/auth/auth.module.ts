@@ -1,0 +1,28 @@
+import { Module } from '@nestjs/common';
+import { APP_GUARD } from '@nestjs/core';
+import { JwtModule } from '@nestjs/jwt';
+import { AuditModule } from '../audit/audit.module';
+import { SessionGuard } from '../common/auth/session.guard';
+import { AppConfig } from '../config/app-config';
+import { MailModule } from '../mail/mail.module';
+import { RateLimitModule } from '../rate-limit/rate-limit.module';
+import { UsersModule } from '../users/users.module';
+import { AuthController } from './auth.controller';
+import { AuthService } from './auth.service';
+
+@Module({
+  imports: [
+    JwtModule.registerAsync({
+      global: true,
+      inject: [AppConfig],
+      useFactory: (config: AppConfig) => ({ secret: config.jwtSecret, signOptions: { algorithm: 'HS256' } }),
+    }),
+    UsersModule,
+    AuditModule,
+    MailModule,
+    RateLimitModule,
+  ],
+  controllers: [AuthController],
+  providers: [AuthService, { provide: APP_GUARD, useClass: SessionGuard }],
+})
+export class AuthModule {}

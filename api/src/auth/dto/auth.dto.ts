@@ -1,0 +1,60 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { Transform } from 'class-transformer';
+import { IsEmail, IsOptional, IsString, Matches, MaxLength, MinLength } from 'class-validator';
+import { USER_ROLES, UserRole } from '../../users/entities/user.entity';
+
+const lowerTrimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim().toLowerCase() : value);
+
+export class SignInDto {
+  @ApiProperty({ example: 'coordinator@evenhand.test' })
+  @Transform(lowerTrimmed)
+  @IsEmail({}, { message: 'email must be a valid e-mail address' })
+  @MaxLength(254)
+  email: string;
+
+  @ApiProperty()
+  @IsString()
+  @MinLength(1, { message: 'password is required' })
+  @MaxLength(200)
+  password: string;
+}
+
+export class RequestSignInLinkDto {
+  @ApiProperty({ example: 'someone@example.test' })
+  @Transform(lowerTrimmed)
+  @IsEmail({}, { message: 'email must be a valid e-mail address' })
+  @MaxLength(254)
+  email: string;
+
+  @ApiPropertyOptional({ description: 'The study page the person came from, so the link brings them back to it' })
+  @IsOptional()
+  @IsString()
+  @Matches(/^[a-z0-9-]{1,80}$/, { message: 'studySlug must be lower-case letters, digits and dashes' })
+  studySlug?: string;
+}
+
+export class ConsumeSignInLinkDto {
+  @ApiProperty()
+  @IsString()
+  @MinLength(20, { message: 'token is not a sign-in token' })
+  @MaxLength(200)
+  token: string;
+}
+
+export class MeDto {
+  @ApiProperty({ format: 'uuid' }) id: string;
+  @ApiProperty() email: string;
+  @ApiProperty() name: string;
+  @ApiProperty({ enum: USER_ROLES }) role: UserRole;
+  @ApiProperty() active: boolean;
+}
+
+export class SessionDto {
+  @ApiProperty({ type: MeDto }) user: MeDto;
+  @ApiPropertyOptional({ description: 'Study page to return to after a link sign-in', nullable: true, type: String })
+  studySlug?: string | null;
+}
+
+export class LinkRequestedDto {
+  @ApiProperty({ description: 'Always true: the answer never reveals whether an address is known' }) sent: boolean;
+}

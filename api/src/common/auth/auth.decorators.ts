@@ -1,0 +1,16 @@
+import { createParamDecorator, ExecutionContext, SetMetadata } from '@nestjs/common';
+import type { UserRole } from '../../users/entities/user.entity';
+import type { SessionUser } from './session-user';
+
+export const IS_PUBLIC = 'evenhand:public';
+export const ROLES = 'evenhand:roles';
+
+/** Opts a route out of the global sign-in requirement. */
+export const Public = () => SetMetadata(IS_PUBLIC, true);
+
+/** Limits a route to these roles (checked by the global guard after sign-in). */
+export const Roles = (...roles: UserRole[]) => SetMetadata(ROLES, roles);
+
+export const CurrentUser = createParamDecorator(
+  (_data: unknown, context: ExecutionContext): SessionUser => context.switchToHttp().getRequest().user,
+);

@@ -1,0 +1,12 @@
+import type { UserRole } from '../../users/entities/user.entity';
+
+/** The signed-in person as the guards attach it to the request. */
+export interface SessionUser {
+  id: string;
+  email: string;
+  name: string;
+  role: UserRole;
+}
+
+export const ACCESS_COOKIE = 'eh_access';
+export const REFRESH_COOKIE = 'eh_refresh';

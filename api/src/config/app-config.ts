@@ -1,0 +1,154 @@
+import { plainToInstance, Transform } from 'class-transformer';
+import { IsBoolean, IsIn, IsInt, IsString, IsUrl, Max, Min, MinLength, validateSync } from 'class-validator';
+
+/** Secrets that are fine on a developer's machine and must never reach production. */
+export const DEVELOPMENT_SECRETS = {
+  jwtSecret: 'evenhand-development-jwt-secret-change-me',
+  stripeSecretKey: 'sk_test_evenhand_local',
+  stripeWebhookSecret: 'whsec_evenhand_dev',
+} as const;
+
+const toInt = ({ value }: { value: unknown }) => (value === undefined || value === '' ? undefined : Number(value));
+const toBool = ({ value }: { value: unknown }) =>
+  value === undefined || value === '' ? undefined : value === true || value === 'true' || value === '1';
+
+/** All run-time settings, read once from the environment at boot and validated. */
+export class AppConfig {
+  @IsIn(['development', 'test', 'production'])
+  nodeEnv: 'development' | 'test' | 'production' = 'development';
+
+  @IsString()
+  host = '127.0.0.1';
+
+  @Transform(toInt)
+  @IsInt()
+  @Min(1)
+  @Max(65535)
+  port = 3100;
+
+  @IsString()
+  @MinLength(1)
+  databaseUrl = 'postgres://postgres@127.0.0.1:55432/evenhand';
+
+  @IsString()
+  @MinLength(32)
+  jwtSecret: string = DEVELOPMENT_SECRETS.jwtSecret;
+
+  @Transform(toInt)
+  @IsInt()
+  @Min(60)
+  accessTokenSeconds = 15 * 60;
+
+  @Transform(toInt)
+  @IsInt()
+  @Min(300)
+  refreshTokenSeconds = 14 * 24 * 3600;
+
+  @Transform(toInt)
+  @IsInt()
+  @Min(60)
+  signInLinkSeconds = 15 * 60;
+
+  /** Cookies get `Secure` everywhere but on a developer's loopback. */
+  @Transform(toBool)
+  @IsBoolean()
+  secureCookies = false;
+
+  @IsUrl({ require_tld: false })
+  portalUrl = 'http://127.0.0.1:5173';
+
+  @IsUrl({ require_tld: false })
+  adminUrl = 'http://127.0.0.1:5174';
+
+  @IsString()
+  smtpHost = '127.0.0.1';
+
+  @Transform(toInt)
+  @IsInt()
+  smtpPort = 1025;
+
+  @IsString()
+  mailFrom = 'Evenhand <no-reply@evenhand.test>';
+
+  @IsString()
+  @MinLength(8)
+  stripeSecretKey: string = DEVELOPMENT_SECRETS.stripeSecretKey;
+
+  @IsString()
+  stripeHost = '127.0.0.1';
+
+  @Transform(toInt)
+  @IsInt()
+  stripePort = 3200;
+
+  @IsIn(['http', 'https'])
+  stripeProtocol: 'http' | 'https' = 'http';
+
+  @IsString()
+  @MinLength(8)
+  stripeWebhookSecret: string = DEVELOPMENT_SECRETS.stripeWebhookSecret;
+
+  /** Sign-in attempts per address and client per window. */
+  @Transform(toInt)
+  @IsInt()
+  @Min(1)
+  signInLimit = 10;
+
+  @Transform(toInt)
+  @IsInt()
+  @Min(1)
+  signInWindowSeconds = 15 * 60;
+
+  /** Whether this process also runs the background job workers. */
+  @Transform(toBool)
+  @IsBoolean()
+  runWorkers = true;
+}
+
+const ENVIRONMENT_NAMES: Record<keyof AppConfig, string> = {
+  nodeEnv: 'NODE_ENV',
+  host: 'API_HOST',
+  port: 'API_PORT',
+  databaseUrl: 'DATABASE_URL',
+  jwtSecret: 'JWT_SECRET',
+  accessTokenSeconds: 'ACCESS_TOKEN_SECONDS',
+  refreshTokenSeconds: 'REFRESH_TOKEN_SECONDS',
+  signInLinkSeconds: 'SIGN_IN_LINK_SECONDS',
+  secureCookies: 'SECURE_COOKIES',
+  portalUrl: 'PORTAL_URL',
+  adminUrl: 'ADMIN_URL',
+  smtpHost: 'SMTP_HOST',
+  smtpPort: 'SMTP_PORT',
+  mailFrom: 'MAIL_FROM',
+  stripeSecretKey: 'STRIPE_SECRET_KEY',
+  stripeHost: 'STRIPE_HOST',
+  stripePort: 'STRIPE_PORT',
+  stripeProtocol: 'STRIPE_PROTOCOL',
+  stripeWebhookSecret: 'STRIPE_WEBHOOK_SECRET',
+  signInLimit: 'SIGN_IN_LIMIT',
+  signInWindowSeconds: 'SIGN_IN_WINDOW_SECONDS',
+  runWorkers: 'RUN_WORKERS',
+};
+
+/** Reads and validates the configuration; throws a message naming every bad variable. */
+export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
+  const raw: Record<string, unknown> = {};
+  for (const [key, name] of Object.entries(ENVIRONMENT_NAMES)) {
+    if (env[name] !== undefined) raw[key] = env[name];
+  }
+  const production = (raw.nodeEnv ?? 'development') === 'production';
+  if (production && raw.secureCookies === undefined) raw.secureCookies = 'true';
+  const config = plainToInstance(AppConfig, raw);
+  const problems = validateSync(config, { forbidUnknownValues: true }).map(
+    (error) => `${ENVIRONMENT_NAMES[error.property as keyof AppConfig]}: ${Object.values(error.constraints ?? {}).join('; ')}`,
+  );
+  if (production) {
+    for (const [key, value] of Object.entries(DEVELOPMENT_SECRETS)) {
+      if ((config as unknown as Record<string, string>)[key] === value) {
+        problems.push(`${ENVIRONMENT_NAMES[key as keyof AppConfig]}: the development default may not be used in production`);
+      }
+    }
+  }
+  if (problems.length > 0) throw new Error(`Invalid configuration:\n  ${problems.join('\n  ')}`);
+  return config;
+}

@@ -1,0 +1,66 @@
+import { Injectable, Logger, OnApplicationShutdown, OnModuleInit } from '@nestjs/common';
+import PgBoss = require('pg-boss');
+import type { EntityManager } from 'typeorm';
+import { AppConfig } from '../config/app-config';
+import { queryRows } from '../database/raw-query';
+
+export type JobHandler<Payload> = (payload: Payload, jobId: string) => Promise<void>;
+
+/** Every kind of background job, so names are not spread as strings. */
+export const JOB_NAMES = { sendMail: 'mail.send' } as const;
+export type JobName = (typeof JOB_NAMES)[keyof typeof JOB_NAMES];
+
+/**
+ * The PostgreSQL-backed job queue (pg-boss). Jobs are written in the same transaction as the change that causes
+ * them, retried with back-off, and handlers must be idempotent because a job can run more than once.
+ */
+@Injectable()
+export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
+  private readonly logger = new Logger('Jobs');
+  private readonly boss: PgBoss;
+  private readonly handlers = new Map<JobName, JobHandler<never>>();
+  private started = false;
+
+  constructor(private readonly config: AppConfig) {
+    this.boss = new PgBoss({ connectionString: config.databaseUrl, schema: 'job_queue', max: 4 });
+    this.boss.on('error', (error: Error) => this.logger.error(error.message));
+  }
+
+  async onModuleInit(): Promise<void> {
+    await this.boss.start();
+    for (const name of Object.values(JOB_NAMES)) {
+      await this.boss.createQueue(name, { name, retryLimit: 8, retryDelay: 5, retryBackoff: true });
+    }
+    this.started = true;
+  }
+
+  /** Registers the worker for a job kind; only processes with RUN_WORKERS=true pick up work. */
+  async handle<Payload extends object>(name: JobName, handler: JobHandler<Payload>): Promise<void> {
+    this.handlers.set(name, handler as JobHandler<never>);
+    if (!this.config.runWorkers) return;
+    await this.boss.work<Payload>(name, { pollingIntervalSeconds: 0.5, batchSize: 1 }, async (jobs) => {
+      for (const job of jobs) await handler(job.data, job.id);
+    });
+  }
+
+  /** Enqueues inside the caller's transaction, so the job exists exactly when the change commits. */
+  async enqueue<Payload extends object>(manager: EntityManager, name: JobName, payload: Payload): Promise<void> {
+    await this.boss.send(name, payload, {
+      db: { executeSql: async (text: string, values: unknown[]) => ({ rows: await queryRows(manager, text, values) }) },
+    });
+  }
+
+  async isReachable(): Promise<boolean> {
+    if (!this.started) return false;
+    try {
+      await this.boss.getQueue(JOB_NAMES.sendMail);
+      return true;
+    } catch {
+      return false;
+    }
+  }
+
+  async onApplicationShutdown(): Promise<void> {
+    if (this.started) await this.boss.stop({ graceful: true, timeout: 5000 });
+  }
+}

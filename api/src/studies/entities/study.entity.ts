@@ -1,0 +1,47 @@
+import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+
+export const STUDY_DESIGNS = ['between', 'within'] as const;
+export type StudyDesign = (typeof STUDY_DESIGNS)[number];
+export const STUDY_STATUSES = ['draft', 'recruiting', 'paused', 'closed'] as const;
+export type StudyStatus = (typeof STUDY_STATUSES)[number];
+
+@Entity({ name: 'study' })
+@Index('study_slug_key', ['slug'], { unique: true })
+export class StudyEntity {
+  @PrimaryGeneratedColumn('uuid')
+  id: string;
+
+  @Column({ type: 'text' })
+  slug: string;
+
+  @Column({ type: 'text' })
+  title: string;
+
+  @Column({ name: 'protocol_number', type: 'text', nullable: true })
+  protocolNumber: string | null;
+
+  @Column({ type: 'text', default: 'between' })
+  design: StudyDesign;
+
+  @Column({ type: 'text', default: 'draft' })
+  status: StudyStatus;
+
+  @Column({ name: 'target_size', type: 'integer', nullable: true })
+  targetSize: number | null;
+
+  /** Minor units of `currency`. */
+  @Column({ name: 'budget_minor', type: 'bigint', default: 0 })
+  budgetMinor: string;
+
+  @Column({ type: 'char', length: 3, default: 'USD' })
+  currency: string;
+
+  @Column({ type: 'boolean', default: true })
+  blinded: boolean;
+
+  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  createdAt: Date;
+
+  @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' })
+  updatedAt: Date;
+}

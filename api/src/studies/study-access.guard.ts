@@ -1,0 +1,29 @@
+import { CanActivate, ExecutionContext, Injectable, UseGuards, applyDecorators } from '@nestjs/common';
+import type { Request } from 'express';
+import type { SessionUser } from '../common/auth/session-user';
+import { DomainException } from '../common/errors/domain.exception';
+import { StudiesService } from './studies.service';
+
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
+/** For routes under /studies/:studyId: only members of that study (and admins) get through. */
+@Injectable()
+export class StudyAccessGuard implements CanActivate {
+  constructor(private readonly studies: StudiesService) {}
+
+  async canActivate(context: ExecutionContext): Promise<boolean> {
+    const request = context.switchToHttp().getRequest<Request & { user?: SessionUser }>();
+    const studyId = request.params.studyId;
+    const user = request.user;
+    if (!user) throw new DomainException('UNAUTHENTICATED', 'Please sign in.');
+    if (typeof studyId !== 'string' || !UUID.test(studyId)) {
+      throw new DomainException('VALIDATION_FAILED', 'studyId must be a UUID.', [{ field: 'studyId', message: 'must be a UUID' }]);
+    }
+    if (user.role === 'admin') return true;
+    // Not found rather than forbidden, so outsiders cannot tell which studies exist.
+    if (!(await this.studies.isMember(user.id, studyId))) throw new DomainException('NOT_FOUND', 'No such study.');
+    return true;
+  }
+}
+
+export const StudyMembersOnly = () => applyDecorators(UseGuards(StudyAccessGuard));
