@@ -1,5 +1,5 @@
 import { Injectable, Logger, OnApplicationShutdown, OnModuleInit } from '@nestjs/common';
-import PgBoss = require('pg-boss');
+import PgBoss from 'pg-boss';
 import type { EntityManager } from 'typeorm';
 import { AppConfig } from '../config/app-config';
 import { queryRows } from '../database/raw-query';

@@ -19,6 +19,8 @@ export function createValidationPipe(): ValidationPipe {
     whitelist: true,
     forbidNonWhitelisted: true,
     transform: true,
+    // One message per field: the first rule it breaks.
+    stopAtFirstError: true,
     exceptionFactory: (errors) => new ValidationException(flatten(errors)),
   });
 }
