@@ -123,6 +123,6 @@ wait_for_url() {
 
 build_servers() {
   say "Compiling api and payments stand-in"
-  (cd "$ROOT/api" && ../node_modules/.bin/tsc -p tsconfig.build.json)
-  (cd "$ROOT/payments-fake" && ../node_modules/.bin/tsc -p tsconfig.json)
+  (cd "$ROOT/api" && npm run build --silent)
+  (cd "$ROOT/payments-fake" && npm run build --silent)
 }

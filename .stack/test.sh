@@ -1,0 +1,118 @@
+#!/usr/bin/env bash
+# `npm test`: on a fresh machine, install what is needed, start throwaway services, run every workspace's
+# tests (unit, api end-to-end against PostgreSQL, browser journeys), and stop everything it started.
+source "$(dirname "$0")/lib.sh"
+
+TEST_PG_PORT="${TEST_PG_PORT:-55433}"
+T_API_PORT="${TEST_API_PORT:-3110}"
+T_PORTAL_PORT="${TEST_PORTAL_PORT:-5183}"
+T_ADMIN_PORT="${TEST_ADMIN_PORT:-5184}"
+T_PAYMENTS_PORT="${TEST_PAYMENTS_PORT:-3210}"
+T_SMTP_PORT="${TEST_SMTP_PORT:-1035}"
+T_MAILBOX_PORT="${TEST_MAILBOX_PORT:-1090}"
+
+started_at=$SECONDS
+RUN_DIR="$(mktemp -d "$LOCAL_DIR/test-run.XXXXXX")"
+REPORT_DIR="$RUN_DIR/reports"
+LOG_DIR="$LOCAL_DIR/test-logs"
+mkdir -p "$REPORT_DIR" "$LOG_DIR"
+rm -f "$LOG_DIR"/*.log
+SERVICE_PIDS=()
+FAILED_STEPS=()
+
+cleanup() {
+  local pid
+  for pid in "${SERVICE_PIDS[@]}"; do kill -TERM -- "-$pid" 2>/dev/null || kill -TERM "$pid" 2>/dev/null || true; done
+  sleep 0.5
+  for pid in "${SERVICE_PIDS[@]}"; do kill -KILL -- "-$pid" 2>/dev/null || true; done
+  stop_postgres
+  rm -rf "$RUN_DIR"
+}
+trap cleanup EXIT
+trap 'exit 130' INT TERM
+
+# start_service NAME DIR COMMAND...: runs in its own process group so cleanup stops its children too.
+start_service() {
+  local name="$1" dir="$2"
+  shift 2
+  (cd "$dir" && exec setsid "$@") >"$LOG_DIR/$name.log" 2>&1 &
+  SERVICE_PIDS+=($!)
+}
+
+# step NAME COMMAND...: runs one group of tests; a failure is recorded and the remaining groups still run.
+step() {
+  local name="$1"
+  shift
+  say "── $name"
+  local step_started=$SECONDS
+  if "$@"; then
+    say "   $name passed ($((SECONDS - step_started)) s)"
+  else
+    FAILED_STEPS+=("$name")
+    say "   $name FAILED ($((SECONDS - step_started)) s)"
+  fi
+}
+
+vitest_in() {
+  local workspace="$1" report="$2"
+  shift 2
+  (cd "$ROOT/$workspace" && "$ROOT/node_modules/.bin/vitest" run "$@" --reporter=default --reporter=json \
+    --outputFile.json="$REPORT_DIR/$report.json")
+}
+
+ensure_dependencies
+ensure_postgres_binaries
+ensure_chromium
+PG_PARENT="$(choose_pg_parent "$RUN_DIR/postgres")"
+say "Throwaway PostgreSQL in $PG_PARENT"
+PG_FSYNC=off start_postgres "$PG_PARENT" "$TEST_PG_PORT"
+ensure_database "$TEST_PG_PORT" evenhand_e2e fresh
+ensure_database "$TEST_PG_PORT" evenhand_browser fresh
+build_servers
+
+export NODE_ENV=test
+export SMTP_PORT="$T_SMTP_PORT" STRIPE_PORT="$T_PAYMENTS_PORT"
+export MAILBOX_URL="http://127.0.0.1:$T_MAILBOX_PORT"
+export PORTAL_URL="http://127.0.0.1:$T_PORTAL_PORT" ADMIN_URL="http://127.0.0.1:$T_ADMIN_PORT"
+export SIGN_IN_LIMIT=200
+
+step "api unit tests" vitest_in api api-unit --project unit
+step "payments stand-in tests" vitest_in payments-fake payments-fake
+step "portal component tests" vitest_in portal portal-unit
+step "admin component tests" vitest_in admin admin-unit
+
+say "Starting the local mailbox and the payments stand-in"
+start_service mailbox "$ROOT" "$ROOT/node_modules/.bin/maildev" -s "$T_SMTP_PORT" --ip 127.0.0.1 -w "$T_MAILBOX_PORT" \
+  --web-ip 127.0.0.1 --mail-directory "$RUN_DIR/mailbox"
+PAYMENTS_FAKE_PORT="$T_PAYMENTS_PORT" PAYMENTS_FAKE_WEBHOOK_URL="http://127.0.0.1:$T_API_PORT/api/webhooks/payments" \
+  start_service payments "$ROOT/payments-fake" node --enable-source-maps dist/main.js
+wait_for_url "$MAILBOX_URL/api/email" 60
+wait_for_url "http://127.0.0.1:$T_PAYMENTS_PORT/health" 60
+
+DATABASE_URL="postgres://postgres@127.0.0.1:$TEST_PG_PORT/evenhand_e2e" step "api end-to-end tests" vitest_in api api-e2e --project e2e
+
+say "Starting api, portal and admin for the browser journeys"
+BROWSER_DB="postgres://postgres@127.0.0.1:$TEST_PG_PORT/evenhand_browser"
+(cd "$ROOT/api" && DATABASE_URL="$BROWSER_DB" node dist/database/run-migrations.js && DATABASE_URL="$BROWSER_DB" node dist/database/seed/run-seed.js)
+DATABASE_URL="$BROWSER_DB" API_PORT="$T_API_PORT" start_service api "$ROOT/api" node --enable-source-maps dist/main.js
+for app in portal admin; do
+  step "$app build" bash -c "cd '$ROOT/$app' && npm run build --silent"
+done
+EVENHAND_API_ORIGIN="http://127.0.0.1:$T_API_PORT" start_service portal "$ROOT/portal" \
+  "$ROOT/node_modules/.bin/vite" preview --port "$T_PORTAL_PORT" --strictPort --host 127.0.0.1
+EVENHAND_API_ORIGIN="http://127.0.0.1:$T_API_PORT" start_service admin "$ROOT/admin" \
+  "$ROOT/node_modules/.bin/vite" preview --port "$T_ADMIN_PORT" --strictPort --host 127.0.0.1
+wait_for_url "http://127.0.0.1:$T_API_PORT/api/health" 90
+wait_for_url "$PORTAL_URL" 60
+wait_for_url "$ADMIN_URL" 60
+
+for app in portal admin; do
+  SCREENSHOT_DIR="$LOCAL_DIR/screenshots/$app" step "$app browser journeys" vitest_in "$app" "$app-e2e" --config vitest.e2e.config.ts
+done
+
+node "$ROOT/.stack/summarize-reports.mjs" "$REPORT_DIR"
+say "npm test took $((SECONDS - started_at)) s; service logs in $LOG_DIR, screenshots in $LOCAL_DIR/screenshots"
+if [ "${#FAILED_STEPS[@]}" -gt 0 ]; then
+  printf '\033[1;31m[evenhand]\033[0m failed: %s\n' "${FAILED_STEPS[*]}" >&2
+  exit 1
+fi
