@@ -1,0 +1,10 @@
+// Minimal declarations for the parts of jstat 1.9.6 this folder uses (the package ships no types).
+declare module 'jstat' {
+  interface JStatStatic {
+    chisquare: { cdf(x: number, dof: number): number };
+    normal: { inv(p: number, mean: number, sd: number): number };
+    ibeta(x: number, a: number, b: number): number;
+    combinationln(n: number, k: number): number;
+  }
+  export const jStat: JStatStatic;
+}
