@@ -1,0 +1,16 @@
+import { mkdir } from 'node:fs/promises';
+import { join } from 'node:path';
+import type { Page } from 'playwright-core';
+import { e2eEnv } from './env';
+
+/** Numbered full-page PNGs per journey, so the folder reads in order. */
+export function screenshotTaker(journey: string) {
+  let step = 0;
+  return async (page: Page, name: string): Promise<string> => {
+    step += 1;
+    await mkdir(e2eEnv.screenshotDir, { recursive: true });
+    const path = join(e2eEnv.screenshotDir, `${journey}-${String(step).padStart(2, '0')}-${name}.png`);
+    await page.screenshot({ path, fullPage: true });
+    return path;
+  };
+}

@@ -1,0 +1,38 @@
+import { createBrowserRouter, Navigate, type RouteObject } from 'react-router-dom';
+import { NotFoundRoute } from './routes/not-found';
+import { RootErrorBoundary, RootHydrateFallback, RootLayout } from './routes/root';
+
+export const routes: RouteObject[] = [
+  {
+    id: 'root',
+    element: <RootLayout />,
+    errorElement: <RootErrorBoundary />,
+    hydrateFallbackElement: <RootHydrateFallback />,
+    children: [
+      { index: true, element: <Navigate to="/studies" replace /> },
+      {
+        path: 'sign-in',
+        lazy: async () => ({ Component: (await import('./routes/sign-in')).SignInRoute }),
+      },
+      {
+        path: 'sign-in/link',
+        lazy: async () => ({ Component: (await import('./routes/sign-in-link')).SignInLinkRoute }),
+      },
+      {
+        lazy: async () => ({ Component: (await import('./routes/signed-in-layout')).SignedInLayout }),
+        children: [
+          {
+            path: 'studies',
+            lazy: async () => ({ Component: (await import('./routes/studies')).StudiesRoute }),
+          },
+        ],
+      },
+      // Eager: the root error boundary shows the same screen, so it is in the main bundle anyway.
+      { path: '*', Component: NotFoundRoute },
+    ],
+  },
+];
+
+export function createAppRouter() {
+  return createBrowserRouter(routes);
+}

@@ -1,0 +1,69 @@
+import { useRef } from 'react';
+import { Navigate, Outlet } from 'react-router-dom';
+import { PageLayout } from '@/components/layout/page-layout';
+import { Button } from '@/components/ui/button';
+import { Notice } from '@/components/ui/notice';
+import { Spinner } from '@/components/ui/spinner';
+import { useMe } from '@/features/auth/api/get-me';
+import { useSignOut } from '@/features/auth/api/sign-out';
+import { describeProblem } from '@/lib/problem-message';
+import type { SignInLocationState } from './sign-in';
+
+/** Route guard and frame for everything that needs a session. */
+export function SignedInLayout() {
+  const me = useMe();
+  const signOut = useSignOut();
+  const wasSignedIn = useRef(false);
+  if (me.data) wasSignedIn.current = true;
+
+  if (me.data === null) {
+    const state: SignInLocationState = !signOut.isIdle
+      ? { signedOut: true }
+      : wasSignedIn.current
+        ? { sessionEnded: true }
+        : null;
+    return <Navigate to="/sign-in" replace state={state} />;
+  }
+
+  if (me.isError) {
+    return (
+      <PageLayout>
+        <div className="flex flex-col gap-4">
+          <Notice tone="error" title="We could not check whether you are signed in">
+            {describeProblem(me.error)}
+          </Notice>
+          <Button variant="secondary" onClick={() => void me.refetch()} disabled={me.isFetching}>
+            {me.isFetching ? 'Trying again…' : 'Try again'}
+          </Button>
+        </div>
+      </PageLayout>
+    );
+  }
+
+  if (me.isPending) {
+    return (
+      <PageLayout>
+        <Spinner label="Checking that you are signed in…" />
+      </PageLayout>
+    );
+  }
+
+  const actions = (
+    <Button variant="secondary" onClick={() => signOut.mutate()} disabled={signOut.isPending} className="px-4">
+      {signOut.isPending ? 'Signing out…' : 'Sign out'}
+    </Button>
+  );
+
+  return (
+    <PageLayout actions={actions}>
+      {signOut.isError ? (
+        <div className="mb-6">
+          <Notice tone="error" title="We could not sign you out">
+            {describeProblem(signOut.error)}
+          </Notice>
+        </div>
+      ) : null}
+      <Outlet context={me.data} />
+    </PageLayout>
+  );
+}

@@ -1,0 +1,73 @@
+import { Button } from '@/components/ui/button';
+import { Card } from '@/components/ui/card';
+import { Notice } from '@/components/ui/notice';
+import { Spinner } from '@/components/ui/spinner';
+import { describeProblem } from '@/lib/problem-message';
+import { useStudies, type StudySummary } from '../api/get-studies';
+
+/** The participant's studies, with loading, error and a real empty state. */
+export function YourStudies() {
+  const studies = useStudies();
+
+  if (studies.isPending) return <Spinner label="Loading your studies…" />;
+
+  if (studies.isError) {
+    return (
+      <div className="flex flex-col gap-4">
+        <Notice tone="error" title="We could not load your studies">
+          {describeProblem(studies.error)}
+        </Notice>
+        <Button variant="secondary" onClick={() => void studies.refetch()} disabled={studies.isFetching}>
+          {studies.isFetching ? 'Trying again…' : 'Try again'}
+        </Button>
+      </div>
+    );
+  }
+
+  if (studies.data.length === 0) return <NoStudiesYet />;
+
+  return (
+    <ul className="flex flex-col gap-4" aria-label="Studies you have joined">
+      {studies.data.map((study) => (
+        <StudyItem key={study.id} study={study} />
+      ))}
+    </ul>
+  );
+}
+
+const statusInPlainWords: Record<StudySummary['status'], string> = {
+  draft: 'Not started yet',
+  recruiting: 'Running',
+  paused: 'Paused for now',
+  closed: 'Finished',
+};
+
+function StudyItem({ study }: { study: StudySummary }) {
+  return (
+    <li>
+      <Card className="flex flex-col items-start gap-2">
+        <h2 className="text-heading font-bold">{study.title}</h2>
+        <p className="rounded-full bg-sand px-3 py-1 text-fine font-semibold text-ink">{statusInPlainWords[study.status]}</p>
+      </Card>
+    </li>
+  );
+}
+
+function NoStudiesYet() {
+  return (
+    <Card className="flex flex-col items-start gap-4">
+      <svg aria-hidden="true" viewBox="0 0 64 64" className="size-16">
+        <rect x="10" y="8" width="44" height="52" rx="8" className="fill-clay-tint stroke-clay" strokeWidth="3" />
+        <path d="M22 24h20M22 34h20M22 44h12" className="stroke-clay" strokeWidth="3" strokeLinecap="round" />
+      </svg>
+      <h2 className="text-heading font-bold">No studies yet</h2>
+      <p>
+        When you join a study through a study link, it will appear here — with its steps, what each one pays and how you
+        are getting on.
+      </p>
+      <p className="text-fine text-ink-soft">
+        Got a study link from a research team? Open it, and sign in with this same e-mail address.
+      </p>
+    </Card>
+  );
+}
