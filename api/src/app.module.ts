@@ -11,6 +11,8 @@ import { HealthModule } from './health/health.module';
 import { JobsModule } from './jobs/jobs.module';
 import { MailModule } from './mail/mail.module';
 import { PaymentsModule } from './payments/payments.module';
+import { AssignmentModule } from './randomization/assignment.module';
+import { StepsModule } from './steps/steps.module';
 import { StudiesModule } from './studies/studies.module';
 import { UsersModule } from './users/users.module';
 
@@ -27,6 +29,8 @@ import { UsersModule } from './users/users.module';
     UsersModule,
     AuthModule,
     StudiesModule,
+    StepsModule,
+    AssignmentModule,
     PaymentsModule,
     HealthModule,
   ],

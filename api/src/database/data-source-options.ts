@@ -6,7 +6,16 @@ import { RateLimitWindowEntity } from '../rate-limit/entities/rate-limit-window.
 import { StudyMembershipEntity } from '../studies/entities/study-membership.entity';
 import { StudyEntity } from '../studies/entities/study.entity';
 import { UserEntity } from '../users/entities/user.entity';
+import { EnrollmentEntity } from '../enrollments/entities/enrollment.entity';
+import { AllocationSlotEntity } from '../randomization/entities/allocation-slot.entity';
+import { AllocationEntity } from '../randomization/entities/allocation.entity';
+import { AssignmentSchemeEntity } from '../randomization/entities/assignment-scheme.entity';
+import { StepPayOverrideEntity } from '../steps/entities/step-pay-override.entity';
+import { StepEntity } from '../steps/entities/step.entity';
+import { ConditionEntity } from '../studies/entities/condition.entity';
+import { StratificationFactorEntity } from '../studies/entities/stratification-factor.entity';
 import { Foundation1764600000000 } from './migrations/1764600000000-foundation';
+import { StudyDesign1764600100000 } from './migrations/1764600100000-study-design';
 
 /** Every entity, listed by hand so nothing depends on file globs. */
 export const ENTITIES = [
@@ -17,10 +26,18 @@ export const ENTITIES = [
   StudyMembershipEntity,
   AuditEventEntity,
   RateLimitWindowEntity,
+  ConditionEntity,
+  StratificationFactorEntity,
+  StepEntity,
+  StepPayOverrideEntity,
+  AssignmentSchemeEntity,
+  AllocationSlotEntity,
+  AllocationEntity,
+  EnrollmentEntity,
 ];
 
 /** Every migration in order. Never edit one that has landed; add a new one. */
-export const MIGRATIONS = [Foundation1764600000000];
+export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000];
 
 export function dataSourceOptions(databaseUrl: string): DataSourceOptions {
   return {

@@ -1,9 +1,26 @@
-import { Controller, Get } from '@nestjs/common';
-import { ApiOkResponse, ApiTags } from '@nestjs/swagger';
-import { CurrentUser } from '../common/auth/auth.decorators';
+import { Body, Controller, Get, HttpCode, Param, Patch, Post, Put } from '@nestjs/common';
+import { ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
+import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
-import { StudyListDto } from './dto/study.dto';
+import { uuidParam } from '../common/http/uuid-param';
+import {
+  AddMemberDto,
+  ConditionDto,
+  ConditionListDto,
+  CreateConditionDto,
+  CreateStudyDto,
+  MemberListDto,
+  ReplaceFactorsDto,
+  StratificationFactorListDto,
+  StudyDto,
+  StudyListDto,
+  UpdateConditionDto,
+  UpdateStudyDto,
+} from './dto/study.dto';
 import { StudiesService } from './studies.service';
+import { StudyMembersOnly } from './study-access.guard';
+
+const DESIGNERS = ['coordinator', 'researcher', 'admin'] as const;
 
 @ApiTags('studies')
 @Controller('studies')
@@ -14,5 +31,116 @@ export class StudiesController {
   @ApiOkResponse({ type: StudyListDto })
   list(@CurrentUser() user: SessionUser): Promise<StudyListDto> {
     return this.studies.listFor(user);
+  }
+
+  @Post()
+  @Roles(...DESIGNERS)
+  @ApiCreatedResponse({ type: StudyDto })
+  create(@CurrentUser() user: SessionUser, @Body() body: CreateStudyDto): Promise<StudyDto> {
+    return this.studies.create(user, body);
+  }
+
+  @Get(':studyId')
+  @Roles('coordinator', 'researcher', 'auditor', 'admin')
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: StudyDto })
+  async get(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<StudyDto> {
+    return this.studies.toDto(await this.studies.require(studyId));
+  }
+
+  @Patch(':studyId')
+  @Roles(...DESIGNERS)
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: StudyDto })
+  update(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: UpdateStudyDto): Promise<StudyDto> {
+    return this.studies.update(user, studyId, body);
+  }
+
+  @Post(':studyId/open')
+  @HttpCode(200)
+  @Roles(...DESIGNERS)
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: StudyDto })
+  open(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<StudyDto> {
+    return this.studies.transition(user, studyId, 'open');
+  }
+
+  @Post(':studyId/pause')
+  @HttpCode(200)
+  @Roles(...DESIGNERS)
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: StudyDto })
+  pause(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<StudyDto> {
+    return this.studies.transition(user, studyId, 'pause');
+  }
+
+  @Post(':studyId/close')
+  @HttpCode(200)
+  @Roles(...DESIGNERS)
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: StudyDto })
+  close(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<StudyDto> {
+    return this.studies.transition(user, studyId, 'close');
+  }
+
+  @Get(':studyId/conditions')
+  @Roles('coordinator', 'researcher', 'auditor', 'admin')
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: ConditionListDto })
+  async conditions(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<ConditionListDto> {
+    return { items: await this.studies.listConditions(studyId) };
+  }
+
+  @Post(':studyId/conditions')
+  @Roles(...DESIGNERS)
+  @StudyMembersOnly()
+  @ApiCreatedResponse({ type: ConditionDto })
+  addCondition(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: CreateConditionDto): Promise<ConditionDto> {
+    return this.studies.createCondition(user, studyId, body);
+  }
+
+  @Patch(':studyId/conditions/:conditionId')
+  @Roles(...DESIGNERS)
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: ConditionDto })
+  updateCondition(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('conditionId', uuidParam('conditionId')) conditionId: string,
+    @Body() body: UpdateConditionDto,
+  ): Promise<ConditionDto> {
+    return this.studies.updateCondition(user, studyId, conditionId, body);
+  }
+
+  @Get(':studyId/stratification-factors')
+  @Roles('coordinator', 'researcher', 'auditor', 'admin')
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: StratificationFactorListDto })
+  factors(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<StratificationFactorListDto> {
+    return this.studies.listFactors(studyId);
+  }
+
+  @Put(':studyId/stratification-factors')
+  @Roles(...DESIGNERS)
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: StratificationFactorListDto })
+  replaceFactors(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: ReplaceFactorsDto): Promise<StratificationFactorListDto> {
+    return this.studies.replaceFactors(user, studyId, body.factors);
+  }
+
+  @Get(':studyId/members')
+  @Roles('coordinator', 'researcher', 'auditor', 'admin')
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: MemberListDto })
+  members(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<MemberListDto> {
+    return this.studies.listMembers(studyId);
+  }
+
+  @Post(':studyId/members')
+  @Roles('coordinator', 'researcher', 'admin')
+  @StudyMembersOnly()
+  @ApiCreatedResponse({ type: MemberListDto })
+  addMember(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: AddMemberDto): Promise<MemberListDto> {
+    return this.studies.addMember(user, studyId, body);
   }
 }

@@ -1,7 +1,14 @@
 import { Module } from '@nestjs/common';
+import { AuditModule } from '../audit/audit.module';
+import { RandomizationModule } from '../randomization/randomization.module';
 import { StudiesController } from './studies.controller';
 import { StudiesService } from './studies.service';
 import { StudyAccessGuard } from './study-access.guard';
 
-@Module({ controllers: [StudiesController], providers: [StudiesService, StudyAccessGuard], exports: [StudiesService, StudyAccessGuard] })
+@Module({
+  imports: [AuditModule, RandomizationModule],
+  controllers: [StudiesController],
+  providers: [StudiesService, StudyAccessGuard],
+  exports: [StudiesService, StudyAccessGuard],
+})
 export class StudiesModule {}

@@ -1,34 +1,357 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
-import { DataSource } from 'typeorm';
+import { DataSource, EntityManager } from 'typeorm';
+import { AuditService } from '../audit/audit.service';
 import type { SessionUser } from '../common/auth/session-user';
-import { StudyListDto } from './dto/study.dto';
+import { DomainException } from '../common/errors/domain.exception';
+import { RandomizationService } from '../randomization/randomization.service';
+import type { StudyDesignSnapshot } from '../randomization/study-design-snapshot';
+import { factorLevels } from '../randomization/strata';
+import { PRETEST_CUTOFF_EXPLANATION } from '../randomization/strata';
+import { UserEntity } from '../users/entities/user.entity';
+import {
+  AddMemberDto,
+  ConditionDto,
+  CreateConditionDto,
+  CreateStudyDto,
+  MemberListDto,
+  StratificationFactorInputDto,
+  StratificationFactorListDto,
+  StudyDto,
+  StudyListDto,
+  UpdateConditionDto,
+  UpdateStudyDto,
+} from './dto/study.dto';
+import { ConditionEntity } from './entities/condition.entity';
+import { StratificationFactorEntity } from './entities/stratification-factor.entity';
 import { StudyMembershipEntity } from './entities/study-membership.entity';
-import { StudyEntity } from './entities/study.entity';
+import { StudyEntity, StudyStatus } from './entities/study.entity';
+import { checkFactorDefinitions } from './stratification-factor-rules';
+
+type Transition = 'open' | 'pause' | 'close';
+
+const ALLOWED_TRANSITIONS: Record<Transition, StudyStatus[]> = {
+  open: ['draft', 'paused'],
+  pause: ['recruiting'],
+  close: ['recruiting', 'paused'],
+};
+const STATUS_AFTER: Record<Transition, StudyStatus> = { open: 'recruiting', pause: 'paused', close: 'closed' };
+
+/** Neutral codes for conditions, shown instead of names while a study is blinded. */
+function conditionCode(position: number): string {
+  return String.fromCharCode('A'.charCodeAt(0) + ((position - 1) % 26)) + (position > 26 ? String(Math.ceil(position / 26)) : '');
+}
 
 @Injectable()
 export class StudiesService {
-  constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly audit: AuditService,
+    private readonly randomization: RandomizationService,
+  ) {}
 
-  /** Admins see every study; other staff only those they are members of; participants those they take part in. */
+  /** Admins and auditors see every study; other staff only those they are members of; participants those they take part in. */
   async listFor(user: SessionUser): Promise<StudyListDto> {
     const builder = this.dataSource.getRepository(StudyEntity).createQueryBuilder('study');
     if (user.role === 'participant') {
-      // Participants take part through enrollments, which arrive with the consent work.
-      return { items: [] };
-    }
-    if (user.role !== 'admin') {
+      builder.innerJoin('enrollment', 'enrollment', 'enrollment.study_id = study.id AND enrollment.participant_id = :userId', { userId: user.id });
+    } else if (user.role !== 'admin' && user.role !== 'auditor') {
       builder.innerJoin(StudyMembershipEntity, 'membership', 'membership.study_id = study.id AND membership.user_id = :userId', {
         userId: user.id,
       });
     }
     const studies = await builder.orderBy('study.created_at', 'DESC').getMany();
-    return {
-      items: studies.map(({ id, slug, title, status, design }) => ({ id, slug, title, status, design })),
-    };
+    return { items: studies.map(({ id, slug, title, status, design }) => ({ id, slug, title, status, design })) };
   }
 
   async isMember(userId: string, studyId: string): Promise<boolean> {
     return this.dataSource.getRepository(StudyMembershipEntity).exists({ where: { userId, studyId } });
+  }
+
+  async findBySlug(slug: string): Promise<StudyEntity | null> {
+    return this.dataSource.getRepository(StudyEntity).findOne({ where: { slug } });
+  }
+
+  async require(studyId: string, manager: EntityManager = this.dataSource.manager, lock = false): Promise<StudyEntity> {
+    const study = await manager.findOne(StudyEntity, { where: { id: studyId }, ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}) });
+    if (!study) throw new DomainException('NOT_FOUND', 'No such study.');
+    return study;
+  }
+
+  async toDto(study: StudyEntity): Promise<StudyDto> {
+    return {
+      id: study.id,
+      slug: study.slug,
+      title: study.title,
+      status: study.status,
+      design: study.design,
+      protocolNumber: study.protocolNumber,
+      summary: study.summary,
+      estimatedMinutes: study.estimatedMinutes,
+      targetSize: study.targetSize,
+      budgetMinor: study.budgetMinor,
+      currency: study.currency,
+      blinded: study.blinded,
+      openedAt: study.openedAt?.toISOString() ?? null,
+      closedAt: study.closedAt?.toISOString() ?? null,
+      createdAt: study.createdAt.toISOString(),
+      designLocked: await this.randomization.hasAllocations(study.id),
+    };
+  }
+
+  async create(actor: SessionUser, input: CreateStudyDto): Promise<StudyDto> {
+    const study = await this.dataSource.transaction(async (manager) => {
+      if (await manager.exists(StudyEntity, { where: { slug: input.slug } })) {
+        throw new DomainException('CONFLICT', 'Another study already uses this link name.', [{ field: 'slug', message: 'is already taken' }]);
+      }
+      const created = await manager.save(manager.create(StudyEntity, { ...input, createdBy: actor.id, status: 'draft' }));
+      await manager.insert(StudyMembershipEntity, { studyId: created.id, userId: actor.id, role: actor.role });
+      await this.audit.record(manager, {
+        chain: created.id,
+        actor,
+        action: 'study.created',
+        subjectType: 'study',
+        subjectId: created.id,
+        data: { slug: created.slug, title: created.title, design: created.design },
+      });
+      return created;
+    });
+    return this.toDto(study);
+  }
+
+  async update(actor: SessionUser, studyId: string, input: UpdateStudyDto): Promise<StudyDto> {
+    const study = await this.dataSource.transaction(async (manager) => {
+      const current = await this.require(studyId, manager, true);
+      if (current.status === 'closed') throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+      if (input.design && input.design !== current.design && current.status !== 'draft') {
+        throw new DomainException('CONFLICT', 'The design cannot change once the study has opened.', [{ field: 'design', message: 'is fixed after opening' }]);
+      }
+      const changes = Object.fromEntries(Object.entries(input).filter(([k, v]) => v !== undefined && (current as never)[k] !== v));
+      if (Object.keys(changes).length === 0) return current;
+      Object.assign(current, changes);
+      const saved = await manager.save(current);
+      await this.audit.record(manager, { chain: studyId, actor, action: 'study.updated', subjectType: 'study', subjectId: studyId, data: { changes } });
+      return saved;
+    });
+    return this.toDto(study);
+  }
+
+  async transition(actor: SessionUser, studyId: string, transition: Transition): Promise<StudyDto> {
+    const study = await this.dataSource.transaction(async (manager) => {
+      const current = await this.require(studyId, manager, true);
+      if (!ALLOWED_TRANSITIONS[transition].includes(current.status)) {
+        throw new DomainException('CONFLICT', `A ${current.status} study cannot be ${transition === 'open' ? 'opened' : transition === 'pause' ? 'paused' : 'closed'}.`);
+      }
+      if (transition === 'open' && current.status === 'draft') {
+        const snapshot = await this.designSnapshot(studyId, manager);
+        if (snapshot.conditions.length < 2) {
+          throw new DomainException('CONFLICT', 'A study needs at least two conditions before it opens.', [
+            { field: 'conditions', message: 'add at least two conditions' },
+          ]);
+        }
+        await this.randomization.sealForOpening(manager, actor, studyId, snapshot);
+        current.openedAt = new Date();
+      }
+      if (transition === 'close') {
+        current.closedAt = new Date();
+        await this.randomization.revealSeed(manager, actor, studyId, { kind: 'closed' });
+      }
+      const from = current.status;
+      current.status = STATUS_AFTER[transition];
+      const saved = await manager.save(current);
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: `study.${transition === 'open' ? 'opened' : transition === 'pause' ? 'paused' : 'closed'}`,
+        subjectType: 'study',
+        subjectId: studyId,
+        data: { from, to: saved.status },
+      });
+      return saved;
+    });
+    return this.toDto(study);
+  }
+
+  /** What the assignment engine needs to know about the design, read in the caller's transaction. */
+  async designSnapshot(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<StudyDesignSnapshot> {
+    const study = await this.require(studyId, manager);
+    const conditions = await manager.find(ConditionEntity, { where: { studyId }, order: { position: 'ASC' } });
+    const factors = await manager.find(StratificationFactorEntity, { where: { studyId }, order: { position: 'ASC' } });
+    return {
+      design: study.design,
+      conditions: conditions.map((c) => ({ id: c.id, weight: c.allocationWeight })),
+      factors: factors.map((f) => ({ key: f.key, kind: f.kind, cutPoints: f.cutPoints, categories: f.categories, minimizationWeight: f.minimizationWeight })),
+    };
+  }
+
+  // ── conditions ────────────────────────────────────────────────────────────
+
+  async listConditions(studyId: string): Promise<ConditionDto[]> {
+    const study = await this.require(studyId);
+    const conditions = await this.dataSource.getRepository(ConditionEntity).find({ where: { studyId }, order: { position: 'ASC' } });
+    const scheme = await this.randomization.schemeOf(studyId);
+    const hideNames = study.blinded && study.status !== 'draft' && !scheme?.unblindedAt;
+    return conditions.map((c) => this.conditionDto(c, hideNames));
+  }
+
+  hasCondition(studyId: string, conditionId: string, manager: EntityManager = this.dataSource.manager): Promise<boolean> {
+    return manager.exists(ConditionEntity, { where: { id: conditionId, studyId } });
+  }
+
+  private conditionDto(c: ConditionEntity, hideName: boolean): ConditionDto {
+    return {
+      id: c.id,
+      code: c.code,
+      internalName: hideName ? null : c.internalName,
+      participantLabel: c.participantLabel,
+      participantInstructions: c.participantInstructions,
+      allocationWeight: c.allocationWeight,
+      position: c.position,
+    };
+  }
+
+  async createCondition(actor: SessionUser, studyId: string, input: CreateConditionDto): Promise<ConditionDto> {
+    return this.changeDesign(actor, studyId, 'Conditions', async (manager) => {
+      const [{ max }] = await manager.query(`SELECT coalesce(max(position), 0) AS max FROM condition WHERE study_id = $1`, [studyId]);
+      const position = Number(max) + 1;
+      await this.refuseDuplicateConditionName(manager, studyId, input.internalName);
+      const condition = await manager.save(
+        manager.create(ConditionEntity, {
+          studyId,
+          position,
+          code: conditionCode(position),
+          internalName: input.internalName,
+          participantLabel: input.participantLabel,
+          participantInstructions: input.participantInstructions ?? '',
+          allocationWeight: input.allocationWeight ?? 1,
+        }),
+      );
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'condition.created',
+        subjectType: 'condition',
+        subjectId: condition.id,
+        data: { code: condition.code, internalName: condition.internalName, allocationWeight: condition.allocationWeight },
+      });
+      return this.conditionDto(condition, false);
+    });
+  }
+
+  async updateCondition(actor: SessionUser, studyId: string, conditionId: string, input: UpdateConditionDto): Promise<ConditionDto> {
+    // What participants read can be corrected at any time; what assignment depends on cannot after the first assignment.
+    const touchesAssignment = input.allocationWeight !== undefined;
+    const apply = async (manager: EntityManager) => {
+      const condition = await manager.findOne(ConditionEntity, { where: { id: conditionId, studyId } });
+      if (!condition) throw new DomainException('NOT_FOUND', 'No such condition in this study.');
+      if (input.internalName && input.internalName.toLowerCase() !== condition.internalName.toLowerCase()) {
+        await this.refuseDuplicateConditionName(manager, studyId, input.internalName);
+      }
+      const changes = Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined));
+      Object.assign(condition, changes);
+      const saved = await manager.save(condition);
+      await this.audit.record(manager, { chain: studyId, actor, action: 'condition.updated', subjectType: 'condition', subjectId: conditionId, data: { changes } });
+      return this.conditionDto(saved, false);
+    };
+    if (touchesAssignment) return this.changeDesign(actor, studyId, 'Allocation weights', apply);
+    return this.dataSource.transaction(async (manager) => {
+      const study = await this.require(studyId, manager, true);
+      if (study.status === 'closed') throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+      return apply(manager);
+    });
+  }
+
+  private async refuseDuplicateConditionName(manager: EntityManager, studyId: string, name: string): Promise<void> {
+    const [clash] = await manager.query(`SELECT 1 FROM condition WHERE study_id = $1 AND lower(internal_name) = lower($2)`, [studyId, name]);
+    if (clash) throw new DomainException('CONFLICT', 'Another condition already has this name.', [{ field: 'internalName', message: 'is already used in this study' }]);
+  }
+
+  // ── stratification factors ────────────────────────────────────────────────
+
+  async listFactors(studyId: string): Promise<StratificationFactorListDto> {
+    await this.require(studyId);
+    const factors = await this.dataSource.getRepository(StratificationFactorEntity).find({ where: { studyId }, order: { position: 'ASC' } });
+    return { items: factors.map((f) => this.factorDto(f)), pretestNote: PRETEST_CUTOFF_EXPLANATION };
+  }
+
+  private factorDto(f: StratificationFactorEntity) {
+    const levels =
+      f.kind === 'numeric'
+        ? factorLevels({ id: f.key, kind: 'numeric', cutPoints: f.cutPoints ?? [] })
+        : factorLevels({ id: f.key, kind: 'categorical', categories: f.categories ?? [] });
+    return { id: f.id, key: f.key, label: f.label, kind: f.kind, cutPoints: f.cutPoints, categories: f.categories, minimizationWeight: f.minimizationWeight, levels };
+  }
+
+  async replaceFactors(actor: SessionUser, studyId: string, factors: StratificationFactorInputDto[]): Promise<StratificationFactorListDto> {
+    checkFactorDefinitions(factors);
+    await this.changeDesign(actor, studyId, 'Stratification factors', async (manager) => {
+      await manager.delete(StratificationFactorEntity, { studyId });
+      await manager.insert(
+        StratificationFactorEntity,
+        factors.map((f, i) => ({
+          studyId,
+          key: f.key,
+          label: f.label,
+          kind: f.kind,
+          cutPoints: f.kind === 'numeric' ? f.cutPoints! : null,
+          categories: f.kind === 'categorical' ? f.categories! : null,
+          minimizationWeight: f.minimizationWeight ?? 1,
+          position: i + 1,
+        })),
+      );
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'stratification.replaced',
+        subjectType: 'study',
+        subjectId: studyId,
+        data: { factors: factors.map((f) => ({ key: f.key, kind: f.kind, cutPoints: f.cutPoints ?? null, categories: f.categories ?? null })) },
+      });
+    });
+    return this.listFactors(studyId);
+  }
+
+  /**
+   * Runs a change to what assignment depends on: refused in a closed study or after the first assignment;
+   * in an open study with nobody assigned yet, the sequence is sealed again under a new seed and commitment.
+   */
+  private async changeDesign<T>(actor: SessionUser, studyId: string, what: string, change: (manager: EntityManager) => Promise<T>): Promise<T> {
+    return this.dataSource.transaction(async (manager) => {
+      const study = await this.require(studyId, manager, true);
+      if (study.status === 'closed') throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+      await this.randomization.assertDesignUnlocked(manager, studyId, what);
+      const result = await change(manager);
+      if (study.status !== 'draft') await this.randomization.recommitAfterDesignChange(manager, actor, studyId, await this.designSnapshot(studyId, manager));
+      return result;
+    });
+  }
+
+  // ── members ───────────────────────────────────────────────────────────────
+
+  async listMembers(studyId: string): Promise<MemberListDto> {
+    await this.require(studyId);
+    const rows: Array<{ user_id: string; email: string; name: string; role: string }> = await this.dataSource.query(
+      `SELECT m.user_id, u.email, u.name, m.role FROM study_membership m JOIN user_account u ON u.id = m.user_id
+       WHERE m.study_id = $1 ORDER BY u.name, u.email`,
+      [studyId],
+    );
+    return { items: rows.map((r) => ({ userId: r.user_id, email: r.email, name: r.name, role: r.role as never })) };
+  }
+
+  async addMember(actor: SessionUser, studyId: string, input: AddMemberDto): Promise<MemberListDto> {
+    await this.dataSource.transaction(async (manager) => {
+      await this.require(studyId, manager);
+      const user = await manager.findOne(UserEntity, { where: { email: input.email } });
+      if (!user || user.role === 'participant' || !user.active) {
+        throw new DomainException('NOT_FOUND', 'No active staff account has this e-mail.', [{ field: 'email', message: 'is not an active staff account' }]);
+      }
+      await manager.query(
+        `INSERT INTO study_membership (study_id, user_id, role) VALUES ($1, $2, $3)
+         ON CONFLICT (study_id, user_id) DO UPDATE SET role = EXCLUDED.role`,
+        [studyId, user.id, input.role],
+      );
+      await this.audit.record(manager, { chain: studyId, actor, action: 'study.member-added', subjectType: 'user', subjectId: user.id, data: { email: user.email, role: input.role } });
+    });
+    return this.listMembers(studyId);
   }
 }

@@ -6,7 +6,7 @@ import { StudiesService } from './studies.service';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
-/** For routes under /studies/:studyId: only members of that study (and admins) get through. */
+/** For routes under /studies/:studyId: only members of that study (and admins and auditors) get through. */
 @Injectable()
 export class StudyAccessGuard implements CanActivate {
   constructor(private readonly studies: StudiesService) {}
@@ -19,7 +19,8 @@ export class StudyAccessGuard implements CanActivate {
     if (typeof studyId !== 'string' || !UUID.test(studyId)) {
       throw new DomainException('VALIDATION_FAILED', 'studyId must be a UUID.', [{ field: 'studyId', message: 'must be a UUID' }]);
     }
-    if (user.role === 'admin') return true;
+    // Admins manage every study; auditors read every study (their role allows no writes).
+    if (user.role === 'admin' || user.role === 'auditor') return true;
     // Not found rather than forbidden, so outsiders cannot tell which studies exist.
     if (!(await this.studies.isMember(user.id, studyId))) throw new DomainException('NOT_FOUND', 'No such study.');
     return true;

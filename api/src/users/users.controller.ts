@@ -1,4 +1,5 @@
-import { Body, Controller, Get, Param, ParseUUIDPipe, Patch, Post, Query } from '@nestjs/common';
+import { Body, Controller, Get, Param, Patch, Post, Query } from '@nestjs/common';
+import { uuidParam } from '../common/http/uuid-param';
 import { ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
@@ -27,7 +28,7 @@ export class UsersController {
   @ApiOkResponse({ type: StaffUserDto })
   update(
     @CurrentUser() actor: SessionUser,
-    @Param('id', new ParseUUIDPipe()) id: string,
+    @Param('id', uuidParam('id')) id: string,
     @Body() body: UpdateStaffUserDto,
   ): Promise<StaffUserDto> {
     return this.users.updateStaff(actor, id, body);

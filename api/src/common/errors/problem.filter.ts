@@ -1,6 +1,7 @@
 import { ArgumentsHost, Catch, ExceptionFilter, HttpException, HttpStatus, Logger } from '@nestjs/common';
 import { ThrottlerException } from '@nestjs/throttler';
 import type { Response } from 'express';
+import { RandomizationError } from '../../randomization/randomization-error';
 import { DomainException } from './domain.exception';
 import { ErrorCode, HTTP_STATUS_BY_CODE, Problem } from './error-codes';
 
@@ -28,6 +29,14 @@ export function toProblem(exception: unknown): Problem {
     };
     if (exception.errors) problem.errors = exception.errors;
     return problem;
+  }
+  if (exception instanceof RandomizationError) {
+    return {
+      statusCode: 400,
+      code: 'VALIDATION_FAILED',
+      message: 'The assignment settings are not valid.',
+      errors: exception.fieldErrors,
+    };
   }
   if (exception instanceof ThrottlerException) {
     return {

@@ -1,3 +1,4 @@
+import { bigintAsNumber } from '../../database/column-transformers';
 import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
 
 export const STUDY_DESIGNS = ['between', 'within'] as const;
@@ -30,14 +31,29 @@ export class StudyEntity {
   targetSize: number | null;
 
   /** Minor units of `currency`. */
-  @Column({ name: 'budget_minor', type: 'bigint', default: 0 })
-  budgetMinor: string;
+  @Column({ name: 'budget_minor', type: 'bigint', default: 0, transformer: bigintAsNumber })
+  budgetMinor: number;
 
   @Column({ type: 'char', length: 3, default: 'USD' })
   currency: string;
 
   @Column({ type: 'boolean', default: true })
   blinded: boolean;
+
+  @Column({ type: 'text', default: '' })
+  summary: string;
+
+  @Column({ name: 'estimated_minutes', type: 'integer', nullable: true })
+  estimatedMinutes: number | null;
+
+  @Column({ name: 'opened_at', type: 'timestamptz', nullable: true })
+  openedAt: Date | null;
+
+  @Column({ name: 'closed_at', type: 'timestamptz', nullable: true })
+  closedAt: Date | null;
+
+  @Column({ name: 'created_by', type: 'uuid', nullable: true })
+  createdBy: string | null;
 
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
   createdAt: Date;

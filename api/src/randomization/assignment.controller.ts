@@ -1,0 +1,106 @@
+import { Body, Controller, Get, HttpCode, Param, Post, Put } from '@nestjs/common';
+import { ApiOkResponse, ApiTags } from '@nestjs/swagger';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource } from 'typeorm';
+import { CurrentUser, Roles } from '../common/auth/auth.decorators';
+import type { SessionUser } from '../common/auth/session-user';
+import { DomainException } from '../common/errors/domain.exception';
+import { uuidParam } from '../common/http/uuid-param';
+import { StudiesService } from '../studies/studies.service';
+import { StudyMembersOnly } from '../studies/study-access.guard';
+import { AssignmentDto, DryRunRequestDto, DryRunResultDto, PutAssignmentSchemeDto, UnblindDto, VerificationDto } from './dto/assignment.dto';
+import { RandomizationService } from './randomization.service';
+import { SchemeMethod } from './scheme-parameters';
+import { generateSeed } from './seeded-stream';
+import { PRETEST_CUTOFF_EXPLANATION } from './strata';
+import type { SchemeSettings } from './study-design-snapshot';
+
+@ApiTags('assignment')
+@Controller('studies/:studyId')
+@StudyMembersOnly()
+export class AssignmentController {
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly randomization: RandomizationService,
+    private readonly studies: StudiesService,
+  ) {}
+
+  @Put('assignment-scheme')
+  @Roles('coordinator', 'researcher', 'admin')
+  @ApiOkResponse({ type: AssignmentDto })
+  async putScheme(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: PutAssignmentSchemeDto): Promise<AssignmentDto> {
+    const { method, ...settings } = body;
+    await this.dataSource.transaction(async (manager) => {
+      const study = await this.studies.require(studyId, manager, true);
+      if (study.status === 'closed') throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+      const snapshot = await this.studies.designSnapshot(studyId, manager);
+      await this.randomization.saveScheme(manager, user, studyId, method, settings, snapshot, study.status !== 'draft');
+    });
+    return this.get(studyId);
+  }
+
+  @Get('assignment')
+  @Roles('coordinator', 'researcher', 'auditor', 'admin')
+  @ApiOkResponse({ type: AssignmentDto })
+  async get(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<AssignmentDto> {
+    await this.studies.require(studyId);
+    const overview = await this.randomization.overview(studyId);
+    const scheme = await this.randomization.schemeOf(studyId);
+    return {
+      ...overview,
+      settings: overview.settings as Record<string, unknown>,
+      sealedParameters: scheme?.sealedParameters ?? null,
+      committedAt: overview.committedAt?.toISOString() ?? null,
+      seedRevealedAt: overview.seedRevealedAt?.toISOString() ?? null,
+      unblindedAt: overview.unblindedAt?.toISOString() ?? null,
+      balance: overview.balance.map((s) => ({
+        stratumKey: s.stratumKey,
+        total: s.total,
+        counts: Object.entries(s.counts).map(([armId, count]) => ({ armId, count })),
+      })),
+      pretestNote: PRETEST_CUTOFF_EXPLANATION,
+    };
+  }
+
+  @Post('assignment/dry-run')
+  @HttpCode(200)
+  @Roles('coordinator', 'researcher', 'admin')
+  @ApiOkResponse({ type: DryRunResultDto })
+  async dryRun(@Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: DryRunRequestDto): Promise<DryRunResultDto> {
+    const snapshot = await this.studies.designSnapshot(studyId);
+    const saved = await this.randomization.schemeOf(studyId);
+    const method = (body.method ?? saved?.method) as SchemeMethod | undefined;
+    if (!method) throw new DomainException('VALIDATION_FAILED', 'Choose a scheme to simulate.', [{ field: 'method', message: 'is required when no scheme is saved' }]);
+    const settings = (body.method ? (body.settings ?? {}) : (saved?.settings ?? {})) as SchemeSettings;
+    // A throwaway seed, returned so the same simulation can be run again; never the study's sealed seed.
+    const seed = body.seed?.toLowerCase() ?? generateSeed();
+    const result = this.randomization.dryRun(method, settings, snapshot, { arrivals: body.arrivals, seed, covariateMix: body.covariateMix });
+    return { ...(result as unknown as DryRunResultDto), seed };
+  }
+
+  @Post('unblind')
+  @HttpCode(200)
+  @Roles('researcher', 'admin')
+  @ApiOkResponse({ type: AssignmentDto })
+  async unblind(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: UnblindDto): Promise<AssignmentDto> {
+    await this.dataSource.transaction(async (manager) => {
+      await this.studies.require(studyId, manager, true);
+      const scheme = await this.randomization.schemeOf(studyId, manager);
+      if (!scheme?.commitment) throw new DomainException('CONFLICT', 'There is nothing to unblind: the study has not opened.');
+      await this.randomization.revealSeed(manager, user, studyId, { kind: 'unblinded', text: body.reason });
+    });
+    return this.get(studyId);
+  }
+
+  @Get('assignment/verify')
+  @Roles('coordinator', 'researcher', 'auditor', 'admin')
+  @ApiOkResponse({ type: VerificationDto })
+  async verify(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<VerificationDto> {
+    await this.studies.require(studyId);
+    const report = await this.randomization.verify(studyId);
+    return {
+      ...report,
+      checks: report.checks.map(({ participantId, ...check }) => ({ ...check, enrollmentId: participantId, expected: check.expected, recorded: check.recorded })),
+    };
+  }
+}

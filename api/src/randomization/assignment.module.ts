@@ -1,0 +1,8 @@
+import { Module } from '@nestjs/common';
+import { StudiesModule } from '../studies/studies.module';
+import { AssignmentController } from './assignment.controller';
+import { RandomizationModule } from './randomization.module';
+
+/** The assignment routes, which combine a study's design (studies) with the engine (randomization). */
+@Module({ imports: [StudiesModule, RandomizationModule], controllers: [AssignmentController] })
+export class AssignmentModule {}

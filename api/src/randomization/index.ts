@@ -1,0 +1,18 @@
+export type { FieldError } from './randomization-error';
+export { RandomizationError, RandomizationErrorCode } from './randomization-error';
+export * from './scheme-parameters';
+export * from './seeded-stream';
+export * from './strata';
+export * from './commitment';
+export * from './schemes/allocation-slot';
+export * from './schemes/simple';
+export * from './schemes/permuted-blocks';
+export { generateStratifiedSequences, generateStratumSequence, stratumOfParticipant } from './schemes/stratified-blocks';
+export * from './schemes/minimization';
+export * from './schemes/matched-pairs';
+export * from './within/counterbalance';
+export * from './within/latin-square';
+export * from './within/williams';
+export * from './within/order-sequence';
+export * from './derive-sequence';
+export * from './dry-run';

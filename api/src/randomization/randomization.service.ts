@@ -1,0 +1,428 @@
+import { Injectable } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource, EntityManager } from 'typeorm';
+import { AuditActor, AuditService } from '../audit/audit.service';
+import { DomainException } from '../common/errors/domain.exception';
+import { computeCommitment } from './commitment';
+import { generateSlots, RecordedAllocation, slotStratumKey, usesSlots, verifyAllocations, VerificationReport } from './derive-sequence';
+import { DryRunResult, runDryRun, CovariateDistribution } from './dry-run';
+import { AllocationSlotEntity } from './entities/allocation-slot.entity';
+import { AllocationEntity } from './entities/allocation.entity';
+import { AssignmentSchemeEntity } from './entities/assignment-scheme.entity';
+import { isWithinDesign, parseSchemeParameters, SchemeMethod, SchemeParameters } from './scheme-parameters';
+import { assignByMinimization, emptyTallyOf, MinimizationTally } from './schemes/minimization';
+import { generateSeed } from './seeded-stream';
+
+import { buildSchemeParameters, SchemeSettings, StudyDesignSnapshot } from './study-design-snapshot';
+import type { AllocationSlot } from './schemes/allocation-slot';
+import type { OrderSlot } from './within/order-sequence';
+
+/** Covariates as stored: answers by key, numbers or categories. */
+export type CovariateRecord = Record<string, number | string | null>;
+
+/** Slots are generated ahead in batches of this many per stratum, deterministically from the seed. */
+const SLOT_BATCH = 64;
+
+export interface AllocationOutcome {
+  conditionId: string | null;
+  conditionOrder: string[] | null;
+  stratumKey: string;
+  sequence: number;
+  slotPosition: number | null;
+}
+
+export interface AssignmentOverview {
+  method: string | null;
+  settings: SchemeSettings;
+  commitment: string | null;
+  committedAt: Date | null;
+  seed: string | null;
+  seedRevealedAt: Date | null;
+  unblindedAt: Date | null;
+  unblindReason: string | null;
+  allocated: number;
+  balance: Array<{ stratumKey: string; total: number; counts: Record<string, number> }>;
+}
+
+@Injectable()
+export class RandomizationService {
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly audit: AuditService,
+  ) {}
+
+  async hasAllocations(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<boolean> {
+    return manager.exists(AllocationEntity, { where: { studyId } });
+  }
+
+  async schemeOf(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<AssignmentSchemeEntity | null> {
+    return manager.findOne(AssignmentSchemeEntity, { where: { studyId } });
+  }
+
+  /** Checks settings against the current design without saving (used when the design changes). */
+  preview(method: SchemeMethod, settings: SchemeSettings, snapshot: StudyDesignSnapshot): SchemeParameters {
+    return buildSchemeParameters(method, settings, snapshot);
+  }
+
+  /** Saves the researcher's choice of scheme. Refused once anyone has been assigned. */
+  async saveScheme(
+    manager: EntityManager,
+    actor: AuditActor,
+    studyId: string,
+    method: SchemeMethod,
+    settings: SchemeSettings,
+    snapshot: StudyDesignSnapshot,
+    studyIsOpen: boolean,
+  ): Promise<AssignmentSchemeEntity> {
+    await this.refuseIfAllocated(manager, studyId, 'The assignment scheme');
+    const parameters = buildSchemeParameters(method, settings, snapshot);
+    await manager.upsert(AssignmentSchemeEntity, { studyId, method, settings: settings as never }, ['studyId']);
+    await this.audit.record(manager, {
+      chain: studyId,
+      actor,
+      action: 'assignment.scheme-saved',
+      subjectType: 'study',
+      subjectId: studyId,
+      data: { method, settings },
+    });
+    if (studyIsOpen) await this.commit(manager, actor, studyId, parameters, 'recommitted');
+    return (await this.schemeOf(studyId, manager))!;
+  }
+
+  /**
+   * Seals the scheme when a study opens (or when its design changes before anyone is assigned): draws a fresh
+   * 256-bit seed from the OS, freezes the canonical parameters and publishes SHA-256 over both.
+   */
+  async sealForOpening(manager: EntityManager, actor: AuditActor, studyId: string, snapshot: StudyDesignSnapshot): Promise<void> {
+    const scheme = await this.schemeOf(studyId, manager);
+    if (!scheme) {
+      throw new DomainException('CONFLICT', 'Choose an assignment scheme before opening the study.', [
+        { field: 'assignmentScheme', message: 'is not set' },
+      ]);
+    }
+    const parameters = buildSchemeParameters(scheme.method as SchemeMethod, scheme.settings as SchemeSettings, snapshot);
+    if (scheme.commitment && (await this.hasAllocations(studyId, manager))) return;
+    await this.commit(manager, actor, studyId, parameters, scheme.commitment ? 'recommitted' : 'committed');
+  }
+
+  /** After the design changed in an open study with nobody assigned yet: a new seed and commitment. */
+  async recommitAfterDesignChange(manager: EntityManager, actor: AuditActor, studyId: string, snapshot: StudyDesignSnapshot): Promise<void> {
+    const scheme = await this.schemeOf(studyId, manager);
+    if (!scheme?.commitment) return;
+    const parameters = buildSchemeParameters(scheme.method as SchemeMethod, scheme.settings as SchemeSettings, snapshot);
+    await this.commit(manager, actor, studyId, parameters, 'recommitted');
+  }
+
+  private async commit(
+    manager: EntityManager,
+    actor: AuditActor,
+    studyId: string,
+    parameters: SchemeParameters,
+    how: 'committed' | 'recommitted',
+  ): Promise<void> {
+    const seed = generateSeed();
+    const commitment = computeCommitment(seed, parameters);
+    await manager.delete(AllocationSlotEntity, { studyId });
+    await manager.update(
+      AssignmentSchemeEntity,
+      { studyId },
+      { sealedParameters: parameters as never, seed, commitment, committedAt: new Date() },
+    );
+    await this.audit.record(manager, {
+      chain: studyId,
+      actor,
+      action: `assignment.${how}`,
+      subjectType: 'study',
+      subjectId: studyId,
+      data: { commitment, method: parameters.method },
+    });
+  }
+
+  /** Reveals the seed: at closure, or with an audited unblinding. */
+  async revealSeed(manager: EntityManager, actor: AuditActor, studyId: string, reason: { kind: 'closed' } | { kind: 'unblinded'; text: string }) {
+    const scheme = await this.schemeOf(studyId, manager);
+    if (!scheme?.commitment) return;
+    const now = new Date();
+    if (reason.kind === 'unblinded') {
+      if (scheme.unblindedAt) throw new DomainException('CONFLICT', 'This study has already been unblinded.');
+      await manager.update(
+        AssignmentSchemeEntity,
+        { studyId },
+        { unblindedAt: now, unblindedBy: actor.id, unblindReason: reason.text, seedRevealedAt: scheme.seedRevealedAt ?? now },
+      );
+    } else if (!scheme.seedRevealedAt) {
+      await manager.update(AssignmentSchemeEntity, { studyId }, { seedRevealedAt: now });
+    }
+    const seed = await this.sealedSeed(manager, studyId);
+    await this.audit.record(manager, {
+      chain: studyId,
+      actor,
+      action: reason.kind === 'unblinded' ? 'assignment.unblinded' : 'assignment.seed-revealed',
+      subjectType: 'study',
+      subjectId: studyId,
+      data: reason.kind === 'unblinded' ? { reason: reason.text, seed, commitment: scheme.commitment } : { seed, commitment: scheme.commitment },
+    });
+  }
+
+  private async sealedSeed(manager: EntityManager, studyId: string): Promise<string> {
+    const row = await manager
+      .createQueryBuilder(AssignmentSchemeEntity, 'scheme')
+      .addSelect('scheme.seed')
+      .where('scheme.study_id = :studyId', { studyId })
+      .getOne();
+    if (!row?.seed) throw new DomainException('CONFLICT', 'The study has not been opened, so there is no sealed sequence yet.');
+    return row.seed;
+  }
+
+  async overview(studyId: string): Promise<AssignmentOverview> {
+    const scheme = await this.schemeOf(studyId);
+    const rows: Array<{ stratum_key: string; arm: string; n: string }> = await this.dataSource.query(
+      `SELECT stratum_key, coalesce(condition_id::text, condition_order::text) AS arm, count(*) AS n
+       FROM allocation WHERE study_id = $1 GROUP BY 1, 2 ORDER BY 1, 2`,
+      [studyId],
+    );
+    const byStratum = new Map<string, Record<string, number>>();
+    for (const row of rows) {
+      const counts = byStratum.get(row.stratum_key) ?? {};
+      counts[row.arm] = Number(row.n);
+      byStratum.set(row.stratum_key, counts);
+    }
+    const balance = [...byStratum].map(([stratumKey, counts]) => ({
+      stratumKey,
+      counts,
+      total: Object.values(counts).reduce((a, b) => a + b, 0),
+    }));
+    const revealed = Boolean(scheme?.seedRevealedAt);
+    return {
+      method: scheme?.method ?? null,
+      settings: (scheme?.settings ?? {}) as SchemeSettings,
+      commitment: scheme?.commitment ?? null,
+      committedAt: scheme?.committedAt ?? null,
+      seed: revealed ? await this.sealedSeed(this.dataSource.manager, studyId) : null,
+      seedRevealedAt: scheme?.seedRevealedAt ?? null,
+      unblindedAt: scheme?.unblindedAt ?? null,
+      unblindReason: scheme?.unblindReason ?? null,
+      allocated: balance.reduce((sum, s) => sum + s.total, 0),
+      balance,
+    };
+  }
+
+  /**
+   * Assigns one enrollment inside the caller's transaction. Takes a lock on the stratum (or, for minimization,
+   * on the study), then the next free slot, so two people signing at once never share a slot and none is skipped;
+   * if the caller's transaction rolls back, the slot is free again.
+   * Lock order: call this before writing the study's audit events in the same transaction.
+   */
+  async allocate(manager: EntityManager, actor: AuditActor, input: { studyId: string; enrollmentId: string; covariates: CovariateRecord }): Promise<AllocationOutcome> {
+    if (!manager.queryRunner?.isTransactionActive) throw new Error('allocate() must run inside the caller’s transaction');
+    const existing = await manager.findOne(AllocationEntity, { where: { enrollmentId: input.enrollmentId } });
+    if (existing) return this.outcomeOf(existing, null);
+    const scheme = await this.schemeOf(input.studyId, manager);
+    if (!scheme?.sealedParameters || !scheme.commitment) {
+      throw new DomainException('CONFLICT', 'This study is not open for assignment yet.');
+    }
+    const parameters = parseSchemeParameters(scheme.sealedParameters);
+    const seed = await this.sealedSeed(manager, input.studyId);
+    const outcome = usesSlots(parameters)
+      ? await this.takeSlot(manager, seed, parameters, input)
+      : parameters.method === 'minimization'
+        ? await this.minimize(manager, seed, parameters, input)
+        : await this.takeReservedSlot(manager, input);
+    await this.audit.record(manager, {
+      chain: input.studyId,
+      actor,
+      action: 'assignment.allocated',
+      subjectType: 'enrollment',
+      subjectId: input.enrollmentId,
+      data: { sequence: outcome.sequence, stratumKey: outcome.stratumKey, slotPosition: outcome.slotPosition },
+    });
+    return outcome;
+  }
+
+  private async takeSlot(
+    manager: EntityManager,
+    seed: string,
+    parameters: SchemeParameters,
+    input: { studyId: string; enrollmentId: string; covariates: CovariateRecord },
+  ): Promise<AllocationOutcome> {
+    const stratumKey = slotStratumKey(parameters, input.covariates);
+    await manager.query(`SELECT pg_advisory_xact_lock(hashtextextended($1, 0))`, [`allocation:${input.studyId}:${stratumKey}`]);
+    let slot = await this.nextFreeSlot(manager, input.studyId, stratumKey);
+    if (!slot) {
+      await this.generateMoreSlots(manager, seed, parameters, input.studyId, stratumKey);
+      slot = await this.nextFreeSlot(manager, input.studyId, stratumKey);
+    }
+    if (!slot) throw new Error(`no slot could be generated for stratum ${stratumKey}`);
+    await manager.update(AllocationSlotEntity, { id: slot.id }, { takenBy: input.enrollmentId, takenAt: new Date() });
+    const [{ nextval }] = await manager.query(`SELECT nextval('allocation_sequence') AS nextval`);
+    const allocation = await this.record(manager, {
+      studyId: input.studyId,
+      enrollmentId: input.enrollmentId,
+      sequence: Number(nextval),
+      stratumKey,
+      covariates: input.covariates,
+      levels: {},
+      slotId: slot.id,
+      conditionId: slot.conditionId,
+      conditionOrder: slot.conditionOrder,
+    });
+    return this.outcomeOf(allocation, slot.position);
+  }
+
+  private nextFreeSlot(manager: EntityManager, studyId: string, stratumKey: string) {
+    return manager
+      .createQueryBuilder(AllocationSlotEntity, 'slot')
+      .where('slot.study_id = :studyId AND slot.stratum_key = :stratumKey AND slot.taken_by IS NULL AND slot.reserved_for IS NULL', {
+        studyId,
+        stratumKey,
+      })
+      .orderBy('slot.position', 'ASC')
+      .limit(1)
+      .getOne();
+  }
+
+  private async generateMoreSlots(manager: EntityManager, seed: string, parameters: SchemeParameters, studyId: string, stratumKey: string) {
+    const [{ n }] = await manager.query(`SELECT count(*) AS n FROM allocation_slot WHERE study_id = $1 AND stratum_key = $2`, [studyId, stratumKey]);
+    const existing = Number(n);
+    const slots = generateSlots(seed, parameters, stratumKey, existing + SLOT_BATCH).slice(existing) as Array<AllocationSlot | OrderSlot>;
+    await manager.insert(
+      AllocationSlotEntity,
+      slots.map((slot) => ({
+        studyId,
+        stratumKey,
+        position: slot.position,
+        conditionId: 'order' in slot ? null : slot.conditionId,
+        conditionOrder: 'order' in slot ? slot.order : null,
+        orderIndex: 'order' in slot ? slot.orderIndex : null,
+        blockIndex: slot.blockIndex,
+      })),
+    );
+  }
+
+  private async minimize(
+    manager: EntityManager,
+    seed: string,
+    parameters: Extract<SchemeParameters, { method: 'minimization' }>,
+    input: { studyId: string; enrollmentId: string; covariates: CovariateRecord },
+  ): Promise<AllocationOutcome> {
+    // Minimization looks at everyone assigned so far, so the whole study is one stratum for locking.
+    await manager.query(`SELECT pg_advisory_xact_lock(hashtextextended($1, 0))`, [`allocation:${input.studyId}:*`]);
+    const tally = await this.minimizationTally(manager, input.studyId, parameters);
+    const decision = assignByMinimization({ seed, parameters, arrivalPosition: tally.allocated + 1, covariates: input.covariates, tally });
+    const allocation = await this.record(manager, {
+      studyId: input.studyId,
+      enrollmentId: input.enrollmentId,
+      sequence: decision.arrivalPosition,
+      stratumKey: 'all',
+      covariates: input.covariates,
+      levels: decision.levels,
+      slotId: null,
+      conditionId: decision.conditionId,
+      conditionOrder: null,
+    });
+    return this.outcomeOf(allocation, null);
+  }
+
+  /** Counts per factor level and condition, aggregated in SQL rather than loading every allocation. */
+  private async minimizationTally(
+    manager: EntityManager,
+    studyId: string,
+    parameters: Extract<SchemeParameters, { method: 'minimization' }>,
+  ): Promise<MinimizationTally> {
+    const tally = emptyTallyOf(parameters);
+    const [{ n }] = await manager.query(`SELECT count(*) AS n FROM allocation WHERE study_id = $1`, [studyId]);
+    tally.allocated = Number(n);
+    const rows: Array<{ factor: string; level: string; condition_id: string; n: string }> = await manager.query(
+      `SELECT l.key AS factor, l.value AS level, a.condition_id, count(*) AS n
+       FROM allocation a CROSS JOIN LATERAL jsonb_each_text(a.levels) l
+       WHERE a.study_id = $1 GROUP BY 1, 2, 3`,
+      [studyId],
+    );
+    for (const row of rows) {
+      const index = tally.conditionIds.indexOf(row.condition_id);
+      const levelCounts = tally.counts[row.factor]?.[row.level];
+      if (index >= 0 && levelCounts) levelCounts[index] = Number(row.n);
+    }
+    return tally;
+  }
+
+  private async takeReservedSlot(manager: EntityManager, input: { studyId: string; enrollmentId: string; covariates: CovariateRecord }): Promise<AllocationOutcome> {
+    const slot = await manager.findOne(AllocationSlotEntity, {
+      where: { studyId: input.studyId, reservedFor: input.enrollmentId },
+      lock: { mode: 'pessimistic_write' },
+    });
+    if (!slot) {
+      throw new DomainException('CONFLICT', 'This person is not part of the paired cohort, so matched-pairs assignment cannot place them.');
+    }
+    await manager.update(AllocationSlotEntity, { id: slot.id }, { takenBy: input.enrollmentId, takenAt: new Date() });
+    const [{ nextval }] = await manager.query(`SELECT nextval('allocation_sequence') AS nextval`);
+    const allocation = await this.record(manager, {
+      studyId: input.studyId,
+      enrollmentId: input.enrollmentId,
+      sequence: Number(nextval),
+      stratumKey: slot.stratumKey,
+      covariates: input.covariates,
+      levels: {},
+      slotId: slot.id,
+      conditionId: slot.conditionId,
+      conditionOrder: null,
+    });
+    return this.outcomeOf(allocation, slot.position);
+  }
+
+  private async record(manager: EntityManager, values: Omit<AllocationEntity, 'id' | 'allocatedAt'>): Promise<AllocationEntity> {
+    return manager.save(manager.create(AllocationEntity, values));
+  }
+
+  private outcomeOf(allocation: AllocationEntity, slotPosition: number | null): AllocationOutcome {
+    return {
+      conditionId: allocation.conditionId,
+      conditionOrder: allocation.conditionOrder,
+      stratumKey: allocation.stratumKey,
+      sequence: allocation.sequence,
+      slotPosition,
+    };
+  }
+
+  /** Re-derives the whole sequence from the revealed seed and compares it, allocation by allocation. */
+  async verify(studyId: string): Promise<VerificationReport & { commitmentMatches: boolean; seed: string; commitment: string }> {
+    const scheme = await this.schemeOf(studyId);
+    if (!scheme?.commitment || !scheme.sealedParameters) throw new DomainException('CONFLICT', 'This study has no sealed sequence yet.');
+    if (!scheme.seedRevealedAt) {
+      throw new DomainException('CONFLICT', 'The seed is still sealed: verification is possible after closure or an audited unblinding.');
+    }
+    const seed = await this.sealedSeed(this.dataSource.manager, studyId);
+    const parameters = parseSchemeParameters(scheme.sealedParameters);
+    const allocations = await this.dataSource.getRepository(AllocationEntity).find({ where: { studyId }, order: { sequence: 'ASC' } });
+    const recorded: RecordedAllocation[] = allocations.map((a) => ({
+      participantId: a.enrollmentId,
+      covariates: a.covariates,
+      conditionId: isWithinDesign(parameters) ? null : a.conditionId,
+      order: a.conditionOrder,
+    }));
+    const report = verifyAllocations(seed, parameters, recorded);
+    return { ...report, commitmentMatches: computeCommitment(seed, parameters) === scheme.commitment, seed, commitment: scheme.commitment };
+  }
+
+  /** Simulates arrivals under the study's current design and chosen scheme, with a throwaway seed. */
+  dryRun(
+    method: SchemeMethod,
+    settings: SchemeSettings,
+    snapshot: StudyDesignSnapshot,
+    input: { arrivals: number; seed: string; covariateMix: Record<string, CovariateDistribution> },
+  ): DryRunResult {
+    const parameters = buildSchemeParameters(method, settings, snapshot);
+    return runDryRun({ parameters, arrivals: input.arrivals, seed: input.seed, covariateMix: input.covariateMix });
+  }
+
+  private async refuseIfAllocated(manager: EntityManager, studyId: string, what: string): Promise<void> {
+    if (await this.hasAllocations(studyId, manager)) {
+      throw new DomainException('CONFLICT', `${what} cannot change after the first assignment.`);
+    }
+  }
+
+  /** For the studies domain: refuses a design change once anyone has been assigned. */
+  assertDesignUnlocked(manager: EntityManager, studyId: string, what: string): Promise<void> {
+    return this.refuseIfAllocated(manager, studyId, what);
+  }
+}

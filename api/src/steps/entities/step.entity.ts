@@ -1,0 +1,38 @@
+import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+import { StudyEntity } from '../../studies/entities/study.entity';
+
+import { bigintAsNumber } from '../../database/column-transformers';
+
+/** A unit of work a participant is paid for; the same pay in every condition unless an override is recorded. */
+@Entity({ name: 'step' })
+@Index('step_study_position_key', ['studyId', 'position'], { unique: true })
+export class StepEntity {
+  @PrimaryGeneratedColumn('uuid')
+  id: string;
+
+  @Column({ name: 'study_id', type: 'uuid' })
+  studyId: string;
+
+  @ManyToOne(() => StudyEntity, { onDelete: 'CASCADE' })
+  @JoinColumn({ name: 'study_id' })
+  study?: StudyEntity;
+
+  @Column({ type: 'integer' })
+  position: number;
+
+  @Column({ type: 'text' })
+  title: string;
+
+  @Column({ type: 'text', default: '' })
+  description: string;
+
+  /** Minor units of the study's currency. */
+  @Column({ name: 'pay_minor', type: 'bigint', transformer: bigintAsNumber })
+  payMinor: number;
+
+  @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
+  createdAt: Date;
+
+  @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' })
+  updatedAt: Date;
+}

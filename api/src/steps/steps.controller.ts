@@ -1,0 +1,68 @@
+import { Body, Controller, Delete, Get, Param, Patch, Post, Put } from '@nestjs/common';
+import { ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
+import { CurrentUser, Roles } from '../common/auth/auth.decorators';
+import type { SessionUser } from '../common/auth/session-user';
+import { uuidParam } from '../common/http/uuid-param';
+import { StudyMembersOnly } from '../studies/study-access.guard';
+import { CreateStepDto, SetPayOverrideDto, StepListDto, UpdateStepDto } from './dto/step.dto';
+import { StepsService } from './steps.service';
+
+const DESIGNERS = ['coordinator', 'researcher', 'admin'] as const;
+
+@ApiTags('steps')
+@Controller('studies/:studyId/steps')
+@StudyMembersOnly()
+export class StepsController {
+  constructor(private readonly steps: StepsService) {}
+
+  @Get()
+  @Roles('coordinator', 'researcher', 'auditor', 'admin')
+  @ApiOkResponse({ type: StepListDto })
+  list(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<StepListDto> {
+    return this.steps.list(studyId);
+  }
+
+  @Post()
+  @Roles(...DESIGNERS)
+  @ApiCreatedResponse({ type: StepListDto })
+  create(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: CreateStepDto): Promise<StepListDto> {
+    return this.steps.create(user, studyId, body);
+  }
+
+  @Patch(':stepId')
+  @Roles(...DESIGNERS)
+  @ApiOkResponse({ type: StepListDto })
+  update(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('stepId', uuidParam('stepId')) stepId: string,
+    @Body() body: UpdateStepDto,
+  ): Promise<StepListDto> {
+    return this.steps.update(user, studyId, stepId, body);
+  }
+
+  @Put(':stepId/pay-overrides/:conditionId')
+  @Roles('researcher', 'admin')
+  @ApiOkResponse({ type: StepListDto })
+  setOverride(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('stepId', uuidParam('stepId')) stepId: string,
+    @Param('conditionId', uuidParam('conditionId')) conditionId: string,
+    @Body() body: SetPayOverrideDto,
+  ): Promise<StepListDto> {
+    return this.steps.setPayOverride(user, studyId, stepId, conditionId, body);
+  }
+
+  @Delete(':stepId/pay-overrides/:conditionId')
+  @Roles('researcher', 'admin')
+  @ApiOkResponse({ type: StepListDto })
+  removeOverride(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('stepId', uuidParam('stepId')) stepId: string,
+    @Param('conditionId', uuidParam('conditionId')) conditionId: string,
+  ): Promise<StepListDto> {
+    return this.steps.removePayOverride(user, studyId, stepId, conditionId);
+  }
+}

@@ -1,0 +1,8 @@
+import { Module } from '@nestjs/common';
+import { AuditModule } from '../audit/audit.module';
+import { StudiesModule } from '../studies/studies.module';
+import { StepsController } from './steps.controller';
+import { StepsService } from './steps.service';
+
+@Module({ imports: [AuditModule, StudiesModule], controllers: [StepsController], providers: [StepsService], exports: [StepsService] })
+export class StepsModule {}

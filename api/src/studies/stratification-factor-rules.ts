@@ -1,0 +1,33 @@
+import { ValidationException } from '../common/errors/domain.exception';
+import type { FieldError } from '../common/errors/error-codes';
+
+interface FactorDefinition {
+  key: string;
+  kind: 'numeric' | 'categorical';
+  cutPoints?: number[];
+  categories?: string[];
+}
+
+/** Checks a whole list of factors; every problem is reported with the index of the factor it belongs to. */
+export function checkFactorDefinitions(factors: FactorDefinition[]): void {
+  const errors: FieldError[] = [];
+  const seen = new Set<string>();
+  factors.forEach((factor, i) => {
+    const at = `factors.${i}`;
+    if (seen.has(factor.key)) errors.push({ field: `${at}.key`, message: `"${factor.key}" is used by another factor` });
+    seen.add(factor.key);
+    if (factor.kind === 'numeric') {
+      const cuts = factor.cutPoints ?? [];
+      if (cuts.length === 0) errors.push({ field: `${at}.cutPoints`, message: 'a numeric factor needs at least one cut point' });
+      if (cuts.some((c, j) => j > 0 && c <= cuts[j - 1])) errors.push({ field: `${at}.cutPoints`, message: 'must be strictly increasing' });
+      if (factor.categories) errors.push({ field: `${at}.categories`, message: 'is only for categorical factors' });
+    } else {
+      const categories = (factor.categories ?? []).map((c) => c.trim());
+      if (categories.length < 2) errors.push({ field: `${at}.categories`, message: 'a categorical factor needs at least two categories' });
+      if (new Set(categories).size !== categories.length) errors.push({ field: `${at}.categories`, message: 'must not repeat a category' });
+      if (categories.some((c) => c === '')) errors.push({ field: `${at}.categories`, message: 'must not contain an empty category' });
+      if (factor.cutPoints) errors.push({ field: `${at}.cutPoints`, message: 'is only for numeric factors' });
+    }
+  });
+  if (errors.length > 0) throw new ValidationException(errors);
+}
