@@ -1,0 +1,114 @@
+// Assembles the stand-in: the provider's REST API under /v1, the hosted onboarding pages,
+// the control routes under /_control and GET /health.
+
+import type { AddressInfo } from 'node:net';
+import type { Server } from 'node:http';
+import express, { type NextFunction, type Request, type Response } from 'express';
+import { controlRouter } from '../control/control-routes';
+import { onboardingRouter } from '../hosted/onboarding-routes';
+import { accountLinkRoutes } from '../resources/account-links';
+import { accountRoutes } from '../resources/accounts';
+import { balanceRoutes } from '../resources/balance';
+import { eventRoutes } from '../resources/events';
+import { paymentIntentRoutes } from '../resources/payment-intents';
+import { payoutRoutes } from '../resources/payouts';
+import { transferRoutes } from '../resources/transfers';
+import { ProviderWorld, type ProviderWorldOptions } from '../state/provider-world';
+import { providerApiRouter } from './provider-api';
+import type { ProviderRoute } from './provider-route';
+
+export const PROVIDER_ROUTES: readonly ProviderRoute[] = [
+  ...accountRoutes,
+  ...accountLinkRoutes,
+  ...balanceRoutes,
+  ...transferRoutes,
+  ...payoutRoutes,
+  ...paymentIntentRoutes,
+  ...eventRoutes,
+];
+
+export interface PaymentsFakeOptions {
+  webhookUrl: string | null;
+  webhookSecret: string;
+  /** Base of hosted page links; when left out, the address the server listens on. */
+  publicUrl?: string;
+  fundsPendingMs?: number;
+  payoutSettleMs?: number;
+  webhookRetryDelaysMs?: readonly number[];
+  webhookReorderWindowMs?: number;
+  webhookTimeoutMs?: number;
+}
+
+// Growing retry delays, after the provider's practice of retrying failed deliveries with
+// exponential back-off (https://docs.stripe.com/webhooks#retries); shortened for local use.
+export const DEFAULT_WEBHOOK_RETRY_DELAYS_MS = [1_000, 5_000, 30_000, 120_000, 600_000, 1_800_000];
+
+export function worldOptions(options: PaymentsFakeOptions): ProviderWorldOptions {
+  return {
+    publicUrl: options.publicUrl ?? 'http://127.0.0.1',
+    webhook: { url: options.webhookUrl, secret: options.webhookSecret },
+    webhookRetryDelaysMs: options.webhookRetryDelaysMs ?? DEFAULT_WEBHOOK_RETRY_DELAYS_MS,
+    webhookReorderWindowMs: options.webhookReorderWindowMs ?? 250,
+    webhookTimeoutMs: options.webhookTimeoutMs ?? 10_000,
+    fundsPendingMs: options.fundsPendingMs ?? 0,
+    payoutSettleMs: options.payoutSettleMs ?? 2_000,
+    onboardingLinkTtlSeconds: 300,
+    onboardingSessionTtlSeconds: 1800,
+  };
+}
+
+export function createPaymentsFakeApp(world: ProviderWorld): express.Express {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('etag', false);
+  app.get('/health', (_req, res) => {
+    res.json({ status: 'ok' });
+  });
+  app.use('/_control', controlRouter(world));
+  app.use(onboardingRouter(world));
+  app.use(providerApiRouter(world, PROVIDER_ROUTES));
+  app.use((_req: Request, res: Response) => {
+    res.status(404).json({ error: { type: 'invalid_request_error', message: 'Not found.' } });
+  });
+  app.use((error: unknown, _req: Request, res: Response, _next: NextFunction) => {
+    console.error('payments-fake: unexpected failure', error);
+    res.status(500).json({ error: { type: 'api_error', message: 'Something went wrong on our end.' } });
+  });
+  return app;
+}
+
+export interface RunningPaymentsFake {
+  url: string;
+  port: number;
+  world: ProviderWorld;
+  server: Server;
+  close(): Promise<void>;
+}
+
+/** Starts the stand-in on host:port (port 0 picks a free one). */
+export function startPaymentsFake(options: PaymentsFakeOptions & { host: string; port: number }): Promise<RunningPaymentsFake> {
+  const world = new ProviderWorld(worldOptions(options));
+  const app = createPaymentsFakeApp(world);
+  return new Promise((resolve, reject) => {
+    const server = app.listen(options.port, options.host);
+    server.once('error', reject);
+    server.once('listening', () => {
+      const address = server.address() as AddressInfo;
+      const host = address.family === 'IPv6' ? `[${address.address}]` : address.address;
+      const url = `http://${host}:${address.port}`;
+      if (!options.publicUrl) world.publicUrl = url;
+      resolve({
+        url,
+        port: address.port,
+        world,
+        server,
+        close: () =>
+          new Promise<void>((done, fail) => {
+            world.close();
+            server.close((error) => (error ? fail(error) : done()));
+            server.closeAllConnections();
+          }),
+      });
+    });
+  });
+}

@@ -1,0 +1,22 @@
+/** setTimeout with bookkeeping, so a reset or shutdown can cancel everything still waiting. */
+export class Timers {
+  private readonly handles = new Set<NodeJS.Timeout>();
+
+  after(ms: number, run: () => void): void {
+    const handle = setTimeout(() => {
+      this.handles.delete(handle);
+      run();
+    }, ms);
+    handle.unref();
+    this.handles.add(handle);
+  }
+
+  get pending(): number {
+    return this.handles.size;
+  }
+
+  clearAll(): void {
+    for (const handle of this.handles) clearTimeout(handle);
+    this.handles.clear();
+  }
+}

@@ -1,0 +1,10 @@
+import { defineConfig } from 'vitest/config';
+
+export default defineConfig({
+  test: {
+    include: ['src/**/*.spec.ts', 'test/**/*.e2e-spec.ts'],
+    environment: 'node',
+    testTimeout: 20_000,
+    hookTimeout: 20_000,
+  },
+});
