@@ -14,6 +14,8 @@ import { PaymentsModule } from './payments/payments.module';
 import { AssignmentModule } from './randomization/assignment.module';
 import { StepsModule } from './steps/steps.module';
 import { StudiesModule } from './studies/studies.module';
+import { ConsentModule } from './consent/consent.module';
+import { EnrollmentsModule } from './enrollments/enrollments.module';
 import { UsersModule } from './users/users.module';
 
 @Module({
@@ -31,6 +33,8 @@ import { UsersModule } from './users/users.module';
     StudiesModule,
     StepsModule,
     AssignmentModule,
+    ConsentModule,
+    EnrollmentsModule,
     PaymentsModule,
     HealthModule,
   ],

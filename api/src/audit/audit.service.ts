@@ -29,6 +29,7 @@ export interface ChainVerdict {
 export interface AuditPageQuery {
   chains: string[] | 'all';
   action?: string;
+  subjectIds?: string[];
   page: number;
   pageSize: number;
 }
@@ -76,6 +77,7 @@ export class AuditService {
     const builder = this.dataSource.getRepository(AuditEventEntity).createQueryBuilder('event');
     if (query.chains !== 'all') builder.where('event.chain IN (:...chains)', { chains: query.chains.length ? query.chains : [''] });
     if (query.action) builder.andWhere('event.action = :action', { action: query.action });
+    if (query.subjectIds) builder.andWhere('event.subject_id IN (:...subjectIds)', { subjectIds: query.subjectIds.length ? query.subjectIds : [''] });
     const [items, total] = await builder
       .orderBy('event.at', 'DESC')
       .addOrderBy('event.sequence', 'DESC')

@@ -16,6 +16,10 @@ import { ConditionEntity } from '../studies/entities/condition.entity';
 import { StratificationFactorEntity } from '../studies/entities/stratification-factor.entity';
 import { Foundation1764600000000 } from './migrations/1764600000000-foundation';
 import { StudyDesign1764600100000 } from './migrations/1764600100000-study-design';
+import { ConsentAndEnrollment1764600200000 } from './migrations/1764600200000-consent-and-enrollment';
+import { ConsentVersionEntity } from '../consent/entities/consent-version.entity';
+import { SignatureEntity } from '../consent/entities/signature.entity';
+import { ScreeningQuestionEntity } from '../studies/entities/screening-question.entity';
 
 /** Every entity, listed by hand so nothing depends on file globs. */
 export const ENTITIES = [
@@ -34,10 +38,13 @@ export const ENTITIES = [
   AllocationSlotEntity,
   AllocationEntity,
   EnrollmentEntity,
+  ScreeningQuestionEntity,
+  ConsentVersionEntity,
+  SignatureEntity,
 ];
 
 /** Every migration in order. Never edit one that has landed; add a new one. */
-export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000];
+export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000, ConsentAndEnrollment1764600200000];
 
 export function dataSourceOptions(databaseUrl: string): DataSourceOptions {
   return {

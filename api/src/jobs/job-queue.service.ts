@@ -7,7 +7,7 @@ import { queryRows } from '../database/raw-query';
 export type JobHandler<Payload> = (payload: Payload, jobId: string) => Promise<void>;
 
 /** Every kind of background job, so names are not spread as strings. */
-export const JOB_NAMES = { sendMail: 'mail.send' } as const;
+export const JOB_NAMES = { sendMail: 'mail.send', signedCopy: 'consent.signed-copy' } as const;
 export type JobName = (typeof JOB_NAMES)[keyof typeof JOB_NAMES];
 
 /**

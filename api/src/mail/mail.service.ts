@@ -9,6 +9,7 @@ export interface OutgoingMail {
   subject: string;
   text: string;
   html?: string;
+  attachments?: Array<{ filename: string; content: Buffer; contentType: string }>;
 }
 
 /** E-mail goes out through a job, so a slow or failing mail server never fails the request that caused it. */

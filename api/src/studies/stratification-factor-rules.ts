@@ -31,3 +31,39 @@ export function checkFactorDefinitions(factors: FactorDefinition[]): void {
   });
   if (errors.length > 0) throw new ValidationException(errors);
 }
+
+interface ScreeningQuestionDefinition {
+  key: string;
+  kind: 'yes-no' | 'number' | 'choice';
+  options?: string[];
+  minValue?: number;
+  maxValue?: number;
+  eligibleValues?: Array<string | boolean>;
+  eligibleMin?: number;
+  eligibleMax?: number;
+}
+
+/** Checks eligibility questions: each rule must be answerable with the question's own kind of answer. */
+export function checkScreeningQuestions(questions: ScreeningQuestionDefinition[]): void {
+  const errors: FieldError[] = [];
+  const seen = new Set<string>();
+  questions.forEach((q, i) => {
+    const at = `questions.${i}`;
+    if (seen.has(q.key)) errors.push({ field: `${at}.key`, message: `"${q.key}" is used by another question` });
+    seen.add(q.key);
+    if (q.kind === 'choice' && (q.options ?? []).length < 2) errors.push({ field: `${at}.options`, message: 'a choice needs at least two options' });
+    if (q.kind === 'yes-no' && q.eligibleValues?.some((v) => typeof v !== 'boolean')) {
+      errors.push({ field: `${at}.eligibleValues`, message: 'a yes-no question accepts true or false' });
+    }
+    if (q.kind === 'choice' && q.eligibleValues?.some((v) => typeof v !== 'string' || !(q.options ?? []).includes(v))) {
+      errors.push({ field: `${at}.eligibleValues`, message: 'must be some of the options' });
+    }
+    if (q.kind !== 'number' && (q.eligibleMin !== undefined || q.eligibleMax !== undefined)) {
+      errors.push({ field: `${at}.eligibleMin`, message: 'a range applies to number questions only' });
+    }
+    if (q.minValue !== undefined && q.maxValue !== undefined && q.minValue > q.maxValue) {
+      errors.push({ field: `${at}.maxValue`, message: 'must not be below minValue' });
+    }
+  });
+  if (errors.length > 0) throw new ValidationException(errors);
+}

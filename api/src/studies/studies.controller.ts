@@ -17,6 +17,7 @@ import {
   UpdateConditionDto,
   UpdateStudyDto,
 } from './dto/study.dto';
+import { ReplaceScreeningQuestionsDto, ScreeningQuestionListDto } from './dto/screening.dto';
 import { StudiesService } from './studies.service';
 import { StudyMembersOnly } from './study-access.guard';
 
@@ -126,6 +127,27 @@ export class StudiesController {
   @ApiOkResponse({ type: StratificationFactorListDto })
   replaceFactors(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: ReplaceFactorsDto): Promise<StratificationFactorListDto> {
     return this.studies.replaceFactors(user, studyId, body.factors);
+  }
+
+  @Get(':studyId/screening-questions')
+  @Roles('coordinator', 'researcher', 'auditor', 'admin')
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: ScreeningQuestionListDto })
+  async screeningQuestions(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<ScreeningQuestionListDto> {
+    await this.studies.require(studyId);
+    return { items: await this.studies.screeningQuestions(studyId) };
+  }
+
+  @Put(':studyId/screening-questions')
+  @Roles(...DESIGNERS)
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: ScreeningQuestionListDto })
+  replaceScreeningQuestions(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: ReplaceScreeningQuestionsDto,
+  ): Promise<ScreeningQuestionListDto> {
+    return this.studies.replaceScreeningQuestions(user, studyId, body.questions);
   }
 
   @Get(':studyId/members')

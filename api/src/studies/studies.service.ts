@@ -3,7 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager } from 'typeorm';
 import { AuditService } from '../audit/audit.service';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
+import { DomainException, ValidationException } from '../common/errors/domain.exception';
 import { RandomizationService } from '../randomization/randomization.service';
 import type { StudyDesignSnapshot } from '../randomization/study-design-snapshot';
 import { factorLevels } from '../randomization/strata';
@@ -26,7 +26,9 @@ import { ConditionEntity } from './entities/condition.entity';
 import { StratificationFactorEntity } from './entities/stratification-factor.entity';
 import { StudyMembershipEntity } from './entities/study-membership.entity';
 import { StudyEntity, StudyStatus } from './entities/study.entity';
-import { checkFactorDefinitions } from './stratification-factor-rules';
+import { checkFactorDefinitions, checkScreeningQuestions } from './stratification-factor-rules';
+import { ScreeningQuestionEntity } from './entities/screening-question.entity';
+import { ScreeningQuestionDto, ScreeningQuestionInputDto, ScreeningQuestionListDto } from './dto/screening.dto';
 
 type Transition = 'open' | 'pause' | 'close';
 
@@ -54,7 +56,8 @@ export class StudiesService {
   async listFor(user: SessionUser): Promise<StudyListDto> {
     const builder = this.dataSource.getRepository(StudyEntity).createQueryBuilder('study');
     if (user.role === 'participant') {
-      builder.innerJoin('enrollment', 'enrollment', 'enrollment.study_id = study.id AND enrollment.participant_id = :userId', { userId: user.id });
+      // The enrollments domain owns participation; studies only filters by it.
+      builder.where('study.id IN (SELECT study_id FROM enrollment WHERE participant_id = :userId)', { userId: user.id });
     } else if (user.role !== 'admin' && user.role !== 'auditor') {
       builder.innerJoin(StudyMembershipEntity, 'membership', 'membership.study_id = study.id AND membership.user_id = :userId', {
         userId: user.id,
@@ -92,6 +95,8 @@ export class StudiesService {
       budgetMinor: study.budgetMinor,
       currency: study.currency,
       blinded: study.blinded,
+      labName: study.labName,
+      contactEmail: study.contactEmail,
       openedAt: study.openedAt?.toISOString() ?? null,
       closedAt: study.closedAt?.toISOString() ?? null,
       createdAt: study.createdAt.toISOString(),
@@ -192,6 +197,12 @@ export class StudiesService {
     const scheme = await this.randomization.schemeOf(studyId);
     const hideNames = study.blinded && study.status !== 'draft' && !scheme?.unblindedAt;
     return conditions.map((c) => this.conditionDto(c, hideNames));
+  }
+
+  /** What a participant may know of the conditions: labels and instructions, never internal names. */
+  async listConditionsForParticipant(studyId: string): Promise<Array<{ id: string; participantLabel: string; participantInstructions: string }>> {
+    const conditions = await this.dataSource.getRepository(ConditionEntity).find({ where: { studyId }, order: { position: 'ASC' } });
+    return conditions.map(({ id, participantLabel, participantInstructions }) => ({ id, participantLabel, participantInstructions }));
   }
 
   hasCondition(studyId: string, conditionId: string, manager: EntityManager = this.dataSource.manager): Promise<boolean> {
@@ -324,6 +335,73 @@ export class StudiesService {
       if (study.status !== 'draft') await this.randomization.recommitAfterDesignChange(manager, actor, studyId, await this.designSnapshot(studyId, manager));
       return result;
     });
+  }
+
+  // ── screening ─────────────────────────────────────────────────────────────
+
+  async screeningDefinition(studyId: string, manager: EntityManager = this.dataSource.manager) {
+    const eligibility = await manager.find(ScreeningQuestionEntity, { where: { studyId }, order: { position: 'ASC' } });
+    const factors = await manager.find(StratificationFactorEntity, { where: { studyId }, order: { position: 'ASC' } });
+    return {
+      eligibility,
+      stratification: factors.map((f) => ({ key: f.key, label: f.label, kind: f.kind, categories: f.categories })),
+    };
+  }
+
+  /** The questions in the order a participant answers them: eligibility first, then the stratification answers. */
+  async screeningQuestions(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<ScreeningQuestionDto[]> {
+    const { eligibility, stratification } = await this.screeningDefinition(studyId, manager);
+    return [
+      ...eligibility.map((q) => ({
+        key: q.key,
+        label: q.label,
+        kind: q.kind,
+        ...(q.options ? { options: q.options } : {}),
+        ...(q.minValue !== null ? { min: q.minValue } : {}),
+        ...(q.maxValue !== null ? { max: q.maxValue } : {}),
+        ...(q.help ? { help: q.help } : {}),
+        purpose: 'eligibility' as const,
+      })),
+      ...stratification.map((f) => ({
+        key: f.key,
+        label: f.label,
+        kind: f.kind === 'numeric' ? ('number' as const) : ('choice' as const),
+        ...(f.categories ? { options: f.categories } : {}),
+        purpose: 'stratification' as const,
+      })),
+    ];
+  }
+
+  async replaceScreeningQuestions(actor: SessionUser, studyId: string, questions: ScreeningQuestionInputDto[]): Promise<ScreeningQuestionListDto> {
+    checkScreeningQuestions(questions);
+    await this.dataSource.transaction(async (manager) => {
+      const study = await this.require(studyId, manager, true);
+      if (study.status === 'closed') throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+      const factorKeys = (await manager.find(StratificationFactorEntity, { where: { studyId } })).map((f) => f.key);
+      const clash = questions.find((q) => factorKeys.includes(q.key));
+      if (clash) throw new ValidationException([{ field: 'questions', message: `"${clash.key}" is already a stratification factor of this study` }]);
+      await manager.delete(ScreeningQuestionEntity, { studyId });
+      await manager.insert(
+        ScreeningQuestionEntity,
+        questions.map((q, i) => ({
+          studyId,
+          key: q.key,
+          label: q.label,
+          kind: q.kind,
+          options: q.options ?? null,
+          minValue: q.minValue ?? null,
+          maxValue: q.maxValue ?? null,
+          help: q.help ?? '',
+          criterion: q.criterion ?? null,
+          eligibleValues: q.eligibleValues ?? null,
+          eligibleMin: q.eligibleMin ?? null,
+          eligibleMax: q.eligibleMax ?? null,
+          position: i + 1,
+        })),
+      );
+      await this.audit.record(manager, { chain: studyId, actor, action: 'screening.replaced', subjectType: 'study', subjectId: studyId, data: { keys: questions.map((q) => q.key) } });
+    });
+    return { items: await this.screeningQuestions(studyId) };
   }
 
   // ── members ───────────────────────────────────────────────────────────────

@@ -21,7 +21,18 @@ export async function draftBetweenStudy(
   browser: Browser,
   options: { conditions?: string[]; cutPoints?: number[]; scheme?: Record<string, unknown> } = {},
 ): Promise<{ studyId: string; conditionIds: string[] }> {
-  const study = await expectStatus(browser.post('/api/studies').send({ slug: uniqueSlug('t'), title: 'Test study', design: 'between' }), 201);
+  const study = await expectStatus(
+    browser.post('/api/studies').send({
+      slug: uniqueSlug('t'),
+      title: 'Test study',
+      design: 'between',
+      protocolNumber: 'HLCL-TEST-001',
+      labName: 'Harbor Lane Cognition Lab',
+      estimatedMinutes: 45,
+      targetSize: 120,
+    }),
+    201,
+  );
   const conditionIds: string[] = [];
   for (const name of options.conditions ?? ['alpha', 'beta']) {
     const condition = await expectStatus(

@@ -1,6 +1,7 @@
 import { ArgumentsHost, Catch, ExceptionFilter, HttpException, HttpStatus, Logger } from '@nestjs/common';
 import { ThrottlerException } from '@nestjs/throttler';
 import type { Response } from 'express';
+import { ConsentError } from '../../consent/consent-error';
 import { RandomizationError } from '../../randomization/randomization-error';
 import { DomainException } from './domain.exception';
 import { ErrorCode, HTTP_STATUS_BY_CODE, Problem } from './error-codes';
@@ -37,6 +38,9 @@ export function toProblem(exception: unknown): Problem {
       message: 'The assignment settings are not valid.',
       errors: exception.fieldErrors,
     };
+  }
+  if (exception instanceof ConsentError) {
+    return { statusCode: 400, code: 'VALIDATION_FAILED', message: 'The consent form cannot be prepared from these details.', errors: exception.fieldErrors };
   }
   if (exception instanceof ThrottlerException) {
     return {

@@ -51,6 +51,27 @@ export class EnrollmentEntity {
   @Column({ name: 'withdrawal_reason', type: 'text', nullable: true })
   withdrawalReason: string | null;
 
+  @Column({ name: 'screening_answers', type: 'jsonb', nullable: true })
+  screeningAnswers: Record<string, number | string | boolean> | null;
+
+  /** The consent version this person last signed. */
+  @Column({ name: 'signed_version_id', type: 'uuid', nullable: true })
+  signedVersionId: string | null;
+
+  /** Set when a newer consent version became active after they signed; cleared when they sign it. */
+  @Column({ name: 'reconsent_requested_at', type: 'timestamptz', nullable: true })
+  reconsentRequestedAt: Date | null;
+
+  @Column({ name: 'invited_by', type: 'uuid', nullable: true })
+  invitedBy: string | null;
+
+  @Column({ name: 'invitation_sent_at', type: 'timestamptz', nullable: true })
+  invitationSentAt: Date | null;
+
+  /** Name as given on an imported roster (staff view only). */
+  @Column({ name: 'display_name', type: 'text', nullable: true })
+  displayName: string | null;
+
   @Column({ name: 'invited_at', type: 'timestamptz', nullable: true }) invitedAt: Date | null;
   @Column({ name: 'screened_at', type: 'timestamptz', nullable: true }) screenedAt: Date | null;
   @Column({ name: 'excluded_at', type: 'timestamptz', nullable: true }) excludedAt: Date | null;

@@ -4,6 +4,7 @@ import {
   ArrayMaxSize,
   IsArray,
   IsBoolean,
+  IsEmail,
   IsIn,
   IsInt,
   IsNumber,
@@ -42,6 +43,8 @@ export class StudyDto extends StudySummaryDto {
   @ApiProperty({ description: 'Minor units of currency' }) budgetMinor: number;
   @ApiProperty({ example: 'USD' }) currency: string;
   @ApiProperty() blinded: boolean;
+  @ApiProperty() labName: string;
+  @ApiProperty({ nullable: true, type: String }) contactEmail: string | null;
   @ApiProperty({ format: 'date-time', nullable: true, type: String }) openedAt: string | null;
   @ApiProperty({ format: 'date-time', nullable: true, type: String }) closedAt: string | null;
   @ApiProperty({ format: 'date-time' }) createdAt: string;
@@ -108,6 +111,18 @@ export class CreateStudyDto {
   @IsOptional()
   @IsBoolean()
   blinded?: boolean;
+
+  @ApiPropertyOptional({ example: 'Harbor Lane Cognition Lab' })
+  @IsOptional()
+  @Transform(trimmed)
+  @IsString()
+  @MaxLength(200)
+  labName?: string;
+
+  @ApiPropertyOptional({ example: 'study-team@lab.test' })
+  @IsOptional()
+  @IsEmail({}, { message: 'contactEmail must be a valid e-mail address' })
+  contactEmail?: string;
 }
 
 export class UpdateStudyDto {
@@ -123,6 +138,11 @@ export class UpdateStudyDto {
   @Matches(/^[A-Z]{3}$/, { message: 'currency must be a three-letter ISO 4217 code such as USD' })
   currency?: string;
   @ApiPropertyOptional() @IsOptional() @IsBoolean() blinded?: boolean;
+  @ApiPropertyOptional() @IsOptional() @Transform(trimmed) @IsString() @MaxLength(200) labName?: string;
+  @ApiPropertyOptional()
+  @IsOptional()
+  @IsEmail({}, { message: 'contactEmail must be a valid e-mail address' })
+  contactEmail?: string;
 }
 
 export class ConditionDto {

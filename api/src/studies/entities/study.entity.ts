@@ -46,6 +46,12 @@ export class StudyEntity {
   @Column({ name: 'estimated_minutes', type: 'integer', nullable: true })
   estimatedMinutes: number | null;
 
+  @Column({ name: 'lab_name', type: 'text', default: '' })
+  labName: string;
+
+  @Column({ name: 'contact_email', type: 'text', nullable: true })
+  contactEmail: string | null;
+
   @Column({ name: 'opened_at', type: 'timestamptz', nullable: true })
   openedAt: Date | null;
 

@@ -1,0 +1,13 @@
+export type { FieldError } from './consent-error';
+export { ConsentError, ConsentErrorCode } from './consent-error';
+export * from './consent-text';
+export * from './consent-markdown';
+export * from './consent-outline';
+export * from './consent-template';
+export * from './consent-emails';
+export * from './markdown-escape';
+export * from './reading-time';
+export * from './required-elements';
+export * from './required-elements-check';
+export * from './study-formatting';
+export * from './template-rendering';

@@ -1,0 +1,228 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { Transform, Type } from 'class-transformer';
+import { ArrayMaxSize, IsArray, IsBoolean, IsIn, IsInt, IsObject, IsOptional, IsString, IsUUID, Length, Matches, Max, MaxLength, Min } from 'class-validator';
+import { ScreeningQuestionDto } from '../../studies/dto/screening.dto';
+import { ENROLLMENT_STATUSES, EnrollmentStatus } from '../entities/enrollment.entity';
+
+const trimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
+
+export class ScreeningStateDto {
+  @ApiProperty({ type: [ScreeningQuestionDto] }) questions: ScreeningQuestionDto[];
+  @ApiProperty({ nullable: true, type: 'object', additionalProperties: true }) answers: Record<string, number | string | boolean> | null;
+  @ApiProperty({ nullable: true, type: String }) exclusionReason: string | null;
+}
+
+export class ConsentStateDto {
+  @ApiProperty({ nullable: true, type: String }) activeVersionId: string | null;
+  @ApiProperty({ nullable: true, type: String }) signedVersionId: string | null;
+  @ApiProperty() needsSignature: boolean;
+  @ApiProperty({ nullable: true, type: String }) signedAt: string | null;
+}
+
+export class ParticipantAssignmentDto {
+  @ApiProperty({ description: 'The participant-facing label; never the internal name' }) label: string;
+  @ApiProperty() instructions: string;
+}
+
+export class MyStepDto {
+  @ApiProperty() id: string;
+  @ApiProperty() position: number;
+  @ApiProperty() title: string;
+  @ApiProperty() description: string;
+  @ApiProperty() payMinor: number;
+  @ApiProperty({ enum: ['open', 'done', 'locked'] }) status: 'open' | 'done' | 'locked';
+  @ApiProperty({ nullable: true, type: String }) completedAt: string | null;
+}
+
+export class EarnedDto {
+  @ApiProperty() earnedMinor: number;
+  @ApiProperty() paidMinor: number;
+  @ApiProperty() stillToBePaidMinor: number;
+}
+
+export class MyEnrollmentDto {
+  @ApiProperty() id: string;
+  @ApiProperty() reference: string;
+  @ApiProperty() studyId: string;
+  @ApiProperty() studyTitle: string;
+  @ApiProperty() studySlug: string;
+  @ApiProperty() currency: string;
+  @ApiProperty({ enum: ENROLLMENT_STATUSES }) status: EnrollmentStatus;
+  @ApiProperty({ enum: ['screening', 'consent', 're-consent', 'steps', 'done', 'excluded', 'withdrawn'] })
+  next: 'screening' | 'consent' | 're-consent' | 'steps' | 'done' | 'excluded' | 'withdrawn';
+  @ApiProperty({ type: ScreeningStateDto }) screening: ScreeningStateDto;
+  @ApiProperty({ type: ConsentStateDto }) consent: ConsentStateDto;
+  @ApiProperty({ type: ParticipantAssignmentDto, nullable: true }) assignment: ParticipantAssignmentDto | null;
+  @ApiProperty({ type: [MyStepDto] }) steps: MyStepDto[];
+  @ApiProperty({ type: EarnedDto }) earned: EarnedDto;
+  @ApiProperty({ nullable: true, type: String }) withdrewAt: string | null;
+}
+
+export class SubmitScreeningDto {
+  @ApiProperty({ type: 'object', additionalProperties: true, description: 'Answer per question key: true/false, a number or an option' })
+  @IsObject()
+  answers: Record<string, number | string | boolean>;
+}
+
+export class ScreeningResultDto {
+  @ApiProperty() eligible: boolean;
+  @ApiProperty({ type: [String] }) reasons: string[];
+  @ApiProperty({ type: MyEnrollmentDto }) enrollment: MyEnrollmentDto;
+}
+
+export class ReadingSectionDto {
+  @ApiProperty() id: string;
+  @ApiProperty() heading: string;
+  @ApiProperty() html: string;
+}
+
+export class ApprovalDto {
+  @ApiProperty() reference: string;
+  @ApiProperty() approvedAt: string;
+}
+
+export class ConsentToSignDto {
+  @ApiProperty() versionId: string;
+  @ApiProperty() version: number;
+  @ApiProperty() fingerprint: string;
+  @ApiProperty() readingMinutes: number;
+  @ApiProperty() keyInformationHtml: string;
+  @ApiProperty({ type: [ReadingSectionDto] }) sections: ReadingSectionDto[];
+  @ApiProperty() signatureMeaning: string;
+  @ApiProperty({ type: ApprovalDto }) approval: ApprovalDto;
+}
+
+export class SignConsentDto {
+  @ApiProperty({ format: 'uuid' })
+  @IsUUID('4', { message: 'versionId must be the id of a consent version' })
+  versionId: string;
+
+  @ApiProperty({ description: 'SHA-256 of the rendered text the person read' })
+  @Matches(/^[0-9a-f]{64}$/, { message: 'fingerprint must be 64 lower-case hexadecimal characters' })
+  fingerprint: string;
+
+  @ApiProperty({ example: 'Sam Example' })
+  @Transform(trimmed)
+  @IsString()
+  @Length(2, 200, { message: 'typedName must be your full name (2 to 200 characters)' })
+  typedName: string;
+
+  @ApiPropertyOptional({ description: 'A drawn mark as a PNG data URL' })
+  @IsOptional()
+  @IsString()
+  @MaxLength(280_000, { message: 'mark is too large (at most about 200 KB)' })
+  @Matches(/^data:image\/png;base64,[A-Za-z0-9+/]+=*$/, { message: 'mark must be a PNG image data URL' })
+  mark?: string;
+}
+
+export class SignatureResultDto {
+  @ApiProperty() signatureId: string;
+  @ApiProperty() signedAt: string;
+  @ApiProperty({ type: ParticipantAssignmentDto, nullable: true }) assignment: ParticipantAssignmentDto | null;
+  @ApiProperty({ type: MyEnrollmentDto }) enrollment: MyEnrollmentDto;
+}
+
+export class WithdrawDto {
+  @ApiPropertyOptional({ description: 'Optional; never required to withdraw' })
+  @IsOptional()
+  @Transform(trimmed)
+  @IsString()
+  @MaxLength(1000)
+  reason?: string;
+}
+
+export class WithdrawalResultDto {
+  @ApiProperty() withdrewAt: string;
+  @ApiProperty() earnedMinor: number;
+  @ApiProperty() stillToBePaidMinor: number;
+  @ApiProperty({ type: MyEnrollmentDto }) enrollment: MyEnrollmentDto;
+}
+
+export class RosterQueryDto {
+  @ApiPropertyOptional({ enum: ENROLLMENT_STATUSES }) @IsOptional() @IsIn(ENROLLMENT_STATUSES) status?: EnrollmentStatus;
+  @ApiPropertyOptional({ description: 'E-mail, name or reference' }) @IsOptional() @IsString() @MaxLength(200) search?: string;
+  @ApiPropertyOptional({ description: 'Only people who still need to sign the newest consent version' })
+  @IsOptional()
+  @Transform(({ value }) => value === true || value === 'true')
+  @IsBoolean()
+  needsReconsent?: boolean;
+  @ApiPropertyOptional({ default: 1 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) page: number = 1;
+  @ApiPropertyOptional({ default: 25 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(200) pageSize: number = 25;
+}
+
+export class RosterEntryDto {
+  @ApiProperty() id: string;
+  @ApiProperty() reference: string;
+  @ApiProperty() email: string;
+  @ApiProperty({ nullable: true, type: String }) name: string | null;
+  @ApiProperty({ enum: ENROLLMENT_STATUSES }) status: EnrollmentStatus;
+  @ApiProperty({ nullable: true, type: String, description: 'Condition code (A, B…), or the internal name once unblinded' }) condition: string | null;
+  @ApiProperty({ nullable: true, type: String }) stratumKey: string | null;
+  @ApiProperty({ type: 'object', additionalProperties: true }) covariates: Record<string, number | string | null>;
+  @ApiProperty() needsReconsent: boolean;
+  @ApiProperty({ nullable: true, type: Number }) signedVersion: number | null;
+  @ApiProperty({ nullable: true, type: String }) invitationSentAt: string | null;
+  @ApiProperty({ nullable: true, type: String }) assignedAt: string | null;
+  @ApiProperty() createdAt: string;
+}
+
+export class RosterPageDto {
+  @ApiProperty({ type: [RosterEntryDto] }) items: RosterEntryDto[];
+  @ApiProperty() total: number;
+  @ApiProperty() page: number;
+  @ApiProperty() pageSize: number;
+  @ApiProperty({ type: 'object', additionalProperties: { type: 'number' } }) countsByStatus: Record<string, number>;
+}
+
+export class ImportResultDto {
+  @ApiProperty() created: number;
+  @ApiProperty({ description: 'Rows for people already on the roster; left unchanged' }) alreadyEnrolled: number;
+  @ApiProperty({ type: 'array', items: { type: 'object', properties: { line: { type: 'number' }, field: { type: 'string' }, message: { type: 'string' } } } })
+  errors: Array<{ line: number; field: string; message: string }>;
+  @ApiProperty({ type: [String] }) ignoredColumns: string[];
+}
+
+export class InviteDto {
+  @ApiPropertyOptional({ type: [String], description: 'Enrollments to invite; omit to invite everyone not yet invited' })
+  @IsOptional()
+  @IsArray()
+  @ArrayMaxSize(5000)
+  @IsUUID('4', { each: true })
+  enrollmentIds?: string[];
+}
+
+export class CountDto {
+  @ApiProperty() count: number;
+}
+
+export class MarkLostDto {
+  @ApiPropertyOptional() @IsOptional() @Transform(trimmed) @IsString() @MaxLength(1000) reason?: string;
+}
+
+export class TimelineEventDto {
+  @ApiProperty() at: string;
+  @ApiProperty() action: string;
+  @ApiProperty({ nullable: true, type: String }) actorEmail: string | null;
+  @ApiProperty({ type: 'object', additionalProperties: true }) data: Record<string, unknown>;
+}
+
+export class SignatureSummaryDto {
+  @ApiProperty() id: string;
+  @ApiProperty() version: number;
+  @ApiProperty() signedAt: string;
+  @ApiProperty() typedName: string;
+  @ApiProperty() meaning: string;
+  @ApiProperty() textFingerprint: string;
+  @ApiProperty({ nullable: true, type: String }) pdfSha256: string | null;
+  @ApiProperty({ nullable: true, type: String }) ip: string | null;
+  @ApiProperty({ nullable: true, type: String }) userAgent: string | null;
+  @ApiProperty() hasMark: boolean;
+}
+
+export class ParticipantRecordDto {
+  @ApiProperty({ type: RosterEntryDto }) enrollment: RosterEntryDto;
+  @ApiProperty({ nullable: true, type: String }) withdrawalReason: string | null;
+  @ApiProperty({ nullable: true, type: String }) exclusionReason: string | null;
+  @ApiProperty({ type: [SignatureSummaryDto] }) signatures: SignatureSummaryDto[];
+  @ApiProperty({ type: [TimelineEventDto] }) timeline: TimelineEventDto[];
+}

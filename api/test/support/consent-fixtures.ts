@@ -1,0 +1,41 @@
+import { expectStatus } from './http';
+import { signInTokenFrom, uniqueAddress, waitForMail } from './mailbox';
+import type { Browser } from './study-fixtures';
+import type { TestApp } from './test-app';
+
+/** Every template field filled, so the required-elements check has nothing left "to fill". */
+export const FULL_CONSENT_VALUES = {
+  institutionName: 'Harbor Lane Institute',
+  investigatorName: 'Dr. Imre Valcourt',
+  contactEmail: 'wayfinding@harborlane.test',
+  contactPhone: '+1 555 0100',
+  ethicsBoardName: 'Harbor Lane Research Ethics Board',
+  ethicsBoardContact: 'ethics@harborlane.test',
+  studyPurpose: 'We want to learn which kind of route cue helps people find their way in an unfamiliar building.',
+  paymentMethod: 'a transfer to the account you set up in the study portal',
+  paymentDays: 14,
+  dataRetentionYears: 5,
+  futureUseDeidentified: false,
+};
+
+/** A minimal PDF that starts like one: enough for the magic-byte check. */
+export const TINY_PDF = Buffer.from('%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n', 'latin1');
+
+export async function activeConsentVersion(browser: Browser, studyId: string, reference = 'HLREB-2026-031') {
+  const draft = await expectStatus(
+    browser.post(`/api/studies/${studyId}/consent-versions`).send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
+    201,
+  );
+  await expectStatus(browser.patch(`/api/studies/${studyId}/consent-versions/${draft.id}`).send({ approvalReference: reference, approvedAt: '2026-11-20' }), 200);
+  await expectStatus(browser.post(`/api/studies/${studyId}/consent-versions/${draft.id}/approval-letter`).attach('letter', TINY_PDF, 'approval.pdf'), 200);
+  return expectStatus(browser.post(`/api/studies/${studyId}/consent-versions/${draft.id}/activate`), 200);
+}
+
+export async function signedInParticipant(testApp: TestApp, prefix = 'participant'): Promise<{ browser: Browser; email: string }> {
+  const email = uniqueAddress(prefix);
+  await expectStatus(testApp.browser().post('/api/auth/sign-in-link').send({ email }), 202);
+  const token = signInTokenFrom(await waitForMail(email));
+  const browser = testApp.browser();
+  await expectStatus(browser.post('/api/auth/sign-in-link/consume').send({ token }), 200);
+  return { browser, email };
+}
