@@ -16,6 +16,7 @@ import { StepsModule } from './steps/steps.module';
 import { StudiesModule } from './studies/studies.module';
 import { ConsentModule } from './consent/consent.module';
 import { EnrollmentsModule } from './enrollments/enrollments.module';
+import { DocumentsModule } from './documents/documents.module';
 import { UsersModule } from './users/users.module';
 
 @Module({
@@ -35,6 +36,7 @@ import { UsersModule } from './users/users.module';
     AssignmentModule,
     ConsentModule,
     EnrollmentsModule,
+    DocumentsModule,
     PaymentsModule,
     HealthModule,
   ],

@@ -1,4 +1,6 @@
+import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { waitForMail } from './support/mailbox';
 import { activeConsentVersion, FULL_CONSENT_VALUES, signedInParticipant, TINY_PDF } from './support/consent-fixtures';
 import { expectStatus } from './support/http';
 import { Browser, draftBetweenStudy, signedInStaff } from './support/study-fixtures';
@@ -116,7 +118,7 @@ describe('signing', () => {
     expect(page).toMatchObject({ status: 'recruiting', totalPayMinor: 1500, eligibility: [{ key: 'adult', label: '18 or older' }] });
     expect(JSON.stringify(page)).not.toContain('alpha');
 
-    const { browser } = await signedInParticipant(testApp);
+    const { browser, email } = await signedInParticipant(testApp);
     await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
     await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 200);
     const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
@@ -145,6 +147,30 @@ describe('signing', () => {
     const [signature] = await testApp.dataSource.query(`SELECT typed_name, meaning, ip, user_agent, text_fingerprint FROM signature WHERE id = $1`, [signed.signatureId]);
     expect(signature).toMatchObject({ typed_name: 'Sam Example', meaning: 'I have read this form and agree to take part', text_fingerprint: version.fingerprint });
     expect(signature.ip).toBeTruthy();
+
+    // The signed copy is made by a job: poll until it is ready, then check the bytes against the stored hash.
+    let pdf: { status: number; body: Buffer; headers: Record<string, string> } | undefined;
+    for (let i = 0; i < 80; i++) {
+      const response = await browser.get(`/api/studies/${studyId}/enrollments/me/consent.pdf`).buffer(true).parse((res, done) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (chunk: Buffer) => chunks.push(chunk));
+        res.on('end', () => done(null, Buffer.concat(chunks)));
+      });
+      if (response.status === 200) {
+        pdf = response as never;
+        break;
+      }
+      expect(response.status).toBe(404);
+      await new Promise((resolve) => setTimeout(resolve, 250));
+    }
+    expect(pdf, 'signed copy never became ready').toBeDefined();
+    expect(pdf!.body.subarray(0, 5).toString('latin1')).toBe('%PDF-');
+    const sha = createHash('sha256').update(pdf!.body).digest('hex');
+    const [stored] = await testApp.dataSource.query(`SELECT pdf_sha256 FROM signature WHERE id = $1`, [signed.signatureId]);
+    expect(stored.pdf_sha256).toBe(sha);
+    expect(pdf!.headers['x-content-sha256']).toBe(sha);
+    const copy = await waitForMail(email, 20_000, /signed/i);
+    expect(copy.attachments?.[0]).toMatchObject({ contentType: 'application/pdf' });
 
     const withdrawn = await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/withdraw`).send({ reason: 'Moving away' }), 200);
     expect(withdrawn).toMatchObject({ earnedMinor: 0, enrollment: { status: 'withdrew', next: 'withdrawn' } });

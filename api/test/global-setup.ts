@@ -1,7 +1,7 @@
 import 'reflect-metadata';
 import { DataSource } from 'typeorm';
 import { dataSourceOptions } from '../src/database/data-source-options';
-import { loadDemoScenario } from '../src/database/seed/load-demo-scenario';
+import { loadDemoAccounts } from '../src/database/seed/load-demo-accounts';
 
 /** Starts every end-to-end run from an empty schema, migrated and loaded with the demo accounts. */
 export default async function setup(): Promise<void> {
@@ -13,6 +13,6 @@ export default async function setup(): Promise<void> {
   await dataSource.query('DROP SCHEMA public CASCADE');
   await dataSource.query('CREATE SCHEMA public');
   await dataSource.runMigrations({ transaction: 'each' });
-  await loadDemoScenario(dataSource);
+  await loadDemoAccounts(dataSource);
   await dataSource.destroy();
 }

@@ -184,7 +184,7 @@ async function main(): Promise<number> {
     console.error(DATABASE_URL_HELP);
     return 1;
   }
-  const arrivals = wholeNumberSetting('BENCH_ARRIVALS', 2000, 100, 100_000);
+  const arrivals = wholeNumberSetting('BENCH_ARRIVALS', 1000, 100, 100_000);
   const rounds = wholeNumberSetting('BENCH_ROUNDS', 3, 1, 20);
   const log = (line: string) => console.log(`[bench] ${line}`);
 

@@ -35,7 +35,7 @@ describe('fillConsentTemplate', () => {
     expect(text).toContain('Each step has its own pay, listed above; completing every step pays $30.00.');
     expect(text).toContain('If you withdraw, or the research team ends your participation, you are paid for every step you completed');
     expect(text).toContain('Payment is sent by bank transfer through our payment provider within 7 days after a completed step is confirmed.');
-    expect(text).toContain("Harbor Lane Institute's finance office may ask for your details");
+    expect(text).toContain('Harbor Lane Institute’s finance office may ask for your details');
   });
 
   it('never shows the staff notice or the element markers to participants', () => {

@@ -2,7 +2,7 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { templates, STAFF_NOTICE } from '@evenhand/legal-templates';
 import { createHash } from 'node:crypto';
-import { DataSource, EntityManager } from 'typeorm';
+import { DataSource, EntityManager, IsNull } from 'typeorm';
 import { AuditActor, AuditService } from '../audit/audit.service';
 import { DomainException } from '../common/errors/domain.exception';
 import { StepsService } from '../steps/steps.service';
@@ -330,6 +330,18 @@ export class ConsentService {
         textFingerprint: input.version.fingerprint!,
       }),
     );
+  }
+
+  signatureWithPdf(signatureId: string): Promise<SignatureEntity | null> {
+    return this.dataSource.createQueryBuilder(SignatureEntity, 's').addSelect('s.pdf').where('s.id = :signatureId', { signatureId }).getOne();
+  }
+
+  async storeSignedPdf(signatureId: string, pdf: Buffer, sha256: string): Promise<void> {
+    await this.dataSource.getRepository(SignatureEntity).update({ id: signatureId, pdfSha256: IsNull() }, { pdf, pdfSha256: sha256, pdfReadyAt: new Date() });
+  }
+
+  async markCopyEmailed(signatureId: string): Promise<void> {
+    await this.dataSource.getRepository(SignatureEntity).update({ id: signatureId }, { copyEmailedAt: new Date() });
   }
 
   signaturesOf(enrollmentId: string): Promise<SignatureEntity[]> {

@@ -1,12 +1,12 @@
 import { createHash } from 'node:crypto';
 import { PNG } from 'pngjs';
-import { describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { wayfindingConsentFields } from '../consent/consent-fields.fixture';
 import { fillConsentTemplate } from '../consent/consent-template';
 import { renderedConsentText, renderedTextFingerprint } from '../consent/consent-text';
 import { DocumentError } from './document-error';
 import { extractPdfText } from './pdf-text.fixture';
-import { buildSignedConsentPdf, SignedConsentPdfInput } from './signed-consent-pdf';
+import { buildSignedConsentPdf, SignedConsentPdf, SignedConsentPdfInput } from './signed-consent-pdf';
 
 /** A drawn mark as a signature pad would send it: a dark stroke on a transparent background. */
 function drawnMarkDataUrl(): string {
@@ -55,10 +55,15 @@ function input(overrides: Partial<SignedConsentPdfInput> = {}): SignedConsentPdf
   };
 }
 
-describe('buildSignedConsentPdf (45 CFR 46.117(a) signed copy; 21 CFR 11.50 signature manifestation)', () => {
-  it('prints the printed name, the date and time with time zone, the meaning and the fingerprint, read back with pdf.js', async () => {
-    const pdf = await buildSignedConsentPdf(input());
-    const { pages } = await extractPdfText(pdf.bytes);
+describe('buildSignedConsentPdf (45 CFR 46.117(a) signed copy; 21 CFR 11.50 signature manifestation)', { timeout: 30_000 }, () => {
+  let pdf: SignedConsentPdf;
+  let pages: { text: string }[];
+  beforeAll(async () => {
+    pdf = await buildSignedConsentPdf(input());
+    pages = (await extractPdfText(pdf.bytes)).pages;
+  }, 60_000);
+
+  it('prints the printed name, the date and time with time zone, the meaning and the fingerprint, read back with pdf.js', () => {
     const all = pages.map((p) => p.text).join('\n');
     const fingerprint = renderedTextFingerprint(consentText);
 
@@ -73,26 +78,28 @@ describe('buildSignedConsentPdf (45 CFR 46.117(a) signed copy; 21 CFR 11.50 sign
     expect(all).toContain('Page 1 of');
   });
 
-  it('contains the full text as signed, headings included', async () => {
-    const pdf = await buildSignedConsentPdf(input());
-    const all = (await extractPdfText(pdf.bytes)).pages.map((p) => p.text).join(' ').replace(/\s+/g, ' ');
+  it('contains the full text as signed, headings included', () => {
+    const all = pages.map((p) => p.text).join(' ').replace(/\s+/g, ' ');
     for (const heading of ['Key information about this study', 'Possible risks and discomforts', 'Whom to contact', 'Use of your information in future research', 'Payment terms']) {
       expect(all).toContain(heading);
     }
     expect(all).toContain('Taking part is voluntary. If you decide not to take part, you lose nothing you would otherwise have, and there is no penalty.');
   });
 
-  it('shows accented letters and typographic punctuation as text (the shipped DejaVu Sans covers them)', async () => {
-    const pdf = await buildSignedConsentPdf(input());
+  it('shows accented letters and typographic punctuation as text (the shipped DejaVu Sans covers them)', () => {
     expect(pdf.unsupportedCharacters).toEqual([]);
-    const all = (await extractPdfText(pdf.bytes)).pages.map((p) => p.text).join(' ').replace(/\s+/g, ' ');
+    const all = pages.map((p) => p.text).join(' ').replace(/\s+/g, ' ');
     expect(all).toContain('Dr. Zoë Ångström-Núñez');
     expect(all).toContain('We test whether “sound” cues – or map cues — help people ≥ 18 find their way; it’s ≤ 1 hour, paid in €, £ or $.');
   });
 
-  it('ends with a certificate page: version, approval reference, IP, user agent, enrollment reference, fingerprints', async () => {
-    const pdf = await buildSignedConsentPdf(input());
-    const { pages } = await extractPdfText(pdf.bytes);
+  it('reports characters the shipped font cannot show, so the caller can flag the copy', async () => {
+    // DejaVu Sans has no CJK ideographs (its coverage list: Latin, Greek, Cyrillic, Armenian, Georgian, Hebrew, Arabic…).
+    const other = await buildSignedConsentPdf(input({ signer: { ...input().signer, typedName: 'Wang 王小明', markPngDataUrl: null } }));
+    expect(other.unsupportedCharacters).toEqual(['王', '小', '明']);
+  });
+
+  it('ends with a certificate page: version, approval reference, IP, user agent, enrollment reference, fingerprints', () => {
     const certificate = pages[pages.length - 1].text;
     const flat = certificate.replace(/\n/g, ' ');
     expect(certificate).toMatch(/^Signature certificate/);
@@ -112,7 +119,7 @@ describe('buildSignedConsentPdf (45 CFR 46.117(a) signed copy; 21 CFR 11.50 sign
   });
 
   it('returns the SHA-256 of exactly the bytes it returns, and the same bytes for the same input', async () => {
-    const first = await buildSignedConsentPdf(input());
+    const first = pdf;
     expect(first.sha256).toBe(createHash('sha256').update(first.bytes).digest('hex'));
     const second = await buildSignedConsentPdf(input());
     expect(Buffer.from(second.bytes).equals(Buffer.from(first.bytes))).toBe(true);
@@ -122,19 +129,19 @@ describe('buildSignedConsentPdf (45 CFR 46.117(a) signed copy; 21 CFR 11.50 sign
   });
 
   it('sets the document dates from the input, not the clock', async () => {
-    const pdf = await buildSignedConsentPdf(input({ issuedAt: new Date('2025-03-14T09:27:10Z') }));
-    const { info } = await extractPdfText(pdf.bytes);
-    expect(info.CreationDate).toBe("D:20250314092710Z");
-    expect(info.ModDate).toBe("D:20250314092710Z");
+    const issued = await buildSignedConsentPdf(input({ issuedAt: new Date('2025-03-14T09:27:10Z') }));
+    const { info } = await extractPdfText(issued.bytes);
+    expect(info.CreationDate).toBe('D:20250314092710Z');
+    expect(info.ModDate).toBe('D:20250314092710Z');
     expect(info.Title).toBe('Signed consent form: Wayfinding cues (version 2)');
   });
 
   it('works without a drawn mark and says so on the certificate', async () => {
-    const pdf = await buildSignedConsentPdf(input({ signer: { ...input().signer, markPngDataUrl: null } }));
-    const { pages } = await extractPdfText(pdf.bytes);
-    expect(pages.map((p) => p.text).join('\n')).not.toContain('DRAWN MARK');
-    expect(pages[pages.length - 1].text).toContain('no mark drawn');
-    expect(pdf.markSha256).toBeNull();
+    const unmarked = await buildSignedConsentPdf(input({ signer: { ...input().signer, markPngDataUrl: null } }));
+    const unmarkedPages = (await extractPdfText(unmarked.bytes)).pages;
+    expect(unmarkedPages.map((p) => p.text).join('\n')).not.toContain('DRAWN MARK');
+    expect(unmarkedPages[unmarkedPages.length - 1].text).toContain('no mark drawn');
+    expect(unmarked.markSha256).toBeNull();
   });
 
   it('refuses a fingerprint that does not match the text, naming the field', async () => {

@@ -588,6 +588,16 @@ export class EnrollmentsService implements OnModuleInit {
     };
   }
 
+  /** What the documents domain needs to address and label a signed copy. */
+  async summaryOf(enrollmentId: string): Promise<{ studyId: string; reference: string; email: string }> {
+    const [row] = await this.dataSource.query(
+      `SELECT e.study_id, e.reference, u.email FROM enrollment e JOIN user_account u ON u.id = e.participant_id WHERE e.id = $1`,
+      [enrollmentId],
+    );
+    if (!row) throw new DomainException('NOT_FOUND', 'No such enrollment.');
+    return { studyId: row.study_id, reference: row.reference, email: row.email };
+  }
+
   async staffPdf(studyId: string, enrollmentId: string, signatureId: string) {
     const enrollment = await this.dataSource.getRepository(EnrollmentEntity).findOne({ where: { id: enrollmentId, studyId } });
     if (!enrollment) throw new DomainException('NOT_FOUND', 'No such participant in this study.');

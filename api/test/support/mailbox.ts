@@ -7,14 +7,17 @@ export interface MailboxMessage {
   text: string;
   html: string;
   to: Array<{ address: string }>;
+  attachments?: Array<{ contentType: string; fileName: string; length: number }>;
 }
 
-export async function waitForMail(recipient: string, timeoutMs = 20_000): Promise<MailboxMessage> {
+export async function waitForMail(recipient: string, timeoutMs = 20_000, subject?: RegExp): Promise<MailboxMessage> {
   const deadline = Date.now() + timeoutMs;
   while (Date.now() < deadline) {
     const response = await fetch(`${MAILBOX_URL}/api/email`);
     const messages = (await response.json()) as MailboxMessage[];
-    const found = messages.filter((m) => m.to.some((to) => to.address.toLowerCase() === recipient.toLowerCase()));
+    const found = messages.filter(
+      (m) => m.to.some((to) => to.address.toLowerCase() === recipient.toLowerCase()) && (!subject || subject.test(m.subject)),
+    );
     if (found.length > 0) return found[found.length - 1];
     await new Promise((resolve) => setTimeout(resolve, 250));
   }

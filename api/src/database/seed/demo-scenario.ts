@@ -10,35 +10,123 @@ export const DEMO_STAFF: Array<{ email: string; name: string; role: StaffRole }>
   { email: 'auditor@evenhand.test', name: 'Aurel Quist', role: 'auditor' },
 ];
 
-export const DEMO_STUDIES = [
+export const DEMO_LAB = {
+  labName: 'Harbor Lane Cognition Lab',
+  consentValues: {
+    institutionName: 'Harbor Lane Institute',
+    investigatorName: 'Dr. Imre Valcourt',
+    contactPhone: '+1 555 0100',
+    ethicsBoardName: 'Harbor Lane Research Ethics Board',
+    ethicsBoardContact: 'ethics@harborlane.test, +1 555 0199',
+    paymentMethod: 'a transfer to the payout account you set up in the study portal',
+    paymentDays: 14,
+    dataRetentionYears: 5,
+    futureUseDeidentified: false,
+  },
+};
+
+export interface DemoStudy {
+  slug: string;
+  title: string;
+  protocolNumber: string;
+  design: 'between' | 'within';
+  summary: string;
+  estimatedMinutes: number;
+  targetSize: number;
+  budgetMinor: number;
+  contactEmail: string;
+  blinded: boolean;
+  purpose: string;
+  conditions: Array<{ internalName: string; participantLabel: string; participantInstructions: string }>;
+  factors: Array<{ key: string; label: string; kind: 'numeric'; cutPoints: number[] }>;
+  screening: Array<{ key: string; label: string; kind: 'yes-no'; eligibleValues: [boolean]; criterion: string }>;
+  steps: Array<{ title: string; description: string; payMinor: number }>;
+  scheme: Record<string, unknown>;
+  approvalReference: string;
+  /** How many demo participants sign up, and how many of them fail screening. */
+  participants: { prefix: string; first: number; count: number; excluded: number };
+  /** An amendment activated after everyone signed; this many sign it again. */
+  amendment?: { approvalReference: string; note: string; resign: number };
+}
+
+export const DEMO_STUDIES: DemoStudy[] = [
   {
     slug: 'wayfinding-cues',
     title: 'Wayfinding cues',
     protocolNumber: 'HLCL-2026-014',
-    design: 'between' as const,
-    status: 'recruiting' as const,
+    design: 'between',
+    summary:
+      'Three short online sessions in which you find your way through a virtual building. We compare different kinds of route help.',
+    estimatedMinutes: 75,
     targetSize: 150,
     budgetMinor: 600000,
-    currency: 'USD',
+    contactEmail: 'wayfinding@harborlane.test',
     blinded: true,
+    purpose: 'We want to learn which kind of route help lets people find their way best in a building they have never seen.',
+    conditions: [
+      {
+        internalName: 'audio cues',
+        participantLabel: 'Route guide, version 1',
+        participantInstructions: 'Turn your sound on. At each junction you will hear a short spoken hint about where to go next.',
+      },
+      {
+        internalName: 'map cues',
+        participantLabel: 'Route guide, version 2',
+        participantInstructions: 'A small floor plan stays in the corner of the screen. Your position is shown on it as you walk.',
+      },
+      {
+        internalName: 'no cues',
+        participantLabel: 'Route guide, version 3',
+        participantInstructions: 'Find your way using what you see in the building: signs, doors and landmarks.',
+      },
+    ],
+    factors: [{ key: 'sense_of_direction', label: 'On a scale from 0 to 100, how good is your sense of direction?', kind: 'numeric', cutPoints: [50] }],
+    screening: [
+      { key: 'adult', label: 'Are you 18 or older?', kind: 'yes-no', eligibleValues: [true], criterion: '18 or older' },
+      { key: 'vision', label: 'Can you see a computer screen clearly (with glasses or lenses if you use them)?', kind: 'yes-no', eligibleValues: [true], criterion: 'Able to see a screen clearly' },
+    ],
+    steps: [
+      { title: 'Session 1: learning the building', description: 'About 20 minutes.', payMinor: 1000 },
+      { title: 'Session 2: finding rooms', description: 'About 25 minutes, at least a day after session 1.', payMinor: 1200 },
+      { title: 'Session 3: finding rooms again', description: 'About 30 minutes, a week after session 2.', payMinor: 1500 },
+    ],
+    scheme: { method: 'stratified-blocks', blockSizes: [3, 6] },
+    approvalReference: 'HLREB-2026-031',
+    participants: { prefix: 'p', first: 1, count: 48, excluded: 3 },
+    amendment: { approvalReference: 'HLREB-2026-031-A1', note: 'Session 3 may also be done on a tablet.', resign: 20 },
   },
   {
     slug: 'checkout-flows',
     title: 'Checkout flows',
     protocolNumber: 'HLCL-2026-021',
-    design: 'within' as const,
-    status: 'draft' as const,
+    design: 'within',
+    summary: 'One online session in which you buy a few things in three versions of a pretend shop and tell us how it went.',
+    estimatedMinutes: 40,
     targetSize: 36,
     budgetMinor: 180000,
-    currency: 'USD',
+    contactEmail: 'checkout@harborlane.test',
     blinded: false,
+    purpose: 'We want to learn how the design of an online checkout changes how quickly and comfortably people finish a purchase.',
+    conditions: [
+      { internalName: 'one-page checkout', participantLabel: 'Shop A', participantInstructions: 'Buy the three items on your list in Shop A.' },
+      { internalName: 'step-by-step checkout', participantLabel: 'Shop B', participantInstructions: 'Buy the three items on your list in Shop B.' },
+      { internalName: 'express checkout', participantLabel: 'Shop C', participantInstructions: 'Buy the three items on your list in Shop C.' },
+    ],
+    factors: [],
+    screening: [{ key: 'adult', label: 'Are you 18 or older?', kind: 'yes-no', eligibleValues: [true], criterion: '18 or older' }],
+    steps: [{ title: 'The shopping session', description: 'About 40 minutes in one sitting.', payMinor: 2500 }],
+    scheme: { method: 'williams', squaresPerBlock: [1] },
+    approvalReference: 'HLREB-2026-044',
+    participants: { prefix: 'p', first: 101, count: 12, excluded: 0 },
   },
 ];
 
-/** Which demo staff work on which demo study. */
-export const DEMO_MEMBERSHIPS: Array<{ email: string; slug: string; role: StaffRole }> = [
-  { email: 'coordinator@evenhand.test', slug: 'wayfinding-cues', role: 'coordinator' },
+/** Which demo staff work on which demo study (the coordinator creates them and is a member already). */
+export const DEMO_MEMBERSHIPS: Array<{ email: string; slug: string; role: 'coordinator' | 'researcher' | 'auditor' }> = [
   { email: 'researcher@evenhand.test', slug: 'wayfinding-cues', role: 'researcher' },
-  { email: 'coordinator@evenhand.test', slug: 'checkout-flows', role: 'coordinator' },
   { email: 'researcher@evenhand.test', slug: 'checkout-flows', role: 'researcher' },
 ];
+
+export function demoParticipantEmail(prefix: string, n: number): string {
+  return `${prefix}${String(n).padStart(3, '0')}@evenhand.test`;
+}

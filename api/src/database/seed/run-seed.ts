@@ -1,20 +1,24 @@
 import 'reflect-metadata';
+import { NestFactory } from '@nestjs/core';
 import { DataSource } from 'typeorm';
+import { AppModule } from '../../app.module';
 import { loadConfig } from '../../config/app-config';
-import { dataSourceOptions } from '../data-source-options';
-import { loadDemoScenario } from './load-demo-scenario';
+import { buildDemoStudies } from './build-demo-studies';
+import { loadDemoAccounts } from './load-demo-accounts';
 
 /** `npm run seed -w api`: the demo accounts and scenario. Refuses to run in production. */
 async function main(): Promise<void> {
   const config = loadConfig();
   if (config.nodeEnv === 'production') throw new Error('The demo scenario is never loaded in production.');
-  const dataSource = new DataSource(dataSourceOptions(config.databaseUrl));
-  await dataSource.initialize();
+  // This process only writes; the running api picks up the jobs it queues (signed copies, e-mail).
+  process.env.RUN_WORKERS = 'false';
+  const app = await NestFactory.createApplicationContext(AppModule, { logger: ['error', 'warn'] });
   try {
-    const loaded = await loadDemoScenario(dataSource);
-    console.log(`Demo scenario ready: ${loaded.staff} staff accounts, ${loaded.studies} studies.`);
+    const staff = await loadDemoAccounts(app.get(DataSource));
+    const built = await buildDemoStudies(app);
+    console.log(`Demo scenario ready: ${staff} staff accounts; ${built.length ? `built ${built.join(', ')}` : 'studies already present'}.`);
   } finally {
-    await dataSource.destroy();
+    await app.close();
   }
 }
 

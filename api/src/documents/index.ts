@@ -1,0 +1,2 @@
+export { DocumentError, DocumentErrorCode } from './document-error';
+export * from './signed-consent-pdf';
