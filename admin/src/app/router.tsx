@@ -1,0 +1,28 @@
+import { createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { LoadingState } from '@/components/ui/states';
+import { RootErrorBoundary } from './routes/root-error';
+
+export const routes: RouteObject[] = [
+  {
+    ErrorBoundary: RootErrorBoundary,
+    hydrateFallbackElement: <LoadingState label="Opening Evenhand…" className="min-h-dvh" />,
+    children: [
+      { path: '/sign-in', lazy: () => import('./routes/sign-in') },
+      {
+        path: '/',
+        lazy: () => import('./routes/app/root'),
+        children: [
+          { index: true, lazy: () => import('./routes/app/home') },
+          { path: 'staff', lazy: () => import('./routes/app/staff') },
+          { path: 'studies', lazy: () => import('./routes/app/studies') },
+          { path: 'audit', lazy: () => import('./routes/app/audit') },
+        ],
+      },
+      { path: '*', lazy: () => import('./routes/not-found') },
+    ],
+  },
+];
+
+export function createAppRouter() {
+  return createBrowserRouter(routes);
+}

@@ -1,0 +1,44 @@
+/** Paths that must never trigger a refresh-and-retry: they are the session calls themselves. */
+const sessionPaths = ['/api/auth/sign-in', '/api/auth/refresh', '/api/auth/sign-out'];
+
+export interface SessionFetchOptions {
+  fetch: (request: Request) => Promise<Response>;
+  /** Calls POST /api/auth/refresh; resolves true when a new session was issued. */
+  refresh: () => Promise<boolean>;
+  /** Told once per failed refresh, so the app can return to sign-in. */
+  onSessionLost: () => void;
+}
+
+/**
+ * Wraps fetch so a 401 triggers one refresh and one retry. Concurrent 401s share a single refresh
+ * call: the api rotates refresh tokens and treats reuse of a rotated one as theft.
+ */
+export function createSessionFetch(options: SessionFetchOptions): (request: Request) => Promise<Response> {
+  let refreshing: Promise<boolean> | null = null;
+
+  const refreshOnce = () => {
+    refreshing ??= options
+      .refresh()
+      .catch(() => false)
+      .finally(() => {
+        refreshing = null;
+      });
+    return refreshing;
+  };
+
+  return async (request) => {
+    const path = new URL(request.url).pathname;
+    if (sessionPaths.includes(path)) return options.fetch(request);
+
+    const retry = request.clone();
+    const response = await options.fetch(request);
+    if (response.status !== 401) return response;
+
+    const renewed = await refreshOnce();
+    if (!renewed) {
+      options.onSessionLost();
+      return response;
+    }
+    return options.fetch(retry);
+  };
+}
