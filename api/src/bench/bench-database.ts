@@ -5,6 +5,9 @@ import { dataSourceOptions } from '../database/data-source-options';
 /** pg-boss keeps its tables here (see JobQueueService); the bench removes it only if it created it. */
 const JOB_QUEUE_SCHEMA = 'job_queue';
 
+/** A problem with how the benchmark was started: printed as a message, without a stack. */
+export class BenchSetupError extends Error {}
+
 export const DATABASE_URL_HELP = [
   'DATABASE_URL is not set. The benchmark needs a PostgreSQL database it may add a throwaway schema to; it starts nothing itself.',
   'Ways to get one:',
@@ -36,16 +39,16 @@ export class BenchDatabase {
     try {
       parsed = new URL(databaseUrl);
     } catch {
-      throw new Error('DATABASE_URL is not a valid URL (expected postgres://user@host:port/database)');
+      throw new BenchSetupError('DATABASE_URL is not a valid URL (expected postgres://user@host:port/database)');
     }
     if (!['postgres:', 'postgresql:'].includes(parsed.protocol)) {
-      throw new Error(`DATABASE_URL must start with postgres:// (got ${parsed.protocol}//)`);
+      throw new BenchSetupError(`DATABASE_URL must start with postgres:// (got ${parsed.protocol}//)`);
     }
     const admin = new Client({ connectionString: databaseUrl, application_name: 'evenhand-bench-admin' });
     try {
       await admin.connect();
     } catch (error) {
-      throw new Error(`Cannot connect to DATABASE_URL (${parsed.host}${parsed.pathname}): ${(error as Error).message}`);
+      throw new BenchSetupError(`Cannot connect to DATABASE_URL (${parsed.host}${parsed.pathname}): ${(error as Error).message}`);
     }
     return new BenchDatabase(admin, databaseUrl);
   }

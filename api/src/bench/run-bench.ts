@@ -13,7 +13,7 @@ import { AppModule } from '../app.module';
 import type { AuditActor } from '../audit/audit.service';
 import { RandomizationService } from '../randomization/randomization.service';
 import { createSeededStream, generateSeed, streamLabel } from '../randomization/seeded-stream';
-import { BenchDatabase, DATABASE_URL_HELP } from './bench-database';
+import { BenchDatabase, BenchSetupError, DATABASE_URL_HELP } from './bench-database';
 import { formatTable, median, reportRow, ReportTable } from './bench-report';
 import { BENCH_SCHEMES, BenchStudies, BenchStudy, PRETEST_CUT } from './bench-study';
 import { runConcurrently, timeSync } from './concurrent-runner';
@@ -31,7 +31,7 @@ function wholeNumberSetting(name: string, fallback: number, min: number, max: nu
   if (raw === undefined || raw === '') return fallback;
   const value = Number(raw);
   if (!Number.isSafeInteger(value) || value < min || value > max) {
-    throw new Error(`${name} must be a whole number from ${min} to ${max} (got "${raw}")`);
+    throw new BenchSetupError(`${name} must be a whole number from ${min} to ${max} (got "${raw}")`);
   }
   return value;
 }
@@ -284,6 +284,14 @@ async function main(): Promise<number> {
 main().then(
   (code) => process.exit(code),
   (error) => {
+    if (error instanceof Error && error.message === 'interrupted') {
+      console.error('[bench] interrupted; nothing was measured to the end');
+      process.exit(130);
+    }
+    if (error instanceof BenchSetupError) {
+      console.error(error.message);
+      process.exit(1);
+    }
     console.error(error instanceof Error ? (error.stack ?? error.message) : error);
     process.exit(1);
   },
