@@ -253,6 +253,34 @@ describe('sealed sequence', () => {
   });
 });
 
+describe('matched pairs', () => {
+  it('pairs a pretested cohort once, places each member on signing, and verifies after unblinding', async () => {
+    const { studyId } = await draftBetweenStudy(researcher, { scheme: { method: 'matched-pairs', pretestKey: 'pretest' } });
+    await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
+    const scores = [12, 88, 45, 46, 90, 13, 70];
+    const enrollments = await insertEnrollments(testApp, studyId, scores.map((pretest) => ({ pretest })));
+    await testApp.dataSource.query(`UPDATE enrollment SET status = 'screened' WHERE id = ANY($1)`, [enrollments]);
+    const paired = await expectStatus(researcher.post(`/api/studies/${studyId}/enrollments/pair-cohort`), 200);
+    expect(paired).toMatchObject({ cohort: 7, pairs: 3, leftoverEnrollmentId: expect.any(String) });
+    await expectStatus(researcher.post(`/api/studies/${studyId}/enrollments/pair-cohort`), 409, 'CONFLICT');
+    // Neighbours by pretest share a pair and get different conditions.
+    const slots: Array<{ stratum_key: string; condition_id: string; reserved_for: string }> = await testApp.dataSource.query(
+      `SELECT stratum_key, condition_id, reserved_for FROM allocation_slot WHERE study_id = $1 ORDER BY stratum_key, position`,
+      [studyId],
+    );
+    const pairs = new Map<string, typeof slots>();
+    for (const slot of slots) pairs.set(slot.stratum_key, [...(pairs.get(slot.stratum_key) ?? []), slot]);
+    for (const [key, members] of pairs) if (key !== 'unpaired') expect(new Set(members.map((m) => m.condition_id)).size).toBe(2);
+    const outcomes = await Promise.all(enrollments.slice(0, 4).map((id, i) => allocateInOwnTransaction(studyId, id, { pretest: scores[i] })));
+    for (const [i, outcome] of outcomes.entries()) {
+      expect(outcome.conditionId).toBe(slots.find((s) => s.reserved_for === enrollments[i])!.condition_id);
+    }
+    await expectStatus(researcher.post(`/api/studies/${studyId}/unblind`).send({ reason: 'Checking the pairing for the audit' }), 200);
+    const report = await expectStatus(researcher.get(`/api/studies/${studyId}/assignment/verify`), 200);
+    expect(report).toMatchObject({ allMatch: true, commitmentMatches: true, matched: 7 });
+  });
+});
+
 describe('dry run', () => {
   it('simulates 1,000 arrivals and returns balance per condition, stratum and level', async () => {
     const { studyId, conditionIds } = await draftBetweenStudy(researcher);

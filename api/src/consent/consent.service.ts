@@ -315,7 +315,7 @@ export class ConsentService {
 
   async recordSignature(
     manager: EntityManager,
-    input: { enrollmentId: string; version: ConsentVersionEntity; typedName: string; mark: string | null; ip: string | null; userAgent: string | null },
+    input: { enrollmentId: string; version: ConsentVersionEntity; typedName: string; mark: string | null; timeZone: string | null; ip: string | null; userAgent: string | null },
   ): Promise<SignatureEntity> {
     return manager.save(
       manager.create(SignatureEntity, {
@@ -325,6 +325,7 @@ export class ConsentService {
         mark: input.mark,
         meaning: SIGNATURE_MEANING,
         signedAt: new Date(),
+        timeZone: input.timeZone,
         ip: input.ip,
         userAgent: input.userAgent,
         textFingerprint: input.version.fingerprint!,

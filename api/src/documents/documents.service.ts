@@ -58,7 +58,7 @@ export class DocumentsService implements OnModuleInit {
         signer: {
           typedName: signature.typedName,
           signedAt: signature.signedAt,
-          timeZone: 'UTC',
+          timeZone: signature.timeZone ?? 'UTC',
           meaning: signature.meaning,
           markPngDataUrl: signature.mark,
           ipAddress: signature.ip ?? 'not recorded',
@@ -69,7 +69,7 @@ export class DocumentsService implements OnModuleInit {
       await this.consent.storeSignedPdf(signature.id, pdf, built.sha256);
     }
     if (!signature.copyEmailedAt) {
-      const signedAt = describeSigningTime(signature.signedAt, 'UTC');
+      const signedAt = describeSigningTime(signature.signedAt, signature.timeZone ?? 'UTC');
       const email = renderEmail('email/signed-copy', {
         participantName: signature.typedName,
         studyTitle: study.title,

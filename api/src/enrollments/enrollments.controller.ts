@@ -14,6 +14,7 @@ import {
   InviteDto,
   MarkLostDto,
   MyEnrollmentDto,
+  PairCohortResultDto,
   ParticipantRecordDto,
   RosterEntryDto,
   RosterPageDto,
@@ -139,6 +140,14 @@ export class RosterController {
   @ApiOkResponse({ type: CountDto })
   async invite(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: InviteDto): Promise<CountDto> {
     return { count: await this.enrollments.invite(user, studyId, body.enrollmentIds) };
+  }
+
+  @Post('pair-cohort')
+  @HttpCode(200)
+  @Roles('coordinator', 'researcher', 'admin')
+  @ApiOkResponse({ type: PairCohortResultDto })
+  pairCohort(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<PairCohortResultDto> {
+    return this.enrollments.pairCohort(user, studyId);
   }
 
   @Post('reconsent-reminders')

@@ -38,6 +38,17 @@ import { evaluateScreening } from './screening-rules';
 export const RANDOMIZED_STATUSES: EnrollmentStatus[] = ['assigned', 'active', 'completed', 'withdrew', 'lost'];
 const CLOSED_STATUSES: EnrollmentStatus[] = ['excluded', 'withdrew', 'lost', 'completed'];
 
+/** Keeps a browser-reported time zone only when the runtime knows it; the signed copy then shows local time too. */
+function validTimeZone(timeZone: string | undefined): string | null {
+  if (!timeZone) return null;
+  try {
+    new Intl.DateTimeFormat('en-US', { timeZone });
+    return timeZone;
+  } catch {
+    return null;
+  }
+}
+
 function newReference(): string {
   // Pseudonymous and short enough to read over the phone; unique per study by index.
   const alphabet = 'ABCDEFGHJKLMNPQRSTUVWXYZ23456789';
@@ -261,6 +272,7 @@ export class EnrollmentsService implements OnModuleInit {
         version: active,
         typedName: input.typedName,
         mark: input.mark ?? null,
+        timeZone: validTimeZone(input.timeZone),
         ip: client.ip,
         userAgent: client.userAgent,
       });
@@ -529,6 +541,21 @@ export class EnrollmentsService implements OnModuleInit {
       }
       await this.audit.record(manager, { chain: studyId, actor, action: 'roster.invited', subjectType: 'study', subjectId: studyId, data: { count: entities.length } });
       return entities.length;
+    });
+  }
+
+  /** Matched pairs: everyone on the roster with a pretest who has not consented yet forms the cohort. */
+  async pairCohort(actor: AuditActor, studyId: string): Promise<{ pairs: number; leftoverEnrollmentId: string | null; cohort: number }> {
+    return this.dataSource.transaction(async (manager) => {
+      const scheme = await this.randomization.schemeOf(studyId, manager);
+      const pretestKey = (scheme?.settings as { pretestKey?: string } | undefined)?.pretestKey;
+      if (!pretestKey) throw new DomainException('CONFLICT', 'Pairing applies to a study whose scheme is matched pairs.');
+      const rows = await manager.find(EnrollmentEntity, { where: { studyId }, order: { createdAt: 'ASC', id: 'ASC' } });
+      const cohort = rows
+        .filter((e) => ['invited', 'screened'].includes(e.status) && typeof e.covariates[pretestKey] === 'number')
+        .map((e) => ({ enrollmentId: e.id, pretest: e.covariates[pretestKey] as number }));
+      const result = await this.randomization.pairCohort(manager, actor, studyId, cohort);
+      return { ...result, cohort: cohort.length };
     });
   }
 

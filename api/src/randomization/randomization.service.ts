@@ -4,12 +4,13 @@ import { DataSource, EntityManager } from 'typeorm';
 import { AuditActor, AuditService } from '../audit/audit.service';
 import { DomainException } from '../common/errors/domain.exception';
 import { computeCommitment } from './commitment';
-import { generateSlots, RecordedAllocation, slotStratumKey, usesSlots, verifyAllocations, VerificationReport } from './derive-sequence';
+import { deriveSequence, generateSlots, RecordedAllocation, slotStratumKey, usesSlots, verifyAllocations, VerificationReport } from './derive-sequence';
 import { DryRunResult, runDryRun, CovariateDistribution } from './dry-run';
 import { AllocationSlotEntity } from './entities/allocation-slot.entity';
 import { AllocationEntity } from './entities/allocation.entity';
 import { AssignmentSchemeEntity } from './entities/assignment-scheme.entity';
-import { isWithinDesign, parseSchemeParameters, SchemeMethod, SchemeParameters } from './scheme-parameters';
+import { isWithinDesign, parseParametersOf, parseSchemeParameters, SchemeMethod, SchemeParameters } from './scheme-parameters';
+import { assignMatchedPairs } from './schemes/matched-pairs';
 import { assignByMinimization, emptyTallyOf, MinimizationTally } from './schemes/minimization';
 import { generateSeed } from './seeded-stream';
 
@@ -384,6 +385,49 @@ export class RandomizationService {
     };
   }
 
+  /**
+   * Matched pairs: pairs the whole pretested cohort at once (sorted by pretest, neighbours paired, a fair coin in
+   * each pair) and reserves each member's slot, which they take when they sign. The cohort is kept as paired so
+   * verification can pair it again from the revealed seed.
+   */
+  async pairCohort(
+    manager: EntityManager,
+    actor: AuditActor,
+    studyId: string,
+    cohort: Array<{ enrollmentId: string; pretest: number }>,
+  ): Promise<{ pairs: number; leftoverEnrollmentId: string | null }> {
+    await manager.query(`SELECT pg_advisory_xact_lock(hashtextextended($1, 0))`, [`allocation:${studyId}:*`]);
+    const scheme = await this.schemeOf(studyId, manager);
+    if (!scheme?.sealedParameters || scheme.method !== 'matched-pairs') {
+      throw new DomainException('CONFLICT', 'Pairing applies to an open study whose scheme is matched pairs.');
+    }
+    if (scheme.pairedCohort) throw new DomainException('CONFLICT', 'The cohort has already been paired; matched pairs pair one batch.');
+    if (cohort.length < 2) throw new DomainException('CONFLICT', 'Pairing needs at least two pretested people on the roster.');
+    const parameters = parseParametersOf(scheme.sealedParameters, ['matched-pairs']);
+    const seed = await this.sealedSeed(manager, studyId);
+    const result = assignMatchedPairs(seed, parameters, cohort.map((c) => ({ participantId: c.enrollmentId, pretest: c.pretest })));
+    const slots = [
+      ...result.pairs.flatMap((pair) =>
+        pair.members.map((member, i) => ({ stratumKey: `pair-${pair.pairIndex}`, position: i + 1, member })),
+      ),
+      ...(result.leftover ? [{ stratumKey: 'unpaired', position: 1, member: result.leftover }] : []),
+    ];
+    await manager.insert(
+      AllocationSlotEntity,
+      slots.map(({ stratumKey, position, member }) => ({ studyId, stratumKey, position, conditionId: member.conditionId, reservedFor: member.participantId })),
+    );
+    await manager.update(AssignmentSchemeEntity, { studyId }, { pairedCohort: cohort as never });
+    await this.audit.record(manager, {
+      chain: studyId,
+      actor,
+      action: 'assignment.cohort-paired',
+      subjectType: 'study',
+      subjectId: studyId,
+      data: { cohort: cohort.length, pairs: result.pairs.length, leftover: result.leftover?.participantId ?? null },
+    });
+    return { pairs: result.pairs.length, leftoverEnrollmentId: result.leftover?.participantId ?? null };
+  }
+
   /** Re-derives the whole sequence from the revealed seed and compares it, allocation by allocation. */
   async verify(studyId: string): Promise<VerificationReport & { commitmentMatches: boolean; seed: string; commitment: string }> {
     const scheme = await this.schemeOf(studyId);
@@ -393,6 +437,7 @@ export class RandomizationService {
     }
     const seed = await this.sealedSeed(this.dataSource.manager, studyId);
     const parameters = parseSchemeParameters(scheme.sealedParameters);
+    if (parameters.method === 'matched-pairs') return { ...(await this.verifyPairs(studyId, seed, parameters, scheme)), seed, commitment: scheme.commitment };
     const allocations = await this.dataSource.getRepository(AllocationEntity).find({ where: { studyId }, order: { sequence: 'ASC' } });
     const recorded: RecordedAllocation[] = allocations.map((a) => ({
       participantId: a.enrollmentId,
@@ -402,6 +447,45 @@ export class RandomizationService {
     }));
     const report = verifyAllocations(seed, parameters, recorded);
     return { ...report, commitmentMatches: computeCommitment(seed, parameters) === scheme.commitment, seed, commitment: scheme.commitment };
+  }
+
+  /** Pairs the recorded cohort again and checks every reserved slot (taken or not) holds the derived condition. */
+  private async verifyPairs(
+    studyId: string,
+    seed: string,
+    parameters: SchemeParameters,
+    scheme: AssignmentSchemeEntity,
+  ): Promise<VerificationReport & { commitmentMatches: boolean }> {
+    const cohort = scheme.pairedCohort ?? [];
+    const slots = await this.dataSource.getRepository(AllocationSlotEntity).find({ where: { studyId } });
+    const allocations = await this.dataSource.getRepository(AllocationEntity).find({ where: { studyId } });
+    const recordedCondition = new Map<string, string | null>();
+    for (const slot of slots) if (slot.reservedFor) recordedCondition.set(slot.reservedFor, slot.conditionId);
+    for (const allocation of allocations) recordedCondition.set(allocation.enrollmentId, allocation.conditionId);
+    const derived = deriveSequence(
+      seed,
+      parameters,
+      cohort.map((c) => ({ participantId: c.enrollmentId, covariates: { [(parameters as { pretestId: string }).pretestId]: c.pretest } })),
+    );
+    const checks = derived.map((d) => {
+      const recorded = recordedCondition.get(d.participantId) ?? null;
+      return {
+        arrivalPosition: d.arrivalPosition,
+        participantId: d.participantId,
+        stratumKey: d.pairIndex ? `pair-${d.pairIndex}` : 'unpaired',
+        expected: { conditionId: d.conditionId, order: null },
+        recorded: { conditionId: recorded, order: null },
+        matches: recorded === d.conditionId,
+      };
+    });
+    const matched = checks.filter((c) => c.matches).length;
+    return {
+      allMatch: matched === checks.length,
+      matched,
+      mismatched: checks.length - matched,
+      checks,
+      commitmentMatches: computeCommitment(seed, parameters) === scheme.commitment,
+    };
   }
 
   /** Simulates arrivals under the study's current design and chosen scheme, with a throwaway seed. */

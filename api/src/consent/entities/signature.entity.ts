@@ -26,6 +26,10 @@ export class SignatureEntity {
   @Column({ name: 'signed_at', type: 'timestamptz' })
   signedAt: Date;
 
+  /** The signer's IANA time zone as their browser reported it, so the signed copy can show local time too. */
+  @Column({ name: 'time_zone', type: 'text', nullable: true })
+  timeZone: string | null;
+
   @Column({ type: 'text', nullable: true })
   ip: string | null;
 

@@ -79,6 +79,7 @@ export class StudyDesign1764600100000 implements MigrationInterface {
         unblinded_at timestamptz NULL,
         unblinded_by uuid NULL REFERENCES user_account(id) ON DELETE SET NULL,
         unblind_reason text NULL,
+        paired_cohort jsonb NULL,
         updated_at timestamptz NOT NULL DEFAULT now(),
         CONSTRAINT assignment_scheme_seed_format CHECK (seed IS NULL OR seed ~ '^[0-9a-f]{64}$')
       )`);

@@ -85,6 +85,7 @@ export class ConsentAndEnrollment1764600200000 implements MigrationInterface {
         mark text NULL,
         meaning text NOT NULL,
         signed_at timestamptz NOT NULL,
+        time_zone text NULL,
         ip text NULL,
         user_agent text NULL,
         text_fingerprint text NOT NULL,

@@ -113,6 +113,13 @@ export class SignConsentDto {
   @MaxLength(280_000, { message: 'mark is too large (at most about 200 KB)' })
   @Matches(/^data:image\/png;base64,[A-Za-z0-9+/]+=*$/, { message: 'mark must be a PNG image data URL' })
   mark?: string;
+
+  @ApiPropertyOptional({ example: 'Europe/Berlin', description: "The signer's IANA time zone, from the browser" })
+  @IsOptional()
+  @IsString()
+  @MaxLength(64)
+  @Matches(/^[A-Za-z_]+(\/[A-Za-z0-9_+-]+)*$/, { message: 'timeZone must be an IANA time zone such as Europe/Berlin' })
+  timeZone?: string;
 }
 
 export class SignatureResultDto {
@@ -225,4 +232,10 @@ export class ParticipantRecordDto {
   @ApiProperty({ nullable: true, type: String }) exclusionReason: string | null;
   @ApiProperty({ type: [SignatureSummaryDto] }) signatures: SignatureSummaryDto[];
   @ApiProperty({ type: [TimelineEventDto] }) timeline: TimelineEventDto[];
+}
+
+export class PairCohortResultDto {
+  @ApiProperty({ description: 'People paired (everyone on the roster with a pretest who has not consented yet)' }) cohort: number;
+  @ApiProperty() pairs: number;
+  @ApiProperty({ nullable: true, type: String, description: 'The odd one out, assigned by a coin of its own' }) leftoverEnrollmentId: string | null;
 }

@@ -45,6 +45,10 @@ export class AssignmentSchemeEntity {
   @Column({ name: 'unblind_reason', type: 'text', nullable: true })
   unblindReason: string | null;
 
+  /** Matched pairs: the cohort exactly as it was paired (enrollment and pretest), so verification can pair it again. */
+  @Column({ name: 'paired_cohort', type: 'jsonb', nullable: true })
+  pairedCohort: Array<{ enrollmentId: string; pretest: number }> | null;
+
   @UpdateDateColumn({ name: 'updated_at', type: 'timestamptz' })
   updatedAt: Date;
 }
