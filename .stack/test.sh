@@ -74,7 +74,9 @@ export NODE_ENV=test
 export SMTP_PORT="$T_SMTP_PORT" STRIPE_PORT="$T_PAYMENTS_PORT"
 export MAILBOX_URL="http://127.0.0.1:$T_MAILBOX_PORT"
 export PORTAL_URL="http://127.0.0.1:$T_PORTAL_PORT" ADMIN_URL="http://127.0.0.1:$T_ADMIN_PORT"
-export SIGN_IN_LIMIT=200
+export SIGN_IN_LIMIT=500 JOB_RETRY_DELAY_SECONDS=1
+# The api end-to-end tests listen where the payments stand-in delivers webhooks.
+export PAYMENTS_WEBHOOK_PORT="$T_API_PORT"
 
 step "api unit tests" vitest_in api api-unit --project unit
 step "payments stand-in tests" vitest_in payments-fake payments-fake

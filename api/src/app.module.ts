@@ -1,6 +1,7 @@
 import { Module } from '@nestjs/common';
 import { APP_FILTER } from '@nestjs/core';
 import { TypeOrmModule } from '@nestjs/typeorm';
+import { AttritionModule } from './attrition/attrition.module';
 import { AuditModule } from './audit/audit.module';
 import { AuthModule } from './auth/auth.module';
 import { ProblemFilter } from './common/errors/problem.filter';
@@ -17,6 +18,7 @@ import { StudiesModule } from './studies/studies.module';
 import { ConsentModule } from './consent/consent.module';
 import { EnrollmentsModule } from './enrollments/enrollments.module';
 import { DocumentsModule } from './documents/documents.module';
+import { PayoutsModule } from './payouts/payouts.module';
 import { UsersModule } from './users/users.module';
 
 @Module({
@@ -37,7 +39,9 @@ import { UsersModule } from './users/users.module';
     ConsentModule,
     EnrollmentsModule,
     DocumentsModule,
+    PayoutsModule,
     PaymentsModule,
+    AttritionModule,
     HealthModule,
   ],
   providers: [{ provide: APP_FILTER, useClass: ProblemFilter }],

@@ -6,7 +6,7 @@ import { AppModule } from './app.module';
 import { AppConfig } from './config/app-config';
 
 async function bootstrap(): Promise<void> {
-  const app = await NestFactory.create(AppModule, { bufferLogs: false });
+  const app = await NestFactory.create(AppModule, { bufferLogs: false, rawBody: true });
   configureApp(app);
   const config = app.get(AppConfig);
   await app.listen(config.port, config.host);

@@ -17,6 +17,15 @@ import { StratificationFactorEntity } from '../studies/entities/stratification-f
 import { Foundation1764600000000 } from './migrations/1764600000000-foundation';
 import { StudyDesign1764600100000 } from './migrations/1764600100000-study-design';
 import { ConsentAndEnrollment1764600200000 } from './migrations/1764600200000-consent-and-enrollment';
+import { Pay1764600300000 } from './migrations/1764600300000-pay';
+import { AttritionAlerts1764600400000 } from './migrations/1764600400000-attrition-alerts';
+import { AttritionAlertRuleEntity } from '../attrition/entities/attrition-alert-rule.entity';
+import { AttritionAlertStateEntity } from '../attrition/entities/attrition-alert-state.entity';
+import { PayoutAccountEntity } from '../payouts/entities/payout-account.entity';
+import { PayoutEntity } from '../payouts/entities/payout.entity';
+import { ProviderEventEntity } from '../payouts/entities/provider-event.entity';
+import { StudyFundingEntity } from '../payouts/entities/study-funding.entity';
+import { StepCompletionEntity } from '../steps/entities/step-completion.entity';
 import { ConsentVersionEntity } from '../consent/entities/consent-version.entity';
 import { SignatureEntity } from '../consent/entities/signature.entity';
 import { ScreeningQuestionEntity } from '../studies/entities/screening-question.entity';
@@ -41,10 +50,17 @@ export const ENTITIES = [
   ScreeningQuestionEntity,
   ConsentVersionEntity,
   SignatureEntity,
+  StepCompletionEntity,
+  PayoutEntity,
+  PayoutAccountEntity,
+  ProviderEventEntity,
+  StudyFundingEntity,
+  AttritionAlertRuleEntity,
+  AttritionAlertStateEntity,
 ];
 
 /** Every migration in order. Never edit one that has landed; add a new one. */
-export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000, ConsentAndEnrollment1764600200000];
+export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000, ConsentAndEnrollment1764600200000, Pay1764600300000, AttritionAlerts1764600400000];
 
 export function dataSourceOptions(databaseUrl: string): DataSourceOptions {
   return {

@@ -28,6 +28,7 @@ import {
 } from './dto/enrollment.dto';
 import { EnrollmentsService } from './enrollments.service';
 import { StudyMembersOnly } from '../studies/study-access.guard';
+import { CompleteStepDto } from '../steps/dto/step.dto';
 
 const MAX_ROSTER_BYTES = 5 * 1024 * 1024;
 
@@ -88,6 +89,18 @@ export class MyEnrollmentController {
     const { created, result } = await this.enrollments.sign(user, studyId, body, clientOf(request));
     response.status(created ? 201 : 200);
     return result;
+  }
+
+  @Post('steps/:stepId/complete')
+  @HttpCode(200)
+  @ApiOkResponse({ type: MyEnrollmentDto })
+  completeStep(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('stepId', uuidParam('stepId')) stepId: string,
+    @Body() body: CompleteStepDto,
+  ): Promise<MyEnrollmentDto> {
+    return this.enrollments.completeStepWithCode(user, studyId, stepId, body.code);
   }
 
   @Get('consent.pdf')
@@ -163,6 +176,19 @@ export class RosterController {
   @ApiOkResponse({ type: ParticipantRecordDto })
   record(@Param('studyId', uuidParam('studyId')) studyId: string, @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string): Promise<ParticipantRecordDto> {
     return this.enrollments.record(studyId, enrollmentId);
+  }
+
+  @Post(':enrollmentId/steps/:stepId/complete')
+  @HttpCode(200)
+  @Roles('coordinator', 'admin')
+  @ApiOkResponse({ type: RosterEntryDto })
+  checkOff(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string,
+    @Param('stepId', uuidParam('stepId')) stepId: string,
+  ): Promise<RosterEntryDto> {
+    return this.enrollments.completeStepForParticipant(user, studyId, enrollmentId, stepId);
   }
 
   @Post(':enrollmentId/lost')

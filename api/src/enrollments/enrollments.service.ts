@@ -15,6 +15,7 @@ import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
 import { MailService } from '../mail/mail.service';
 import { RandomizationService } from '../randomization/randomization.service';
 import { StepsService } from '../steps/steps.service';
+import { PayoutsService } from '../payouts/payouts.service';
 import { StudyEntity } from '../studies/entities/study.entity';
 import { StudiesService } from '../studies/studies.service';
 import { UsersService } from '../users/users.service';
@@ -36,6 +37,8 @@ import { evaluateScreening } from './screening-rules';
 
 /** Statuses in which a person has been randomized (the denominator of attrition). */
 export const RANDOMIZED_STATUSES: EnrollmentStatus[] = ['assigned', 'active', 'completed', 'withdrew', 'lost'];
+/** Wrong completion codes allowed per enrollment per 15 minutes. */
+const WRONG_CODE_LIMIT = 5;
 const CLOSED_STATUSES: EnrollmentStatus[] = ['excluded', 'withdrew', 'lost', 'completed'];
 
 /** Keeps a browser-reported time zone only when the runtime knows it; the signed copy then shows local time too. */
@@ -68,6 +71,7 @@ export class EnrollmentsService implements OnModuleInit {
     private readonly users: UsersService,
     private readonly mail: MailService,
     private readonly jobs: JobQueueService,
+    private readonly payouts: PayoutsService,
   ) {}
 
   async onModuleInit(): Promise<void> {
@@ -115,12 +119,14 @@ export class EnrollmentsService implements OnModuleInit {
 
   private async myView(enrollment: EnrollmentEntity): Promise<MyEnrollmentDto> {
     const study = await this.studies.require(enrollment.studyId);
-    const [questions, stepList, active, signatures, conditions] = await Promise.all([
+    const [questions, stepList, active, signatures, conditions, completions, earned] = await Promise.all([
       this.studies.screeningQuestions(enrollment.studyId),
       this.steps.list(enrollment.studyId),
       this.consent.activeVersion(enrollment.studyId),
       this.consent.signaturesOf(enrollment.id),
       this.studies.listConditionsForParticipant(enrollment.studyId),
+      this.steps.completionsOf(enrollment.id),
+      this.payouts.earnedFor(enrollment.id),
     ]);
     const condition = enrollment.conditionId ? conditions.find((c) => c.id === enrollment.conditionId) : null;
     const ordered = enrollment.conditionOrder?.map((id) => conditions.find((c) => c.id === id)).filter(Boolean) ?? [];
@@ -152,16 +158,20 @@ export class EnrollmentsService implements OnModuleInit {
         signedAt: lastSignature?.signedAt.toISOString() ?? null,
       },
       assignment,
-      steps: stepList.items.map((step) => ({
-        id: step.id,
-        position: step.position,
-        title: step.title,
-        description: step.description,
-        payMinor: step.payOverrides.find((o) => o.conditionId === enrollment.conditionId)?.payMinor ?? step.payMinor,
-        status: enrolledSteps && !needsSignature && ['assigned', 'active'].includes(enrollment.status) ? ('open' as const) : ('locked' as const),
-        completedAt: null,
-      })),
-      earned: { earnedMinor: 0, paidMinor: 0, stillToBePaidMinor: 0 },
+      steps: stepList.items.map((step) => {
+        const done = completions.find((c) => c.stepId === step.id);
+        const open = enrolledSteps && !needsSignature && ['assigned', 'active'].includes(enrollment.status);
+        return {
+          id: step.id,
+          position: step.position,
+          title: step.title,
+          description: step.description,
+          payMinor: step.payOverrides.find((o) => o.conditionId === enrollment.conditionId)?.payMinor ?? step.payMinor,
+          status: done ? ('done' as const) : open ? ('open' as const) : ('locked' as const),
+          completedAt: done?.completedAt.toISOString() ?? null,
+        };
+      }),
+      earned,
       withdrewAt: enrollment.withdrewAt?.toISOString() ?? null,
     };
   }
@@ -297,6 +307,81 @@ export class EnrollmentsService implements OnModuleInit {
     };
   }
 
+  // ── completing steps ──────────────────────────────────────────────────────
+
+  /** A participant confirms a step with the code shown at the end of its task; wrong codes are limited. */
+  async completeStepWithCode(user: SessionUser, studyId: string, stepId: string, code: string): Promise<MyEnrollmentDto> {
+    const enrollment = await this.requireMine(this.dataSource.manager, user, studyId);
+    const limiterKey = `wrong-code:${enrollment.id}`;
+    const [attempts] = await this.dataSource.query(`SELECT hits FROM rate_limit_window WHERE key = $1 AND window_ends_at > now()`, [limiterKey]);
+    if (attempts && Number(attempts.hits) >= WRONG_CODE_LIMIT) {
+      throw new DomainException('RATE_LIMITED', 'Too many wrong codes. Please wait 15 minutes, or ask the research team to check the step off.');
+    }
+    if (!(await this.steps.codeMatches(studyId, stepId, code))) {
+      await this.dataSource.query(
+        `INSERT INTO rate_limit_window (key, hits, window_ends_at) VALUES ($1, 1, now() + interval '15 minutes')
+         ON CONFLICT (key) DO UPDATE SET hits = CASE WHEN rate_limit_window.window_ends_at <= now() THEN 1 ELSE rate_limit_window.hits + 1 END,
+           window_ends_at = CASE WHEN rate_limit_window.window_ends_at <= now() THEN EXCLUDED.window_ends_at ELSE rate_limit_window.window_ends_at END`,
+        [limiterKey],
+      );
+      throw new DomainException('VALIDATION_FAILED', 'That code does not match this step.', [{ field: 'code', message: 'does not match; check it and try again' }]);
+    }
+    await this.dataSource.transaction((manager) =>
+      this.completeStep(manager, user, studyId, () => this.requireMine(manager, user, studyId, true), stepId, 'code'),
+    );
+    return this.me(user, studyId);
+  }
+
+  async completeStepForParticipant(actor: SessionUser, studyId: string, enrollmentId: string, stepId: string): Promise<RosterEntryDto> {
+    await this.dataSource.transaction((manager) => this.completeStep(manager, actor, studyId, () => this.requireOnRoster(manager, studyId, enrollmentId), stepId, 'staff'));
+    return (await this.record(studyId, enrollmentId)).enrollment;
+  }
+
+  /**
+   * One completed step: recorded once, owed its pay (the same in every condition unless an override was recorded),
+   * and the enrollment moves to active, or to completed with any completion bonus after the last step.
+   */
+  private async completeStep(
+    manager: EntityManager,
+    actor: SessionUser,
+    studyId: string,
+    load: () => Promise<EnrollmentEntity>,
+    stepId: string,
+    verifiedBy: 'code' | 'staff',
+  ): Promise<void> {
+    const enrollment = await load();
+    if (!['assigned', 'active'].includes(enrollment.status)) {
+      throw new DomainException('CONFLICT', enrollment.status === 'completed' ? 'Every step is already done.' : 'Steps can be completed only while taking part in the study.');
+    }
+    const active = await this.consent.activeVersion(studyId, manager);
+    if (active && enrollment.signedVersionId !== active.id) {
+      throw new DomainException('CONFLICT', 'The consent form has changed: please read and sign the new version before your next step.', undefined, {
+        currentVersion: { versionId: active.id, version: active.version, fingerprint: active.fingerprint },
+      });
+    }
+    const study = await this.studies.require(studyId, manager);
+    const outcome = await this.steps.recordCompletion(manager, { studyId, enrollmentId: enrollment.id, stepId, conditionId: enrollment.conditionId, verifiedBy, recordedBy: actor.id });
+    if (!outcome.created) return;
+    const owedBase = { studyId, enrollmentId: enrollment.id, participantId: enrollment.participantId, conditionId: enrollment.conditionId, currency: study.currency };
+    await this.payouts.createOwed(manager, { ...owedBase, stepCompletionId: outcome.completion.id, kind: 'step', amountMinor: outcome.payMinor, payOverride: outcome.payOverride });
+    enrollment.status = outcome.remainingSteps === 0 ? 'completed' : 'active';
+    if (outcome.remainingSteps === 0) {
+      enrollment.completedAt = new Date();
+      if (study.completionBonusMinor > 0) {
+        await this.payouts.createOwed(manager, { ...owedBase, stepCompletionId: null, kind: 'bonus', amountMinor: study.completionBonusMinor, payOverride: false });
+      }
+    }
+    await manager.save(enrollment);
+    await this.audit.record(manager, {
+      chain: studyId,
+      actor,
+      action: 'step.completed',
+      subjectType: 'enrollment',
+      subjectId: enrollment.id,
+      data: { stepId, verifiedBy, payMinor: outcome.payMinor, payOverride: outcome.payOverride, completedStudy: outcome.remainingSteps === 0 },
+    });
+  }
+
   async myPdf(user: SessionUser, studyId: string) {
     const enrollment = await this.requireMine(this.dataSource.manager, user, studyId);
     const pdf = await this.consent.signedPdf(enrollment.id);
@@ -340,6 +425,7 @@ export class EnrollmentsService implements OnModuleInit {
     });
     const study = await this.studies.require(studyId, manager);
     const participant = await this.users.findActiveById(enrollment.participantId);
+    const earned = await this.payouts.earnedFor(enrollment.id, manager);
     if (participant) {
       const email = renderEmail('email/withdrawal-confirmation', {
         participantName: enrollment.displayName,
@@ -349,10 +435,10 @@ export class EnrollmentsService implements OnModuleInit {
         contactEmail: study.contactEmail ?? this.config.mailFrom,
         portalUrl: new URL(`/s/${study.slug}`, this.config.portalUrl).toString(),
         withdrawnAt: enrollment.withdrewAt.toISOString().replace('T', ' ').slice(0, 16) + ' UTC',
-        earnedAmount: formatMoney(0, study.currency),
-        paidAmount: formatMoney(0, study.currency),
-        owedAmount: formatMoney(0, study.currency),
-        hasOwedAmount: false,
+        earnedAmount: formatMoney(earned.earnedMinor, study.currency),
+        paidAmount: formatMoney(earned.paidMinor, study.currency),
+        owedAmount: formatMoney(earned.stillToBePaidMinor, study.currency),
+        hasOwedAmount: earned.stillToBePaidMinor > 0,
         paymentMethod: 'the payment method you set up',
         paymentDays: 14,
       });

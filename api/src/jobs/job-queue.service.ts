@@ -7,7 +7,7 @@ import { queryRows } from '../database/raw-query';
 export type JobHandler<Payload> = (payload: Payload, jobId: string) => Promise<void>;
 
 /** Every kind of background job, so names are not spread as strings. */
-export const JOB_NAMES = { sendMail: 'mail.send', signedCopy: 'consent.signed-copy' } as const;
+export const JOB_NAMES = { sendMail: 'mail.send', signedCopy: 'consent.signed-copy', sendPayout: 'payout.send', payoutReceipt: 'payout.receipt', evaluateAttritionAlerts: 'attrition.evaluate-alerts' } as const;
 export type JobName = (typeof JOB_NAMES)[keyof typeof JOB_NAMES];
 
 /**
@@ -29,7 +29,7 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
   async onModuleInit(): Promise<void> {
     await this.boss.start();
     for (const name of Object.values(JOB_NAMES)) {
-      await this.boss.createQueue(name, { name, retryLimit: 8, retryDelay: 5, retryBackoff: true });
+      await this.boss.createQueue(name, { name, retryLimit: 8, retryDelay: this.config.jobRetryDelaySeconds, retryBackoff: true });
     }
     this.started = true;
   }
@@ -38,8 +38,17 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
   async handle<Payload extends object>(name: JobName, handler: JobHandler<Payload>): Promise<void> {
     this.handlers.set(name, handler as JobHandler<never>);
     if (!this.config.runWorkers) return;
-    await this.boss.work<Payload>(name, { pollingIntervalSeconds: 0.5, batchSize: 1 }, async (jobs) => {
-      for (const job of jobs) await handler(job.data, job.id);
+    // Up to 10 jobs per fetch run side by side; each failure is reported for its own job (retried with back-off),
+    // and the worker then completes only the jobs still active, i.e. the ones that succeeded.
+    await this.boss.work<Payload>(name, { pollingIntervalSeconds: 0.5, batchSize: 10 }, async (jobs) => {
+      const results = await Promise.allSettled(jobs.map((job) => handler(job.data, job.id)));
+      for (const [i, result] of results.entries()) {
+        if (result.status === 'rejected') {
+          const reason = result.reason instanceof Error ? result.reason.message : String(result.reason);
+          this.logger.warn(`${name} job ${jobs[i].id} failed, will retry: ${reason}`);
+          await this.boss.fail(name, jobs[i].id, { message: reason });
+        }
+      }
     });
   }
 
@@ -48,6 +57,11 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
     await this.boss.send(name, payload, {
       db: { executeSql: async (text: string, values: unknown[]) => ({ rows: await queryRows(manager, text, values) }) },
     });
+  }
+
+  /** Sends a job of this kind on a cron schedule (UTC). pg-boss keeps one schedule per name, so every boot may call it. */
+  async schedule(name: JobName, cron: string, payload: object = {}): Promise<void> {
+    await this.boss.schedule(name, cron, payload, { tz: 'UTC' });
   }
 
   async isReachable(): Promise<boolean> {

@@ -4,7 +4,7 @@ import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
 import { uuidParam } from '../common/http/uuid-param';
 import { StudyMembersOnly } from '../studies/study-access.guard';
-import { CreateStepDto, SetPayOverrideDto, StepListDto, UpdateStepDto } from './dto/step.dto';
+import { CreateStepDto, SetCompletionCodeDto, SetPayOverrideDto, StepListDto, UpdateStepDto } from './dto/step.dto';
 import { StepsService } from './steps.service';
 
 const DESIGNERS = ['coordinator', 'researcher', 'admin'] as const;
@@ -39,6 +39,18 @@ export class StepsController {
     @Body() body: UpdateStepDto,
   ): Promise<StepListDto> {
     return this.steps.update(user, studyId, stepId, body);
+  }
+
+  @Put(':stepId/completion-code')
+  @Roles(...DESIGNERS)
+  @ApiOkResponse({ type: StepListDto })
+  setCode(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('stepId', uuidParam('stepId')) stepId: string,
+    @Body() body: SetCompletionCodeDto,
+  ): Promise<StepListDto> {
+    return this.steps.setCompletionCode(user, studyId, stepId, body.code);
   }
 
   @Put(':stepId/pay-overrides/:conditionId')

@@ -1,5 +1,6 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
+import { timingSafeEqual } from 'node:crypto';
 import { DataSource, EntityManager } from 'typeorm';
 import { AuditService } from '../audit/audit.service';
 import type { SessionUser } from '../common/auth/session-user';
@@ -8,6 +9,8 @@ import { StudiesService } from '../studies/studies.service';
 import { CreateStepDto, SetPayOverrideDto, StepDto, StepListDto, UpdateStepDto } from './dto/step.dto';
 import { StepPayOverrideEntity } from './entities/step-pay-override.entity';
 import { StepEntity } from './entities/step.entity';
+import { StepCompletionEntity } from './entities/step-completion.entity';
+import { completionCodeHash } from './completion-code';
 
 @Injectable()
 export class StepsService {
@@ -19,7 +22,12 @@ export class StepsService {
 
   async list(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<StepListDto> {
     const study = await this.studies.require(studyId, manager);
-    const steps = await manager.find(StepEntity, { where: { studyId }, order: { position: 'ASC' } });
+    const steps = await manager
+      .createQueryBuilder(StepEntity, 'step')
+      .addSelect('step.completionCodeHash')
+      .where('step.study_id = :studyId', { studyId })
+      .orderBy('step.position', 'ASC')
+      .getMany();
     const overrides = steps.length
       ? await manager
           .createQueryBuilder(StepPayOverrideEntity, 'o')
@@ -32,6 +40,7 @@ export class StepsService {
       title: step.title,
       description: step.description,
       payMinor: step.payMinor,
+      hasCompletionCode: Boolean(step.completionCodeHash),
       payOverrides: overrides
         .filter((o) => o.stepId === step.id)
         .map((o) => ({ conditionId: o.conditionId, payMinor: o.payMinor, reason: o.reason, recordedAt: o.recordedAt.toISOString() })),
@@ -118,6 +127,71 @@ export class StepsService {
       }
       return this.list(studyId, manager);
     });
+  }
+
+  /** Sets the code shown to participants at the end of the step's external task; only its hash is kept. */
+  async setCompletionCode(actor: SessionUser, studyId: string, stepId: string, code: string): Promise<StepListDto> {
+    return this.dataSource.transaction(async (manager) => {
+      await this.requireChangeable(manager, studyId);
+      await this.requireStep(manager, studyId, stepId);
+      await manager.update(StepEntity, { id: stepId }, { completionCodeHash: completionCodeHash(stepId, code) });
+      await this.audit.record(manager, { chain: studyId, actor, action: 'step.completion-code-set', subjectType: 'step', subjectId: stepId, data: {} });
+      return this.list(studyId, manager);
+    });
+  }
+
+  /** True when the code matches the step's; compared as hashes in constant time. */
+  async codeMatches(studyId: string, stepId: string, code: string): Promise<boolean> {
+    const step = await this.dataSource
+      .createQueryBuilder(StepEntity, 'step')
+      .addSelect('step.completionCodeHash')
+      .where('step.id = :stepId AND step.study_id = :studyId', { stepId, studyId })
+      .getOne();
+    if (!step) throw new DomainException('NOT_FOUND', 'No such step in this study.');
+    if (!step.completionCodeHash) {
+      throw new DomainException('CONFLICT', 'This step has no completion code; the research team will check it off for you.');
+    }
+    const given = Buffer.from(completionCodeHash(stepId, code), 'hex');
+    return timingSafeEqual(given, Buffer.from(step.completionCodeHash, 'hex'));
+  }
+
+  /**
+   * Records a step as done for an enrollment; a second call for the same step returns the first completion.
+   * `payMinor` is what this step pays in the person's condition, with `payOverride` when a recorded exception applies.
+   */
+  async recordCompletion(
+    manager: EntityManager,
+    input: { studyId: string; enrollmentId: string; stepId: string; conditionId: string | null; verifiedBy: 'code' | 'staff'; recordedBy: string | null },
+  ): Promise<{ completion: StepCompletionEntity; created: boolean; payMinor: number; payOverride: boolean; remainingSteps: number }> {
+    const step = await this.requireStep(manager, input.studyId, input.stepId);
+    const inserted = await manager
+      .createQueryBuilder()
+      .insert()
+      .into(StepCompletionEntity)
+      .values({ enrollmentId: input.enrollmentId, stepId: input.stepId, verifiedBy: input.verifiedBy, recordedBy: input.recordedBy })
+      .orIgnore()
+      .returning('id')
+      .execute();
+    const completion = await manager.findOneOrFail(StepCompletionEntity, { where: { enrollmentId: input.enrollmentId, stepId: input.stepId } });
+    const override = input.conditionId
+      ? await manager.findOne(StepPayOverrideEntity, { where: { stepId: input.stepId, conditionId: input.conditionId } })
+      : null;
+    const [{ remaining }] = await manager.query(
+      `SELECT count(*) AS remaining FROM step s WHERE s.study_id = $1
+         AND NOT EXISTS (SELECT 1 FROM step_completion c WHERE c.step_id = s.id AND c.enrollment_id = $2)`,
+      [input.studyId, input.enrollmentId],
+    );
+    return {
+      completion,
+      created: inserted.identifiers.length > 0 && Boolean(inserted.identifiers[0]),
+      payMinor: override?.payMinor ?? step.payMinor,
+      payOverride: Boolean(override),
+      remainingSteps: Number(remaining),
+    };
+  }
+
+  completionsOf(enrollmentId: string, manager: EntityManager = this.dataSource.manager): Promise<StepCompletionEntity[]> {
+    return manager.find(StepCompletionEntity, { where: { enrollmentId }, order: { completedAt: 'ASC' } });
   }
 
   private async requireChangeable(manager: EntityManager, studyId: string): Promise<void> {

@@ -23,7 +23,7 @@ export async function startTestApp(env: Record<string, string> = {}): Promise<Te
   }
   try {
     const moduleRef = await Test.createTestingModule({ imports: [AppModule] }).compile();
-    const app = moduleRef.createNestApplication({ logger: ['error', 'warn'] });
+    const app = moduleRef.createNestApplication({ logger: ['error', 'warn'], rawBody: true });
     configureApp(app);
     await app.init();
     return {

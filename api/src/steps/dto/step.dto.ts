@@ -17,6 +17,7 @@ export class StepDto {
   @ApiProperty() title: string;
   @ApiProperty() description: string;
   @ApiProperty({ description: 'Minor units of the study currency; the same in every condition unless overridden' }) payMinor: number;
+  @ApiProperty({ description: 'Whether participants confirm this step with a completion code' }) hasCompletionCode: boolean;
   @ApiProperty({ type: [PayOverrideDto], description: 'Recorded exceptions to equal pay; each is flagged in the parity view' })
   payOverrides: PayOverrideDto[];
 }
@@ -77,4 +78,20 @@ export class SetPayOverrideDto {
   @IsString()
   @Length(10, 1000, { message: 'reason must explain the exception in at least 10 characters' })
   reason: string;
+}
+
+export class SetCompletionCodeDto {
+  @ApiProperty({ example: 'WAY-42', description: 'Shown to participants at the end of the external task; stored only as a hash' })
+  @Transform(trimmed)
+  @IsString()
+  @Length(4, 64, { message: 'code must be 4 to 64 characters' })
+  code: string;
+}
+
+export class CompleteStepDto {
+  @ApiProperty({ example: 'WAY-42', description: 'The code shown at the end of the task' })
+  @Transform(trimmed)
+  @IsString()
+  @Length(1, 64, { message: 'code is required' })
+  code: string;
 }

@@ -30,6 +30,10 @@ export class StepEntity {
   @Column({ name: 'pay_minor', type: 'bigint', transformer: bigintAsNumber })
   payMinor: number;
 
+  /** SHA-256 of the completion code shown at the end of the external task; the code itself is never stored. */
+  @Column({ name: 'completion_code_hash', type: 'text', nullable: true, select: false })
+  completionCodeHash: string | null;
+
   @CreateDateColumn({ name: 'created_at', type: 'timestamptz' })
   createdAt: Date;
 

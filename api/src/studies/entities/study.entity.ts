@@ -34,6 +34,10 @@ export class StudyEntity {
   @Column({ name: 'budget_minor', type: 'bigint', default: 0, transformer: bigintAsNumber })
   budgetMinor: number;
 
+  /** Paid once on completing every step; 0 for none. */
+  @Column({ name: 'completion_bonus_minor', type: 'bigint', default: 0, transformer: bigintAsNumber })
+  completionBonusMinor: number;
+
   @Column({ type: 'char', length: 3, default: 'USD' })
   currency: string;
 

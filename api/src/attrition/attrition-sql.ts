@@ -1,0 +1,225 @@
+/**
+ * The SQL behind the dropout watch. Every figure is a GROUP BY in PostgreSQL, so the rows that come back grow with
+ * the number of arms, statuses, days and covariate categories, never with the number of participants.
+ *
+ * This is a read-only report across enrollment, payout, step and step_completion: the owning domains keep writing
+ * them; attrition only aggregates, which no single domain's service could do without loading every row.
+ */
+
+/** Runs one statement with positional parameters and returns its rows. */
+export type SqlRunner = <Row>(sql: string, parameters: unknown[]) => Promise<Row[]>;
+
+export type StudyDesign = 'between' | 'within';
+
+/**
+ * The arm of an enrollment: its condition in a between-subjects study; in a within-subjects study the order it was
+ * given, as condition ids joined by ">" (the form the assignment view uses).
+ */
+export function armExpression(design: StudyDesign, alias = 'e'): string {
+  return design === 'within'
+    ? `(SELECT string_agg(t.id, '>' ORDER BY t.position) FROM jsonb_array_elements_text(${alias}.condition_order) WITH ORDINALITY AS t(id, position))`
+    : `${alias}.condition_id::text`;
+}
+
+/** Randomized: assigned, active, completed, withdrew or lost, or excluded after assignment (CONSORT 2010). */
+export function randomizedPredicate(design: StudyDesign, alias = 'e'): string {
+  const hasArm = design === 'within' ? `${alias}.condition_order IS NOT NULL` : `${alias}.condition_id IS NOT NULL`;
+  return `(${alias}.status IN ('assigned','active','completed','withdrew','lost') OR (${alias}.status = 'excluded' AND ${alias}.assigned_at IS NOT NULL)) AND ${hasArm}`;
+}
+
+const DROPPED_STATUSES = `('withdrew','lost','excluded')`;
+
+/** When follow-up ended: the dropout, the completion, or — still active — the censoring time given as $2. */
+function followUpEnd(alias: string): string {
+  return `CASE ${alias}.status
+      WHEN 'withdrew' THEN coalesce(${alias}.withdrew_at, $2)
+      WHEN 'lost' THEN coalesce(${alias}.lost_at, $2)
+      WHEN 'excluded' THEN coalesce(${alias}.excluded_at, $2)
+      WHEN 'completed' THEN coalesce(${alias}.completed_at, $2)
+      ELSE $2 END`;
+}
+
+/** Whole days from assignment to the end of follow-up (never negative, in case of clock skew). */
+export function followUpDays(alias = 'e'): string {
+  return `greatest(0, floor(extract(epoch FROM (${followUpEnd(alias)}) - ${alias}.assigned_at) / 86400))::int`;
+}
+
+export interface FlowRow {
+  arm: string | null;
+  status: string;
+  assigned: boolean;
+  reason: string | null;
+  n: number;
+}
+
+export interface SurvivalRow {
+  arm: string;
+  day: number;
+  dropped: number;
+  censored: number;
+}
+
+export interface PayRow {
+  arm: string;
+  randomized: number;
+  completed: number;
+  paid_sum: string;
+  paid_squares: string;
+  paid_completer_sum: string;
+  paid_completer_squares: string;
+  earned_sum: string;
+  earned_squares: string;
+  earned_completer_sum: string;
+  earned_completer_squares: string;
+}
+
+export interface CovariateRow {
+  arm: string;
+  key: string;
+  kind: 'number' | 'string' | 'boolean';
+  /** The category of a string or boolean covariate; null for numbers. */
+  category: string | null;
+  n: number;
+  sum: number | null;
+  squares: number | null;
+  completer_n: number;
+  completer_sum: number | null;
+  completer_squares: number | null;
+}
+
+export interface AttritionAggregates {
+  flow: FlowRow[];
+  survival: SurvivalRow[];
+  pay: PayRow[];
+  covariates: CovariateRow[];
+  payOverrideRecorded: boolean;
+}
+
+/**
+ * Reads every aggregate of one study. Run it inside one REPEATABLE READ transaction so all figures come from the
+ * same snapshot (the report cross-checks them); `censorAt` is the time still-active participants are censored at.
+ */
+export async function readAttritionAggregates(
+  run: SqlRunner,
+  study: { id: string; design: StudyDesign; currency: string },
+  censorAt: Date,
+): Promise<AttritionAggregates> {
+  const arm = armExpression(study.design);
+  const randomized = randomizedPredicate(study.design);
+
+  // Every enrollment of the study, by arm, status and reason: the CONSORT boxes and the per-arm status counts.
+  const flow = await run<FlowRow>(
+    `SELECT ${arm} AS arm, e.status, (e.assigned_at IS NOT NULL) AS assigned,
+            CASE e.status WHEN 'excluded' THEN e.exclusion_reason WHEN 'withdrew' THEN e.withdrawal_reason END AS reason,
+            count(*)::int AS n
+     FROM enrollment e WHERE e.study_id = $1
+     GROUP BY 1, 2, 3, 4`,
+    [study.id],
+  );
+
+  const survival = await run<SurvivalRow>(
+    `SELECT arm, day, count(*) FILTER (WHERE dropped)::int AS dropped, count(*) FILTER (WHERE NOT dropped)::int AS censored
+     FROM (SELECT ${arm} AS arm, e.status IN ${DROPPED_STATUSES} AS dropped, ${followUpDays('e')} AS day
+           FROM enrollment e WHERE e.study_id = $1 AND ${randomized}) AS followed
+     GROUP BY 1, 2`,
+    [study.id, censorAt],
+  );
+
+  // Amounts per participant first, then count, Σ and Σ² per arm (numeric, so Σ² of a million payments cannot overflow).
+  const pay = await run<PayRow>(
+    `WITH per_participant AS (
+       SELECT p.enrollment_id,
+              coalesce(sum(p.amount_minor) FILTER (WHERE p.status = 'paid'), 0)::numeric AS paid,
+              coalesce(sum(p.amount_minor) FILTER (WHERE p.status IN ('owed','approved','sending','paid')), 0)::numeric AS earned
+       FROM payout p WHERE p.study_id = $1 AND p.currency = $2
+       GROUP BY p.enrollment_id
+     ), followed AS (
+       SELECT ${arm} AS arm, e.status = 'completed' AS completed, coalesce(pp.paid, 0) AS paid, coalesce(pp.earned, 0) AS earned
+       FROM enrollment e LEFT JOIN per_participant pp ON pp.enrollment_id = e.id
+       WHERE e.study_id = $1 AND ${randomized}
+     )
+     SELECT arm, count(*)::int AS randomized, count(*) FILTER (WHERE completed)::int AS completed,
+            sum(paid)::text AS paid_sum, sum(paid * paid)::text AS paid_squares,
+            coalesce(sum(paid) FILTER (WHERE completed), 0)::text AS paid_completer_sum,
+            coalesce(sum(paid * paid) FILTER (WHERE completed), 0)::text AS paid_completer_squares,
+            sum(earned)::text AS earned_sum, sum(earned * earned)::text AS earned_squares,
+            coalesce(sum(earned) FILTER (WHERE completed), 0)::text AS earned_completer_sum,
+            coalesce(sum(earned * earned) FILTER (WHERE completed), 0)::text AS earned_completer_squares
+     FROM followed GROUP BY 1`,
+    [study.id, study.currency],
+  );
+
+  // Numbers are continuous covariates; strings and booleans become one binary indicator per category.
+  const covariates = await run<CovariateRow>(
+    `SELECT arm, key, kind, category,
+            count(*)::int AS n, sum(number) AS sum, sum(number * number) AS squares,
+            count(*) FILTER (WHERE completed)::int AS completer_n,
+            sum(number) FILTER (WHERE completed) AS completer_sum,
+            sum(number * number) FILTER (WHERE completed) AS completer_squares
+     FROM (SELECT ${arm} AS arm, e.status = 'completed' AS completed, c.key, jsonb_typeof(c.value) AS kind,
+                  CASE WHEN jsonb_typeof(c.value) = 'number' THEN NULL ELSE c.value #>> '{}' END AS category,
+                  CASE WHEN jsonb_typeof(c.value) = 'number' THEN (c.value #>> '{}')::float8 END AS number
+           FROM enrollment e CROSS JOIN LATERAL jsonb_each(e.covariates) AS c(key, value)
+           WHERE e.study_id = $1 AND ${randomized} AND jsonb_typeof(c.value) IN ('number','string','boolean')) AS values
+     GROUP BY 1, 2, 3, 4`,
+    [study.id],
+  );
+
+  const [override] = await run<{ recorded: boolean }>(
+    `SELECT EXISTS (SELECT 1 FROM step_pay_override o JOIN step s ON s.id = o.step_id WHERE s.study_id = $1)
+         OR EXISTS (SELECT 1 FROM payout p WHERE p.study_id = $1 AND p.pay_override) AS recorded`,
+    [study.id],
+  );
+
+  return { flow, survival, pay, covariates, payOverrideRecorded: override.recorded };
+}
+
+/** The export's covariate columns: every key any enrollment of the study has, sorted. */
+export async function readCovariateKeys(run: SqlRunner, studyId: string): Promise<string[]> {
+  const rows = await run<{ key: string }>(
+    `SELECT DISTINCT k.key FROM enrollment e CROSS JOIN LATERAL jsonb_object_keys(e.covariates) AS k(key) WHERE e.study_id = $1 ORDER BY 1`,
+    [studyId],
+  );
+  return rows.map((row) => row.key);
+}
+
+export interface ExportRow {
+  reference: string;
+  arm: string | null;
+  stratum_key: string | null;
+  covariates: Record<string, unknown>;
+  status: string;
+  assigned_at: Date | null;
+  completed_at: Date | null;
+  dropped_out_at: Date | null;
+  steps_done: number;
+  paid_minor: string;
+  earned_minor: string;
+}
+
+/**
+ * One page of the export, in reference order after `afterReference` (keyset paging on the unique
+ * (study_id, reference) index, so each page costs the same however deep into the study it is).
+ */
+export function readExportPage(
+  run: SqlRunner,
+  study: { id: string; design: StudyDesign; currency: string },
+  afterReference: string | null,
+  pageSize: number,
+): Promise<ExportRow[]> {
+  return run<ExportRow>(
+    `SELECT e.reference, ${armExpression(study.design)} AS arm, e.stratum_key, e.covariates, e.status, e.assigned_at, e.completed_at,
+            CASE e.status WHEN 'withdrew' THEN e.withdrew_at WHEN 'lost' THEN e.lost_at
+                          WHEN 'excluded' THEN CASE WHEN e.assigned_at IS NOT NULL THEN e.excluded_at END END AS dropped_out_at,
+            (SELECT count(*)::int FROM step_completion sc WHERE sc.enrollment_id = e.id) AS steps_done,
+            (SELECT coalesce(sum(p.amount_minor), 0)::text FROM payout p
+              WHERE p.enrollment_id = e.id AND p.currency = $4 AND p.status = 'paid') AS paid_minor,
+            (SELECT coalesce(sum(p.amount_minor), 0)::text FROM payout p
+              WHERE p.enrollment_id = e.id AND p.currency = $4 AND p.status IN ('owed','approved','sending','paid')) AS earned_minor
+     FROM enrollment e
+     WHERE e.study_id = $1 AND ($2::text IS NULL OR e.reference > $2)
+     ORDER BY e.reference
+     LIMIT $3`,
+    [study.id, afterReference, pageSize, study.currency],
+  );
+}

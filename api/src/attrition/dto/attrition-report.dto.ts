@@ -1,0 +1,249 @@
+import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
+import { IsOptional, IsString, Length } from 'class-validator';
+
+const RATE = 'share between 0 and 1; null when nobody is in the denominator';
+const VERDICTS = ['low-attrition', 'high-attrition', 'outside-published-range', 'not-computable'];
+
+export class AttritionQueryDto {
+  @ApiPropertyOptional({
+    description: 'The arm the others are compared with (WWC pairs, covariate balance): a condition id, or for a within-subjects study an order id. The first condition when absent.',
+  })
+  @IsOptional()
+  @IsString()
+  @Length(1, 2000)
+  comparisonConditionId?: string;
+}
+
+export class WindowEndedDto {
+  @ApiProperty({ description: 'Randomized participants whose participation window has ended' }) randomized: number;
+  @ApiProperty({ description: 'Completers among them' }) completed: number;
+}
+
+export class ConditionAttritionDto {
+  @ApiProperty({ description: 'Condition id; for a within-subjects study the order, as condition ids joined by ">"' }) conditionId: string;
+  @ApiProperty({ description: 'The code (A, B…) while the study is blinded, else the internal name; orders joined by " → "' }) name: string;
+  @ApiProperty() randomized: number;
+  @ApiProperty({ description: 'Assigned or active: still in follow-up' }) active: number;
+  @ApiProperty() completed: number;
+  @ApiProperty() withdrew: number;
+  @ApiProperty({ description: 'Lost to follow-up' }) lost: number;
+  @ApiProperty() excludedAfterRandomization: number;
+  @ApiProperty({ description: 'withdrew + lost + excluded after randomization' }) dropped: number;
+  @ApiProperty({ type: Number, nullable: true, description: `Dropout so far: dropped / randomized, active people counting as not (yet) dropped; ${RATE}` })
+  dropoutRateSoFar: number | null;
+  @ApiProperty({ type: Number, nullable: true, description: `WWC attrition: (randomized − completed) / randomized among those whose window has ended; ${RATE}` })
+  attritionRate: number | null;
+  @ApiProperty({ description: 'Numerator of attritionRate' }) attrited: number;
+  @ApiProperty({ type: WindowEndedDto }) windowEnded: WindowEndedDto;
+}
+
+export class OverallAttritionDto {
+  @ApiProperty() randomized: number;
+  @ApiProperty() dropped: number;
+  @ApiProperty({ type: Number, nullable: true }) dropoutRateSoFar: number | null;
+  @ApiProperty() windowEndedRandomized: number;
+  @ApiProperty() attrited: number;
+  @ApiProperty({ type: Number, nullable: true, description: `Overall WWC attrition; ${RATE}` }) attritionRate: number | null;
+}
+
+export class WwcBoundaryVerdictDto {
+  @ApiProperty({ enum: VERDICTS }) verdict: string;
+  @ApiProperty({ type: Number, nullable: true, description: 'Highest tolerable differential attrition on the row used, in percentage points' })
+  maxDifferentialPercent: number | null;
+}
+
+export class WwcPairDto {
+  @ApiProperty() conditionId: string;
+  @ApiProperty() comparisonConditionId: string;
+  @ApiProperty({ type: Number, nullable: true, description: 'Pooled over the two arms of the pair' }) overallAttritionRate: number | null;
+  @ApiProperty({ type: Number, nullable: true }) differentialAttritionRate: number | null;
+  @ApiProperty({ type: Number, nullable: true, description: 'Whole-percent row of the WWC boundary table used' }) overallPercentRow: number | null;
+  @ApiProperty({ type: WwcBoundaryVerdictDto }) cautious: WwcBoundaryVerdictDto;
+  @ApiProperty({ type: WwcBoundaryVerdictDto }) optimistic: WwcBoundaryVerdictDto;
+}
+
+export class WwcAssessmentDto {
+  @ApiProperty({ type: String, nullable: true }) comparisonConditionId: string | null;
+  @ApiProperty({ enum: VERDICTS, description: 'Least favourable pair under the cautious boundary' }) cautious: string;
+  @ApiProperty({ enum: VERDICTS, description: 'Least favourable pair under the optimistic boundary' }) optimistic: string;
+  @ApiProperty({ type: [WwcPairDto], description: 'Each other arm against the comparison arm' }) pairs: WwcPairDto[];
+}
+
+export class ChiSquareDto {
+  @ApiProperty({ enum: ['chi-square'] }) method: 'chi-square';
+  @ApiProperty({ type: Number, nullable: true }) statistic: number | null;
+  @ApiProperty() df: number;
+  @ApiProperty({ type: Number, nullable: true }) pValue: number | null;
+  @ApiProperty({ type: 'array', items: { type: 'array', items: { type: 'number' } } }) expected: number[][];
+  @ApiProperty({ enum: [false] }) continuityCorrection: false;
+  @ApiProperty({ description: 'Some expected count is below 5' }) smallExpectedCounts: boolean;
+}
+
+export class FisherExactDto {
+  @ApiProperty({ enum: ['fisher-exact'] }) method: 'fisher-exact';
+  @ApiProperty() pValueTwoSided: number;
+  @ApiProperty() pValueGreater: number;
+  @ApiProperty() pValueLess: number;
+}
+
+export class DropoutTestDto {
+  @ApiProperty({ enum: ['chi-square', 'fisher-exact'], description: "Fisher's exact test when a 2×2 table has an expected count below 5" }) method: string;
+  @ApiProperty({ type: Number, nullable: true, description: 'X²; null for Fisher’s exact test' }) statistic: number | null;
+  @ApiProperty({ type: Number, nullable: true }) df: number | null;
+  @ApiProperty({ type: Number, nullable: true }) pValue: number | null;
+  @ApiProperty({ enum: [false], description: 'No Yates continuity correction is applied' }) continuityCorrection: false;
+  @ApiProperty({ type: [String], description: 'Rows of the arm × dropped / not dropped table: the arms with anyone randomized' }) tableConditionIds: string[];
+  @ApiProperty({ type: ChiSquareDto, nullable: true }) chiSquare: ChiSquareDto | null;
+  @ApiProperty({ type: FisherExactDto, nullable: true, description: 'Only for two arms' }) fisherExact: FisherExactDto | null;
+}
+
+export class SurvivalPointDto {
+  @ApiProperty({ description: 'Whole days since assignment' }) time: number;
+  @ApiProperty({ description: 'Kaplan–Meier share not dropped out just after this time' }) survival: number;
+  @ApiProperty({ type: Number, nullable: true }) lower: number | null;
+  @ApiProperty({ type: Number, nullable: true }) upper: number | null;
+  @ApiProperty({ type: Number, nullable: true, description: 'Greenwood standard error' }) standardError: number | null;
+  @ApiProperty() atRisk: number;
+  @ApiProperty({ description: 'Dropouts at this time' }) events: number;
+  @ApiProperty({ description: 'Completers and still-active participants censored at this time' }) censored: number;
+}
+
+export class SurvivalCurveDto {
+  @ApiProperty() conditionId: string;
+  @ApiProperty() atStart: number;
+  @ApiProperty() confidenceLevel: number;
+  @ApiProperty({ enum: ['log-log'] }) bandForm: 'log-log';
+  @ApiProperty({ type: [SurvivalPointDto], description: 'Survival is 1 before the first point' }) points: SurvivalPointDto[];
+}
+
+export class LogRankGroupDto {
+  @ApiProperty() conditionId: string;
+  @ApiProperty() observed: number;
+  @ApiProperty() expected: number;
+}
+
+export class LogRankDto {
+  @ApiProperty({ enum: ['log-rank'] }) method: 'log-rank';
+  @ApiProperty({ type: Number, nullable: true }) statistic: number | null;
+  @ApiProperty() df: number;
+  @ApiProperty({ type: Number, nullable: true }) pValue: number | null;
+  @ApiProperty({ type: [LogRankGroupDto] }) groups: LogRankGroupDto[];
+}
+
+export class SurvivalDto {
+  @ApiProperty({ enum: ['days'] }) timeUnit: 'days';
+  @ApiProperty({ description: 'When still-active participants are censored (now, or when the study closed)', format: 'date-time' }) censoredAt: string;
+  @ApiProperty({ type: [SurvivalCurveDto] }) curves: SurvivalCurveDto[];
+  @ApiProperty({ type: LogRankDto }) logRank: LogRankDto;
+}
+
+export class PaySummaryDto {
+  @ApiProperty() n: number;
+  @ApiProperty({ type: Number, nullable: true, description: 'Mean in minor units' }) mean: number | null;
+  @ApiProperty({ type: Number, nullable: true }) standardDeviation: number | null;
+}
+
+export class ConditionPayDto {
+  @ApiProperty() conditionId: string;
+  @ApiProperty({ type: PaySummaryDto, description: 'Over every randomized participant, unpaid ones counting as 0' }) perRandomized: PaySummaryDto;
+  @ApiProperty({ type: PaySummaryDto }) perCompleter: PaySummaryDto;
+}
+
+export class WelchAnovaDto {
+  @ApiProperty({ enum: ['welch-anova'] }) method: 'welch-anova';
+  @ApiProperty({ type: Number, nullable: true }) statistic: number | null;
+  @ApiProperty({ type: Number, nullable: true }) df1: number | null;
+  @ApiProperty({ type: Number, nullable: true }) df2: number | null;
+  @ApiProperty({ type: Number, nullable: true }) pValue: number | null;
+  @ApiProperty({ type: [String] }) conditionIdsTested: string[];
+  @ApiProperty({ type: String, nullable: true, enum: ['fewer-than-two-conditions-with-two-or-more-participants', 'no-variation-within-a-condition'] })
+  notComputable: string | null;
+}
+
+export class PayComparisonDto {
+  @ApiProperty({ type: Number, nullable: true, description: 'Largest minus smallest arm mean, minor units' }) largestMeanDifference: number | null;
+  @ApiProperty({ type: WelchAnovaDto, description: "Welch's ANOVA: equal mean pay without assuming equal variances" }) test: WelchAnovaDto;
+}
+
+export class PayBasisDto {
+  @ApiProperty({ type: [ConditionPayDto] }) conditions: ConditionPayDto[];
+  @ApiProperty({ type: PayComparisonDto }) perRandomized: PayComparisonDto;
+  @ApiProperty({ type: PayComparisonDto }) perCompleter: PayComparisonDto;
+}
+
+export class PayParityDto {
+  @ApiProperty({ description: 'ISO 4217; amounts are minor units of it' }) currency: string;
+  @ApiProperty({ description: 'A per-condition pay override is recorded, so unequal pay may be by design' }) payOverrideRecorded: boolean;
+  @ApiProperty({ type: PayBasisDto, description: 'Payouts with status paid' }) paid: PayBasisDto;
+  @ApiProperty({ type: PayBasisDto, description: 'Owed, approved, sending or paid' }) earned: PayBasisDto;
+}
+
+export class StandardizedDifferenceDto {
+  @ApiProperty({ type: Number, nullable: true }) d: number | null;
+  @ApiProperty({ type: Boolean, nullable: true, description: '|d| ≥ 0.1 (Austin 2009)' }) imbalanced: boolean | null;
+}
+
+export class CovariateBalanceRowDto {
+  @ApiProperty({ description: 'A numeric covariate key, or key=category for one category of a categorical covariate' }) covariate: string;
+  @ApiProperty({ enum: ['continuous', 'binary'] }) kind: string;
+  @ApiProperty() conditionId: string;
+  @ApiProperty() comparisonConditionId: string;
+  @ApiProperty({ type: StandardizedDifferenceDto }) allRandomized: StandardizedDifferenceDto;
+  @ApiProperty({ type: StandardizedDifferenceDto }) completers: StandardizedDifferenceDto;
+}
+
+export class ReasonCountDto {
+  @ApiProperty({ type: String, nullable: true, description: 'Null when no reason was recorded' }) reason: string | null;
+  @ApiProperty() count: number;
+}
+
+export class FlowBoxDto {
+  @ApiProperty() total: number;
+  @ApiProperty({ type: [ReasonCountDto], description: 'At most 10, most frequent first' }) reasons: ReasonCountDto[];
+  @ApiProperty({ description: 'Participants whose reason is not listed' }) otherReasons: number;
+}
+
+export class AwaitingRandomizationDto {
+  @ApiProperty() total: number;
+  @ApiProperty() invited: number;
+  @ApiProperty() screened: number;
+  @ApiProperty() consented: number;
+}
+
+export class ArmFlowDto {
+  @ApiProperty() conditionId: string;
+  @ApiProperty() name: string;
+  @ApiProperty() allocated: number;
+  @ApiProperty() stillInFollowUp: number;
+  @ApiProperty({ type: FlowBoxDto }) withdrew: FlowBoxDto;
+  @ApiProperty({ type: FlowBoxDto }) lostToFollowUp: FlowBoxDto;
+  @ApiProperty({ type: FlowBoxDto }) excludedAfterRandomization: FlowBoxDto;
+  @ApiProperty({ description: 'Completers: participants with complete outcome data' }) analysed: number;
+}
+
+export class ConsortFlowDto {
+  @ApiProperty({ description: 'Everyone who joined or was imported' }) assessedForEligibility: number;
+  @ApiProperty({ type: FlowBoxDto }) excludedBeforeRandomization: FlowBoxDto;
+  @ApiProperty({ type: AwaitingRandomizationDto }) awaitingRandomization: AwaitingRandomizationDto;
+  @ApiProperty() randomized: number;
+  @ApiProperty({ type: [ArmFlowDto] }) arms: ArmFlowDto[];
+}
+
+export class AttritionReportDto {
+  @ApiProperty() studyId: string;
+  @ApiProperty({ enum: ['between', 'within'], description: 'Within-subjects studies are reported by order: each order is an arm' }) design: string;
+  @ApiProperty({ enum: ['draft', 'recruiting', 'paused', 'closed'] }) studyStatus: string;
+  @ApiProperty({ format: 'date-time' }) computedAt: string;
+  @ApiProperty({ description: 'Condition names are hidden: `name` is the code' }) blinded: boolean;
+  @ApiProperty({ description: 'How the participation window is decided' }) windowRule: string;
+  @ApiProperty({ type: [String] }) cautions: string[];
+  @ApiProperty({ type: [ConditionAttritionDto] }) conditions: ConditionAttritionDto[];
+  @ApiProperty({ type: OverallAttritionDto }) overall: OverallAttritionDto;
+  @ApiProperty({ type: Number, nullable: true, description: 'Largest minus smallest arm attritionRate' }) differentialAttrition: number | null;
+  @ApiProperty({ type: WwcAssessmentDto }) wwc: WwcAssessmentDto;
+  @ApiProperty({ type: DropoutTestDto }) dropoutTest: DropoutTestDto;
+  @ApiProperty({ type: SurvivalDto }) survival: SurvivalDto;
+  @ApiProperty({ type: PayParityDto }) payParity: PayParityDto;
+  @ApiProperty({ type: [CovariateBalanceRowDto] }) covariateBalance: CovariateBalanceRowDto[];
+  @ApiProperty({ type: ConsortFlowDto }) flow: ConsortFlowDto;
+}

@@ -1,0 +1,14 @@
+import { Column, Entity, Index, PrimaryGeneratedColumn } from 'typeorm';
+
+/** Every webhook event received, once: the unique provider id turns duplicates into no-ops. */
+@Entity({ name: 'provider_event' })
+@Index('provider_event_provider_event_id_key', ['providerEventId'], { unique: true })
+export class ProviderEventEntity {
+  @PrimaryGeneratedColumn('uuid') id: string;
+  @Column({ name: 'provider_event_id', type: 'text' }) providerEventId: string;
+  @Column({ type: 'text' }) type: string;
+  @Column({ name: 'created_at_provider', type: 'timestamptz' }) createdAtProvider: Date;
+  @Column({ type: 'jsonb' }) payload: Record<string, unknown>;
+  @Column({ name: 'received_at', type: 'timestamptz', default: () => 'now()' }) receivedAt: Date;
+  @Column({ name: 'processed_at', type: 'timestamptz', nullable: true }) processedAt: Date | null;
+}

@@ -1,0 +1,128 @@
+import { Body, Controller, Get, Headers, HttpCode, Param, Post, Query, Req } from '@nestjs/common';
+import { ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
+import type { RawBodyRequest } from '@nestjs/common';
+import type { Request } from 'express';
+import { CurrentUser, Public, Roles } from '../common/auth/auth.decorators';
+import type { SessionUser } from '../common/auth/session-user';
+import { uuidParam } from '../common/http/uuid-param';
+import { StudyMembersOnly } from '../studies/study-access.guard';
+import {
+  ApprovalResultDto,
+  ApprovePayoutsDto,
+  BudgetDto,
+  CreateFundingDto,
+  FundingIntentDto,
+  MyPayoutsDto,
+  OnboardingLinkDto,
+  PayoutAccountStatusDto,
+  PayoutPageDto,
+  PayoutQueryDto,
+  ReconciliationDto,
+  TaxThresholdDto,
+} from './dto/payout.dto';
+import { PayoutsService } from './payouts.service';
+
+/** The payout queue, budget and reconciliation, for a study's staff. */
+@ApiTags('pay')
+@Controller('studies/:studyId')
+@StudyMembersOnly()
+export class StudyPayoutsController {
+  constructor(private readonly payouts: PayoutsService) {}
+
+  @Get('payouts')
+  @Roles('coordinator', 'researcher', 'auditor', 'admin')
+  @ApiOkResponse({ type: PayoutPageDto })
+  list(@Param('studyId', uuidParam('studyId')) studyId: string, @Query() query: PayoutQueryDto): Promise<PayoutPageDto> {
+    return this.payouts.list(studyId, query);
+  }
+
+  @Post('payouts/approve')
+  @HttpCode(200)
+  @Roles('coordinator', 'admin')
+  @ApiOkResponse({ type: ApprovalResultDto })
+  approve(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: ApprovePayoutsDto): Promise<ApprovalResultDto> {
+    return this.payouts.approve(user, studyId, body.payoutIds);
+  }
+
+  @Get('payouts/reconciliation')
+  @Roles('coordinator', 'auditor', 'admin')
+  @ApiOkResponse({ type: ReconciliationDto })
+  reconciliation(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<ReconciliationDto> {
+    return this.payouts.reconciliation(studyId);
+  }
+
+  @Get('payouts/tax-threshold')
+  @Roles('coordinator', 'auditor', 'admin')
+  @ApiOkResponse({ type: TaxThresholdDto })
+  taxThreshold(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<TaxThresholdDto> {
+    return this.payouts.taxThreshold(studyId);
+  }
+
+  @Get('budget')
+  @Roles('coordinator', 'researcher', 'auditor', 'admin')
+  @ApiOkResponse({ type: BudgetDto })
+  budget(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<BudgetDto> {
+    return this.payouts.budget(studyId);
+  }
+
+  @Post('funding')
+  @Roles('coordinator', 'admin')
+  @ApiCreatedResponse({ type: FundingIntentDto })
+  fund(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: CreateFundingDto): Promise<FundingIntentDto> {
+    return this.payouts.createFunding(user, studyId, body.amountMinor);
+  }
+
+  @Post('funding/:fundingId/refresh')
+  @HttpCode(200)
+  @Roles('coordinator', 'admin')
+  @ApiOkResponse({ type: BudgetDto })
+  refreshFunding(@Param('studyId', uuidParam('studyId')) studyId: string, @Param('fundingId', uuidParam('fundingId')) fundingId: string): Promise<BudgetDto> {
+    return this.payouts.refreshFunding(studyId, fundingId);
+  }
+}
+
+@ApiTags('pay')
+@Controller()
+export class PayoutsController {
+  constructor(private readonly payouts: PayoutsService) {}
+
+  @Post('payouts/:payoutId/retry')
+  @HttpCode(200)
+  @Roles('coordinator', 'admin')
+  @ApiOkResponse({ description: 'Queued again' })
+  async retry(@CurrentUser() user: SessionUser, @Param('payoutId', uuidParam('payoutId')) payoutId: string): Promise<{ queued: boolean }> {
+    await this.payouts.retry(user, payoutId);
+    return { queued: true };
+  }
+
+  @Post('me/payout-account')
+  @HttpCode(200)
+  @Roles('participant')
+  @ApiOkResponse({ type: OnboardingLinkDto })
+  onboard(@CurrentUser() user: SessionUser): Promise<OnboardingLinkDto> {
+    return this.payouts.startOnboarding(user);
+  }
+
+  @Get('me/payout-account')
+  @Roles('participant')
+  @ApiOkResponse({ type: PayoutAccountStatusDto })
+  account(@CurrentUser() user: SessionUser): Promise<PayoutAccountStatusDto> {
+    return this.payouts.accountStatus(user);
+  }
+
+  @Get('me/payouts')
+  @Roles('participant')
+  @ApiOkResponse({ type: MyPayoutsDto })
+  mine(@CurrentUser() user: SessionUser): Promise<MyPayoutsDto> {
+    return this.payouts.myPayouts(user);
+  }
+
+  /** The provider's signed events. The raw body is kept because the signature covers its exact bytes. */
+  @Public()
+  @Post('webhooks/payments')
+  @HttpCode(200)
+  @ApiOkResponse({ description: 'Received (also for a duplicate, which changes nothing)' })
+  webhook(@Req() request: RawBodyRequest<Request>, @Headers('stripe-signature') signature: string | undefined) {
+    return this.payouts.handleWebhook(request.rawBody, signature);
+  }
+}

@@ -1,0 +1,16 @@
+import { Module } from '@nestjs/common';
+import { AuditModule } from '../audit/audit.module';
+import { MailModule } from '../mail/mail.module';
+import { PaymentsModule } from '../payments/payments.module';
+import { StudiesModule } from '../studies/studies.module';
+import { UsersModule } from '../users/users.module';
+import { PayoutsController, StudyPayoutsController } from './payouts.controller';
+import { PayoutsService } from './payouts.service';
+
+@Module({
+  imports: [AuditModule, MailModule, PaymentsModule, StudiesModule, UsersModule],
+  controllers: [StudyPayoutsController, PayoutsController],
+  providers: [PayoutsService],
+  exports: [PayoutsService],
+})
+export class PayoutsModule {}

@@ -1,0 +1,564 @@
+import { Injectable, Logger, OnModuleInit } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { randomUUID } from 'node:crypto';
+import Stripe from 'stripe';
+import { DataSource, EntityManager, In } from 'typeorm';
+import { AuditActor, AuditService } from '../audit/audit.service';
+import type { SessionUser } from '../common/auth/session-user';
+import { DomainException } from '../common/errors/domain.exception';
+import { AppConfig } from '../config/app-config';
+import { formatMoney } from '../consent/study-formatting';
+import { queryRows } from '../database/raw-query';
+import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
+import { MailService } from '../mail/mail.service';
+import { PaymentsService } from '../payments/payments.service';
+import { StudiesService } from '../studies/studies.service';
+import { UsersService } from '../users/users.service';
+import {
+  ApprovalResultDto,
+  BudgetDto,
+  FundingIntentDto,
+  MyPayoutsDto,
+  OnboardingLinkDto,
+  PayoutAccountStatusDto,
+  PayoutPageDto,
+  PayoutQueryDto,
+  ReconciliationDto,
+  TaxThresholdDto,
+} from './dto/payout.dto';
+import { PayoutAccountEntity } from './entities/payout-account.entity';
+import { PayoutEntity } from './entities/payout.entity';
+import { StudyFundingEntity } from './entities/study-funding.entity';
+import { reconcile } from './reconcile';
+
+export const TAX_CAUTION =
+  'Tax reporting rules differ by country and institution. This threshold is a screening aid: follow your institution’s finance office.';
+/** Share of the threshold at which staff are told someone is getting near it. */
+const NEAR_THRESHOLD = 0.8;
+
+export interface OwedPayoutInput {
+  studyId: string;
+  enrollmentId: string;
+  participantId: string;
+  conditionId: string | null;
+  stepCompletionId: string | null;
+  kind: 'step' | 'bonus';
+  amountMinor: number;
+  currency: string;
+  payOverride: boolean;
+}
+
+/** A send attempt that must not be retried as is: the provider refused it for a reason a person has to fix. */
+function isFinalRefusal(error: unknown): error is Stripe.errors.StripeError {
+  if (!(error instanceof Stripe.errors.StripeError)) return false;
+  const status = error.statusCode ?? 0;
+  return status >= 400 && status < 500 && status !== 409 && status !== 429;
+}
+
+@Injectable()
+export class PayoutsService implements OnModuleInit {
+  private readonly logger = new Logger('Payouts');
+  /** Test hook: runs after the provider created a transfer and before we record it, to play a crash there. */
+  afterTransferCreated: ((payoutId: string) => void) | null = null;
+
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly config: AppConfig,
+    private readonly audit: AuditService,
+    private readonly jobs: JobQueueService,
+    private readonly mail: MailService,
+    private readonly payments: PaymentsService,
+    private readonly studies: StudiesService,
+    private readonly users: UsersService,
+  ) {}
+
+  async onModuleInit(): Promise<void> {
+    await this.jobs.handle<{ payoutId: string }>(JOB_NAMES.sendPayout, ({ payoutId }) => this.send(payoutId));
+    await this.jobs.handle<{ payoutId: string }>(JOB_NAMES.payoutReceipt, ({ payoutId }) => this.sendReceipt(payoutId));
+  }
+
+  private get provider(): Stripe {
+    return this.payments.client;
+  }
+
+  // ── what is owed ──────────────────────────────────────────────────────────
+
+  /** Records money owed, in the caller's transaction; the same completion never owes twice. */
+  async createOwed(manager: EntityManager, input: OwedPayoutInput): Promise<PayoutEntity | null> {
+    const id = randomUUID();
+    const rows = await queryRows<{ id: string }>(
+      manager,
+      `INSERT INTO payout (id, study_id, enrollment_id, participant_id, condition_id, step_completion_id, kind, amount_minor, currency, pay_override, idempotency_key)
+       VALUES ($1::uuid, $2, $3, $4, $5, $6, $7, $8, $9, $10, $1::text) ON CONFLICT DO NOTHING RETURNING id`,
+      [id, input.studyId, input.enrollmentId, input.participantId, input.conditionId, input.stepCompletionId, input.kind, input.amountMinor, input.currency, input.payOverride],
+    );
+    return rows.length ? manager.findOneOrFail(PayoutEntity, { where: { id } }) : null;
+  }
+
+  async earnedFor(enrollmentId: string, manager: EntityManager = this.dataSource.manager) {
+    const [row] = await manager.query(
+      `SELECT coalesce(sum(amount_minor) FILTER (WHERE status NOT IN ('cancelled','reversed')), 0) AS earned,
+              coalesce(sum(amount_minor) FILTER (WHERE status = 'paid'), 0) AS paid
+       FROM payout WHERE enrollment_id = $1`,
+      [enrollmentId],
+    );
+    const earnedMinor = Number(row.earned);
+    const paidMinor = Number(row.paid);
+    return { earnedMinor, paidMinor, stillToBePaidMinor: earnedMinor - paidMinor };
+  }
+
+  // ── the queue ─────────────────────────────────────────────────────────────
+
+  async list(studyId: string, query: PayoutQueryDto): Promise<PayoutPageDto> {
+    await this.studies.require(studyId);
+    const labels = new Map((await this.studies.listConditions(studyId)).map((c) => [c.id, c.internalName ?? c.code]));
+    const where: string[] = ['p.study_id = $1'];
+    const params: unknown[] = [studyId];
+    if (query.status) where.push(`p.status = $${params.push(query.status)}`);
+    if (query.conditionId) where.push(`p.condition_id = $${params.push(query.conditionId)}`);
+    const [{ total }] = await this.dataSource.query(`SELECT count(*) AS total FROM payout p WHERE ${where.join(' AND ')}`, params);
+    const rows: Array<Record<string, unknown>> = await this.dataSource.query(
+      `SELECT p.*, e.reference, s.title AS step_title, coalesce(a.payouts_enabled, false) AS account_ready
+       FROM payout p
+       JOIN enrollment e ON e.id = p.enrollment_id
+       LEFT JOIN step_completion c ON c.id = p.step_completion_id
+       LEFT JOIN step s ON s.id = c.step_id
+       LEFT JOIN payout_account a ON a.user_id = p.participant_id
+       WHERE ${where.join(' AND ')}
+       ORDER BY p.created_at DESC, p.id LIMIT ${query.pageSize} OFFSET ${(query.page - 1) * query.pageSize}`,
+      params,
+    );
+    const totals: Array<{ status: string; n: string; amount: string }> = await this.dataSource.query(
+      `SELECT status, count(*) AS n, sum(amount_minor) AS amount FROM payout WHERE study_id = $1 GROUP BY status`,
+      [studyId],
+    );
+    return {
+      items: rows.map((r) => ({
+        id: r.id as string,
+        enrollmentId: r.enrollment_id as string,
+        reference: r.reference as string,
+        condition: r.condition_id ? (labels.get(r.condition_id as string) ?? null) : null,
+        kind: r.kind as 'step' | 'bonus',
+        stepTitle: (r.step_title as string | null) ?? null,
+        amountMinor: Number(r.amount_minor),
+        currency: (r.currency as string).trim(),
+        payOverride: r.pay_override as boolean,
+        status: r.status as PayoutEntity['status'],
+        failureReason: (r.failure_reason as string | null) ?? null,
+        providerTransferId: (r.provider_transfer_id as string | null) ?? null,
+        payoutAccountReady: r.account_ready as boolean,
+        createdAt: (r.created_at as Date).toISOString(),
+        approvedAt: r.approved_at ? (r.approved_at as Date).toISOString() : null,
+        paidAt: r.paid_at ? (r.paid_at as Date).toISOString() : null,
+      })),
+      total: Number(total),
+      page: query.page,
+      pageSize: query.pageSize,
+      countsByStatus: Object.fromEntries(totals.map((t) => [t.status, Number(t.n)])),
+      amountByStatus: Object.fromEntries(totals.map((t) => [t.status, Number(t.amount)])),
+    };
+  }
+
+  private async balance(manager: EntityManager, studyId: string) {
+    const [funded] = await manager.query(`SELECT coalesce(sum(amount_minor), 0) AS n FROM study_funding WHERE study_id = $1 AND status = 'succeeded'`, [studyId]);
+    const [spent] = await manager.query(
+      `SELECT coalesce(sum(amount_minor) FILTER (WHERE status IN ('approved','sending')), 0) AS committed,
+              coalesce(sum(amount_minor) FILTER (WHERE status = 'paid'), 0) AS paid,
+              coalesce(sum(amount_minor) FILTER (WHERE status IN ('owed','failed')), 0) AS owed
+       FROM payout WHERE study_id = $1`,
+      [studyId],
+    );
+    const fundedMinor = Number(funded.n);
+    const committedMinor = Number(spent.committed);
+    const paidMinor = Number(spent.paid);
+    return { fundedMinor, committedMinor, paidMinor, owedMinor: Number(spent.owed), remainingMinor: fundedMinor - committedMinor - paidMinor };
+  }
+
+  /** Approves owed payouts and queues one send job each; refused beyond the study's funded balance. */
+  async approve(actor: AuditActor, studyId: string, payoutIds: string[]): Promise<ApprovalResultDto> {
+    return this.dataSource.transaction(async (manager) => {
+      // One approval at a time per study, so two batches cannot both pass the budget check.
+      await this.studies.require(studyId, manager, true);
+      const unique = [...new Set(payoutIds)];
+      const payouts = await manager.find(PayoutEntity, { where: { id: In(unique), studyId }, lock: { mode: 'pessimistic_write' } });
+      const missing = unique.filter((id) => !payouts.some((p) => p.id === id));
+      if (missing.length) throw new DomainException('NOT_FOUND', `${missing.length} payout(s) are not in this study.`, missing.map((id) => ({ field: 'payoutIds', message: `${id} is not a payout of this study` })));
+      const notOwed = payouts.filter((p) => p.status !== 'owed');
+      if (notOwed.length) {
+        throw new DomainException('CONFLICT', 'Only owed payouts can be approved.', notOwed.map((p) => ({ field: 'payoutIds', message: `${p.id} is ${p.status}` })));
+      }
+      const amountMinor = payouts.reduce((sum, p) => sum + p.amountMinor, 0);
+      const { remainingMinor } = await this.balance(manager, studyId);
+      if (amountMinor > remainingMinor) {
+        throw new DomainException('CONFLICT', `Approving ${payouts.length} payout(s) needs more than the study's funded balance. Fund the study first.`, undefined, {
+          neededMinor: amountMinor,
+          remainingMinor,
+        });
+      }
+      const now = new Date();
+      await manager.update(PayoutEntity, { id: In(unique) }, { status: 'approved', approvedBy: actor.id, approvedAt: now, failureReason: null });
+      for (const payout of payouts) await this.jobs.enqueue(manager, JOB_NAMES.sendPayout, { payoutId: payout.id });
+      await this.audit.record(manager, { chain: studyId, actor, action: 'payout.approved', subjectType: 'study', subjectId: studyId, data: { count: payouts.length, amountMinor, payoutIds: unique } });
+      return { approved: payouts.length, amountMinor, remainingMinor: remainingMinor - amountMinor };
+    });
+  }
+
+  async retry(actor: AuditActor, payoutId: string): Promise<{ studyId: string }> {
+    return this.dataSource.transaction(async (manager) => {
+      const payout = await manager.findOne(PayoutEntity, { where: { id: payoutId }, lock: { mode: 'pessimistic_write' } });
+      if (!payout) throw new DomainException('NOT_FOUND', 'No such payout.');
+      if (payout.status !== 'failed') throw new DomainException('CONFLICT', `Only failed payouts can be retried; this one is ${payout.status}.`);
+      const { remainingMinor } = await this.balance(manager, payout.studyId);
+      if (payout.amountMinor > remainingMinor) throw new DomainException('CONFLICT', "The study's funded balance does not cover this payout. Fund the study first.");
+      await manager.update(PayoutEntity, { id: payoutId }, { status: 'approved', approvedBy: actor.id, approvedAt: new Date() });
+      await this.jobs.enqueue(manager, JOB_NAMES.sendPayout, { payoutId });
+      await this.audit.record(manager, { chain: payout.studyId, actor, action: 'payout.retried', subjectType: 'payout', subjectId: payoutId, data: { previousReason: payout.failureReason } });
+      return { studyId: payout.studyId };
+    });
+  }
+
+  /**
+   * Sends one approved payout. The transfer's Idempotency-Key is the payout's own key, so however often this runs
+   * (a retry after a timeout, a crash between sending and recording) the provider makes one transfer.
+   */
+  async send(payoutId: string): Promise<void> {
+    const payout = await this.dataSource.transaction(async (manager) => {
+      const current = await manager.findOne(PayoutEntity, { where: { id: payoutId }, lock: { mode: 'pessimistic_write' } });
+      if (!current || !['approved', 'sending'].includes(current.status)) return null;
+      await manager.update(PayoutEntity, { id: payoutId }, { status: 'sending', attempts: current.attempts + 1, sentAt: current.sentAt ?? new Date() });
+      return current;
+    });
+    if (!payout) return;
+    const account = await this.dataSource.getRepository(PayoutAccountEntity).findOne({ where: { userId: payout.participantId } });
+    if (!account?.payoutsEnabled) {
+      await this.markFailed(payout, 'The participant has not finished setting up how they get paid.');
+      return;
+    }
+    let transfer: Stripe.Transfer;
+    try {
+      transfer = await this.provider.transfers.create(
+        {
+          amount: payout.amountMinor,
+          currency: payout.currency.trim().toLowerCase(),
+          destination: account.providerAccountId,
+          transfer_group: `study_${payout.studyId}`,
+          metadata: { payoutId: payout.id, studyId: payout.studyId },
+        },
+        { idempotencyKey: payout.idempotencyKey },
+      );
+    } catch (error) {
+      if (isFinalRefusal(error)) {
+        await this.markFailed(payout, error.message);
+        return;
+      }
+      throw error; // a timeout, a 5xx or a rate limit: the job retries with the same key
+    }
+    this.afterTransferCreated?.(payout.id);
+    await this.markPaid(payout.id, transfer.id);
+  }
+
+  private async markFailed(payout: PayoutEntity, reason: string): Promise<void> {
+    await this.dataSource.transaction(async (manager) => {
+      const result = await manager.update(PayoutEntity, { id: payout.id, status: 'sending' }, { status: 'failed', failureReason: reason });
+      if (result.affected) {
+        await this.audit.record(manager, { chain: payout.studyId, actor: null, action: 'payout.failed', subjectType: 'payout', subjectId: payout.id, data: { reason } });
+      }
+    });
+  }
+
+  /** Marks a payout paid once; called by the sender and by the transfer.created webhook, whichever comes first. */
+  private async markPaid(payoutId: string, transferId: string, manager?: EntityManager): Promise<void> {
+    const run = async (m: EntityManager) => {
+      const result = await m.update(PayoutEntity, { id: payoutId, status: In(['approved', 'sending']) }, { status: 'paid', providerTransferId: transferId, paidAt: new Date(), failureReason: null });
+      if (!result.affected) return;
+      const payout = await m.findOneOrFail(PayoutEntity, { where: { id: payoutId } });
+      await this.audit.record(m, { chain: payout.studyId, actor: null, action: 'payout.paid', subjectType: 'payout', subjectId: payoutId, data: { transferId, amountMinor: payout.amountMinor } });
+      await this.jobs.enqueue(m, JOB_NAMES.payoutReceipt, { payoutId });
+    };
+    if (manager) await run(manager);
+    else await this.dataSource.transaction(run);
+  }
+
+  private async sendReceipt(payoutId: string): Promise<void> {
+    const payout = await this.dataSource.getRepository(PayoutEntity).findOne({ where: { id: payoutId } });
+    if (!payout || payout.status !== 'paid' || payout.receiptSentAt) return;
+    const study = await this.studies.require(payout.studyId);
+    const participant = await this.users.findActiveById(payout.participantId);
+    if (participant) {
+      const amount = formatMoney(payout.amountMinor, payout.currency.trim());
+      await this.mail.deliver({
+        to: participant.email,
+        subject: `Receipt: ${amount} for "${study.title}"`,
+        text: [
+          'Hello,',
+          '',
+          `We have sent you ${amount} for taking part in "${study.title}".`,
+          `Receipt number: ${payout.providerTransferId}`,
+          `Sent on: ${payout.paidAt?.toISOString().slice(0, 10)}`,
+          '',
+          'It can take a few working days to reach your bank account. You can see all your payments in the study portal.',
+          'Payments for research can count as income. Rules differ by country; if you are unsure, ask a tax adviser.',
+          '',
+          `${study.labName || 'The research team'}`,
+        ].join('\n'),
+      });
+    }
+    await this.dataSource.getRepository(PayoutEntity).update({ id: payoutId }, { receiptSentAt: new Date() });
+  }
+
+  // ── provider events ───────────────────────────────────────────────────────
+
+  /**
+   * Verifies and applies one webhook. A bad or stale signature changes nothing; an event seen before is a no-op;
+   * every handler only moves a record forward, so events arriving out of order settle in the same state.
+   */
+  async handleWebhook(rawBody: Buffer | undefined, signature: string | undefined): Promise<{ received: true; duplicate: boolean }> {
+    if (!rawBody || !signature) {
+      throw new DomainException('VALIDATION_FAILED', 'A signed webhook body is required.', [{ field: 'Stripe-Signature', message: 'is missing' }]);
+    }
+    let event: Stripe.Event;
+    try {
+      event = this.provider.webhooks.constructEvent(rawBody, signature, this.config.stripeWebhookSecret, 300);
+    } catch (error) {
+      throw new DomainException('VALIDATION_FAILED', 'The webhook signature does not verify.', [{ field: 'Stripe-Signature', message: (error as Error).message }]);
+    }
+    return this.dataSource.transaction(async (manager) => {
+      const inserted = await queryRows(
+        manager,
+        `INSERT INTO provider_event (provider_event_id, type, created_at_provider, payload) VALUES ($1, $2, to_timestamp($3), $4)
+         ON CONFLICT (provider_event_id) DO NOTHING RETURNING id`,
+        [event.id, event.type, event.created, JSON.stringify(event)],
+      );
+      if (inserted.length === 0) return { received: true as const, duplicate: true };
+      await this.apply(manager, event);
+      await manager.query(`UPDATE provider_event SET processed_at = now() WHERE provider_event_id = $1`, [event.id]);
+      return { received: true as const, duplicate: false };
+    });
+  }
+
+  private async apply(manager: EntityManager, event: Stripe.Event): Promise<void> {
+    switch (event.type) {
+      case 'account.updated': {
+        const account = event.data.object as Stripe.Account;
+        await this.updateAccountState(manager, account);
+        return;
+      }
+      case 'transfer.created': {
+        const transfer = event.data.object as Stripe.Transfer;
+        const payoutId = transfer.metadata?.payoutId;
+        if (payoutId) await this.markPaid(payoutId, transfer.id, manager);
+        return;
+      }
+      case 'transfer.reversed': {
+        const transfer = event.data.object as Stripe.Transfer;
+        await this.applyReversal(manager, transfer.id);
+        return;
+      }
+      case 'payment_intent.succeeded':
+      case 'payment_intent.payment_failed': {
+        const intent = event.data.object as Stripe.PaymentIntent;
+        await this.applyFunding(manager, intent.id, event.type === 'payment_intent.succeeded' ? 'succeeded' : 'failed');
+        return;
+      }
+      default:
+        return;
+    }
+  }
+
+  private async updateAccountState(manager: EntityManager, account: Stripe.Account): Promise<void> {
+    const enabled = Boolean(account.payouts_enabled) && account.capabilities?.transfers === 'active';
+    await manager.update(
+      PayoutAccountEntity,
+      { providerAccountId: account.id },
+      { payoutsEnabled: enabled, onboardingState: account.details_submitted ? 'complete' : 'started' },
+    );
+  }
+
+  /** A reversed transfer: the payout is marked reversed and the money is owed again as a new payout. */
+  private async applyReversal(manager: EntityManager, transferId: string): Promise<void> {
+    const payout = await manager.findOne(PayoutEntity, { where: { providerTransferId: transferId }, lock: { mode: 'pessimistic_write' } });
+    if (!payout || payout.status === 'reversed') return;
+    await manager.update(PayoutEntity, { id: payout.id }, { status: 'reversed', reversedAt: new Date() });
+    const again = await this.createOwed(manager, {
+      studyId: payout.studyId,
+      enrollmentId: payout.enrollmentId,
+      participantId: payout.participantId,
+      conditionId: payout.conditionId,
+      stepCompletionId: payout.stepCompletionId,
+      kind: payout.kind,
+      amountMinor: payout.amountMinor,
+      currency: payout.currency.trim(),
+      payOverride: payout.payOverride,
+    });
+    await this.audit.record(manager, { chain: payout.studyId, actor: null, action: 'payout.reversed', subjectType: 'payout', subjectId: payout.id, data: { transferId, owedAgainAs: again?.id ?? null } });
+  }
+
+  private async applyFunding(manager: EntityManager, paymentIntentId: string, status: 'succeeded' | 'failed'): Promise<void> {
+    const funding = await manager.findOne(StudyFundingEntity, { where: { paymentIntentId }, lock: { mode: 'pessimistic_write' } });
+    if (!funding || funding.status === 'succeeded') return;
+    await manager.update(StudyFundingEntity, { id: funding.id }, { status, succeededAt: status === 'succeeded' ? new Date() : null });
+    await this.audit.record(manager, { chain: funding.studyId, actor: null, action: `funding.${status}`, subjectType: 'funding', subjectId: funding.id, data: { amountMinor: funding.amountMinor, paymentIntentId } });
+  }
+
+  // ── reconciliation ────────────────────────────────────────────────────────
+
+  async reconciliation(studyId: string): Promise<ReconciliationDto> {
+    await this.studies.require(studyId);
+    const transfers = await this.provider.transfers.list({ transfer_group: `study_${studyId}`, limit: 100 }).autoPagingToArray({ limit: 10_000 });
+    const ledger = await this.dataSource.getRepository(PayoutEntity).find({ where: { studyId } });
+    return reconcile(
+      ledger.map((p) => ({ id: p.id, status: p.status, amountMinor: p.amountMinor, transferId: p.providerTransferId })),
+      transfers.map((t) => ({ id: t.id, amountMinor: t.amount, reversed: t.reversed, payoutId: t.metadata?.payoutId ?? null })),
+    );
+  }
+
+  // ── funding and budget ────────────────────────────────────────────────────
+
+  async createFunding(actor: AuditActor, studyId: string, amountMinor: number): Promise<FundingIntentDto> {
+    const study = await this.studies.require(studyId);
+    if (study.status === 'closed') throw new DomainException('CONFLICT', 'A closed study takes no more funding.');
+    const intent = await this.provider.paymentIntents.create({
+      amount: amountMinor,
+      currency: study.currency.trim().toLowerCase(),
+      allowed_payment_method_types: ['card'],
+      description: `Funding for ${study.title}`,
+      metadata: { studyId, purpose: 'study-funding' },
+    });
+    const funding = await this.dataSource.transaction(async (manager) => {
+      const saved = await manager.save(manager.create(StudyFundingEntity, { studyId, paymentIntentId: intent.id, amountMinor, currency: study.currency, status: 'pending', createdBy: actor.id }));
+      await this.audit.record(manager, { chain: studyId, actor, action: 'funding.started', subjectType: 'funding', subjectId: saved.id, data: { amountMinor, paymentIntentId: intent.id } });
+      return saved;
+    });
+    return {
+      fundingId: funding.id,
+      clientSecret: intent.client_secret!,
+      publishableKey: this.config.stripePublishableKey,
+      scriptUrl: this.config.stripeScriptUrl,
+      amountMinor,
+      currency: study.currency,
+    };
+  }
+
+  /** Asks the provider directly, for when the browser says it succeeded before the webhook arrives. */
+  async refreshFunding(studyId: string, fundingId: string): Promise<BudgetDto> {
+    const funding = await this.dataSource.getRepository(StudyFundingEntity).findOne({ where: { id: fundingId, studyId } });
+    if (!funding) throw new DomainException('NOT_FOUND', 'No such funding for this study.');
+    const intent = await this.provider.paymentIntents.retrieve(funding.paymentIntentId);
+    if (intent.status === 'succeeded' || intent.status === 'canceled') {
+      await this.dataSource.transaction((manager) => this.applyFunding(manager, intent.id, intent.status === 'succeeded' ? 'succeeded' : 'failed'));
+    }
+    return this.budget(studyId);
+  }
+
+  async budget(studyId: string): Promise<BudgetDto> {
+    const study = await this.studies.require(studyId);
+    const totals = await this.balance(this.dataSource.manager, studyId);
+    const fundings = await this.dataSource.getRepository(StudyFundingEntity).find({ where: { studyId }, order: { createdAt: 'DESC' } });
+    return {
+      currency: study.currency,
+      plannedMinor: study.budgetMinor,
+      ...totals,
+      fundings: fundings.map((f) => ({ id: f.id, amountMinor: f.amountMinor, status: f.status, createdAt: f.createdAt.toISOString(), succeededAt: f.succeededAt?.toISOString() ?? null })),
+    };
+  }
+
+  // ── the participant's side ────────────────────────────────────────────────
+
+  async accountStatus(user: SessionUser, refresh = true): Promise<PayoutAccountStatusDto> {
+    const account = await this.dataSource.getRepository(PayoutAccountEntity).findOne({ where: { userId: user.id } });
+    if (!account) return { exists: false, payoutsEnabled: false, onboarding: 'none' };
+    if (refresh && !account.payoutsEnabled) {
+      try {
+        await this.dataSource.transaction(async (manager) => this.updateAccountState(manager, await this.provider.accounts.retrieve(account.providerAccountId)));
+      } catch (error) {
+        this.logger.warn(`could not refresh account ${account.providerAccountId}: ${(error as Error).message}`);
+      }
+    }
+    const current = (await this.dataSource.getRepository(PayoutAccountEntity).findOne({ where: { userId: user.id } }))!;
+    return { exists: true, payoutsEnabled: current.payoutsEnabled, onboarding: current.onboardingState };
+  }
+
+  /** Creates the participant's connected account on first use and a fresh single-use onboarding link. */
+  async startOnboarding(user: SessionUser): Promise<OnboardingLinkDto> {
+    let account = await this.dataSource.getRepository(PayoutAccountEntity).findOne({ where: { userId: user.id } });
+    if (!account) {
+      const created = await this.provider.accounts.create(
+        { type: 'express', email: user.email, capabilities: { transfers: { requested: true } }, metadata: { userId: user.id } },
+        { idempotencyKey: `payout-account-${user.id}` },
+      );
+      await this.dataSource.query(
+        `INSERT INTO payout_account (user_id, provider_account_id) VALUES ($1, $2) ON CONFLICT (user_id) DO NOTHING`,
+        [user.id, created.id],
+      );
+      account = (await this.dataSource.getRepository(PayoutAccountEntity).findOne({ where: { userId: user.id } }))!;
+    }
+    const link = await this.provider.accountLinks.create({
+      account: account.providerAccountId,
+      refresh_url: new URL('/payouts?onboarding=expired', this.config.portalUrl).toString(),
+      return_url: new URL('/payouts?onboarding=done', this.config.portalUrl).toString(),
+      type: 'account_onboarding',
+    });
+    return { url: link.url, account: await this.accountStatus(user, false) };
+  }
+
+  async myPayouts(user: SessionUser): Promise<MyPayoutsDto> {
+    const rows: Array<Record<string, unknown>> = await this.dataSource.query(
+      `SELECT p.id, p.kind, p.amount_minor, p.currency, p.status, p.created_at, p.paid_at, p.provider_transfer_id, st.title AS study_title, s.title AS step_title
+       FROM payout p JOIN study st ON st.id = p.study_id
+       LEFT JOIN step_completion c ON c.id = p.step_completion_id LEFT JOIN step s ON s.id = c.step_id
+       WHERE p.participant_id = $1 ORDER BY p.created_at DESC`,
+      [user.id],
+    );
+    const year = new Date().getUTCFullYear();
+    const paidThisYearMinor: Record<string, number> = {};
+    const pendingMinor: Record<string, number> = {};
+    for (const r of rows) {
+      const currency = (r.currency as string).trim();
+      if (r.status === 'paid' && (r.paid_at as Date).getUTCFullYear() === year) paidThisYearMinor[currency] = (paidThisYearMinor[currency] ?? 0) + Number(r.amount_minor);
+      if (['owed', 'approved', 'sending', 'failed'].includes(r.status as string)) pendingMinor[currency] = (pendingMinor[currency] ?? 0) + Number(r.amount_minor);
+    }
+    return {
+      items: rows.map((r) => ({
+        id: r.id as string,
+        studyTitle: r.study_title as string,
+        stepTitle: (r.step_title as string | null) ?? null,
+        kind: r.kind as 'step' | 'bonus',
+        amountMinor: Number(r.amount_minor),
+        currency: (r.currency as string).trim(),
+        status: r.status as PayoutEntity['status'],
+        createdAt: (r.created_at as Date).toISOString(),
+        paidAt: r.paid_at ? (r.paid_at as Date).toISOString() : null,
+        receipt: r.status === 'paid' ? (r.provider_transfer_id as string) : null,
+      })),
+      account: await this.accountStatus(user),
+      paidThisYearMinor,
+      pendingMinor,
+      taxNote: 'Payments for taking part in research can count as income. Rules differ by country; if you are unsure, ask a tax adviser.',
+    };
+  }
+
+  /** Year-to-date paid per participant of this study (across all studies), against the reporting threshold. */
+  async taxThreshold(studyId: string): Promise<TaxThresholdDto> {
+    const study = await this.studies.require(studyId);
+    const year = new Date().getUTCFullYear();
+    const rows: Array<{ participant_id: string; email: string; paid: string }> = await this.dataSource.query(
+      `SELECT p.participant_id, u.email, sum(p.amount_minor) AS paid
+       FROM payout p JOIN user_account u ON u.id = p.participant_id
+       WHERE p.status = 'paid' AND p.currency = $2 AND p.paid_at >= make_timestamptz($3, 1, 1, 0, 0, 0, 'UTC')
+         AND p.participant_id IN (SELECT participant_id FROM payout WHERE study_id = $1)
+       GROUP BY 1, 2 ORDER BY paid DESC`,
+      [studyId, study.currency, year],
+    );
+    const threshold = this.config.taxReportingThresholdMinor;
+    return {
+      year,
+      thresholdMinor: threshold,
+      currency: study.currency,
+      caution: TAX_CAUTION,
+      participants: rows.map((r) => {
+        const paid = Number(r.paid);
+        return { participantId: r.participant_id, email: r.email, paidThisYearMinor: paid, standing: paid >= threshold ? 'over' : paid >= NEAR_THRESHOLD * threshold ? 'near' : 'under' };
+      }),
+    };
+  }
+}
