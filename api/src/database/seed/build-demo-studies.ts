@@ -118,7 +118,70 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
         await enrollments.sign(participant, study.id, { versionId: second.id, fingerprint: second.fingerprint!, typedName: `Demo Participant (re-signed)` }, DEMO_CLIENT);
       }
     }
+    // Only people on the current consent version can go on with their steps; the rest wait to re-consent.
+    if (demo.history) await playHistory(app, coordinator, study.id, demo, signedUp.slice(0, demo.amendment?.resign ?? signedUp.length));
     built.push(demo.slug);
   }
   return built;
+}
+
+/** A deterministic stand-in for chance, so the demo looks the same on every machine. */
+function demoChance(n: number, salt: number): number {
+  const x = Math.sin(n * 12.9898 + salt * 78.233) * 43758.5453;
+  return x - Math.floor(x);
+}
+
+/**
+ * Gives the demo study weeks of invented history: people working through their steps, some withdrawing and some
+ * lost to follow-up, with one condition losing people faster, so the dropout watch has something to show.
+ */
+async function playHistory(app: INestApplicationContext, coordinator: SessionUser, studyId: string, demo: DemoStudy, people: SessionUser[]) {
+  const dataSource = app.get(DataSource);
+  const enrollments = app.get(EnrollmentsService);
+  const history = demo.history!;
+  const rows: Array<{ id: string; internal_name: string }> = await dataSource.query(`SELECT id, internal_name FROM condition WHERE study_id = $1`, [studyId]);
+  const internalNameOf = new Map<string, string>(rows.map((c) => [c.id, c.internal_name]));
+  const stepIds: string[] = (await dataSource.query(`SELECT id FROM step WHERE study_id = $1 ORDER BY position`, [studyId])).map((r: { id: string }) => r.id);
+  const day = 24 * 3600 * 1000;
+  const now = Date.now();
+  for (const [i, person] of people.entries()) {
+    const [row] = await dataSource.query(`SELECT id, condition_id FROM enrollment WHERE study_id = $1 AND participant_id = $2`, [studyId, person.id]);
+    const dropRate = history.dropoutByCondition[internalNameOf.get(row.condition_id) ?? ''] ?? 0.15;
+    const assignedAt = new Date(now - (history.days - (i * history.days) / people.length) * day);
+    // Every step of the way, a person may stop; those who stop are withdrawn or, if they went quiet, lost.
+    let stepsDone = 0;
+    let stoppedAfter: number | null = null;
+    for (let s = 0; s < stepIds.length; s++) {
+      if (demoChance(i, s + 1) < dropRate / stepIds.length + (s === 0 ? dropRate / 3 : 0)) {
+        stoppedAfter = s;
+        break;
+      }
+      const at = new Date(assignedAt.getTime() + (s + 1) * history.daysBetweenSteps * day);
+      if (at.getTime() > now) break;
+      await enrollments.completeStepForParticipant(coordinator, studyId, row.id, stepIds[s]);
+      await dataSource.query(`UPDATE step_completion SET completed_at = $1 WHERE enrollment_id = $2 AND step_id = $3`, [at, row.id, stepIds[s]]);
+      await dataSource.query(
+        `UPDATE payout SET created_at = $1 WHERE step_completion_id = (SELECT id FROM step_completion WHERE enrollment_id = $2 AND step_id = $3)`,
+        [at, row.id, stepIds[s]],
+      );
+      stepsDone += 1;
+    }
+    const stoppedAt = new Date(assignedAt.getTime() + ((stoppedAfter ?? 0) + 0.5) * history.daysBetweenSteps * day);
+    if (stoppedAfter !== null && stoppedAt.getTime() < now) {
+      if (demoChance(i, 99) < 0.5) {
+        await enrollments.withdrawOnBehalf(coordinator, studyId, row.id, history.withdrawalReasons[i % history.withdrawalReasons.length]);
+        await dataSource.query(`UPDATE enrollment SET withdrew_at = $1 WHERE id = $2`, [stoppedAt, row.id]);
+      } else if (stepsDone > 0 || demoChance(i, 7) < 0.5) {
+        await dataSource.query(`UPDATE enrollment SET status = 'active' WHERE id = $1 AND status = 'assigned'`, [row.id]);
+        await enrollments.markLost(coordinator, studyId, row.id, 'No reply to three reminders');
+        await dataSource.query(`UPDATE enrollment SET lost_at = $1 WHERE id = $2`, [stoppedAt, row.id]);
+      }
+    }
+    const completedAt = new Date(assignedAt.getTime() + stepIds.length * history.daysBetweenSteps * day);
+    await dataSource.query(`UPDATE enrollment SET assigned_at = $1, consented_at = $1, completed_at = CASE WHEN status = 'completed' THEN $2::timestamptz END WHERE id = $3`, [
+      assignedAt,
+      completedAt,
+      row.id,
+    ]);
+  }
 }

@@ -47,6 +47,8 @@ export interface DemoStudy {
   participants: { prefix: string; first: number; count: number; excluded: number };
   /** An amendment activated after everyone signed; this many sign it again. */
   amendment?: { approvalReference: string; note: string; resign: number };
+  /** Invented history for the dropout watch: probability of stopping, by condition (internal name). */
+  history?: { days: number; daysBetweenSteps: number; dropoutByCondition: Record<string, number>; withdrawalReasons: string[] };
 }
 
 export const DEMO_STUDIES: DemoStudy[] = [
@@ -93,7 +95,14 @@ export const DEMO_STUDIES: DemoStudy[] = [
     scheme: { method: 'stratified-blocks', blockSizes: [3, 6] },
     approvalReference: 'HLREB-2026-031',
     participants: { prefix: 'p', first: 1, count: 48, excluded: 3 },
-    amendment: { approvalReference: 'HLREB-2026-031-A1', note: 'Session 3 may also be done on a tablet.', resign: 20 },
+    amendment: { approvalReference: 'HLREB-2026-031-A1', note: 'Session 3 may also be done on a tablet.', resign: 38 },
+    // People without any route help get lost in the building and give up more often: the watch should light up.
+    history: {
+      days: 42,
+      daysBetweenSteps: 4,
+      dropoutByCondition: { 'audio cues': 0.12, 'map cues': 0.15, 'no cues': 0.55 },
+      withdrawalReasons: ['The tasks took longer than I expected', 'Too frustrating to find the rooms', 'Moved house'],
+    },
   },
   {
     slug: 'checkout-flows',
