@@ -19,6 +19,11 @@ export const routes: RouteObject[] = [
         lazy: async () => ({ Component: (await import('./routes/sign-in-link')).SignInLinkRoute }),
       },
       {
+        // Public: anyone may read about a study; someone taking part continues their journey here.
+        path: 's/:slug',
+        lazy: async () => ({ Component: (await import('./routes/study')).StudyRoute }),
+      },
+      {
         lazy: async () => ({ Component: (await import('./routes/signed-in-layout')).SignedInLayout }),
         children: [
           {

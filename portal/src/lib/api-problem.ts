@@ -4,6 +4,8 @@ export interface ApiProblem {
   code: string;
   message: string;
   errors?: { field: string; message: string }[];
+  /** Some failures carry more, e.g. a 409 on a signature names the consent version that is current now. */
+  [detail: string]: unknown;
 }
 
 /** Thrown by every fetcher when the api answers with a failure. */
@@ -11,6 +13,7 @@ export class ApiError extends Error {
   readonly statusCode: number;
   readonly code: string;
   readonly fieldErrors: { field: string; message: string }[];
+  readonly problem: ApiProblem;
 
   constructor(problem: ApiProblem) {
     super(problem.message);
@@ -18,6 +21,7 @@ export class ApiError extends Error {
     this.statusCode = problem.statusCode;
     this.code = problem.code;
     this.fieldErrors = problem.errors ?? [];
+    this.problem = problem;
   }
 }
 

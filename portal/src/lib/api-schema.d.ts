@@ -173,6 +173,614 @@ export interface paths {
         };
         get: operations["StudiesController_list"];
         put?: never;
+        post: operations["StudiesController_create"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StudiesController_get"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch: operations["StudiesController_update"];
+        trace?: never;
+    };
+    "/api/studies/{studyId}/open": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["StudiesController_open"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/pause": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["StudiesController_pause"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/close": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["StudiesController_close"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/conditions": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StudiesController_conditions"];
+        put?: never;
+        post: operations["StudiesController_addCondition"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/conditions/{conditionId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch: operations["StudiesController_updateCondition"];
+        trace?: never;
+    };
+    "/api/studies/{studyId}/stratification-factors": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StudiesController_factors"];
+        put: operations["StudiesController_replaceFactors"];
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/screening-questions": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StudiesController_screeningQuestions"];
+        put: operations["StudiesController_replaceScreeningQuestions"];
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/members": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StudiesController_members"];
+        put?: never;
+        post: operations["StudiesController_addMember"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/steps": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StepsController_list"];
+        put?: never;
+        post: operations["StepsController_create"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/steps/{stepId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch: operations["StepsController_update"];
+        trace?: never;
+    };
+    "/api/studies/{studyId}/steps/{stepId}/pay-overrides/{conditionId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put: operations["StepsController_setOverride"];
+        post?: never;
+        delete: operations["StepsController_removeOverride"];
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/public/studies/{slug}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["PublicStudyController_get"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/assignment-scheme": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put: operations["AssignmentController_putScheme"];
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/assignment": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["AssignmentController_get"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/assignment/dry-run": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["AssignmentController_dryRun"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/unblind": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["AssignmentController_unblind"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/assignment/verify": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["AssignmentController_verify"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/consent-templates": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["ConsentController_templates"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/consent-versions": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["ConsentController_list"];
+        put?: never;
+        post: operations["ConsentController_create"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/consent-versions/{versionId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["ConsentController_get"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch: operations["ConsentController_update"];
+        trace?: never;
+    };
+    "/api/studies/{studyId}/consent-versions/{versionId}/check": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["ConsentController_check"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/consent-versions/{versionId}/approval-letter": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["ConsentController_letter"];
+        put?: never;
+        post: operations["ConsentController_upload"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/consent-versions/{versionId}/activate": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["ConsentController_activate"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/me": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["MyEnrollmentController_me"];
+        put?: never;
+        post: operations["MyEnrollmentController_join"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/me/screening": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put: operations["MyEnrollmentController_screening"];
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/me/consent": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["MyEnrollmentController_consent"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/me/signature": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["MyEnrollmentController_sign"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/me/consent.pdf": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["MyEnrollmentController_pdf"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/me/withdraw": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["MyEnrollmentController_withdraw"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["RosterController_list"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/import": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["RosterController_import"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/invite": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["RosterController_invite"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/reconsent-reminders": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["RosterController_remind"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/{enrollmentId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["RosterController_record"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/{enrollmentId}/lost": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["RosterController_lost"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/{enrollmentId}/withdraw": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["RosterController_withdraw"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/{enrollmentId}/signatures/{signatureId}/pdf": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["RosterController_signedCopy"];
+        put?: never;
         post?: never;
         delete?: never;
         options?: never;
@@ -318,6 +926,671 @@ export interface components {
         };
         StudyListDto: {
             items: components["schemas"]["StudySummaryDto"][];
+        };
+        CreateStudyDto: {
+            /**
+             * @description Lower-case letters, digits and dashes; used in the study link
+             * @example wayfinding-cues
+             */
+            slug: string;
+            /** @example Wayfinding cues */
+            title: string;
+            /** @example HLCL-2026-014 */
+            protocolNumber?: string;
+            /** @enum {string} */
+            design: "between" | "within";
+            /** @description What taking part involves, in plain words */
+            summary?: string;
+            estimatedMinutes?: number;
+            targetSize?: number;
+            /** @description Minor units */
+            budgetMinor?: number;
+            /** @example USD */
+            currency?: string;
+            /** @default true */
+            blinded: boolean;
+            /** @example Harbor Lane Cognition Lab */
+            labName?: string;
+            /** @example study-team@lab.test */
+            contactEmail?: string;
+        };
+        StudyDto: {
+            /** Format: uuid */
+            id: string;
+            slug: string;
+            title: string;
+            /** @enum {string} */
+            status: "draft" | "recruiting" | "paused" | "closed";
+            /** @enum {string} */
+            design: "between" | "within";
+            protocolNumber: string | null;
+            summary: string;
+            estimatedMinutes: number | null;
+            targetSize: number | null;
+            /** @description Minor units of currency */
+            budgetMinor: number;
+            /** @example USD */
+            currency: string;
+            blinded: boolean;
+            labName: string;
+            contactEmail: string | null;
+            /** Format: date-time */
+            openedAt: string | null;
+            /** Format: date-time */
+            closedAt: string | null;
+            /** Format: date-time */
+            createdAt: string;
+            /** @description Whether anyone has been assigned yet; the design is fixed from then on */
+            designLocked: boolean;
+        };
+        UpdateStudyDto: {
+            title?: string;
+            protocolNumber?: string;
+            /** @enum {string} */
+            design?: "between" | "within";
+            summary?: string;
+            estimatedMinutes?: number;
+            targetSize?: number;
+            budgetMinor?: number;
+            currency?: string;
+            blinded?: boolean;
+            labName?: string;
+            contactEmail?: string;
+        };
+        ConditionDto: {
+            /** Format: uuid */
+            id: string;
+            /** @description Neutral code shown while blinded */
+            code: string;
+            /** @description Staff-only name; hidden behind the code while the study is blinded */
+            internalName: string | null;
+            participantLabel: string;
+            participantInstructions: string;
+            allocationWeight: number;
+            position: number;
+        };
+        ConditionListDto: {
+            items: components["schemas"]["ConditionDto"][];
+        };
+        CreateConditionDto: {
+            /** @example audio cues */
+            internalName: string;
+            /**
+             * @description What participants see
+             * @example Route guide, version 1
+             */
+            participantLabel: string;
+            participantInstructions?: string;
+            /** @default 1 */
+            allocationWeight: number;
+        };
+        UpdateConditionDto: {
+            internalName?: string;
+            participantLabel?: string;
+            participantInstructions?: string;
+            allocationWeight?: number;
+        };
+        StratificationFactorDto: {
+            /** Format: uuid */
+            id: string;
+            key: string;
+            label: string;
+            /** @enum {string} */
+            kind: "numeric" | "categorical";
+            cutPoints: number[] | null;
+            categories: string[] | null;
+            minimizationWeight: number;
+            /** @description The levels participants fall into */
+            levels: string[];
+        };
+        StratificationFactorListDto: {
+            items: components["schemas"]["StratificationFactorDto"][];
+            /** @description Why a pretest stratifies rather than deciding the condition */
+            pretestNote: string;
+        };
+        StratificationFactorInputDto: {
+            /** @example sense_of_direction */
+            key: string;
+            /** @example How good is your sense of direction? (0–100) */
+            label: string;
+            /** @enum {string} */
+            kind: "numeric" | "categorical";
+            /** @description numeric: a value at or above a cut falls in the upper level */
+            cutPoints?: number[];
+            categories?: string[];
+            /**
+             * @description Weight in minimization
+             * @default 1
+             */
+            minimizationWeight: number;
+        };
+        ReplaceFactorsDto: {
+            factors: components["schemas"]["StratificationFactorInputDto"][];
+        };
+        ScreeningQuestionDto: {
+            key: string;
+            label: string;
+            /** @enum {string} */
+            kind: "yes-no" | "number" | "choice";
+            options?: string[];
+            min?: number;
+            max?: number;
+            help?: string;
+            /**
+             * @description Stratification answers balance the assignment; they never exclude anyone
+             * @enum {string}
+             */
+            purpose: "eligibility" | "stratification";
+        };
+        ScreeningQuestionListDto: {
+            items: components["schemas"]["ScreeningQuestionDto"][];
+        };
+        ScreeningQuestionInputDto: {
+            /** @example adult */
+            key: string;
+            /** @example Are you 18 or older? */
+            label: string;
+            /** @enum {string} */
+            kind: "yes-no" | "number" | "choice";
+            options?: string[];
+            minValue?: number;
+            maxValue?: number;
+            help?: string;
+            /** @description The rule in plain words for the public page, e.g. "18 or older" */
+            criterion?: string;
+            /** @description yes-no: [true] or [false]; choice: the options that may take part */
+            eligibleValues?: unknown[];
+            eligibleMin?: number;
+            eligibleMax?: number;
+        };
+        ReplaceScreeningQuestionsDto: {
+            questions: components["schemas"]["ScreeningQuestionInputDto"][];
+        };
+        MemberDto: {
+            /** Format: uuid */
+            userId: string;
+            email: string;
+            name: string;
+            /** @enum {string} */
+            role: "coordinator" | "researcher" | "auditor" | "admin";
+        };
+        MemberListDto: {
+            items: components["schemas"]["MemberDto"][];
+        };
+        AddMemberDto: {
+            /** @example someone@lab.test */
+            email: string;
+            /** @enum {string} */
+            role: "coordinator" | "researcher" | "auditor";
+        };
+        PayOverrideDto: {
+            /** Format: uuid */
+            conditionId: string;
+            /** @description Minor units */
+            payMinor: number;
+            reason: string;
+            /** Format: date-time */
+            recordedAt: string;
+        };
+        StepDto: {
+            /** Format: uuid */
+            id: string;
+            position: number;
+            title: string;
+            description: string;
+            /** @description Minor units of the study currency; the same in every condition unless overridden */
+            payMinor: number;
+            /** @description Recorded exceptions to equal pay; each is flagged in the parity view */
+            payOverrides: components["schemas"]["PayOverrideDto"][];
+        };
+        StepListDto: {
+            items: components["schemas"]["StepDto"][];
+            currency: string;
+            /** @description Sum of every step at its base pay */
+            totalPayMinor: number;
+            /** @description True when any step pays differently in some condition */
+            hasPayOverrides: boolean;
+        };
+        CreateStepDto: {
+            /** @example Session 1: learning the route */
+            title: string;
+            description?: string;
+            /** @description Minor units, e.g. 1500 for 15.00 */
+            payMinor: number;
+            /** @description Where the step goes; default last */
+            position?: number;
+        };
+        UpdateStepDto: {
+            title?: string;
+            description?: string;
+            payMinor?: number;
+        };
+        SetPayOverrideDto: {
+            payMinor: number;
+            /** @description Why this condition is paid differently; kept in the record and shown with the flag */
+            reason: string;
+        };
+        PublicStepDto: {
+            position: number;
+            title: string;
+            description: string;
+            payMinor: number;
+        };
+        EligibilityCriterionDto: {
+            key: string;
+            label: string;
+        };
+        PublicStudyDto: {
+            /** Format: uuid */
+            id: string;
+            slug: string;
+            title: string;
+            summary: string;
+            estimatedMinutes: number | null;
+            /** @enum {string} */
+            status: "recruiting" | "paused" | "closed";
+            protocolNumber: string | null;
+            labName: string;
+            contactEmail: string | null;
+            currency: string;
+            totalPayMinor: number;
+            steps: components["schemas"]["PublicStepDto"][];
+            eligibility: components["schemas"]["EligibilityCriterionDto"][];
+        };
+        PutAssignmentSchemeDto: {
+            /** @enum {string} */
+            method: "simple" | "permuted-blocks" | "stratified-blocks" | "minimization" | "matched-pairs" | "counterbalanced" | "latin-square" | "williams";
+            /** @description permuted and stratified blocks: allowed block sizes, each a multiple of the total weight */
+            blockSizes?: number[];
+            /**
+             * @description minimization: how imbalance is measured
+             * @enum {string}
+             */
+            measure?: "range" | "variance";
+            /** @description minimization: probability of the least-imbalanced condition (0.5–1) */
+            coinProbability?: number;
+            /** @description matched pairs: the numeric pretest factor used to pair people */
+            pretestKey?: string;
+            /** @description within-subjects: block sizes in whole copies of the design */
+            squaresPerBlock?: number[];
+            /** @description within-subjects: hand out orders separately per stratum */
+            stratify?: boolean;
+        };
+        ArmCountDto: {
+            /** @description Condition id, or the order of condition ids joined by ">" */
+            armId: string;
+            count: number;
+        };
+        StratumBalanceDto: {
+            stratumKey: string;
+            total: number;
+            counts: components["schemas"]["ArmCountDto"][];
+        };
+        AssignmentDto: {
+            /** @enum {string|null} */
+            method: "simple" | "permuted-blocks" | "stratified-blocks" | "minimization" | "matched-pairs" | "counterbalanced" | "latin-square" | "williams" | null;
+            settings: {
+                [key: string]: unknown;
+            };
+            /** @description SHA-256 over the sealed seed and the canonical parameters */
+            commitment: string | null;
+            /** Format: date-time */
+            committedAt: string | null;
+            /** @description The canonical parameters the commitment covers */
+            sealedParameters: {
+                [key: string]: unknown;
+            } | null;
+            /** @description Revealed only after closure or unblinding */
+            seed: string | null;
+            /** Format: date-time */
+            seedRevealedAt: string | null;
+            /** Format: date-time */
+            unblindedAt: string | null;
+            unblindReason: string | null;
+            allocated: number;
+            balance: components["schemas"]["StratumBalanceDto"][];
+            pretestNote: string;
+        };
+        DryRunRequestDto: {
+            arrivals: number;
+            /** @description 64 hex characters; a fresh throwaway seed when omitted. Never the study’s sealed seed. */
+            seed?: string;
+            /** @description Per covariate key: {kind:"categorical",proportions}, {kind:"numeric-values",values:[{value,probability}]} or {kind:"normal",mean,sd} */
+            covariateMix: {
+                [key: string]: unknown;
+            };
+            /**
+             * @description Try another scheme than the saved one
+             * @enum {string}
+             */
+            method?: "simple" | "permuted-blocks" | "stratified-blocks" | "minimization" | "matched-pairs" | "counterbalanced" | "latin-square" | "williams";
+            /** @description Settings for `method`, as in PUT assignment-scheme */
+            settings?: {
+                [key: string]: unknown;
+            };
+        };
+        DryRunResultDto: {
+            arrivals: number;
+            arms: {
+                [key: string]: unknown;
+            }[];
+            strata: {
+                [key: string]: unknown;
+            }[];
+            factorLevels: {
+                [key: string]: unknown;
+            }[];
+            imbalanceOverTime: {
+                [key: string]: unknown;
+            }[];
+            largestImbalance: {
+                [key: string]: unknown;
+            };
+            finalImbalance: {
+                [key: string]: unknown;
+            };
+            matchedPairs: {
+                [key: string]: unknown;
+            } | null;
+            seed: string;
+        };
+        UnblindDto: {
+            /** @description Why the allocation is being revealed; kept in the audit trail */
+            reason: string;
+        };
+        AllocationCheckDto: {
+            arrivalPosition: number;
+            enrollmentId: string;
+            stratumKey: string;
+            expected: {
+                [key: string]: unknown;
+            };
+            recorded: {
+                [key: string]: unknown;
+            };
+            matches: boolean;
+        };
+        VerificationDto: {
+            allMatch: boolean;
+            commitmentMatches: boolean;
+            matched: number;
+            mismatched: number;
+            seed: string;
+            commitment: string;
+            checks: components["schemas"]["AllocationCheckDto"][];
+        };
+        ConsentTemplateDto: {
+            id: string;
+            title: string;
+            version: number;
+            fields: string[];
+            /** @description For staff: a starting point for the ethics board, not legal advice */
+            notice: string;
+        };
+        ConsentTemplateListDto: {
+            items: components["schemas"]["ConsentTemplateDto"][];
+        };
+        ConsentVersionDto: {
+            /** Format: uuid */
+            id: string;
+            version: number;
+            templateId: string;
+            /** @enum {string} */
+            status: "draft" | "active" | "retired";
+            body: string;
+            /** @description Sanitised HTML preview */
+            previewHtml: string;
+            approvalReference: string | null;
+            approvedAt: string | null;
+            /** @description The uploaded ethics approval letter */
+            approvalLetter: Record<string, never> | null;
+            /** @description SHA-256 of the rendered text, fixed at activation */
+            fingerprint: string | null;
+            activeFrom: string | null;
+            activeTo: string | null;
+            readingMinutes: number;
+            /** @description Signatures on this version */
+            signatures: number;
+            notice: string;
+        };
+        ConsentVersionListDto: {
+            items: components["schemas"]["ConsentVersionDto"][];
+        };
+        ConsentFieldsDto: {
+            institutionName?: string;
+            investigatorName?: string;
+            contactEmail?: string;
+            contactPhone?: string;
+            ethicsBoardName?: string;
+            ethicsBoardContact?: string;
+            studyPurpose?: string;
+            paymentMethod?: string;
+            paymentDays?: number;
+            dataRetentionYears?: number;
+            /** @description (b)(9): whether de-identified data may be used in future research */
+            futureUseDeidentified?: boolean;
+        };
+        CreateConsentVersionDto: {
+            /** @example consent/minimal-risk-paid-study */
+            templateId: string;
+            /** @description Values for the template; study fields fill the rest */
+            values?: components["schemas"]["ConsentFieldsDto"];
+        };
+        UpdateConsentVersionDto: {
+            /** @description The whole form as Markdown */
+            body?: string;
+            /** @example HLCL-IRB-2026-031 */
+            approvalReference?: string;
+            /**
+             * @description Date on the approval letter
+             * @example 2026-11-20
+             */
+            approvedAt?: string;
+        };
+        ConsentFindingDto: {
+            code: string;
+            element: string | null;
+            citation: string | null;
+            line: number | null;
+            message: string;
+        };
+        ConsentCheckDto: {
+            passes: boolean;
+            findings: components["schemas"]["ConsentFindingDto"][];
+            required: {
+                [key: string]: unknown;
+            }[];
+            optional: {
+                [key: string]: unknown;
+            }[];
+        };
+        ScreeningStateDto: {
+            questions: components["schemas"]["ScreeningQuestionDto"][];
+            answers: {
+                [key: string]: unknown;
+            } | null;
+            exclusionReason: string | null;
+        };
+        ConsentStateDto: {
+            activeVersionId: string | null;
+            signedVersionId: string | null;
+            needsSignature: boolean;
+            signedAt: string | null;
+        };
+        ParticipantAssignmentDto: {
+            /** @description The participant-facing label; never the internal name */
+            label: string;
+            instructions: string;
+        };
+        MyStepDto: {
+            id: string;
+            position: number;
+            title: string;
+            description: string;
+            payMinor: number;
+            /** @enum {string} */
+            status: "open" | "done" | "locked";
+            completedAt: string | null;
+        };
+        EarnedDto: {
+            earnedMinor: number;
+            paidMinor: number;
+            stillToBePaidMinor: number;
+        };
+        MyEnrollmentDto: {
+            id: string;
+            reference: string;
+            studyId: string;
+            studyTitle: string;
+            studySlug: string;
+            currency: string;
+            /** @enum {string} */
+            status: "invited" | "screened" | "excluded" | "consented" | "assigned" | "active" | "completed" | "withdrew" | "lost";
+            /** @enum {string} */
+            next: "screening" | "consent" | "re-consent" | "steps" | "done" | "excluded" | "withdrawn";
+            screening: components["schemas"]["ScreeningStateDto"];
+            consent: components["schemas"]["ConsentStateDto"];
+            assignment: components["schemas"]["ParticipantAssignmentDto"] | null;
+            steps: components["schemas"]["MyStepDto"][];
+            earned: components["schemas"]["EarnedDto"];
+            withdrewAt: string | null;
+        };
+        SubmitScreeningDto: {
+            /** @description Answer per question key: true/false, a number or an option */
+            answers: {
+                [key: string]: unknown;
+            };
+        };
+        ScreeningResultDto: {
+            eligible: boolean;
+            reasons: string[];
+            enrollment: components["schemas"]["MyEnrollmentDto"];
+        };
+        ReadingSectionDto: {
+            id: string;
+            heading: string;
+            html: string;
+        };
+        ApprovalDto: {
+            reference: string;
+            approvedAt: string;
+        };
+        ConsentToSignDto: {
+            versionId: string;
+            version: number;
+            fingerprint: string;
+            readingMinutes: number;
+            keyInformationHtml: string;
+            sections: components["schemas"]["ReadingSectionDto"][];
+            signatureMeaning: string;
+            approval: components["schemas"]["ApprovalDto"];
+        };
+        SignConsentDto: {
+            /** Format: uuid */
+            versionId: string;
+            /** @description SHA-256 of the rendered text the person read */
+            fingerprint: string;
+            /** @example Sam Example */
+            typedName: string;
+            /** @description A drawn mark as a PNG data URL */
+            mark?: string;
+            /**
+             * @description The signer's IANA time zone, from the browser
+             * @example Europe/Berlin
+             */
+            timeZone?: string;
+        };
+        SignatureResultDto: {
+            signatureId: string;
+            signedAt: string;
+            assignment: components["schemas"]["ParticipantAssignmentDto"] | null;
+            enrollment: components["schemas"]["MyEnrollmentDto"];
+        };
+        WithdrawDto: {
+            /** @description Optional; never required to withdraw */
+            reason?: string;
+        };
+        WithdrawalResultDto: {
+            withdrewAt: string;
+            earnedMinor: number;
+            stillToBePaidMinor: number;
+            enrollment: components["schemas"]["MyEnrollmentDto"];
+        };
+        RosterEntryDto: {
+            id: string;
+            reference: string;
+            email: string;
+            name: string | null;
+            /** @enum {string} */
+            status: "invited" | "screened" | "excluded" | "consented" | "assigned" | "active" | "completed" | "withdrew" | "lost";
+            /** @description Condition code (A, B…), or the internal name once unblinded */
+            condition: string | null;
+            stratumKey: string | null;
+            covariates: {
+                [key: string]: unknown;
+            };
+            needsReconsent: boolean;
+            signedVersion: number | null;
+            invitationSentAt: string | null;
+            assignedAt: string | null;
+            createdAt: string;
+        };
+        RosterPageDto: {
+            items: components["schemas"]["RosterEntryDto"][];
+            total: number;
+            page: number;
+            pageSize: number;
+            countsByStatus: {
+                [key: string]: number;
+            };
+        };
+        ImportResultDto: {
+            created: number;
+            /** @description Rows for people already on the roster; left unchanged */
+            alreadyEnrolled: number;
+            errors: {
+                line?: number;
+                field?: string;
+                message?: string;
+            }[];
+            ignoredColumns: string[];
+        };
+        InviteDto: {
+            /** @description Enrollments to invite; omit to invite everyone not yet invited */
+            enrollmentIds?: string[];
+        };
+        CountDto: {
+            count: number;
+        };
+        SignatureSummaryDto: {
+            id: string;
+            version: number;
+            signedAt: string;
+            typedName: string;
+            meaning: string;
+            textFingerprint: string;
+            pdfSha256: string | null;
+            ip: string | null;
+            userAgent: string | null;
+            hasMark: boolean;
+        };
+        TimelineEventDto: {
+            at: string;
+            action: string;
+            actorEmail: string | null;
+            data: {
+                [key: string]: unknown;
+            };
+        };
+        ParticipantRecordDto: {
+            enrollment: components["schemas"]["RosterEntryDto"];
+            withdrawalReason: string | null;
+            exclusionReason: string | null;
+            signatures: components["schemas"]["SignatureSummaryDto"][];
+            timeline: components["schemas"]["TimelineEventDto"][];
+        };
+        MarkLostDto: {
+            reason?: string;
         };
         HealthDto: {
             /** @enum {string} */
@@ -601,6 +1874,1169 @@ export interface operations {
                 content: {
                     "application/json": components["schemas"]["StudyListDto"];
                 };
+            };
+        };
+    };
+    StudiesController_create: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["CreateStudyDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StudyDto"];
+                };
+            };
+        };
+    };
+    StudiesController_get: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StudyDto"];
+                };
+            };
+        };
+    };
+    StudiesController_update: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["UpdateStudyDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StudyDto"];
+                };
+            };
+        };
+    };
+    StudiesController_open: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StudyDto"];
+                };
+            };
+        };
+    };
+    StudiesController_pause: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StudyDto"];
+                };
+            };
+        };
+    };
+    StudiesController_close: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StudyDto"];
+                };
+            };
+        };
+    };
+    StudiesController_conditions: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConditionListDto"];
+                };
+            };
+        };
+    };
+    StudiesController_addCondition: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["CreateConditionDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConditionDto"];
+                };
+            };
+        };
+    };
+    StudiesController_updateCondition: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                conditionId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["UpdateConditionDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConditionDto"];
+                };
+            };
+        };
+    };
+    StudiesController_factors: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StratificationFactorListDto"];
+                };
+            };
+        };
+    };
+    StudiesController_replaceFactors: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ReplaceFactorsDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StratificationFactorListDto"];
+                };
+            };
+        };
+    };
+    StudiesController_screeningQuestions: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ScreeningQuestionListDto"];
+                };
+            };
+        };
+    };
+    StudiesController_replaceScreeningQuestions: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ReplaceScreeningQuestionsDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ScreeningQuestionListDto"];
+                };
+            };
+        };
+    };
+    StudiesController_members: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["MemberListDto"];
+                };
+            };
+        };
+    };
+    StudiesController_addMember: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["AddMemberDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["MemberListDto"];
+                };
+            };
+        };
+    };
+    StepsController_list: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StepListDto"];
+                };
+            };
+        };
+    };
+    StepsController_create: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["CreateStepDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StepListDto"];
+                };
+            };
+        };
+    };
+    StepsController_update: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                stepId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["UpdateStepDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StepListDto"];
+                };
+            };
+        };
+    };
+    StepsController_setOverride: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                stepId: string;
+                conditionId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["SetPayOverrideDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StepListDto"];
+                };
+            };
+        };
+    };
+    StepsController_removeOverride: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                stepId: string;
+                conditionId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StepListDto"];
+                };
+            };
+        };
+    };
+    PublicStudyController_get: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                slug: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["PublicStudyDto"];
+                };
+            };
+        };
+    };
+    AssignmentController_putScheme: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["PutAssignmentSchemeDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AssignmentDto"];
+                };
+            };
+        };
+    };
+    AssignmentController_get: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AssignmentDto"];
+                };
+            };
+        };
+    };
+    AssignmentController_dryRun: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["DryRunRequestDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["DryRunResultDto"];
+                };
+            };
+        };
+    };
+    AssignmentController_unblind: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["UnblindDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AssignmentDto"];
+                };
+            };
+        };
+    };
+    AssignmentController_verify: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["VerificationDto"];
+                };
+            };
+        };
+    };
+    ConsentController_templates: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConsentTemplateListDto"];
+                };
+            };
+        };
+    };
+    ConsentController_list: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConsentVersionListDto"];
+                };
+            };
+        };
+    };
+    ConsentController_create: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["CreateConsentVersionDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConsentVersionDto"];
+                };
+            };
+        };
+    };
+    ConsentController_get: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                versionId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConsentVersionDto"];
+                };
+            };
+        };
+    };
+    ConsentController_update: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                versionId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["UpdateConsentVersionDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConsentVersionDto"];
+                };
+            };
+        };
+    };
+    ConsentController_check: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                versionId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConsentCheckDto"];
+                };
+            };
+        };
+    };
+    ConsentController_letter: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                versionId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    ConsentController_upload: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                versionId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "multipart/form-data": {
+                    /** Format: binary */
+                    letter: string;
+                };
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConsentVersionDto"];
+                };
+            };
+        };
+    };
+    ConsentController_activate: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                versionId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConsentVersionDto"];
+                };
+            };
+        };
+    };
+    MyEnrollmentController_me: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["MyEnrollmentDto"];
+                };
+            };
+        };
+    };
+    MyEnrollmentController_join: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["MyEnrollmentDto"];
+                };
+            };
+        };
+    };
+    MyEnrollmentController_screening: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["SubmitScreeningDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ScreeningResultDto"];
+                };
+            };
+        };
+    };
+    MyEnrollmentController_consent: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConsentToSignDto"];
+                };
+            };
+        };
+    };
+    MyEnrollmentController_sign: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["SignConsentDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["SignatureResultDto"];
+                };
+            };
+        };
+    };
+    MyEnrollmentController_pdf: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    MyEnrollmentController_withdraw: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["WithdrawDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["WithdrawalResultDto"];
+                };
+            };
+        };
+    };
+    RosterController_list: {
+        parameters: {
+            query?: {
+                status?: "invited" | "screened" | "excluded" | "consented" | "assigned" | "active" | "completed" | "withdrew" | "lost";
+                /** @description E-mail, name or reference */
+                search?: string;
+                /** @description Only people who still need to sign the newest consent version */
+                needsReconsent?: boolean;
+                page?: number;
+                pageSize?: number;
+            };
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RosterPageDto"];
+                };
+            };
+        };
+    };
+    RosterController_import: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "multipart/form-data": {
+                    /** Format: binary */
+                    file: string;
+                };
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ImportResultDto"];
+                };
+            };
+        };
+    };
+    RosterController_invite: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["InviteDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["CountDto"];
+                };
+            };
+        };
+    };
+    RosterController_remind: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["CountDto"];
+                };
+            };
+        };
+    };
+    RosterController_record: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                enrollmentId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ParticipantRecordDto"];
+                };
+            };
+        };
+    };
+    RosterController_lost: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                enrollmentId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["MarkLostDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RosterEntryDto"];
+                };
+            };
+        };
+    };
+    RosterController_withdraw: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                enrollmentId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["WithdrawDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RosterEntryDto"];
+                };
+            };
+        };
+    };
+    RosterController_signedCopy: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                enrollmentId: string;
+                signatureId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
             };
         };
     };

@@ -1,7 +1,8 @@
 import { vi } from 'vitest';
 
 export type RecordedRequest = { method: string; path: string; search: string; body: unknown };
-type Reply = { status: number; body?: unknown };
+/** `body` goes out as JSON; `raw` as it is (a PDF, say) with its content type. */
+type Reply = { status: number; body?: unknown; raw?: { bytes: string; contentType: string } };
 type Handler = Reply | ((request: RecordedRequest, callNumber: number) => Reply | Promise<Reply>);
 
 /**
@@ -32,6 +33,12 @@ export function installFakeApi(handlers: Record<string, Handler>) {
     }
     const callNumber = requests.filter((r) => `${r.method} ${r.path}` === key).length;
     const reply = typeof handler === 'function' ? await handler(recorded, callNumber) : handler;
+    if (reply.raw) {
+      return new Response(reply.raw.bytes, {
+        status: reply.status,
+        headers: { 'Content-Type': reply.raw.contentType },
+      });
+    }
     return reply.body === undefined
       ? new Response(null, { status: reply.status })
       : new Response(JSON.stringify(reply.body), { status: reply.status, headers: { 'Content-Type': 'application/json' } });

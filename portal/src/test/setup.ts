@@ -10,4 +10,13 @@ class ResizeObserverStub {
 }
 globalThis.ResizeObserver ??= ResizeObserverStub as unknown as typeof ResizeObserver;
 
-afterEach(() => cleanup());
+// jsdom does not scroll, and its object URLs take only its own Blob, not the one fetch gives; the portal uses both.
+window.scrollTo = () => {};
+let objectUrls = 0;
+URL.createObjectURL = () => `blob:http://localhost/evenhand-test-${(objectUrls += 1)}`;
+URL.revokeObjectURL = () => {};
+
+afterEach(() => {
+  cleanup();
+  localStorage.clear();
+});

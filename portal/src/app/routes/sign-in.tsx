@@ -16,7 +16,7 @@ export function SignInRoute() {
   const [sentTo, setSentTo] = useState<string | null>(null);
   const [draftEmail, setDraftEmail] = useState('');
 
-  if (me.data) return <Navigate to="/studies" replace />;
+  if (me.data) return <Navigate to={studySlug ? `/s/${encodeURIComponent(studySlug)}` : '/studies'} replace />;
 
   return (
     <PageLayout>

@@ -1,20 +1,25 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import { toApiError } from '@/lib/api-problem';
-import { replaceSignedInPerson, type Me } from './get-me';
+import type { paths } from '@/lib/api-schema';
+import { replaceSignedInPerson } from './get-me';
 
-export async function consumeSignInLink(token: string): Promise<Me> {
+/** Who is now signed in, and the study page they asked for the link from (if any), to take them back there. */
+export type LinkSession =
+  paths['/api/auth/sign-in-link/consume']['post']['responses'][200]['content']['application/json'];
+
+export async function consumeSignInLink(token: string): Promise<LinkSession> {
   const { data, error, response } = await api.POST('/api/auth/sign-in-link/consume', { body: { token } });
   if (error !== undefined || data === undefined) throw toApiError(error, response);
-  return data.user;
+  return data;
 }
 
 export function useConsumeSignInLink() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: consumeSignInLink,
-    onSuccess: (user) => {
-      replaceSignedInPerson(queryClient, user);
+    onSuccess: (session) => {
+      replaceSignedInPerson(queryClient, session.user);
     },
   });
 }

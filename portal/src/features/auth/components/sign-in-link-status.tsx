@@ -4,11 +4,11 @@ import { Spinner } from '@/components/ui/spinner';
 import { isApiError } from '@/lib/api-problem';
 import { describeProblem } from '@/lib/problem-message';
 import { useConsumeSignInLink } from '../api/consume-sign-in-link';
-import type { Me } from '../api/get-me';
+import type { LinkSession } from '../api/consume-sign-in-link';
 
 type SignInLinkStatusProps = {
   token: string | null;
-  onSignedIn: (person: Me) => void;
+  onSignedIn: (session: LinkSession) => void;
 };
 
 /** Uses the one-time token from the e-mailed link, once, and says plainly what happened. */

@@ -1,3 +1,4 @@
+import { Link } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
@@ -45,9 +46,18 @@ const statusInPlainWords: Record<StudySummary['status'], string> = {
 function StudyItem({ study }: { study: StudySummary }) {
   return (
     <li>
-      <Card className="flex flex-col items-start gap-2">
-        <h2 className="text-heading font-bold">{study.title}</h2>
+      <Card className="relative flex flex-col items-start gap-2">
+        <h2 className="text-heading font-bold">
+          {/* The whole card is the link's target area; the heading alone names it for screen readers. */}
+          <Link
+            to={`/s/${encodeURIComponent(study.slug)}`}
+            className="rounded-soft text-ink underline decoration-clay decoration-2 underline-offset-4 after:absolute after:inset-0 after:rounded-card"
+          >
+            {study.title}
+          </Link>
+        </h2>
         <p className="rounded-full bg-sand px-3 py-1 text-fine font-semibold text-ink">{statusInPlainWords[study.status]}</p>
+        <p className="text-fine text-ink-soft">Open it to see where you are and what comes next.</p>
       </Card>
     </li>
   );

@@ -1,0 +1,234 @@
+import { useState } from 'react';
+import { useParams } from 'react-router-dom';
+import { PageLayout } from '@/components/layout/page-layout';
+import { Button, ButtonLink } from '@/components/ui/button';
+import { Notice } from '@/components/ui/notice';
+import { Spinner } from '@/components/ui/spinner';
+import { StageList } from '@/components/ui/stage-list';
+import { type Me, useMe } from '@/features/auth/api/get-me';
+import type { Signature } from '@/features/consent/api/sign-consent';
+import { ConsentJourney } from '@/features/consent/components/consent-journey';
+import { SignedFormDownload } from '@/features/consent/components/signed-form-download';
+import { type MyEnrollment, useMyEnrollment } from '@/features/enrollment/api/get-my-enrollment';
+import type { Withdrawal } from '@/features/enrollment/api/withdraw';
+import { JoinStudyButton } from '@/features/enrollment/components/join-study-button';
+import { NotEligible } from '@/features/enrollment/components/not-eligible';
+import { ScreeningForm } from '@/features/enrollment/components/screening-form';
+import { StopTakingPart } from '@/features/enrollment/components/stop-taking-part';
+import { WithdrawnConfirmation } from '@/features/enrollment/components/withdrawn-confirmation';
+import { YourCondition } from '@/features/enrollment/components/your-condition';
+import { YourSteps } from '@/features/enrollment/components/your-steps';
+import { type PublicStudy, usePublicStudy } from '@/features/public-study/api/get-public-study';
+import { StudyClosedNotice } from '@/features/public-study/components/study-closed-notice';
+import { StudyOverview } from '@/features/public-study/components/study-overview';
+import { isApiError } from '@/lib/api-problem';
+import { formatDateTime } from '@/lib/date-format';
+import { describeProblem } from '@/lib/problem-message';
+
+/** `/s/:slug`: the study page for anyone, and for someone taking part the place where their journey continues. */
+export function StudyRoute() {
+  const { slug = '' } = useParams();
+  const study = usePublicStudy(slug);
+  const me = useMe();
+
+  const actions = me.data ? (
+    <ButtonLink to="/studies" variant="quiet">
+      Your studies
+    </ButtonLink>
+  ) : null;
+
+  return (
+    <PageLayout actions={actions}>
+      {study.isPending ? (
+        <Spinner label="Loading the study…" />
+      ) : study.isError ? (
+        isApiError(study.error, 'NOT_FOUND') ? (
+          <StudyNotFound />
+        ) : (
+          <div className="flex flex-col gap-4">
+            <title>Study · Evenhand</title>
+            <Notice tone="error" title="We could not load this study">
+              {describeProblem(study.error)}
+            </Notice>
+            <Button variant="secondary" onClick={() => void study.refetch()} disabled={study.isFetching}>
+              {study.isFetching ? 'Trying again…' : 'Try again'}
+            </Button>
+          </div>
+        )
+      ) : (
+        <>
+          <title>{`${study.data.title} · Evenhand`}</title>
+          {me.data ? (
+            <SignedInStudy study={study.data} me={me.data} />
+          ) : (
+            <StudyOverview study={study.data} action={<SignedOutAction study={study.data} checking={me.isPending} />} />
+          )}
+        </>
+      )}
+    </PageLayout>
+  );
+}
+
+function SignedOutAction({ study, checking }: { study: PublicStudy; checking: boolean }) {
+  if (study.status !== 'recruiting') return <StudyClosedNotice status={study.status} />;
+  if (checking) return <Spinner label="Checking whether you are signed in…" />;
+  return (
+    <>
+      <ButtonLink to={`/sign-in?study=${encodeURIComponent(study.slug)}`} wide>
+        Take part
+      </ButtonLink>
+      <p className="text-fine text-ink-soft">
+        First we e-mail you a sign-in link, so no password is needed. Then you answer a few questions and read the
+        consent form. Nothing is agreed until you sign it.
+      </p>
+    </>
+  );
+}
+
+function SignedInStudy({ study, me }: { study: PublicStudy; me: Me }) {
+  const enrollment = useMyEnrollment(study.id);
+
+  if (enrollment.isPending) return <Spinner label="Finding where you are in this study…" />;
+  if (enrollment.isError) {
+    return (
+      <div className="flex flex-col gap-4">
+        <Notice tone="error" title="We could not load your place in this study">
+          {describeProblem(enrollment.error)}
+        </Notice>
+        <Button variant="secondary" onClick={() => void enrollment.refetch()} disabled={enrollment.isFetching}>
+          {enrollment.isFetching ? 'Trying again…' : 'Try again'}
+        </Button>
+      </div>
+    );
+  }
+  if (enrollment.data === null) {
+    const action =
+      study.status === 'recruiting' ? (
+        <>
+          <p className="text-fine text-ink-soft">
+            Signed in as <strong className="wrap-anywhere text-ink">{me.email}</strong>.
+          </p>
+          <JoinStudyButton studyId={study.id} />
+        </>
+      ) : (
+        <StudyClosedNotice status={study.status} />
+      );
+    return <StudyOverview study={study} action={action} />;
+  }
+  return <EnrollmentStage study={study} enrollment={enrollment.data} />;
+}
+
+const stages = ['Questions', 'Consent', 'Your steps'];
+const stageOf: Record<MyEnrollment['next'], number> = {
+  screening: 0,
+  excluded: 0,
+  consent: 1,
+  're-consent': 1,
+  steps: 2,
+  done: 2,
+  withdrawn: 2,
+};
+
+function EnrollmentStage({ study, enrollment }: { study: PublicStudy; enrollment: MyEnrollment }) {
+  const [screeningReasons, setScreeningReasons] = useState<string[] | null>(null);
+  const [signature, setSignature] = useState<Signature | null>(null);
+  const [withdrawal, setWithdrawal] = useState<Withdrawal | null>(null);
+  const { next } = enrollment;
+  const assignment = enrollment.assignment ?? signature?.assignment ?? null;
+
+  const stopTakingPart =
+    next === 'excluded' || next === 'withdrawn' ? null : (
+      <StopTakingPart enrollment={enrollment} onWithdrawn={setWithdrawal} />
+    );
+
+  return (
+    <div className="flex flex-col gap-8">
+      <header className="flex flex-col gap-3">
+        <p className="text-fine font-semibold tracking-wide text-clay-ink uppercase">{study.labName}</p>
+        <h1 className="text-title font-bold">{enrollment.studyTitle}</h1>
+        {next !== 'excluded' && next !== 'withdrawn' ? (
+          <StageList label="Your progress" stages={stages} current={stageOf[next]} />
+        ) : null}
+      </header>
+
+      {next === 'screening' ? (
+        <ScreeningForm
+          studyId={enrollment.studyId}
+          questions={enrollment.screening.questions}
+          answers={enrollment.screening.answers}
+          onScreened={(result) => setScreeningReasons(result.reasons)}
+        />
+      ) : null}
+
+      {next === 'excluded' ? (
+        <NotEligible
+          studyTitle={enrollment.studyTitle}
+          reasons={
+            screeningReasons ?? (enrollment.screening.exclusionReason ? [enrollment.screening.exclusionReason] : [])
+          }
+          contactEmail={study.contactEmail}
+        />
+      ) : null}
+
+      {next === 'consent' || next === 're-consent' ? (
+        <ConsentJourney
+          studyId={enrollment.studyId}
+          reconsent={next === 're-consent'}
+          onSigned={setSignature}
+        />
+      ) : null}
+
+      {next === 'steps' || next === 'done' ? (
+        <>
+          {signature ? (
+            <Notice tone="success" title="You have signed the consent form">
+              Signed on {formatDateTime(signature.signedAt)}. Thank you for taking part.
+            </Notice>
+          ) : null}
+          {next === 'done' ? (
+            <Notice tone="success" title="You have completed every step">
+              Thank you for taking part. Anything still owed to you will be paid as usual.
+            </Notice>
+          ) : null}
+          {assignment ? <YourCondition assignment={assignment} /> : null}
+          {enrollment.consent.signedVersionId ? (
+            <SignedFormDownload
+              studyId={enrollment.studyId}
+              signedVersionId={enrollment.consent.signedVersionId}
+              enrollmentReference={enrollment.reference}
+            />
+          ) : null}
+          <YourSteps steps={enrollment.steps} currency={enrollment.currency} earned={enrollment.earned} />
+        </>
+      ) : null}
+
+      {next === 'withdrawn' ? (
+        <WithdrawnConfirmation
+          studyTitle={enrollment.studyTitle}
+          withdrewAt={withdrawal?.withdrewAt ?? enrollment.withdrewAt}
+          currency={enrollment.currency}
+          earnedMinor={withdrawal?.earnedMinor ?? enrollment.earned.earnedMinor}
+          stillToBePaidMinor={withdrawal?.stillToBePaidMinor ?? enrollment.earned.stillToBePaidMinor}
+        />
+      ) : null}
+
+      {stopTakingPart}
+    </div>
+  );
+}
+
+function StudyNotFound() {
+  return (
+    <section className="flex flex-col gap-5">
+      <title>Study not found · Evenhand</title>
+      <h1 className="text-title font-bold">We could not find this study</h1>
+      <p className="text-lead">
+        The link may be mistyped, or the study may have been taken down. If a research team sent you this link, please
+        ask them for it again.
+      </p>
+      <ButtonLink to="/studies" variant="secondary" wide>
+        Go to your studies
+      </ButtonLink>
+    </section>
+  );
+}
