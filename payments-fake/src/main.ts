@@ -14,7 +14,7 @@ async function main(): Promise<void> {
   }
   const running = await startPaymentsFake(config);
   console.log(
-    `payments-fake listening on ${running.url} (webhooks ${config.webhookUrl ?? 'off'}, hosted pages ${config.publicUrl})`,
+    `payments-fake listening on ${running.url} (webhooks ${config.webhookUrl ?? 'off'}, hosted pages ${config.publicUrl}, browser script ${running.url}/v1/stripe.js)`,
   );
   const stop = (signal: string) => {
     console.log(`payments-fake: ${signal}, shutting down`);

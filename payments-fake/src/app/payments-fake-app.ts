@@ -1,10 +1,11 @@
-// Assembles the stand-in: the provider's REST API under /v1, the hosted onboarding pages,
-// the control routes under /_control and GET /health.
+// Assembles the stand-in: the provider's REST API under /v1, the browser script at /v1/stripe.js,
+// the hosted onboarding pages, the control routes under /_control and GET /health.
 
 import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
 import express, { type NextFunction, type Request, type Response } from 'express';
 import { controlRouter } from '../control/control-routes';
+import { browserScriptRouter } from '../hosted/browser-script-routes';
 import { onboardingRouter } from '../hosted/onboarding-routes';
 import { accountLinkRoutes } from '../resources/account-links';
 import { accountRoutes } from '../resources/accounts';
@@ -37,6 +38,8 @@ export interface PaymentsFakeOptions {
   webhookRetryDelaysMs?: readonly number[];
   webhookReorderWindowMs?: number;
   webhookTimeoutMs?: number;
+  /** The built browser script to serve at /v1/stripe.js (default: dist/browser of this package). */
+  browserScriptFile?: string;
 }
 
 // Growing retry delays, after the provider's practice of retrying failed deliveries with
@@ -57,7 +60,7 @@ export function worldOptions(options: PaymentsFakeOptions): ProviderWorldOptions
   };
 }
 
-export function createPaymentsFakeApp(world: ProviderWorld): express.Express {
+export function createPaymentsFakeApp(world: ProviderWorld, options: { browserScriptFile?: string } = {}): express.Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('etag', false);
@@ -66,6 +69,7 @@ export function createPaymentsFakeApp(world: ProviderWorld): express.Express {
   });
   app.use('/_control', controlRouter(world));
   app.use(onboardingRouter(world));
+  app.use(browserScriptRouter(options.browserScriptFile));
   app.use(providerApiRouter(world, PROVIDER_ROUTES));
   app.use((_req: Request, res: Response) => {
     res.status(404).json({ error: { type: 'invalid_request_error', message: 'Not found.' } });
@@ -88,7 +92,7 @@ export interface RunningPaymentsFake {
 /** Starts the stand-in on host:port (port 0 picks a free one). */
 export function startPaymentsFake(options: PaymentsFakeOptions & { host: string; port: number }): Promise<RunningPaymentsFake> {
   const world = new ProviderWorld(worldOptions(options));
-  const app = createPaymentsFakeApp(world);
+  const app = createPaymentsFakeApp(world, { browserScriptFile: options.browserScriptFile });
   return new Promise((resolve, reject) => {
     const server = app.listen(options.port, options.host);
     server.once('error', reject);

@@ -4,18 +4,20 @@
 // https://docs.stripe.com/api/versioning, https://docs.stripe.com/api/idempotent_requests).
 
 import express, { type NextFunction, type Request, type Response } from 'express';
-import { maskApiKey, requireTestSecretKey } from '../auth/api-key';
+import { type ApiKeyKind, maskApiKey, requireTestKey } from '../auth/api-key';
 import { FormBodyError, parseFormBody, type FormObject } from '../encoding/form-body';
 import { ParamReader } from '../encoding/param-reader';
 import { ProviderError, providerErrors } from '../errors/provider-error';
 import { objectId } from '../ids/object-id';
 import { IDEMPOTENCY_KEY_MAX_LENGTH } from '../idempotency/idempotency-store';
 import { DEFAULT_API_VERSION, type ProviderWorld } from '../state/provider-world';
+import { browserCors } from './browser-cors';
 import type { ActingAccount, ProviderRoute } from './provider-route';
 
 interface CallContext {
   requestId: string;
   apiKey: string;
+  keyKind: ApiKeyKind;
   maskedKey: string;
   apiVersion: string;
   params: FormObject;
@@ -23,6 +25,7 @@ interface CallContext {
 }
 
 const ALLOWED_HEADERS = 'Authorization, Content-Type, Idempotency-Key, Stripe-Account, Stripe-Version';
+const EXPOSED_HEADERS = 'Request-Id, Stripe-Version, Idempotency-Key, Idempotent-Replayed, Original-Request';
 
 function sendJson(res: Response, status: number, body: string): void {
   res.status(status).set('Content-Type', 'application/json').send(body);
@@ -70,6 +73,7 @@ function sleep(ms: number): Promise<void> {
 function runRoute(world: ProviderWorld, route: ProviderRoute) {
   return async (req: Request, res: Response): Promise<void> => {
     const context = contextOf(res);
+    if (context.keyKind === 'publishable' && !route.publishable) throw providerErrors.secretKeyRequired();
     const idempotencyKey = req.method === 'POST' ? (req.get('idempotency-key') ?? null) : null;
     const scope = `${context.apiKey}|${context.account.id}`;
     const endpoint = `${req.method} ${req.path}`;
@@ -116,6 +120,7 @@ function runRoute(world: ProviderWorld, route: ProviderRoute) {
           account: context.account,
           request: { id: context.requestId, idempotencyKey, apiVersion: context.apiVersion },
           maskedKey: context.maskedKey,
+          keyKind: context.keyKind,
         },
         world,
       );
@@ -149,22 +154,15 @@ export function providerApiRouter(world: ProviderWorld, routes: readonly Provide
   router.use('/v1', (req: Request, res: Response, next: NextFunction) => {
     res.set('Request-Id', objectId('req', 14));
     res.set('Stripe-Version', req.get('stripe-version') ?? DEFAULT_API_VERSION);
-    res.set('Access-Control-Allow-Origin', '*');
-    res.set('Access-Control-Expose-Headers', 'Request-Id, Stripe-Version, Idempotency-Key, Idempotent-Replayed, Original-Request');
-    if (req.method === 'OPTIONS') {
-      res.set('Access-Control-Allow-Methods', 'GET, POST, DELETE');
-      res.set('Access-Control-Allow-Headers', ALLOWED_HEADERS);
-      res.status(204).end();
-      return;
-    }
     next();
   });
+  router.use('/v1', browserCors({ methods: 'GET, POST, DELETE', allowHeaders: ALLOWED_HEADERS, exposeHeaders: EXPOSED_HEADERS }));
 
   router.use('/v1', express.text({ type: () => true, limit: '1mb' }));
 
   router.use('/v1', (req: Request, res: Response, next: NextFunction) => {
-    const apiKey = requireTestSecretKey(req.get('authorization'));
-    const maskedKey = maskApiKey(apiKey);
+    const key = requireTestKey(req.get('authorization'));
+    const maskedKey = maskApiKey(key.value);
     let params: FormObject;
     try {
       params = decodeParams(req);
@@ -175,7 +173,8 @@ export function providerApiRouter(world: ProviderWorld, routes: readonly Provide
     const account = resolveAccount(world, req.get('stripe-account'), maskedKey);
     const context: CallContext = {
       requestId: res.get('Request-Id') as string,
-      apiKey,
+      apiKey: key.value,
+      keyKind: key.kind,
       maskedKey,
       apiVersion: req.get('stripe-version') ?? DEFAULT_API_VERSION,
       params,

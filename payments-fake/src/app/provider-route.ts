@@ -1,3 +1,4 @@
+import type { ApiKeyKind } from '../auth/api-key';
 import type { ParamReader } from '../encoding/param-reader';
 import type { ProviderWorld } from '../state/provider-world';
 
@@ -13,11 +14,14 @@ export interface ProviderCall {
   account: ActingAccount;
   request: { id: string; idempotencyKey: string | null; apiVersion: string };
   maskedKey: string;
+  keyKind: ApiKeyKind;
 }
 
 /** One endpoint of the provider's REST API; the handler returns the JSON body of a 200 answer. */
 export interface ProviderRoute {
   method: 'get' | 'post' | 'delete';
   path: string;
+  /** Also answers a publishable key (the few calls the browser library makes); otherwise 403. */
+  publishable?: boolean;
   handle(call: ProviderCall, world: ProviderWorld): unknown;
 }

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { ProviderError } from '../errors/provider-error';
-import { maskApiKey, readApiKey, requireTestSecretKey } from './api-key';
+import { maskApiKey, readApiKey, requireTestKey } from './api-key';
 
 // https://docs.stripe.com/api/authentication: Bearer token, or the key as the Basic auth user name.
 describe('readApiKey', () => {
@@ -21,15 +21,28 @@ describe('readApiKey', () => {
   });
 });
 
-describe('requireTestSecretKey', () => {
-  it('accepts any sk_test_ key', () => {
-    expect(requireTestSecretKey('Bearer sk_test_anything')).toBe('sk_test_anything');
+describe('requireTestKey', () => {
+  it('accepts any sk_test_ key as a secret key', () => {
+    expect(requireTestKey('Bearer sk_test_anything')).toEqual({ value: 'sk_test_anything', kind: 'secret' });
   });
 
-  it('refuses a missing key, a live key, a publishable key and a bare prefix with 401', () => {
-    for (const header of [undefined, 'Bearer sk_live_abcdefgh1234', 'Bearer pk_test_abcdefgh1234', 'Bearer sk_test_']) {
+  it('accepts any pk_test_ key as a publishable key', () => {
+    // https://docs.stripe.com/keys: publishable keys start pk_, test-mode keys carry _test_.
+    expect(requireTestKey('Bearer pk_test_browser42')).toEqual({ value: 'pk_test_browser42', kind: 'publishable' });
+  });
+
+  it('refuses a missing key, live keys, restricted keys and bare prefixes with 401', () => {
+    const headers = [
+      undefined,
+      'Bearer sk_live_abcdefgh1234',
+      'Bearer pk_live_abcdefgh1234',
+      'Bearer rk_test_abcdefgh1234',
+      'Bearer sk_test_',
+      'Bearer pk_test_',
+    ];
+    for (const header of headers) {
       try {
-        requireTestSecretKey(header);
+        requireTestKey(header);
         throw new Error(`accepted ${header}`);
       } catch (error) {
         expect(error).toBeInstanceOf(ProviderError);
@@ -41,7 +54,8 @@ describe('requireTestSecretKey', () => {
 
   it('never repeats the whole key in the message', () => {
     try {
-      requireTestSecretKey('Bearer sk_live_secretsecret9876');
+      requireTestKey('Bearer sk_live_secretsecret9876');
+      throw new Error('accepted a live key');
     } catch (error) {
       expect((error as ProviderError).message).not.toContain('secretsecret');
       expect((error as ProviderError).message).toContain('9876');

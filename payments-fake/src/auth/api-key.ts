@@ -1,11 +1,21 @@
 // Authentication as the provider publishes it (https://docs.stripe.com/api/authentication):
-// the secret key arrives as a Bearer token or as the user name of HTTP Basic auth; a missing or
-// unusable key is a 401. This stand-in only ever holds test data, so it takes any `sk_test_` key.
+// the key arrives as a Bearer token or as the user name of HTTP Basic auth; a missing or unusable
+// key is a 401. This stand-in only ever holds test data, so it takes any `sk_test_` key, and any
+// `pk_test_` key for the few calls the browser makes (https://docs.stripe.com/keys).
 // Pure: no framework imports.
 
 import { providerErrors } from '../errors/provider-error';
 
 export const TEST_SECRET_KEY_PREFIX = 'sk_test_';
+export const TEST_PUBLISHABLE_KEY_PREFIX = 'pk_test_';
+
+/** A secret key may do everything; a publishable key only what a browser is allowed to. */
+export type ApiKeyKind = 'secret' | 'publishable';
+
+export interface ApiKey {
+  value: string;
+  kind: ApiKeyKind;
+}
 
 /** The key from an Authorization header, or undefined when there is none. */
 export function readApiKey(authorization: string | undefined): string | undefined {
@@ -27,12 +37,15 @@ export function maskApiKey(key: string): string {
   return `${key.slice(0, 8)}${'*'.repeat(key.length - 12)}${key.slice(-4)}`;
 }
 
-/** Returns the key when it is a usable test secret key; throws the provider's 401 otherwise. */
-export function requireTestSecretKey(authorization: string | undefined): string {
+/** Returns the key and its kind when it is a usable test key; throws the provider's 401 otherwise. */
+export function requireTestKey(authorization: string | undefined): ApiKey {
   const key = readApiKey(authorization);
   if (key === undefined) throw providerErrors.missingApiKey();
-  if (!key.startsWith(TEST_SECRET_KEY_PREFIX) || key.length === TEST_SECRET_KEY_PREFIX.length || /\s/.test(key)) {
-    throw providerErrors.invalidApiKey(maskApiKey(key));
-  }
-  return key;
+  const prefixes: [string, ApiKeyKind][] = [
+    [TEST_SECRET_KEY_PREFIX, 'secret'],
+    [TEST_PUBLISHABLE_KEY_PREFIX, 'publishable'],
+  ];
+  const match = prefixes.find(([prefix]) => key.startsWith(prefix) && key.length > prefix.length);
+  if (!match || /\s/.test(key)) throw providerErrors.invalidApiKey(maskApiKey(key));
+  return { value: key, kind: match[1] };
 }

@@ -81,6 +81,15 @@ export const providerErrors = {
   invalidApiKey: (maskedKey: string) =>
     invalidRequest(401, `Invalid API Key provided: ${maskedKey}`, { code: 'api_key_invalid' }, { storable: false }),
 
+  /** A publishable key on an endpoint only a secret key may call: the provider answers 403 secret_key_required. */
+  secretKeyRequired: () =>
+    invalidRequest(
+      403,
+      'This request needs a secret API key (sk_test_…). A publishable key can only confirm or retrieve a PaymentIntent with its client_secret.',
+      { code: 'secret_key_required' },
+      { storable: false },
+    ),
+
   accountInvalid: (maskedKey: string, accountId: string) =>
     invalidRequest(
       403,
@@ -162,6 +171,20 @@ export const providerErrors = {
   /** A referenced object (not the one in the path) that does not exist: a 400, as for `destination`. */
   referenceMissing: (objectName: string, id: string, param: string) =>
     invalidRequest(400, `No such ${objectName}: '${id}'`, { code: 'resource_missing', param }),
+
+  clientSecretMismatch: () =>
+    parameterProblem('The client_secret does not belong to this PaymentIntent.', 'client_secret'),
+
+  /** Raw card numbers only come from the browser script, as the provider keeps them away from servers. */
+  cardDataNeedsPublishableKey: () =>
+    parameterProblem(
+      'Card numbers are only accepted from the browser with a publishable key. On a server, confirm with a test payment method such as pm_card_visa.',
+      'payment_method_data[card]',
+    ),
+
+  /** A card the issuer would refuse before any charge is tried (wrong number, past expiry, bad CVC): a 402. */
+  cardRejected: (code: string, message: string, param: string) =>
+    new ProviderError(402, { type: 'card_error', code, message, param, doc_url: docUrl(code) }),
 
   balanceInsufficient: (currency: string) =>
     invalidRequest(400, `The available balance in ${currency} is too low for this request. Add funds first.`, {

@@ -3,9 +3,15 @@
 // requires_payment_method → requires_confirmation → succeeded, or back to requires_payment_method
 // with last_payment_error after a decline (402 card_error, https://docs.stripe.com/declines/codes).
 // Test payment methods as published at https://docs.stripe.com/testing (pm_card_visa, …).
+// The browser script confirms and retrieves with a publishable key and the client_secret, sending
+// the typed card as payment_method_data (https://docs.stripe.com/api/payment_intents/confirm); it
+// gets the subset of fields a publishable key may read.
 
+import type { PaymentIntent as BrowserPaymentIntent } from '@stripe/stripe-js';
 import type Stripe from 'stripe';
 import type { ProviderCall, ProviderRoute } from '../app/provider-route';
+import { expiryProblem, passesLuhn } from '../cards/card-checks';
+import { testPaymentMethodForCard } from '../cards/test-cards';
 import { applyMetadataChange, type ParamReader } from '../encoding/param-reader';
 import { ProviderError, providerErrors } from '../errors/provider-error';
 import { previousAttributes } from '../events/previous-attributes';
@@ -47,6 +53,110 @@ export const TEST_PAYMENT_METHODS: Record<string, CardOutcome> = {
   },
 };
 
+// A number that passes the checks but is none of the test cards: the provider's test mode declines
+// a real card (decline code test_mode_live_card, https://docs.stripe.com/declines/codes).
+const NOT_A_TEST_CARD: CardOutcome = {
+  kind: 'declined',
+  code: 'card_declined',
+  declineCode: 'test_mode_live_card',
+  message: 'Your card was declined: this is test mode, so only the published test card numbers work.',
+};
+
+// The fields a publishable key may read: exactly those of the browser library's own PaymentIntent
+// type (@stripe/stripe-js 10.2.1, dist/api/payment-intents.d.ts): `satisfies` refuses a field it lacks,
+// and `everyBrowserFieldListed` fails to compile when it has one the list lacks.
+const PUBLISHABLE_FIELDS = [
+  'id',
+  'object',
+  'amount',
+  'canceled_at',
+  'cancellation_reason',
+  'capture_method',
+  'client_secret',
+  'confirmation_method',
+  'created',
+  'currency',
+  'description',
+  'last_payment_error',
+  'livemode',
+  'next_action',
+  'payment_method',
+  'payment_method_types',
+  'receipt_email',
+  'setup_future_usage',
+  'shipping',
+  'status',
+] as const satisfies readonly (keyof Stripe.PaymentIntent & keyof BrowserPaymentIntent)[];
+const everyBrowserFieldListed: Exclude<keyof BrowserPaymentIntent, (typeof PUBLISHABLE_FIELDS)[number]> extends never ? true : never = true;
+
+/** What the caller may see: everything with a secret key, the browser subset with a publishable key. */
+function presentIntent(intent: Stripe.PaymentIntent, call: ProviderCall): Partial<Stripe.PaymentIntent> {
+  const copy = structuredClone(intent);
+  if (call.keyKind === 'secret') return copy;
+  const shown: Record<string, unknown> = {};
+  for (const field of PUBLISHABLE_FIELDS) shown[field] = copy[field];
+  return shown as Partial<Stripe.PaymentIntent>;
+}
+
+/** A publishable key must show the intent's client_secret; a secret key may, and then it must match. */
+function checkClientSecret(intent: Stripe.PaymentIntent, clientSecret: string | undefined, call: ProviderCall): void {
+  if (clientSecret === undefined) {
+    if (call.keyKind === 'publishable') throw providerErrors.parameterMissing('client_secret');
+    return;
+  }
+  if (clientSecret !== intent.client_secret) throw providerErrors.clientSecretMismatch();
+}
+
+interface TypedCard {
+  number: string;
+}
+
+/** `payment_method_data` as the browser script sends it: a card typed into the form. */
+function readTypedCard(params: ParamReader, call: ProviderCall, now: Date): TypedCard | undefined {
+  const data = params.hash('payment_method_data');
+  if (!data) return undefined;
+  data.oneOf('type', ['card'] as const, { required: true });
+  const card = data.hash('card', { required: true });
+  if (!card) throw providerErrors.parameterMissing(data.nameOf('card'));
+  if (call.keyKind !== 'publishable') throw providerErrors.cardDataNeedsPublishableKey();
+  const number = card.string('number', { required: true, maxLength: 30 }) as string;
+  const expMonth = card.integer('exp_month', { required: true }) as number;
+  const expYear = card.integer('exp_year', { required: true }) as number;
+  const cvc = card.string('cvc', { maxLength: 10 });
+  readBillingDetails(data);
+
+  const digits = number.replace(/[\s-]/g, '');
+  if (!/^\d{12,19}$/.test(digits) || !passesLuhn(digits)) {
+    throw providerErrors.cardRejected('incorrect_number', 'Your card number is incorrect.', card.nameOf('number'));
+  }
+  const expiry = expiryProblem(expMonth, expYear, now);
+  if (expiry) {
+    const isMonth = expiry.code === 'invalid_expiry_month' || expiry.code === 'invalid_expiry_month_past';
+    throw providerErrors.cardRejected(
+      isMonth ? 'invalid_expiry_month' : 'invalid_expiry_year',
+      expiry.message,
+      card.nameOf(isMonth ? 'exp_month' : 'exp_year'),
+    );
+  }
+  if (cvc !== undefined && !/^\d{3,4}$/.test(cvc)) {
+    throw providerErrors.cardRejected('invalid_cvc', "Your card's security code is invalid.", card.nameOf('cvc'));
+  }
+  return { number: digits };
+}
+
+/** Billing details are taken (the browser may send a name and postal code) but not kept. */
+function readBillingDetails(data: ParamReader): void {
+  const billing = data.hash('billing_details');
+  if (!billing) return;
+  billing.string('name', { maxLength: 500 });
+  billing.email('email');
+  billing.string('phone', { maxLength: 50 });
+  const address = billing.hash('address');
+  if (!address) return;
+  for (const field of ['line1', 'line2', 'city', 'state', 'postal_code']) address.string(field, { maxLength: 200 });
+  address.country('country');
+}
+
 // Smallest chargeable amounts in minor units (from memory of https://docs.stripe.com/currencies#minimum-and-maximum-charge-amounts).
 const MINIMUM_CHARGE: Record<string, number> = { usd: 50, eur: 50, gbp: 30, cad: 50, aud: 50, chf: 50, jpy: 50, nzd: 50, sek: 300, nok: 300, dkk: 250 };
 const MAXIMUM_AMOUNT = 99_999_999;
@@ -87,18 +197,21 @@ function eventRequest(call: ProviderCall) {
   return { id: call.request.id, idempotencyKey: call.request.idempotencyKey };
 }
 
-/** Confirms with the test card: success credits the platform balance, a decline is a 402. */
-function confirmIntent(world: ProviderWorld, intent: Stripe.PaymentIntent, call: ProviderCall): void {
+/**
+ * Confirms with the test card: success credits the platform balance, a decline is a 402.
+ * `typedOutcome` is for a typed card that is none of the test cards.
+ */
+function confirmIntent(world: ProviderWorld, intent: Stripe.PaymentIntent, call: ProviderCall, typedOutcome?: CardOutcome): void {
   const paymentMethod = (intent.payment_method as string | null) ?? null;
-  if (!paymentMethod) {
+  if (!paymentMethod && !typedOutcome) {
     throw providerErrors.unexpectedState(
       'You cannot confirm this PaymentIntent because it has no payment method. Send payment_method.',
       'payment_intent_unexpected_state',
       'payment_method',
     );
   }
-  const outcome = TEST_PAYMENT_METHODS[paymentMethod];
-  if (!outcome) throw providerErrors.referenceMissing('PaymentMethod', paymentMethod, 'payment_method');
+  const outcome = typedOutcome ?? TEST_PAYMENT_METHODS[paymentMethod as string];
+  if (!outcome) throw providerErrors.referenceMissing('PaymentMethod', paymentMethod as string, 'payment_method');
   const before = structuredClone(intent);
   // A test payment method id stands for a fresh card; the intent keeps the card's own id.
   intent.payment_method = objectId('pm');
@@ -127,7 +240,7 @@ function confirmIntent(world: ProviderWorld, intent: Stripe.PaymentIntent, call:
       decline_code: outcome.declineCode,
       message: outcome.message,
       doc_url: `https://docs.stripe.com/error-codes/${outcome.code.replace(/_/g, '-')}`,
-      payment_intent: structuredClone(intent),
+      payment_intent: presentIntent(intent, call),
     });
   }
 
@@ -274,33 +387,42 @@ export const paymentIntentRoutes: ProviderRoute[] = [
   {
     method: 'get',
     path: '/v1/payment_intents/:id',
+    publishable: true,
     handle: (call, world) => {
       requirePlatform(call);
       const intent = requireIntent(world, call.pathParams.id as string);
-      call.params.string('client_secret');
+      const clientSecret = call.params.string('client_secret');
       const expand = call.params.stringList('expand');
       call.params.finish();
-      return expandObject(structuredClone(intent), expand, {});
+      checkClientSecret(intent, clientSecret, call);
+      return expandObject(presentIntent(intent, call), expand, {});
     },
   },
   { method: 'post', path: '/v1/payment_intents/:id', handle: updateIntent },
   {
     method: 'post',
     path: '/v1/payment_intents/:id/confirm',
+    publishable: true,
     handle: (call, world) => {
       requirePlatform(call);
       const intent = requireIntent(world, call.pathParams.id as string);
       const { params } = call;
+      const clientSecret = params.string('client_secret');
+      checkClientSecret(intent, clientSecret, call);
       const paymentMethod = readPaymentMethod(params);
+      const typedCard = readTypedCard(params, call, new Date(world.clock.nowMs()));
+      if (paymentMethod !== undefined && typedCard) throw providerErrors.parametersExclusive(['payment_method', 'payment_method_data']);
       params.url('return_url');
       const receiptEmail = params.email('receipt_email');
       const expand = params.stringList('expand');
       params.finish();
       if (!UPDATABLE_STATUSES.includes(intent.status)) throw unexpectedState(intent, 'confirm');
+      const typedPaymentMethod = typedCard ? testPaymentMethodForCard(typedCard.number) : undefined;
       if (paymentMethod !== undefined) intent.payment_method = paymentMethod;
+      if (typedPaymentMethod !== undefined) intent.payment_method = typedPaymentMethod;
       if (receiptEmail !== undefined) intent.receipt_email = receiptEmail;
-      confirmIntent(world, intent, call);
-      return expandObject(structuredClone(intent), expand, {});
+      confirmIntent(world, intent, call, typedCard && !typedPaymentMethod ? NOT_A_TEST_CARD : undefined);
+      return expandObject(presentIntent(intent, call), expand, {});
     },
   },
   {
