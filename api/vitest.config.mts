@@ -9,7 +9,8 @@ export default defineConfig({
     projects: [
       {
         plugins,
-        test: { name: 'unit', include: ['src/**/*.spec.ts'], environment: 'node' },
+        // Generous: property tests simulate thousands of studies, and CI machines are shared.
+        test: { name: 'unit', include: ['src/**/*.spec.ts'], environment: 'node', testTimeout: 60_000 },
       },
       {
         plugins,
