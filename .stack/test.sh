@@ -77,6 +77,8 @@ export PORTAL_URL="http://127.0.0.1:$T_PORTAL_PORT" ADMIN_URL="http://127.0.0.1:
 export SIGN_IN_LIMIT=500 JOB_RETRY_DELAY_SECONDS=1
 # The api end-to-end tests listen where the payments stand-in delivers webhooks.
 export PAYMENTS_WEBHOOK_PORT="$T_API_PORT"
+# The provider's browser script, as the admin build and the api hand it out.
+export VITE_PAYMENTS_SCRIPT_URL="http://127.0.0.1:$T_PAYMENTS_PORT/v1/stripe.js" STRIPE_SCRIPT_URL="http://127.0.0.1:$T_PAYMENTS_PORT/v1/stripe.js"
 
 step "api unit tests" vitest_in api api-unit --project unit
 step "payments stand-in tests" vitest_in payments-fake payments-fake
