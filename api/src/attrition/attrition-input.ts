@@ -87,8 +87,9 @@ function covariateInputs(rows: readonly CovariateRow[], arms: readonly ReportArm
   const categorical = rows.filter((row) => row.kind !== 'number');
   const indicators = new Map<string, { key: string; kind: CovariateRow['kind']; category: string }>();
   for (const row of categorical) {
-    if (row.category === null || (row.kind === 'boolean' && row.category !== 'true')) continue;
-    indicators.set(`${row.kind}\u0000${row.key}\u0000${row.category}`, { key: row.key, kind: row.kind, category: row.category });
+    const category = row.kind === 'boolean' ? 'true' : row.category;
+    if (category === null) continue;
+    indicators.set(`${row.kind}\u0000${row.key}\u0000${category}`, { key: row.key, kind: row.kind, category });
   }
   const sorted = [...indicators.values()].sort((x, y) =>
     categoryCovariate(x.key, x.category).localeCompare(categoryCovariate(y.key, y.category), 'en'),

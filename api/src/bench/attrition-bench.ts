@@ -18,7 +18,7 @@ import { BenchDatabase, BenchSetupError, DATABASE_URL_HELP } from './bench-datab
 import { formatTable, median, reportRow } from './bench-report';
 
 const SIZES = [100_000, 1_000_000];
-const ROUNDS = 5;
+const ROUNDS = 3;
 const CURRENCY = 'EUR';
 /** Participant n's account id: ascending with n. */
 const PARTICIPANT_ID = `format('00000000-0000-4000-8000-%s', lpad(to_hex(g), 12, '0'))::uuid`;
