@@ -1,4 +1,4 @@
-import { createBrowserRouter, type RouteObject } from 'react-router-dom';
+import { Navigate, createBrowserRouter, type RouteObject } from 'react-router-dom';
 import { LoadingState } from '@/components/ui/states';
 import { RootErrorBoundary } from './routes/root-error';
 
@@ -15,6 +15,19 @@ export const routes: RouteObject[] = [
           { index: true, lazy: () => import('./routes/app/home') },
           { path: 'staff', lazy: () => import('./routes/app/staff') },
           { path: 'studies', lazy: () => import('./routes/app/studies') },
+          { path: 'studies/new', lazy: () => import('./routes/app/study-new') },
+          {
+            path: 'studies/:studyId',
+            lazy: () => import('./routes/app/study-layout'),
+            children: [
+              { index: true, element: <Navigate to="setup" replace /> },
+              { path: 'setup', lazy: () => import('./routes/app/study-setup') },
+              { path: 'assignment', lazy: () => import('./routes/app/study-assignment') },
+              { path: 'consent', lazy: () => import('./routes/app/study-consent') },
+              { path: 'roster', lazy: () => import('./routes/app/study-roster') },
+              { path: 'roster/:enrollmentId', lazy: () => import('./routes/app/study-participant') },
+            ],
+          },
           { path: 'audit', lazy: () => import('./routes/app/audit') },
         ],
       },

@@ -73,3 +73,52 @@ export const noticeRecipe = {
     info: 'border-spruce/25 bg-spruce-soft text-spruce-ink',
   },
 } as const;
+
+export const textareaRecipe =
+  'block min-h-20 w-full rounded-md border border-line-strong bg-surface px-2.5 py-1.5 text-sm text-ink placeholder:text-ink-faint focus:outline-none data-focus:border-spruce data-focus:outline-2 data-focus:-outline-offset-1 data-focus:outline-spruce data-invalid:border-danger data-disabled:bg-sunken data-disabled:text-ink-muted';
+
+export const radioCardRecipe = {
+  group: 'grid gap-2',
+  option:
+    'group flex cursor-pointer items-start gap-3 rounded-md border border-line bg-surface px-3 py-2.5 transition-colors focus:outline-none data-hover:border-line-strong data-checked:border-spruce data-checked:bg-spruce-soft data-focus:outline-2 data-focus:outline-offset-2 data-focus:outline-spruce data-disabled:cursor-not-allowed data-disabled:opacity-60',
+  dot: 'mt-0.5 flex size-4 shrink-0 items-center justify-center rounded-full border border-line-strong bg-surface group-data-checked:border-spruce group-data-checked:bg-spruce',
+  dotCenter: 'size-1.5 rounded-full bg-surface invisible group-data-checked:visible',
+  label: 'text-sm font-semibold text-ink',
+  description: 'mt-0.5 block text-xs text-ink-muted',
+};
+
+export const switchRecipe = {
+  track:
+    'group inline-flex h-5 w-9 shrink-0 cursor-pointer items-center rounded-full bg-line-strong transition-colors focus:outline-none data-checked:bg-spruce data-focus:outline-2 data-focus:outline-offset-2 data-focus:outline-spruce data-disabled:cursor-not-allowed data-disabled:opacity-50',
+  thumb: 'size-4 translate-x-0.5 rounded-full bg-surface shadow-raised transition-transform group-data-checked:translate-x-4.5',
+};
+
+export const checkboxRecipe =
+  'group flex size-4 shrink-0 cursor-pointer items-center justify-center rounded-sm border border-line-strong bg-surface focus:outline-none data-checked:border-spruce data-checked:bg-spruce data-focus:outline-2 data-focus:outline-offset-2 data-focus:outline-spruce data-disabled:cursor-not-allowed data-disabled:opacity-50';
+
+export const disclosureRecipe = {
+  button:
+    'group flex items-center gap-1.5 rounded-sm text-sm font-medium text-spruce-ink focus:outline-none data-hover:underline data-focus:outline-2 data-focus:outline-offset-2 data-focus:outline-spruce',
+  chevron: 'size-3.5 transition-transform group-data-open:rotate-90',
+  panel: 'mt-2',
+};
+
+export const panelRecipe = {
+  frame: 'rounded-lg border border-line bg-surface shadow-raised',
+  header: 'flex flex-wrap items-start justify-between gap-3 border-b border-line px-4 py-3',
+  title: 'text-lg font-semibold text-ink',
+  description: 'mt-0.5 max-w-prose text-sm text-ink-muted',
+  body: 'px-4 py-4',
+};
+
+export const tabNavRecipe = {
+  list: 'flex gap-1 border-b border-line',
+  tab: '-mb-px border-b-2 px-3 py-2 text-sm font-medium transition-colors focus:outline-none focus-visible:outline-2 focus-visible:-outline-offset-2 focus-visible:outline-spruce',
+  active: 'border-spruce text-ink',
+  inactive: 'border-transparent text-ink-muted hover:border-line-strong hover:text-ink',
+};
+
+export const progressRecipe = {
+  track: 'relative h-1.5 w-full overflow-hidden rounded-full bg-sunken',
+  indeterminateBar: 'absolute inset-y-0 w-1/3 rounded-full bg-spruce motion-safe:animate-[evenhand-indeterminate_1.4s_ease-in-out_infinite]',
+};

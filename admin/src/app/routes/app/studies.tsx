@@ -1,16 +1,32 @@
+import { Link } from 'react-router-dom';
+import { buttonRecipe } from '@/components/ui/recipes';
+import { cx } from '@/components/ui/cx';
 import { StudiesList } from '@/features/studies/components/studies-list';
+import { mayDesignStudy } from '@/lib/study-permissions';
+import { useStaffSession } from '../../session-context';
 import { RequireArea } from './require-area';
 
+const newStudyClass = cx(buttonRecipe.base, buttonRecipe.sizes.regular, buttonRecipe.variants.primary);
+
 export function Component() {
+  const { me } = useStaffSession();
+  const newStudy = mayDesignStudy(me.role) ? (
+    <Link to="/studies/new" className={newStudyClass}>
+      New study
+    </Link>
+  ) : undefined;
   return (
     <RequireArea area="studies">
       <title>Studies · Evenhand</title>
       <section aria-labelledby="studies-heading" className="flex flex-col gap-4">
-        <div>
-          <h1 id="studies-heading" className="text-xl font-semibold">Studies</h1>
-          <p className="text-sm text-ink-muted">The studies you are a member of.</p>
+        <div className="flex flex-wrap items-end justify-between gap-3">
+          <div>
+            <h1 id="studies-heading" className="text-xl font-semibold">Studies</h1>
+            <p className="text-sm text-ink-muted">The studies you are a member of.</p>
+          </div>
+          {newStudy}
         </div>
-        <StudiesList />
+        <StudiesList newStudyAction={newStudy} />
       </section>
     </RequireArea>
   );

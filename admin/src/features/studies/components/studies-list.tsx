@@ -1,22 +1,17 @@
-import { Badge, type BadgeTone } from '@/components/ui/badge';
+import { Link } from 'react-router-dom';
+import { Badge } from '@/components/ui/badge';
 import { tableRecipe } from '@/components/ui/recipes';
 import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
 import { ApiError } from '@/lib/api-error';
-import { useStudies, type StudySummary } from '../api/get-studies';
+import { useStudies } from '../api/get-studies';
+import { studyDesignLabels as designLabels, studyStatusLabels as statusLabels } from './study-labels';
 
-const statusLabels: Record<StudySummary['status'], { label: string; tone: BadgeTone }> = {
-  draft: { label: 'Draft', tone: 'neutral' },
-  recruiting: { label: 'Recruiting', tone: 'success' },
-  paused: { label: 'Paused', tone: 'caution' },
-  closed: { label: 'Closed', tone: 'spruce' },
-};
+export interface StudiesListProps {
+  /** Shown in the empty state for people who may create studies. */
+  newStudyAction?: React.ReactNode;
+}
 
-const designLabels: Record<StudySummary['design'], string> = {
-  between: 'Between subjects',
-  within: 'Within subjects',
-};
-
-export function StudiesList() {
+export function StudiesList({ newStudyAction }: StudiesListProps) {
   const studies = useStudies();
 
   if (studies.isPending) return <LoadingState label="Loading studies…" />;
@@ -30,8 +25,8 @@ export function StudiesList() {
   }
   if (studies.data.items.length === 0) {
     return (
-      <EmptyState title="No studies yet">
-        Studies you are a member of appear here. Setting up a study arrives in a later release of Evenhand.
+      <EmptyState title="No studies yet" action={newStudyAction}>
+        Studies you are a member of appear here. Whoever creates a study becomes its first member and can add colleagues.
       </EmptyState>
     );
   }
@@ -50,7 +45,11 @@ export function StudiesList() {
         <tbody>
           {studies.data.items.map((study) => (
             <tr key={study.id} className={tableRecipe.row}>
-              <td className={`${tableRecipe.cell} font-medium`}>{study.title}</td>
+              <td className={`${tableRecipe.cell} font-medium`}>
+                <Link to={`/studies/${study.id}`} className="text-spruce-ink underline-offset-2 hover:underline">
+                  {study.title}
+                </Link>
+              </td>
               <td className={`${tableRecipe.cell} font-mono text-xs text-ink-muted`}>{study.slug}</td>
               <td className={`${tableRecipe.cell} text-ink-muted`}>{designLabels[study.design]}</td>
               <td className={tableRecipe.cell}>
