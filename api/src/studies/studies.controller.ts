@@ -135,7 +135,7 @@ export class StudiesController {
   @ApiOkResponse({ type: ScreeningQuestionListDto })
   async screeningQuestions(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<ScreeningQuestionListDto> {
     await this.studies.require(studyId);
-    return { items: await this.studies.screeningQuestions(studyId) };
+    return { items: await this.studies.screeningQuestions(studyId, undefined, true) };
   }
 
   @Put(':studyId/screening-questions')

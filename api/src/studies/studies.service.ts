@@ -349,7 +349,7 @@ export class StudiesService {
   }
 
   /** The questions in the order a participant answers them: eligibility first, then the stratification answers. */
-  async screeningQuestions(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<ScreeningQuestionDto[]> {
+  async screeningQuestions(studyId: string, manager: EntityManager = this.dataSource.manager, withRules = false): Promise<ScreeningQuestionDto[]> {
     const { eligibility, stratification } = await this.screeningDefinition(studyId, manager);
     return [
       ...eligibility.map((q) => ({
@@ -361,6 +361,14 @@ export class StudiesService {
         ...(q.maxValue !== null ? { max: q.maxValue } : {}),
         ...(q.help ? { help: q.help } : {}),
         purpose: 'eligibility' as const,
+        ...(withRules
+          ? {
+              ...(q.criterion ? { criterion: q.criterion } : {}),
+              ...(q.eligibleValues ? { eligibleValues: q.eligibleValues } : {}),
+              ...(q.eligibleMin !== null ? { eligibleMin: q.eligibleMin } : {}),
+              ...(q.eligibleMax !== null ? { eligibleMax: q.eligibleMax } : {}),
+            }
+          : {}),
       })),
       ...stratification.map((f) => ({
         key: f.key,
@@ -401,7 +409,7 @@ export class StudiesService {
       );
       await this.audit.record(manager, { chain: studyId, actor, action: 'screening.replaced', subjectType: 'study', subjectId: studyId, data: { keys: questions.map((q) => q.key) } });
     });
-    return { items: await this.screeningQuestions(studyId) };
+    return { items: await this.screeningQuestions(studyId, this.dataSource.manager, true) };
   }
 
   // ── members ───────────────────────────────────────────────────────────────

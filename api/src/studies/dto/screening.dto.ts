@@ -55,6 +55,11 @@ export class ScreeningQuestionDto {
   @ApiPropertyOptional() help?: string;
   @ApiProperty({ enum: ['eligibility', 'stratification'], description: 'Stratification answers balance the assignment; they never exclude anyone' })
   purpose: 'eligibility' | 'stratification';
+  // The rule itself is for staff only: participants are never shown which answer qualifies.
+  @ApiPropertyOptional({ description: 'Staff view only' }) criterion?: string;
+  @ApiPropertyOptional({ description: 'Staff view only', type: 'array', items: {} }) eligibleValues?: Array<string | boolean>;
+  @ApiPropertyOptional({ description: 'Staff view only' }) eligibleMin?: number;
+  @ApiPropertyOptional({ description: 'Staff view only' }) eligibleMax?: number;
 }
 
 export class ScreeningQuestionListDto {
