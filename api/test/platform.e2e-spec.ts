@@ -22,6 +22,8 @@ const PUBLIC_ROUTES = new Set([
   'POST /api/auth/sign-out',
   'GET /api/health',
   'GET /api/public/studies/{slug}',
+  // Authenticated by the provider's signature instead of a session.
+  'POST /api/webhooks/payments',
 ]);
 
 describe('route table', () => {
