@@ -17,6 +17,8 @@ const tabs = [
   { to: 'assignment', label: 'Assignment' },
   { to: 'consent', label: 'Consent' },
   { to: 'roster', label: 'Roster' },
+  { to: 'watch', label: 'Dropout watch' },
+  { to: 'pay', label: 'Pay' },
 ] as const;
 
 export function Component() {

@@ -1,0 +1,95 @@
+import { Link } from 'react-router-dom';
+import { Badge } from '@/components/ui/badge';
+import { Button } from '@/components/ui/button';
+import { tableRecipe } from '@/components/ui/recipes';
+import type { RosterEntry } from '../api/get-roster';
+import type { ParticipationChange } from '../api/change-participation';
+import { mayMarkLost, mayRecordWithdrawal } from '../utils/roster-actions';
+import { EnrollmentStatusBadge } from './enrollment-status-badge';
+
+const dayFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
+const day = (iso: string | null) => (iso ? dayFormat.format(new Date(iso)) : '—');
+
+export interface RosterTableProps {
+  entries: readonly RosterEntry[];
+  blinded: boolean;
+  canManage: boolean;
+  recordHref: (enrollmentId: string) => string;
+  onChange: (change: ParticipationChange, entry: RosterEntry) => void;
+  busy?: boolean;
+}
+
+export function RosterTable({ entries, blinded, canManage, recordHref, onChange, busy = false }: RosterTableProps) {
+  return (
+    <div className={tableRecipe.frame}>
+      <table className={tableRecipe.table} aria-busy={busy}>
+        <caption className="sr-only">Roster{blinded ? '; conditions are shown as codes while the study is blinded' : ''}</caption>
+        <thead>
+          <tr>
+            <th scope="col" className={tableRecipe.headCell}>Reference</th>
+            <th scope="col" className={tableRecipe.headCell}>E-mail</th>
+            <th scope="col" className={tableRecipe.headCell}>Name</th>
+            <th scope="col" className={tableRecipe.headCell}>Status</th>
+            <th scope="col" className={tableRecipe.headCell} title={blinded ? 'Codes only while the study is blinded' : undefined}>
+              {blinded ? 'Condition (coded)' : 'Condition'}
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>Consent</th>
+            <th scope="col" className={tableRecipe.headCell}>Invited</th>
+            <th scope="col" className={tableRecipe.headCell}>Assigned</th>
+            {canManage && (
+              <th scope="col" className={tableRecipe.headCell}>
+                <span className="sr-only">Actions</span>
+              </th>
+            )}
+          </tr>
+        </thead>
+        <tbody>
+          {entries.map((entry) => {
+            const who = entry.name ?? entry.reference;
+            return (
+              <tr key={entry.id} className={tableRecipe.row}>
+                <td className={`${tableRecipe.cell} whitespace-nowrap`}>
+                  <Link
+                    to={recordHref(entry.id)}
+                    className="font-mono text-xs font-medium text-spruce-ink underline-offset-2 hover:underline"
+                    aria-label={`Open the record of ${entry.reference}`}
+                  >
+                    {entry.reference}
+                  </Link>
+                </td>
+                <td className={`${tableRecipe.cell} max-w-56 truncate text-ink-muted`} title={entry.email}>
+                  {entry.email}
+                </td>
+                <td className={tableRecipe.cell}>{entry.name ?? <span className="text-ink-faint">—</span>}</td>
+                <td className={`${tableRecipe.cell} whitespace-nowrap`}>
+                  <EnrollmentStatusBadge status={entry.status} />
+                </td>
+                <td className={tableRecipe.cell}>{entry.condition ?? <span className="text-ink-faint">—</span>}</td>
+                <td className={`${tableRecipe.cell} whitespace-nowrap`}>
+                  {entry.signedVersion !== null && <span className="mr-1.5 text-ink-muted">v{entry.signedVersion}</span>}
+                  {entry.needsReconsent ? <Badge tone="caution">Re-consent needed</Badge> : entry.signedVersion === null && <span className="text-ink-faint">Not signed</span>}
+                </td>
+                <td className={`${tableRecipe.cell} whitespace-nowrap text-ink-muted tabular-nums`}>{day(entry.invitationSentAt)}</td>
+                <td className={`${tableRecipe.cell} whitespace-nowrap text-ink-muted tabular-nums`}>{day(entry.assignedAt)}</td>
+                {canManage && (
+                  <td className={`${tableRecipe.cell} text-right whitespace-nowrap`}>
+                    {mayMarkLost(entry.status) && (
+                      <Button variant="quiet" size="compact" onClick={() => onChange('lost', entry)} aria-label={`Mark ${who} lost to follow-up`}>
+                        Mark lost
+                      </Button>
+                    )}
+                    {mayRecordWithdrawal(entry.status) && (
+                      <Button variant="quiet" size="compact" onClick={() => onChange('withdraw', entry)} aria-label={`Record a withdrawal for ${who}`}>
+                        Withdraw
+                      </Button>
+                    )}
+                  </td>
+                )}
+              </tr>
+            );
+          })}
+        </tbody>
+      </table>
+    </div>
+  );
+}

@@ -1,0 +1,243 @@
+import { Input } from '@headlessui/react';
+import { useEffect, useState } from 'react';
+import { useSearchParams } from 'react-router-dom';
+import { Button } from '@/components/ui/button';
+import { inputRecipe } from '@/components/ui/recipes';
+import { EmptyState, ErrorState, LoadingState, Notice } from '@/components/ui/states';
+import { useDebouncedValue } from '@/hooks/use-debounced-value';
+import { ApiError } from '@/lib/api-error';
+import { pageWindow, parsePageParam } from '@/lib/paging';
+import type { ParticipationChange } from '../api/change-participation';
+import { useReconsentCount, useRoster, type EnrollmentStatus, type RosterEntry } from '../api/get-roster';
+import { enrollmentStatusLabels, enrollmentStatusOrder } from './enrollment-status-badge';
+import { ImportRosterDialog } from './import-roster-dialog';
+import { ParticipationChangeDialog, type ParticipationChangeTarget } from './participation-change-dialog';
+import { RosterMailDialog, type RosterMailing } from './roster-mail-dialog';
+import { RosterTable } from './roster-table';
+import { StatusFilter } from './status-filter';
+
+const pageSize = 25;
+const searchDelayMs = 300;
+
+function parseStatus(value: string | null): EnrollmentStatus | null {
+  return enrollmentStatusOrder.find((status) => status === value) ?? null;
+}
+
+export interface RosterProps {
+  studyId: string;
+  /** While blinded the api sends condition codes only; the column says so. */
+  blinded: boolean;
+  /** Coordinators and admins import, invite, remind and record changes (the api's rule). */
+  canManage: boolean;
+  recordHref: (enrollmentId: string) => string;
+  factorKeys?: readonly string[];
+}
+
+export function Roster({ studyId, blinded, canManage, recordHref, factorKeys }: RosterProps) {
+  const [searchParams, setSearchParams] = useSearchParams();
+  const status = parseStatus(searchParams.get('status'));
+  const needsReconsent = searchParams.get('reconsent') === '1';
+  const search = searchParams.get('q') ?? '';
+  const page = parsePageParam(searchParams.get('page'));
+  const [searchText, setSearchText] = useState(search);
+  const debouncedSearch = useDebouncedValue(searchText.trim(), searchDelayMs);
+  const [importKey, setImportKey] = useState(0);
+  const [importing, setImporting] = useState(false);
+  const [mailing, setMailing] = useState<RosterMailing | null>(null);
+  const [change, setChange] = useState<ParticipationChangeTarget | null>(null);
+  const [announcement, setAnnouncement] = useState<string | null>(null);
+
+  const setParams = (changes: Record<string, string | null>, { keepPage = false } = {}) =>
+    setSearchParams(
+      (params) => {
+        const next = new URLSearchParams(params);
+        for (const [name, value] of Object.entries(changes)) {
+          if (value === null) next.delete(name);
+          else next.set(name, value);
+        }
+        if (!keepPage) next.delete('page');
+        return next;
+      },
+      { replace: !('page' in changes) },
+    );
+
+  // A new search starts again from page 1; the URL keeps filters, search and page shareable.
+  useEffect(() => {
+    if (debouncedSearch === search) return;
+    setSearchParams(
+      (params) => {
+        const next = new URLSearchParams(params);
+        if (debouncedSearch) next.set('q', debouncedSearch);
+        else next.delete('q');
+        next.delete('page');
+        return next;
+      },
+      { replace: true },
+    );
+  }, [debouncedSearch, search, setSearchParams]);
+
+  const roster = useRoster(studyId, { status, needsReconsent, search, page, pageSize });
+  const reconsentCount = useReconsentCount(studyId);
+  const filtered = status !== null || needsReconsent || search !== '';
+
+  const announce = (text: string) => setAnnouncement(text);
+  const onChanged = (entry: RosterEntry, kind: ParticipationChange) => {
+    setChange(null);
+    announce(kind === 'lost' ? `${entry.reference} is marked lost to follow-up.` : `The withdrawal of ${entry.reference} is recorded.`);
+  };
+
+  return (
+    <div className="flex flex-col gap-4">
+      <div className="flex flex-wrap items-end justify-between gap-3">
+        <div>
+          <h2 className="text-lg font-semibold">Roster</h2>
+          <p className="text-sm text-ink-muted">Everyone invited to or enrolled in this study. Records are never deleted.</p>
+        </div>
+        {canManage && (
+          <div className="flex flex-wrap gap-2">
+            {(reconsentCount.data ?? 0) > 0 && (
+              <Button onClick={() => setMailing('reconsent-reminders')}>Remind to re-consent ({reconsentCount.data})</Button>
+            )}
+            <Button onClick={() => setMailing('invitations')}>Send invitations</Button>
+            <Button
+              variant="primary"
+              onClick={() => {
+                setImportKey((key) => key + 1);
+                setImporting(true);
+              }}
+            >
+              Import CSV…
+            </Button>
+          </div>
+        )}
+      </div>
+
+      <div aria-live="polite" className="empty:hidden">
+        {announcement && <Notice tone="info">{announcement}</Notice>}
+      </div>
+
+      <div className="flex flex-col gap-3">
+        {roster.data && (
+          <StatusFilter
+            countsByStatus={roster.data.countsByStatus}
+            status={status}
+            onStatus={(next) => setParams({ status: next })}
+            needsReconsent={needsReconsent}
+            reconsentCount={reconsentCount.data}
+            onNeedsReconsent={(on) => setParams({ reconsent: on ? '1' : null })}
+          />
+        )}
+        <div className="flex flex-wrap items-center gap-3">
+          <label className="w-full max-w-xs">
+            <span className="sr-only">Search by e-mail, name or reference</span>
+            <Input
+              type="search"
+              value={searchText}
+              onChange={(event) => setSearchText(event.target.value)}
+              placeholder="Search e-mail, name or reference"
+              className={inputRecipe}
+            />
+          </label>
+          {roster.isFetching && !roster.isPending && <span className="text-xs text-ink-faint">Updating…</span>}
+        </div>
+      </div>
+
+      {roster.isPending ? (
+        <LoadingState label="Loading the roster…" />
+      ) : roster.isError ? (
+        <ErrorState
+          message={roster.error instanceof ApiError ? roster.error.message : 'The roster could not be loaded.'}
+          onRetry={() => void roster.refetch()}
+        />
+      ) : roster.data.items.length === 0 ? (
+        page > 1 ? (
+          <EmptyState title={`Page ${page} is empty`} action={<Button onClick={() => setParams({ page: null })}>Go to the first page</Button>}>
+            The list is shorter than it was.
+          </EmptyState>
+        ) : filtered ? (
+          <EmptyState title="No one matches" action={<Button onClick={() => { setSearchText(''); setParams({ status: null, reconsent: null, q: null }); }}>Show everyone</Button>}>
+            {[
+              status && `nobody is ${enrollmentStatusLabels[status].label.toLowerCase()}`,
+              needsReconsent && 'nobody still needs to re-consent',
+              search && `no e-mail, name or reference contains “${search}”`,
+            ]
+              .filter(Boolean)
+              .join(', or ')
+              .replace(/^./, (first) => first.toUpperCase())}
+            .
+          </EmptyState>
+        ) : (
+          <EmptyState title="Nobody on the roster yet">
+            {canManage
+              ? 'Import a CSV of invitees, then send invitations. People who join from the study page appear here too.'
+              : 'People appear here once they are imported or join from the study page.'}
+          </EmptyState>
+        )
+      ) : (
+        <>
+          <RosterTable
+            entries={roster.data.items}
+            blinded={blinded}
+            canManage={canManage}
+            recordHref={recordHref}
+            busy={roster.isFetching}
+            onChange={(kind, entry) => {
+              setAnnouncement(null);
+              setChange({ change: kind, entry });
+            }}
+          />
+          <Paging total={roster.data.total} page={page} onPage={(next) => setParams({ page: next > 1 ? String(next) : null }, { keepPage: true })} />
+        </>
+      )}
+
+      {canManage && (
+        <>
+          <ImportRosterDialog key={importKey} studyId={studyId} open={importing} onClose={() => setImporting(false)} factorKeys={factorKeys} />
+          <RosterMailDialog
+            studyId={studyId}
+            mailing={mailing}
+            reconsentCount={reconsentCount.data ?? 0}
+            onClose={() => setMailing(null)}
+            onSent={(kind, count) => {
+              setMailing(null);
+              announce(
+                kind === 'invitations'
+                  ? count === 0
+                    ? 'Everyone on the roster already had an invitation; none was sent.'
+                    : `${count} ${count === 1 ? 'invitation was' : 'invitations were'} sent.`
+                  : `${count} ${count === 1 ? 'reminder was' : 'reminders were'} sent to sign the new consent version.`,
+              );
+            }}
+          />
+          <ParticipationChangeDialog studyId={studyId} target={change} onClose={() => setChange(null)} onChanged={onChanged} />
+        </>
+      )}
+    </div>
+  );
+}
+
+function Paging({ total, page, onPage }: { total: number; page: number; onPage: (page: number) => void }) {
+  const rows = pageWindow(page, pageSize, total);
+  return (
+    <nav aria-label="Roster pages" className="flex items-center justify-between gap-3 text-sm text-ink-muted">
+      <p aria-live="polite">
+        {rows.pageCount === 1
+          ? `${total} ${total === 1 ? 'person' : 'people'}`
+          : rows.firstRow === 0
+            ? `No rows on page ${page}`
+            : `${rows.firstRow}–${rows.lastRow} of ${total}`}
+      </p>
+      <div className="flex items-center gap-2">
+        <span className="tabular-nums">
+          Page {page} of {rows.pageCount}
+        </span>
+        <Button onClick={() => onPage(page - 1)} disabled={!rows.hasPrevious}>
+          Previous
+        </Button>
+        <Button onClick={() => onPage(page + 1)} disabled={!rows.hasNext}>
+          Next
+        </Button>
+      </div>
+    </nav>
+  );
+}
