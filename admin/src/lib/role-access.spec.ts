@@ -2,12 +2,13 @@ import { describe, expect, it } from 'vitest';
 import { areasFor, homePathFor, isStaffRole, mayUse, type Role } from './role-access';
 
 // Checked against DESIGN.md "People and what they do" and the foundation brief (issue #2):
-// admin manages staff; coordinator and researcher work on studies; auditor reads the audit trail; participants use the portal.
+// admin manages staff (and, as lab owner, sees every study and the trail); coordinator and researcher work on
+// studies; auditor reads the audit trail and every study's records (read-only); participants use the portal.
 const expected: Record<Role, string[]> = {
-  admin: ['staff'],
+  admin: ['staff', 'studies', 'audit'],
   coordinator: ['studies'],
   researcher: ['studies'],
-  auditor: ['audit'],
+  auditor: ['audit', 'studies'],
   participant: [],
 };
 

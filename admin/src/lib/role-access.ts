@@ -29,8 +29,9 @@ const areasByRole: Record<Role, readonly StaffArea[]> = {
   participant: [],
   coordinator: ['studies'],
   researcher: ['studies'],
-  auditor: ['audit'],
-  admin: ['staff'],
+  // Auditors read every study's records; admins manage staff and see every study and the trail.
+  auditor: ['audit', 'studies'],
+  admin: ['staff', 'studies', 'audit'],
 };
 
 export function isStaffRole(role: Role): role is StaffRole {
