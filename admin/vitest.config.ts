@@ -10,6 +10,8 @@ export default mergeConfig(
       exclude: ['e2e/**', 'node_modules/**'],
       setupFiles: ['./src/test/setup-tests.ts'],
       restoreMocks: true,
+      // Generous on shared CI machines; the waits below stay well inside it.
+      testTimeout: 30_000,
     },
   }),
 );

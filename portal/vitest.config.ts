@@ -10,6 +10,8 @@ export default mergeConfig(
       exclude: ['e2e/**', 'node_modules/**'],
       setupFiles: ['./src/test/setup.ts'],
       restoreMocks: true,
+      // Generous on shared CI machines.
+      testTimeout: 30_000,
     },
   }),
 );

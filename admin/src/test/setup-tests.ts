@@ -14,6 +14,6 @@ globalThis.ResizeObserver ??= ResizeObserverStub as unknown as typeof ResizeObse
 Element.prototype.getAnimations ??= () => [];
 
 // The test machines are shared and slow at times; debounced searches need more than the default 1 s to settle.
-configure({ asyncUtilTimeout: 4000 });
+configure({ asyncUtilTimeout: 12_000 });
 
 afterEach(() => cleanup());

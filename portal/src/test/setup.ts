@@ -1,6 +1,9 @@
 import '@testing-library/jest-dom/vitest';
-import { cleanup } from '@testing-library/react';
+import { cleanup, configure } from '@testing-library/react';
 import { afterEach } from 'vitest';
+
+// Waits for the screen to settle; generous because CI machines are shared.
+configure({ asyncUtilTimeout: 12_000 });
 
 // jsdom has no ResizeObserver; Headless UI measures with it.
 class ResizeObserverStub {
