@@ -4,12 +4,11 @@ import { seriousAccessibilityProblems } from './support/accessibility';
 import { launchPhoneBrowser, type PhoneBrowser } from './support/browser';
 import { e2eEnv } from './support/env';
 import { signInLinkIn, waitForMessageTo } from './support/mailbox';
+import { answerScreeningQuestion, type ScreeningQuestion } from './support/screening';
 import { screenshotTaker } from './support/screenshots';
 
 /** The recruiting demo study with an active consent version, seeded by the api's demo scenario. */
 const studySlug = 'wayfinding-cues';
-
-type ScreeningQuestion = { key: string; label: string; kind: 'yes-no' | 'number' | 'choice'; options?: string[]; min?: number; max?: number };
 
 describe('participant takes part: study link to signed consent, instructions, signed PDF and withdrawal', () => {
   let browser: PhoneBrowser;
@@ -64,7 +63,7 @@ describe('participant takes part: study link to signed consent, instructions, si
       page,
       `/api/studies/${studyId}/enrollments/me`,
     );
-    for (const question of enrollment.screening.questions) await answer(page, question);
+    for (const question of enrollment.screening.questions) await answerScreeningQuestion(page, question);
     await shoot(page, 'screening-answered');
     await page.getByRole('button', { name: 'Save my answers' }).click();
 
@@ -196,24 +195,4 @@ async function apiJson<T>(page: PhoneBrowser['page'], path: string): Promise<T> 
   const response = await page.request.get(`${e2eEnv.portalUrl}${path}`);
   if (!response.ok()) throw new Error(`GET ${path} answered ${response.status()}: ${await response.text()}`);
   return (await response.json()) as T;
-}
-
-/** An answer that keeps this person eligible for the demo study: yes, a middling number, the first option. */
-async function answer(page: PhoneBrowser['page'], question: ScreeningQuestion): Promise<void> {
-  if (question.kind === 'yes-no') {
-    await page.getByRole('radiogroup', { name: question.label }).getByRole('radio', { name: 'Yes' }).click();
-  } else if (question.kind === 'number') {
-    const low = question.min ?? 0;
-    const high = question.max ?? low + 10;
-    await page.getByLabel(question.label).fill(String(Math.round((low + high) / 2)));
-  } else {
-    const first = question.options?.[0];
-    if (!first) throw new Error(`The choice question "${question.label}" has no options`);
-    const group = page.getByRole('radiogroup', { name: question.label });
-    if (await group.count()) await group.getByRole('radio', { name: first }).click();
-    else {
-      await page.getByRole('button', { name: new RegExp(question.label.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')) }).click();
-      await page.getByRole('option', { name: first }).click();
-    }
-  }
 }

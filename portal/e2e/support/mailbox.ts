@@ -19,18 +19,24 @@ async function listMessages(): Promise<MailboxMessage[]> {
 
 /**
  * Polls the local mailbox until a message to `recipient` arrives (other tests may be sending mail at the same time,
- * so match on the address, never "the latest message").
+ * so match on the address, never "the latest message"); `subject` narrows it to one kind of message.
  */
-export async function waitForMessageTo(recipient: string, { timeoutMs = 30_000, intervalMs = 250 } = {}): Promise<MailboxMessage> {
+export async function waitForMessageTo(
+  recipient: string,
+  { timeoutMs = 30_000, intervalMs = 250, subject }: { timeoutMs?: number; intervalMs?: number; subject?: RegExp } = {},
+): Promise<MailboxMessage> {
   const wanted = recipient.toLowerCase();
   const deadline = Date.now() + timeoutMs;
   for (;;) {
-    const matching = (await listMessages()).filter((message) =>
-      message.to.some((to) => to.address.toLowerCase() === wanted),
+    const matching = (await listMessages()).filter(
+      (message) =>
+        message.to.some((to) => to.address.toLowerCase() === wanted) && (subject === undefined || subject.test(message.subject)),
     );
     const newest = matching.at(-1);
     if (newest) return newest;
-    if (Date.now() > deadline) throw new Error(`No e-mail to ${recipient} arrived within ${timeoutMs} ms`);
+    if (Date.now() > deadline) {
+      throw new Error(`No e-mail to ${recipient}${subject ? ` with a subject like ${subject}` : ''} arrived within ${timeoutMs} ms`);
+    }
     await new Promise((resolve) => setTimeout(resolve, intervalMs));
   }
 }

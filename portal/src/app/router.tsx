@@ -30,6 +30,10 @@ export const routes: RouteObject[] = [
             path: 'studies',
             lazy: async () => ({ Component: (await import('./routes/studies')).StudiesRoute }),
           },
+          {
+            path: 'payouts',
+            lazy: async () => ({ Component: (await import('./routes/payouts')).PayoutsRoute }),
+          },
         ],
       },
       // Eager: the root error boundary shows the same screen, so it is in the main bundle anyway.

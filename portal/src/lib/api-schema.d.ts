@@ -356,6 +356,22 @@ export interface paths {
         patch: operations["StepsController_update"];
         trace?: never;
     };
+    "/api/studies/{studyId}/steps/{stepId}/completion-code": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put: operations["StepsController_setCode"];
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/studies/{studyId}/steps/{stepId}/pay-overrides/{conditionId}": {
         parameters: {
             query?: never;
@@ -628,6 +644,22 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/studies/{studyId}/enrollments/me/steps/{stepId}/complete": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["MyEnrollmentController_completeStep"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/studies/{studyId}/enrollments/me/consent.pdf": {
         parameters: {
             query?: never;
@@ -708,6 +740,22 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/studies/{studyId}/enrollments/pair-cohort": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["RosterController_pairCohort"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/studies/{studyId}/enrollments/reconsent-reminders": {
         parameters: {
             query?: never;
@@ -734,6 +782,22 @@ export interface paths {
         get: operations["RosterController_record"];
         put?: never;
         post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/{enrollmentId}/steps/{stepId}/complete": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["RosterController_checkOff"];
         delete?: never;
         options?: never;
         head?: never;
@@ -781,6 +845,230 @@ export interface paths {
         };
         get: operations["RosterController_signedCopy"];
         put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/payouts": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StudyPayoutsController_list"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/payouts/approve": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["StudyPayoutsController_approve"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/payouts/reconciliation": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StudyPayoutsController_reconciliation"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/payouts/tax-threshold": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StudyPayoutsController_taxThreshold"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/budget": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StudyPayoutsController_budget"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/funding": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["StudyPayoutsController_fund"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/funding/{fundingId}/refresh": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["StudyPayoutsController_refreshFunding"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/payouts/{payoutId}/retry": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["PayoutsController_retry"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/me/payout-account": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["PayoutsController_account"];
+        put?: never;
+        post: operations["PayoutsController_onboard"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/me/payouts": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["PayoutsController_mine"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/webhooks/payments": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["PayoutsController_webhook"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/attrition": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["AttritionController_report"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/export.csv": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["AttritionController_exportCsv"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/attrition/alerts": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["AttritionAlertsController_get"];
+        put: operations["AttritionAlertsController_put"];
         post?: never;
         delete?: never;
         options?: never;
@@ -1081,6 +1369,14 @@ export interface components {
              * @enum {string}
              */
             purpose: "eligibility" | "stratification";
+            /** @description Staff view only */
+            criterion?: string;
+            /** @description Staff view only */
+            eligibleValues?: unknown[];
+            /** @description Staff view only */
+            eligibleMin?: number;
+            /** @description Staff view only */
+            eligibleMax?: number;
         };
         ScreeningQuestionListDto: {
             items: components["schemas"]["ScreeningQuestionDto"][];
@@ -1140,6 +1436,8 @@ export interface components {
             description: string;
             /** @description Minor units of the study currency; the same in every condition unless overridden */
             payMinor: number;
+            /** @description Whether participants confirm this step with a completion code */
+            hasCompletionCode: boolean;
             /** @description Recorded exceptions to equal pay; each is flagged in the parity view */
             payOverrides: components["schemas"]["PayOverrideDto"][];
         };
@@ -1164,6 +1462,13 @@ export interface components {
             title?: string;
             description?: string;
             payMinor?: number;
+        };
+        SetCompletionCodeDto: {
+            /**
+             * @description Shown to participants at the end of the external task; stored only as a hash
+             * @example WAY-42
+             */
+            code: string;
         };
         SetPayOverrideDto: {
             payMinor: number;
@@ -1506,6 +1811,13 @@ export interface components {
             assignment: components["schemas"]["ParticipantAssignmentDto"] | null;
             enrollment: components["schemas"]["MyEnrollmentDto"];
         };
+        CompleteStepDto: {
+            /**
+             * @description The code shown at the end of the task
+             * @example WAY-42
+             */
+            code: string;
+        };
         WithdrawDto: {
             /** @description Optional; never required to withdraw */
             reason?: string;
@@ -1562,6 +1874,13 @@ export interface components {
         CountDto: {
             count: number;
         };
+        PairCohortResultDto: {
+            /** @description People paired (everyone on the roster with a pretest who has not consented yet) */
+            cohort: number;
+            pairs: number;
+            /** @description The odd one out, assigned by a coin of its own */
+            leftoverEnrollmentId: string | null;
+        };
         SignatureSummaryDto: {
             id: string;
             version: number;
@@ -1591,6 +1910,502 @@ export interface components {
         };
         MarkLostDto: {
             reason?: string;
+        };
+        PayoutDto: {
+            id: string;
+            enrollmentId: string;
+            reference: string;
+            /** @description Condition code, or its name once unblinded */
+            condition: string | null;
+            /** @enum {string} */
+            kind: "step" | "bonus";
+            stepTitle: string | null;
+            amountMinor: number;
+            currency: string;
+            /** @description A recorded per-condition pay exception applies */
+            payOverride: boolean;
+            /** @enum {string} */
+            status: "owed" | "approved" | "sending" | "paid" | "failed" | "cancelled" | "reversed";
+            failureReason: string | null;
+            providerTransferId: string | null;
+            payoutAccountReady: boolean;
+            createdAt: string;
+            approvedAt: string | null;
+            paidAt: string | null;
+        };
+        PayoutPageDto: {
+            items: components["schemas"]["PayoutDto"][];
+            total: number;
+            page: number;
+            pageSize: number;
+            countsByStatus: {
+                [key: string]: number;
+            };
+            amountByStatus: {
+                [key: string]: number;
+            };
+        };
+        ApprovePayoutsDto: {
+            payoutIds: string[];
+        };
+        ApprovalResultDto: {
+            approved: number;
+            amountMinor: number;
+            /** @description Funded balance left after this approval */
+            remainingMinor: number;
+        };
+        ReconciliationDifferenceDto: {
+            /** @enum {string} */
+            kind: "missing-at-provider" | "unknown-at-provider" | "amount-differs" | "reversal-differs";
+            payoutId: string | null;
+            transferId: string | null;
+            ledgerAmountMinor: number | null;
+            providerAmountMinor: number | null;
+            message: string;
+        };
+        ReconciliationDto: {
+            checkedAt: string;
+            ledgerPaidCount: number;
+            ledgerPaidMinor: number;
+            providerTransferCount: number;
+            providerTransferMinor: number;
+            differences: components["schemas"]["ReconciliationDifferenceDto"][];
+        };
+        TaxThresholdEntryDto: {
+            participantId: string;
+            email: string;
+            paidThisYearMinor: number;
+            /** @enum {string} */
+            standing: "under" | "near" | "over";
+        };
+        TaxThresholdDto: {
+            year: number;
+            thresholdMinor: number;
+            currency: string;
+            caution: string;
+            participants: components["schemas"]["TaxThresholdEntryDto"][];
+        };
+        BudgetDto: {
+            currency: string;
+            /** @description The planned budget set on the study */
+            plannedMinor: number;
+            /** @description Money put in by card and confirmed */
+            fundedMinor: number;
+            /** @description Approved or being sent */
+            committedMinor: number;
+            paidMinor: number;
+            /** @description Earned by participants, not yet approved */
+            owedMinor: number;
+            /** @description funded − committed − paid */
+            remainingMinor: number;
+            fundings: {
+                [key: string]: unknown;
+            }[];
+        };
+        CreateFundingDto: {
+            /** @description Minor units, e.g. 50000 for 500.00 */
+            amountMinor: number;
+        };
+        FundingIntentDto: {
+            fundingId: string;
+            clientSecret: string;
+            publishableKey: string;
+            /** @description The provider's browser script to load before confirming */
+            scriptUrl: string;
+            amountMinor: number;
+            currency: string;
+        };
+        PayoutAccountStatusDto: {
+            exists: boolean;
+            payoutsEnabled: boolean;
+            /** @enum {string} */
+            onboarding: "none" | "started" | "complete";
+        };
+        OnboardingLinkDto: {
+            url: string;
+            account: components["schemas"]["PayoutAccountStatusDto"];
+        };
+        MyPayoutDto: {
+            id: string;
+            studyTitle: string;
+            stepTitle: string | null;
+            /** @enum {string} */
+            kind: "step" | "bonus";
+            amountMinor: number;
+            currency: string;
+            /** @enum {string} */
+            status: "owed" | "approved" | "sending" | "paid" | "failed" | "cancelled" | "reversed";
+            createdAt: string;
+            paidAt: string | null;
+            /** @description Receipt number (the transfer reference) */
+            receipt: string | null;
+        };
+        MyPayoutsDto: {
+            items: components["schemas"]["MyPayoutDto"][];
+            account: components["schemas"]["PayoutAccountStatusDto"];
+            /** @description Paid this calendar year, per currency */
+            paidThisYearMinor: {
+                [key: string]: number;
+            };
+            /** @description Owed or on its way, per currency */
+            pendingMinor: {
+                [key: string]: number;
+            };
+            taxNote: string;
+        };
+        WindowEndedDto: {
+            /** @description Randomized participants whose participation window has ended */
+            randomized: number;
+            /** @description Completers among them */
+            completed: number;
+        };
+        ConditionAttritionDto: {
+            /** @description Condition id; for a within-subjects study the order, as condition ids joined by ">" */
+            conditionId: string;
+            /** @description The code (A, B…) while the study is blinded, else the internal name; orders joined by " → " */
+            name: string;
+            randomized: number;
+            /** @description Assigned or active: still in follow-up */
+            active: number;
+            completed: number;
+            withdrew: number;
+            /** @description Lost to follow-up */
+            lost: number;
+            excludedAfterRandomization: number;
+            /** @description withdrew + lost + excluded after randomization */
+            dropped: number;
+            /** @description Dropout so far: dropped / randomized, active people counting as not (yet) dropped; share between 0 and 1; null when nobody is in the denominator */
+            dropoutRateSoFar: number | null;
+            /** @description WWC attrition: (randomized − completed) / randomized among those whose window has ended; share between 0 and 1; null when nobody is in the denominator */
+            attritionRate: number | null;
+            /** @description Numerator of attritionRate */
+            attrited: number;
+            windowEnded: components["schemas"]["WindowEndedDto"];
+        };
+        OverallAttritionDto: {
+            randomized: number;
+            dropped: number;
+            dropoutRateSoFar: number | null;
+            windowEndedRandomized: number;
+            attrited: number;
+            /** @description Overall WWC attrition; share between 0 and 1; null when nobody is in the denominator */
+            attritionRate: number | null;
+        };
+        WwcBoundaryVerdictDto: {
+            /** @enum {string} */
+            verdict: "low-attrition" | "high-attrition" | "outside-published-range" | "not-computable";
+            /** @description Highest tolerable differential attrition on the row used, in percentage points */
+            maxDifferentialPercent: number | null;
+        };
+        WwcPairDto: {
+            conditionId: string;
+            comparisonConditionId: string;
+            /** @description Pooled over the two arms of the pair */
+            overallAttritionRate: number | null;
+            differentialAttritionRate: number | null;
+            /** @description Whole-percent row of the WWC boundary table used */
+            overallPercentRow: number | null;
+            cautious: components["schemas"]["WwcBoundaryVerdictDto"];
+            optimistic: components["schemas"]["WwcBoundaryVerdictDto"];
+        };
+        WwcAssessmentDto: {
+            comparisonConditionId: string | null;
+            /**
+             * @description Least favourable pair under the cautious boundary
+             * @enum {string}
+             */
+            cautious: "low-attrition" | "high-attrition" | "outside-published-range" | "not-computable";
+            /**
+             * @description Least favourable pair under the optimistic boundary
+             * @enum {string}
+             */
+            optimistic: "low-attrition" | "high-attrition" | "outside-published-range" | "not-computable";
+            /** @description Each other arm against the comparison arm */
+            pairs: components["schemas"]["WwcPairDto"][];
+        };
+        ChiSquareDto: {
+            /** @enum {string} */
+            method: "chi-square";
+            statistic: number | null;
+            df: number;
+            pValue: number | null;
+            expected: number[][];
+            /** @enum {boolean} */
+            continuityCorrection: false;
+            /** @description Some expected count is below 5 */
+            smallExpectedCounts: boolean;
+        };
+        FisherExactDto: {
+            /** @enum {string} */
+            method: "fisher-exact";
+            pValueTwoSided: number;
+            pValueGreater: number;
+            pValueLess: number;
+        };
+        DropoutTestDto: {
+            /**
+             * @description Fisher's exact test when a 2×2 table has an expected count below 5
+             * @enum {string}
+             */
+            method: "chi-square" | "fisher-exact";
+            /** @description X²; null for Fisher’s exact test */
+            statistic: number | null;
+            df: number | null;
+            pValue: number | null;
+            /**
+             * @description No Yates continuity correction is applied
+             * @enum {boolean}
+             */
+            continuityCorrection: false;
+            /** @description Rows of the arm × dropped / not dropped table: the arms with anyone randomized */
+            tableConditionIds: string[];
+            chiSquare: components["schemas"]["ChiSquareDto"] | null;
+            /** @description Only for two arms */
+            fisherExact: components["schemas"]["FisherExactDto"] | null;
+        };
+        SurvivalPointDto: {
+            /** @description Whole days since assignment */
+            time: number;
+            /** @description Kaplan–Meier share not dropped out just after this time */
+            survival: number;
+            lower: number | null;
+            upper: number | null;
+            /** @description Greenwood standard error */
+            standardError: number | null;
+            atRisk: number;
+            /** @description Dropouts at this time */
+            events: number;
+            /** @description Completers and still-active participants censored at this time */
+            censored: number;
+        };
+        SurvivalCurveDto: {
+            conditionId: string;
+            atStart: number;
+            confidenceLevel: number;
+            /** @enum {string} */
+            bandForm: "log-log";
+            /** @description Survival is 1 before the first point */
+            points: components["schemas"]["SurvivalPointDto"][];
+        };
+        LogRankGroupDto: {
+            conditionId: string;
+            observed: number;
+            expected: number;
+        };
+        LogRankDto: {
+            /** @enum {string} */
+            method: "log-rank";
+            statistic: number | null;
+            df: number;
+            pValue: number | null;
+            groups: components["schemas"]["LogRankGroupDto"][];
+        };
+        SurvivalDto: {
+            /** @enum {string} */
+            timeUnit: "days";
+            /**
+             * Format: date-time
+             * @description When still-active participants are censored (now, or when the study closed)
+             */
+            censoredAt: string;
+            curves: components["schemas"]["SurvivalCurveDto"][];
+            logRank: components["schemas"]["LogRankDto"];
+        };
+        PaySummaryDto: {
+            n: number;
+            /** @description Mean in minor units */
+            mean: number | null;
+            standardDeviation: number | null;
+        };
+        ConditionPayDto: {
+            conditionId: string;
+            /** @description Over every randomized participant, unpaid ones counting as 0 */
+            perRandomized: components["schemas"]["PaySummaryDto"];
+            perCompleter: components["schemas"]["PaySummaryDto"];
+        };
+        WelchAnovaDto: {
+            /** @enum {string} */
+            method: "welch-anova";
+            statistic: number | null;
+            df1: number | null;
+            df2: number | null;
+            pValue: number | null;
+            conditionIdsTested: string[];
+            /** @enum {string|null} */
+            notComputable: "fewer-than-two-conditions-with-two-or-more-participants" | "no-variation-within-a-condition" | null;
+        };
+        PayComparisonDto: {
+            /** @description Largest minus smallest arm mean, minor units */
+            largestMeanDifference: number | null;
+            /** @description Welch's ANOVA: equal mean pay without assuming equal variances */
+            test: components["schemas"]["WelchAnovaDto"];
+        };
+        PayBasisDto: {
+            conditions: components["schemas"]["ConditionPayDto"][];
+            perRandomized: components["schemas"]["PayComparisonDto"];
+            perCompleter: components["schemas"]["PayComparisonDto"];
+        };
+        PayParityDto: {
+            /** @description ISO 4217; amounts are minor units of it */
+            currency: string;
+            /** @description A per-condition pay override is recorded, so unequal pay may be by design */
+            payOverrideRecorded: boolean;
+            /** @description Payouts with status paid */
+            paid: components["schemas"]["PayBasisDto"];
+            /** @description Owed, approved, sending or paid */
+            earned: components["schemas"]["PayBasisDto"];
+        };
+        StandardizedDifferenceDto: {
+            d: number | null;
+            /** @description |d| ≥ 0.1 (Austin 2009) */
+            imbalanced: boolean | null;
+        };
+        CovariateBalanceRowDto: {
+            /** @description A numeric covariate key, or key=category for one category of a categorical covariate */
+            covariate: string;
+            /** @enum {string} */
+            kind: "continuous" | "binary";
+            conditionId: string;
+            comparisonConditionId: string;
+            allRandomized: components["schemas"]["StandardizedDifferenceDto"];
+            completers: components["schemas"]["StandardizedDifferenceDto"];
+        };
+        ReasonCountDto: {
+            /** @description Null when no reason was recorded */
+            reason: string | null;
+            count: number;
+        };
+        FlowBoxDto: {
+            total: number;
+            /** @description At most 10, most frequent first */
+            reasons: components["schemas"]["ReasonCountDto"][];
+            /** @description Participants whose reason is not listed */
+            otherReasons: number;
+        };
+        AwaitingRandomizationDto: {
+            total: number;
+            invited: number;
+            screened: number;
+            consented: number;
+        };
+        ArmFlowDto: {
+            conditionId: string;
+            name: string;
+            allocated: number;
+            stillInFollowUp: number;
+            withdrew: components["schemas"]["FlowBoxDto"];
+            lostToFollowUp: components["schemas"]["FlowBoxDto"];
+            excludedAfterRandomization: components["schemas"]["FlowBoxDto"];
+            /** @description Completers: participants with complete outcome data */
+            analysed: number;
+        };
+        ConsortFlowDto: {
+            /** @description Everyone who joined or was imported */
+            assessedForEligibility: number;
+            excludedBeforeRandomization: components["schemas"]["FlowBoxDto"];
+            awaitingRandomization: components["schemas"]["AwaitingRandomizationDto"];
+            randomized: number;
+            arms: components["schemas"]["ArmFlowDto"][];
+        };
+        AttritionReportDto: {
+            studyId: string;
+            /**
+             * @description Within-subjects studies are reported by order: each order is an arm
+             * @enum {string}
+             */
+            design: "between" | "within";
+            /** @enum {string} */
+            studyStatus: "draft" | "recruiting" | "paused" | "closed";
+            /** Format: date-time */
+            computedAt: string;
+            /** @description Condition names are hidden: `name` is the code */
+            blinded: boolean;
+            /** @description How the participation window is decided */
+            windowRule: string;
+            cautions: string[];
+            conditions: components["schemas"]["ConditionAttritionDto"][];
+            overall: components["schemas"]["OverallAttritionDto"];
+            /** @description Largest minus smallest arm attritionRate */
+            differentialAttrition: number | null;
+            wwc: components["schemas"]["WwcAssessmentDto"];
+            dropoutTest: components["schemas"]["DropoutTestDto"];
+            survival: components["schemas"]["SurvivalDto"];
+            payParity: components["schemas"]["PayParityDto"];
+            covariateBalance: components["schemas"]["CovariateBalanceRowDto"][];
+            flow: components["schemas"]["ConsortFlowDto"];
+        };
+        AlertStateDto: {
+            /** @description Above the threshold at the last evaluation; no new e-mail until it goes back below */
+            crossed: boolean;
+            lastValue: number | null;
+            lastThreshold: number | null;
+            /** Format: date-time */
+            evaluatedAt: string | null;
+            /** Format: date-time */
+            crossedAt: string | null;
+            /** Format: date-time */
+            notifiedAt: string | null;
+            /** @description How many times it has crossed since the rule was last changed */
+            crossings: number;
+        };
+        DifferentialAttritionAlertDto: {
+            enabled: boolean;
+            comparisonConditionId: string | null;
+            state: components["schemas"]["AlertStateDto"];
+        };
+        LogRankAlertDto: {
+            enabled: boolean;
+            pValueBelow: number;
+            state: components["schemas"]["AlertStateDto"];
+        };
+        PayDifferenceAlertDto: {
+            enabled: boolean;
+            amountMinor: number;
+            /** @enum {string} */
+            basis: "paid" | "earned";
+            currency: string;
+            state: components["schemas"]["AlertStateDto"];
+        };
+        AttritionAlertsDto: {
+            studyId: string;
+            /** @description How often the rules are evaluated, in minutes */
+            evaluatedEveryMinutes: number;
+            /** @description The screen the e-mails link to */
+            watchUrl: string;
+            differentialAttrition: components["schemas"]["DifferentialAttritionAlertDto"];
+            logRank: components["schemas"]["LogRankAlertDto"];
+            payDifference: components["schemas"]["PayDifferenceAlertDto"];
+        };
+        DifferentialAttritionRuleDto: {
+            /** @description E-mail when differential attrition is above the cautious WWC boundary */
+            enabled: boolean;
+            /** @description Arm the others are compared with; the first condition when null */
+            comparisonConditionId?: string | null;
+        };
+        LogRankRuleDto: {
+            /** @description E-mail when the log-rank p-value of time to dropout falls below pValueBelow */
+            enabled: boolean;
+            /** @example 0.05 */
+            pValueBelow: number;
+        };
+        PayDifferenceRuleDto: {
+            /** @description E-mail when mean pay per randomized participant differs between conditions by more than amountMinor */
+            enabled: boolean;
+            /**
+             * @description Minor units of the study currency
+             * @example 500
+             */
+            amountMinor: number;
+            /**
+             * @description paid: payouts with status paid; earned: also owed, approved and sending
+             * @enum {string}
+             */
+            basis: "paid" | "earned";
+        };
+        PutAttritionAlertsDto: {
+            differentialAttrition: components["schemas"]["DifferentialAttritionRuleDto"];
+            logRank: components["schemas"]["LogRankRuleDto"];
+            payDifference: components["schemas"]["PayDifferenceRuleDto"];
         };
         HealthDto: {
             /** @enum {string} */
@@ -2291,6 +3106,32 @@ export interface operations {
             };
         };
     };
+    StepsController_setCode: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                stepId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["SetCompletionCodeDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StepListDto"];
+                };
+            };
+        };
+    };
     StepsController_setOverride: {
         parameters: {
             query?: never;
@@ -2798,6 +3639,32 @@ export interface operations {
             };
         };
     };
+    MyEnrollmentController_completeStep: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                stepId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["CompleteStepDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["MyEnrollmentDto"];
+                };
+            };
+        };
+    };
     MyEnrollmentController_pdf: {
         parameters: {
             query?: never;
@@ -2924,6 +3791,27 @@ export interface operations {
             };
         };
     };
+    RosterController_pairCohort: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["PairCohortResultDto"];
+                };
+            };
+        };
+    };
     RosterController_remind: {
         parameters: {
             query?: never;
@@ -2963,6 +3851,29 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["ParticipantRecordDto"];
+                };
+            };
+        };
+    };
+    RosterController_checkOff: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                enrollmentId: string;
+                stepId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RosterEntryDto"];
                 };
             };
         };
@@ -3037,6 +3948,354 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content?: never;
+            };
+        };
+    };
+    StudyPayoutsController_list: {
+        parameters: {
+            query?: {
+                status?: "owed" | "approved" | "sending" | "paid" | "failed" | "cancelled" | "reversed";
+                conditionId?: string;
+                page?: number;
+                pageSize?: number;
+            };
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["PayoutPageDto"];
+                };
+            };
+        };
+    };
+    StudyPayoutsController_approve: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ApprovePayoutsDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ApprovalResultDto"];
+                };
+            };
+        };
+    };
+    StudyPayoutsController_reconciliation: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ReconciliationDto"];
+                };
+            };
+        };
+    };
+    StudyPayoutsController_taxThreshold: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["TaxThresholdDto"];
+                };
+            };
+        };
+    };
+    StudyPayoutsController_budget: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["BudgetDto"];
+                };
+            };
+        };
+    };
+    StudyPayoutsController_fund: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["CreateFundingDto"];
+            };
+        };
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["FundingIntentDto"];
+                };
+            };
+        };
+    };
+    StudyPayoutsController_refreshFunding: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                fundingId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["BudgetDto"];
+                };
+            };
+        };
+    };
+    PayoutsController_retry: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                payoutId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Queued again */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    PayoutsController_account: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["PayoutAccountStatusDto"];
+                };
+            };
+        };
+    };
+    PayoutsController_onboard: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["OnboardingLinkDto"];
+                };
+            };
+        };
+    };
+    PayoutsController_mine: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["MyPayoutsDto"];
+                };
+            };
+        };
+    };
+    PayoutsController_webhook: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Received (also for a duplicate, which changes nothing) */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    AttritionController_report: {
+        parameters: {
+            query?: {
+                /** @description The arm the others are compared with (WWC pairs, covariate balance): a condition id, or for a within-subjects study an order id. The first condition when absent. */
+                comparisonConditionId?: string;
+            };
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AttritionReportDto"];
+                };
+            };
+        };
+    };
+    AttritionController_exportCsv: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description One row per enrollment, streamed */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "text/csv": string;
+                };
+            };
+        };
+    };
+    AttritionAlertsController_get: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AttritionAlertsDto"];
+                };
+            };
+        };
+    };
+    AttritionAlertsController_put: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["PutAttritionAlertsDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AttritionAlertsDto"];
+                };
             };
         };
     };

@@ -11,4 +11,8 @@ export const queryKeys = {
   consentToSign: (studyId: string) => ['enrollments', studyId, 'me', 'consent'] as const,
   signedConsentPdf: (studyId: string, signedVersionId: string) =>
     ['enrollments', studyId, 'me', 'consent.pdf', signedVersionId] as const,
+  /** Prefix of everything about the signed-in person's pay: completing a step changes it. */
+  myPayAll: ['me', 'pay'] as const,
+  myPayouts: ['me', 'pay', 'payouts'] as const,
+  myPayoutAccount: ['me', 'pay', 'payout-account'] as const,
 };

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { minutesInWords, paragraphsOf } from './text';
+import { asSentence, minutesInWords, paragraphsOf } from './text';
 
 describe('paragraphs of plain text', () => {
   it('splits on blank lines (also with Windows line ends and stray spaces) and drops empty ones', () => {
@@ -24,5 +24,15 @@ describe('minutes in words', () => {
     [150, '2 hours 30 minutes'],
   ])('%i reads "%s"', (minutes, words) => {
     expect(minutesInWords(minutes)).toBe(words);
+  });
+});
+
+describe('an api field message as a sentence', () => {
+  it.each([
+    ['does not match; check it and try again', 'Does not match; check it and try again.'],
+    ['  please answer this question ', 'Please answer this question.'],
+    ['Is it you?', 'Is it you?'],
+  ])('"%s" reads "%s"', (message, sentence) => {
+    expect(asSentence(message)).toBe(sentence);
   });
 });

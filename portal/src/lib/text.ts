@@ -16,3 +16,10 @@ export function minutesInWords(minutes: number): string {
   const hourPart = hours === 1 ? '1 hour' : `${hours} hours`;
   return rest === 0 ? hourPart : `${hourPart} ${minutePart}`;
 }
+
+/** The api words field errors as "does not match; check it"; on screen they start a sentence and end with a stop. */
+export function asSentence(message: string): string {
+  const trimmed = message.trim();
+  const sentence = trimmed.charAt(0).toUpperCase() + trimmed.slice(1);
+  return /[.!?]$/.test(sentence) ? sentence : `${sentence}.`;
+}

@@ -1,5 +1,5 @@
 import { useRef } from 'react';
-import { Navigate, Outlet } from 'react-router-dom';
+import { Navigate, NavLink, Outlet } from 'react-router-dom';
 import { PageLayout } from '@/components/layout/page-layout';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
@@ -55,7 +55,7 @@ export function SignedInLayout() {
   );
 
   return (
-    <PageLayout actions={actions}>
+    <PageLayout actions={actions} navigation={<SignedInNavigation />}>
       {signOut.isError ? (
         <div className="mb-6">
           <Notice tone="error" title="We could not sign you out">
@@ -65,5 +65,32 @@ export function SignedInLayout() {
       ) : null}
       <Outlet context={me.data} />
     </PageLayout>
+  );
+}
+
+const navigationLinks = [
+  { to: '/studies', label: 'Your studies' },
+  { to: '/payouts', label: 'Getting paid' },
+];
+
+const navLinkClasses = ({ isActive }: { isActive: boolean }) =>
+  `flex min-h-12 items-center border-b-4 px-3 font-semibold ${
+    isActive ? 'border-clay text-ink' : 'border-transparent text-clay-ink underline decoration-2 underline-offset-4'
+  }`;
+
+/** The signed-in person's two places; NavLink marks the current one with aria-current="page". */
+function SignedInNavigation() {
+  return (
+    <nav aria-label="Your account">
+      <ul className="-mb-px flex gap-2">
+        {navigationLinks.map((link) => (
+          <li key={link.to}>
+            <NavLink to={link.to} className={navLinkClasses}>
+              {link.label}
+            </NavLink>
+          </li>
+        ))}
+      </ul>
+    </nav>
   );
 }

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { PageLayout } from '@/components/layout/page-layout';
 import { Button, ButtonLink } from '@/components/ui/button';
@@ -133,7 +133,16 @@ function EnrollmentStage({ study, enrollment }: { study: PublicStudy; enrollment
   const [screeningReasons, setScreeningReasons] = useState<string[] | null>(null);
   const [signature, setSignature] = useState<Signature | null>(null);
   const [withdrawal, setWithdrawal] = useState<Withdrawal | null>(null);
+  const [reconsentAsked, setReconsentAsked] = useState(false);
+  const headingRef = useRef<HTMLHeadingElement>(null);
   const { next } = enrollment;
+
+  // A step was refused because the consent form changed: once the new form is here, start at the top of the page.
+  useEffect(() => {
+    if (!reconsentAsked || next !== 're-consent') return;
+    window.scrollTo?.({ top: 0 });
+    headingRef.current?.focus();
+  }, [reconsentAsked, next]);
   const assignment = enrollment.assignment ?? signature?.assignment ?? null;
 
   const stopTakingPart =
@@ -145,7 +154,9 @@ function EnrollmentStage({ study, enrollment }: { study: PublicStudy; enrollment
     <div className="flex flex-col gap-8">
       <header className="flex flex-col gap-3">
         <p className="text-fine font-semibold tracking-wide text-clay-ink uppercase">{study.labName}</p>
-        <h1 className="text-title font-bold">{enrollment.studyTitle}</h1>
+        <h1 ref={headingRef} tabIndex={-1} className="text-title font-bold focus:outline-none">
+          {enrollment.studyTitle}
+        </h1>
         {next !== 'excluded' && next !== 'withdrawn' ? (
           <StageList label="Your progress" stages={stages} current={stageOf[next]} />
         ) : null}
@@ -198,7 +209,14 @@ function EnrollmentStage({ study, enrollment }: { study: PublicStudy; enrollment
               enrollmentReference={enrollment.reference}
             />
           ) : null}
-          <YourSteps steps={enrollment.steps} currency={enrollment.currency} earned={enrollment.earned} />
+          <YourSteps
+            studyId={enrollment.studyId}
+            steps={enrollment.steps}
+            currency={enrollment.currency}
+            earned={enrollment.earned}
+            contactEmail={study.contactEmail}
+            onNeedsReconsent={() => setReconsentAsked(true)}
+          />
         </>
       ) : null}
 

@@ -13,8 +13,11 @@ function BrandMark() {
   );
 }
 
-/** Every screen: a skip link, the brand bar (with optional account actions) and one main column sized for phones. */
-export function PageLayout({ children, actions }: { children: ReactNode; actions?: ReactNode }) {
+/**
+ * Every screen: a skip link, the brand bar (with optional account actions and, below it, navigation) and one main
+ * column sized for phones.
+ */
+export function PageLayout({ children, actions, navigation }: { children: ReactNode; actions?: ReactNode; navigation?: ReactNode }) {
   return (
     <div className="flex min-h-dvh flex-col">
       <a
@@ -28,6 +31,7 @@ export function PageLayout({ children, actions }: { children: ReactNode; actions
           <BrandMark />
           {actions}
         </div>
+        {navigation ? <div className="mx-auto w-full max-w-xl px-4">{navigation}</div> : null}
       </header>
       <main id="main" tabIndex={-1} className="mx-auto flex w-full max-w-xl flex-1 flex-col px-4 pt-8 pb-16 focus:outline-none">
         {children}

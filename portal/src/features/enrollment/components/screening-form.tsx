@@ -8,6 +8,7 @@ import { SelectList } from '@/components/ui/select-list';
 import { TextField } from '@/components/ui/text-field';
 import { isApiError } from '@/lib/api-problem';
 import { describeProblem } from '@/lib/problem-message';
+import { asSentence } from '@/lib/text';
 import type { ScreeningQuestion } from '../api/get-my-enrollment';
 import {
   numberRangeHint,
@@ -54,7 +55,7 @@ export function ScreeningForm({ studyId, questions, answers, onScreened }: Scree
       for (const fieldError of fieldErrors) {
         const name = screeningFieldForApiField(questions, fieldError.field);
         if (!name) continue;
-        setError(name, { message: sentenceCase(fieldError.message) }, { shouldFocus: !placed });
+        setError(name, { message: asSentence(fieldError.message) }, { shouldFocus: !placed });
         placed = true;
       }
       if (!placed) setError('root.server', { message: describeProblem(error) });
@@ -162,9 +163,3 @@ export function ScreeningForm({ studyId, questions, answers, onScreened }: Scree
   );
 }
 
-/** The api words field errors as "please answer this question"; on screen they start a sentence. */
-function sentenceCase(message: string): string {
-  const trimmed = message.trim();
-  const sentence = trimmed.charAt(0).toUpperCase() + trimmed.slice(1);
-  return /[.!?]$/.test(sentence) ? sentence : `${sentence}.`;
-}

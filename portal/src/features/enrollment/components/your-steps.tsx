@@ -1,6 +1,10 @@
+import { useEffect, useRef, useState } from 'react';
+import { Link } from 'react-router-dom';
+import { Notice } from '@/components/ui/notice';
 import { formatDate } from '@/lib/date-format';
 import { formatMoney } from '@/lib/money';
 import type { EnrollmentStep, MyEnrollment } from '../api/get-my-enrollment';
+import { StepCompletionForm } from './step-completion-form';
 
 const statusWords: Record<EnrollmentStep['status'], string> = {
   done: 'Done',
@@ -14,11 +18,17 @@ const statusClasses: Record<EnrollmentStep['status'], string> = {
   locked: 'bg-sand text-ink-soft',
 };
 
-/** The study's steps with where each stands and what it pays, and what has been earned so far. */
-export function YourSteps({ steps, currency, earned }: Pick<MyEnrollment, 'steps' | 'currency' | 'earned'>) {
+type YourStepsProps = Pick<MyEnrollment, 'studyId' | 'steps' | 'currency' | 'earned'> & {
+  contactEmail?: string | null | undefined;
+  onNeedsReconsent?: () => void;
+};
+
+/** The study's steps with where each stands and what it pays, a code form on each open one, and what has been earned. */
+export function YourSteps({ studyId, steps, currency, earned, contactEmail, onNeedsReconsent }: YourStepsProps) {
   const money = (minor: number) => formatMoney(minor, currency);
   const ordered = [...steps].sort((a, b) => a.position - b.position);
   const done = ordered.filter((step) => step.status === 'done').length;
+  const [justCompletedId, setJustCompletedId] = useState<string | null>(null);
 
   return (
     <section aria-labelledby="your-steps-heading" className="flex flex-col gap-4">
@@ -39,34 +49,71 @@ export function YourSteps({ steps, currency, earned }: Pick<MyEnrollment, 'steps
         </p>
       ) : (
         <ol className="flex flex-col gap-3">
-          {ordered.map((step, index) => (
-            <li
-              key={step.id}
-              className="flex flex-col gap-2 rounded-soft border border-sand-deep bg-paper-raised p-4"
-            >
-              <div className="flex flex-wrap items-baseline justify-between gap-x-3 gap-y-1">
-                <h3 className="font-bold">
-                  <span className="text-ink-soft">Step {index + 1} · </span>
-                  {step.title}
-                </h3>
-                <p className="font-semibold text-moss-ink">{money(step.payMinor)}</p>
-              </div>
-              {step.description ? <p className="text-fine text-ink-soft">{step.description}</p> : null}
-              <p className="flex flex-wrap items-center gap-2 text-fine">
-                <span className={`rounded-full px-3 py-0.5 font-semibold ${statusClasses[step.status]}`}>
-                  {statusWords[step.status]}
-                </span>
-                {step.status === 'done' && step.completedAt ? (
-                  <span className="text-ink-soft">on {formatDate(step.completedAt)}</span>
+          {ordered.map((step, index) => {
+            const headingId = `step-${step.id}-heading`;
+            return (
+              <li key={step.id} className="flex flex-col gap-2 rounded-soft border border-sand-deep bg-paper-raised p-4">
+                <div className="flex flex-wrap items-baseline justify-between gap-x-3 gap-y-1">
+                  <h3 id={headingId} className="font-bold">
+                    {/* The separator is a bare text node, so the heading's accessible name keeps its spaces. */}
+                    <span className="text-ink-soft">Step {index + 1}</span>
+                    {' · '}
+                    {step.title}
+                  </h3>
+                  <p className="font-semibold text-moss-ink">
+                    {money(step.payMinor)}
+                    {step.status === 'done' ? <span className="font-normal"> earned</span> : null}
+                  </p>
+                </div>
+                {step.description ? <p className="text-fine text-ink-soft">{step.description}</p> : null}
+                <p className="flex flex-wrap items-center gap-2 text-fine">
+                  <span className={`rounded-full px-3 py-0.5 font-semibold ${statusClasses[step.status]}`}>
+                    {statusWords[step.status]}
+                  </span>
+                  {step.status === 'done' && step.completedAt ? (
+                    <span className="text-ink-soft">on {formatDate(step.completedAt)}</span>
+                  ) : null}
+                </p>
+                {step.status === 'done' && step.id === justCompletedId ? (
+                  <StepDoneNotice stepNumber={index + 1} pay={money(step.payMinor)} />
                 ) : null}
-              </p>
-            </li>
-          ))}
+                {step.status === 'open' ? (
+                  <StepCompletionForm
+                    studyId={studyId}
+                    stepId={step.id}
+                    labelledBy={headingId}
+                    contactEmail={contactEmail}
+                    onCompleted={() => setJustCompletedId(step.id)}
+                    onNeedsReconsent={onNeedsReconsent}
+                  />
+                ) : null}
+              </li>
+            );
+          })}
         </ol>
       )}
 
       <EarnedSummary earned={earned} currency={currency} />
+      <p className="text-fine">
+        <Link to="/payouts" className="font-semibold text-clay-ink underline decoration-2 underline-offset-4">
+          Getting paid
+        </Link>
+        : set up how you receive your pay, and see every payment.
+      </p>
     </section>
+  );
+}
+
+/** Replaces the code form once it worked; focus moves here because the button that had it is gone. */
+function StepDoneNotice({ stepNumber, pay }: { stepNumber: number; pay: string }) {
+  const ref = useRef<HTMLDivElement>(null);
+  useEffect(() => ref.current?.focus(), []);
+  return (
+    <div ref={ref} tabIndex={-1} className="focus:outline-none">
+      <Notice tone="success" title={`Thank you: step ${stepNumber} is done`}>
+        {pay} is added to what you have earned. The research team approves it, then it is sent to you.
+      </Notice>
+    </div>
   );
 }
 
