@@ -26,6 +26,8 @@ export const routes: RouteObject[] = [
               { path: 'consent', lazy: () => import('./routes/app/study-consent') },
               { path: 'roster', lazy: () => import('./routes/app/study-roster') },
               { path: 'roster/:enrollmentId', lazy: () => import('./routes/app/study-participant') },
+              { path: 'watch', lazy: () => import('./routes/app/study-watch') },
+              { path: 'pay', lazy: () => import('./routes/app/study-pay') },
             ],
           },
           { path: 'audit', lazy: () => import('./routes/app/audit') },

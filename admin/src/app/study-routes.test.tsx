@@ -93,7 +93,7 @@ describe('study pages', () => {
     expect(router.state.location.pathname).toBe(`/studies/${studyId}/setup`);
     expect(screen.getByRole('link', { name: /Sequence fingerprint cfd28da4…6480b/ })).toBeInTheDocument();
     const tabs = screen.getByRole('navigation', { name: 'Study' });
-    expect(within(tabs).getAllByRole('link').map((link) => link.textContent)).toEqual(['Set-up', 'Assignment', 'Consent', 'Roster']);
+    expect(within(tabs).getAllByRole('link').map((link) => link.textContent)).toEqual(['Set-up', 'Assignment', 'Consent', 'Roster', 'Dropout watch', 'Pay']);
     expect(within(tabs).getByRole('link', { name: 'Set-up' })).toHaveAttribute('aria-current', 'page');
     expect(screen.getByRole('button', { name: 'Pause' })).toBeInTheDocument();
   });

@@ -1369,6 +1369,14 @@ export interface components {
              * @enum {string}
              */
             purpose: "eligibility" | "stratification";
+            /** @description Staff view only */
+            criterion?: string;
+            /** @description Staff view only */
+            eligibleValues?: unknown[];
+            /** @description Staff view only */
+            eligibleMin?: number;
+            /** @description Staff view only */
+            eligibleMax?: number;
         };
         ScreeningQuestionListDto: {
             items: components["schemas"]["ScreeningQuestionDto"][];
