@@ -1,0 +1,61 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { seriousAccessibilityProblems } from './support/accessibility';
+import { adminUrl, openBrowser, screenshot, signIn, type BrowserSession } from './support/browser';
+
+const journey = 'watch';
+
+describe('dropout watch', () => {
+  let browser: BrowserSession;
+
+  beforeAll(async () => {
+    browser = await openBrowser();
+  });
+
+  afterAll(async () => {
+    await browser?.close();
+  });
+
+  it('the researcher opens the demo study’s dropout watch and sees the flow, the verdict and the curves', async () => {
+    const { page } = browser;
+    await page.goto(`${adminUrl}/sign-in`);
+    await signIn(page, 'researcher@evenhand.test');
+    await page.getByRole('heading', { name: 'Studies', level: 1 }).or(page.getByRole('alert')).first().waitFor();
+    await page.goto(`${adminUrl}/studies`);
+    await page.getByRole('link', { name: 'Wayfinding cues' }).click();
+    await page.getByRole('heading', { name: 'Wayfinding cues', level: 1 }).waitFor();
+
+    await page.getByRole('link', { name: 'Dropout watch' }).click();
+    await page.waitForURL((url) => url.pathname.endsWith('/watch'));
+    await page.getByRole('heading', { name: 'Attrition against the WWC boundaries' }).waitFor();
+    await screenshot(page, journey, 'verdict');
+
+    // The demo's "no cues" condition (blinded, so a code) loses people faster: beyond the cautious boundary.
+    expect(await page.getByText(/Differential dropout is (within|beyond) the cautious WWC boundary/).first().textContent()).toMatch(/beyond/);
+    expect(await page.getByText(/the optimistic WWC boundary/).first().isVisible()).toBe(true);
+    expect(await page.getByTestId('dropout-test').textContent()).toMatch(/without continuity correction|Fisher's exact/);
+
+    // The flow: drawn, with the same counts as a list for screen readers.
+    const flow = page.getByRole('region', { name: 'Participant flow' });
+    await flow.scrollIntoViewIfNeeded();
+    expect(await flow.locator('svg text', { hasText: /Assessed for eligibility \(n = \d+\)/ }).count()).toBe(1);
+    expect(await flow.locator('svg text', { hasText: /^Allocated to [A-C] / }).count()).toBe(3);
+    expect(await flow.getByRole('list', { name: 'Participant flow, as text' }).textContent()).toMatch(/randomized/);
+    await screenshot(page, journey, 'flow');
+
+    // The curves: one step line per condition and the log-rank line.
+    const curves = page.getByRole('region', { name: 'Dropout over time' });
+    await curves.scrollIntoViewIfNeeded();
+    await curves.locator('.recharts-line-curve').first().waitFor();
+    expect(await curves.locator('.recharts-line-curve').count()).toBe(3);
+    expect(await page.getByTestId('log-rank').textContent()).toMatch(/Log-rank test across conditions: χ²\(2\) = \d+\.\d\d, p [=<>]/);
+    expect(await page.getByRole('link', { name: 'Download data (CSV)' }).getAttribute('href')).toMatch(/\/api\/studies\/[0-9a-f-]{36}\/export\.csv$/);
+    await screenshot(page, journey, 'curves');
+
+    // Another comparison condition re-computes the pairs.
+    await page.getByRole('button', { name: /Compare the others with/ }).click();
+    await page.getByRole('option', { name: 'Condition C' }).click();
+    await page.getByRole('list', { name: 'Each pair' }).getByText('A vs C').waitFor();
+    expect(await seriousAccessibilityProblems(page)).toEqual([]);
+    await screenshot(page, journey, 'compare-with-c');
+  });
+});

@@ -1,0 +1,59 @@
+import { tableRecipe } from '@/components/ui/recipes';
+import type { ConditionAttrition } from '../api/get-attrition-report';
+import { formatShare } from '../utils/watch-format';
+
+export function ConditionTable({ conditions, studyClosed }: { conditions: readonly ConditionAttrition[]; studyClosed: boolean }) {
+  return (
+    <div className={tableRecipe.frame}>
+      <table className={tableRecipe.table}>
+        <caption className="sr-only">Participants per condition</caption>
+        <thead>
+          <tr>
+            {['Condition', 'Randomized', 'Active', 'Completed', 'Withdrew', 'Lost', 'Dropout so far', studyClosed ? 'Attrition (WWC)' : 'Attrition (WWC), window ended'].map((label, index) => (
+              <th key={label} scope="col" className={`${tableRecipe.headCell} ${index > 0 ? 'text-right' : ''}`}>
+                {label}
+              </th>
+            ))}
+          </tr>
+        </thead>
+        <tbody>
+          {conditions.map((condition) => (
+            <tr key={condition.conditionId} className={tableRecipe.row}>
+              <th scope="row" className={`${tableRecipe.cell} text-left font-semibold`}>
+                {condition.name}
+              </th>
+              {[condition.randomized, condition.active, condition.completed, condition.withdrew, condition.lost].map((count, index) => (
+                <td key={index} className={`${tableRecipe.cell} text-right tabular-nums`}>
+                  {count.toLocaleString()}
+                </td>
+              ))}
+              <td className={`${tableRecipe.cell} text-right tabular-nums`}>
+                {formatShare(condition.dropoutRateSoFar)}
+                <span className="block text-2xs text-ink-muted">
+                  {condition.dropped} of {condition.randomized}
+                </span>
+              </td>
+              <td className={`${tableRecipe.cell} text-right tabular-nums`}>
+                {formatShare(condition.attritionRate)}
+                <span className="block text-2xs text-ink-muted">
+                  {condition.attrited} of {condition.windowEnded.randomized}
+                </span>
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  );
+}
+
+export function RateDefinitions() {
+  return (
+    <dl className="grid gap-x-4 gap-y-1 text-xs text-ink-muted sm:grid-cols-[max-content_1fr]">
+      <dt className="font-semibold text-ink">Dropout so far</dt>
+      <dd>Withdrew, lost or excluded after randomization, out of everyone randomized. Active people count as not (yet) dropped.</dd>
+      <dt className="font-semibold text-ink">Attrition (WWC)</dt>
+      <dd>Not completed, out of the people whose participation window has ended. Active people are left out until their window ends.</dd>
+    </dl>
+  );
+}

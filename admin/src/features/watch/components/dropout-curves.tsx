@@ -1,0 +1,103 @@
+import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import type { AttritionReport } from '../api/get-attrition-report';
+import { toStepPoints } from '../utils/survival-steps';
+import { formatPValue, formatShare, formatStatistic } from '../utils/watch-format';
+
+const palette = ['var(--color-spruce)', 'var(--color-ochre)', 'var(--color-danger)', 'var(--color-success)', 'var(--color-caution)', 'var(--color-ink-muted)'];
+const dashes = [undefined, '6 3', '2 3', '8 3 2 3', '1 2', '4 4'];
+
+export function DropoutCurves({ report }: { report: AttritionReport }) {
+  const names = new Map(report.conditions.map((condition) => [condition.conditionId, condition.name]));
+  const curves = report.survival.curves.map((curve, index) => ({
+    id: curve.conditionId,
+    name: `Condition ${names.get(curve.conditionId) ?? '?'}`,
+    color: palette[index % palette.length]!,
+    dash: dashes[index % dashes.length],
+    steps: toStepPoints(curve.points),
+  }));
+  const logRank = report.survival.logRank;
+  const summary = curves.map((curve) => `${curve.name}: ${formatShare(curve.steps.at(-1)?.survival)} still in at day ${curve.steps.at(-1)?.time ?? 0}`).join('; ');
+
+  return (
+    <figure className="flex flex-col gap-2">
+      <figcaption className="text-sm font-semibold">Share not dropped out, by days since assignment (Kaplan–Meier)</figcaption>
+      <div role="img" aria-label={`Step chart of the share not dropped out per condition. ${summary}.`} className="h-72 w-full">
+        <ResponsiveContainer width="100%" height="100%">
+          <LineChart margin={{ top: 8, right: 16, bottom: 16, left: 0 }}>
+            <CartesianGrid stroke="var(--color-line)" strokeDasharray="3 3" />
+            <XAxis
+              type="number"
+              dataKey="time"
+              domain={[0, 'dataMax']}
+              allowDecimals={false}
+              tick={{ fontSize: 11, fill: 'var(--color-ink-muted)' }}
+              label={{ value: 'Days since assignment', position: 'insideBottom', offset: -10, fontSize: 11, fill: 'var(--color-ink-muted)' }}
+            />
+            <YAxis domain={[0, 1]} tickFormatter={(value: number) => `${Math.round(value * 100)}%`} tick={{ fontSize: 11, fill: 'var(--color-ink-muted)' }} width={42} />
+            <Tooltip
+              labelFormatter={(value) => `Day ${value}`}
+              formatter={(value) => formatShare(Number(value))}
+              contentStyle={{ fontSize: 12, borderRadius: 5, borderColor: 'var(--color-line)' }}
+            />
+            <Legend verticalAlign="top" wrapperStyle={{ fontSize: 12 }} />
+            {curves.map((curve) => (
+              <Line
+                key={curve.id}
+                data={curve.steps}
+                type="stepAfter"
+                dataKey="survival"
+                name={curve.name}
+                stroke={curve.color}
+                strokeDasharray={curve.dash}
+                strokeWidth={2}
+                dot={false}
+                isAnimationActive={false}
+              />
+            ))}
+          </LineChart>
+        </ResponsiveContainer>
+      </div>
+      <p className="text-sm text-ink" data-testid="log-rank">
+        {logRank.statistic === null
+          ? 'Log-rank test across conditions: not computable yet.'
+          : `Log-rank test across conditions: χ²(${logRank.df}) = ${formatStatistic(logRank.statistic)}, ${formatPValue(logRank.pValue)}.`}{' '}
+        {logRank.groups.length > 0 &&
+          `Dropouts observed vs expected: ${logRank.groups.map((group) => `${names.get(group.conditionId) ?? '?'} ${group.observed} vs ${group.expected.toFixed(1)}`).join(', ')}.`}
+      </p>
+      <p className="text-xs text-ink-muted">
+        Completers are censored at completion, active participants at {new Date(report.survival.censoredAt).toLocaleString()}. Bands ({Math.round((report.survival.curves[0]?.confidenceLevel ?? 0.95) * 100)}%,
+        Greenwood) are listed in the table below.
+      </p>
+      <details className="text-sm">
+        <summary className="cursor-pointer font-medium text-spruce-ink">Curve values as a table</summary>
+        {curves.map((curve) => (
+          <table key={curve.id} className="mt-2 w-full max-w-xl text-xs">
+            <caption className="text-left font-semibold">{curve.name}</caption>
+            <thead>
+              <tr className="text-ink-muted">
+                <th scope="col" className="text-left">Day</th>
+                <th scope="col" className="text-right">At risk</th>
+                <th scope="col" className="text-right">Dropouts</th>
+                <th scope="col" className="text-right">Still in</th>
+                <th scope="col" className="text-right">95% band</th>
+              </tr>
+            </thead>
+            <tbody>
+              {curve.steps.map((step, index) => (
+                <tr key={index}>
+                  <td>{step.time}</td>
+                  <td className="text-right tabular-nums">{step.atRisk ?? '—'}</td>
+                  <td className="text-right tabular-nums">{step.events}</td>
+                  <td className="text-right tabular-nums">{formatShare(step.survival)}</td>
+                  <td className="text-right tabular-nums">
+                    {step.lower === null || step.upper === null ? '—' : `${formatShare(step.lower)}–${formatShare(step.upper)}`}
+                  </td>
+                </tr>
+              ))}
+            </tbody>
+          </table>
+        ))}
+      </details>
+    </figure>
+  );
+}

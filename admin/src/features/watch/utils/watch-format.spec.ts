@@ -1,0 +1,76 @@
+import { describe, expect, it } from 'vitest';
+import { dropoutTestSentence, formatPValue, formatShare, wwcVerdictDetail, wwcVerdictSentence } from './watch-format';
+
+describe('formatPValue', () => {
+  // APA Publication Manual 7th ed. §6.36 (from memory): exact p to three decimals, "p < .001" below that.
+  it('shows tiny values as p < 0.001 instead of scientific notation', () => {
+    // Agresti (2007), party identification by gender: X² = 30.070, df = 2, p = 2.954e-7.
+    expect(formatPValue(2.954e-7)).toBe('p < 0.001');
+    expect(formatPValue(0.00099)).toBe('p < 0.001');
+  });
+
+  it('shows other values with three decimals', () => {
+    expect(formatPValue(0.001)).toBe('p = 0.001');
+    // Fisher's tea-tasting table [[3,1],[1,3]]: two-sided p = 0.4857 (Agresti 2007).
+    expect(formatPValue(0.4857)).toBe('p = 0.486');
+    expect(formatPValue(0.0818)).toBe('p = 0.082');
+  });
+
+  it('never prints p = 1.000', () => {
+    expect(formatPValue(0.9999)).toBe('p > 0.999');
+    expect(formatPValue(1)).toBe('p > 0.999');
+  });
+
+  it('says when there is no p-value, and refuses impossible ones', () => {
+    expect(formatPValue(null)).toBe('p not computable');
+    expect(() => formatPValue(1.2)).toThrow(/pValue must be between 0 and 1/);
+  });
+});
+
+describe('WWC verdict wording', () => {
+  // WWC Procedures and Standards Handbook v5.0, attrition boundary table (shipped in api/src/attrition/data):
+  // at 24% overall attrition the cautious boundary tolerates 4.9 points, the optimistic 9.5.
+  const row24 = { overallAttritionRate: 0.238, differentialAttritionRate: 0.0727, overallPercentRow: 24 };
+
+  it('says within and beyond, naming the boundary', () => {
+    expect(wwcVerdictSentence('low-attrition', 'optimistic')).toBe('Differential dropout is within the optimistic WWC boundary');
+    expect(wwcVerdictSentence('high-attrition', 'cautious')).toBe('Differential dropout is beyond the cautious WWC boundary');
+  });
+
+  it('gives the numbers behind the verdict', () => {
+    expect(wwcVerdictDetail('high-attrition', { ...row24, maxDifferentialPercent: 4.9 })).toBe(
+      'Overall attrition 23.8%, differential 7.3 points; at 24% overall the boundary tolerates up to 4.9 points.',
+    );
+  });
+
+  it('explains an overall rate past the published table', () => {
+    // Handbook table, cautious column: the last tolerable row is 57% overall (0.0 points); above it there is no row.
+    expect(wwcVerdictSentence('outside-published-range', 'cautious')).toBe('Overall attrition is outside the range the cautious WWC boundary covers');
+    expect(wwcVerdictDetail('outside-published-range', { overallAttritionRate: 0.7, differentialAttritionRate: 0.1, overallPercentRow: null, maxDifferentialPercent: null })).toMatch(
+      /published table stops before this overall rate/,
+    );
+  });
+});
+
+describe('dropoutTestSentence', () => {
+  it('names the chi-square test and the missing continuity correction', () => {
+    // Agresti (2007) party identification by gender: X² = 30.070 on 2 df, p = 2.954e-7.
+    expect(dropoutTestSentence({ method: 'chi-square', statistic: 30.07, df: 2, pValue: 2.954e-7, continuityCorrection: false })).toBe(
+      'Chi-square test of independence, without continuity correction: χ²(2) = 30.07, p < 0.001.',
+    );
+  });
+
+  it("names Fisher's exact test when it is used", () => {
+    // Tea-tasting table: two-sided p = 0.4857.
+    expect(dropoutTestSentence({ method: 'fisher-exact', statistic: null, df: null, pValue: 0.4857, continuityCorrection: false })).toMatch(
+      /^Fisher's exact test .*p = 0\.486\.$/,
+    );
+  });
+});
+
+describe('formatShare', () => {
+  it('rounds to one decimal of a percent', () => {
+    expect(formatShare(3 / 11)).toBe('27.3%');
+    expect(formatShare(null)).toBe('—');
+  });
+});
