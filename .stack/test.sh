@@ -110,6 +110,8 @@ wait_for_url "http://127.0.0.1:$T_API_PORT/api/health" 90
 wait_for_url "$PORTAL_URL" 60
 wait_for_url "$ADMIN_URL" 60
 
+# Journeys that also call the api or the stand-in directly (to set a code, fund, approve) use the test stack.
+export EVENHAND_API_ORIGIN="http://127.0.0.1:$T_API_PORT" PAYMENTS_FAKE_URL="http://127.0.0.1:$T_PAYMENTS_PORT"
 for app in portal admin; do
   SCREENSHOT_DIR="$LOCAL_DIR/screenshots/$app" step "$app browser journeys" vitest_in "$app" "$app-e2e" --config vitest.e2e.config.ts
 done

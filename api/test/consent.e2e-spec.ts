@@ -247,7 +247,7 @@ describe('signing', () => {
       [studyId],
     );
     expect(slots.map((s: { position: number }) => s.position)).toEqual(Array.from({ length: 100 }, (_, i) => i + 1));
-  });
+  }, 240_000);
 
   it('asks enrolled people to sign a new version before their next step', async () => {
     const { studyId, version } = await recruitingStudy();
