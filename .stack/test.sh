@@ -13,6 +13,8 @@ T_MAILBOX_PORT="${TEST_MAILBOX_PORT:-1090}"
 
 started_at=$SECONDS
 RUN_DIR="$(mktemp -d "$LOCAL_DIR/test-run.XXXXXX")"
+# mktemp makes it private; the postgres account must be able to reach the cluster inside it.
+chmod 755 "$RUN_DIR"
 REPORT_DIR="$RUN_DIR/reports"
 LOG_DIR="$LOCAL_DIR/test-logs"
 mkdir -p "$REPORT_DIR" "$LOG_DIR"
@@ -27,6 +29,8 @@ cleanup() {
   for pid in "${SERVICE_PIDS[@]}"; do kill -KILL -- "-$pid" 2>/dev/null || true; done
   stop_postgres
   rm -rf "$RUN_DIR"
+  # A fallback cluster folder outside the project (see choose_pg_parent) goes too.
+  case "${PG_PARENT:-}" in /var/tmp/evenhand-*) rm -rf "$PG_PARENT" ;; esac
 }
 trap cleanup EXIT
 trap 'exit 130' INT TERM
