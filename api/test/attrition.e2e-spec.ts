@@ -62,7 +62,7 @@ describe('dropout watch of a study with a known history', () => {
       covariates: { pretest, device: i < 5 ? 'phone' : 'laptop' },
       stratumKey: pretest >= 65 ? 'pretest:1' : 'pretest:0',
       stepsDone: i < 6 ? 2 : i === 6 || i >= 8 ? 1 : 0,
-      // Completers paid 1500 (one also has a cancelled 700 and a failed 300, which count for nothing), the withdrawer
+      // Completers paid 1500 (one also has a cancelled 700, which counts for nothing, and a failed 300, still earned), the withdrawer
       // paid 500, the lost one owed 500, each active one approved 500.
       payouts: i === 0 ? [[1500, 'paid'], [700, 'cancelled'], [300, 'failed']] : i < 6 ? [[1500, 'paid']] : i === 6 ? [[500, 'paid']] : i === 7 ? [[500, 'owed']] : [[500, 'approved']],
     }));
@@ -153,13 +153,14 @@ describe('dropout watch of a study with a known history', () => {
 
   it('compares pay by condition, paid and earned', () => {
     // Paid per randomized: A (6·1500 + 500) / 10 = 950, B (3·1500 + 2·500) / 10 = 550; per completer 1500 in both.
-    // Earned adds A's owed 500 and two approved 500s: A 1100, B 550. Cancelled and failed payouts count for nothing.
+    // Earned adds A's owed 500, two approved 500s and the failed 300 (still owed to them, to be retried): A 1130, B 550.
+    // Cancelled payouts count for nothing.
     const paid = report.payParity.paid;
     expect(report.payParity).toMatchObject({ currency: 'USD', payOverrideRecorded: false });
     expect(paid.conditions.map((c: any) => [c.perRandomized.mean, c.perCompleter.mean])).toEqual([[950, 1500], [550, 1500]]);
     expect(paid.perRandomized.largestMeanDifference).toBe(400);
     expect(paid.perCompleter.test.notComputable).toBe('no-variation-within-a-condition');
-    expect(report.payParity.earned.conditions.map((c: any) => c.perRandomized.mean)).toEqual([1100, 550]);
+    expect(report.payParity.earned.conditions.map((c: any) => c.perRandomized.mean)).toEqual([1130, 550]);
     // For two groups Welch's ANOVA is the square of Welch's t (Welch 1947): s²_A = 525000, s²_B = 469444.4 by hand,
     // t² = 400² / (52500 + 46944.44) = 1.608939 on Welch–Satterthwaite df 17.944; p from jStat's t distribution.
     const test = paid.perRandomized.test;
@@ -241,7 +242,7 @@ describe('dropout watch of a study with a known history', () => {
     ]);
     expect(new Set(rows.map((r) => r.reference)).size).toBe(26);
     const first = rows[0];
-    expect(first).toMatchObject({ condition: 'A', stratum: 'pretest:0', device: 'phone', pretest: '60', status: 'completed', steps_done: '2', paid_minor: '1500', earned_minor: '1500', currency: 'USD' });
+    expect(first).toMatchObject({ condition: 'A', stratum: 'pretest:0', device: 'phone', pretest: '60', status: 'completed', steps_done: '2', paid_minor: '1500', earned_minor: '1800', currency: 'USD' }); // 1500 paid + 300 failed (still owed)
     expect(first.assigned_at).toBe(dayOf(0).toISOString());
     expect(first.completed_at).toBe(dayOf(10).toISOString());
     const withdrawn = rows.find((r) => r.condition === 'B' && r.status === 'withdrew')!;

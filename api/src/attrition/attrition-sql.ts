@@ -135,7 +135,7 @@ export async function readAttritionAggregates(
     `WITH per_participant AS (
        SELECT p.enrollment_id,
               coalesce(sum(p.amount_minor) FILTER (WHERE p.status = 'paid'), 0)::bigint AS paid,
-              coalesce(sum(p.amount_minor) FILTER (WHERE p.status IN ('owed','approved','sending','paid')), 0)::bigint AS earned
+              coalesce(sum(p.amount_minor) FILTER (WHERE p.status IN ('owed','approved','sending','failed','paid')), 0)::bigint AS earned
        FROM payout p WHERE p.study_id = $1 AND p.currency = $2
        GROUP BY p.enrollment_id
      ), followed AS (
@@ -221,7 +221,7 @@ export function readExportPage(
             (SELECT coalesce(sum(p.amount_minor), 0)::text FROM payout p
               WHERE p.enrollment_id = e.id AND p.currency = $4 AND p.status = 'paid') AS paid_minor,
             (SELECT coalesce(sum(p.amount_minor), 0)::text FROM payout p
-              WHERE p.enrollment_id = e.id AND p.currency = $4 AND p.status IN ('owed','approved','sending','paid')) AS earned_minor
+              WHERE p.enrollment_id = e.id AND p.currency = $4 AND p.status IN ('owed','approved','sending','failed','paid')) AS earned_minor
      FROM enrollment e
      WHERE e.study_id = $1 AND ($2::text IS NULL OR e.reference > $2)
      ORDER BY e.reference

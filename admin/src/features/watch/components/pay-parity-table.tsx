@@ -28,7 +28,7 @@ export function PayParityTable({ report }: { report: AttritionReport }) {
         {(['earned', 'paid'] as const).map((option) => (
           <label key={option} className="flex items-center gap-1.5">
             <input type="radio" name="pay-basis" value={option} checked={basis === option} onChange={() => setBasis(option)} className="accent-spruce" />
-            {option === 'earned' ? 'Earned (owed, approved, sending or paid)' : 'Paid out'}
+            {option === 'earned' ? 'Earned (owed, approved, sending, failed for now, or paid)' : 'Paid out'}
           </label>
         ))}
       </fieldset>
