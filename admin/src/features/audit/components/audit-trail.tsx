@@ -1,12 +1,13 @@
 import { Field, Label, Select } from '@headlessui/react';
 import { useSearchParams } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
+import { Pager } from '@/components/ui/pager';
 import { Panel } from '@/components/ui/panel';
 import { fieldRecipe, inputRecipe } from '@/components/ui/recipes';
 import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
 import { cx } from '@/components/ui/cx';
 import { ApiError } from '@/lib/api-error';
-import { pageWindow, parsePageParam } from '@/lib/paging';
+import { parsePageParam } from '@/lib/paging';
 import { useAuditEvents } from '../api/get-audit-events';
 import { auditActionGroups, auditActionLabel, chainLabel, labChain } from '../utils/audit-labels';
 import { AuditEventsTable } from './audit-events-table';
@@ -107,36 +108,10 @@ export function AuditTrail({ studyTitles }: AuditTrailProps) {
         ) : (
           <>
             <AuditEventsTable events={events.data.items} studyTitles={studyTitles} busy={events.isFetching} />
-            <Paging total={events.data.total} page={page} onPage={(next) => setParam('page', next > 1 ? String(next) : null)} />
+            <Pager label="Audit trail pages" noun={['event', 'events']} pageSize={pageSize} total={events.data.total} page={page} onPage={(next) => setParam('page', next > 1 ? String(next) : null)} />
           </>
         )}
       </section>
     </div>
-  );
-}
-
-function Paging({ total, page, onPage }: { total: number; page: number; onPage: (page: number) => void }) {
-  const rows = pageWindow(page, pageSize, total);
-  return (
-    <nav aria-label="Audit trail pages" className="flex items-center justify-between gap-3 text-sm text-ink-muted">
-      <p aria-live="polite">
-        {rows.pageCount === 1
-          ? `${total} ${total === 1 ? 'event' : 'events'}`
-          : rows.firstRow === 0
-            ? `No rows on page ${page}`
-            : `${rows.firstRow}–${rows.lastRow} of ${total}`}
-      </p>
-      <div className="flex items-center gap-2">
-        <span className="tabular-nums">
-          Page {page} of {rows.pageCount}
-        </span>
-        <Button onClick={() => onPage(page - 1)} disabled={!rows.hasPrevious}>
-          Previous
-        </Button>
-        <Button onClick={() => onPage(page + 1)} disabled={!rows.hasNext}>
-          Next
-        </Button>
-      </div>
-    </nav>
   );
 }

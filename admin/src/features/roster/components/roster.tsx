@@ -2,11 +2,12 @@ import { Input } from '@headlessui/react';
 import { useEffect, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
+import { Pager } from '@/components/ui/pager';
 import { inputRecipe } from '@/components/ui/recipes';
 import { EmptyState, ErrorState, LoadingState, Notice } from '@/components/ui/states';
 import { useDebouncedValue } from '@/hooks/use-debounced-value';
 import { ApiError } from '@/lib/api-error';
-import { pageWindow, parsePageParam } from '@/lib/paging';
+import { parsePageParam } from '@/lib/paging';
 import type { ParticipationChange } from '../api/change-participation';
 import { useReconsentCount, useRoster, type EnrollmentStatus, type RosterEntry } from '../api/get-roster';
 import { enrollmentStatusLabels, enrollmentStatusOrder } from './enrollment-status-badge';
@@ -186,7 +187,7 @@ export function Roster({ studyId, blinded, canManage, recordHref, factorKeys }: 
               setChange({ change: kind, entry });
             }}
           />
-          <Paging total={roster.data.total} page={page} onPage={(next) => setParams({ page: next > 1 ? String(next) : null }, { keepPage: true })} />
+          <Pager label="Roster pages" noun={['person', 'people']} pageSize={pageSize} total={roster.data.total} page={page} onPage={(next) => setParams({ page: next > 1 ? String(next) : null }, { keepPage: true })} />
         </>
       )}
 
@@ -213,31 +214,5 @@ export function Roster({ studyId, blinded, canManage, recordHref, factorKeys }: 
         </>
       )}
     </div>
-  );
-}
-
-function Paging({ total, page, onPage }: { total: number; page: number; onPage: (page: number) => void }) {
-  const rows = pageWindow(page, pageSize, total);
-  return (
-    <nav aria-label="Roster pages" className="flex items-center justify-between gap-3 text-sm text-ink-muted">
-      <p aria-live="polite">
-        {rows.pageCount === 1
-          ? `${total} ${total === 1 ? 'person' : 'people'}`
-          : rows.firstRow === 0
-            ? `No rows on page ${page}`
-            : `${rows.firstRow}–${rows.lastRow} of ${total}`}
-      </p>
-      <div className="flex items-center gap-2">
-        <span className="tabular-nums">
-          Page {page} of {rows.pageCount}
-        </span>
-        <Button onClick={() => onPage(page - 1)} disabled={!rows.hasPrevious}>
-          Previous
-        </Button>
-        <Button onClick={() => onPage(page + 1)} disabled={!rows.hasNext}>
-          Next
-        </Button>
-      </div>
-    </nav>
   );
 }

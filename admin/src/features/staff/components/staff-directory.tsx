@@ -2,12 +2,13 @@ import { Input } from '@headlessui/react';
 import { useEffect, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
+import { Pager } from '@/components/ui/pager';
 import { ModalDialog } from '@/components/ui/modal-dialog';
 import { inputRecipe } from '@/components/ui/recipes';
 import { EmptyState, ErrorState, LoadingState, Notice } from '@/components/ui/states';
 import { useDebouncedValue } from '@/hooks/use-debounced-value';
 import { ApiError } from '@/lib/api-error';
-import { pageWindow, parsePageParam } from '@/lib/paging';
+import { parsePageParam } from '@/lib/paging';
 import { useStaffUsers, type StaffUser } from '../api/get-staff-users';
 import { CreateStaffUserForm } from './create-staff-user-form';
 import { EditStaffUserForm } from './edit-staff-user-form';
@@ -128,7 +129,7 @@ export function StaffDirectory({ currentUserId }: { currentUserId: string }) {
             onEdit={(user) => openDialog({ kind: 'edit', user })}
             onToggleActive={(user) => openDialog({ kind: 'activation', user })}
           />
-          <Paging total={staffUsers.data.total} page={page} onPage={goToPage} />
+          <Pager label="Staff pages" noun={['person', 'people']} pageSize={pageSize} total={staffUsers.data.total} page={page} onPage={goToPage} />
         </>
       )}
 
@@ -170,31 +171,5 @@ export function StaffDirectory({ currentUserId }: { currentUserId: string }) {
         }}
       />
     </section>
-  );
-}
-
-function Paging({ total, page, onPage }: { total: number; page: number; onPage: (page: number) => void }) {
-  const rows = pageWindow(page, pageSize, total);
-  return (
-    <nav aria-label="Staff pages" className="flex items-center justify-between gap-3 text-sm text-ink-muted">
-      <p aria-live="polite">
-        {rows.pageCount === 1
-          ? `${total} ${total === 1 ? 'person' : 'people'}`
-          : rows.firstRow === 0
-            ? `No rows on page ${page}`
-            : `${rows.firstRow}–${rows.lastRow} of ${total}`}
-      </p>
-      <div className="flex items-center gap-2">
-        <span className="tabular-nums">
-          Page {page} of {rows.pageCount}
-        </span>
-        <Button onClick={() => onPage(page - 1)} disabled={!rows.hasPrevious}>
-          Previous
-        </Button>
-        <Button onClick={() => onPage(page + 1)} disabled={!rows.hasNext}>
-          Next
-        </Button>
-      </div>
-    </nav>
   );
 }
