@@ -16,6 +16,7 @@ import { MailService } from '../mail/mail.service';
 import { RandomizationService } from '../randomization/randomization.service';
 import { StepsService } from '../steps/steps.service';
 import { PayoutsService } from '../payouts/payouts.service';
+import { PostgresThrottlerStorage } from '../rate-limit/postgres-throttler.storage';
 import { StudyEntity } from '../studies/entities/study.entity';
 import { StudiesService } from '../studies/studies.service';
 import { UsersService } from '../users/users.service';
@@ -39,6 +40,7 @@ import { evaluateScreening } from './screening-rules';
 export const RANDOMIZED_STATUSES: EnrollmentStatus[] = ['assigned', 'active', 'completed', 'withdrew', 'lost'];
 /** Wrong completion codes allowed per enrollment per 15 minutes. */
 const WRONG_CODE_LIMIT = 5;
+const WRONG_CODE_WINDOW_MS = 15 * 60 * 1000;
 const CLOSED_STATUSES: EnrollmentStatus[] = ['excluded', 'withdrew', 'lost', 'completed'];
 
 /** Keeps a browser-reported time zone only when the runtime knows it; the signed copy then shows local time too. */
@@ -313,17 +315,13 @@ export class EnrollmentsService implements OnModuleInit {
   async completeStepWithCode(user: SessionUser, studyId: string, stepId: string, code: string): Promise<MyEnrollmentDto> {
     const enrollment = await this.requireMine(this.dataSource.manager, user, studyId);
     const limiterKey = `wrong-code:${enrollment.id}`;
-    const [attempts] = await this.dataSource.query(`SELECT hits FROM rate_limit_window WHERE key = $1 AND window_ends_at > now()`, [limiterKey]);
-    if (attempts && Number(attempts.hits) >= WRONG_CODE_LIMIT) {
+    // Only wrong codes count, so the same window store as sign-in is used directly rather than as a route guard.
+    const limiter = new PostgresThrottlerStorage(this.dataSource);
+    if ((await limiter.hitsInWindow(limiterKey)) >= WRONG_CODE_LIMIT) {
       throw new DomainException('RATE_LIMITED', 'Too many wrong codes. Please wait 15 minutes, or ask the research team to check the step off.');
     }
     if (!(await this.steps.codeMatches(studyId, stepId, code))) {
-      await this.dataSource.query(
-        `INSERT INTO rate_limit_window (key, hits, window_ends_at) VALUES ($1, 1, now() + interval '15 minutes')
-         ON CONFLICT (key) DO UPDATE SET hits = CASE WHEN rate_limit_window.window_ends_at <= now() THEN 1 ELSE rate_limit_window.hits + 1 END,
-           window_ends_at = CASE WHEN rate_limit_window.window_ends_at <= now() THEN EXCLUDED.window_ends_at ELSE rate_limit_window.window_ends_at END`,
-        [limiterKey],
-      );
+      await limiter.increment(limiterKey, WRONG_CODE_WINDOW_MS, WRONG_CODE_LIMIT);
       throw new DomainException('VALIDATION_FAILED', 'That code does not match this step.', [{ field: 'code', message: 'does not match; check it and try again' }]);
     }
     await this.dataSource.transaction((manager) =>
