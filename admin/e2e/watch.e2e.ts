@@ -45,7 +45,8 @@ describe('dropout watch', () => {
     // The curves: one step line per condition and the log-rank line.
     const curves = page.getByRole('region', { name: 'Dropout over time' });
     await curves.scrollIntoViewIfNeeded();
-    await curves.locator('.recharts-line-curve').first().waitFor();
+    // A condition nobody has left yet draws a flat line, which has no height: wait for it to exist, not to be visible.
+    await curves.locator('.recharts-line-curve').nth(2).waitFor({ state: 'attached' });
     expect(await curves.locator('.recharts-line-curve').count()).toBe(3);
     expect(await page.getByTestId('log-rank').textContent()).toMatch(/Log-rank test across conditions: χ²\(2\) = \d+\.\d\d, p [=<>]/);
     expect(await page.getByRole('link', { name: 'Download data (CSV)' }).getAttribute('href')).toMatch(/\/api\/studies\/[0-9a-f-]{36}\/export\.csv$/);
