@@ -261,6 +261,9 @@ describe('signing', () => {
     const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
     expect(me).toMatchObject({ next: 're-consent', consent: { needsSignature: true, activeVersionId: amended.id } });
     expect(me.steps.every((s: { status: string }) => s.status === 'locked')).toBe(true);
+    // This study's steps have no completion codes: staff check them off.
+    expect(me.steps.length).toBeGreaterThan(0);
+    expect(me.steps.every((s: { hasCompletionCode: boolean }) => s.hasCompletionCode === false)).toBe(true);
     const roster = await expectStatus(coordinator.get(`/api/studies/${studyId}/enrollments`).query({ needsReconsent: true }), 200);
     expect(roster.total).toBe(1);
     const reminded = await expectStatus(coordinator.post(`/api/studies/${studyId}/enrollments/reconsent-reminders`), 200);

@@ -55,6 +55,7 @@ async function paidStudyWithParticipant() {
     201,
   );
   const steps = (await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200)).steps;
+  expect(steps.map((s: { hasCompletionCode: boolean }) => s.hasCompletionCode)).toEqual([true, true]);
   return { studyId, browser, email, steps: steps as Array<{ id: string; title: string }> };
 }
 

@@ -1736,6 +1736,8 @@ export interface components {
             /** @enum {string} */
             status: "open" | "done" | "locked";
             completedAt: string | null;
+            /** @description Whether the participant finishes this step by entering a code; without one, staff check it off. */
+            hasCompletionCode: boolean;
         };
         EarnedDto: {
             earnedMinor: number;

@@ -171,6 +171,7 @@ export class EnrollmentsService implements OnModuleInit {
           payMinor: step.payOverrides.find((o) => o.conditionId === enrollment.conditionId)?.payMinor ?? step.payMinor,
           status: done ? ('done' as const) : open ? ('open' as const) : ('locked' as const),
           completedAt: done?.completedAt.toISOString() ?? null,
+          hasCompletionCode: step.hasCompletionCode,
         };
       }),
       earned,

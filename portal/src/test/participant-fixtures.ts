@@ -64,9 +64,9 @@ export function enrollment(overrides: Partial<MyEnrollment> = {}): MyEnrollment 
     consent: { activeVersionId: versionId, signedVersionId: null, needsSignature: true, signedAt: null },
     assignment: null,
     steps: [
-      { id: 's1', position: 1, title: 'First session', description: 'Three routes on screen.', payMinor: 1250, status: 'locked', completedAt: null },
-      { id: 's2', position: 2, title: 'Second session', description: 'Three more routes.', payMinor: 1500, status: 'locked', completedAt: null },
-      { id: 's3', position: 3, title: 'Follow-up questions', description: 'Ten minutes, online.', payMinor: 1000, status: 'locked', completedAt: null },
+      { id: 's1', position: 1, title: 'First session', description: 'Three routes on screen.', payMinor: 1250, status: 'locked', completedAt: null, hasCompletionCode: true },
+      { id: 's2', position: 2, title: 'Second session', description: 'Three more routes.', payMinor: 1500, status: 'locked', completedAt: null, hasCompletionCode: true },
+      { id: 's3', position: 3, title: 'Follow-up questions', description: 'Ten minutes, online.', payMinor: 1000, status: 'locked', completedAt: null, hasCompletionCode: false },
     ],
     earned: { earnedMinor: 0, paidMinor: 0, stillToBePaidMinor: 0 },
     withdrewAt: null,

@@ -32,6 +32,8 @@ export class MyStepDto {
   @ApiProperty() payMinor: number;
   @ApiProperty({ enum: ['open', 'done', 'locked'] }) status: 'open' | 'done' | 'locked';
   @ApiProperty({ nullable: true, type: String }) completedAt: string | null;
+  @ApiProperty({ description: 'Whether the participant finishes this step by entering a code; without one, staff check it off.' })
+  hasCompletionCode: boolean;
 }
 
 export class EarnedDto {

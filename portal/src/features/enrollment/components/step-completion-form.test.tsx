@@ -14,6 +14,7 @@ const afterFirstStep = signedEnrollment({
     ...step,
     status: index === 0 ? 'done' : index === 1 ? 'open' : 'locked',
     completedAt: index === 0 ? '2026-02-05T10:00:00.000Z' : null,
+    hasCompletionCode: true,
   })),
   earned: { earnedMinor: 1250, paidMinor: 0, stillToBePaidMinor: 1250 },
 });
@@ -51,6 +52,17 @@ describe('finishing a step with its completion code', () => {
     expect(step.getByLabelText('Completion code')).toHaveAccessibleDescription(/Shown at the end of this step/);
     expect(screen.getAllByRole('button', { name: 'I finished this step' })).toHaveLength(1);
     expect(screen.getByRole('link', { name: 'Getting paid' })).toHaveAttribute('href', '/payouts');
+  });
+
+  it('says staff mark a step done when it has no code, and offers no code form there', async () => {
+    const noCode = signedEnrollment();
+    noCode.steps = noCode.steps.map((step, index) => (index === 0 ? { ...step, hasCompletionCode: false } : step));
+    atSteps({ [`GET ${enrollmentPath}`]: { status: 200, body: noCode } });
+    const { step } = await openFirstStep();
+
+    expect(step.getByText(/There is no code to enter for this step: the research team marks it done/)).toBeInTheDocument();
+    expect(step.queryByLabelText('Completion code')).not.toBeInTheDocument();
+    expect(screen.queryByRole('button', { name: 'I finished this step' })).not.toBeInTheDocument();
   });
 
   it('asks for the code and sends nothing when it is left empty', async () => {

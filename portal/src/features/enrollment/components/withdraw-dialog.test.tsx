@@ -14,6 +14,7 @@ const afterFirstStep = signedEnrollment({
     ...step,
     status: index === 0 ? 'done' : index === 1 ? 'open' : 'locked',
     completedAt: index === 0 ? '2026-02-05T10:00:00.000Z' : null,
+    hasCompletionCode: true,
   })),
 });
 const withdrawn = {

@@ -77,7 +77,12 @@ export function YourSteps({ studyId, steps, currency, earned, contactEmail, onNe
                 {step.status === 'done' && step.id === justCompletedId ? (
                   <StepDoneNotice stepNumber={index + 1} pay={money(step.payMinor)} />
                 ) : null}
-                {step.status === 'open' ? (
+                {step.status === 'open' && !step.hasCompletionCode ? (
+                  <p className="text-fine">
+                    There is no code to enter for this step: the research team marks it done once they have your results.
+                  </p>
+                ) : null}
+                {step.status === 'open' && step.hasCompletionCode ? (
                   <StepCompletionForm
                     studyId={studyId}
                     stepId={step.id}
