@@ -1,5 +1,6 @@
-import { startPaymentsFake } from './app/payments-fake-app';
+import { startPaymentsFake, type RunningPaymentsFake } from './app/payments-fake-app';
 import { ConfigError, readConfig } from './config/payments-fake-config';
+import { StateFileError } from './state/state-file';
 
 async function main(): Promise<void> {
   let config;
@@ -12,15 +13,33 @@ async function main(): Promise<void> {
     }
     throw error;
   }
-  const running = await startPaymentsFake(config);
+  let running: RunningPaymentsFake;
+  try {
+    running = await startPaymentsFake(config);
+  } catch (error) {
+    if (error instanceof StateFileError) {
+      console.error(
+        `payments-fake: cannot start: ${error.message}. Fix the file or move it away to start empty (PAYMENTS_FAKE_STATE_FILE).`,
+      );
+      process.exit(1);
+    }
+    throw error;
+  }
+  const state =
+    running.stateFile === null
+      ? 'state in memory only'
+      : `state in ${running.stateFile}, ${running.restoredSavedAt ? `restored from the copy saved ${running.restoredSavedAt}` : 'starting empty'}`;
   console.log(
-    `payments-fake listening on ${running.url} (webhooks ${config.webhookUrl ?? 'off'}, hosted pages ${config.publicUrl}, browser script ${running.url}/v1/stripe.js)`,
+    `payments-fake listening on ${running.url} (webhooks ${config.webhookUrl ?? 'off'}, hosted pages ${config.publicUrl}, browser script ${running.url}/v1/stripe.js, ${state})`,
   );
   const stop = (signal: string) => {
     console.log(`payments-fake: ${signal}, shutting down`);
     running.close().then(
       () => process.exit(0),
-      () => process.exit(1),
+      (error: unknown) => {
+        console.error('payments-fake: shutting down failed', error);
+        process.exit(1);
+      },
     );
   };
   process.once('SIGINT', () => stop('SIGINT'));

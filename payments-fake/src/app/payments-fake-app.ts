@@ -1,5 +1,6 @@
 // Assembles the stand-in: the provider's REST API under /v1, the browser script at /v1/stripe.js,
-// the hosted onboarding pages, the control routes under /_control and GET /health.
+// the hosted onboarding pages, the control routes under /_control and GET /health; with a state
+// file, restores the saved world before listening and keeps the file up to date.
 
 import type { AddressInfo } from 'node:net';
 import type { Server } from 'node:http';
@@ -15,6 +16,9 @@ import { paymentIntentRoutes } from '../resources/payment-intents';
 import { payoutRoutes } from '../resources/payouts';
 import { transferRoutes } from '../resources/transfers';
 import { ProviderWorld, type ProviderWorldOptions } from '../state/provider-world';
+import { checkStateFolder, readStateFile } from '../state/state-file';
+import { StateSaver } from '../state/state-saver';
+import { restoreWorld, resumeWorld } from '../state/world-snapshot';
 import { providerApiRouter } from './provider-api';
 import type { ProviderRoute } from './provider-route';
 
@@ -40,6 +44,8 @@ export interface PaymentsFakeOptions {
   webhookTimeoutMs?: number;
   /** The built browser script to serve at /v1/stripe.js (default: dist/browser of this package). */
   browserScriptFile?: string;
+  /** Keeps the world in this file across restarts (see state/state-saver.ts); absent: memory only. */
+  stateFile?: string | null;
 }
 
 // Growing retry delays, after the provider's practice of retrying failed deliveries with
@@ -64,6 +70,12 @@ export function createPaymentsFakeApp(world: ProviderWorld, options: { browserSc
   const app = express();
   app.disable('x-powered-by');
   app.set('etag', false);
+  // Told after every request, GETs included: opening an onboarding link uses it up, and a fault
+  // switch counts down on any call. The state saver skips the write when nothing changed.
+  app.use((_req: Request, res: Response, next: NextFunction) => {
+    res.once('close', () => world.noteChange());
+    next();
+  });
   app.get('/health', (_req, res) => {
     res.json({ status: 'ok' });
   });
@@ -86,33 +98,67 @@ export interface RunningPaymentsFake {
   port: number;
   world: ProviderWorld;
   server: Server;
+  /** The state file in use, or null when the state lives in memory only. */
+  stateFile: string | null;
+  /** `savedAt` of the snapshot the world was restored from; null when it started empty. */
+  restoredSavedAt: string | null;
   close(): Promise<void>;
 }
 
-/** Starts the stand-in on host:port (port 0 picks a free one). */
-export function startPaymentsFake(options: PaymentsFakeOptions & { host: string; port: number }): Promise<RunningPaymentsFake> {
-  const world = new ProviderWorld(worldOptions(options));
-  const app = createPaymentsFakeApp(world, { browserScriptFile: options.browserScriptFile });
+function listen(app: express.Express, host: string, port: number): Promise<Server> {
   return new Promise((resolve, reject) => {
-    const server = app.listen(options.port, options.host);
+    const server = app.listen(port, host);
     server.once('error', reject);
-    server.once('listening', () => {
-      const address = server.address() as AddressInfo;
-      const host = address.family === 'IPv6' ? `[${address.address}]` : address.address;
-      const url = `http://${host}:${address.port}`;
-      if (!options.publicUrl) world.publicUrl = url;
-      resolve({
-        url,
-        port: address.port,
-        world,
-        server,
-        close: () =>
-          new Promise<void>((done, fail) => {
-            world.close();
-            server.close((error) => (error ? fail(error) : done()));
-            server.closeAllConnections();
-          }),
-      });
-    });
+    server.once('listening', () => resolve(server));
   });
+}
+
+/**
+ * Starts the stand-in on host:port (port 0 picks a free one). With `stateFile`, a saved world is
+ * restored first; an unreadable file, or one that is not a version 1 snapshot, rejects with a
+ * StateFileError naming the file, and the file is left as it is.
+ */
+export async function startPaymentsFake(options: PaymentsFakeOptions & { host: string; port: number }): Promise<RunningPaymentsFake> {
+  const world = new ProviderWorld(worldOptions(options));
+  const stateFile = options.stateFile ?? null;
+  let restoredSavedAt: string | null = null;
+  if (stateFile !== null) {
+    checkStateFolder(stateFile);
+    const snapshot = readStateFile(stateFile);
+    if (snapshot) {
+      restoreWorld(world, snapshot);
+      restoredSavedAt = snapshot.savedAt;
+    }
+  }
+  const app = createPaymentsFakeApp(world, { browserScriptFile: options.browserScriptFile });
+  let server: Server;
+  try {
+    server = await listen(app, options.host, options.port);
+  } catch (error) {
+    world.close();
+    throw error;
+  }
+  const address = server.address() as AddressInfo;
+  const host = address.family === 'IPv6' ? `[${address.address}]` : address.address;
+  const url = `http://${host}:${address.port}`;
+  if (!options.publicUrl) world.publicUrl = url;
+  const saver = stateFile === null ? undefined : new StateSaver(world, stateFile);
+  if (restoredSavedAt !== null) resumeWorld(world);
+  return {
+    url,
+    port: address.port,
+    world,
+    server,
+    stateFile,
+    restoredSavedAt,
+    close: async () => {
+      world.close();
+      await new Promise<void>((done, fail) => {
+        server.close((error) => (error ? fail(error) : done()));
+        server.closeAllConnections();
+      });
+      // After the server has stopped, so no request changes the world behind the last write.
+      saver?.close();
+    },
+  };
 }

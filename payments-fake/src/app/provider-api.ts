@@ -4,7 +4,7 @@
 // https://docs.stripe.com/api/versioning, https://docs.stripe.com/api/idempotent_requests).
 
 import express, { type NextFunction, type Request, type Response } from 'express';
-import { type ApiKeyKind, maskApiKey, requireTestKey } from '../auth/api-key';
+import { type ApiKeyKind, apiKeyFingerprint, maskApiKey, requireTestKey } from '../auth/api-key';
 import { FormBodyError, parseFormBody, type FormObject } from '../encoding/form-body';
 import { ParamReader } from '../encoding/param-reader';
 import { ProviderError, providerErrors } from '../errors/provider-error';
@@ -75,7 +75,7 @@ function runRoute(world: ProviderWorld, route: ProviderRoute) {
     const context = contextOf(res);
     if (context.keyKind === 'publishable' && !route.publishable) throw providerErrors.secretKeyRequired();
     const idempotencyKey = req.method === 'POST' ? (req.get('idempotency-key') ?? null) : null;
-    const scope = `${context.apiKey}|${context.account.id}`;
+    const scope = `${apiKeyFingerprint(context.apiKey)}|${context.account.id}`;
     const endpoint = `${req.method} ${req.path}`;
 
     if (idempotencyKey !== null) {

@@ -2,10 +2,17 @@
 export class Timers {
   private readonly handles = new Set<NodeJS.Timeout>();
 
+  /** `afterRun` is told after each timer has run (the world uses it to save what the timer changed). */
+  constructor(private readonly afterRun?: () => void) {}
+
   after(ms: number, run: () => void): void {
     const handle = setTimeout(() => {
       this.handles.delete(handle);
-      run();
+      try {
+        run();
+      } finally {
+        this.afterRun?.();
+      }
     }, ms);
     handle.unref();
     this.handles.add(handle);

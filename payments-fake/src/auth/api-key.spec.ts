@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { ProviderError } from '../errors/provider-error';
-import { maskApiKey, readApiKey, requireTestKey } from './api-key';
+import { apiKeyFingerprint, maskApiKey, readApiKey, requireTestKey } from './api-key';
 
 // https://docs.stripe.com/api/authentication: Bearer token, or the key as the Basic auth user name.
 describe('readApiKey', () => {
@@ -67,5 +67,14 @@ describe('maskApiKey', () => {
   it('keeps the prefix and the last four characters', () => {
     expect(maskApiKey('sk_test_abcdefghij1234')).toBe('sk_test_**********1234');
     expect(maskApiKey('short')).toBe('sho**');
+  });
+});
+
+describe('apiKeyFingerprint', () => {
+  it('is the first 32 hex digits of the SHA-256 of the key, so the key itself is never kept', () => {
+    // SHA-256("abc") = ba7816bf 8f01cfea 414140de 5dae2223 b00361a3 ..., FIPS 180-2 Appendix B.1.
+    expect(apiKeyFingerprint('abc')).toBe('ba7816bf8f01cfea414140de5dae2223');
+    expect(apiKeyFingerprint('sk_test_evenhand_a')).not.toBe(apiKeyFingerprint('sk_test_evenhand_b'));
+    expect(apiKeyFingerprint('sk_test_evenhand_a')).not.toContain('sk_test');
   });
 });

@@ -4,6 +4,7 @@
 // `pk_test_` key for the few calls the browser makes (https://docs.stripe.com/keys).
 // Pure: no framework imports.
 
+import { createHash } from 'node:crypto';
 import { providerErrors } from '../errors/provider-error';
 
 export const TEST_SECRET_KEY_PREFIX = 'sk_test_';
@@ -35,6 +36,11 @@ export function readApiKey(authorization: string | undefined): string | undefine
 export function maskApiKey(key: string): string {
   if (key.length <= 12) return `${key.slice(0, 3)}${'*'.repeat(Math.max(0, key.length - 3))}`;
   return `${key.slice(0, 8)}${'*'.repeat(key.length - 12)}${key.slice(-4)}`;
+}
+
+/** Stands for the key where it is kept (idempotency scopes, hence the state file) without holding the key. */
+export function apiKeyFingerprint(key: string): string {
+  return createHash('sha256').update(key).digest('hex').slice(0, 32);
 }
 
 /** Returns the key and its kind when it is a usable test key; throws the provider's 401 otherwise. */

@@ -22,4 +22,13 @@ export class Clock {
   reset(): void {
     this.offsetMs = 0;
   }
+
+  /** How far the clock was moved ahead of the real time, for the state file. */
+  toSnapshot(): { offsetMs: number } {
+    return { offsetMs: this.offsetMs };
+  }
+
+  restoreSnapshot(snapshot: { offsetMs: number }): void {
+    this.offsetMs = snapshot.offsetMs;
+  }
 }

@@ -1,3 +1,4 @@
+import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { ConfigError, readConfig } from './payments-fake-config';
 
@@ -11,7 +12,16 @@ describe('readConfig', () => {
       publicUrl: 'http://127.0.0.1:3200',
       fundsPendingMs: 0,
       payoutSettleMs: 2000,
+      stateFile: null,
     });
+  });
+
+  it('keeps the state in memory unless a state file is named, and makes its path absolute', () => {
+    expect(readConfig({ PAYMENTS_FAKE_STATE_FILE: '  ' }).stateFile).toBeNull();
+    expect(readConfig({ PAYMENTS_FAKE_STATE_FILE: '/srv/evenhand/payments-state.json' }).stateFile).toBe('/srv/evenhand/payments-state.json');
+    expect(readConfig({ PAYMENTS_FAKE_STATE_FILE: '.local/payments-state.json' }).stateFile).toBe(
+      path.join(process.cwd(), '.local/payments-state.json'),
+    );
   });
 
   it('follows the port in hosted links unless a public URL is given', () => {
@@ -33,6 +43,9 @@ describe('readConfig', () => {
       [{ PAYMENTS_FAKE_WEBHOOK_SECRET: 'whsec with space' }, 'PAYMENTS_FAKE_WEBHOOK_SECRET'],
       [{ PAYMENTS_FAKE_HOST: 'http://host' }, 'PAYMENTS_FAKE_HOST'],
       [{ PAYMENTS_FAKE_PAYOUT_SETTLE_MS: '-5' }, 'PAYMENTS_FAKE_PAYOUT_SETTLE_MS'],
+      [{ PAYMENTS_FAKE_STATE_FILE: '.local/' }, 'PAYMENTS_FAKE_STATE_FILE'],
+      [{ PAYMENTS_FAKE_STATE_FILE: '.local/..' }, 'PAYMENTS_FAKE_STATE_FILE'],
+      [{ PAYMENTS_FAKE_STATE_FILE: 'state\u0000.json' }, 'PAYMENTS_FAKE_STATE_FILE'],
     ];
     for (const [env, variable] of cases) {
       expect(() => readConfig(env)).toThrow(ConfigError);

@@ -1,6 +1,8 @@
 // Configuration from the environment, checked once at start; a bad value stops start-up with a
 // message naming the variable. Pure: no framework imports.
 
+import path from 'node:path';
+
 export interface PaymentsFakeConfig {
   port: number;
   host: string;
@@ -11,6 +13,8 @@ export interface PaymentsFakeConfig {
   publicUrl: string;
   fundsPendingMs: number;
   payoutSettleMs: number;
+  /** Absolute path of the file that keeps the state across restarts; null keeps it in memory only. */
+  stateFile: string | null;
 }
 
 export class ConfigError extends Error {
@@ -29,6 +33,8 @@ export const CONFIG_DEFAULTS = {
   PAYMENTS_FAKE_PUBLIC_URL: '',
   PAYMENTS_FAKE_FUNDS_PENDING_MS: '0',
   PAYMENTS_FAKE_PAYOUT_SETTLE_MS: '2000',
+  // Left empty, the state lives in memory only and is gone when the process stops.
+  PAYMENTS_FAKE_STATE_FILE: '',
 } as const;
 
 type Variable = keyof typeof CONFIG_DEFAULTS;
@@ -60,6 +66,18 @@ function readHttpUrl(env: NodeJS.ProcessEnv, variable: Variable): string {
   return text;
 }
 
+/** A file path, made absolute against the folder the process was started in. */
+function readFilePath(env: NodeJS.ProcessEnv, variable: Variable): string | null {
+  const text = read(env, variable);
+  if (text === '') return null;
+  if (/[\u0000\n\r]/.test(text)) throw new ConfigError(variable, 'must not contain NUL or line-break characters');
+  const name = path.basename(text);
+  if (/[\\/]$/.test(text) || name === '.' || name === '..') {
+    throw new ConfigError(variable, `must name a file, not a folder, got '${text}'`);
+  }
+  return path.resolve(text);
+}
+
 export function readConfig(env: NodeJS.ProcessEnv): PaymentsFakeConfig {
   const webhookText = read(env, 'PAYMENTS_FAKE_WEBHOOK_URL');
   const webhookSecret = read(env, 'PAYMENTS_FAKE_WEBHOOK_SECRET');
@@ -77,5 +95,6 @@ export function readConfig(env: NodeJS.ProcessEnv): PaymentsFakeConfig {
     publicUrl: publicUrl.replace(/\/+$/, ''),
     fundsPendingMs: readInteger(env, 'PAYMENTS_FAKE_FUNDS_PENDING_MS', 0, 7 * 24 * 60 * 60 * 1000),
     payoutSettleMs: readInteger(env, 'PAYMENTS_FAKE_PAYOUT_SETTLE_MS', 0, 7 * 24 * 60 * 60 * 1000),
+    stateFile: readFilePath(env, 'PAYMENTS_FAKE_STATE_FILE'),
   };
 }

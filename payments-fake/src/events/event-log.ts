@@ -83,4 +83,29 @@ export class EventLog {
     this.events = [];
     this.byId.clear();
   }
+
+  /**
+   * Every event in creation order, `pending_webhooks` telling whether it still awaits delivery.
+   * The live objects, to be serialised at once, not changed.
+   */
+  toSnapshot(): ProviderEvent[] {
+    return [...this.events];
+  }
+
+  /** Takes over events read back from the state file; nothing is delivered (see `requeueUndelivered`). */
+  restoreSnapshot(events: readonly ProviderEvent[]): void {
+    this.clear();
+    for (const event of events) {
+      if (this.byId.has(event.id)) throw new RangeError(`${event.id} appears twice`);
+      this.events.push(event);
+      this.byId.set(event.id, event);
+    }
+  }
+
+  /** Hands events still awaiting delivery to the dispatcher again, oldest first; returns how many. */
+  requeueUndelivered(): number {
+    const undelivered = this.events.filter((event) => event.pending_webhooks > 0);
+    for (const event of undelivered) this.deliver(event);
+    return undelivered.length;
+  }
 }

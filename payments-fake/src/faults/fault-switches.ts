@@ -92,6 +92,14 @@ export class FaultSwitches {
     this.current = noFaults();
   }
 
+  toSnapshot(): FaultSettings {
+    return this.settings();
+  }
+
+  restoreSnapshot(settings: FaultSettings): void {
+    this.current = structuredClone(settings);
+  }
+
   get latencyMs(): number {
     return this.current.latencyMs;
   }

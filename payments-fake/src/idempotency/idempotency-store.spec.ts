@@ -69,3 +69,27 @@ describe('canonicalJson', () => {
     expect(canonicalJson(sorted)).toBe(JSON.stringify(sorted));
   });
 });
+
+describe('IdempotencyStore snapshots', () => {
+  it('keeps finished requests, so a restored store still replays them and flags other parameters', () => {
+    const store = new IdempotencyStore();
+    store.begin({ ...base, params: { amount: '100' } });
+    store.complete(base.scope, 'k1', { status: 200, body: '{"id":"tr_1"}' });
+    const copy = new IdempotencyStore();
+    copy.restoreSnapshot(JSON.parse(JSON.stringify(store.toSnapshot())));
+    expect(copy.begin({ ...base, params: { amount: '100' }, requestId: 'req_9', nowMs: 1_000 })).toEqual({
+      kind: 'replay',
+      response: { status: 200, body: '{"id":"tr_1"}' },
+      originalRequestId: 'req_1',
+    });
+    expect(copy.begin({ ...base, params: { amount: '101' }, nowMs: 1_000 })).toEqual({ kind: 'params_mismatch' });
+    // Still forgotten 24 hours after the first request, counted from its saved time.
+    expect(copy.begin({ ...base, params: { amount: '101' }, nowMs: IDEMPOTENCY_TTL_MS })).toEqual({ kind: 'fresh' });
+  });
+
+  it('leaves out a request still running, whose key a restarted process could never release', () => {
+    const store = new IdempotencyStore();
+    store.begin({ ...base, params: {} });
+    expect(store.toSnapshot()).toEqual([]);
+  });
+});

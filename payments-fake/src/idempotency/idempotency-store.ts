@@ -16,11 +16,25 @@ export interface SavedResponse {
 }
 
 interface Entry {
+  scope: string;
+  key: string;
   endpoint: string;
   fingerprint: string;
   requestId: string;
   createdAtMs: number;
   response?: SavedResponse;
+}
+
+/** A finished request kept under its key, as the state file holds it. */
+export interface IdempotencyRecord {
+  scope: string;
+  key: string;
+  endpoint: string;
+  /** canonicalJson of the first request's parameters. */
+  fingerprint: string;
+  requestId: string;
+  createdAtMs: number;
+  response: SavedResponse;
 }
 
 export type IdempotencyOutcome =
@@ -60,6 +74,8 @@ export class IdempotencyStore {
       return { kind: 'replay', response: existing.response, originalRequestId: existing.requestId };
     }
     this.entries.set(entryKey, {
+      scope: request.scope,
+      key: request.key,
       endpoint: request.endpoint,
       fingerprint,
       requestId: request.requestId,
@@ -83,5 +99,22 @@ export class IdempotencyStore {
 
   clear(): void {
     this.entries.clear();
+  }
+
+  /**
+   * The finished requests, oldest first. Reservations of requests still running are left out:
+   * a restarted process never finishes them, and keeping them would refuse the key for 24 hours.
+   */
+  toSnapshot(): IdempotencyRecord[] {
+    const records: IdempotencyRecord[] = [];
+    for (const entry of this.entries.values()) {
+      if (entry.response) records.push({ ...entry, response: { ...entry.response } });
+    }
+    return records;
+  }
+
+  restoreSnapshot(records: readonly IdempotencyRecord[]): void {
+    this.clear();
+    for (const record of records) this.entries.set(this.entryKey(record.scope, record.key), { ...record, response: { ...record.response } });
   }
 }

@@ -58,3 +58,27 @@ describe('Ledger', () => {
     expect(() => ledger.creditAvailable('acct_p', 'usd', 10.5)).toThrow(RangeError);
   });
 });
+
+describe('Ledger snapshots', () => {
+  it('gives back the same balances and pending funds, released at their saved time', () => {
+    const ledger = new Ledger();
+    ledger.creditAvailable('acct_p', 'usd', 7_500);
+    ledger.creditAvailable('acct_c', 'eur', 300);
+    ledger.creditPending('acct_p', 'usd', 2_000, 1_000_000);
+    const copy = new Ledger();
+    copy.restoreSnapshot(JSON.parse(JSON.stringify(ledger.toSnapshot())));
+    expect(copy.toSnapshot()).toEqual(ledger.toSnapshot());
+    expect(copy.split('acct_p', 'usd')).toEqual(ledger.split('acct_p', 'usd'));
+    expect(copy.nextReleaseMs()).toBe(1_000_000);
+    expect(copy.releaseDue(999_999)).toEqual([]);
+    expect(copy.releaseDue(1_000_000)).toEqual([{ accountId: 'acct_p', currency: 'usd', amount: 2_000 }]);
+    expect(copy.availableAmount('acct_p', 'usd')).toBe(9_500);
+  });
+
+  it('replaces what it held before', () => {
+    const ledger = new Ledger();
+    ledger.creditAvailable('acct_old', 'usd', 1);
+    ledger.restoreSnapshot({ available: [], pending: [] });
+    expect(ledger.availableAmount('acct_old', 'usd')).toBe(0);
+  });
+});

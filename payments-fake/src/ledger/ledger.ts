@@ -15,11 +15,18 @@ export interface BalanceSplit {
   pending: CurrencyAmount[];
 }
 
-interface PendingFunds {
+export interface PendingFunds {
   accountId: string;
   currency: string;
   amount: number;
+  /** When the funds become available, on the stand-in's clock (ms). */
   availableOnMs: number;
+}
+
+/** The ledger as the state file keeps it: available amounts and pending funds with their release times. */
+export interface LedgerSnapshot {
+  available: Array<{ accountId: string; currency: string; amount: number }>;
+  pending: PendingFunds[];
 }
 
 export interface ReleasedFunds {
@@ -107,5 +114,21 @@ export class Ledger {
   clear(): void {
     this.available.clear();
     this.pending = [];
+  }
+
+  toSnapshot(): LedgerSnapshot {
+    const available: LedgerSnapshot['available'] = [];
+    for (const [accountId, wallet] of this.available) {
+      for (const [currency, amount] of wallet) available.push({ accountId, currency, amount });
+    }
+    return { available, pending: this.pending.map((funds) => ({ ...funds })) };
+  }
+
+  restoreSnapshot(snapshot: LedgerSnapshot): void {
+    this.clear();
+    for (const { accountId, currency, amount } of snapshot.available) this.setAvailable(accountId, currency, amount);
+    for (const { accountId, currency, amount, availableOnMs } of snapshot.pending) {
+      this.creditPending(accountId, currency, amount, availableOnMs);
+    }
   }
 }

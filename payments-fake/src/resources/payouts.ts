@@ -62,6 +62,11 @@ export function settlePayout(world: ProviderWorld, payoutId: string): boolean {
   return true;
 }
 
+/** Pays a pending payout after `delayMs` of real time (unless it was canceled or failed meanwhile). */
+export function schedulePayoutSettlement(world: ProviderWorld, payoutId: string, delayMs: number): void {
+  world.timers.after(Math.max(0, delayMs), () => settlePayout(world, payoutId));
+}
+
 /** Fails a pending payout and returns its amount to the balance it came from. */
 export function failPayout(world: ProviderWorld, payoutId: string, failureCode: string): Stripe.Payout | undefined {
   const payout = world.payouts.get(payoutId);
@@ -138,7 +143,7 @@ function createPayout(call: ProviderCall, world: ProviderWorld): Stripe.Payout {
     account: eventAccount(world, payout.id),
     request: { id: call.request.id, idempotencyKey: call.request.idempotencyKey },
   });
-  world.timers.after(world.options.payoutSettleMs, () => settlePayout(world, payout.id));
+  schedulePayoutSettlement(world, payout.id, world.options.payoutSettleMs);
   return expandObject(structuredClone(payout), expand, {});
 }
 

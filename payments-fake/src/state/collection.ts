@@ -31,4 +31,18 @@ export class Collection<T extends { id: string }> {
     this.byId.clear();
     this.order = [];
   }
+
+  /** The objects in creation order, for the state file (the live objects: serialise, don't change). */
+  toSnapshot(): T[] {
+    return [...this.order];
+  }
+
+  /** Takes over objects read back from the state file, in creation order. */
+  restoreSnapshot(items: readonly T[]): void {
+    this.clear();
+    for (const item of items) {
+      if (this.byId.has(item.id)) throw new RangeError(`${item.id} appears twice`);
+      this.add(item);
+    }
+  }
 }

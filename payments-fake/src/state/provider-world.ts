@@ -1,5 +1,6 @@
-// Everything one stand-in process remembers. Held in memory on purpose: it is a local
-// stand-in, and POST /_control/reset starts it afresh.
+// Everything one stand-in process remembers. Held in memory; when PAYMENTS_FAKE_STATE_FILE is set
+// the state saver (state-saver.ts) also keeps a copy on disk, told of changes through onChange.
+// POST /_control/reset starts it afresh.
 
 import type Stripe from 'stripe';
 import { Timers } from '../app/timers';
@@ -50,16 +51,20 @@ export interface ProviderWorldOptions {
   onboardingSessionTtlSeconds: number;
 }
 
+/** 'change': something may have changed; 'reset': everything was just forgotten. */
+export type WorldChange = 'change' | 'reset';
+
 export class ProviderWorld {
   readonly clock = new Clock();
   readonly ledger = new Ledger();
   readonly idempotency = new IdempotencyStore();
   readonly faults = new FaultSwitches();
-  readonly timers = new Timers();
+  readonly timers = new Timers(() => this.noteChange());
   readonly dispatcher: WebhookDispatcher;
   readonly events: EventLog;
 
-  readonly platformAccountId = objectId('acct', 16);
+  private platformId = objectId('acct', 16);
+  private readonly changeListeners = new Set<(change: WorldChange) => void>();
   readonly platformCountry = 'US';
   readonly platformCurrency = 'usd';
 
@@ -86,8 +91,30 @@ export class ProviderWorld {
       timeoutMs: options.webhookTimeoutMs,
       faults: () => this.faults.webhook,
       onDelivered: (eventId) => this.events.markDelivered(eventId),
+      onAttempt: () => this.noteChange(),
     });
     this.events = new EventLog(this.clock, DEFAULT_API_VERSION, (event) => this.dispatcher.enqueue(event));
+  }
+
+  /** The platform's own account id; random for a new world, kept by the state file across restarts. */
+  get platformAccountId(): string {
+    return this.platformId;
+  }
+
+  /** Only for restoring a saved world. */
+  restorePlatformAccountId(id: string): void {
+    this.platformId = id;
+  }
+
+  /** Listens for changes; returns the function that stops listening. */
+  onChange(listener: (change: WorldChange) => void): () => void {
+    this.changeListeners.add(listener);
+    return () => this.changeListeners.delete(listener);
+  }
+
+  /** Called after anything that may have changed the world (a request, a timer, a delivery). */
+  noteChange(): void {
+    for (const listener of this.changeListeners) listener('change');
   }
 
   emit(event: NewEvent): void {
@@ -137,10 +164,11 @@ export class ProviderWorld {
     this.payouts.clear();
     this.payoutAccounts.clear();
     this.paymentIntents.clear();
+    for (const listener of this.changeListeners) listener('reset');
   }
 
   close(): void {
     this.timers.clearAll();
-    this.dispatcher.clear();
+    this.dispatcher.stop();
   }
 }

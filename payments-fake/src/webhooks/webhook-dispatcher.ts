@@ -22,6 +22,14 @@ export interface WebhookDispatcherOptions {
   timeoutMs: number;
   faults: () => WebhookFaults;
   onDelivered: (eventId: string) => void;
+  /** Told after each attempt is logged (delivered or not). */
+  onAttempt?: () => void;
+}
+
+/** What the dispatcher remembers beyond its queue: the attempt log and the events already received. */
+export interface DispatcherSnapshot {
+  attempts: DeliveryAttempt[];
+  delivered: string[];
 }
 
 export interface DeliveryAttempt {
@@ -136,10 +144,11 @@ export class WebhookDispatcher {
         this.delivered.add(event.id);
         this.options.onDelivered(event.id);
       }
-      return;
+    } else {
+      const retryDelay = this.options.retryDelaysMs[attempt - 1];
+      if (retryDelay !== undefined) this.schedule(delivery, retryDelay, attempt + 1);
     }
-    const retryDelay = this.options.retryDelaysMs[attempt - 1];
-    if (retryDelay !== undefined) this.schedule(delivery, retryDelay, attempt + 1);
+    this.options.onAttempt?.();
   }
 
   history(): DeliveryAttempt[] {
@@ -166,12 +175,28 @@ export class WebhookDispatcher {
     });
   }
 
-  clear(): void {
+  /** Drops everything queued or on the wire; the log stays (shutdown: the state file keeps it). */
+  stop(): void {
     this.generation += 1;
     this.timers.clearAll();
     this.reorderBatch = [];
+    this.settleIfIdle();
+  }
+
+  clear(): void {
+    this.stop();
     this.attempts.length = 0;
     this.delivered.clear();
-    this.settleIfIdle();
+  }
+
+  /** The log and the received set; the queue itself is not kept (the event log re-queues instead). */
+  toSnapshot(): DispatcherSnapshot {
+    return { attempts: this.history(), delivered: [...this.delivered] };
+  }
+
+  restoreSnapshot(snapshot: DispatcherSnapshot): void {
+    this.clear();
+    this.attempts.push(...snapshot.attempts.map((attempt) => ({ ...attempt })));
+    for (const eventId of snapshot.delivered) this.delivered.add(eventId);
   }
 }

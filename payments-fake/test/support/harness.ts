@@ -75,8 +75,9 @@ export interface Harness {
   close(): Promise<void>;
 }
 
-export async function startHarness(options: Partial<PaymentsFakeOptions> = {}): Promise<Harness> {
-  const receiver = await startWebhookReceiver();
+/** `receiver`: deliver to this receiver (kept open on close) instead of a new one of its own. */
+export async function startHarness(options: Partial<PaymentsFakeOptions> = {}, shared: { receiver?: WebhookReceiver } = {}): Promise<Harness> {
+  const receiver = shared.receiver ?? (await startWebhookReceiver());
   const fake = await startPaymentsFake({
     host: '127.0.0.1',
     port: 0,
@@ -109,7 +110,7 @@ export async function startHarness(options: Partial<PaymentsFakeOptions> = {}): 
     },
     close: async () => {
       await fake.close();
-      await receiver.close();
+      if (!shared.receiver) await receiver.close();
     },
   };
 }
