@@ -8,6 +8,8 @@ export type JobHandler<Payload> = (payload: Payload, jobId: string) => Promise<v
 
 /** Every kind of background job, so names are not spread as strings. */
 export const JOB_NAMES = { sendMail: 'mail.send', signedCopy: 'consent.signed-copy', sendPayout: 'payout.send', payoutReceipt: 'payout.receipt', evaluateAttritionAlerts: 'attrition.evaluate-alerts' } as const;
+/** Jobs fetched and run side by side per worker. */
+export const JOB_BATCH_SIZE = 10;
 export type JobName = (typeof JOB_NAMES)[keyof typeof JOB_NAMES];
 
 /**
@@ -40,7 +42,11 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
     if (!this.config.runWorkers) return;
     // Up to 10 jobs per fetch run side by side; each failure is reported for its own job (retried with back-off),
     // and the worker then completes only the jobs still active, i.e. the ones that succeeded.
-    await this.boss.work<Payload>(name, { pollingIntervalSeconds: 0.5, batchSize: 10 }, async (jobs) => {
+    let workerId = '';
+    workerId = await this.boss.work<Payload>(name, { pollingIntervalSeconds: 0.5, batchSize: JOB_BATCH_SIZE }, async (jobs) => {
+      // A full batch means more are waiting: fetch again at once instead of sleeping out the polling interval,
+      // which would otherwise cap every kind of job at one batch per half second.
+      if (jobs.length === JOB_BATCH_SIZE && workerId) this.boss.notifyWorker(workerId);
       const results = await Promise.allSettled(jobs.map((job) => handler(job.data, job.id)));
       for (const [i, result] of results.entries()) {
         if (result.status === 'rejected') {

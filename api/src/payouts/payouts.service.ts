@@ -272,8 +272,9 @@ export class PayoutsService implements OnModuleInit {
       const result = await m.update(PayoutEntity, { id: payoutId, status: In(['approved', 'sending']) }, { status: 'paid', providerTransferId: transferId, paidAt: new Date(), failureReason: null });
       if (!result.affected) return;
       const payout = await m.findOneOrFail(PayoutEntity, { where: { id: payoutId } });
-      await this.audit.record(m, { chain: payout.studyId, actor: null, action: 'payout.paid', subjectType: 'payout', subjectId: payoutId, data: { transferId, amountMinor: payout.amountMinor } });
       await this.jobs.enqueue(m, JOB_NAMES.payoutReceipt, { payoutId });
+      // Last: the audit chain's per-study lock is held from here to commit, so keep that stretch short.
+      await this.audit.record(m, { chain: payout.studyId, actor: null, action: 'payout.paid', subjectType: 'payout', subjectId: payoutId, data: { transferId, amountMinor: payout.amountMinor } });
     };
     if (manager) await run(manager);
     else await this.dataSource.transaction(run);
@@ -404,7 +405,9 @@ export class PayoutsService implements OnModuleInit {
 
   async reconciliation(studyId: string): Promise<ReconciliationDto> {
     await this.studies.require(studyId);
-    const transfers = await this.provider.transfers.list({ transfer_group: `study_${studyId}`, limit: 100 }).autoPagingToArray({ limit: 10_000 });
+    // Every page, however many: the SDK's autoPagingToArray stops at 10,000 items.
+    const transfers: Stripe.Transfer[] = [];
+    for await (const transfer of this.provider.transfers.list({ transfer_group: `study_${studyId}`, limit: 100 })) transfers.push(transfer);
     const ledger = await this.dataSource.getRepository(PayoutEntity).find({ where: { studyId } });
     return reconcile(
       ledger.map((p) => ({ id: p.id, status: p.status, amountMinor: p.amountMinor, transferId: p.providerTransferId })),
