@@ -10,6 +10,28 @@ mkdir -p "$TMPDIR"
 say() { printf '\033[1;36m[evenhand]\033[0m %s\n' "$*"; }
 fail() { printf '\033[1;31m[evenhand]\033[0m %s\n' "$*" >&2; exit 1; }
 
+# start_service NAME DIR COMMAND...: runs in its own process group (so stopping it stops its children too),
+# logging to $LOG_DIR/NAME.log; stop_services stops every one started so far.
+SERVICE_PIDS=()
+start_service() {
+  local name="$1" dir="$2"
+  shift 2
+  mkdir -p "$LOG_DIR"
+  (cd "$dir" && exec setsid "$@") >"$LOG_DIR/$name.log" 2>&1 &
+  SERVICE_PIDS+=($!)
+}
+
+stop_services() {
+  local pid
+  for pid in "${SERVICE_PIDS[@]}"; do kill -TERM -- "-$pid" 2>/dev/null || kill -TERM "$pid" 2>/dev/null || true; done
+  # Give them a moment to finish writing (the stand-in saves its state on the way out), then make sure.
+  for pid in "${SERVICE_PIDS[@]}"; do
+    for _ in 1 2 3 4 5 6 7 8 9 10; do kill -0 "$pid" 2>/dev/null || break; sleep 0.2; done
+    kill -KILL -- "-$pid" 2>/dev/null || true
+  done
+  SERVICE_PIDS=()
+}
+
 as_root() {
   if [ "$(id -u)" -eq 0 ]; then "$@"; elif command -v sudo >/dev/null; then sudo "$@"; else fail "Need root for: $*"; fi
 }

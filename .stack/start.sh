@@ -33,8 +33,17 @@ export PAYMENTS_FAKE_WEBHOOK_URL="http://127.0.0.1:$API_PORT/api/webhooks/paymen
 build_servers
 say "Migrating the database"
 (cd "$ROOT/api" && node dist/database/run-migrations.js)
-say "Loading the demo scenario"
+# The stand-in keeps its state in a file, so accounts, transfers and balance match the database across restarts.
+export PAYMENTS_FAKE_STATE_FILE="${PAYMENTS_FAKE_STATE_FILE:-$LOCAL_DIR/payments-fake/state.json}"
+mkdir -p "$(dirname "$PAYMENTS_FAKE_STATE_FILE")"
+LOG_DIR="$LOCAL_DIR/logs"
+say "Loading the demo scenario (its payouts go through the payments stand-in, started for it)"
+trap 'stop_services; stop_postgres' EXIT
+start_service demo-payments "$ROOT/payments-fake" node dist/main.js
+wait_for_url "http://127.0.0.1:$PAYMENTS_PORT/health" 60
 (cd "$ROOT/api" && node dist/database/seed/run-seed.js)
+stop_services
+trap 'stop_postgres' EXIT
 mkdir -p "$LOCAL_DIR/mailbox"
 
 cat <<INFO

@@ -19,14 +19,10 @@ REPORT_DIR="$RUN_DIR/reports"
 LOG_DIR="$LOCAL_DIR/test-logs"
 mkdir -p "$REPORT_DIR" "$LOG_DIR"
 rm -f "$LOG_DIR"/*.log
-SERVICE_PIDS=()
 FAILED_STEPS=()
 
 cleanup() {
-  local pid
-  for pid in "${SERVICE_PIDS[@]}"; do kill -TERM -- "-$pid" 2>/dev/null || kill -TERM "$pid" 2>/dev/null || true; done
-  sleep 0.5
-  for pid in "${SERVICE_PIDS[@]}"; do kill -KILL -- "-$pid" 2>/dev/null || true; done
+  stop_services
   stop_postgres
   rm -rf "$RUN_DIR"
   # A fallback cluster folder outside the project (see choose_pg_parent) goes too.
@@ -34,14 +30,6 @@ cleanup() {
 }
 trap cleanup EXIT
 trap 'exit 130' INT TERM
-
-# start_service NAME DIR COMMAND...: runs in its own process group so cleanup stops its children too.
-start_service() {
-  local name="$1" dir="$2"
-  shift 2
-  (cd "$dir" && exec setsid "$@") >"$LOG_DIR/$name.log" 2>&1 &
-  SERVICE_PIDS+=($!)
-}
 
 # step NAME COMMAND...: runs one group of tests; a failure is recorded and the remaining groups still run.
 step() {

@@ -9,6 +9,7 @@ import type { SchemeMethod } from '../../randomization/scheme-parameters';
 import { StepsService } from '../../steps/steps.service';
 import { StudiesService } from '../../studies/studies.service';
 import { UsersService } from '../../users/users.service';
+import { playDemoPayouts } from './play-demo-payouts';
 import { DEMO_LAB, DEMO_MEMBERSHIPS, DEMO_STUDIES, DemoStudy, demoParticipantEmail } from './demo-scenario';
 
 const DEMO_CLIENT = { ip: '127.0.0.1', userAgent: 'Evenhand demo loader' };
@@ -120,6 +121,7 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
     }
     // Only people on the current consent version can go on with their steps; the rest wait to re-consent.
     if (demo.history) await playHistory(app, coordinator, study.id, demo, signedUp.slice(0, demo.amendment?.resign ?? signedUp.length));
+    if (demo.pay) await playDemoPayouts(app, coordinator, study.id, demo, signedUp);
     built.push(demo.slug);
   }
   return built;
@@ -144,15 +146,22 @@ async function playHistory(app: INestApplicationContext, coordinator: SessionUse
   const stepIds: string[] = (await dataSource.query(`SELECT id FROM step WHERE study_id = $1 ORDER BY position`, [studyId])).map((r: { id: string }) => r.id);
   const day = 24 * 3600 * 1000;
   const now = Date.now();
+  // Who stops is drawn from each person's place within their condition, not from the random allocation's order, so
+  // every run of the demo tells the same story (each condition loses someone; "no cues" loses the most).
+  const placeInCondition = new Map<string, number>();
   for (const [i, person] of people.entries()) {
     const [row] = await dataSource.query(`SELECT id, condition_id FROM enrollment WHERE study_id = $1 AND participant_id = $2`, [studyId, person.id]);
-    const dropRate = history.dropoutByCondition[internalNameOf.get(row.condition_id) ?? ''] ?? 0.15;
+    const internalName = internalNameOf.get(row.condition_id) ?? '';
+    const dropRate = history.dropoutByCondition[internalName] ?? 0.15;
+    const place = placeInCondition.get(row.condition_id) ?? 0;
+    placeInCondition.set(row.condition_id, place + 1);
+    const draw = place + 100 * Math.max(0, demo.conditions.findIndex((c) => c.internalName === internalName));
     const assignedAt = new Date(now - (history.days - (i * history.days) / people.length) * day);
     // Every step of the way, a person may stop; those who stop are withdrawn or, if they went quiet, lost.
     let stepsDone = 0;
     let stoppedAfter: number | null = null;
     for (let s = 0; s < stepIds.length; s++) {
-      if (demoChance(i, s + 1) < dropRate / stepIds.length + (s === 0 ? dropRate / 3 : 0)) {
+      if (demoChance(draw, s + 1) < dropRate / stepIds.length + (s === 0 ? dropRate / 3 : 0)) {
         stoppedAfter = s;
         break;
       }
@@ -168,10 +177,10 @@ async function playHistory(app: INestApplicationContext, coordinator: SessionUse
     }
     const stoppedAt = new Date(assignedAt.getTime() + ((stoppedAfter ?? 0) + 0.5) * history.daysBetweenSteps * day);
     if (stoppedAfter !== null && stoppedAt.getTime() < now) {
-      if (demoChance(i, 99) < 0.5) {
+      if (demoChance(draw, 99) < 0.5) {
         await enrollments.withdrawOnBehalf(coordinator, studyId, row.id, history.withdrawalReasons[i % history.withdrawalReasons.length]);
         await dataSource.query(`UPDATE enrollment SET withdrew_at = $1 WHERE id = $2`, [stoppedAt, row.id]);
-      } else if (stepsDone > 0 || demoChance(i, 7) < 0.5) {
+      } else if (stepsDone > 0 || demoChance(draw, 7) < 0.5) {
         await dataSource.query(`UPDATE enrollment SET status = 'active' WHERE id = $1 AND status = 'assigned'`, [row.id]);
         await enrollments.markLost(coordinator, studyId, row.id, 'No reply to three reminders');
         await dataSource.query(`UPDATE enrollment SET lost_at = $1 WHERE id = $2`, [stoppedAt, row.id]);

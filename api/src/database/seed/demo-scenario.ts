@@ -49,6 +49,12 @@ export interface DemoStudy {
   amendment?: { approvalReference: string; note: string; resign: number };
   /** Invented history for the dropout watch: probability of stopping, by condition (internal name). */
   history?: { days: number; daysBetweenSteps: number; dropoutByCondition: Record<string, number>; withdrawalReasons: string[] };
+  /**
+   * Money so far: card fundings (days ago), payouts approved and paid when they were older than `paidAfterDays`,
+   * the last `notSetUp` payees never set up getting paid, and one payout that failed because its payee had not
+   * finished setting up yet (they have since, so a retry goes through).
+   */
+  pay?: { fundings: Array<{ amountMinor: number; daysAgo: number }>; paidAfterDays?: number; notSetUp?: number; failedOnce?: boolean };
 }
 
 export const DEMO_STUDIES: DemoStudy[] = [
@@ -103,6 +109,15 @@ export const DEMO_STUDIES: DemoStudy[] = [
       dropoutByCondition: { 'audio cues': 0.12, 'map cues': 0.15, 'no cues': 0.55 },
       withdrawalReasons: ['The tasks took longer than I expected', 'Too frustrating to find the rooms', 'Moved house'],
     },
+    pay: {
+      fundings: [
+        { amountMinor: 80000, daysAgo: 38 },
+        { amountMinor: 60000, daysAgo: 12 },
+      ],
+      paidAfterDays: 6,
+      notSetUp: 3,
+      failedOnce: true,
+    },
   },
   {
     slug: 'checkout-flows',
@@ -127,6 +142,7 @@ export const DEMO_STUDIES: DemoStudy[] = [
     scheme: { method: 'williams', squaresPerBlock: [1] },
     approvalReference: 'HLREB-2026-044',
     participants: { prefix: 'p', first: 101, count: 12, excluded: 0 },
+    pay: { fundings: [{ amountMinor: 30000, daysAgo: 3 }] },
   },
 ];
 

@@ -5,6 +5,7 @@ import { AppModule } from '../../app.module';
 import { loadConfig } from '../../config/app-config';
 import { buildDemoStudies } from './build-demo-studies';
 import { loadDemoAccounts } from './load-demo-accounts';
+import { warnIfProviderForgotDemoPayouts } from './play-demo-payouts';
 
 /** `npm run seed -w api`: the demo accounts and scenario. Refuses to run in production. */
 async function main(): Promise<void> {
@@ -16,6 +17,8 @@ async function main(): Promise<void> {
   try {
     const staff = await loadDemoAccounts(app.get(DataSource));
     const built = await buildDemoStudies(app);
+    const warning = built.length ? null : await warnIfProviderForgotDemoPayouts(app);
+    if (warning) console.warn(`Warning: ${warning}`);
     console.log(`Demo scenario ready: ${staff} staff accounts; ${built.length ? `built ${built.join(', ')}` : 'studies already present'}.`);
   } finally {
     await app.close();
