@@ -2,6 +2,7 @@
 # The payout benchmark with everything it talks to: PostgreSQL (DATABASE_URL if set, otherwise the development
 # cluster, started here when needed and stopped again), a fresh payments stand-in whose webhooks reach the
 # benchmark's api, and a local mailbox for the receipts. Both services are stopped at the end.
+# BENCH_NODE_ARGS adds flags to the benchmark's node, e.g. "--cpu-prof --cpu-prof-dir=/tmp/prof" to see where it spends.
 source "$(cd "$(dirname "${BASH_SOURCE[0]}")/../../.." && pwd)/.stack/lib.sh"
 
 PG_PORT="${PG_PORT:-55432}"
@@ -41,4 +42,4 @@ wait_for_url "http://127.0.0.1:$BENCH_PAYMENTS_PORT/health" 60
 say "Payout benchmark (stand-in on $BENCH_PAYMENTS_PORT, logs in $LOG_DIR)"
 cd "$ROOT/api"
 STRIPE_PORT="$BENCH_PAYMENTS_PORT" SMTP_PORT="$BENCH_SMTP_PORT" BENCH_API_PORT="$BENCH_API_PORT" NODE_ENV=development \
-  node --enable-source-maps dist/bench/run-payout-bench.js
+  node --enable-source-maps ${BENCH_NODE_ARGS:-} dist/bench/run-payout-bench.js

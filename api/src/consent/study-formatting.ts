@@ -1,14 +1,21 @@
 /** How amounts, durations and signing times are written in forms, e-mails and the signed PDF. */
 import { ConsentErrorCode, consentFail } from './consent-error';
 
+/** Building a number format is costly (receipts format thousands of amounts), so each is built once. */
+const moneyFormats = new Map<string, Intl.NumberFormat>();
+
 /** Minor units (cents) as a currency amount, with the currency's own number of decimals as Intl knows it. */
 export function formatMoney(amountMinor: number, currency: string, locale = 'en-US', field = 'amountMinor'): string {
   if (!Number.isSafeInteger(amountMinor)) consentFail(ConsentErrorCode.InvalidFields, field, `must be a whole number of minor units, got ${String(amountMinor)}`);
-  let format: Intl.NumberFormat;
-  try {
-    format = new Intl.NumberFormat(locale, { style: 'currency', currency });
-  } catch {
-    consentFail(ConsentErrorCode.InvalidFields, 'currency', `must be an ISO 4217 code such as USD, got ${JSON.stringify(currency)}`);
+  const key = `${locale}|${currency}`;
+  let format = moneyFormats.get(key);
+  if (!format) {
+    try {
+      format = new Intl.NumberFormat(locale, { style: 'currency', currency });
+    } catch {
+      consentFail(ConsentErrorCode.InvalidFields, 'currency', `must be an ISO 4217 code such as USD, got ${JSON.stringify(currency)}`);
+    }
+    moneyFormats.set(key, format);
   }
   const digits = format.resolvedOptions().maximumFractionDigits ?? 2;
   return format.format(amountMinor / 10 ** digits);

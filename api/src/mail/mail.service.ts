@@ -1,4 +1,4 @@
-import { Injectable, Logger, OnModuleInit } from '@nestjs/common';
+import { Injectable, Logger, OnApplicationShutdown, OnModuleInit } from '@nestjs/common';
 import * as nodemailer from 'nodemailer';
 import type { EntityManager } from 'typeorm';
 import { AppConfig } from '../config/app-config';
@@ -14,7 +14,7 @@ export interface OutgoingMail {
 
 /** E-mail goes out through a job, so a slow or failing mail server never fails the request that caused it. */
 @Injectable()
-export class MailService implements OnModuleInit {
+export class MailService implements OnModuleInit, OnApplicationShutdown {
   private readonly logger = new Logger('Mail');
   private readonly transport: nodemailer.Transporter;
 
@@ -27,11 +27,18 @@ export class MailService implements OnModuleInit {
       port: config.smtpPort,
       secure: false,
       ignoreTLS: config.nodeEnv !== 'production',
+      // Reuses a few open connections: receipts for a large batch would otherwise each open their own.
+      pool: true,
+      maxConnections: 3,
     });
   }
 
   async onModuleInit(): Promise<void> {
     await this.jobs.handle<OutgoingMail>(JOB_NAMES.sendMail, (mail) => this.deliver(mail));
+  }
+
+  onApplicationShutdown(): void {
+    this.transport.close();
   }
 
   /** Queues a message in the caller's transaction. */

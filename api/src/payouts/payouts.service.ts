@@ -222,33 +222,39 @@ export class PayoutsService implements OnModuleInit {
    * (a retry after a timeout, a crash between sending and recording) the provider makes one transfer.
    */
   async send(payoutId: string): Promise<void> {
-    const payout = await this.dataSource.transaction(async (manager) => {
-      const current = await manager.findOne(PayoutEntity, { where: { id: payoutId }, lock: { mode: 'pessimistic_write' } });
-      if (!current || !['approved', 'sending'].includes(current.status)) return null;
-      await manager.update(PayoutEntity, { id: payoutId }, { status: 'sending', attempts: current.attempts + 1, sentAt: current.sentAt ?? new Date() });
-      return current;
-    });
+    // Claims the payout and reads where it goes in one statement: the row lock lasts only that statement, and a
+    // payout that is no longer approved (paid meanwhile, cancelled) is left alone.
+    const [payout] = await queryRows<{ id: string; study_id: string; amount_minor: string; currency: string; idempotency_key: string; provider_account_id: string | null; payouts_enabled: boolean | null }>(
+      this.dataSource.manager,
+      `WITH claimed AS (
+         UPDATE payout SET status = 'sending', attempts = attempts + 1, sent_at = coalesce(sent_at, now()), updated_at = now()
+         WHERE id = $1 AND status IN ('approved', 'sending')
+         RETURNING id, study_id, participant_id, amount_minor, currency, idempotency_key
+       )
+       SELECT claimed.*, a.provider_account_id, a.payouts_enabled FROM claimed LEFT JOIN payout_account a ON a.user_id = claimed.participant_id`,
+      [payoutId],
+    );
     if (!payout) return;
-    const account = await this.dataSource.getRepository(PayoutAccountEntity).findOne({ where: { userId: payout.participantId } });
-    if (!account?.payoutsEnabled) {
-      await this.markFailed(payout, 'The participant has not finished setting up how they get paid.');
+    const claimed = { id: payout.id, studyId: payout.study_id };
+    if (!payout.payouts_enabled || !payout.provider_account_id) {
+      await this.markFailed(claimed, 'The participant has not finished setting up how they get paid.');
       return;
     }
     let transfer: Stripe.Transfer;
     try {
       transfer = await this.provider.transfers.create(
         {
-          amount: payout.amountMinor,
+          amount: Number(payout.amount_minor),
           currency: payout.currency.trim().toLowerCase(),
-          destination: account.providerAccountId,
-          transfer_group: `study_${payout.studyId}`,
-          metadata: { payoutId: payout.id, studyId: payout.studyId },
+          destination: payout.provider_account_id,
+          transfer_group: `study_${payout.study_id}`,
+          metadata: { payoutId: payout.id, studyId: payout.study_id },
         },
-        { idempotencyKey: payout.idempotencyKey },
+        { idempotencyKey: payout.idempotency_key },
       );
     } catch (error) {
       if (isFinalRefusal(error)) {
-        await this.markFailed(payout, error.message);
+        await this.markFailed(claimed, error.message);
         return;
       }
       throw error; // a timeout, a 5xx or a rate limit: the job retries with the same key
@@ -257,7 +263,7 @@ export class PayoutsService implements OnModuleInit {
     await this.markPaid(payout.id, transfer.id);
   }
 
-  private async markFailed(payout: PayoutEntity, reason: string): Promise<void> {
+  private async markFailed(payout: { id: string; studyId: string }, reason: string): Promise<void> {
     await this.dataSource.transaction(async (manager) => {
       const result = await manager.update(PayoutEntity, { id: payout.id, status: 'sending' }, { status: 'failed', failureReason: reason });
       if (result.affected) {
@@ -269,12 +275,16 @@ export class PayoutsService implements OnModuleInit {
   /** Marks a payout paid once; called by the sender and by the transfer.created webhook, whichever comes first. */
   private async markPaid(payoutId: string, transferId: string, manager?: EntityManager): Promise<void> {
     const run = async (m: EntityManager) => {
-      const result = await m.update(PayoutEntity, { id: payoutId, status: In(['approved', 'sending']) }, { status: 'paid', providerTransferId: transferId, paidAt: new Date(), failureReason: null });
-      if (!result.affected) return;
-      const payout = await m.findOneOrFail(PayoutEntity, { where: { id: payoutId } });
+      const [payout] = await queryRows<{ study_id: string; amount_minor: string }>(
+        m,
+        `UPDATE payout SET status = 'paid', provider_transfer_id = $2, paid_at = now(), failure_reason = NULL, updated_at = now()
+         WHERE id = $1 AND status IN ('approved', 'sending') RETURNING study_id, amount_minor`,
+        [payoutId, transferId],
+      );
+      if (!payout) return;
       await this.jobs.enqueue(m, JOB_NAMES.payoutReceipt, { payoutId });
       // Last: the audit chain's per-study lock is held from here to commit, so keep that stretch short.
-      await this.audit.record(m, { chain: payout.studyId, actor: null, action: 'payout.paid', subjectType: 'payout', subjectId: payoutId, data: { transferId, amountMinor: payout.amountMinor } });
+      await this.audit.record(m, { chain: payout.study_id, actor: null, action: 'payout.paid', subjectType: 'payout', subjectId: payoutId, data: { transferId, amountMinor: Number(payout.amount_minor) } });
     };
     if (manager) await run(manager);
     else await this.dataSource.transaction(run);
@@ -326,13 +336,13 @@ export class PayoutsService implements OnModuleInit {
     return this.dataSource.transaction(async (manager) => {
       const inserted = await queryRows(
         manager,
-        `INSERT INTO provider_event (provider_event_id, type, created_at_provider, payload) VALUES ($1, $2, to_timestamp($3), $4)
+        // Stored as processed: it is applied in this same transaction, so either both happen or neither.
+        `INSERT INTO provider_event (provider_event_id, type, created_at_provider, payload, processed_at) VALUES ($1, $2, to_timestamp($3), $4, now())
          ON CONFLICT (provider_event_id) DO NOTHING RETURNING id`,
         [event.id, event.type, event.created, JSON.stringify(event)],
       );
       if (inserted.length === 0) return { received: true as const, duplicate: true };
       await this.apply(manager, event);
-      await manager.query(`UPDATE provider_event SET processed_at = now() WHERE provider_event_id = $1`, [event.id]);
       return { received: true as const, duplicate: false };
     });
   }
