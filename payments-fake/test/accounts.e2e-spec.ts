@@ -8,6 +8,7 @@
 import Stripe from 'stripe';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { startHarness, type Harness } from './support/harness';
+import { caught } from './support/caught';
 
 let harness: Harness;
 let stripe: Stripe;
@@ -20,15 +21,6 @@ afterAll(() => harness.close());
 beforeEach(async () => {
   await harness.control('/reset');
 });
-
-async function caught(promise: Promise<unknown>): Promise<any> {
-  try {
-    await promise;
-  } catch (error) {
-    return error;
-  }
-  throw new Error('expected the call to fail');
-}
 
 describe('connected accounts', () => {
   it('creates an express account with capabilities and metadata, not yet enabled', async () => {

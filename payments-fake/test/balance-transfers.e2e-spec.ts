@@ -7,6 +7,7 @@
 import Stripe from 'stripe';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { onboardedAccount, startHarness, type Harness } from './support/harness';
+import { caught } from './support/caught';
 
 let harness: Harness;
 let stripe: Stripe;
@@ -19,15 +20,6 @@ afterAll(() => harness.close());
 beforeEach(async () => {
   await harness.control('/reset');
 });
-
-async function caught(promise: Promise<unknown>): Promise<any> {
-  try {
-    await promise;
-  } catch (error) {
-    return error;
-  }
-  throw new Error('expected the call to fail');
-}
 
 describe('balance', () => {
   it('starts at zero for the platform', async () => {

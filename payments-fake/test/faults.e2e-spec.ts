@@ -5,6 +5,7 @@
 import Stripe from 'stripe';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { onboardedAccount, startHarness, WEBHOOK_SECRET, type Harness } from './support/harness';
+import { caught } from './support/caught';
 
 let harness: Harness;
 let stripe: Stripe;
@@ -19,15 +20,6 @@ beforeEach(async () => {
   harness.receiver.received.length = 0;
   harness.receiver.answerWith([]);
 });
-
-async function caught(promise: Promise<unknown>): Promise<any> {
-  try {
-    await promise;
-  } catch (error) {
-    return error;
-  }
-  throw new Error('expected the call to fail');
-}
 
 describe('request faults', () => {
   it('fails the next request with 500 api_error (StripeAPIError) and then recovers', async () => {

@@ -6,6 +6,7 @@
 import Stripe from 'stripe';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { onboardedAccount, startHarness, type Harness } from './support/harness';
+import { caught } from './support/caught';
 
 let harness: Harness;
 let stripe: Stripe;
@@ -18,15 +19,6 @@ afterAll(() => harness.close());
 beforeEach(async () => {
   await harness.control('/reset');
 });
-
-async function caught(promise: Promise<unknown>): Promise<any> {
-  try {
-    await promise;
-  } catch (error) {
-    return error;
-  }
-  throw new Error('expected the call to fail');
-}
 
 describe('idempotency keys', () => {
   it('replays the first response for the same key and parameters, marked Idempotent-Replayed', async () => {

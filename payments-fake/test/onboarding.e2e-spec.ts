@@ -6,6 +6,7 @@
 import Stripe from 'stripe';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { startHarness, waitFor, WEBHOOK_SECRET, type Harness } from './support/harness';
+import { caught } from './support/caught';
 
 let harness: Harness;
 let stripe: Stripe;
@@ -44,15 +45,6 @@ function submit(action: string, fields: Record<string, string>) {
     headers: { 'Content-Type': 'application/x-www-form-urlencoded' },
     body: new URLSearchParams(fields).toString(),
   });
-}
-
-async function caught(promise: Promise<unknown>): Promise<any> {
-  try {
-    await promise;
-  } catch (error) {
-    return error;
-  }
-  throw new Error('expected the call to fail');
 }
 
 describe('account links', () => {

@@ -11,6 +11,7 @@
 import Stripe from 'stripe';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { startHarness, waitFor, type Harness } from './support/harness';
+import { caught } from './support/caught';
 
 const PUBLISHABLE_KEY = 'pk_test_evenhand_local_browser';
 const ADMIN_ORIGIN = 'http://127.0.0.1:5184';
@@ -29,15 +30,6 @@ afterAll(() => harness.close());
 beforeEach(async () => {
   await harness.control('/reset');
 });
-
-async function caught(promise: Promise<unknown>): Promise<any> {
-  try {
-    await promise;
-  } catch (error) {
-    return error;
-  }
-  throw new Error('expected the call to fail');
-}
 
 /** A call as the browser script makes it: publishable key, form body, the admin's Origin. */
 async function browserCall(path: string, body: Record<string, string> | null, options: { key?: string; origin?: string } = {}) {

@@ -12,6 +12,7 @@ import { startPaymentsFake } from '../src/app/payments-fake-app';
 import { StateFileError } from '../src/state/state-file';
 import type { WorldSnapshot } from '../src/state/world-snapshot';
 import { onboardedAccount, startHarness, startWebhookReceiver, waitFor, WEBHOOK_SECRET } from './support/harness';
+import { caught } from './support/caught';
 
 // Temporary files stay under the repository's git-ignored .local folder.
 const TEMP_ROOT = path.resolve(__dirname, '../../.local/tmp');
@@ -47,15 +48,6 @@ async function waitForSnapshot(check: (snapshot: WorldSnapshot) => boolean, what
     what,
   );
   return last as WorldSnapshot;
-}
-
-async function caught(promise: Promise<unknown>): Promise<any> {
-  try {
-    await promise;
-  } catch (error) {
-    return error;
-  }
-  throw new Error('expected the call to fail');
 }
 
 /** Everything a caller can read back through the SDK, each list in full. */

@@ -8,6 +8,17 @@ const JOB_QUEUE_SCHEMA = 'job_queue';
 /** A problem with how the benchmark was started: printed as a message, without a stack. */
 export class BenchSetupError extends Error {}
 
+/** A whole-number setting from the environment, within bounds, or the fallback when unset. */
+export function wholeNumberSetting(name: string, fallback: number, min: number, max: number): number {
+  const raw = process.env[name];
+  if (raw === undefined || raw === '') return fallback;
+  const value = Number(raw);
+  if (!Number.isSafeInteger(value) || value < min || value > max) {
+    throw new BenchSetupError(`${name} must be a whole number from ${min} to ${max} (got "${raw}")`);
+  }
+  return value;
+}
+
 export const DATABASE_URL_HELP = [
   'DATABASE_URL is not set. The benchmark needs a PostgreSQL database it may add a throwaway schema to; it starts nothing itself.',
   'Ways to get one:',

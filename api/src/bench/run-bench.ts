@@ -13,7 +13,7 @@ import { AppModule } from '../app.module';
 import type { AuditActor } from '../audit/audit.service';
 import { RandomizationService } from '../randomization/randomization.service';
 import { createSeededStream, generateSeed, streamLabel } from '../randomization/seeded-stream';
-import { BenchDatabase, BenchSetupError, DATABASE_URL_HELP } from './bench-database';
+import { BenchDatabase, BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
 import { formatTable, median, reportRow, ReportTable } from './bench-report';
 import { BENCH_SCHEMES, BenchStudies, BenchStudy, PRETEST_CUT } from './bench-study';
 import { runConcurrently, timeSync } from './concurrent-runner';
@@ -25,16 +25,6 @@ const DRY_RUN_WARM_UPS = 3;
 const ACTOR: AuditActor = { id: null, email: 'benchmark@evenhand.test' };
 type BenchScheme = keyof typeof BENCH_SCHEMES;
 const SCHEMES = Object.keys(BENCH_SCHEMES) as BenchScheme[];
-
-function wholeNumberSetting(name: string, fallback: number, min: number, max: number): number {
-  const raw = process.env[name];
-  if (raw === undefined || raw === '') return fallback;
-  const value = Number(raw);
-  if (!Number.isSafeInteger(value) || value < min || value > max) {
-    throw new BenchSetupError(`${name} must be a whole number from ${min} to ${max} (got "${raw}")`);
-  }
-  return value;
-}
 
 /** The api's data source is built with a smaller pool; rebuild it at the size this run measures. */
 async function resizePool(dataSource: DataSource, max: number): Promise<void> {

@@ -20,23 +20,13 @@ import { PaymentsService } from '../payments/payments.service';
 import { PayoutsService } from '../payouts/payouts.service';
 import { StepsService } from '../steps/steps.service';
 import { StudiesService } from '../studies/studies.service';
-import { BenchSetupError, DATABASE_URL_HELP } from './bench-database';
+import { BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
 import { BenchOwnDatabase } from './bench-own-database';
 import { formatTable, reportRow } from './bench-report';
 import { runConcurrently } from './concurrent-runner';
 
 /** One US dollar a payout: the amount does not change the work, and the funding stays small. */
 const PAYOUT_MINOR = 100;
-
-function wholeNumberSetting(name: string, fallback: number, min: number, max: number): number {
-  const raw = process.env[name];
-  if (raw === undefined || raw === '') return fallback;
-  const value = Number(raw);
-  if (!Number.isSafeInteger(value) || value < min || value > max) {
-    throw new BenchSetupError(`${name} must be a whole number from ${min} to ${max} (got "${raw}")`);
-  }
-  return value;
-}
 
 const log = (line: string) => console.log(`[payout-bench] ${line}`);
 

@@ -17,7 +17,7 @@ import { JOB_NAMES } from '../jobs/job-queue.service';
 import { RandomizationService } from '../randomization/randomization.service';
 import { StepsService } from '../steps/steps.service';
 import { StudiesService } from '../studies/studies.service';
-import { BenchSetupError, DATABASE_URL_HELP } from './bench-database';
+import { BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
 import { BenchOwnDatabase } from './bench-own-database';
 import { formatTable, median, reportRow } from './bench-report';
 import { BENCH_SCHEMES, PRETEST_CUT } from './bench-study';
@@ -41,16 +41,6 @@ const CONSENT_VALUES = {
 };
 /** Starts like a PDF, which is all the approval-letter check looks at. */
 const TINY_PDF = Buffer.from('%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n', 'latin1');
-
-function wholeNumberSetting(name: string, fallback: number, min: number, max: number): number {
-  const raw = process.env[name];
-  if (raw === undefined || raw === '') return fallback;
-  const value = Number(raw);
-  if (!Number.isSafeInteger(value) || value < min || value > max) {
-    throw new BenchSetupError(`${name} must be a whole number from ${min} to ${max} (got "${raw}")`);
-  }
-  return value;
-}
 
 interface SigningStudy {
   studyId: string;

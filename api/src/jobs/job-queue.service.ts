@@ -65,6 +65,14 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
     });
   }
 
+  /** Enqueues many jobs of one kind inside the caller's transaction, a thousand rows per statement. */
+  async enqueueMany<Payload extends object>(manager: EntityManager, name: JobName, payloads: Payload[]): Promise<void> {
+    const db = { executeSql: async (text: string, values: unknown[]) => ({ rows: await queryRows(manager, text, values) }) };
+    for (let i = 0; i < payloads.length; i += 1000) {
+      await this.boss.insert(payloads.slice(i, i + 1000).map((data) => ({ name, data })), { db });
+    }
+  }
+
   /** Sends a job of this kind on a cron schedule (UTC). pg-boss keeps one schedule per name, so every boot may call it. */
   async schedule(name: JobName, cron: string, payload: object = {}): Promise<void> {
     await this.boss.schedule(name, cron, payload, { tz: 'UTC' });

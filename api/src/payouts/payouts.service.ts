@@ -197,7 +197,7 @@ export class PayoutsService implements OnModuleInit {
       }
       const now = new Date();
       await manager.update(PayoutEntity, { id: In(unique) }, { status: 'approved', approvedBy: actor.id, approvedAt: now, failureReason: null });
-      for (const payout of payouts) await this.jobs.enqueue(manager, JOB_NAMES.sendPayout, { payoutId: payout.id });
+      await this.jobs.enqueueMany(manager, JOB_NAMES.sendPayout, payouts.map((payout) => ({ payoutId: payout.id })));
       await this.audit.record(manager, { chain: studyId, actor, action: 'payout.approved', subjectType: 'study', subjectId: studyId, data: { count: payouts.length, amountMinor, payoutIds: unique } });
       return { approved: payouts.length, amountMinor, remainingMinor: remainingMinor - amountMinor };
     });
