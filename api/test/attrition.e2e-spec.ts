@@ -73,7 +73,7 @@ describe('dropout watch of a study with a known history', () => {
       conditionId: map,
       status: i < 3 ? 'completed' : i < 6 ? 'withdrew' : i < 8 ? 'lost' : i === 8 ? 'excluded' : 'active',
       endDay: i < 3 ? 10 : i < 6 ? 1 : i < 8 ? 3 : i === 8 ? 4 : undefined,
-      reason: i === 3 || i === 4 ? 'too long' : i === 8 ? 'ineligible after review' : undefined,
+      reason: i === 3 || i === 4 ? 'too long' : i === 6 ? 'no reply to reminders' : i === 8 ? 'ineligible after review' : undefined,
       covariates: { pretest, device: i < 7 ? 'phone' : 'laptop' },
       stratumKey: pretest >= 65 ? 'pretest:1' : 'pretest:0',
       stepsDone: i < 3 ? 2 : 0,
@@ -198,7 +198,7 @@ describe('dropout watch of a study with a known history', () => {
         stillInFollowUp: 1,
         analysed: 3,
         withdrew: { total: 3, reasons: [{ reason: 'too long', count: 2 }, { reason: null, count: 1 }], otherReasons: 0 },
-        lostToFollowUp: { total: 2, reasons: [{ reason: null, count: 2 }], otherReasons: 0 },
+        lostToFollowUp: { total: 2, reasons: [{ reason: 'no reply to reminders', count: 1 }, { reason: null, count: 1 }], otherReasons: 0 },
         excludedAfterRandomization: { total: 1, reasons: [{ reason: 'ineligible after review', count: 1 }], otherReasons: 0 },
       }),
     ]);

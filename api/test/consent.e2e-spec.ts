@@ -227,6 +227,26 @@ describe('signing', () => {
     expect(Number(n)).toBe(1);
   });
 
+  it('marks someone lost to follow-up with the reason noted, shown on their record and in the flow', async () => {
+    const { studyId, version } = await recruitingStudy();
+    const { browser } = await signedInParticipant(testApp);
+    await joinAndScreen(browser, studyId);
+    await expectStatus(
+      browser.post(`/api/studies/${studyId}/enrollments/me/signature`).send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Sam Example' }),
+      201,
+    );
+    const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
+    const lost = await expectStatus(coordinator.post(`/api/studies/${studyId}/enrollments/${me.id}/lost`).send({ reason: '  No reply to three reminders ' }), 200);
+    expect(lost.status).toBe('lost');
+    const record = await expectStatus(coordinator.get(`/api/studies/${studyId}/enrollments/${me.id}`), 200);
+    expect(record).toMatchObject({ lostReason: 'No reply to three reminders', withdrawalReason: null });
+    // Only someone still taking part can be lost; the first mark stands.
+    await expectStatus(coordinator.post(`/api/studies/${studyId}/enrollments/${me.id}/lost`).send({ reason: 'again' }), 409, 'CONFLICT');
+    const report = await expectStatus(coordinator.get(`/api/studies/${studyId}/attrition`), 200);
+    const arm = report.flow.arms.find((a: { lostToFollowUp: { total: number } }) => a.lostToFollowUp.total === 1);
+    expect(arm.lostToFollowUp.reasons).toEqual([{ reason: 'No reply to three reminders', count: 1 }]);
+  });
+
   it('gives 100 concurrent signers 100 distinct slots', async () => {
     const { studyId, version } = await recruitingStudy();
     const people: Browser[] = [];

@@ -114,7 +114,7 @@ export async function readAttritionAggregates(
   const flow = await run<FlowRow>(
     `SELECT arm::text AS arm, status, assigned, reason, n
      FROM (SELECT ${arm} AS arm, e.status, (e.assigned_at IS NOT NULL) AS assigned,
-                  CASE e.status WHEN 'excluded' THEN e.exclusion_reason WHEN 'withdrew' THEN e.withdrawal_reason END AS reason,
+                  CASE e.status WHEN 'excluded' THEN e.exclusion_reason WHEN 'withdrew' THEN e.withdrawal_reason WHEN 'lost' THEN e.lost_reason END AS reason,
                   count(*)::int AS n
            FROM enrollment e WHERE e.study_id = $1
            GROUP BY 1, 2, 3, 4) AS grouped`,

@@ -19,6 +19,7 @@ import { StudyDesign1764600100000 } from './migrations/1764600100000-study-desig
 import { ConsentAndEnrollment1764600200000 } from './migrations/1764600200000-consent-and-enrollment';
 import { Pay1764600300000 } from './migrations/1764600300000-pay';
 import { AttritionAlerts1764600400000 } from './migrations/1764600400000-attrition-alerts';
+import { LostReason1764600500000 } from './migrations/1764600500000-lost-reason';
 import { AttritionAlertRuleEntity } from '../attrition/entities/attrition-alert-rule.entity';
 import { AttritionAlertStateEntity } from '../attrition/entities/attrition-alert-state.entity';
 import { PayoutAccountEntity } from '../payouts/entities/payout-account.entity';
@@ -60,7 +61,7 @@ export const ENTITIES = [
 ];
 
 /** Every migration in order. Never edit one that has landed; add a new one. */
-export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000, ConsentAndEnrollment1764600200000, Pay1764600300000, AttritionAlerts1764600400000];
+export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000, ConsentAndEnrollment1764600200000, Pay1764600300000, AttritionAlerts1764600400000, LostReason1764600500000];
 
 export function dataSourceOptions(databaseUrl: string): DataSourceOptions {
   return {

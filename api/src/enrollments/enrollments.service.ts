@@ -658,8 +658,9 @@ export class EnrollmentsService implements OnModuleInit {
       }
       enrollment.status = 'lost';
       enrollment.lostAt = new Date();
+      enrollment.lostReason = reason?.trim() || null;
       await manager.save(enrollment);
-      await this.audit.record(manager, { chain: studyId, actor, action: 'enrollment.lost', subjectType: 'enrollment', subjectId: enrollmentId, data: { reason: reason ?? null } });
+      await this.audit.record(manager, { chain: studyId, actor, action: 'enrollment.lost', subjectType: 'enrollment', subjectId: enrollmentId, data: { reason: enrollment.lostReason } });
     });
     return (await this.record(studyId, enrollmentId)).enrollment;
   }
@@ -681,6 +682,7 @@ export class EnrollmentsService implements OnModuleInit {
     return {
       enrollment: this.rosterEntry(enrollment, participant[0]?.email ?? '', await this.conditionLabels(study), versions),
       withdrawalReason: enrollment.withdrawalReason,
+      lostReason: enrollment.lostReason,
       exclusionReason: enrollment.exclusionReason,
       signatures: signatures.map((s) => ({
         id: s.id,

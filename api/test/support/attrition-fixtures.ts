@@ -35,8 +35,8 @@ export async function insertHistory(testApp: TestApp, studyId: string, entries: 
     const at = (status: string) => (entry.status === status ? dayOf(entry.endDay ?? 0) : null);
     const [enrollment] = await db.query(
       `INSERT INTO enrollment (study_id, participant_id, reference, status, covariates, stratum_key, condition_id,
-                               invited_at, assigned_at, completed_at, withdrew_at, lost_at, excluded_at, exclusion_reason, withdrawal_reason)
-       VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15) RETURNING id`,
+                               invited_at, assigned_at, completed_at, withdrew_at, lost_at, excluded_at, exclusion_reason, withdrawal_reason, lost_reason)
+       VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16) RETURNING id`,
       [
         studyId,
         user.id,
@@ -53,6 +53,7 @@ export async function insertHistory(testApp: TestApp, studyId: string, entries: 
         at('excluded'),
         entry.status === 'excluded' ? (entry.reason ?? null) : null,
         entry.status === 'withdrew' ? (entry.reason ?? null) : null,
+        entry.status === 'lost' ? (entry.reason ?? null) : null,
       ],
     );
     for (const step of steps.slice(0, entry.stepsDone ?? 0)) {

@@ -1906,6 +1906,8 @@ export interface components {
         ParticipantRecordDto: {
             enrollment: components["schemas"]["RosterEntryDto"];
             withdrawalReason: string | null;
+            /** @description What staff noted when marking this person lost to follow-up. */
+            lostReason: string | null;
             exclusionReason: string | null;
             signatures: components["schemas"]["SignatureSummaryDto"][];
             timeline: components["schemas"]["TimelineEventDto"][];

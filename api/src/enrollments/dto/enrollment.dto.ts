@@ -231,6 +231,7 @@ export class SignatureSummaryDto {
 export class ParticipantRecordDto {
   @ApiProperty({ type: RosterEntryDto }) enrollment: RosterEntryDto;
   @ApiProperty({ nullable: true, type: String }) withdrawalReason: string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'What staff noted when marking this person lost to follow-up.' }) lostReason: string | null;
   @ApiProperty({ nullable: true, type: String }) exclusionReason: string | null;
   @ApiProperty({ type: [SignatureSummaryDto] }) signatures: SignatureSummaryDto[];
   @ApiProperty({ type: [TimelineEventDto] }) timeline: TimelineEventDto[];

@@ -51,6 +51,9 @@ export class EnrollmentEntity {
   @Column({ name: 'withdrawal_reason', type: 'text', nullable: true })
   withdrawalReason: string | null;
 
+  @Column({ name: 'lost_reason', type: 'text', nullable: true })
+  lostReason: string | null;
+
   @Column({ name: 'screening_answers', type: 'jsonb', nullable: true })
   screeningAnswers: Record<string, number | string | boolean> | null;
 

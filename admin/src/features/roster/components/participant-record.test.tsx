@@ -25,6 +25,7 @@ const record = {
     createdAt: '2026-12-01T19:45:18.994Z',
   },
   withdrawalReason: 'Moved abroad',
+  lostReason: null,
   exclusionReason: null,
   signatures: [
     {
@@ -62,6 +63,7 @@ describe('ParticipantRecord', { timeout: 15_000 }, () => {
 
     expect(screen.getByRole('heading', { name: 'P-3X66FX' }).parentElement).toHaveTextContent('P-3X66FXWithdrew');
     expect(screen.getByText('Reason for withdrawal').nextSibling).toHaveTextContent('Moved abroad');
+    expect(screen.queryByText('Why lost to follow-up')).not.toBeInTheDocument();
     expect(screen.getByText('Condition (coded while blinded)').nextSibling).toHaveTextContent('C');
 
     const steps = within(screen.getByRole('region', { name: 'Timeline' })).getAllByRole('listitem');
@@ -70,6 +72,15 @@ describe('ParticipantRecord', { timeout: 15_000 }, () => {
       'Signed the consent form consent.signed',
       'Withdrew enrollment.withdrew',
     ]);
+  });
+
+  it('shows what staff noted when they marked someone lost to follow-up', async () => {
+    const lost = { ...record, enrollment: { ...record.enrollment, status: 'lost' }, withdrawalReason: null, lostReason: 'No reply to three reminders' };
+    stubApi({ [`GET /api/studies/${studyId}/enrollments/${enrollmentId}`]: { status: 200, body: lost } });
+    renderWithProviders(<ParticipantRecord studyId={studyId} enrollmentId={enrollmentId} blinded backHref="/roster" />);
+
+    expect((await screen.findByText('Why lost to follow-up')).nextSibling).toHaveTextContent('No reply to three reminders');
+    expect(screen.queryByText('Reason for withdrawal')).not.toBeInTheDocument();
   });
 
   it('says so when the participant is not in this study', async () => {

@@ -92,10 +92,16 @@ function RecordDetails({ studyId, record, blinded }: { studyId: string; record: 
               <dd>{record.exclusionReason}</dd>
             </>
           )}
-          {(record.withdrawalReason || enrollment.status === 'withdrew' || enrollment.status === 'lost') && (
+          {(record.withdrawalReason || enrollment.status === 'withdrew') && (
             <>
-              <dt className="text-ink-muted">{enrollment.status === 'lost' ? 'Reason noted' : 'Reason for withdrawal'}</dt>
+              <dt className="text-ink-muted">Reason for withdrawal</dt>
               <dd>{record.withdrawalReason ?? 'None given'}</dd>
+            </>
+          )}
+          {(record.lostReason || enrollment.status === 'lost') && (
+            <>
+              <dt className="text-ink-muted">Why lost to follow-up</dt>
+              <dd>{record.lostReason ?? 'Nothing noted'}</dd>
             </>
           )}
         </dl>
