@@ -1,6 +1,7 @@
 import { RequestMethod } from '@nestjs/common';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildOpenApiDocument } from '../src/app-setup';
+import { AuditService } from '../src/audit/audit.service';
 import { expectStatus } from './support/http';
 import { startTestApp, TestApp } from './support/test-app';
 
@@ -122,6 +123,42 @@ describe('audit chain', () => {
 
     await expect(testApp.dataSource.query(`UPDATE audit_event SET action = 'edited' WHERE sequence = 1`)).rejects.toThrow(/append-only/);
     await expect(testApp.dataSource.query(`DELETE FROM audit_event WHERE sequence = 1`)).rejects.toThrow(/append-only/);
+  });
+
+  it('appends the events of a transaction when it commits, in order, and never those of a rollback or a rolled-back savepoint', async () => {
+    const audit = testApp.app.get(AuditService);
+    const chain = `audit-probe-${Date.now()}`;
+    const actions = async () =>
+      (await testApp.dataSource.query(`SELECT action, sequence FROM audit_event WHERE chain = $1 ORDER BY sequence`, [chain])).map((r: { action: string }) => r.action);
+
+    await testApp.dataSource.transaction(async (manager) => {
+      await audit.record(manager, { chain, actor: null, action: 'probe.first' });
+      await audit.record(manager, { chain, actor: null, action: 'probe.second' });
+      // Not written yet: a concurrent reader sees nothing until the commit.
+      expect(await actions()).toEqual([]);
+    });
+    expect(await actions()).toEqual(['probe.first', 'probe.second']);
+
+    await expect(
+      testApp.dataSource.transaction(async (manager) => {
+        await audit.record(manager, { chain, actor: null, action: 'probe.rolled-back' });
+        throw new Error('give up');
+      }),
+    ).rejects.toThrow('give up');
+
+    await testApp.dataSource.transaction(async (manager) => {
+      await audit.record(manager, { chain, actor: null, action: 'probe.outer' });
+      await expect(
+        manager.transaction(async (inner) => {
+          await audit.record(inner, { chain, actor: null, action: 'probe.inside-savepoint' });
+          throw new Error('undo the savepoint');
+        }),
+      ).rejects.toThrow('undo the savepoint');
+      await manager.transaction((inner) => audit.record(inner, { chain, actor: null, action: 'probe.kept-savepoint' }));
+    });
+    expect(await actions()).toEqual(['probe.first', 'probe.second', 'probe.outer', 'probe.kept-savepoint']);
+    const [verdict] = await audit.verify([chain]);
+    expect(verdict).toEqual({ chain, events: 4, intact: true, firstBreak: null });
   });
 
   it('reports the first broken link when a row is altered behind the api', async () => {

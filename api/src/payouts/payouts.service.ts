@@ -283,7 +283,6 @@ export class PayoutsService implements OnModuleInit {
       );
       if (!payout) return;
       await this.jobs.enqueue(m, JOB_NAMES.payoutReceipt, { payoutId });
-      // Last: the audit chain's per-study lock is held from here to commit, so keep that stretch short.
       await this.audit.record(m, { chain: payout.study_id, actor: null, action: 'payout.paid', subjectType: 'payout', subjectId: payoutId, data: { transferId, amountMinor: Number(payout.amount_minor) } });
     };
     if (manager) await run(manager);
