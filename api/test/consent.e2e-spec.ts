@@ -37,6 +37,17 @@ async function joinAndScreen(browser: Browser, studyId: string, pretest = 70) {
   return expectStatus(browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { adult: true, pretest } }), 200);
 }
 
+/** A participant who joined, passed screening and signed the given version. */
+async function signedUpParticipant(studyId: string, version: { id: string; fingerprint: string }): Promise<Browser> {
+  const { browser } = await signedInParticipant(testApp);
+  await joinAndScreen(browser, studyId);
+  await expectStatus(
+    browser.post(`/api/studies/${studyId}/enrollments/me/signature`).send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Sam Example' }),
+    201,
+  );
+  return browser;
+}
+
 async function draftWithStep() {
   const { studyId } = await draftBetweenStudy(coordinator);
   await expectStatus(coordinator.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 1500 }), 201);
@@ -229,12 +240,7 @@ describe('signing', () => {
 
   it('marks someone lost to follow-up with the reason noted, shown on their record and in the flow', async () => {
     const { studyId, version } = await recruitingStudy();
-    const { browser } = await signedInParticipant(testApp);
-    await joinAndScreen(browser, studyId);
-    await expectStatus(
-      browser.post(`/api/studies/${studyId}/enrollments/me/signature`).send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Sam Example' }),
-      201,
-    );
+    const browser = await signedUpParticipant(studyId, version);
     const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
     const lost = await expectStatus(coordinator.post(`/api/studies/${studyId}/enrollments/${me.id}/lost`).send({ reason: '  No reply to three reminders ' }), 200);
     expect(lost.status).toBe('lost');
@@ -271,12 +277,7 @@ describe('signing', () => {
 
   it('asks enrolled people to sign a new version before their next step', async () => {
     const { studyId, version } = await recruitingStudy();
-    const { browser } = await signedInParticipant(testApp);
-    await joinAndScreen(browser, studyId);
-    await expectStatus(
-      browser.post(`/api/studies/${studyId}/enrollments/me/signature`).send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Sam Example' }),
-      201,
-    );
+    const browser = await signedUpParticipant(studyId, version);
     const amended = await activeConsentVersion(coordinator, studyId, 'HLREB-2026-031-A1');
     const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
     expect(me).toMatchObject({ next: 're-consent', consent: { needsSignature: true, activeVersionId: amended.id } });

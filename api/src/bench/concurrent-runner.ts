@@ -49,3 +49,13 @@ export function timeSync(work: () => unknown): number {
   work();
   return (performance.now() - started) / 1000;
 }
+
+/** An abort signal that Ctrl-C raises, so a benchmark stops its workers and still cleans up. */
+export function abortOnInterrupt(log: (line: string) => void): AbortSignal {
+  const stop = new AbortController();
+  process.once('SIGINT', () => {
+    log('interrupted: cleaning up');
+    stop.abort();
+  });
+  return stop.signal;
+}

@@ -16,7 +16,7 @@ import { createSeededStream, generateSeed, streamLabel } from '../randomization/
 import { BenchDatabase, BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
 import { formatTable, median, reportRow, ReportTable } from './bench-report';
 import { BENCH_SCHEMES, BenchStudies, BenchStudy, PRETEST_CUT } from './bench-study';
-import { runConcurrently, timeSync } from './concurrent-runner';
+import { abortOnInterrupt, runConcurrently, timeSync } from './concurrent-runner';
 
 const CONNECTIONS = 32;
 const DRY_RUN_ARRIVALS = 10_000;
@@ -178,11 +178,7 @@ async function main(): Promise<number> {
   const rounds = wholeNumberSetting('BENCH_ROUNDS', 3, 1, 20);
   const log = (line: string) => console.log(`[bench] ${line}`);
 
-  const stop = new AbortController();
-  process.once('SIGINT', () => {
-    log('interrupted: cleaning up');
-    stop.abort();
-  });
+  const interrupted = abortOnInterrupt(log);
 
   const started = Date.now();
   const database = await BenchDatabase.connect(databaseUrl);
@@ -196,7 +192,7 @@ async function main(): Promise<number> {
     const dataSource = app.get(DataSource);
     await resizePool(dataSource, CONNECTIONS);
 
-    const bench = new AllocationBench(app, stop.signal);
+    const bench = new AllocationBench(app, interrupted);
     await bench.createScratchTable();
     const measured = await measureDatabase(bench, arrivals, rounds, log);
     const pool = poolOf(dataSource);

@@ -23,7 +23,7 @@ import { StudiesService } from '../studies/studies.service';
 import { BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
 import { BenchOwnDatabase } from './bench-own-database';
 import { formatTable, reportRow } from './bench-report';
-import { runConcurrently } from './concurrent-runner';
+import { abortOnInterrupt, runConcurrently } from './concurrent-runner';
 
 /** One US dollar a payout: the amount does not change the work, and the funding stays small. */
 const PAYOUT_MINOR = 100;
@@ -227,11 +227,7 @@ async function main(): Promise<number> {
   const payees = wholeNumberSetting('BENCH_PAYEES', 500, 1, 10_000);
   const apiPort = wholeNumberSetting('BENCH_API_PORT', 3190, 1024, 65535);
   if (payoutCount % payees !== 0) throw new BenchSetupError(`BENCH_PAYOUTS (${payoutCount}) must be a multiple of BENCH_PAYEES (${payees})`);
-  const stop = new AbortController();
-  process.once('SIGINT', () => {
-    log('interrupted: cleaning up');
-    stop.abort();
-  });
+  const interrupted = abortOnInterrupt(log);
 
   const started = Date.now();
   const database = await BenchOwnDatabase.create(databaseUrl);
@@ -245,7 +241,7 @@ async function main(): Promise<number> {
     // Listening, so the provider's webhooks (transfer.created for every transfer, ours and the baseline's) land
     // here as they do in the running api.
     await app.listen(apiPort, '127.0.0.1');
-    const bench = new PayoutBench(app, stop.signal);
+    const bench = new PayoutBench(app, interrupted);
     await bench.createStudy(payoutCount / payees);
     await bench.onboardPayees(payees);
     const owed = await bench.owePayouts();
@@ -262,7 +258,7 @@ async function main(): Promise<number> {
     log(`paid: ${payoutCount} payouts in ${paid.totalSeconds.toFixed(1)} s (${paid.perSecond.toFixed(0)}/s)`);
     const once = await bench.exactlyOnce(payoutCount);
     const receiptsWhenDone = await bench.receiptsSent();
-    await until(async () => ((await bench.receiptsSent()) === payoutCount ? true : null), 'every receipt to be sent', 10 * 60_000, stop.signal);
+    await until(async () => ((await bench.receiptsSent()) === payoutCount ? true : null), 'every receipt to be sent', 10 * 60_000, interrupted);
 
     const problems: string[] = [];
     if (once.transfers !== payoutCount) problems.push(`the provider holds ${once.transfers} transfers for ${payoutCount} payouts`);

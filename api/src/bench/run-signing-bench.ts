@@ -21,7 +21,7 @@ import { BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-
 import { BenchOwnDatabase } from './bench-own-database';
 import { formatTable, median, reportRow } from './bench-report';
 import { BENCH_SCHEMES, PRETEST_CUT } from './bench-study';
-import { runConcurrently } from './concurrent-runner';
+import { abortOnInterrupt, runConcurrently } from './concurrent-runner';
 
 const CONNECTIONS = 32;
 const CLIENT = { ip: '127.0.0.1', userAgent: 'Evenhand signing benchmark' };
@@ -184,11 +184,7 @@ async function main(): Promise<number> {
   const signings = wholeNumberSetting('BENCH_SIGNINGS', 600, 50, 20_000);
   const rounds = wholeNumberSetting('BENCH_ROUNDS', 3, 1, 20);
   const log = (line: string) => console.log(`[signing-bench] ${line}`);
-  const stop = new AbortController();
-  process.once('SIGINT', () => {
-    log('interrupted: cleaning up');
-    stop.abort();
-  });
+  const interrupted = abortOnInterrupt(log);
 
   const started = Date.now();
   const database = await BenchOwnDatabase.create(databaseUrl);
@@ -204,7 +200,7 @@ async function main(): Promise<number> {
     dataSource.setOptions({ extra: { ...(dataSource.options.extra ?? {}), max: CONNECTIONS } });
     await dataSource.initialize();
 
-    const bench = new SigningBench(app, stop.signal);
+    const bench = new SigningBench(app, interrupted);
     await bench.createScratchTable();
     const warmUp = Math.min(100, signings);
     await bench.baseline(warmUp);
