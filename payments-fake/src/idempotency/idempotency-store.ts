@@ -15,16 +15,6 @@ export interface SavedResponse {
   body: string;
 }
 
-interface Entry {
-  scope: string;
-  key: string;
-  endpoint: string;
-  fingerprint: string;
-  requestId: string;
-  createdAtMs: number;
-  response?: SavedResponse;
-}
-
 /** A finished request kept under its key, as the state file holds it. */
 export interface IdempotencyRecord {
   scope: string;
@@ -36,6 +26,9 @@ export interface IdempotencyRecord {
   createdAtMs: number;
   response: SavedResponse;
 }
+
+/** A request under its key; it has no response yet while it is still being handled. */
+type Entry = Omit<IdempotencyRecord, 'response'> & { response?: SavedResponse };
 
 export type IdempotencyOutcome =
   | { kind: 'fresh' }
