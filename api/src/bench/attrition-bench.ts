@@ -15,6 +15,7 @@ import type { SessionUser } from '../common/auth/session-user';
 import { RandomizationService } from '../randomization/randomization.service';
 import { StudiesService } from '../studies/studies.service';
 import { BenchDatabase, BenchSetupError, DATABASE_URL_HELP } from './bench-database';
+import { runBenchmark } from './concurrent-runner';
 import { formatTable, median, reportRow } from './bench-report';
 
 const SIZES = [100_000, 1_000_000];
@@ -245,14 +246,4 @@ async function main(): Promise<number> {
   }
 }
 
-main().then(
-  (code) => process.exit(code),
-  (error) => {
-    if (error instanceof BenchSetupError) {
-      console.error(error.message);
-      process.exit(1);
-    }
-    console.error(error instanceof Error ? (error.stack ?? error.message) : error);
-    process.exit(1);
-  },
-);
+runBenchmark('attrition-bench', main);

@@ -1,4 +1,5 @@
 import { performance } from 'node:perf_hooks';
+import { BenchSetupError } from './bench-database';
 
 /** One timed batch of operations. */
 export interface ThroughputSample {
@@ -58,4 +59,26 @@ export function abortOnInterrupt(log: (line: string) => void): AbortSignal {
     stop.abort();
   });
   return stop.signal;
+}
+
+/**
+ * Runs a benchmark's main and exits with its code: 130 after Ctrl-C, 1 with just the message for a set-up
+ * problem (a missing setting, an unreachable database), 1 with the stack for anything else.
+ */
+export function runBenchmark(name: string, main: () => Promise<number>): void {
+  main().then(
+    (code) => process.exit(code),
+    (error: unknown) => {
+      if (error instanceof Error && error.message === 'interrupted') {
+        console.error(`[${name}] interrupted; nothing was measured to the end`);
+        process.exit(130);
+      }
+      if (error instanceof BenchSetupError) {
+        console.error(`[${name}] ${error.message}`);
+        process.exit(1);
+      }
+      console.error(error instanceof Error ? (error.stack ?? error.message) : error);
+      process.exit(1);
+    },
+  );
 }

@@ -16,7 +16,7 @@ import { createSeededStream, generateSeed, streamLabel } from '../randomization/
 import { BenchDatabase, BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
 import { formatTable, median, reportRow, ReportTable } from './bench-report';
 import { BENCH_SCHEMES, BenchStudies, BenchStudy, PRETEST_CUT } from './bench-study';
-import { abortOnInterrupt, runConcurrently, timeSync } from './concurrent-runner';
+import { abortOnInterrupt, runConcurrently, timeSync, runBenchmark } from './concurrent-runner';
 
 const CONNECTIONS = 32;
 const DRY_RUN_ARRIVALS = 10_000;
@@ -267,18 +267,4 @@ async function main(): Promise<number> {
   }
 }
 
-main().then(
-  (code) => process.exit(code),
-  (error) => {
-    if (error instanceof Error && error.message === 'interrupted') {
-      console.error('[bench] interrupted; nothing was measured to the end');
-      process.exit(130);
-    }
-    if (error instanceof BenchSetupError) {
-      console.error(error.message);
-      process.exit(1);
-    }
-    console.error(error instanceof Error ? (error.stack ?? error.message) : error);
-    process.exit(1);
-  },
-);
+runBenchmark('bench', main);

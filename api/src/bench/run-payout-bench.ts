@@ -23,7 +23,7 @@ import { StudiesService } from '../studies/studies.service';
 import { BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
 import { BenchOwnDatabase } from './bench-own-database';
 import { formatTable, reportRow } from './bench-report';
-import { abortOnInterrupt, runConcurrently } from './concurrent-runner';
+import { abortOnInterrupt, runConcurrently, runBenchmark } from './concurrent-runner';
 
 /** One US dollar a payout: the amount does not change the work, and the funding stays small. */
 const PAYOUT_MINOR = 100;
@@ -306,10 +306,4 @@ async function main(): Promise<number> {
   }
 }
 
-main().then(
-  (code) => process.exit(code),
-  (error: unknown) => {
-    console.error(error instanceof BenchSetupError ? `[payout-bench] ${error.message}` : error);
-    process.exit(1);
-  },
-);
+runBenchmark('payout-bench', main);

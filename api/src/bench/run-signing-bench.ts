@@ -21,7 +21,7 @@ import { BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-
 import { BenchOwnDatabase } from './bench-own-database';
 import { formatTable, median, reportRow } from './bench-report';
 import { BENCH_SCHEMES, PRETEST_CUT } from './bench-study';
-import { abortOnInterrupt, runConcurrently } from './concurrent-runner';
+import { abortOnInterrupt, runConcurrently, runBenchmark } from './concurrent-runner';
 
 const CONNECTIONS = 32;
 const CLIENT = { ip: '127.0.0.1', userAgent: 'Evenhand signing benchmark' };
@@ -254,18 +254,4 @@ async function main(): Promise<number> {
   }
 }
 
-main().then(
-  (code) => process.exit(code),
-  (error) => {
-    if (error instanceof Error && error.message === 'interrupted') {
-      console.error('[signing-bench] interrupted; nothing was measured to the end');
-      process.exit(130);
-    }
-    if (error instanceof BenchSetupError) {
-      console.error(error.message);
-      process.exit(1);
-    }
-    console.error(error instanceof Error ? (error.stack ?? error.message) : error);
-    process.exit(1);
-  },
-);
+runBenchmark('signing-bench', main);

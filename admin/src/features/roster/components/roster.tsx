@@ -1,13 +1,11 @@
 import { Input } from '@headlessui/react';
-import { useEffect, useState } from 'react';
-import { useSearchParams } from 'react-router-dom';
+import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Pager } from '@/components/ui/pager';
 import { inputRecipe } from '@/components/ui/recipes';
 import { EmptyState, ErrorState, LoadingState, Notice } from '@/components/ui/states';
-import { useDebouncedValue } from '@/hooks/use-debounced-value';
+import { useUrlSearch } from '@/hooks/use-url-search';
 import { ApiError } from '@/lib/api-error';
-import { parsePageParam } from '@/lib/paging';
 import type { ParticipationChange } from '../api/change-participation';
 import { useReconsentCount, useRoster, type EnrollmentStatus, type RosterEntry } from '../api/get-roster';
 import { enrollmentStatusLabels, enrollmentStatusOrder } from './enrollment-status-badge';
@@ -18,7 +16,6 @@ import { RosterTable } from './roster-table';
 import { StatusFilter } from './status-filter';
 
 const pageSize = 25;
-const searchDelayMs = 300;
 
 function parseStatus(value: string | null): EnrollmentStatus | null {
   return enrollmentStatusOrder.find((status) => status === value) ?? null;
@@ -35,20 +32,17 @@ export interface RosterProps {
 }
 
 export function Roster({ studyId, blinded, canManage, recordHref, factorKeys }: RosterProps) {
-  const [searchParams, setSearchParams] = useSearchParams();
+  const { searchParams, setSearchParams, search, page, searchText, setSearchText, goToPage } = useUrlSearch();
   const status = parseStatus(searchParams.get('status'));
   const needsReconsent = searchParams.get('reconsent') === '1';
-  const search = searchParams.get('q') ?? '';
-  const page = parsePageParam(searchParams.get('page'));
-  const [searchText, setSearchText] = useState(search);
-  const debouncedSearch = useDebouncedValue(searchText.trim(), searchDelayMs);
   const [importKey, setImportKey] = useState(0);
   const [importing, setImporting] = useState(false);
   const [mailing, setMailing] = useState<RosterMailing | null>(null);
   const [change, setChange] = useState<ParticipationChangeTarget | null>(null);
   const [announcement, setAnnouncement] = useState<string | null>(null);
 
-  const setParams = (changes: Record<string, string | null>, { keepPage = false } = {}) =>
+  // A filter change starts again from page 1 and replaces the history entry, as a new search does.
+  const setParams = (changes: Record<string, string | null>) =>
     setSearchParams(
       (params) => {
         const next = new URLSearchParams(params);
@@ -56,26 +50,11 @@ export function Roster({ studyId, blinded, canManage, recordHref, factorKeys }: 
           if (value === null) next.delete(name);
           else next.set(name, value);
         }
-        if (!keepPage) next.delete('page');
-        return next;
-      },
-      { replace: !('page' in changes) },
-    );
-
-  // A new search starts again from page 1; the URL keeps filters, search and page shareable.
-  useEffect(() => {
-    if (debouncedSearch === search) return;
-    setSearchParams(
-      (params) => {
-        const next = new URLSearchParams(params);
-        if (debouncedSearch) next.set('q', debouncedSearch);
-        else next.delete('q');
         next.delete('page');
         return next;
       },
       { replace: true },
     );
-  }, [debouncedSearch, search, setSearchParams]);
 
   const roster = useRoster(studyId, { status, needsReconsent, search, page, pageSize });
   const reconsentCount = useReconsentCount(studyId);
@@ -152,7 +131,7 @@ export function Roster({ studyId, blinded, canManage, recordHref, factorKeys }: 
         />
       ) : roster.data.items.length === 0 ? (
         page > 1 ? (
-          <EmptyState title={`Page ${page} is empty`} action={<Button onClick={() => setParams({ page: null })}>Go to the first page</Button>}>
+          <EmptyState title={`Page ${page} is empty`} action={<Button onClick={() => goToPage(1)}>Go to the first page</Button>}>
             The list is shorter than it was.
           </EmptyState>
         ) : filtered ? (
@@ -187,7 +166,7 @@ export function Roster({ studyId, blinded, canManage, recordHref, factorKeys }: 
               setChange({ change: kind, entry });
             }}
           />
-          <Pager label="Roster pages" noun={['person', 'people']} pageSize={pageSize} total={roster.data.total} page={page} onPage={(next) => setParams({ page: next > 1 ? String(next) : null }, { keepPage: true })} />
+          <Pager label="Roster pages" noun={['person', 'people']} pageSize={pageSize} total={roster.data.total} page={page} onPage={goToPage} />
         </>
       )}
 

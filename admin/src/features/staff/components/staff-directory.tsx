@@ -1,14 +1,12 @@
 import { Input } from '@headlessui/react';
-import { useEffect, useState } from 'react';
-import { useSearchParams } from 'react-router-dom';
+import { useState } from 'react';
 import { Button } from '@/components/ui/button';
 import { Pager } from '@/components/ui/pager';
 import { ModalDialog } from '@/components/ui/modal-dialog';
 import { inputRecipe } from '@/components/ui/recipes';
 import { EmptyState, ErrorState, LoadingState, Notice } from '@/components/ui/states';
-import { useDebouncedValue } from '@/hooks/use-debounced-value';
+import { useUrlSearch } from '@/hooks/use-url-search';
 import { ApiError } from '@/lib/api-error';
-import { parsePageParam } from '@/lib/paging';
 import { useStaffUsers, type StaffUser } from '../api/get-staff-users';
 import { CreateStaffUserForm } from './create-staff-user-form';
 import { EditStaffUserForm } from './edit-staff-user-form';
@@ -16,43 +14,15 @@ import { StaffActivationDialog } from './staff-activation-dialog';
 import { StaffTable } from './staff-table';
 
 const pageSize = 20;
-const searchDelayMs = 300;
 
 type OpenDialog = { kind: 'create' } | { kind: 'edit'; user: StaffUser } | { kind: 'activation'; user: StaffUser } | null;
 
 export function StaffDirectory({ currentUserId }: { currentUserId: string }) {
-  const [searchParams, setSearchParams] = useSearchParams();
-  const search = searchParams.get('q') ?? '';
-  const page = parsePageParam(searchParams.get('page'));
-  const [searchText, setSearchText] = useState(search);
-  const debouncedSearch = useDebouncedValue(searchText.trim(), searchDelayMs);
+  const { search, page, searchText, setSearchText, goToPage } = useUrlSearch();
   const [dialog, setDialog] = useState<OpenDialog>(null);
   // The person last opened for editing stays rendered while the edit dialog fades out.
   const [editing, setEditing] = useState<StaffUser | null>(null);
   const [announcement, setAnnouncement] = useState<string | null>(null);
-
-  // A new search starts again from page 1; the URL keeps search and page shareable.
-  useEffect(() => {
-    if (debouncedSearch === search) return;
-    setSearchParams(
-      (params) => {
-        const next = new URLSearchParams(params);
-        if (debouncedSearch) next.set('q', debouncedSearch);
-        else next.delete('q');
-        next.delete('page');
-        return next;
-      },
-      { replace: true },
-    );
-  }, [debouncedSearch, search, setSearchParams]);
-
-  const goToPage = (nextPage: number) =>
-    setSearchParams((params) => {
-      const next = new URLSearchParams(params);
-      if (nextPage > 1) next.set('page', String(nextPage));
-      else next.delete('page');
-      return next;
-    });
 
   const staffUsers = useStaffUsers({ search, page, pageSize });
   const closeDialog = () => setDialog(null);
