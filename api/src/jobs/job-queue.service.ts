@@ -42,7 +42,7 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
     if (!this.config.runWorkers) return;
     // Up to 10 jobs per fetch run side by side; each failure is reported for its own job (retried with back-off),
     // and the worker then completes only the jobs still active, i.e. the ones that succeeded.
-    let workerId = '';
+    let workerId: string | undefined;
     workerId = await this.boss.work<Payload>(name, { pollingIntervalSeconds: 0.5, batchSize: JOB_BATCH_SIZE }, async (jobs) => {
       // A full batch means more are waiting: fetch again at once instead of sleeping out the polling interval,
       // which would otherwise cap every kind of job at one batch per half second.
