@@ -158,7 +158,7 @@ describe('paying', () => {
     expect(await availableUsd()).toBe(before + 25_000);
     await waitFor(
       () => harness.receiver.received.some((hook) => hook.type === 'payment_intent.succeeded' && JSON.parse(hook.rawBody).data.object.id === intent.id),
-      3000,
+      10_000,
       'payment_intent.succeeded webhook',
     );
 

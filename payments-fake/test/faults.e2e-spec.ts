@@ -76,11 +76,11 @@ describe('request faults', () => {
     await harness.control('/faults', { latencyMs: 200 });
     const started = Date.now();
     await stripe.balance.retrieve();
+    // A lower bound only: a busy machine can make any answer slower, never a held one faster.
     expect(Date.now() - started).toBeGreaterThanOrEqual(190);
-    await harness.control('/faults', undefined, 'DELETE');
-    const quick = Date.now();
-    await stripe.balance.retrieve();
-    expect(Date.now() - quick).toBeLessThan(150);
+    const cleared = await harness.control('/faults', undefined, 'DELETE');
+    expect(cleared.body.latencyMs).toBe(0);
+    expect(harness.fake.world.faults.latencyMs).toBe(0);
   });
 
   it('does not touch GET /health', async () => {
@@ -125,14 +125,15 @@ describe('webhook faults', () => {
   });
 
   it('holds deliveries back by delayMs', async () => {
-    await harness.control('/faults', { webhook: { delayMs: 300 } });
+    await harness.control('/faults', { webhook: { delayMs: 1000 } });
     const started = Date.now();
     await stripe.paymentIntents.create({ amount: 900, currency: 'usd' });
+    // Well inside the hold even when the machine is busy.
     await new Promise((resolve) => setTimeout(resolve, 100));
     expect(harness.receiver.received).toHaveLength(0);
     await harness.fake.world.dispatcher.idle();
     expect(harness.receiver.received).toHaveLength(1);
-    expect(Date.now() - started).toBeGreaterThanOrEqual(290);
+    expect(Date.now() - started).toBeGreaterThanOrEqual(990);
   });
 });
 

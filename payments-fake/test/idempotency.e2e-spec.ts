@@ -5,7 +5,7 @@
 // first request is still running is refused (409).
 import Stripe from 'stripe';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { onboardedAccount, startHarness, type Harness } from './support/harness';
+import { onboardedAccount, startHarness, waitFor, type Harness } from './support/harness';
 import { caught } from './support/caught';
 
 let harness: Harness;
@@ -92,11 +92,12 @@ describe('idempotency keys', () => {
   });
 
   it('refuses a second request with a key whose first request is still running (409)', async () => {
-    await harness.control('/faults', { latencyMs: 300 });
+    await harness.control('/faults', { latencyMs: 1000 });
     const params: Stripe.AccountCreateParams = { type: 'express', email: 'p015@evenhand.test' };
+    // The second is sent once the stand-in holds the first as running, not after a fixed pause.
     const [first, second] = await Promise.allSettled([
       stripe.accounts.create(params, { idempotencyKey: 'k-concurrent' }),
-      new Promise((resolve) => setTimeout(resolve, 50)).then(() =>
+      waitFor(() => harness.fake.world.idempotency.runningKeys().includes('k-concurrent'), 5000, 'the first request').then(() =>
         stripe.accounts.create(params, { idempotencyKey: 'k-concurrent' }),
       ),
     ]);

@@ -101,7 +101,7 @@ describe('hosted onboarding', () => {
     expect(onboarded.requirements?.currently_due).toEqual([]);
     expect(onboarded.external_accounts?.data[0]).toMatchObject({ object: 'bank_account', last4: '6789' });
 
-    await waitFor(() => harness.receiver.received.some((hook) => hook.type === 'account.updated'), 3000, 'account.updated');
+    await waitFor(() => harness.receiver.received.some((hook) => hook.type === 'account.updated'), 10_000, 'account.updated');
     const hook = harness.receiver.received.find((received) => received.type === 'account.updated');
     const event = stripe.webhooks.constructEvent(hook!.rawBody, hook!.signature, WEBHOOK_SECRET);
     expect(event.type).toBe('account.updated');

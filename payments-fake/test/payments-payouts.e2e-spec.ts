@@ -139,7 +139,7 @@ describe('payouts', () => {
       const client = quick.stripe();
       await quick.control('/balance', { amount: 1_000, currency: 'usd' });
       const payout = await client.payouts.create({ amount: 1_000, currency: 'usd' });
-      await waitFor(() => quick.fake.world.payouts.get(payout.id)?.status === 'paid', 2000, 'payout paid');
+      await waitFor(() => quick.fake.world.payouts.get(payout.id)?.status === 'paid', 10_000, 'payout paid');
       expect((await client.payouts.retrieve(payout.id)).status).toBe('paid');
     } finally {
       await quick.close();

@@ -152,7 +152,7 @@ describe('confirming with a typed card', () => {
     expect(balance.available[0]?.amount).toBe((before.available[0]?.amount ?? 0) + 40_000);
     await waitFor(
       () => harness.receiver.received.some((hook) => hook.type === 'payment_intent.succeeded' && JSON.parse(hook.rawBody).data.object.id === intent.id),
-      3000,
+      10_000,
       'payment_intent.succeeded webhook',
     );
   });

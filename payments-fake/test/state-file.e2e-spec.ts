@@ -44,7 +44,7 @@ async function waitForSnapshot(check: (snapshot: WorldSnapshot) => boolean, what
       last = readSnapshot();
       return check(last);
     },
-    3000,
+    10_000,
     what,
   );
   return last as WorldSnapshot;
@@ -279,7 +279,7 @@ describe('state file', () => {
     failing.answerWith(Array(10).fill(500));
     const first = await startHarness({ stateFile: file, webhookRetryDelaysMs: [60_000] }, { receiver: failing });
     const intent = await first.stripe().paymentIntents.create({ amount: 1_000, currency: 'usd' });
-    await waitFor(() => first.fake.world.dispatcher.history().length === 1, 3000, 'the failed first delivery');
+    await waitFor(() => first.fake.world.dispatcher.history().length === 1, 10_000, 'the failed first delivery');
     await first.close();
     await failing.close();
     const [event] = readSnapshot().events;
@@ -288,7 +288,7 @@ describe('state file', () => {
     const working = await startWebhookReceiver();
     const second = await startHarness({ stateFile: file }, { receiver: working });
     try {
-      await waitFor(() => working.received.some((hook) => hook.eventId === event?.id), 3000, 'the event delivered again');
+      await waitFor(() => working.received.some((hook) => hook.eventId === event?.id), 10_000, 'the event delivered again');
       await second.fake.world.dispatcher.idle();
       const hook = working.received.find((received) => received.eventId === event?.id);
       const delivered = second.stripe().webhooks.constructEvent(hook!.rawBody, hook!.signature, WEBHOOK_SECRET);

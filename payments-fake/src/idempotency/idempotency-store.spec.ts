@@ -32,6 +32,9 @@ describe('IdempotencyStore', () => {
     const store = new IdempotencyStore();
     store.begin({ ...base, params: {} });
     expect(store.begin({ ...base, params: {} })).toEqual({ kind: 'in_progress' });
+    expect(store.runningKeys()).toEqual(['k1']);
+    store.complete(base.scope, 'k1', { status: 200, body: '{}' });
+    expect(store.runningKeys()).toEqual([]);
   });
 
   it('forgets an abandoned reservation but never a saved answer', () => {

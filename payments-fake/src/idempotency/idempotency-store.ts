@@ -90,6 +90,11 @@ export class IdempotencyStore {
     if (entry && !entry.response) this.entries.delete(entryKey);
   }
 
+  /** The keys of requests still being handled, in any scope. */
+  runningKeys(): string[] {
+    return [...this.entries.values()].filter((entry) => entry.response === undefined).map((entry) => entry.key);
+  }
+
   clear(): void {
     this.entries.clear();
   }

@@ -115,7 +115,7 @@ export async function startHarness(options: Partial<PaymentsFakeOptions> = {}, s
   };
 }
 
-export async function waitFor(check: () => boolean, timeoutMs = 3000, what = 'condition'): Promise<void> {
+export async function waitFor(check: () => boolean, timeoutMs = 10_000, what = 'condition'): Promise<void> {
   const deadline = Date.now() + timeoutMs;
   while (!check()) {
     if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
