@@ -167,7 +167,7 @@ describe('a researcher sets up a between-subjects study', () => {
     // One factor: its levels are the strata, so there is no separate factor-level table.
     await page.getByText('With one stratification factor, its levels are the strata above.').waitFor();
     await page.getByRole('img', { name: /Line chart of the largest imbalance over 1,000 arrivals/ }).waitFor();
-    expect(await page.locator('.recharts-line').count()).toBeGreaterThanOrEqual(2);
+    await expect.poll(() => page.locator('.recharts-line').count()).toBeGreaterThanOrEqual(2);
     await page.getByRole('heading', { name: /Result: 1,000/ }).scrollIntoViewIfNeeded();
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await screenshot(page, journey, 'dry-run-result');

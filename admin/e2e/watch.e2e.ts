@@ -37,8 +37,8 @@ describe('dropout watch', () => {
     // The flow: drawn, with the same counts as a list for screen readers.
     const flow = page.getByRole('region', { name: 'Participant flow' });
     await flow.scrollIntoViewIfNeeded();
-    expect(await flow.locator('svg text', { hasText: /Assessed for eligibility \(n = \d+\)/ }).count()).toBe(1);
-    expect(await flow.locator('svg text', { hasText: /^Allocated to [A-C] / }).count()).toBe(3);
+    await expect.poll(() => flow.locator('svg text', { hasText: /Assessed for eligibility \(n = \d+\)/ }).count()).toBe(1);
+    await expect.poll(() => flow.locator('svg text', { hasText: /^Allocated to [A-C] / }).count()).toBe(3);
     expect(await flow.getByRole('list', { name: 'Participant flow, as text' }).textContent()).toMatch(/randomized/);
     await screenshot(page, journey, 'flow');
 
@@ -47,7 +47,7 @@ describe('dropout watch', () => {
     await curves.scrollIntoViewIfNeeded();
     // A condition nobody has left yet draws a flat line, which has no height: wait for it to exist, not to be visible.
     await curves.locator('.recharts-line-curve').nth(2).waitFor({ state: 'attached' });
-    expect(await curves.locator('.recharts-line-curve').count()).toBe(3);
+    await expect.poll(() => curves.locator('.recharts-line-curve').count()).toBe(3);
     expect(await page.getByTestId('log-rank').textContent()).toMatch(/Log-rank test across conditions: χ²\(2\) = \d+\.\d\d, p [=<>]/);
     expect(await page.getByRole('link', { name: 'Download data (CSV)' }).getAttribute('href')).toMatch(/\/api\/studies\/[0-9a-f-]{36}\/export\.csv$/);
     await screenshot(page, journey, 'curves');
