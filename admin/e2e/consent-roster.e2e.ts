@@ -91,6 +91,23 @@ describe('consent versions, roster and audit trail', () => {
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await screenshot(page, journey, 'draft-check-findings');
 
+    // Filled in again from the study: the form starts from the values the draft was made with; the new text replaces
+    // the old, hand edits included.
+    await textarea.fill(`${await textarea.inputValue()}\n\nA sentence typed by hand.`);
+    await page.getByRole('button', { name: 'Fill in again from the study…' }).click();
+    const refillDialog = page.getByRole('dialog');
+    await refillDialog.getByText(/including the edits in the text box that are not saved yet/).waitFor();
+    expect(await refillDialog.getByLabel('Investigator in charge').inputValue()).toBe('Dr. Ilse Marrow');
+    expect(await refillDialog.getByLabel('Days until payment is sent').inputValue()).toBe('10');
+    await refillDialog.getByLabel('Investigator in charge').fill('Dr. Ilse Marrow-Tennant');
+    expect(await seriousAccessibilityProblems(page)).toEqual([]);
+    await screenshot(page, journey, 'refill-draft-dialog');
+    await refillDialog.getByRole('button', { name: 'Replace the text' }).click();
+    await page.getByText('Filled in again from the study and the template. The preview shows the new text.').waitFor();
+    const refilledText = await textarea.inputValue();
+    expect(refilledText).toContain('Dr. Ilse Marrow-Tennant');
+    expect(refilledText).not.toContain('A sentence typed by hand.');
+
     // Approval details and letter on the draft; the activation dialog is read, then cancelled (activating would ask every
     // enrolled demo participant to sign again).
     await page.getByLabel('Approval reference').fill(`HLREB-J-${stamp}`);

@@ -1,6 +1,6 @@
 import { createHash } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { waitForMail } from './support/mailbox';
+import { uniqueAddress, waitForMail } from './support/mailbox';
 import { activeConsentVersion, FULL_CONSENT_VALUES, signedInParticipant, TINY_PDF } from './support/consent-fixtures';
 import { expectStatus } from './support/http';
 import { Browser, draftBetweenStudy, signedInStaff } from './support/study-fixtures';
@@ -118,6 +118,108 @@ describe('consent versions', () => {
     expect(row.empty).toBe(true);
     const ok = await expectStatus(coordinator.post(url).attach('letter', TINY_PDF, 'approval.pdf'), 200);
     expect(ok.approvalLetter).toMatchObject({ name: 'approval.pdf', size: TINY_PDF.length });
+  });
+});
+
+describe('filling a draft in again', () => {
+  const refillUrl = (studyId: string, versionId: string) => `/api/studies/${studyId}/consent-versions/${versionId}/refill`;
+
+  async function draftFromTemplate(studyId: string) {
+    return expectStatus(
+      coordinator.post(`/api/studies/${studyId}/consent-versions`).send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
+      201,
+    );
+  }
+
+  it('refills a draft from the study as it is now and the values given, replacing hand edits, and records it', async () => {
+    const studyId = await draftWithStep();
+    const draft = await draftFromTemplate(studyId);
+    expect(draft.templateValues).toEqual(FULL_CONSENT_VALUES);
+    expect(draft.body).toContain('$15.00');
+    expect(draft.body).toContain('Dr. Imre Valcourt');
+    await expectStatus(coordinator.patch(`/api/studies/${studyId}/consent-versions/${draft.id}`).send({ body: `${draft.body}\n\nA sentence typed by hand.` }), 200);
+
+    const steps = await expectStatus(coordinator.get(`/api/studies/${studyId}/steps`), 200);
+    await expectStatus(coordinator.patch(`/api/studies/${studyId}/steps/${steps.items[0].id}`).send({ payMinor: 2250 }), 200);
+    const values = { ...FULL_CONSENT_VALUES, investigatorName: 'Dr. Ada Lindqvist', contactPhone: undefined };
+    const refilled = await expectStatus(coordinator.post(refillUrl(studyId, draft.id)).send({ values }), 200);
+
+    expect(refilled).toMatchObject({ id: draft.id, version: draft.version, status: 'draft' });
+    expect(refilled.body).toContain('$22.50');
+    expect(refilled.body).not.toContain('$15.00');
+    expect(refilled.body).toContain('Dr. Ada Lindqvist');
+    expect(refilled.body).not.toContain('Dr. Imre Valcourt');
+    expect(refilled.body).not.toContain('A sentence typed by hand.');
+    expect(refilled.body).not.toContain(FULL_CONSENT_VALUES.contactPhone);
+    expect(refilled.previewHtml).toContain('Dr. Ada Lindqvist');
+    const { contactPhone: _dropped, ...stored } = values;
+    expect(refilled.templateValues).toEqual(stored);
+    const read = await expectStatus(coordinator.get(`/api/studies/${studyId}/consent-versions/${draft.id}`), 200);
+    expect(read).toMatchObject({ body: refilled.body, templateValues: stored });
+
+    const events = await testApp.dataSource.query(`SELECT actor_email, subject_id, data FROM audit_event WHERE chain = $1 AND action = 'consent.draft-refilled'`, [studyId]);
+    expect(events).toHaveLength(1);
+    expect(events[0]).toMatchObject({ actor_email: 'coordinator@evenhand.test', subject_id: draft.id, data: { version: draft.version, templateId: draft.templateId } });
+    expect([...events[0].data.fields].sort()).toEqual(Object.keys(stored).sort());
+  });
+
+  it('refuses to refill an activated version with 409 and leaves its text alone', async () => {
+    const studyId = await draftWithStep();
+    const active = await activeConsentVersion(coordinator, studyId);
+    const refused = await expectStatus(coordinator.post(refillUrl(studyId, active.id)).send({ values: FULL_CONSENT_VALUES }), 409, 'CONFLICT');
+    expect(refused.message).toMatch(/version 1 is active.*create a new draft/i);
+    const read = await expectStatus(coordinator.get(`/api/studies/${studyId}/consent-versions/${active.id}`), 200);
+    expect(read.body).toBe(active.body);
+  });
+
+  it('refuses unknown and badly typed value fields by name, and changes nothing', async () => {
+    const studyId = await draftWithStep();
+    const draft = await draftFromTemplate(studyId);
+    const unknown = await expectStatus(coordinator.post(refillUrl(studyId, draft.id)).send({ values: { ...FULL_CONSENT_VALUES, signedBy: 'Someone' } }), 400, 'VALIDATION_FAILED');
+    expect(unknown.errors).toEqual([{ field: 'values.signedBy', message: 'values.signedBy is not an allowed field' }]);
+    const badNumber = await expectStatus(coordinator.post(refillUrl(studyId, draft.id)).send({ values: { paymentDays: 'ten' } }), 400, 'VALIDATION_FAILED');
+    expect(badNumber.errors.map((e: { field: string }) => e.field)).toEqual(['values.paymentDays']);
+    const missing = await expectStatus(coordinator.post(refillUrl(studyId, draft.id)).send({}), 400, 'VALIDATION_FAILED');
+    expect(missing.errors.map((e: { field: string }) => e.field)).toEqual(['values']);
+    // Creation checks the same fields the same way.
+    const created = await expectStatus(
+      coordinator.post(`/api/studies/${studyId}/consent-versions`).send({ templateId: 'consent/minimal-risk-paid-study', values: { signedBy: 'Someone' } }),
+      400,
+    );
+    expect(created.errors.map((e: { field: string }) => e.field)).toEqual(['values.signedBy']);
+
+    const read = await expectStatus(coordinator.get(`/api/studies/${studyId}/consent-versions/${draft.id}`), 200);
+    expect(read).toMatchObject({ body: draft.body, templateValues: FULL_CONSENT_VALUES });
+    const [{ n }] = await testApp.dataSource.query(`SELECT count(*) AS n FROM audit_event WHERE chain = $1 AND action = 'consent.draft-refilled'`, [studyId]);
+    expect(Number(n)).toBe(0);
+  });
+
+  it('answers a non-member 404 as the other consent routes do, and an auditor 403', async () => {
+    const studyId = await draftWithStep();
+    const draft = await draftFromTemplate(studyId);
+    const admin = await signedInStaff(testApp, 'admin');
+    const email = uniqueAddress('outsider');
+    await expectStatus(admin.post('/api/users').send({ email, name: 'Outsider', role: 'coordinator', password: 'a-long-password-1' }), 201);
+    const outsider = testApp.browser();
+    await expectStatus(outsider.post('/api/auth/sign-in').send({ email, password: 'a-long-password-1' }), 200);
+
+    await expectStatus(outsider.patch(`/api/studies/${studyId}/consent-versions/${draft.id}`).send({ body: 'x' }), 404, 'NOT_FOUND');
+    await expectStatus(outsider.post(refillUrl(studyId, draft.id)).send({ values: FULL_CONSENT_VALUES }), 404, 'NOT_FOUND');
+    const auditor = await signedInStaff(testApp, 'auditor');
+    await expectStatus(auditor.post(refillUrl(studyId, draft.id)).send({ values: FULL_CONSENT_VALUES }), 403, 'FORBIDDEN');
+    await expectStatus(testApp.browser().post(refillUrl(studyId, draft.id)).send({ values: FULL_CONSENT_VALUES }), 401);
+
+    const read = await expectStatus(coordinator.get(`/api/studies/${studyId}/consent-versions/${draft.id}`), 200);
+    expect(read.body).toBe(draft.body);
+  });
+
+  it('lists the route in the OpenAPI document with its body and answer', async () => {
+    const document = await expectStatus(testApp.browser().get('/api/openapi.json'), 200);
+    const operation = document.paths['/api/studies/{studyId}/consent-versions/{versionId}/refill']?.post;
+    expect(operation).toBeDefined();
+    expect(operation.requestBody.content['application/json'].schema).toEqual({ $ref: '#/components/schemas/RefillConsentDraftDto' });
+    expect(operation.responses['200'].content['application/json'].schema).toEqual({ $ref: '#/components/schemas/ConsentVersionDto' });
+    expect(document.components.schemas.ConsentVersionDto.required).toContain('templateValues');
   });
 });
 

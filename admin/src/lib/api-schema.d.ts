@@ -532,6 +532,22 @@ export interface paths {
         patch: operations["ConsentController_update"];
         trace?: never;
     };
+    "/api/studies/{studyId}/consent-versions/{versionId}/refill": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["ConsentController_refill"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/studies/{studyId}/consent-versions/{versionId}/check": {
         parameters: {
             query?: never;
@@ -1635,11 +1651,27 @@ export interface components {
         ConsentTemplateListDto: {
             items: components["schemas"]["ConsentTemplateDto"][];
         };
+        ConsentFieldsDto: {
+            institutionName?: string;
+            investigatorName?: string;
+            contactEmail?: string;
+            contactPhone?: string;
+            ethicsBoardName?: string;
+            ethicsBoardContact?: string;
+            studyPurpose?: string;
+            paymentMethod?: string;
+            paymentDays?: number;
+            dataRetentionYears?: number;
+            /** @description (b)(9): whether de-identified data may be used in future research */
+            futureUseDeidentified?: boolean;
+        };
         ConsentVersionDto: {
             /** Format: uuid */
             id: string;
             version: number;
             templateId: string;
+            /** @description The values the text was last filled in with (not the study’s own fields) */
+            templateValues: components["schemas"]["ConsentFieldsDto"];
             /** @enum {string} */
             status: "draft" | "active" | "retired";
             body: string;
@@ -1661,20 +1693,6 @@ export interface components {
         ConsentVersionListDto: {
             items: components["schemas"]["ConsentVersionDto"][];
         };
-        ConsentFieldsDto: {
-            institutionName?: string;
-            investigatorName?: string;
-            contactEmail?: string;
-            contactPhone?: string;
-            ethicsBoardName?: string;
-            ethicsBoardContact?: string;
-            studyPurpose?: string;
-            paymentMethod?: string;
-            paymentDays?: number;
-            dataRetentionYears?: number;
-            /** @description (b)(9): whether de-identified data may be used in future research */
-            futureUseDeidentified?: boolean;
-        };
         CreateConsentVersionDto: {
             /** @example consent/minimal-risk-paid-study */
             templateId: string;
@@ -1691,6 +1709,10 @@ export interface components {
              * @example 2026-11-20
              */
             approvedAt?: string;
+        };
+        RefillConsentDraftDto: {
+            /** @description The values to fill in, replacing the stored ones; the study’s current fields and steps fill the rest */
+            values: components["schemas"]["ConsentFieldsDto"];
         };
         ConsentFindingDto: {
             code: string;
@@ -3424,6 +3446,32 @@ export interface operations {
         requestBody: {
             content: {
                 "application/json": components["schemas"]["UpdateConsentVersionDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ConsentVersionDto"];
+                };
+            };
+        };
+    };
+    ConsentController_refill: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                versionId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["RefillConsentDraftDto"];
             };
         };
         responses: {

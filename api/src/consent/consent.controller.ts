@@ -8,7 +8,15 @@ import type { SessionUser } from '../common/auth/session-user';
 import { uuidParam } from '../common/http/uuid-param';
 import { StudyMembersOnly } from '../studies/study-access.guard';
 import { ConsentService, MAX_APPROVAL_LETTER_BYTES } from './consent.service';
-import { ConsentCheckDto, ConsentTemplateListDto, ConsentVersionDto, ConsentVersionListDto, CreateConsentVersionDto, UpdateConsentVersionDto } from './dto/consent.dto';
+import {
+  ConsentCheckDto,
+  ConsentTemplateListDto,
+  ConsentVersionDto,
+  ConsentVersionListDto,
+  CreateConsentVersionDto,
+  RefillConsentDraftDto,
+  UpdateConsentVersionDto,
+} from './dto/consent.dto';
 
 const EDITORS = ['coordinator', 'researcher', 'admin'] as const;
 
@@ -59,6 +67,20 @@ export class ConsentController {
     @Body() body: UpdateConsentVersionDto,
   ): Promise<ConsentVersionDto> {
     return this.consent.updateDraft(user, studyId, versionId, body);
+  }
+
+  @Post('studies/:studyId/consent-versions/:versionId/refill')
+  @HttpCode(200)
+  @Roles(...EDITORS)
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: ConsentVersionDto })
+  refill(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('versionId', uuidParam('versionId')) versionId: string,
+    @Body() body: RefillConsentDraftDto,
+  ): Promise<ConsentVersionDto> {
+    return this.consent.refillDraft(user, studyId, versionId, body.values);
   }
 
   @Post('studies/:studyId/consent-versions/:versionId/check')

@@ -9,7 +9,7 @@ import { StepsService } from '../steps/steps.service';
 import { StudiesService } from '../studies/studies.service';
 import { renderConsentHtml } from './consent-markdown';
 import { readingSections, ReadingSection } from './consent-reading';
-import { DEFAULT_CONSENT_TEMPLATE_ID, fillConsentTemplate } from './consent-template';
+import { ConsentTemplateFields, DEFAULT_CONSENT_TEMPLATE_ID, fillConsentTemplate } from './consent-template';
 import { renderedConsentText, renderedTextFingerprint } from './consent-text';
 import { ConsentCheckDto, ConsentFieldsDto, ConsentVersionDto, UpdateConsentVersionDto } from './dto/consent.dto';
 import { ConsentVersionEntity } from './entities/consent-version.entity';
@@ -20,6 +20,11 @@ import { checkRequiredElements } from './required-elements-check';
 export const MAX_APPROVAL_LETTER_BYTES = 10 * 1024 * 1024;
 /** The meaning of the signature, stated beside the button and printed on the signed copy (21 CFR 11.50(a)(3)). */
 export const SIGNATURE_MEANING = 'I have read this form and agree to take part';
+
+/** The template values as stored: only the fields that were given, as a plain object. */
+function givenValues(values: ConsentFieldsDto): Record<string, unknown> {
+  return Object.fromEntries(Object.entries(values).filter(([, value]) => value !== undefined));
+}
 
 export type ActivationListener = (manager: EntityManager, studyId: string, version: ConsentVersionEntity, actor: AuditActor) => Promise<void>;
 
@@ -67,6 +72,7 @@ export class ConsentService {
       id: version.id,
       version: version.version,
       templateId: version.templateId,
+      templateValues: version.templateValues as ConsentFieldsDto,
       status: version.status,
       body: version.body,
       previewHtml,
@@ -100,31 +106,7 @@ export class ConsentService {
         { field: 'templateId', message: `must be one of ${this.listTemplates().map((t) => t.id).join(', ') || DEFAULT_CONSENT_TEMPLATE_ID}` },
       ]);
     }
-    const study = await this.studies.require(studyId);
-    const steps = await this.steps.list(studyId);
-    const body = fillConsentTemplate(
-      {
-        studyTitle: study.title,
-        protocolNumber: study.protocolNumber,
-        labName: study.labName || null,
-        contactEmail: values.contactEmail ?? study.contactEmail,
-        studyPurpose: values.studyPurpose ?? (study.summary || null),
-        estimatedMinutes: study.estimatedMinutes,
-        targetSize: study.targetSize,
-        currency: study.currency,
-        steps: steps.items.map((s) => ({ title: s.title, description: s.description || null, payMinor: s.payMinor })),
-        futureUseDeidentified: values.futureUseDeidentified ?? false,
-        institutionName: values.institutionName,
-        investigatorName: values.investigatorName,
-        contactPhone: values.contactPhone,
-        ethicsBoardName: values.ethicsBoardName,
-        ethicsBoardContact: values.ethicsBoardContact,
-        paymentMethod: values.paymentMethod,
-        paymentDays: values.paymentDays,
-        dataRetentionYears: values.dataRetentionYears,
-      },
-      templateId,
-    );
+    const body = fillConsentTemplate(await this.templateFields(studyId, values), templateId);
     const created = await this.dataSource.transaction(async (manager) => {
       await manager.query(`SELECT pg_advisory_xact_lock(hashtextextended($1, 0))`, [`consent-version:${studyId}`]);
       const [{ next }] = await manager.query(`SELECT coalesce(max(version), 0) + 1 AS next FROM consent_version WHERE study_id = $1`, [studyId]);
@@ -133,7 +115,7 @@ export class ConsentService {
           studyId,
           version: Number(next),
           templateId,
-          templateValues: values as Record<string, unknown>,
+          templateValues: givenValues(values),
           body,
           status: 'draft',
           createdBy: actor.id,
@@ -143,6 +125,64 @@ export class ConsentService {
       return version;
     });
     return this.toDto(created);
+  }
+
+  /**
+   * Fills a draft in again from its own template, the study's fields and steps as they are now, and the values given
+   * (which replace the stored ones). The whole text is replaced, hand edits to the wording included.
+   */
+  async refillDraft(actor: AuditActor, studyId: string, versionId: string, values: ConsentFieldsDto): Promise<ConsentVersionDto> {
+    const refilled = await this.dataSource.transaction(async (manager) => {
+      // The same row lock activation takes, so a draft cannot be refilled while it is being activated.
+      const version = await manager
+        .createQueryBuilder(ConsentVersionEntity, 'v')
+        .setLock('pessimistic_write')
+        .where('v.id = :versionId AND v.study_id = :studyId', { versionId, studyId })
+        .getOne();
+      if (!version) throw new DomainException('NOT_FOUND', 'No such consent version in this study.');
+      if (version.status !== 'draft') {
+        throw new DomainException('CONFLICT', `Version ${version.version} is ${version.status}, so its text is fixed; create a new draft to change the wording.`);
+      }
+      version.body = fillConsentTemplate(await this.templateFields(studyId, values, manager), version.templateId);
+      version.templateValues = givenValues(values);
+      const saved = await manager.save(version);
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'consent.draft-refilled',
+        subjectType: 'consent-version',
+        subjectId: versionId,
+        data: { version: version.version, templateId: version.templateId, fields: Object.keys(version.templateValues) },
+      });
+      return saved;
+    });
+    return this.toDto(refilled);
+  }
+
+  /** What a template is filled with: the study's fields and steps as they are now, plus the values staff gave. */
+  private async templateFields(studyId: string, values: ConsentFieldsDto, manager: EntityManager = this.dataSource.manager): Promise<ConsentTemplateFields> {
+    const study = await this.studies.require(studyId, manager);
+    const steps = await this.steps.list(studyId, manager);
+    return {
+      studyTitle: study.title,
+      protocolNumber: study.protocolNumber,
+      labName: study.labName || null,
+      contactEmail: values.contactEmail ?? study.contactEmail,
+      studyPurpose: values.studyPurpose ?? (study.summary || null),
+      estimatedMinutes: study.estimatedMinutes,
+      targetSize: study.targetSize,
+      currency: study.currency,
+      steps: steps.items.map((s) => ({ title: s.title, description: s.description || null, payMinor: s.payMinor })),
+      futureUseDeidentified: values.futureUseDeidentified ?? false,
+      institutionName: values.institutionName,
+      investigatorName: values.investigatorName,
+      contactPhone: values.contactPhone,
+      ethicsBoardName: values.ethicsBoardName,
+      ethicsBoardContact: values.ethicsBoardContact,
+      paymentMethod: values.paymentMethod,
+      paymentDays: values.paymentDays,
+      dataRetentionYears: values.dataRetentionYears,
+    };
   }
 
   async updateDraft(actor: AuditActor, studyId: string, versionId: string, input: UpdateConsentVersionDto): Promise<ConsentVersionDto> {

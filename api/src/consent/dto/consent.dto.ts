@@ -1,6 +1,6 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { Transform } from 'class-transformer';
-import { IsBoolean, IsDateString, IsEmail, IsInt, IsObject, IsOptional, IsString, Length, MaxLength, Min } from 'class-validator';
+import { Transform, Type } from 'class-transformer';
+import { IsBoolean, IsDateString, IsEmail, IsInt, IsObject, IsOptional, IsString, Length, MaxLength, Min, ValidateNested } from 'class-validator';
 
 const trimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -38,7 +38,20 @@ export class CreateConsentVersionDto {
   @ApiPropertyOptional({ type: ConsentFieldsDto, description: 'Values for the template; study fields fill the rest' })
   @IsOptional()
   @IsObject()
+  @ValidateNested()
+  @Type(() => ConsentFieldsDto)
   values?: ConsentFieldsDto;
+}
+
+export class RefillConsentDraftDto {
+  @ApiProperty({
+    type: ConsentFieldsDto,
+    description: 'The values to fill in, replacing the stored ones; the study’s current fields and steps fill the rest',
+  })
+  @IsObject()
+  @ValidateNested()
+  @Type(() => ConsentFieldsDto)
+  values: ConsentFieldsDto;
 }
 
 export class UpdateConsentVersionDto {
@@ -80,6 +93,8 @@ export class ConsentVersionDto {
   @ApiProperty({ format: 'uuid' }) id: string;
   @ApiProperty() version: number;
   @ApiProperty() templateId: string;
+  @ApiProperty({ type: ConsentFieldsDto, description: 'The values the text was last filled in with (not the study’s own fields)' })
+  templateValues: ConsentFieldsDto;
   @ApiProperty({ enum: ['draft', 'active', 'retired'] }) status: 'draft' | 'active' | 'retired';
   @ApiProperty() body: string;
   @ApiProperty({ description: 'Sanitised HTML preview' }) previewHtml: string;

@@ -16,9 +16,8 @@ const optionalWholeNumber = (label: string) =>
     .refine((value) => value === '' || /^\d+$/.test(value), `Enter ${label} as a whole number, or leave it blank.`)
     .refine((value) => value === '' || Number(value) >= 1, `${label[0]?.toUpperCase()}${label.slice(1)} must be at least 1.`);
 
-// Limits mirror CreateConsentVersionDto / ConsentFieldsDto in api/src/consent/dto/consent.dto.ts.
-export const newConsentDraftInputSchema = z.object({
-  templateId: z.string().min(1, 'Choose a template.'),
+// Limits mirror ConsentFieldsDto in api/src/consent/dto/consent.dto.ts; shared with filling a draft in again.
+export const consentValuesInputSchema = z.object({
   institutionName: optionalText(200, 'the institution'),
   investigatorName: optionalText(200, 'the investigator’s name'),
   contactEmail: z
@@ -35,29 +34,33 @@ export const newConsentDraftInputSchema = z.object({
   futureUseDeidentified: z.boolean(),
 });
 
-export type NewConsentDraftInput = z.infer<typeof newConsentDraftInputSchema>;
-export type ConsentValueField = Exclude<keyof NewConsentDraftInput, 'templateId'>;
+export type ConsentValuesInput = z.infer<typeof consentValuesInputSchema>;
+export type ConsentValueField = keyof ConsentValuesInput;
 
-export const emptyConsentDraftInput = (templateId: string): NewConsentDraftInput => ({
-  templateId,
-  institutionName: '',
-  investigatorName: '',
-  contactEmail: '',
-  contactPhone: '',
-  ethicsBoardName: '',
-  ethicsBoardContact: '',
-  studyPurpose: '',
-  paymentMethod: '',
-  paymentDays: '',
-  dataRetentionYears: '',
-  futureUseDeidentified: false,
+export const newConsentDraftInputSchema = consentValuesInputSchema.extend({
+  templateId: z.string().min(1, 'Choose a template.'),
 });
 
+export type NewConsentDraftInput = z.infer<typeof newConsentDraftInputSchema>;
+
+const textValueFields = ['institutionName', 'investigatorName', 'contactEmail', 'contactPhone', 'ethicsBoardName', 'ethicsBoardContact', 'studyPurpose', 'paymentMethod'] as const;
+
+/** The form's starting point from stored template values (a blank form when there are none). */
+export function consentValuesInput(stored: ConsentTemplateValues = {}): ConsentValuesInput {
+  const input = {} as ConsentValuesInput;
+  for (const field of textValueFields) input[field] = stored[field] ?? '';
+  input.paymentDays = stored.paymentDays === undefined ? '' : String(stored.paymentDays);
+  input.dataRetentionYears = stored.dataRetentionYears === undefined ? '' : String(stored.dataRetentionYears);
+  input.futureUseDeidentified = stored.futureUseDeidentified ?? false;
+  return input;
+}
+
+export const emptyConsentDraftInput = (templateId: string): NewConsentDraftInput => ({ templateId, ...consentValuesInput() });
+
 /** The template values to send: blanks are left out so the api fills them from the study or marks them "to fill". */
-export function templateValuesFrom(input: NewConsentDraftInput): ConsentTemplateValues {
+export function templateValuesFrom(input: ConsentValuesInput): ConsentTemplateValues {
   const values: ConsentTemplateValues = { futureUseDeidentified: input.futureUseDeidentified };
-  const textFields = ['institutionName', 'investigatorName', 'contactEmail', 'contactPhone', 'ethicsBoardName', 'ethicsBoardContact', 'studyPurpose', 'paymentMethod'] as const;
-  for (const field of textFields) {
+  for (const field of textValueFields) {
     const value = input[field].trim();
     if (value) values[field] = value;
   }

@@ -3,7 +3,7 @@ import userEvent from '@testing-library/user-event';
 import { describe, expect, it, vi } from 'vitest';
 import { stubApi } from '@/test/api-stub';
 import { renderWithProviders } from '@/test/render-with-providers';
-import { draftBody, draftVersion, failingCheck, studyId } from '../test/consent-fixtures';
+import { consentTemplate, draftBody, draftVersion, failingCheck, studyId } from '../test/consent-fixtures';
 import { DraftEditor } from './draft-editor';
 
 const version = draftVersion({ approvalLetter: null });
@@ -43,6 +43,29 @@ describe('DraftEditor', { timeout: 15_000 }, () => {
     expect(await screen.findByText('Every required element is present, and no placeholder is left to fill.')).toBeInTheDocument();
     await waitFor(() => expect(requests.map((request) => `${request.method} ${request.path}`)).toEqual([`PATCH ${versionPath}`, `POST ${versionPath}/check`]));
     expect(requests[0]?.body).toEqual({ body: edited });
+  });
+
+  it('fills the draft in again from the study and puts the new text in the text box', async () => {
+    const newBody = `${draftBody.replace('[to fill: institution]', 'Harbor Lane Institute')}\n\n## Payment\nYou are paid $22.50 for the session.`;
+    const { requests } = stubApi({
+      'GET /api/consent-templates': { status: 200, body: { items: [consentTemplate] } },
+      [`POST ${versionPath}/refill`]: { status: 200, body: { ...version, body: newBody } },
+    });
+    renderWithProviders(<DraftEditor studyId={studyId} version={version} activeVersionNumber={2} onActivated={vi.fn()} />);
+
+    const textarea = screen.getByLabelText('Form text (Markdown)') as HTMLTextAreaElement;
+    await userEvent.click(textarea);
+    await userEvent.paste('A sentence typed by hand.');
+    await userEvent.click(screen.getByRole('button', { name: 'Fill in again from the study…' }));
+    expect(await screen.findByText(/including the edits in the text box that are not saved yet/)).toBeInTheDocument();
+    await userEvent.click(screen.getByLabelText('Institution'));
+    await userEvent.paste('Harbor Lane Institute');
+    await userEvent.click(screen.getByRole('button', { name: 'Replace the text' }));
+
+    await waitFor(() => expect(textarea.value).toBe(newBody));
+    expect(screen.queryByText('Unsaved changes')).not.toBeInTheDocument();
+    expect(screen.getByText('Filled in again from the study and the template. The preview shows the new text.')).toBeInTheDocument();
+    expect(requests.filter((request) => request.method === 'POST').map((request) => request.path)).toEqual([`${versionPath}/refill`]);
   });
 
   it('keeps activation closed until the approval letter is uploaded', () => {

@@ -19,6 +19,7 @@ import { ApprovalDetailsForm } from './approval-details-form';
 import { ApprovalLetterUpload } from './approval-letter-upload';
 import { ConsentPreview } from './consent-preview';
 import { DraftFindings } from './draft-findings';
+import { RefillDraftDialog } from './refill-draft-dialog';
 import { TemplateCaution } from './template-caution';
 
 const bodyTextareaClass =
@@ -38,6 +39,8 @@ export function DraftEditor({ studyId, version, activeVersionNumber, onActivated
   const [checkedBody, setCheckedBody] = useState<string | null>(null);
   const [bodyStatus, setBodyStatus] = useState('');
   const [activating, setActivating] = useState(false);
+  const [refilling, setRefilling] = useState(false);
+  const [refillFormKey, setRefillFormKey] = useState(0);
 
   const {
     register,
@@ -66,6 +69,11 @@ export function DraftEditor({ studyId, version, activeVersionNumber, onActivated
       );
     });
 
+  const startRefill = () => {
+    setRefillFormKey((key) => key + 1);
+    setRefilling(true);
+  };
+
   const runCheck = () => check.mutate(undefined, { onSuccess: () => setCheckedBody(textarea.current?.value ?? body) });
   const saveAndCheck = () => (isDirty ? save(() => runCheck())() : runCheck());
 
@@ -93,7 +101,16 @@ export function DraftEditor({ studyId, version, activeVersionNumber, onActivated
         id="form-text"
         title="Form text"
         description="Edit the Markdown on the left; the preview on the right shows the text as last saved."
-        actions={isDirty && <Badge tone="caution">Unsaved changes</Badge>}
+        actions={
+          <>
+            {isDirty && (
+              <span className="self-center">
+                <Badge tone="caution">Unsaved changes</Badge>
+              </span>
+            )}
+            <Button onClick={startRefill}>Fill in again from the study…</Button>
+          </>
+        }
       >
         <form onSubmit={save()} noValidate className="grid gap-4 lg:grid-cols-2" aria-label="Form text">
           <Field className={fieldRecipe.field}>
@@ -178,6 +195,20 @@ export function DraftEditor({ studyId, version, activeVersionNumber, onActivated
           </Button>
         </div>
       </Panel>
+
+      <RefillDraftDialog
+        key={refillFormKey}
+        studyId={studyId}
+        version={version}
+        open={refilling}
+        unsavedEdits={isDirty}
+        onClose={() => setRefilling(false)}
+        onRefilled={(refilled) => {
+          setRefilling(false);
+          reset({ body: refilled.body });
+          setBodyStatus('Filled in again from the study and the template. The preview shows the new text.');
+        }}
+      />
 
       <ActivationDialog
         studyId={studyId}

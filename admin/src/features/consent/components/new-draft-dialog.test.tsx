@@ -3,17 +3,9 @@ import userEvent from '@testing-library/user-event';
 import { describe, expect, it, vi } from 'vitest';
 import { stubApi } from '@/test/api-stub';
 import { renderWithProviders } from '@/test/render-with-providers';
-import { draftVersion, studyId } from '../test/consent-fixtures';
+import { consentTemplate as template, draftVersion, studyId } from '../test/consent-fixtures';
 import { NewDraftDialog } from './new-draft-dialog';
 
-const template = {
-  id: 'consent/minimal-risk-paid-study',
-  title: 'Consent form for a minimal-risk paid behavioural study',
-  version: 1,
-  // As GET /api/consent-templates lists it: more placeholders than the form asks for; the study fills the rest.
-  fields: ['studyTitle', 'institutionName', 'investigatorName', 'contactEmail', 'ethicsBoardName', 'paymentDays', 'futureUseDeidentified'],
-  notice: "This template is a starting point for your ethics board's review, not legal advice.",
-};
 const versionsPath = `/api/studies/${studyId}/consent-versions`;
 
 // A dialog with a dozen fields renders slowly on the shared test machines.

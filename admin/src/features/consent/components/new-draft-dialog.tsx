@@ -1,28 +1,21 @@
-import { Description, Dialog, DialogBackdrop, DialogPanel, DialogTitle, Fieldset, Legend } from '@headlessui/react';
+import { Description, Dialog, DialogBackdrop, DialogPanel, DialogTitle } from '@headlessui/react';
 import { zodResolver } from '@hookform/resolvers/zod';
-import { Controller, useForm, type UseFormReturn } from 'react-hook-form';
+import { Controller, useForm } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import { cx } from '@/components/ui/cx';
 import { DialogActions } from '@/components/ui/modal-dialog';
-import { CheckboxField } from '@/components/ui/checkbox-field';
 import { dialogRecipe } from '@/components/ui/recipes';
 import { SelectField } from '@/components/ui/select-field';
 import { ErrorState, LoadingState, Notice } from '@/components/ui/states';
-import { TextAreaField } from '@/components/ui/text-area-field';
-import { TextField } from '@/components/ui/text-field';
 import { ApiError } from '@/lib/api-error';
 import { applyServerErrors } from '@/lib/form-server-errors';
-import {
-  emptyConsentDraftInput,
-  newConsentDraftInputSchema,
-  useCreateConsentDraft,
-  type ConsentValueField,
-  type NewConsentDraftInput,
-} from '../api/create-consent-draft';
+import { emptyConsentDraftInput, newConsentDraftInputSchema, useCreateConsentDraft, type NewConsentDraftInput } from '../api/create-consent-draft';
 import { useConsentTemplates, type ConsentTemplate } from '../api/get-consent-templates';
 import type { ConsentVersion } from '../api/get-consent-versions';
-import { fieldsForTemplate, templateFieldGroups, templateFieldLabels } from '../utils/template-field-labels';
+import { fieldsForTemplate } from '../utils/template-field-labels';
+import { templateValueFieldNames, withoutValuesPrefix } from '../utils/template-value-errors';
 import { TemplateCaution } from './template-caution';
+import { TemplateValueFields } from './template-value-fields';
 
 /** Give it a new `key` each time it opens, so every draft starts from an empty form. */
 export interface NewDraftDialogProps {
@@ -73,18 +66,7 @@ interface NewDraftFormProps {
   onCreated: (version: ConsentVersion) => void;
 }
 
-const formFields = ['templateId', ...(Object.keys(templateFieldLabels) as ConsentValueField[])] as const;
-
-/** The api names template values `values.<field>`; the form names them `<field>`. */
-function withoutValuesPrefix(error: unknown): unknown {
-  if (!(error instanceof ApiError)) return error;
-  return new ApiError({
-    statusCode: error.status,
-    code: error.code,
-    message: error.message,
-    errors: error.fieldErrors.map((problem) => ({ ...problem, field: problem.field.replace(/^values\./, '') })),
-  });
-}
+const formFields = ['templateId', ...templateValueFieldNames] as const;
 
 function NewDraftForm({ studyId, templates, onCancel, onCreated }: NewDraftFormProps) {
   const createDraft = useCreateConsentDraft(studyId);
@@ -122,20 +104,7 @@ function NewDraftForm({ studyId, templates, onCancel, onCreated }: NewDraftFormP
           />
         )}
       />
-      {templateFieldGroups.map((group) => {
-        const inGroup = fields.filter((field) => templateFieldLabels[field].group === group.id);
-        if (inGroup.length === 0) return null;
-        return (
-          <Fieldset key={group.id} className="flex flex-col gap-3">
-            <Legend className="text-sm font-semibold text-ink">{group.legend}</Legend>
-            <div className="grid gap-3 sm:grid-cols-2">
-              {inGroup.map((field) => (
-                <TemplateValueField key={field} field={field} form={form} />
-              ))}
-            </div>
-          </Fieldset>
-        );
-      })}
+      <TemplateValueFields form={form} fields={fields} />
       <DialogActions>
         <Button onClick={onCancel}>Cancel</Button>
         <Button type="submit" variant="primary" pending={createDraft.isPending}>
@@ -143,36 +112,5 @@ function NewDraftForm({ studyId, templates, onCancel, onCreated }: NewDraftFormP
         </Button>
       </DialogActions>
     </form>
-  );
-}
-
-function TemplateValueField({ field, form }: { field: ConsentValueField; form: UseFormReturn<NewConsentDraftInput> }) {
-  const { label, hint, kind } = templateFieldLabels[field];
-  const error = form.formState.errors[field]?.message;
-
-  if (kind === 'yes-no') {
-    return (
-      <Controller
-        control={form.control}
-        name="futureUseDeidentified"
-        render={({ field: checkbox }) => (
-          <CheckboxField className="sm:col-span-2" label={label} hint={hint} checked={checkbox.value} onChange={checkbox.onChange} />
-        )}
-      />
-    );
-  }
-  if (kind === 'long-text') {
-    return <TextAreaField className="sm:col-span-2" label={label} hint={hint} error={error} rows={3} {...form.register(field)} />;
-  }
-  return (
-    <TextField
-      label={label}
-      hint={hint}
-      error={error}
-      type={kind === 'number' ? 'text' : kind}
-      inputMode={kind === 'number' ? 'numeric' : undefined}
-      autoComplete="off"
-      {...form.register(field)}
-    />
   );
 }

@@ -14,11 +14,22 @@ export const draftBody = [
   'The study is run by [to fill: institution].',
 ].join('\n');
 
+/** A template as GET /api/consent-templates lists it. */
+export const consentTemplate = {
+  id: 'consent/minimal-risk-paid-study',
+  title: 'Consent form for a minimal-risk paid behavioural study',
+  version: 1,
+  // As GET /api/consent-templates lists it: more placeholders than the form asks for; the study fills the rest.
+  fields: ['studyTitle', 'institutionName', 'investigatorName', 'contactEmail', 'ethicsBoardName', 'paymentDays', 'futureUseDeidentified'],
+  notice: "This template is a starting point for your ethics board's review, not legal advice.",
+};
+
 export function draftVersion(overrides: Partial<ConsentVersion> = {}): ConsentVersion {
   return {
     id: '0b9f5c1e-4d3a-4e8b-9a6f-2c7d1e5b8a40',
     version: 3,
     templateId: 'consent/minimal-risk-paid-study',
+    templateValues: { investigatorName: 'Dr. Ines Valcourt', paymentDays: 7, futureUseDeidentified: true },
     status: 'draft',
     body: draftBody,
     previewHtml: '<h1>Consent to take part in a research study: Wayfinding cues</h1>',
