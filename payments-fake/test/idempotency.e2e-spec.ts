@@ -97,7 +97,7 @@ describe('idempotency keys', () => {
     // The second is sent once the stand-in holds the first as running, not after a fixed pause.
     const [first, second] = await Promise.allSettled([
       stripe.accounts.create(params, { idempotencyKey: 'k-concurrent' }),
-      waitFor(() => harness.fake.world.idempotency.runningKeys().includes('k-concurrent'), 5000, 'the first request').then(() =>
+      waitFor(() => harness.fake.world.idempotency.runningKeys().includes('k-concurrent'), 10_000, 'the first request').then(() =>
         stripe.accounts.create(params, { idempotencyKey: 'k-concurrent' }),
       ),
     ]);

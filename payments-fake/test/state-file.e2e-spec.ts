@@ -320,7 +320,7 @@ describe('state file', () => {
       const world = second.fake.world;
       await waitFor(
         () => world.payouts.get(payout.id)?.status === 'paid' && world.ledger.nextReleaseMs() === undefined,
-        5000,
+        10_000,
         'the payout paid and the funds released',
       );
       const client = second.stripe();

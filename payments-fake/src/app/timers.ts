@@ -5,7 +5,8 @@ export class Timers {
   /** `afterRun` is told after each timer has run (the world uses it to save what the timer changed). */
   constructor(private readonly afterRun?: () => void) {}
 
-  after(ms: number, run: () => void): void {
+  /** Runs `run` once after `ms`; the returned function cancels it if it has not run yet. */
+  after(ms: number, run: () => void): () => void {
     const handle = setTimeout(() => {
       this.handles.delete(handle);
       try {
@@ -16,6 +17,10 @@ export class Timers {
     }, ms);
     handle.unref();
     this.handles.add(handle);
+    return () => {
+      clearTimeout(handle);
+      this.handles.delete(handle);
+    };
   }
 
   get pending(): number {

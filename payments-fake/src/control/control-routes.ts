@@ -52,6 +52,8 @@ export function controlRouter(world: ProviderWorld): express.Router {
     const seconds = readInteger(body, 'advanceSeconds', { required: true, min: 0, max: 400 * 24 * 60 * 60 }) as number;
     world.clock.advance(seconds);
     world.releaseDueFunds(world.clock.nowMs());
+    // Funds still pending are now due sooner on the moved clock.
+    world.scheduleFundsRelease();
     res.json({ now: world.clock.nowSeconds() });
   });
 

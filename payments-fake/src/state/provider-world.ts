@@ -64,6 +64,8 @@ export class ProviderWorld {
   readonly events: EventLog;
 
   private platformId = objectId('acct', 16);
+  /** Cancels the one timer waiting for the earliest pending funds. */
+  private cancelFundsRelease: (() => void) | undefined;
   private readonly changeListeners = new Set<(change: WorldChange) => void>();
   readonly platformCountry = 'US';
   readonly platformCurrency = 'usd';
@@ -127,11 +129,19 @@ export class ProviderWorld {
     return this.accounts.get(accountId)?.default_currency ?? this.platformCurrency;
   }
 
-  /** Moves due pending funds to available and keeps a timer for the next ones. */
+  /** Keeps one timer for the earliest pending funds; when it fires it releases what is due and sets the next. */
   scheduleFundsRelease(): void {
+    this.cancelFundsRelease?.();
+    this.cancelFundsRelease = undefined;
     const next = this.ledger.nextReleaseMs();
     if (next === undefined) return;
-    this.timers.after(Math.max(0, next - this.clock.nowMs()), () => this.releaseDueFunds(this.clock.nowMs()));
+    this.cancelFundsRelease = this.timers.after(Math.max(0, next - this.clock.nowMs()), () => {
+      this.cancelFundsRelease = undefined;
+      this.releaseDueFunds(this.clock.nowMs());
+      // Later funds need a timer of their own, and a timer can fire a millisecond before the clock reaches
+      // the due time (Node's timers run on the event loop's cached time), leaving those funds still pending.
+      this.scheduleFundsRelease();
+    });
   }
 
   releaseDueFunds(nowMs: number, request?: EventRequest): void {
@@ -150,6 +160,7 @@ export class ProviderWorld {
 
   reset(): void {
     this.timers.clearAll();
+    this.cancelFundsRelease = undefined;
     this.dispatcher.clear();
     this.clock.reset();
     this.ledger.clear();
