@@ -6,6 +6,10 @@
  * them; attrition only aggregates, which no single domain's service could do without loading every row.
  */
 
+import { splitFollowedGroups, type FlowRow, type FollowedGroupRow, type SurvivalRow } from './followed-groups';
+
+export type { FlowRow, SurvivalRow } from './followed-groups';
+
 /** Runs one statement with positional parameters and returns its rows. */
 export type SqlRunner = <Row>(sql: string, parameters: unknown[]) => Promise<Row[]>;
 
@@ -28,8 +32,6 @@ export function randomizedPredicate(design: StudyDesign, alias = 'e'): string {
   return `(${alias}.status IN ('assigned','active','completed','withdrew','lost') OR (${alias}.status = 'excluded' AND ${alias}.assigned_at IS NOT NULL)) AND ${hasArm}`;
 }
 
-const DROPPED_STATUSES = `('withdrew','lost','excluded')`;
-
 /** When follow-up ended: the dropout, the completion, or — still active — the censoring time given as $2. */
 function followUpEnd(alias: string): string {
   return `CASE ${alias}.status
@@ -45,20 +47,6 @@ export function followUpDays(alias = 'e'): string {
   return `greatest(0, floor(extract(epoch FROM (${followUpEnd(alias)}) - ${alias}.assigned_at) / 86400))::int`;
 }
 
-export interface FlowRow {
-  arm: string | null;
-  status: string;
-  assigned: boolean;
-  reason: string | null;
-  n: number;
-}
-
-export interface SurvivalRow {
-  arm: string;
-  day: number;
-  dropped: number;
-  censored: number;
-}
 
 /** Σ columns arrive as numeric text, Σ² columns as float8 numbers. */
 export interface PayRow {
@@ -109,25 +97,21 @@ export async function readAttritionAggregates(
   const arm = armExpression(study.design);
   const randomized = randomizedPredicate(study.design);
 
-  // Every enrollment of the study, by arm, status and reason: the CONSORT boxes and the per-arm status counts.
+  // One pass over the study's enrollments for both the CONSORT boxes (every enrollment by arm, status and reason) and
+  // the dropout curves (randomized ones by whole days followed); the two are split apart in JavaScript.
   // Grouped by the arm as stored (a uuid between subjects) and turned into text only per group.
-  const flow = await run<FlowRow>(
-    `SELECT arm::text AS arm, status, assigned, reason, n
+  const followed = await run<FollowedGroupRow>(
+    `SELECT arm::text AS arm, status, assigned, reason, randomized, day, n
      FROM (SELECT ${arm} AS arm, e.status, (e.assigned_at IS NOT NULL) AS assigned,
                   CASE e.status WHEN 'excluded' THEN e.exclusion_reason WHEN 'withdrew' THEN e.withdrawal_reason WHEN 'lost' THEN e.lost_reason END AS reason,
+                  coalesce(${randomized}, false) AS randomized,
+                  CASE WHEN ${randomized} THEN ${followUpDays('e')} END AS day,
                   count(*)::int AS n
            FROM enrollment e WHERE e.study_id = $1
-           GROUP BY 1, 2, 3, 4) AS grouped`,
-    [study.id],
-  );
-
-  const survival = await run<SurvivalRow>(
-    `SELECT arm::text AS arm, day, count(*) FILTER (WHERE dropped)::int AS dropped, count(*) FILTER (WHERE NOT dropped)::int AS censored
-     FROM (SELECT ${arm} AS arm, e.status IN ${DROPPED_STATUSES} AS dropped, ${followUpDays('e')} AS day
-           FROM enrollment e WHERE e.study_id = $1 AND ${randomized}) AS followed
-     GROUP BY arm, day`,
+           GROUP BY 1, 2, 3, 4, 5, 6) AS grouped`,
     [study.id, censorAt],
   );
+  const { flow, survival } = splitFollowedGroups(followed);
 
   // Amounts per participant first, then count, Σ and Σ² per arm. Σ stays an exact integer; Σ² is float8, which is
   // what it becomes in JavaScript anyway, and several times faster than numeric over a million rows.

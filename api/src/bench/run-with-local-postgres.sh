@@ -1,11 +1,26 @@
 #!/usr/bin/env bash
-# Runs `npm run bench -w api` with a database to work in. With DATABASE_URL set, it uses that and starts
+# Runs `npm run bench -w api` with a database to work in; given script names (e.g. attrition-bench.js), it
+# compiles the api once and runs those from api/dist/bench/ instead, one after another. With DATABASE_URL set, it uses that and starts
 # nothing. Otherwise it uses the development PostgreSQL cluster that `npm start` uses (127.0.0.1:55432,
 # started here if it is not running, and stopped again afterwards), in a database of its own that it drops.
 source "$(cd "$(dirname "${BASH_SOURCE[0]}")/../../.." && pwd)/.stack/lib.sh"
 
+run_benchmarks() {
+  if [ "$#" -eq 0 ]; then
+    (cd "$ROOT" && npm run bench -w api)
+    return
+  fi
+  (cd "$ROOT/api" && npx tsc -p tsconfig.build.json) || return 1
+  local script
+  for script in "$@"; do
+    say "Benchmark: $script"
+    (cd "$ROOT/api" && node "dist/bench/$script") || return 1
+  done
+}
+
 if [ -n "${DATABASE_URL:-}" ]; then
-  cd "$ROOT" && exec npm run bench -w api
+  run_benchmarks "$@"
+  exit
 fi
 
 PG_PORT="${PG_PORT:-55432}"
@@ -25,4 +40,4 @@ trap drop_bench_database EXIT
 ensure_database "$PG_PORT" "$BENCH_DB_NAME" fresh
 
 say "Benchmark database: $BENCH_DB_NAME on 127.0.0.1:$PG_PORT (dropped afterwards)"
-cd "$ROOT" && DATABASE_URL="postgres://postgres@127.0.0.1:$PG_PORT/$BENCH_DB_NAME" npm run bench -w api
+DATABASE_URL="postgres://postgres@127.0.0.1:$PG_PORT/$BENCH_DB_NAME" run_benchmarks "$@"

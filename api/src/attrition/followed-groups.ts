@@ -1,0 +1,48 @@
+/**
+ * The study's enrollments as one grouped read serves both the CONSORT boxes and the dropout curves; this splits
+ * that read into the two shapes the report takes.
+ */
+
+export interface FlowRow {
+  arm: string | null;
+  status: string;
+  assigned: boolean;
+  reason: string | null;
+  n: number;
+}
+
+export interface SurvivalRow {
+  arm: string;
+  day: number;
+  dropped: number;
+  censored: number;
+}
+
+/** Enrollments counted by arm, status, reason, whether they were randomized and (randomized only) whole days followed. */
+export interface FollowedGroupRow extends FlowRow {
+  randomized: boolean;
+  day: number | null;
+}
+
+/** Withdrew, lost to follow-up, or excluded after randomization: the dropout event (CONSORT 2010 follow-up box). */
+const DROPPED_STATUSES = new Set(['withdrew', 'lost', 'excluded']);
+
+export function splitFollowedGroups(rows: readonly FollowedGroupRow[]): { flow: FlowRow[]; survival: SurvivalRow[] } {
+  const flow = new Map<string, FlowRow>();
+  const survival = new Map<string, SurvivalRow>();
+  for (const row of rows) {
+    const flowKey = JSON.stringify([row.arm, row.status, row.assigned, row.reason]);
+    const box = flow.get(flowKey);
+    if (box) box.n += row.n;
+    else flow.set(flowKey, { arm: row.arm, status: row.status, assigned: row.assigned, reason: row.reason, n: row.n });
+
+    if (!row.randomized) continue;
+    if (row.arm === null || row.day === null) throw new Error(`A randomized group has no ${row.arm === null ? 'arm' : 'day'}.`);
+    const timeKey = JSON.stringify([row.arm, row.day]);
+    const time = survival.get(timeKey) ?? { arm: row.arm, day: row.day, dropped: 0, censored: 0 };
+    if (DROPPED_STATUSES.has(row.status)) time.dropped += row.n;
+    else time.censored += row.n;
+    survival.set(timeKey, time);
+  }
+  return { flow: [...flow.values()], survival: [...survival.values()] };
+}
