@@ -104,10 +104,10 @@ export async function readAttritionAggregates(
     `SELECT arm::text AS arm, status, assigned, reason, randomized, day, n
      FROM (SELECT ${arm} AS arm, e.status, (e.assigned_at IS NOT NULL) AS assigned,
                   CASE e.status WHEN 'excluded' THEN e.exclusion_reason WHEN 'withdrew' THEN e.withdrawal_reason WHEN 'lost' THEN e.lost_reason END AS reason,
-                  coalesce(${randomized}, false) AS randomized,
-                  CASE WHEN ${randomized} THEN ${followUpDays('e')} END AS day,
+                  r.randomized, CASE WHEN r.randomized THEN ${followUpDays('e')} END AS day,
                   count(*)::int AS n
-           FROM enrollment e WHERE e.study_id = $1
+           FROM enrollment e CROSS JOIN LATERAL (SELECT ${randomized} AS randomized) AS r
+           WHERE e.study_id = $1
            GROUP BY 1, 2, 3, 4, 5, 6) AS grouped`,
     [study.id, censorAt],
   );

@@ -21,8 +21,8 @@ export const MAX_APPROVAL_LETTER_BYTES = 10 * 1024 * 1024;
 /** The meaning of the signature, stated beside the button and printed on the signed copy (21 CFR 11.50(a)(3)). */
 export const SIGNATURE_MEANING = 'I have read this form and agree to take part';
 
-/** The template values as stored: only the fields that were given, as a plain object. */
-function givenValues(values: ConsentFieldsDto): Record<string, unknown> {
+/** Only the fields that were given, as a plain object (what is stored and what a change touches). */
+function givenFields(values: object): Record<string, unknown> {
   return Object.fromEntries(Object.entries(values).filter(([, value]) => value !== undefined));
 }
 
@@ -54,8 +54,9 @@ export class ConsentService {
     return Promise.all(versions.map((v) => this.toDto(v)));
   }
 
-  async get(studyId: string, versionId: string, manager: EntityManager = this.dataSource.manager): Promise<ConsentVersionEntity> {
-    const version = await manager.findOne(ConsentVersionEntity, { where: { id: versionId, studyId } });
+  /** With `lock`, holds the version's row until the transaction ends (activation and refilling take it). */
+  async get(studyId: string, versionId: string, manager: EntityManager = this.dataSource.manager, lock = false): Promise<ConsentVersionEntity> {
+    const version = await manager.findOne(ConsentVersionEntity, { where: { id: versionId, studyId }, ...(lock && { lock: { mode: 'pessimistic_write' as const } }) });
     if (!version) throw new DomainException('NOT_FOUND', 'No such consent version in this study.');
     return version;
   }
@@ -115,7 +116,7 @@ export class ConsentService {
           studyId,
           version: Number(next),
           templateId,
-          templateValues: givenValues(values),
+          templateValues: givenFields(values),
           body,
           status: 'draft',
           createdBy: actor.id,
@@ -134,17 +135,12 @@ export class ConsentService {
   async refillDraft(actor: AuditActor, studyId: string, versionId: string, values: ConsentFieldsDto): Promise<ConsentVersionDto> {
     const refilled = await this.dataSource.transaction(async (manager) => {
       // The same row lock activation takes, so a draft cannot be refilled while it is being activated.
-      const version = await manager
-        .createQueryBuilder(ConsentVersionEntity, 'v')
-        .setLock('pessimistic_write')
-        .where('v.id = :versionId AND v.study_id = :studyId', { versionId, studyId })
-        .getOne();
-      if (!version) throw new DomainException('NOT_FOUND', 'No such consent version in this study.');
+      const version = await this.get(studyId, versionId, manager, true);
       if (version.status !== 'draft') {
         throw new DomainException('CONFLICT', `Version ${version.version} is ${version.status}, so its text is fixed; create a new draft to change the wording.`);
       }
       version.body = fillConsentTemplate(await this.templateFields(studyId, values, manager), version.templateId);
-      version.templateValues = givenValues(values);
+      version.templateValues = givenFields(values);
       const saved = await manager.save(version);
       await this.audit.record(manager, {
         chain: studyId,
@@ -196,7 +192,8 @@ export class ConsentService {
           throw new DomainException('VALIDATION_FAILED', 'The form text cannot be used.', [{ field: 'body', message: (error as Error).message }]);
         }
       }
-      Object.assign(version, Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined)));
+      const changes = givenFields(input);
+      Object.assign(version, changes);
       const saved = await manager.save(version);
       await this.audit.record(manager, {
         chain: studyId,
@@ -204,7 +201,7 @@ export class ConsentService {
         action: 'consent.draft-updated',
         subjectType: 'consent-version',
         subjectId: versionId,
-        data: { fields: Object.keys(input).filter((k) => (input as Record<string, unknown>)[k] !== undefined) },
+        data: { fields: Object.keys(changes) },
       });
       return saved;
     });
@@ -274,12 +271,7 @@ export class ConsentService {
   async activate(actor: AuditActor, studyId: string, versionId: string): Promise<ConsentVersionDto> {
     const activated = await this.dataSource.transaction(async (manager) => {
       await this.studies.require(studyId, manager, true);
-      const version = await manager
-        .createQueryBuilder(ConsentVersionEntity, 'v')
-        .setLock('pessimistic_write')
-        .where('v.id = :versionId AND v.study_id = :studyId', { versionId, studyId })
-        .getOne();
-      if (!version) throw new DomainException('NOT_FOUND', 'No such consent version in this study.');
+      const version = await this.get(studyId, versionId, manager, true);
       if (version.status !== 'draft') throw new DomainException('CONFLICT', `Version ${version.version} is already ${version.status}.`);
       const missing = [
         !version.approvalReference && { field: 'approvalReference', message: 'the ethics approval reference is required' },

@@ -1,14 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiClient, unwrap } from '@/lib/api-client';
-import { consentValuesInputSchema, templateValuesFrom, type ConsentValuesInput } from './create-consent-draft';
+import { templateValuesFrom, type ConsentValuesInput } from './create-consent-draft';
 import { consentVersionKey } from './get-consent-version';
 import { consentVersionsKey, type ConsentVersion } from './get-consent-versions';
 
-// The same values and limits as a new draft (RefillConsentDraftDto reuses ConsentFieldsDto).
-export const refillConsentDraftInputSchema = consentValuesInputSchema;
-export type RefillConsentDraftInput = ConsentValuesInput;
-
-export async function refillConsentDraft(studyId: string, versionId: string, input: RefillConsentDraftInput): Promise<ConsentVersion> {
+export async function refillConsentDraft(studyId: string, versionId: string, input: ConsentValuesInput): Promise<ConsentVersion> {
   const refilled = await unwrap(
     apiClient.POST('/api/studies/{studyId}/consent-versions/{versionId}/refill', {
       params: { path: { studyId, versionId } },
@@ -22,7 +18,7 @@ export async function refillConsentDraft(studyId: string, versionId: string, inp
 export function useRefillConsentDraft(studyId: string, versionId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (input: RefillConsentDraftInput) => refillConsentDraft(studyId, versionId, input),
+    mutationFn: (input: ConsentValuesInput) => refillConsentDraft(studyId, versionId, input),
     onSuccess: (version) => {
       queryClient.setQueryData(consentVersionKey(studyId, versionId), version);
       return queryClient.invalidateQueries({ queryKey: consentVersionsKey(studyId), exact: true });

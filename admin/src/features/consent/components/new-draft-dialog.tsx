@@ -1,10 +1,7 @@
-import { Description, Dialog, DialogBackdrop, DialogPanel, DialogTitle } from '@headlessui/react';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Controller, useForm } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
-import { cx } from '@/components/ui/cx';
-import { DialogActions } from '@/components/ui/modal-dialog';
-import { dialogRecipe } from '@/components/ui/recipes';
+import { DialogActions, ModalDialog } from '@/components/ui/modal-dialog';
 import { SelectField } from '@/components/ui/select-field';
 import { ErrorState, LoadingState, Notice } from '@/components/ui/states';
 import { ApiError } from '@/lib/api-error';
@@ -28,34 +25,26 @@ export interface NewDraftDialogProps {
 export function NewDraftDialog({ studyId, open, onClose, onCreated }: NewDraftDialogProps) {
   const templates = useConsentTemplates();
   return (
-    <Dialog open={open} onClose={onClose} transition className="relative z-50">
-      <DialogBackdrop transition className={dialogRecipe.backdrop} />
-      <div className={cx(dialogRecipe.frame, 'pt-[6vh]!')}>
-        <DialogPanel transition className={cx(dialogRecipe.panel, 'max-w-2xl!')}>
-          <div className="border-b border-line px-5 pt-4 pb-3">
-            <DialogTitle className={dialogRecipe.title}>New draft from a template</DialogTitle>
-            <Description className={dialogRecipe.description}>
-              Fill in what you know now. Anything left blank is taken from the study or marked “to fill” in the draft, and you can edit
-              every word afterwards.
-            </Description>
-          </div>
-          <div className="px-5 py-4">
-            {templates.isPending ? (
-              <LoadingState label="Loading templates…" />
-            ) : templates.isError ? (
-              <ErrorState
-                message={templates.error instanceof ApiError ? templates.error.message : 'The templates could not be loaded.'}
-                onRetry={() => void templates.refetch()}
-              />
-            ) : templates.data.length === 0 ? (
-              <Notice>There is no consent template on this server. Ask the lab admin to install the legal templates.</Notice>
-            ) : (
-              <NewDraftForm studyId={studyId} templates={templates.data} onCancel={onClose} onCreated={onCreated} />
-            )}
-          </div>
-        </DialogPanel>
-      </div>
-    </Dialog>
+    <ModalDialog
+      open={open}
+      onClose={onClose}
+      size="wide"
+      title="New draft from a template"
+      description="Fill in what you know now. Anything left blank is taken from the study or marked “to fill” in the draft, and you can edit every word afterwards."
+    >
+      {templates.isPending ? (
+        <LoadingState label="Loading templates…" />
+      ) : templates.isError ? (
+        <ErrorState
+          message={templates.error instanceof ApiError ? templates.error.message : 'The templates could not be loaded.'}
+          onRetry={() => void templates.refetch()}
+        />
+      ) : templates.data.length === 0 ? (
+        <Notice>There is no consent template on this server. Ask the lab admin to install the legal templates.</Notice>
+      ) : (
+        <NewDraftForm studyId={studyId} templates={templates.data} onCancel={onClose} onCreated={onCreated} />
+      )}
+    </ModalDialog>
   );
 }
 

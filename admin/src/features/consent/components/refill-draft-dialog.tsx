@@ -1,17 +1,14 @@
-import { Description, Dialog, DialogBackdrop, DialogPanel, DialogTitle } from '@headlessui/react';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useForm } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
-import { cx } from '@/components/ui/cx';
-import { DialogActions } from '@/components/ui/modal-dialog';
-import { dialogRecipe } from '@/components/ui/recipes';
+import { DialogActions, ModalDialog } from '@/components/ui/modal-dialog';
 import { ErrorState, LoadingState, Notice } from '@/components/ui/states';
 import { ApiError } from '@/lib/api-error';
 import { applyServerErrors } from '@/lib/form-server-errors';
-import { consentValuesInput } from '../api/create-consent-draft';
+import { consentValuesInput, consentValuesInputSchema, type ConsentValuesInput } from '../api/create-consent-draft';
 import { useConsentTemplates, type ConsentTemplate } from '../api/get-consent-templates';
 import type { ConsentVersion } from '../api/get-consent-versions';
-import { refillConsentDraftInputSchema, useRefillConsentDraft, type RefillConsentDraftInput } from '../api/refill-consent-draft';
+import { useRefillConsentDraft } from '../api/refill-consent-draft';
 import { fieldsForTemplate } from '../utils/template-field-labels';
 import { templateValueFieldNames, withoutValuesPrefix } from '../utils/template-value-errors';
 import { TemplateCaution } from './template-caution';
@@ -30,23 +27,15 @@ export interface RefillDraftDialogProps {
 
 export function RefillDraftDialog({ studyId, version, open, unsavedEdits, onClose, onRefilled }: RefillDraftDialogProps) {
   return (
-    <Dialog open={open} onClose={onClose} transition className="relative z-50">
-      <DialogBackdrop transition className={dialogRecipe.backdrop} />
-      <div className={cx(dialogRecipe.frame, 'pt-[6vh]!')}>
-        <DialogPanel transition className={cx(dialogRecipe.panel, 'max-w-2xl!')}>
-          <div className="border-b border-line px-5 pt-4 pb-3">
-            <DialogTitle className={dialogRecipe.title}>Fill in version {version.version} again from the study</DialogTitle>
-            <Description className={dialogRecipe.description}>
-              The template is filled in again with the study’s title, time, number of participants, contact address, steps and pay as they
-              are now, and with the values below.
-            </Description>
-          </div>
-          <div className="px-5 py-4">
-            <RefillDraftContent studyId={studyId} version={version} unsavedEdits={unsavedEdits} onCancel={onClose} onRefilled={onRefilled} />
-          </div>
-        </DialogPanel>
-      </div>
-    </Dialog>
+    <ModalDialog
+      open={open}
+      onClose={onClose}
+      size="wide"
+      title={`Fill in version ${version.version} again from the study`}
+      description="The template is filled in again with the study’s title, time, number of participants, contact address, steps and pay as they are now, and with the values below."
+    >
+      <RefillDraftContent studyId={studyId} version={version} unsavedEdits={unsavedEdits} onCancel={onClose} onRefilled={onRefilled} />
+    </ModalDialog>
   );
 }
 
@@ -93,8 +82,8 @@ interface RefillDraftFormProps {
 
 function RefillDraftForm({ studyId, version, template, unsavedEdits, onCancel, onRefilled }: RefillDraftFormProps) {
   const refill = useRefillConsentDraft(studyId, version.id);
-  const form = useForm<RefillConsentDraftInput>({
-    resolver: zodResolver(refillConsentDraftInputSchema),
+  const form = useForm<ConsentValuesInput>({
+    resolver: zodResolver(consentValuesInputSchema),
     defaultValues: consentValuesInput(version.templateValues),
   });
   const { handleSubmit, setError, formState } = form;
