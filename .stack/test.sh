@@ -16,7 +16,7 @@ RUN_DIR="$(mktemp -d "$LOCAL_DIR/test-run.XXXXXX")"
 # mktemp makes it private; the postgres account must be able to reach the cluster inside it.
 chmod 755 "$RUN_DIR"
 REPORT_DIR="$RUN_DIR/reports"
-LOG_DIR="$LOCAL_DIR/test-logs"
+LOG_DIR="${TEST_LOG_DIR:-$LOCAL_DIR/test-logs}"
 mkdir -p "$REPORT_DIR" "$LOG_DIR"
 rm -f "$LOG_DIR"/*.log
 FAILED_STEPS=()
@@ -35,6 +35,11 @@ trap 'exit 130' INT TERM
 step() {
   local name="$1"
   shift
+  # TEST_ONLY="admin build,admin browser journeys" runs just those groups (for working on one part); CI sets nothing.
+  if [ -n "${TEST_ONLY:-}" ] && [[ ",$TEST_ONLY," != *",$name,"* ]]; then
+    say "── $name skipped (TEST_ONLY)"
+    return 0
+  fi
   say "── $name"
   local step_started=$SECONDS
   if "$@"; then
@@ -105,7 +110,7 @@ wait_for_url "$ADMIN_URL" 60
 # Journeys that also call the api or the stand-in directly (to set a code, fund, approve) use the test stack.
 export EVENHAND_API_ORIGIN="http://127.0.0.1:$T_API_PORT" PAYMENTS_FAKE_URL="http://127.0.0.1:$T_PAYMENTS_PORT"
 for app in portal admin; do
-  SCREENSHOT_DIR="$LOCAL_DIR/screenshots/$app" step "$app browser journeys" vitest_in "$app" "$app-e2e" --config vitest.e2e.config.ts
+  SCREENSHOT_DIR="$LOCAL_DIR/screenshots/$app" step "$app browser journeys" vitest_in "$app" "$app-e2e" --config vitest.e2e.config.ts ${JOURNEY_FILTER:-}
 done
 
 node "$ROOT/.stack/summarize-reports.mjs" "$REPORT_DIR"

@@ -60,6 +60,24 @@ const templates = [
     file: 'emails/study-invitation.md',
     fields: [...EMAIL_COMMON_FIELDS, 'institutionName', 'studySummary', 'estimatedDuration', 'stepsPhrase', 'totalPay'],
   },
+  {
+    id: 'email/step-reminder',
+    kind: 'email',
+    version: 1,
+    title: 'Reminder about a study step (the same for every condition)',
+    subject: 'Reminder: {{stepTitle}} ({{studyTitle}})',
+    file: 'emails/step-reminder.md',
+    fields: [...EMAIL_COMMON_FIELDS, 'stepTitle', 'timingSentence', 'stepPay'],
+  },
+  {
+    id: 'email/staff-message',
+    kind: 'email',
+    version: 1,
+    title: 'A message from the research team to one participant',
+    subject: '{{subject}}',
+    file: 'emails/staff-message.md',
+    fields: [...EMAIL_COMMON_FIELDS, 'subject', 'message'],
+  },
 ].map((template) => Object.freeze({ ...template, notice: STAFF_NOTICE, path: path.join(__dirname, template.file) }));
 
 const fonts = Object.freeze({

@@ -16,6 +16,7 @@ import { AssignmentModule } from './randomization/assignment.module';
 import { StepsModule } from './steps/steps.module';
 import { StudiesModule } from './studies/studies.module';
 import { ConsentModule } from './consent/consent.module';
+import { RemindersModule } from './reminders/reminders.module';
 import { EnrollmentsModule } from './enrollments/enrollments.module';
 import { DocumentsModule } from './documents/documents.module';
 import { PayoutsModule } from './payouts/payouts.module';
@@ -37,6 +38,7 @@ import { UsersModule } from './users/users.module';
     StepsModule,
     AssignmentModule,
     ConsentModule,
+    RemindersModule,
     EnrollmentsModule,
     DocumentsModule,
     PayoutsModule,

@@ -201,7 +201,7 @@ export function readExportPage(
     `SELECT e.reference, ${armExpression(study.design)} AS arm, e.stratum_key, e.covariates, e.status, e.assigned_at, e.completed_at,
             CASE e.status WHEN 'withdrew' THEN e.withdrew_at WHEN 'lost' THEN e.lost_at
                           WHEN 'excluded' THEN CASE WHEN e.assigned_at IS NOT NULL THEN e.excluded_at END END AS dropped_out_at,
-            (SELECT count(*)::int FROM step_completion sc WHERE sc.enrollment_id = e.id) AS steps_done,
+            (SELECT count(*)::int FROM step_completion sc WHERE sc.enrollment_id = e.id AND sc.undone_at IS NULL) AS steps_done,
             (SELECT coalesce(sum(p.amount_minor), 0)::text FROM payout p
               WHERE p.enrollment_id = e.id AND p.currency = $4 AND p.status = 'paid') AS paid_minor,
             (SELECT coalesce(sum(p.amount_minor), 0)::text FROM payout p
@@ -212,4 +212,36 @@ export function readExportPage(
      LIMIT $3`,
     [study.id, afterReference, pageSize, study.currency],
   );
+}
+
+export interface ContactRow {
+  arm: string;
+  randomized: number;
+  contacts_sum: number;
+  contacts_squares: number;
+  reminders: number;
+  reconsent_requests: number;
+  staff_messages: number;
+}
+
+/** Contacts sent after randomization (reminders, re-consent requests, staff messages) per participant, summed per arm. */
+export async function readContactAggregates(run: SqlRunner, study: { id: string; design: StudyDesign }): Promise<ContactRow[]> {
+  const arm = armExpression(study.design);
+  const rows = await run<ContactRow>(
+    `WITH per_participant AS (
+       SELECT ${arm} AS arm,
+              count(c.id)::int AS contacts,
+              count(c.id) FILTER (WHERE c.kind = 'reminder')::int AS reminders,
+              count(c.id) FILTER (WHERE c.kind = 'reconsent-request')::int AS reconsent,
+              count(c.id) FILTER (WHERE c.kind = 'staff-message')::int AS messages
+       FROM enrollment e LEFT JOIN contact c ON c.enrollment_id = e.id AND c.kind <> 'invitation' AND c.sent_at >= e.assigned_at
+       WHERE e.study_id = $1 AND ${randomizedPredicate(study.design)}
+       GROUP BY e.id
+     )
+     SELECT arm::text AS arm, count(*)::int AS randomized, sum(contacts)::int AS contacts_sum, sum(contacts::float8 ^ 2) AS contacts_squares,
+            sum(reminders)::int AS reminders, sum(reconsent)::int AS reconsent_requests, sum(messages)::int AS staff_messages
+     FROM per_participant GROUP BY arm`,
+    [study.id],
+  );
+  return rows.map((r) => ({ ...r, contacts_squares: Number(r.contacts_squares) }));
 }

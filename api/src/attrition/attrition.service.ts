@@ -12,9 +12,10 @@ import type { StudyEntity } from '../studies/entities/study.entity';
 import { StudiesService } from '../studies/studies.service';
 import { type ConsortFlow, type ReportArm, consortFlow, isRandomized, toReportInput } from './attrition-input';
 import { type AttritionReport, buildAttritionReport } from './attrition-report';
-import { type AttritionAggregates, type ExportRow, type SqlRunner, readAttritionAggregates, readCovariateKeys, readExportPage } from './attrition-sql';
+import { type AttritionAggregates, type ExportRow, type SqlRunner, readAttritionAggregates, readContactAggregates, readCovariateKeys, readExportPage } from './attrition-sql';
+import { contactParity } from './contact-parity';
 import { type PayParityResult, payParity } from './pay-parity';
-import type { AttritionReportDto, ConsortFlowDto, PayBasisDto } from './dto/attrition-report.dto';
+import type { AttritionReportDto, ConsortFlowDto, ContactsByConditionDto, PayBasisDto } from './dto/attrition-report.dto';
 
 export const WINDOW_RULE =
   'The participation window has ended for everyone once the study is closed; while it runs, for participants who completed, withdrew, were lost to follow-up or were excluded after randomization. Active participants are never counted as attrition before the study closes.';
@@ -161,8 +162,27 @@ export class AttritionService {
       },
       covariateBalance: report.covariateBalance,
       flow: this.flowDto(consortFlow(aggregates.flow, arms), nameOf),
+      contacts: await this.contacts(study, arms, nameOf),
     };
     return { dto, figures: { report, earned } };
+  }
+
+  private async contacts(study: StudyEntity, arms: ReportArm[], nameOf: (id: string) => string): Promise<ContactsByConditionDto> {
+    const rows = await readContactAggregates((sql, parameters) => this.dataSource.query(sql, parameters), { id: study.id, design: study.design });
+    const byArm = new Map(rows.map((r) => [r.arm, r]));
+    const parity = contactParity(
+      arms.map((arm) => {
+        const row = byArm.get(arm.id);
+        return {
+          conditionId: arm.id,
+          total: { n: row?.randomized ?? 0, sum: row?.contacts_sum ?? 0, sumOfSquares: row?.contacts_squares ?? 0 },
+          reminders: row?.reminders ?? 0,
+          reconsentRequests: row?.reconsent_requests ?? 0,
+          staffMessages: row?.staff_messages ?? 0,
+        };
+      }),
+    );
+    return { ...parity, conditions: parity.conditions.map((c) => ({ ...c, name: nameOf(c.conditionId) })) };
   }
 
   private payBasis(result: PayParityResult): PayBasisDto {

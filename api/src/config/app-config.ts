@@ -123,6 +123,22 @@ export class AppConfig {
   @Min(1)
   jobRetryDelaySeconds = 5;
 
+  /** Days links signed with a rotated-out return key keep working. */
+  @Transform(toInt)
+  @IsInt()
+  @Min(0)
+  returnLinkGraceDays = 7;
+
+  /** Days a return link stays valid after its step is due (or after it was handed out, with no due date). */
+  @Transform(toInt)
+  @IsInt()
+  @Min(1)
+  returnLinkValidDays = 14;
+
+  /** Cron (UTC) of the reminder sweep. */
+  @IsString()
+  reminderSweepCron = '*/10 * * * *';
+
   /** Whether this process also runs the background job workers. */
   @Transform(toBool)
   @IsBoolean()
@@ -156,6 +172,9 @@ const ENVIRONMENT_NAMES: Record<keyof AppConfig, string> = {
   signInWindowSeconds: 'SIGN_IN_WINDOW_SECONDS',
   jobRetryDelaySeconds: 'JOB_RETRY_DELAY_SECONDS',
   runWorkers: 'RUN_WORKERS',
+  returnLinkGraceDays: 'RETURN_LINK_GRACE_DAYS',
+  returnLinkValidDays: 'RETURN_LINK_VALID_DAYS',
+  reminderSweepCron: 'REMINDER_SWEEP_CRON',
 };
 
 /** Reads and validates the configuration; throws a message naming every bad variable. */

@@ -38,7 +38,12 @@ export type StudyInvitationEmailView = EmailCommonView & {
   totalPay: string;
 };
 
+export type StepReminderEmailView = EmailCommonView & { stepTitle: string; timingSentence: string; stepPay: string };
+export type StaffMessageEmailView = EmailCommonView & { subject: string; message: string };
+
 export interface EmailViews {
+  'email/step-reminder': StepReminderEmailView;
+  'email/staff-message': StaffMessageEmailView;
   'email/signed-copy': SignedCopyEmailView;
   'email/withdrawal-confirmation': WithdrawalConfirmationEmailView;
   'email/re-consent-request': ReConsentRequestEmailView;

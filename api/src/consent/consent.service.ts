@@ -37,7 +37,14 @@ export class ConsentService {
     private readonly audit: AuditService,
     private readonly studies: StudiesService,
     private readonly steps: StepsService,
-  ) {}
+  ) {
+    this.studies.addOpeningRequirement({
+      key: 'consent',
+      label: 'An active consent version',
+      order: 4,
+      check: async (manager, studyId) => ((await this.activeVersion(studyId, manager)) ? null : 'activate an approved consent version'),
+    });
+  }
 
   /** Lets the enrollments domain flag people for re-consent in the same transaction as an activation. */
   onActivation(listener: ActivationListener): void {

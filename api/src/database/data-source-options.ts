@@ -29,6 +29,10 @@ import { StudyFundingEntity } from '../payouts/entities/study-funding.entity';
 import { StepCompletionEntity } from '../steps/entities/step-completion.entity';
 import { ConsentVersionEntity } from '../consent/entities/consent-version.entity';
 import { SignatureEntity } from '../consent/entities/signature.entity';
+import { StudyStepKeyEntity } from '../steps/entities/study-step-key.entity';
+import { ReminderPlanEntity } from '../reminders/entities/reminder-plan.entity';
+import { ContactEntity } from '../reminders/entities/contact.entity';
+import { StepVerificationAndContact1764600600000 } from './migrations/1764600600000-step-verification-and-contact';
 import { ScreeningQuestionEntity } from '../studies/entities/screening-question.entity';
 
 /** Every entity, listed by hand so nothing depends on file globs. */
@@ -58,10 +62,13 @@ export const ENTITIES = [
   StudyFundingEntity,
   AttritionAlertRuleEntity,
   AttritionAlertStateEntity,
+  StudyStepKeyEntity,
+  ReminderPlanEntity,
+  ContactEntity,
 ];
 
 /** Every migration in order. Never edit one that has landed; add a new one. */
-export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000, ConsentAndEnrollment1764600200000, Pay1764600300000, AttritionAlerts1764600400000, LostReason1764600500000];
+export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000, ConsentAndEnrollment1764600200000, Pay1764600300000, AttritionAlerts1764600400000, LostReason1764600500000, StepVerificationAndContact1764600600000];
 
 export function dataSourceOptions(databaseUrl: string): DataSourceOptions {
   return {

@@ -1,9 +1,9 @@
-import { Body, Controller, Get, HttpCode, Param, Post, Put, Query, Req, Res, UploadedFile, UseInterceptors } from '@nestjs/common';
+import { Body, Controller, Delete, Get, HttpCode, Param, Post, Put, Query, Req, Res, UploadedFile, UseInterceptors } from '@nestjs/common';
 import { FileInterceptor } from '@nestjs/platform-express';
-import { ApiBody, ApiConsumes, ApiCreatedResponse, ApiOkResponse, ApiProduces, ApiTags } from '@nestjs/swagger';
+import { ApiBody, ApiConsumes, ApiCreatedResponse, ApiOkResponse, ApiProduces, ApiResponse, ApiTags } from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import { memoryStorage } from 'multer';
-import { CurrentUser, Roles } from '../common/auth/auth.decorators';
+import { CurrentUser, PublicWithOptionalSession, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
 import { DomainException } from '../common/errors/domain.exception';
 import { uuidParam } from '../common/http/uuid-param';
@@ -22,13 +22,18 @@ import {
   ScreeningResultDto,
   SignatureResultDto,
   SignConsentDto,
+  StepCodesDto,
+  StepStartDto,
   SubmitScreeningDto,
+  UndoCompletionDto,
   WithdrawalResultDto,
   WithdrawDto,
 } from './dto/enrollment.dto';
 import { EnrollmentsService } from './enrollments.service';
+import { StepProgressService } from './step-progress.service';
 import { StudyMembersOnly } from '../studies/study-access.guard';
-import { CompleteStepDto } from '../steps/dto/step.dto';
+import { BulkCompletionDto, BulkCompletionResultDto, CompleteStepDto } from '../steps/dto/step.dto';
+import { AppConfig } from '../config/app-config';
 
 const MAX_ROSTER_BYTES = 5 * 1024 * 1024;
 
@@ -49,7 +54,10 @@ function sendPdf(response: Response, pdf: { bytes: Buffer; sha256: string; versi
 @Roles('participant')
 @Controller('studies/:studyId/enrollments/me')
 export class MyEnrollmentController {
-  constructor(private readonly enrollments: EnrollmentsService) {}
+  constructor(
+    private readonly enrollments: EnrollmentsService,
+    private readonly stepProgress: StepProgressService,
+  ) {}
 
   @Post()
   @ApiCreatedResponse({ type: MyEnrollmentDto })
@@ -94,13 +102,24 @@ export class MyEnrollmentController {
   @Post('steps/:stepId/complete')
   @HttpCode(200)
   @ApiOkResponse({ type: MyEnrollmentDto })
-  completeStep(
+  async completeStep(
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Param('stepId', uuidParam('stepId')) stepId: string,
     @Body() body: CompleteStepDto,
   ): Promise<MyEnrollmentDto> {
-    return this.enrollments.completeStepWithCode(user, studyId, stepId, body.code);
+    await this.stepProgress.completeWithCode(user, studyId, stepId, body.code);
+    return this.enrollments.me(user, studyId);
+  }
+
+  @Get('steps/:stepId/start')
+  @ApiOkResponse({ type: StepStartDto, description: "The lab's external task for this step, with the reference and a signed return address" })
+  startStep(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('stepId', uuidParam('stepId')) stepId: string,
+  ): Promise<StepStartDto> {
+    return this.stepProgress.startTask(user, studyId, stepId);
   }
 
   @Get('consent.pdf')
@@ -123,7 +142,10 @@ export class MyEnrollmentController {
 @Controller('studies/:studyId/enrollments')
 @StudyMembersOnly()
 export class RosterController {
-  constructor(private readonly enrollments: EnrollmentsService) {}
+  constructor(
+    private readonly enrollments: EnrollmentsService,
+    private readonly stepProgress: StepProgressService,
+  ) {}
 
   @Get()
   @Roles('coordinator', 'researcher', 'auditor', 'admin')
@@ -182,13 +204,35 @@ export class RosterController {
   @HttpCode(200)
   @Roles('coordinator', 'admin')
   @ApiOkResponse({ type: RosterEntryDto })
-  checkOff(
+  async checkOff(
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string,
     @Param('stepId', uuidParam('stepId')) stepId: string,
   ): Promise<RosterEntryDto> {
-    return this.enrollments.completeStepForParticipant(user, studyId, enrollmentId, stepId);
+    await this.stepProgress.completeByStaff(user, studyId, enrollmentId, stepId);
+    return (await this.enrollments.record(studyId, enrollmentId)).enrollment;
+  }
+
+  @Delete(':enrollmentId/steps/:stepId/complete')
+  @Roles('coordinator', 'admin')
+  @ApiOkResponse({ type: RosterEntryDto, description: 'Undoes a completion with a reason, only while its payout has not been approved' })
+  async undoCompletion(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string,
+    @Param('stepId', uuidParam('stepId')) stepId: string,
+    @Body() body: UndoCompletionDto,
+  ): Promise<RosterEntryDto> {
+    await this.stepProgress.undo(user, studyId, enrollmentId, stepId, body.reason);
+    return (await this.enrollments.record(studyId, enrollmentId)).enrollment;
+  }
+
+  @Get(':enrollmentId/step-codes')
+  @Roles('coordinator', 'researcher', 'admin')
+  @ApiOkResponse({ type: StepCodesDto, description: "This participant's own completion codes, for steps that use them" })
+  stepCodes(@Param('studyId', uuidParam('studyId')) studyId: string, @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string): Promise<StepCodesDto> {
+    return this.stepProgress.codesOf(studyId, enrollmentId);
   }
 
   @Post(':enrollmentId/lost')
@@ -228,5 +272,57 @@ export class RosterController {
   ): Promise<void> {
     const pdf = await this.enrollments.staffPdf(studyId, enrollmentId, signatureId);
     sendPdf(response, pdf, `signed-consent-${enrollmentId.slice(0, 8)}-v${pdf.version}.pdf`);
+  }
+}
+
+/** Steps across the roster: marking one step done from a list, and every participant's codes for in-person labs. */
+@ApiTags('roster')
+@Controller('studies/:studyId')
+@StudyMembersOnly()
+export class StepCompletionsController {
+  constructor(private readonly stepProgress: StepProgressService) {}
+
+  @Post('steps/:stepId/completions')
+  @HttpCode(200)
+  @Roles('coordinator', 'admin')
+  @ApiOkResponse({ type: BulkCompletionResultDto, description: 'One row per line; lines that fail write nothing' })
+  completeList(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('stepId', uuidParam('stepId')) stepId: string,
+    @Body() body: BulkCompletionDto,
+  ): Promise<BulkCompletionResultDto> {
+    return this.stepProgress.completeList(user, studyId, stepId, body.references);
+  }
+
+  @Get('step-codes.csv')
+  @Roles('coordinator', 'researcher', 'admin')
+  @ApiProduces('text/csv')
+  async codesCsv(@Param('studyId', uuidParam('studyId')) studyId: string, @Res() response: Response): Promise<void> {
+    const csv = await this.stepProgress.codesCsv(studyId);
+    response.type('text/csv').setHeader('Content-Disposition', 'attachment; filename="participant-codes.csv"').send(csv);
+  }
+}
+
+/** Where a lab's external task sends participants back: checks the signed link, marks the step done, then to the portal. */
+@ApiTags('steps and contact')
+@Controller('return')
+export class ReturnLinkController {
+  constructor(
+    private readonly stepProgress: StepProgressService,
+    private readonly config: AppConfig,
+  ) {}
+
+  @Get(':token')
+  @PublicWithOptionalSession()
+  @ApiResponse({ status: 302, description: "To the portal's return page, which says whether the step was marked done or why not" })
+  async returnFromTask(@Param('token') token: string, @CurrentUser() user: SessionUser | undefined, @Req() request: Request, @Res() response: Response): Promise<void> {
+    const result = await this.stepProgress.completeFromReturnLink(token.slice(0, 400), user ?? null, clientOf(request));
+    const target = new URL('/return', this.config.portalUrl);
+    target.searchParams.set('result', result.outcome);
+    if (result.studySlug) target.searchParams.set('study', result.studySlug);
+    if (result.outcome === 'refused') target.searchParams.set('reason', result.reason);
+    else target.searchParams.set('step', result.stepId);
+    response.redirect(302, target.toString());
   }
 }

@@ -7,13 +7,15 @@ import { StepsModule } from '../steps/steps.module';
 import { StudiesModule } from '../studies/studies.module';
 import { UsersModule } from '../users/users.module';
 import { PayoutsModule } from '../payouts/payouts.module';
-import { MyEnrollmentController, RosterController } from './enrollments.controller';
+import { MyEnrollmentController, ReturnLinkController, RosterController, StepCompletionsController } from './enrollments.controller';
+import { StepProgressService } from './step-progress.service';
+import { RemindersModule } from '../reminders/reminders.module';
 import { EnrollmentsService } from './enrollments.service';
 
 @Module({
-  imports: [AuditModule, StudiesModule, StepsModule, ConsentModule, RandomizationModule, UsersModule, MailModule, PayoutsModule],
-  controllers: [MyEnrollmentController, RosterController],
-  providers: [EnrollmentsService],
+  imports: [AuditModule, StudiesModule, StepsModule, ConsentModule, RandomizationModule, UsersModule, MailModule, PayoutsModule, RemindersModule],
+  controllers: [MyEnrollmentController, RosterController, StepCompletionsController, ReturnLinkController],
+  providers: [EnrollmentsService, StepProgressService],
   exports: [EnrollmentsService],
 })
 export class EnrollmentsModule {}

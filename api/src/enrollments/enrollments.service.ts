@@ -15,8 +15,10 @@ import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
 import { MailService } from '../mail/mail.service';
 import { RandomizationService } from '../randomization/randomization.service';
 import { StepsService } from '../steps/steps.service';
+import { stepTiming, stepWindows } from '../steps/step-window';
+import { ContactsService } from '../reminders/contacts.service';
+import { StepProgressService } from './step-progress.service';
 import { PayoutsService } from '../payouts/payouts.service';
-import { PostgresThrottlerStorage } from '../rate-limit/postgres-throttler.storage';
 import { StudyEntity } from '../studies/entities/study.entity';
 import { StudiesService } from '../studies/studies.service';
 import { UsersService } from '../users/users.service';
@@ -36,11 +38,10 @@ import { EnrollmentEntity, EnrollmentStatus } from './entities/enrollment.entity
 import { parseRoster } from './roster-import';
 import { evaluateScreening } from './screening-rules';
 
+type RosterProgress = Pick<RosterEntryDto, 'nextStep' | 'unansweredReminders' | 'suggestLost'>;
+
 /** Statuses in which a person has been randomized (the denominator of attrition). */
 export const RANDOMIZED_STATUSES: EnrollmentStatus[] = ['assigned', 'active', 'completed', 'withdrew', 'lost'];
-/** Wrong completion codes allowed per enrollment per 15 minutes. */
-const WRONG_CODE_LIMIT = 5;
-const WRONG_CODE_WINDOW_MS = 15 * 60 * 1000;
 const CLOSED_STATUSES: EnrollmentStatus[] = ['excluded', 'withdrew', 'lost', 'completed'];
 
 /** Keeps a browser-reported time zone only when the runtime knows it; the signed copy then shows local time too. */
@@ -74,6 +75,8 @@ export class EnrollmentsService implements OnModuleInit {
     private readonly mail: MailService,
     private readonly jobs: JobQueueService,
     private readonly payouts: PayoutsService,
+    private readonly stepProgress: StepProgressService,
+    private readonly contacts: ContactsService,
   ) {}
 
   async onModuleInit(): Promise<void> {
@@ -121,13 +124,12 @@ export class EnrollmentsService implements OnModuleInit {
 
   private async myView(enrollment: EnrollmentEntity): Promise<MyEnrollmentDto> {
     const study = await this.studies.require(enrollment.studyId);
-    const [questions, stepList, active, signatures, conditions, completions, earned] = await Promise.all([
+    const [questions, stepList, active, signatures, conditions, earned] = await Promise.all([
       this.studies.screeningQuestions(enrollment.studyId),
       this.steps.list(enrollment.studyId),
       this.consent.activeVersion(enrollment.studyId),
       this.consent.signaturesOf(enrollment.id),
       this.studies.listConditionsForParticipant(enrollment.studyId),
-      this.steps.completionsOf(enrollment.id),
       this.payouts.earnedFor(enrollment.id),
     ]);
     const condition = enrollment.conditionId ? conditions.find((c) => c.id === enrollment.conditionId) : null;
@@ -142,7 +144,6 @@ export class EnrollmentsService implements OnModuleInit {
         : null;
     const needsSignature = Boolean(active) && enrollment.signedVersionId !== active?.id && !CLOSED_STATUSES.includes(enrollment.status);
     const lastSignature = signatures[signatures.length - 1];
-    const enrolledSteps = RANDOMIZED_STATUSES.includes(enrollment.status);
     return {
       id: enrollment.id,
       reference: enrollment.reference,
@@ -160,20 +161,7 @@ export class EnrollmentsService implements OnModuleInit {
         signedAt: lastSignature?.signedAt.toISOString() ?? null,
       },
       assignment,
-      steps: stepList.items.map((step) => {
-        const done = completions.find((c) => c.stepId === step.id);
-        const open = enrolledSteps && !needsSignature && ['assigned', 'active'].includes(enrollment.status);
-        return {
-          id: step.id,
-          position: step.position,
-          title: step.title,
-          description: step.description,
-          payMinor: step.payOverrides.find((o) => o.conditionId === enrollment.conditionId)?.payMinor ?? step.payMinor,
-          status: done ? ('done' as const) : open ? ('open' as const) : ('locked' as const),
-          completedAt: done?.completedAt.toISOString() ?? null,
-          hasCompletionCode: step.hasCompletionCode,
-        };
-      }),
+      steps: await this.stepProgress.participantSteps(enrollment, stepList, needsSignature),
       earned,
       withdrewAt: enrollment.withdrewAt?.toISOString() ?? null,
     };
@@ -310,77 +298,6 @@ export class EnrollmentsService implements OnModuleInit {
     };
   }
 
-  // ── completing steps ──────────────────────────────────────────────────────
-
-  /** A participant confirms a step with the code shown at the end of its task; wrong codes are limited. */
-  async completeStepWithCode(user: SessionUser, studyId: string, stepId: string, code: string): Promise<MyEnrollmentDto> {
-    const enrollment = await this.requireMine(this.dataSource.manager, user, studyId);
-    const limiterKey = `wrong-code:${enrollment.id}`;
-    // Only wrong codes count, so the same window store as sign-in is used directly rather than as a route guard.
-    const limiter = new PostgresThrottlerStorage(this.dataSource);
-    if ((await limiter.hitsInWindow(limiterKey)) >= WRONG_CODE_LIMIT) {
-      throw new DomainException('RATE_LIMITED', 'Too many wrong codes. Please wait 15 minutes, or ask the research team to check the step off.');
-    }
-    if (!(await this.steps.codeMatches(studyId, stepId, code))) {
-      await limiter.increment(limiterKey, WRONG_CODE_WINDOW_MS, WRONG_CODE_LIMIT);
-      throw new DomainException('VALIDATION_FAILED', 'That code does not match this step.', [{ field: 'code', message: 'does not match; check it and try again' }]);
-    }
-    await this.dataSource.transaction((manager) =>
-      this.completeStep(manager, user, studyId, () => this.requireMine(manager, user, studyId, true), stepId, 'code'),
-    );
-    return this.me(user, studyId);
-  }
-
-  async completeStepForParticipant(actor: SessionUser, studyId: string, enrollmentId: string, stepId: string): Promise<RosterEntryDto> {
-    await this.dataSource.transaction((manager) => this.completeStep(manager, actor, studyId, () => this.requireOnRoster(manager, studyId, enrollmentId), stepId, 'staff'));
-    return (await this.record(studyId, enrollmentId)).enrollment;
-  }
-
-  /**
-   * One completed step: recorded once, owed its pay (the same in every condition unless an override was recorded),
-   * and the enrollment moves to active, or to completed with any completion bonus after the last step.
-   */
-  private async completeStep(
-    manager: EntityManager,
-    actor: SessionUser,
-    studyId: string,
-    load: () => Promise<EnrollmentEntity>,
-    stepId: string,
-    verifiedBy: 'code' | 'staff',
-  ): Promise<void> {
-    const enrollment = await load();
-    if (!['assigned', 'active'].includes(enrollment.status)) {
-      throw new DomainException('CONFLICT', enrollment.status === 'completed' ? 'Every step is already done.' : 'Steps can be completed only while taking part in the study.');
-    }
-    const active = await this.consent.activeVersion(studyId, manager);
-    if (active && enrollment.signedVersionId !== active.id) {
-      throw new DomainException('CONFLICT', 'The consent form has changed: please read and sign the new version before your next step.', undefined, {
-        currentVersion: { versionId: active.id, version: active.version, fingerprint: active.fingerprint },
-      });
-    }
-    const study = await this.studies.require(studyId, manager);
-    const outcome = await this.steps.recordCompletion(manager, { studyId, enrollmentId: enrollment.id, stepId, conditionId: enrollment.conditionId, verifiedBy, recordedBy: actor.id });
-    if (!outcome.created) return;
-    const owedBase = { studyId, enrollmentId: enrollment.id, participantId: enrollment.participantId, conditionId: enrollment.conditionId, currency: study.currency };
-    await this.payouts.createOwed(manager, { ...owedBase, stepCompletionId: outcome.completion.id, kind: 'step', amountMinor: outcome.payMinor, payOverride: outcome.payOverride });
-    enrollment.status = outcome.remainingSteps === 0 ? 'completed' : 'active';
-    if (outcome.remainingSteps === 0) {
-      enrollment.completedAt = new Date();
-      if (study.completionBonusMinor > 0) {
-        await this.payouts.createOwed(manager, { ...owedBase, stepCompletionId: null, kind: 'bonus', amountMinor: study.completionBonusMinor, payOverride: false });
-      }
-    }
-    await manager.save(enrollment);
-    await this.audit.record(manager, {
-      chain: studyId,
-      actor,
-      action: 'step.completed',
-      subjectType: 'enrollment',
-      subjectId: enrollment.id,
-      data: { stepId, verifiedBy, payMinor: outcome.payMinor, payOverride: outcome.payOverride, completedStudy: outcome.remainingSteps === 0 },
-    });
-  }
-
   async myPdf(user: SessionUser, studyId: string) {
     const enrollment = await this.requireMine(this.dataSource.manager, user, studyId);
     const pdf = await this.consent.signedPdf(enrollment.id);
@@ -475,8 +392,8 @@ export class EnrollmentsService implements OnModuleInit {
       const study = await this.studies.require(studyId, manager);
       const active = await this.consent.activeVersion(studyId, manager);
       if (!active) return 0;
-      const rows: Array<{ email: string; display_name: string | null }> = await manager.query(
-        `SELECT u.email, e.display_name FROM enrollment e JOIN user_account u ON u.id = e.participant_id
+      const rows: Array<{ id: string; email: string; display_name: string | null }> = await manager.query(
+        `SELECT e.id, u.email, e.display_name FROM enrollment e JOIN user_account u ON u.id = e.participant_id
          WHERE e.study_id = $1 AND e.status IN ('assigned','active') AND e.signed_version_id IS DISTINCT FROM $2`,
         [studyId, active.id],
       );
@@ -493,6 +410,7 @@ export class EnrollmentsService implements OnModuleInit {
           changeSummary: 'The research team has updated the consent form for this study.',
         });
         await this.mail.enqueue(manager, { to: row.email, subject: email.subject, text: email.text, html: email.html });
+        await this.contacts.log(manager, { studyId, enrollmentId: row.id, kind: 'reconsent-request', subject: email.subject, sentBy: actor.id });
       }
       await this.audit.record(manager, { chain: studyId, actor, action: 'consent.reconsent-reminded', subjectType: 'study', subjectId: studyId, data: { count: rows.length } });
       return rows.length;
@@ -527,8 +445,9 @@ export class EnrollmentsService implements OnModuleInit {
     );
     const labels = await this.conditionLabels(study);
     const versions = await this.consent.list(studyId);
+    const progress = await this.progressOf(studyId, entities);
     return {
-      items: entities.map((e, i) => this.rosterEntry(e, raw[i].email, labels, versions)),
+      items: entities.map((e, i) => this.rosterEntry(e, raw[i].email, labels, versions, progress.get(e.id))),
       total,
       page: query.page,
       pageSize: query.pageSize,
@@ -541,7 +460,36 @@ export class EnrollmentsService implements OnModuleInit {
     return new Map(conditions.map((c) => [c.id, c.internalName ?? c.code]));
   }
 
-  private rosterEntry(e: EnrollmentEntity, email: string, labels: Map<string, string>, versions: Array<{ id: string; version: number }>): RosterEntryDto {
+  /** The next step with its window, and reminders gone unanswered, for each enrollment on a roster page. */
+  private async progressOf(studyId: string, enrollments: EnrollmentEntity[]): Promise<Map<string, RosterProgress>> {
+    const ids = enrollments.map((e) => e.id);
+    const [schedules, completions, followUp] = await Promise.all([this.steps.schedulesOf(studyId), this.steps.completionTimesOf(ids), this.contacts.followUpOf(studyId, ids)]);
+    const now = new Date();
+    return new Map(
+      enrollments.map((e) => {
+        const done = completions.get(e.id) ?? new Map<string, Date>();
+        const takingPart = ['assigned', 'active'].includes(e.status) && e.assignedAt;
+        const windows = takingPart ? stepWindows(schedules, e.assignedAt!, done) : [];
+        const index = windows.findIndex((w) => !done.has(w.stepId));
+        const window = windows[index];
+        const timing = window ? stepTiming(window, false, now) : null;
+        const nextStep =
+          window && timing && timing !== 'done'
+            ? { stepId: window.stepId, title: schedules[index].title, opensAt: window.opensAt?.toISOString() ?? null, dueAt: window.dueAt?.toISOString() ?? null, timing }
+            : null;
+        const follow = followUp.get(e.id) ?? { unansweredReminders: 0, suggestLost: false };
+        return [e.id, { nextStep, unansweredReminders: follow.unansweredReminders, suggestLost: Boolean(takingPart) && follow.suggestLost }];
+      }),
+    );
+  }
+
+  private rosterEntry(
+    e: EnrollmentEntity,
+    email: string,
+    labels: Map<string, string>,
+    versions: Array<{ id: string; version: number }>,
+    progress: RosterProgress = { nextStep: null, unansweredReminders: 0, suggestLost: false },
+  ): RosterEntryDto {
     const condition = e.conditionId
       ? (labels.get(e.conditionId) ?? null)
       : e.conditionOrder
@@ -561,6 +509,7 @@ export class EnrollmentsService implements OnModuleInit {
       invitationSentAt: e.invitationSentAt?.toISOString() ?? null,
       assignedAt: e.assignedAt?.toISOString() ?? null,
       createdAt: e.createdAt.toISOString(),
+      ...progress,
     };
   }
 
@@ -622,6 +571,7 @@ export class EnrollmentsService implements OnModuleInit {
           totalPay: formatMoney(steps.totalPayMinor, study.currency),
         });
         await this.mail.enqueue(manager, { to: raw[i].email, subject: email.subject, text: email.text, html: email.html });
+        await this.contacts.log(manager, { studyId, enrollmentId: enrollment.id, kind: 'invitation', subject: email.subject, sentBy: actor.id });
         await manager.update(EnrollmentEntity, { id: enrollment.id }, { invitationSentAt: new Date() });
       }
       await this.audit.record(manager, { chain: studyId, actor, action: 'roster.invited', subjectType: 'study', subjectId: studyId, data: { count: entities.length } });
@@ -679,8 +629,10 @@ export class EnrollmentsService implements OnModuleInit {
     const signatures = await this.consent.signaturesOf(enrollmentId);
     const signatureIds = signatures.map((s) => s.id);
     const { items } = await this.audit.page({ chains: [studyId], subjectIds: [enrollmentId], page: 1, pageSize: 200 });
+    const progress = await this.progressOf(studyId, [enrollment]);
     return {
-      enrollment: this.rosterEntry(enrollment, participant[0]?.email ?? '', await this.conditionLabels(study), versions),
+      enrollment: this.rosterEntry(enrollment, participant[0]?.email ?? '', await this.conditionLabels(study), versions, progress.get(enrollment.id)),
+      steps: await this.stepProgress.recordSteps(studyId, enrollment),
       withdrawalReason: enrollment.withdrawalReason,
       lostReason: enrollment.lostReason,
       exclusionReason: enrollment.exclusionReason,

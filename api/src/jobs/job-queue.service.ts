@@ -7,7 +7,7 @@ import { queryRows } from '../database/raw-query';
 export type JobHandler<Payload> = (payload: Payload, jobId: string) => Promise<void>;
 
 /** Every kind of background job, so names are not spread as strings. */
-export const JOB_NAMES = { sendMail: 'mail.send', signedCopy: 'consent.signed-copy', sendPayout: 'payout.send', payoutReceipt: 'payout.receipt', evaluateAttritionAlerts: 'attrition.evaluate-alerts' } as const;
+export const JOB_NAMES = { sendMail: 'mail.send', signedCopy: 'consent.signed-copy', sendPayout: 'payout.send', payoutReceipt: 'payout.receipt', evaluateAttritionAlerts: 'attrition.evaluate-alerts', sweepReminders: 'reminders.sweep' } as const;
 /** Jobs fetched and run side by side per worker. */
 export const JOB_BATCH_SIZE = 10;
 export type JobName = (typeof JOB_NAMES)[keyof typeof JOB_NAMES];

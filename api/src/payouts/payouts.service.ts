@@ -95,6 +95,39 @@ export class PayoutsService implements OnModuleInit {
     return rows.length ? manager.findOneOrFail(PayoutEntity, { where: { id } }) : null;
   }
 
+  /**
+   * Cancels what a step completion (and, with `bonus`, the completion bonus) made owed, so the completion can be
+   * undone. Refused once any of it was approved: approved pay is on its way to the participant.
+   */
+  async cancelOwedFor(manager: EntityManager, input: { enrollmentId: string; stepCompletionId: string; bonus: boolean }): Promise<number> {
+    const rows: Array<{ id: string; status: string; kind: string }> = await manager.query(
+      `SELECT id, status, kind FROM payout
+        WHERE status NOT IN ('cancelled','reversed')
+          AND (step_completion_id = $1 OR ($3 AND enrollment_id = $2 AND kind = 'bonus'))
+        FOR UPDATE`,
+      [input.stepCompletionId, input.enrollmentId, input.bonus],
+    );
+    if (rows.some((row) => row.status !== 'owed')) {
+      throw new DomainException('CONFLICT', 'Its payout has already been approved, so this completion can no longer be undone.', [
+        { field: 'stepId', message: 'payout already approved' },
+      ]);
+    }
+    if (rows.length === 0) return 0;
+    await manager.query(`UPDATE payout SET status = 'cancelled', updated_at = now() WHERE id = ANY($1::uuid[])`, [rows.map((r) => r.id)]);
+    return rows.length;
+  }
+
+  /** Payout status per step completion, for the participant's record. */
+  async statusByCompletion(completionIds: string[]): Promise<Map<string, string>> {
+    if (completionIds.length === 0) return new Map();
+    const rows: Array<{ step_completion_id: string; status: string }> = await this.dataSource.query(
+      `SELECT DISTINCT ON (step_completion_id) step_completion_id, status FROM payout WHERE step_completion_id = ANY($1::uuid[])
+        ORDER BY step_completion_id, (status IN ('cancelled','reversed')), created_at DESC`,
+      [completionIds],
+    );
+    return new Map(rows.map((r) => [r.step_completion_id, r.status]));
+  }
+
   async earnedFor(enrollmentId: string, manager: EntityManager = this.dataSource.manager) {
     const [row] = await manager.query(
       `SELECT coalesce(sum(amount_minor) FILTER (WHERE status NOT IN ('cancelled','reversed')), 0) AS earned,

@@ -1,10 +1,10 @@
-import { Body, Controller, Delete, Get, Param, Patch, Post, Put } from '@nestjs/common';
+import { Body, Controller, Delete, Get, HttpCode, Param, Patch, Post, Put } from '@nestjs/common';
 import { ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
 import { uuidParam } from '../common/http/uuid-param';
 import { StudyMembersOnly } from '../studies/study-access.guard';
-import { CreateStepDto, SetCompletionCodeDto, SetPayOverrideDto, StepListDto, UpdateStepDto } from './dto/step.dto';
+import { CreateStepDto, ReturnLinkSetupDto, SetCompletionCodeDto, SetPayOverrideDto, StepListDto, StepSettingsDto, UpdateStepDto } from './dto/step.dto';
 import { StepsService } from './steps.service';
 
 const DESIGNERS = ['coordinator', 'researcher', 'admin'] as const;
@@ -39,6 +39,33 @@ export class StepsController {
     @Body() body: UpdateStepDto,
   ): Promise<StepListDto> {
     return this.steps.update(user, studyId, stepId, body);
+  }
+
+  @Put(':stepId')
+  @Roles(...DESIGNERS)
+  @ApiOkResponse({ type: StepListDto, description: 'How the step is verified (return link, per-participant code, one shared code, staff) and its window' })
+  saveSettings(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('stepId', uuidParam('stepId')) stepId: string,
+    @Body() body: StepSettingsDto,
+  ): Promise<StepListDto> {
+    return this.steps.saveSettings(user, studyId, stepId, body);
+  }
+
+  @Get('return-link')
+  @Roles('coordinator', 'researcher', 'auditor', 'admin')
+  @ApiOkResponse({ type: ReturnLinkSetupDto })
+  returnLink(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<ReturnLinkSetupDto> {
+    return this.steps.returnLinkSetup(studyId);
+  }
+
+  @Post('return-link/rotate-key')
+  @HttpCode(200)
+  @Roles(...DESIGNERS)
+  @ApiOkResponse({ type: ReturnLinkSetupDto })
+  rotateReturnKey(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<ReturnLinkSetupDto> {
+    return this.steps.rotateReturnKey(user, studyId);
   }
 
   @Put(':stepId/completion-code')

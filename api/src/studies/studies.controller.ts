@@ -18,6 +18,7 @@ import {
   UpdateStudyDto,
 } from './dto/study.dto';
 import { ReplaceScreeningQuestionsDto, ScreeningQuestionListDto } from './dto/screening.dto';
+import { OpeningChecklistDto } from './dto/opening-checklist.dto';
 import { StudiesService } from './studies.service';
 import { StudyMembersOnly } from './study-access.guard';
 
@@ -55,6 +56,14 @@ export class StudiesController {
   @ApiOkResponse({ type: StudyDto })
   update(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: UpdateStudyDto): Promise<StudyDto> {
     return this.studies.update(user, studyId, body);
+  }
+
+  @Get(':studyId/opening-checklist')
+  @Roles('coordinator', 'researcher', 'auditor', 'admin')
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: OpeningChecklistDto })
+  openingChecklist(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<OpeningChecklistDto> {
+    return this.studies.openingChecklist(studyId);
   }
 
   @Post(':studyId/open')

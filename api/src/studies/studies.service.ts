@@ -29,6 +29,7 @@ import { StudyEntity, StudyStatus } from './entities/study.entity';
 import { checkFactorDefinitions, checkScreeningQuestions } from './stratification-factor-rules';
 import { ScreeningQuestionEntity } from './entities/screening-question.entity';
 import { ScreeningQuestionDto, ScreeningQuestionInputDto, ScreeningQuestionListDto } from './dto/screening.dto';
+import { OpeningChecklistDto } from './dto/opening-checklist.dto';
 
 type Transition = 'open' | 'pause' | 'close';
 
@@ -44,13 +45,40 @@ function conditionCode(position: number): string {
   return String.fromCharCode('A'.charCodeAt(0) + ((position - 1) % 26)) + (position > 26 ? String(Math.ceil(position / 26)) : '');
 }
 
+/** One thing a study needs before it opens; `check` returns what is missing, or null when met. */
+export interface OpeningRequirement {
+  key: string;
+  label: string;
+  /** Position on the checklist. */
+  order: number;
+  check(manager: EntityManager, studyId: string): Promise<string | null>;
+}
+
 @Injectable()
 export class StudiesService {
+  private openingRequirements: OpeningRequirement[] = [];
+
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
     private readonly randomization: RandomizationService,
-  ) {}
+  ) {
+    this.addOpeningRequirement({
+      key: 'conditions',
+      label: 'At least two conditions',
+      order: 1,
+      check: async (manager, studyId) => {
+        const count = await manager.count(ConditionEntity, { where: { studyId } });
+        return count >= 2 ? null : `add at least two conditions (${count} so far)`;
+      },
+    });
+    this.addOpeningRequirement({
+      key: 'assignmentScheme',
+      label: 'A saved assignment scheme',
+      order: 2,
+      check: async (manager, studyId) => ((await this.randomization.schemeOf(studyId, manager)) ? null : 'choose and save an assignment scheme'),
+    });
+  }
 
   /** Admins and auditors see every study; other staff only those they are members of; participants those they take part in. */
   async listFor(user: SessionUser): Promise<StudyListDto> {
@@ -73,6 +101,26 @@ export class StudiesService {
 
   async findBySlug(slug: string): Promise<StudyEntity | null> {
     return this.dataSource.getRepository(StudyEntity).findOne({ where: { slug } });
+  }
+
+  /** Lets another domain add what a study needs before it opens (consent: an active version; steps: at least one). */
+  addOpeningRequirement(requirement: OpeningRequirement): void {
+    this.openingRequirements = [...this.openingRequirements.filter((r) => r.key !== requirement.key), requirement].sort((a, b) => a.order - b.order);
+  }
+
+  /** Everything a study needs before it opens, each met or with what is missing. */
+  async openingChecklist(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<OpeningChecklistDto> {
+    await this.require(studyId, manager);
+    const items = [];
+    for (const requirement of this.openingRequirements) {
+      const missing = await requirement.check(manager, studyId);
+      items.push({ key: requirement.key, label: requirement.label, met: missing === null, detail: missing });
+    }
+    return { ready: items.every((i) => i.met), items };
+  }
+
+  async exists(studyId: string): Promise<boolean> {
+    return this.dataSource.getRepository(StudyEntity).exists({ where: { id: studyId } });
   }
 
   async require(studyId: string, manager: EntityManager = this.dataSource.manager, lock = false): Promise<StudyEntity> {
@@ -147,13 +195,19 @@ export class StudiesService {
       if (!ALLOWED_TRANSITIONS[transition].includes(current.status)) {
         throw new DomainException('CONFLICT', `A ${current.status} study cannot be ${transition === 'open' ? 'opened' : transition === 'pause' ? 'paused' : 'closed'}.`);
       }
+      if (transition === 'open') {
+        const checklist = await this.openingChecklist(studyId, manager);
+        const missing = checklist.items.filter((item) => !item.met);
+        if (missing.length > 0) {
+          throw new DomainException(
+            'CONFLICT',
+            `The study cannot open yet: ${missing.map((item) => item.detail).join('; ')}.`,
+            missing.map((item) => ({ field: item.key, message: item.detail ?? item.label })),
+          );
+        }
+      }
       if (transition === 'open' && current.status === 'draft') {
         const snapshot = await this.designSnapshot(studyId, manager);
-        if (snapshot.conditions.length < 2) {
-          throw new DomainException('CONFLICT', 'A study needs at least two conditions before it opens.', [
-            { field: 'conditions', message: 'add at least two conditions' },
-          ]);
-        }
         await this.randomization.sealForOpening(manager, actor, studyId, snapshot);
         current.openedAt = new Date();
       }

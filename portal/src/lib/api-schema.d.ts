@@ -196,6 +196,22 @@ export interface paths {
         patch: operations["StudiesController_update"];
         trace?: never;
     };
+    "/api/studies/{studyId}/opening-checklist": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StudiesController_openingChecklist"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/studies/{studyId}/open": {
         parameters: {
             query?: never;
@@ -348,12 +364,44 @@ export interface paths {
             cookie?: never;
         };
         get?: never;
-        put?: never;
+        put: operations["StepsController_saveSettings"];
         post?: never;
         delete?: never;
         options?: never;
         head?: never;
         patch: operations["StepsController_update"];
+        trace?: never;
+    };
+    "/api/studies/{studyId}/steps/return-link": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StepsController_returnLink"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/steps/return-link/rotate-key": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["StepsController_rotateReturnKey"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
         trace?: never;
     };
     "/api/studies/{studyId}/steps/{stepId}/completion-code": {
@@ -596,6 +644,38 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/studies/{studyId}/reminder-plan": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["RemindersController_plan"];
+        put: operations["RemindersController_savePlan"];
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/{enrollmentId}/contacts": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["RemindersController_log"];
+        put?: never;
+        post: operations["RemindersController_message"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/studies/{studyId}/enrollments/me": {
         parameters: {
             query?: never;
@@ -670,6 +750,22 @@ export interface paths {
         get?: never;
         put?: never;
         post: operations["MyEnrollmentController_completeStep"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/me/steps/{stepId}/start": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["MyEnrollmentController_startStep"];
+        put?: never;
+        post?: never;
         delete?: never;
         options?: never;
         head?: never;
@@ -814,6 +910,22 @@ export interface paths {
         get?: never;
         put?: never;
         post: operations["RosterController_checkOff"];
+        delete: operations["RosterController_undoCompletion"];
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/enrollments/{enrollmentId}/step-codes": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["RosterController_stepCodes"];
+        put?: never;
+        post?: never;
         delete?: never;
         options?: never;
         head?: never;
@@ -860,6 +972,54 @@ export interface paths {
             cookie?: never;
         };
         get: operations["RosterController_signedCopy"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/steps/{stepId}/completions": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["StepCompletionsController_completeList"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/step-codes.csv": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StepCompletionsController_codesCsv"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/return/{token}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["ReturnLinkController_returnFromTask"];
         put?: never;
         post?: never;
         delete?: never;
@@ -1301,6 +1461,18 @@ export interface components {
             labName?: string;
             contactEmail?: string;
         };
+        OpeningChecklistItemDto: {
+            /** @enum {string} */
+            key: "conditions" | "assignmentScheme" | "steps" | "consent";
+            label: string;
+            met: boolean;
+            /** @description What is missing, when not met */
+            detail: string | null;
+        };
+        OpeningChecklistDto: {
+            ready: boolean;
+            items: components["schemas"]["OpeningChecklistItemDto"][];
+        };
         ConditionDto: {
             /** Format: uuid */
             id: string;
@@ -1452,8 +1624,21 @@ export interface components {
             description: string;
             /** @description Minor units of the study currency; the same in every condition unless overridden */
             payMinor: number;
-            /** @description Whether participants confirm this step with a completion code */
+            /** @description Whether a code shared by everyone has been set for this step */
             hasCompletionCode: boolean;
+            /**
+             * @description How a completion is checked
+             * @enum {string}
+             */
+            verification: "return-link" | "participant-code" | "shared-code" | "staff";
+            /** @description The lab's external task, for return-link steps */
+            taskUrl: string | null;
+            /** @description Days after assignment or after the previous step at which the step opens */
+            opensAfterDays: number;
+            /** @enum {string} */
+            opensFrom: "assignment" | "previous-step";
+            /** @description Days after opening by which it is due; null for no due date */
+            dueWithinDays: number | null;
             /** @description Recorded exceptions to equal pay; each is flagged in the parity view */
             payOverrides: components["schemas"]["PayOverrideDto"][];
         };
@@ -1478,6 +1663,39 @@ export interface components {
             title?: string;
             description?: string;
             payMinor?: number;
+        };
+        StepSettingsDto: {
+            /** @enum {string} */
+            verification: "return-link" | "participant-code" | "shared-code" | "staff";
+            /**
+             * @description Required for return-link steps
+             * @example https://tasks.example.org/wayfinding/session-1
+             */
+            taskUrl?: string | null;
+            opensAfterDays: number;
+            /** @enum {string} */
+            opensFrom: "assignment" | "previous-step";
+            /** @description Null or absent for no due date */
+            dueWithinDays?: number | null;
+            /** @description For shared-code steps: sets or replaces the code everyone types; stored only as a hash */
+            sharedCode?: string;
+        };
+        ReturnLinkParameterDto: {
+            name: string;
+            meaning: string;
+        };
+        ReturnLinkSetupDto: {
+            /** @description The return address with {token} where the token passed to the task goes */
+            returnAddressTemplate: string;
+            /** @description What Evenhand adds to the task address */
+            parameters: components["schemas"]["ReturnLinkParameterDto"][];
+            /** @description Which return key signs new links */
+            keyId: number;
+            rotatedAt: string | null;
+            /** @description Days links signed with the previous key keep working after a rotation */
+            graceDays: number;
+            /** @description Days a return link stays valid after its step is due (or after it was issued, with no due date) */
+            validDays: number;
         };
         SetCompletionCodeDto: {
             /**
@@ -1731,6 +1949,51 @@ export interface components {
                 [key: string]: unknown;
             }[];
         };
+        ReminderRuleDto: {
+            /**
+             * @description Counted from the day the step opens, or back from its due date
+             * @enum {string}
+             */
+            anchor: "opens" | "due";
+            /** @description Days after opening, or days before the due date */
+            days: number;
+        };
+        ReminderPlanDto: {
+            rules: components["schemas"]["ReminderRuleDto"][];
+            suggestLostAfter: number;
+            enabled: boolean;
+            updatedAt: string | null;
+            /** @description The reminder e-mail as participants receive it, filled in for the first step */
+            previewSubject: string;
+            previewText: string;
+        };
+        SaveReminderPlanDto: {
+            /** @description The same rules apply to every participant in every condition */
+            rules: components["schemas"]["ReminderRuleDto"][];
+            suggestLostAfter: number;
+            enabled: boolean;
+        };
+        ContactDto: {
+            id: string;
+            /** @enum {string} */
+            kind: "invitation" | "reminder" | "reconsent-request" | "staff-message";
+            sentAt: string;
+            subject: string;
+            stepTitle: string | null;
+            sentByEmail: string | null;
+        };
+        ContactLogDto: {
+            items: components["schemas"]["ContactDto"][];
+            /** @description Reminders since the last step was done (or since assignment) */
+            unansweredReminders: number;
+            suggestLostAfter: number;
+            suggestLost: boolean;
+        };
+        SendStaffMessageDto: {
+            /** @example Your next session */
+            subject: string;
+            message: string;
+        };
         ScreeningStateDto: {
             questions: components["schemas"]["ScreeningQuestionDto"][];
             answers: {
@@ -1755,11 +2018,22 @@ export interface components {
             title: string;
             description: string;
             payMinor: number;
-            /** @enum {string} */
-            status: "open" | "done" | "locked";
+            /**
+             * @description done; open (can be done now); overdue (open, past its due date); upcoming (opens later); waiting (opens after the previous step); locked (not taking part, or a new consent form to sign first)
+             * @enum {string}
+             */
+            status: "done" | "open" | "overdue" | "upcoming" | "waiting" | "locked";
             completedAt: string | null;
-            /** @description Whether the participant finishes this step by entering a code; without one, staff check it off. */
+            /** @description Whether the participant finishes this step by entering a code; otherwise a return link or staff mark it done. */
             hasCompletionCode: boolean;
+            /** @enum {string} */
+            verification: "return-link" | "participant-code" | "shared-code" | "staff";
+            /** @description Whether the step is done in the lab's external task, opened through the start route */
+            hasTask: boolean;
+            /** @description When the step opens; null while it waits for the previous step */
+            opensAt: string | null;
+            /** @description Until when it can be done; null for no due date */
+            dueAt: string | null;
         };
         EarnedDto: {
             earnedMinor: number;
@@ -1842,6 +2116,10 @@ export interface components {
              */
             code: string;
         };
+        StepStartDto: {
+            /** @description The external task, with the reference, the signed return address and, for code steps, the code */
+            url: string;
+        };
         WithdrawDto: {
             /** @description Optional; never required to withdraw */
             reason?: string;
@@ -1851,6 +2129,14 @@ export interface components {
             earnedMinor: number;
             stillToBePaidMinor: number;
             enrollment: components["schemas"]["MyEnrollmentDto"];
+        };
+        RosterNextStepDto: {
+            stepId: string;
+            title: string;
+            opensAt: string | null;
+            dueAt: string | null;
+            /** @enum {string} */
+            timing: "waiting" | "upcoming" | "open" | "overdue";
         };
         RosterEntryDto: {
             id: string;
@@ -1870,6 +2156,12 @@ export interface components {
             invitationSentAt: string | null;
             assignedAt: string | null;
             createdAt: string;
+            /** @description The first step not yet done, with its window; null when none is pending */
+            nextStep: components["schemas"]["RosterNextStepDto"] | null;
+            /** @description Reminders sent since the last step was done (or since assignment) */
+            unansweredReminders: number;
+            /** @description True when unanswered reminders reached the plan's threshold: Evenhand suggests marking lost to follow-up; staff decide */
+            suggestLost: boolean;
         };
         RosterPageDto: {
             items: components["schemas"]["RosterEntryDto"][];
@@ -1917,6 +2209,42 @@ export interface components {
             userAgent: string | null;
             hasMark: boolean;
         };
+        RecordCompletionDto: {
+            id: string;
+            completedAt: string;
+            /** @enum {string} */
+            verifiedBy: "return-link" | "participant-code" | "shared-code" | "staff" | "staff-list";
+            recordedByEmail: string | null;
+            evidence: {
+                [key: string]: unknown;
+            };
+            /** @enum {string|null} */
+            payoutStatus: "owed" | "approved" | "sending" | "paid" | "failed" | "cancelled" | "reversed" | null;
+            /** @description True while its payout has not been approved */
+            canUndo: boolean;
+        };
+        UndoneCompletionDto: {
+            completedAt: string;
+            undoneAt: string;
+            reason: string;
+            undoneByEmail: string | null;
+        };
+        RecordStepDto: {
+            stepId: string;
+            position: number;
+            title: string;
+            payMinor: number;
+            /** @enum {string} */
+            verification: "return-link" | "participant-code" | "shared-code" | "staff";
+            /** @enum {string} */
+            status: "done" | "open" | "overdue" | "upcoming" | "waiting" | "locked";
+            opensAt: string | null;
+            dueAt: string | null;
+            completion: components["schemas"]["RecordCompletionDto"] | null;
+            undone: components["schemas"]["UndoneCompletionDto"][];
+            /** @description This participant's own code, for participant-code steps */
+            code: string | null;
+        };
         TimelineEventDto: {
             at: string;
             action: string;
@@ -1932,10 +2260,49 @@ export interface components {
             lostReason: string | null;
             exclusionReason: string | null;
             signatures: components["schemas"]["SignatureSummaryDto"][];
+            steps: components["schemas"]["RecordStepDto"][];
             timeline: components["schemas"]["TimelineEventDto"][];
+        };
+        UndoCompletionDto: {
+            /** @description Why the completion is undone; kept in the audit trail */
+            reason: string;
+        };
+        StepCodeDto: {
+            stepId: string;
+            position: number;
+            title: string;
+            code: string;
+        };
+        StepCodesDto: {
+            reference: string;
+            items: components["schemas"]["StepCodeDto"][];
         };
         MarkLostDto: {
             reason?: string;
+        };
+        BulkCompletionDto: {
+            /**
+             * @description Participant references, one per line as pasted or uploaded
+             * @example [
+             *       "P-ABC234",
+             *       "P-XYZ789"
+             *     ]
+             */
+            references: string[];
+        };
+        BulkCompletionRowDto: {
+            /** @description Line in the list, from 1 */
+            line: number;
+            reference: string;
+            /** @enum {string} */
+            outcome: "completed" | "already-done" | "failed";
+            message: string | null;
+        };
+        BulkCompletionResultDto: {
+            completed: number;
+            alreadyDone: number;
+            failed: number;
+            rows: components["schemas"]["BulkCompletionRowDto"][];
         };
         PayoutDto: {
             id: string;
@@ -2333,6 +2700,25 @@ export interface components {
             randomized: number;
             arms: components["schemas"]["ArmFlowDto"][];
         };
+        ConditionContactsDto: {
+            conditionId: string;
+            name: string;
+            /** @description Randomized participants */
+            participants: number;
+            /** @description Contacts after randomization: reminders, re-consent requests and staff messages */
+            contacts: number;
+            meanPerParticipant: number | null;
+            reminders: number;
+            reconsentRequests: number;
+            staffMessages: number;
+        };
+        ContactsByConditionDto: {
+            conditions: components["schemas"]["ConditionContactsDto"][];
+            /** @description Largest minus smallest arm mean, contacts per participant */
+            largestMeanDifference: number | null;
+            /** @description Welch's ANOVA: equal mean contacts per participant */
+            test: components["schemas"]["WelchAnovaDto"];
+        };
         AttritionReportDto: {
             studyId: string;
             /**
@@ -2359,6 +2745,8 @@ export interface components {
             payParity: components["schemas"]["PayParityDto"];
             covariateBalance: components["schemas"]["CovariateBalanceRowDto"][];
             flow: components["schemas"]["ConsortFlowDto"];
+            /** @description Whether every condition was reminded and contacted alike */
+            contacts: components["schemas"]["ContactsByConditionDto"];
         };
         AlertStateDto: {
             /** @description Above the threshold at the last evaluation; no new e-mail until it goes back below */
@@ -2787,6 +3175,27 @@ export interface operations {
             };
         };
     };
+    StudiesController_openingChecklist: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["OpeningChecklistDto"];
+                };
+            };
+        };
+    };
     StudiesController_open: {
         parameters: {
             query?: never;
@@ -3106,6 +3515,33 @@ export interface operations {
             };
         };
     };
+    StepsController_saveSettings: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                stepId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["StepSettingsDto"];
+            };
+        };
+        responses: {
+            /** @description How the step is verified (return link, per-participant code, one shared code, staff) and its window */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StepListDto"];
+                };
+            };
+        };
+    };
     StepsController_update: {
         parameters: {
             query?: never;
@@ -3128,6 +3564,48 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["StepListDto"];
+                };
+            };
+        };
+    };
+    StepsController_returnLink: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ReturnLinkSetupDto"];
+                };
+            };
+        };
+    };
+    StepsController_rotateReturnKey: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ReturnLinkSetupDto"];
                 };
             };
         };
@@ -3578,6 +4056,102 @@ export interface operations {
             };
         };
     };
+    RemindersController_plan: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ReminderPlanDto"];
+                };
+            };
+        };
+    };
+    RemindersController_savePlan: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["SaveReminderPlanDto"];
+            };
+        };
+        responses: {
+            /** @description One plan for the whole study: the same reminders for every condition */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ReminderPlanDto"];
+                };
+            };
+        };
+    };
+    RemindersController_log: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                enrollmentId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ContactLogDto"];
+                };
+            };
+        };
+    };
+    RemindersController_message: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                enrollmentId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["SendStaffMessageDto"];
+            };
+        };
+        responses: {
+            /** @description Sends a message to one participant and logs it as a contact */
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["ContactLogDto"];
+                };
+            };
+        };
+    };
     MyEnrollmentController_me: {
         parameters: {
             query?: never;
@@ -3713,6 +4287,29 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["MyEnrollmentDto"];
+                };
+            };
+        };
+    };
+    MyEnrollmentController_startStep: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                stepId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description The lab's external task for this step, with the reference and a signed return address */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StepStartDto"];
                 };
             };
         };
@@ -3930,6 +4527,57 @@ export interface operations {
             };
         };
     };
+    RosterController_undoCompletion: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                enrollmentId: string;
+                stepId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["UndoCompletionDto"];
+            };
+        };
+        responses: {
+            /** @description Undoes a completion with a reason, only while its payout has not been approved */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RosterEntryDto"];
+                };
+            };
+        };
+    };
+    RosterController_stepCodes: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                enrollmentId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description This participant's own completion codes, for steps that use them */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StepCodesDto"];
+                };
+            };
+        };
+    };
     RosterController_lost: {
         parameters: {
             query?: never;
@@ -3996,6 +4644,72 @@ export interface operations {
         requestBody?: never;
         responses: {
             200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    StepCompletionsController_completeList: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                stepId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["BulkCompletionDto"];
+            };
+        };
+        responses: {
+            /** @description One row per line; lines that fail write nothing */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["BulkCompletionResultDto"];
+                };
+            };
+        };
+    };
+    StepCompletionsController_codesCsv: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    ReturnLinkController_returnFromTask: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                token: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description To the portal's return page, which says whether the step was marked done or why not */
+            302: {
                 headers: {
                     [name: string]: unknown;
                 };

@@ -229,6 +229,23 @@ export class ConsortFlowDto {
   @ApiProperty({ type: [ArmFlowDto] }) arms: ArmFlowDto[];
 }
 
+export class ConditionContactsDto {
+  @ApiProperty() conditionId: string;
+  @ApiProperty() name: string;
+  @ApiProperty({ description: 'Randomized participants' }) participants: number;
+  @ApiProperty({ description: 'Contacts after randomization: reminders, re-consent requests and staff messages' }) contacts: number;
+  @ApiProperty({ type: Number, nullable: true }) meanPerParticipant: number | null;
+  @ApiProperty() reminders: number;
+  @ApiProperty() reconsentRequests: number;
+  @ApiProperty() staffMessages: number;
+}
+
+export class ContactsByConditionDto {
+  @ApiProperty({ type: [ConditionContactsDto] }) conditions: ConditionContactsDto[];
+  @ApiProperty({ type: Number, nullable: true, description: 'Largest minus smallest arm mean, contacts per participant' }) largestMeanDifference: number | null;
+  @ApiProperty({ type: WelchAnovaDto, description: "Welch's ANOVA: equal mean contacts per participant" }) test: WelchAnovaDto;
+}
+
 export class AttritionReportDto {
   @ApiProperty() studyId: string;
   @ApiProperty({ enum: ['between', 'within'], description: 'Within-subjects studies are reported by order: each order is an arm' }) design: string;
@@ -246,4 +263,5 @@ export class AttritionReportDto {
   @ApiProperty({ type: PayParityDto }) payParity: PayParityDto;
   @ApiProperty({ type: [CovariateBalanceRowDto] }) covariateBalance: CovariateBalanceRowDto[];
   @ApiProperty({ type: ConsortFlowDto }) flow: ConsortFlowDto;
+  @ApiProperty({ type: ContactsByConditionDto, description: 'Whether every condition was reminded and contacted alike' }) contacts: ContactsByConditionDto;
 }

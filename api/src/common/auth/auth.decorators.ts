@@ -1,4 +1,4 @@
-import { createParamDecorator, ExecutionContext, SetMetadata } from '@nestjs/common';
+import { applyDecorators, createParamDecorator, ExecutionContext, SetMetadata } from '@nestjs/common';
 import type { UserRole } from '../../users/entities/user.entity';
 import type { SessionUser } from './session-user';
 
@@ -7,6 +7,11 @@ export const ROLES = 'evenhand:roles';
 
 /** Opts a route out of the global sign-in requirement. */
 export const Public = () => SetMetadata(IS_PUBLIC, true);
+
+export const OPTIONAL_SESSION = 'evenhand:optional-session';
+
+/** A public route that still reads the session when there is one (`CurrentUser` is then set, else undefined). */
+export const PublicWithOptionalSession = () => applyDecorators(SetMetadata(IS_PUBLIC, true), SetMetadata(OPTIONAL_SESSION, true));
 
 /** Limits a route to these roles (checked by the global guard after sign-in). */
 export const Roles = (...roles: UserRole[]) => SetMetadata(ROLES, roles);

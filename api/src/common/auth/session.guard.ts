@@ -5,7 +5,7 @@ import type { Request } from 'express';
 import { UsersService } from '../../users/users.service';
 import type { UserRole } from '../../users/entities/user.entity';
 import { DomainException } from '../errors/domain.exception';
-import { IS_PUBLIC, ROLES } from './auth.decorators';
+import { IS_PUBLIC, OPTIONAL_SESSION, ROLES } from './auth.decorators';
 import { ACCESS_COOKIE, SessionUser } from './session-user';
 
 /**
@@ -22,9 +22,12 @@ export class SessionGuard implements CanActivate {
 
   async canActivate(context: ExecutionContext): Promise<boolean> {
     const targets = [context.getHandler(), context.getClass()];
-    if (this.reflector.getAllAndOverride<boolean>(IS_PUBLIC, targets)) return true;
-
     const request = context.switchToHttp().getRequest<Request & { user?: SessionUser }>();
+    if (this.reflector.getAllAndOverride<boolean>(IS_PUBLIC, targets)) {
+      if (this.reflector.getAllAndOverride<boolean>(OPTIONAL_SESSION, targets)) await this.readOptionalSession(request);
+      return true;
+    }
+
     const token: unknown = request.cookies?.[ACCESS_COOKIE];
     if (typeof token !== 'string' || token === '') throw new DomainException('UNAUTHENTICATED', 'Please sign in.');
     let subject: string;
@@ -42,5 +45,17 @@ export class SessionGuard implements CanActivate {
       throw new DomainException('FORBIDDEN', 'Your role does not allow this.');
     }
     return true;
+  }
+
+  /** Sets the user when the request carries a valid session; anything less leaves it unset. */
+  private async readOptionalSession(request: Request & { user?: SessionUser }): Promise<void> {
+    const token: unknown = request.cookies?.[ACCESS_COOKIE];
+    if (typeof token !== 'string' || token === '') return;
+    try {
+      const user = await this.users.findActiveById((await this.jwt.verifyAsync<{ sub: string }>(token)).sub);
+      if (user) request.user = { id: user.id, email: user.email, name: user.name, role: user.role };
+    } catch {
+      // An expired or altered session counts as none.
+    }
   }
 }

@@ -4,6 +4,7 @@ import { DataSource } from 'typeorm';
 import type { SessionUser } from '../../common/auth/session-user';
 import { ConsentService } from '../../consent/consent.service';
 import { EnrollmentsService } from '../../enrollments/enrollments.service';
+import { StepProgressService } from '../../enrollments/step-progress.service';
 import { RandomizationService } from '../../randomization/randomization.service';
 import type { SchemeMethod } from '../../randomization/scheme-parameters';
 import { StepsService } from '../../steps/steps.service';
@@ -56,6 +57,7 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
   const randomization = app.get(RandomizationService);
   const consent = app.get(ConsentService);
   const enrollments = app.get(EnrollmentsService);
+  const stepProgress = app.get(StepProgressService);
   const users = app.get(UsersService);
   const coordinatorEntity = await users.findByEmail('coordinator@evenhand.test');
   if (!coordinatorEntity) throw new Error('load the demo accounts first');
@@ -90,8 +92,9 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
       const snapshot = await studies.designSnapshot(study.id, manager);
       await randomization.saveScheme(manager, coordinator, study.id, method as SchemeMethod, settings, snapshot, false);
     });
-    await studies.transition(coordinator, study.id, 'open');
+    // A study opens only once its consent form is approved and active.
     const first = await activateVersion(consent, coordinator, study.id, demo, demo.approvalReference);
+    await studies.transition(coordinator, study.id, 'open');
 
     const signedUp: SessionUser[] = [];
     for (let i = 0; i < demo.participants.count; i++) {
@@ -140,6 +143,7 @@ function demoChance(n: number, salt: number): number {
 async function playHistory(app: INestApplicationContext, coordinator: SessionUser, studyId: string, demo: DemoStudy, people: SessionUser[]) {
   const dataSource = app.get(DataSource);
   const enrollments = app.get(EnrollmentsService);
+  const stepProgress = app.get(StepProgressService);
   const history = demo.history!;
   const rows: Array<{ id: string; internal_name: string }> = await dataSource.query(`SELECT id, internal_name FROM condition WHERE study_id = $1`, [studyId]);
   const internalNameOf = new Map<string, string>(rows.map((c) => [c.id, c.internal_name]));
@@ -167,7 +171,7 @@ async function playHistory(app: INestApplicationContext, coordinator: SessionUse
       }
       const at = new Date(assignedAt.getTime() + (s + 1) * history.daysBetweenSteps * day);
       if (at.getTime() > now) break;
-      await enrollments.completeStepForParticipant(coordinator, studyId, row.id, stepIds[s]);
+      await stepProgress.completeByStaff(coordinator, studyId, row.id, stepIds[s]);
       await dataSource.query(`UPDATE step_completion SET completed_at = $1 WHERE enrollment_id = $2 AND step_id = $3`, [at, row.id, stepIds[s]]);
       await dataSource.query(
         `UPDATE payout SET created_at = $1 WHERE step_completion_id = (SELECT id FROM step_completion WHERE enrollment_id = $2 AND step_id = $3)`,

@@ -2,7 +2,11 @@ import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform, Type } from 'class-transformer';
 import { ArrayMaxSize, IsArray, IsBoolean, IsIn, IsInt, IsObject, IsOptional, IsString, IsUUID, Length, Matches, Max, MaxLength, Min } from 'class-validator';
 import { ScreeningQuestionDto } from '../../studies/dto/screening.dto';
+import { STEP_VERIFICATIONS, type CompletionVerifiedBy, type StepVerification } from '../../steps/step-window';
 import { ENROLLMENT_STATUSES, EnrollmentStatus } from '../entities/enrollment.entity';
+
+export const STEP_STATUSES = ['done', 'open', 'overdue', 'upcoming', 'waiting', 'locked'] as const;
+export type StepStatus = (typeof STEP_STATUSES)[number];
 
 const trimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -30,10 +34,81 @@ export class MyStepDto {
   @ApiProperty() title: string;
   @ApiProperty() description: string;
   @ApiProperty() payMinor: number;
-  @ApiProperty({ enum: ['open', 'done', 'locked'] }) status: 'open' | 'done' | 'locked';
+  @ApiProperty({
+    enum: STEP_STATUSES,
+    description: 'done; open (can be done now); overdue (open, past its due date); upcoming (opens later); waiting (opens after the previous step); locked (not taking part, or a new consent form to sign first)',
+  })
+  status: StepStatus;
   @ApiProperty({ nullable: true, type: String }) completedAt: string | null;
-  @ApiProperty({ description: 'Whether the participant finishes this step by entering a code; without one, staff check it off.' })
+  @ApiProperty({ description: 'Whether the participant finishes this step by entering a code; otherwise a return link or staff mark it done.' })
   hasCompletionCode: boolean;
+  @ApiProperty({ enum: STEP_VERIFICATIONS }) verification: StepVerification;
+  @ApiProperty({ description: 'Whether the step is done in the lab\'s external task, opened through the start route' }) hasTask: boolean;
+  @ApiProperty({ nullable: true, type: String, description: 'When the step opens; null while it waits for the previous step' }) opensAt: string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'Until when it can be done; null for no due date' }) dueAt: string | null;
+}
+
+export class StepStartDto {
+  @ApiProperty({ description: 'The external task, with the reference, the signed return address and, for code steps, the code' }) url: string;
+}
+
+export class RosterNextStepDto {
+  @ApiProperty() stepId: string;
+  @ApiProperty() title: string;
+  @ApiProperty({ nullable: true, type: String }) opensAt: string | null;
+  @ApiProperty({ nullable: true, type: String }) dueAt: string | null;
+  @ApiProperty({ enum: ['waiting', 'upcoming', 'open', 'overdue'] }) timing: 'waiting' | 'upcoming' | 'open' | 'overdue';
+}
+
+export class RecordCompletionDto {
+  @ApiProperty() id: string;
+  @ApiProperty() completedAt: string;
+  @ApiProperty({ enum: [...STEP_VERIFICATIONS, 'staff-list'] }) verifiedBy: CompletionVerifiedBy;
+  @ApiProperty({ nullable: true, type: String }) recordedByEmail: string | null;
+  @ApiProperty({ type: 'object', additionalProperties: true }) evidence: Record<string, unknown>;
+  @ApiProperty({ nullable: true, type: String, enum: ['owed', 'approved', 'sending', 'paid', 'failed', 'cancelled', 'reversed'] }) payoutStatus: string | null;
+  @ApiProperty({ description: 'True while its payout has not been approved' }) canUndo: boolean;
+}
+
+export class UndoneCompletionDto {
+  @ApiProperty() completedAt: string;
+  @ApiProperty() undoneAt: string;
+  @ApiProperty() reason: string;
+  @ApiProperty({ nullable: true, type: String }) undoneByEmail: string | null;
+}
+
+export class RecordStepDto {
+  @ApiProperty() stepId: string;
+  @ApiProperty() position: number;
+  @ApiProperty() title: string;
+  @ApiProperty() payMinor: number;
+  @ApiProperty({ enum: STEP_VERIFICATIONS }) verification: StepVerification;
+  @ApiProperty({ enum: STEP_STATUSES }) status: StepStatus;
+  @ApiProperty({ nullable: true, type: String }) opensAt: string | null;
+  @ApiProperty({ nullable: true, type: String }) dueAt: string | null;
+  @ApiProperty({ type: RecordCompletionDto, nullable: true }) completion: RecordCompletionDto | null;
+  @ApiProperty({ type: [UndoneCompletionDto] }) undone: UndoneCompletionDto[];
+  @ApiProperty({ nullable: true, type: String, description: 'This participant\'s own code, for participant-code steps' }) code: string | null;
+}
+
+export class UndoCompletionDto {
+  @ApiProperty({ description: 'Why the completion is undone; kept in the audit trail' })
+  @Transform(trimmed)
+  @IsString()
+  @Length(5, 1000, { message: 'reason must say in at least 5 characters why the completion is undone' })
+  reason: string;
+}
+
+export class StepCodeDto {
+  @ApiProperty() stepId: string;
+  @ApiProperty() position: number;
+  @ApiProperty() title: string;
+  @ApiProperty() code: string;
+}
+
+export class StepCodesDto {
+  @ApiProperty() reference: string;
+  @ApiProperty({ type: [StepCodeDto] }) items: StepCodeDto[];
 }
 
 export class EarnedDto {
@@ -173,6 +248,11 @@ export class RosterEntryDto {
   @ApiProperty({ nullable: true, type: String }) invitationSentAt: string | null;
   @ApiProperty({ nullable: true, type: String }) assignedAt: string | null;
   @ApiProperty() createdAt: string;
+  @ApiProperty({ type: RosterNextStepDto, nullable: true, description: 'The first step not yet done, with its window; null when none is pending' })
+  nextStep: RosterNextStepDto | null;
+  @ApiProperty({ description: 'Reminders sent since the last step was done (or since assignment)' }) unansweredReminders: number;
+  @ApiProperty({ description: 'True when unanswered reminders reached the plan\'s threshold: Evenhand suggests marking lost to follow-up; staff decide' })
+  suggestLost: boolean;
 }
 
 export class RosterPageDto {
@@ -234,6 +314,7 @@ export class ParticipantRecordDto {
   @ApiProperty({ nullable: true, type: String, description: 'What staff noted when marking this person lost to follow-up.' }) lostReason: string | null;
   @ApiProperty({ nullable: true, type: String }) exclusionReason: string | null;
   @ApiProperty({ type: [SignatureSummaryDto] }) signatures: SignatureSummaryDto[];
+  @ApiProperty({ type: [RecordStepDto] }) steps: RecordStepDto[];
   @ApiProperty({ type: [TimelineEventDto] }) timeline: TimelineEventDto[];
 }
 

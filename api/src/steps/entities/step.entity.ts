@@ -2,6 +2,7 @@ import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, Primary
 import { StudyEntity } from '../../studies/entities/study.entity';
 
 import { bigintAsNumber } from '../../database/column-transformers';
+import type { StepOpensFrom, StepVerification } from '../step-window';
 
 /** A unit of work a participant is paid for; the same pay in every condition unless an override is recorded. */
 @Entity({ name: 'step' })
@@ -29,6 +30,24 @@ export class StepEntity {
   /** Minor units of the study's currency. */
   @Column({ name: 'pay_minor', type: 'bigint', transformer: bigintAsNumber })
   payMinor: number;
+
+  /** How a completion is verified: see `StepVerification`. */
+  @Column({ type: 'text', default: 'staff' })
+  verification: StepVerification;
+
+  /** The lab's external task (survey or experiment) for return-link steps. */
+  @Column({ name: 'task_url', type: 'text', nullable: true })
+  taskUrl: string | null;
+
+  @Column({ name: 'opens_after_days', type: 'integer', default: 0 })
+  opensAfterDays: number;
+
+  @Column({ name: 'opens_from', type: 'text', default: 'assignment' })
+  opensFrom: StepOpensFrom;
+
+  /** Days after opening by which the step is due; null when it has no due date. */
+  @Column({ name: 'due_within_days', type: 'integer', nullable: true })
+  dueWithinDays: number | null;
 
   /** SHA-256 of the completion code shown at the end of the external task; the code itself is never stored. */
   @Column({ name: 'completion_code_hash', type: 'text', nullable: true, select: false })
