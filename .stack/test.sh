@@ -10,6 +10,7 @@ T_ADMIN_PORT="${TEST_ADMIN_PORT:-5184}"
 T_PAYMENTS_PORT="${TEST_PAYMENTS_PORT:-3210}"
 T_SMTP_PORT="${TEST_SMTP_PORT:-1035}"
 T_MAILBOX_PORT="${TEST_MAILBOX_PORT:-1090}"
+T_DEMO_TASK_PORT="${TEST_DEMO_TASK_PORT:-3310}"
 
 started_at=$SECONDS
 RUN_DIR="$(mktemp -d "$LOCAL_DIR/test-run.XXXXXX")"
@@ -92,9 +93,14 @@ wait_for_url "http://127.0.0.1:$T_PAYMENTS_PORT/health" 60
 
 DATABASE_URL="postgres://postgres@127.0.0.1:$TEST_PG_PORT/evenhand_e2e" step "api end-to-end tests" vitest_in api api-e2e --project e2e
 
-say "Starting api, portal and admin for the browser journeys"
+say "Starting the demo task stand-in, api, portal and admin for the browser journeys"
+# The seeded demo steps send participants to the task stand-in; journeys find it at DEMO_TASK_URL.
+export DEMO_TASK_URL="http://127.0.0.1:$T_DEMO_TASK_PORT"
+DEMO_TASK_PORT="$T_DEMO_TASK_PORT" start_service demo-tasks "$ROOT/api" node --enable-source-maps dist/database/seed/demo-task-server.js
+wait_for_url "$DEMO_TASK_URL/health" 30
 BROWSER_DB="postgres://postgres@127.0.0.1:$TEST_PG_PORT/evenhand_browser"
-(cd "$ROOT/api" && DATABASE_URL="$BROWSER_DB" node dist/database/run-migrations.js && DATABASE_URL="$BROWSER_DB" node dist/database/seed/run-seed.js)
+(cd "$ROOT/api" && DATABASE_URL="$BROWSER_DB" node dist/database/run-migrations.js && DATABASE_URL="$BROWSER_DB" node dist/database/seed/run-seed.js) 2>&1 |
+  tee "$LOG_DIR/seed.log"
 DATABASE_URL="$BROWSER_DB" API_PORT="$T_API_PORT" start_service api "$ROOT/api" node --enable-source-maps dist/main.js
 for app in portal admin; do
   step "$app build" bash -c "cd '$ROOT/$app' && npm run build --silent"

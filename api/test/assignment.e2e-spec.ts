@@ -3,6 +3,7 @@ import { RandomizationService } from '../src/randomization/randomization.service
 import { generateSlots } from '../src/randomization/derive-sequence';
 import { parseSchemeParameters } from '../src/randomization/scheme-parameters';
 import { expectStatus } from './support/http';
+import { prepareToOpen } from './support/consent-fixtures';
 import { Browser, draftBetweenStudy, insertEnrollments, signedInStaff, uniqueSlug } from './support/study-fixtures';
 import { startTestApp, TestApp } from './support/test-app';
 
@@ -100,6 +101,7 @@ describe('sealed sequence', () => {
     const { studyId } = await draftBetweenStudy(researcher);
     const before = await expectStatus(researcher.get(`/api/studies/${studyId}/assignment`), 200);
     expect(before.commitment).toBeNull();
+    await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const after = await expectStatus(researcher.get(`/api/studies/${studyId}/assignment`), 200);
     expect(after.commitment).toMatch(/^[0-9a-f]{64}$/);
@@ -112,6 +114,7 @@ describe('sealed sequence', () => {
 
   it('takes exactly slots 1..300 with no duplicate under 300 concurrent allocations in one stratum', async () => {
     const { studyId } = await draftBetweenStudy(researcher);
+    await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const enrollments = await insertEnrollments(testApp, studyId, Array.from({ length: 300 }, () => ({ pretest: 70 })));
     const outcomes = await Promise.all(enrollments.map((id) => allocateInOwnTransaction(studyId, id, { pretest: 70 })));
@@ -129,6 +132,7 @@ describe('sealed sequence', () => {
 
   it('keeps each of 4 strata a prefix of its own generated list', async () => {
     const { studyId } = await draftBetweenStudy(researcher, { cutPoints: [25, 50, 75] });
+    await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const scores = Array.from({ length: 120 }, (_, i) => (i * 37) % 100);
     const enrollments = await insertEnrollments(testApp, studyId, scores.map((pretest) => ({ pretest })));
@@ -152,6 +156,7 @@ describe('sealed sequence', () => {
 
   it('frees the slot when the allocating transaction rolls back', async () => {
     const { studyId } = await draftBetweenStudy(researcher);
+    await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const [first, second] = await insertEnrollments(testApp, studyId, [{ pretest: 10 }, { pretest: 10 }]);
     await expect(
@@ -166,6 +171,7 @@ describe('sealed sequence', () => {
 
   it('gives the same enrollment its one allocation when asked twice', async () => {
     const { studyId } = await draftBetweenStudy(researcher);
+    await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const [only] = await insertEnrollments(testApp, studyId, [{ pretest: 90 }]);
     const once = await allocateInOwnTransaction(studyId, only, { pretest: 90 });
@@ -177,6 +183,7 @@ describe('sealed sequence', () => {
 
   it('refuses scheme, condition and stratification changes after the first assignment', async () => {
     const { studyId } = await draftBetweenStudy(researcher);
+    await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const [only] = await insertEnrollments(testApp, studyId, [{ pretest: 30 }]);
     await allocateInOwnTransaction(studyId, only, { pretest: 30 });
@@ -193,6 +200,7 @@ describe('sealed sequence', () => {
 
   it('re-seals with a new commitment when the design changes after opening but before anyone is assigned', async () => {
     const { studyId } = await draftBetweenStudy(researcher);
+    await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const first = (await expectStatus(researcher.get(`/api/studies/${studyId}/assignment`), 200)).commitment;
     // Blocks of 6 fit two conditions and three alike, so the scheme stays valid when a third is added.
@@ -206,6 +214,7 @@ describe('sealed sequence', () => {
 
   it('refuses a design change that the saved scheme cannot take, and says why', async () => {
     const { studyId } = await draftBetweenStudy(researcher);
+    await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const body = await expectStatus(
       researcher.post(`/api/studies/${studyId}/conditions`).send({ internalName: 'gamma', participantLabel: 'Version gamma' }),
@@ -219,6 +228,7 @@ describe('sealed sequence', () => {
 
   it('verifies every allocation after unblinding, and reports a mismatch when one is altered in the database', async () => {
     const { studyId } = await draftBetweenStudy(researcher, { scheme: { method: 'minimization', coinProbability: 0.8 } });
+    await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     await expectStatus(researcher.get(`/api/studies/${studyId}/assignment/verify`), 409, 'CONFLICT');
     const scores = Array.from({ length: 40 }, (_, i) => (i * 53) % 100);
@@ -242,6 +252,7 @@ describe('sealed sequence', () => {
 
   it('reveals the seed at closure so the sequence can be verified', async () => {
     const { studyId } = await draftBetweenStudy(researcher);
+    await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const enrollments = await insertEnrollments(testApp, studyId, [{ pretest: 5 }, { pretest: 95 }, { pretest: 65 }]);
     for (const [i, id] of enrollments.entries()) await allocateInOwnTransaction(studyId, id, { pretest: [5, 95, 65][i] });
@@ -256,6 +267,7 @@ describe('sealed sequence', () => {
 describe('matched pairs', () => {
   it('pairs a pretested cohort once, places each member on signing, and verifies after unblinding', async () => {
     const { studyId } = await draftBetweenStudy(researcher, { scheme: { method: 'matched-pairs', pretestKey: 'pretest' } });
+    await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const scores = [12, 88, 45, 46, 90, 13, 70];
     const enrollments = await insertEnrollments(testApp, studyId, scores.map((pretest) => ({ pretest })));

@@ -3,6 +3,7 @@ import { jStat } from 'jstat';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AttritionAlertsService } from '../src/attrition/alerts/attrition-alerts.service';
 import { dayOf, expectMailCount, HistoryEntry, insertHistory } from './support/attrition-fixtures';
+import { activeConsentVersion } from './support/consent-fixtures';
 import { expectStatus } from './support/http';
 import { uniqueAddress } from './support/mailbox';
 import { Browser, draftBetweenStudy, signedInStaff } from './support/study-fixtures';
@@ -34,6 +35,7 @@ async function openStudy(conditions: string[]): Promise<{ studyId: string; condi
   const { studyId, conditionIds } = await draftBetweenStudy(researcher, { conditions });
   await expectStatus(researcher.post(`/api/studies/${studyId}/steps`).send({ title: 'Route learning', payMinor: 500 }), 201);
   await expectStatus(researcher.post(`/api/studies/${studyId}/steps`).send({ title: 'Route recall', payMinor: 1000 }), 201);
+  await activeConsentVersion(researcher, studyId);
   await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
   return { studyId, conditionIds };
 }

@@ -27,8 +27,8 @@ async function recruitingStudy() {
     }),
     200,
   );
-  await expectStatus(coordinator.post(`/api/studies/${studyId}/open`), 200);
   const version = await activeConsentVersion(coordinator, studyId);
+  await expectStatus(coordinator.post(`/api/studies/${studyId}/open`), 200);
   return { studyId, conditionIds, version };
 }
 

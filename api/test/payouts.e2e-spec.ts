@@ -45,8 +45,8 @@ async function paidStudyWithParticipant() {
     const step = steps.items.find((s: { title: string }) => s.title === title);
     await expectStatus(coordinator.put(`/api/studies/${studyId}/steps/${step.id}/completion-code`).send({ code }), 200);
   }
-  await expectStatus(coordinator.post(`/api/studies/${studyId}/open`), 200);
   const version = await activeConsentVersion(coordinator, studyId);
+  await expectStatus(coordinator.post(`/api/studies/${studyId}/open`), 200);
   const { browser, email } = await signedInParticipant(testApp, 'payee');
   await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
   await expectStatus(browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 60 } }), 200);

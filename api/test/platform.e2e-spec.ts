@@ -23,6 +23,8 @@ const PUBLIC_ROUTES = new Set([
   'POST /api/auth/sign-out',
   'GET /api/health',
   'GET /api/public/studies/{slug}',
+  // The signed return address from a lab's external task: the signature is the credential.
+  'GET /api/return/{token}',
   // Authenticated by the provider's signature instead of a session.
   'POST /api/webhooks/payments',
 ]);

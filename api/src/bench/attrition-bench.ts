@@ -13,6 +13,8 @@ import { AppModule } from '../app.module';
 import { AttritionService } from '../attrition/attrition.service';
 import type { SessionUser } from '../common/auth/session-user';
 import { RandomizationService } from '../randomization/randomization.service';
+import { StepsService } from '../steps/steps.service';
+import { activateBenchConsent } from './bench-consent';
 import { StudiesService } from '../studies/studies.service';
 import { BenchDatabase, BenchSetupError, DATABASE_URL_HELP } from './bench-database';
 import { runBenchmark } from './concurrent-runner';
@@ -43,7 +45,7 @@ class AttritionBench {
   readonly attrition: AttritionService;
   private researcher: SessionUser | null = null;
 
-  constructor(app: INestApplicationContext) {
+  constructor(private readonly app: INestApplicationContext) {
     this.dataSource = app.get(DataSource);
     this.studies = app.get(StudiesService);
     this.randomization = app.get(RandomizationService);
@@ -80,6 +82,8 @@ class AttritionBench {
       const snapshot = await this.studies.designSnapshot(study.id, manager);
       await this.randomization.saveScheme(manager, researcher, study.id, 'simple', {}, snapshot, false);
     });
+    await this.app.get(StepsService).create(researcher, study.id, { title: 'Session 1', payMinor: 1500 });
+    await activateBenchConsent(this.app, researcher, study.id, `QREB-ATTRITION-${size}`);
     await this.studies.transition(researcher, study.id, 'open');
     return study.id;
   }

@@ -5,6 +5,8 @@ import type { CovariateRecord } from '../randomization/randomization.service';
 import { RandomizationService } from '../randomization/randomization.service';
 import type { SchemeMethod } from '../randomization/scheme-parameters';
 import type { SchemeSettings, StudyDesignSnapshot } from '../randomization/study-design-snapshot';
+import { StepsService } from '../steps/steps.service';
+import { activateBenchConsent } from './bench-consent';
 import { StudiesService } from '../studies/studies.service';
 
 /** Pretest scores at or above this fall in the upper stratum: one numeric factor, so two strata. */
@@ -38,7 +40,7 @@ export class BenchStudies {
   private researcher: SessionUser | null = null;
   private created = 0;
 
-  constructor(app: INestApplicationContext) {
+  constructor(private readonly app: INestApplicationContext) {
     this.dataSource = app.get(DataSource);
     this.studies = app.get(StudiesService);
     this.randomization = app.get(RandomizationService);
@@ -59,6 +61,8 @@ export class BenchStudies {
       { key: 'pretest', label: 'Pretest score (0–100)', kind: 'numeric', cutPoints: [PRETEST_CUT] },
     ]);
     await this.saveScheme(researcher, study.id, method, BENCH_SCHEMES[method]);
+    await this.app.get(StepsService).create(researcher, study.id, { title: 'Session 1', payMinor: 1000 });
+    await activateBenchConsent(this.app, researcher, study.id, `QREB-ALLOC-${this.created}`);
     await this.studies.transition(researcher, study.id, 'open');
     return { studyId: study.id, enrollments: await this.insertEnrollments(study.id, arrivals) };
   }

@@ -11,10 +11,10 @@ import { DataSource } from 'typeorm';
 import type { PostgresDriver } from 'typeorm/driver/postgres/PostgresDriver';
 import { AppModule } from '../app.module';
 import type { SessionUser } from '../common/auth/session-user';
-import { ConsentService } from '../consent/consent.service';
 import { EnrollmentsService } from '../enrollments/enrollments.service';
 import { JOB_NAMES } from '../jobs/job-queue.service';
 import { RandomizationService } from '../randomization/randomization.service';
+import { activateBenchConsent } from './bench-consent';
 import { StepsService } from '../steps/steps.service';
 import { StudiesService } from '../studies/studies.service';
 import { BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
@@ -25,23 +25,6 @@ import { abortOnInterrupt, runConcurrently, runBenchmark } from './concurrent-ru
 
 const CONNECTIONS = 32;
 const CLIENT = { ip: '127.0.0.1', userAgent: 'Evenhand signing benchmark' };
-/** Every template field filled (invented lab), so activation finds nothing left "to fill". */
-const CONSENT_VALUES = {
-  institutionName: 'Quillmoor Institute (invented)',
-  investigatorName: 'Dr. Orla Fenwick (invented)',
-  contactEmail: 'bench-lab@example.test',
-  contactPhone: '+1 555 0199',
-  ethicsBoardName: 'Quillmoor Research Ethics Board (invented)',
-  ethicsBoardContact: 'ethics@example.test',
-  studyPurpose: 'A benchmark study: nobody takes part in it.',
-  paymentMethod: 'a transfer to the account you set up in the study portal',
-  paymentDays: 14,
-  dataRetentionYears: 5,
-  futureUseDeidentified: false,
-};
-/** Starts like a PDF, which is all the approval-letter check looks at. */
-const TINY_PDF = Buffer.from('%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n', 'latin1');
-
 interface SigningStudy {
   studyId: string;
   version: { versionId: string; fingerprint: string };
@@ -52,20 +35,18 @@ class SigningBench {
   private readonly dataSource: DataSource;
   private readonly studies: StudiesService;
   private readonly steps: StepsService;
-  private readonly consent: ConsentService;
   private readonly randomization: RandomizationService;
   private readonly enrollments: EnrollmentsService;
   private researcher: SessionUser | null = null;
   private created = 0;
 
   constructor(
-    app: INestApplicationContext,
+    private readonly app: INestApplicationContext,
     private readonly signal: AbortSignal,
   ) {
     this.dataSource = app.get(DataSource);
     this.studies = app.get(StudiesService);
     this.steps = app.get(StepsService);
-    this.consent = app.get(ConsentService);
     this.randomization = app.get(RandomizationService);
     this.enrollments = app.get(EnrollmentsService);
   }
@@ -138,12 +119,8 @@ class SigningBench {
       const snapshot = await this.studies.designSnapshot(study.id, manager);
       await this.randomization.saveScheme(manager, researcher, study.id, 'stratified-blocks', BENCH_SCHEMES['stratified-blocks'], snapshot, false);
     });
+    const active = await activateBenchConsent(this.app, researcher, study.id, `QREB-BENCH-${this.created}`);
     await this.studies.transition(researcher, study.id, 'open');
-    const draft = await this.consent.createDraft(researcher, study.id, 'consent/minimal-risk-paid-study', CONSENT_VALUES);
-    await this.consent.updateDraft(researcher, study.id, draft.id, { approvalReference: `QREB-BENCH-${this.created}`, approvedAt: '2026-11-20' });
-    await this.consent.uploadApprovalLetter(researcher, study.id, draft.id, { buffer: TINY_PDF, originalname: 'approval.pdf', size: TINY_PDF.length });
-    const active = await this.consent.activate(researcher, study.id, draft.id);
-    if (!active.fingerprint) throw new Error('the activated consent version has no fingerprint');
     return { studyId: study.id, version: { versionId: active.id, fingerprint: active.fingerprint }, participants: await this.screenedParticipants(study.id, n) };
   }
 

@@ -135,7 +135,7 @@ export class AppConfig {
   @Min(1)
   returnLinkValidDays = 14;
 
-  /** Cron (UTC) of the reminder sweep. */
+  /** Cron (UTC) of the reminder sweep; empty turns the schedule off. */
   @IsString()
   reminderSweepCron = '*/10 * * * *';
 

@@ -78,6 +78,10 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
     await this.boss.schedule(name, cron, payload, { tz: 'UTC' });
   }
 
+  async unschedule(name: JobName): Promise<void> {
+    await this.boss.unschedule(name);
+  }
+
   async isReachable(): Promise<boolean> {
     if (!this.started) return false;
     try {

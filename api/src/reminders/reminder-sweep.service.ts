@@ -43,7 +43,9 @@ export class ReminderSweepService implements OnModuleInit {
       const sent = await this.sweep(payload.asOf ? new Date(payload.asOf) : new Date(), payload.studyIds);
       if (sent > 0) this.logger.log(`sent ${sent} reminders`);
     });
-    await this.jobs.schedule(JOB_NAMES.sweepReminders, this.config.reminderSweepCron);
+    // An empty cron turns the schedule off (the test suites sweep at moments of their own choosing).
+    if (this.config.reminderSweepCron) await this.jobs.schedule(JOB_NAMES.sweepReminders, this.config.reminderSweepCron);
+    else await this.jobs.unschedule(JOB_NAMES.sweepReminders);
   }
 
   /** Sends what is due at `now`; returns how many reminders went out. */

@@ -39,3 +39,10 @@ export async function signedInParticipant(testApp: TestApp, prefix = 'participan
   await expectStatus(browser.post('/api/auth/sign-in-link/consume').send({ token }), 200);
   return { browser, email };
 }
+
+/** What a study needs before it opens besides its design: a paid step (unless it has one) and an active consent form. */
+export async function prepareToOpen(browser: Browser, studyId: string) {
+  const steps = await expectStatus(browser.get(`/api/studies/${studyId}/steps`), 200);
+  if (steps.items.length === 0) await expectStatus(browser.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 1000 }), 201);
+  return activeConsentVersion(browser, studyId);
+}

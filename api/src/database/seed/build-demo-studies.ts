@@ -4,14 +4,15 @@ import { DataSource } from 'typeorm';
 import type { SessionUser } from '../../common/auth/session-user';
 import { ConsentService } from '../../consent/consent.service';
 import { EnrollmentsService } from '../../enrollments/enrollments.service';
-import { StepProgressService } from '../../enrollments/step-progress.service';
 import { RandomizationService } from '../../randomization/randomization.service';
+import { ReminderPlanService } from '../../reminders/reminder-plan.service';
 import type { SchemeMethod } from '../../randomization/scheme-parameters';
 import { StepsService } from '../../steps/steps.service';
 import { StudiesService } from '../../studies/studies.service';
 import { UsersService } from '../../users/users.service';
+import { playDemoHistory } from './play-demo-history';
 import { playDemoPayouts } from './play-demo-payouts';
-import { DEMO_LAB, DEMO_MEMBERSHIPS, DEMO_STUDIES, DemoStudy, demoParticipantEmail } from './demo-scenario';
+import { DEMO_LAB, DEMO_MEMBERSHIPS, DEMO_STUDIES, DemoStudy, demoParticipantEmail, demoTaskAddress } from './demo-scenario';
 
 const DEMO_CLIENT = { ip: '127.0.0.1', userAgent: 'Evenhand demo loader' };
 
@@ -57,7 +58,7 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
   const randomization = app.get(RandomizationService);
   const consent = app.get(ConsentService);
   const enrollments = app.get(EnrollmentsService);
-  const stepProgress = app.get(StepProgressService);
+  const reminderPlans = app.get(ReminderPlanService);
   const users = app.get(UsersService);
   const coordinatorEntity = await users.findByEmail('coordinator@evenhand.test');
   if (!coordinatorEntity) throw new Error('load the demo accounts first');
@@ -86,7 +87,17 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
     for (const condition of demo.conditions) await studies.createCondition(coordinator, study.id, condition);
     if (demo.factors.length) await studies.replaceFactors(coordinator, study.id, demo.factors);
     await studies.replaceScreeningQuestions(coordinator, study.id, demo.screening);
-    for (const step of demo.steps) await steps.create(coordinator, study.id, step);
+    for (const step of demo.steps) {
+      const { items } = await steps.create(coordinator, study.id, { title: step.title, description: step.description, payMinor: step.payMinor });
+      await steps.saveSettings(coordinator, study.id, items[items.length - 1].id, {
+        verification: step.verification,
+        taskUrl: step.task ? demoTaskAddress(step.task) : null,
+        opensAfterDays: step.opensAfterDays,
+        opensFrom: step.opensFrom,
+        dueWithinDays: step.dueWithinDays,
+      });
+    }
+    await reminderPlans.save(coordinator, study.id, { ...demo.reminders, enabled: true });
     const { method, ...settings } = demo.scheme;
     await dataSource.transaction(async (manager) => {
       const snapshot = await studies.designSnapshot(study.id, manager);
@@ -123,78 +134,9 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
       }
     }
     // Only people on the current consent version can go on with their steps; the rest wait to re-consent.
-    if (demo.history) await playHistory(app, coordinator, study.id, demo, signedUp.slice(0, demo.amendment?.resign ?? signedUp.length));
+    if (demo.history) await playDemoHistory(app, coordinator, study.id, demo, signedUp.slice(0, demo.amendment?.resign ?? signedUp.length));
     if (demo.pay) await playDemoPayouts(app, coordinator, study.id, demo, signedUp);
     built.push(demo.slug);
   }
   return built;
-}
-
-/** A deterministic stand-in for chance, so the demo looks the same on every machine. */
-function demoChance(n: number, salt: number): number {
-  const x = Math.sin(n * 12.9898 + salt * 78.233) * 43758.5453;
-  return x - Math.floor(x);
-}
-
-/**
- * Gives the demo study weeks of invented history: people working through their steps, some withdrawing and some
- * lost to follow-up, with one condition losing people faster, so the dropout watch has something to show.
- */
-async function playHistory(app: INestApplicationContext, coordinator: SessionUser, studyId: string, demo: DemoStudy, people: SessionUser[]) {
-  const dataSource = app.get(DataSource);
-  const enrollments = app.get(EnrollmentsService);
-  const stepProgress = app.get(StepProgressService);
-  const history = demo.history!;
-  const rows: Array<{ id: string; internal_name: string }> = await dataSource.query(`SELECT id, internal_name FROM condition WHERE study_id = $1`, [studyId]);
-  const internalNameOf = new Map<string, string>(rows.map((c) => [c.id, c.internal_name]));
-  const stepIds: string[] = (await dataSource.query(`SELECT id FROM step WHERE study_id = $1 ORDER BY position`, [studyId])).map((r: { id: string }) => r.id);
-  const day = 24 * 3600 * 1000;
-  const now = Date.now();
-  // Who stops is drawn from each person's place within their condition, not from the random allocation's order, so
-  // every run of the demo tells the same story (each condition loses someone; "no cues" loses the most).
-  const placeInCondition = new Map<string, number>();
-  for (const [i, person] of people.entries()) {
-    const [row] = await dataSource.query(`SELECT id, condition_id FROM enrollment WHERE study_id = $1 AND participant_id = $2`, [studyId, person.id]);
-    const internalName = internalNameOf.get(row.condition_id) ?? '';
-    const dropRate = history.dropoutByCondition[internalName] ?? 0.15;
-    const place = placeInCondition.get(row.condition_id) ?? 0;
-    placeInCondition.set(row.condition_id, place + 1);
-    const draw = place + 100 * Math.max(0, demo.conditions.findIndex((c) => c.internalName === internalName));
-    const assignedAt = new Date(now - (history.days - (i * history.days) / people.length) * day);
-    // Every step of the way, a person may stop; those who stop are withdrawn or, if they went quiet, lost.
-    let stepsDone = 0;
-    let stoppedAfter: number | null = null;
-    for (let s = 0; s < stepIds.length; s++) {
-      if (demoChance(draw, s + 1) < dropRate / stepIds.length + (s === 0 ? dropRate / 3 : 0)) {
-        stoppedAfter = s;
-        break;
-      }
-      const at = new Date(assignedAt.getTime() + (s + 1) * history.daysBetweenSteps * day);
-      if (at.getTime() > now) break;
-      await stepProgress.completeByStaff(coordinator, studyId, row.id, stepIds[s]);
-      await dataSource.query(`UPDATE step_completion SET completed_at = $1 WHERE enrollment_id = $2 AND step_id = $3`, [at, row.id, stepIds[s]]);
-      await dataSource.query(
-        `UPDATE payout SET created_at = $1 WHERE step_completion_id = (SELECT id FROM step_completion WHERE enrollment_id = $2 AND step_id = $3)`,
-        [at, row.id, stepIds[s]],
-      );
-      stepsDone += 1;
-    }
-    const stoppedAt = new Date(assignedAt.getTime() + ((stoppedAfter ?? 0) + 0.5) * history.daysBetweenSteps * day);
-    if (stoppedAfter !== null && stoppedAt.getTime() < now) {
-      if (demoChance(draw, 99) < 0.5) {
-        await enrollments.withdrawOnBehalf(coordinator, studyId, row.id, history.withdrawalReasons[i % history.withdrawalReasons.length]);
-        await dataSource.query(`UPDATE enrollment SET withdrew_at = $1 WHERE id = $2`, [stoppedAt, row.id]);
-      } else if (stepsDone > 0 || demoChance(draw, 7) < 0.5) {
-        await dataSource.query(`UPDATE enrollment SET status = 'active' WHERE id = $1 AND status = 'assigned'`, [row.id]);
-        await enrollments.markLost(coordinator, studyId, row.id, 'No reply to three reminders');
-        await dataSource.query(`UPDATE enrollment SET lost_at = $1 WHERE id = $2`, [stoppedAt, row.id]);
-      }
-    }
-    const completedAt = new Date(assignedAt.getTime() + stepIds.length * history.daysBetweenSteps * day);
-    await dataSource.query(`UPDATE enrollment SET assigned_at = $1, consented_at = $1, completed_at = CASE WHEN status = 'completed' THEN $2::timestamptz END WHERE id = $3`, [
-      assignedAt,
-      completedAt,
-      row.id,
-    ]);
-  }
 }

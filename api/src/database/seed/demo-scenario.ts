@@ -1,3 +1,5 @@
+import type { ReminderRule } from '../../reminders/reminder-planner';
+import type { StepOpensFrom, StepVerification } from '../../steps/step-window';
 import type { StaffRole } from '../../users/entities/user.entity';
 
 /** The invented Harbor Lane Cognition Lab: demo data only, never real people. */
@@ -40,15 +42,33 @@ export interface DemoStudy {
   conditions: Array<{ internalName: string; participantLabel: string; participantInstructions: string }>;
   factors: Array<{ key: string; label: string; kind: 'numeric'; cutPoints: number[] }>;
   screening: Array<{ key: string; label: string; kind: 'yes-no'; eligibleValues: [boolean]; criterion: string }>;
-  steps: Array<{ title: string; description: string; payMinor: number }>;
+  /**
+   * `task` names a page of the demo task stand-in (demo-task-server.ts); the step's task address is that page under
+   * DEMO_TASK_URL. Windows count days from assignment or from the previous step being done.
+   */
+  steps: Array<{
+    title: string;
+    description: string;
+    payMinor: number;
+    verification: StepVerification;
+    task?: string;
+    opensAfterDays: number;
+    opensFrom: StepOpensFrom;
+    dueWithinDays: number | null;
+  }>;
+  /** The study's one reminder plan, the same for every condition. */
+  reminders: { rules: ReminderRule[]; suggestLostAfter: number };
   scheme: Record<string, unknown>;
   approvalReference: string;
   /** How many demo participants sign up, and how many of them fail screening. */
   participants: { prefix: string; first: number; count: number; excluded: number };
   /** An amendment activated after everyone signed; this many sign it again. */
   amendment?: { approvalReference: string; note: string; resign: number };
-  /** Invented history for the dropout watch: probability of stopping, by condition (internal name). */
-  history?: { days: number; daysBetweenSteps: number; dropoutByCondition: Record<string, number>; withdrawalReasons: string[] };
+  /**
+   * Invented history for the dropout watch: assignments spread over `days`, each step done within its window, and
+   * the probability of stopping by condition (internal name).
+   */
+  history?: { days: number; dropoutByCondition: Record<string, number>; withdrawalReasons: string[] };
   /**
    * Money so far: card fundings (days ago), payouts approved and paid when they were older than `paidAfterDays`,
    * the last `notSetUp` payees never set up getting paid, and one payout that failed because its payee had not
@@ -64,8 +84,8 @@ export const DEMO_STUDIES: DemoStudy[] = [
     protocolNumber: 'HLCL-2026-014',
     design: 'between',
     summary:
-      'Three short online sessions in which you find your way through a virtual building. We compare different kinds of route help.',
-    estimatedMinutes: 75,
+      'Three short online sessions in which you find your way through a virtual building, then a short call with the team. We compare different kinds of route help.',
+    estimatedMinutes: 85,
     targetSize: 150,
     budgetMinor: 600000,
     contactEmail: 'wayfinding@harborlane.test',
@@ -93,11 +113,56 @@ export const DEMO_STUDIES: DemoStudy[] = [
       { key: 'adult', label: 'Are you 18 or older?', kind: 'yes-no', eligibleValues: [true], criterion: '18 or older' },
       { key: 'vision', label: 'Can you see a computer screen clearly (with glasses or lenses if you use them)?', kind: 'yes-no', eligibleValues: [true], criterion: 'Able to see a screen clearly' },
     ],
+    // The sessions run in the lab's own task tool and bring people back by return link; the call is checked off by staff.
     steps: [
-      { title: 'Session 1: learning the building', description: 'About 20 minutes.', payMinor: 1000 },
-      { title: 'Session 2: finding rooms', description: 'About 25 minutes, at least a day after session 1.', payMinor: 1200 },
-      { title: 'Session 3: finding rooms again', description: 'About 30 minutes, a week after session 2.', payMinor: 1500 },
+      {
+        title: 'Session 1: learning the building',
+        description: 'About 20 minutes, online. You can start as soon as you have signed.',
+        payMinor: 1000,
+        verification: 'return-link',
+        task: 'wayfinding-session-1',
+        opensAfterDays: 0,
+        opensFrom: 'assignment',
+        dueWithinDays: 3,
+      },
+      {
+        title: 'Session 2: finding rooms',
+        description: 'About 25 minutes, online, at least a day after session 1.',
+        payMinor: 1200,
+        verification: 'return-link',
+        task: 'wayfinding-session-2',
+        opensAfterDays: 1,
+        opensFrom: 'previous-step',
+        dueWithinDays: 4,
+      },
+      {
+        title: 'Session 3: finding rooms again',
+        description: 'About 30 minutes, online, a week after session 2.',
+        payMinor: 1500,
+        verification: 'return-link',
+        task: 'wayfinding-session-3',
+        opensAfterDays: 7,
+        opensFrom: 'previous-step',
+        dueWithinDays: 5,
+      },
+      {
+        title: 'Debrief call',
+        description: 'Ten minutes by phone or video with the research team, who mark it done.',
+        payMinor: 500,
+        verification: 'staff',
+        opensAfterDays: 0,
+        opensFrom: 'previous-step',
+        dueWithinDays: 7,
+      },
     ],
+    reminders: {
+      rules: [
+        { anchor: 'opens', days: 0 },
+        { anchor: 'due', days: 1 },
+        { anchor: 'due', days: 0 },
+      ],
+      suggestLostAfter: 3,
+    },
     scheme: { method: 'stratified-blocks', blockSizes: [3, 6] },
     approvalReference: 'HLREB-2026-031',
     participants: { prefix: 'p', first: 1, count: 48, excluded: 3 },
@@ -105,7 +170,6 @@ export const DEMO_STUDIES: DemoStudy[] = [
     // People without any route help get lost in the building and give up more often: the watch should light up.
     history: {
       days: 42,
-      daysBetweenSteps: 4,
       dropoutByCondition: { 'audio cues': 0.12, 'map cues': 0.15, 'no cues': 0.55 },
       withdrawalReasons: ['The tasks took longer than I expected', 'Too frustrating to find the rooms', 'Moved house'],
     },
@@ -138,7 +202,26 @@ export const DEMO_STUDIES: DemoStudy[] = [
     ],
     factors: [],
     screening: [{ key: 'adult', label: 'Are you 18 or older?', kind: 'yes-no', eligibleValues: [true], criterion: '18 or older' }],
-    steps: [{ title: 'The shopping session', description: 'About 40 minutes in one sitting.', payMinor: 2500 }],
+    // The shop shows each participant their own code at the end; they type it on the study page.
+    steps: [
+      {
+        title: 'The shopping session',
+        description: 'About 40 minutes in one sitting. At the end the pretend shop shows your own completion code.',
+        payMinor: 2500,
+        verification: 'participant-code',
+        task: 'checkout-shopping',
+        opensAfterDays: 0,
+        opensFrom: 'assignment',
+        dueWithinDays: 7,
+      },
+    ],
+    reminders: {
+      rules: [
+        { anchor: 'opens', days: 0 },
+        { anchor: 'due', days: 2 },
+      ],
+      suggestLostAfter: 2,
+    },
     scheme: { method: 'williams', squaresPerBlock: [1] },
     approvalReference: 'HLREB-2026-044',
     participants: { prefix: 'p', first: 101, count: 12, excluded: 0 },
@@ -151,6 +234,11 @@ export const DEMO_MEMBERSHIPS: Array<{ email: string; slug: string; role: 'coord
   { email: 'researcher@evenhand.test', slug: 'wayfinding-cues', role: 'researcher' },
   { email: 'researcher@evenhand.test', slug: 'checkout-flows', role: 'researcher' },
 ];
+
+/** Where the demo task stand-in answers: DEMO_TASK_URL, set by `npm start` and `npm test` to the port they run it on. */
+export function demoTaskAddress(task: string, base = process.env.DEMO_TASK_URL || 'http://127.0.0.1:3300'): string {
+  return new URL(`/task/${task}`, base).toString();
+}
 
 export function demoParticipantEmail(prefix: string, n: number): string {
   return `${prefix}${String(n).padStart(3, '0')}@evenhand.test`;

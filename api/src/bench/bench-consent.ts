@@ -1,0 +1,31 @@
+import type { INestApplicationContext } from '@nestjs/common';
+import type { SessionUser } from '../common/auth/session-user';
+import { ConsentService } from '../consent/consent.service';
+
+/** Every template field filled (invented lab), so activation finds nothing left "to fill". */
+const CONSENT_VALUES = {
+  institutionName: 'Quillmoor Institute (invented)',
+  investigatorName: 'Dr. Orla Fenwick (invented)',
+  contactEmail: 'bench-lab@example.test',
+  contactPhone: '+1 555 0199',
+  ethicsBoardName: 'Quillmoor Research Ethics Board (invented)',
+  ethicsBoardContact: 'ethics@example.test',
+  studyPurpose: 'A benchmark study: nobody takes part in it.',
+  paymentMethod: 'a transfer to the account you set up in the study portal',
+  paymentDays: 14,
+  dataRetentionYears: 5,
+  futureUseDeidentified: false,
+};
+/** Starts like a PDF, which is all the approval-letter check looks at. */
+const TINY_PDF = Buffer.from('%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n', 'latin1');
+
+/** An approved, active consent version, as the admin screens make one; a study opens only with one. */
+export async function activateBenchConsent(app: INestApplicationContext, researcher: SessionUser, studyId: string, reference: string) {
+  const consent = app.get(ConsentService);
+  const draft = await consent.createDraft(researcher, studyId, 'consent/minimal-risk-paid-study', CONSENT_VALUES);
+  await consent.updateDraft(researcher, studyId, draft.id, { approvalReference: reference, approvedAt: '2026-11-20' });
+  await consent.uploadApprovalLetter(researcher, studyId, draft.id, { buffer: TINY_PDF, originalname: 'approval.pdf', size: TINY_PDF.length });
+  const active = await consent.activate(researcher, studyId, draft.id);
+  if (!active.fingerprint) throw new Error('the activated consent version has no fingerprint');
+  return { ...active, fingerprint: active.fingerprint };
+}
