@@ -9,6 +9,7 @@ ADMIN_PORT="${ADMIN_PORT:-5174}"
 PAYMENTS_PORT="${PAYMENTS_FAKE_PORT:-3200}"
 SMTP_PORT="${SMTP_PORT:-1025}"
 MAILBOX_PORT="${MAILBOX_PORT:-1080}"
+DEMO_TASK_PORT="${DEMO_TASK_PORT:-3300}"
 DB_NAME="${DB_NAME:-evenhand}"
 
 started_at=$SECONDS
@@ -29,6 +30,8 @@ export STRIPE_PORT="$PAYMENTS_PORT"
 export STRIPE_SCRIPT_URL="http://127.0.0.1:$PAYMENTS_PORT/v1/stripe.js" VITE_PAYMENTS_SCRIPT_URL="http://127.0.0.1:$PAYMENTS_PORT/v1/stripe.js"
 export EVENHAND_API_ORIGIN="http://127.0.0.1:$API_PORT"
 export PAYMENTS_FAKE_WEBHOOK_URL="http://127.0.0.1:$API_PORT/api/webhooks/payments"
+# The demo's stand-in for a lab's own task tool; the demo steps' task addresses point at it.
+export DEMO_TASK_PORT DEMO_TASK_URL="http://127.0.0.1:$DEMO_TASK_PORT"
 
 build_servers
 say "Migrating the database"
@@ -54,6 +57,7 @@ cat <<INFO
     api                  http://127.0.0.1:$API_PORT/api   (docs: /api/docs, OpenAPI: /api/openapi.json)
     local mailbox        http://127.0.0.1:$MAILBOX_PORT   (SMTP 127.0.0.1:$SMTP_PORT)
     payments stand-in    http://127.0.0.1:$PAYMENTS_PORT
+    demo task stand-in   http://127.0.0.1:$DEMO_TASK_PORT   (the labs' own survey or experiment tool, played)
     PostgreSQL           127.0.0.1:$PG_PORT, database $DB_NAME
 
   Staff sign-in (password evenhand-demo): admin@evenhand.test, coordinator@evenhand.test,
@@ -65,12 +69,13 @@ INFO
 
 BIN="$ROOT/node_modules/.bin"
 set +e
-"$BIN/concurrently" --kill-others-on-fail --names "api,portal,admin,payments,mailbox" \
-  --prefix-colors "cyan,magenta,yellow,green,blue" --kill-signal SIGTERM \
+"$BIN/concurrently" --kill-others-on-fail --names "api,portal,admin,payments,mailbox,tasks" \
+  --prefix-colors "cyan,magenta,yellow,green,blue,gray" --kill-signal SIGTERM \
   "cd '$ROOT/api' && exec node --enable-source-maps dist/main.js" \
   "cd '$ROOT/portal' && exec '$BIN/vite' --port $PORTAL_PORT --strictPort --host 127.0.0.1" \
   "cd '$ROOT/admin' && exec '$BIN/vite' --port $ADMIN_PORT --strictPort --host 127.0.0.1" \
   "cd '$ROOT/payments-fake' && exec node --enable-source-maps dist/main.js" \
-  "exec '$BIN/maildev' -s $SMTP_PORT --ip 127.0.0.1 -w $MAILBOX_PORT --web-ip 127.0.0.1 --mail-directory '$LOCAL_DIR/mailbox'"
+  "exec '$BIN/maildev' -s $SMTP_PORT --ip 127.0.0.1 -w $MAILBOX_PORT --web-ip 127.0.0.1 --mail-directory '$LOCAL_DIR/mailbox'" \
+  "cd '$ROOT/api' && exec node --enable-source-maps dist/database/seed/demo-task-server.js"
 status=$?
 exit $status

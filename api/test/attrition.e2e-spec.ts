@@ -287,7 +287,7 @@ describe('dropout alerts', () => {
     alerts = testApp.app.get(AttritionAlertsService);
     ({ studyId, conditionIds: [first, second] } = await openStudy(['landmarks', 'street names']));
     ({ email: watcher } = await staffAccount('researcher', 'Watching Researcher'));
-    await expectStatus(researcher.post(`/api/studies/${studyId}/members`).send({ email: watcher, role: 'researcher' }), 201);
+    await expectStatus(admin.post(`/api/studies/${studyId}/members`).send({ email: watcher, role: 'researcher' }), 201);
     // 10 + 10 randomized, everyone's window ended: the first condition all completed, the second half withdrew.
     const history: HistoryEntry[] = [
       ...Array.from({ length: 10 }, (): HistoryEntry => ({ conditionId: first, status: 'completed', endDay: 7 })),

@@ -147,6 +147,8 @@ describe('return links from an external task', () => {
     const setup = await expectStatus(coordinator.post(`/api/studies/${studyId}/steps/return-link/rotate-key`), 200);
     expect(setup.keyId).toBe(2);
     expect(setup.returnAddressTemplate).toMatch(/\/api\/return\/\{token\}$/);
+    const [rotated] = await testApp.dataSource.query(`SELECT data FROM audit_event WHERE chain = $1 AND action = 'step.return-key-rotated'`, [studyId]);
+    expect(rotated.data.keyId).toBe(2);
     const response = await person.browser.get(new URL(new URL(url).searchParams.get('return')!).pathname).redirects(0);
     expect(new URL(response.headers.location as string).searchParams.get('result')).toBe('done');
   });

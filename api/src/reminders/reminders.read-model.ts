@@ -28,14 +28,14 @@ export async function reminderCandidates(manager: EntityManager, studyIds?: stri
   return rows.map((r) => ({ enrollmentId: r.id, studyId: r.study_id, reference: r.reference, displayName: r.display_name, email: r.email, assignedAt: r.assigned_at }));
 }
 
-/** Reminders sent since the later of assignment and the last step done: the ones nobody answered yet. */
+/** Reminders sent since (or at) the later of assignment and the last step done: the ones nobody answered yet. */
 export async function unansweredReminders(manager: EntityManager, enrollmentIds: string[]): Promise<Map<string, number>> {
   if (enrollmentIds.length === 0) return new Map();
   const rows: Array<{ id: string; n: number }> = await manager.query(
     `SELECT e.id,
             (SELECT count(*)::int FROM contact c
               WHERE c.enrollment_id = e.id AND c.kind = 'reminder'
-                AND c.sent_at > coalesce((SELECT max(sc.completed_at) FROM step_completion sc WHERE sc.enrollment_id = e.id AND sc.undone_at IS NULL), e.assigned_at, e.created_at)) AS n
+                AND c.sent_at >= coalesce((SELECT max(sc.completed_at) FROM step_completion sc WHERE sc.enrollment_id = e.id AND sc.undone_at IS NULL), e.assigned_at, e.created_at)) AS n
        FROM enrollment e WHERE e.id = ANY($1::uuid[])`,
     [enrollmentIds],
   );

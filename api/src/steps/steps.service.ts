@@ -7,6 +7,7 @@ import type { SessionUser } from '../common/auth/session-user';
 import { DomainException } from '../common/errors/domain.exception';
 import { StudiesService } from '../studies/studies.service';
 import { AppConfig } from '../config/app-config';
+import { queryRows } from '../database/raw-query';
 import { CreateStepDto, ReturnLinkSetupDto, SetPayOverrideDto, StepDto, StepListDto, StepSettingsDto, UpdateStepDto } from './dto/step.dto';
 import { StudyStepKeyEntity } from './entities/study-step-key.entity';
 import { participantCode, participantCodeMatches } from './participant-code';
@@ -359,7 +360,8 @@ export class StepsService {
     await this.dataSource.transaction(async (manager) => {
       await this.requireChangeable(manager, studyId);
       await this.keysOf(studyId, manager);
-      const [row] = await manager.query(
+      const [row] = await queryRows<{ return_key_id: number }>(
+        manager,
         `UPDATE study_step_key SET previous_return_key = return_key, return_key = $2, return_key_id = return_key_id + 1, return_key_rotated_at = now()
          WHERE study_id = $1 RETURNING return_key_id`,
         [studyId, randomBytes(32).toString('base64')],

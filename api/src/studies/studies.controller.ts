@@ -1,4 +1,4 @@
-import { Body, Controller, Get, HttpCode, Param, Patch, Post, Put } from '@nestjs/common';
+import { Body, Controller, Delete, Get, HttpCode, Param, Patch, Post, Put } from '@nestjs/common';
 import { ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
@@ -19,6 +19,7 @@ import {
 } from './dto/study.dto';
 import { ReplaceScreeningQuestionsDto, ScreeningQuestionListDto } from './dto/screening.dto';
 import { OpeningChecklistDto } from './dto/opening-checklist.dto';
+import { StaffStudyListDto } from './dto/staff-study.dto';
 import { StudiesService } from './studies.service';
 import { StudyMembersOnly } from './study-access.guard';
 
@@ -168,10 +169,36 @@ export class StudiesController {
   }
 
   @Post(':studyId/members')
-  @Roles('coordinator', 'researcher', 'admin')
+  @Roles('admin')
   @StudyMembersOnly()
-  @ApiCreatedResponse({ type: MemberListDto })
+  @ApiCreatedResponse({ type: MemberListDto, description: 'Admins only; the membership role must match the person\'s staff role' })
   addMember(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: AddMemberDto): Promise<MemberListDto> {
     return this.studies.addMember(user, studyId, body);
+  }
+
+  @Delete(':studyId/members/:userId')
+  @Roles('admin')
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: MemberListDto, description: 'Admins only' })
+  removeMember(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('userId', uuidParam('userId')) userId: string,
+  ): Promise<MemberListDto> {
+    return this.studies.removeMember(user, studyId, userId);
+  }
+}
+
+/** The studies one staff member works on, for their page in the staff list (admins only). */
+@ApiTags('staff')
+@Controller('staff/:userId/studies')
+export class StaffStudiesController {
+  constructor(private readonly studies: StudiesService) {}
+
+  @Get()
+  @Roles('admin')
+  @ApiOkResponse({ type: StaffStudyListDto })
+  async list(@Param('userId', uuidParam('userId')) userId: string): Promise<StaffStudyListDto> {
+    return { items: await this.studies.membershipsOf(userId) };
   }
 }

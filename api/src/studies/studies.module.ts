@@ -1,13 +1,13 @@
 import { Module } from '@nestjs/common';
 import { AuditModule } from '../audit/audit.module';
 import { RandomizationModule } from '../randomization/randomization.module';
-import { StudiesController } from './studies.controller';
+import { StaffStudiesController, StudiesController } from './studies.controller';
 import { StudiesService } from './studies.service';
 import { StudyAccessGuard } from './study-access.guard';
 
 @Module({
   imports: [AuditModule, RandomizationModule],
-  controllers: [StudiesController],
+  controllers: [StudiesController, StaffStudiesController],
   providers: [StudiesService, StudyAccessGuard],
   exports: [StudiesService, StudyAccessGuard],
 })

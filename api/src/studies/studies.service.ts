@@ -8,6 +8,7 @@ import { RandomizationService } from '../randomization/randomization.service';
 import type { StudyDesignSnapshot } from '../randomization/study-design-snapshot';
 import { factorLevels } from '../randomization/strata';
 import { PRETEST_CUTOFF_EXPLANATION } from '../randomization/strata';
+import { queryRows } from '../database/raw-query';
 import { UserEntity } from '../users/entities/user.entity';
 import {
   AddMemberDto,
@@ -485,6 +486,12 @@ export class StudiesService {
       if (!user || user.role === 'participant' || !user.active) {
         throw new DomainException('NOT_FOUND', 'No active staff account has this e-mail.', [{ field: 'email', message: 'is not an active staff account' }]);
       }
+      // A membership grants what the person's staff role allows, so the two must agree (admins may hold any).
+      if (user.role !== 'admin' && user.role !== input.role) {
+        throw new DomainException('VALIDATION_FAILED', `${user.email} is a ${user.role}; add them to the study as a ${user.role}.`, [
+          { field: 'role', message: `must be ${user.role}, the person's staff role` },
+        ]);
+      }
       await manager.query(
         `INSERT INTO study_membership (study_id, user_id, role) VALUES ($1, $2, $3)
          ON CONFLICT (study_id, user_id) DO UPDATE SET role = EXCLUDED.role`,
@@ -493,5 +500,24 @@ export class StudiesService {
       await this.audit.record(manager, { chain: studyId, actor, action: 'study.member-added', subjectType: 'user', subjectId: user.id, data: { email: user.email, role: input.role } });
     });
     return this.listMembers(studyId);
+  }
+
+  async removeMember(actor: SessionUser, studyId: string, userId: string): Promise<MemberListDto> {
+    await this.dataSource.transaction(async (manager) => {
+      await this.require(studyId, manager, true);
+      const [removed] = await queryRows<{ role: string }>(manager, `DELETE FROM study_membership WHERE study_id = $1 AND user_id = $2 RETURNING role`, [studyId, userId]);
+      if (!removed) throw new DomainException('NOT_FOUND', 'This person is not a member of the study.', [{ field: 'userId', message: 'is not a member' }]);
+      await this.audit.record(manager, { chain: studyId, actor, action: 'study.member-removed', subjectType: 'user', subjectId: userId, data: { role: removed.role } });
+    });
+    return this.listMembers(studyId);
+  }
+
+  /** The studies one staff member works on, for their page in the staff list. */
+  async membershipsOf(userId: string): Promise<Array<{ studyId: string; title: string; slug: string; role: string }>> {
+    const rows: Array<{ study_id: string; title: string; slug: string; role: string }> = await this.dataSource.query(
+      `SELECT m.study_id, s.title, s.slug, m.role FROM study_membership m JOIN study s ON s.id = m.study_id WHERE m.user_id = $1 ORDER BY s.title`,
+      [userId],
+    );
+    return rows.map((r) => ({ studyId: r.study_id, title: r.title, slug: r.slug, role: r.role }));
   }
 }

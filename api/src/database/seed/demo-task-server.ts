@@ -93,6 +93,7 @@ const STYLE = `
   .notice { background: #fff4d6; border: 2px dashed #b38600; border-radius: .5rem; padding: .75rem 1rem; }
   .notice strong { display: block; }
   h1 { font-size: 1.5rem; margin: 1.5rem 0 .5rem; }
+  h2 { font-size: 1.15rem; margin: 0 0 .5rem; }
   .card { background: #fff; border: 1px solid #d6d2c4; border-radius: .5rem; padding: 1rem; margin: 1rem 0; }
   dl { display: grid; grid-template-columns: max-content 1fr; gap: .25rem 1rem; margin: 0; }
   dt { font-weight: 600; }
