@@ -148,3 +148,22 @@ build_servers() {
   (cd "$ROOT/api" && npm run build --silent)
   (cd "$ROOT/payments-fake" && npm run build --silent)
 }
+
+# run_supervised NAMES COLORS COMMAND...: runs the services side by side with their output prefixed. A service that
+# exits with an error is restarted after 2 s (the log says so) while the others keep running; Ctrl-C or SIGTERM
+# stops them all, once. Returns when every service has stopped.
+run_supervised() {
+  local names="$1" colors="$2"
+  shift 2
+  "$ROOT/node_modules/.bin/concurrently" --names "$names" --prefix-colors "$colors" --kill-signal SIGTERM \
+    --restart-tries -1 --restart-after 2000 "$@" &
+  local supervisor=$!
+  # concurrently treats SIGINT as "stop everything" (and SIGTERM as a crash to restart from), so pass SIGINT on.
+  trap 'kill -INT "$supervisor" 2>/dev/null' INT TERM
+  local status=0
+  while kill -0 "$supervisor" 2>/dev/null; do
+    wait "$supervisor" && status=0 || status=$?
+  done
+  trap - INT TERM
+  return "$status"
+}

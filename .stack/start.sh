@@ -69,8 +69,8 @@ INFO
 
 BIN="$ROOT/node_modules/.bin"
 set +e
-"$BIN/concurrently" --kill-others-on-fail --names "api,portal,admin,payments,mailbox,tasks" \
-  --prefix-colors "cyan,magenta,yellow,green,blue,gray" --kill-signal SIGTERM \
+# A service that crashes is restarted on its own; the others, and PostgreSQL, keep running.
+run_supervised "api,portal,admin,payments,mailbox,tasks" "cyan,magenta,yellow,green,blue,gray" \
   "cd '$ROOT/api' && exec node --enable-source-maps dist/main.js" \
   "cd '$ROOT/portal' && exec '$BIN/vite' --port $PORTAL_PORT --strictPort --host 127.0.0.1" \
   "cd '$ROOT/admin' && exec '$BIN/vite' --port $ADMIN_PORT --strictPort --host 127.0.0.1" \

@@ -78,6 +78,8 @@ export PAYMENTS_WEBHOOK_PORT="$T_API_PORT"
 # The provider's browser script, as the admin build and the api hand it out.
 export VITE_PAYMENTS_SCRIPT_URL="http://127.0.0.1:$T_PAYMENTS_PORT/v1/stripe.js" STRIPE_SCRIPT_URL="http://127.0.0.1:$T_PAYMENTS_PORT/v1/stripe.js"
 
+step "legal templates tests" bash -c "cd '$ROOT/legal-templates' && node --test"
+step "stack script tests" node --test "$ROOT/.stack/test/"
 step "api unit tests" vitest_in api api-unit --project unit
 step "payments stand-in tests" vitest_in payments-fake payments-fake
 step "portal component tests" vitest_in portal portal-unit
@@ -101,7 +103,8 @@ wait_for_url "$DEMO_TASK_URL/health" 30
 BROWSER_DB="postgres://postgres@127.0.0.1:$TEST_PG_PORT/evenhand_browser"
 (cd "$ROOT/api" && DATABASE_URL="$BROWSER_DB" node dist/database/run-migrations.js && DATABASE_URL="$BROWSER_DB" node dist/database/seed/run-seed.js) 2>&1 |
   tee "$LOG_DIR/seed.log"
-DATABASE_URL="$BROWSER_DB" API_PORT="$T_API_PORT" start_service api "$ROOT/api" node --enable-source-maps dist/main.js
+# No scheduled reminder sweep: a reminder landing in a journey's mailbox would be read as the mail it waits for.
+DATABASE_URL="$BROWSER_DB" API_PORT="$T_API_PORT" REMINDER_SWEEP_CRON="" start_service api "$ROOT/api" node --enable-source-maps dist/main.js
 for app in portal admin; do
   step "$app build" bash -c "cd '$ROOT/$app' && npm run build --silent"
 done
