@@ -68,12 +68,22 @@ cat <<INFO
 INFO
 
 BIN="$ROOT/node_modules/.bin"
+# `npm start` serves the apps as production builds; `npm run dev` (EVENHAND_DEV=1) keeps Vite's development servers.
+if [ "${EVENHAND_DEV:-}" = "1" ]; then
+  VITE_MODE=""
+else
+  for app in portal admin; do
+    say "Building the $app app"
+    (cd "$ROOT/$app" && npm run build --silent)
+  done
+  VITE_MODE="preview"
+fi
 set +e
 # A service that crashes is restarted on its own; the others, and PostgreSQL, keep running.
 run_supervised "api,portal,admin,payments,mailbox,tasks" "cyan,magenta,yellow,green,blue,gray" \
   "cd '$ROOT/api' && exec node --enable-source-maps dist/main.js" \
-  "cd '$ROOT/portal' && exec '$BIN/vite' --port $PORTAL_PORT --strictPort --host 127.0.0.1" \
-  "cd '$ROOT/admin' && exec '$BIN/vite' --port $ADMIN_PORT --strictPort --host 127.0.0.1" \
+  "cd '$ROOT/portal' && exec '$BIN/vite' $VITE_MODE --port $PORTAL_PORT --strictPort --host 127.0.0.1" \
+  "cd '$ROOT/admin' && exec '$BIN/vite' $VITE_MODE --port $ADMIN_PORT --strictPort --host 127.0.0.1" \
   "cd '$ROOT/payments-fake' && exec node --enable-source-maps dist/main.js" \
   "exec '$BIN/maildev' -s $SMTP_PORT --ip 127.0.0.1 -w $MAILBOX_PORT --web-ip 127.0.0.1 --mail-directory '$LOCAL_DIR/mailbox'" \
   "cd '$ROOT/api' && exec node --enable-source-maps dist/database/seed/demo-task-server.js"
