@@ -133,6 +133,11 @@ ensure_chromium() {
   export CHROMIUM_PATH="${CHROMIUM_PATH:-/usr/bin/chromium}"
 }
 
+# pdfsig (Debian's poppler-utils) checks the signature of the signed consent copies in the api tests.
+ensure_pdfsig() {
+  if ! command -v pdfsig >/dev/null 2>&1; then apt_install poppler-utils; fi
+}
+
 # wait_for_url URL SECONDS: waits until the URL answers at all.
 wait_for_url() {
   local url="$1" seconds="${2:-60}" i

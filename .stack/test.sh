@@ -61,6 +61,7 @@ vitest_in() {
 ensure_dependencies
 ensure_postgres_binaries
 ensure_chromium
+ensure_pdfsig
 PG_PARENT="$(choose_pg_parent "$RUN_DIR/postgres")"
 say "Throwaway PostgreSQL in $PG_PARENT"
 PG_FSYNC=off start_postgres "$PG_PARENT" "$TEST_PG_PORT"
@@ -104,7 +105,7 @@ BROWSER_DB="postgres://postgres@127.0.0.1:$TEST_PG_PORT/evenhand_browser"
 (cd "$ROOT/api" && DATABASE_URL="$BROWSER_DB" node dist/database/run-migrations.js && DATABASE_URL="$BROWSER_DB" node dist/database/seed/run-seed.js) 2>&1 |
   tee "$LOG_DIR/seed.log"
 # No scheduled reminder sweep: a reminder landing in a journey's mailbox would be read as the mail it waits for.
-DATABASE_URL="$BROWSER_DB" API_PORT="$T_API_PORT" REMINDER_SWEEP_CRON="" start_service api "$ROOT/api" node --enable-source-maps dist/main.js
+DATABASE_URL="$BROWSER_DB" API_PORT="$T_API_PORT" REMINDER_SWEEP_CRON="" AUDIT_RECEIPT_CRON="" start_service api "$ROOT/api" node --enable-source-maps dist/main.js
 for app in portal admin; do
   step "$app build" bash -c "cd '$ROOT/$app' && npm run build --silent"
 done

@@ -118,7 +118,12 @@ describe('consent versions, roster and audit trail', () => {
     await page.getByLabel('Approval letter (PDF, up to 10 MB)').setInputFiles({ name: 'approval.pdf', mimeType: 'application/pdf', buffer: pngRenamed });
     await page.getByText(/This file is not a PDF/).waitFor();
     const letterName = `approval-${stamp}.pdf`;
-    const pdf = Buffer.from('%PDF-1.4\n1 0 obj << /Type /Catalog >> endobj\ntrailer << /Root 1 0 R >>\n%%EOF\n');
+    // A minimal one-page PDF: the api loads the letter as a PDF.
+    const pdf = Buffer.from(
+      '%PDF-1.4\n1 0 obj<</Type/Catalog/Pages 2 0 R>>endobj\n2 0 obj<</Type/Pages/Kids[3 0 R]/Count 1>>endobj\n' +
+        '3 0 obj<</Type/Page/Parent 2 0 R/MediaBox[0 0 612 792]>>endobj\ntrailer<</Root 1 0 R>>\n%%EOF\n',
+      'latin1',
+    );
     await page.getByLabel('Approval letter (PDF, up to 10 MB)').setInputFiles({ name: letterName, mimeType: 'application/pdf', buffer: pdf });
     await page.getByText(`${letterName} was uploaded.`).waitFor();
     expect(await page.getByText(letterName, { exact: false }).first().isVisible()).toBe(true);

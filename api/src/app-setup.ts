@@ -1,19 +1,31 @@
 import type { INestApplication } from '@nestjs/common';
+import { Reflector } from '@nestjs/core';
+import type { NestExpressApplication } from '@nestjs/platform-express';
 import { DocumentBuilder, OpenAPIObject, SwaggerModule } from '@nestjs/swagger';
 import cookieParser from 'cookie-parser';
 import type { Express } from 'express';
+import { MediaTypeInterceptor, refuseForeignOrigins, refuseUnreadableInput } from './common/http/request-guards';
+import { MAX_JSON_BYTES } from './common/http/request-hygiene';
 import { createValidationPipe } from './common/http/validation';
+import { AppConfig } from './config/app-config';
 
 export const API_PREFIX = 'api';
 
 /** Everything main.ts and the end-to-end tests both need, so tests run the app exactly as served. */
 export function configureApp(app: INestApplication): OpenAPIObject {
+  const config = app.get(AppConfig);
   const express = app.getHttpAdapter().getInstance() as Express;
-  // Behind one proxy hop at most (the front ends' dev servers), so request.ip is the client's.
-  express.set('trust proxy', 'loopback');
+  // X-Forwarded-For is believed only from configured proxies (none by default): otherwise any client could choose
+  // the address its rate limits are counted under.
+  express.set('trust proxy', config.trustProxy.length > 0 ? config.trustProxy : false);
   express.disable('x-powered-by');
+  app.use(refuseForeignOrigins([config.portalUrl, config.adminUrl]));
   app.use(cookieParser());
+  // Registered here, in this order, so the depth and text check runs on the parsed body before any class is built.
+  (app as NestExpressApplication).useBodyParser('json', { limit: MAX_JSON_BYTES });
+  app.use(refuseUnreadableInput());
   app.setGlobalPrefix(API_PREFIX);
+  app.useGlobalInterceptors(new MediaTypeInterceptor(app.get(Reflector)));
   app.useGlobalPipes(createValidationPipe());
   app.enableShutdownHooks();
   const document = buildOpenApiDocument(app);

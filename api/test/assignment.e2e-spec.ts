@@ -244,7 +244,13 @@ describe('sealed sequence', () => {
     const [victim] = await testApp.dataSource.query(`SELECT id, condition_id, sequence FROM allocation WHERE study_id = $1 ORDER BY sequence DESC LIMIT 1`, [studyId]);
     const conditions = await expectStatus(researcher.get(`/api/studies/${studyId}/conditions`), 200);
     const other = conditions.items.find((c: { id: string }) => c.id !== victim.condition_id).id;
-    await testApp.dataSource.query(`UPDATE allocation SET condition_id = $1 WHERE id = $2`, [other, victim.id]);
+    // Allocation rows are append-only; only a database superuser can switch that off, as this insider does.
+    await testApp.dataSource.query(`ALTER TABLE allocation DISABLE TRIGGER allocation_append_only`);
+    try {
+      await testApp.dataSource.query(`UPDATE allocation SET condition_id = $1 WHERE id = $2`, [other, victim.id]);
+    } finally {
+      await testApp.dataSource.query(`ALTER TABLE allocation ENABLE TRIGGER allocation_append_only`);
+    }
     const tampered = await expectStatus(researcher.get(`/api/studies/${studyId}/assignment/verify`), 200);
     expect(tampered).toMatchObject({ allMatch: false, mismatched: 1 });
     expect(tampered.checks.find((c: { matches: boolean }) => !c.matches).arrivalPosition).toBe(victim.sequence);

@@ -7,10 +7,11 @@ import { answerScreeningQuestion, type ScreeningQuestion } from './support/scree
 import { screenshotTaker } from './support/screenshots';
 import { confirmCardPayment, eventually, StaffApi } from './support/staff-api';
 
-/** The recruiting demo study with an active consent version, seeded by the api's demo scenario. */
-const studySlug = 'wayfinding-cues';
-/** Set on step 1 by the coordinator during the journey: the demo's own codes are not known to the test. */
-const completionCode = 'WAY-1-TEST';
+/**
+ * The recruiting demo study whose one step is done in the lab's task (the demo task stand-in), which shows each
+ * participant their own completion code at its end; seeded by the api's demo scenario.
+ */
+const studySlug = 'checkout-flows';
 
 type Step = { id: string; position: number; title: string; payMinor: number };
 type Payout = { id: string; reference: string; kind: string; stepTitle: string | null; amountMinor: number; status: string };
@@ -34,7 +35,7 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
 
     // 1. The study page, then the e-mailed sign-in link, which brings them back to it.
     await page.goto(`${e2eEnv.portalUrl}/s/${studySlug}`);
-    await page.getByRole('heading', { level: 1, name: 'Wayfinding cues' }).waitFor();
+    await page.getByRole('heading', { level: 1, name: 'Checkout flows' }).waitFor();
     await page.getByRole('link', { name: 'Take part' }).click();
     await page.getByLabel('Your e-mail address').fill(email);
     await page.getByRole('button', { name: 'Send me a sign-in link' }).click();
@@ -45,7 +46,7 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     await page.getByText(email).waitFor();
     await shoot(page, 'study-page-signed-in');
 
-    // 2. Join and answer every screening question; sense of direction 70 out of 100.
+    // 2. Join and answer every screening question.
     await page.getByRole('button', { name: 'Take part' }).click();
     await page.getByRole('heading', { name: 'A few questions first' }).waitFor();
     const studyId = (await pageApi<{ id: string }>(page, `/api/public/studies/${studySlug}`)).id;
@@ -54,7 +55,7 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
       `/api/studies/${studyId}/enrollments/me`,
     );
     for (const question of enrollment.screening.questions) {
-      await answerScreeningQuestion(page, question, { sense_of_direction: 70 });
+      await answerScreeningQuestion(page, question);
     }
     await shoot(page, 'screening-answered');
     await page.getByRole('button', { name: 'Save my answers' }).click();
@@ -103,19 +104,27 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     await shoot(page, 'getting-paid-set-up');
     expect(await pageApi<{ payoutsEnabled: boolean }>(page, '/api/me/payout-account')).toMatchObject({ payoutsEnabled: true });
 
-    // 7. The coordinator gives step 1 a completion code (the external task would show it at its end).
+    // 7. The coordinator's view of the study, for the staff side later on.
     const coordinator = await StaffApi.signIn('coordinator@evenhand.test', 'evenhand-demo');
     const studies = await coordinator.request<{ items: { id: string; slug: string }[] }>('GET', '/api/studies');
     expect(studies.items.find((study) => study.slug === studySlug)?.id).toBe(studyId);
     const steps = await coordinator.request<{ items: Step[] }>('GET', `/api/studies/${studyId}/steps`);
     const firstStep = [...steps.items].sort((a, b) => a.position - b.position)[0];
     if (!firstStep) throw new Error('The demo study has no steps');
-    await coordinator.request('PUT', `/api/studies/${studyId}/steps/${firstStep.id}/completion-code`, { code: completionCode });
 
-    // 8. On the study page: a wrong code is refused at the field, the right one completes the step.
+    // 8. The task shows the participant their own code at its end; they come back without its Finish button and type
+    //    it on the study page: a wrong code is refused at the field, the right one (in any case) completes the step.
     await page.goto(`${e2eEnv.portalUrl}/s/${studySlug}`);
     const stepOne = page.getByRole('listitem').filter({ has: page.getByRole('heading', { name: `Step 1 · ${firstStep.title}` }) });
-    await stepOne.getByLabel('Completion code').fill('WAY-1-WRONG');
+    await stepOne.getByRole('button', { name: 'Open the task' }).click();
+    await page.waitForURL((url) => url.origin === new URL(e2eEnv.demoTaskUrl).origin);
+    const codeCard = page.getByRole('region', { name: 'Your completion code' });
+    const completionCode = (await codeCard.locator('p').first().textContent())?.trim() ?? '';
+    expect(completionCode).toBe(new URL(page.url()).searchParams.get('code'));
+    await shoot(page, 'task-shows-code');
+    await page.goBack();
+    await page.waitForURL(`**/s/${studySlug}`);
+    await stepOne.getByLabel('Completion code').fill('SHOP-WRONG');
     await stepOne.getByRole('button', { name: 'I finished this step' }).click();
     await stepOne.getByText('Does not match; check it and try again.').waitFor();
     await shoot(page, 'completion-code-wrong');
@@ -124,8 +133,8 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     await stepOne.getByRole('button', { name: 'I finished this step' }).click();
     await stepOne.getByText('Thank you: step 1 is done').waitFor();
     await stepOne.getByText('Done', { exact: true }).waitFor();
-    expect(await stepOne.locator('p').filter({ hasText: /^\$[\d.,]+ earned$/ }).textContent()).toBe('$10.00 earned');
-    expect(await page.getByText('Earned so far').locator('..').textContent()).toContain('$10.00');
+    expect(await stepOne.locator('p').filter({ hasText: /^\$[\d.,]+ earned$/ }).textContent()).toBe('$25.00 earned');
+    expect(await page.getByText('Earned so far').locator('..').textContent()).toContain('$25.00');
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await shoot(page, 'step-one-done');
 
@@ -134,8 +143,8 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     await page.waitForURL('**/payouts');
     const pay = page.getByRole('region', { name: 'Your pay' });
     await pay.getByText('Waiting for approval').waitFor();
-    expect(await pay.getByText('Owed to you').locator('..').textContent()).toContain('$10.00');
-    expect(await pay.getByRole('listitem').filter({ hasText: firstStep.title }).textContent()).toContain('$10.00');
+    expect(await pay.getByText('Owed to you').locator('..').textContent()).toContain('$25.00');
+    expect(await pay.getByRole('listitem').filter({ hasText: firstStep.title }).textContent()).toContain('$25.00');
     await shoot(page, 'getting-paid-owed');
 
     // 10. The coordinator funds the study by card and approves this payout (the admin journey does this on screen).
@@ -168,15 +177,15 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     const paidRow = page.getByRole('region', { name: 'Your pay' }).getByRole('listitem').filter({ hasText: firstStep.title });
     await paidRow.getByText('Paid', { exact: true }).waitFor();
     await paidRow.getByText(receiptNumber).waitFor();
-    expect(await pay.getByText('Paid to you', { exact: true }).locator('..').textContent()).toContain('$10.00');
+    expect(await pay.getByText('Paid to you', { exact: true }).locator('..').textContent()).toContain('$25.00');
     const thisYear = page.getByRole('region', { name: 'This year' });
-    expect(await thisYear.getByText(/^Paid to you in \d{4}$/).locator('..').textContent()).toContain('$10.00');
+    expect(await thisYear.getByText(/^Paid to you in \d{4}$/).locator('..').textContent()).toContain('$25.00');
     await thisYear.getByText(/finance office decides/).waitFor();
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await shoot(page, 'getting-paid-paid');
 
     const receipt = await waitForMessageTo(email, { subject: /^Receipt/ });
-    expect(receipt.subject).toContain('$10.00');
+    expect(receipt.subject).toContain('$25.00');
     expect(receipt.text).toContain(receiptNumber);
   });
 });

@@ -61,3 +61,16 @@ export async function signIn(page: Page, email: string, password = demoPassword)
   await page.getByLabel('Password').fill(password);
   await page.getByRole('button', { name: 'Sign in' }).click();
 }
+
+export const phoneViewport = { width: 390, height: 844 };
+export const desktopViewport = { width: 1280, height: 800 };
+
+/** The same moment at desktop width and at a phone's 390 px, e.g. `steps-04-record.png` and `steps-05-record-phone.png`. */
+export async function screenshotAtBothWidths(page: Page, journey: string, step: string): Promise<void> {
+  await screenshot(page, journey, step);
+  await page.setViewportSize(phoneViewport);
+  await page.waitForFunction((width) => window.innerWidth === width, phoneViewport.width);
+  await screenshot(page, journey, `${step}-phone`);
+  await page.setViewportSize(desktopViewport);
+  await page.waitForFunction((width) => window.innerWidth === width, desktopViewport.width);
+}

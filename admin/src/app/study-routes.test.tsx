@@ -63,13 +63,21 @@ function stubStudy(me: typeof researcher) {
     [`GET ${base}/conditions`]: { status: 200, body: { items: conditions } },
     [`GET ${base}/steps`]: {
       status: 200,
-      body: { items: [{ id: 'e9a9b7bd-e2fb-4d26-a72e-60dee927320b', position: 1, title: 'Session 1', description: '', payMinor: 1000, payOverrides: [] }], currency: 'USD', totalPayMinor: 1000, hasPayOverrides: false },
+      body: { items: [{ id: 'e9a9b7bd-e2fb-4d26-a72e-60dee927320b', position: 1, title: 'Session 1', description: '', payMinor: 1000, hasCompletionCode: false, verification: 'staff', taskUrl: null, opensAfterDays: 0, opensFrom: 'previous-step', dueWithinDays: null, payOverrides: [] }], currency: 'USD', totalPayMinor: 1000, hasPayOverrides: false },
     },
     [`GET ${base}/stratification-factors`]: {
       status: 200,
       body: { items: [{ id: 'f1', key: 'sense_of_direction', label: 'Sense of direction (0–100)', kind: 'numeric', cutPoints: [50], categories: null, minimizationWeight: 1, levels: ['<50', '≥50'] }], pretestNote: assignment.pretestNote },
     },
     [`GET ${base}/screening-questions`]: { status: 200, body: { items: [] } },
+    [`GET ${base}/steps/return-link`]: {
+      status: 200,
+      body: { returnAddressTemplate: 'http://127.0.0.1:5173/api/return/{token}', parameters: [], keyId: 1, rotatedAt: null, graceDays: 14, validDays: 30 },
+    },
+    [`GET ${base}/reminder-plan`]: {
+      status: 200,
+      body: { rules: [], suggestLostAfter: 3, enabled: true, updatedAt: null, previewSubject: 'Reminder', previewText: 'Hello' },
+    },
   });
 }
 

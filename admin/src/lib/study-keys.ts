@@ -10,4 +10,8 @@ export const studyKeys = {
   screening: (studyId: string) => ['study', studyId, 'screening-questions'] as const,
   assignment: (studyId: string) => ['study', studyId, 'assignment'] as const,
   verification: (studyId: string) => ['study', studyId, 'assignment', 'verify'] as const,
+  /** What the study still needs before it opens; set-up changes in any feature refresh it. */
+  openingChecklist: (studyId: string) => ['study', studyId, 'opening-checklist'] as const,
+  returnLink: (studyId: string) => ['study', studyId, 'return-link'] as const,
+  reminderPlan: (studyId: string) => ['study', studyId, 'reminder-plan'] as const,
 };

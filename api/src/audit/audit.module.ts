@@ -1,6 +1,8 @@
 import { Module } from '@nestjs/common';
+import { MailModule } from '../mail/mail.module';
+import { AuditReceiptsService } from './audit-receipts.service';
 import { AuditController } from './audit.controller';
 import { AuditService } from './audit.service';
 
-@Module({ controllers: [AuditController], providers: [AuditService], exports: [AuditService] })
+@Module({ imports: [MailModule], controllers: [AuditController], providers: [AuditService, AuditReceiptsService], exports: [AuditService] })
 export class AuditModule {}

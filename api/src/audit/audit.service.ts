@@ -1,9 +1,14 @@
-import { Injectable, OnModuleInit } from '@nestjs/common';
+import { Injectable, Logger, OnApplicationBootstrap, OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
+import { randomUUID } from 'node:crypto';
 import { DataSource, EntityManager, EntitySubscriberInterface, QueryRunner, TransactionCommitEvent, TransactionRollbackEvent } from 'typeorm';
 import type { QueryDeepPartialEntity } from 'typeorm/query-builder/QueryPartialEntity';
-import { chainHash, findChainBreak, GENESIS_HASH } from './audit-hash';
+import { AppConfig } from '../config/app-config';
+import { ChainBreak, ChainWalk, describeBreak, finishWalk, GENESIS_HASH, keyedEventHash, startWalk, StoredEvent, UNKEYED_SEAL_ACTION, walkChain } from './audit-hash';
+import { AuditKeyRing, loadAuditKeys } from './audit-keys';
+import { AuditReceiptDocument, checkReceipt, ReceiptProblem, RECEIPT_PROBLEM_TEXT } from './audit-receipt';
 import { AuditEventEntity, LAB_CHAIN } from './entities/audit-event.entity';
+import { AuditReceiptEntity } from './entities/audit-receipt.entity';
 
 export interface AuditActor {
   id: string | null;
@@ -24,7 +29,31 @@ export interface ChainVerdict {
   chain: string;
   events: number;
   intact: boolean;
-  firstBreak: { sequence: number; reason: string } | null;
+  firstBreak: ChainBreak | null;
+}
+
+export interface AuditFinding {
+  /** null when the finding is about the receipt itself. */
+  chain: string | null;
+  sequence: number | null;
+  reason: string;
+  message: string;
+}
+
+export interface ReceiptCheck {
+  id: string | null;
+  number: number | null;
+  issuedAt: string | null;
+  source: 'latest' | 'given';
+  valid: boolean;
+}
+
+export interface AuditReport {
+  intact: boolean;
+  chains: ChainVerdict[];
+  /** The receipt the chains were checked against: the latest issued, or the one given; null before the first. */
+  receipt: ReceiptCheck | null;
+  findings: AuditFinding[];
 }
 
 export interface AuditPageQuery {
@@ -41,11 +70,64 @@ function transactionDepth(runner: QueryRunner): number {
 }
 
 @Injectable()
-export class AuditService implements OnModuleInit {
+export class AuditService implements OnModuleInit, OnApplicationBootstrap {
+  private readonly logger = new Logger('Audit');
   /** Events recorded in a transaction that has not committed yet, with the savepoint depth they were recorded at. */
   private readonly pending = new WeakMap<QueryRunner, Array<{ record: AuditRecord; depth: number }>>();
+  private readonly keys: AuditKeyRing;
 
-  constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    config: AppConfig,
+  ) {
+    this.keys = loadAuditKeys({ keyList: config.auditKeys, keyFile: config.auditKeyFile, mayCreate: config.nodeEnv !== 'production' });
+  }
+
+  /** The key an event or receipt names, if this server holds it. */
+  keyOf = (keyId: string): Buffer | undefined => this.keys.keys.get(keyId);
+
+  /** The key new events and receipts are made with. */
+  get currentKey(): { id: string; key: Buffer } {
+    return { id: this.keys.currentId, key: this.keys.current };
+  }
+
+  async onApplicationBootstrap(): Promise<void> {
+    await this.sealUnkeyedChains();
+  }
+
+  /**
+   * Events written before events were keyed (key_id NULL) stay as they are (the table is append-only); each such
+   * chain gets one keyed event that seals them: their count and a SHA-256 over every column of every one of them.
+   * From then on a change to them is detected; a change made before the seal is not (see api/README.md).
+   */
+  async sealUnkeyedChains(): Promise<string[]> {
+    const rows: Array<{ chain: string }> = await this.dataSource.query(
+      `SELECT chain FROM (SELECT DISTINCT ON (chain) chain, key_id FROM audit_event ORDER BY chain, sequence DESC) head WHERE key_id IS NULL ORDER BY chain`,
+    );
+    const sealed: string[] = [];
+    for (const { chain } of rows) {
+      await this.dataSource.transaction(async (manager) => {
+        await this.lockChain(manager, chain);
+        const [head] = await manager.query(`SELECT key_id FROM audit_event WHERE chain = $1 ORDER BY sequence DESC LIMIT 1`, [chain]);
+        if (!head || head.key_id !== null) return; // another process sealed it meanwhile
+        let walk = startWalk();
+        for await (const page of this.pagesOf(chain, manager)) walk = walkChain(page.filter((e) => e.keyId === null), walk, this.keyOf).walk;
+        await this.appendLocked(manager, chain, [
+          {
+            chain,
+            actor: null,
+            action: UNKEYED_SEAL_ACTION,
+            subjectType: 'audit-chain',
+            subjectId: chain,
+            data: { unkeyedThrough: walk.unkeyedCount, unkeyedDigest: walk.unkeyedDigest, note: 'Events written before keying, sealed once with the current key.' },
+          },
+        ]);
+        sealed.push(chain);
+      });
+    }
+    if (sealed.length) this.logger.log(`Sealed the unkeyed events of ${sealed.length} chain(s) with key ${this.keys.currentId}`);
+    return sealed;
+  }
 
   /**
    * Records one event as part of the caller's transaction. Inside a transaction the event is appended just before
@@ -92,33 +174,51 @@ export class AuditService implements OnModuleInit {
   private async append(manager: EntityManager, records: AuditRecord[]): Promise<void> {
     const chains = [...new Set(records.map((record) => record.chain ?? LAB_CHAIN))].sort();
     for (const chain of chains) {
-      await manager.query(`SELECT pg_advisory_xact_lock(hashtextextended($1, 0))`, [`audit:${chain}`]);
-      const [last] = await manager.query(`SELECT sequence, hash FROM audit_event WHERE chain = $1 ORDER BY sequence DESC LIMIT 1`, [chain]);
-      let sequence: number = last ? Number(last.sequence) : 0;
-      let previousHash: string = last?.hash ?? GENESIS_HASH;
-      // Stamped under the lock, so a chain's times never go backwards as its sequence goes up.
-      const at = new Date();
-      const events = records
-        .filter((record) => (record.chain ?? LAB_CHAIN) === chain)
-        .map((record) => {
-          sequence += 1;
-          const fields = {
-            chain,
-            sequence,
-            at: at.toISOString(),
-            actorId: record.actor?.id ?? null,
-            action: record.action,
-            subjectType: record.subjectType ?? null,
-            subjectId: record.subjectId ?? null,
-            data: record.data ?? {},
-          };
-          const hash = chainHash(previousHash, fields);
-          const event = manager.create(AuditEventEntity, { ...fields, at, actorEmail: record.actor?.email ?? null, previousHash, hash });
-          previousHash = hash;
-          return event;
-        });
-      await manager.insert(AuditEventEntity, events as QueryDeepPartialEntity<AuditEventEntity>[]);
+      await this.lockChain(manager, chain);
+      await this.appendLocked(
+        manager,
+        chain,
+        records.filter((record) => (record.chain ?? LAB_CHAIN) === chain),
+      );
     }
+  }
+
+  private async lockChain(manager: EntityManager, chain: string): Promise<void> {
+    await manager.query(`SELECT pg_advisory_xact_lock(hashtextextended($1, 0))`, [`audit:${chain}`]);
+  }
+
+  /** Appends to one chain whose lock the transaction holds. */
+  private async appendLocked(manager: EntityManager, chain: string, records: AuditRecord[]): Promise<void> {
+    const [last] = await manager.query(`SELECT sequence, hash FROM audit_event WHERE chain = $1 ORDER BY sequence DESC LIMIT 1`, [chain]);
+    let sequence: number = last ? Number(last.sequence) : 0;
+    let previousHash: string = last?.hash ?? GENESIS_HASH;
+    // Stamped under the lock, so a chain's times never go backwards as its sequence goes up.
+    const at = new Date();
+    const { id: keyId, key } = this.currentKey;
+    const events = records
+      .map((record) => {
+        sequence += 1;
+        const fields = {
+          id: randomUUID(),
+          chain,
+          sequence,
+          at: at.toISOString(),
+          actorId: record.actor?.id ?? null,
+          actorEmail: record.actor?.email ?? null,
+          action: record.action,
+          subjectType: record.subjectType ?? null,
+          subjectId: record.subjectId ?? null,
+          // Stored as jsonb and read back canonically: hash what the database will hand back.
+          data: JSON.parse(JSON.stringify(record.data ?? {})) as Record<string, unknown>,
+          previousHash,
+          keyId,
+        };
+        const hash = keyedEventHash(key, fields);
+        const event = manager.create(AuditEventEntity, { ...fields, at, hash });
+        previousHash = hash;
+        return event;
+      });
+    await manager.insert(AuditEventEntity, events as QueryDeepPartialEntity<AuditEventEntity>[]);
   }
 
   async page(query: AuditPageQuery): Promise<{ items: AuditEventEntity[]; total: number }> {
@@ -135,50 +235,103 @@ export class AuditService implements OnModuleInit {
     return { items, total };
   }
 
-  /** Re-computes every chain from its first link; reads chain by chain in pages so memory stays flat. */
+  /** Checks chains (all when omitted) from their first link and against the latest audit receipt. */
   async verify(chains?: string[]): Promise<ChainVerdict[]> {
-    const names: string[] =
-      chains ??
-      (await this.dataSource.query(`SELECT DISTINCT chain FROM audit_event ORDER BY chain`)).map(
-        (row: { chain: string }) => row.chain,
-      );
-    const verdicts: ChainVerdict[] = [];
-    for (const chain of names) verdicts.push(await this.verifyChain(chain));
-    return verdicts;
+    return (await this.report({ chains })).chains;
   }
 
-  private async verifyChain(chain: string): Promise<ChainVerdict> {
-    const repository = this.dataSource.getRepository(AuditEventEntity);
-    const pageSize = 5000;
-    let previous: { sequence: number; hash: string } | null = null;
+  /**
+   * The full verdict: every chain walked from its first event (keys, links, sequence), then compared with a receipt
+   * (the latest issued, or one an auditor hands in). Never throws on bad rows or a bad receipt: they are findings.
+   */
+  async report(options: { chains?: string[]; receipt?: unknown } = {}): Promise<AuditReport> {
+    const findings: AuditFinding[] = [];
+    let receipt: AuditReceiptDocument | null = null;
+    let receiptCheck: ReceiptCheck | null = null;
+    const given = options.receipt !== undefined;
+    const candidate = given ? options.receipt : (await this.dataSource.getRepository(AuditReceiptEntity).findOne({ where: {}, order: { number: 'DESC' } }))?.document;
+    if (candidate !== undefined) {
+      const problem: ReceiptProblem | null = checkReceipt(candidate, this.keyOf);
+      const shaped = candidate as Partial<AuditReceiptDocument>;
+      receiptCheck = {
+        id: typeof shaped?.id === 'string' ? shaped.id : null,
+        number: typeof shaped?.number === 'number' ? shaped.number : null,
+        issuedAt: typeof shaped?.issuedAt === 'string' ? shaped.issuedAt : null,
+        source: given ? 'given' : 'latest',
+        valid: problem === null,
+      };
+      if (problem) findings.push({ chain: null, sequence: null, reason: problem, message: RECEIPT_PROBLEM_TEXT[problem] });
+      else receipt = candidate as AuditReceiptDocument;
+    }
+    const heads = new Map((receipt?.chains ?? []).map((head) => [head.chain, head]));
+    let names: string[] =
+      options.chains ?? (await this.dataSource.query(`SELECT DISTINCT chain FROM audit_event ORDER BY chain`)).map((row: { chain: string }) => row.chain);
+    if (!options.chains) names = [...new Set([...names, ...heads.keys()])].sort();
+    const verdicts: ChainVerdict[] = [];
+    for (const chain of names) {
+      const verdict = await this.verifyChain(chain, heads.get(chain) ?? null);
+      verdicts.push(verdict);
+      if (verdict.firstBreak) {
+        findings.push({ chain, ...verdict.firstBreak, message: describeBreak(chain, verdict.firstBreak, receipt?.id) });
+      }
+    }
+    return { intact: findings.length === 0, chains: verdicts, receipt: receiptCheck, findings };
+  }
+
+  private async verifyChain(chain: string, sealedHead: { sequence: number; hash: string } | null): Promise<ChainVerdict> {
+    let walk: ChainWalk = startWalk();
     let count = 0;
+    let hashAtSealedHead: string | null = null;
+    for await (const page of this.pagesOf(chain)) {
+      const result = walkChain(page, walk, this.keyOf);
+      count += page.length;
+      if (sealedHead) {
+        const atHead = page.find((event) => event.sequence === sealedHead.sequence);
+        if (atHead) hashAtSealedHead = atHead.hash;
+      }
+      if (result.broken) return { chain, events: count, intact: false, firstBreak: result.broken };
+      walk = result.walk;
+    }
+    const firstBreak = finishWalk(walk) ?? this.compareWithReceipt(walk, sealedHead, hashAtSealedHead);
+    return { chain, events: count, intact: firstBreak === null, firstBreak };
+  }
+
+  private compareWithReceipt(walk: ChainWalk, sealedHead: { sequence: number; hash: string } | null, hashAtSealedHead: string | null): ChainBreak | null {
+    if (!sealedHead) return null;
+    if (walk.sequence < sealedHead.sequence) return { sequence: walk.sequence + 1, reason: 'missing-after-receipt' };
+    if (hashAtSealedHead !== sealedHead.hash) return { sequence: sealedHead.sequence, reason: 'receipt-mismatch' };
+    return null;
+  }
+
+  /** One chain's events in sequence order, 5,000 at a time, as the hash sees them. */
+  private async *pagesOf(chain: string, manager: EntityManager = this.dataSource.manager): AsyncGenerator<StoredEvent[]> {
+    let after = 0;
     for (;;) {
-      const rows: AuditEventEntity[] = await repository
+      const rows: AuditEventEntity[] = await manager
+        .getRepository(AuditEventEntity)
         .createQueryBuilder('event')
         .where('event.chain = :chain', { chain })
-        .andWhere('event.sequence > :after', { after: previous?.sequence ?? 0 })
+        .andWhere('event.sequence > :after', { after })
         .orderBy('event.sequence', 'ASC')
-        .take(pageSize)
+        .take(5000)
         .getMany();
-      if (rows.length === 0) break;
-      const links: Parameters<typeof findChainBreak>[0] = rows.map((row) => ({
+      if (rows.length === 0) return;
+      yield rows.map((row) => ({
+        id: row.id,
         chain: row.chain,
         sequence: row.sequence,
         at: row.at.toISOString(),
         actorId: row.actorId,
+        actorEmail: row.actorEmail,
         action: row.action,
         subjectType: row.subjectType,
         subjectId: row.subjectId,
         data: row.data,
         previousHash: row.previousHash,
+        keyId: row.keyId,
         hash: row.hash,
       }));
-      const firstBreak = findChainBreak(links, previous ?? undefined);
-      count += rows.length;
-      if (firstBreak) return { chain, events: count, intact: false, firstBreak };
-      const last: { sequence: number; hash: string } = links[links.length - 1];
-      previous = { sequence: last.sequence, hash: last.hash };
+      after = rows[rows.length - 1].sequence;
     }
-    return { chain, events: count, intact: true, firstBreak: null };
   }
 }

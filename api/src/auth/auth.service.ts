@@ -1,19 +1,20 @@
-import { Injectable } from '@nestjs/common';
+import { Injectable, OnModuleInit } from '@nestjs/common';
 import { JwtService } from '@nestjs/jwt';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { randomUUID } from 'node:crypto';
 import { DataSource, EntityManager } from 'typeorm';
 import { AuditService } from '../audit/audit.service';
+import type { SessionUser } from '../common/auth/session-user';
 import { DomainException } from '../common/errors/domain.exception';
 import { AppConfig } from '../config/app-config';
 import { queryRows } from '../database/raw-query';
+import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
 import { MailService } from '../mail/mail.service';
 import { UserEntity } from '../users/entities/user.entity';
 import { UsersService } from '../users/users.service';
 import { MeDto } from './dto/auth.dto';
 import { RefreshTokenEntity } from './entities/refresh-token.entity';
-import { SignInLinkEntity } from './entities/sign-in-link.entity';
-import { hashToken, newOpaqueToken } from './session-tokens';
+import { hashToken, newOpaqueToken, signInLinkToken, successorToken } from './session-tokens';
 import { signInLinkMail } from './sign-in-link-mail';
 
 export interface IssuedSession {
@@ -21,6 +22,12 @@ export interface IssuedSession {
   accessToken: string;
   refreshToken: string;
   studySlug?: string | null;
+}
+
+/** The payload of a queued link request. */
+interface SignInLinkRequest {
+  email: string;
+  studySlug: string | null;
 }
 
 export interface ClientInfo {
@@ -33,7 +40,7 @@ export function toMeDto(user: UserEntity): MeDto {
 }
 
 @Injectable()
-export class AuthService {
+export class AuthService implements OnModuleInit {
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly config: AppConfig,
@@ -41,7 +48,12 @@ export class AuthService {
     private readonly users: UsersService,
     private readonly audit: AuditService,
     private readonly mail: MailService,
+    private readonly jobs: JobQueueService,
   ) {}
+
+  async onModuleInit(): Promise<void> {
+    await this.jobs.handle<SignInLinkRequest>(JOB_NAMES.signInLinkRequest, (request, jobId) => this.sendSignInLink(request, jobId));
+  }
 
   async signInWithPassword(email: string, password: string, client: ClientInfo): Promise<IssuedSession> {
     const user = await this.users.verifyStaffPassword(email, password);
@@ -59,22 +71,35 @@ export class AuthService {
     return this.dataSource.transaction((manager) => this.startSession(manager, user, 'password', client));
   }
 
-  /** Always answers the same way; a link is only made for addresses that may sign in by link. */
+  /**
+   * Queues the request and does nothing else, so the answer takes the same time whatever the address: whether it
+   * belongs to staff, to a participant or to no one is looked up only in the job.
+   */
   async requestSignInLink(email: string, studySlug: string | undefined): Promise<void> {
-    const existing = await this.users.findByEmail(email);
+    const request: SignInLinkRequest = { email, studySlug: studySlug ?? null };
+    await this.jobs.enqueue(this.dataSource.manager, JOB_NAMES.signInLinkRequest, request);
+  }
+
+  /**
+   * The job behind a link request: a link is only made for addresses that may sign in by link. The token is derived
+   * from the job id, so a job that runs twice finds its link already made and sends no second e-mail.
+   */
+  private async sendSignInLink(request: SignInLinkRequest, jobId: string): Promise<void> {
+    const existing = await this.users.findByEmail(request.email);
     if (existing && (existing.role !== 'participant' || !existing.active)) return;
-    const { token, hash } = newOpaqueToken();
+    const token = signInLinkToken(this.config.jwtSecret, jobId);
     const minutes = Math.round(this.config.signInLinkSeconds / 60);
     const link = new URL('/sign-in/link', this.config.portalUrl);
     link.searchParams.set('token', token);
     await this.dataSource.transaction(async (manager) => {
-      await manager.insert(SignInLinkEntity, {
-        email,
-        tokenHash: hash,
-        studySlug: studySlug ?? null,
-        expiresAt: new Date(Date.now() + this.config.signInLinkSeconds * 1000),
-      });
-      await this.mail.enqueue(manager, signInLinkMail(email, link.toString(), minutes));
+      const inserted = await queryRows(
+        manager,
+        `INSERT INTO sign_in_link (email, token_hash, study_slug, expires_at) VALUES ($1, $2, $3, now() + $4 * interval '1 second')
+         ON CONFLICT (token_hash) DO NOTHING RETURNING id`,
+        [request.email, hashToken(token), request.studySlug, this.config.signInLinkSeconds],
+      );
+      if (inserted.length === 0) return;
+      await this.mail.enqueue(manager, signInLinkMail(request.email, link.toString(), minutes));
     });
   }
 
@@ -117,6 +142,11 @@ export class AuthService {
         lock: { mode: 'pessimistic_write' },
       });
       if (!current || current.expiresAt <= new Date()) return { kind: 'unknown' as const };
+      if (!current.revokedAt && current.replacedAt && Date.now() - current.replacedAt.getTime() <= this.config.refreshGraceSeconds * 1000) {
+        // Another tab refreshed with this token a moment ago: hand out the same successor instead of crying theft.
+        const successor = await this.sameSuccessor(manager, refreshToken, current);
+        if (successor) return successor;
+      }
       if (current.revokedAt || current.replacedAt) {
         await this.revokeFamily(manager, current.familyId);
         await this.audit.record(manager, {
@@ -132,8 +162,8 @@ export class AuthService {
       if (!user) return { kind: 'unknown' as const };
       current.replacedAt = new Date();
       await manager.save(current);
-      const next = await this.issueRefreshToken(manager, user.id, current.familyId);
-      return { kind: 'rotated' as const, session: { user: toMeDto(user), accessToken: await this.accessToken(user), refreshToken: next } };
+      const next = await this.issueRefreshToken(manager, user.id, current.familyId, this.successorOf(refreshToken));
+      return { kind: 'rotated' as const, session: { user: toMeDto(user), accessToken: await this.accessToken(user, current.familyId), refreshToken: next } };
     });
     if (outcome.kind === 'rotated') return outcome.session;
     throw new DomainException(
@@ -166,7 +196,8 @@ export class AuthService {
     client: ClientInfo,
   ): Promise<IssuedSession> {
     await this.users.markSignedIn(manager, user.id);
-    const refreshToken = await this.issueRefreshToken(manager, user.id, randomUUID());
+    const sessionId = randomUUID();
+    const refreshToken = await this.issueRefreshToken(manager, user.id, sessionId, newOpaqueToken().token);
     await this.audit.record(manager, {
       actor: { id: user.id, email: user.email },
       action: 'auth.signed-in',
@@ -174,19 +205,53 @@ export class AuthService {
       subjectId: user.id,
       data: { method, ...client },
     });
-    return { user: toMeDto(user), accessToken: await this.accessToken(user), refreshToken };
+    return { user: toMeDto(user), accessToken: await this.accessToken(user, sessionId), refreshToken };
   }
 
-  private accessToken(user: UserEntity): Promise<string> {
-    return this.jwt.signAsync({ sub: user.id, role: user.role }, { expiresIn: this.config.accessTokenSeconds });
+  /**
+   * The signed-in person behind an access token, if its session is still live: the token's refresh-token family
+   * must have a token that is neither revoked nor expired, so sign-out and theft detection end it at once.
+   * One statement, by primary key and the family index.
+   */
+  async activeSessionUser(userId: string, sessionId: string): Promise<SessionUser | null> {
+    const [row] = await queryRows<SessionUser>(
+      this.dataSource.manager,
+      `SELECT u.id, u.email, u.name, u.role FROM user_account u
+       WHERE u.id = $1 AND u.active
+         AND EXISTS (SELECT 1 FROM refresh_token t
+                     WHERE t.family_id = $2 AND t.user_id = u.id AND t.revoked_at IS NULL AND t.expires_at > now())`,
+      [userId, sessionId],
+    );
+    return row ?? null;
   }
 
-  private async issueRefreshToken(manager: EntityManager, userId: string, familyId: string): Promise<string> {
-    const { token, hash } = newOpaqueToken();
+  /** Access tokens name their session (`sid`, the refresh-token family), so each request can check it is still live. */
+  private accessToken(user: UserEntity, sessionId: string): Promise<string> {
+    return this.jwt.signAsync({ sub: user.id, role: user.role, sid: sessionId }, { expiresIn: this.config.accessTokenSeconds });
+  }
+
+  private successorOf(refreshToken: string): string {
+    return successorToken(this.config.jwtSecret, refreshToken);
+  }
+
+  /** The pair a racing refresh already produced from this token, if its successor is still live. */
+  private async sameSuccessor(manager: EntityManager, refreshToken: string, current: RefreshTokenEntity) {
+    const successor = this.successorOf(refreshToken);
+    const next = await manager.findOne(RefreshTokenEntity, { where: { tokenHash: hashToken(successor), familyId: current.familyId } });
+    if (!next || next.revokedAt || next.expiresAt <= new Date()) return null;
+    const user = await this.users.findActiveById(current.userId);
+    if (!user) return null;
+    return {
+      kind: 'rotated' as const,
+      session: { user: toMeDto(user), accessToken: await this.accessToken(user, current.familyId), refreshToken: successor },
+    };
+  }
+
+  private async issueRefreshToken(manager: EntityManager, userId: string, familyId: string, token: string): Promise<string> {
     await manager.insert(RefreshTokenEntity, {
       userId,
       familyId,
-      tokenHash: hash,
+      tokenHash: hashToken(token),
       expiresAt: new Date(Date.now() + this.config.refreshTokenSeconds * 1000),
     });
     return token;

@@ -16,8 +16,12 @@ const CONSENT_VALUES = {
   dataRetentionYears: 5,
   futureUseDeidentified: false,
 };
-/** Starts like a PDF, which is all the approval-letter check looks at. */
-const TINY_PDF = Buffer.from('%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n', 'latin1');
+/** A minimal one-page PDF: the approval-letter check loads it as a PDF. */
+const TINY_PDF = Buffer.from(
+  '%PDF-1.4\n1 0 obj<</Type/Catalog/Pages 2 0 R>>endobj\n2 0 obj<</Type/Pages/Kids[3 0 R]/Count 1>>endobj\n' +
+    '3 0 obj<</Type/Page/Parent 2 0 R/MediaBox[0 0 612 792]>>endobj\ntrailer<</Root 1 0 R>>\n%%EOF\n',
+  'latin1',
+);
 
 /** An approved, active consent version, as the admin screens make one; a study opens only with one. */
 export async function activateBenchConsent(app: INestApplicationContext, researcher: SessionUser, studyId: string, reference: string) {

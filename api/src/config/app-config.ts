@@ -1,5 +1,7 @@
 import { plainToInstance, Transform } from 'class-transformer';
-import { IsBoolean, IsIn, IsInt, IsString, IsUrl, Max, Min, MinLength, validateSync } from 'class-validator';
+import { isIP } from 'node:net';
+import { resolve } from 'node:path';
+import { IsBoolean, IsIn, IsInt, IsString, IsUrl, Max, Min, MinLength, registerDecorator, validateSync } from 'class-validator';
 
 /** Secrets that are fine on a developer's machine and must never reach production. */
 export const DEVELOPMENT_SECRETS = {
@@ -8,9 +10,40 @@ export const DEVELOPMENT_SECRETS = {
   stripeWebhookSecret: 'whsec_evenhand_dev',
 } as const;
 
+/** Passphrase of the development signing certificate made on first start; documents refuse it in production. */
+export const DEVELOPMENT_SIGNING_PASSPHRASE = 'evenhand-development-document-signing';
+
+/** The checkout's git-ignored folder for local state (this file sits in api/src/config or api/dist/config). */
+const LOCAL_DIR = resolve(__dirname, '../../../.local');
+
 const toInt = ({ value }: { value: unknown }) => (value === undefined || value === '' ? undefined : Number(value));
 const toBool = ({ value }: { value: unknown }) =>
   value === undefined || value === '' ? undefined : value === true || value === 'true' || value === '1';
+
+/** Express's names for address ranges, accepted in TRUST_PROXY besides addresses and subnets. */
+const NAMED_PROXY_RANGES = ['loopback', 'linklocal', 'uniquelocal'];
+
+/** One proxy entry: an IP address, a subnet (`10.0.0.0/8`) or one of express's named ranges. */
+export function isProxyEntry(entry: string): boolean {
+  if (NAMED_PROXY_RANGES.includes(entry)) return true;
+  const [address, bits, ...rest] = entry.split('/');
+  const family = isIP(address);
+  if (family === 0 || rest.length > 0) return false;
+  return bits === undefined || (/^\d{1,3}$/.test(bits) && Number(bits) <= (family === 4 ? 32 : 128));
+}
+
+function IsProxyList() {
+  return (target: object, propertyName: string) =>
+    registerDecorator({
+      target: target.constructor,
+      propertyName,
+      options: { message: 'must be empty or a comma-separated list of proxy addresses, subnets or loopback/linklocal/uniquelocal' },
+      validator: { validate: (value: unknown) => Array.isArray(value) && value.every((entry) => typeof entry === 'string' && isProxyEntry(entry)) },
+    });
+}
+
+const toList = ({ value }: { value: unknown }) =>
+  typeof value === 'string' ? value.split(',').map((entry) => entry.trim()).filter((entry) => entry !== '') : value;
 
 /** All run-time settings, read once from the environment at boot and validated. */
 export class AppConfig {
@@ -106,11 +139,32 @@ export class AppConfig {
   @Min(0)
   taxReportingThresholdMinor = 200_000;
 
-  /** Sign-in attempts per address and client per window. */
+  /** Sign-in attempts (password or link) per e-mail address per window, from any number of clients. */
   @Transform(toInt)
   @IsInt()
   @Min(1)
   signInLimit = 10;
+
+  /** Sign-in attempts per client address per window, across every e-mail address it tries; 3 × SIGN_IN_LIMIT when unset. */
+  @Transform(toInt)
+  @IsInt()
+  @Min(1)
+  signInClientLimit = 30;
+
+  /**
+   * Proxies whose X-Forwarded-For is believed when working out a client's address: addresses, subnets or express's
+   * named ranges, comma-separated. None by default, so a client cannot pick its own address (and rate-limit key).
+   */
+  @Transform(toList)
+  @IsProxyList()
+  trustProxy: string[] = [];
+
+  /** Seconds a just-replaced refresh token still answers with its successor (two tabs refreshing at once). */
+  @Transform(toInt)
+  @IsInt()
+  @Min(0)
+  @Max(120)
+  refreshGraceSeconds = 20;
 
   @Transform(toInt)
   @IsInt()
@@ -122,6 +176,22 @@ export class AppConfig {
   @IsInt()
   @Min(1)
   jobRetryDelaySeconds = 5;
+
+  /** Longest wait between two tries of a failed job, so work resumes within minutes of a dependency coming back. */
+  @Transform(toInt)
+  @IsInt()
+  @Min(1)
+  jobRetryDelayMaxSeconds = 120;
+
+  /** Cron (UTC) of the sweep that settles payouts left `sending`; empty turns the schedule off. */
+  @IsString()
+  payoutSweepCron = '* * * * *';
+
+  /** A payout `sending` this long without a new try is settled by asking the provider. */
+  @Transform(toInt)
+  @IsInt()
+  @Min(30)
+  payoutStuckAfterSeconds = 300;
 
   /** Days links signed with a rotated-out return key keep working. */
   @Transform(toInt)
@@ -138,6 +208,28 @@ export class AppConfig {
   /** Cron (UTC) of the reminder sweep; empty turns the schedule off. */
   @IsString()
   reminderSweepCron = '*/10 * * * *';
+
+  /** Audit keys as `id=hex,id=hex` (the last signs new events); when empty, the key file below is used. */
+  @IsString()
+  auditKeys = '';
+
+  /** JSON key file `{"current": id, "keys": {id: hex}}`; created with a fresh key on first start outside production. */
+  @IsString()
+  @MinLength(1)
+  auditKeyFile = resolve(LOCAL_DIR, 'keys/audit-keys.json');
+
+  /** Cron (UTC) of the scheduled audit receipt; empty turns the schedule off. */
+  @IsString()
+  auditReceiptCron = '17 * * * *';
+
+  /** PKCS#12 file with the lab's document-signing certificate and key; created self-signed on first start outside production. */
+  @IsString()
+  @MinLength(1)
+  documentSigningP12 = resolve(LOCAL_DIR, 'keys/document-signing.p12');
+
+  @IsString()
+  @MinLength(8)
+  documentSigningPassphrase: string = DEVELOPMENT_SIGNING_PASSPHRASE;
 
   /** Whether this process also runs the background job workers. */
   @Transform(toBool)
@@ -169,12 +261,23 @@ const ENVIRONMENT_NAMES: Record<keyof AppConfig, string> = {
   stripeScriptUrl: 'STRIPE_SCRIPT_URL',
   taxReportingThresholdMinor: 'TAX_REPORTING_THRESHOLD_MINOR',
   signInLimit: 'SIGN_IN_LIMIT',
+  signInClientLimit: 'SIGN_IN_CLIENT_LIMIT',
+  trustProxy: 'TRUST_PROXY',
+  refreshGraceSeconds: 'REFRESH_GRACE_SECONDS',
   signInWindowSeconds: 'SIGN_IN_WINDOW_SECONDS',
   jobRetryDelaySeconds: 'JOB_RETRY_DELAY_SECONDS',
+  jobRetryDelayMaxSeconds: 'JOB_RETRY_DELAY_MAX_SECONDS',
+  payoutSweepCron: 'PAYOUT_SWEEP_CRON',
+  payoutStuckAfterSeconds: 'PAYOUT_STUCK_AFTER_SECONDS',
   runWorkers: 'RUN_WORKERS',
   returnLinkGraceDays: 'RETURN_LINK_GRACE_DAYS',
   returnLinkValidDays: 'RETURN_LINK_VALID_DAYS',
   reminderSweepCron: 'REMINDER_SWEEP_CRON',
+  auditKeys: 'AUDIT_KEYS',
+  auditKeyFile: 'AUDIT_KEY_FILE',
+  auditReceiptCron: 'AUDIT_RECEIPT_CRON',
+  documentSigningP12: 'DOCUMENT_SIGNING_P12',
+  documentSigningPassphrase: 'DOCUMENT_SIGNING_PASSPHRASE',
 };
 
 /** Reads and validates the configuration; throws a message naming every bad variable. */
@@ -185,6 +288,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   }
   const production = (raw.nodeEnv ?? 'development') === 'production';
   if (production && raw.secureCookies === undefined) raw.secureCookies = 'true';
+  if (raw.signInClientLimit === undefined && raw.signInLimit !== undefined && /^\d+$/.test(String(raw.signInLimit))) {
+    raw.signInClientLimit = String(3 * Number(raw.signInLimit));
+  }
   const config = plainToInstance(AppConfig, raw);
   const problems = validateSync(config, { forbidUnknownValues: true }).map(
     (error) => `${ENVIRONMENT_NAMES[error.property as keyof AppConfig]}: ${Object.values(error.constraints ?? {}).join('; ')}`,

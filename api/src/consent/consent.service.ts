@@ -7,6 +7,7 @@ import { AuditActor, AuditService } from '../audit/audit.service';
 import { DomainException } from '../common/errors/domain.exception';
 import { StepsService } from '../steps/steps.service';
 import { StudiesService } from '../studies/studies.service';
+import { approvalLetterProblem } from './approval-letter-check';
 import { renderConsentHtml } from './consent-markdown';
 import { readingSections, ReadingSection } from './consent-reading';
 import { ConsentTemplateFields, DEFAULT_CONSENT_TEMPLATE_ID, fillConsentTemplate } from './consent-template';
@@ -220,7 +221,7 @@ export class ConsentService {
     return checkRequiredElements(version.body) as unknown as ConsentCheckDto;
   }
 
-  /** Stores the ethics approval letter after checking it really is a PDF (by its first bytes, not its name). */
+  /** Stores the ethics approval letter after checking it really is a PDF (by loading it, not by its name). */
   async uploadApprovalLetter(
     actor: AuditActor,
     studyId: string,
@@ -234,11 +235,8 @@ export class ConsentService {
     if (file.size > MAX_APPROVAL_LETTER_BYTES) {
       throw new DomainException('PAYLOAD_TOO_LARGE', 'The approval letter may be at most 10 MB.', [{ field: 'letter', message: 'is larger than 10 MB' }]);
     }
-    if (file.buffer.subarray(0, 5).toString('latin1') !== '%PDF-') {
-      throw new DomainException('UNSUPPORTED_MEDIA_TYPE', 'The approval letter must be a PDF file.', [
-        { field: 'letter', message: 'is not a PDF (its content does not start like one, whatever its name)' },
-      ]);
-    }
+    const problem = await approvalLetterProblem(file.buffer, file.originalname);
+    if (problem) throw new DomainException('UNSUPPORTED_MEDIA_TYPE', 'The approval letter must be a PDF file.', [problem]);
     const sha256 = createHash('sha256').update(file.buffer).digest('hex');
     const updated = await this.dataSource.transaction(async (manager) => {
       const version = await this.get(studyId, versionId, manager);

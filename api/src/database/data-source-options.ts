@@ -25,6 +25,8 @@ import { AttritionAlertStateEntity } from '../attrition/entities/attrition-alert
 import { PayoutAccountEntity } from '../payouts/entities/payout-account.entity';
 import { PayoutEntity } from '../payouts/entities/payout.entity';
 import { ProviderEventEntity } from '../payouts/entities/provider-event.entity';
+import { ProviderObjectVersionEntity } from '../payouts/entities/provider-object-version.entity';
+import { PayoutRecovery1764600850000 } from './migrations/1764600850000-payout-recovery';
 import { StudyFundingEntity } from '../payouts/entities/study-funding.entity';
 import { StepCompletionEntity } from '../steps/entities/step-completion.entity';
 import { ConsentVersionEntity } from '../consent/entities/consent-version.entity';
@@ -34,6 +36,8 @@ import { ReminderPlanEntity } from '../reminders/entities/reminder-plan.entity';
 import { ContactEntity } from '../reminders/entities/contact.entity';
 import { StepVerificationAndContact1764600600000 } from './migrations/1764600600000-step-verification-and-contact';
 import { ScreeningQuestionEntity } from '../studies/entities/screening-question.entity';
+import { AuditEvidence1764600700000 } from './migrations/1764600700000-audit-evidence';
+import { AuditReceiptEntity } from '../audit/entities/audit-receipt.entity';
 
 /** Every entity, listed by hand so nothing depends on file globs. */
 export const ENTITIES = [
@@ -43,6 +47,7 @@ export const ENTITIES = [
   StudyEntity,
   StudyMembershipEntity,
   AuditEventEntity,
+  AuditReceiptEntity,
   RateLimitWindowEntity,
   ConditionEntity,
   StratificationFactorEntity,
@@ -59,6 +64,7 @@ export const ENTITIES = [
   PayoutEntity,
   PayoutAccountEntity,
   ProviderEventEntity,
+  ProviderObjectVersionEntity,
   StudyFundingEntity,
   AttritionAlertRuleEntity,
   AttritionAlertStateEntity,
@@ -68,7 +74,7 @@ export const ENTITIES = [
 ];
 
 /** Every migration in order. Never edit one that has landed; add a new one. */
-export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000, ConsentAndEnrollment1764600200000, Pay1764600300000, AttritionAlerts1764600400000, LostReason1764600500000, StepVerificationAndContact1764600600000];
+export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000, ConsentAndEnrollment1764600200000, Pay1764600300000, AttritionAlerts1764600400000, LostReason1764600500000, StepVerificationAndContact1764600600000, AuditEvidence1764600700000, PayoutRecovery1764600850000];
 
 export function dataSourceOptions(databaseUrl: string): DataSourceOptions {
   return {

@@ -1,7 +1,7 @@
 import { Injectable, Logger, OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
-import { AppConfig } from '../config/app-config';
+import { AppConfig, DEVELOPMENT_SIGNING_PASSPHRASE } from '../config/app-config';
 import { renderEmail } from '../consent/consent-emails';
 import { ConsentService } from '../consent/consent.service';
 import { describeSigningTime } from '../consent/study-formatting';
@@ -9,15 +9,18 @@ import { EnrollmentsService } from '../enrollments/enrollments.service';
 import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
 import { MailService } from '../mail/mail.service';
 import { StudiesService } from '../studies/studies.service';
-import { buildSignedConsentPdf } from './signed-consent-pdf';
+import { buildSignedConsentPdf, PdfSealIdentity } from './signed-consent-pdf';
+import { loadSigningIdentity } from './signing-certificate';
 
 /**
  * Makes the signed copy of a consent form, stores it with its SHA-256, and e-mails it to the signer
- * (45 CFR 46.117(a)). Runs as a job; each part is skipped when already done, so a retry never sends twice.
+ * (45 CFR 46.117(a)). The copy is sealed with the lab's document-signing certificate (a PDF digital signature), and
+ * its SHA-256 is kept. Runs as a job; each part is skipped when already done, so a retry never sends twice.
  */
 @Injectable()
 export class DocumentsService implements OnModuleInit {
   private readonly logger = new Logger('Documents');
+  private identity: PdfSealIdentity | null = null;
 
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
@@ -30,6 +33,14 @@ export class DocumentsService implements OnModuleInit {
   ) {}
 
   async onModuleInit(): Promise<void> {
+    if (this.config.nodeEnv === 'production' && this.config.documentSigningPassphrase === DEVELOPMENT_SIGNING_PASSPHRASE) {
+      throw new Error('DOCUMENT_SIGNING_PASSPHRASE: the development default may not be used in production');
+    }
+    this.identity = loadSigningIdentity({
+      path: this.config.documentSigningP12,
+      passphrase: this.config.documentSigningPassphrase,
+      mayCreate: this.config.nodeEnv !== 'production',
+    });
     await this.jobs.handle<{ signatureId: string }>(JOB_NAMES.signedCopy, ({ signatureId }) => this.makeSignedCopy(signatureId));
   }
 
@@ -64,7 +75,7 @@ export class DocumentsService implements OnModuleInit {
           ipAddress: signature.ip ?? 'not recorded',
           userAgent: signature.userAgent ?? 'not recorded',
         },
-      });
+      }, this.identity ?? undefined);
       pdf = Buffer.from(built.bytes);
       await this.consent.storeSignedPdf(signature.id, pdf, built.sha256);
     }

@@ -7,11 +7,18 @@
  * The output is deterministic: the same input gives the same bytes, so its SHA-256 can be stored and re-checked.
  * The document dates come from the input, font subsets get fixed names instead of pdf-lib's random tags, and
  * nothing reads the clock.
+ *
+ * With a signing identity the file is also sealed: a PDF digital signature (detached PKCS#7/CMS over the byte
+ * ranges, adbe.pkcs7.detached) made with the lab's certificate, so any PDF reader shows a change to the file. The
+ * signing time is the issue time and RSA PKCS#1 v1.5 signatures are deterministic, so sealed output is too.
  */
 import fontkit from '@pdf-lib/fontkit';
 import { fonts as shippedFonts } from '@evenhand/legal-templates';
 import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
+import { pdflibAddPlaceholder } from '@signpdf/placeholder-pdf-lib';
+import { P12Signer } from '@signpdf/signer-p12';
+import { SignPdf } from '@signpdf/signpdf';
 import { PDFDocument, PDFImage } from 'pdf-lib';
 import { consentTextBlocks, TextRun } from '../consent/consent-markdown';
 import { isFingerprint, renderedTextFingerprint } from '../consent/consent-text';
@@ -50,10 +57,18 @@ export interface SignedConsentPdfInput {
   issuedAt?: Date;
 }
 
+/** The lab's document-signing identity (see signing-certificate.ts). */
+export interface PdfSealIdentity {
+  p12: Uint8Array;
+  passphrase: string;
+}
+
 export interface SignedConsentPdf {
   bytes: Uint8Array;
   /** SHA-256 of `bytes`, 64 lowercase hex characters. */
   sha256: string;
+  /** Whether `bytes` carry a PDF digital signature. */
+  sealed: boolean;
   pageCount: number;
   /** SHA-256 of the drawn mark's PNG bytes, when there is one. */
   markSha256: string | null;
@@ -147,7 +162,7 @@ function unsupportedCharacters(texts: string[], bytes: Uint8Array): string[] {
   return [...missing];
 }
 
-export async function buildSignedConsentPdf(input: SignedConsentPdfInput): Promise<SignedConsentPdf> {
+export async function buildSignedConsentPdf(input: SignedConsentPdfInput, seal?: PdfSealIdentity): Promise<SignedConsentPdf> {
   const { markBytes } = validate(input);
   const { signer } = input;
   const time = describeSigningTime(signer.signedAt, signer.timeZone?.trim() || 'UTC', 'signer.signedAt');
@@ -209,9 +224,27 @@ export async function buildSignedConsentPdf(input: SignedConsentPdfInput): Promi
   drawCertificate(writer, input, { time, markSha256, issuedAt });
   writer.footers(`${input.studyTitle} · consent form version ${input.formVersion} · signed by ${signer.typedName}`);
 
-  const bytes = await doc.save({ useObjectStreams: true });
+  let bytes: Uint8Array;
+  if (seal) {
+    pdflibAddPlaceholder({
+      pdfDoc: doc,
+      reason: `Signed copy of consent form version ${input.formVersion} for ${input.enrollmentReference}`,
+      contactInfo: input.labName,
+      name: input.labName,
+      location: input.labName,
+      signingTime: issuedAt,
+      appName: 'Evenhand',
+    });
+    // The placeholder's byte ranges are found in the file's text, which object streams would compress away.
+    const unsigned = await doc.save({ useObjectStreams: false });
+    const signed = await new SignPdf().sign(Buffer.from(unsigned), new P12Signer(Buffer.from(seal.p12), { passphrase: seal.passphrase }), issuedAt);
+    bytes = new Uint8Array(signed);
+  } else {
+    bytes = await doc.save({ useObjectStreams: true });
+  }
   return {
     bytes,
+    sealed: Boolean(seal),
     sha256: createHash('sha256').update(bytes).digest('hex'),
     pageCount: doc.getPageCount(),
     markSha256,
@@ -322,7 +355,7 @@ function drawCertificate(
   writer.text(
     run(
       'The form text fingerprint is the SHA-256 of the consent text exactly as signed (UTF-8, line feeds, as stored for this form version). ' +
-        `Recomputing it from the stored text must give the value above. ${input.labName} also keeps the SHA-256 of this PDF file with the signature record, so any change to the file can be detected.`,
+        `Recomputing it from the stored text must give the value above. ${input.labName} also keeps the SHA-256 of this PDF file with the signature record, and the file carries a digital signature made with the lab's certificate, so a PDF reader shows any change made to it after signing.`,
     ),
     { ...BODY, color: INK },
   );

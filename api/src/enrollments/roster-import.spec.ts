@@ -32,4 +32,14 @@ describe('parseRoster', () => {
   it('refuses a file without an email column', () => {
     expect(parseRoster('name\nSam\n', factors).errors).toEqual([{ line: 1, field: 'email', message: 'the header row needs an "email" column' }]);
   });
+
+  it('refuses an over-long or control-character name and answer instead of storing it', () => {
+    const parsed = parseRoster(`email,name,pretest,site\na@x.test,${'N'.repeat(201)},1,lab\nb@x.test,"Sam\u0000",2,lab\nc@x.test,Sam,"1\u0000",lab\nd@x.test,${'N'.repeat(200)},3,lab\n`, factors);
+    expect(parsed.errors.map((e) => [e.line, e.field])).toEqual([
+      [2, 'name'],
+      [3, 'name'],
+      [4, 'pretest'],
+    ]);
+    expect(parsed.rows.map((r) => r.line)).toEqual([5]);
+  });
 });

@@ -27,6 +27,11 @@ export interface ParsedRoster {
 }
 
 export const MAX_ROSTER_ROWS = 20_000;
+/** The longest display name kept for a roster row, as for a staff member's name. */
+export const MAX_DISPLAY_NAME_LENGTH = 200;
+const MAX_EMAIL_LENGTH = 254;
+// NUL cannot be stored in PostgreSQL text; other control characters have no place in a name or an address.
+const CONTROL_CHARACTERS = /[\u0000-\u001f\u007f]/;
 const EMAIL = /^[^\s@,;]+@[^\s@,;]+\.[^\s@,;]+$/;
 
 /**
@@ -59,6 +64,10 @@ export function parseRoster(csv: string, factors: RosterFactor[]): ParsedRoster 
   records.slice(1).forEach((record, index) => {
     const line = index + 2;
     const email = (record[emailColumn] ?? '').trim().toLowerCase();
+    if (email.length > MAX_EMAIL_LENGTH || CONTROL_CHARACTERS.test(email)) {
+      errors.push({ line, field: 'email', message: `is not an e-mail address (at most ${MAX_EMAIL_LENGTH} characters, no control characters)` });
+      return;
+    }
     if (!EMAIL.test(email)) {
       errors.push({ line, field: 'email', message: email ? `"${email}" is not an e-mail address` : 'is empty' });
       return;
@@ -68,12 +77,26 @@ export function parseRoster(csv: string, factors: RosterFactor[]): ParsedRoster 
       return;
     }
     seen.set(email, line);
+    const name = nameColumn >= 0 ? record[nameColumn]?.trim() || null : null;
+    if (name !== null && name.length > MAX_DISPLAY_NAME_LENGTH) {
+      errors.push({ line, field: 'name', message: `is longer than ${MAX_DISPLAY_NAME_LENGTH} characters` });
+      return;
+    }
+    if (name !== null && CONTROL_CHARACTERS.test(name)) {
+      errors.push({ line, field: 'name', message: 'contains control characters' });
+      return;
+    }
     const covariates: Record<string, number | string> = {};
     let rowOk = true;
     for (const { factor, column } of factorColumns) {
       if (column < 0) continue;
       const raw = (record[column] ?? '').trim();
       if (raw === '') continue;
+      if (raw.length > MAX_DISPLAY_NAME_LENGTH || CONTROL_CHARACTERS.test(raw)) {
+        errors.push({ line, field: factor.key, message: `is not a readable answer (at most ${MAX_DISPLAY_NAME_LENGTH} characters, no control characters)` });
+        rowOk = false;
+        continue;
+      }
       if (factor.kind === 'numeric') {
         const value = Number(raw.replace(',', '.'));
         if (!Number.isFinite(value)) {
@@ -85,7 +108,7 @@ export function parseRoster(csv: string, factors: RosterFactor[]): ParsedRoster 
         rowOk = false;
       } else covariates[factor.key] = raw;
     }
-    if (rowOk) rows.push({ line, email, name: nameColumn >= 0 ? record[nameColumn]?.trim() || null : null, covariates });
+    if (rowOk) rows.push({ line, email, name, covariates });
   });
   return { rows, errors, ignoredColumns };
 }

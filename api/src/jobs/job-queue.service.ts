@@ -3,18 +3,30 @@ import PgBoss from 'pg-boss';
 import type { EntityManager } from 'typeorm';
 import { AppConfig } from '../config/app-config';
 import { queryRows } from '../database/raw-query';
+import { retryDelaySeconds } from './retry-delay';
 
 export type JobHandler<Payload> = (payload: Payload, jobId: string) => Promise<void>;
 
+export interface JobHandlerOptions<Payload> {
+  /**
+   * Told once when a job of this kind has failed its last try, with the last failure, so the work it stands for
+   * can end somewhere (a payout becomes failed and retryable) instead of waiting for ever.
+   */
+  onGiveUp?: (payload: Payload, reason: string, jobId: string) => Promise<void>;
+}
+
 /** Every kind of background job, so names are not spread as strings. */
-export const JOB_NAMES = { sendMail: 'mail.send', signedCopy: 'consent.signed-copy', sendPayout: 'payout.send', payoutReceipt: 'payout.receipt', evaluateAttritionAlerts: 'attrition.evaluate-alerts', sweepReminders: 'reminders.sweep' } as const;
+export const JOB_NAMES = { sendMail: 'mail.send', signedCopy: 'consent.signed-copy', sendPayout: 'payout.send', payoutReceipt: 'payout.receipt', sweepPayouts: 'payout.sweep', evaluateAttritionAlerts: 'attrition.evaluate-alerts', sweepReminders: 'reminders.sweep', auditReceipt: 'audit.receipt', signInLinkRequest: 'auth.sign-in-link' } as const;
 /** Jobs fetched and run side by side per worker. */
 export const JOB_BATCH_SIZE = 10;
+/** Tries after the first before a job is given up. */
+export const JOB_RETRY_LIMIT = 8;
 export type JobName = (typeof JOB_NAMES)[keyof typeof JOB_NAMES];
 
 /**
  * The PostgreSQL-backed job queue (pg-boss). Jobs are written in the same transaction as the change that causes
- * them, retried with back-off, and handlers must be idempotent because a job can run more than once.
+ * them, retried with capped back-off (retry-delay.ts; pg-boss 10's own back-off has no maximum), and handlers must
+ * be idempotent because a job can run more than once.
  */
 @Injectable()
 export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
@@ -31,31 +43,52 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
   async onModuleInit(): Promise<void> {
     await this.boss.start();
     for (const name of Object.values(JOB_NAMES)) {
-      await this.boss.createQueue(name, { name, retryLimit: 8, retryDelay: this.config.jobRetryDelaySeconds, retryBackoff: true });
+      // Back-off is ours (see handle): pg-boss waits the base delay, and we move the retry to its capped time.
+      const options = { name, retryLimit: JOB_RETRY_LIMIT, retryDelay: this.config.jobRetryDelaySeconds, retryBackoff: false };
+      await this.boss.createQueue(name, options);
+      await this.boss.updateQueue(name, options); // queues made by an earlier release keep their old settings otherwise
     }
     this.started = true;
   }
 
   /** Registers the worker for a job kind; only processes with RUN_WORKERS=true pick up work. */
-  async handle<Payload extends object>(name: JobName, handler: JobHandler<Payload>): Promise<void> {
+  async handle<Payload extends object>(name: JobName, handler: JobHandler<Payload>, options: JobHandlerOptions<Payload> = {}): Promise<void> {
     this.handlers.set(name, handler as JobHandler<never>);
     if (!this.config.runWorkers) return;
     // Up to 10 jobs per fetch run side by side; each failure is reported for its own job (retried with back-off),
     // and the worker then completes only the jobs still active, i.e. the ones that succeeded.
     let workerId: string | undefined;
-    workerId = await this.boss.work<Payload>(name, { pollingIntervalSeconds: 0.5, batchSize: JOB_BATCH_SIZE }, async (jobs) => {
+    workerId = await this.boss.work<Payload>(name, { pollingIntervalSeconds: 0.5, batchSize: JOB_BATCH_SIZE, includeMetadata: true }, async (jobs) => {
       // A full batch means more are waiting: fetch again at once instead of sleeping out the polling interval,
       // which would otherwise cap every kind of job at one batch per half second.
       if (jobs.length === JOB_BATCH_SIZE && workerId) this.boss.notifyWorker(workerId);
       const results = await Promise.allSettled(jobs.map((job) => handler(job.data, job.id)));
       for (const [i, result] of results.entries()) {
-        if (result.status === 'rejected') {
-          const reason = result.reason instanceof Error ? result.reason.message : String(result.reason);
-          this.logger.warn(`${name} job ${jobs[i].id} failed, will retry: ${reason}`);
-          await this.boss.fail(name, jobs[i].id, { message: reason });
-        }
+        if (result.status === 'rejected') await this.failed(name, jobs[i], result.reason, options);
       }
     });
+  }
+
+  private async failed<Payload extends object>(name: JobName, job: PgBoss.JobWithMetadata<Payload>, error: unknown, options: JobHandlerOptions<Payload>): Promise<void> {
+    const reason = error instanceof Error ? error.message : String(error);
+    await this.boss.fail(name, job.id, { message: reason });
+    if (job.retryCount < job.retryLimit) {
+      const retry = job.retryCount + 1;
+      const delay = retryDelaySeconds(retry, this.config.jobRetryDelaySeconds, this.config.jobRetryDelayMaxSeconds);
+      this.logger.warn(`${name} job ${job.id} failed, retry ${retry} of ${job.retryLimit} in ${delay.toFixed(1)} s: ${reason}`);
+      await this.boss.getDb().executeSql(
+        `UPDATE job_queue.job SET start_after = now() + $3 * interval '1 second' WHERE name = $1 AND id = $2 AND state = 'retry'`,
+        [name, job.id, delay],
+      );
+      return;
+    }
+    this.logger.warn(`${name} job ${job.id} failed its last try: ${reason}`);
+    try {
+      await options.onGiveUp?.(job.data, reason, job.id);
+    } catch (giveUpError) {
+      // The sweeper settles whatever this left unfinished.
+      this.logger.error(`${name} job ${job.id}: giving up failed too: ${(giveUpError as Error).message}`);
+    }
   }
 
   /** Enqueues inside the caller's transaction, so the job exists exactly when the change commits. */

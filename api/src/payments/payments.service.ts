@@ -1,7 +1,9 @@
 import { Injectable } from '@nestjs/common';
 import type Stripe from 'stripe';
+import { DomainException } from '../common/errors/domain.exception';
 import { AppConfig } from '../config/app-config';
 import { createPaymentsClient } from './payments-client';
+import { isProviderUnavailable } from './provider-failure';
 
 @Injectable()
 export class PaymentsService {
@@ -9,6 +11,21 @@ export class PaymentsService {
 
   constructor(config: AppConfig) {
     this.client = createPaymentsClient(config);
+  }
+
+  /**
+   * Runs a provider call made while answering a person: when the provider is down, they get a clear 503
+   * (PROVIDER_UNAVAILABLE) saying nothing was done, instead of a 500. Refusals pass through unchanged.
+   */
+  async call<T>(what: string, request: (client: Stripe) => Promise<T>): Promise<T> {
+    try {
+      return await request(this.client);
+    } catch (error) {
+      if (isProviderUnavailable(error)) {
+        throw new DomainException('PROVIDER_UNAVAILABLE', `The payment provider is not answering right now, so ${what} did not happen. Nothing was charged or changed; try again in a few minutes.`);
+      }
+      throw error;
+    }
   }
 
   /** Whether the provider answers an authenticated call right now. */

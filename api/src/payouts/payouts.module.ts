@@ -5,12 +5,13 @@ import { PaymentsModule } from '../payments/payments.module';
 import { StudiesModule } from '../studies/studies.module';
 import { UsersModule } from '../users/users.module';
 import { PayoutsController, StudyPayoutsController } from './payouts.controller';
+import { PayoutRecoveryService } from './payout-recovery.service';
 import { PayoutsService } from './payouts.service';
 
 @Module({
   imports: [AuditModule, MailModule, PaymentsModule, StudiesModule, UsersModule],
   controllers: [StudyPayoutsController, PayoutsController],
-  providers: [PayoutsService],
+  providers: [PayoutsService, PayoutRecoveryService],
   exports: [PayoutsService],
 })
 export class PayoutsModule {}

@@ -9,7 +9,7 @@ import { DomainException } from '../common/errors/domain.exception';
 import { AppConfig } from '../config/app-config';
 import { formatMoney } from '../consent/study-formatting';
 import { queryRows } from '../database/raw-query';
-import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
+import { JOB_NAMES, JOB_RETRY_LIMIT, JobQueueService } from '../jobs/job-queue.service';
 import { MailService } from '../mail/mail.service';
 import { PaymentsService } from '../payments/payments.service';
 import { StudiesService } from '../studies/studies.service';
@@ -29,10 +29,12 @@ import {
 import { PayoutAccountEntity } from './entities/payout-account.entity';
 import { PayoutEntity } from './entities/payout.entity';
 import { StudyFundingEntity } from './entities/study-funding.entity';
+import { APPLIED_EVENT_TYPES, ProviderEventEnvelope, readProviderEvent, signatureTimeProblem } from './provider-event';
 import { reconcile } from './reconcile';
 
 export const TAX_CAUTION =
   'Tax reporting rules differ by country and institution. This threshold is a screening aid: follow your institution’s finance office.';
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 /** Share of the threshold at which staff are told someone is getting near it. */
 const NEAR_THRESHOLD = 0.8;
 
@@ -73,7 +75,9 @@ export class PayoutsService implements OnModuleInit {
   ) {}
 
   async onModuleInit(): Promise<void> {
-    await this.jobs.handle<{ payoutId: string }>(JOB_NAMES.sendPayout, ({ payoutId }) => this.send(payoutId));
+    await this.jobs.handle<{ payoutId: string }>(JOB_NAMES.sendPayout, ({ payoutId }) => this.send(payoutId), {
+      onGiveUp: ({ payoutId }, reason) => this.giveUp(payoutId, reason),
+    });
     await this.jobs.handle<{ payoutId: string }>(JOB_NAMES.payoutReceipt, ({ payoutId }) => this.sendReceipt(payoutId));
   }
 
@@ -236,10 +240,13 @@ export class PayoutsService implements OnModuleInit {
     });
   }
 
-  async retry(actor: AuditActor, payoutId: string): Promise<{ studyId: string }> {
+  /** Sends a failed payout again; only staff of its study (or an admin) may, and to anyone else it does not exist. */
+  async retry(actor: SessionUser, payoutId: string): Promise<{ studyId: string }> {
     return this.dataSource.transaction(async (manager) => {
       const payout = await manager.findOne(PayoutEntity, { where: { id: payoutId }, lock: { mode: 'pessimistic_write' } });
-      if (!payout) throw new DomainException('NOT_FOUND', 'No such payout.');
+      if (!payout || (actor.role !== 'admin' && !(await this.studies.isMember(actor.id, payout.studyId)))) {
+        throw new DomainException('NOT_FOUND', 'No such payout.');
+      }
       if (payout.status !== 'failed') throw new DomainException('CONFLICT', `Only failed payouts can be retried; this one is ${payout.status}.`);
       const { remainingMinor } = await this.balance(manager, payout.studyId);
       if (payout.amountMinor > remainingMinor) throw new DomainException('CONFLICT', "The study's funded balance does not cover this payout. Fund the study first.");
@@ -296,22 +303,59 @@ export class PayoutsService implements OnModuleInit {
     await this.markPaid(payout.id, transfer.id);
   }
 
-  private async markFailed(payout: { id: string; studyId: string }, reason: string): Promise<void> {
-    await this.dataSource.transaction(async (manager) => {
-      const result = await manager.update(PayoutEntity, { id: payout.id, status: 'sending' }, { status: 'failed', failureReason: reason });
-      if (result.affected) {
+  /**
+   * Ends a payout that is on its way as failed, with the reason: its amount leaves the committed budget and staff
+   * may retry it (the retry sends under the same Idempotency-Key, so it can never pay twice). With `idleSince`,
+   * only a payout no try has touched since then (the sweeper's guard against a sender that just woke up).
+   */
+  async markFailed(payout: { id: string; studyId: string }, reason: string, options: { from?: Array<'approved' | 'sending'>; idleSince?: Date } = {}): Promise<boolean> {
+    return this.dataSource.transaction(async (manager) => {
+      const [failed] = await queryRows<{ id: string }>(
+        manager,
+        `UPDATE payout SET status = 'failed', failure_reason = $2, updated_at = now()
+         WHERE id = $1 AND status = ANY($3::text[]) AND ($4::timestamptz IS NULL OR updated_at < $4) RETURNING id`,
+        [payout.id, reason, options.from ?? ['sending'], options.idleSince ?? null],
+      );
+      if (failed) {
         await this.audit.record(manager, { chain: payout.studyId, actor: null, action: 'payout.failed', subjectType: 'payout', subjectId: payout.id, data: { reason } });
       }
+      return Boolean(failed);
     });
   }
 
-  /** Marks a payout paid once; called by the sender and by the transfer.created webhook, whichever comes first. */
+  /** The send job's last try failed: the payout ends failed and retryable instead of staying `sending`. */
+  private async giveUp(payoutId: string, lastFailure: string): Promise<void> {
+    const payout = await this.dataSource.getRepository(PayoutEntity).findOne({ where: { id: payoutId } });
+    if (!payout) return;
+    const reason = `All ${JOB_RETRY_LIMIT + 1} tries to send it failed; the payment provider did not take it (last: ${lastFailure}). Retry it to send it again.`;
+    await this.markFailed(payout, reason, { from: ['approved', 'sending'] });
+  }
+
+  /**
+   * Records what a transfer at the provider says about its payout (its metadata names it): the payout is paid by
+   * that transfer, and reversed when the transfer was. Used by webhooks and by the sweeper; applying the same
+   * transfer again changes nothing.
+   */
+  async settleFromTransfer(transfer: Pick<Stripe.Transfer, 'id' | 'reversed' | 'metadata'>, manager?: EntityManager): Promise<void> {
+    const run = async (m: EntityManager) => {
+      const payoutId = transfer.metadata?.payoutId;
+      if (payoutId && UUID.test(payoutId)) await this.markPaid(payoutId, transfer.id, m);
+      if (transfer.reversed) await this.applyReversal(m, transfer.id);
+    };
+    if (manager) await run(manager);
+    else await this.dataSource.transaction(run);
+  }
+
+  /**
+   * Marks a payout paid once; called by the sender, by transfer webhooks and by the sweeper, whichever comes first.
+   * A failed payout is marked paid too: a transfer that exists is the truth, whatever we had concluded without it.
+   */
   private async markPaid(payoutId: string, transferId: string, manager?: EntityManager): Promise<void> {
     const run = async (m: EntityManager) => {
       const [payout] = await queryRows<{ study_id: string; amount_minor: string }>(
         m,
         `UPDATE payout SET status = 'paid', provider_transfer_id = $2, paid_at = now(), failure_reason = NULL, updated_at = now()
-         WHERE id = $1 AND status IN ('approved', 'sending') RETURNING study_id, amount_minor`,
+         WHERE id = $1 AND status IN ('approved', 'sending', 'failed') RETURNING study_id, amount_minor`,
         [payoutId, transferId],
       );
       if (!payout) return;
@@ -352,57 +396,79 @@ export class PayoutsService implements OnModuleInit {
   // ── provider events ───────────────────────────────────────────────────────
 
   /**
-   * Verifies and applies one webhook. A bad or stale signature changes nothing; an event seen before is a no-op;
-   * every handler only moves a record forward, so events arriving out of order settle in the same state.
+   * Verifies and applies one webhook. A bad signature, or one stamped more than five minutes from our clock either
+   * way, changes nothing; so does a malformed event (400 naming the field), an event seen before, and an event older
+   * than the last one applied to the same object (the provider does not promise delivery order, and each event
+   * carries its object's whole state at that moment, so applying a stale one would undo a newer state).
    */
   async handleWebhook(rawBody: Buffer | undefined, signature: string | undefined): Promise<{ received: true; duplicate: boolean }> {
     if (!rawBody || !signature) {
       throw new DomainException('VALIDATION_FAILED', 'A signed webhook body is required.', [{ field: 'Stripe-Signature', message: 'is missing' }]);
     }
-    let event: Stripe.Event;
+    let body: unknown;
     try {
-      event = this.provider.webhooks.constructEvent(rawBody, signature, this.config.stripeWebhookSecret, 300);
+      body = this.provider.webhooks.constructEvent(rawBody, signature, this.config.stripeWebhookSecret, 300);
     } catch (error) {
+      if (error instanceof SyntaxError) {
+        throw new DomainException('VALIDATION_FAILED', 'The webhook body is not JSON.', [{ field: 'body', message: 'must be a JSON event' }]);
+      }
       throw new DomainException('VALIDATION_FAILED', 'The webhook signature does not verify.', [{ field: 'Stripe-Signature', message: (error as Error).message }]);
     }
+    const timeProblem = signatureTimeProblem(signature, Math.floor(Date.now() / 1000));
+    if (timeProblem) {
+      throw new DomainException('VALIDATION_FAILED', 'The webhook signature is stamped outside the accepted window.', [{ field: 'Stripe-Signature', message: timeProblem }]);
+    }
+    const read = readProviderEvent(body);
+    if ('errors' in read) throw new DomainException('VALIDATION_FAILED', 'The webhook event is malformed.', read.errors);
+    const { event } = read;
     return this.dataSource.transaction(async (manager) => {
       const inserted = await queryRows(
         manager,
         // Stored as processed: it is applied in this same transaction, so either both happen or neither.
-        `INSERT INTO provider_event (provider_event_id, type, created_at_provider, payload, processed_at) VALUES ($1, $2, to_timestamp($3), $4, now())
+        `INSERT INTO provider_event (provider_event_id, type, created_at_provider, payload, processed_at, object_id) VALUES ($1, $2, to_timestamp($3), $4, now(), $5)
          ON CONFLICT (provider_event_id) DO NOTHING RETURNING id`,
-        [event.id, event.type, event.created, JSON.stringify(event)],
+        [event.id, event.type, event.created, JSON.stringify(body), event.objectId],
       );
       if (inserted.length === 0) return { received: true as const, duplicate: true };
-      await this.apply(manager, event);
+      if (APPLIED_EVENT_TYPES.has(event.type)) {
+        if (await this.isNewestFor(manager, event)) await this.apply(manager, event);
+        else await manager.query(`UPDATE provider_event SET applied = false WHERE provider_event_id = $1`, [event.id]);
+      }
       return { received: true as const, duplicate: false };
     });
   }
 
-  private async apply(manager: EntityManager, event: Stripe.Event): Promise<void> {
+  /**
+   * Records this event as the newest applied to its object unless a newer one already was. The row stays locked
+   * until the transaction ends, so two events about one object are applied one after the other; a tie (the same
+   * second) is applied in arrival order.
+   */
+  private async isNewestFor(manager: EntityManager, event: ProviderEventEnvelope): Promise<boolean> {
+    const rows = await queryRows(
+      manager,
+      `INSERT INTO provider_object_version (object_id, object_type, last_event_id, last_event_created_at) VALUES ($1, $2, $3, to_timestamp($4))
+       ON CONFLICT (object_id) DO UPDATE SET last_event_id = excluded.last_event_id, last_event_created_at = excluded.last_event_created_at, updated_at = now()
+         WHERE provider_object_version.last_event_created_at <= excluded.last_event_created_at
+       RETURNING object_id`,
+      [event.objectId, String(event.object.object ?? event.type.split('.')[0]), event.id, event.created],
+    );
+    return rows.length > 0;
+  }
+
+  private async apply(manager: EntityManager, event: ProviderEventEnvelope): Promise<void> {
     switch (event.type) {
-      case 'account.updated': {
-        const account = event.data.object as Stripe.Account;
-        await this.updateAccountState(manager, account);
+      case 'account.updated':
+        await this.updateAccountState(manager, event.object as unknown as Stripe.Account);
         return;
-      }
-      case 'transfer.created': {
-        const transfer = event.data.object as Stripe.Transfer;
-        const payoutId = transfer.metadata?.payoutId;
-        if (payoutId) await this.markPaid(payoutId, transfer.id, manager);
+      case 'transfer.created':
+      case 'transfer.updated':
+      case 'transfer.reversed':
+        await this.settleFromTransfer(event.object as unknown as Stripe.Transfer, manager);
         return;
-      }
-      case 'transfer.reversed': {
-        const transfer = event.data.object as Stripe.Transfer;
-        await this.applyReversal(manager, transfer.id);
-        return;
-      }
       case 'payment_intent.succeeded':
-      case 'payment_intent.payment_failed': {
-        const intent = event.data.object as Stripe.PaymentIntent;
-        await this.applyFunding(manager, intent.id, event.type === 'payment_intent.succeeded' ? 'succeeded' : 'failed');
+      case 'payment_intent.payment_failed':
+        await this.applyFunding(manager, event.objectId!, event.type === 'payment_intent.succeeded' ? 'succeeded' : 'failed');
         return;
-      }
       default:
         return;
     }
@@ -449,7 +515,9 @@ export class PayoutsService implements OnModuleInit {
     await this.studies.require(studyId);
     // Every page, however many: the SDK's autoPagingToArray stops at 10,000 items.
     const transfers: Stripe.Transfer[] = [];
-    for await (const transfer of this.provider.transfers.list({ transfer_group: `study_${studyId}`, limit: 100 })) transfers.push(transfer);
+    await this.payments.call('the reconciliation', async (provider) => {
+      for await (const transfer of provider.transfers.list({ transfer_group: `study_${studyId}`, limit: 100 })) transfers.push(transfer);
+    });
     const ledger = await this.dataSource.getRepository(PayoutEntity).find({ where: { studyId } });
     return reconcile(
       ledger.map((p) => ({ id: p.id, status: p.status, amountMinor: p.amountMinor, transferId: p.providerTransferId })),
@@ -462,13 +530,15 @@ export class PayoutsService implements OnModuleInit {
   async createFunding(actor: AuditActor, studyId: string, amountMinor: number): Promise<FundingIntentDto> {
     const study = await this.studies.require(studyId);
     if (study.status === 'closed') throw new DomainException('CONFLICT', 'A closed study takes no more funding.');
-    const intent = await this.provider.paymentIntents.create({
-      amount: amountMinor,
-      currency: study.currency.trim().toLowerCase(),
-      allowed_payment_method_types: ['card'],
-      description: `Funding for ${study.title}`,
-      metadata: { studyId, purpose: 'study-funding' },
-    });
+    const intent = await this.payments.call('the funding', (provider) =>
+      provider.paymentIntents.create({
+        amount: amountMinor,
+        currency: study.currency.trim().toLowerCase(),
+        allowed_payment_method_types: ['card'],
+        description: `Funding for ${study.title}`,
+        metadata: { studyId, purpose: 'study-funding' },
+      }),
+    );
     const funding = await this.dataSource.transaction(async (manager) => {
       const saved = await manager.save(manager.create(StudyFundingEntity, { studyId, paymentIntentId: intent.id, amountMinor, currency: study.currency, status: 'pending', createdBy: actor.id }));
       await this.audit.record(manager, { chain: studyId, actor, action: 'funding.started', subjectType: 'funding', subjectId: saved.id, data: { amountMinor, paymentIntentId: intent.id } });
@@ -488,7 +558,7 @@ export class PayoutsService implements OnModuleInit {
   async refreshFunding(studyId: string, fundingId: string): Promise<BudgetDto> {
     const funding = await this.dataSource.getRepository(StudyFundingEntity).findOne({ where: { id: fundingId, studyId } });
     if (!funding) throw new DomainException('NOT_FOUND', 'No such funding for this study.');
-    const intent = await this.provider.paymentIntents.retrieve(funding.paymentIntentId);
+    const intent = await this.payments.call('checking the funding', (provider) => provider.paymentIntents.retrieve(funding.paymentIntentId));
     if (intent.status === 'succeeded' || intent.status === 'canceled') {
       await this.dataSource.transaction((manager) => this.applyFunding(manager, intent.id, intent.status === 'succeeded' ? 'succeeded' : 'failed'));
     }
@@ -527,9 +597,11 @@ export class PayoutsService implements OnModuleInit {
   async startOnboarding(user: SessionUser): Promise<OnboardingLinkDto> {
     let account = await this.dataSource.getRepository(PayoutAccountEntity).findOne({ where: { userId: user.id } });
     if (!account) {
-      const created = await this.provider.accounts.create(
-        { type: 'express', email: user.email, capabilities: { transfers: { requested: true } }, metadata: { userId: user.id } },
-        { idempotencyKey: `payout-account-${user.id}` },
+      const created = await this.payments.call('setting up your payout account', (provider) =>
+        provider.accounts.create(
+          { type: 'express', email: user.email, capabilities: { transfers: { requested: true } }, metadata: { userId: user.id } },
+          { idempotencyKey: `payout-account-${user.id}` },
+        ),
       );
       await this.dataSource.query(
         `INSERT INTO payout_account (user_id, provider_account_id) VALUES ($1, $2) ON CONFLICT (user_id) DO NOTHING`,
@@ -537,12 +609,15 @@ export class PayoutsService implements OnModuleInit {
       );
       account = (await this.dataSource.getRepository(PayoutAccountEntity).findOne({ where: { userId: user.id } }))!;
     }
-    const link = await this.provider.accountLinks.create({
-      account: account.providerAccountId,
-      refresh_url: new URL('/payouts?onboarding=expired', this.config.portalUrl).toString(),
-      return_url: new URL('/payouts?onboarding=done', this.config.portalUrl).toString(),
-      type: 'account_onboarding',
-    });
+    const providerAccountId = account.providerAccountId;
+    const link = await this.payments.call('opening the payout set-up page', (provider) =>
+      provider.accountLinks.create({
+        account: providerAccountId,
+        refresh_url: new URL('/payouts?onboarding=expired', this.config.portalUrl).toString(),
+        return_url: new URL('/payouts?onboarding=done', this.config.portalUrl).toString(),
+        type: 'account_onboarding',
+      }),
+    );
     return { url: link.url, account: await this.accountStatus(user, false) };
   }
 

@@ -21,6 +21,23 @@ import type { OrderSlot } from './within/order-sequence';
 /** Covariates as stored: answers by key, numbers or categories. */
 export type CovariateRecord = Record<string, number | string | null>;
 
+export interface EnrollmentMismatch {
+  enrollmentId: string;
+  reason: 'differs-from-allocation' | 'no-allocation' | 'allocation-of-another-study';
+  enrollment: { conditionId: string | null; order: string[] | null };
+  allocation: { conditionId: string | null; order: string[] | null } | null;
+  /** What the re-derived sequence gives this enrollment, when it is in the sequence. */
+  expected: { conditionId: string | null; order: string[] | null } | null;
+}
+
+export type AssignmentVerification = Omit<VerificationReport, 'checks'> & {
+  commitmentMatches: boolean;
+  seed: string;
+  commitment: string;
+  checks: Array<VerificationReport['checks'][number] & { enrollmentMatches: boolean }>;
+  enrollmentMismatches: EnrollmentMismatch[];
+};
+
 /** Slots are generated ahead in batches of this many per stratum, deterministically from the seed. */
 const SLOT_BATCH = 64;
 
@@ -428,8 +445,50 @@ export class RandomizationService {
     return { pairs: result.pairs.length, leftoverEnrollmentId: result.leftover?.participantId ?? null };
   }
 
-  /** Re-derives the whole sequence from the revealed seed and compares it, allocation by allocation. */
-  async verify(studyId: string): Promise<VerificationReport & { commitmentMatches: boolean; seed: string; commitment: string }> {
+  /**
+   * Re-derives the whole sequence from the revealed seed and compares it, allocation by allocation; then compares
+   * each enrollment's condition and order (what the dropout watch and exports read) with its allocation.
+   */
+  async verify(studyId: string): Promise<AssignmentVerification> {
+    const report = await this.verifySequence(studyId);
+    const mismatches = await this.enrollmentMismatches(studyId);
+    const expectedBy = new Map(report.checks.map((check) => [check.participantId, check.expected]));
+    for (const mismatch of mismatches) mismatch.expected = expectedBy.get(mismatch.enrollmentId) ?? null;
+    const flagged = new Set(mismatches.map((m) => m.enrollmentId));
+    const checks = report.checks.map((check) => ({ ...check, enrollmentMatches: !flagged.has(check.participantId) }));
+    return { ...report, checks, allMatch: report.allMatch && mismatches.length === 0, enrollmentMismatches: mismatches };
+  }
+
+  /**
+   * Enrollments whose recorded condition or order is not their allocation's: changed after assignment, or set with
+   * no allocation at all. An enrollment whose copy was never written (allocated, not yet marked assigned) is fine.
+   * Reads the enrollment's copy of this domain's decision, nothing else of the enrollment.
+   */
+  private async enrollmentMismatches(studyId: string): Promise<EnrollmentMismatch[]> {
+    const rows: Array<{ id: string; e_condition: string | null; e_order: string[] | null; allocated: boolean; a_condition: string | null; a_order: string[] | null; a_study: string | null }> =
+      await this.dataSource.query(
+        `SELECT e.id, e.condition_id AS e_condition, e.condition_order AS e_order, a.id IS NOT NULL AS allocated,
+                a.condition_id AS a_condition, a.condition_order AS a_order, a.study_id AS a_study
+         FROM enrollment e LEFT JOIN allocation a ON a.enrollment_id = e.id
+         WHERE e.study_id = $1 AND (a.id IS NOT NULL OR e.condition_id IS NOT NULL OR e.condition_order IS NOT NULL)
+         ORDER BY e.id`,
+        [studyId],
+      );
+    const mismatches: EnrollmentMismatch[] = [];
+    for (const row of rows) {
+      const enrollment = { conditionId: row.e_condition, order: row.e_order };
+      const allocation = row.allocated ? { conditionId: row.a_condition, order: row.a_order } : null;
+      const copied = enrollment.conditionId !== null || enrollment.order !== null;
+      let reason: EnrollmentMismatch['reason'] | null = null;
+      if (!allocation) reason = 'no-allocation';
+      else if (row.a_study !== studyId) reason = 'allocation-of-another-study';
+      else if (copied && (enrollment.conditionId !== allocation.conditionId || JSON.stringify(enrollment.order) !== JSON.stringify(allocation.order))) reason = 'differs-from-allocation';
+      if (reason) mismatches.push({ enrollmentId: row.id, reason, enrollment, allocation, expected: null });
+    }
+    return mismatches;
+  }
+
+  private async verifySequence(studyId: string): Promise<VerificationReport & { commitmentMatches: boolean; seed: string; commitment: string }> {
     const scheme = await this.schemeOf(studyId);
     if (!scheme?.commitment || !scheme.sealedParameters) throw new DomainException('CONFLICT', 'This study has no sealed sequence yet.');
     if (!scheme.seedRevealedAt) {

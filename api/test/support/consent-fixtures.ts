@@ -18,8 +18,12 @@ export const FULL_CONSENT_VALUES = {
   futureUseDeidentified: false,
 };
 
-/** A minimal PDF that starts like one: enough for the magic-byte check. */
-export const TINY_PDF = Buffer.from('%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n', 'latin1');
+/** A minimal one-page PDF: the approval-letter check loads it as a PDF. */
+export const TINY_PDF = Buffer.from(
+  '%PDF-1.4\n1 0 obj<</Type/Catalog/Pages 2 0 R>>endobj\n2 0 obj<</Type/Pages/Kids[3 0 R]/Count 1>>endobj\n' +
+    '3 0 obj<</Type/Page/Parent 2 0 R/MediaBox[0 0 612 792]>>endobj\ntrailer<</Root 1 0 R>>\n%%EOF\n',
+  'latin1',
+);
 
 export async function activeConsentVersion(browser: Browser, studyId: string, reference = 'HLREB-2026-031') {
   const draft = await expectStatus(

@@ -17,7 +17,7 @@ export interface TestApp {
 /** Boots the real application in-process against the test database; `env` overrides configuration for this app only. */
 export async function startTestApp(overrides: Record<string, string> = {}): Promise<TestApp> {
   // Reminders are swept only when a test asks, so no reminder e-mail lands in another test's mailbox.
-  const env = { REMINDER_SWEEP_CRON: '', ...overrides };
+  const env = { REMINDER_SWEEP_CRON: '', AUDIT_RECEIPT_CRON: '', ...overrides };
   const saved: Record<string, string | undefined> = {};
   for (const [key, value] of Object.entries(env)) {
     saved[key] = process.env[key];

@@ -159,6 +159,7 @@ export async function startPaymentsFake(options: PaymentsFakeOptions & { host: s
       });
       // After the server has stopped, so no request changes the world behind the last write.
       saver?.close();
+      await saver?.idle();
     },
   };
 }

@@ -138,6 +138,8 @@ function runRoute(world: ProviderWorld, route: ProviderRoute) {
       if (storable) world.idempotency.complete(scope, idempotencyKey, { status, body });
       else world.idempotency.abandon(scope, idempotencyKey);
     }
+    // A change is acknowledged only once it would survive a crash (with a state file; at once in memory).
+    if (req.method === 'POST') await world.durable();
     if (world.faults.takeResponseDrop()) {
       // The work is done (and saved under the idempotency key) but the caller never hears back.
       req.socket.destroy();

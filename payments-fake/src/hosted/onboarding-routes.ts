@@ -79,7 +79,7 @@ export function onboardingRouter(world: ProviderWorld): express.Router {
   router.post(
     '/onboarding/sessions/:sessionId',
     express.urlencoded({ extended: false, limit: '16kb' }),
-    (req: Request, res: Response) => {
+    async (req: Request, res: Response) => {
       const session = world.onboardingSessions.get(req.params.sessionId as string);
       if (!session) {
         sendHtml(res, 404, goneMessage());
@@ -113,6 +113,8 @@ export function onboardingRouter(world: ProviderWorld): express.Router {
         return;
       }
       session.finished = true;
+      // The person is sent back only once the finished onboarding would survive a crash.
+      await world.durable();
       res.redirect(303, session.returnUrl);
     },
   );

@@ -67,6 +67,7 @@ export class ProviderWorld {
   /** Cancels the one timer waiting for the earliest pending funds. */
   private cancelFundsRelease: (() => void) | undefined;
   private readonly changeListeners = new Set<(change: WorldChange) => void>();
+  private durableStore: (() => Promise<void>) | undefined;
   readonly platformCountry = 'US';
   readonly platformCurrency = 'usd';
 
@@ -94,6 +95,8 @@ export class ProviderWorld {
       faults: () => this.faults.webhook,
       onDelivered: (eventId) => this.events.markDelivered(eventId),
       onAttempt: () => this.noteChange(),
+      // An event is only told about once what it describes is on disk.
+      beforeDelivery: () => this.durable(),
     });
     this.events = new EventLog(this.clock, DEFAULT_API_VERSION, (event) => this.dispatcher.enqueue(event));
   }
@@ -117,6 +120,16 @@ export class ProviderWorld {
   /** Called after anything that may have changed the world (a request, a timer, a delivery). */
   noteChange(): void {
     for (const listener of this.changeListeners) listener('change');
+  }
+
+  /** Who makes the world durable (the state saver); none keeps it in memory only. */
+  useDurableStore(store: (() => Promise<void>) | undefined): void {
+    this.durableStore = store;
+  }
+
+  /** Resolves once what the world holds now would survive a crash; at once when it lives in memory only. */
+  durable(): Promise<void> {
+    return this.durableStore ? this.durableStore() : Promise.resolve();
   }
 
   emit(event: NewEvent): void {

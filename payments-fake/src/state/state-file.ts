@@ -3,6 +3,7 @@
 // crash mid-write leaves the previous snapshot, never half of one.
 
 import { closeSync, constants, fsyncSync, openSync, readFileSync, renameSync, rmSync, statSync, writeFileSync, accessSync } from 'node:fs';
+import { open, rm } from 'node:fs/promises';
 import path from 'node:path';
 import { randomToken } from '../ids/object-id';
 import { readWorldSnapshot, SnapshotError } from './snapshot-reader';
@@ -62,10 +63,14 @@ export function readStateFile(file: string): WorldSnapshot | undefined {
   }
 }
 
+function temporaryNameFor(file: string): string {
+  return path.join(path.dirname(file), `.${path.basename(file)}.${process.pid}.${randomToken(8)}.tmp`);
+}
+
 /** Replaces `file` with `text` in one step: temporary file, fsync, rename, then fsync of the folder. */
 export function writeFileAtomically(file: string, text: string): void {
   const folder = path.dirname(file);
-  const temporary = path.join(folder, `.${path.basename(file)}.${process.pid}.${randomToken(8)}.tmp`);
+  const temporary = temporaryNameFor(file);
   try {
     const fd = openSync(temporary, 'w', 0o600);
     try {
@@ -79,8 +84,12 @@ export function writeFileAtomically(file: string, text: string): void {
     rmSync(temporary, { force: true });
     throw new StateFileError(file, `could not be written (${reason(error)})`);
   }
-  // Makes the rename itself durable; some systems cannot open a folder for this, and then the
-  // rename is still atomic, only perhaps not yet on disk.
+  syncFolder(folder);
+}
+
+// Makes a rename durable; some systems cannot open a folder for this, and then the rename is still
+// atomic, only perhaps not yet on disk.
+function syncFolder(folder: string): void {
   try {
     const folderFd = openSync(folder, 'r');
     try {
@@ -91,4 +100,38 @@ export function writeFileAtomically(file: string, text: string): void {
   } catch {
     // see above
   }
+}
+
+/**
+ * The same replacement in two halves, so the slow part (writing and flushing the temporary file)
+ * does not hold up the event loop: `prepare` resolves once the text is on disk beside `file`, and
+ * `commit` then renames it over `file` (synchronously, so commits happen in the order they are
+ * called) and flushes the folder; `discard` drops it instead.
+ */
+export async function prepareFileReplacement(file: string, text: string): Promise<{ commit(): void; discard(): void }> {
+  const temporary = temporaryNameFor(file);
+  try {
+    const handle = await open(temporary, 'w', 0o600);
+    try {
+      await handle.writeFile(text, 'utf8');
+      await handle.sync();
+    } finally {
+      await handle.close();
+    }
+  } catch (error) {
+    await rm(temporary, { force: true });
+    throw new StateFileError(file, `could not be written (${reason(error)})`);
+  }
+  return {
+    commit: () => {
+      try {
+        renameSync(temporary, file);
+      } catch (error) {
+        rmSync(temporary, { force: true });
+        throw new StateFileError(file, `could not be written (${reason(error)})`);
+      }
+      syncFolder(path.dirname(file));
+    },
+    discard: () => rmSync(temporary, { force: true }),
+  };
 }

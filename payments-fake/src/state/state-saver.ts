@@ -4,10 +4,16 @@
 // later changes, so a steady stream of requests cannot starve the file — and skips the write when
 // the content is the same as last time (most GETs change nothing). A reset is written at once,
 // so the file is empty by the time POST /_control/reset answers; close() writes a last time.
+//
+// What the stand-in acknowledges must survive a crash (kill -9), so a provider call that changes
+// something waits for `flush()` before it answers, and a webhook waits before it goes out. Calls
+// that finish while a write is on its way share the next one (group commit): one snapshot, one
+// fsync and one rename cover them all. Every write is numbered when it takes its snapshot and a
+// write never replaces a newer one, so the file only ever moves forward.
 
 import type { ProviderWorld } from './provider-world';
-import { writeFileAtomically } from './state-file';
-import { snapshotText, worldState } from './world-snapshot';
+import { prepareFileReplacement, writeFileAtomically } from './state-file';
+import { snapshotTextOf, worldState } from './world-snapshot';
 
 export const SAVE_DELAY_MS = 250;
 
@@ -17,6 +23,12 @@ export class StateSaver {
   private lastSaved: string;
   private closed = false;
   private readonly stopListening: () => void;
+  /** Number of the last snapshot taken for writing, and of the newest one on disk. */
+  private taken = 0;
+  private committed = 0;
+  /** The durable write on its way, and the one that will start after it (which new callers join). */
+  private running: Promise<void> = Promise.resolve();
+  private queued: Promise<void> | undefined;
 
   constructor(
     private readonly world: ProviderWorld,
@@ -25,20 +37,51 @@ export class StateSaver {
   ) {
     this.lastSaved = JSON.stringify(worldState(world));
     this.stopListening = world.onChange((change) => (change === 'reset' ? this.saveNow() : this.scheduleSave()));
+    world.useDurableStore(() => this.flush());
+  }
+
+  /** Resolves once everything the world holds at the time of the call is on disk. */
+  flush(): Promise<void> {
+    if (this.closed) return Promise.resolve();
+    if (this.queued) return this.queued;
+    const next = this.running.then(() => {
+      this.queued = undefined;
+      return this.writeDurably();
+    });
+    this.queued = next;
+    this.running = next.catch(() => undefined);
+    return next;
+  }
+
+  private async writeDurably(): Promise<void> {
+    const number = ++this.taken;
+    const state = worldState(this.world);
+    const compact = JSON.stringify(state);
+    if (compact === this.lastSaved) return;
+    const replacement = await prepareFileReplacement(this.file, snapshotTextOf(compact, new Date()));
+    // A newer snapshot (a timer's write, close) reached the disk meanwhile and holds all of this one.
+    if (this.committed > number || this.closed) {
+      replacement.discard();
+      return;
+    }
+    replacement.commit();
+    this.committed = number;
+    this.lastSaved = compact;
   }
 
   private scheduleSave(): void {
     if (this.closed || this.timer) return;
     this.timer = setTimeout(() => {
       this.timer = undefined;
-      try {
-        this.write(false);
-      } catch (error) {
-        // The stand-in keeps serving from memory; the next change tries again.
-        console.error(`payments-fake: ${error instanceof Error ? error.message : String(error)}`);
-      }
+      // The stand-in keeps serving from memory; the next change tries again.
+      this.flush().catch((error: unknown) => console.error(`payments-fake: ${error instanceof Error ? error.message : String(error)}`));
     }, this.delayMs);
     this.timer.unref();
+  }
+
+  /** Resolves once no write is on its way (starts none). */
+  idle(): Promise<void> {
+    return this.running;
   }
 
   private cancelTimer(): void {
@@ -53,10 +96,12 @@ export class StateSaver {
   }
 
   private write(always: boolean): void {
+    const number = ++this.taken;
     const state = worldState(this.world);
     const compact = JSON.stringify(state);
     if (!always && compact === this.lastSaved) return;
-    writeFileAtomically(this.file, snapshotText(state, new Date()));
+    writeFileAtomically(this.file, snapshotTextOf(compact, new Date()));
+    this.committed = number;
     this.lastSaved = compact;
   }
 
@@ -66,6 +111,7 @@ export class StateSaver {
     this.closed = true;
     this.cancelTimer();
     this.stopListening();
+    this.world.useDurableStore(undefined);
     this.write(true);
   }
 }

@@ -70,8 +70,17 @@ export function worldState(world: ProviderWorld): WorldState {
 
 /** The file's text: the header first, so a reader sees format and version at the top. */
 export function snapshotText(state: WorldState, savedAt: Date): string {
-  const snapshot: WorldSnapshot = { format: STATE_FORMAT, version: STATE_VERSION, savedAt: savedAt.toISOString(), ...state };
-  return `${JSON.stringify(snapshot, null, 2)}\n`;
+  return snapshotTextOf(JSON.stringify(state), savedAt);
+}
+
+/**
+ * The same from `JSON.stringify(state)`, which the saver already has for its did-anything-change
+ * check: one serialisation per write, and compact, because the whole world is written before each
+ * acknowledgement (format it with `jq .` to read it).
+ */
+export function snapshotTextOf(compactState: string, savedAt: Date): string {
+  const header = JSON.stringify({ format: STATE_FORMAT, version: STATE_VERSION, savedAt: savedAt.toISOString() });
+  return compactState === '{}' ? `${header}\n` : `${header.slice(0, -1)},${compactState.slice(1)}\n`;
 }
 
 /** Replaces the world's content with a saved state. Arms no timers: see resumeWorld. */

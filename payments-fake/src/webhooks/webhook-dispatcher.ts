@@ -24,6 +24,8 @@ export interface WebhookDispatcherOptions {
   onDelivered: (eventId: string) => void;
   /** Told after each attempt is logged (delivered or not). */
   onAttempt?: () => void;
+  /** Awaited before each attempt goes out (the world: until its state is on disk). */
+  beforeDelivery?: () => Promise<void>;
 }
 
 /** What the dispatcher remembers beyond its queue: the attempt log and the events already received. */
@@ -107,26 +109,34 @@ export class WebhookDispatcher {
     const url = this.options.endpoint.url;
     if (!url) return;
     const { event } = delivery;
-    // The payload shows the event as it is at sending time, as the provider's deliveries do.
-    const rawBody = JSON.stringify(event, null, 2);
-    const timestamp = Math.floor(Date.now() / 1000);
     let status: number | null = null;
     let error: string | null = null;
     try {
-      const response = await fetch(url, {
-        method: 'POST',
-        headers: {
-          'Content-Type': 'application/json; charset=utf-8',
-          'User-Agent': WEBHOOK_USER_AGENT,
-          [SIGNATURE_HEADER]: signatureHeaderValue(rawBody, this.options.endpoint.secret, timestamp),
-        },
-        body: rawBody,
-        signal: AbortSignal.timeout(this.options.timeoutMs),
-      });
-      status = response.status;
-      await response.arrayBuffer().catch(() => undefined);
+      await this.options.beforeDelivery?.();
     } catch (failure) {
-      error = failure instanceof Error ? `${failure.name}: ${failure.message}` : String(failure);
+      error = `not sent: ${failure instanceof Error ? failure.message : String(failure)}`;
+    }
+    if (generation !== this.generation) return;
+    // The payload shows the event as it is at sending time, as the provider's deliveries do.
+    const rawBody = JSON.stringify(event, null, 2);
+    const timestamp = Math.floor(Date.now() / 1000);
+    if (error === null) {
+      try {
+        const response = await fetch(url, {
+          method: 'POST',
+          headers: {
+            'Content-Type': 'application/json; charset=utf-8',
+            'User-Agent': WEBHOOK_USER_AGENT,
+            [SIGNATURE_HEADER]: signatureHeaderValue(rawBody, this.options.endpoint.secret, timestamp),
+          },
+          body: rawBody,
+          signal: AbortSignal.timeout(this.options.timeoutMs),
+        });
+        status = response.status;
+        await response.arrayBuffer().catch(() => undefined);
+      } catch (failure) {
+        error = failure instanceof Error ? `${failure.name}: ${failure.message}` : String(failure);
+      }
     }
     if (generation !== this.generation) return; // reset while the request was out
     this.attempts.push({

@@ -10,6 +10,8 @@ export const e2eEnv = {
   apiUrl: (process.env.EVENHAND_API_ORIGIN ?? 'http://127.0.0.1:3100').replace(/\/+$/, ''),
   /** The payment service stand-in, where a journey confirms a card payment as the provider's browser script would. */
   paymentsUrl: (process.env.PAYMENTS_FAKE_URL ?? 'http://127.0.0.1:3200').replace(/\/+$/, ''),
+  /** The demo's stand-in for a lab's own task tool, where the seeded return-link steps send participants. */
+  demoTaskUrl: (process.env.DEMO_TASK_URL ?? 'http://127.0.0.1:3300').replace(/\/+$/, ''),
   paymentsSecretKey: process.env.STRIPE_SECRET_KEY ?? 'sk_test_evenhand_local',
   screenshotDir: process.env.SCREENSHOT_DIR ?? `${repoRoot}.local/screenshots/portal`,
   chromiumPath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',

@@ -24,6 +24,11 @@ export const routes: RouteObject[] = [
         lazy: async () => ({ Component: (await import('./routes/study')).StudyRoute }),
       },
       {
+        // Public: the lab's task sends people back here through the api's return address, signed in or not.
+        path: 'return',
+        lazy: async () => ({ Component: (await import('./routes/task-return')).TaskReturnRoute }),
+      },
+      {
         lazy: async () => ({ Component: (await import('./routes/signed-in-layout')).SignedInLayout }),
         children: [
           {

@@ -29,6 +29,38 @@ export interface paths {
         };
         get: operations["AuditController_verify"];
         put?: never;
+        post: operations["AuditController_verifyAgainst"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/audit/receipts": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["AuditController_listReceipts"];
+        put?: never;
+        post: operations["AuditController_issueReceipt"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/audit/receipts/{receiptId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["AuditController_getReceipt"];
+        put?: never;
         post?: never;
         delete?: never;
         options?: never;
@@ -334,6 +366,38 @@ export interface paths {
         get: operations["StudiesController_members"];
         put?: never;
         post: operations["StudiesController_addMember"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/members/{userId}": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post?: never;
+        delete: operations["StudiesController_removeMember"];
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/staff/{userId}/studies": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StaffStudiesController_list"];
+        put?: never;
+        post?: never;
         delete?: never;
         options?: never;
         head?: never;
@@ -1305,11 +1369,71 @@ export interface components {
             intact: boolean;
             firstBreak: components["schemas"]["ChainBreakDto"] | null;
         };
-        AuditVerificationDto: {
+        ReceiptCheckDto: {
+            id: string | null;
+            number: number | null;
+            issuedAt: string | null;
+            /** @enum {string} */
+            source: "latest" | "given";
+            valid: boolean;
+        };
+        AuditFindingDto: {
+            /** @description null when the finding is about the receipt */
+            chain: string | null;
+            sequence: number | null;
+            reason: string;
+            message: string;
+        };
+        AuditReportDto: {
             intact: boolean;
             /** Format: date-time */
             checkedAt: string;
             chains: components["schemas"]["ChainVerdictDto"][];
+            receipt: components["schemas"]["ReceiptCheckDto"] | null;
+            findings: components["schemas"]["AuditFindingDto"][];
+        };
+        VerifyAgainstReceiptDto: {
+            /** @description An audit receipt exactly as downloaded or e-mailed */
+            receipt: {
+                [key: string]: unknown;
+            };
+        };
+        ReceiptLinkDto: {
+            id: string;
+            mac: string;
+        };
+        ChainHeadDto: {
+            chain: string;
+            sequence: number;
+            hash: string;
+            /** Format: date-time */
+            at: string;
+        };
+        AuditReceiptDto: {
+            /** @example evenhand-audit-receipt/1 */
+            format: string;
+            id: string;
+            number: number;
+            /** Format: date-time */
+            issuedAt: string;
+            /** @enum {string} */
+            reason: "scheduled" | "on-demand";
+            previous: components["schemas"]["ReceiptLinkDto"] | null;
+            chains: components["schemas"]["ChainHeadDto"][];
+            keyId: string;
+            /** @description hex HMAC-SHA-256 over the canonical JSON of every other field */
+            mac: string;
+        };
+        AuditReceiptSummaryDto: {
+            id: string;
+            number: number;
+            /** Format: date-time */
+            issuedAt: string;
+            reason: string;
+            chains: number;
+        };
+        AuditReceiptListDto: {
+            items: components["schemas"]["AuditReceiptSummaryDto"][];
         };
         StaffUserDto: {
             /** Format: uuid */
@@ -1607,6 +1731,17 @@ export interface components {
             /** @enum {string} */
             role: "coordinator" | "researcher" | "auditor";
         };
+        StaffStudyDto: {
+            /** Format: uuid */
+            studyId: string;
+            title: string;
+            slug: string;
+            /** @enum {string} */
+            role: "coordinator" | "researcher" | "auditor" | "admin";
+        };
+        StaffStudyListDto: {
+            items: components["schemas"]["StaffStudyDto"][];
+        };
         PayOverrideDto: {
             /** Format: uuid */
             conditionId: string;
@@ -1848,6 +1983,22 @@ export interface components {
                 [key: string]: unknown;
             };
             matches: boolean;
+            /** @description whether the enrollment's recorded condition and order equal its allocation */
+            enrollmentMatches: boolean;
+        };
+        EnrollmentMismatchDto: {
+            enrollmentId: string;
+            /** @enum {string} */
+            reason: "differs-from-allocation" | "no-allocation" | "allocation-of-another-study";
+            enrollment: {
+                [key: string]: unknown;
+            };
+            allocation: {
+                [key: string]: unknown;
+            } | null;
+            expected: {
+                [key: string]: unknown;
+            } | null;
         };
         VerificationDto: {
             allMatch: boolean;
@@ -1857,6 +2008,8 @@ export interface components {
             seed: string;
             commitment: string;
             checks: components["schemas"]["AllocationCheckDto"][];
+            /** @description enrollments whose recorded condition differs from their allocation */
+            enrollmentMismatches: components["schemas"]["EnrollmentMismatchDto"][];
         };
         ConsentTemplateDto: {
             id: string;
@@ -2879,7 +3032,89 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["AuditVerificationDto"];
+                    "application/json": components["schemas"]["AuditReportDto"];
+                };
+            };
+        };
+    };
+    AuditController_verifyAgainst: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["VerifyAgainstReceiptDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AuditReportDto"];
+                };
+            };
+        };
+    };
+    AuditController_listReceipts: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AuditReceiptListDto"];
+                };
+            };
+        };
+    };
+    AuditController_issueReceipt: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            201: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AuditReceiptDto"];
+                };
+            };
+        };
+    };
+    AuditController_getReceipt: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                receiptId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AuditReceiptDto"];
                 };
             };
         };
@@ -3459,12 +3694,57 @@ export interface operations {
             };
         };
         responses: {
+            /** @description Admins only; the membership role must match the person's staff role */
             201: {
                 headers: {
                     [name: string]: unknown;
                 };
                 content: {
                     "application/json": components["schemas"]["MemberListDto"];
+                };
+            };
+        };
+    };
+    StudiesController_removeMember: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                userId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Admins only */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["MemberListDto"];
+                };
+            };
+        };
+    };
+    StaffStudiesController_list: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                userId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StaffStudyListDto"];
                 };
             };
         };

@@ -50,6 +50,9 @@ export const screeningQuestions: MyEnrollment['screening']['questions'] = [
   },
 ];
 
+/** A step before assignment: no window yet, nothing to do. */
+const unassignedStep = { status: 'locked', completedAt: null, hasTask: false, opensAt: null, dueAt: null } as const;
+
 export function enrollment(overrides: Partial<MyEnrollment> = {}): MyEnrollment {
   return {
     id: 'e5a1c9d2-0b3f-4e6a-8c7d-2f1e0d9c8b7a',
@@ -64,9 +67,9 @@ export function enrollment(overrides: Partial<MyEnrollment> = {}): MyEnrollment 
     consent: { activeVersionId: versionId, signedVersionId: null, needsSignature: true, signedAt: null },
     assignment: null,
     steps: [
-      { id: 's1', position: 1, title: 'First session', description: 'Three routes on screen.', payMinor: 1250, status: 'locked', completedAt: null, hasCompletionCode: true },
-      { id: 's2', position: 2, title: 'Second session', description: 'Three more routes.', payMinor: 1500, status: 'locked', completedAt: null, hasCompletionCode: true },
-      { id: 's3', position: 3, title: 'Follow-up questions', description: 'Ten minutes, online.', payMinor: 1000, status: 'locked', completedAt: null, hasCompletionCode: false },
+      { ...unassignedStep, id: 's1', position: 1, title: 'First session', description: 'Three routes on screen.', payMinor: 1250, hasCompletionCode: true, verification: 'shared-code' },
+      { ...unassignedStep, id: 's2', position: 2, title: 'Second session', description: 'Three more routes.', payMinor: 1500, hasCompletionCode: true, verification: 'shared-code' },
+      { ...unassignedStep, id: 's3', position: 3, title: 'Follow-up questions', description: 'Ten minutes, online.', payMinor: 1000, hasCompletionCode: false, verification: 'staff' },
     ],
     earned: { earnedMinor: 0, paidMinor: 0, stillToBePaidMinor: 0 },
     withdrewAt: null,
@@ -109,16 +112,23 @@ export const assignment = {
   instructions: 'Before each route you will hear a short spoken hint.\n\nUse headphones if you can.',
 };
 
-/** An enrollment right after signing: assigned, the first step open. */
+/** When the demo participant signed; windows below count from here. */
+export const assignedAt = '2026-02-03T14:05:00.000Z';
+
+/** An enrollment right after signing: assigned, the first step open (due in a week), the others waiting their turn. */
 export function signedEnrollment(overrides: Partial<MyEnrollment> = {}): MyEnrollment {
   const base = enrollment();
   return enrollment({
     status: 'assigned',
     next: 'steps',
     screening: { ...base.screening, answers: { adult: true, sense_of_direction: 5, commute: 'Walking' } },
-    consent: { activeVersionId: versionId, signedVersionId: versionId, needsSignature: false, signedAt: '2026-02-03T14:05:00.000Z' },
+    consent: { activeVersionId: versionId, signedVersionId: versionId, needsSignature: false, signedAt: assignedAt },
     assignment,
-    steps: base.steps.map((step, index) => ({ ...step, status: index === 0 ? 'open' : 'locked' })),
+    steps: base.steps.map((step, index) =>
+      index === 0
+        ? { ...step, status: 'open', opensAt: assignedAt, dueAt: '2026-02-10T14:05:00.000Z' }
+        : { ...step, status: 'waiting' },
+    ),
     ...overrides,
   });
 }

@@ -5,7 +5,8 @@ export const LAB_CHAIN = 'lab';
 
 /**
  * One link of an append-only, hash-chained log. Each study has its own chain, lab-wide events
- * share the `lab` chain; `hash` = SHA-256(previous hash + canonical event), see audit-hash.ts.
+ * share the `lab` chain; `hash` = HMAC-SHA-256 under the key `keyId` over every other column (NULL keyId: an event
+ * written before keys, hashed with plain SHA-256 and covered by a keyed seal), see audit-hash.ts.
  */
 @Entity({ name: 'audit_event' })
 @Index('audit_event_chain_sequence_key', ['chain', 'sequence'], { unique: true })
@@ -46,4 +47,7 @@ export class AuditEventEntity {
 
   @Column({ type: 'text' })
   hash: string;
+
+  @Column({ name: 'key_id', type: 'text', nullable: true })
+  keyId: string | null;
 }

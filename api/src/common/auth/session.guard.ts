@@ -2,7 +2,7 @@ import { CanActivate, ExecutionContext, Injectable } from '@nestjs/common';
 import { Reflector } from '@nestjs/core';
 import { JwtService } from '@nestjs/jwt';
 import type { Request } from 'express';
-import { UsersService } from '../../users/users.service';
+import { AuthService } from '../../auth/auth.service';
 import type { UserRole } from '../../users/entities/user.entity';
 import { DomainException } from '../errors/domain.exception';
 import { IS_PUBLIC, OPTIONAL_SESSION, ROLES } from './auth.decorators';
@@ -10,14 +10,17 @@ import { ACCESS_COOKIE, SessionUser } from './session-user';
 
 /**
  * The global guard: every route needs a valid session unless marked @Public(), and @Roles() narrows it.
- * The user is re-read on every request so a deactivation takes effect at once.
+ * The user and the token's session are re-read on every request (one indexed lookup), so a deactivation or a
+ * sign-out takes effect at once rather than when the access token expires.
  */
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
+
 @Injectable()
 export class SessionGuard implements CanActivate {
   constructor(
     private readonly reflector: Reflector,
     private readonly jwt: JwtService,
-    private readonly users: UsersService,
+    private readonly auth: AuthService,
   ) {}
 
   async canActivate(context: ExecutionContext): Promise<boolean> {
@@ -30,15 +33,10 @@ export class SessionGuard implements CanActivate {
 
     const token: unknown = request.cookies?.[ACCESS_COOKIE];
     if (typeof token !== 'string' || token === '') throw new DomainException('UNAUTHENTICATED', 'Please sign in.');
-    let subject: string;
-    try {
-      subject = (await this.jwt.verifyAsync<{ sub: string }>(token)).sub;
-    } catch {
-      throw new DomainException('UNAUTHENTICATED', 'Your session has expired. Please sign in again.');
-    }
-    const user = await this.users.findActiveById(subject);
+    const user = await this.sessionUser(token);
+    if (user === 'expired') throw new DomainException('UNAUTHENTICATED', 'Your session has expired. Please sign in again.');
     if (!user) throw new DomainException('UNAUTHENTICATED', 'Please sign in.');
-    request.user = { id: user.id, email: user.email, name: user.name, role: user.role };
+    request.user = user;
 
     const roles = this.reflector.getAllAndOverride<UserRole[] | undefined>(ROLES, targets);
     if (roles && !roles.includes(user.role)) {
@@ -51,11 +49,20 @@ export class SessionGuard implements CanActivate {
   private async readOptionalSession(request: Request & { user?: SessionUser }): Promise<void> {
     const token: unknown = request.cookies?.[ACCESS_COOKIE];
     if (typeof token !== 'string' || token === '') return;
+    const user = await this.sessionUser(token);
+    if (user && user !== 'expired') request.user = user;
+  }
+
+  /** The live session's user; 'expired' for a token that no longer verifies, null for an ended session. */
+  private async sessionUser(token: string): Promise<SessionUser | 'expired' | null> {
+    let claims: { sub?: unknown; sid?: unknown };
     try {
-      const user = await this.users.findActiveById((await this.jwt.verifyAsync<{ sub: string }>(token)).sub);
-      if (user) request.user = { id: user.id, email: user.email, name: user.name, role: user.role };
+      claims = await this.jwt.verifyAsync<{ sub?: unknown; sid?: unknown }>(token);
     } catch {
-      // An expired or altered session counts as none.
+      return 'expired';
     }
+    // Tokens minted before sessions were named carry no sid; they end here and the apps refresh.
+    if (typeof claims.sub !== 'string' || typeof claims.sid !== 'string' || !UUID.test(claims.sub) || !UUID.test(claims.sid)) return null;
+    return this.auth.activeSessionUser(claims.sub, claims.sid);
   }
 }

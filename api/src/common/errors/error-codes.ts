@@ -14,6 +14,8 @@ export const HTTP_STATUS_BY_CODE = {
   RATE_LIMITED: 429,
   INTERNAL: 500,
   UNAVAILABLE: 503,
+  /** The payment provider does not answer or fails; nothing was changed, try again shortly. */
+  PROVIDER_UNAVAILABLE: 503,
 } as const;
 
 export type ErrorCode = keyof typeof HTTP_STATUS_BY_CODE;

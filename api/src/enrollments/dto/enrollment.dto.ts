@@ -4,6 +4,7 @@ import { ArrayMaxSize, IsArray, IsBoolean, IsIn, IsInt, IsObject, IsOptional, Is
 import { ScreeningQuestionDto } from '../../studies/dto/screening.dto';
 import { STEP_VERIFICATIONS, type CompletionVerifiedBy, type StepVerification } from '../../steps/step-window';
 import { ENROLLMENT_STATUSES, EnrollmentStatus } from '../entities/enrollment.entity';
+import { MAX_PAGE } from '../../common/http/paging';
 
 export const STEP_STATUSES = ['done', 'open', 'overdue', 'upcoming', 'waiting', 'locked'] as const;
 export type StepStatus = (typeof STEP_STATUSES)[number];
@@ -230,7 +231,7 @@ export class RosterQueryDto {
   @Transform(({ value }) => value === true || value === 'true')
   @IsBoolean()
   needsReconsent?: boolean;
-  @ApiPropertyOptional({ default: 1 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) page: number = 1;
+  @ApiPropertyOptional({ default: 1 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(MAX_PAGE) page: number = 1;
   @ApiPropertyOptional({ default: 25 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(200) pageSize: number = 25;
 }
 

@@ -2,6 +2,7 @@ import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
 import { ArrayMaxSize, ArrayMinSize, IsArray, IsIn, IsInt, IsOptional, IsUUID, Max, Min } from 'class-validator';
 import { PAYOUT_STATUSES, PayoutStatus } from '../entities/payout.entity';
+import { MAX_PAGE } from '../../common/http/paging';
 
 export class PayoutDto {
   @ApiProperty() id: string;
@@ -34,7 +35,7 @@ export class PayoutPageDto {
 export class PayoutQueryDto {
   @ApiPropertyOptional({ enum: PAYOUT_STATUSES }) @IsOptional() @IsIn(PAYOUT_STATUSES) status?: PayoutStatus;
   @ApiPropertyOptional() @IsOptional() @IsUUID('4') conditionId?: string;
-  @ApiPropertyOptional({ default: 1 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) page: number = 1;
+  @ApiPropertyOptional({ default: 1 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(MAX_PAGE) page: number = 1;
   @ApiPropertyOptional({ default: 50 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(500) pageSize: number = 50;
 }
 

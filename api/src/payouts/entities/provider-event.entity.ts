@@ -11,4 +11,8 @@ export class ProviderEventEntity {
   @Column({ type: 'jsonb' }) payload: Record<string, unknown>;
   @Column({ name: 'received_at', type: 'timestamptz', default: () => 'now()' }) receivedAt: Date;
   @Column({ name: 'processed_at', type: 'timestamptz', nullable: true }) processedAt: Date | null;
+  /** The id of the object the event is about, when it has one. */
+  @Column({ name: 'object_id', type: 'text', nullable: true }) objectId: string | null;
+  /** False when a newer event about the same object had already been applied, so this one changed nothing. */
+  @Column({ type: 'boolean', default: true }) applied: boolean;
 }

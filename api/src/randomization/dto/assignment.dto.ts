@@ -145,6 +145,15 @@ export class AllocationCheckDto {
   @ApiProperty({ type: 'object', additionalProperties: true }) expected: Record<string, unknown>;
   @ApiProperty({ type: 'object', additionalProperties: true }) recorded: Record<string, unknown>;
   @ApiProperty() matches: boolean;
+  @ApiProperty({ description: "whether the enrollment's recorded condition and order equal its allocation" }) enrollmentMatches: boolean;
+}
+
+export class EnrollmentMismatchDto {
+  @ApiProperty() enrollmentId: string;
+  @ApiProperty({ enum: ['differs-from-allocation', 'no-allocation', 'allocation-of-another-study'] }) reason: string;
+  @ApiProperty({ type: 'object', additionalProperties: true }) enrollment: Record<string, unknown>;
+  @ApiProperty({ type: 'object', additionalProperties: true, nullable: true }) allocation: Record<string, unknown> | null;
+  @ApiProperty({ type: 'object', additionalProperties: true, nullable: true }) expected: Record<string, unknown> | null;
 }
 
 export class VerificationDto {
@@ -155,4 +164,6 @@ export class VerificationDto {
   @ApiProperty() seed: string;
   @ApiProperty() commitment: string;
   @ApiProperty({ type: [AllocationCheckDto] }) checks: AllocationCheckDto[];
+  @ApiProperty({ type: [EnrollmentMismatchDto], description: 'enrollments whose recorded condition differs from their allocation' })
+  enrollmentMismatches: EnrollmentMismatchDto[];
 }

@@ -2,6 +2,7 @@ import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform, Type } from 'class-transformer';
 import { IsBoolean, IsEmail, IsIn, IsInt, IsOptional, IsString, Max, MaxLength, Min, MinLength } from 'class-validator';
 import { STAFF_ROLES, StaffRole, USER_ROLES, UserRole } from '../entities/user.entity';
+import { MAX_PAGE } from '../../common/http/paging';
 
 export const MIN_PASSWORD_LENGTH = 12;
 
@@ -37,6 +38,7 @@ export class ListUsersQueryDto {
   @Type(() => Number)
   @IsInt()
   @Min(1)
+  @Max(MAX_PAGE)
   page: number = 1;
 
   @ApiPropertyOptional({ default: 20 })

@@ -11,7 +11,10 @@ import type { DesignLock, SetupPermissions } from '@/features/study-design/compo
 import { FactorsSection } from '@/features/study-design/components/factors-section';
 import { LockNotice } from '@/features/study-design/components/lock-notice';
 import { ScreeningSection } from '@/features/study-design/components/screening-section';
+import { ReturnLinkPanel } from '@/features/study-design/components/return-link-panel';
 import { StepsSection } from '@/features/study-design/components/steps-section';
+import { ReminderPlanSection } from '@/features/reminders/components/reminder-plan-section';
+import { OpeningChecklistPanel } from '@/features/studies/components/opening-checklist';
 import type { Study } from '@/features/studies/api/get-study';
 import { ApiError } from '@/lib/api-error';
 import type { Role } from '@/lib/role-access';
@@ -21,6 +24,8 @@ import { useStudySession } from '../../study-context';
 const sections = [
   { id: 'conditions', label: 'Conditions' },
   { id: 'steps', label: 'Steps and pay' },
+  { id: 'return-link', label: 'Return address' },
+  { id: 'reminders', label: 'Reminders' },
   { id: 'factors', label: 'Stratification factors' },
   { id: 'screening', label: 'Screening questions' },
   { id: 'scheme', label: 'Assignment scheme' },
@@ -52,8 +57,11 @@ export function Component() {
           </a>
         ))}
       </nav>
+      {(study.status === 'draft' || study.status === 'paused') && mayDesignStudy(me.role) && <OpeningChecklistPanel studyId={study.id} />}
       <ConditionsSection studyId={study.id} design={study.design} blinded={study.blinded} isDraft={study.status === 'draft'} permissions={permissions} />
       <StepsSection studyId={study.id} design={study.design} permissions={permissions} />
+      <ReturnLinkPanel studyId={study.id} canRotate={permissions.content === null} />
+      <ReminderPlanSection studyId={study.id} canEdit={permissions.content === null} />
       <FactorsSection studyId={study.id} permissions={permissions} />
       <ScreeningSection studyId={study.id} permissions={permissions} />
       <SchemeSection study={study} permissions={permissions} />

@@ -40,7 +40,10 @@ export function useSaveAssignmentScheme(studyId: string) {
     mutationFn: ({ method, settings }: { method: SchemeMethod; settings: SchemeSettings }) => saveAssignmentScheme(studyId, method, settings),
     onSuccess: (assignment) => {
       queryClient.setQueryData(studyKeys.assignment(studyId), assignment);
-      return queryClient.invalidateQueries({ queryKey: studyKeys.assignment(studyId) });
+      return Promise.all([
+        queryClient.invalidateQueries({ queryKey: studyKeys.assignment(studyId) }),
+        queryClient.invalidateQueries({ queryKey: studyKeys.openingChecklist(studyId) }),
+      ]);
     },
   });
 }

@@ -2,7 +2,7 @@ import { useMutation } from '@tanstack/react-query';
 import { apiClient, unwrap } from '@/lib/api-client';
 import type { components } from '@/lib/api-schema';
 
-export type AuditVerification = components['schemas']['AuditVerificationDto'];
+export type AuditVerification = components['schemas']['AuditReportDto'];
 export type ChainVerdict = components['schemas']['ChainVerdictDto'];
 
 /** Asks the api to re-compute every chain from its first link. Run on request: it reads the whole log. */

@@ -1,5 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiClient, unwrap } from '@/lib/api-client';
+import { studyKeys } from '@/lib/study-keys';
 import { consentVersionKey } from './get-consent-version';
 import { consentVersionsKey, type ConsentVersion } from './get-consent-versions';
 
@@ -17,7 +18,10 @@ export function useActivateConsentVersion(studyId: string, versionId: string) {
     mutationFn: () => activateConsentVersion(studyId, versionId),
     onSuccess: (version) => {
       queryClient.setQueryData(consentVersionKey(studyId, versionId), version);
-      return queryClient.invalidateQueries({ queryKey: consentVersionsKey(studyId) });
+      return Promise.all([
+        queryClient.invalidateQueries({ queryKey: consentVersionsKey(studyId) }),
+        queryClient.invalidateQueries({ queryKey: studyKeys.openingChecklist(studyId) }),
+      ]);
     },
   });
 }

@@ -23,6 +23,9 @@ const record = {
     invitationSentAt: null,
     assignedAt: '2026-12-01T19:45:19.016Z',
     createdAt: '2026-12-01T19:45:18.994Z',
+    nextStep: null,
+    unansweredReminders: 0,
+    suggestLost: false,
   },
   withdrawalReason: 'Moved abroad',
   lostReason: null,
@@ -41,6 +44,7 @@ const record = {
       hasMark: false,
     },
   ],
+  steps: [],
   // Deliberately out of order: the record lists events oldest first whatever order they arrive in.
   timeline: [
     { at: '2026-12-01T19:45:19.029Z', action: 'consent.signed', actorEmail: 'p048@evenhand.test', data: { version: 1 } },
@@ -49,10 +53,15 @@ const record = {
   ],
 };
 
+const noContacts = { items: [], unansweredReminders: 0, suggestLostAfter: 3, suggestLost: false };
+
 describe('ParticipantRecord', { timeout: 15_000 }, () => {
   it('shows status, reasons, each signature with its fingerprints, and the timeline oldest first', async () => {
-    stubApi({ [`GET /api/studies/${studyId}/enrollments/${enrollmentId}`]: { status: 200, body: record } });
-    renderWithProviders(<ParticipantRecord studyId={studyId} enrollmentId={enrollmentId} blinded backHref="/roster" />);
+    stubApi({
+      [`GET /api/studies/${studyId}/enrollments/${enrollmentId}`]: { status: 200, body: record },
+      [`GET /api/studies/${studyId}/enrollments/${enrollmentId}/contacts`]: { status: 200, body: noContacts },
+    });
+    renderWithProviders(<ParticipantRecord studyId={studyId} enrollmentId={enrollmentId} blinded backHref="/roster" currency="USD" />);
 
     const signature = await screen.findByRole('article', { name: 'Signature on version 1' });
     expect(signature).toHaveTextContent('Demo Participant 048');
@@ -76,8 +85,11 @@ describe('ParticipantRecord', { timeout: 15_000 }, () => {
 
   it('shows what staff noted when they marked someone lost to follow-up', async () => {
     const lost = { ...record, enrollment: { ...record.enrollment, status: 'lost' }, withdrawalReason: null, lostReason: 'No reply to three reminders' };
-    stubApi({ [`GET /api/studies/${studyId}/enrollments/${enrollmentId}`]: { status: 200, body: lost } });
-    renderWithProviders(<ParticipantRecord studyId={studyId} enrollmentId={enrollmentId} blinded backHref="/roster" />);
+    stubApi({
+      [`GET /api/studies/${studyId}/enrollments/${enrollmentId}`]: { status: 200, body: lost },
+      [`GET /api/studies/${studyId}/enrollments/${enrollmentId}/contacts`]: { status: 200, body: noContacts },
+    });
+    renderWithProviders(<ParticipantRecord studyId={studyId} enrollmentId={enrollmentId} blinded backHref="/roster" currency="USD" />);
 
     expect((await screen.findByText('Why lost to follow-up')).nextSibling).toHaveTextContent('No reply to three reminders');
     expect(screen.queryByText('Reason for withdrawal')).not.toBeInTheDocument();
@@ -85,7 +97,7 @@ describe('ParticipantRecord', { timeout: 15_000 }, () => {
 
   it('says so when the participant is not in this study', async () => {
     stubApi({ [`GET /api/studies/${studyId}/enrollments/${enrollmentId}`]: { status: 404, body: { statusCode: 404, code: 'NOT_FOUND', message: 'No such participant in this study.' } } });
-    renderWithProviders(<ParticipantRecord studyId={studyId} enrollmentId={enrollmentId} blinded={false} backHref="/roster" />);
+    renderWithProviders(<ParticipantRecord studyId={studyId} enrollmentId={enrollmentId} blinded={false} backHref="/roster" currency="USD" />);
 
     expect(await screen.findByText('No such participant')).toBeInTheDocument();
     expect(screen.getByText('No such participant in this study.')).toBeInTheDocument();

@@ -1,12 +1,16 @@
+import { useState } from 'react';
 import { Link } from 'react-router-dom';
 import { Badge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
 import { Panel } from '@/components/ui/panel';
-import { ErrorState, LoadingState } from '@/components/ui/states';
+import { ErrorState, LoadingState, Notice } from '@/components/ui/states';
 import { ApiError } from '@/lib/api-error';
 import { useDownloadSignedCopy } from '../api/download-signed-copy';
 import { useParticipantRecord, type ParticipantRecord as Record, type SignatureSummary, type TimelineEvent } from '../api/get-participant-record';
 import { readableAction } from '../utils/readable-action';
+import { ContactLog } from './contact-log';
+import { ParticipationChangeDialog, type ParticipationChangeTarget } from './participation-change-dialog';
+import { RecordSteps } from './record-steps';
 import { EnrollmentStatusBadge } from './enrollment-status-badge';
 
 const momentFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'long' });
@@ -17,9 +21,15 @@ export interface ParticipantRecordProps {
   enrollmentId: string;
   blinded: boolean;
   backHref: string;
+  /** The study's currency, for each step's pay. */
+  currency: string;
+  /** Coordinators and admins mark steps done, undo them, send messages and mark people lost (the api's rule). */
+  canManage?: boolean;
+  /** Auditors may not see participants' completion codes. */
+  canSeeCodes?: boolean;
 }
 
-export function ParticipantRecord({ studyId, enrollmentId, blinded, backHref }: ParticipantRecordProps) {
+export function ParticipantRecord({ studyId, enrollmentId, blinded, backHref, currency, canManage = false, canSeeCodes = false }: ParticipantRecordProps) {
   const record = useParticipantRecord(studyId, enrollmentId);
   return (
     <div className="flex flex-col gap-4">
@@ -35,14 +45,25 @@ export function ParticipantRecord({ studyId, enrollmentId, blinded, backHref }: 
           onRetry={() => void record.refetch()}
         />
       ) : (
-        <RecordDetails studyId={studyId} record={record.data} blinded={blinded} />
+        <RecordDetails studyId={studyId} record={record.data} blinded={blinded} currency={currency} canManage={canManage} canSeeCodes={canSeeCodes} />
       )}
     </div>
   );
 }
 
-function RecordDetails({ studyId, record, blinded }: { studyId: string; record: Record; blinded: boolean }) {
+interface RecordDetailsProps {
+  studyId: string;
+  record: Record;
+  blinded: boolean;
+  currency: string;
+  canManage: boolean;
+  canSeeCodes: boolean;
+}
+
+function RecordDetails({ studyId, record, blinded, currency, canManage, canSeeCodes }: RecordDetailsProps) {
   const { enrollment } = record;
+  const [change, setChange] = useState<ParticipationChangeTarget | null>(null);
+  const [announcement, setAnnouncement] = useState<string | null>(null);
   const covariates = Object.entries(enrollment.covariates);
   // Oldest first, so the record reads as the story of this person's participation.
   const timeline = [...record.timeline].sort((a, b) => Date.parse(a.at) - Date.parse(b.at));
@@ -52,6 +73,10 @@ function RecordDetails({ studyId, record, blinded }: { studyId: string; record: 
         <h2 className="font-mono text-lg font-semibold">{enrollment.reference}</h2>
         <EnrollmentStatusBadge status={enrollment.status} />
         {enrollment.needsReconsent && <Badge tone="caution">Re-consent needed</Badge>}
+        {enrollment.suggestLost && <Badge tone="caution">Suggested: lost to follow-up</Badge>}
+      </div>
+      <div aria-live="polite" className="empty:hidden">
+        {announcement && <Notice tone="info">{announcement}</Notice>}
       </div>
 
       <Panel id="participation" title="Participation">
@@ -106,6 +131,21 @@ function RecordDetails({ studyId, record, blinded }: { studyId: string; record: 
           )}
         </dl>
       </Panel>
+
+      <RecordSteps studyId={studyId} record={record} currency={currency} canManage={canManage} canSeeCodes={canSeeCodes} />
+
+      <ContactLog studyId={studyId} enrollment={enrollment} canManage={canManage} onMarkLost={() => setChange({ change: 'lost', entry: enrollment })} />
+      {canManage && (
+        <ParticipationChangeDialog
+          studyId={studyId}
+          target={change}
+          onClose={() => setChange(null)}
+          onChanged={(entry) => {
+            setChange(null);
+            setAnnouncement(`${entry.reference} is marked lost to follow-up.`);
+          }}
+        />
+      )}
 
       <Panel id="signatures" title="Signatures" description="Each consent version this person signed, with what the signature meant and where it came from.">
         {record.signatures.length === 0 ? (

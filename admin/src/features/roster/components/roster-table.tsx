@@ -5,6 +5,7 @@ import { tableRecipe } from '@/components/ui/recipes';
 import type { RosterEntry } from '../api/get-roster';
 import type { ParticipationChange } from '../api/change-participation';
 import { mayMarkLost, mayRecordWithdrawal } from '../utils/roster-actions';
+import { nextStepTimingWording } from '../utils/step-wording';
 import { EnrollmentStatusBadge } from './enrollment-status-badge';
 
 const dayFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
@@ -33,6 +34,7 @@ export function RosterTable({ entries, blinded, canManage, recordHref, onChange,
             <th scope="col" className={tableRecipe.headCell} title={blinded ? 'Codes only while the study is blinded' : undefined}>
               {blinded ? 'Condition (coded)' : 'Condition'}
             </th>
+            <th scope="col" className={tableRecipe.headCell}>Next step</th>
             <th scope="col" className={tableRecipe.headCell}>Consent</th>
             <th scope="col" className={tableRecipe.headCell}>Invited</th>
             <th scope="col" className={tableRecipe.headCell}>Assigned</th>
@@ -62,9 +64,20 @@ export function RosterTable({ entries, blinded, canManage, recordHref, onChange,
                 </td>
                 <td className={tableRecipe.cell}>{entry.name ?? <span className="text-ink-faint">—</span>}</td>
                 <td className={`${tableRecipe.cell} whitespace-nowrap`}>
-                  <EnrollmentStatusBadge status={entry.status} />
+                  <span className="flex flex-col items-start gap-0.5">
+                    <EnrollmentStatusBadge status={entry.status} />
+                    {entry.suggestLost && (
+                      <span title={`${entry.unansweredReminders} unanswered reminders`}>
+                        <Badge tone="caution">Suggest: lost</Badge>
+                        <span className="sr-only"> ({entry.unansweredReminders} unanswered reminders)</span>
+                      </span>
+                    )}
+                  </span>
                 </td>
                 <td className={tableRecipe.cell}>{entry.condition ?? <span className="text-ink-faint">—</span>}</td>
+                <td className={tableRecipe.cell}>
+                  <NextStepCell entry={entry} />
+                </td>
                 <td className={`${tableRecipe.cell} whitespace-nowrap`}>
                   {entry.signedVersion !== null && <span className="mr-1.5 text-ink-muted">v{entry.signedVersion}</span>}
                   {entry.needsReconsent ? <Badge tone="caution">Re-consent needed</Badge> : entry.signedVersion === null && <span className="text-ink-faint">Not signed</span>}
@@ -91,5 +104,29 @@ export function RosterTable({ entries, blinded, canManage, recordHref, onChange,
         </tbody>
       </table>
     </div>
+  );
+}
+
+const shortDayFormat = new Intl.DateTimeFormat(undefined, { month: 'short', day: 'numeric' });
+
+function NextStepCell({ entry }: { entry: RosterEntry }) {
+  const next = entry.nextStep;
+  if (!next) return <span className="text-ink-faint">—</span>;
+  const timing = nextStepTimingWording[next.timing];
+  const at = next.timing === 'upcoming' ? next.opensAt : next.timing === 'waiting' ? null : next.dueAt;
+  const when =
+    next.timing === 'waiting' ? 'after the step before' : at ? `${next.timing === 'upcoming' ? 'opens' : 'due'} ${shortDayFormat.format(new Date(at))}` : 'no due date';
+  return (
+    <span className="flex flex-col items-start gap-0.5">
+      <span className="flex items-center gap-1.5 whitespace-nowrap">
+        <Badge tone={timing.tone}>{timing.label}</Badge>
+        <span className="text-xs text-ink-muted tabular-nums" title={at ? day(at) : undefined}>
+          {when}
+        </span>
+      </span>
+      <span className="max-w-48 truncate text-xs" title={next.title}>
+        {next.title}
+      </span>
+    </span>
   );
 }

@@ -8,6 +8,7 @@ import { useUrlSearch } from '@/hooks/use-url-search';
 import { ApiError } from '@/lib/api-error';
 import type { ParticipationChange } from '../api/change-participation';
 import { useReconsentCount, useRoster, type EnrollmentStatus, type RosterEntry } from '../api/get-roster';
+import { BulkCompletionDialog, type ListableStep } from './bulk-completion-dialog';
 import { enrollmentStatusLabels, enrollmentStatusOrder } from './enrollment-status-badge';
 import { ImportRosterDialog } from './import-roster-dialog';
 import { ParticipationChangeDialog, type ParticipationChangeTarget } from './participation-change-dialog';
@@ -29,14 +30,20 @@ export interface RosterProps {
   canManage: boolean;
   recordHref: (enrollmentId: string) => string;
   factorKeys?: readonly string[];
+  /** The study's steps, for marking one done for a list of people. */
+  steps?: readonly ListableStep[];
+  /** Coordinators, researchers and admins may download every participant's codes. */
+  canDownloadCodes?: boolean;
 }
 
-export function Roster({ studyId, blinded, canManage, recordHref, factorKeys }: RosterProps) {
+export function Roster({ studyId, blinded, canManage, recordHref, factorKeys, steps = [], canDownloadCodes = false }: RosterProps) {
   const { searchParams, setSearchParams, search, page, searchText, setSearchText, goToPage } = useUrlSearch();
   const status = parseStatus(searchParams.get('status'));
   const needsReconsent = searchParams.get('reconsent') === '1';
   const [importKey, setImportKey] = useState(0);
   const [importing, setImporting] = useState(false);
+  const [listKey, setListKey] = useState(0);
+  const [markingList, setMarkingList] = useState(false);
   const [mailing, setMailing] = useState<RosterMailing | null>(null);
   const [change, setChange] = useState<ParticipationChangeTarget | null>(null);
   const [announcement, setAnnouncement] = useState<string | null>(null);
@@ -73,21 +80,44 @@ export function Roster({ studyId, blinded, canManage, recordHref, factorKeys }: 
           <h2 className="text-lg font-semibold">Roster</h2>
           <p className="text-sm text-ink-muted">Everyone invited to or enrolled in this study. Records are never deleted.</p>
         </div>
-        {canManage && (
+        {(canManage || canDownloadCodes) && (
           <div className="flex flex-wrap gap-2">
-            {(reconsentCount.data ?? 0) > 0 && (
-              <Button onClick={() => setMailing('reconsent-reminders')}>Remind to re-consent ({reconsentCount.data})</Button>
+            {canDownloadCodes && (
+              <a
+                href={`/api/studies/${studyId}/step-codes.csv`}
+                download
+                className="inline-flex h-8 items-center rounded-md border border-line-strong bg-surface px-3 text-sm font-medium text-ink hover:bg-sunken focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-spruce"
+              >
+                Download everyone’s codes (CSV)
+              </a>
             )}
-            <Button onClick={() => setMailing('invitations')}>Send invitations</Button>
-            <Button
-              variant="primary"
-              onClick={() => {
-                setImportKey((key) => key + 1);
-                setImporting(true);
-              }}
-            >
-              Import CSV…
-            </Button>
+            {canManage && (
+              <Button
+                onClick={() => {
+                  setListKey((key) => key + 1);
+                  setMarkingList(true);
+                }}
+              >
+                Mark a step done for a list…
+              </Button>
+            )}
+            {canManage && (
+              <>
+                {(reconsentCount.data ?? 0) > 0 && (
+                  <Button onClick={() => setMailing('reconsent-reminders')}>Remind to re-consent ({reconsentCount.data})</Button>
+                )}
+                <Button onClick={() => setMailing('invitations')}>Send invitations</Button>
+                <Button
+                  variant="primary"
+                  onClick={() => {
+                    setImportKey((key) => key + 1);
+                    setImporting(true);
+                  }}
+                >
+                  Import CSV…
+                </Button>
+              </>
+            )}
           </div>
         )}
       </div>
@@ -172,6 +202,7 @@ export function Roster({ studyId, blinded, canManage, recordHref, factorKeys }: 
 
       {canManage && (
         <>
+          <BulkCompletionDialog key={`list-${listKey}`} studyId={studyId} steps={steps} open={markingList} onClose={() => setMarkingList(false)} />
           <ImportRosterDialog key={importKey} studyId={studyId} open={importing} onClose={() => setImporting(false)} factorKeys={factorKeys} />
           <RosterMailDialog
             studyId={studyId}

@@ -1,4 +1,4 @@
-import { screen, waitFor } from '@testing-library/react';
+import { screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
 import { stubApi } from '@/test/api-stub';
@@ -32,7 +32,15 @@ describe('StudyLifecycleActions', () => {
     stubApi({
       [`POST /api/studies/${study.id}/open`]: {
         status: 409,
-        body: { statusCode: 409, code: 'CONFLICT', message: 'A study needs at least two conditions before it opens.', errors: [{ field: 'conditions', message: 'add at least two conditions' }] },
+        body: {
+          statusCode: 409,
+          code: 'CONFLICT',
+          message: 'The study cannot open yet: add at least two conditions; activate a consent version.',
+          errors: [
+            { field: 'conditions', message: 'add at least two conditions' },
+            { field: 'consent', message: 'activate a consent version' },
+          ],
+        },
       },
     });
     renderWithProviders(<StudyLifecycleActions study={study} />);
@@ -43,7 +51,13 @@ describe('StudyLifecycleActions', () => {
     expect(screen.getByRole('alertdialog')).toHaveTextContent(/fingerprint/);
 
     await userEvent.click(screen.getAllByRole('button', { name: 'Open study' }).at(-1) as HTMLElement);
-    expect(await screen.findByText('A study needs at least two conditions before it opens.')).toBeInTheDocument();
+    const missing = await screen.findByRole('list', { name: 'Still needed before opening' });
+    expect(within(missing).getAllByRole('listitem').map((item) => item.textContent)).toEqual([
+      'Conditions: add at least two conditions',
+      'Consent form: activate a consent version',
+    ]);
+    // The named items, not the raw message.
+    expect(screen.queryByText(/The study cannot open yet: add at least/)).not.toBeInTheDocument();
   });
 
   it('asks before closing, says the seed is revealed, then posts close', async () => {

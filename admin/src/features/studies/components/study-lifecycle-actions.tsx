@@ -3,7 +3,10 @@ import { Button } from '@/components/ui/button';
 import { DialogActions, ModalDialog } from '@/components/ui/modal-dialog';
 import { Notice } from '@/components/ui/states';
 import { ApiError } from '@/lib/api-error';
+import { useQueryClient } from '@tanstack/react-query';
+import { studyKeys } from '@/lib/study-keys';
 import { useChangeStudyStatus, type StudyTransition } from '../api/change-study-status';
+import { missingOpeningItems } from '../utils/opening-requirements';
 import type { Study } from '../api/get-study';
 
 const dialogs: Record<StudyTransition, { title: string; confirm: string; body: (study: Study) => React.ReactNode }> = {
@@ -56,6 +59,7 @@ export interface StudyLifecycleActionsProps {
 /** Open, pause and close, each confirmed in a dialog that says what it does; the api’s refusal shows in the dialog. */
 export function StudyLifecycleActions({ study }: StudyLifecycleActionsProps) {
   const changeStatus = useChangeStudyStatus(study.id);
+  const queryClient = useQueryClient();
   const [pending, setPending] = useState<StudyTransition | null>(null);
   const [shown, setShown] = useState<StudyTransition>('open');
   if (pending !== null && pending !== shown) setShown(pending);
@@ -70,7 +74,11 @@ export function StudyLifecycleActions({ study }: StudyLifecycleActionsProps) {
   };
   const confirm = () => {
     if (!pending) return;
-    changeStatus.mutate(pending, { onSuccess: () => setPending(null) });
+    changeStatus.mutate(pending, {
+      onSuccess: () => setPending(null),
+      // A refusal names what is missing; the checklist on Set-up shows the same, fresh.
+      onError: () => void queryClient.invalidateQueries({ queryKey: studyKeys.openingChecklist(study.id) }),
+    });
   };
 
   const dialog = dialogs[shown];
@@ -89,11 +97,7 @@ export function StudyLifecycleActions({ study }: StudyLifecycleActionsProps) {
       )}
       <ModalDialog open={pending !== null} onClose={close} role="alertdialog" title={dialog.title}>
         <div className="text-sm text-ink">{dialog.body(study)}</div>
-        {changeStatus.isError && (
-          <Notice className="mt-3">
-            {changeStatus.error instanceof ApiError ? changeStatus.error.message : 'The change could not be saved. Try again.'}
-          </Notice>
-        )}
+        {changeStatus.isError && <RefusalNotice error={changeStatus.error} transition={shown} />}
         <DialogActions>
           <Button onClick={close}>Cancel</Button>
           <Button variant={shown === 'close' ? 'danger' : 'primary'} pending={changeStatus.isPending} onClick={confirm}>
@@ -103,4 +107,24 @@ export function StudyLifecycleActions({ study }: StudyLifecycleActionsProps) {
       </ModalDialog>
     </div>
   );
+}
+
+function RefusalNotice({ error, transition }: { error: unknown; transition: StudyTransition }) {
+  if (!(error instanceof ApiError)) return <Notice className="mt-3">The change could not be saved. Try again.</Notice>;
+  if (transition === 'open' && error.status === 409 && error.fieldErrors.length > 0) {
+    const missing = missingOpeningItems(error.fieldErrors);
+    return (
+      <Notice className="mt-3">
+        <p className="font-medium">The study cannot open yet. Still needed:</p>
+        <ul className="mt-1 list-disc pl-5" aria-label="Still needed before opening">
+          {missing.map((item) => (
+            <li key={item.key}>
+              <span className="font-semibold">{item.label}:</span> {item.detail}
+            </li>
+          ))}
+        </ul>
+      </Notice>
+    );
+  }
+  return <Notice className="mt-3">{error.message}</Notice>;
 }

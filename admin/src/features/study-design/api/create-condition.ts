@@ -19,6 +19,7 @@ export function useCreateCondition(studyId: string) {
       Promise.all([
         queryClient.invalidateQueries({ queryKey: studyKeys.conditions(studyId) }),
         queryClient.invalidateQueries({ queryKey: studyKeys.assignment(studyId) }),
+        queryClient.invalidateQueries({ queryKey: studyKeys.openingChecklist(studyId) }),
       ]),
   });
 }

@@ -17,7 +17,10 @@ export function useCreateStep(studyId: string) {
     mutationFn: (body: CreateStepBody) => createStep(studyId, body),
     onSuccess: (steps) => {
       queryClient.setQueryData(studyKeys.steps(studyId), steps);
-      return queryClient.invalidateQueries({ queryKey: studyKeys.steps(studyId) });
+      return Promise.all([
+        queryClient.invalidateQueries({ queryKey: studyKeys.steps(studyId) }),
+        queryClient.invalidateQueries({ queryKey: studyKeys.openingChecklist(studyId) }),
+      ]);
     },
   });
 }

@@ -18,6 +18,7 @@ export function useUpdateCondition(studyId: string) {
       Promise.all([
         queryClient.invalidateQueries({ queryKey: studyKeys.conditions(studyId) }),
         queryClient.invalidateQueries({ queryKey: studyKeys.assignment(studyId) }),
+        queryClient.invalidateQueries({ queryKey: studyKeys.openingChecklist(studyId) }),
       ]),
   });
 }

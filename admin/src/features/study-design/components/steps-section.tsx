@@ -15,8 +15,10 @@ import { LockNotice } from './lock-notice';
 import { conditionDisplayName } from '../utils/condition-name';
 import { PayOverrideForm } from './pay-override-form';
 import { StepForm } from './step-form';
+import { StepSettingsForm } from './step-settings-form';
+import { verificationWording, windowSentence } from '../utils/step-settings-wording';
 
-type Editing = { kind: 'add' } | { kind: 'edit'; step: Step } | { kind: 'override'; step: Step } | null;
+type Editing = { kind: 'add' } | { kind: 'edit'; step: Step } | { kind: 'settings'; step: Step } | { kind: 'override'; step: Step } | null;
 
 export interface StepsSectionProps {
   studyId: string;
@@ -47,13 +49,21 @@ export function StepsSection({ studyId, design, permissions }: StepsSectionProps
   };
 
   const dialogTitle =
-    shown?.kind === 'add' ? 'Add a step' : shown?.kind === 'edit' ? `Edit step ${shown.step.position}` : shown ? `Pay differently in step ${shown.step.position}` : '';
+    shown?.kind === 'add'
+      ? 'Add a step'
+      : shown?.kind === 'edit'
+        ? `Edit step ${shown.step.position}`
+        : shown?.kind === 'settings'
+          ? `How step ${shown.step.position} is checked`
+          : shown
+            ? `Pay differently in step ${shown.step.position}`
+            : '';
 
   return (
     <Panel
       id="steps"
       title="Steps and pay"
-      description="What participants do, in order, and what each step pays. Pay is the same in every condition unless you record an exception."
+      description="What participants do, in order, what each step pays, how its completion is checked and when it can be done. Pay is the same in every condition unless you record an exception."
       actions={
         canEdit && (
           <Button variant="primary" onClick={() => setEditing({ kind: 'add' })}>
@@ -105,6 +115,22 @@ export function StepsSection({ studyId, design, permissions }: StepsSectionProps
                     <td className={tableRecipe.cell}>
                       <span className="block font-medium">{step.title}</span>
                       {step.description && <span className="block text-xs text-ink-muted">{step.description}</span>}
+                      <dl className="mt-1.5 grid grid-cols-[max-content_1fr] gap-x-2 gap-y-0.5 text-xs" aria-label={`How step ${step.position} is checked and when`}>
+                        <dt className="text-ink-muted">Checked by</dt>
+                        <dd>
+                          {verificationWording[step.verification].label}
+                          {step.verification === 'return-link' && (
+                            <span className="block font-mono text-2xs break-all text-ink-muted">{step.taskUrl ?? 'No task address yet'}</span>
+                          )}
+                          {step.verification === 'shared-code' && (
+                            <span className={`block ${step.hasCompletionCode ? 'text-ink-muted' : 'font-medium text-danger'}`}>
+                              {step.hasCompletionCode ? 'Code set' : 'No code set yet'}
+                            </span>
+                          )}
+                        </dd>
+                        <dt className="text-ink-muted">Window</dt>
+                        <dd>{windowSentence(step)}</dd>
+                      </dl>
                       {step.payOverrides.length > 0 && (
                         <ul className="mt-1.5 flex flex-col gap-1" aria-label={`Pay exceptions for step ${step.position}`}>
                           {step.payOverrides.map((override) => (
@@ -139,11 +165,22 @@ export function StepsSection({ studyId, design, permissions }: StepsSectionProps
                       {formatMinor(step.payMinor, steps.data.currency)}
                     </td>
                     {(canEdit || canOverride) && (
-                      <td className={`${tableRecipe.cell} text-right whitespace-nowrap`}>
+                      <td className={`${tableRecipe.cell} whitespace-nowrap`}>
+                        <div className="flex flex-col items-end gap-0.5">
                         {canEdit && (
-                          <Button variant="quiet" size="compact" onClick={() => setEditing({ kind: 'edit', step })} aria-label={`Edit step ${step.position}`}>
-                            Edit
-                          </Button>
+                          <>
+                            <Button variant="quiet" size="compact" onClick={() => setEditing({ kind: 'edit', step })} aria-label={`Edit step ${step.position}`}>
+                              Edit
+                            </Button>
+                            <Button
+                              variant="quiet"
+                              size="compact"
+                              onClick={() => setEditing({ kind: 'settings', step })}
+                              aria-label={`Choose how step ${step.position} is checked and when it opens`}
+                            >
+                              Checking and window…
+                            </Button>
+                          </>
                         )}
                         {canOverride && (
                           <Button
@@ -155,6 +192,7 @@ export function StepsSection({ studyId, design, permissions }: StepsSectionProps
                             Pay differently…
                           </Button>
                         )}
+                        </div>
                       </td>
                     )}
                   </tr>
@@ -177,8 +215,16 @@ export function StepsSection({ studyId, design, permissions }: StepsSectionProps
         </>
       )}
 
-      <ModalDialog open={editing !== null} onClose={() => setEditing(null)} title={dialogTitle}>
-        {shown && steps.data && (shown.kind === 'override' ? (
+      <ModalDialog open={editing !== null} onClose={() => setEditing(null)} title={dialogTitle} size={shown?.kind === 'settings' ? 'wide' : 'narrow'}>
+        {shown && steps.data && (shown.kind === 'settings' ? (
+          <StepSettingsForm
+            key={`settings-${shown.step.id}`}
+            studyId={studyId}
+            step={shown.step}
+            onCancel={() => setEditing(null)}
+            onSaved={() => done(`How step ${shown.step.position} is checked was saved.`)}
+          />
+        ) : shown.kind === 'override' ? (
           <PayOverrideForm
             key={`override-${shown.step.id}`}
             studyId={studyId}

@@ -16,6 +16,7 @@ export type WelchAnova = components['schemas']['WelchAnovaDto'];
 export type CovariateBalanceRow = components['schemas']['CovariateBalanceRowDto'];
 export type ConsortFlow = components['schemas']['ConsortFlowDto'];
 export type FlowBox = components['schemas']['FlowBoxDto'];
+export type ContactsByCondition = components['schemas']['ContactsByConditionDto'];
 
 export async function getAttritionReport(studyId: string, comparisonConditionId: string | null): Promise<AttritionReport> {
   return unwrap(

@@ -7,6 +7,7 @@ import { useAttritionReport } from '../api/get-attrition-report';
 import { AlertThresholdsForm } from './alert-thresholds-form';
 import { ConditionTable, RateDefinitions } from './condition-table';
 import { ConsortFlow, ConsortFlowText } from './consort-flow';
+import { ContactsByCondition } from './contacts-by-condition';
 import { CovariateBalanceTable } from './covariate-balance-table';
 import { DropoutCurves } from './dropout-curves';
 import { PayParityTable } from './pay-parity-table';
@@ -108,6 +109,14 @@ export function DropoutWatch({ studyId, canEditAlerts, canExport }: DropoutWatch
 
       <Panel id="pay" title="Pay by condition">
         <PayParityTable report={data} />
+      </Panel>
+
+      <Panel
+        id="contacts"
+        title="Contacts by condition"
+        description="Reminders, re-consent requests and staff messages after randomization. Contacting one condition more than another can itself change who drops out."
+      >
+        <ContactsByCondition report={data} />
       </Panel>
 
       <Panel id="balance" title="Covariate balance" description={comparisonName ? `Each condition against condition ${comparisonName}.` : undefined}>

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { dropoutTestSentence, formatPValue, formatShare, wwcVerdictDetail, wwcVerdictSentence } from './watch-format';
+import { dropoutTestSentence, formatPValue, formatShare, welchTestSentence, wwcVerdictDetail, wwcVerdictSentence } from './watch-format';
 
 describe('formatPValue', () => {
   // APA Publication Manual 7th ed. §6.36 (from memory): exact p to three decimals, "p < .001" below that.
@@ -72,5 +72,21 @@ describe('formatShare', () => {
   it('rounds to one decimal of a percent', () => {
     expect(formatShare(3 / 11)).toBe('27.3%');
     expect(formatShare(null)).toBe('—');
+  });
+});
+
+describe('welchTestSentence', () => {
+  const base = { statistic: null, df1: null, df2: null, pValue: null };
+  it('says in words why the test could not be computed', () => {
+    expect(welchTestSentence({ ...base, notComputable: 'no-variation-within-a-condition' }, 'everyone in a condition had the same number of contacts')).toBe(
+      "Welch's test: not computable (everyone in a condition had the same number of contacts).",
+    );
+    expect(welchTestSentence({ ...base, notComputable: 'fewer-than-two-conditions-with-two-or-more-participants' }, 'x')).toMatch(/at least two conditions with two or more/);
+  });
+
+  it('reports F with its degrees of freedom and the p-value', () => {
+    expect(welchTestSentence({ statistic: 3.456, df1: 2, df2: 57.83, pValue: 0.0384, notComputable: null }, 'x')).toBe(
+      "Welch's test: F(2, 57.8) = 3.46, p = 0.038.",
+    );
   });
 });

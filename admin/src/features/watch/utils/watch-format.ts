@@ -96,3 +96,16 @@ export function dropoutTestSentence(test: {
   }
   throw new Error(`dropoutTest.method: unknown test "${test.method}"`);
 }
+
+/** Welch's one-way ANOVA in one line, or why it could not be computed, in plain words. */
+export function welchTestSentence(
+  test: { statistic: number | null; df1: number | null; df2: number | null; pValue: number | null; notComputable: string | null },
+  noVariation: string,
+): string {
+  if (test.notComputable === 'no-variation-within-a-condition') return `Welch's test: not computable (${noVariation}).`;
+  if (test.notComputable === 'fewer-than-two-conditions-with-two-or-more-participants') {
+    return "Welch's test: not computable (it needs at least two conditions with two or more participants each).";
+  }
+  if (test.notComputable) return `Welch's test: not computable (${test.notComputable.replace(/-/g, ' ')}).`;
+  return `Welch's test: F(${formatStatistic(test.df1, 0)}, ${formatStatistic(test.df2, 1)}) = ${formatStatistic(test.statistic)}, ${formatPValue(test.pValue)}.`;
+}

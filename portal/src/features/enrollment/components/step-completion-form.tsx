@@ -24,12 +24,22 @@ type StepCompletionFormProps = {
   onCompleted: (enrollment: MyEnrollment) => void;
   /** The consent form changed: the person is taken to sign the new one first. */
   onNeedsReconsent?: () => void;
+  /** Secondary when the step's task is the main way to finish it and the code only the fallback. */
+  fallback?: boolean;
 };
 
 type RootProblem = 'rate-limited' | 'other';
 
 /** "I finished this step": the participant types the code shown at the end of the step's task. */
-export function StepCompletionForm({ studyId, stepId, labelledBy, contactEmail, onCompleted, onNeedsReconsent }: StepCompletionFormProps) {
+export function StepCompletionForm({
+  studyId,
+  stepId,
+  labelledBy,
+  contactEmail,
+  onCompleted,
+  onNeedsReconsent,
+  fallback = false,
+}: StepCompletionFormProps) {
   const completeStep = useCompleteStep();
   const { control, handleSubmit, setError, formState } = useForm<CompletionCodeFormValues, unknown, CompleteStepRequest>({
     resolver: zodResolver(completionCodeFormSchema),
@@ -98,7 +108,7 @@ export function StepCompletionForm({ studyId, stepId, labelledBy, contactEmail, 
           {rootErrors.other.message}
         </Notice>
       ) : null}
-      <Button type="submit" wide disabled={formState.isSubmitting}>
+      <Button type="submit" wide variant={fallback ? 'secondary' : 'primary'} disabled={formState.isSubmitting}>
         {formState.isSubmitting ? 'Checking your code…' : 'I finished this step'}
       </Button>
     </form>

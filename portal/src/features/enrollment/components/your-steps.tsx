@@ -4,17 +4,16 @@ import { Notice } from '@/components/ui/notice';
 import { formatDate } from '@/lib/date-format';
 import { formatMoney } from '@/lib/money';
 import type { EnrollmentStep, MyEnrollment } from '../api/get-my-enrollment';
+import { canDoNow, stepHowWords, stepStatusWords, stepWindowWords } from '../utils/step-schedule';
+import { OpenTaskButton } from './open-task-button';
 import { StepCompletionForm } from './step-completion-form';
-
-const statusWords: Record<EnrollmentStep['status'], string> = {
-  done: 'Done',
-  open: 'Ready for you',
-  locked: 'Not open yet',
-};
 
 const statusClasses: Record<EnrollmentStep['status'], string> = {
   done: 'bg-moss-tint text-moss-ink',
   open: 'bg-clay-tint text-clay-ink',
+  overdue: 'bg-ember-tint text-ember',
+  upcoming: 'bg-sand text-ink-soft',
+  waiting: 'bg-sand text-ink-soft',
   locked: 'bg-sand text-ink-soft',
 };
 
@@ -23,7 +22,10 @@ type YourStepsProps = Pick<MyEnrollment, 'studyId' | 'steps' | 'currency' | 'ear
   onNeedsReconsent?: () => void;
 };
 
-/** The study's steps with where each stands and what it pays, a code form on each open one, and what has been earned. */
+/**
+ * The study's steps: where each stands, its window and pay, and on each one that can be done now the way to do it (the
+ * lab's task, a code, or nothing to do while staff mark it); then what has been earned.
+ */
 export function YourSteps({ studyId, steps, currency, earned, contactEmail, onNeedsReconsent }: YourStepsProps) {
   const money = (minor: number) => formatMoney(minor, currency);
   const ordered = [...steps].sort((a, b) => a.position - b.position);
@@ -51,6 +53,8 @@ export function YourSteps({ studyId, steps, currency, earned, contactEmail, onNe
         <ol className="flex flex-col gap-3">
           {ordered.map((step, index) => {
             const headingId = `step-${step.id}-heading`;
+            const windowWords = stepWindowWords(step);
+            const how = stepHowWords(step);
             return (
               <li key={step.id} className="flex flex-col gap-2 rounded-soft border border-sand-deep bg-paper-raised p-4">
                 <div className="flex flex-wrap items-baseline justify-between gap-x-3 gap-y-1">
@@ -66,23 +70,29 @@ export function YourSteps({ studyId, steps, currency, earned, contactEmail, onNe
                   </p>
                 </div>
                 {step.description ? <p className="text-fine text-ink-soft">{step.description}</p> : null}
-                <p className="flex flex-wrap items-center gap-2 text-fine">
+                <p className="flex flex-wrap items-center gap-x-2 gap-y-1 text-fine">
                   <span className={`rounded-full px-3 py-0.5 font-semibold ${statusClasses[step.status]}`}>
-                    {statusWords[step.status]}
+                    {stepStatusWords[step.status]}
                   </span>
                   {step.status === 'done' && step.completedAt ? (
                     <span className="text-ink-soft">on {formatDate(step.completedAt)}</span>
                   ) : null}
+                  {windowWords ? <span className={step.status === 'overdue' ? 'text-ink' : 'text-ink-soft'}>{windowWords}</span> : null}
                 </p>
                 {step.status === 'done' && step.id === justCompletedId ? (
                   <StepDoneNotice stepNumber={index + 1} pay={money(step.payMinor)} />
                 ) : null}
-                {step.status === 'open' && !step.hasCompletionCode ? (
-                  <p className="text-fine">
-                    There is no code to enter for this step: the research team marks it done once they have your results.
-                  </p>
+                {how ? <p className="text-fine">{how}</p> : null}
+                {canDoNow(step) && step.hasTask ? (
+                  <OpenTaskButton
+                    studyId={studyId}
+                    stepId={step.id}
+                    describedBy={headingId}
+                    alsoTakesCode={step.hasCompletionCode}
+                    onNeedsReconsent={onNeedsReconsent}
+                  />
                 ) : null}
-                {step.status === 'open' && step.hasCompletionCode ? (
+                {canDoNow(step) && step.hasCompletionCode ? (
                   <StepCompletionForm
                     studyId={studyId}
                     stepId={step.id}
@@ -90,6 +100,7 @@ export function YourSteps({ studyId, steps, currency, earned, contactEmail, onNe
                     contactEmail={contactEmail}
                     onCompleted={() => setJustCompletedId(step.id)}
                     onNeedsReconsent={onNeedsReconsent}
+                    fallback={step.hasTask}
                   />
                 ) : null}
               </li>

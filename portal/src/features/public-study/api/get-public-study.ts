@@ -16,6 +16,6 @@ export async function getPublicStudy(slug: string): Promise<PublicStudy> {
 export const publicStudyQueryOptions = (slug: string) =>
   queryOptions({ queryKey: queryKeys.publicStudy(slug), queryFn: () => getPublicStudy(slug) });
 
-export function usePublicStudy(slug: string) {
-  return useQuery(publicStudyQueryOptions(slug));
+export function usePublicStudy(slug: string, { enabled = true } = {}) {
+  return useQuery({ ...publicStudyQueryOptions(slug), enabled });
 }
