@@ -174,7 +174,7 @@ describe('consent versions, roster and audit trail', () => {
     expect(await summary.textContent()).toContain('2people added');
     expect(await summary.textContent()).toContain('1row refused');
     await screenshot(page, journey, 'import-row-report');
-    await page.getByRole('button', { name: 'Done' }).click();
+    await page.getByRole('button', { name: 'Done', exact: true }).click();
     await page.getByText('Import invitees from a CSV file').waitFor({ state: 'detached' });
 
     // A participant's record with a signature: fingerprints, meaning and the audit timeline.

@@ -184,7 +184,7 @@ describe('steps, completions, reminders and contacts', () => {
     expect(await report.getByRole('list', { name: 'Completion summary' }).textContent()).toMatch(/1line not marked/);
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await screenshotAtBothWidths(page, journey, 'list-report');
-    await dialog.getByRole('button', { name: 'Done' }).click();
+    await dialog.getByRole('button', { name: 'Done', exact: true }).click();
     await page.getByRole('dialog').waitFor({ state: 'detached' });
   });
 
