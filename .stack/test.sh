@@ -94,7 +94,7 @@ PAYMENTS_FAKE_PORT="$T_PAYMENTS_PORT" PAYMENTS_FAKE_WEBHOOK_URL="http://127.0.0.
 wait_for_url "$MAILBOX_URL/api/email" 60
 wait_for_url "http://127.0.0.1:$T_PAYMENTS_PORT/health" 60
 
-DATABASE_URL="postgres://postgres@127.0.0.1:$TEST_PG_PORT/evenhand_e2e" step "api end-to-end tests" vitest_in api api-e2e --project e2e
+DATABASE_URL="postgres://postgres@127.0.0.1:$TEST_PG_PORT/evenhand_e2e" step "api end-to-end tests" vitest_in api api-e2e --project e2e ${API_E2E_FILTER:-}
 
 say "Starting the demo task stand-in, api, portal and admin for the browser journeys"
 # The seeded demo steps send participants to the task stand-in; journeys find it at DEMO_TASK_URL.
