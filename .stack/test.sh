@@ -81,6 +81,10 @@ export VITE_PAYMENTS_SCRIPT_URL="http://127.0.0.1:$T_PAYMENTS_PORT/v1/stripe.js"
 
 step "legal templates tests" bash -c "cd '$ROOT/legal-templates' && node --test"
 step "stack script tests" node --test "$ROOT/.stack/test/"
+step "contract tests" vitest_in api/contract contract
+step "contract matches the api" bash "$ROOT/api/contract/check-current.sh"
+# Tests are code too: the api's and the stand-in's tests are type-checked with the code they test.
+step "type checks" bash -c "cd '$ROOT/api' && npm run typecheck --silent && cd '$ROOT/api/contract' && npm run typecheck --silent && cd '$ROOT/payments-fake' && npm run typecheck --silent"
 step "api unit tests" vitest_in api api-unit --project unit
 step "payments stand-in tests" vitest_in payments-fake payments-fake
 step "portal component tests" vitest_in portal portal-unit

@@ -163,10 +163,10 @@ function stringPaths(schema: Schema, prefix: Array<string | number> = [], depth 
   return paths;
 }
 
-function bodyWith(path: Array<string | number>, value: unknown): unknown {
+function bodyWith(path: Array<string | number>, value: unknown): object {
   const [head, ...rest] = path;
   const inner = rest.length ? bodyWith(rest, value) : value;
-  return typeof head === 'number' ? [inner] : { [head]: inner };
+  return typeof head === 'number' ? [inner] : { [String(head)]: inner };
 }
 
 async function rowCounts(): Promise<Record<string, number>> {

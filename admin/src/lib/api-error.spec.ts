@@ -1,27 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { ApiError, placeFieldErrors, toApiProblem } from './api-error';
-
-// Error shape from the foundation API contract: {statusCode, code, message, errors?: {field, message}[]}.
-describe('toApiProblem', () => {
-  it('keeps the api’s own shape', () => {
-    const body = { statusCode: 400, code: 'VALIDATION_FAILED', message: 'Bad body', errors: [{ field: 'email', message: 'email must be an email' }] };
-    expect(toApiProblem(400, body)).toEqual(body);
-  });
-
-  it('drops malformed field entries', () => {
-    const body = { statusCode: 400, code: 'VALIDATION_FAILED', message: 'Bad body', errors: [{ field: 'email' }, 'nonsense'] };
-    expect(toApiProblem(400, body)).toEqual({ statusCode: 400, code: 'VALIDATION_FAILED', message: 'Bad body' });
-  });
-
-  it('explains a body that is not the api’s (e.g. a proxy page)', () => {
-    expect(toApiProblem(502, '<html>Bad gateway</html>')).toEqual({
-      statusCode: 502,
-      code: 'INTERNAL',
-      message: 'The server could not complete the request (HTTP 502).',
-    });
-    expect(toApiProblem(429, undefined).message).toBe('Too many attempts. Please wait a minute and try again.');
-  });
-});
+import { ApiError, placeFieldErrors } from './api-error';
 
 describe('placeFieldErrors', () => {
   const fields = ['email', 'name', 'role', 'password'] as const;
@@ -49,7 +27,7 @@ describe('placeFieldErrors', () => {
   });
 
   it('falls back to the api message when nothing fits a field', () => {
-    const error = new ApiError({ statusCode: 400, code: 'SELF_DEACTIVATION', message: 'You cannot deactivate yourself.' });
+    const error = new ApiError({ statusCode: 400, code: 'CONFLICT', message: 'You cannot deactivate yourself.' });
     expect(placeFieldErrors(error, fields)).toEqual({ fields: [], formMessage: 'You cannot deactivate yourself.' });
   });
 

@@ -1,66 +1,8 @@
-/** One field problem as the api reports it in `errors[]`. */
-export interface ApiFieldError {
-  field: string;
-  message: string;
-}
+import { ApiError } from '@evenhand/contract';
 
-/** The api's single error shape, `{statusCode, code, message, errors?}`. */
-export interface ApiProblem {
-  statusCode: number;
-  code: string;
-  message: string;
-  errors?: ApiFieldError[];
-}
-
-export class ApiError extends Error {
-  readonly status: number;
-  readonly code: string;
-  readonly fieldErrors: ApiFieldError[];
-
-  constructor(problem: ApiProblem) {
-    super(problem.message);
-    this.name = 'ApiError';
-    this.status = problem.statusCode;
-    this.code = problem.code;
-    this.fieldErrors = problem.errors ?? [];
-  }
-}
-
-const fallbackMessages: Record<number, string> = {
-  401: 'Your session has ended. Please sign in again.',
-  403: 'You do not have access to this.',
-  404: 'Not found.',
-  429: 'Too many attempts. Please wait a minute and try again.',
-};
-
-/** Reads whatever a failed response carried into the api's error shape, tolerating non-JSON bodies (e.g. a proxy's 502 page). */
-export function toApiProblem(status: number, body: unknown): ApiProblem {
-  if (typeof body === 'object' && body !== null) {
-    const candidate = body as Record<string, unknown>;
-    if (typeof candidate.code === 'string' && typeof candidate.message === 'string') {
-      const errors = Array.isArray(candidate.errors)
-        ? candidate.errors.filter(
-            (item): item is ApiFieldError =>
-              typeof item === 'object' &&
-              item !== null &&
-              typeof (item as ApiFieldError).field === 'string' &&
-              typeof (item as ApiFieldError).message === 'string',
-          )
-        : undefined;
-      return {
-        statusCode: typeof candidate.statusCode === 'number' ? candidate.statusCode : status,
-        code: candidate.code,
-        message: candidate.message,
-        ...(errors && errors.length > 0 ? { errors } : {}),
-      };
-    }
-  }
-  return {
-    statusCode: status,
-    code: status >= 500 ? 'INTERNAL' : 'UNKNOWN',
-    message: fallbackMessages[status] ?? `The server could not complete the request (HTTP ${status}).`,
-  };
-}
+// The problem shape, its codes and the error class are the contract's (api/contract/src/problem.ts).
+export { ApiError, isApiError, toApiProblem } from '@evenhand/contract';
+export type { ApiProblem, FieldError as ApiFieldError } from '@evenhand/contract';
 
 export interface FieldErrorPlacement<Field extends string> {
   fields: { field: Field; message: string }[];

@@ -9,7 +9,7 @@ export function createQueryClient(): QueryClient {
         refetchOnWindowFocus: false,
         // A 4xx will not change on retry; network blips and 5xx may.
         retry: (failureCount, error) =>
-          !(error instanceof ApiError && error.status >= 400 && error.status < 500) && failureCount < 2,
+          !(error instanceof ApiError && error.statusCode >= 400 && error.statusCode < 500) && failureCount < 2,
       },
       mutations: { retry: false },
     },

@@ -6,14 +6,15 @@ import { API_PREFIX, buildOpenApiDocument } from '../app-setup';
 import { AppModule } from '../app.module';
 
 /**
- * `npm run openapi -w api`: writes api/openapi.json, from which both front ends generate their typed client.
+ * `npm run openapi -w api`: writes api/openapi.json, from which the contract (api/contract) generates the typed client
+ * both apps use. `node dist/openapi/write-openapi.js <file>` writes elsewhere (the suite compares the two).
  * Preview mode builds the module graph without connecting to anything.
  */
 async function main(): Promise<void> {
   const app = await NestFactory.create(AppModule, { preview: true, logger: false });
   app.setGlobalPrefix(API_PREFIX);
   const document = buildOpenApiDocument(app);
-  const target = resolve(__dirname, '../../openapi.json');
+  const target = process.argv[2] ? resolve(process.argv[2]) : resolve(__dirname, '../../openapi.json');
   writeFileSync(target, `${JSON.stringify(document, null, 2)}\n`);
   console.log(`Wrote ${target}`);
   await app.close();

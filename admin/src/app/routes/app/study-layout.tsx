@@ -33,9 +33,9 @@ export function Component() {
         <LoadingState label="Loading the study…" />
       ) : study.isError ? (
         <ErrorState
-          title={study.error instanceof ApiError && (study.error.status === 404 || study.error.status === 403) ? 'Study not available' : undefined}
+          title={study.error instanceof ApiError && (study.error.statusCode === 404 || study.error.statusCode === 403) ? 'Study not available' : undefined}
           message={
-            study.error instanceof ApiError && (study.error.status === 404 || study.error.status === 403)
+            study.error instanceof ApiError && (study.error.statusCode === 404 || study.error.statusCode === 403)
               ? 'There is no such study, or you are not one of its members. Ask a member of the study to add you.'
               : study.error instanceof ApiError
                 ? study.error.message

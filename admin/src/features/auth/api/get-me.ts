@@ -1,7 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { ApiError } from '@/lib/api-error';
 import { apiClient, unwrap } from '@/lib/api-client';
-import type { paths } from '@/lib/api-schema';
+import type { paths } from '@evenhand/contract';
 
 export type Me = paths['/api/auth/me']['get']['responses'][200]['content']['application/json'];
 
@@ -12,7 +12,7 @@ export async function getMe(): Promise<Me | null> {
   try {
     return await unwrap(apiClient.GET('/api/auth/me'));
   } catch (error) {
-    if (error instanceof ApiError && error.status === 401) return null;
+    if (error instanceof ApiError && error.statusCode === 401) return null;
     throw error;
   }
 }

@@ -37,7 +37,7 @@ export function SignInForm({ onSignedIn }: SignInFormProps) {
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Sign in">
       {signIn.isError && (
-        <Notice tone={signIn.error instanceof ApiError && signIn.error.status === 429 ? 'caution' : 'danger'}>
+        <Notice tone={signIn.error instanceof ApiError && signIn.error.statusCode === 429 ? 'caution' : 'danger'}>
           {describeFailure(signIn.error)}
         </Notice>
       )}

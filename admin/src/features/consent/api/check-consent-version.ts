@@ -1,6 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
 import { apiClient, unwrap } from '@/lib/api-client';
-import type { components } from '@/lib/api-schema';
+import type { components } from '@evenhand/contract';
 
 export type ConsentCheck = components['schemas']['ConsentCheckDto'];
 export type ConsentFinding = components['schemas']['ConsentFindingDto'];

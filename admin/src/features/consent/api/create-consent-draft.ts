@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { apiClient, unwrap } from '@/lib/api-client';
-import type { components } from '@/lib/api-schema';
+import type { components } from '@evenhand/contract';
 import { consentVersionsKey, type ConsentVersion } from './get-consent-versions';
 
 export type ConsentTemplateValues = components['schemas']['ConsentFieldsDto'];

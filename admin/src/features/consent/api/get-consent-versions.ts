@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiClient, unwrap } from '@/lib/api-client';
-import type { components } from '@/lib/api-schema';
+import type { components } from '@evenhand/contract';
 
 type ConsentVersionSchema = components['schemas']['ConsentVersionDto'];
 

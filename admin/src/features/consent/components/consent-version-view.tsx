@@ -29,7 +29,7 @@ export function ConsentVersionView({ studyId, versionId, canEdit, backHref, onAc
         <LoadingState label="Loading the version…" />
       ) : version.isError ? (
         <ErrorState
-          title={version.error instanceof ApiError && version.error.status === 404 ? 'No such version' : undefined}
+          title={version.error instanceof ApiError && version.error.statusCode === 404 ? 'No such version' : undefined}
           message={version.error instanceof ApiError ? version.error.message : 'The version could not be loaded.'}
           onRetry={() => void version.refetch()}
         />

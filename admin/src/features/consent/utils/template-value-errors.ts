@@ -9,7 +9,7 @@ export const templateValueFieldNames = Object.keys(templateFieldLabels) as Conse
 export function withoutValuesPrefix(error: unknown): unknown {
   if (!(error instanceof ApiError)) return error;
   return new ApiError({
-    statusCode: error.status,
+    statusCode: error.statusCode,
     code: error.code,
     message: error.message,
     errors: error.fieldErrors.map((problem) => ({ ...problem, field: problem.field.replace(/^values\./, '') })),

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiClient } from '@/lib/api-client';
 import { ApiError, toApiProblem } from '@/lib/api-error';
-import type { components } from '@/lib/api-schema';
+import type { components } from '@evenhand/contract';
 import { payoutKeys } from './payout-keys';
 
 export type ApprovalResult = components['schemas']['ApprovalResultDto'];

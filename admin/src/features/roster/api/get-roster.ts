@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { apiClient, unwrap } from '@/lib/api-client';
-import type { components } from '@/lib/api-schema';
+import type { components } from '@evenhand/contract';
 import { studyKeys } from '@/lib/study-keys';
 
 export type RosterPage = components['schemas']['RosterPageDto'];

@@ -1,6 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiClient } from '@/lib/api-client';
-import type { components } from '@/lib/api-schema';
+import type { components } from '@evenhand/contract';
 import { ApiError, toApiProblem } from '@/lib/api-error';
 import { rosterKey } from './get-roster';
 
@@ -27,7 +27,7 @@ function readFile(file: File, onProgress: (progress: ImportProgress) => void): P
     const reader = new FileReader();
     reader.onprogress = (event) => onProgress({ stage: 'reading', loaded: event.loaded, total: event.lengthComputable ? event.total : file.size });
     reader.onload = () => resolve(reader.result as ArrayBuffer);
-    reader.onerror = () => reject(new ApiError({ statusCode: 0, code: 'UNREADABLE', message: `The file ${file.name} could not be read. Choose it again.` }));
+    reader.onerror = () => reject(new ApiError({ statusCode: 0, code: 'FILE_UNREADABLE', message: `The file ${file.name} could not be read. Choose it again.` }));
     reader.readAsArrayBuffer(file);
   });
 }

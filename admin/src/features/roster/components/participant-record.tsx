@@ -40,7 +40,7 @@ export function ParticipantRecord({ studyId, enrollmentId, blinded, backHref, cu
         <LoadingState label="Loading the participant’s record…" />
       ) : record.isError ? (
         <ErrorState
-          title={record.error instanceof ApiError && record.error.status === 404 ? 'No such participant' : undefined}
+          title={record.error instanceof ApiError && record.error.statusCode === 404 ? 'No such participant' : undefined}
           message={record.error instanceof ApiError ? record.error.message : 'The record could not be loaded.'}
           onRetry={() => void record.refetch()}
         />

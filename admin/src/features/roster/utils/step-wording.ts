@@ -1,5 +1,5 @@
 import type { BadgeTone } from '@/components/ui/badge';
-import type { components } from '@/lib/api-schema';
+import type { components } from '@evenhand/contract';
 
 type RecordStep = components['schemas']['RecordStepDto'];
 type RecordCompletion = components['schemas']['RecordCompletionDto'];

@@ -1,6 +1,6 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { apiClient, unwrap } from '@/lib/api-client';
-import type { paths } from '@/lib/api-schema';
+import type { paths } from '@evenhand/contract';
 
 export type StaffUserPage = paths['/api/users']['get']['responses'][200]['content']['application/json'];
 export type StaffUser = StaffUserPage['items'][number];

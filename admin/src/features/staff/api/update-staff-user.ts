@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { apiClient, unwrap } from '@/lib/api-client';
-import type { paths } from '@/lib/api-schema';
+import type { paths } from '@evenhand/contract';
 import { staffNameSchema, staffRoleSchema } from './create-staff-user';
 import { staffUsersKey, type StaffUser } from './get-staff-users';
 

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { apiClient, unwrap } from '@/lib/api-client';
-import type { components } from '@/lib/api-schema';
+import type { components } from '@evenhand/contract';
 import { isKnownCurrency, parseMajorAmount } from '@/lib/money';
 import { studiesKey } from './get-studies';
 import type { Study } from './get-study';

@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiClient, unwrap } from '@/lib/api-client';
-import type { paths } from '@/lib/api-schema';
+import type { paths } from '@evenhand/contract';
 
 export type StudyList = paths['/api/studies']['get']['responses'][200]['content']['application/json'];
 export type StudySummary = StudyList['items'][number];

@@ -111,7 +111,7 @@ export function StudyLifecycleActions({ study }: StudyLifecycleActionsProps) {
 
 function RefusalNotice({ error, transition }: { error: unknown; transition: StudyTransition }) {
   if (!(error instanceof ApiError)) return <Notice className="mt-3">The change could not be saved. Try again.</Notice>;
-  if (transition === 'open' && error.status === 409 && error.fieldErrors.length > 0) {
+  if (transition === 'open' && error.statusCode === 409 && error.fieldErrors.length > 0) {
     const missing = missingOpeningItems(error.fieldErrors);
     return (
       <Notice className="mt-3">

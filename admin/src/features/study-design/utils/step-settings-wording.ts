@@ -1,4 +1,4 @@
-import type { components } from '@/lib/api-schema';
+import type { components } from '@evenhand/contract';
 
 type StepDto = components['schemas']['StepDto'];
 export type StepVerification = StepDto['verification'];

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import { toApiError } from '@/lib/api-problem';
-import type { paths } from '@/lib/api-schema';
+import type { paths } from '@evenhand/contract';
 import { replaceSignedInPerson } from './get-me';
 
 /** Who is now signed in, and the study page they asked for the link from (if any), to take them back there. */

@@ -1,7 +1,7 @@
 import { hashKey, type QueryClient, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import { toApiError } from '@/lib/api-problem';
-import type { paths } from '@/lib/api-schema';
+import type { paths } from '@evenhand/contract';
 
 /** The signed-in person (participant or staff). */
 export type Me = paths['/api/auth/me']['get']['responses'][200]['content']['application/json'];

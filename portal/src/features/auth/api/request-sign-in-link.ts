@@ -2,7 +2,7 @@ import { useMutation } from '@tanstack/react-query';
 import { z } from 'zod';
 import { api } from '@/lib/api-client';
 import { toApiError } from '@/lib/api-problem';
-import type { paths } from '@/lib/api-schema';
+import type { paths } from '@evenhand/contract';
 
 export type SignInLinkRequest = paths['/api/auth/sign-in-link']['post']['requestBody']['content']['application/json'];
 

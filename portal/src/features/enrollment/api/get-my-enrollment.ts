@@ -1,7 +1,7 @@
 import { type QueryClient, queryOptions, useQuery } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import { toApiError } from '@/lib/api-problem';
-import type { paths } from '@/lib/api-schema';
+import type { paths } from '@evenhand/contract';
 import { queryKeys } from '@/lib/query-keys';
 
 /**

@@ -1,7 +1,7 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { api } from '@/lib/api-client';
 import { isApiError, toApiError } from '@/lib/api-problem';
-import type { paths } from '@/lib/api-schema';
+import type { paths } from '@evenhand/contract';
 import { isWebAddress, leaveForExternalPage } from '@/lib/external-page';
 import { queryKeys } from '@/lib/query-keys';
 

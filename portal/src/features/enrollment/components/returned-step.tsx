@@ -1,6 +1,6 @@
 import { Link } from 'react-router-dom';
 import { formatDate } from '@/lib/date-format';
-import { formatMoney } from '@/lib/money';
+import { formatMinor } from '@/lib/money';
 import type { EnrollmentStep, MyEnrollment } from '../api/get-my-enrollment';
 import { EarnedSummary } from './your-steps';
 
@@ -13,7 +13,7 @@ type ReturnedStepProps = Pick<MyEnrollment, 'currency' | 'earned'> & {
 
 /** The step a task sent the person back from: that it is done, what it pays, and what they have earned in the study. */
 export function ReturnedStep({ step, stepNumber, currency, earned, justNow }: ReturnedStepProps) {
-  const pay = formatMoney(step.payMinor, currency);
+  const pay = formatMinor(step.payMinor, currency);
   return (
     <section aria-labelledby="returned-step-heading" className="flex flex-col gap-4 rounded-soft border border-sand-deep bg-paper-raised p-4">
       <h2 id="returned-step-heading" className="text-lead font-bold">

@@ -5,7 +5,7 @@ import { ModalDialog } from '@/components/ui/modal-dialog';
 import { Notice } from '@/components/ui/notice';
 import { TextAreaField } from '@/components/ui/text-area-field';
 import { describeProblem } from '@/lib/problem-message';
-import { formatMoney } from '@/lib/money';
+import { formatMinor } from '@/lib/money';
 import type { MyEnrollment } from '../api/get-my-enrollment';
 import {
   useWithdraw,
@@ -32,7 +32,7 @@ export function WithdrawDialog({ open, onClose, studyId, currency, earned, onWit
     resolver: zodResolver(withdrawFormSchema),
     defaultValues: { reason: '' },
   });
-  const money = (minor: number) => formatMoney(minor, currency);
+  const money = (minor: number) => formatMinor(minor, currency);
   const reasonLength = watch('reason').length;
 
   const close = () => {

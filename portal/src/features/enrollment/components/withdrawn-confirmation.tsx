@@ -1,7 +1,7 @@
 import { useEffect, useRef } from 'react';
 import { ButtonLink } from '@/components/ui/button';
 import { formatDateTime } from '@/lib/date-format';
-import { formatMoney } from '@/lib/money';
+import { formatMinor } from '@/lib/money';
 
 type WithdrawnConfirmationProps = {
   studyTitle: string;
@@ -15,7 +15,7 @@ export function WithdrawnConfirmation({ studyTitle, withdrewAt, currency, earned
   const headingRef = useRef<HTMLHeadingElement>(null);
   // The dialog just closed; start screen-reader and keyboard users at the confirmation.
   useEffect(() => headingRef.current?.focus(), []);
-  const money = (minor: number) => formatMoney(minor, currency);
+  const money = (minor: number) => formatMinor(minor, currency);
 
   return (
     <section aria-labelledby="withdrawn-heading" className="flex flex-col gap-5">

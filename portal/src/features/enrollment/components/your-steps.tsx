@@ -2,7 +2,7 @@ import { useEffect, useRef, useState } from 'react';
 import { Link } from 'react-router-dom';
 import { Notice } from '@/components/ui/notice';
 import { formatDate } from '@/lib/date-format';
-import { formatMoney } from '@/lib/money';
+import { formatMinor } from '@/lib/money';
 import type { EnrollmentStep, MyEnrollment } from '../api/get-my-enrollment';
 import { canDoNow, stepHowWords, stepStatusWords, stepWindowWords } from '../utils/step-schedule';
 import { OpenTaskButton } from './open-task-button';
@@ -27,7 +27,7 @@ type YourStepsProps = Pick<MyEnrollment, 'studyId' | 'steps' | 'currency' | 'ear
  * lab's task, a code, or nothing to do while staff mark it); then what has been earned.
  */
 export function YourSteps({ studyId, steps, currency, earned, contactEmail, onNeedsReconsent }: YourStepsProps) {
-  const money = (minor: number) => formatMoney(minor, currency);
+  const money = (minor: number) => formatMinor(minor, currency);
   const ordered = [...steps].sort((a, b) => a.position - b.position);
   const done = ordered.filter((step) => step.status === 'done').length;
   const [justCompletedId, setJustCompletedId] = useState<string | null>(null);
@@ -134,7 +134,7 @@ function StepDoneNotice({ stepNumber, pay }: { stepNumber: number; pay: string }
 }
 
 export function EarnedSummary({ earned, currency }: Pick<MyEnrollment, 'earned' | 'currency'>) {
-  const money = (minor: number) => formatMoney(minor, currency);
+  const money = (minor: number) => formatMinor(minor, currency);
   return (
     <dl className="grid grid-cols-3 gap-2 rounded-soft bg-sand p-3 text-center">
       <div className="flex flex-col">

@@ -3,7 +3,7 @@ import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { Spinner } from '@/components/ui/spinner';
 import { formatDate } from '@/lib/date-format';
-import { formatMoney } from '@/lib/money';
+import { formatMinor } from '@/lib/money';
 import { describeProblem } from '@/lib/problem-message';
 import { type MyPayout, useMyPayouts } from '../api/get-my-payouts';
 import { type AmountsByCurrency, amountsInOrder, payoutTotals } from '../utils/payout-totals';
@@ -12,8 +12,8 @@ import { payoutStatusWords } from './payout-status-words';
 /** "$22.00", or "€15.00 + $13.00" for pay in more than one currency; `zeroIn` names the currency for nothing at all. */
 function amountsText(amounts: AmountsByCurrency, zeroIn: string): string {
   const lines = amountsInOrder(amounts);
-  if (lines.length === 0) return formatMoney(0, zeroIn);
-  return lines.map((line) => formatMoney(line.minor, line.currency)).join(' + ');
+  if (lines.length === 0) return formatMinor(0, zeroIn);
+  return lines.map((line) => formatMinor(line.minor, line.currency)).join(' + ');
 }
 
 /** What is owed, on its way and paid, every payment with its receipt, and the year's total with the tax note. */
@@ -118,7 +118,7 @@ function PaymentList({ items }: { items: MyPayout[] }) {
             <li key={item.id} className="flex flex-col gap-2 rounded-soft border border-sand-deep bg-paper-raised p-4">
               <div className="flex flex-wrap items-baseline justify-between gap-x-3 gap-y-1">
                 <p className="font-bold">{item.kind === 'bonus' ? 'Completion bonus' : (item.stepTitle ?? 'A study step')}</p>
-                <p className="font-bold">{formatMoney(item.amountMinor, item.currency)}</p>
+                <p className="font-bold">{formatMinor(item.amountMinor, item.currency)}</p>
               </div>
               <p className="text-fine text-ink-soft">{item.studyTitle}</p>
               <p className="flex flex-wrap items-center gap-2 text-fine">

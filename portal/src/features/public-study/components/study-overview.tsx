@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { formatMoney } from '@/lib/money';
+import { formatMinor } from '@/lib/money';
 import { minutesInWords, paragraphsOf } from '@/lib/text';
 import type { PublicStudy } from '../api/get-public-study';
 
@@ -11,7 +11,7 @@ type StudyOverviewProps = {
 
 /** The public study page: what it involves, how long, what each step pays, who can take part, who runs it. */
 export function StudyOverview({ study, action }: StudyOverviewProps) {
-  const money = (minor: number) => formatMoney(minor, study.currency);
+  const money = (minor: number) => formatMinor(minor, study.currency);
   const steps = [...study.steps].sort((a, b) => a.position - b.position);
 
   return (

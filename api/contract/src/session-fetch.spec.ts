@@ -87,3 +87,22 @@ describe('createSessionFetch', () => {
     expect(refresh).not.toHaveBeenCalled();
   });
 });
+
+describe('createSessionFetch on the sign-in paths', () => {
+  it.each(['/api/auth/sign-in-link', '/api/auth/sign-in-link/consume/', '/api/auth/refresh'])(
+    'never refreshes after a 401 from %s',
+    async (path) => {
+      const refresh = vi.fn(async () => true);
+      const sessionFetch = createSessionFetch({ fetch: async () => answer(401), refresh, onSessionLost: vi.fn() });
+      expect((await sessionFetch(get(path))).status).toBe(401);
+      expect(refresh).not.toHaveBeenCalled();
+    },
+  );
+
+  it('reports a lost session when the retry after a renewal is refused too', async () => {
+    const onSessionLost = vi.fn();
+    const sessionFetch = createSessionFetch({ fetch: async () => answer(401), refresh: async () => true, onSessionLost });
+    expect((await sessionFetch(get('/api/studies'))).status).toBe(401);
+    expect(onSessionLost).toHaveBeenCalledTimes(1);
+  });
+});

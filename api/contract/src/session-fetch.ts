@@ -1,5 +1,11 @@
-/** Paths that must never trigger a refresh-and-retry: they are the session calls themselves. */
-const sessionPaths = ['/api/auth/sign-in', '/api/auth/refresh', '/api/auth/sign-out'];
+/** Paths that must never trigger a refresh-and-retry: a 401 there is the real answer (or the refresh itself failing). */
+const sessionPaths = new Set([
+  '/api/auth/sign-in',
+  '/api/auth/refresh',
+  '/api/auth/sign-out',
+  '/api/auth/sign-in-link',
+  '/api/auth/sign-in-link/consume',
+]);
 
 export interface SessionFetchOptions {
   fetch: (request: Request) => Promise<Response>;
@@ -27,8 +33,8 @@ export function createSessionFetch(options: SessionFetchOptions): (request: Requ
   };
 
   return async (request) => {
-    const path = new URL(request.url).pathname;
-    if (sessionPaths.includes(path)) return options.fetch(request);
+    const path = new URL(request.url).pathname.replace(/\/+$/, '');
+    if (sessionPaths.has(path)) return options.fetch(request);
 
     const retry = request.clone();
     const response = await options.fetch(request);
@@ -39,6 +45,9 @@ export function createSessionFetch(options: SessionFetchOptions): (request: Requ
       options.onSessionLost();
       return response;
     }
-    return options.fetch(retry);
+    const retried = await options.fetch(retry);
+    // Renewed but still refused: the session belongs to no one who may see this any more.
+    if (retried.status === 401) options.onSessionLost();
+    return retried;
   };
 }

@@ -1,0 +1,123 @@
+/** Every error code the api answers with, and its HTTP status: the one place codes meet statuses. */
+export const HTTP_STATUS_BY_CODE = {
+  VALIDATION_FAILED: 400,
+  LINK_INVALID: 400,
+  BAD_REQUEST: 400,
+  INVALID_CREDENTIALS: 401,
+  UNAUTHENTICATED: 401,
+  FORBIDDEN: 403,
+  NOT_FOUND: 404,
+  EMAIL_TAKEN: 409,
+  CONFLICT: 409,
+  PAYLOAD_TOO_LARGE: 413,
+  UNSUPPORTED_MEDIA_TYPE: 415,
+  RATE_LIMITED: 429,
+  INTERNAL: 500,
+  UNAVAILABLE: 503,
+  /** The payment provider does not answer or fails; nothing was changed, try again shortly. */
+  PROVIDER_UNAVAILABLE: 503,
+} as const;
+
+/** A code the api itself sends. */
+export type ErrorCode = keyof typeof HTTP_STATUS_BY_CODE;
+
+/**
+ * Codes a client may also see: the server could not be reached, something other than the api answered, or a file
+ * the person chose could not be read before sending.
+ */
+export type ClientErrorCode = ErrorCode | 'NETWORK' | 'UNEXPECTED_RESPONSE' | 'FILE_UNREADABLE';
+
+export interface FieldError {
+  field: string;
+  message: string;
+}
+
+/** The one JSON shape of every failure the api returns. */
+export interface Problem {
+  statusCode: number;
+  code: ErrorCode;
+  message: string;
+  errors?: FieldError[];
+}
+
+/**
+ * A failure as a client holds it. Some failures carry more than the four fields, e.g. a 409 on a signature
+ * names the consent version that is current now.
+ */
+export interface ApiProblem {
+  statusCode: number;
+  code: ClientErrorCode;
+  message: string;
+  errors?: FieldError[];
+  [detail: string]: unknown;
+}
+
+const knownCodes = new Set<string>(Object.keys(HTTP_STATUS_BY_CODE));
+
+export function isErrorCode(code: unknown): code is ErrorCode {
+  return typeof code === 'string' && knownCodes.has(code);
+}
+
+/** Thrown by every client call the api answers with a failure (or that never reached the api). */
+export class ApiError extends Error {
+  readonly statusCode: number;
+  readonly code: ClientErrorCode;
+  readonly fieldErrors: FieldError[];
+  readonly problem: ApiProblem;
+
+  constructor(problem: ApiProblem) {
+    super(problem.message);
+    this.name = 'ApiError';
+    this.statusCode = problem.statusCode;
+    this.code = problem.code;
+    this.fieldErrors = problem.errors ?? [];
+    this.problem = problem;
+  }
+}
+
+export function isApiError(error: unknown, code?: ClientErrorCode): error is ApiError {
+  return error instanceof ApiError && (code === undefined || error.code === code);
+}
+
+const fallbackMessages: Partial<Record<number, string>> = {
+  401: 'Your session has ended. Please sign in again.',
+  403: 'You do not have access to this.',
+  404: 'Not found.',
+  429: 'Too many attempts. Please wait a minute and try again.',
+};
+
+function isFieldError(item: unknown): item is FieldError {
+  return (
+    typeof item === 'object' &&
+    item !== null &&
+    typeof (item as FieldError).field === 'string' &&
+    typeof (item as FieldError).message === 'string'
+  );
+}
+
+/**
+ * Reads whatever a failed response carried into the problem shape, tolerating bodies that are not the api's
+ * (a proxy's 502 page, an empty body): those keep the HTTP status and get a plain message.
+ */
+export function toApiProblem(status: number, body: unknown): ApiProblem {
+  if (typeof body === 'object' && body !== null) {
+    const candidate = body as Record<string, unknown>;
+    if (isErrorCode(candidate.code) && typeof candidate.message === 'string') {
+      const errors = Array.isArray(candidate.errors) ? candidate.errors.filter(isFieldError) : [];
+      const { errors: _ignored, ...rest } = candidate;
+      void _ignored;
+      return {
+        ...rest,
+        statusCode: typeof candidate.statusCode === 'number' ? candidate.statusCode : status,
+        code: candidate.code,
+        message: candidate.message,
+        ...(errors.length > 0 ? { errors } : {}),
+      };
+    }
+  }
+  return {
+    statusCode: status,
+    code: status >= 500 && status !== 502 && status !== 504 ? 'INTERNAL' : 'UNEXPECTED_RESPONSE',
+    message: fallbackMessages[status] ?? `The server could not complete the request (HTTP ${status}).`,
+  };
+}
