@@ -14,6 +14,7 @@ export const routes: RouteObject[] = [
         children: [
           { index: true, lazy: () => import('./routes/app/home') },
           { path: 'staff', lazy: () => import('./routes/app/staff') },
+          { path: 'staff/:userId', lazy: () => import('./routes/app/staff-member') },
           { path: 'studies', lazy: () => import('./routes/app/studies') },
           { path: 'studies/new', lazy: () => import('./routes/app/study-new') },
           {

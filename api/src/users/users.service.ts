@@ -89,6 +89,12 @@ export class UsersService {
     return { items: items.map(toStaffUserDto), total, page: query.page, pageSize: query.pageSize };
   }
 
+  async getStaff(id: string): Promise<StaffUserDto> {
+    const user = await this.users.findOne({ where: { id } });
+    if (!user || user.role === 'participant') throw new DomainException('NOT_FOUND', 'No staff member with this id.');
+    return toStaffUserDto(user);
+  }
+
   async createStaff(actor: SessionUser, input: CreateStaffUserDto): Promise<StaffUserDto> {
     const passwordHash = await this.hashPassword(input.password);
     return this.dataSource.transaction(async (manager) => {
