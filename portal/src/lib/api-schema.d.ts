@@ -260,6 +260,38 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/studies/{studyId}/archive": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["StudiesController_archive"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/unarchive": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["StudiesController_unarchive"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/studies/{studyId}/pause": {
         parameters: {
             query?: never;
@@ -1511,6 +1543,11 @@ export interface components {
             status: "draft" | "recruiting" | "paused" | "closed";
             /** @enum {string} */
             design: "between" | "within";
+            /**
+             * Format: date-time
+             * @description When the closed study was archived
+             */
+            archivedAt: string | null;
         };
         StudyListDto: {
             items: components["schemas"]["StudySummaryDto"][];
@@ -1551,6 +1588,11 @@ export interface components {
             status: "draft" | "recruiting" | "paused" | "closed";
             /** @enum {string} */
             design: "between" | "within";
+            /**
+             * Format: date-time
+             * @description When the closed study was archived
+             */
+            archivedAt: string | null;
             protocolNumber: string | null;
             summary: string;
             estimatedMinutes: number | null;
@@ -1562,6 +1604,12 @@ export interface components {
             blinded: boolean;
             labName: string;
             contactEmail: string | null;
+            /** @description The ethics board approval reference (not the protocol number) */
+            ethicsApprovalReference: string | null;
+            /** @description People assigned so far; the target size may not go below it */
+            assignedCount: number;
+            /** @description What may change in the details, and when, in plain words */
+            editRules: string[];
             /** Format: date-time */
             openedAt: string | null;
             /** Format: date-time */
@@ -1584,6 +1632,8 @@ export interface components {
             blinded?: boolean;
             labName?: string;
             contactEmail?: string;
+            /** @description The ethics board approval reference; empty clears it */
+            ethicsApprovalReference?: string;
         };
         OpeningChecklistItemDto: {
             /** @enum {string} */
@@ -3345,13 +3395,17 @@ export interface operations {
     };
     StudiesController_list: {
         parameters: {
-            query?: never;
+            query?: {
+                /** @description true lists only archived studies; by default they are left out */
+                archived?: "true" | "false";
+            };
             header?: never;
             path?: never;
             cookie?: never;
         };
         requestBody?: never;
         responses: {
+            /** @description Staff lists leave archived studies out; ?archived=true lists only those */
             200: {
                 headers: {
                     [name: string]: unknown;
@@ -3453,6 +3507,49 @@ export interface operations {
         };
     };
     StudiesController_open: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StudyDto"];
+                };
+            };
+        };
+    };
+    StudiesController_archive: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Closed studies only; archived studies leave the default lists and can still be opened */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StudyDto"];
+                };
+            };
+        };
+    };
+    StudiesController_unarchive: {
         parameters: {
             query?: never;
             header?: never;
