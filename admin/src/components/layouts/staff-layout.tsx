@@ -58,10 +58,10 @@ export function StaffLayout({ navItems, personName, personEmail, roleLabel, onSi
               <p className="text-sm font-medium max-sm:sr-only" title={personEmail}>
                 {personName}
               </p>
+              <p className="text-xs text-night-muted">{roleLabel}</p>
               <NavLink to="/account" className="text-xs text-night-muted underline-offset-2 hover:text-night-ink hover:underline">
                 Your account
               </NavLink>
-              <p className="text-xs text-night-muted">{roleLabel}</p>
             </div>
             <Button variant="onNight" onClick={onSignOut} pending={signingOut}>
               Sign out
