@@ -68,7 +68,7 @@ describe('steps, completions, reminders and contacts', () => {
     await page.getByRole('link', { name: 'New study' }).first().click();
     await page.getByRole('heading', { name: 'New study', level: 1 }).waitFor();
     await page.getByLabel('Title').fill(title);
-    await page.getByLabel('Ethics protocol number').fill('HLCL-2027-044');
+    await page.getByLabel('Protocol reference').fill('HLCL-2027-044');
     await page.getByLabel('Summary for participants').fill('One online session finding the way out of a virtual stairwell.');
     await page.getByRole('radio', { name: /Between subjects/ }).click();
     await page.getByRole('button', { name: 'Create study' }).click();

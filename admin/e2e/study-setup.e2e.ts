@@ -42,7 +42,7 @@ describe('a researcher sets up a between-subjects study', () => {
     await page.getByRole('heading', { name: 'New study', level: 1 }).waitFor();
     await page.getByLabel('Title').fill(title);
     expect(await page.getByLabel('Link name').inputValue()).toBe(`corridor-signs-${stamp}`);
-    await page.getByLabel('Ethics protocol number').fill('HLCL-2027-021');
+    await page.getByLabel('Protocol reference').fill('HLCL-2027-021');
     await page.getByLabel('Summary for participants').fill('Two short online sessions finding rooms in a virtual office building.');
     await page.getByLabel('Lab name').fill('Harbor Lane Cognition Lab');
     await page.getByLabel('Contact e-mail').fill('corridors@harborlane.test');

@@ -19,6 +19,8 @@ const PUBLIC_ROUTES = new Set([
   'POST /api/auth/sign-in',
   'POST /api/auth/sign-in-link',
   'POST /api/auth/sign-in-link/consume',
+  'POST /api/auth/password-reset',
+  'POST /api/auth/password-reset/consume',
   'POST /api/auth/refresh',
   'POST /api/auth/sign-out',
   'GET /api/health',

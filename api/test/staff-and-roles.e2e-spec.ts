@@ -34,6 +34,10 @@ describe('staff management', () => {
 
     const page = await expectStatus(browsers.admin.get('/api/users').query({ search: 'noor testp' }), 200);
     expect(page.items.map((u: { email: string }) => u.email)).toContain(email);
+    // One person's page reads them by id.
+    const one = await expectStatus(browsers.admin.get(`/api/users/${created.id}`), 200);
+    expect(one).toMatchObject({ id: created.id, email, name: 'Noor Testperson', role: 'researcher' });
+    await expectStatus(browsers.admin.get('/api/users/00000000-0000-4000-8000-000000000000'), 404, 'NOT_FOUND');
 
     const staffBrowser = testApp.browser();
     await expectStatus(staffBrowser.post('/api/auth/sign-in').send({ email, password: 'a-long-password-1' }), 200);
@@ -92,6 +96,7 @@ describe('roles', () => {
     ['participant', 'get', '/api/users'],
     ['coordinator', 'post', '/api/users'],
     ['participant', 'patch', '/api/users/00000000-0000-4000-8000-000000000000'],
+    ['coordinator', 'get', '/api/users/00000000-0000-4000-8000-000000000000'],
     ['coordinator', 'get', '/api/audit'],
     ['researcher', 'get', '/api/audit/verify'],
     ['participant', 'get', '/api/audit'],

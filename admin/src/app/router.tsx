@@ -8,12 +8,16 @@ export const routes: RouteObject[] = [
     hydrateFallbackElement: <LoadingState label="Opening Evenhand…" className="min-h-dvh" />,
     children: [
       { path: '/sign-in', lazy: () => import('./routes/sign-in') },
+      { path: '/forgot-password', lazy: async () => ({ Component: (await import('./routes/password-pages')).ForgotPasswordPage }) },
+      { path: '/reset-password', lazy: async () => ({ Component: (await import('./routes/password-pages')).ResetPasswordPage }) },
       {
         path: '/',
         lazy: () => import('./routes/app/root'),
         children: [
           { index: true, lazy: () => import('./routes/app/home') },
+          { path: 'account', lazy: () => import('./routes/app/account') },
           { path: 'staff', lazy: () => import('./routes/app/staff') },
+          { path: 'staff/:userId', lazy: () => import('./routes/app/staff-member') },
           { path: 'studies', lazy: () => import('./routes/app/studies') },
           { path: 'studies/new', lazy: () => import('./routes/app/study-new') },
           {

@@ -29,6 +29,10 @@ const study = {
   closedAt: null,
   createdAt: '2026-12-01T19:45:15.598Z',
   designLocked: true,
+  archivedAt: null,
+  ethicsApprovalReference: null,
+  assignedCount: 0,
+  editRules: [],
 };
 const conditions = ['A', 'B', 'C'].map((code, i) => ({
   id: `c000000${i}-0000-4000-8000-000000000000`,

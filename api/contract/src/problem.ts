@@ -9,6 +9,8 @@ export const HTTP_STATUS_BY_CODE = {
   NOT_FOUND: 404,
   EMAIL_TAKEN: 409,
   CONFLICT: 409,
+  /** A study detail that may no longer change (after the first assignment); `errors[]` names each field and why. */
+  STUDY_DETAIL_FIXED: 409,
   PAYLOAD_TOO_LARGE: 413,
   UNSUPPORTED_MEDIA_TYPE: 415,
   RATE_LIMITED: 429,

@@ -1,13 +1,13 @@
 import { Body, Controller, Get, HttpCode, Post, Req, Res, UseGuards } from '@nestjs/common';
 import { ApiAcceptedResponse, ApiNoContentResponse, ApiOkResponse, ApiTags, ApiTooManyRequestsResponse } from '@nestjs/swagger';
 import type { CookieOptions, Request, Response } from 'express';
-import { CurrentUser, Public } from '../common/auth/auth.decorators';
+import { CurrentUser, Public, Roles } from '../common/auth/auth.decorators';
 import { ACCESS_COOKIE, REFRESH_COOKIE, SessionUser } from '../common/auth/session-user';
 import { AppConfig } from '../config/app-config';
 import { SignInThrottlerGuard } from '../rate-limit/sign-in-throttler.guard';
 import { UsersService } from '../users/users.service';
 import { AuthService, ClientInfo, IssuedSession, toMeDto } from './auth.service';
-import { ConsumeSignInLinkDto, LinkRequestedDto, MeDto, RequestSignInLinkDto, SessionDto, SignInDto } from './dto/auth.dto';
+import { ChangePasswordDto, ConsumePasswordResetDto, RequestPasswordResetDto, ConsumeSignInLinkDto, LinkRequestedDto, MeDto, RequestSignInLinkDto, SessionDto, SignInDto } from './dto/auth.dto';
 
 const REFRESH_COOKIE_PATH = '/api/auth';
 
@@ -77,6 +77,33 @@ export class AuthController {
   async signOut(@Req() request: Request, @Res({ passthrough: true }) response: Response): Promise<void> {
     await this.auth.signOut(request.cookies?.[REFRESH_COOKIE], clientOf(request));
     this.clearCookies(response);
+  }
+
+  @Post('password')
+  @HttpCode(204)
+  @Roles('coordinator', 'researcher', 'auditor', 'admin')
+  @ApiNoContentResponse({ description: 'The signed-in staff member’s password is changed; this session carries on' })
+  async changePassword(@CurrentUser() user: SessionUser, @Body() body: ChangePasswordDto): Promise<void> {
+    await this.users.changeOwnPassword(user, body.currentPassword, body.newPassword);
+  }
+
+  @Public()
+  @UseGuards(SignInThrottlerGuard)
+  @Post('password-reset')
+  @HttpCode(202)
+  @ApiAcceptedResponse({ type: LinkRequestedDto, description: 'The same answer whether or not the address has an account' })
+  async requestPasswordReset(@Body() body: RequestPasswordResetDto): Promise<LinkRequestedDto> {
+    await this.auth.requestPasswordReset(body.email);
+    return { sent: true };
+  }
+
+  // Not rate limited, like sign-in links: the token carries 256 bits.
+  @Public()
+  @Post('password-reset/consume')
+  @HttpCode(204)
+  @ApiNoContentResponse({ description: 'The new password is set and every session of the person has ended' })
+  async consumePasswordReset(@Body() body: ConsumePasswordResetDto, @Req() request: Request): Promise<void> {
+    await this.auth.consumePasswordReset(body.token, body.newPassword, clientOf(request));
   }
 
   @Get('me')

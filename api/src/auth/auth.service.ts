@@ -14,7 +14,8 @@ import { UserEntity } from '../users/entities/user.entity';
 import { UsersService } from '../users/users.service';
 import { MeDto } from './dto/auth.dto';
 import { RefreshTokenEntity } from './entities/refresh-token.entity';
-import { hashToken, newOpaqueToken, signInLinkToken, successorToken } from './session-tokens';
+import { hashToken, newOpaqueToken, passwordResetToken, signInLinkToken, successorToken } from './session-tokens';
+import { passwordResetMail } from './password-reset-mail';
 import { signInLinkMail } from './sign-in-link-mail';
 
 export interface IssuedSession {
@@ -53,6 +54,7 @@ export class AuthService implements OnModuleInit {
 
   async onModuleInit(): Promise<void> {
     await this.jobs.handle<SignInLinkRequest>(JOB_NAMES.signInLinkRequest, (request, jobId) => this.sendSignInLink(request, jobId));
+    await this.jobs.handle<{ email: string }>(JOB_NAMES.passwordResetRequest, (request, jobId) => this.sendPasswordReset(request.email, jobId));
   }
 
   async signInWithPassword(email: string, password: string, client: ClientInfo): Promise<IssuedSession> {
@@ -100,6 +102,53 @@ export class AuthService implements OnModuleInit {
       );
       if (inserted.length === 0) return;
       await this.mail.enqueue(manager, signInLinkMail(request.email, link.toString(), minutes));
+    });
+  }
+
+  /** Like a link request: only queued, so the answer is the same, equally fast, whether or not the address is known. */
+  async requestPasswordReset(email: string): Promise<void> {
+    await this.jobs.enqueue(this.dataSource.manager, JOB_NAMES.passwordResetRequest, { email });
+  }
+
+  /** The job behind a reset request: active staff get a single-use link; anyone else gets nothing. Idempotent per job. */
+  private async sendPasswordReset(email: string, jobId: string): Promise<void> {
+    const user = await this.users.findByEmail(email);
+    if (!user || user.role === 'participant' || !user.active || !user.passwordHash) return;
+    const token = passwordResetToken(this.config.jwtSecret, jobId);
+    const link = new URL('/reset-password', this.config.adminUrl);
+    link.searchParams.set('token', token);
+    await this.dataSource.transaction(async (manager) => {
+      const inserted = await queryRows(
+        manager,
+        `INSERT INTO password_reset (user_id, email, token_hash, expires_at) VALUES ($1, $2, $3, now() + $4 * interval '1 second')
+         ON CONFLICT (token_hash) DO NOTHING RETURNING id`,
+        [user.id, user.email, hashToken(token), this.config.passwordResetSeconds],
+      );
+      if (inserted.length === 0) return;
+      await this.mail.enqueue(manager, passwordResetMail(user.email, link.toString(), Math.round(this.config.passwordResetSeconds / 60)));
+    });
+  }
+
+  /** Sets the new password from a reset link (once), ends every session of the person and records it. */
+  async consumePasswordReset(token: string, newPassword: string, client: ClientInfo): Promise<void> {
+    await this.dataSource.transaction(async (manager) => {
+      const [reset] = await queryRows<{ user_id: string; email: string }>(
+        manager,
+        `UPDATE password_reset SET used_at = now() WHERE token_hash = $1 AND used_at IS NULL AND expires_at > now() RETURNING user_id, email`,
+        [hashToken(token)],
+      );
+      const user = reset ? await this.users.findActiveById(reset.user_id) : null;
+      if (!reset || !user || user.role === 'participant') {
+        throw new DomainException('LINK_INVALID', 'This password link is not valid any more: it was used already, has expired, or is unknown. Ask for a new one.');
+      }
+      await this.users.setPasswordFromReset(manager, user.id, newPassword);
+      await this.audit.record(manager, {
+        actor: { id: user.id, email: user.email },
+        action: 'user.password-reset',
+        subjectType: 'user',
+        subjectId: user.id,
+        data: { email: user.email, ...client },
+      });
     });
   }
 

@@ -23,3 +23,8 @@ export function successorToken(key: string, token: string): string {
 export function signInLinkToken(key: string, jobId: string): string {
   return createHmac('sha256', key).update(`sign-in-link:${jobId}`).digest('base64url');
 }
+
+/** The token of the password-reset link made by one reset-request job: the same however often the job runs. */
+export function passwordResetToken(key: string, jobId: string): string {
+  return createHmac('sha256', key).update(`password-reset:${jobId}`).digest('base64url');
+}

@@ -82,6 +82,12 @@ export class AppConfig {
   @Min(60)
   signInLinkSeconds = 15 * 60;
 
+  /** How long an e-mailed password-reset link works. */
+  @Transform(toInt)
+  @IsInt()
+  @Min(60)
+  passwordResetSeconds = 60 * 60;
+
   /** Cookies get `Secure` everywhere but on a developer's loopback. */
   @Transform(toBool)
   @IsBoolean()
@@ -246,6 +252,7 @@ const ENVIRONMENT_NAMES: Record<keyof AppConfig, string> = {
   accessTokenSeconds: 'ACCESS_TOKEN_SECONDS',
   refreshTokenSeconds: 'REFRESH_TOKEN_SECONDS',
   signInLinkSeconds: 'SIGN_IN_LINK_SECONDS',
+  passwordResetSeconds: 'PASSWORD_RESET_SECONDS',
   secureCookies: 'SECURE_COOKIES',
   portalUrl: 'PORTAL_URL',
   adminUrl: 'ADMIN_URL',

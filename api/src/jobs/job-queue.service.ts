@@ -16,7 +16,7 @@ export interface JobHandlerOptions<Payload> {
 }
 
 /** Every kind of background job, so names are not spread as strings. */
-export const JOB_NAMES = { sendMail: 'mail.send', signedCopy: 'consent.signed-copy', sendPayout: 'payout.send', payoutReceipt: 'payout.receipt', sweepPayouts: 'payout.sweep', evaluateAttritionAlerts: 'attrition.evaluate-alerts', sweepReminders: 'reminders.sweep', auditReceipt: 'audit.receipt', signInLinkRequest: 'auth.sign-in-link' } as const;
+export const JOB_NAMES = { sendMail: 'mail.send', signedCopy: 'consent.signed-copy', sendPayout: 'payout.send', payoutReceipt: 'payout.receipt', sweepPayouts: 'payout.sweep', evaluateAttritionAlerts: 'attrition.evaluate-alerts', sweepReminders: 'reminders.sweep', auditReceipt: 'audit.receipt', signInLinkRequest: 'auth.sign-in-link', passwordResetRequest: 'auth.password-reset' } as const;
 /** Jobs fetched and run side by side per worker. */
 export const JOB_BATCH_SIZE = 10;
 /** Tries after the first before a job is given up. */

@@ -73,6 +73,11 @@ export class RandomizationService {
     return manager.exists(AllocationEntity, { where: { studyId } });
   }
 
+  /** How many people have been assigned in this study. */
+  async countAllocations(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<number> {
+    return manager.count(AllocationEntity, { where: { studyId } });
+  }
+
   async schemeOf(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<AssignmentSchemeEntity | null> {
     return manager.findOne(AssignmentSchemeEntity, { where: { studyId } });
   }

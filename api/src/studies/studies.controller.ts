@@ -1,4 +1,4 @@
-import { Body, Controller, Delete, Get, HttpCode, Param, Patch, Post, Put } from '@nestjs/common';
+import { Body, Controller, Delete, Get, HttpCode, Param, Patch, Post, Put, Query } from '@nestjs/common';
 import { ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
@@ -16,6 +16,7 @@ import {
   StudyListDto,
   UpdateConditionDto,
   UpdateStudyDto,
+  ListStudiesQueryDto,
 } from './dto/study.dto';
 import { ReplaceScreeningQuestionsDto, ScreeningQuestionListDto } from './dto/screening.dto';
 import { OpeningChecklistDto } from './dto/opening-checklist.dto';
@@ -31,9 +32,9 @@ export class StudiesController {
   constructor(private readonly studies: StudiesService) {}
 
   @Get()
-  @ApiOkResponse({ type: StudyListDto })
-  list(@CurrentUser() user: SessionUser): Promise<StudyListDto> {
-    return this.studies.listFor(user);
+  @ApiOkResponse({ type: StudyListDto, description: 'Staff lists leave archived studies out; ?archived=true lists only those' })
+  list(@CurrentUser() user: SessionUser, @Query() query: ListStudiesQueryDto): Promise<StudyListDto> {
+    return this.studies.listFor(user, query.archived === 'true');
   }
 
   @Post()
@@ -74,6 +75,24 @@ export class StudiesController {
   @ApiOkResponse({ type: StudyDto })
   open(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<StudyDto> {
     return this.studies.transition(user, studyId, 'open');
+  }
+
+  @Post(':studyId/archive')
+  @HttpCode(200)
+  @Roles(...DESIGNERS)
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: StudyDto, description: 'Closed studies only; archived studies leave the default lists and can still be opened' })
+  archive(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<StudyDto> {
+    return this.studies.setArchived(user, studyId, true);
+  }
+
+  @Post(':studyId/unarchive')
+  @HttpCode(200)
+  @Roles(...DESIGNERS)
+  @StudyMembersOnly()
+  @ApiOkResponse({ type: StudyDto })
+  unarchive(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<StudyDto> {
+    return this.studies.setArchived(user, studyId, false);
   }
 
   @Post(':studyId/pause')

@@ -55,6 +55,7 @@ export interface OpeningRequirement {
   check(manager: EntityManager, studyId: string): Promise<string | null>;
 }
 
+import { STUDY_EDIT_RULES, refusedDetailChanges, type StudyDetails } from './study-edit-rules';
 @Injectable()
 export class StudiesService {
   private openingRequirements: OpeningRequirement[] = [];
@@ -82,18 +83,24 @@ export class StudiesService {
   }
 
   /** Admins and auditors see every study; other staff only those they are members of; participants those they take part in. */
-  async listFor(user: SessionUser): Promise<StudyListDto> {
+  async listFor(user: SessionUser, archived = false): Promise<StudyListDto> {
     const builder = this.dataSource.getRepository(StudyEntity).createQueryBuilder('study');
     if (user.role === 'participant') {
       // The enrollments domain owns participation; studies only filters by it.
       builder.where('study.id IN (SELECT study_id FROM enrollment WHERE participant_id = :userId)', { userId: user.id });
-    } else if (user.role !== 'admin' && user.role !== 'auditor') {
-      builder.innerJoin(StudyMembershipEntity, 'membership', 'membership.study_id = study.id AND membership.user_id = :userId', {
-        userId: user.id,
-      });
+    } else {
+      if (user.role !== 'admin' && user.role !== 'auditor') {
+        builder.innerJoin(StudyMembershipEntity, 'membership', 'membership.study_id = study.id AND membership.user_id = :userId', {
+          userId: user.id,
+        });
+      }
+      // Staff lists leave archived studies out unless asked for them; a participant's own list keeps every study.
+      builder.where(archived ? 'study.archived_at IS NOT NULL' : 'study.archived_at IS NULL');
     }
     const studies = await builder.orderBy('study.created_at', 'DESC').getMany();
-    return { items: studies.map(({ id, slug, title, status, design }) => ({ id, slug, title, status, design })) };
+    return {
+      items: studies.map(({ id, slug, title, status, design, archivedAt }) => ({ id, slug, title, status, design, archivedAt: archivedAt?.toISOString() ?? null })),
+    };
   }
 
   async isMember(userId: string, studyId: string): Promise<boolean> {
@@ -146,6 +153,10 @@ export class StudiesService {
       blinded: study.blinded,
       labName: study.labName,
       contactEmail: study.contactEmail,
+      ethicsApprovalReference: study.ethicsApprovalReference,
+      archivedAt: study.archivedAt?.toISOString() ?? null,
+      assignedCount: await this.randomization.countAllocations(study.id),
+      editRules: [...STUDY_EDIT_RULES],
       openedAt: study.openedAt?.toISOString() ?? null,
       closedAt: study.closedAt?.toISOString() ?? null,
       createdAt: study.createdAt.toISOString(),
@@ -176,11 +187,15 @@ export class StudiesService {
   async update(actor: SessionUser, studyId: string, input: UpdateStudyDto): Promise<StudyDto> {
     const study = await this.dataSource.transaction(async (manager) => {
       const current = await this.require(studyId, manager, true);
+      if (current.archivedAt) throw new DomainException('CONFLICT', 'An archived study is kept as it was. Take it out of the archive to look at it; it stays closed.');
       if (current.status === 'closed') throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
-      if (input.design && input.design !== current.design && current.status !== 'draft') {
-        throw new DomainException('CONFLICT', 'The design cannot change once the study has opened.', [{ field: 'design', message: 'is fixed after opening' }]);
+      const wanted = { ...input, ...(input.ethicsApprovalReference === '' ? { ethicsApprovalReference: null } : {}) };
+      const assignedCount = await this.randomization.countAllocations(studyId, manager);
+      const refused = refusedDetailChanges({ ...current, archived: false }, wanted as Partial<StudyDetails>, assignedCount);
+      if (refused.length > 0) {
+        throw new DomainException('STUDY_DETAIL_FIXED', refused.map((r) => r.message).join(' '), refused);
       }
-      const changes = Object.fromEntries(Object.entries(input).filter(([k, v]) => v !== undefined && (current as never)[k] !== v));
+      const changes = Object.fromEntries(Object.entries(wanted).filter(([k, v]) => v !== undefined && (current as never)[k] !== v));
       if (Object.keys(changes).length === 0) return current;
       Object.assign(current, changes);
       const saved = await manager.save(current);
@@ -226,6 +241,29 @@ export class StudiesService {
         subjectType: 'study',
         subjectId: studyId,
         data: { from, to: saved.status },
+      });
+      return saved;
+    });
+    return this.toDto(study);
+  }
+
+  /** Takes a closed study out of the default lists (or brings it back); it stays closed and can still be opened. */
+  async setArchived(actor: SessionUser, studyId: string, archived: boolean): Promise<StudyDto> {
+    const study = await this.dataSource.transaction(async (manager) => {
+      const current = await this.require(studyId, manager, true);
+      if (archived && current.status !== 'closed') {
+        throw new DomainException('CONFLICT', `Only a closed study can be archived; this one is ${current.status}. Close it first.`);
+      }
+      if (archived === (current.archivedAt !== null)) return current;
+      current.archivedAt = archived ? new Date() : null;
+      const saved = await manager.save(current);
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: archived ? 'study.archived' : 'study.unarchived',
+        subjectType: 'study',
+        subjectId: studyId,
+        data: {},
       });
       return saved;
     });

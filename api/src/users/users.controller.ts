@@ -18,6 +18,12 @@ export class UsersController {
     return this.users.listStaff(query);
   }
 
+  @Get(':id')
+  @ApiOkResponse({ type: StaffUserDto })
+  get(@Param('id', uuidParam('id')) id: string): Promise<StaffUserDto> {
+    return this.users.getStaff(id);
+  }
+
   @Post()
   @ApiCreatedResponse({ type: StaffUserDto })
   create(@CurrentUser() actor: SessionUser, @Body() body: CreateStaffUserDto): Promise<StaffUserDto> {

@@ -56,6 +56,32 @@ export class UsersService {
     return user;
   }
 
+  /** A staff member changes their own password; the current one must be given, and the new one must differ. */
+  async changeOwnPassword(actor: SessionUser, currentPassword: string, newPassword: string): Promise<void> {
+    const user = await this.users.findOne({ where: { id: actor.id } });
+    if (!user || !user.passwordHash || user.role === 'participant') throw new DomainException('FORBIDDEN', 'Only staff accounts have a password.');
+    if (!(await bcrypt.compare(currentPassword, user.passwordHash))) {
+      throw new DomainException('VALIDATION_FAILED', 'The current password is not right.', [{ field: 'currentPassword', message: 'is not your current password' }]);
+    }
+    if (currentPassword === newPassword) {
+      throw new DomainException('VALIDATION_FAILED', 'Choose a password different from the current one.', [
+        { field: 'newPassword', message: 'must differ from the current password' },
+      ]);
+    }
+    const passwordHash = await this.hashPassword(newPassword);
+    await this.dataSource.transaction(async (manager) => {
+      await manager.update(UserEntity, { id: user.id }, { passwordHash });
+      await this.audit.record(manager, { actor, action: 'user.password-changed', subjectType: 'user', subjectId: user.id, data: { email: user.email } });
+    });
+  }
+
+  /** Sets a new password from a reset link, in the caller's transaction; every session of the person ends. */
+  async setPasswordFromReset(manager: EntityManager, userId: string, newPassword: string): Promise<void> {
+    const passwordHash = await this.hashPassword(newPassword);
+    await manager.update(UserEntity, { id: userId }, { passwordHash });
+    await manager.query(`UPDATE refresh_token SET revoked_at = now() WHERE user_id = $1 AND revoked_at IS NULL`, [userId]);
+  }
+
   async markSignedIn(manager: EntityManager, userId: string): Promise<void> {
     await manager.update(UserEntity, { id: userId }, { lastSignInAt: new Date() });
   }
@@ -87,6 +113,12 @@ export class UsersService {
       .take(query.pageSize)
       .getManyAndCount();
     return { items: items.map(toStaffUserDto), total, page: query.page, pageSize: query.pageSize };
+  }
+
+  async getStaff(id: string): Promise<StaffUserDto> {
+    const user = await this.users.findOne({ where: { id } });
+    if (!user || user.role === 'participant') throw new DomainException('NOT_FOUND', 'No staff member with this id.');
+    return toStaffUserDto(user);
   }
 
   async createStaff(actor: SessionUser, input: CreateStaffUserDto): Promise<StaffUserDto> {

@@ -1,4 +1,4 @@
-import { Navigate, useLocation, useNavigate } from 'react-router-dom';
+import { Link, Navigate, useLocation, useNavigate } from 'react-router-dom';
 import { LoadingState } from '@/components/ui/states';
 import { Wordmark } from '@/components/ui/wordmark';
 import { useMe } from '@/features/auth/api/get-me';
@@ -27,6 +27,11 @@ export function Component() {
         <div className="rounded-lg border border-line bg-surface p-6 shadow-raised">
           <h1 className="mb-4 text-lg font-semibold">Sign in</h1>
           <SignInForm onSignedIn={() => navigate(returnPath, { replace: true })} />
+          <p className="mt-4 text-sm">
+            <Link to="/forgot-password" className="font-medium text-spruce-ink underline underline-offset-2 hover:text-spruce">
+              Forgot your password?
+            </Link>
+          </p>
         </div>
         <p className="mt-4 text-sm text-ink-muted">
           Taking part in a study? Participants sign in on the{' '}

@@ -59,6 +59,9 @@ export function StaffLayout({ navItems, personName, personEmail, roleLabel, onSi
                 {personName}
               </p>
               <p className="text-xs text-night-muted">{roleLabel}</p>
+              <NavLink to="/account" className="text-xs text-night-muted underline-offset-2 hover:text-night-ink hover:underline">
+                Your account
+              </NavLink>
             </div>
             <Button variant="onNight" onClick={onSignOut} pending={signingOut}>
               Sign out

@@ -91,7 +91,7 @@ export interface paths {
             path?: never;
             cookie?: never;
         };
-        get?: never;
+        get: operations["UsersController_get"];
         put?: never;
         post?: never;
         delete?: never;
@@ -180,6 +180,54 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/auth/password": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["AuthController_changePassword"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/auth/password-reset": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["AuthController_requestPasswordReset"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/auth/password-reset/consume": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["AuthController_consumePasswordReset"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/auth/me": {
         parameters: {
             query?: never;
@@ -254,6 +302,38 @@ export interface paths {
         get?: never;
         put?: never;
         post: operations["StudiesController_open"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/archive": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["StudiesController_archive"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/studies/{studyId}/unarchive": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["StudiesController_unarchive"];
         delete?: never;
         options?: never;
         head?: never;
@@ -1502,6 +1582,18 @@ export interface components {
         ConsumeSignInLinkDto: {
             token: string;
         };
+        ChangePasswordDto: {
+            currentPassword: string;
+            newPassword: string;
+        };
+        RequestPasswordResetDto: {
+            /** @example coordinator@evenhand.test */
+            email: string;
+        };
+        ConsumePasswordResetDto: {
+            token: string;
+            newPassword: string;
+        };
         StudySummaryDto: {
             /** Format: uuid */
             id: string;
@@ -1511,6 +1603,11 @@ export interface components {
             status: "draft" | "recruiting" | "paused" | "closed";
             /** @enum {string} */
             design: "between" | "within";
+            /**
+             * Format: date-time
+             * @description When the closed study was archived
+             */
+            archivedAt: string | null;
         };
         StudyListDto: {
             items: components["schemas"]["StudySummaryDto"][];
@@ -1551,6 +1648,11 @@ export interface components {
             status: "draft" | "recruiting" | "paused" | "closed";
             /** @enum {string} */
             design: "between" | "within";
+            /**
+             * Format: date-time
+             * @description When the closed study was archived
+             */
+            archivedAt: string | null;
             protocolNumber: string | null;
             summary: string;
             estimatedMinutes: number | null;
@@ -1562,6 +1664,12 @@ export interface components {
             blinded: boolean;
             labName: string;
             contactEmail: string | null;
+            /** @description The ethics board approval reference (not the protocol number) */
+            ethicsApprovalReference: string | null;
+            /** @description People assigned so far; the target size may not go below it */
+            assignedCount: number;
+            /** @description What may change in the details, and when, in plain words */
+            editRules: string[];
             /** Format: date-time */
             openedAt: string | null;
             /** Format: date-time */
@@ -1584,6 +1692,8 @@ export interface components {
             blinded?: boolean;
             labName?: string;
             contactEmail?: string;
+            /** @description The ethics board approval reference; empty clears it */
+            ethicsApprovalReference?: string;
         };
         OpeningChecklistItemDto: {
             /** @enum {string} */
@@ -3166,6 +3276,27 @@ export interface operations {
             };
         };
     };
+    UsersController_get: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                id: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StaffUserDto"];
+                };
+            };
+        };
+    };
     UsersController_update: {
         parameters: {
             query?: never;
@@ -3303,6 +3434,74 @@ export interface operations {
             };
         };
     };
+    AuthController_changePassword: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ChangePasswordDto"];
+            };
+        };
+        responses: {
+            /** @description The signed-in staff member’s password is changed; this session carries on */
+            204: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    AuthController_requestPasswordReset: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["RequestPasswordResetDto"];
+            };
+        };
+        responses: {
+            /** @description The same answer whether or not the address has an account */
+            202: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["LinkRequestedDto"];
+                };
+            };
+        };
+    };
+    AuthController_consumePasswordReset: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ConsumePasswordResetDto"];
+            };
+        };
+        responses: {
+            /** @description The new password is set and every session of the person has ended */
+            204: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
     AuthController_me: {
         parameters: {
             query?: never;
@@ -3324,13 +3523,17 @@ export interface operations {
     };
     StudiesController_list: {
         parameters: {
-            query?: never;
+            query?: {
+                /** @description true lists only archived studies; by default they are left out */
+                archived?: "true" | "false";
+            };
             header?: never;
             path?: never;
             cookie?: never;
         };
         requestBody?: never;
         responses: {
+            /** @description Staff lists leave archived studies out; ?archived=true lists only those */
             200: {
                 headers: {
                     [name: string]: unknown;
@@ -3432,6 +3635,49 @@ export interface operations {
         };
     };
     StudiesController_open: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StudyDto"];
+                };
+            };
+        };
+    };
+    StudiesController_archive: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Closed studies only; archived studies leave the default lists and can still be opened */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["StudyDto"];
+                };
+            };
+        };
+    };
+    StudiesController_unarchive: {
         parameters: {
             query?: never;
             header?: never;

@@ -2,6 +2,7 @@ import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
 import { IsEmail, IsOptional, IsString, Matches, MaxLength, MinLength } from 'class-validator';
 import { USER_ROLES, UserRole } from '../../users/entities/user.entity';
+import { MIN_PASSWORD_LENGTH } from '../../users/dto/user.dto';
 
 const lowerTrimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim().toLowerCase() : value);
 
@@ -57,4 +58,42 @@ export class SessionDto {
 
 export class LinkRequestedDto {
   @ApiProperty({ description: 'Always true: the answer never reveals whether an address is known' }) sent: boolean;
+}
+
+const NEW_PASSWORD_MESSAGE = `newPassword must be at least ${MIN_PASSWORD_LENGTH} characters`;
+
+export class ChangePasswordDto {
+  @ApiProperty()
+  @IsString()
+  @MinLength(1, { message: 'currentPassword is required' })
+  @MaxLength(200)
+  currentPassword: string;
+
+  @ApiProperty({ minLength: MIN_PASSWORD_LENGTH })
+  @IsString()
+  @MinLength(MIN_PASSWORD_LENGTH, { message: NEW_PASSWORD_MESSAGE })
+  @MaxLength(200)
+  newPassword: string;
+}
+
+export class RequestPasswordResetDto {
+  @ApiProperty({ example: 'coordinator@evenhand.test' })
+  @Transform(lowerTrimmed)
+  @IsEmail({}, { message: 'email must be a valid e-mail address' })
+  @MaxLength(254)
+  email: string;
+}
+
+export class ConsumePasswordResetDto {
+  @ApiProperty()
+  @IsString()
+  @MinLength(20, { message: 'token is not from a password-reset link' })
+  @MaxLength(200)
+  token: string;
+
+  @ApiProperty({ minLength: MIN_PASSWORD_LENGTH })
+  @IsString()
+  @MinLength(MIN_PASSWORD_LENGTH, { message: NEW_PASSWORD_MESSAGE })
+  @MaxLength(200)
+  newPassword: string;
 }

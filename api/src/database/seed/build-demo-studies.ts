@@ -81,6 +81,8 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
       labName: DEMO_LAB.labName,
       contactEmail: demo.contactEmail,
     });
+    // The board's approval reference sits beside the lab's protocol number, labelled apart.
+    await studies.update(coordinator, study.id, { ethicsApprovalReference: demo.approvalReference });
     for (const membership of DEMO_MEMBERSHIPS.filter((m) => m.slug === demo.slug)) {
       await studies.addMember(coordinator, study.id, { email: membership.email, role: membership.role });
     }
@@ -136,6 +138,10 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
     // Only people on the current consent version can go on with their steps; the rest wait to re-consent.
     if (demo.history) await playDemoHistory(app, coordinator, study.id, demo, signedUp.slice(0, demo.amendment?.resign ?? signedUp.length));
     if (demo.pay) await playDemoPayouts(app, coordinator, study.id, demo, signedUp);
+    if (demo.closedAndArchived) {
+      await studies.transition(coordinator, study.id, 'close');
+      await studies.setArchived(coordinator, study.id, true);
+    }
     built.push(demo.slug);
   }
   return built;

@@ -75,6 +75,8 @@ export interface DemoStudy {
    * finished setting up yet (they have since, so a retry goes through).
    */
   pay?: { fundings: Array<{ amountMinor: number; daysAgo: number }>; paidAfterDays?: number; notSetUp?: number; failedOnce?: boolean };
+  /** A finished pilot: closed once its people signed, then archived (it shows under Studies › Archive). */
+  closedAndArchived?: boolean;
 }
 
 export const DEMO_STUDIES: DemoStudy[] = [
@@ -226,6 +228,41 @@ export const DEMO_STUDIES: DemoStudy[] = [
     approvalReference: 'HLREB-2026-044',
     participants: { prefix: 'p', first: 101, count: 12, excluded: 0 },
     pay: { fundings: [{ amountMinor: 30000, daysAgo: 3 }] },
+  },
+  {
+    slug: 'signage-pilot',
+    title: 'Signage pilot',
+    protocolNumber: 'HLCL-2025-088',
+    design: 'between',
+    summary: 'A finished pilot: one short online session looking at two styles of building signs.',
+    estimatedMinutes: 15,
+    targetSize: 6,
+    budgetMinor: 6000,
+    contactEmail: 'signage@harborlane.test',
+    blinded: false,
+    purpose: 'We wanted to try out, on a few people, how two styles of building signs are read before a larger study.',
+    conditions: [
+      { internalName: 'pictogram signs', participantLabel: 'Sign set 1', participantInstructions: 'Look at each sign in set 1 and say where it points.' },
+      { internalName: 'text signs', participantLabel: 'Sign set 2', participantInstructions: 'Look at each sign in set 2 and say where it points.' },
+    ],
+    factors: [],
+    screening: [{ key: 'adult', label: 'Are you 18 or older?', kind: 'yes-no', eligibleValues: [true], criterion: '18 or older' }],
+    steps: [
+      {
+        title: 'The sign session',
+        description: 'About 15 minutes with a member of the lab.',
+        payMinor: 1000,
+        verification: 'staff',
+        opensAfterDays: 0,
+        opensFrom: 'assignment',
+        dueWithinDays: null,
+      },
+    ],
+    reminders: { rules: [{ anchor: 'opens', days: 0 }], suggestLostAfter: 2 },
+    scheme: { method: 'simple' },
+    approvalReference: 'HLREB-2025-102',
+    participants: { prefix: 's', first: 201, count: 4, excluded: 0 },
+    closedAndArchived: true,
   },
 ];
 

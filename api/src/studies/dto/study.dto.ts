@@ -29,6 +29,14 @@ export class StudySummaryDto {
   @ApiProperty() title: string;
   @ApiProperty({ enum: STUDY_STATUSES }) status: StudyStatus;
   @ApiProperty({ enum: STUDY_DESIGNS }) design: StudyDesign;
+  @ApiProperty({ format: 'date-time', nullable: true, type: String, description: 'When the closed study was archived' }) archivedAt: string | null;
+}
+
+export class ListStudiesQueryDto {
+  @ApiPropertyOptional({ enum: ['true', 'false'], description: 'true lists only archived studies; by default they are left out' })
+  @IsOptional()
+  @IsIn(['true', 'false'], { message: 'archived must be true or false' })
+  archived?: 'true' | 'false';
 }
 
 export class StudyListDto {
@@ -45,6 +53,10 @@ export class StudyDto extends StudySummaryDto {
   @ApiProperty() blinded: boolean;
   @ApiProperty() labName: string;
   @ApiProperty({ nullable: true, type: String }) contactEmail: string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'The ethics board approval reference (not the protocol number)' })
+  ethicsApprovalReference: string | null;
+  @ApiProperty({ description: 'People assigned so far; the target size may not go below it' }) assignedCount: number;
+  @ApiProperty({ type: [String], description: 'What may change in the details, and when, in plain words' }) editRules: string[];
   @ApiProperty({ format: 'date-time', nullable: true, type: String }) openedAt: string | null;
   @ApiProperty({ format: 'date-time', nullable: true, type: String }) closedAt: string | null;
   @ApiProperty({ format: 'date-time' }) createdAt: string;
@@ -143,6 +155,12 @@ export class UpdateStudyDto {
   @IsOptional()
   @IsEmail({}, { message: 'contactEmail must be a valid e-mail address' })
   contactEmail?: string;
+  @ApiPropertyOptional({ description: 'The ethics board approval reference; empty clears it' })
+  @IsOptional()
+  @Transform(trimmed)
+  @IsString()
+  @MaxLength(80)
+  ethicsApprovalReference?: string;
 }
 
 export class ConditionDto {

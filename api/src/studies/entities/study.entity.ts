@@ -56,6 +56,14 @@ export class StudyEntity {
   @Column({ name: 'contact_email', type: 'text', nullable: true })
   contactEmail: string | null;
 
+  /** The ethics board's approval reference; the protocol number is the lab's own reference. */
+  @Column({ name: 'ethics_approval_reference', type: 'text', nullable: true })
+  ethicsApprovalReference: string | null;
+
+  /** Set on a closed study to take it out of the default lists; it can still be opened. */
+  @Column({ name: 'archived_at', type: 'timestamptz', nullable: true })
+  archivedAt: Date | null;
+
   @Column({ name: 'opened_at', type: 'timestamptz', nullable: true })
   openedAt: Date | null;
 

@@ -1,4 +1,5 @@
-import { Link } from 'react-router-dom';
+import { Link, useSearchParams } from 'react-router-dom';
+import { tabNavRecipe } from '@/components/ui/recipes';
 import { buttonRecipe } from '@/components/ui/recipes';
 import { cx } from '@/components/ui/cx';
 import { StudiesList } from '@/features/studies/components/studies-list';
@@ -10,6 +11,8 @@ const newStudyClass = cx(buttonRecipe.base, buttonRecipe.sizes.regular, buttonRe
 
 export function Component() {
   const { me } = useStaffSession();
+  const [searchParams] = useSearchParams();
+  const archived = searchParams.get('archived') === '1';
   const newStudy = mayDesignStudy(me.role) ? (
     <Link to="/studies/new" className={newStudyClass}>
       New study
@@ -26,7 +29,15 @@ export function Component() {
           </div>
           {newStudy}
         </div>
-        <StudiesList newStudyAction={newStudy} />
+        <nav aria-label="Which studies" className={tabNavRecipe.list}>
+          <Link to="/studies" aria-current={archived ? undefined : 'page'} className={cx(tabNavRecipe.tab, archived ? tabNavRecipe.inactive : tabNavRecipe.active)}>
+            Current
+          </Link>
+          <Link to="/studies?archived=1" aria-current={archived ? 'page' : undefined} className={cx(tabNavRecipe.tab, archived ? tabNavRecipe.active : tabNavRecipe.inactive)}>
+            Archive
+          </Link>
+        </nav>
+        <StudiesList newStudyAction={newStudy} archived={archived} />
       </section>
     </RequireArea>
   );

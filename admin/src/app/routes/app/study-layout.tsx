@@ -36,7 +36,7 @@ export function Component() {
           title={study.error instanceof ApiError && (study.error.statusCode === 404 || study.error.statusCode === 403) ? 'Study not available' : undefined}
           message={
             study.error instanceof ApiError && (study.error.statusCode === 404 || study.error.statusCode === 403)
-              ? 'There is no such study, or you are not one of its members. Ask a member of the study to add you.'
+              ? 'There is no such study, or you are not one of its members. Ask a lab admin to add you to it.'
               : study.error instanceof ApiError
                 ? study.error.message
                 : 'The study could not be loaded.'

@@ -14,6 +14,7 @@ import { ScreeningSection } from '@/features/study-design/components/screening-s
 import { ReturnLinkPanel } from '@/features/study-design/components/return-link-panel';
 import { StepsSection } from '@/features/study-design/components/steps-section';
 import { ReminderPlanSection } from '@/features/reminders/components/reminder-plan-section';
+import { StudyMembersPanel } from '@/features/membership/components/study-members-panel';
 import { OpeningChecklistPanel } from '@/features/studies/components/opening-checklist';
 import type { Study } from '@/features/studies/api/get-study';
 import { ApiError } from '@/lib/api-error';
@@ -29,6 +30,7 @@ const sections = [
   { id: 'factors', label: 'Stratification factors' },
   { id: 'screening', label: 'Screening questions' },
   { id: 'scheme', label: 'Assignment scheme' },
+  { id: 'members', label: 'Members' },
 ];
 
 function permissionsFor(study: Study, role: Role): SetupPermissions {
@@ -65,6 +67,7 @@ export function Component() {
       <FactorsSection studyId={study.id} permissions={permissions} />
       <ScreeningSection studyId={study.id} permissions={permissions} />
       <SchemeSection study={study} permissions={permissions} />
+      <StudyMembersPanel studyId={study.id} studyTitle={study.title} canManage={me.role === 'admin'} />
     </div>
   );
 }

@@ -1,3 +1,4 @@
+import { Link } from 'react-router-dom';
 import { Badge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
 import { tableRecipe } from '@/components/ui/recipes';
@@ -36,7 +37,9 @@ export function StaffTable({ users, currentUserId, onEdit, onToggleActive, busy 
             return (
               <tr key={user.id} className={tableRecipe.row}>
                 <td className={`${tableRecipe.cell} font-medium`}>
-                  {user.name}
+                  <Link to={`/staff/${user.id}`} className="text-spruce-ink underline-offset-2 hover:underline">
+                    {user.name}
+                  </Link>
                   {isSelf && <span className="ml-1.5 text-xs font-normal text-ink-faint">(you)</span>}
                 </td>
                 <td className={`${tableRecipe.cell} whitespace-nowrap text-ink-muted`}>{user.email}</td>

@@ -7,12 +7,14 @@ export type StudySummary = StudyList['items'][number];
 
 export const studiesKey = ['studies'] as const;
 
-export async function getStudies(): Promise<StudyList> {
-  return unwrap(apiClient.GET('/api/studies'));
+export async function getStudies(archived = false): Promise<StudyList> {
+  return unwrap(apiClient.GET('/api/studies', archived ? { params: { query: { archived: 'true' } } } : {}));
 }
 
-export const studiesQueryOptions = () => queryOptions({ queryKey: studiesKey, queryFn: getStudies });
+// The current list keeps the plain key (others refresh it with exact: true); the archive sits beneath it.
+export const studiesQueryOptions = (archived = false) =>
+  queryOptions({ queryKey: archived ? [...studiesKey, 'archived'] : studiesKey, queryFn: () => getStudies(archived) });
 
-export function useStudies() {
-  return useQuery(studiesQueryOptions());
+export function useStudies(archived = false) {
+  return useQuery(studiesQueryOptions(archived));
 }

@@ -24,6 +24,10 @@ const created = {
   closedAt: null,
   createdAt: '2027-01-04T10:00:00.000Z',
   designLocked: false,
+  archivedAt: null,
+  ethicsApprovalReference: null,
+  assignedCount: 0,
+  editRules: [],
 };
 
 const submit = () => userEvent.click(screen.getByRole('button', { name: 'Create study' }));
@@ -48,7 +52,7 @@ describe('CreateStudyForm', () => {
 
     await userEvent.type(screen.getByLabelText('Title'), 'Lantern signs');
     expect(screen.getByLabelText('Link name')).toHaveValue('lantern-signs');
-    await userEvent.type(screen.getByLabelText('Ethics protocol number'), 'HLCL-2027-003');
+    await userEvent.type(screen.getByLabelText('Protocol reference'), 'HLCL-2027-003');
     await userEvent.click(screen.getByRole('radio', { name: /Between subjects/ }));
     await userEvent.type(screen.getByLabelText('Target number of participants'), '120');
     await userEvent.type(screen.getByLabelText('Estimated minutes per participant'), '40');

@@ -108,9 +108,9 @@ export function CreateStudyForm({ onCreated, onCancel, defaultLabName = '' }: Cr
           {...slug}
         />
         <TextField
-          label="Ethics protocol number"
+          label="Protocol reference"
           autoComplete="off"
-          hint="As on the approval letter, e.g. HLCL-2026-014."
+          hint="The lab’s own protocol number, e.g. HLCL-2026-014; the ethics board’s approval reference goes under Edit details once the study exists."
           error={errors.protocolNumber?.message}
           {...register('protocolNumber')}
         />

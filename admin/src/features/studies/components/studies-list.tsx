@@ -9,10 +9,12 @@ import { studyDesignLabels as designLabels, studyStatusLabels as statusLabels } 
 export interface StudiesListProps {
   /** Shown in the empty state for people who may create studies. */
   newStudyAction?: React.ReactNode;
+  /** The archive of closed studies instead of the current ones. */
+  archived?: boolean;
 }
 
-export function StudiesList({ newStudyAction }: StudiesListProps) {
-  const studies = useStudies();
+export function StudiesList({ newStudyAction, archived = false }: StudiesListProps) {
+  const studies = useStudies(archived);
 
   if (studies.isPending) return <LoadingState label="Loading studies…" />;
   if (studies.isError) {
@@ -23,17 +25,20 @@ export function StudiesList({ newStudyAction }: StudiesListProps) {
       />
     );
   }
+  if (studies.data.items.length === 0 && archived) {
+    return <EmptyState title="The archive is empty">Closed studies you archive appear here, with all their records.</EmptyState>;
+  }
   if (studies.data.items.length === 0) {
     return (
       <EmptyState title="No studies yet" action={newStudyAction}>
-        Studies you are a member of appear here. Whoever creates a study becomes its first member and can add colleagues.
+        Studies you are a member of appear here. Whoever creates a study becomes its first member; a lab admin adds colleagues.
       </EmptyState>
     );
   }
   return (
     <div className={tableRecipe.frame}>
       <table className={tableRecipe.table}>
-        <caption className="sr-only">Your studies</caption>
+        <caption className="sr-only">{archived ? 'Archived studies' : 'Your studies'}</caption>
         <thead>
           <tr>
             <th scope="col" className={tableRecipe.headCell}>Title</th>

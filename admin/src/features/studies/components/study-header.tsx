@@ -28,6 +28,7 @@ export function StudyHeader({ study, commitment, actions }: StudyHeaderProps) {
             <h1 className="text-2xl font-semibold">{study.title}</h1>
             <Badge tone={status.tone}>{status.label}</Badge>
             {study.blinded && <Badge tone="neutral">Blinded</Badge>}
+            {study.archivedAt && <Badge tone="caution">Archived</Badge>}
           </div>
           <dl className="flex flex-wrap gap-x-5 gap-y-1 text-sm text-ink-muted">
             <div className="flex gap-1.5">
@@ -35,8 +36,12 @@ export function StudyHeader({ study, commitment, actions }: StudyHeaderProps) {
               <dd>{studyDesignLabels[study.design]}</dd>
             </div>
             <div className="flex gap-1.5">
-              <dt>Protocol</dt>
-              <dd className="font-medium text-ink">{study.protocolNumber ?? 'not given'}</dd>
+              <dt>Protocol reference</dt>
+              <dd className="font-medium text-ink">{study.protocolNumber || 'not given'}</dd>
+            </div>
+            <div className="flex gap-1.5">
+              <dt>Ethics approval</dt>
+              <dd className="font-medium text-ink">{study.ethicsApprovalReference || 'not given'}</dd>
             </div>
             {commitment && (
               <div className="flex gap-1.5">

@@ -25,6 +25,10 @@ const study: Study = {
   closedAt: null,
   createdAt: '2027-01-04T10:00:00.000Z',
   designLocked: false,
+  archivedAt: null,
+  ethicsApprovalReference: null,
+  assignedCount: 0,
+  editRules: [],
 };
 
 describe('StudyLifecycleActions', () => {

@@ -8,6 +8,7 @@ import { studyKeys } from '@/lib/study-keys';
 import { useChangeStudyStatus, type StudyTransition } from '../api/change-study-status';
 import { missingOpeningItems } from '../utils/opening-requirements';
 import type { Study } from '../api/get-study';
+import { StudyDetailsActions } from './study-details-actions';
 
 const dialogs: Record<StudyTransition, { title: string; confirm: string; body: (study: Study) => React.ReactNode }> = {
   open: {
@@ -84,6 +85,7 @@ export function StudyLifecycleActions({ study }: StudyLifecycleActionsProps) {
   const dialog = dialogs[shown];
   return (
     <div className="flex flex-wrap gap-2">
+      <StudyDetailsActions study={study} />
       {(study.status === 'draft' || study.status === 'paused') && (
         <Button variant="primary" onClick={() => ask('open')}>
           {study.status === 'paused' ? 'Resume recruiting' : 'Open study'}
