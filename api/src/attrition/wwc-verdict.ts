@@ -1,5 +1,6 @@
 import { type AttritionCount, attritionRate, overallAttrition, requireConditionIds } from './attrition-rates';
 import { AttritionInputError } from './attrition-input-error';
+import { type Interval, type RiskRatio, newcombeDifferenceInterval, riskRatio } from './intervals';
 import { WWC_HIGHEST_TABULATED_OVERALL_PERCENT, type WwcBoundaryRow, wwcBoundaryRow } from './wwc-boundaries';
 
 export type WwcVerdict = 'low-attrition' | 'high-attrition' | 'outside-published-range' | 'not-computable';
@@ -24,6 +25,10 @@ export interface WwcPairAssessment {
   overallPercentRows: number[];
   cautious: WwcBoundaryVerdict;
   optimistic: WwcBoundaryVerdict;
+  /** 95 % Newcombe interval for condition minus comparison attrition rate; null if not computable. */
+  differenceInterval: Interval | null;
+  /** Attrition risk ratio, condition over comparison, with its 95 % Katz interval; null when either has no attrition. */
+  riskRatio: RiskRatio | null;
 }
 
 export interface WwcAssessment {
@@ -84,6 +89,8 @@ export function assessWwcPair(
       overallPercentRows: [],
       cautious: notComputable,
       optimistic: notComputable,
+      differenceInterval: null,
+      riskRatio: null,
     };
   }
   const differentialAttritionRate = Math.abs(conditionRate - comparisonRate);
@@ -110,6 +117,8 @@ export function assessWwcPair(
     overallPercentRows: rows,
     cautious,
     optimistic,
+    differenceInterval: newcombeDifferenceInterval(condition.attrited, condition.randomized, comparison.attrited, comparison.randomized),
+    riskRatio: riskRatio(condition.attrited, condition.randomized, comparison.attrited, comparison.randomized),
   };
 }
 
