@@ -144,11 +144,12 @@ export class AttritionService {
       survival: {
         timeUnit: 'days',
         censoredAt: censorAt.toISOString(),
-        curves: report.survival.curves.map(({ conditionId, atStart, confidenceLevel, bandForm, steps }) => ({
+        curves: report.survival.curves.map(({ conditionId, atStart, confidenceLevel, bandForm, median, steps }) => ({
           conditionId,
           atStart,
           confidenceLevel,
           bandForm,
+          median,
           points: steps.map(({ time, survival, lower, upper, standardError, atRisk, dropped, censored }) => ({
             time,
             survival,

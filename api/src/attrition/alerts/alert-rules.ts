@@ -46,8 +46,9 @@ export interface AlertContext {
 
 export function readAlert(rule: AlertRule, report: AttritionReport, earned: PayParityResult, currency: string, context: AlertContext = {}): AlertReading {
   if (rule.kind === 'differential-attrition') {
-    const failing = report.wwc.pairs.filter((pair) => pair.cautious.verdict === 'high-attrition' || pair.cautious.verdict === 'outside-published-range');
-    const computable = report.wwc.pairs.filter((pair) => pair.differentialAttritionRate !== null);
+    // Every pair of conditions, as the headline on screen: a high pair is never hidden by the comparison picked.
+    const failing = report.wwc.allPairs.filter((pair) => pair.cautious.verdict === 'high-attrition' || pair.cautious.verdict === 'outside-published-range');
+    const computable = report.wwc.allPairs.filter((pair) => pair.differentialAttritionRate !== null);
     const worst = [...(failing.length > 0 ? failing : computable)].sort(
       (x, y) => (y.differentialAttritionRate ?? 0) - (x.differentialAttritionRate ?? 0),
     )[0];

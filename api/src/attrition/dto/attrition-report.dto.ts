@@ -14,6 +14,17 @@ export class AttritionQueryDto {
   comparisonConditionId?: string;
 }
 
+export class IntervalDto {
+  @ApiProperty() lower: number;
+  @ApiProperty() upper: number;
+}
+
+export class RiskRatioDto {
+  @ApiProperty() estimate: number;
+  @ApiProperty() lower: number;
+  @ApiProperty() upper: number;
+}
+
 export class WindowEndedDto {
   @ApiProperty({ description: 'Randomized participants whose participation window has ended' }) randomized: number;
   @ApiProperty({ description: 'Completers among them' }) completed: number;
@@ -35,6 +46,7 @@ export class ConditionAttritionDto {
   @ApiProperty({ type: Number, nullable: true, description: `WWC attrition: (randomized − completed) / randomized among those whose window has ended; ${RATE}` })
   attritionRate: number | null;
   @ApiProperty({ description: 'Numerator of attritionRate' }) attrited: number;
+  @ApiProperty({ type: IntervalDto, nullable: true, description: '95 % Wilson interval for attritionRate' }) attritionInterval: IntervalDto | null;
   @ApiProperty({ type: WindowEndedDto }) windowEnded: WindowEndedDto;
 }
 
@@ -63,6 +75,10 @@ export class WwcPairDto {
   @ApiProperty({ type: [Number], description: 'The rows around the overall rate: one at an exact whole percent, else two (wwcRowRule)' }) overallPercentRows: number[];
   @ApiProperty({ type: WwcBoundaryVerdictDto }) cautious: WwcBoundaryVerdictDto;
   @ApiProperty({ type: WwcBoundaryVerdictDto }) optimistic: WwcBoundaryVerdictDto;
+  @ApiProperty({ type: IntervalDto, nullable: true, description: '95 % Newcombe interval for the difference in attrition rates (arm minus comparison)' })
+  differenceInterval: IntervalDto | null;
+  @ApiProperty({ type: RiskRatioDto, nullable: true, description: 'Attrition risk ratio (arm over comparison) with its 95 % Katz interval' })
+  riskRatio: RiskRatioDto | null;
 }
 
 export class WorstWwcPairsDto {
@@ -139,6 +155,7 @@ export class SurvivalCurveDto {
   @ApiProperty() atStart: number;
   @ApiProperty() confidenceLevel: number;
   @ApiProperty({ enum: ['log-log'] }) bandForm: 'log-log';
+  @ApiProperty({ type: Number, nullable: true, description: 'Median days to dropout; null while the curve stays above 0.5' }) median: number | null;
   @ApiProperty({ type: [SurvivalPointDto], description: 'Survival is 1 before the first point' }) points: SurvivalPointDto[];
 }
 
