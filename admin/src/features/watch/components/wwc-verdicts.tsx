@@ -49,7 +49,8 @@ function PairLine({ pair, names }: { pair: WwcPair; names: Map<string, string> }
   return (
     <li>
       <span className="font-semibold">{pairName(pair, names)}</span>: overall {formatShare(pair.overallAttritionRate)}, differential{' '}
-      {formatPoints(pair.differentialAttritionRate)} (95% CI {formatPointsInterval(pair.differenceInterval)}
+      {formatPoints(pair.differentialAttritionRate)} (95% CI of {names.get(pair.conditionId) ?? '?'} − {names.get(pair.comparisonConditionId) ?? '?'}:{' '}
+      {formatPointsInterval(pair.differenceInterval)}
       {ratio ? `; risk ratio ${ratio.estimate.toFixed(2)}, ${ratio.lower.toFixed(2)}–${ratio.upper.toFixed(2)}` : ''}) — cautious{' '}
       {badgeText(asWwcVerdict(pair.cautious.verdict)).toLowerCase()}, optimistic {badgeText(asWwcVerdict(pair.optimistic.verdict)).toLowerCase()}
     </li>
