@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seriousAccessibilityProblems } from './support/accessibility';
-import { adminUrl, openBrowser, screenshot, signIn, type BrowserSession } from './support/browser';
+import { adminUrl, openBrowser, screenshot, screenshotAtBothWidths, signIn, type BrowserSession } from './support/browser';
 
 const journey = 'watch';
 
@@ -27,20 +27,34 @@ describe('dropout watch', () => {
     await page.getByRole('link', { name: 'Dropout watch' }).click();
     await page.waitForURL((url) => url.pathname.endsWith('/watch'));
     await page.getByRole('heading', { name: 'Attrition against the WWC boundaries' }).waitFor();
-    await screenshot(page, journey, 'verdict');
+    await screenshotAtBothWidths(page, journey, 'verdict');
+    expect(await page.getByText("Statistical flags here are screening aids, not the study's analysis.").isVisible()).toBe(true);
 
     // The demo's "no cues" condition (blinded, so a code) loses people faster: beyond the cautious boundary.
     expect(await page.getByText(/Differential dropout is (within|beyond) the cautious WWC boundary/).first().textContent()).toMatch(/beyond/);
     expect(await page.getByText(/the optimistic WWC boundary/).first().isVisible()).toBe(true);
-    expect(await page.getByTestId('dropout-test').textContent()).toMatch(/without continuity correction|Fisher's exact/);
+    // Every pair of the three conditions is judged; the headline names the worst one.
+    await expect.poll(() => page.getByRole('list', { name: 'Every pair' }).getByRole('listitem').count()).toBe(3);
+    expect(await page.getByTestId('worst-pair-cautious').textContent()).toMatch(/^[A-C] vs [A-C]: /);
+    expect(await page.getByText(/judged on the stricter of the two/).isVisible()).toBe(true);
+    // The test shown names itself and, with small expected counts, is the exact one.
+    const dropoutTest = (await page.getByTestId('dropout-test').textContent()) ?? '';
+    expect(dropoutTest).toMatch(/^(Chi-square test of independence, without continuity correction|Freeman–Halton exact test \(used because the smallest expected count|Exact test estimated from)/);
 
     // The flow: drawn, with the same counts as a list for screen readers.
     const flow = page.getByRole('region', { name: 'Participant flow' });
     await flow.scrollIntoViewIfNeeded();
     await expect.poll(() => flow.locator('svg text', { hasText: /Assessed for eligibility \(n = \d+\)/ }).count()).toBe(1);
     await expect.poll(() => flow.locator('svg text', { hasText: /^Allocated to [A-C] / }).count()).toBe(3);
-    expect(await flow.getByRole('list', { name: 'Participant flow, as text' }).textContent()).toMatch(/randomized/);
-    await screenshot(page, journey, 'flow');
+    expect(await flow.getByRole('list', { name: 'Participant flow, as text' }).textContent()).toMatch(/analysed by intention to treat, of\s+whom \d+ completed/);
+    await expect.poll(() => flow.locator('svg text', { hasText: /^Analysed, intention to treat/ }).count()).toBe(3);
+    const [svgFile] = await Promise.all([page.waitForEvent('download'), flow.getByRole('button', { name: 'Download diagram (SVG)' }).click()]);
+    expect(svgFile.suggestedFilename()).toMatch(/^participant-flow-[0-9a-f-]{36}\.svg$/);
+    const [pngFile] = await Promise.all([page.waitForEvent('download'), flow.getByRole('button', { name: 'Download diagram (PNG)' }).click()]);
+    expect(pngFile.suggestedFilename()).toMatch(/\.png$/);
+    await screenshotAtBothWidths(page, journey, 'flow');
+    const conditions = page.getByRole('region', { name: 'By condition' });
+    expect(await conditions.getByText(/People still active/).isVisible()).toBe(true);
 
     // The curves: one step line per condition and the log-rank line.
     const curves = page.getByRole('region', { name: 'Dropout over time' });
@@ -48,9 +62,19 @@ describe('dropout watch', () => {
     // A condition nobody has left yet draws a flat line, which has no height: wait for it to exist, not to be visible.
     await curves.locator('.recharts-line-curve').nth(2).waitFor({ state: 'attached' });
     await expect.poll(() => curves.locator('.recharts-line-curve').count()).toBe(3);
-    expect(await page.getByTestId('log-rank').textContent()).toMatch(/Log-rank test across conditions: χ²\(2\) = \d+\.\d\d, p [=<>]/);
+    expect(await page.getByTestId('log-rank').textContent()).toMatch(
+      /Log-rank test across conditions: χ²\(2\) = \d+\.\d\d, p [=<>]|Few dropouts: the log-rank test is judged by a permutation test/,
+    );
+    expect(await page.getByTestId('median-dropout').textContent()).toMatch(/^Median time to dropout: Condition A /);
     expect(await page.getByRole('link', { name: 'Download data (CSV)' }).getAttribute('href')).toMatch(/\/api\/studies\/[0-9a-f-]{36}\/export\.csv$/);
     await screenshot(page, journey, 'curves');
+
+    const balance = page.getByRole('region', { name: 'Covariate balance' });
+    await balance.scrollIntoViewIfNeeded();
+    expect(await balance.getByText(/re-randomizing the same people/).isVisible()).toBe(true);
+    expect(await balance.getByRole('columnheader', { name: 'Variance ratio' }).isVisible()).toBe(true);
+    await screenshotAtBothWidths(page, journey, 'balance');
+    expect(await page.getByTestId('repeated-looks').textContent()).toMatch(/Checking repeatedly as data arrive inflates false alarms/);
 
     // Another comparison condition re-computes the pairs.
     await page.getByRole('button', { name: /Compare the others with/ }).click();

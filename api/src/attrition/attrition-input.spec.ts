@@ -21,9 +21,9 @@ describe('statusCounts', () => {
 
   it('ends the window only for those who finished while the study runs, for everyone once it is closed', () => {
     const running = statusCounts(flow, arms, false);
-    expect(running[0]).toEqual({ conditionId: 'a', randomized: 10, active: 3, completed: 6, withdrew: 1, lost: 0, excludedAfterRandomization: 0, windowEnded: { randomized: 7, completed: 6 } });
+    expect(running[0]).toEqual({ conditionId: 'a', randomized: 10, active: 3, completed: 6, withdrew: 1, lost: 0, excludedAfterRandomization: 0, incompleteAtClose: 0, windowEnded: { randomized: 7, completed: 6 } });
     expect(running[1]).toMatchObject({ randomized: 5, excludedAfterRandomization: 2, lost: 3, windowEnded: { randomized: 5, completed: 0 } });
-    expect(statusCounts(flow, arms, true)[0].windowEnded).toEqual({ randomized: 10, completed: 6 });
+    expect(statusCounts(flow, arms, true)[0]).toMatchObject({ active: 0, incompleteAtClose: 3, windowEnded: { randomized: 10, completed: 6 } });
   });
 
   it('gives an arm nobody was assigned to all zeros', () => {

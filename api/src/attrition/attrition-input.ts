@@ -23,7 +23,8 @@ export function isRandomized(row: Pick<FlowRow, 'arm' | 'status' | 'assigned'>):
 /**
  * Status counts per arm. Participation window rule: it has ended for everyone once the study is closed; while it
  * runs, for those who completed, withdrew, were lost or were excluded after randomization. Active participants
- * are therefore never counted as attrition before the study ends.
+ * are therefore never counted as attrition before the study ends, and once it is closed anyone still active is
+ * `incompleteAtClose` (COUNTING_RULE in condition-counts.ts).
  */
 export function statusCounts(flow: readonly FlowRow[], arms: readonly ReportArm[], studyClosed: boolean): ConditionStatusCounts[] {
   return arms.map((arm) => {
@@ -35,8 +36,16 @@ export function statusCounts(flow: readonly FlowRow[], arms: readonly ReportArm[
       else counts[row.status as 'completed' | 'withdrew' | 'lost'] += row.n;
     }
     const randomized = counts.active + counts.completed + counts.withdrew + counts.lost + counts.excludedAfterRandomization;
-    const ended = studyClosed ? randomized : randomized - counts.active;
-    return { conditionId: arm.id, randomized, ...counts, windowEnded: { randomized: ended, completed: counts.completed } };
+    const incompleteAtClose = studyClosed ? counts.active : 0;
+    const active = counts.active - incompleteAtClose;
+    return {
+      conditionId: arm.id,
+      randomized,
+      ...counts,
+      active,
+      incompleteAtClose,
+      windowEnded: { randomized: randomized - active, completed: counts.completed },
+    };
   });
 }
 
@@ -152,12 +161,17 @@ export interface FlowBox {
 export interface ArmFlow {
   conditionId: string;
   allocated: number;
+  /** Still active while the study runs; 0 once it is closed. */
   stillInFollowUp: number;
+  /** Still active when the study closed: did not complete (COUNTING_RULE). */
+  incompleteAtClose: number;
   withdrew: FlowBox;
   lostToFollowUp: FlowBox;
   excludedAfterRandomization: FlowBox;
-  /** Completers: the participants with complete outcome data. */
+  /** Analysed by intention to treat: everyone allocated, whatever happened to them (CONSORT 2010 item 16). */
   analysed: number;
+  /** Completers: the participants with complete outcome data. */
+  completers: number;
 }
 
 /** CONSORT 2010 flow: enrollment, allocation, follow-up, analysis. */
@@ -187,7 +201,7 @@ function box(rows: readonly FlowRow[]): FlowBox {
   return { total, reasons: shown, otherReasons: total - shown.reduce((sum, entry) => sum + entry.count, 0) };
 }
 
-export function consortFlow(flow: readonly FlowRow[], arms: readonly ReportArm[]): ConsortFlow {
+export function consortFlow(flow: readonly FlowRow[], arms: readonly ReportArm[], studyClosed = false): ConsortFlow {
   const sum = (rows: readonly FlowRow[]) => rows.reduce((total, row) => total + row.n, 0);
   const waiting = (status: string) => sum(flow.filter((row) => row.status === status && !isRandomized(row)));
   const invited = waiting('invited');
@@ -196,14 +210,18 @@ export function consortFlow(flow: readonly FlowRow[], arms: readonly ReportArm[]
   const armFlows = arms.map((arm): ArmFlow => {
     const rows = flow.filter((row) => row.arm === arm.id && isRandomized(row));
     const withStatus = (...statuses: string[]) => rows.filter((row) => statuses.includes(row.status));
+    const stillActive = sum(withStatus('assigned', 'active'));
+    const allocated = sum(rows);
     return {
       conditionId: arm.id,
-      allocated: sum(rows),
-      stillInFollowUp: sum(withStatus('assigned', 'active')),
+      allocated,
+      stillInFollowUp: studyClosed ? 0 : stillActive,
+      incompleteAtClose: studyClosed ? stillActive : 0,
       withdrew: box(withStatus('withdrew')),
       lostToFollowUp: box(withStatus('lost')),
       excludedAfterRandomization: box(withStatus('excluded')),
-      analysed: sum(withStatus('completed')),
+      analysed: allocated,
+      completers: sum(withStatus('completed')),
     };
   });
   return {

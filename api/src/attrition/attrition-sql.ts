@@ -42,9 +42,12 @@ function followUpEnd(alias: string): string {
       ELSE $2 END`;
 }
 
-/** Whole days from assignment to the end of follow-up (never negative, in case of clock skew). */
+/**
+ * Exact days from assignment to the end of follow-up, fractions included (never negative, in case of clock skew):
+ * rounding to whole days would create ties that change the log-rank test.
+ */
 export function followUpDays(alias = 'e'): string {
-  return `greatest(0, floor(extract(epoch FROM (${followUpEnd(alias)}) - ${alias}.assigned_at) / 86400))::int`;
+  return `greatest(0, extract(epoch FROM (${followUpEnd(alias)}) - ${alias}.assigned_at) / 86400)::float8`;
 }
 
 
@@ -91,14 +94,14 @@ export interface AttritionAggregates {
  */
 export async function readAttritionAggregates(
   run: SqlRunner,
-  study: { id: string; design: StudyDesign; currency: string },
+  study: { id: string; design: StudyDesign; currency: string; closed: boolean },
   censorAt: Date,
 ): Promise<AttritionAggregates> {
   const arm = armExpression(study.design);
   const randomized = randomizedPredicate(study.design);
 
   // One pass over the study's enrollments for both the CONSORT boxes (every enrollment by arm, status and reason) and
-  // the dropout curves (randomized ones by whole days followed); the two are split apart in JavaScript.
+  // the dropout curves (randomized ones by exact days followed); the two are split apart in JavaScript.
   // Grouped by the arm as stored (a uuid between subjects) and turned into text only per group.
   const followed = await run<FollowedGroupRow>(
     `SELECT arm::text AS arm, status, assigned, reason, randomized, day, n
@@ -111,7 +114,7 @@ export async function readAttritionAggregates(
            GROUP BY 1, 2, 3, 4, 5, 6) AS grouped`,
     [study.id, censorAt],
   );
-  const { flow, survival } = splitFollowedGroups(followed);
+  const { flow, survival } = splitFollowedGroups(followed, study.closed);
 
   // Amounts per participant first, then count, Σ and Σ² per arm. Σ stays an exact integer; Σ² is float8, which is
   // what it becomes in JavaScript anyway, and several times faster than numeric over a million rows.
@@ -182,6 +185,8 @@ export interface ExportRow {
   assigned_at: Date | null;
   completed_at: Date | null;
   dropped_out_at: Date | null;
+  /** How the counting rule counts this person: completed, dropped, incomplete-at-close, still-active or not-randomized. */
+  counted_as: string;
   steps_done: number;
   paid_minor: string;
   earned_minor: string;
@@ -193,14 +198,19 @@ export interface ExportRow {
  */
 export function readExportPage(
   run: SqlRunner,
-  study: { id: string; design: StudyDesign; currency: string },
+  study: { id: string; design: StudyDesign; currency: string; closedAt: Date | null },
   afterReference: string | null,
   pageSize: number,
 ): Promise<ExportRow[]> {
   return run<ExportRow>(
     `SELECT e.reference, ${armExpression(study.design)} AS arm, e.stratum_key, e.covariates, e.status, e.assigned_at, e.completed_at,
             CASE e.status WHEN 'withdrew' THEN e.withdrew_at WHEN 'lost' THEN e.lost_at
-                          WHEN 'excluded' THEN CASE WHEN e.assigned_at IS NOT NULL THEN e.excluded_at END END AS dropped_out_at,
+                          WHEN 'excluded' THEN CASE WHEN e.assigned_at IS NOT NULL THEN e.excluded_at END
+                          WHEN 'assigned' THEN $5::timestamptz WHEN 'active' THEN $5::timestamptz END AS dropped_out_at,
+            CASE WHEN NOT (${randomizedPredicate(study.design)}) THEN 'not-randomized'
+                 WHEN e.status = 'completed' THEN 'completed'
+                 WHEN e.status IN ('assigned','active') THEN CASE WHEN $5::timestamptz IS NULL THEN 'still-active' ELSE 'incomplete-at-close' END
+                 ELSE 'dropped' END AS counted_as,
             (SELECT count(*)::int FROM step_completion sc WHERE sc.enrollment_id = e.id AND sc.undone_at IS NULL) AS steps_done,
             (SELECT coalesce(sum(p.amount_minor), 0)::text FROM payout p
               WHERE p.enrollment_id = e.id AND p.currency = $4 AND p.status = 'paid') AS paid_minor,
@@ -210,7 +220,7 @@ export function readExportPage(
      WHERE e.study_id = $1 AND ($2::text IS NULL OR e.reference > $2)
      ORDER BY e.reference
      LIMIT $3`,
-    [study.id, afterReference, pageSize, study.currency],
+    [study.id, afterReference, pageSize, study.currency, study.closedAt],
   );
 }
 

@@ -13,7 +13,10 @@ import { StudiesService } from '../studies/studies.service';
 import { type ConsortFlow, type ReportArm, consortFlow, isRandomized, toReportInput } from './attrition-input';
 import { type AttritionReport, buildAttritionReport } from './attrition-report';
 import { type AttritionAggregates, type ExportRow, type SqlRunner, readAttritionAggregates, readContactAggregates, readCovariateKeys, readExportPage } from './attrition-sql';
+import { REPEATED_LOOKS_CAUTION } from './alerts/alert-rules';
+import { COUNTING_RULE } from './condition-counts';
 import { contactParity } from './contact-parity';
+import { WWC_ROW_RULE } from './wwc-verdict';
 import { type PayParityResult, payParity } from './pay-parity';
 import type { AttritionReportDto, ConsortFlowDto, ContactsByConditionDto, PayBasisDto } from './dto/attrition-report.dto';
 
@@ -22,13 +25,14 @@ export const WINDOW_RULE =
 
 const CAUTIONS = [
   'These figures are screening aids, not the study’s analysis: the analysis plan decides how attrition is handled.',
-  'The chi-square test of dropout by condition is computed without a continuity correction.',
+  'With small expected counts the dropout test is exact (Fisher, or Freeman–Halton for three or more conditions); otherwise chi-square, without a continuity correction.',
   'While the study runs, WWC attrition counts only participants whose participation window has ended; dropout so far counts active participants as not (yet) dropped.',
+  'Every p-value here is recomputed each time the screen is opened: looking repeatedly makes a chance "significant" result more likely than its p suggests.',
 ];
 
 const EXPORT_PAGE_SIZE = 2000;
 const FIXED_COLUMNS = ['reference', 'condition', 'stratum'] as const;
-const TRAILING_COLUMNS = ['status', 'assigned_at', 'completed_at', 'dropped_out_at', 'steps_done', 'paid_minor', 'earned_minor', 'currency'] as const;
+const TRAILING_COLUMNS = ['status', 'assigned_at', 'completed_at', 'dropped_out_at', 'counted_as', 'steps_done', 'paid_minor', 'earned_minor', 'currency'] as const;
 
 interface StudyArms {
   study: StudyEntity;
@@ -87,7 +91,7 @@ export class AttritionService {
     // One snapshot for every aggregate: the report cross-checks the survival and pay totals against the counts.
     return this.dataSource.transaction('REPEATABLE READ', (manager: EntityManager) => {
       const run: SqlRunner = (sql, parameters) => manager.query(sql, parameters);
-      return readAttritionAggregates(run, { id: study.id, design: study.design, currency: study.currency }, censorAt);
+      return readAttritionAggregates(run, { id: study.id, design: study.design, currency: study.currency, closed: study.status === 'closed' }, censorAt);
     });
   }
 
@@ -124,6 +128,10 @@ export class AttritionService {
       computedAt: computedAt.toISOString(),
       blinded: context.blinded,
       windowRule: WINDOW_RULE,
+      countingRule: COUNTING_RULE,
+      wwcRowRule: WWC_ROW_RULE,
+      repeatedLooks: REPEATED_LOOKS_CAUTION,
+      plannedSize: study.targetSize,
       cautions,
       conditions: report.conditions.map((condition) => ({ ...condition, name: nameOf(condition.conditionId) })),
       overall: report.overall,
@@ -136,11 +144,12 @@ export class AttritionService {
       survival: {
         timeUnit: 'days',
         censoredAt: censorAt.toISOString(),
-        curves: report.survival.curves.map(({ conditionId, atStart, confidenceLevel, bandForm, steps }) => ({
+        curves: report.survival.curves.map(({ conditionId, atStart, confidenceLevel, bandForm, median, steps }) => ({
           conditionId,
           atStart,
           confidenceLevel,
           bandForm,
+          median,
           points: steps.map(({ time, survival, lower, upper, standardError, atRisk, dropped, censored }) => ({
             time,
             survival,
@@ -161,7 +170,7 @@ export class AttritionService {
         earned: this.payBasis(earned),
       },
       covariateBalance: report.covariateBalance,
-      flow: this.flowDto(consortFlow(aggregates.flow, arms), nameOf),
+      flow: this.flowDto(consortFlow(aggregates.flow, arms, study.status === 'closed'), nameOf),
       contacts: await this.contacts(study, arms, nameOf),
     };
     return { dto, figures: { report, earned } };
@@ -229,6 +238,7 @@ export class AttritionService {
         assigned_at: row.assigned_at,
         completed_at: row.completed_at,
         dropped_out_at: row.dropped_out_at,
+        counted_as: row.counted_as,
         steps_done: row.steps_done,
         paid_minor: row.paid_minor,
         earned_minor: row.earned_minor,
@@ -248,7 +258,8 @@ export class AttritionService {
     try {
       let after: string | null = null;
       for (;;) {
-        const page: ExportRow[] = await readExportPage(run, { id: study.id, design: study.design, currency: study.currency }, after, EXPORT_PAGE_SIZE);
+        const closedAt = study.status === 'closed' ? (study.closedAt ?? new Date()) : null;
+        const page: ExportRow[] = await readExportPage(run, { id: study.id, design: study.design, currency: study.currency, closedAt }, after, EXPORT_PAGE_SIZE);
         for (const row of page) {
           if (gone.signal.aborted) throw new Error('the client closed the connection');
           if (!csv.write(record(row))) await once(csv, 'drain', { signal: gone.signal });

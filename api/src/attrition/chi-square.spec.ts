@@ -66,7 +66,7 @@ describe('chiSquareIndependence', () => {
 });
 
 describe('choosing the dropout test', () => {
-  it('takes Fisher’s exact test for a 2×2 table with an expected count below 5, chi-square otherwise', () => {
+  it('takes an exact test (Fisher 2×2, Freeman–Halton r×2) with an expected count below 5, chi-square otherwise', () => {
     // Rule: Cochran (1954), common practice.
     expect(
       chooseDropoutTest([
@@ -86,7 +86,7 @@ describe('choosing the dropout test', () => {
         [2, 20],
         [3, 20],
       ]),
-    ).toBe('chi-square');
+    ).toBe('freeman-halton-exact'); // expected dropouts 2: three conditions with small counts get the exact r×2 test
   });
 
   it('reports the chosen method’s numbers and always says there is no continuity correction', () => {

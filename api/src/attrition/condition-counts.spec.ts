@@ -34,7 +34,7 @@ describe('summarizeCondition', () => {
 
   it('refuses counts whose statuses do not add up to the randomized count, naming the field', () => {
     expect(() => summarizeCondition({ ...running, randomized: 41 }, 'conditions[1]')).toThrowError(
-      new AttritionInputError('conditions[1].randomized', 'must equal active + completed + withdrew + lost + excludedAfterRandomization (40), got 41'),
+      new AttritionInputError('conditions[1].randomized', 'must equal active + completed + withdrew + lost + excludedAfterRandomization + incompleteAtClose (40), got 41'),
     );
   });
 

@@ -1,3 +1,4 @@
+import { jStat } from 'jstat';
 import { AttritionInputError, requireAtMost, requireCount } from './attrition-input-error';
 import { requireConditionIds } from './attrition-rates';
 import { type Moments, meanAndVariance } from './sufficient-statistics';
@@ -23,8 +24,17 @@ export type CovariateInput =
 export interface StandardizedDifference {
   /** Condition minus comparison, in pooled standard deviations; null when either group is too small or the pooled SD is 0. */
   d: number | null;
-  /** |d| ≥ 0.1 (Austin 2009); also true when the pooled SD is 0 but the groups differ; null when nothing can be said. */
+  /**
+   * The |d| that re-randomizing the same people would exceed only 5 % of the time (the permutation distribution of
+   * the difference, normal approximation); null when nothing can be said.
+   */
+  chanceRange: number | null;
+  /** |d| beyond chanceRange (or the groups differ when neither has spread); null when nothing can be said. */
   imbalanced: boolean | null;
+  /** Continuous covariates: s²(condition) / s²(comparison), with the 95 % range under equal variances (F distribution). */
+  varianceRatio?: number | null;
+  varianceRatioRange?: [number, number] | null;
+  varianceRatioImbalanced?: boolean | null;
 }
 
 export interface CovariateBalanceRow {
@@ -36,13 +46,28 @@ export interface CovariateBalanceRow {
   completers: StandardizedDifference;
 }
 
-// Convention: |d| < 0.1 counts as balanced (Austin 2009, Statistics in Medicine 28:3083).
-export const BALANCE_THRESHOLD = 0.1;
+/** The conventional |d| ≥ 0.1 (Austin 2009) is shown for context only: at small n chance alone exceeds it most of the time. */
+export const CONVENTIONAL_BALANCE_THRESHOLD = 0.1;
+/** Share of re-randomizations allowed beyond the chance range. */
+export const CHANCE_LEVEL = 0.05;
 
-function judged(difference: number, pooledVariance: number): StandardizedDifference {
-  if (pooledVariance === 0) return { d: difference === 0 ? 0 : null, imbalanced: difference !== 0 };
-  const d = difference / Math.sqrt(pooledVariance);
-  return { d, imbalanced: Math.abs(d) >= BALANCE_THRESHOLD };
+const NOTHING: StandardizedDifference = { d: null, chanceRange: null, imbalanced: null };
+
+/**
+ * Judges a difference against what randomization alone produces with these people. Under re-randomization of the
+ * same N people into groups of n1 and n2, the difference in means has variance S²(1/n1 + 1/n2), S² the variance of
+ * all N (sampling without replacement; Cochran 1977, Sampling Techniques, §2.6); for a share, S² = p̄(1 − p̄)·N/(N − 1).
+ * The chance range is z(0.975) times its square root, expressed in the same pooled SD as d.
+ */
+function judged(difference: number, pooledVariance: number, permutationVariance: number): StandardizedDifference {
+  const z = jStat.normal.inv(1 - CHANCE_LEVEL / 2, 0, 1);
+  const allowed = z * Math.sqrt(permutationVariance);
+  if (pooledVariance === 0) {
+    return { d: difference === 0 ? 0 : null, chanceRange: difference === 0 ? 0 : null, imbalanced: Math.abs(difference) > allowed };
+  }
+  const spread = Math.sqrt(pooledVariance);
+  const d = difference / spread;
+  return { d, chanceRange: allowed / spread, imbalanced: Math.abs(difference) > allowed };
 }
 
 // Continuous SMD, Austin (2009) Statistics in Medicine 28:3083: d = (m1 − m2) / √((s1² + s2²) / 2).
@@ -53,8 +78,21 @@ export function standardizedMeanDifferenceContinuous(
 ): StandardizedDifference {
   const one = meanAndVariance(condition, `${field}.condition`);
   const two = meanAndVariance(comparison, `${field}.comparison`);
-  if (one.variance === null || two.variance === null) return { d: null, imbalanced: null };
-  return judged((one.mean as number) - (two.mean as number), (one.variance + two.variance) / 2);
+  if (one.variance === null || two.variance === null) return NOTHING;
+  const combined = meanAndVariance(
+    { n: condition.n + comparison.n, sum: condition.sum + comparison.sum, sumOfSquares: condition.sumOfSquares + comparison.sumOfSquares },
+    field,
+  );
+  const permutationVariance = (combined.variance as number) * (1 / condition.n + 1 / comparison.n);
+  const result = judged((one.mean as number) - (two.mean as number), (one.variance + two.variance) / 2, permutationVariance);
+  if (two.variance === 0) return { ...result, varianceRatio: null, varianceRatioRange: null, varianceRatioImbalanced: null };
+  // Variance ratio against F(n1 − 1, n2 − 1), its distribution when both groups are normal with equal variances.
+  const varianceRatio = one.variance / two.variance;
+  const range: [number, number] = [
+    jStat.centralF.inv(CHANCE_LEVEL / 2, condition.n - 1, comparison.n - 1),
+    jStat.centralF.inv(1 - CHANCE_LEVEL / 2, condition.n - 1, comparison.n - 1),
+  ];
+  return { ...result, varianceRatio, varianceRatioRange: range, varianceRatioImbalanced: varianceRatio < range[0] || varianceRatio > range[1] };
 }
 
 function requireBinaryCount(count: BinaryCount, field: string): void {
@@ -71,10 +109,13 @@ export function standardizedMeanDifferenceBinary(
 ): StandardizedDifference {
   requireBinaryCount(condition, `${field}.condition`);
   requireBinaryCount(comparison, `${field}.comparison`);
-  if (condition.n === 0 || comparison.n === 0) return { d: null, imbalanced: null };
+  if (condition.n === 0 || comparison.n === 0) return NOTHING;
   const p1 = condition.count / condition.n;
   const p2 = comparison.count / comparison.n;
-  return judged(p1 - p2, (p1 * (1 - p1) + p2 * (1 - p2)) / 2);
+  const total = condition.n + comparison.n;
+  const pooled = (condition.count + comparison.count) / total;
+  const permutationVariance = total < 2 ? 0 : ((pooled * (1 - pooled) * total) / (total - 1)) * (1 / condition.n + 1 / comparison.n);
+  return judged(p1 - p2, (p1 * (1 - p1) + p2 * (1 - p2)) / 2, permutationVariance);
 }
 
 /** Each other condition against the comparison condition (the first when none is picked), among all randomized and among completers. */

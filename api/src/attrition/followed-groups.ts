@@ -18,7 +18,7 @@ export interface SurvivalRow {
   censored: number;
 }
 
-/** Enrollments counted by arm, status, reason, whether they were randomized and (randomized only) whole days followed. */
+/** Enrollments counted by arm, status, reason, whether they were randomized and (randomized only) exact days followed. */
 export interface FollowedGroupRow extends FlowRow {
   randomized: boolean;
   day: number | null;
@@ -27,7 +27,13 @@ export interface FollowedGroupRow extends FlowRow {
 /** Withdrew, lost to follow-up, or excluded after randomization: the dropout event (CONSORT 2010 follow-up box). */
 const DROPPED_STATUSES = new Set(['withdrew', 'lost', 'excluded']);
 
-export function splitFollowedGroups(rows: readonly FollowedGroupRow[]): { flow: FlowRow[]; survival: SurvivalRow[] } {
+const STILL_ACTIVE_STATUSES = new Set(['assigned', 'active']);
+
+/**
+ * Splits the grouped read. In a closed study people still active did not complete and count as dropping out at the
+ * closing time (their follow-up time, which the SQL ends at the close); while it runs they are censored (COUNTING_RULE).
+ */
+export function splitFollowedGroups(rows: readonly FollowedGroupRow[], studyClosed = false): { flow: FlowRow[]; survival: SurvivalRow[] } {
   const flow = new Map<string, FlowRow>();
   const survival = new Map<string, SurvivalRow>();
   for (const row of rows) {
@@ -40,7 +46,7 @@ export function splitFollowedGroups(rows: readonly FollowedGroupRow[]): { flow: 
     if (row.arm === null || row.day === null) throw new Error(`A randomized group has no ${row.arm === null ? 'arm' : 'day'}.`);
     const timeKey = JSON.stringify([row.arm, row.day]);
     const time = survival.get(timeKey) ?? { arm: row.arm, day: row.day, dropped: 0, censored: 0 };
-    if (DROPPED_STATUSES.has(row.status)) time.dropped += row.n;
+    if (DROPPED_STATUSES.has(row.status) || (studyClosed && STILL_ACTIVE_STATUSES.has(row.status))) time.dropped += row.n;
     else time.censored += row.n;
     survival.set(timeKey, time);
   }

@@ -5,7 +5,8 @@ declare module 'jstat' {
     normal: { inv(p: number, mean: number, sd: number): number };
     ibeta(x: number, a: number, b: number): number;
     combinationln(n: number, k: number): number;
-    centralF: { cdf(x: number, df1: number, df2: number): number };
+    combination(n: number, k: number): number;
+    centralF: { cdf(x: number, df1: number, df2: number): number; inv(p: number, df1: number, df2: number): number };
     mean(values: number[]): number;
     variance(values: number[], sample?: boolean): number;
   }

@@ -83,3 +83,11 @@ describe('kaplanMeier', () => {
     );
   });
 });
+
+describe('median time to dropout', () => {
+  it('reads the published medians of the Freireich (1963) trial: 23 weeks on 6-MP, 8 on placebo (survival texts; from memory)', () => {
+    expect(kaplanMeier(sixMp).median).toBe(23);
+    expect(kaplanMeier(placebo).median).toBe(8);
+    expect(kaplanMeier([{ time: 3, dropped: 1, censored: 9 }]).median).toBeNull();
+  });
+});

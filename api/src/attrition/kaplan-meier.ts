@@ -29,6 +29,8 @@ export interface KaplanMeierCurve {
   confidenceLevel: number;
   /** Pointwise band on the log(−log S) scale (Kalbfleisch & Prentice 1980): stays within [0, 1]. */
   bandForm: 'log-log';
+  /** Median time to dropout: the first time the curve is at or below 0.5; null while it stays above. */
+  median: number | null;
 }
 
 /** Sorted by time, one entry per distinct time, after checking every field. */
@@ -87,7 +89,8 @@ export function kaplanMeier(
     atRisk -= count.dropped + count.censored;
     return step;
   });
-  return { steps, atStart, confidenceLevel, bandForm: 'log-log' };
+  const median = steps.find((step) => step.survival <= 0.5)?.time ?? null;
+  return { steps, atStart, confidenceLevel, bandForm: 'log-log', median };
 }
 
 // Log-log band (Kalbfleisch & Prentice 1980): S^exp(±z·σ) with σ = √(Greenwood sum) / |log S|.

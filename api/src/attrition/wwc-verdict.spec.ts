@@ -6,9 +6,10 @@ function pair(attritedA: number, attritedB: number) {
   return assessWwcPair({ randomized: 2000, attrited: attritedA }, { randomized: 2000, attrited: attritedB });
 }
 function fromRowAndGap(overallPercent: number, gapTwentieths: number) {
-  // a + b = 40·row (+1 when the gap is odd, which moves the overall rate by 0.025 % and keeps the row).
-  const total = 40 * overallPercent + (gapTwentieths % 2);
-  return pair((total + gapTwentieths) / 2, (total - gapTwentieths) / 2);
+  // 4,000 per condition: overall exactly on the row (a + b = 80·row), differential |a − b| / 40 points.
+  const total = 80 * overallPercent;
+  const gap = 2 * gapTwentieths;
+  return assessWwcPair({ randomized: 4000, attrited: (total + gap) / 2 }, { randomized: 4000, attrited: (total - gap) / 2 });
 }
 
 describe('WWC verdict on both sides of the boundary', () => {
@@ -25,8 +26,8 @@ describe('WWC verdict on both sides of the boundary', () => {
     it(`at ${row} % overall: low at ${cautious} points cautious / ${optimistic} optimistic, high just above`, () => {
       const onCautious = fromRowAndGap(row, Math.round(cautious * 20));
       expect(onCautious.overallPercentRow).toBe(row);
-      expect(onCautious.cautious).toEqual({ verdict: 'low-attrition', maxDifferentialPercent: cautious });
-      expect(onCautious.optimistic).toEqual({ verdict: 'low-attrition', maxDifferentialPercent: optimistic });
+      expect(onCautious.cautious).toEqual({ verdict: 'low-attrition', maxDifferentialPercent: cautious, overallPercentRow: row });
+      expect(onCautious.optimistic).toEqual({ verdict: 'low-attrition', maxDifferentialPercent: optimistic, overallPercentRow: row });
 
       const aboveCautious = fromRowAndGap(row, Math.round(cautious * 20) + 1);
       expect(aboveCautious.overallPercentRow).toBe(row);
@@ -68,21 +69,41 @@ describe('WWC verdict on both sides of the boundary', () => {
   });
 });
 
-describe('rounding of the overall rate to a table row', () => {
-  it('rounds halves up: 56.5 % reads row 57 and 10.5 % reads row 11', () => {
-    expect(pair(1130, 1130).overallPercentRow).toBe(57); // 2,260 / 4,000 = 56.5 %
-    expect(pair(210, 210).overallPercentRow).toBe(11); // 420 / 4,000 = 10.5 %
-    expect(pair(209, 210).overallPercentRow).toBe(10); // 419 / 4,000 = 10.475 %
+describe('the table row for an overall rate between two whole percents', () => {
+  // Rule (see WWC_ROW_RULE): a whole-percent rate reads its own row; a rate between two rows is judged on the stricter
+  // of the two, so no rate is ever judged more leniently than a row it sits next to.
+  it('judges 28.4 % overall with 4.4 points differential on row 29 (4.3), not on row 28 (4.4) as half-up rounding did', () => {
+    // 1,000 per condition: 306 and 262 attrited → overall 568 / 2,000 = 28.4 %, differential 4.4 points.
+    const result = assessWwcPair({ randomized: 1000, attrited: 306 }, { randomized: 1000, attrited: 262 });
+    expect(result.overallPercentRows).toEqual([28, 29]);
+    expect(result.cautious).toEqual({ verdict: 'high-attrition', maxDifferentialPercent: 4.3, overallPercentRow: 29 });
   });
 
-  it('says "outside the published range" above 57 %, including 57.5 % which rounds to 58', () => {
-    const justAbove = pair(1150, 1150); // 2,300 / 4,000 = 57.5 %
-    expect(justAbove.overallPercentRow).toBe(58);
-    expect(justAbove.cautious).toEqual({ verdict: 'outside-published-range', maxDifferentialPercent: null });
+  it('judges 28.6 % with 4.4 points the same way (high on the cautious boundary), whichever way a reader would round', () => {
+    const result = assessWwcPair({ randomized: 1000, attrited: 308 }, { randomized: 1000, attrited: 264 });
+    expect(result.overallPercentRows).toEqual([28, 29]);
+    expect(result.cautious.verdict).toBe('high-attrition');
+  });
+
+  it('uses the single row at an exact whole percent: 28.0 % with 4.4 points is low attrition (row 28, 4.4)', () => {
+    const result = assessWwcPair({ randomized: 1000, attrited: 302 }, { randomized: 1000, attrited: 258 });
+    expect(result.overallPercentRows).toEqual([28]);
+    expect(result.cautious).toEqual({ verdict: 'low-attrition', maxDifferentialPercent: 4.4, overallPercentRow: 28 });
+  });
+
+  it('below 10 %, where the boundary rises with the overall rate, takes the lower row: 5.6 % reads row 5 (6.1), not 6 (6.2)', () => {
+    // 1,000 per condition, 87 and 25 attrited → overall 112 / 2,000 = 5.6 %, differential 6.2 points.
+    const result = assessWwcPair({ randomized: 1000, attrited: 87 }, { randomized: 1000, attrited: 25 });
+    expect(result.cautious).toEqual({ verdict: 'high-attrition', maxDifferentialPercent: 6.1, overallPercentRow: 5 });
+  });
+
+  it('says "outside the published range" above 57 %, including any rate between 57 % and 58 %', () => {
+    const justAbove = pair(1145, 1146); // 2,291 / 4,000 = 57.275 %: row 58 is not in the table
+    expect(justAbove.cautious).toEqual({ verdict: 'outside-published-range', maxDifferentialPercent: null, overallPercentRow: null });
     expect(justAbove.optimistic.verdict).toBe('outside-published-range');
-    // 2,299 / 4,000 = 57.475 % → row 57 (0.0 / 2.3); differential 0.05 points: above the cautious line, below the optimistic.
-    const lastRow = pair(1149, 1150);
-    expect(lastRow.overallPercentRow).toBe(57);
+    // Exactly 57 %: row 57 (0.0 / 2.3); differential 0.1 points: above the cautious line, below the optimistic.
+    const lastRow = pair(1139, 1141);
+    expect(lastRow.overallPercentRows).toEqual([57]);
     expect([lastRow.cautious.verdict, lastRow.optimistic.verdict]).toEqual(['high-attrition', 'low-attrition']);
     expect(pair(1600, 1600).optimistic.verdict).toBe('outside-published-range'); // 80 %
   });
@@ -91,6 +112,25 @@ describe('rounding of the overall rate to a table row', () => {
     const result = assessWwcPair({ randomized: 0, attrited: 0 }, { randomized: 10, attrited: 1 });
     expect(result.cautious.verdict).toBe('not-computable');
     expect(result.differentialAttritionRate).toBeNull();
+  });
+});
+
+describe('every pair of three or more conditions', () => {
+  it('finds the high-attrition pair that a comparison with the first condition would not show (20 %, 16 %, 24 %)', () => {
+    const conditions = [
+      { conditionId: 'audio', randomized: 100, attrited: 20 },
+      { conditionId: 'map', randomized: 100, attrited: 16 },
+      { conditionId: 'none', randomized: 100, attrited: 24 },
+    ];
+    const result = assessWwcAgainstComparison(conditions);
+    // Against the first condition only: 18 % / 4 points and 22 % / 4 points, both within the cautious boundary.
+    expect(result.pairs.map((p) => p.cautious.verdict)).toEqual(['low-attrition', 'low-attrition']);
+    // map vs none: overall 40 / 200 = 20 % → row 20 (cautious 5.4, optimistic 10.2); differential 8 points.
+    expect(result.allPairs).toHaveLength(3);
+    expect(result.cautious).toBe('high-attrition');
+    expect(result.optimistic).toBe('low-attrition');
+    expect(result.worstPair.cautious).toMatchObject({ conditionId: 'map', comparisonConditionId: 'none', overallPercentRows: [20] });
+    expect(result.worstPair.cautious?.differentialAttritionRate).toBeCloseTo(0.08, 12);
   });
 });
 
@@ -108,8 +148,8 @@ describe('more than two conditions', () => {
       ['turn-by-turn', 'landmarks'],
       ['map-only', 'landmarks'],
     ]);
-    // turn-by-turn: overall 410 / 4,000 = 10.25 % → row 10, differential 0.5 points → low under both.
-    expect(result.pairs[0].overallPercentRow).toBe(10);
+    // turn-by-turn: overall 410 / 4,000 = 10.25 % → rows 10 and 11, the stricter 11 (6.2); differential 0.5 points → low under both.
+    expect(result.pairs[0].overallPercentRow).toBe(11);
     expect(result.pairs[0].cautious.verdict).toBe('low-attrition');
     // map-only: overall 600 / 4,000 = 15 % → row 15 (5.9 / 10.8), differential 10 points → high cautiously, low optimistically.
     expect(result.pairs[1].overallPercentRow).toBe(15);

@@ -2709,6 +2709,10 @@ export interface components {
             };
             taxNote: string;
         };
+        IntervalDto: {
+            lower: number;
+            upper: number;
+        };
         WindowEndedDto: {
             /** @description Randomized participants whose participation window has ended */
             randomized: number;
@@ -2728,7 +2732,9 @@ export interface components {
             /** @description Lost to follow-up */
             lost: number;
             excludedAfterRandomization: number;
-            /** @description withdrew + lost + excluded after randomization */
+            /** @description Still active when the study closed: did not complete, counted as dropped (countingRule) */
+            incompleteAtClose: number;
+            /** @description withdrew + lost + excluded after randomization + incomplete at the close */
             dropped: number;
             /** @description Dropout so far: dropped / randomized, active people counting as not (yet) dropped; share between 0 and 1; null when nobody is in the denominator */
             dropoutRateSoFar: number | null;
@@ -2736,6 +2742,8 @@ export interface components {
             attritionRate: number | null;
             /** @description Numerator of attritionRate */
             attrited: number;
+            /** @description 95 % Wilson interval for attritionRate */
+            attritionInterval: components["schemas"]["IntervalDto"] | null;
             windowEnded: components["schemas"]["WindowEndedDto"];
         };
         OverallAttritionDto: {
@@ -2752,6 +2760,13 @@ export interface components {
             verdict: "low-attrition" | "high-attrition" | "outside-published-range" | "not-computable";
             /** @description Highest tolerable differential attrition on the row used, in percentage points */
             maxDifferentialPercent: number | null;
+            /** @description The table row whose boundary was used (wwcRowRule) */
+            overallPercentRow: number | null;
+        };
+        RiskRatioDto: {
+            estimate: number;
+            lower: number;
+            upper: number;
         };
         WwcPairDto: {
             conditionId: string;
@@ -2759,25 +2774,39 @@ export interface components {
             /** @description Pooled over the two arms of the pair */
             overallAttritionRate: number | null;
             differentialAttritionRate: number | null;
-            /** @description Whole-percent row of the WWC boundary table used */
+            /** @description Row of the WWC boundary table the cautious verdict used */
             overallPercentRow: number | null;
+            /** @description The rows around the overall rate: one at an exact whole percent, else two (wwcRowRule) */
+            overallPercentRows: number[];
             cautious: components["schemas"]["WwcBoundaryVerdictDto"];
             optimistic: components["schemas"]["WwcBoundaryVerdictDto"];
+            /** @description 95 % Newcombe interval for the difference in attrition rates (arm minus comparison) */
+            differenceInterval: components["schemas"]["IntervalDto"] | null;
+            /** @description Attrition risk ratio (arm over comparison) with its 95 % Katz interval */
+            riskRatio: components["schemas"]["RiskRatioDto"] | null;
+        };
+        WorstWwcPairsDto: {
+            cautious: components["schemas"]["WwcPairDto"] | null;
+            optimistic: components["schemas"]["WwcPairDto"] | null;
         };
         WwcAssessmentDto: {
             comparisonConditionId: string | null;
             /**
-             * @description Least favourable pair under the cautious boundary
+             * @description Least favourable of every pair of arms under the cautious boundary
              * @enum {string}
              */
             cautious: "low-attrition" | "high-attrition" | "outside-published-range" | "not-computable";
             /**
-             * @description Least favourable pair under the optimistic boundary
+             * @description Least favourable of every pair of arms under the optimistic boundary
              * @enum {string}
              */
             optimistic: "low-attrition" | "high-attrition" | "outside-published-range" | "not-computable";
-            /** @description Each other arm against the comparison arm */
+            /** @description A view: each other arm against the comparison arm */
             pairs: components["schemas"]["WwcPairDto"][];
+            /** @description Every pair of arms */
+            allPairs: components["schemas"]["WwcPairDto"][];
+            /** @description The pair behind each headline */
+            worstPair: components["schemas"]["WorstWwcPairsDto"];
         };
         ChiSquareDto: {
             /** @enum {string} */
@@ -2798,13 +2827,30 @@ export interface components {
             pValueGreater: number;
             pValueLess: number;
         };
+        ExactTableTestDto: {
+            /** @enum {string} */
+            method: "freeman-halton-exact" | "monte-carlo-exact";
+            pValue: number;
+            /** @description Tables with the observed margins that were listed */
+            tablesEnumerated: number | null;
+            /** @description Monte Carlo only */
+            replicates: number | null;
+            /** @description Monte Carlo only */
+            seed: string | null;
+            /** @description Monte Carlo only: √(p(1 − p)/B) */
+            standardError: number | null;
+        };
         DropoutTestDto: {
             /**
-             * @description Fisher's exact test when a 2×2 table has an expected count below 5
+             * @description An exact test when an expected count is below 5: Fisher's for two arms, Freeman–Halton (or its Monte Carlo estimate) for more
              * @enum {string}
              */
-            method: "chi-square" | "fisher-exact";
-            /** @description X²; null for Fisher’s exact test */
+            method: "chi-square" | "fisher-exact" | "freeman-halton-exact" | "monte-carlo-exact";
+            /** @enum {string} */
+            reason: "small-expected-counts" | "expected-counts-adequate" | "not-computable";
+            /** @description Smallest expected cell count */
+            smallestExpected: number | null;
+            /** @description X²; null for the exact tests */
             statistic: number | null;
             df: number | null;
             pValue: number | null;
@@ -2818,9 +2864,11 @@ export interface components {
             chiSquare: components["schemas"]["ChiSquareDto"] | null;
             /** @description Only for two arms */
             fisherExact: components["schemas"]["FisherExactDto"] | null;
+            /** @description Three or more arms with small expected counts */
+            exact: components["schemas"]["ExactTableTestDto"] | null;
         };
         SurvivalPointDto: {
-            /** @description Whole days since assignment */
+            /** @description Days since assignment, exact (fractions of a day, not rounded) */
             time: number;
             /** @description Kaplan–Meier share not dropped out just after this time */
             survival: number;
@@ -2840,6 +2888,8 @@ export interface components {
             confidenceLevel: number;
             /** @enum {string} */
             bandForm: "log-log";
+            /** @description Median days to dropout; null while the curve stays above 0.5 */
+            median: number | null;
             /** @description Survival is 1 before the first point */
             points: components["schemas"]["SurvivalPointDto"][];
         };
@@ -2848,13 +2898,26 @@ export interface components {
             observed: number;
             expected: number;
         };
+        LogRankPermutationDto: {
+            pValue: number;
+            replicates: number;
+            standardError: number;
+            seed: string;
+        };
         LogRankDto: {
             /** @enum {string} */
             method: "log-rank";
             statistic: number | null;
             df: number;
+            /** @description Asymptotic (chi-square) p */
             pValue: number | null;
             groups: components["schemas"]["LogRankGroupDto"][];
+            /** @description Some arm expects fewer than 5 dropouts: the asymptotic p is doubtful */
+            fewEvents: boolean;
+            /** @description Seeded Monte Carlo permutation test, when events are few */
+            permutation: components["schemas"]["LogRankPermutationDto"] | null;
+            /** @enum {string|null} */
+            permutationSkipped: "too-many-participants" | null;
         };
         SurvivalDto: {
             /** @enum {string} */
@@ -2913,8 +2976,15 @@ export interface components {
         };
         StandardizedDifferenceDto: {
             d: number | null;
-            /** @description |d| ≥ 0.1 (Austin 2009) */
+            /** @description |d| that re-randomizing the same people exceeds 5 % of the time */
+            chanceRange: number | null;
+            /** @description |d| beyond chanceRange */
             imbalanced: boolean | null;
+            /** @description Continuous only: variance ratio, condition over comparison */
+            varianceRatio?: number | null;
+            /** @description 95 % range of the ratio under equal variances (F distribution) */
+            varianceRatioRange?: number[] | null;
+            varianceRatioImbalanced?: boolean | null;
         };
         CovariateBalanceRowDto: {
             /** @description A numeric covariate key, or key=category for one category of a categorical covariate */
@@ -2948,12 +3018,17 @@ export interface components {
             conditionId: string;
             name: string;
             allocated: number;
+            /** @description Still active while the study runs; 0 once it is closed */
             stillInFollowUp: number;
+            /** @description Still active when the study closed: did not complete */
+            incompleteAtClose: number;
             withdrew: components["schemas"]["FlowBoxDto"];
             lostToFollowUp: components["schemas"]["FlowBoxDto"];
             excludedAfterRandomization: components["schemas"]["FlowBoxDto"];
-            /** @description Completers: participants with complete outcome data */
+            /** @description Analysed by intention to treat: everyone allocated */
             analysed: number;
+            /** @description Completers: participants with complete outcome data */
+            completers: number;
         };
         ConsortFlowDto: {
             /** @description Everyone who joined or was imported */
@@ -2997,6 +3072,14 @@ export interface components {
             blinded: boolean;
             /** @description How the participation window is decided */
             windowRule: string;
+            /** @description How people still active are counted, the same in every panel and the export */
+            countingRule: string;
+            /** @description How an overall rate finds its row of the WWC boundary table */
+            wwcRowRule: string;
+            /** @description Why p-value alerts use a stricter level before the planned size is reached */
+            repeatedLooks: string;
+            /** @description The study's planned number of participants */
+            plannedSize: number | null;
             cautions: string[];
             conditions: components["schemas"]["ConditionAttritionDto"][];
             overall: components["schemas"]["OverallAttritionDto"];

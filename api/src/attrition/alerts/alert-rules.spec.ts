@@ -54,6 +54,24 @@ describe('readAlert', () => {
     expect(crossed.value as number).toBeLessThan(0.05);
   });
 
+  it('holds the log-rank alert to a conservative interim boundary (p < 0.001) until the planned size, and says why', () => {
+    // 10 of 20 dropped in one condition, none in the other: p ≈ 0.0005… is below 0.05 but the check is repeated as data
+    // arrive, so before the planned 100 are randomized only p < 0.001 (Haybittle 1971; Peto et al. 1976) raises it.
+    const early = readAlert({ kind: 'log-rank', pValueBelow: 0.05 }, buildAttritionReport(input(19)), payParity(input(19).pay), 'EUR', { plannedSize: 100 });
+    expect(early.threshold).toBe(0.001);
+    expect(early.summary).toMatch(/repeated/i);
+    const reportInput = input(10);
+    const report = buildAttritionReport(reportInput);
+    const interim = readAlert({ kind: 'log-rank', pValueBelow: 0.05 }, report, payParity(reportInput.pay), 'EUR', { plannedSize: 100 });
+    expect(interim.threshold).toBe(0.001);
+    expect(interim.crossed).toBe((report.survival.logRank.pValue as number) < 0.001);
+    // Once the planned size is reached, the researcher's own level applies.
+    const final = readAlert({ kind: 'log-rank', pValueBelow: 0.05 }, report, payParity(reportInput.pay), 'EUR', { plannedSize: 40 });
+    expect(final.threshold).toBe(0.05);
+    expect(final.crossed).toBe(true);
+    expect(final.summary).toMatch(/Checking repeatedly as data arrive inflates false alarms/);
+  });
+
   it('crosses the pay rule only when the difference in mean pay is above the amount', () => {
     // Means 1000 vs 18·1000/20 = 900: a difference of 100 minor units.
     expect(read(18, { kind: 'pay-difference', amountMinor: 100, basis: 'paid' })).toMatchObject({ crossed: false, value: 100 });

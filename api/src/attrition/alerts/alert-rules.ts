@@ -33,10 +33,22 @@ export function formatMinor(amountMinor: number, currency: string): string {
  * cautious WWC boundary (high attrition, or overall attrition beyond the published table); the figure is the
  * largest pairwise differential and the threshold that pair's boundary.
  */
-export function readAlert(rule: AlertRule, report: AttritionReport, earned: PayParityResult, currency: string): AlertReading {
+/** Haybittle (1971) and Peto et al. (1976): a stringent level at every interim look leaves the final test's level almost intact. */
+export const INTERIM_P_BOUNDARY = 0.001;
+
+export const REPEATED_LOOKS_CAUTION =
+  'Checking repeatedly as data arrive inflates false alarms: with a look every week, a p-value alert at 0.05 fires by chance far more often than 5 % of the time. Until the planned sample size is randomized, the log-rank alert uses the conservative interim boundary p < 0.001 (Haybittle 1971; Peto et al. 1976).';
+
+export interface AlertContext {
+  /** The study's planned number of participants; the interim boundary applies until this many are randomized. */
+  plannedSize?: number | null;
+}
+
+export function readAlert(rule: AlertRule, report: AttritionReport, earned: PayParityResult, currency: string, context: AlertContext = {}): AlertReading {
   if (rule.kind === 'differential-attrition') {
-    const failing = report.wwc.pairs.filter((pair) => pair.cautious.verdict === 'high-attrition' || pair.cautious.verdict === 'outside-published-range');
-    const computable = report.wwc.pairs.filter((pair) => pair.differentialAttritionRate !== null);
+    // Every pair of conditions, as the headline on screen: a high pair is never hidden by the comparison picked.
+    const failing = report.wwc.allPairs.filter((pair) => pair.cautious.verdict === 'high-attrition' || pair.cautious.verdict === 'outside-published-range');
+    const computable = report.wwc.allPairs.filter((pair) => pair.differentialAttritionRate !== null);
     const worst = [...(failing.length > 0 ? failing : computable)].sort(
       (x, y) => (y.differentialAttritionRate ?? 0) - (x.differentialAttritionRate ?? 0),
     )[0];
@@ -53,12 +65,20 @@ export function readAlert(rule: AlertRule, report: AttritionReport, earned: PayP
     return { kind: rule.kind, crossed, value, threshold, summary };
   }
   if (rule.kind === 'log-rank') {
-    const { pValue, statistic, df } = report.survival.logRank;
-    const crossed = pValue !== null && pValue < rule.pValueBelow;
-    const summary = crossed
-      ? `Time to dropout differs by condition: log-rank χ² = ${(statistic as number).toFixed(2)} on ${df} df, p = ${pValue.toPrecision(3)} (below ${rule.pValueBelow}).`
-      : 'The log-rank test of time to dropout is not below the chosen level.';
-    return { kind: rule.kind, crossed, value: pValue, threshold: rule.pValueBelow, summary };
+    const { pValue, statistic, df, permutation } = report.survival.logRank;
+    // No planned size recorded: every look is an interim look.
+    const interim = context.plannedSize === undefined || context.plannedSize === null || report.overall.randomized < context.plannedSize;
+    const threshold = interim ? Math.min(rule.pValueBelow, INTERIM_P_BOUNDARY) : rule.pValueBelow;
+    // With few dropouts the permutation p stands in for the asymptotic one.
+    const p = permutation?.pValue ?? pValue;
+    const crossed = p !== null && p < threshold;
+    const level = interim ? `the interim boundary ${threshold} that applies until the planned size is reached` : `${threshold}`;
+    const which = permutation ? `permutation p = ${permutation.pValue.toPrecision(3)} (few dropouts; asymptotic p = ${pValue?.toPrecision(3)})` : `p = ${p?.toPrecision(3)}`;
+    const summary =
+      (crossed
+        ? `Time to dropout differs by condition: log-rank χ² = ${(statistic as number).toFixed(2)} on ${df} df, ${which} (below ${level}).`
+        : `The log-rank test of time to dropout is not below ${level}.`) + ` ${REPEATED_LOOKS_CAUTION}`;
+    return { kind: rule.kind, crossed, value: p, threshold, summary };
   }
   const comparison = (rule.basis === 'paid' ? report.payParity : earned).perRandomized;
   const difference = comparison.largestMeanDifference;

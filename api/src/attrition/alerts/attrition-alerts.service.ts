@@ -180,7 +180,7 @@ export class AttritionAlertsService implements OnModuleInit {
 
     const differential = enabled.find((entry) => entry.rule.kind === 'differential-attrition')?.rule;
     const figures = await this.figures(studyId, differential?.comparisonConditionId ?? undefined);
-    const readings = new Map(enabled.map(({ rule }) => [rule.id, readAlert(toRule(rule), figures.report, figures.earned, study.currency)]));
+    const readings = new Map(enabled.map(({ rule }) => [rule.id, readAlert(toRule(rule), figures.report, figures.earned, study.currency, { plannedSize: study.targetSize })]));
 
     return this.dataSource.transaction(async (manager) => {
       // Locked, so that two evaluators (two api instances, or a test beside the job) cannot both send one crossing.

@@ -14,6 +14,17 @@ export class AttritionQueryDto {
   comparisonConditionId?: string;
 }
 
+export class IntervalDto {
+  @ApiProperty() lower: number;
+  @ApiProperty() upper: number;
+}
+
+export class RiskRatioDto {
+  @ApiProperty() estimate: number;
+  @ApiProperty() lower: number;
+  @ApiProperty() upper: number;
+}
+
 export class WindowEndedDto {
   @ApiProperty({ description: 'Randomized participants whose participation window has ended' }) randomized: number;
   @ApiProperty({ description: 'Completers among them' }) completed: number;
@@ -28,12 +39,14 @@ export class ConditionAttritionDto {
   @ApiProperty() withdrew: number;
   @ApiProperty({ description: 'Lost to follow-up' }) lost: number;
   @ApiProperty() excludedAfterRandomization: number;
-  @ApiProperty({ description: 'withdrew + lost + excluded after randomization' }) dropped: number;
+  @ApiProperty({ description: 'Still active when the study closed: did not complete, counted as dropped (countingRule)' }) incompleteAtClose: number;
+  @ApiProperty({ description: 'withdrew + lost + excluded after randomization + incomplete at the close' }) dropped: number;
   @ApiProperty({ type: Number, nullable: true, description: `Dropout so far: dropped / randomized, active people counting as not (yet) dropped; ${RATE}` })
   dropoutRateSoFar: number | null;
   @ApiProperty({ type: Number, nullable: true, description: `WWC attrition: (randomized − completed) / randomized among those whose window has ended; ${RATE}` })
   attritionRate: number | null;
   @ApiProperty({ description: 'Numerator of attritionRate' }) attrited: number;
+  @ApiProperty({ type: IntervalDto, nullable: true, description: '95 % Wilson interval for attritionRate' }) attritionInterval: IntervalDto | null;
   @ApiProperty({ type: WindowEndedDto }) windowEnded: WindowEndedDto;
 }
 
@@ -50,6 +63,7 @@ export class WwcBoundaryVerdictDto {
   @ApiProperty({ enum: VERDICTS }) verdict: string;
   @ApiProperty({ type: Number, nullable: true, description: 'Highest tolerable differential attrition on the row used, in percentage points' })
   maxDifferentialPercent: number | null;
+  @ApiProperty({ type: Number, nullable: true, description: 'The table row whose boundary was used (wwcRowRule)' }) overallPercentRow: number | null;
 }
 
 export class WwcPairDto {
@@ -57,16 +71,28 @@ export class WwcPairDto {
   @ApiProperty() comparisonConditionId: string;
   @ApiProperty({ type: Number, nullable: true, description: 'Pooled over the two arms of the pair' }) overallAttritionRate: number | null;
   @ApiProperty({ type: Number, nullable: true }) differentialAttritionRate: number | null;
-  @ApiProperty({ type: Number, nullable: true, description: 'Whole-percent row of the WWC boundary table used' }) overallPercentRow: number | null;
+  @ApiProperty({ type: Number, nullable: true, description: 'Row of the WWC boundary table the cautious verdict used' }) overallPercentRow: number | null;
+  @ApiProperty({ type: [Number], description: 'The rows around the overall rate: one at an exact whole percent, else two (wwcRowRule)' }) overallPercentRows: number[];
   @ApiProperty({ type: WwcBoundaryVerdictDto }) cautious: WwcBoundaryVerdictDto;
   @ApiProperty({ type: WwcBoundaryVerdictDto }) optimistic: WwcBoundaryVerdictDto;
+  @ApiProperty({ type: IntervalDto, nullable: true, description: '95 % Newcombe interval for the difference in attrition rates (arm minus comparison)' })
+  differenceInterval: IntervalDto | null;
+  @ApiProperty({ type: RiskRatioDto, nullable: true, description: 'Attrition risk ratio (arm over comparison) with its 95 % Katz interval' })
+  riskRatio: RiskRatioDto | null;
+}
+
+export class WorstWwcPairsDto {
+  @ApiProperty({ type: WwcPairDto, nullable: true }) cautious: WwcPairDto | null;
+  @ApiProperty({ type: WwcPairDto, nullable: true }) optimistic: WwcPairDto | null;
 }
 
 export class WwcAssessmentDto {
   @ApiProperty({ type: String, nullable: true }) comparisonConditionId: string | null;
-  @ApiProperty({ enum: VERDICTS, description: 'Least favourable pair under the cautious boundary' }) cautious: string;
-  @ApiProperty({ enum: VERDICTS, description: 'Least favourable pair under the optimistic boundary' }) optimistic: string;
-  @ApiProperty({ type: [WwcPairDto], description: 'Each other arm against the comparison arm' }) pairs: WwcPairDto[];
+  @ApiProperty({ enum: VERDICTS, description: 'Least favourable of every pair of arms under the cautious boundary' }) cautious: string;
+  @ApiProperty({ enum: VERDICTS, description: 'Least favourable of every pair of arms under the optimistic boundary' }) optimistic: string;
+  @ApiProperty({ type: [WwcPairDto], description: 'A view: each other arm against the comparison arm' }) pairs: WwcPairDto[];
+  @ApiProperty({ type: [WwcPairDto], description: 'Every pair of arms' }) allPairs: WwcPairDto[];
+  @ApiProperty({ type: WorstWwcPairsDto, description: 'The pair behind each headline' }) worstPair: WorstWwcPairsDto;
 }
 
 export class ChiSquareDto {
@@ -86,19 +112,35 @@ export class FisherExactDto {
   @ApiProperty() pValueLess: number;
 }
 
+export class ExactTableTestDto {
+  @ApiProperty({ enum: ['freeman-halton-exact', 'monte-carlo-exact'] }) method: string;
+  @ApiProperty() pValue: number;
+  @ApiProperty({ type: Number, nullable: true, description: 'Tables with the observed margins that were listed' }) tablesEnumerated: number | null;
+  @ApiProperty({ type: Number, nullable: true, description: 'Monte Carlo only' }) replicates: number | null;
+  @ApiProperty({ type: String, nullable: true, description: 'Monte Carlo only' }) seed: string | null;
+  @ApiProperty({ type: Number, nullable: true, description: 'Monte Carlo only: √(p(1 − p)/B)' }) standardError: number | null;
+}
+
 export class DropoutTestDto {
-  @ApiProperty({ enum: ['chi-square', 'fisher-exact'], description: "Fisher's exact test when a 2×2 table has an expected count below 5" }) method: string;
-  @ApiProperty({ type: Number, nullable: true, description: 'X²; null for Fisher’s exact test' }) statistic: number | null;
+  @ApiProperty({
+    enum: ['chi-square', 'fisher-exact', 'freeman-halton-exact', 'monte-carlo-exact'],
+    description: "An exact test when an expected count is below 5: Fisher's for two arms, Freeman–Halton (or its Monte Carlo estimate) for more",
+  })
+  method: string;
+  @ApiProperty({ enum: ['small-expected-counts', 'expected-counts-adequate', 'not-computable'] }) reason: string;
+  @ApiProperty({ type: Number, nullable: true, description: 'Smallest expected cell count' }) smallestExpected: number | null;
+  @ApiProperty({ type: Number, nullable: true, description: 'X²; null for the exact tests' }) statistic: number | null;
   @ApiProperty({ type: Number, nullable: true }) df: number | null;
   @ApiProperty({ type: Number, nullable: true }) pValue: number | null;
   @ApiProperty({ enum: [false], description: 'No Yates continuity correction is applied' }) continuityCorrection: false;
   @ApiProperty({ type: [String], description: 'Rows of the arm × dropped / not dropped table: the arms with anyone randomized' }) tableConditionIds: string[];
   @ApiProperty({ type: ChiSquareDto, nullable: true }) chiSquare: ChiSquareDto | null;
   @ApiProperty({ type: FisherExactDto, nullable: true, description: 'Only for two arms' }) fisherExact: FisherExactDto | null;
+  @ApiProperty({ type: ExactTableTestDto, nullable: true, description: 'Three or more arms with small expected counts' }) exact: ExactTableTestDto | null;
 }
 
 export class SurvivalPointDto {
-  @ApiProperty({ description: 'Whole days since assignment' }) time: number;
+  @ApiProperty({ description: 'Days since assignment, exact (fractions of a day, not rounded)' }) time: number;
   @ApiProperty({ description: 'Kaplan–Meier share not dropped out just after this time' }) survival: number;
   @ApiProperty({ type: Number, nullable: true }) lower: number | null;
   @ApiProperty({ type: Number, nullable: true }) upper: number | null;
@@ -113,6 +155,7 @@ export class SurvivalCurveDto {
   @ApiProperty() atStart: number;
   @ApiProperty() confidenceLevel: number;
   @ApiProperty({ enum: ['log-log'] }) bandForm: 'log-log';
+  @ApiProperty({ type: Number, nullable: true, description: 'Median days to dropout; null while the curve stays above 0.5' }) median: number | null;
   @ApiProperty({ type: [SurvivalPointDto], description: 'Survival is 1 before the first point' }) points: SurvivalPointDto[];
 }
 
@@ -122,12 +165,23 @@ export class LogRankGroupDto {
   @ApiProperty() expected: number;
 }
 
+export class LogRankPermutationDto {
+  @ApiProperty() pValue: number;
+  @ApiProperty() replicates: number;
+  @ApiProperty() standardError: number;
+  @ApiProperty() seed: string;
+}
+
 export class LogRankDto {
   @ApiProperty({ enum: ['log-rank'] }) method: 'log-rank';
   @ApiProperty({ type: Number, nullable: true }) statistic: number | null;
   @ApiProperty() df: number;
-  @ApiProperty({ type: Number, nullable: true }) pValue: number | null;
+  @ApiProperty({ type: Number, nullable: true, description: 'Asymptotic (chi-square) p' }) pValue: number | null;
   @ApiProperty({ type: [LogRankGroupDto] }) groups: LogRankGroupDto[];
+  @ApiProperty({ description: 'Some arm expects fewer than 5 dropouts: the asymptotic p is doubtful' }) fewEvents: boolean;
+  @ApiProperty({ type: LogRankPermutationDto, nullable: true, description: 'Seeded Monte Carlo permutation test, when events are few' })
+  permutation: LogRankPermutationDto | null;
+  @ApiProperty({ type: String, nullable: true, enum: ['too-many-participants'] }) permutationSkipped: string | null;
 }
 
 export class SurvivalDto {
@@ -180,7 +234,12 @@ export class PayParityDto {
 
 export class StandardizedDifferenceDto {
   @ApiProperty({ type: Number, nullable: true }) d: number | null;
-  @ApiProperty({ type: Boolean, nullable: true, description: '|d| ≥ 0.1 (Austin 2009)' }) imbalanced: boolean | null;
+  @ApiProperty({ type: Number, nullable: true, description: '|d| that re-randomizing the same people exceeds 5 % of the time' }) chanceRange: number | null;
+  @ApiProperty({ type: Boolean, nullable: true, description: '|d| beyond chanceRange' }) imbalanced: boolean | null;
+  @ApiPropertyOptional({ type: Number, nullable: true, description: 'Continuous only: variance ratio, condition over comparison' }) varianceRatio?: number | null;
+  @ApiPropertyOptional({ type: [Number], nullable: true, description: '95 % range of the ratio under equal variances (F distribution)' })
+  varianceRatioRange?: [number, number] | null;
+  @ApiPropertyOptional({ type: Boolean, nullable: true }) varianceRatioImbalanced?: boolean | null;
 }
 
 export class CovariateBalanceRowDto {
@@ -214,11 +273,13 @@ export class ArmFlowDto {
   @ApiProperty() conditionId: string;
   @ApiProperty() name: string;
   @ApiProperty() allocated: number;
-  @ApiProperty() stillInFollowUp: number;
+  @ApiProperty({ description: 'Still active while the study runs; 0 once it is closed' }) stillInFollowUp: number;
+  @ApiProperty({ description: 'Still active when the study closed: did not complete' }) incompleteAtClose: number;
   @ApiProperty({ type: FlowBoxDto }) withdrew: FlowBoxDto;
   @ApiProperty({ type: FlowBoxDto }) lostToFollowUp: FlowBoxDto;
   @ApiProperty({ type: FlowBoxDto }) excludedAfterRandomization: FlowBoxDto;
-  @ApiProperty({ description: 'Completers: participants with complete outcome data' }) analysed: number;
+  @ApiProperty({ description: 'Analysed by intention to treat: everyone allocated' }) analysed: number;
+  @ApiProperty({ description: 'Completers: participants with complete outcome data' }) completers: number;
 }
 
 export class ConsortFlowDto {
@@ -253,6 +314,10 @@ export class AttritionReportDto {
   @ApiProperty({ format: 'date-time' }) computedAt: string;
   @ApiProperty({ description: 'Condition names are hidden: `name` is the code' }) blinded: boolean;
   @ApiProperty({ description: 'How the participation window is decided' }) windowRule: string;
+  @ApiProperty({ description: 'How people still active are counted, the same in every panel and the export' }) countingRule: string;
+  @ApiProperty({ description: 'How an overall rate finds its row of the WWC boundary table' }) wwcRowRule: string;
+  @ApiProperty({ description: 'Why p-value alerts use a stricter level before the planned size is reached' }) repeatedLooks: string;
+  @ApiProperty({ type: Number, nullable: true, description: "The study's planned number of participants" }) plannedSize: number | null;
   @ApiProperty({ type: [String] }) cautions: string[];
   @ApiProperty({ type: [ConditionAttritionDto] }) conditions: ConditionAttritionDto[];
   @ApiProperty({ type: OverallAttritionDto }) overall: OverallAttritionDto;

@@ -14,13 +14,15 @@ import { alertThresholdsSchema, toAlertsInput, useSaveAttritionAlerts, type Aler
 export interface AlertThresholdsFormProps {
   studyId: string;
   alerts: AttritionAlerts;
-  /** The comparison condition picked on the page; the differential rule uses it. */
+  /** The comparison condition picked on the page, saved with the rules (the differential rule judges every pair). */
   comparisonConditionId: string | null;
-  comparisonName: string | null;
+  comparisonName?: string | null;
+  /** Why p-value alerts are held to a stricter level until the planned size is reached. */
+  repeatedLooks: string;
   canEdit: boolean;
 }
 
-export function AlertThresholdsForm({ studyId, alerts, comparisonConditionId, comparisonName, canEdit }: AlertThresholdsFormProps) {
+export function AlertThresholdsForm({ studyId, alerts, comparisonConditionId, canEdit, repeatedLooks }: AlertThresholdsFormProps) {
   const currency = alerts.payDifference.currency;
   const save = useSaveAttritionAlerts(studyId);
   const [saved, setSaved] = useState(false);
@@ -59,7 +61,7 @@ export function AlertThresholdsForm({ studyId, alerts, comparisonConditionId, co
         render={({ field }) => (
           <SwitchField
             label="Differential attrition beyond the cautious WWC boundary"
-            hint={`Compared with condition ${comparisonName ?? 'chosen above'}.${alerts.differentialAttrition.state.crossed ? ' Crossed at the last check.' : ''}`}
+            hint={`Any pair of conditions.${alerts.differentialAttrition.state.crossed ? ' Crossed at the last check.' : ''}`}
             checked={field.value}
             onChange={field.onChange}
             disabled={!canEdit}
@@ -83,6 +85,9 @@ export function AlertThresholdsForm({ studyId, alerts, comparisonConditionId, co
         />
         <TextField className="w-32" label="p-value threshold" inputMode="decimal" disabled={!canEdit} error={errors.pValueBelow?.message} {...form.register('pValueBelow')} />
       </div>
+      <p className="max-w-prose text-xs text-ink-muted" data-testid="repeated-looks">
+        {repeatedLooks}
+      </p>
       <div className="flex flex-wrap items-start gap-4">
         <Controller
           control={form.control}

@@ -1,6 +1,6 @@
 import { tableRecipe } from '@/components/ui/recipes';
 import type { ConditionAttrition } from '../api/get-attrition-report';
-import { formatShare } from '../utils/watch-format';
+import { formatShare, formatShareInterval } from '../utils/watch-format';
 
 export function ConditionTable({ conditions, studyClosed }: { conditions: readonly ConditionAttrition[]; studyClosed: boolean }) {
   return (
@@ -9,7 +9,7 @@ export function ConditionTable({ conditions, studyClosed }: { conditions: readon
         <caption className="sr-only">Participants per condition</caption>
         <thead>
           <tr>
-            {['Condition', 'Randomized', 'Active', 'Completed', 'Withdrew', 'Lost', 'Dropout so far', studyClosed ? 'Attrition (WWC)' : 'Attrition (WWC), window ended'].map((label, index) => (
+            {['Condition', 'Randomized', studyClosed ? 'Did not complete by the close' : 'Active', 'Completed', 'Withdrew', 'Lost', 'Dropout so far', studyClosed ? 'Attrition (WWC)' : 'Attrition (WWC), window ended'].map((label, index) => (
               <th key={label} scope="col" className={`${tableRecipe.headCell} ${index > 0 ? 'text-right' : ''}`}>
                 {label}
               </th>
@@ -22,7 +22,7 @@ export function ConditionTable({ conditions, studyClosed }: { conditions: readon
               <th scope="row" className={`${tableRecipe.cell} text-left font-semibold`}>
                 {condition.name}
               </th>
-              {[condition.randomized, condition.active, condition.completed, condition.withdrew, condition.lost].map((count, index) => (
+              {[condition.randomized, studyClosed ? condition.incompleteAtClose : condition.active, condition.completed, condition.withdrew, condition.lost].map((count, index) => (
                 <td key={index} className={`${tableRecipe.cell} text-right tabular-nums`}>
                   {count.toLocaleString()}
                 </td>
@@ -38,6 +38,7 @@ export function ConditionTable({ conditions, studyClosed }: { conditions: readon
                 <span className="block text-2xs text-ink-muted">
                   {condition.attrited} of {condition.windowEnded.randomized}
                 </span>
+                <span className="block text-2xs text-ink-muted">95% CI {formatShareInterval(condition.attritionInterval)}</span>
               </td>
             </tr>
           ))}
@@ -47,13 +48,15 @@ export function ConditionTable({ conditions, studyClosed }: { conditions: readon
   );
 }
 
-export function RateDefinitions() {
+export function RateDefinitions({ countingRule }: { countingRule: string }) {
   return (
     <dl className="grid gap-x-4 gap-y-1 text-xs text-ink-muted sm:grid-cols-[max-content_1fr]">
+      <dt className="font-semibold text-ink">People still active</dt>
+      <dd>{countingRule}</dd>
       <dt className="font-semibold text-ink">Dropout so far</dt>
       <dd>Withdrew, lost or excluded after randomization, out of everyone randomized. Active people count as not (yet) dropped.</dd>
       <dt className="font-semibold text-ink">Attrition (WWC)</dt>
-      <dd>Not completed, out of the people whose participation window has ended. Active people are left out until their window ends.</dd>
+      <dd>Not completed, out of the people whose participation window has ended, with its 95% Wilson interval. Active people are left out until their window ends.</dd>
     </dl>
   );
 }

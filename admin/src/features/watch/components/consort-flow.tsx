@@ -1,3 +1,4 @@
+import type { Ref } from 'react';
 import type { ConsortFlow, FlowBox } from '../api/get-attrition-report';
 
 // Our own CONSORT 2010-style diagram: boxes sized from their wrapped text, arrows between stages.
@@ -73,7 +74,7 @@ function StageLabel({ y, height, label }: { y: number; height: number; label: st
   );
 }
 
-export function ConsortFlow({ flow }: { flow: ConsortFlow }) {
+export function ConsortFlow({ flow, svgRef }: { flow: ConsortFlow; svgRef?: Ref<SVGSVGElement> }) {
   const arms = flow.arms;
   const left = 34;
   const armWidth = 210;
@@ -114,7 +115,7 @@ export function ConsortFlow({ flow }: { flow: ConsortFlow }) {
   const armX = (index: number) => left + (contentWidth - (arms.length * armWidth + (arms.length - 1) * armGap)) / 2 + index * (armWidth + armGap);
   const allocation = arms.map((arm) => ({
     title: `Allocated to ${arm.name} (n = ${arm.allocated})`,
-    lines: [`Still in follow-up (n = ${arm.stillInFollowUp})`],
+    lines: [arm.incompleteAtClose > 0 ? `Did not complete by the close (n = ${arm.incompleteAtClose})` : `Still in follow-up (n = ${arm.stillInFollowUp})`],
   }));
   const followUp = arms.map((arm) => ({
     title: `Withdrew (n = ${arm.withdrew.total}) · Lost (n = ${arm.lostToFollowUp.total})`,
@@ -126,7 +127,10 @@ export function ConsortFlow({ flow }: { flow: ConsortFlow }) {
         : []),
     ],
   }));
-  const analysis = arms.map((arm) => ({ title: `Analysed: completed (n = ${arm.analysed})`, lines: [] }));
+  const analysis = arms.map((arm) => ({
+    title: `Analysed, intention to treat (n = ${arm.analysed})`,
+    lines: [`Completers (n = ${arm.completers})`, `Without complete outcome data (n = ${arm.analysed - arm.completers})`],
+  }));
   // At least tall enough for the rotated stage label beside the row.
   const rowHeight = (boxes: BoxText[]) => Math.max(...boxes.map((box) => boxHeight(box, armWidth)), 78);
 
@@ -142,7 +146,7 @@ export function ConsortFlow({ flow }: { flow: ConsortFlow }) {
   const branchY = allocationY - STAGE_GAP / 2;
 
   return (
-    <svg viewBox={`0 0 ${width} ${y}`} className="mx-auto h-auto w-full min-w-[640px]" style={{ maxWidth: width * 1.15 }} aria-hidden="true" focusable="false">
+    <svg ref={svgRef} xmlns="http://www.w3.org/2000/svg" viewBox={`0 0 ${width} ${y}`} width={width} height={y} className="mx-auto h-auto w-full min-w-[640px]" style={{ maxWidth: width * 1.15 }} aria-hidden="true" focusable="false">
       <defs>
         <marker id="consort-arrow" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="7" markerHeight="7" orient="auto-start-reverse">
           <path d="M0 0 10 5 0 10z" fill="var(--color-ink-muted)" />
@@ -207,7 +211,9 @@ export function ConsortFlowText({ flow }: { flow: ConsortFlow }) {
         <li key={arm.conditionId}>
           Condition {arm.name}: {arm.allocated} allocated; {arm.stillInFollowUp} still in follow-up; {arm.withdrew.total} withdrew
           {reasons(arm.withdrew)}; {arm.lostToFollowUp.total} lost to follow-up{reasons(arm.lostToFollowUp)};{' '}
-          {arm.excludedAfterRandomization.total} excluded after randomization{reasons(arm.excludedAfterRandomization)}; {arm.analysed} analysed (completed).
+          {arm.excludedAfterRandomization.total} excluded after randomization{reasons(arm.excludedAfterRandomization)};
+          {arm.incompleteAtClose > 0 ? ` ${arm.incompleteAtClose} did not complete by the close;` : ''} {arm.analysed} analysed by intention to treat, of
+          whom {arm.completers} completed.
         </li>
       ))}
     </ol>

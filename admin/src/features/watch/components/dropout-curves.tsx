@@ -1,7 +1,10 @@
 import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import type { AttritionReport } from '../api/get-attrition-report';
 import { toStepPoints } from '../utils/survival-steps';
-import { formatPValue, formatShare, formatStatistic } from '../utils/watch-format';
+import { formatShare, logRankSentence } from '../utils/watch-format';
+
+/** Follow-up is exact (fractions of a day); shown with two decimals. */
+const formatDay = (day: number) => day.toFixed(2);
 
 const palette = ['var(--color-spruce)', 'var(--color-ochre)', 'var(--color-danger)', 'var(--color-success)', 'var(--color-caution)', 'var(--color-ink-muted)'];
 const dashes = [undefined, '6 3', '2 3', '8 3 2 3', '1 2', '4 4'];
@@ -14,9 +17,10 @@ export function DropoutCurves({ report }: { report: AttritionReport }) {
     color: palette[index % palette.length]!,
     dash: dashes[index % dashes.length],
     steps: toStepPoints(curve.points),
+    median: curve.median,
   }));
   const logRank = report.survival.logRank;
-  const summary = curves.map((curve) => `${curve.name}: ${formatShare(curve.steps.at(-1)?.survival)} still in at day ${curve.steps.at(-1)?.time ?? 0}`).join('; ');
+  const summary = curves.map((curve) => `${curve.name}: ${formatShare(curve.steps.at(-1)?.survival)} still in at day ${formatDay(curve.steps.at(-1)?.time ?? 0)}`).join('; ');
 
   return (
     <figure className="flex flex-col gap-2">
@@ -35,7 +39,7 @@ export function DropoutCurves({ report }: { report: AttritionReport }) {
             />
             <YAxis domain={[0, 1]} tickFormatter={(value: number) => `${Math.round(value * 100)}%`} tick={{ fontSize: 11, fill: 'var(--color-ink-muted)' }} width={42} />
             <Tooltip
-              labelFormatter={(value) => `Day ${value}`}
+              labelFormatter={(value) => `Day ${formatDay(Number(value))}`}
               formatter={(value) => formatShare(Number(value))}
               contentStyle={{ fontSize: 12, borderRadius: 5, borderColor: 'var(--color-line)' }}
             />
@@ -58,14 +62,16 @@ export function DropoutCurves({ report }: { report: AttritionReport }) {
         </ResponsiveContainer>
       </div>
       <p className="text-sm text-ink" data-testid="log-rank">
-        {logRank.statistic === null
-          ? 'Log-rank test across conditions: not computable yet.'
-          : `Log-rank test across conditions: χ²(${logRank.df}) = ${formatStatistic(logRank.statistic)}, ${formatPValue(logRank.pValue)}.`}{' '}
+        {logRankSentence(logRank)}{' '}
         {logRank.groups.length > 0 &&
           `Dropouts observed vs expected: ${logRank.groups.map((group) => `${names.get(group.conditionId) ?? '?'} ${group.observed} vs ${group.expected.toFixed(1)}`).join(', ')}.`}
       </p>
+      <p className="text-sm text-ink" data-testid="median-dropout">
+        Median time to dropout:{' '}
+        {curves.map((curve) => `${curve.name} ${curve.median === null ? 'not reached (fewer than half dropped out)' : `${formatDay(curve.median)} days`}`).join('; ')}.
+      </p>
       <p className="text-xs text-ink-muted">
-        Completers are censored at completion, active participants at {new Date(report.survival.censoredAt).toLocaleString()}. Bands ({Math.round((report.survival.curves[0]?.confidenceLevel ?? 0.95) * 100)}%,
+        Follow-up times are exact (fractions of a day), not rounded to whole days. Completers are censored at completion, active participants at {new Date(report.survival.censoredAt).toLocaleString()}. Bands ({Math.round((report.survival.curves[0]?.confidenceLevel ?? 0.95) * 100)}%,
         Greenwood) are listed in the table below.
       </p>
       <details className="text-sm">
@@ -85,7 +91,7 @@ export function DropoutCurves({ report }: { report: AttritionReport }) {
             <tbody>
               {curve.steps.map((step, index) => (
                 <tr key={index}>
-                  <td>{step.time}</td>
+                  <td className="tabular-nums">{formatDay(step.time)}</td>
                   <td className="text-right tabular-nums">{step.atRisk ?? '—'}</td>
                   <td className="text-right tabular-nums">{step.events}</td>
                   <td className="text-right tabular-nums">{formatShare(step.survival)}</td>

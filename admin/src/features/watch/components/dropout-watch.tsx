@@ -6,7 +6,7 @@ import { useAttritionAlerts } from '../api/get-attrition-alerts';
 import { useAttritionReport } from '../api/get-attrition-report';
 import { AlertThresholdsForm } from './alert-thresholds-form';
 import { ConditionTable, RateDefinitions } from './condition-table';
-import { ConsortFlow, ConsortFlowText } from './consort-flow';
+import { FlowDiagram } from './flow-diagram';
 import { ContactsByCondition } from './contacts-by-condition';
 import { CovariateBalanceTable } from './covariate-balance-table';
 import { DropoutCurves } from './dropout-curves';
@@ -58,7 +58,7 @@ export function DropoutWatch({ studyId, canEditAlerts, canExport }: DropoutWatch
 
   const cautions = (
     <Notice tone="caution">
-      <p className="font-semibold">These are screening aids, not the study's analysis.</p>
+      <p className="font-semibold">Statistical flags here are screening aids, not the study's analysis.</p>
       <ul className="mt-1 list-disc pl-5">
         {data.cautions.map((caution) => (
           <li key={caution}>{caution}</li>
@@ -89,17 +89,13 @@ export function DropoutWatch({ studyId, canEditAlerts, canExport }: DropoutWatch
       </Panel>
 
       <Panel id="flow" title="Participant flow" description="CONSORT 2010-style: enrollment, allocation, follow-up and analysis, with counts and reasons.">
-        <figure className="overflow-x-auto">
-          <figcaption className="sr-only">Participant flow diagram; the same counts follow as a list.</figcaption>
-          <ConsortFlow flow={data.flow} />
-          <ConsortFlowText flow={data.flow} />
-        </figure>
+        <FlowDiagram flow={data.flow} fileStem={`participant-flow-${studyId}`} />
       </Panel>
 
       <Panel id="conditions" title="By condition" description={data.windowRule}>
         <div className="flex flex-col gap-3">
           <ConditionTable conditions={data.conditions} studyClosed={data.studyStatus === 'closed'} />
-          <RateDefinitions />
+          <RateDefinitions countingRule={data.countingRule} />
         </div>
       </Panel>
 
@@ -136,6 +132,7 @@ export function DropoutWatch({ studyId, canEditAlerts, canExport }: DropoutWatch
             comparisonConditionId={comparisonId}
             comparisonName={comparisonName}
             canEdit={canEditAlerts}
+            repeatedLooks={data.repeatedLooks}
           />
         )}
       </Panel>

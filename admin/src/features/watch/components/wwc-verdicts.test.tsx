@@ -7,22 +7,37 @@ import { WwcVerdicts } from './wwc-verdicts';
 
 // Boundary rows from the WWC Procedures and Standards Handbook v5.0 attrition table (api/src/attrition/data):
 // 24% overall → cautious 4.9, optimistic 9.5 points; 45% overall → cautious 1.8, optimistic 5.1 points.
-function pair(conditionId: string, overallPercentRow: number | null, differential: number, cautious: [WwcVerdict, number | null], optimistic: [WwcVerdict, number | null]): WwcPair {
+function pair(
+  conditionId: string,
+  overallPercentRow: number | null,
+  differential: number,
+  cautious: [WwcVerdict, number | null],
+  optimistic: [WwcVerdict, number | null],
+  comparisonConditionId = 'a',
+): WwcPair {
   return {
     conditionId,
-    comparisonConditionId: 'a',
+    comparisonConditionId,
+    overallPercentRows: overallPercentRow === null ? [] : [overallPercentRow],
+    differenceInterval: { lower: differential - 0.05, upper: differential + 0.05 },
+    riskRatio: null,
     overallAttritionRate: overallPercentRow === null ? 0.7 : overallPercentRow / 100,
     differentialAttritionRate: differential,
     overallPercentRow,
-    cautious: { verdict: cautious[0], maxDifferentialPercent: cautious[1] },
-    optimistic: { verdict: optimistic[0], maxDifferentialPercent: optimistic[1] },
+    cautious: { verdict: cautious[0], maxDifferentialPercent: cautious[1], overallPercentRow },
+    optimistic: { verdict: optimistic[0], maxDifferentialPercent: optimistic[1], overallPercentRow },
   };
 }
 
-function report(pairs: WwcPair[], cautious: string, optimistic: string, names = ['A', 'B']): AttritionReport {
+const severity = ['low-attrition', 'not-computable', 'outside-published-range', 'high-attrition'];
+const worst = (pairs: WwcPair[], side: 'cautious' | 'optimistic') =>
+  [...pairs].sort((x, y) => severity.indexOf(y[side].verdict) - severity.indexOf(x[side].verdict) || (y.differentialAttritionRate ?? 0) - (x.differentialAttritionRate ?? 0))[0] ?? null;
+
+function report(pairs: WwcPair[], cautious: string, optimistic: string, names = ['A', 'B'], allPairs = pairs): AttritionReport {
   return {
     conditions: names.map((name, index) => ({ conditionId: String.fromCharCode(97 + index), name })),
-    wwc: { comparisonConditionId: 'a', cautious, optimistic, pairs },
+    wwc: { comparisonConditionId: 'a', cautious, optimistic, pairs, allPairs, worstPair: { cautious: worst(allPairs, 'cautious'), optimistic: worst(allPairs, 'optimistic') } },
+    wwcRowRule: 'A rate between two rows is judged on the stricter of the two.',
     overall: { randomized: 40, dropped: 10, dropoutRateSoFar: 0.25, windowEndedRandomized: 30, attrited: 7, attritionRate: 0.24 },
     differentialAttrition: pairs[0]?.differentialAttritionRate ?? null,
     dropoutTest: { method: 'chi-square', statistic: 30.07, df: 2, pValue: 2.954e-7, continuityCorrection: false, tableConditionIds: [], chiSquare: null, fisherExact: null },
@@ -30,6 +45,18 @@ function report(pairs: WwcPair[], cautious: string, optimistic: string, names = 
 }
 
 describe('WwcVerdicts', () => {
+  it('headlines the worst of every pair, even one the comparison picker does not show (20 %, 16 %, 24 %)', () => {
+    // Against A: 18 % / 4 points and 22 % / 4 points, both low. B vs C: 20 % overall, 8 points: beyond 5.4 (cautious).
+    const view = [pair('b', 18, 0.04, ['low-attrition', 5.7], ['low-attrition', 10.5]), pair('c', 22, 0.04, ['low-attrition', 5.2], ['low-attrition', 9.9])];
+    const everyPair = [...view, pair('b', 20, 0.08, ['high-attrition', 5.4], ['low-attrition', 10.2], 'c')];
+    const data = report(view, 'high-attrition', 'low-attrition', ['A', 'B', 'C'], everyPair);
+    renderWithProviders(<WwcVerdicts report={data} comparisonConditionId={null} onComparisonChange={() => {}} />);
+    expect(screen.getByText('Differential dropout is beyond the cautious WWC boundary')).toBeInTheDocument();
+    expect(screen.getByTestId('worst-pair-cautious')).toHaveTextContent(/B vs C: Overall attrition 20\.0%, differential 8\.0 points; at 20% overall the boundary tolerates up to 5\.4 points/);
+    expect(screen.getByRole('list', { name: 'Every pair' })).toHaveTextContent(/B vs C/);
+    expect(screen.getByText(/judged on the stricter of the two/)).toBeInTheDocument();
+  });
+
   it('says beyond the cautious and within the optimistic boundary, with the numbers', () => {
     // 7.3 points at 24% overall: above 4.9 (cautious), below 9.5 (optimistic).
     const data = report([pair('b', 24, 0.073, ['high-attrition', 4.9], ['low-attrition', 9.5])], 'high-attrition', 'low-attrition');

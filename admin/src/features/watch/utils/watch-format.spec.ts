@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { dropoutTestSentence, formatPValue, formatShare, welchTestSentence, wwcVerdictDetail, wwcVerdictSentence } from './watch-format';
+import { dropoutTestSentence, formatPValue, formatShare, logRankSentence, welchTestSentence, wwcVerdictDetail, wwcVerdictSentence } from './watch-format';
 
 describe('formatPValue', () => {
   // APA Publication Manual 7th ed. §6.36 (from memory): exact p to three decimals, "p < .001" below that.
@@ -64,6 +64,68 @@ describe('dropoutTestSentence', () => {
     // Tea-tasting table: two-sided p = 0.4857.
     expect(dropoutTestSentence({ method: 'fisher-exact', statistic: null, df: null, pValue: 0.4857, continuityCorrection: false })).toMatch(
       /^Fisher's exact test .*p = 0\.486\.$/,
+    );
+  });
+
+  it('leans on the exact r×2 test when expected counts are small with three conditions, and says why', () => {
+    // The 3 × 14 table with 2 / 4 / 8 dropped (api dropout-test.spec.ts): expected 4.67, X² = 6.00, chi-square p = 0.0498.
+    const sentence = dropoutTestSentence({
+      method: 'freeman-halton-exact',
+      reason: 'small-expected-counts',
+      smallestExpected: 14 / 3,
+      statistic: null,
+      df: null,
+      pValue: 0.0711,
+      continuityCorrection: false,
+      chiSquare: { statistic: 6, df: 2, pValue: 0.0498 },
+      exact: { method: 'freeman-halton-exact', pValue: 0.0711, replicates: null, standardError: null },
+    });
+    expect(sentence).toMatch(/^Freeman–Halton exact test \(used because the smallest expected count, 4\.67, is below 5/);
+    expect(sentence).toMatch(/p = 0\.071\./);
+    expect(sentence).toMatch(/chi-square approximation \(χ²\(2\) = 6\.00, p = 0\.050\) is not relied on/);
+  });
+
+  it('gives the Monte Carlo estimate with its standard error', () => {
+    const sentence = dropoutTestSentence({
+      method: 'monte-carlo-exact',
+      reason: 'small-expected-counts',
+      smallestExpected: 2.5,
+      statistic: null,
+      df: null,
+      pValue: 0.0312,
+      continuityCorrection: false,
+      chiSquare: { statistic: 9, df: 4, pValue: 0.061 },
+      exact: { method: 'monte-carlo-exact', pValue: 0.0312, replicates: 20000, standardError: 0.0012 },
+    });
+    expect(sentence).toMatch(/20,000 random tables/);
+    expect(sentence).toMatch(/p = 0\.031 \(standard error 0\.0012\)/);
+  });
+});
+
+describe('logRankSentence', () => {
+  it('warns when dropouts are few and leans on the permutation p-value', () => {
+    const sentence = logRankSentence({
+      statistic: 4.4,
+      df: 1,
+      pValue: 0.036,
+      fewEvents: true,
+      permutation: { pValue: 0.093, replicates: 2000, standardError: 0.0065, seed: 's' },
+      permutationSkipped: null,
+    });
+    expect(sentence).toMatch(/Few dropouts/);
+    expect(sentence).toMatch(/permutation test \(2,000 seeded relabellings\): p = 0\.093 \(standard error 0\.0065\)/);
+    expect(sentence).toMatch(/χ²\(1\) = 4\.40, p = 0\.036, which is not reliable here/);
+  });
+
+  it('says when there were too many people to relabel', () => {
+    expect(
+      logRankSentence({ statistic: 4.4, df: 1, pValue: 0.036, fewEvents: true, permutation: null, permutationSkipped: 'too-many-participants' }),
+    ).toMatch(/too few dropouts for the chi-square approximation/);
+  });
+
+  it('reads as before with enough dropouts', () => {
+    expect(logRankSentence({ statistic: 12.34, df: 2, pValue: 0.0021, fewEvents: false, permutation: null, permutationSkipped: null })).toBe(
+      'Log-rank test across conditions: χ²(2) = 12.34, p = 0.002.',
     );
   });
 });

@@ -79,22 +79,87 @@ function capitalize(text: string): string {
   return text.charAt(0).toUpperCase() + text.slice(1);
 }
 
-/** One line for the test of dropout by condition, saying which test and that no continuity correction is applied. */
-export function dropoutTestSentence(test: {
+export interface DropoutTestFigures {
   method: string;
+  reason?: string;
+  smallestExpected?: number | null;
   statistic: number | null;
   df: number | null;
   pValue: number | null;
   continuityCorrection: false;
-}): string {
+  chiSquare?: { statistic: number | null; df: number; pValue: number | null } | null;
+  exact?: { method: string; pValue: number; replicates: number | null; standardError: number | null } | null;
+}
+
+function whySmall(test: DropoutTestFigures): string {
+  return test.smallestExpected === null || test.smallestExpected === undefined
+    ? 'used because some expected counts are below 5'
+    : `used because the smallest expected count, ${test.smallestExpected.toFixed(2)}, is below 5, where the chi-square approximation is unreliable`;
+}
+
+function chiSquareAside(test: DropoutTestFigures): string {
+  const chi = test.chiSquare;
+  if (!chi || chi.statistic === null) return '';
+  return ` The chi-square approximation (χ²(${chi.df}) = ${formatStatistic(chi.statistic)}, ${formatPValue(chi.pValue)}) is not relied on.`;
+}
+
+/** One line for the test of dropout by condition: which test the screen leans on, and why. */
+export function dropoutTestSentence(test: DropoutTestFigures): string {
   if (test.method === 'fisher-exact') {
-    return `Fisher's exact test (two-sided, used because some expected counts are below 5): ${formatPValue(test.pValue)}.`;
+    return `Fisher's exact test (two-sided, ${whySmall(test)}): ${formatPValue(test.pValue)}.`;
+  }
+  if (test.method === 'freeman-halton-exact') {
+    return `Freeman–Halton exact test (${whySmall(test)}): ${formatPValue(test.pValue)}.${chiSquareAside(test)}`;
+  }
+  if (test.method === 'monte-carlo-exact') {
+    const replicates = test.exact?.replicates ?? 0;
+    const error = test.exact?.standardError;
+    return (
+      `Exact test estimated from ${replicates.toLocaleString('en')} random tables with the same margins (seeded; ${whySmall(test)}): ` +
+      `${formatPValue(test.pValue)}${error === null || error === undefined ? '' : ` (standard error ${error.toPrecision(2)})`}.${chiSquareAside(test)}`
+    );
   }
   if (test.method === 'chi-square') {
     if (test.statistic === null || test.df === null) return 'Chi-square test of dropout by condition: not computable yet (nobody has dropped out, or only one condition has participants).';
     return `Chi-square test of independence, without continuity correction: χ²(${test.df}) = ${formatStatistic(test.statistic)}, ${formatPValue(test.pValue)}.`;
   }
   throw new Error(`dropoutTest.method: unknown test "${test.method}"`);
+}
+
+export interface LogRankFigures {
+  statistic: number | null;
+  df: number;
+  pValue: number | null;
+  fewEvents: boolean;
+  permutation: { pValue: number; replicates: number; standardError: number; seed: string } | null;
+  permutationSkipped: string | null;
+}
+
+/** The log-rank line; with few dropouts it leans on the permutation p-value and says the asymptotic one is unreliable. */
+export function logRankSentence(test: LogRankFigures): string {
+  if (test.statistic === null) return 'Log-rank test across conditions: not computable yet.';
+  const asymptotic = `χ²(${test.df}) = ${formatStatistic(test.statistic)}, ${formatPValue(test.pValue)}`;
+  if (!test.fewEvents) return `Log-rank test across conditions: ${asymptotic}.`;
+  if (test.permutation) {
+    return (
+      `Few dropouts: the log-rank test is judged by a permutation test (${test.permutation.replicates.toLocaleString('en')} seeded relabellings): ` +
+      `${formatPValue(test.permutation.pValue)} (standard error ${test.permutation.standardError.toPrecision(2)}). ` +
+      `The chi-square approximation gives ${asymptotic}, which is not reliable here.`
+    );
+  }
+  return `Log-rank test across conditions: ${asymptotic} — too few dropouts for the chi-square approximation to be trusted, and too many participants to run the permutation test on every look; read it as a rough guide only.`;
+}
+
+/** A 95 % interval of shares as "12.3–25.0%". */
+export function formatShareInterval(interval: { lower: number; upper: number } | null | undefined): string {
+  if (!interval) return '—';
+  return `${(interval.lower * 100).toFixed(1)}–${(interval.upper * 100).toFixed(1)}%`;
+}
+
+/** A 95 % interval of a difference of shares in points, e.g. "−2.1 to 14.0 points". */
+export function formatPointsInterval(interval: { lower: number; upper: number } | null | undefined): string {
+  if (!interval) return '—';
+  return `${(interval.lower * 100).toFixed(1)} to ${(interval.upper * 100).toFixed(1)} points`;
 }
 
 /** Welch's one-way ANOVA in one line, or why it could not be computed, in plain words. */
