@@ -4,7 +4,8 @@ import { cx } from '@/components/ui/cx';
 import type { AuditEvent } from '../api/get-audit-events';
 
 const dayFormat = new Intl.DateTimeFormat(undefined, { weekday: 'long', day: 'numeric', month: 'long', year: 'numeric' });
-const timeFormat = new Intl.DateTimeFormat(undefined, { hour: '2-digit', minute: '2-digit', second: '2-digit' });
+// Minutes are enough to read by; the exact moment is in the details.
+const timeFormat = new Intl.DateTimeFormat(undefined, { hour: '2-digit', minute: '2-digit' });
 
 export interface AuditEventListProps {
   events: readonly AuditEvent[];
@@ -41,7 +42,7 @@ function EventEntry({ event, familyLabel }: { event: AuditEvent; familyLabel: st
   const detailsId = `audit-event-${event.id}`;
   return (
     <li className="flex gap-3 px-3 py-2.5 sm:px-4">
-      <time dateTime={event.at} className="w-16 shrink-0 pt-0.5 text-xs text-ink-muted tabular-nums">
+      <time dateTime={event.at} className="w-16 shrink-0 pt-0.5 text-xs whitespace-nowrap text-ink-muted tabular-nums">
         {timeFormat.format(new Date(event.at))}
       </time>
       <div className="flex min-w-0 flex-1 flex-col gap-1">
