@@ -7,6 +7,7 @@ import { AppConfig } from '../config/app-config';
 import { ChainBreak, ChainWalk, describeBreak, finishWalk, GENESIS_HASH, keyedEventHash, startWalk, StoredEvent, UNKEYED_SEAL_ACTION, walkChain } from './audit-hash';
 import { AuditKeyRing, loadAuditKeys } from './audit-keys';
 import { AuditReceiptDocument, checkReceipt, ReceiptProblem, RECEIPT_PROBLEM_TEXT } from './audit-receipt';
+import { AuditTrailReadModel, TrailEvent } from './audit-trail.read-model';
 import { AuditEventEntity, LAB_CHAIN } from './entities/audit-event.entity';
 import { AuditReceiptEntity } from './entities/audit-receipt.entity';
 
@@ -56,14 +57,6 @@ export interface AuditReport {
   findings: AuditFinding[];
 }
 
-export interface AuditPageQuery {
-  chains: string[] | 'all';
-  action?: string;
-  subjectIds?: string[];
-  page: number;
-  pageSize: number;
-}
-
 /** How deep in savepoints a query runner is (1: the outermost transaction). TypeORM keeps it on the runner. */
 function transactionDepth(runner: QueryRunner): number {
   return (runner as QueryRunner & { transactionDepth?: number }).transactionDepth ?? 1;
@@ -79,6 +72,7 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap {
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
     config: AppConfig,
+    private readonly trail: AuditTrailReadModel,
   ) {
     this.keys = loadAuditKeys({ keyList: config.auditKeys, keyFile: config.auditKeyFile, mayCreate: config.nodeEnv !== 'production' });
   }
@@ -221,18 +215,10 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap {
     await manager.insert(AuditEventEntity, events as QueryDeepPartialEntity<AuditEventEntity>[]);
   }
 
-  async page(query: AuditPageQuery): Promise<{ items: AuditEventEntity[]; total: number }> {
-    const builder = this.dataSource.getRepository(AuditEventEntity).createQueryBuilder('event');
-    if (query.chains !== 'all') builder.where('event.chain IN (:...chains)', { chains: query.chains.length ? query.chains : [''] });
-    if (query.action) builder.andWhere('event.action = :action', { action: query.action });
-    if (query.subjectIds) builder.andWhere('event.subject_id IN (:...subjectIds)', { subjectIds: query.subjectIds.length ? query.subjectIds : [''] });
-    const [items, total] = await builder
-      .orderBy('event.at', 'DESC')
-      .addOrderBy('event.sequence', 'DESC')
-      .skip((query.page - 1) * query.pageSize)
-      .take(query.pageSize)
-      .getManyAndCount();
-    return { items, total };
+  /** One participant's story in a study, in words, oldest first: their enrollment, steps, payouts and own actions. */
+  async storyOf(studyId: string, reference: string): Promise<TrailEvent[]> {
+    const { items } = await this.trail.page({ chain: studyId, participant: reference.toUpperCase() }, 1, 200);
+    return items.reverse();
   }
 
   /** Checks chains (all when omitted) from their first link and against the latest audit receipt. */

@@ -628,7 +628,7 @@ export class EnrollmentsService implements OnModuleInit {
     const versions = await this.consent.list(studyId);
     const signatures = await this.consent.signaturesOf(enrollmentId);
     const signatureIds = signatures.map((s) => s.id);
-    const { items } = await this.audit.page({ chains: [studyId], subjectIds: [enrollmentId], page: 1, pageSize: 200 });
+    const story = await this.audit.storyOf(studyId, enrollment.reference);
     const progress = await this.progressOf(studyId, [enrollment]);
     return {
       enrollment: this.rosterEntry(enrollment, participant[0]?.email ?? '', await this.conditionLabels(study), versions, progress.get(enrollment.id)),
@@ -648,9 +648,7 @@ export class EnrollmentsService implements OnModuleInit {
         userAgent: s.userAgent,
         hasMark: Boolean(s.mark),
       })),
-      timeline: items
-        .map((event) => ({ at: event.at.toISOString(), action: event.action, actorEmail: event.actorEmail, data: event.data }))
-        .sort((a, b) => a.at.localeCompare(b.at)),
+      timeline: story.map((event) => ({ at: event.at.toISOString(), action: event.action, name: event.name, sentence: event.sentence, actorEmail: event.actorEmail, data: event.data })),
     };
   }
 

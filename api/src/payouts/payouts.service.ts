@@ -317,7 +317,7 @@ export class PayoutsService implements OnModuleInit {
         [payout.id, reason, options.from ?? ['sending'], options.idleSince ?? null],
       );
       if (failed) {
-        await this.audit.record(manager, { chain: payout.studyId, actor: null, action: 'payout.failed', subjectType: 'payout', subjectId: payout.id, data: { reason } });
+        await this.audit.record(manager, { chain: payout.studyId, actor: null, action: 'payout.undelivered', subjectType: 'payout', subjectId: payout.id, data: { reason } });
       }
       return Boolean(failed);
     });
@@ -360,7 +360,7 @@ export class PayoutsService implements OnModuleInit {
       );
       if (!payout) return;
       await this.jobs.enqueue(m, JOB_NAMES.payoutReceipt, { payoutId });
-      await this.audit.record(m, { chain: payout.study_id, actor: null, action: 'payout.paid', subjectType: 'payout', subjectId: payoutId, data: { transferId, amountMinor: Number(payout.amount_minor) } });
+      await this.audit.record(m, { chain: payout.study_id, actor: null, action: 'payout.delivered', subjectType: 'payout', subjectId: payoutId, data: { transferId, amountMinor: Number(payout.amount_minor) } });
     };
     if (manager) await run(manager);
     else await this.dataSource.transaction(run);
@@ -499,14 +499,14 @@ export class PayoutsService implements OnModuleInit {
       currency: payout.currency.trim(),
       payOverride: payout.payOverride,
     });
-    await this.audit.record(manager, { chain: payout.studyId, actor: null, action: 'payout.reversed', subjectType: 'payout', subjectId: payout.id, data: { transferId, owedAgainAs: again?.id ?? null } });
+    await this.audit.record(manager, { chain: payout.studyId, actor: null, action: 'payout.returned', subjectType: 'payout', subjectId: payout.id, data: { transferId, owedAgainAs: again?.id ?? null } });
   }
 
   private async applyFunding(manager: EntityManager, paymentIntentId: string, status: 'succeeded' | 'failed'): Promise<void> {
     const funding = await manager.findOne(StudyFundingEntity, { where: { paymentIntentId }, lock: { mode: 'pessimistic_write' } });
     if (!funding || funding.status === 'succeeded') return;
     await manager.update(StudyFundingEntity, { id: funding.id }, { status, succeededAt: status === 'succeeded' ? new Date() : null });
-    await this.audit.record(manager, { chain: funding.studyId, actor: null, action: `funding.${status}`, subjectType: 'funding', subjectId: funding.id, data: { amountMinor: funding.amountMinor, paymentIntentId } });
+    await this.audit.record(manager, { chain: funding.studyId, actor: null, action: status === 'succeeded' ? 'funding.received' : 'funding.declined', subjectType: 'funding', subjectId: funding.id, data: { amountMinor: funding.amountMinor, paymentIntentId } });
   }
 
   // ── reconciliation ────────────────────────────────────────────────────────

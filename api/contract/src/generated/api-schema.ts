@@ -20,6 +20,54 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/audit/filters": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["AuditController_filters"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/audit/export.csv": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["AuditController_exportCsv"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/audit/export-summary.txt": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["AuditController_exportSummary"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/audit/verify": {
         parameters: {
             query?: never;
@@ -1416,6 +1464,11 @@ export interface paths {
 export type webhooks = Record<string, never>;
 export interface components {
     schemas: {
+        AmountDto: {
+            /** @description integer minor units */
+            minor: number;
+            currency: string;
+        };
         AuditEventDto: {
             id: string;
             chain: string;
@@ -1424,6 +1477,7 @@ export interface components {
             at: string;
             actorId: string | null;
             actorEmail: string | null;
+            /** @description The code as stored (covered by the hash); people read `name` and `sentence` */
             action: string;
             subjectType: string | null;
             subjectId: string | null;
@@ -1432,12 +1486,59 @@ export interface components {
             };
             previousHash: string;
             hash: string;
+            keyId: string | null;
+            /** @enum {string} */
+            family: "sign-in" | "accounts" | "membership" | "settings" | "consent" | "enrollment" | "assignment" | "steps" | "contact" | "watch" | "payouts" | "funding" | "exports" | "audit-receipts" | "other";
+            /**
+             * @description Our own short name of the action
+             * @example Payouts approved
+             */
+            name: string;
+            /** @example Coordinator C. Vasquez-Hale approved 3 payouts, $36.00 in all. */
+            sentence: string;
+            /**
+             * @description Who acted, in words
+             * @example Coordinator C. Vasquez-Hale
+             */
+            actorPhrase: string;
+            participantReference: string | null;
+            /** @description The study of the chain; null for lab-wide events */
+            studyTitle: string | null;
+            amount: components["schemas"]["AmountDto"] | null;
         };
         AuditPageDto: {
             items: components["schemas"]["AuditEventDto"][];
             total: number;
             page: number;
             pageSize: number;
+        };
+        FamilyOptionDto: {
+            /** @enum {string} */
+            key: "sign-in" | "accounts" | "membership" | "settings" | "consent" | "enrollment" | "assignment" | "steps" | "contact" | "watch" | "payouts" | "funding" | "exports" | "audit-receipts" | "other";
+            label: string;
+            description: string;
+        };
+        StaffOptionDto: {
+            id: string;
+            name: string;
+            email: string;
+            role: string;
+            /**
+             * @description How the trail names them
+             * @example Coordinator C. Vasquez-Hale
+             */
+            phrase: string;
+        };
+        StudyOptionDto: {
+            /** @description The study id, which is also its chain */
+            id: string;
+            title: string;
+            slug: string;
+        };
+        AuditFilterOptionsDto: {
+            families: components["schemas"]["FamilyOptionDto"][];
+            staff: components["schemas"]["StaffOptionDto"][];
+            studies: components["schemas"]["StudyOptionDto"][];
         };
         ChainBreakDto: {
             sequence: number;
@@ -1457,12 +1558,22 @@ export interface components {
             source: "latest" | "given";
             valid: boolean;
         };
+        FailingEventDto: {
+            /** Format: date-time */
+            at: string;
+            name: string;
+            sentence: string;
+        };
         AuditFindingDto: {
             /** @description null when the finding is about the receipt */
             chain: string | null;
+            /** @description The study of the chain, when it is one */
+            studyTitle: string | null;
             sequence: number | null;
             reason: string;
             message: string;
+            /** @description The first failing event in words, when it is still stored */
+            event: components["schemas"]["FailingEventDto"] | null;
         };
         AuditReportDto: {
             intact: boolean;
@@ -2510,7 +2621,11 @@ export interface components {
         };
         TimelineEventDto: {
             at: string;
+            /** @description The stored code; people read `name` and `sentence` */
             action: string;
+            /** @description Our own short name of the action */
+            name: string;
+            sentence: string;
             actorEmail: string | null;
             data: {
                 [key: string]: unknown;
@@ -3191,6 +3306,17 @@ export interface operations {
             query?: {
                 /** @description A study id, or "lab" for lab-wide events */
                 chain?: string;
+                /** @description A participant reference as shown on the roster, e.g. P-7KQ2XA */
+                participant?: string;
+                /** @description The id of the staff member who acted */
+                staff?: string;
+                /** @description From this day or moment on (ISO 8601) */
+                from?: string;
+                /** @description Up to and including this day or moment (ISO 8601) */
+                to?: string;
+                /** @description Families of action; several may be given */
+                family?: ("sign-in" | "accounts" | "membership" | "settings" | "consent" | "enrollment" | "assignment" | "steps" | "contact" | "watch" | "payouts" | "funding" | "exports" | "audit-receipts" | "other")[];
+                /** @description One stored action code (kept for links made before families) */
                 action?: string;
                 page?: number;
                 pageSize?: number;
@@ -3207,6 +3333,95 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["AuditPageDto"];
+                };
+            };
+        };
+    };
+    AuditController_filters: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["AuditFilterOptionsDto"];
+                };
+            };
+        };
+    };
+    AuditController_exportCsv: {
+        parameters: {
+            query?: {
+                /** @description A study id, or "lab" for lab-wide events */
+                chain?: string;
+                /** @description A participant reference as shown on the roster, e.g. P-7KQ2XA */
+                participant?: string;
+                /** @description The id of the staff member who acted */
+                staff?: string;
+                /** @description From this day or moment on (ISO 8601) */
+                from?: string;
+                /** @description Up to and including this day or moment (ISO 8601) */
+                to?: string;
+                /** @description Families of action; several may be given */
+                family?: ("sign-in" | "accounts" | "membership" | "settings" | "consent" | "enrollment" | "assignment" | "steps" | "contact" | "watch" | "payouts" | "funding" | "exports" | "audit-receipts" | "other")[];
+                /** @description One stored action code (kept for links made before families) */
+                action?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description One row per event, newest first, with a byte-order mark */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "text/csv": string;
+                };
+            };
+        };
+    };
+    AuditController_exportSummary: {
+        parameters: {
+            query?: {
+                /** @description A study id, or "lab" for lab-wide events */
+                chain?: string;
+                /** @description A participant reference as shown on the roster, e.g. P-7KQ2XA */
+                participant?: string;
+                /** @description The id of the staff member who acted */
+                staff?: string;
+                /** @description From this day or moment on (ISO 8601) */
+                from?: string;
+                /** @description Up to and including this day or moment (ISO 8601) */
+                to?: string;
+                /** @description Families of action; several may be given */
+                family?: ("sign-in" | "accounts" | "membership" | "settings" | "consent" | "enrollment" | "assignment" | "steps" | "contact" | "watch" | "payouts" | "funding" | "exports" | "audit-receipts" | "other")[];
+                /** @description One stored action code (kept for links made before families) */
+                action?: string;
+            };
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Plain text */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "text/plain": string;
                 };
             };
         };

@@ -11,6 +11,8 @@ export const LAB_CHAIN = 'lab';
 @Entity({ name: 'audit_event' })
 @Index('audit_event_chain_sequence_key', ['chain', 'sequence'], { unique: true })
 @Index('audit_event_at_idx', ['at'])
+@Index('audit_event_subject_idx', ['subjectType', 'subjectId'])
+@Index('audit_event_actor_idx', ['actorId', 'at'])
 export class AuditEventEntity {
   @PrimaryGeneratedColumn('uuid')
   id: string;

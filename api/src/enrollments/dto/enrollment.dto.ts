@@ -291,7 +291,9 @@ export class MarkLostDto {
 
 export class TimelineEventDto {
   @ApiProperty() at: string;
-  @ApiProperty() action: string;
+  @ApiProperty({ description: 'The stored code; people read `name` and `sentence`' }) action: string;
+  @ApiProperty({ description: 'Our own short name of the action' }) name: string;
+  @ApiProperty() sentence: string;
   @ApiProperty({ nullable: true, type: String }) actorEmail: string | null;
   @ApiProperty({ type: 'object', additionalProperties: true }) data: Record<string, unknown>;
 }

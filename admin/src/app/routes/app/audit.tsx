@@ -1,7 +1,5 @@
-import { useMemo } from 'react';
 import { EmptyState } from '@/components/ui/states';
 import { AuditTrail } from '@/features/audit/components/audit-trail';
-import { useStudies } from '@/features/studies/api/get-studies';
 import type { Role } from '@/lib/role-access';
 import { useStaffSession } from '../../session-context';
 
@@ -26,20 +24,18 @@ export function Component() {
 }
 
 function AuditPage() {
-  const studies = useStudies();
-  // Without study titles the chains are named by id; the trail itself does not depend on them.
-  const studyTitles = useMemo(() => new Map((studies.data?.items ?? []).map((study) => [study.id, study.title])), [studies.data]);
   return (
     <section aria-labelledby="audit-heading" className="flex flex-col gap-4">
       <div>
         <h1 id="audit-heading" className="text-xl font-semibold">
           Audit trail
         </h1>
-        <p className="text-sm text-ink-muted">
-          Every sign-in, consent signature and change, in an append-only log with one hash chain per study and one for the lab.
+        <p className="max-w-prose text-sm text-ink-muted">
+          Everything people and Evenhand did, in plain sentences, newest first: consent, assignment, steps, pay and every change to a study. Nothing here can be
+          edited; the check below proves it.
         </p>
       </div>
-      <AuditTrail studyTitles={studyTitles} />
+      <AuditTrail canSeal />
     </section>
   );
 }

@@ -48,6 +48,25 @@ describe('VerificationPanel', () => {
     expect(within(rows[1] as HTMLElement).getAllByRole('cell').map((cell) => cell.textContent).slice(-2)).toEqual(['A', 'B']);
   });
 
+  it('lists enrollments whose recorded condition is not their allocation, though the sequence itself matches', async () => {
+    const changed = { enrollmentId: 'e0000000-0000-4000-8000-000000000002', reason: 'differs-from-allocation', enrollment: { conditionId: 'c-b', order: null }, allocation: { conditionId: 'c-a', order: null }, expected: { conditionId: 'c-a', order: null } };
+    stubApi({
+      [verifyPath]: {
+        status: 200,
+        body: { allMatch: false, commitmentMatches: true, matched: 2, mismatched: 0, seed: 'ab'.repeat(32), commitment: 'cd'.repeat(32), checks: [check(1, 'c-a', 'c-a'), check(2, 'c-a', 'c-a')], enrollmentMismatches: [changed] },
+      },
+    });
+    renderWithProviders(<VerificationPanel studyId={studyId} conditions={conditions} />);
+
+    await userEvent.click(screen.getByRole('button', { name: 'Verify sequence' }));
+    expect(await screen.findByText(/1 enrollment records a condition that is not its allocation/)).toBeInTheDocument();
+    const list = screen.getByRole('region', { name: 'Enrollments that differ from their allocation' });
+    expect(within(list).getAllByRole('listitem')).toHaveLength(1);
+    expect(list).toHaveTextContent('Recorded condition differs from its allocation');
+    expect(list).toHaveTextContent(changed.enrollmentId);
+    expect(list).toHaveTextContent('Recorded B, allocation A, sequence A');
+  });
+
   it('shows the api’s 409 while the seed is still sealed', async () => {
     stubApi({
       [verifyPath]: {

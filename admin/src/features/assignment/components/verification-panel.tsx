@@ -8,7 +8,14 @@ import { ApiError } from '@/lib/api-error';
 import { useVerifyAssignment, type AllocationCheck } from '../api/verify-assignment';
 import { armLabel, stratumLabel, type ArmCondition } from '../utils/arm-labels';
 
-function allocationText(conditions: readonly ArmCondition[], value: Record<string, unknown>): string {
+const MISMATCH_REASONS: Record<string, string> = {
+  'differs-from-allocation': 'Recorded condition differs from its allocation',
+  'no-allocation': 'Has a condition but no allocation',
+  'allocation-of-another-study': 'Points at another study’s allocation',
+};
+
+function allocationText(conditions: readonly ArmCondition[], value: Record<string, unknown> | null): string {
+  if (!value) return 'none';
   if (Array.isArray(value.order)) return armLabel(conditions, JSON.stringify(value.order)).code;
   if (typeof value.conditionId === 'string') return armLabel(conditions, value.conditionId).code;
   return 'none';
@@ -19,6 +26,7 @@ export function VerificationPanel({ studyId, conditions }: { studyId: string; co
   const [requested, setRequested] = useState(false);
   const verification = useVerifyAssignment(studyId, requested);
   const mismatches: AllocationCheck[] = verification.data?.checks.filter((check) => !check.matches) ?? [];
+  const enrollmentMismatches = verification.data?.enrollmentMismatches ?? [];
 
   return (
     <Panel
@@ -53,7 +61,9 @@ export function VerificationPanel({ studyId, conditions }: { studyId: string; co
               <span className="font-semibold">Mismatch.</span>{' '}
               {!verification.data.commitmentMatches && 'The seed and parameters do not reproduce the published fingerprint. '}
               {verification.data.mismatched > 0 &&
-                `${verification.data.mismatched.toLocaleString()} of ${(verification.data.matched + verification.data.mismatched).toLocaleString()} recorded assignments differ from the derived sequence.`}
+                `${verification.data.mismatched.toLocaleString()} of ${(verification.data.matched + verification.data.mismatched).toLocaleString()} recorded assignments differ from the derived sequence. `}
+              {enrollmentMismatches.length > 0 &&
+                `${enrollmentMismatches.length.toLocaleString()} ${enrollmentMismatches.length === 1 ? 'enrollment records' : 'enrollments record'} a condition that is not ${enrollmentMismatches.length === 1 ? 'its' : 'their'} allocation: the dropout watch and the export read that copy.`}
             </Notice>
           )}
           <dl className="flex flex-wrap gap-x-6 gap-y-1 text-sm">
@@ -69,7 +79,33 @@ export function VerificationPanel({ studyId, conditions }: { studyId: string; co
               <dt className="text-ink-muted">Mismatched</dt>
               <dd className="font-medium tabular-nums">{verification.data.mismatched.toLocaleString()}</dd>
             </div>
+            <div className="flex gap-1.5">
+              <dt className="text-ink-muted">Enrollments off their allocation</dt>
+              <dd className="font-medium tabular-nums">{enrollmentMismatches.length.toLocaleString()}</dd>
+            </div>
           </dl>
+          {enrollmentMismatches.length > 0 && (
+            <section aria-label="Enrollments that differ from their allocation" className="flex flex-col gap-2">
+              <h3 className="text-sm font-semibold">Enrollments that differ from their allocation</h3>
+              <ul className="divide-y divide-line rounded-md border border-line">
+                {enrollmentMismatches.map((mismatch) => (
+                  <li key={mismatch.enrollmentId} className="flex flex-col gap-0.5 px-3 py-2 text-sm sm:flex-row sm:flex-wrap sm:items-baseline sm:gap-x-4">
+                    <span className="font-medium text-danger">{MISMATCH_REASONS[mismatch.reason] ?? mismatch.reason}</span>
+                    <span className="font-mono text-xs break-all text-ink-muted">{mismatch.enrollmentId}</span>
+                    <span>
+                      Recorded <span className="font-mono text-danger">{allocationText(conditions, mismatch.enrollment)}</span>, allocation{' '}
+                      <span className="font-mono">{allocationText(conditions, mismatch.allocation)}</span>
+                      {mismatch.expected && (
+                        <>
+                          , sequence <span className="font-mono">{allocationText(conditions, mismatch.expected)}</span>
+                        </>
+                      )}
+                    </span>
+                  </li>
+                ))}
+              </ul>
+            </section>
+          )}
           {mismatches.length > 0 && (
             <div className={tableRecipe.frame}>
               <table className={tableRecipe.table}>

@@ -1,32 +1,24 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import { apiClient, unwrap } from '@/lib/api-client';
 import type { components } from '@evenhand/contract';
+import { selectionQuery, type AuditSelection } from '../utils/audit-selection';
 
 export type AuditPage = components['schemas']['AuditPageDto'];
 export type AuditEvent = components['schemas']['AuditEventDto'];
 
-export interface AuditQuery {
-  /** A study id, "lab" for lab-wide events, or null for every chain. */
-  chain: string | null;
-  action: string | null;
-  page: number;
-  pageSize: number;
-}
-
 export const auditKey = ['audit'] as const;
 
-export async function getAuditEvents({ chain, action, page, pageSize }: AuditQuery): Promise<AuditPage> {
-  const query = { page, pageSize, ...(chain ? { chain } : {}), ...(action ? { action } : {}) };
-  return unwrap(apiClient.GET('/api/audit', { params: { query } }));
+export async function getAuditEvents(selection: AuditSelection, page: number, pageSize: number): Promise<AuditPage> {
+  return unwrap(apiClient.GET('/api/audit', { params: { query: { ...selectionQuery(selection), page, pageSize } } }));
 }
 
-export const auditEventsQueryOptions = (query: AuditQuery) =>
+export const auditEventsQueryOptions = (selection: AuditSelection, page: number, pageSize: number) =>
   queryOptions({
-    queryKey: [...auditKey, 'events', query],
-    queryFn: () => getAuditEvents(query),
+    queryKey: [...auditKey, 'events', selection, page, pageSize],
+    queryFn: () => getAuditEvents(selection, page, pageSize),
     placeholderData: keepPreviousData,
   });
 
-export function useAuditEvents(query: AuditQuery) {
-  return useQuery(auditEventsQueryOptions(query));
+export function useAuditEvents(selection: AuditSelection, page: number, pageSize: number) {
+  return useQuery(auditEventsQueryOptions(selection, page, pageSize));
 }

@@ -1,92 +1,90 @@
-import { Field, Label, Select } from '@headlessui/react';
+import { useMemo } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
+import { cx } from '@/components/ui/cx';
 import { Pager } from '@/components/ui/pager';
 import { Panel } from '@/components/ui/panel';
-import { fieldRecipe, inputRecipe } from '@/components/ui/recipes';
+import { buttonRecipe } from '@/components/ui/recipes';
 import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
-import { cx } from '@/components/ui/cx';
 import { ApiError } from '@/lib/api-error';
 import { parsePageParam } from '@/lib/paging';
 import { useAuditEvents } from '../api/get-audit-events';
-import { auditActionGroups, auditActionLabel, chainLabel, labChain } from '../utils/audit-labels';
-import { AuditEventsTable } from './audit-events-table';
+import { useAuditFilters } from '../api/get-audit-filters';
+import { exportHref, isFiltered, selectionFromParams, type AuditSelection } from '../utils/audit-selection';
+import { AuditEventList } from './audit-event-list';
+import { AuditFilters } from './audit-filters';
+import { AuditReceipts } from './audit-receipts';
 import { IntegrityCheck } from './integrity-check';
 
 const pageSize = 50;
-const selectClass = cx(inputRecipe, 'pr-8');
 
 export interface AuditTrailProps {
-  /** Study id → title, to name each study's chain. */
-  studyTitles: ReadonlyMap<string, string>;
+  /** Auditors and admins may seal a receipt on request (the api's rule). */
+  canSeal: boolean;
 }
 
-export function AuditTrail({ studyTitles }: AuditTrailProps) {
+export function AuditTrail({ canSeal }: AuditTrailProps) {
   const [searchParams, setSearchParams] = useSearchParams();
-  const chain = searchParams.get('chain');
-  const action = searchParams.get('action');
+  const selection = useMemo(() => selectionFromParams(searchParams), [searchParams]);
   const page = parsePageParam(searchParams.get('page'));
-  const events = useAuditEvents({ chain, action, page, pageSize });
+  const events = useAuditEvents(selection, page, pageSize);
+  const filters = useAuditFilters();
+  const studyTitles = useMemo(() => new Map((filters.data?.studies ?? []).map((study) => [study.id, study.title])), [filters.data]);
+  const familyLabels = useMemo(() => new Map((filters.data?.families ?? []).map((family) => [family.key as string, family.label])), [filters.data]);
 
-  const setParam = (name: 'chain' | 'action' | 'page', value: string | null) =>
+  const select = (next: AuditSelection) =>
     setSearchParams(
-      (params) => {
-        const next = new URLSearchParams(params);
-        if (value) next.set(name, value);
-        else next.delete(name);
-        if (name !== 'page') next.delete('page');
-        return next;
+      () => {
+        const params = new URLSearchParams();
+        if (next.chain) params.set('chain', next.chain);
+        if (next.participant) params.set('participant', next.participant);
+        if (next.staff) params.set('staff', next.staff);
+        if (next.from) params.set('from', next.from);
+        if (next.to) params.set('to', next.to);
+        for (const family of next.families) params.append('family', family);
+        return params;
       },
-      { replace: name !== 'page' },
+      { replace: true },
     );
-
-  const knownAction = action === null || auditActionGroups.some((group) => group.actions.some((entry) => entry.action === action));
+  const goToPage = (next: number) =>
+    setSearchParams((params) => {
+      const copy = new URLSearchParams(params);
+      if (next > 1) copy.set('page', String(next));
+      else copy.delete('page');
+      return copy;
+    });
+  const filtered = isFiltered(selection);
 
   return (
     <div className="flex flex-col gap-5">
-      <Panel id="integrity" title="Integrity check" description="Proves that no event was changed, removed or slipped in after it was written.">
-        <IntegrityCheck studyTitles={studyTitles} onShowChain={(next) => setParam('chain', next)} />
-      </Panel>
+      <div className="grid gap-4 lg:grid-cols-2">
+        <Panel id="integrity" title="Is the trail as it was written?">
+          <IntegrityCheck studyTitles={studyTitles} onShowChain={(chain) => select({ ...selection, chain })} />
+        </Panel>
+        <Panel id="receipts" title="Audit receipts">
+          <AuditReceipts canSeal={canSeal} />
+        </Panel>
+      </div>
 
       <section aria-labelledby="events-heading" className="flex flex-col gap-3">
-        <h2 id="events-heading" className="text-lg font-semibold">
-          Events
-        </h2>
-        <div className="flex flex-wrap items-end gap-3">
-          <Field className={cx(fieldRecipe.field, 'w-60')}>
-            <Label className={fieldRecipe.label}>Chain</Label>
-            <Select value={chain ?? ''} onChange={(event) => setParam('chain', event.target.value || null)} className={selectClass}>
-              <option value="">All chains</option>
-              <option value={labChain}>Lab-wide</option>
-              {[...studyTitles].map(([id, title]) => (
-                <option key={id} value={id}>
-                  {title}
-                </option>
-              ))}
-              {chain && chain !== labChain && !studyTitles.has(chain) && <option value={chain}>{chainLabel(chain, studyTitles)}</option>}
-            </Select>
-          </Field>
-          <Field className={cx(fieldRecipe.field, 'w-72')}>
-            <Label className={fieldRecipe.label}>Action</Label>
-            <Select value={action ?? ''} onChange={(event) => setParam('action', event.target.value || null)} className={selectClass}>
-              <option value="">All actions</option>
-              {auditActionGroups.map((group) => (
-                <optgroup key={group.group} label={group.group}>
-                  {group.actions.map((entry) => (
-                    <option key={entry.action} value={entry.action}>
-                      {entry.label}
-                    </option>
-                  ))}
-                </optgroup>
-              ))}
-              {!knownAction && action && <option value={action}>{auditActionLabel(action)}</option>}
-            </Select>
-          </Field>
-          {(chain || action) && (
-            <Button onClick={() => setSearchParams({}, { replace: true })}>Clear filters</Button>
-          )}
-          {events.isFetching && !events.isPending && <span className="pb-2 text-xs text-ink-faint">Updating…</span>}
+        <div className="flex flex-wrap items-end justify-between gap-2">
+          <h2 id="events-heading" className="text-lg font-semibold">
+            What happened
+          </h2>
+          <div className="flex flex-wrap items-center gap-2">
+            {filtered && <Button onClick={() => setSearchParams({}, { replace: true })}>Clear filters</Button>}
+            <a href={exportHref('/api/audit/export.csv', selection)} download className={cx(buttonRecipe.base, buttonRecipe.sizes.regular, buttonRecipe.variants.primary)}>
+              Export as CSV
+            </a>
+            <a href={exportHref('/api/audit/export-summary.txt', selection)} download className={cx(buttonRecipe.base, buttonRecipe.sizes.regular, buttonRecipe.variants.secondary)}>
+              Verification summary
+            </a>
+          </div>
         </div>
+        <AuditFilters selection={selection} options={filters.data} onChange={select} />
+        <p className="text-xs text-ink-muted">
+          The export holds every event of this selection (not only this page); the summary names the file’s SHA-256 and the receipt it was checked against.
+        </p>
 
         {events.isPending ? (
           <LoadingState label="Loading the audit trail…" />
@@ -97,18 +95,18 @@ export function AuditTrail({ studyTitles }: AuditTrailProps) {
           />
         ) : events.data.items.length === 0 ? (
           page > 1 ? (
-            <EmptyState title={`Page ${page} is empty`} action={<Button onClick={() => setParam('page', null)}>Go to the first page</Button>}>
+            <EmptyState title={`Page ${page} is empty`} action={<Button onClick={() => goToPage(1)}>Go to the first page</Button>}>
               The list is shorter than this page.
             </EmptyState>
           ) : (
-            <EmptyState title={chain || action ? 'No events match' : 'No events recorded yet'}>
-              {chain || action ? 'No event in this chain has this action. Choose another chain or action.' : 'Events appear here from the first sign-in.'}
+            <EmptyState title={filtered ? 'Nothing matches' : 'Nothing recorded yet'}>
+              {filtered ? 'No event fits every filter. Widen the dates, tick more kinds of action, or check the participant reference.' : 'Events appear here from the first sign-in.'}
             </EmptyState>
           )
         ) : (
           <>
-            <AuditEventsTable events={events.data.items} studyTitles={studyTitles} busy={events.isFetching} />
-            <Pager label="Audit trail pages" noun={['event', 'events']} pageSize={pageSize} total={events.data.total} page={page} onPage={(next) => setParam('page', next > 1 ? String(next) : null)} />
+            <AuditEventList events={events.data.items} familyLabels={familyLabels} busy={events.isFetching} />
+            <Pager label="Audit trail pages" noun={['event', 'events']} pageSize={pageSize} total={events.data.total} page={page} onPage={goToPage} />
           </>
         )}
       </section>

@@ -47,9 +47,16 @@ const record = {
   steps: [],
   // Deliberately out of order: the record lists events oldest first whatever order they arrive in.
   timeline: [
-    { at: '2026-12-01T19:45:19.029Z', action: 'consent.signed', actorEmail: 'p048@evenhand.test', data: { version: 1 } },
-    { at: '2026-12-01T19:45:18.996Z', action: 'enrollment.joined', actorEmail: 'p048@evenhand.test', data: { reference: 'P-3X66FX' } },
-    { at: '2026-12-02T08:00:00.000Z', action: 'enrollment.withdrew', actorEmail: 'coordinator@evenhand.test', data: { reason: 'Moved abroad', by: 'staff' } },
+    { at: '2026-12-01T19:45:19.029Z', action: 'consent.signed', name: 'Consent signed', sentence: 'Participant P-3X66FX signed consent version 1.', actorEmail: 'p048@evenhand.test', data: { version: 1 } },
+    { at: '2026-12-01T19:45:18.996Z', action: 'enrollment.joined', name: 'Joined', sentence: 'Participant P-3X66FX joined the study.', actorEmail: 'p048@evenhand.test', data: { reference: 'P-3X66FX' } },
+    {
+      at: '2026-12-02T08:00:00.000Z',
+      action: 'enrollment.withdrew',
+      name: 'Withdrew',
+      sentence: 'Coordinator C. Vasquez-Hale withdrew participant P-3X66FX from the study, saying “Moved abroad”.',
+      actorEmail: 'coordinator@evenhand.test',
+      data: { reason: 'Moved abroad', by: 'staff' },
+    },
   ],
 };
 
@@ -77,9 +84,9 @@ describe('ParticipantRecord', { timeout: 15_000 }, () => {
 
     const steps = within(screen.getByRole('region', { name: 'Timeline' })).getAllByRole('listitem');
     expect(steps.map((step) => step.querySelector('p')?.textContent)).toEqual([
-      'Joined the study enrollment.joined',
-      'Signed the consent form consent.signed',
-      'Withdrew enrollment.withdrew',
+      'Participant P-3X66FX joined the study.',
+      'Participant P-3X66FX signed consent version 1.',
+      'Coordinator C. Vasquez-Hale withdrew participant P-3X66FX from the study, saying “Moved abroad”.',
     ]);
   });
 

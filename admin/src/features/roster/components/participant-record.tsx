@@ -7,7 +7,6 @@ import { ErrorState, LoadingState, Notice } from '@/components/ui/states';
 import { ApiError } from '@/lib/api-error';
 import { useDownloadSignedCopy } from '../api/download-signed-copy';
 import { useParticipantRecord, type ParticipantRecord as Record, type SignatureSummary, type TimelineEvent } from '../api/get-participant-record';
-import { readableAction } from '../utils/readable-action';
 import { ContactLog } from './contact-log';
 import { ParticipationChangeDialog, type ParticipationChangeTarget } from './participation-change-dialog';
 import { RecordSteps } from './record-steps';
@@ -228,13 +227,9 @@ function TimelineItem({ event }: { event: TimelineEvent }) {
   return (
     <li className="relative">
       <span aria-hidden="true" className="absolute top-1.5 -left-[1.3rem] size-2 rounded-full bg-spruce" />
-      <p className="text-sm">
-        <span className="font-medium">{readableAction(event.action)}</span>{' '}
-        <code className="font-mono text-2xs text-ink-faint">{event.action}</code>
-      </p>
+      <p className="text-sm">{event.sentence}</p>
       <p className="text-xs text-ink-muted">
-        <time dateTime={event.at}>{moment(event.at)}</time>
-        {event.actorEmail && ` · by ${event.actorEmail}`}
+        {event.name} · <time dateTime={event.at}>{moment(event.at)}</time>
       </p>
       {details.length > 0 && (
         <dl className="mt-1 grid grid-cols-[max-content_1fr] gap-x-3 text-xs text-ink-muted">
