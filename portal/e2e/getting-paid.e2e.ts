@@ -88,12 +88,13 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     // 5. "Set up how you get paid" leaves for the payment service's hosted page.
     await page.getByRole('button', { name: 'Set up how you get paid' }).click();
     await page.waitForURL((url) => url.origin === e2eEnv.paymentsUrl);
-    await page.getByRole('heading', { name: 'Set up payouts' }).waitFor();
+    await page.getByRole('heading', { name: 'Where your payments go' }).waitFor();
+    await page.getByText('Local stand-in for the payment provider.').waitFor();
     await shoot(page, 'provider-onboarding-page');
-    await page.getByLabel('Full legal name').fill('Sam Rivera-Lund');
-    await page.getByLabel(/I confirm these details are correct/).check();
+    await page.getByLabel('Name on your bank account').fill('Sam Rivera-Lund');
+    await page.getByLabel(/These details are right/).check();
     await shoot(page, 'provider-onboarding-filled');
-    await page.getByRole('button', { name: 'Finish setup' }).click();
+    await page.getByRole('button', { name: 'Save and go back' }).click();
 
     // 6. Back on the portal: it checks with the service and says they are set up.
     await page.waitForURL((url) => url.pathname === '/payouts' && url.searchParams.get('onboarding') === 'done');
