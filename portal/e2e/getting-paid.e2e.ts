@@ -7,6 +7,9 @@ import { answerScreeningQuestion, type ScreeningQuestion } from './support/scree
 import { screenshotTaker } from './support/screenshots';
 import { confirmCardPayment, eventually, StaffApi } from './support/staff-api';
 
+/** What a payment provider's own identifiers look like (transfers, accounts, payment intents, events). */
+const PROVIDER_ID = /\b(?:tr|acct|pi|evt)_[A-Za-z0-9]/;
+
 /**
  * The recruiting demo study whose one step is done in the lab's task (the demo task stand-in), which shows each
  * participant their own completion code at its end; seeded by the api's demo scenario.
@@ -178,6 +181,9 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     const paidRow = page.getByRole('region', { name: 'Your pay' }).getByRole('listitem').filter({ hasText: firstStep.title });
     await paidRow.getByText('Paid', { exact: true }).waitFor();
     await paidRow.getByText(receiptNumber).waitFor();
+    // Our own receipt number (study slug and a count), never the provider's ids, on the page or in the e-mail.
+    expect(receiptNumber).toMatch(new RegExp(`^${studySlug}-\\d{4,}$`));
+    expect(await page.locator('body').innerText()).not.toMatch(PROVIDER_ID);
     expect(await pay.getByText('Paid to you', { exact: true }).locator('..').textContent()).toContain('$25.00');
     const thisYear = page.getByRole('region', { name: 'This year' });
     expect(await thisYear.getByText(/^Paid to you in \d{4}$/).locator('..').textContent()).toContain('$25.00');
@@ -188,6 +194,12 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     const receipt = await waitForMessageTo(email, { subject: /^Receipt/ });
     expect(receipt.subject).toContain('$25.00');
     expect(receipt.text).toContain(receiptNumber);
+    expect(`${receipt.subject}\n${receipt.text}`).not.toMatch(PROVIDER_ID);
+    for (const path of [`/s/${studySlug}`, '/payouts', '/studies']) {
+      await page.goto(`${e2eEnv.portalUrl}${path}`);
+      await page.locator('main').first().waitFor();
+      expect(await page.locator('body').innerText(), path).not.toMatch(PROVIDER_ID);
+    }
   });
 });
 
