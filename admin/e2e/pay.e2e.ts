@@ -121,10 +121,10 @@ describe('paying participants', () => {
     // The paid group: dates, search, order, and one participant's payment history with our receipt numbers.
     await group(page, 'Paid').click();
     const paidTable = page.getByRole('table', { name: /^Paid: payouts, page 1/ });
-    await paidTable.waitFor();
+    await expect.poll(async () => { const texts = await paidTable.locator('tbody tr').allTextContents(); return texts.length > 0 && texts.every((row) => row.includes('Paid')); }, { timeout: 15_000 }).toBe(true);
     const firstReference = ((await paidTable.locator('tbody tr').first().getByRole('button', { name: /^Payment history of / }).textContent()) ?? '').trim();
     await page.getByRole('searchbox', { name: 'Search' }).fill(firstReference);
-    await expect.poll(async () => (await paidTable.locator('tbody tr').allTextContents()).every((row) => row.includes(firstReference))).toBe(true);
+    await expect.poll(async () => { const texts = await paidTable.locator('tbody tr').allTextContents(); return texts.length > 0 && texts.every((row) => row.includes(firstReference)); }, { timeout: 15_000 }).toBe(true);
     await page.getByRole('combobox', { name: 'Order' }).selectOption({ label: 'Largest amount first' });
     await screenshotAtBothWidths(page, journey, 'paid-searched');
     await paidTable.getByRole('button', { name: `Payment history of ${firstReference}` }).first().click();

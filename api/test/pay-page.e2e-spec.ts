@@ -136,6 +136,9 @@ describe('the Pay page', () => {
     const found = await allRows(studyId, { search: adaReference.toLowerCase() });
     expect(found.length).toBe(rows.filter((r) => r.enrollmentId === ada.enrollmentId).length);
     expect(found.every((r) => r.enrollmentId === ada.enrollmentId)).toBe(true);
+    // As the Pay page asks within a group: the paid group, searched by the reference shown on a row, largest first.
+    const paidOfAda = await allRows(studyId, { stage: 'paid', search: adaReference, sort: 'amount-desc' });
+    expect(paidOfAda.map((r) => r.id)).toEqual([paid.id]);
     const byAmount = (await allRows(studyId, { sort: 'amount-desc' })).map((r) => r.amountMinor);
     expect(byAmount).toEqual([...byAmount].sort((a, b) => b - a));
     const oldest = (await allRows(studyId, { sort: 'oldest' })).map((r) => r.createdAt);

@@ -51,7 +51,8 @@ export function PaymentHistoryDialog({ studyId, participant, onClose }: PaymentH
               </div>
             ))}
           </dl>
-          <div className={tableRecipe.frame}>
+          {/* Focusable, so the table can be scrolled sideways by keyboard on a narrow screen. */}
+          <div className={tableRecipe.frame} tabIndex={0} role="region" aria-label="Payouts of this participant">
             <table className={tableRecipe.table}>
               <caption className="sr-only">Every payout of {participant?.reference}, oldest first</caption>
               <thead>

@@ -1,5 +1,5 @@
 import { Checkbox } from '@headlessui/react';
-import { useEffect, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Badge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
 import { cx } from '@/components/ui/cx';
@@ -78,6 +78,12 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
   const approve = useApprovePayouts(studyId, setSending);
   const retry = useRetryPayout(studyId);
 
+  // While another group's rows load, the previous group's rows are kept as placeholder data; never show them under
+  // this group's heading.
+  const settledStage = useRef(stage);
+  if (payouts.data && !payouts.isPlaceholderData) settledStage.current = stage;
+  const loadingGroup = settledStage.current !== stage;
+
   const counts = payouts.data?.countsByStatus ?? {};
   const stages: StageTotals | undefined = payouts.data?.stages;
   const progress = batch ? batchProgress(batch.size, batch.before, counts) : null;
@@ -98,7 +104,7 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
   const currency = payouts.data?.items[0]?.currency ?? 'USD';
   const money = (minor: number) => formatMinor(minor, currency, 'en-US');
   const waitingCount = stages?.['to-approve'].count ?? 0;
-  const rows = payouts.data?.items ?? [];
+  const rows = loadingGroup ? [] : (payouts.data?.items ?? []);
   const selectable = rows.filter((payout) => payout.stage === 'to-approve');
   const allOnPageSelected = selectable.length > 0 && selectable.every((payout) => selected.has(payout.id));
   const busy = approve.isPending || batch !== null;
@@ -274,10 +280,12 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
                         </Notice>
                       )}
 
-                      {rows.length === 0 ? (
+                      {loadingGroup ? (
+                        <LoadingState label={`Loading ${title.toLowerCase()}…`} className="py-4" />
+                      ) : rows.length === 0 ? (
                         <EmptyState title={filtered ? 'No payouts match' : 'Nothing here'}>{filtered ? 'Clear the search or choose another condition.' : 'No payout is at this point right now.'}</EmptyState>
                       ) : (
-                        <div className={tableRecipe.frame}>
+                        <div className={tableRecipe.frame} tabIndex={0} role="region" aria-label={`${title}: payouts`}>
                           <table className={tableRecipe.table}>
                             <caption className="sr-only">
                               {title}: payouts, page {page}
