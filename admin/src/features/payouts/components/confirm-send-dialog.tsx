@@ -29,7 +29,7 @@ export function ConfirmSendDialog({ pending, currency, onCancel, onConfirm }: Co
       <div className="flex flex-col gap-2 text-sm text-ink">
         {retry ? (
           <p>
-            The earlier try failed: {pending.payout.failureReason ?? 'no reason was given'}. It is sent under the same key, so the participant can never be paid twice.
+            The earlier try failed: {(pending.payout.failureReason ?? 'no reason was given').replace(/\.$/, '')}. It is sent under the same key, so the participant can never be paid twice.
           </p>
         ) : (
           <p>
