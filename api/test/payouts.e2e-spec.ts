@@ -128,9 +128,11 @@ describe('paying', () => {
     }, 'payout paid');
     expect(paid.providerTransferId).toMatch(/^tr_/);
     const receipt = await waitForMail(email, 20_000, /receipt/i);
-    expect(receipt.text).toContain(paid.providerTransferId);
+    expect(paid.receiptNumber).toMatch(/-0001$/);
+    expect(receipt.text).toContain(paid.receiptNumber);
+    expect(receipt.text).not.toContain(paid.providerTransferId);
     const mine = await expectStatus(browser.get('/api/me/payouts'), 200);
-    expect(mine.items[0]).toMatchObject({ status: 'paid', amountMinor: 1000, receipt: paid.providerTransferId });
+    expect(mine.items[0]).toMatchObject({ status: 'paid', amountMinor: 1000, receipt: paid.receiptNumber });
     const budget = await expectStatus(coordinator.get(`/api/studies/${studyId}/budget`), 200);
     expect(budget).toMatchObject({ fundedMinor: 50_000, paidMinor: 1000, committedMinor: 0, remainingMinor: 49_000 });
     const reconciliation = await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts/reconciliation`), 200);

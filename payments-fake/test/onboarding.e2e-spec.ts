@@ -84,7 +84,8 @@ describe('hosted onboarding', () => {
     expect(page.status).toBe(200);
     expect(page.headers.get('content-type')).toMatch(/text\/html/);
     const html = await page.text();
-    expect(html).toContain('Set up payouts');
+    expect(html).toContain('Where your payments go');
+    expect(html).toContain('Local stand-in for the payment provider');
     expect(html).toContain('p020@evenhand.test');
     expect(html).toMatch(/<label for="full_name">/);
 
@@ -150,7 +151,7 @@ describe('hosted onboarding', () => {
     expect(refused.status).toBe(422);
     const page = await refused.text();
     expect(page).toContain('role="alert"');
-    expect(page).toContain('Full legal name: enter your name.');
+    expect(page).toContain('Name on your bank account: write your name.');
     expect(page).toContain('Confirmation: tick the box');
     expect(page).toContain('aria-invalid="true"');
     expect((await stripe.accounts.retrieve(account.id)).details_submitted).toBe(false);

@@ -7,6 +7,9 @@ import { answerScreeningQuestion, type ScreeningQuestion } from './support/scree
 import { screenshotTaker } from './support/screenshots';
 import { confirmCardPayment, eventually, StaffApi } from './support/staff-api';
 
+/** What a payment provider's own identifiers look like (transfers, accounts, payment intents, events). */
+const PROVIDER_ID = /\b(?:tr|acct|pi|evt)_[A-Za-z0-9]/;
+
 /**
  * The recruiting demo study whose one step is done in the lab's task (the demo task stand-in), which shows each
  * participant their own completion code at its end; seeded by the api's demo scenario.
@@ -88,12 +91,13 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     // 5. "Set up how you get paid" leaves for the payment service's hosted page.
     await page.getByRole('button', { name: 'Set up how you get paid' }).click();
     await page.waitForURL((url) => url.origin === e2eEnv.paymentsUrl);
-    await page.getByRole('heading', { name: 'Set up payouts' }).waitFor();
+    await page.getByRole('heading', { name: 'Where your payments go' }).waitFor();
+    await page.getByText('Local stand-in for the payment provider.').waitFor();
     await shoot(page, 'provider-onboarding-page');
-    await page.getByLabel('Full legal name').fill('Sam Rivera-Lund');
-    await page.getByLabel(/I confirm these details are correct/).check();
+    await page.getByLabel('Name on your bank account').fill('Sam Rivera-Lund');
+    await page.getByLabel(/These details are right/).check();
     await shoot(page, 'provider-onboarding-filled');
-    await page.getByRole('button', { name: 'Finish setup' }).click();
+    await page.getByRole('button', { name: 'Save and go back' }).click();
 
     // 6. Back on the portal: it checks with the service and says they are set up.
     await page.waitForURL((url) => url.pathname === '/payouts' && url.searchParams.get('onboarding') === 'done');
@@ -177,6 +181,9 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     const paidRow = page.getByRole('region', { name: 'Your pay' }).getByRole('listitem').filter({ hasText: firstStep.title });
     await paidRow.getByText('Paid', { exact: true }).waitFor();
     await paidRow.getByText(receiptNumber).waitFor();
+    // Our own receipt number (study slug and a count), never the provider's ids, on the page or in the e-mail.
+    expect(receiptNumber).toMatch(new RegExp(`^${studySlug}-\\d{4,}$`));
+    expect(await page.locator('body').innerText()).not.toMatch(PROVIDER_ID);
     expect(await pay.getByText('Paid to you', { exact: true }).locator('..').textContent()).toContain('$25.00');
     const thisYear = page.getByRole('region', { name: 'This year' });
     expect(await thisYear.getByText(/^Paid to you in \d{4}$/).locator('..').textContent()).toContain('$25.00');
@@ -187,6 +194,12 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     const receipt = await waitForMessageTo(email, { subject: /^Receipt/ });
     expect(receipt.subject).toContain('$25.00');
     expect(receipt.text).toContain(receiptNumber);
+    expect(`${receipt.subject}\n${receipt.text}`).not.toMatch(PROVIDER_ID);
+    for (const path of [`/s/${studySlug}`, '/payouts', '/studies']) {
+      await page.goto(`${e2eEnv.portalUrl}${path}`);
+      await page.locator('main').first().waitFor();
+      expect(await page.locator('body').innerText(), path).not.toMatch(PROVIDER_ID);
+    }
   });
 });
 

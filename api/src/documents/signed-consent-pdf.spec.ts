@@ -99,22 +99,24 @@ describe('buildSignedConsentPdf (45 CFR 46.117(a) signed copy; 21 CFR 11.50 sign
     expect(other.unsupportedCharacters).toEqual(['王', '小', '明']);
   });
 
-  it('ends with a certificate page: version, approval reference, IP, user agent, enrollment reference, fingerprints', () => {
-    const certificate = pages[pages.length - 1].text;
-    const flat = certificate.replace(/\n/g, ' ');
-    expect(certificate).toMatch(/^Signature certificate/);
-    expect(flat).toContain('Consent form version 2 (id 6f1c2b8e-0d3a-4c5e-9b7a-2e4d6f8a0c1b)');
-    expect(flat).toContain('Ethics approval reference HLREB-2025-031');
-    expect(flat).toContain('Ethics approval date 2025-02-20');
-    expect(flat).toContain('Signed at (UTC, ISO 8601) 2025-03-14T09:26:53.000Z');
-    expect(flat).toContain('2025-03-14 10:26:53 Europe/Berlin (UTC+01:00)');
-    expect(flat).toContain('Enrollment reference ENR-7Q4K-2M9D');
-    expect(flat).toContain('IP address 203.0.113.24');
+  it('ends with a signing record written as the form\'s last section: every fact, in sentences of our own', () => {
+    const all = pages.map((p) => p.text).join('\n');
+    const record = all.slice(all.indexOf('Record of this signing'));
+    const flat = record.replace(/\n/g, ' ');
+    expect(all).not.toContain('Signature certificate');
+    expect(all.indexOf('Record of this signing')).toBeGreaterThan(all.indexOf('MEANING OF THIS SIGNATURE'));
+    expect(flat).toContain('consent form version 2 (id 6f1c2b8e-0d3a-4c5e-9b7a-2e4d6f8a0c1b)');
+    expect(flat).toContain('under reference HLREB-2025-031 on 2025-02-20');
+    expect(flat).toContain('Maëlle Ó Súilleabháin-Øvergård signed as enrollment ENR-7Q4K-2M9D');
+    expect(flat).toContain('“I have read this form and agree to take part');
+    expect(flat).toContain('2025-03-14 10:26:53 in Europe/Berlin (UTC+01:00), which is 2025-03-14T09:26:53.000Z in UTC');
+    expect(flat).toContain('network address 203.0.113.24');
     expect(flat.replace(/ /g, '')).toContain(input().signer.userAgent.replace(/ /g, ''));
-    expect(flat).toContain(renderedTextFingerprint(consentText));
+    expect(flat).toContain(`Form text: ${renderedTextFingerprint(consentText)}`);
     const markPng = Buffer.from(input().signer.markPngDataUrl!.split(',')[1], 'base64');
     expect(pdf.markSha256).toBe(createHash('sha256').update(markPng).digest('hex'));
-    expect(flat).toContain(pdf.markSha256);
+    expect(flat).toContain(`Drawn mark: ${pdf.markSha256}`);
+    expect(flat).toContain('This copy was issued at 2025-03-14T09:26:53.000Z');
     expect(pages.length).toBe(pdf.pageCount);
   });
 
@@ -136,11 +138,11 @@ describe('buildSignedConsentPdf (45 CFR 46.117(a) signed copy; 21 CFR 11.50 sign
     expect(info.Title).toBe('Signed consent form: Wayfinding cues (version 2)');
   });
 
-  it('works without a drawn mark and says so on the certificate', async () => {
+  it('works without a drawn mark and says so in the signing record', async () => {
     const unmarked = await buildSignedConsentPdf(input({ signer: { ...input().signer, markPngDataUrl: null } }));
     const unmarkedPages = (await extractPdfText(unmarked.bytes)).pages;
     expect(unmarkedPages.map((p) => p.text).join('\n')).not.toContain('DRAWN MARK');
-    expect(unmarkedPages[unmarkedPages.length - 1].text).toContain('no mark drawn');
+    expect(unmarkedPages[unmarkedPages.length - 1].text.replace(/\n/g, ' ')).toContain('Drawn mark: none was drawn');
     expect(unmarked.markSha256).toBeNull();
   });
 

@@ -1,7 +1,7 @@
 /**
  * The signed copy of a consent form (45 CFR 46.117(a): the signer receives a copy): the full text as signed, a
  * signature block with the printed name, the date and time with the time zone, and the meaning of the signature
- * (21 CFR 11.50), the text fingerprint, the drawn mark if any, and a final certificate page with the record an
+ * (21 CFR 11.50), the text fingerprint, the drawn mark if any, and, as the form's last section, a record of the signing with every fact an
  * auditor needs.
  *
  * The output is deterministic: the same input gives the same bytes, so its SHA-256 can be stored and re-checked.
@@ -221,7 +221,7 @@ export async function buildSignedConsentPdf(input: SignedConsentPdfInput, seal?:
   }
 
   drawSignatureBlock(writer, input, time.text, markImage);
-  drawCertificate(writer, input, { time, markSha256, issuedAt });
+  drawSigningRecord(writer, input, { time, markSha256, issuedAt });
   writer.footers(`${input.studyTitle} · consent form version ${input.formVersion} · signed by ${signer.typedName}`);
 
   let bytes: Uint8Array;
@@ -298,65 +298,60 @@ function drawSignatureBlock(writer: PdfWriter, input: SignedConsentPdfInput, sig
   writer.page.drawRectangle({ x: MARGIN.left, y: writer.y, width: writer.width, height: top - writer.y, borderColor: RULE, borderWidth: 0.8 });
 }
 
-function drawCertificate(
+/**
+ * The form's last section: a record of this signing, in sentences, continuing the form rather than on a page of
+ * its own. It carries every fact an auditor needs: the form and its approval, who signed and what the signature
+ * means, the time with its zone, where it came from (network address, browser) and the fingerprints.
+ */
+function drawSigningRecord(
   writer: PdfWriter,
   input: SignedConsentPdfInput,
   facts: { time: ReturnType<typeof describeSigningTime>; markSha256: string | null; issuedAt: Date },
 ): void {
-  writer.newPage();
-  writer.text(run('Signature certificate'), { size: 17, lineHeight: 22, bold: true });
-  writer.gap(4);
-  writer.text(run('This page records how and when the form before it was signed. It is part of the signed copy.'), { ...BODY, color: MUTED });
-  writer.gap(12);
-  const rows: [string, string][] = [
-    ['Study', input.studyTitle],
-    ['Lab', input.labName],
-    ['Consent form version', `${input.formVersion} (id ${input.consentVersionId})`],
-    ['Ethics approval reference', input.ethicsApprovalReference],
-    ['Ethics approval date', input.ethicsApprovedOn],
-    ['Printed name of the signer', input.signer.typedName],
-    ['Signed at (UTC, ISO 8601)', facts.time.iso],
-    ['Signed at (signer’s time zone)', `${facts.time.local} ${facts.time.timeZone} (${facts.time.offset})`],
-    ['Meaning of the signature', input.signer.meaning],
-    ['Enrollment reference', input.enrollmentReference],
-    ...(input.signatureId ? ([['Signature record', input.signatureId]] as [string, string][]) : []),
-    ['IP address', input.signer.ipAddress],
-    ['User agent', input.signer.userAgent],
-    ['Form text fingerprint (SHA-256)', input.textFingerprint],
-    ['Drawn mark fingerprint (SHA-256)', facts.markSha256 ?? 'no mark drawn'],
-    ['Document issued at (UTC)', facts.issuedAt.toISOString()],
+  const { signer } = input;
+  const heading = HEADINGS[2];
+  writer.gap(18);
+  writer.ensure(heading.lineHeight + 3 * BODY.lineHeight);
+  writer.rule();
+  writer.gap(6);
+  writer.text(run('Record of this signing'), heading);
+  writer.gap(heading.after);
+  writer.text(run(`Written by ${input.labName} at the moment of signing, and part of this signed copy like the form above.`), { ...BODY, color: MUTED });
+  writer.gap(8);
+  const signatureRecord = input.signatureId ? ` (signature record ${input.signatureId})` : '';
+  const items: Array<[string, string]> = [
+    ['The form. ', `${input.studyTitle}, run by ${input.labName}: consent form version ${input.formVersion} (id ${input.consentVersionId}), approved by the ethics board under reference ${input.ethicsApprovalReference} on ${input.ethicsApprovedOn}.`],
+    ['Who signed, and what it means. ', `${signer.typedName} signed as enrollment ${input.enrollmentReference}${signatureRecord}, with this meaning: “${signer.meaning}”`],
+    ['When. ', `${facts.time.local} in ${facts.time.timeZone} (${facts.time.offset}), which is ${facts.time.iso} in UTC.`],
+    ['From where. ', `From network address ${signer.ipAddress}, in a browser that described itself as: ${signer.userAgent}`],
   ];
-  const labelWidth = 170;
-  const labelStyle: TextStyle = { ...LABEL, size: 9, lineHeight: 14 };
-  for (const [label, value] of rows) {
-    if (/fingerprint/.test(label)) {
-      // A fingerprint is one unbroken string: give it the full width under its label.
-      writer.ensure(labelStyle.lineHeight + FINGERPRINT.lineHeight + 8);
-      writer.text(run(label), labelStyle);
-      writer.text(run(value), FINGERPRINT);
-    } else {
-      const valueStyle: TextStyle = { size: 10, lineHeight: 14 };
-      writer.ensure(Math.max(writer.height(run(value), valueStyle, writer.width - labelWidth), labelStyle.lineHeight) + 8);
-      const rowTop = writer.y;
-      writer.y = rowTop - (valueStyle.size - labelStyle.size);
-      writer.text(run(label), labelStyle, MARGIN.left, labelWidth - 12);
-      const labelBottom = writer.y;
-      writer.y = rowTop;
-      writer.text(run(value), valueStyle, MARGIN.left + labelWidth, writer.width - labelWidth);
-      writer.y = Math.min(writer.y, labelBottom);
-    }
-    writer.gap(4);
-    writer.page.drawLine({ start: { x: MARGIN.left, y: writer.y }, end: { x: PAGE_SIZE[0] - MARGIN.right, y: writer.y }, thickness: 0.4, color: RULE });
-    writer.gap(6);
-  }
-  writer.gap(10);
-  writer.text(run('How to check this record', true), { size: 11, lineHeight: 15 });
+  items.forEach(([lead, text], index) => {
+    const runs = [{ text: lead, bold: true }, ...run(text)];
+    // Each item stays on one page, so it reads as one statement.
+    writer.ensure(writer.height(runs, BODY, writer.width - LIST_INDENT));
+    writer.text(runs, BODY, MARGIN.left + LIST_INDENT, writer.width - LIST_INDENT, `${index + 1}.`);
+    writer.gap(5);
+  });
+  // A fingerprint is one unbroken string: each gets its own line under the item.
+  writer.ensure(BODY.lineHeight + 2 * FINGERPRINT.lineHeight + 10);
+  writer.text([{ text: 'Fingerprints (SHA-256). ', bold: true }, ...run('The consent text exactly as signed, and the drawn mark.')], BODY, MARGIN.left + LIST_INDENT, writer.width - LIST_INDENT, `${items.length + 1}.`);
   writer.gap(2);
-  writer.text(
-    run(
-      'The form text fingerprint is the SHA-256 of the consent text exactly as signed (UTF-8, line feeds, as stored for this form version). ' +
-        `Recomputing it from the stored text must give the value above. ${input.labName} also keeps the SHA-256 of this PDF file with the signature record, and the file carries a digital signature made with the lab's certificate, so a PDF reader shows any change made to it after signing.`,
+  writer.text(run(`Form text: ${input.textFingerprint}`), FINGERPRINT, MARGIN.left + LIST_INDENT, writer.width - LIST_INDENT);
+  writer.text(run(`Drawn mark: ${facts.markSha256 ?? 'none was drawn'}`), FINGERPRINT, MARGIN.left + LIST_INDENT, writer.width - LIST_INDENT);
+  writer.gap(5);
+  const checking = [
+    { text: 'Checking this copy. ', bold: true },
+    ...run(
+      `This copy was issued at ${facts.issuedAt.toISOString()}. The form text fingerprint is the SHA-256 of the consent text as stored for this form version (UTF-8, line feeds); ` +
+        `recomputing it must give the value above. ${input.labName} keeps the SHA-256 of this PDF file with the signature, and the file carries a digital signature made with the lab's certificate, so a PDF reader shows any change made after signing.`,
     ),
-    { ...BODY, color: INK },
+  ];
+  writer.ensure(writer.height(checking, BODY, writer.width - LIST_INDENT));
+  writer.text(
+    checking,
+    BODY,
+    MARGIN.left + LIST_INDENT,
+    writer.width - LIST_INDENT,
+    `${items.length + 2}.`,
   );
 }

@@ -1,7 +1,7 @@
-import { Body, Controller, Get, Headers, HttpCode, Param, Post, Query, Req } from '@nestjs/common';
-import { ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
+import { Body, Controller, Get, Headers, HttpCode, Param, Post, Query, Req, Res } from '@nestjs/common';
+import { ApiCreatedResponse, ApiOkResponse, ApiProduces, ApiTags } from '@nestjs/swagger';
 import type { RawBodyRequest } from '@nestjs/common';
-import type { Request } from 'express';
+import type { Request, Response } from 'express';
 import { CurrentUser, Public, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
 import { uuidParam } from '../common/http/uuid-param';
@@ -11,6 +11,7 @@ import {
   ApprovePayoutsDto,
   BudgetDto,
   CreateFundingDto,
+  FinanceExportQueryDto,
   FundingIntentDto,
   MyPayoutsDto,
   OnboardingLinkDto,
@@ -49,6 +50,15 @@ export class StudyPayoutsController {
   @ApiOkResponse({ type: ReconciliationDto })
   reconciliation(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<ReconciliationDto> {
     return this.payouts.reconciliation(studyId);
+  }
+
+  @Get('payouts/finance-export.csv')
+  @Roles('coordinator', 'auditor', 'admin')
+  @ApiProduces('text/csv')
+  @ApiOkResponse({ description: "Per participant: paid in the period, paid in the year across studies, the tax-reporting threshold (UTF-8 with a byte-order mark). Pay and tax rules defer to the institution's finance office.", schema: { type: 'string' } })
+  async financeExport(@Param('studyId', uuidParam('studyId')) studyId: string, @Query() query: FinanceExportQueryDto, @Res() response: Response): Promise<void> {
+    const { fileName, csv } = await this.payouts.financeExport(studyId, query);
+    response.status(200).type('text/csv; charset=utf-8').setHeader('Content-Disposition', `attachment; filename="${fileName}"`).setHeader('Cache-Control', 'no-store').send(csv);
   }
 
   @Get('payouts/tax-threshold')

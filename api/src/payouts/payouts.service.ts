@@ -17,6 +17,7 @@ import { UsersService } from '../users/users.service';
 import {
   ApprovalResultDto,
   BudgetDto,
+  FinanceExportQueryDto,
   FundingIntentDto,
   MyPayoutsDto,
   OnboardingLinkDto,
@@ -31,12 +32,19 @@ import { PayoutEntity } from './entities/payout.entity';
 import { StudyFundingEntity } from './entities/study-funding.entity';
 import { APPLIED_EVENT_TYPES, ProviderEventEnvelope, readProviderEvent, signatureTimeProblem } from './provider-event';
 import { reconcile } from './reconcile';
+import { financeExportCsv, financeExportFileName, thresholdStanding } from './finance-export';
+import { PayoutBucket, PayTotals, receiptNumber, stageCondition, stageOf, summarizePayTotals } from './pay-totals';
 
 export const TAX_CAUTION =
   'Tax reporting rules differ by country and institution. This threshold is a screening aid: follow your institution’s finance office.';
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
-/** Share of the threshold at which staff are told someone is getting near it. */
-const NEAR_THRESHOLD = 0.8;
+const SORT_ORDER = {
+  newest: 'p.created_at DESC, p.id',
+  oldest: 'p.created_at ASC, p.id',
+  'amount-desc': 'p.amount_minor DESC, p.created_at DESC, p.id',
+  'amount-asc': 'p.amount_minor ASC, p.created_at DESC, p.id',
+  participant: 'e.reference ASC, p.created_at DESC, p.id',
+} as const;
 
 export interface OwedPayoutInput {
   studyId: string;
@@ -152,23 +160,27 @@ export class PayoutsService implements OnModuleInit {
     const where: string[] = ['p.study_id = $1'];
     const params: unknown[] = [studyId];
     if (query.status) where.push(`p.status = $${params.push(query.status)}`);
+    if (query.stage) where.push(stageCondition(query.stage));
     if (query.conditionId) where.push(`p.condition_id = $${params.push(query.conditionId)}`);
-    const [{ total }] = await this.dataSource.query(`SELECT count(*) AS total FROM payout p WHERE ${where.join(' AND ')}`, params);
-    const rows: Array<Record<string, unknown>> = await this.dataSource.query(
-      `SELECT p.*, e.reference, s.title AS step_title, coalesce(a.payouts_enabled, false) AS account_ready
-       FROM payout p
+    if (query.enrollmentId) where.push(`p.enrollment_id = $${params.push(query.enrollmentId)}`);
+    const search = query.search?.trim();
+    if (search) {
+      const n = params.push(`%${search.replace(/[\\%_]/g, (c) => `\\${c}`)}%`);
+      where.push(`(e.reference ILIKE $${n} OR s.title ILIKE $${n} OR p.receipt_number ILIKE $${n})`);
+    }
+    const from = `FROM payout p
        JOIN enrollment e ON e.id = p.enrollment_id
        LEFT JOIN step_completion c ON c.id = p.step_completion_id
        LEFT JOIN step s ON s.id = c.step_id
        LEFT JOIN payout_account a ON a.user_id = p.participant_id
-       WHERE ${where.join(' AND ')}
-       ORDER BY p.created_at DESC, p.id LIMIT ${query.pageSize} OFFSET ${(query.page - 1) * query.pageSize}`,
+       WHERE ${where.join(' AND ')}`;
+    const [{ total }] = await this.dataSource.query(`SELECT count(*) AS total ${from}`, params);
+    const rows: Array<Record<string, unknown>> = await this.dataSource.query(
+      `SELECT p.*, e.reference, s.title AS step_title, coalesce(a.payouts_enabled, false) AS account_ready ${from}
+       ORDER BY ${SORT_ORDER[query.sort ?? 'newest']} LIMIT ${query.pageSize} OFFSET ${(query.page - 1) * query.pageSize}`,
       params,
     );
-    const totals: Array<{ status: string; n: string; amount: string }> = await this.dataSource.query(
-      `SELECT status, count(*) AS n, sum(amount_minor) AS amount FROM payout WHERE study_id = $1 GROUP BY status`,
-      [studyId],
-    );
+    const totals = await this.payTotals(this.dataSource.manager, studyId);
     return {
       items: rows.map((r) => ({
         id: r.id as string,
@@ -181,7 +193,9 @@ export class PayoutsService implements OnModuleInit {
         currency: (r.currency as string).trim(),
         payOverride: r.pay_override as boolean,
         status: r.status as PayoutEntity['status'],
+        stage: stageOf(r.status as PayoutEntity['status'], r.account_ready as boolean),
         failureReason: (r.failure_reason as string | null) ?? null,
+        receiptNumber: (r.receipt_number as string | null) ?? null,
         providerTransferId: (r.provider_transfer_id as string | null) ?? null,
         payoutAccountReady: r.account_ready as boolean,
         createdAt: (r.created_at as Date).toISOString(),
@@ -191,24 +205,29 @@ export class PayoutsService implements OnModuleInit {
       total: Number(total),
       page: query.page,
       pageSize: query.pageSize,
-      countsByStatus: Object.fromEntries(totals.map((t) => [t.status, Number(t.n)])),
-      amountByStatus: Object.fromEntries(totals.map((t) => [t.status, Number(t.amount)])),
+      countsByStatus: totals.countsByStatus,
+      amountByStatus: totals.amountByStatus,
+      stages: totals.stages,
     };
+  }
+
+  /** Every total the Pay page shows, from one pass over the study's payouts (see pay-totals.ts). */
+  private async payTotals(manager: EntityManager, studyId: string): Promise<PayTotals> {
+    const rows: Array<{ enrollment_id: string; status: PayoutEntity['status']; ready: boolean; n: string; amount: string }> = await manager.query(
+      `SELECT p.enrollment_id, p.status, coalesce(a.payouts_enabled, false) AS ready, count(*) AS n, sum(p.amount_minor) AS amount
+       FROM payout p LEFT JOIN payout_account a ON a.user_id = p.participant_id
+       WHERE p.study_id = $1 GROUP BY 1, 2, 3`,
+      [studyId],
+    );
+    const buckets: PayoutBucket[] = rows.map((r) => ({ enrollmentId: r.enrollment_id, status: r.status, payoutAccountReady: r.ready, count: Number(r.n), amountMinor: Number(r.amount) }));
+    return summarizePayTotals(buckets);
   }
 
   private async balance(manager: EntityManager, studyId: string) {
     const [funded] = await manager.query(`SELECT coalesce(sum(amount_minor), 0) AS n FROM study_funding WHERE study_id = $1 AND status = 'succeeded'`, [studyId]);
-    const [spent] = await manager.query(
-      `SELECT coalesce(sum(amount_minor) FILTER (WHERE status IN ('approved','sending')), 0) AS committed,
-              coalesce(sum(amount_minor) FILTER (WHERE status = 'paid'), 0) AS paid,
-              coalesce(sum(amount_minor) FILTER (WHERE status IN ('owed','failed')), 0) AS owed
-       FROM payout WHERE study_id = $1`,
-      [studyId],
-    );
+    const { committedMinor, paidMinor, owedMinor, needsAttentionMinor } = await this.payTotals(manager, studyId);
     const fundedMinor = Number(funded.n);
-    const committedMinor = Number(spent.committed);
-    const paidMinor = Number(spent.paid);
-    return { fundedMinor, committedMinor, paidMinor, owedMinor: Number(spent.owed), remainingMinor: fundedMinor - committedMinor - paidMinor };
+    return { fundedMinor, committedMinor, paidMinor, owedMinor, needsAttentionMinor, remainingMinor: fundedMinor - committedMinor - paidMinor };
   }
 
   /** Approves owed payouts and queues one send job each; refused beyond the study's funded balance. */
@@ -359,6 +378,16 @@ export class PayoutsService implements OnModuleInit {
         [payoutId, transferId],
       );
       if (!payout) return;
+      // Numbered only once paid, under the counter row's lock, so a study's receipts count 1, 2, 3… without gaps.
+      const [counter] = await queryRows<{ last_number: number; slug: string }>(
+        m,
+        `WITH next AS (
+           INSERT INTO payout_receipt_counter (study_id, last_number) VALUES ($1, 1)
+           ON CONFLICT (study_id) DO UPDATE SET last_number = payout_receipt_counter.last_number + 1 RETURNING last_number
+         ) SELECT next.last_number, s.slug FROM next, study s WHERE s.id = $1`,
+        [payout.study_id],
+      );
+      await m.query(`UPDATE payout SET receipt_number = $2 WHERE id = $1`, [payoutId, receiptNumber(counter.slug, counter.last_number)]);
       await this.jobs.enqueue(m, JOB_NAMES.payoutReceipt, { payoutId });
       await this.audit.record(m, { chain: payout.study_id, actor: null, action: 'payout.delivered', subjectType: 'payout', subjectId: payoutId, data: { transferId, amountMinor: Number(payout.amount_minor) } });
     };
@@ -380,7 +409,7 @@ export class PayoutsService implements OnModuleInit {
           'Hello,',
           '',
           `We have sent you ${amount} for taking part in "${study.title}".`,
-          `Receipt number: ${payout.providerTransferId}`,
+          `Receipt number: ${payout.receiptNumber}`,
           `Sent on: ${payout.paidAt?.toISOString().slice(0, 10)}`,
           '',
           'It can take a few working days to reach your bank account. You can see all your payments in the study portal.',
@@ -623,7 +652,7 @@ export class PayoutsService implements OnModuleInit {
 
   async myPayouts(user: SessionUser): Promise<MyPayoutsDto> {
     const rows: Array<Record<string, unknown>> = await this.dataSource.query(
-      `SELECT p.id, p.kind, p.amount_minor, p.currency, p.status, p.created_at, p.paid_at, p.provider_transfer_id, st.title AS study_title, s.title AS step_title
+      `SELECT p.id, p.kind, p.amount_minor, p.currency, p.status, p.created_at, p.paid_at, p.receipt_number, st.title AS study_title, s.title AS step_title
        FROM payout p JOIN study st ON st.id = p.study_id
        LEFT JOIN step_completion c ON c.id = p.step_completion_id LEFT JOIN step s ON s.id = c.step_id
        WHERE p.participant_id = $1 ORDER BY p.created_at DESC`,
@@ -648,7 +677,7 @@ export class PayoutsService implements OnModuleInit {
         status: r.status as PayoutEntity['status'],
         createdAt: (r.created_at as Date).toISOString(),
         paidAt: r.paid_at ? (r.paid_at as Date).toISOString() : null,
-        receipt: r.status === 'paid' ? (r.provider_transfer_id as string) : null,
+        receipt: r.status === 'paid' ? (r.receipt_number as string | null) : null,
       })),
       account: await this.accountStatus(user),
       paidThisYearMinor,
@@ -677,8 +706,53 @@ export class PayoutsService implements OnModuleInit {
       caution: TAX_CAUTION,
       participants: rows.map((r) => {
         const paid = Number(r.paid);
-        return { participantId: r.participant_id, email: r.email, paidThisYearMinor: paid, standing: paid >= threshold ? 'over' : paid >= NEAR_THRESHOLD * threshold ? 'near' : 'under' };
+        return { participantId: r.participant_id, email: r.email, paidThisYearMinor: paid, standing: thresholdStanding(paid, threshold) };
       }),
     };
   }
+
+  /**
+   * The finance office's CSV for a period: per participant of this study, what this study paid them in the period
+   * and what they were paid in that calendar year across every study (up to the period's end), against the
+   * tax-reporting threshold. Pay and tax rules are the institution's finance office's to apply.
+   */
+  async financeExport(studyId: string, query: FinanceExportQueryDto): Promise<{ fileName: string; csv: Buffer }> {
+    const study = await this.studies.require(studyId);
+    const from = parseDay(query.from, 'from');
+    const to = parseDay(query.to, 'to');
+    if (to < from) throw new DomainException('VALIDATION_FAILED', 'The period ends before it starts.', [{ field: 'to', message: 'must be on or after the first day (from)' }]);
+    if (to.getTime() - from.getTime() > 366 * 86_400_000) {
+      throw new DomainException('VALIDATION_FAILED', 'A period can be at most a year long.', [{ field: 'to', message: 'must be within a year of the first day (from)' }]);
+    }
+    const end = new Date(to.getTime() + 86_400_000);
+    const yearStart = new Date(Date.UTC(to.getUTCFullYear(), 0, 1));
+    const rows: Array<{ reference: string; n: string; paid: string; year_paid: string }> = await this.dataSource.query(
+      `WITH period AS (
+         SELECT p.participant_id, min(e.reference) AS reference, count(*) AS n, sum(p.amount_minor) AS paid
+         FROM payout p JOIN enrollment e ON e.id = p.enrollment_id
+         WHERE p.study_id = $1 AND p.status = 'paid' AND p.paid_at >= $2 AND p.paid_at < $3
+         GROUP BY p.participant_id
+       )
+       SELECT period.reference, period.n, period.paid,
+              (SELECT coalesce(sum(y.amount_minor), 0) FROM payout y
+                WHERE y.participant_id = period.participant_id AND y.status = 'paid' AND y.currency = $5 AND y.paid_at >= $4 AND y.paid_at < $3) AS year_paid
+       FROM period ORDER BY period.reference`,
+      [studyId, from, end, yearStart, study.currency],
+    );
+    const csv = financeExportCsv(
+      rows.map((r) => ({ participantReference: r.reference, paymentsInPeriod: Number(r.n), paidInPeriodMinor: Number(r.paid), paidThisYearMinor: Number(r.year_paid) })),
+      study.currency.trim(),
+      this.config.taxReportingThresholdMinor,
+    );
+    return { fileName: financeExportFileName(study.slug, query.from, query.to), csv };
+  }
+}
+
+/** A YYYY-MM-DD day as midnight UTC; an impossible day (2026-02-30) is refused by field. */
+function parseDay(value: string, field: string): Date {
+  const day = new Date(`${value}T00:00:00.000Z`);
+  if (Number.isNaN(day.getTime()) || day.toISOString().slice(0, 10) !== value) {
+    throw new DomainException('VALIDATION_FAILED', `${field} is not a real calendar day.`, [{ field, message: `${value} is not a real calendar day` }]);
+  }
+  return day;
 }

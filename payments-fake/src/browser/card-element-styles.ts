@@ -19,6 +19,9 @@ export const CARD_ELEMENT_CSS = `
   --pfk-gap: 12px;
   display: grid;
   gap: var(--pfk-gap);
+  padding: var(--pfk-gap);
+  border: 1px dashed var(--pfk-border);
+  border-radius: var(--pfk-radius);
   font-family: var(--pfk-font-family);
   font-size: var(--pfk-font-size);
   color: var(--pfk-text);
@@ -50,4 +53,5 @@ export const CARD_ELEMENT_CSS = `
 .pfk-card__input[aria-invalid="true"]:focus { outline-color: var(--pfk-danger); }
 .pfk-card__input:disabled { opacity: 0.6; cursor: not-allowed; }
 .pfk-card__hint { margin: 0; font-size: 0.8em; color: var(--pfk-muted); }
+.pfk-card__notice { margin: 0; font-size: 0.85em; font-weight: 600; color: var(--pfk-muted); }
 `;

@@ -47,10 +47,10 @@ const DEFAULT_CLASSES: Required<Omit<StripeElementClasses, 'webkitAutofill'>> = 
 };
 
 const FIELD_SPECS: Record<CardField, { label: string; autocomplete: string; placeholder: string; inputMode: string }> = {
-  number: { label: 'Card number', autocomplete: 'cc-number', placeholder: '1234 1234 1234 1234', inputMode: 'numeric' },
-  expiry: { label: 'Expiry date (MM/YY)', autocomplete: 'cc-exp', placeholder: 'MM/YY', inputMode: 'numeric' },
-  cvc: { label: 'Security code (CVC)', autocomplete: 'cc-csc', placeholder: '123', inputMode: 'numeric' },
-  postalCode: { label: 'Postal code', autocomplete: 'postal-code', placeholder: '12345', inputMode: 'text' },
+  number: { label: 'Card number', autocomplete: 'cc-number', placeholder: 'The long number on the card', inputMode: 'numeric' },
+  expiry: { label: 'Expiry date (MM/YY)', autocomplete: 'cc-exp', placeholder: 'month/year', inputMode: 'numeric' },
+  cvc: { label: 'Security code (CVC)', autocomplete: 'cc-csc', placeholder: '3 or 4 digits', inputMode: 'numeric' },
+  postalCode: { label: 'Postal code', autocomplete: 'postal-code', placeholder: 'Of the card’s bill', inputMode: 'text' },
 };
 
 // appearance.variables (https://docs.stripe.com/elements/appearance-api) → our custom properties.
@@ -290,6 +290,10 @@ export class CardElementStandIn implements StripeCardElement {
     };
 
     // Built in form order: the inputs map keeps it for moving between fields.
+    // Says first what this form is: the local stand-in, which charges nothing.
+    const notice = doc.createElement('p');
+    notice.className = 'pfk-card__notice';
+    notice.textContent = 'Local payment stand-in: no card is charged and nothing leaves this computer.';
     const numberField = field('number');
     const row = doc.createElement('div');
     row.className = 'pfk-card__row';
@@ -297,8 +301,8 @@ export class CardElementStandIn implements StripeCardElement {
     if (this.#postalCodeShown()) row.append(field('postalCode'));
     const hint = doc.createElement('p');
     hint.className = 'pfk-card__hint';
-    hint.textContent = 'Test mode: nothing is charged. Try 4242 4242 4242 4242 with any future date.';
-    root.append(numberField, row, hint);
+    hint.textContent = 'Sample card numbers, one for each outcome, are listed in payments-fake/README.md.';
+    root.append(notice, numberField, row, hint);
     node.append(root);
     this.#root = root;
     this.#applyOptions();

@@ -17,8 +17,8 @@ describe('checkOnboardingForm', () => {
 
   it('names each missing field', () => {
     expect(checkOnboardingForm({ fullName: '   ', confirmed: false })).toEqual({
-      fullName: 'Full legal name: enter your name.',
-      confirmed: 'Confirmation: tick the box to confirm your details.',
+      fullName: 'Name on your bank account: write your name.',
+      confirmed: 'Confirmation: tick the box to say these details are right.',
     });
     expect(checkOnboardingForm({ fullName: 'x'.repeat(101), confirmed: true }).fullName).toMatch(/100 characters/);
   });
@@ -47,7 +47,7 @@ describe('renderOnboardingPage', () => {
   });
 
   it('shows errors in an alert and marks the fields invalid', () => {
-    const html = renderOnboardingPage({ ...input, errors: { fullName: 'Full legal name: enter your name.' } });
+    const html = renderOnboardingPage({ ...input, errors: { fullName: 'Name on your bank account: write your name.' } });
     expect(html).toContain('role="alert"');
     expect(html).toContain('aria-invalid="true"');
     expect(html).toContain('aria-describedby="full_name_hint full_name_error"');

@@ -1268,6 +1268,22 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/studies/{studyId}/payouts/finance-export.csv": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["StudyPayoutsController_financeExport"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/studies/{studyId}/payouts/tax-threshold": {
         parameters: {
             query?: never;
@@ -2698,11 +2714,38 @@ export interface components {
             /** @enum {string} */
             status: "owed" | "approved" | "sending" | "paid" | "failed" | "cancelled" | "reversed";
             failureReason: string | null;
+            /**
+             * @description What staff must do next about it
+             * @enum {string}
+             */
+            stage: "to-approve" | "awaiting-setup" | "needs-attention" | "on-its-way" | "paid" | "closed";
+            /** @description Our receipt number, once paid: what the participant sees */
+            receiptNumber: string | null;
+            /** @description The provider's transfer id: for staff only, never shown to participants */
             providerTransferId: string | null;
             payoutAccountReady: boolean;
             createdAt: string;
             approvedAt: string | null;
             paidAt: string | null;
+        };
+        StageTotalDto: {
+            count: number;
+            amountMinor: number;
+            /** @description Distinct participants with a payout in this stage */
+            participants: number;
+        };
+        PayoutStagesDto: {
+            /** @description Owed, and the participant can receive money */
+            "to-approve": components["schemas"]["StageTotalDto"];
+            /** @description Owed, and the participant has not finished payout set-up */
+            "awaiting-setup": components["schemas"]["StageTotalDto"];
+            /** @description Failed: staff must look */
+            "needs-attention": components["schemas"]["StageTotalDto"];
+            /** @description Approved or being sent */
+            "on-its-way": components["schemas"]["StageTotalDto"];
+            paid: components["schemas"]["StageTotalDto"];
+            /** @description Cancelled or reversed */
+            closed: components["schemas"]["StageTotalDto"];
         };
         PayoutPageDto: {
             items: components["schemas"]["PayoutDto"][];
@@ -2715,6 +2758,8 @@ export interface components {
             amountByStatus: {
                 [key: string]: number;
             };
+            /** @description Every payout of the study by stage (whatever the filter), from the same sums as the budget */
+            stages: components["schemas"]["PayoutStagesDto"];
         };
         ApprovePayoutsDto: {
             payoutIds: string[];
@@ -2765,8 +2810,10 @@ export interface components {
             /** @description Approved or being sent */
             committedMinor: number;
             paidMinor: number;
-            /** @description Earned by participants, not yet approved */
+            /** @description Earned by participants, not yet approved (the owed rows of the queue) */
             owedMinor: number;
+            /** @description Failed payouts, to be retried (the needs-attention rows of the queue) */
+            needsAttentionMinor: number;
             /** @description funded − committed − paid */
             remainingMinor: number;
             fundings: {
@@ -2808,7 +2855,7 @@ export interface components {
             status: "owed" | "approved" | "sending" | "paid" | "failed" | "cancelled" | "reversed";
             createdAt: string;
             paidAt: string | null;
-            /** @description Receipt number (the transfer reference) */
+            /** @description Our receipt number (study slug and a count), once paid */
             receipt: string | null;
         };
         MyPayoutsDto: {
@@ -5545,7 +5592,13 @@ export interface operations {
         parameters: {
             query?: {
                 status?: "owed" | "approved" | "sending" | "paid" | "failed" | "cancelled" | "reversed";
+                stage?: "to-approve" | "awaiting-setup" | "needs-attention" | "on-its-way" | "paid" | "closed";
                 conditionId?: string;
+                /** @description One participant's payouts (their payment history) */
+                enrollmentId?: string;
+                /** @description Participant reference, step title or receipt number (part of it) */
+                search?: string;
+                sort?: "newest" | "oldest" | "amount-desc" | "amount-asc" | "participant";
                 page?: number;
                 pageSize?: number;
             };
@@ -5609,6 +5662,33 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["ReconciliationDto"];
+                };
+            };
+        };
+    };
+    StudyPayoutsController_financeExport: {
+        parameters: {
+            query: {
+                /** @description First day of the period (YYYY-MM-DD, UTC) */
+                from: string;
+                /** @description Last day of the period (YYYY-MM-DD, UTC), included */
+                to: string;
+            };
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description Per participant: paid in the period, paid in the year across studies, the tax-reporting threshold (UTF-8 with a byte-order mark). Pay and tax rules defer to the institution's finance office. */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "text/csv": string;
                 };
             };
         };

@@ -1,6 +1,7 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { ArrayMaxSize, ArrayMinSize, IsArray, IsIn, IsInt, IsOptional, IsUUID, Max, Min } from 'class-validator';
+import { ArrayMaxSize, ArrayMinSize, IsArray, IsIn, IsInt, IsOptional, IsString, IsUUID, Matches, Max, MaxLength, Min } from 'class-validator';
+import { PAYOUT_STAGES, PayoutStage } from '../pay-totals';
 import { PAYOUT_STATUSES, PayoutStatus } from '../entities/payout.entity';
 import { MAX_PAGE } from '../../common/http/paging';
 
@@ -16,11 +17,28 @@ export class PayoutDto {
   @ApiProperty({ description: 'A recorded per-condition pay exception applies' }) payOverride: boolean;
   @ApiProperty({ enum: PAYOUT_STATUSES }) status: PayoutStatus;
   @ApiProperty({ nullable: true, type: String }) failureReason: string | null;
-  @ApiProperty({ nullable: true, type: String }) providerTransferId: string | null;
+  @ApiProperty({ enum: PAYOUT_STAGES, description: 'What staff must do next about it' }) stage: PayoutStage;
+  @ApiProperty({ nullable: true, type: String, description: 'Our receipt number, once paid: what the participant sees' }) receiptNumber: string | null;
+  @ApiProperty({ nullable: true, type: String, description: "The provider's transfer id: for staff only, never shown to participants" }) providerTransferId: string | null;
   @ApiProperty() payoutAccountReady: boolean;
   @ApiProperty() createdAt: string;
   @ApiProperty({ nullable: true, type: String }) approvedAt: string | null;
   @ApiProperty({ nullable: true, type: String }) paidAt: string | null;
+}
+
+export class StageTotalDto {
+  @ApiProperty() count: number;
+  @ApiProperty() amountMinor: number;
+  @ApiProperty({ description: 'Distinct participants with a payout in this stage' }) participants: number;
+}
+
+export class PayoutStagesDto {
+  @ApiProperty({ type: StageTotalDto, description: 'Owed, and the participant can receive money' }) 'to-approve': StageTotalDto;
+  @ApiProperty({ type: StageTotalDto, description: 'Owed, and the participant has not finished payout set-up' }) 'awaiting-setup': StageTotalDto;
+  @ApiProperty({ type: StageTotalDto, description: 'Failed: staff must look' }) 'needs-attention': StageTotalDto;
+  @ApiProperty({ type: StageTotalDto, description: 'Approved or being sent' }) 'on-its-way': StageTotalDto;
+  @ApiProperty({ type: StageTotalDto }) paid: StageTotalDto;
+  @ApiProperty({ type: StageTotalDto, description: 'Cancelled or reversed' }) closed: StageTotalDto;
 }
 
 export class PayoutPageDto {
@@ -30,11 +48,24 @@ export class PayoutPageDto {
   @ApiProperty() pageSize: number;
   @ApiProperty({ type: 'object', additionalProperties: { type: 'number' } }) countsByStatus: Record<string, number>;
   @ApiProperty({ type: 'object', additionalProperties: { type: 'number' } }) amountByStatus: Record<string, number>;
+  @ApiProperty({ type: PayoutStagesDto, description: 'Every payout of the study by stage (whatever the filter), from the same sums as the budget' })
+  stages: PayoutStagesDto;
 }
+
+export const PAYOUT_SORTS = ['newest', 'oldest', 'amount-desc', 'amount-asc', 'participant'] as const;
+export type PayoutSort = (typeof PAYOUT_SORTS)[number];
 
 export class PayoutQueryDto {
   @ApiPropertyOptional({ enum: PAYOUT_STATUSES }) @IsOptional() @IsIn(PAYOUT_STATUSES) status?: PayoutStatus;
+  @ApiPropertyOptional({ enum: PAYOUT_STAGES }) @IsOptional() @IsIn(PAYOUT_STAGES, { message: `stage must be one of ${PAYOUT_STAGES.join(', ')}` }) stage?: PayoutStage;
   @ApiPropertyOptional() @IsOptional() @IsUUID('4') conditionId?: string;
+  @ApiPropertyOptional({ description: "One participant's payouts (their payment history)" }) @IsOptional() @IsUUID('4', { message: 'enrollmentId must be an enrollment id' }) enrollmentId?: string;
+  @ApiPropertyOptional({ description: 'Participant reference, step title or receipt number (part of it)' })
+  @IsOptional()
+  @IsString()
+  @MaxLength(100, { message: 'search must be at most 100 characters' })
+  search?: string;
+  @ApiPropertyOptional({ enum: PAYOUT_SORTS, default: 'newest' }) @IsOptional() @IsIn(PAYOUT_SORTS, { message: `sort must be one of ${PAYOUT_SORTS.join(', ')}` }) sort: PayoutSort = 'newest';
   @ApiPropertyOptional({ default: 1 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(MAX_PAGE) page: number = 1;
   @ApiPropertyOptional({ default: 50 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(500) pageSize: number = 50;
 }
@@ -60,7 +91,8 @@ export class BudgetDto {
   @ApiProperty({ description: 'Money put in by card and confirmed' }) fundedMinor: number;
   @ApiProperty({ description: 'Approved or being sent' }) committedMinor: number;
   @ApiProperty() paidMinor: number;
-  @ApiProperty({ description: 'Earned by participants, not yet approved' }) owedMinor: number;
+  @ApiProperty({ description: 'Earned by participants, not yet approved (the owed rows of the queue)' }) owedMinor: number;
+  @ApiProperty({ description: 'Failed payouts, to be retried (the needs-attention rows of the queue)' }) needsAttentionMinor: number;
   @ApiProperty({ description: 'funded − committed − paid' }) remainingMinor: number;
   @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) fundings: Array<Record<string, unknown>>;
 }
@@ -121,7 +153,7 @@ export class MyPayoutDto {
   @ApiProperty({ enum: PAYOUT_STATUSES }) status: PayoutStatus;
   @ApiProperty() createdAt: string;
   @ApiProperty({ nullable: true, type: String }) paidAt: string | null;
-  @ApiProperty({ nullable: true, type: String, description: 'Receipt number (the transfer reference)' }) receipt: string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'Our receipt number (study slug and a count), once paid' }) receipt: string | null;
 }
 
 export class MyPayoutsDto {
@@ -147,4 +179,15 @@ export class TaxThresholdDto {
   @ApiProperty() currency: string;
   @ApiProperty() caution: string;
   @ApiProperty({ type: [TaxThresholdEntryDto] }) participants: TaxThresholdEntryDto[];
+}
+
+const ISO_DAY = /^\d{4}-\d{2}-\d{2}$/;
+
+export class FinanceExportQueryDto {
+  @ApiProperty({ description: 'First day of the period (YYYY-MM-DD, UTC)', example: '2026-01-01' })
+  @Matches(ISO_DAY, { message: 'from must be a date written YYYY-MM-DD' })
+  from: string;
+  @ApiProperty({ description: 'Last day of the period (YYYY-MM-DD, UTC), included', example: '2026-03-31' })
+  @Matches(ISO_DAY, { message: 'to must be a date written YYYY-MM-DD' })
+  to: string;
 }

@@ -26,6 +26,8 @@ export class PayoutEntity {
   /** Sent as the provider's Idempotency-Key: a retried send can never make a second transfer. */
   @Column({ name: 'idempotency_key', type: 'text' }) idempotencyKey: string;
   @Column({ name: 'provider_transfer_id', type: 'text', nullable: true }) providerTransferId: string | null;
+  /** Our own receipt number (study slug and a per-study count), given when paid: what participants see. */
+  @Column({ name: 'receipt_number', type: 'text', nullable: true }) receiptNumber: string | null;
   @Column({ name: 'failure_reason', type: 'text', nullable: true }) failureReason: string | null;
   @Column({ type: 'integer', default: 0 }) attempts: number;
   @Column({ name: 'approved_by', type: 'uuid', nullable: true }) approvedBy: string | null;

@@ -27,7 +27,7 @@ const payouts: MyPayouts = {
     { id: 'p4', studyTitle: 'Wayfinding cues', stepTitle: 'Session 3: finding rooms again', kind: 'step', amountMinor: 1500, currency: 'USD', status: 'approved', createdAt: '2026-02-12T09:00:00.000Z', paidAt: null, receipt: null },
     { id: 'p3', studyTitle: 'Wayfinding cues', stepTitle: 'Session 2: finding rooms', kind: 'step', amountMinor: 1200, currency: 'USD', status: 'owed', createdAt: '2026-02-05T09:00:00.000Z', paidAt: null, receipt: null },
     { id: 'p2', studyTitle: 'Checkout flows', stepTitle: 'First checkout', kind: 'step', amountMinor: 99_950, currency: 'USD', status: 'owed', createdAt: '2026-02-04T09:00:00.000Z', paidAt: null, receipt: null },
-    { id: 'p1', studyTitle: 'Wayfinding cues', stepTitle: 'Session 1: learning the building', kind: 'step', amountMinor: 1000, currency: 'USD', status: 'paid', createdAt: '2026-02-01T10:00:00.000Z', paidAt: '2026-02-03T15:00:00.000Z', receipt: 'tr_1Hd83kQm2Ow9' },
+    { id: 'p1', studyTitle: 'Wayfinding cues', stepTitle: 'Session 1: learning the building', kind: 'step', amountMinor: 1000, currency: 'USD', status: 'paid', createdAt: '2026-02-01T10:00:00.000Z', paidAt: '2026-02-03T15:00:00.000Z', receipt: 'wayfinding-cues-0001' },
   ],
   account: ready,
   paidThisYearMinor: { USD: 1000 },
@@ -182,7 +182,7 @@ describe('getting paid: the payments', () => {
     expect(paid.getByText('Session 1: learning the building')).toBeInTheDocument();
     expect(paid.getByText('Paid')).toBeInTheDocument();
     expect(paid.getByText('Paid on February 3, 2026')).toBeInTheDocument();
-    expect(paid.getByText('tr_1Hd83kQm2Ow9').parentElement).toHaveTextContent('Receipt number tr_1Hd83kQm2Ow9');
+    expect(paid.getByText('wayfinding-cues-0001').parentElement).toHaveTextContent('Receipt number wayfinding-cues-0001');
     expect(within(rows[3]!).getByText('Waiting for approval')).toBeInTheDocument();
     expect(within(rows[3]!).getByText('$12.00')).toBeInTheDocument();
     expect(within(rows[4]!).getByText('$999.50')).toBeInTheDocument();

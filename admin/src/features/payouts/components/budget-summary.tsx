@@ -8,10 +8,11 @@ import { useBudget } from '../api/get-budget';
 const figures = [
   { key: 'plannedMinor', label: 'Planned', hint: 'Set on the study' },
   { key: 'fundedMinor', label: 'Funded', hint: 'Paid in by card' },
-  { key: 'committedMinor', label: 'Committed', hint: 'Approved, being sent' },
-  { key: 'paidMinor', label: 'Paid', hint: 'Received by participants' },
   { key: 'owedMinor', label: 'Owed', hint: 'Earned, not yet approved' },
-  { key: 'remainingMinor', label: 'Remaining', hint: 'Funded − committed − paid' },
+  { key: 'needsAttentionMinor', label: 'Needs attention', hint: 'Failed, to send again' },
+  { key: 'committedMinor', label: 'On its way', hint: 'Approved, being sent' },
+  { key: 'paidMinor', label: 'Paid', hint: 'Received by participants' },
+  { key: 'remainingMinor', label: 'Remaining', hint: 'Funded − on its way − paid' },
 ] as const;
 
 export interface BudgetSummaryProps {
@@ -27,7 +28,7 @@ export function BudgetSummary({ studyId, canFund, onAddFunds, pollEveryMs = fals
     <Panel
       id="budget"
       title="Budget"
-      description="What this study can pay out. Approvals stop at the funded balance."
+      description="What this study can pay out. Approvals stop at the funded balance. Owed, needs attention, on its way and paid are the sums of the queue’s groups."
       actions={
         canFund && (
           <Button variant="primary" onClick={onAddFunds}>
@@ -42,7 +43,7 @@ export function BudgetSummary({ studyId, canFund, onAddFunds, pollEveryMs = fals
         <ErrorState message={budget.error instanceof ApiError ? budget.error.message : 'The budget could not be loaded.'} onRetry={() => void budget.refetch()} />
       ) : (
         <>
-          <dl className="grid grid-cols-2 gap-3 sm:grid-cols-3 lg:grid-cols-6">
+          <dl className="grid grid-cols-2 gap-3 sm:grid-cols-4 xl:grid-cols-7">
             {figures.map((figure) => (
               <div key={figure.key} className="rounded-md border border-line bg-canvas px-3 py-2">
                 <dt className="text-xs font-semibold text-ink-muted">{figure.label}</dt>

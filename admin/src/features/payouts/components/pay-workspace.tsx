@@ -3,6 +3,7 @@ import { Notice } from '@/components/ui/states';
 import { formatMinor } from '@/lib/money';
 import { AddFundsDialog } from './add-funds-dialog';
 import { BudgetSummary } from './budget-summary';
+import { FinanceExportPanel } from './finance-export-panel';
 import { PayoutQueue, type ConditionChoice } from './payout-queue';
 import { ReconciliationPanel } from './reconciliation-panel';
 import { TaxThresholdPanel } from './tax-threshold-panel';
@@ -18,7 +19,7 @@ export interface PayWorkspaceProps {
   conditions: ConditionChoice[];
 }
 
-/** A study's money: budget and funding, the payout queue, the provider check and the tax threshold. */
+/** A study's money: budget and funding, the payout queue, the provider check, the tax threshold and the finance export. */
 export function PayWorkspace({ studyId, currency, blinded, canManage, canReview, conditions }: PayWorkspaceProps) {
   const [funding, setFunding] = useState(false);
   const [funded, setFunded] = useState<number | null>(null);
@@ -35,6 +36,7 @@ export function PayWorkspace({ studyId, currency, blinded, canManage, canReview,
           <TaxThresholdPanel studyId={studyId} />
         </div>
       )}
+      {canReview && <FinanceExportPanel studyId={studyId} />}
       {canManage && <AddFundsDialog studyId={studyId} currency={currency} open={funding} onClose={() => setFunding(false)} onFunded={setFunded} />}
     </div>
   );
