@@ -26,7 +26,9 @@ const STYLE = `
   p.lead { color: var(--muted); margin-top: 0; }
   table.facts { border-collapse: collapse; width: 100%; }
   table.facts th { text-align: left; font-weight: 500; color: var(--muted); padding: .3rem 1rem .3rem 0; width: 10rem; vertical-align: top; }
-  table.facts td { padding: .3rem 0; }
+  /* Long addresses wrap instead of widening the page past a phone screen. */
+  table.facts { table-layout: fixed; }
+  table.facts td { padding: .3rem 0; overflow-wrap: anywhere; }
   label { display: block; font-weight: 600; margin: 1rem 0 .35rem; }
   input[type=text] { width: 100%; max-width: 24rem; padding: .55rem .65rem; border: 1px solid #8f8a80; border-radius: 4px; font: inherit; background: #fff; }
   input[aria-invalid=true] { border-color: var(--danger); border-width: 2px; }

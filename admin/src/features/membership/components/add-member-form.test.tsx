@@ -75,4 +75,15 @@ describe('AddMemberForm', () => {
     await userEvent.click(screen.getByRole('button', { name: 'Add to study' }));
     expect(await screen.findByText('tam@evenhand.test is a coordinator; add them to the study as a coordinator.')).toBeInTheDocument();
   });
+  it('keeps the list closed while a search is on its way, so a click cannot land on a list that is changing', async () => {
+    stubApi({ 'GET /api/users': usersAnswer });
+    renderWithProviders(<AddMemberForm studyId={studyId} members={members} onAdded={vi.fn()} onCancel={vi.fn()} />);
+    const chooser = await screen.findByRole('button', { name: /Staff member/ });
+    await waitFor(() => expect(chooser).toBeEnabled());
+
+    await userEvent.type(screen.getByRole('searchbox', { name: 'Find a staff member' }), 'ilse');
+    expect(screen.getByRole('button', { name: /Staff member/ })).toBeDisabled();
+    expect(screen.getByRole('button', { name: /Staff member/ })).toHaveTextContent('Searching…');
+    await waitFor(() => expect(screen.getByRole('button', { name: /Staff member/ })).toBeEnabled());
+  });
 });

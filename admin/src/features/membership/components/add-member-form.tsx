@@ -40,6 +40,9 @@ export function AddMemberForm({ studyId, members, onAdded, onCancel }: AddMember
     label: user.name || user.email,
     description: `${roleLabels[user.role]} · ${user.email}`,
   }));
+  // Until the list matches what was typed, it cannot be opened: a list that changes under the pointer picks the wrong
+  // person or lands the click outside the dialog.
+  const searching = searchText.trim() !== search || choices.isFetching;
   const roleOptions = chosen ? fittingMembershipRoles(chosen.role).map((role) => membershipRoleLabels[role]) : [];
 
   const onSubmit = handleSubmit((input) => {
@@ -77,8 +80,8 @@ export function AddMemberForm({ studyId, members, onAdded, onCancel }: AddMember
             onBlur={field.onBlur}
             buttonRef={field.ref}
             options={personOptions}
-            placeholder={choices.isPending ? 'Loading staff…' : personOptions.length === 0 ? 'No one else to add' : 'Choose a person…'}
-            disabled={personOptions.length === 0}
+            placeholder={searching ? 'Searching…' : personOptions.length === 0 ? 'No one else to add' : 'Choose a person…'}
+            disabled={searching || personOptions.length === 0}
             error={fieldState.error?.message}
           />
         )}
