@@ -76,7 +76,8 @@ export const ENTITIES = [
 /** Every migration in order. Never edit one that has landed; add a new one. */
 export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000, ConsentAndEnrollment1764600200000, Pay1764600300000, AttritionAlerts1764600400000, LostReason1764600500000, StepVerificationAndContact1764600600000, AuditEvidence1764600700000, PayoutRecovery1764600850000];
 
-export function dataSourceOptions(databaseUrl: string): DataSourceOptions {
+/** `poolMax`: connections kept open (`DATABASE_POOL_MAX`); the benchmarks boot with more, never by rebuilding the pool. */
+export function dataSourceOptions(databaseUrl: string, poolMax = 20): DataSourceOptions {
   return {
     type: 'postgres',
     url: databaseUrl,
@@ -85,6 +86,6 @@ export function dataSourceOptions(databaseUrl: string): DataSourceOptions {
     migrationsTableName: 'schema_migration',
     synchronize: false,
     migrationsRun: false,
-    extra: { max: 20 },
+    extra: { max: poolMax },
   };
 }
