@@ -1,3 +1,4 @@
+import { AuditOutbox1764700500000 } from './migrations/1764700500000-audit-outbox';
 import { DataSourceOptions } from 'typeorm';
 import { AuditEventEntity } from '../audit/entities/audit-event.entity';
 import { RefreshTokenEntity } from '../auth/entities/refresh-token.entity';
@@ -74,7 +75,7 @@ export const ENTITIES = [
 ];
 
 /** Every migration in order. Never edit one that has landed; add a new one. */
-export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000, ConsentAndEnrollment1764600200000, Pay1764600300000, AttritionAlerts1764600400000, LostReason1764600500000, StepVerificationAndContact1764600600000, AuditEvidence1764600700000, PayoutRecovery1764600850000];
+export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000, ConsentAndEnrollment1764600200000, Pay1764600300000, AttritionAlerts1764600400000, LostReason1764600500000, StepVerificationAndContact1764600600000, AuditEvidence1764600700000, PayoutRecovery1764600850000, AuditOutbox1764700500000];
 
 /** `poolMax`: connections kept open (`DATABASE_POOL_MAX`); the benchmarks boot with more, never by rebuilding the pool. */
 export function dataSourceOptions(databaseUrl: string, poolMax = 20): DataSourceOptions {
