@@ -27,7 +27,7 @@ import { UsersModule } from './users/users.module';
     ConfigModule,
     TypeOrmModule.forRootAsync({
       inject: [AppConfig],
-      useFactory: (config: AppConfig) => dataSourceOptions(config.databaseUrl),
+      useFactory: (config: AppConfig) => dataSourceOptions(config.databaseUrl, config.databasePoolMax),
     }),
     JobsModule,
     AuditModule,

@@ -1,9 +1,11 @@
-import { Injectable, Logger, OnApplicationBootstrap, OnModuleInit } from '@nestjs/common';
+import { Injectable, Logger, OnApplicationBootstrap, OnApplicationShutdown, OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { randomUUID } from 'node:crypto';
+import { Pool } from 'pg';
 import { DataSource, EntityManager, EntitySubscriberInterface, QueryRunner, TransactionCommitEvent, TransactionRollbackEvent } from 'typeorm';
 import type { QueryDeepPartialEntity } from 'typeorm/query-builder/QueryPartialEntity';
 import { AppConfig } from '../config/app-config';
+import { AuditChainer } from './audit-chainer';
 import { ChainBreak, ChainWalk, describeBreak, finishWalk, GENESIS_HASH, keyedEventHash, startWalk, StoredEvent, UNKEYED_SEAL_ACTION, walkChain } from './audit-hash';
 import { AuditKeyRing, loadAuditKeys } from './audit-keys';
 import { AuditReceiptDocument, checkReceipt, ReceiptProblem, RECEIPT_PROBLEM_TEXT } from './audit-receipt';
@@ -63,11 +65,16 @@ function transactionDepth(runner: QueryRunner): number {
 }
 
 @Injectable()
-export class AuditService implements OnModuleInit, OnApplicationBootstrap {
+export class AuditService implements OnModuleInit, OnApplicationBootstrap, OnApplicationShutdown {
   private readonly logger = new Logger('Audit');
   /** Events recorded in a transaction that has not committed yet, with the savepoint depth they were recorded at. */
   private readonly pending = new WeakMap<QueryRunner, Array<{ record: AuditRecord; depth: number }>>();
   private readonly keys: AuditKeyRing;
+  /** Chains each committed transaction wrote outbox rows for, sealed right after its commit. */
+  private readonly written = new WeakMap<QueryRunner, string[]>();
+  private readonly chainerPool: Pool;
+  private readonly chainer: AuditChainer;
+  private sweep: NodeJS.Timeout | null = null;
 
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
@@ -75,6 +82,11 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap {
     private readonly trail: AuditTrailReadModel,
   ) {
     this.keys = loadAuditKeys({ keyList: config.auditKeys, keyFile: config.auditKeyFile, mayCreate: config.nodeEnv !== 'production' });
+    this.chainerPool = new Pool({ connectionString: config.databaseUrl, max: 2, application_name: 'evenhand-audit-chainer' });
+    this.chainerPool.on('error', (error) => this.logger.error(`audit chainer connection: ${error.message}`));
+    this.chainer = new AuditChainer(this.chainerPool, () => this.currentKey, (chain, error) =>
+      this.logger.error(`Sealing chain ${chain} failed; its events wait in the outbox for the next seal: ${error.message}`),
+    );
   }
 
   /** The key an event or receipt names, if this server holds it. */
@@ -87,6 +99,20 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap {
 
   async onApplicationBootstrap(): Promise<void> {
     await this.sealUnkeyedChains();
+    await this.sealWaiting();
+    // Rows left by a process that stopped between a commit and its seal, or by a failed seal.
+    this.sweep = setInterval(() => void this.sealWaiting().catch((error: Error) => this.logger.error(error.message)), 5000);
+    this.sweep.unref();
+  }
+
+  async onApplicationShutdown(): Promise<void> {
+    if (this.sweep) clearInterval(this.sweep);
+    await this.chainerPool.end();
+  }
+
+  /** Seals every chain with waiting outbox rows. */
+  async sealWaiting(): Promise<void> {
+    for (const chain of await this.chainer.waitingChains()) await this.chainer.seal(chain);
   }
 
   /**
@@ -124,15 +150,15 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap {
   }
 
   /**
-   * Records one event as part of the caller's transaction. Inside a transaction the event is appended just before
-   * it commits (see onModuleInit): the chain's lock is then held only for the append and the commit, not for the
-   * rest of the caller's work, and an event of a rolled-back transaction is never written. Outside a transaction it
-   * is appended at once in a transaction of its own.
+   * Records one event as part of the caller's transaction: it is written to the audit outbox just before the
+   * transaction commits (one statement for all its events) and so exists exactly when the change does; right after
+   * the commit the chain's chainer seals it into the chain (audit-chainer.ts), before the caller carries on. A
+   * business transaction never takes a chain's lock. Outside a transaction it is recorded in one of its own.
    */
   async record(manager: EntityManager, record: AuditRecord): Promise<void> {
     const runner = manager.queryRunner;
     if (!runner?.isTransactionActive) {
-      await this.dataSource.transaction((transactional) => this.append(transactional, [record]));
+      await this.dataSource.transaction((transactional) => this.record(transactional, record));
       return;
     }
     const queued = this.pending.get(runner) ?? [];
@@ -140,7 +166,7 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap {
     this.pending.set(runner, queued);
   }
 
-  /** Hooks into the data source's transactions: queued events are appended before the outermost commit. */
+  /** Hooks into the data source's transactions: queued events go to the outbox before the outermost commit and are sealed after it. */
   onModuleInit(): void {
     const subscriber: EntitySubscriberInterface = {
       beforeTransactionCommit: async ({ queryRunner }: TransactionCommitEvent) => {
@@ -148,7 +174,16 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap {
         const queued = this.pending.get(queryRunner);
         if (!queued?.length) return;
         this.pending.delete(queryRunner);
-        await this.append(queryRunner.manager, queued.map((entry) => entry.record));
+        const records = queued.map((entry) => entry.record);
+        await this.writeOutbox(queryRunner.manager, records);
+        this.written.set(queryRunner, [...new Set(records.map((record) => record.chain ?? LAB_CHAIN))].sort());
+      },
+      afterTransactionCommit: async ({ queryRunner }: TransactionCommitEvent) => {
+        const chains = this.written.get(queryRunner);
+        if (!chains || transactionDepth(queryRunner) !== 0) return;
+        this.written.delete(queryRunner);
+        // Never throws: a failed seal leaves the rows in the outbox, and the sweep seals them.
+        await Promise.all(chains.map((chain) => this.chainer.seal(chain)));
       },
       beforeTransactionRollback: ({ queryRunner }: TransactionRollbackEvent) => {
         // Rolling back to a savepoint drops only what was recorded inside it.
@@ -156,25 +191,29 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap {
         const kept = (this.pending.get(queryRunner) ?? []).filter((entry) => entry.depth < depth);
         if (kept.length) this.pending.set(queryRunner, kept);
         else this.pending.delete(queryRunner);
+        if (depth === 1) this.written.delete(queryRunner);
       },
     };
     this.dataSource.subscribers.push(subscriber);
   }
 
-  /**
-   * Appends events to their chains in the given transaction. Chains are locked in name order, so two transactions
-   * that touch the same chains cannot wait on each other in a circle; each lock is released at commit.
-   */
-  private async append(manager: EntityManager, records: AuditRecord[]): Promise<void> {
-    const chains = [...new Set(records.map((record) => record.chain ?? LAB_CHAIN))].sort();
-    for (const chain of chains) {
-      await this.lockChain(manager, chain);
-      await this.appendLocked(
-        manager,
-        chain,
-        records.filter((record) => (record.chain ?? LAB_CHAIN) === chain),
-      );
-    }
+  /** One statement for all of a transaction's events, in the order they were recorded. */
+  private async writeOutbox(manager: EntityManager, records: AuditRecord[]): Promise<void> {
+    const rows = records.map((record) => ({
+      chain: record.chain ?? LAB_CHAIN,
+      actorId: record.actor?.id ?? null,
+      actorEmail: record.actor?.email ?? null,
+      action: record.action,
+      subjectType: record.subjectType ?? null,
+      subjectId: record.subjectId ?? null,
+      data: record.data ?? {},
+    }));
+    await manager.query(
+      `INSERT INTO audit_outbox (chain, actor_id, actor_email, action, subject_type, subject_id, data)
+       SELECT e->>'chain', (e->>'actorId')::uuid, e->>'actorEmail', e->>'action', e->>'subjectType', e->>'subjectId', e->'data'
+       FROM jsonb_array_elements($1::jsonb) WITH ORDINALITY AS r(e, n) ORDER BY n`,
+      [JSON.stringify(rows)],
+    );
   }
 
   private async lockChain(manager: EntityManager, chain: string): Promise<void> {

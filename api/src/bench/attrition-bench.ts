@@ -8,6 +8,7 @@ import 'reflect-metadata';
 import { performance } from 'node:perf_hooks';
 import type { INestApplicationContext } from '@nestjs/common';
 import { NestFactory } from '@nestjs/core';
+import { exitCodeFor, formatVerdicts, judge } from './bench-targets';
 import { DataSource } from 'typeorm';
 import { AppModule } from '../app.module';
 import { AttritionService } from '../attrition/attrition.service';
@@ -219,6 +220,16 @@ async function main(): Promise<number> {
     console.log(
       `Growth 100k → 1M (${growth.enrollments}× the enrollments): count(*) ${growth.countStar.toFixed(2)}×, attrition report ${growth.report.toFixed(2)}×\n`,
     );
+    // Issue 17: the report within 3× count(*) at 100k and within 1× at 1M (times, so lower is better).
+    const verdicts = results.map(({ study, baseline, report }) =>
+      judge({
+        label: `attrition report ÷ count(*), ${study.size.toLocaleString('en')} enrollments`,
+        ratio: median(report) / median(baseline),
+        bound: 'at-most',
+        value: study.size >= 1_000_000 ? 1 : 3,
+      }),
+    );
+    console.log(`${formatVerdicts(verdicts)}\n`);
     console.log(
       JSON.stringify({
         benchmark: 'evenhand-attrition',
@@ -236,10 +247,11 @@ async function main(): Promise<number> {
           reportRoundsMs: report.map((ms) => Math.round(ms)),
         })),
         growth: { countStar: Math.round(growth.countStar * 100) / 100, report: Math.round(growth.report * 100) / 100 },
+        targetsMet: verdicts.every((v) => v.met),
         seconds: Math.round((Date.now() - started) / 100) / 10,
       }),
     );
-    return 0;
+    return exitCodeFor(verdicts);
   } finally {
     try {
       await app?.close();

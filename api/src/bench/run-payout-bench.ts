@@ -7,6 +7,7 @@
 import 'reflect-metadata';
 import type { INestApplication } from '@nestjs/common';
 import { NestFactory } from '@nestjs/core';
+import { exitCodeFor, formatVerdicts, judge } from './bench-targets';
 import { randomUUID } from 'node:crypto';
 import { performance } from 'node:perf_hooks';
 import type Stripe from 'stripe';
@@ -24,6 +25,9 @@ import { BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-
 import { BenchOwnDatabase } from './bench-own-database';
 import { formatTable, reportRow } from './bench-report';
 import { abortOnInterrupt, runConcurrently, runBenchmark } from './concurrent-runner';
+
+/** Issue 17: 10,000 payouts at no less than 0.7 × the provider's bare transfer creation, 0 doubles, 0 lost. */
+const PAYOUT_TARGET = 0.7;
 
 /** One US dollar a payout: the amount does not change the work, and the funding stays small. */
 const PAYOUT_MINOR = 100;
@@ -275,7 +279,8 @@ async function main(): Promise<number> {
         rows: [reportRow('bare transfers.create at the provider', [raw.perSecond]), reportRow('approve → job → transfer → paid', [paid.perSecond], [raw.perSecond])],
       }),
     );
-    console.log('');
+    const verdicts = [judge({ label: 'payouts ÷ bare transfer creation', ratio: paid.perSecond / raw.perSecond, bound: 'at-least', value: PAYOUT_TARGET })];
+    console.log(`\n${formatVerdicts(verdicts)}\n`);
     console.log(
       JSON.stringify({
         benchmark: 'payouts',
@@ -291,6 +296,7 @@ async function main(): Promise<number> {
         sendAttempts: paid.attempts,
         receiptsSentWhenLastPaid: receiptsWhenDone,
         ...once,
+        target: { atLeast: PAYOUT_TARGET, met: verdicts[0].met },
         seconds: Math.round((Date.now() - started) / 100) / 10,
       }),
     );
@@ -298,7 +304,7 @@ async function main(): Promise<number> {
       console.error(`[payout-bench] NOT exactly once: ${problems.join('; ')}`);
       return 1;
     }
-    return 0;
+    return exitCodeFor(verdicts);
   } finally {
     if (app) await app.close();
     await database.dropAndDisconnect();

@@ -1,34 +1,39 @@
 /**
  * `node dist/bench/run-signing-bench.js` (DATABASE_URL required): consent signings per second at 32 concurrent
- * clients, each a full `EnrollmentsService.sign` (lock, version check, allocation, signature, audit, signed-copy
- * job), against bare one-row INSERT transactions measured in the same run. Works in a throwaway database on that
- * server (see bench-own-database.ts) and removes it. See README.md beside this file.
+ * HTTP clients, each a full `POST /api/studies/:id/enrollments/me/signature` with a participant's session (session
+ * check, version check, allocation, signature, audit event, signed-copy job), against the bare-INSERT route served
+ * by the same Nest app (`POST /api/bench/bare-insert`, BEGIN + one INSERT + COMMIT), measured in the same run.
+ * Works in a throwaway database on that server (see bench-own-database.ts) and removes it. See README.md.
  */
 import 'reflect-metadata';
-import type { INestApplicationContext } from '@nestjs/common';
-import { NestFactory } from '@nestjs/core';
+import type { INestApplication } from '@nestjs/common';
+import { JwtService } from '@nestjs/jwt';
+import { randomUUID } from 'node:crypto';
+import { Agent, request } from 'node:http';
 import { DataSource } from 'typeorm';
 import type { PostgresDriver } from 'typeorm/driver/postgres/PostgresDriver';
-import { AppModule } from '../app.module';
-import type { SessionUser } from '../common/auth/session-user';
-import { EnrollmentsService } from '../enrollments/enrollments.service';
+import { newOpaqueToken } from '../auth/session-tokens';
+import { ACCESS_COOKIE, SessionUser } from '../common/auth/session-user';
 import { JOB_NAMES } from '../jobs/job-queue.service';
 import { RandomizationService } from '../randomization/randomization.service';
 import { activateBenchConsent } from './bench-consent';
+import { bootBenchHttpApp } from './bench-app';
 import { StepsService } from '../steps/steps.service';
 import { StudiesService } from '../studies/studies.service';
-import { BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
+import { DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
 import { BenchOwnDatabase } from './bench-own-database';
 import { formatTable, median, reportRow } from './bench-report';
+import { exitCodeFor, formatVerdicts, judge } from './bench-targets';
 import { BENCH_SCHEMES, PRETEST_CUT } from './bench-study';
 import { abortOnInterrupt, runConcurrently, runBenchmark } from './concurrent-runner';
 
 const CONNECTIONS = 32;
-const CLIENT = { ip: '127.0.0.1', userAgent: 'Evenhand signing benchmark' };
+/** Issue 17: signing at 32 concurrent clients reaches at least half the bare INSERT's rate, both over HTTP. */
+const SIGNING_TARGET = 0.5;
 interface SigningStudy {
   studyId: string;
   version: { versionId: string; fingerprint: string };
-  participants: SessionUser[];
+  participants: Array<SessionUser & { accessToken: string }>;
 }
 
 class SigningBench {
@@ -36,44 +41,67 @@ class SigningBench {
   private readonly studies: StudiesService;
   private readonly steps: StepsService;
   private readonly randomization: RandomizationService;
-  private readonly enrollments: EnrollmentsService;
+  private readonly jwt: JwtService;
+  /** Keep-alive connections, one per client, as 32 browsers would hold. */
+  private readonly http = new Agent({ keepAlive: true, maxSockets: CONNECTIONS });
   private researcher: SessionUser | null = null;
   private created = 0;
 
   constructor(
-    private readonly app: INestApplicationContext,
+    private readonly app: INestApplication,
+    private readonly baseUrls: string[],
     private readonly signal: AbortSignal,
   ) {
     this.dataSource = app.get(DataSource);
     this.studies = app.get(StudiesService);
     this.steps = app.get(StepsService);
     this.randomization = app.get(RandomizationService);
-    this.enrollments = app.get(EnrollmentsService);
+    this.jwt = app.get(JwtService);
   }
 
-  async createScratchTable(): Promise<void> {
-    await this.dataSource.query(`CREATE TABLE bench_scratch (id bigserial PRIMARY KEY, note text NOT NULL, at timestamptz NOT NULL DEFAULT now())`);
+  close(): void {
+    this.http.destroy();
   }
 
-  /** The same baseline as run-bench.ts: BEGIN, one INSERT, COMMIT, through the same pool and helper. */
+  /** POSTs JSON and returns the status; any other status than the expected one fails the run with the body. */
+  private async post(url: string, body: unknown, expected: number, cookie?: string): Promise<void> {
+    const payload = JSON.stringify(body);
+    const { status, text } = await new Promise<{ status: number; text: string }>((resolve, reject) => {
+      const call = request(
+        url,
+        { method: 'POST', agent: this.http, headers: { 'content-type': 'application/json', 'content-length': Buffer.byteLength(payload), ...(cookie ? { cookie } : {}) } },
+        (response) => {
+          const chunks: Buffer[] = [];
+          response.on('data', (chunk: Buffer) => chunks.push(chunk));
+          response.on('end', () => resolve({ status: response.statusCode ?? 0, text: Buffer.concat(chunks).toString('utf8') }));
+          response.on('error', reject);
+        },
+      );
+      call.on('error', reject);
+      call.end(payload);
+    });
+    if (status !== expected) throw new Error(`POST ${url} answered ${status}, expected ${expected}: ${text.slice(0, 300)}`);
+  }
+
+  /** The bare-INSERT route, by the same number of clients over the same HTTP stack. */
   baseline(n: number) {
-    return runConcurrently(
-      n,
-      CONNECTIONS,
-      (i) => this.dataSource.transaction((manager) => manager.query(`INSERT INTO bench_scratch (note) VALUES ($1)`, [`arrival ${i}`])),
-      this.signal,
-    );
+    return runConcurrently(n, CONNECTIONS, (i) => this.post(`${this.baseUrls[i % this.baseUrls.length]}/bench/bare-insert`, {}, 200), this.signal);
   }
 
-  /** A fresh recruiting study per round (set up outside the timing), then n people signing at once. */
+  /** A fresh recruiting study per round (set up outside the timing), then n people signing at once over HTTP. */
   async signings(n: number) {
     const study = await this.recruitingStudy(n);
     const sample = await runConcurrently(
       n,
       CONNECTIONS,
-      async (i) => {
-        const { created } = await this.enrollments.sign(study.participants[i], study.studyId, { ...study.version, typedName: `Bench Participant ${i + 1}` }, CLIENT);
-        if (!created) throw new Error(`participant ${i + 1} had already signed`);
+      (i) => {
+        const participant = study.participants[i];
+        return this.post(
+          `${this.baseUrls[i % this.baseUrls.length]}/studies/${study.studyId}/enrollments/me/signature`,
+          { ...study.version, typedName: `Bench Participant ${i + 1}` },
+          201,
+          `${ACCESS_COOKIE}=${participant.accessToken}`,
+        );
       },
       this.signal,
     );
@@ -95,6 +123,13 @@ class SigningBench {
     if (row.assigned !== n || row.signed !== n || row.sequences !== n || row.queued !== n) {
       throw new Error(`expected ${n} assigned, signed, allocated and queued, found ${JSON.stringify(row)}`);
     }
+    // Every signing audits its signature and its allocation, and the study's chain still verifies.
+    const [audit] = await this.dataSource.query(
+      `SELECT count(*) FILTER (WHERE action = 'consent.signed')::int AS signed, count(*) FILTER (WHERE action = 'assignment.allocated')::int AS allocated
+       FROM audit_event WHERE chain = $1`,
+      [study.studyId],
+    );
+    if (audit.signed !== n || audit.allocated !== n) throw new Error(`expected ${n} signing and ${n} allocation audit events, found ${JSON.stringify(audit)}`);
   }
 
   /** As the admin screens do it: conditions, a pretest factor, one step, stratified blocks, open, consent active. */
@@ -124,8 +159,8 @@ class SigningBench {
     return { studyId: study.id, version: { versionId: active.id, fingerprint: active.fingerprint }, participants: await this.screenedParticipants(study.id, n) };
   }
 
-  /** Participants who passed screening, written directly as the roster import does. */
-  private async screenedParticipants(studyId: string, count: number): Promise<SessionUser[]> {
+  /** Participants who passed screening, written directly as the roster import does, each with a live session. */
+  private async screenedParticipants(studyId: string, count: number): Promise<SigningStudy['participants']> {
     const rows: Array<{ id: string; email: string }> = await this.dataSource.query(
       `WITH arrival AS (
          SELECT g AS n, format('bench-sign-%s-%s@example.test', $1::text, g) AS email FROM generate_series(1, $2::int) g
@@ -139,7 +174,21 @@ class SigningBench {
        SELECT participant.id, participant.email FROM participant JOIN arrival USING (email) ORDER BY arrival.n`,
       [studyId, count],
     );
-    return rows.map((row) => ({ id: row.id, email: row.email, name: '', role: 'participant' }) as SessionUser);
+    const sessions = rows.map((row) => ({ userId: row.id, familyId: randomUUID(), hash: newOpaqueToken().hash }));
+    await this.dataSource.query(
+      `INSERT INTO refresh_token (user_id, family_id, token_hash, expires_at)
+       SELECT * , now() + interval '1 hour' FROM unnest($1::uuid[], $2::uuid[], $3::text[])`,
+      [sessions.map((s) => s.userId), sessions.map((s) => s.familyId), sessions.map((s) => s.hash)],
+    );
+    return Promise.all(
+      rows.map(async (row, i) => ({
+        id: row.id,
+        email: row.email,
+        name: '',
+        role: 'participant' as const,
+        accessToken: await this.jwt.signAsync({ sub: row.id, role: 'participant', sid: sessions[i].familyId }, { expiresIn: 3600 }),
+      })),
+    ) as Promise<SigningStudy['participants']>;
   }
 
   private async benchResearcher(): Promise<SessionUser> {
@@ -160,25 +209,23 @@ async function main(): Promise<number> {
   }
   const signings = wholeNumberSetting('BENCH_SIGNINGS', 600, 50, 20_000);
   const rounds = wholeNumberSetting('BENCH_ROUNDS', 3, 1, 20);
+  const port = wholeNumberSetting('BENCH_SIGNING_API_PORT', 0, 0, 65535);
   const log = (line: string) => console.log(`[signing-bench] ${line}`);
   const interrupted = abortOnInterrupt(log);
 
   const started = Date.now();
   const database = await BenchOwnDatabase.create(databaseUrl);
-  let app: INestApplicationContext | null = null;
+  let app: INestApplication | null = null;
+  let bench: SigningBench | null = null;
   try {
     log(`database ${database.name} created`);
     await database.migrate();
-    process.env.DATABASE_URL = database.url;
-    process.env.RUN_WORKERS = 'false';
-    app = await NestFactory.createApplicationContext(AppModule, { logger: ['error', 'warn'] });
+    const served = await bootBenchHttpApp(database.url, CONNECTIONS, port);
+    app = served.app;
+    log(`api serving on ${served.baseUrl}`);
     const dataSource = app.get(DataSource);
-    await dataSource.destroy();
-    dataSource.setOptions({ extra: { ...(dataSource.options.extra ?? {}), max: CONNECTIONS } });
-    await dataSource.initialize();
 
-    const bench = new SigningBench(app, interrupted);
-    await bench.createScratchTable();
+    bench = new SigningBench(app, [served.baseUrl], interrupted);
     const warmUp = Math.min(100, signings);
     await bench.baseline(warmUp);
     await bench.signings(warmUp);
@@ -190,39 +237,41 @@ async function main(): Promise<number> {
       baseline.push(base.perSecond);
       const sign = await bench.signings(signings);
       signed.push(sign.perSecond);
-      log(`round ${round}/${rounds}: baseline ${base.perSecond.toFixed(0)}/s, signing ${sign.perSecond.toFixed(0)}/s`);
+      log(`round ${round}/${rounds}: bare INSERT ${base.perSecond.toFixed(0)}/s, signing ${sign.perSecond.toFixed(0)}/s`);
     }
     const pool = (dataSource.driver as PostgresDriver).master as { totalCount: number; options: { max: number } };
-    if (pool.options.max !== CONNECTIONS || pool.totalCount !== CONNECTIONS) {
-      throw new Error(`the pool should hold ${CONNECTIONS} connections, but its limit is ${pool.options.max} and it opened ${pool.totalCount}`);
-    }
-    const rows = [reportRow('bare one-row INSERT transaction', baseline), reportRow('sign consent (stratified blocks, 2 strata)', signed, baseline)];
+    if (pool.options.max !== CONNECTIONS) throw new Error(`the pool should hold ${CONNECTIONS} connections, but its limit is ${pool.options.max}`);
+    const rows = [reportRow('POST /bench/bare-insert (BEGIN, INSERT, COMMIT)', baseline), reportRow('POST …/enrollments/me/signature (stratified blocks, 2 strata)', signed, baseline)];
     console.log('');
     console.log(
       formatTable({
-        title: `Signings at ${CONNECTIONS} concurrent clients (pool of ${pool.options.max}; ${signings} per round, ${rounds} round${rounds === 1 ? '' : 's'}, each one transaction)`,
+        title: `Signings over HTTP at ${CONNECTIONS} concurrent clients (pool of ${pool.options.max}, ${pool.totalCount} opened; ${signings} per round, ${rounds} round${rounds === 1 ? '' : 's'})`,
         unit: 'per s',
         ratioHeading: '÷ baseline',
         rows,
       }),
     );
-    console.log('');
+    const verdicts = [judge({ label: 'signing ÷ bare INSERT, both over HTTP', ratio: rows[1].ratio!, bound: 'at-least', value: SIGNING_TARGET })];
+    console.log(`\n${formatVerdicts(verdicts)}\n`);
     const rates = (list: number[]) => list.map((v) => Math.round(v));
     console.log(
       JSON.stringify({
         benchmark: 'signing',
+        over: 'http',
         connections: CONNECTIONS,
         signingsPerRound: signings,
         rounds,
         postgres: await database.serverVersion(),
         baselinePerSecond: { median: Math.round(median(baseline)), rounds: rates(baseline) },
         signingsPerSecond: { median: Math.round(median(signed)), ratio: Number(rows[1].ratio!.toFixed(4)), rounds: rates(signed) },
+        target: { atLeast: SIGNING_TARGET, met: verdicts[0].met },
         seconds: Math.round((Date.now() - started) / 100) / 10,
       }),
     );
-    return 0;
+    return exitCodeFor(verdicts);
   } finally {
     try {
+      bench?.close();
       await app?.close();
     } finally {
       await database.dropAndDisconnect();

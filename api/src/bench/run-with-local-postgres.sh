@@ -11,11 +11,13 @@ run_benchmarks() {
     return
   fi
   (cd "$ROOT/api" && npx tsc -p tsconfig.build.json) || return 1
-  local script
+  # Every script runs even when one misses its target; the status is the first non-zero one.
+  local script status=0
   for script in "$@"; do
     say "Benchmark: $script"
-    (cd "$ROOT/api" && node "dist/bench/$script") || return 1
+    (cd "$ROOT/api" && node "dist/bench/$script") || { local code=$?; [ "$status" -eq 0 ] && status=$code; }
   done
+  return "$status"
 }
 
 if [ -n "${DATABASE_URL:-}" ]; then

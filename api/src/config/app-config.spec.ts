@@ -33,4 +33,16 @@ describe('loadConfig', () => {
     });
     expect(config.secureCookies).toBe(true);
   });
+
+  it('refuses the benchmark routes in production and keeps them off by default', () => {
+    expect(loadConfig({}).benchRoutes).toBe(false);
+    expect(loadConfig({ BENCH_ROUTES: 'true' }).benchRoutes).toBe(true);
+    expect(() => loadConfig({ NODE_ENV: 'production', BENCH_ROUTES: 'true' })).toThrow(/BENCH_ROUTES: the benchmark routes may not be served in production/);
+  });
+
+  it('sizes the database pool from DATABASE_POOL_MAX', () => {
+    expect(loadConfig({}).databasePoolMax).toBe(20);
+    expect(loadConfig({ DATABASE_POOL_MAX: '32' }).databasePoolMax).toBe(32);
+    expect(() => loadConfig({ DATABASE_POOL_MAX: '0' })).toThrow(/DATABASE_POOL_MAX/);
+  });
 });

@@ -63,6 +63,13 @@ export class AppConfig {
   @MinLength(1)
   databaseUrl = 'postgres://postgres@127.0.0.1:55432/evenhand';
 
+  /** Connections this process keeps open to PostgreSQL (the job queue has its own few). */
+  @Transform(toInt)
+  @IsInt()
+  @Min(1)
+  @Max(500)
+  databasePoolMax = 20;
+
   @IsString()
   @MinLength(32)
   jwtSecret: string = DEVELOPMENT_SECRETS.jwtSecret;
@@ -241,6 +248,14 @@ export class AppConfig {
   @Transform(toBool)
   @IsBoolean()
   runWorkers = true;
+
+  /**
+   * Serves the benchmark's bare-INSERT route (`POST /api/bench/bare-insert`), the baseline signing is measured
+   * against over HTTP. Only the benchmark sets it; refused in production.
+   */
+  @Transform(toBool)
+  @IsBoolean()
+  benchRoutes = false;
 }
 
 const ENVIRONMENT_NAMES: Record<keyof AppConfig, string> = {
@@ -248,6 +263,7 @@ const ENVIRONMENT_NAMES: Record<keyof AppConfig, string> = {
   host: 'API_HOST',
   port: 'API_PORT',
   databaseUrl: 'DATABASE_URL',
+  databasePoolMax: 'DATABASE_POOL_MAX',
   jwtSecret: 'JWT_SECRET',
   accessTokenSeconds: 'ACCESS_TOKEN_SECONDS',
   refreshTokenSeconds: 'REFRESH_TOKEN_SECONDS',
@@ -277,6 +293,7 @@ const ENVIRONMENT_NAMES: Record<keyof AppConfig, string> = {
   payoutSweepCron: 'PAYOUT_SWEEP_CRON',
   payoutStuckAfterSeconds: 'PAYOUT_STUCK_AFTER_SECONDS',
   runWorkers: 'RUN_WORKERS',
+  benchRoutes: 'BENCH_ROUTES',
   returnLinkGraceDays: 'RETURN_LINK_GRACE_DAYS',
   returnLinkValidDays: 'RETURN_LINK_VALID_DAYS',
   reminderSweepCron: 'REMINDER_SWEEP_CRON',
@@ -308,6 +325,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
         problems.push(`${ENVIRONMENT_NAMES[key as keyof AppConfig]}: the development default may not be used in production`);
       }
     }
+    if (config.benchRoutes) problems.push('BENCH_ROUTES: the benchmark routes may not be served in production');
   }
   if (problems.length > 0) throw new Error(`Invalid configuration:\n  ${problems.join('\n  ')}`);
   return config;

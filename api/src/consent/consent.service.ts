@@ -346,13 +346,33 @@ export class ConsentService {
     };
   }
 
+  /**
+   * For signing, in one round trip: the active version's identity (shared-locked, so it cannot be replaced until
+   * the signing commits; its text is not loaded) and this enrollment's signature of it, if any.
+   */
+  async signingTerms(
+    manager: EntityManager,
+    studyId: string,
+    enrollmentId: string,
+  ): Promise<{ version: Pick<ConsentVersionEntity, 'id' | 'version' | 'fingerprint'>; existing: SignatureEntity | null } | null> {
+    const [row]: Array<{ id: string; version: number; fingerprint: string | null; signature_id: string | null }> = await manager.query(
+      `SELECT v.id, v.version, v.fingerprint, s.id AS signature_id
+       FROM consent_version v LEFT JOIN signature s ON s.consent_version_id = v.id AND s.enrollment_id = $2
+       WHERE v.study_id = $1 AND v.status = 'active' FOR SHARE OF v`,
+      [studyId, enrollmentId],
+    );
+    if (!row) return null;
+    const existing = row.signature_id ? await manager.findOne(SignatureEntity, { where: { id: row.signature_id } }) : null;
+    return { version: { id: row.id, version: row.version, fingerprint: row.fingerprint }, existing };
+  }
+
   async signatureFor(manager: EntityManager, enrollmentId: string, versionId: string): Promise<SignatureEntity | null> {
     return manager.findOne(SignatureEntity, { where: { enrollmentId, consentVersionId: versionId } });
   }
 
   async recordSignature(
     manager: EntityManager,
-    input: { enrollmentId: string; version: ConsentVersionEntity; typedName: string; mark: string | null; timeZone: string | null; ip: string | null; userAgent: string | null },
+    input: { enrollmentId: string; version: Pick<ConsentVersionEntity, 'id' | 'fingerprint'>; typedName: string; mark: string | null; timeZone: string | null; ip: string | null; userAgent: string | null },
   ): Promise<SignatureEntity> {
     return manager.save(
       manager.create(SignatureEntity, {

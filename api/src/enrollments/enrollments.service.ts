@@ -1,3 +1,4 @@
+import type { QueryDeepPartialEntity } from 'typeorm/query-builder/QueryPartialEntity';
 import { Injectable, OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { randomBytes } from 'node:crypto';
@@ -235,15 +236,15 @@ export class EnrollmentsService implements OnModuleInit {
   async sign(user: SessionUser, studyId: string, input: SignConsentDto, client: ClientInfo): Promise<{ created: boolean; result: SignatureResultDto }> {
     const { signature, created } = await this.dataSource.transaction(async (manager) => {
       const enrollment = await this.requireMine(manager, user, studyId, true);
-      const active = await this.consent.activeVersion(studyId, manager, true);
-      if (!active) throw new DomainException('CONFLICT', 'There is no active consent form to sign.');
+      const terms = await this.consent.signingTerms(manager, studyId, enrollment.id);
+      if (!terms) throw new DomainException('CONFLICT', 'There is no active consent form to sign.');
+      const active = terms.version;
       if (input.versionId !== active.id || input.fingerprint !== active.fingerprint) {
         throw new DomainException('CONFLICT', 'The consent form has changed since you opened it. Please read the current version.', undefined, {
           currentVersion: { versionId: active.id, version: active.version, fingerprint: active.fingerprint },
         });
       }
-      const existing = await this.consent.signatureFor(manager, enrollment.id, active.id);
-      if (existing) return { signature: existing, created: false };
+      if (terms.existing) return { signature: terms.existing, created: false };
       const firstConsent = ['screened', 'consented'].includes(enrollment.status);
       const reconsent = ['assigned', 'active'].includes(enrollment.status);
       if (!firstConsent && !reconsent) {
@@ -252,14 +253,17 @@ export class EnrollmentsService implements OnModuleInit {
           enrollment.status === 'invited' ? 'Please answer the screening questions first.' : 'Your participation is closed, so there is nothing to sign.',
         );
       }
-      const study = await this.studies.require(studyId, manager);
-      if (firstConsent && study.status !== 'recruiting') throw new DomainException('CONFLICT', 'This study is not taking new participants right now.');
+      if (firstConsent) {
+        const study = await this.studies.require(studyId, manager);
+        if (study.status !== 'recruiting') throw new DomainException('CONFLICT', 'This study is not taking new participants right now.');
+      }
 
       const now = new Date();
+      const changes: Partial<EnrollmentEntity> = { signedVersionId: active.id, reconsentRequestedAt: null };
       if (firstConsent) {
-        // The allocator takes its locks before this transaction writes any audit event (see its lock-order note).
+        // The allocator claims its slot before this transaction writes any audit event (see its lock-order note).
         const outcome = await this.randomization.allocate(manager, user, { studyId, enrollmentId: enrollment.id, covariates: enrollment.covariates });
-        Object.assign(enrollment, {
+        Object.assign(changes, {
           status: 'assigned',
           consentedAt: now,
           assignedAt: now,
@@ -277,9 +281,8 @@ export class EnrollmentsService implements OnModuleInit {
         ip: client.ip,
         userAgent: client.userAgent,
       });
-      enrollment.signedVersionId = active.id;
-      enrollment.reconsentRequestedAt = null;
-      await manager.save(enrollment);
+      // Only the columns signing changes, in one UPDATE (a save would read the row again first).
+      await manager.update(EnrollmentEntity, { id: enrollment.id }, changes as QueryDeepPartialEntity<EnrollmentEntity>);
       await this.audit.record(manager, {
         chain: studyId,
         actor: user,

@@ -131,3 +131,48 @@ describe('deriving and verifying the sequence', () => {
     }
   });
 });
+
+describe('slots claimed out of arrival order (concurrent signings skip each other’s claims)', () => {
+  /** The allocator under concurrency: each stratum's slots are still taken 1..k, but not in arrival order. */
+  function claimedOutOfOrder(parameters: SchemeParameters, people: ReturnType<typeof arrivals>): RecordedAllocation[] {
+    const inOrder = allocateFromSlots(parameters, people);
+    const positions = new Map<string, number>();
+    const withPositions = inOrder.map((allocation) => {
+      const key = slotStratumKey(parameters, allocation.covariates);
+      const position = (positions.get(key) ?? 0) + 1;
+      positions.set(key, position);
+      return { ...allocation, stratumKey: key, slotPosition: position };
+    });
+    // Swap neighbours' arrival order: the later arrival committed its claim first.
+    const shuffled = withPositions.slice();
+    for (let i = 0; i + 1 < shuffled.length; i += 2) [shuffled[i], shuffled[i + 1]] = [shuffled[i + 1], shuffled[i]];
+    return shuffled;
+  }
+
+  it.each(slotSchemes.map((p) => [p.method, p] as const))('%s: verify re-derives each allocation by its slot', (_, parameters) => {
+    const report = verifyAllocations(SEED, parameters, claimedOutOfOrder(parameters, arrivals(120)));
+    expect(report.mismatched).toBe(0);
+    expect(report.allMatch).toBe(true);
+    expect(report.slots?.every((s) => s.skipped.length === 0 && s.reused.length === 0)).toBe(true);
+  });
+
+  it('reports a slot taken twice, a slot skipped and a condition that is not its slot’s', () => {
+    const parameters = slotSchemes[2];
+    const recorded = claimedOutOfOrder(parameters, arrivals(60));
+    const key = recorded[0].stratumKey!;
+    const inStratum = recorded.filter((r) => r.stratumKey === key).sort((a, b) => a.slotPosition! - b.slotPosition!);
+    const highest = inStratum[inStratum.length - 1].slotPosition!;
+    const reusedRecord = { ...inStratum[1], participantId: 'p-twice' };
+    const altered = recorded.filter((r) => r !== inStratum[2]).concat(reusedRecord);
+    const report = verifyAllocations(SEED, parameters, altered);
+    const stratum = report.slots!.find((s) => s.stratumKey === key)!;
+    expect(stratum.reused).toEqual([2]);
+    expect(stratum.skipped).toEqual([3]);
+    expect(stratum.highest).toBe(highest);
+    expect(report.allMatch).toBe(false);
+
+    const other = recorded.map((r, i) => (i === 4 ? { ...r, conditionId: r.conditionId === 'audio' ? 'map' : 'audio' } : r));
+    const mismatch = verifyAllocations(SEED, parameters, other);
+    expect(mismatch.checks.filter((c) => !c.matches).map((c) => c.participantId)).toEqual([recorded[4].participantId]);
+  });
+});

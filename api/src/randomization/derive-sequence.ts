@@ -193,6 +193,20 @@ export function deriveSequence(
 export interface RecordedAllocation extends RecordedArrival {
   conditionId?: string | null;
   order?: readonly string[] | null;
+  /** Slot schemes: the stratum and position of the slot the allocation took; when given, verify goes by slot. */
+  stratumKey?: string;
+  slotPosition?: number | null;
+}
+
+/** Per stratum, how the taken slots line up: once settled, positions 1…highest each taken exactly once. */
+export interface StratumSlots {
+  stratumKey: string;
+  taken: number;
+  highest: number;
+  /** Positions below the highest taken that nobody holds (a claim rolled back after a later one was taken). */
+  skipped: number[];
+  /** Positions held by more than one allocation (never expected). */
+  reused: number[];
 }
 
 export interface AllocationCheck {
@@ -209,6 +223,8 @@ export interface VerificationReport {
   matched: number;
   mismatched: number;
   checks: AllocationCheck[];
+  /** Slot schemes verified by slot: the taken positions of each stratum. */
+  slots?: StratumSlots[];
 }
 
 function sameOrder(a: readonly string[] | null, b: readonly string[] | null): boolean {
@@ -216,12 +232,17 @@ function sameOrder(a: readonly string[] | null, b: readonly string[] | null): bo
   return a.length === b.length && a.every((c, i) => c === b[i]);
 }
 
-/** Re-derives the sequence and compares it with what was recorded, allocation by allocation. */
+/**
+ * Re-derives the sequence and compares it with what was recorded, allocation by allocation. Slot allocations that
+ * name their slot are checked by slot (see verifyBySlot); others by replaying arrivals in the order given.
+ */
 export function verifyAllocations(
   seed: string,
   parameters: SchemeParameters,
   recorded: readonly RecordedAllocation[],
 ): VerificationReport {
+  const checked = parseSchemeParameters(parameters);
+  if (usesSlots(checked) && recorded.length > 0 && recorded.every((r) => typeof r.slotPosition === 'number')) return verifyBySlot(seed, checked, recorded);
   const derived = deriveSequence(seed, parameters, recorded);
   const checks = derived.map((expected, i): AllocationCheck => {
     const recordedOrder = recorded[i].order;
@@ -238,4 +259,49 @@ export function verifyAllocations(
   });
   const matched = checks.filter((c) => c.matches).length;
   return { allMatch: matched === checks.length, matched, mismatched: checks.length - matched, checks };
+}
+
+/**
+ * Concurrent signings claim slots out of arrival order, so an allocation is checked against the slot it took:
+ * its stratum must be the one its covariates give, its condition (or order) the one the seed puts at that
+ * position; and each stratum's taken positions must be 1…highest, each once. Together these give back everything
+ * strict arrival order gave: every slot used once, no gaps once signings settle, and blocks balanced (every
+ * complete block of positions holds exactly the seed's block).
+ */
+function verifyBySlot(seed: string, parameters: SchemeParameters, recorded: readonly RecordedAllocation[]): VerificationReport {
+  const keys = recorded.map((r) => slotStratumKey(parameters, r.covariates ?? {}));
+  const highest = new Map<string, number>();
+  recorded.forEach((r, i) => {
+    const key = r.stratumKey ?? keys[i];
+    highest.set(key, Math.max(highest.get(key) ?? 0, r.slotPosition!));
+  });
+  const sequences = new Map<string, AllocationSlot[] | OrderSlot[]>();
+  for (const [key, count] of highest) sequences.set(key, slotsOf(seed, parameters, key, count));
+  const checks = recorded.map((r, i): AllocationCheck => {
+    const key = r.stratumKey ?? keys[i];
+    const slot = (sequences.get(key) as (AllocationSlot | OrderSlot)[])[r.slotPosition! - 1];
+    const expected = slot && 'order' in slot ? { conditionId: null, order: slot.order.slice() } : { conditionId: slot?.conditionId ?? null, order: null };
+    const actual = { conditionId: r.conditionId ?? null, order: r.order ? r.order.slice() : null };
+    const sameSlot = expected.order !== null ? sameOrder(expected.order, actual.order) : expected.conditionId === actual.conditionId;
+    return { arrivalPosition: i + 1, participantId: r.participantId, stratumKey: keys[i], expected, recorded: actual, matches: Boolean(slot) && key === keys[i] && sameSlot };
+  });
+  const slots: StratumSlots[] = [...highest.entries()]
+    .sort(([a], [b]) => a.localeCompare(b))
+    .map(([stratumKey, top]) => {
+      const holders = new Array<number>(top + 1).fill(0);
+      recorded.forEach((r, i) => {
+        if ((r.stratumKey ?? keys[i]) === stratumKey) holders[r.slotPosition!] += 1;
+      });
+      const positions = holders.map((_, position) => position).slice(1);
+      return {
+        stratumKey,
+        taken: positions.filter((p) => holders[p] > 0).length,
+        highest: top,
+        skipped: positions.filter((p) => holders[p] === 0),
+        reused: positions.filter((p) => holders[p] > 1),
+      };
+    });
+  const matched = checks.filter((c) => c.matches).length;
+  const settled = slots.every((s) => s.skipped.length === 0 && s.reused.length === 0);
+  return { allMatch: matched === checks.length && settled, matched, mismatched: checks.length - matched, checks, slots };
 }

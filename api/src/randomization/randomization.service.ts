@@ -41,6 +41,12 @@ export type AssignmentVerification = Omit<VerificationReport, 'checks'> & {
 /** Slots are generated ahead in batches of this many per stratum, deterministically from the seed. */
 const SLOT_BATCH = 64;
 
+interface SealedScheme {
+  parameters: SchemeParameters;
+  seed: string;
+  commitment: string;
+}
+
 export interface AllocationOutcome {
   conditionId: string | null;
   conditionOrder: string[] | null;
@@ -64,6 +70,8 @@ export interface AssignmentOverview {
 
 @Injectable()
 export class RandomizationService {
+  /** Sealed parameters and seed by study; see sealedScheme. */
+  private readonly sealedSchemes = new Map<string, SealedScheme>();
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly audit: AuditService,
@@ -231,26 +239,38 @@ export class RandomizationService {
   }
 
   /**
-   * Assigns one enrollment inside the caller's transaction. Takes a lock on the stratum (or, for minimization,
-   * on the study), then the next free slot, so two people signing at once never share a slot and none is skipped;
-   * if the caller's transaction rolls back, the slot is free again.
+   * Assigns one enrollment inside the caller's transaction.
+   * Slot schemes claim the lowest free slot of the stratum with FOR UPDATE SKIP LOCKED: no lock is waited on from
+   * the claim to the commit, so people signing at once each take a different slot, possibly out of arrival order
+   * (see "Slots claimed out of arrival order" in api/README.md for what still holds and what verify checks). If
+   * the caller's transaction rolls back, its slot is free again and the next claim in that stratum takes it first.
+   * Minimization looks at everyone assigned before, so it keeps one lock for the whole study.
    * Lock order: call this before writing the study's audit events in the same transaction.
    */
   async allocate(manager: EntityManager, actor: AuditActor, input: { studyId: string; enrollmentId: string; covariates: CovariateRecord }): Promise<AllocationOutcome> {
     if (!manager.queryRunner?.isTransactionActive) throw new Error('allocate() must run inside the caller’s transaction');
-    const existing = await manager.findOne(AllocationEntity, { where: { enrollmentId: input.enrollmentId } });
-    if (existing) return this.outcomeOf(existing, null);
-    const scheme = await this.schemeOf(input.studyId, manager);
-    if (!scheme?.sealedParameters || !scheme.commitment) {
-      throw new DomainException('CONFLICT', 'This study is not open for assignment yet.');
+    let sealed = await this.sealedScheme(manager, input.studyId);
+    let outcome: AllocationOutcome;
+    if (usesSlots(sealed.parameters)) {
+      let claim = await this.claimSlot(manager, sealed, input);
+      if (claim === 'stale') {
+        sealed = await this.sealedScheme(manager, input.studyId, true);
+        claim = await this.claimSlot(manager, sealed, input);
+      }
+      if (claim === 'stale') throw new DomainException('CONFLICT', 'This study is not open for assignment yet.');
+      if (claim === 'already') {
+        const existing = await manager.findOneOrFail(AllocationEntity, { where: { enrollmentId: input.enrollmentId } });
+        return this.outcomeOf(existing, null);
+      }
+      outcome = claim;
+    } else {
+      const existing = await manager.findOne(AllocationEntity, { where: { enrollmentId: input.enrollmentId } });
+      if (existing) return this.outcomeOf(existing, null);
+      outcome =
+        sealed.parameters.method === 'minimization'
+          ? await this.minimize(manager, sealed.seed, sealed.parameters, input)
+          : await this.takeReservedSlot(manager, input);
     }
-    const parameters = parseSchemeParameters(scheme.sealedParameters);
-    const seed = await this.sealedSeed(manager, input.studyId);
-    const outcome = usesSlots(parameters)
-      ? await this.takeSlot(manager, seed, parameters, input)
-      : parameters.method === 'minimization'
-        ? await this.minimize(manager, seed, parameters, input)
-        : await this.takeReservedSlot(manager, input);
     await this.audit.record(manager, {
       chain: input.studyId,
       actor,
@@ -262,48 +282,92 @@ export class RandomizationService {
     return outcome;
   }
 
-  private async takeSlot(
-    manager: EntityManager,
-    seed: string,
-    parameters: SchemeParameters,
-    input: { studyId: string; enrollmentId: string; covariates: CovariateRecord },
-  ): Promise<AllocationOutcome> {
-    const stratumKey = slotStratumKey(parameters, input.covariates);
-    await manager.query(`SELECT pg_advisory_xact_lock(hashtextextended($1, 0))`, [`allocation:${input.studyId}:${stratumKey}`]);
-    let slot = await this.nextFreeSlot(manager, input.studyId, stratumKey);
-    if (!slot) {
-      await this.generateMoreSlots(manager, seed, parameters, input.studyId, stratumKey);
-      slot = await this.nextFreeSlot(manager, input.studyId, stratumKey);
+  /**
+   * A study's sealed parameters and seed. Kept in memory per study: both are bound by the commitment, which every
+   * slot claim re-checks in the same statement (a changed commitment makes the claim answer 'stale' and this is
+   * read again), so the cache can never hand out a slot under parameters that are no longer sealed.
+   */
+  private async sealedScheme(manager: EntityManager, studyId: string, reload = false): Promise<SealedScheme> {
+    const cached = reload ? undefined : this.sealedSchemes.get(studyId);
+    if (cached) return cached;
+    const [row]: Array<{ sealed_parameters: Record<string, unknown> | null; seed: string | null; commitment: string | null }> = await manager.query(
+      `SELECT sealed_parameters, seed, commitment FROM assignment_scheme WHERE study_id = $1`,
+      [studyId],
+    );
+    if (!row?.sealed_parameters || !row.commitment || !row.seed) {
+      this.sealedSchemes.delete(studyId);
+      throw new DomainException('CONFLICT', 'This study is not open for assignment yet.');
     }
-    if (!slot) throw new Error(`no slot could be generated for stratum ${stratumKey}`);
-    await manager.update(AllocationSlotEntity, { id: slot.id }, { takenBy: input.enrollmentId, takenAt: new Date() });
-    const [{ nextval }] = await manager.query(`SELECT nextval('allocation_sequence') AS nextval`);
-    const allocation = await this.record(manager, {
-      studyId: input.studyId,
-      enrollmentId: input.enrollmentId,
-      sequence: Number(nextval),
-      stratumKey,
-      covariates: input.covariates,
-      levels: {},
-      slotId: slot.id,
-      conditionId: slot.conditionId,
-      conditionOrder: slot.conditionOrder,
-    });
-    return this.outcomeOf(allocation, slot.position);
+    const sealed = { parameters: parseSchemeParameters(row.sealed_parameters), seed: row.seed, commitment: row.commitment };
+    if (this.sealedSchemes.size >= 1000) this.sealedSchemes.delete(this.sealedSchemes.keys().next().value!);
+    this.sealedSchemes.set(studyId, sealed);
+    return sealed;
   }
 
-  private nextFreeSlot(manager: EntityManager, studyId: string, stratumKey: string) {
-    return manager
-      .createQueryBuilder(AllocationSlotEntity, 'slot')
-      .where('slot.study_id = :studyId AND slot.stratum_key = :stratumKey AND slot.taken_by IS NULL AND slot.reserved_for IS NULL', {
-        studyId,
-        stratumKey,
-      })
-      .orderBy('slot.position', 'ASC')
-      .limit(1)
-      .getOne();
+  /**
+   * One statement: skip slots other transactions are claiming, take the lowest free one, record the allocation.
+   * Only when the stratum has no free slot left are more generated (under the stratum's lock, rare: once per
+   * SLOT_BATCH claims) and the claim tried again.
+   */
+  private async claimSlot(
+    manager: EntityManager,
+    sealed: SealedScheme,
+    input: { studyId: string; enrollmentId: string; covariates: CovariateRecord },
+  ): Promise<AllocationOutcome | 'stale' | 'already'> {
+    const stratumKey = slotStratumKey(sealed.parameters, input.covariates);
+    const first = await this.claimStatement(manager, sealed, stratumKey, input);
+    if (first !== 'none') return first;
+    // Every free slot is taken or being claimed: under the stratum's lock, try once more (another transaction may
+    // have just generated a batch), else generate the next batch here and claim from it.
+    await manager.query(`SELECT pg_advisory_xact_lock(hashtextextended($1, 0))`, [`allocation:${input.studyId}:${stratumKey}`]);
+    const second = await this.claimStatement(manager, sealed, stratumKey, input);
+    if (second !== 'none') return second;
+    await this.generateMoreSlots(manager, sealed.seed, sealed.parameters, input.studyId, stratumKey);
+    const third = await this.claimStatement(manager, sealed, stratumKey, input);
+    if (third === 'none') throw new Error(`no slot could be claimed in stratum ${stratumKey}`);
+    return third;
   }
 
+  private async claimStatement(
+    manager: EntityManager,
+    sealed: SealedScheme,
+    stratumKey: string,
+    input: { studyId: string; enrollmentId: string; covariates: CovariateRecord },
+  ): Promise<AllocationOutcome | 'stale' | 'already' | 'none'> {
+    const [row]: Array<{ current: boolean; already: boolean; sequence: number | null; position: number | null; condition_id: string | null; condition_order: string[] | null }> =
+      await manager.query(
+        `WITH scheme AS (
+           SELECT 1 FROM assignment_scheme WHERE study_id = $1 AND commitment = $5
+         ), earlier AS (
+           SELECT 1 FROM allocation WHERE enrollment_id = $3
+         ), free AS (
+           SELECT id FROM allocation_slot
+           WHERE study_id = $1 AND stratum_key = $2 AND taken_by IS NULL AND reserved_for IS NULL
+             AND EXISTS (SELECT 1 FROM scheme) AND NOT EXISTS (SELECT 1 FROM earlier)
+           ORDER BY position LIMIT 1 FOR UPDATE SKIP LOCKED
+         ), claimed AS (
+           UPDATE allocation_slot slot SET taken_by = $3, taken_at = now() FROM free WHERE slot.id = free.id
+           RETURNING slot.id, slot.position, slot.condition_id, slot.condition_order
+         ), inserted AS (
+           INSERT INTO allocation (study_id, enrollment_id, sequence, stratum_key, covariates, levels, slot_id, condition_id, condition_order)
+           SELECT $1, $3, nextval('allocation_sequence'), $2, $4::jsonb, '{}'::jsonb, claimed.id, claimed.condition_id, claimed.condition_order FROM claimed
+           RETURNING sequence, slot_id
+         )
+         SELECT EXISTS (SELECT 1 FROM scheme) AS current, EXISTS (SELECT 1 FROM earlier) AS already,
+                inserted.sequence, claimed.position, claimed.condition_id, claimed.condition_order
+         FROM (SELECT 1) one LEFT JOIN inserted ON true LEFT JOIN claimed ON claimed.id = inserted.slot_id`,
+        [input.studyId, stratumKey, input.enrollmentId, JSON.stringify(input.covariates ?? {}), sealed.commitment],
+      );
+    if (!row.current) return 'stale';
+    if (row.already) return 'already';
+    if (row.sequence === null) return 'none';
+    return { conditionId: row.condition_id, conditionOrder: row.condition_order, stratumKey, sequence: Number(row.sequence), slotPosition: Number(row.position) };
+  }
+
+  /**
+   * Generates the stratum's next batch of slots; the caller holds the stratum's lock (to its commit, which only
+   * happens at a batch boundary), so the others that ran out wait and then find the new slots.
+   */
   private async generateMoreSlots(manager: EntityManager, seed: string, parameters: SchemeParameters, studyId: string, stratumKey: string) {
     const [{ n }] = await manager.query(`SELECT count(*) AS n FROM allocation_slot WHERE study_id = $1 AND stratum_key = $2`, [studyId, stratumKey]);
     const existing = Number(n);
@@ -503,11 +567,18 @@ export class RandomizationService {
     const parameters = parseSchemeParameters(scheme.sealedParameters);
     if (parameters.method === 'matched-pairs') return { ...(await this.verifyPairs(studyId, seed, parameters, scheme)), seed, commitment: scheme.commitment };
     const allocations = await this.dataSource.getRepository(AllocationEntity).find({ where: { studyId }, order: { sequence: 'ASC' } });
+    // Slot schemes are verified by the slot each allocation took (claims may be out of arrival order).
+    const positions = new Map<string, number>();
+    if (usesSlots(parameters)) {
+      const rows: Array<{ id: string; position: number }> = await this.dataSource.query(`SELECT id, position FROM allocation_slot WHERE study_id = $1 AND taken_by IS NOT NULL`, [studyId]);
+      for (const row of rows) positions.set(row.id, row.position);
+    }
     const recorded: RecordedAllocation[] = allocations.map((a) => ({
       participantId: a.enrollmentId,
       covariates: a.covariates,
       conditionId: isWithinDesign(parameters) ? null : a.conditionId,
       order: a.conditionOrder,
+      ...(a.slotId && positions.has(a.slotId) ? { stratumKey: a.stratumKey, slotPosition: positions.get(a.slotId)! } : {}),
     }));
     const report = verifyAllocations(seed, parameters, recorded);
     return { ...report, commitmentMatches: computeCommitment(seed, parameters) === scheme.commitment, seed, commitment: scheme.commitment };

@@ -2237,6 +2237,17 @@ export interface components {
                 [key: string]: unknown;
             } | null;
         };
+        StratumSlotsDto: {
+            stratumKey: string;
+            /** @description positions taken */
+            taken: number;
+            /** @description highest position taken */
+            highest: number;
+            /** @description positions below the highest that nobody holds */
+            skipped: number[];
+            /** @description positions held by more than one allocation */
+            reused: number[];
+        };
         VerificationDto: {
             allMatch: boolean;
             commitmentMatches: boolean;
@@ -2247,6 +2258,8 @@ export interface components {
             checks: components["schemas"]["AllocationCheckDto"][];
             /** @description enrollments whose recorded condition differs from their allocation */
             enrollmentMismatches: components["schemas"]["EnrollmentMismatchDto"][];
+            /** @description slot schemes: each stratum’s taken positions (verified by slot, since concurrent signings may claim out of arrival order) */
+            slots?: components["schemas"]["StratumSlotsDto"][];
         };
         ConsentTemplateDto: {
             id: string;

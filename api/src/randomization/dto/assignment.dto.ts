@@ -156,6 +156,14 @@ export class EnrollmentMismatchDto {
   @ApiProperty({ type: 'object', additionalProperties: true, nullable: true }) expected: Record<string, unknown> | null;
 }
 
+export class StratumSlotsDto {
+  @ApiProperty() stratumKey: string;
+  @ApiProperty({ description: 'positions taken' }) taken: number;
+  @ApiProperty({ description: 'highest position taken' }) highest: number;
+  @ApiProperty({ type: [Number], description: 'positions below the highest that nobody holds' }) skipped: number[];
+  @ApiProperty({ type: [Number], description: 'positions held by more than one allocation' }) reused: number[];
+}
+
 export class VerificationDto {
   @ApiProperty() allMatch: boolean;
   @ApiProperty() commitmentMatches: boolean;
@@ -166,4 +174,9 @@ export class VerificationDto {
   @ApiProperty({ type: [AllocationCheckDto] }) checks: AllocationCheckDto[];
   @ApiProperty({ type: [EnrollmentMismatchDto], description: 'enrollments whose recorded condition differs from their allocation' })
   enrollmentMismatches: EnrollmentMismatchDto[];
+  @ApiPropertyOptional({
+    type: [StratumSlotsDto],
+    description: 'slot schemes: each stratum’s taken positions (verified by slot, since concurrent signings may claim out of arrival order)',
+  })
+  slots?: StratumSlotsDto[];
 }
