@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seriousAccessibilityProblems } from './support/accessibility';
 import { adminUrl, openBrowser, screenshot, screenshotAtBothWidths, signIn, type BrowserSession } from './support/browser';
@@ -52,6 +53,15 @@ describe('dropout watch', () => {
     expect(svgFile.suggestedFilename()).toMatch(/^participant-flow-[0-9a-f-]{36}\.svg$/);
     const [pngFile] = await Promise.all([page.waitForEvent('download'), flow.getByRole('button', { name: 'Download diagram (PNG)' }).click()]);
     expect(pngFile.suggestedFilename()).toMatch(/\.png$/);
+    // The files themselves: a standalone SVG with the counts, and a real PNG drawn on a canvas in the browser.
+    const svgText = readFileSync(await svgFile.path()).toString('utf8');
+    expect(svgText).toMatch(/^<svg[^>]+xmlns="http:\/\/www\.w3\.org\/2000\/svg"/);
+    expect(svgText).toMatch(/>Randomized \(n = \d+\)</);
+    expect(svgText.match(/>Analysed, intention to treat</g)).toHaveLength(3);
+    expect(svgText).not.toMatch(/var\(--/);
+    const png = readFileSync(await pngFile.path());
+    expect(png.subarray(0, 8).toString('hex')).toBe('89504e470d0a1a0a');
+    expect(png.readUInt32BE(16)).toBeGreaterThan(1000); // width in pixels, drawn at twice the diagram's size
     await screenshotAtBothWidths(page, journey, 'flow');
     const conditions = page.getByRole('region', { name: 'By condition' });
     expect(await conditions.getByText(/People still active/).isVisible()).toBe(true);
