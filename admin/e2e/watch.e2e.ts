@@ -1,3 +1,4 @@
+import { readFileSync } from 'node:fs';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seriousAccessibilityProblems } from './support/accessibility';
 import { adminUrl, openBrowser, screenshot, screenshotAtBothWidths, signIn, type BrowserSession } from './support/browser';
@@ -52,9 +53,22 @@ describe('dropout watch', () => {
     expect(svgFile.suggestedFilename()).toMatch(/^participant-flow-[0-9a-f-]{36}\.svg$/);
     const [pngFile] = await Promise.all([page.waitForEvent('download'), flow.getByRole('button', { name: 'Download diagram (PNG)' }).click()]);
     expect(pngFile.suggestedFilename()).toMatch(/\.png$/);
+    // The files themselves: a standalone SVG with the counts, and a real PNG drawn on a canvas in the browser.
+    const svgText = readFileSync(await svgFile.path()).toString('utf8');
+    expect(svgText).toMatch(/^<svg[^>]+xmlns="http:\/\/www\.w3\.org\/2000\/svg"/);
+    expect(svgText).toMatch(/>Randomized \(n = \d+\)</);
+    expect(svgText.match(/>Analysed, intention to treat</g)).toHaveLength(3);
+    expect(svgText).not.toMatch(/var\(--/);
+    const png = readFileSync(await pngFile.path());
+    expect(png.subarray(0, 8).toString('hex')).toBe('89504e470d0a1a0a');
+    expect(png.readUInt32BE(16)).toBeGreaterThan(1000); // width in pixels, drawn at twice the diagram's size
     await screenshotAtBothWidths(page, journey, 'flow');
     const conditions = page.getByRole('region', { name: 'By condition' });
     expect(await conditions.getByText(/People still active/).isVisible()).toBe(true);
+    // Cumulative dropout by the planned study length (the demo's steps all have due dates), beside the window-ended rate.
+    expect(await conditions.getByRole('columnheader', { name: /^Cumulative dropout by day \d+ \(Kaplan–Meier\)$/ }).isVisible()).toBe(true);
+    await expect.poll(() => conditions.getByTestId('planned-length-cell').count()).toBe(3);
+    expect(await page.getByTestId('planned-length').textContent()).toMatch(/the planned study length/);
 
     // The curves: one step line per condition and the log-rank line.
     const curves = page.getByRole('region', { name: 'Dropout over time' });
@@ -66,8 +80,29 @@ describe('dropout watch', () => {
       /Log-rank test across conditions: χ²\(2\) = \d+\.\d\d, p [=<>]|Few dropouts: the log-rank test is judged by a permutation test/,
     );
     expect(await page.getByTestId('median-dropout').textContent()).toMatch(/^Median time to dropout: Condition A /);
+    // Cox hazard ratios of B and C against A, with their intervals or why they cannot be estimated, and the ties method.
+    const hazards = page.getByTestId('hazard-ratios');
+    await expect.poll(() => hazards.getByRole('listitem').count()).toBe(2);
+    expect(await hazards.getByRole('listitem').first().textContent()).toMatch(/^B vs A: (hazard ratio \d+\.\d\d \(95% CI \d+\.\d\d–\d+\.\d\d\)|not estimable)/);
+    expect(await hazards.textContent()).toMatch(/tied dropout times use Efron's method/);
     expect(await page.getByRole('link', { name: 'Download data (CSV)' }).getAttribute('href')).toMatch(/\/api\/studies\/[0-9a-f-]{36}\/export\.csv$/);
-    await screenshot(page, journey, 'curves');
+    await screenshotAtBothWidths(page, journey, 'curves');
+
+    // Within the randomization strata: the strata named, both stratified tests.
+    const strata = page.getByRole('region', { name: 'Within randomization strata' });
+    await strata.scrollIntoViewIfNeeded();
+    expect(await strata.getByRole('list', { name: 'Randomization strata' }).getByRole('listitem').count()).toBeGreaterThan(1);
+    const stratified = (await strata.getByTestId('stratified-tests').textContent()) ?? '';
+    expect(stratified).toMatch(/Cochran–Mantel–Haenszel test of dropout by condition within strata: (χ²\(2\) = \d+\.\d\d|not computable)/);
+    expect(stratified).toMatch(/Stratified log-rank test of time to dropout within strata: (χ²\(2\) = \d+\.\d\d|not computable)/);
+    expect(await strata.getByText(/Screening aids, not the study's analysis/).isVisible()).toBe(true);
+    await screenshotAtBothWidths(page, journey, 'strata');
+
+    // Pay: each condition against A with its Welch t interval.
+    const pay = page.getByRole('region', { name: 'Pay by condition' });
+    await pay.scrollIntoViewIfNeeded();
+    expect(await pay.getByRole('list', { name: 'Differences per randomized' }).getByRole('listitem').first().textContent()).toMatch(/^B minus A: .+ \((95% CI .+ Welch t on \d+\.\d df|no interval: .+)\)\.$/);
+    await screenshotAtBothWidths(page, journey, 'pay');
 
     const balance = page.getByRole('region', { name: 'Covariate balance' });
     await balance.scrollIntoViewIfNeeded();

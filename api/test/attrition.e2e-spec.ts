@@ -219,6 +219,53 @@ describe('dropout watch of a study with a known history', () => {
     expect(report.cautions.join(' ')).toMatch(/screening aids/);
   });
 
+  it('tests dropout within the randomization strata (pretest bands), by hand', () => {
+    // Strata pretest:0 and pretest:1, five per condition each. Dropped: A 1 of 5 in both; B 3 of 5 in both.
+    expect(report.stratified).toMatchObject({ strata: ['pretest:0', 'pretest:1'], stratified: true });
+    // Cochran–Mantel–Haenszel by hand (Mantel & Haenszel 1959): per stratum E a = 5·4/10 = 2, a = 1, Var a = 5·5·4·6 / (10²·9) = 2/3;
+    // X² = (−2)² / (4/3) = 3 on 1 df.
+    expect(report.stratified.cmh).toMatchObject({ method: 'cochran-mantel-haenszel', df: 1, strataUsed: 2 });
+    expect(report.stratified.cmh.statistic).toBeCloseTo(3, 10);
+    expect(report.stratified.cmh.pValue).toBeCloseTo(1 - jStat.chisquare.cdf(3, 1), 10);
+    // Stratified log-rank by hand, each stratum with its own risk sets. pretest:0 — day 1 (B), 10 at risk, E_A = 1/2,
+    // V = 1/4; day 2 (A), 9, E_A = 5/9, V = 20/81; day 3 (B), 8, 1/2, 1/4; day 4 (B), 7, 4/7, 12/49. pretest:1 — day 1
+    // (two in B), 10, E_A = 1, V = 2·(8/9)·(1/4); day 3 (B), 8, 5/8, 15/64; day 5 (A), 7, 5/7, 10/49. O_A = 2.
+    const expectedA = 1 / 2 + 5 / 9 + 1 / 2 + 4 / 7 + 1 + 5 / 8 + 5 / 7;
+    const variance = 1 / 4 + 20 / 81 + 1 / 4 + 12 / 49 + (2 * 8) / 9 / 4 + 15 / 64 + 10 / 49;
+    expect(report.stratified.logRank.groups.map((g: any) => g.observed)).toEqual([2, 6]);
+    expect(report.stratified.logRank.groups[0].expected).toBeCloseTo(expectedA, 10);
+    expect(report.stratified.logRank.statistic).toBeCloseTo((2 - expectedA) ** 2 / variance, 10);
+  });
+
+  it('gives the hazard ratio of B against A (Efron ties) and Welch intervals for the pay differences', () => {
+    const cox = report.survival.cox;
+    expect(cox).toMatchObject({ method: 'cox-proportional-hazards', ties: 'efron', comparisonConditionId: audio, converged: true });
+    const [ratio] = cox.hazardRatios;
+    expect(ratio.conditionId).toBe(map);
+    // B loses people faster: hazard ratio above 1, its Wald interval around it on the log scale.
+    expect(ratio.hazardRatio).toBeGreaterThan(1);
+    expect(Math.log(ratio.hazardRatio)).toBeCloseTo((Math.log(ratio.lower) + Math.log(ratio.upper)) / 2, 10);
+    expect(Math.log(ratio.upper) - Math.log(ratio.hazardRatio)).toBeCloseTo(jStat.normal.inv(0.975, 0, 1) * ratio.standardError, 10);
+    // Paid per randomized, B − A = 550 − 950 = −400, SE = √(46944.44 + 52500) (Welch 1947), df 17.944; t quantile from jStat.
+    const [difference] = report.payParity.paid.perRandomized.differences;
+    expect(difference).toMatchObject({ conditionId: map, comparisonConditionId: audio, method: 'welch-t', difference: -400 });
+    const se = Math.sqrt(469444.444444 / 10 + 525000 / 10);
+    const t = (jStat as unknown as { studentt: { inv(p: number, df: number): number } }).studentt.inv(0.975, difference.df);
+    expect(difference.df).toBeCloseTo(17.944, 3);
+    expect(difference.lower).toBeCloseTo(-400 - t * se, 3);
+    expect(difference.upper).toBeCloseTo(-400 + t * se, 3);
+  });
+
+  it('reads cumulative dropout at the planned study length off the curves once every step has a due date', async () => {
+    // Without due dates the schedule sets no end.
+    expect(report.survival.plannedLength).toMatchObject({ days: null, unknown: 'a-step-has-no-due-date' });
+    await testApp.dataSource.query(`UPDATE step SET opens_from = 'assignment', opens_after_days = 0, due_within_days = 8 WHERE study_id = $1`, [studyId]);
+    const planned = (await expectStatus(researcher.get(`/api/studies/${studyId}/attrition`), 200)).survival.plannedLength;
+    // Kaplan–Meier at day 8: A 0.8, B 0.4 (the curves above), so 20 % and 60 % dropped out by then.
+    expect(planned.days).toBe(8);
+    expect(planned.conditions.map((c: any) => c.cumulative.cumulative)).toEqual([expect.closeTo(0.2, 12), expect.closeTo(0.6, 12)]);
+  });
+
   it('compares against the condition the researcher picks, and names a bad pick', async () => {
     const picked = await expectStatus(researcher.get(`/api/studies/${studyId}/attrition`).query({ comparisonConditionId: map }), 200);
     expect(picked.wwc.pairs.map((p: any) => [p.conditionId, p.comparisonConditionId])).toEqual([[audio, map]]);

@@ -66,6 +66,8 @@ describe('toReportInput', () => {
         { arm: 'b', key: 'device', kind: 'string', category: 'phone', n: 2, sum: null, squares: null, completer_n: 1, completer_sum: null, completer_squares: null },
         { arm: 'b', key: 'glasses', kind: 'boolean', category: 'false', n: 2, sum: null, squares: null, completer_n: 1, completer_sum: null, completer_squares: null },
       ],
+      strata: [],
+      steps: [{ opens_after_days: 0, opens_from: 'assignment', due_within_days: 7 }],
       payOverrideRecorded: false,
     };
     const { report, earned } = toReportInput(aggregates, arms, { studyClosed: false, currency: 'EUR' });
@@ -80,5 +82,7 @@ describe('toReportInput', () => {
     expect(earned.conditions[1].perRandomized).toEqual({ n: 2, sum: 2000, sumOfSquares: 2_500_000 });
     const built = buildAttritionReport(report);
     expect(built.payParity.conditions.map((c) => c.perRandomized.mean)).toEqual([1500, 750]);
+    expect(built.survival.plannedLength.days).toBe(7);
+    expect(built.stratified).toMatchObject({ stratified: false, cmh: null, logRank: null });
   });
 });

@@ -3,6 +3,7 @@ import type { AttritionAggregates, CovariateRow, FlowRow } from './attrition-sql
 import type { ConditionStatusCounts } from './condition-counts';
 import type { BinaryCount, CovariateInput } from './covariate-balance';
 import type { PayParityInput } from './pay-parity';
+import { plannedStudyLength } from './planned-length';
 import type { Moments } from './sufficient-statistics';
 
 /** One arm of the report: a condition, or in a within-subjects study one order of conditions. */
@@ -121,6 +122,20 @@ function covariateInputs(rows: readonly CovariateRow[], arms: readonly ReportArm
   return inputs;
 }
 
+/** Follow-up per stratum and arm (arms nobody in a stratum is in get no counts there). */
+function stratumInputs(aggregates: AttritionAggregates, arms: readonly ReportArm[]): NonNullable<AttritionReportInput['strata']> {
+  const armIds = new Set(arms.map((arm) => arm.id));
+  const groups = new Map<string, { stratum: string | null; conditionId: string; counts: { time: number; dropped: number; censored: number }[] }>();
+  for (const row of aggregates.strata) {
+    if (!armIds.has(row.arm)) continue;
+    const key = JSON.stringify([row.stratum, row.arm]);
+    const group = groups.get(key) ?? { stratum: row.stratum, conditionId: row.arm, counts: [] };
+    group.counts.push({ time: row.day, dropped: row.dropped, censored: row.censored });
+    groups.set(key, group);
+  }
+  return [...groups.values()];
+}
+
 /** The inputs of buildAttritionReport (paid amounts) and of payParity for earned amounts, from the SQL aggregates. */
 export function toReportInput(
   aggregates: AttritionAggregates,
@@ -139,6 +154,10 @@ export function toReportInput(
       })),
       pay: payInput(aggregates, arms, options.currency, 'paid'),
       covariates: covariateInputs(aggregates.covariates, arms),
+      strata: stratumInputs(aggregates, arms),
+      plannedLength: plannedStudyLength(
+        aggregates.steps.map((step) => ({ opensAfterDays: step.opens_after_days, opensFrom: step.opens_from, dueWithinDays: step.due_within_days })),
+      ),
     },
     earned: payInput(aggregates, arms, options.currency, 'earned'),
   };

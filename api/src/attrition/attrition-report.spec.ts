@@ -148,3 +148,42 @@ describe('buildAttritionReport', () => {
     expect(three.payParity.perRandomized.test.df1).toBe(2);
   });
 });
+
+describe('buildAttritionReport: stratified tests, hazard ratio and the planned length', () => {
+  // The same study split by a randomization stratum; the split adds up to the pooled counts above.
+  const strata: AttritionReportInput['strata'] = [
+    { stratum: 'age=<30', conditionId: 'map-only', counts: [{ time: 1, dropped: 4, censored: 0 }, { time: 3, dropped: 5, censored: 1 }, { time: 7, dropped: 2, censored: 13 }] },
+    { stratum: 'age=≥30', conditionId: 'map-only', counts: [{ time: 1, dropped: 2, censored: 0 }, { time: 3, dropped: 3, censored: 1 }, { time: 7, dropped: 4, censored: 15 }] },
+    { stratum: 'age=<30', conditionId: 'landmarks', counts: [{ time: 2, dropped: 1, censored: 0 }, { time: 5, dropped: 2, censored: 1 }, { time: 7, dropped: 1, censored: 20 }] },
+    { stratum: 'age=≥30', conditionId: 'landmarks', counts: [{ time: 2, dropped: 1, censored: 0 }, { time: 5, dropped: 1, censored: 2 }, { time: 7, dropped: 1, censored: 20 }] },
+  ];
+
+  it('names the strata and runs both stratified tests on the same people as the pooled ones', () => {
+    const report = buildAttritionReport({ ...studyInput(), strata });
+    expect(report.stratified.strata).toEqual(['age=<30', 'age=≥30']);
+    expect(report.stratified.stratified).toBe(true);
+    expect(report.stratified.cmh).toMatchObject({ method: 'cochran-mantel-haenszel', df: 1, strataUsed: 2 });
+    expect(report.stratified.logRank?.groups.map((g) => g.observed)).toEqual([7, 20]);
+    expect(report.stratified.logRank?.pValue as number).toBeLessThan(0.05);
+  });
+
+  it('says there is nothing to stratify by with one stratum, and refuses strata that do not add up', () => {
+    const one = buildAttritionReport({ ...studyInput(), strata: studyInput().survival.map((entry) => ({ stratum: 'all', ...entry })) });
+    expect(one.stratified).toEqual({ strata: ['all'], stratified: false, cmh: null, logRank: null });
+    expect(() => buildAttritionReport({ ...studyInput(), strata: strata!.slice(1) })).toThrow(/strata.*map-only/);
+  });
+
+  it('fits the hazard ratio against the comparison and reads cumulative dropout at the planned length', () => {
+    const report = buildAttritionReport({ ...studyInput(), plannedLength: { days: 7, unknown: null } });
+    expect(report.survival.cox.ties).toBe('efron');
+    const [mapOnly] = report.survival.cox.hazardRatios;
+    expect(mapOnly.conditionId).toBe('map-only');
+    expect(mapOnly.hazardRatio as number).toBeGreaterThan(1);
+    expect(mapOnly.lower as number).toBeLessThan(mapOnly.hazardRatio as number);
+    // Landmarks: S(7) = (48/50)(45/48)(40/42) by hand (50 at risk, 2 out; 48, 3 out; 42, 2 out), so cumulative dropout is 1 minus that.
+    const landmarks = report.survival.plannedLength.conditions[0];
+    expect(landmarks.cumulative?.cumulative as number).toBeCloseTo(1 - (48 / 50) * (45 / 48) * (40 / 42), 12);
+    const later = buildAttritionReport({ ...studyInput(), plannedLength: { days: 30, unknown: null } });
+    expect(later.survival.plannedLength.conditions.every((c) => c.cumulative === null && c.longestFollowUp === 7)).toBe(true);
+  });
+});

@@ -1,11 +1,14 @@
 import { AttritionInputError, proportion } from './attrition-input-error';
 import { differentialAttrition, requireConditionIds } from './attrition-rates';
 import { type ConditionAttrition, type ConditionStatusCounts, summarizeCondition } from './condition-counts';
+import { type CoxModelResult, coxProportionalHazards } from './cox-model';
 import { type CovariateBalanceRow, type CovariateInput, covariateBalance } from './covariate-balance';
 import { type DropoutTestSummary, testDropoutByCondition } from './dropout-test';
 import { type KaplanMeierCurve, type SurvivalTimeCount, kaplanMeier } from './kaplan-meier';
 import { type LogRankResult, logRankTest } from './log-rank';
 import { type PayParityInput, type PayParityResult, payParity } from './pay-parity';
+import { type CumulativeDropout, type PlannedLengthUnknown, cumulativeDropoutAt } from './planned-length';
+import { type StratifiedLogRankResult, type StratifiedTestResult, cochranMantelHaenszel, stratifiedLogRank } from './stratified-tests';
 import { type WwcAssessment, assessWwcAgainstComparison } from './wwc-verdict';
 
 /** Per-condition aggregates, as the service's SQL returns them, from which the whole dropout watch is computed. */
@@ -19,7 +22,33 @@ export interface AttritionReportInput {
   covariates: readonly CovariateInput[];
   /** For the Kaplan–Meier bands; 0.95 when absent. */
   confidenceLevel?: number;
+  /**
+   * The same follow-up split by randomization stratum (stratum key; null when none was recorded). Absent or all in
+   * one stratum: the study has no strata to adjust for.
+   */
+  strata?: readonly { stratum: string | null; conditionId: string; counts: readonly SurvivalTimeCount[] }[];
+  /** The planned study length in days since assignment, or why it is unknown. */
+  plannedLength?: { days: number | null; unknown: PlannedLengthUnknown | null };
 }
+
+/** Tests of condition × dropout within randomization strata, then combined. */
+export interface StratifiedReport {
+  /** The strata's keys as recorded at randomization, sorted; "(none recorded)" stands for a missing key. */
+  strata: string[];
+  /** Fewer than two strata: there is nothing to stratify by and both tests are left out. */
+  stratified: boolean;
+  cmh: StratifiedTestResult | null;
+  logRank: StratifiedLogRankResult | null;
+}
+
+export interface PlannedLengthReport {
+  days: number | null;
+  unknown: PlannedLengthUnknown | null;
+  /** Per condition: Kaplan–Meier cumulative dropout by the planned length; null where follow-up does not reach it yet. */
+  conditions: { conditionId: string; cumulative: CumulativeDropout | null; longestFollowUp: number | null }[];
+}
+
+export const NO_STRATUM_LABEL = '(none recorded)';
 
 export interface AttritionReport {
   conditions: ConditionAttrition[];
@@ -36,7 +65,14 @@ export interface AttritionReport {
   wwc: WwcAssessment;
   /** Condition × dropped / not dropped among all randomized, active participants counting as not (yet) dropped. */
   dropoutTest: DropoutTestSummary;
-  survival: { curves: ({ conditionId: string } & KaplanMeierCurve)[]; logRank: LogRankResult };
+  survival: {
+    curves: ({ conditionId: string } & KaplanMeierCurve)[];
+    logRank: LogRankResult;
+    /** Each other condition against the comparison condition, Efron ties. */
+    cox: CoxModelResult;
+    plannedLength: PlannedLengthReport;
+  };
+  stratified: StratifiedReport;
   payParity: PayParityResult;
   covariateBalance: CovariateBalanceRow[];
 }
@@ -105,7 +141,8 @@ export function buildAttritionReport(input: AttritionReportInput): AttritionRepo
   const attrited = sum((c) => c.attrited);
   const comparisonConditionId = input.comparisonConditionId ?? ids[0];
   // Computed in the caller's order so that errors name the caller's fields, then listed in condition order.
-  const pay = payParity(input.pay);
+  const pay = payParity({ ...input.pay, comparisonConditionId });
+  const plannedDays = input.plannedLength?.days ?? null;
   const attritionCounts = conditions.map((c) => ({
     conditionId: c.conditionId,
     randomized: c.windowEnded.randomized,
@@ -127,8 +164,60 @@ export function buildAttritionReport(input: AttritionReportInput): AttritionRepo
     dropoutTest: testDropoutByCondition(
       conditions.filter((c) => c.randomized > 0).map((c) => ({ dropped: c.dropped, notDropped: c.randomized - c.dropped })),
     ),
-    survival: { curves, logRank: logRankTest(survival) },
+    survival: {
+      curves,
+      logRank: logRankTest(survival),
+      cox: coxProportionalHazards(survival, comparisonConditionId),
+      plannedLength: {
+        days: plannedDays,
+        unknown: input.plannedLength?.unknown ?? (plannedDays === null ? 'no-steps' : null),
+        conditions: curves.map((curve) => ({
+          conditionId: curve.conditionId,
+          cumulative: plannedDays === null ? null : cumulativeDropoutAt(curve, plannedDays),
+          longestFollowUp: curve.steps.at(-1)?.time ?? null,
+        })),
+      },
+    },
+    stratified: stratifiedReport(input.strata ?? [], conditions),
     payParity: { ...pay, conditions: inConditionOrder(pay.conditions, ids) },
     covariateBalance: covariateBalance(input.covariates, comparisonConditionId),
   };
+}
+
+function stratifiedReport(rows: NonNullable<AttritionReportInput['strata']>, conditions: readonly ConditionAttrition[]): StratifiedReport {
+  const ids = conditions.map((condition) => condition.conditionId);
+  rows.forEach((row, index) => {
+    if (!ids.includes(row.conditionId)) throw new AttritionInputError(`strata[${index}].conditionId`, `"${row.conditionId}" is not one of the study's conditions`);
+  });
+  const names = [...new Set(rows.map((row) => row.stratum ?? NO_STRATUM_LABEL))].sort((x, y) => (x < y ? -1 : x > y ? 1 : 0));
+  // The strata must partition the same people the pooled figures count.
+  conditions.forEach((condition) => {
+    const counts = rows.filter((row) => row.conditionId === condition.conditionId).flatMap((row) => row.counts);
+    const people = counts.reduce((total, count) => total + count.dropped + count.censored, 0);
+    const dropped = counts.reduce((total, count) => total + count.dropped, 0);
+    if (rows.length > 0 && (people !== condition.randomized || dropped !== condition.dropped)) {
+      throw new AttritionInputError(
+        'strata',
+        `counts ${people} participants and ${dropped} dropouts for ${condition.conditionId}, but conditions has ${condition.randomized} and ${condition.dropped}`,
+      );
+    }
+  });
+  if (names.length < 2) return { strata: names, stratified: false, cmh: null, logRank: null };
+  const byStratum = names.map((stratum) => ({
+    stratum,
+    groups: ids.map((conditionId) => ({
+      conditionId,
+      counts: rows.filter((row) => (row.stratum ?? NO_STRATUM_LABEL) === stratum && row.conditionId === conditionId).flatMap((row) => row.counts),
+    })),
+  }));
+  const cmh = cochranMantelHaenszel(
+    byStratum.map(({ stratum, groups }) => ({
+      stratum,
+      conditions: groups.map((group) => ({
+        randomized: group.counts.reduce((total, count) => total + count.dropped + count.censored, 0),
+        dropped: group.counts.reduce((total, count) => total + count.dropped, 0),
+      })),
+    })),
+  );
+  return { strata: names, stratified: true, cmh, logRank: stratifiedLogRank(byStratum) };
 }

@@ -6,9 +6,9 @@
  * them; attrition only aggregates, which no single domain's service could do without loading every row.
  */
 
-import { splitFollowedGroups, type FlowRow, type FollowedGroupRow, type SurvivalRow } from './followed-groups';
+import { splitFollowedGroups, type FlowRow, type FollowedGroupRow, type StratumSurvivalRow, type SurvivalRow } from './followed-groups';
 
-export type { FlowRow, SurvivalRow } from './followed-groups';
+export type { FlowRow, StratumSurvivalRow, SurvivalRow } from './followed-groups';
 
 /** Runs one statement with positional parameters and returns its rows. */
 export type SqlRunner = <Row>(sql: string, parameters: unknown[]) => Promise<Row[]>;
@@ -80,10 +80,21 @@ export interface CovariateRow {
   completer_squares: number | null;
 }
 
+/** One step of the study's schedule, in order. */
+export interface PlannedStepRow {
+  opens_after_days: number;
+  opens_from: 'assignment' | 'previous-step';
+  due_within_days: number | null;
+}
+
 export interface AttritionAggregates {
   flow: FlowRow[];
   survival: SurvivalRow[];
+  /** The same follow-up per randomization stratum, for the stratified tests. */
+  strata: StratumSurvivalRow[];
   pay: PayRow[];
+  /** The planned schedule, for the planned study length. */
+  steps: PlannedStepRow[];
   covariates: CovariateRow[];
   payOverrideRecorded: boolean;
 }
@@ -104,17 +115,18 @@ export async function readAttritionAggregates(
   // the dropout curves (randomized ones by exact days followed); the two are split apart in JavaScript.
   // Grouped by the arm as stored (a uuid between subjects) and turned into text only per group.
   const followed = await run<FollowedGroupRow>(
-    `SELECT arm::text AS arm, status, assigned, reason, randomized, day, n
+    `SELECT arm::text AS arm, status, assigned, reason, randomized, day, stratum, n
      FROM (SELECT ${arm} AS arm, e.status, (e.assigned_at IS NOT NULL) AS assigned,
                   CASE e.status WHEN 'excluded' THEN e.exclusion_reason WHEN 'withdrew' THEN e.withdrawal_reason WHEN 'lost' THEN e.lost_reason END AS reason,
                   r.randomized, CASE WHEN r.randomized THEN ${followUpDays('e')} END AS day,
+                  CASE WHEN r.randomized THEN e.stratum_key END AS stratum,
                   count(*)::int AS n
            FROM enrollment e CROSS JOIN LATERAL (SELECT ${randomized} AS randomized) AS r
            WHERE e.study_id = $1
-           GROUP BY 1, 2, 3, 4, 5, 6) AS grouped`,
+           GROUP BY 1, 2, 3, 4, 5, 6, 7) AS grouped`,
     [study.id, censorAt],
   );
-  const { flow, survival } = splitFollowedGroups(followed, study.closed);
+  const { flow, survival, strata } = splitFollowedGroups(followed, study.closed);
 
   // Amounts per participant first, then count, Σ and Σ² per arm. Σ stays an exact integer; Σ² is float8, which is
   // what it becomes in JavaScript anyway, and several times faster than numeric over a million rows.
@@ -164,7 +176,12 @@ export async function readAttritionAggregates(
     [study.id],
   );
 
-  return { flow, survival, pay, covariates, payOverrideRecorded: override.recorded };
+  const steps = await run<PlannedStepRow>(
+    `SELECT opens_after_days, opens_from, due_within_days FROM step WHERE study_id = $1 ORDER BY position, id`,
+    [study.id],
+  );
+
+  return { flow, survival, strata, pay, steps, covariates, payOverrideRecorded: override.recorded };
 }
 
 /** The export's covariate columns: every key any enrollment of the study has, sorted. */

@@ -114,7 +114,7 @@ export class AttritionService {
 
     const input = toReportInput(aggregates, arms, { studyClosed: study.status === 'closed', currency: study.currency, comparisonConditionId });
     const report = buildAttritionReport(input.report);
-    const earned = payParity(input.earned);
+    const earned = payParity({ ...input.earned, comparisonConditionId: report.wwc.comparisonConditionId ?? undefined });
     const names = new Map(arms.map((arm) => [arm.id, arm.name]));
     const nameOf = (id: string) => names.get(id) as string;
     const cautions = [...CAUTIONS];
@@ -162,7 +162,10 @@ export class AttritionService {
           })),
         })),
         logRank: report.survival.logRank,
+        cox: report.survival.cox,
+        plannedLength: report.survival.plannedLength,
       },
+      stratified: report.stratified,
       payParity: {
         currency: report.payParity.currency,
         payOverrideRecorded: report.payParity.payOverrideRecorded,

@@ -14,7 +14,7 @@ const nobody = { n: 0, sum: 0, sumOfSquares: 0 };
 
 /** Grouped enrollments as the SQL returns them, turned into a whole report the way the service does it. */
 function reportOf(rows: FollowedGroupRow[], studyClosed: boolean) {
-  const { flow, survival } = splitFollowedGroups(rows, studyClosed);
+  const { flow, survival, strata } = splitFollowedGroups(rows, studyClosed);
   const count = (arm: string, completed?: boolean) =>
     flow.filter((r) => r.arm === arm && r.assigned && (completed === undefined || (r.status === 'completed') === completed)).reduce((t, r) => t + r.n, 0);
   const aggregates: AttritionAggregates = {
@@ -26,6 +26,8 @@ function reportOf(rows: FollowedGroupRow[], studyClosed: boolean) {
       earned_sum: '0', earned_squares: 0, earned_completer_sum: '0', earned_completer_squares: 0,
     })),
     covariates: [],
+    strata,
+    steps: [],
     payOverrideRecorded: false,
   };
   const input = toReportInput(aggregates, arms, { studyClosed, currency: 'EUR' });
@@ -39,6 +41,7 @@ const statuses = ['assigned', 'active', 'completed', 'withdrew', 'lost', 'exclud
 const groupRow = fc.record({
   arm: fc.constantFrom('a', 'b', 'c'),
   status: fc.constantFrom(...statuses),
+  stratum: fc.constantFrom('age=<30', 'age=≥30', null),
   day: fc.double({ min: 0, max: 40, noNaN: true }),
   n: fc.integer({ min: 1, max: 6 }),
 });
@@ -95,6 +98,10 @@ describe('one counting rule for people still active', () => {
             expect(condition.windowEnded.randomized).toBe(condition.randomized - condition.active);
           }
         });
+        // The stratified tests count the same people the same way: their observed dropouts add up to the pooled ones.
+        if (report.stratified.logRank !== null) {
+          report.conditions.forEach((condition, i) => expect(report.stratified.logRank!.groups[i].observed).toBe(condition.dropped));
+        }
         const tableDropped = report.dropoutTest.chiSquare === null ? null : report.dropoutTest.chiSquare.expected.flat().length;
         if (tableDropped !== null) {
           const rowsTested = report.conditions.filter((c) => c.randomized > 0);

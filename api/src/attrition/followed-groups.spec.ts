@@ -49,6 +49,23 @@ describe('splitFollowedGroups', () => {
     expect(survival.reduce((total, time) => total + time.dropped + time.censored, 0)).toBe(10);
   });
 
+  it('splits the same follow-up by stratum, under the same counting rule', () => {
+    const { strata, survival } = splitFollowedGroups(
+      [
+        group({ status: 'withdrew', day: 3, stratum: 'age=<30', n: 2 }),
+        group({ status: 'active', day: 3, stratum: 'age=≥30', n: 1 }),
+        group({ status: 'completed', day: 3, stratum: null, n: 4 }),
+      ],
+      true,
+    );
+    expect(strata).toEqual([
+      { stratum: 'age=<30', arm: 'arm-a', day: 3, dropped: 2, censored: 0 },
+      { stratum: 'age=≥30', arm: 'arm-a', day: 3, dropped: 1, censored: 0 },
+      { stratum: null, arm: 'arm-a', day: 3, dropped: 0, censored: 4 },
+    ]);
+    expect(survival).toEqual([{ arm: 'arm-a', day: 3, dropped: 3, censored: 4 }]);
+  });
+
   it('refuses a randomized group with no day rather than dropping it from the curves', () => {
     expect(() => splitFollowedGroups([group({ day: null })])).toThrow('A randomized group has no day.');
   });

@@ -2,7 +2,8 @@
 declare module 'jstat' {
   interface JStatStatic {
     chisquare: { cdf(x: number, dof: number): number };
-    normal: { inv(p: number, mean: number, sd: number): number };
+    normal: { inv(p: number, mean: number, sd: number): number; cdf(x: number, mean: number, sd: number): number };
+    studentt: { inv(p: number, dof: number): number; cdf(x: number, dof: number): number };
     ibeta(x: number, a: number, b: number): number;
     combinationln(n: number, k: number): number;
     combination(n: number, k: number): number;

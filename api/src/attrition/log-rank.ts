@@ -138,11 +138,14 @@ function statisticOf(k: number, steps: number, dropped: Int32Array, censored: In
   return solution === null ? null : Math.max(0, u.reduce((total, value, i) => total + value * solution[i], 0));
 }
 
-function logRankCore(groups: readonly SurvivalGroup[], field: string): Omit<LogRankResult, 'fewEvents' | 'permutation' | 'permutationSkipped'> {
-  requireConditionIds(
-    groups.map((group) => group.conditionId),
-    field,
-  );
+/** Observed and expected dropouts per condition and the variance-covariance of O − E, summed over dropout times. */
+export interface LogRankComponents {
+  observed: number[];
+  expected: number[];
+  covariance: number[][];
+}
+
+export function logRankComponents(groups: readonly SurvivalGroup[], field = 'groups'): LogRankComponents {
   const series = groups.map((group, g) => normalizeSurvivalCounts(group.counts, `${field}[${g}].counts`));
   const k = groups.length;
   const atRisk = series.map((counts) => counts.reduce((total, count) => total + count.dropped + count.censored, 0));
@@ -174,24 +177,35 @@ function logRankCore(groups: readonly SurvivalGroup[], field: string): Omit<LogR
       atRisk[g] -= count.dropped + count.censored;
     });
   }
+  return { observed, expected, covariance };
+}
 
-  const resultGroups = groups.map((group, g) => ({ conditionId: group.conditionId, observed: observed[g], expected: expected[g] }));
-  // As R's survdiff: conditions with no expected dropout carry no information and do not count towards the df.
+/** U′V⁻¹U on the conditions with any expected dropout, one left out (as R's survdiff); null statistic when not computable. */
+export function logRankQuadraticForm({ observed, expected, covariance }: LogRankComponents): { statistic: number | null; df: number; pValue: number | null } {
   const informative = expected.map((value, g) => (value > 0 ? g : -1)).filter((g) => g >= 0);
   const df = Math.max(0, informative.length - 1);
-  if (informative.length < 2) return { method: 'log-rank', statistic: null, df, pValue: null, groups: resultGroups };
-
+  if (informative.length < 2) return { statistic: null, df, pValue: null };
   const kept = informative.slice(0, -1);
   const u = kept.map((g) => observed[g] - expected[g]);
   const v = kept.map((j) => kept.map((l) => covariance[j][l]));
   const solution = solveLinearSystem(v, u);
-  if (solution === null) return { method: 'log-rank', statistic: null, df, pValue: null, groups: resultGroups };
+  if (solution === null) return { statistic: null, df, pValue: null };
   const statistic = Math.max(
     0,
     u.reduce((total, value, i) => total + value * solution[i], 0),
   );
-  const pValue = Math.min(1, Math.max(0, 1 - jStat.chisquare.cdf(statistic, df)));
-  return { method: 'log-rank', statistic, df, pValue, groups: resultGroups };
+  return { statistic, df, pValue: Math.min(1, Math.max(0, 1 - jStat.chisquare.cdf(statistic, df))) };
+}
+
+function logRankCore(groups: readonly SurvivalGroup[], field: string): Omit<LogRankResult, 'fewEvents' | 'permutation' | 'permutationSkipped'> {
+  requireConditionIds(
+    groups.map((group) => group.conditionId),
+    field,
+  );
+  const components = logRankComponents(groups, field);
+  const resultGroups = groups.map((group, g) => ({ conditionId: group.conditionId, observed: components.observed[g], expected: components.expected[g] }));
+  // As R's survdiff: conditions with no expected dropout carry no information and do not count towards the df.
+  return { method: 'log-rank', ...logRankQuadraticForm(components), groups: resultGroups };
 }
 
 /** Gaussian elimination with partial pivoting; null when the matrix is numerically singular. */

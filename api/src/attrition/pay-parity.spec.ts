@@ -1,5 +1,7 @@
+import ttest2 from '@stdlib/stats-ttest2';
+import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { type ConditionPayInput, payParity, welchAnova } from './pay-parity';
+import { type ConditionPayInput, payParity, welchAnova, welchDifferenceInterval } from './pay-parity';
 import { type Moments, meanAndVariance } from './sufficient-statistics';
 
 function moments(values: number[]): Moments {
@@ -88,5 +90,47 @@ describe('payParity', () => {
       payParity({ currency: 'EUR', payOverrideRecorded: false, conditions: [{ ...landmarks, perCompleter: { n: 1, sum: -5, sumOfSquares: 25 } }, mapOnly] }),
     ).toThrow(/pay\.conditions\[0\]\.perCompleter\.sum: amounts paid cannot be negative/);
     expect(() => payParity({ currency: 'euro', payOverrideRecorded: false, conditions: [] })).toThrow(/pay\.currency/);
+  });
+});
+
+const mean = (values: number[]) => values.reduce((s, v) => s + v, 0) / values.length;
+
+describe('welchDifferenceInterval', () => {
+  const momentsOf = (values: number[]): Moments => ({ n: values.length, sum: values.reduce((s, v) => s + v, 0), sumOfSquares: values.reduce((s, v) => s + v * v, 0) });
+
+  it('matches the Welch interval of @stdlib/stats-ttest2 on raw amounts (property, fast-check)', () => {
+    // Outside reference: @stdlib/stats-ttest2 (default variance "unequal": Welch test, Satterthwaite df), given every value.
+    const amounts = fc.array(fc.integer({ min: 0, max: 5000 }), { minLength: 2, maxLength: 40 });
+    fc.assert(
+      fc.property(amounts, amounts, (x, y) => {
+        const ours = welchDifferenceInterval({ conditionId: 'x', ...momentsOf(x) }, { conditionId: 'y', ...momentsOf(y) });
+        if (ours.notComputable !== null) return new Set([...x]).size === 1 && new Set([...y]).size === 1;
+        const theirs = ttest2(x, y);
+        expect(ours.difference as number).toBeCloseTo(mean(x) - mean(y), 6);
+        expect(ours.lower as number).toBeCloseTo(theirs.ci[0], 4);
+        expect(ours.upper as number).toBeCloseTo(theirs.ci[1], 4);
+        expect(ours.df as number).toBeCloseTo(theirs.df, 4);
+        return true;
+      }),
+      { numRuns: 200, seed: 23 },
+    );
+  });
+
+  it('is not computable below two people or without any variation, and payParity lists each arm against the comparison', () => {
+    expect(welchDifferenceInterval({ conditionId: 'a', n: 1, sum: 5, sumOfSquares: 25 }, { conditionId: 'b', ...momentsOf([1, 2]) }).notComputable).toBe(
+      'fewer-than-two-in-a-condition',
+    );
+    expect(welchDifferenceInterval({ conditionId: 'a', ...momentsOf([3, 3]) }, { conditionId: 'b', ...momentsOf([1, 1]) })).toMatchObject({
+      difference: 2,
+      lower: null,
+      notComputable: 'no-variation-in-either-condition',
+    });
+    const result = payParity({
+      currency: 'EUR',
+      payOverrideRecorded: false,
+      comparisonConditionId: 'b',
+      conditions: ['a', 'b', 'c'].map((conditionId, i) => ({ conditionId, perRandomized: momentsOf([100 * i, 100 * i + 50, 10]), perCompleter: momentsOf([500, 600]) })),
+    });
+    expect(result.perRandomized.differences.map((d) => `${d.conditionId}-${d.comparisonConditionId}`)).toEqual(['a-b', 'c-b']);
   });
 });

@@ -32,10 +32,53 @@ export interface WelchAnovaResult {
   notComputable: WelchAnovaNotComputable | null;
 }
 
+export type MeanDifferenceNotComputable = 'fewer-than-two-in-a-condition' | 'no-variation-in-either-condition';
+
+/** Mean pay of one condition minus the comparison condition's, with its Welch t interval. */
+export interface MeanDifference {
+  conditionId: string;
+  comparisonConditionId: string;
+  method: 'welch-t';
+  /** Minor units; null when a condition has nobody. */
+  difference: number | null;
+  confidenceLevel: number;
+  lower: number | null;
+  upper: number | null;
+  /** Welch–Satterthwaite degrees of freedom. */
+  df: number | null;
+  standardError: number | null;
+  notComputable: MeanDifferenceNotComputable | null;
+}
+
 export interface PayComparison {
   /** Largest minus smallest condition mean, in minor units; null with fewer than two conditions that have anyone. */
   largestMeanDifference: number | null;
   test: WelchAnovaResult;
+  /** Each other condition against the comparison condition. */
+  differences: MeanDifference[];
+}
+
+// Welch's t interval for a difference in means without assuming equal variances (Welch 1947, Biometrika 34:28):
+// x̄1 − x̄2 ± t(ν)·√(s1²/n1 + s2²/n2), ν = (s1²/n1 + s2²/n2)² / ((s1²/n1)²/(n1 − 1) + (s2²/n2)²/(n2 − 1)).
+export function welchDifferenceInterval(
+  condition: { conditionId: string } & Moments,
+  comparison: { conditionId: string } & Moments,
+  confidenceLevel = 0.95,
+  field = 'groups',
+): MeanDifference {
+  const one = meanAndVariance(condition, `${field}.condition`);
+  const two = meanAndVariance(comparison, `${field}.comparison`);
+  const base = { conditionId: condition.conditionId, comparisonConditionId: comparison.conditionId, method: 'welch-t' as const, confidenceLevel };
+  const difference = one.mean === null || two.mean === null ? null : one.mean - two.mean;
+  const empty = (notComputable: MeanDifferenceNotComputable): MeanDifference => ({ ...base, difference, lower: null, upper: null, df: null, standardError: null, notComputable });
+  if (one.variance === null || two.variance === null || difference === null) return empty('fewer-than-two-in-a-condition');
+  const a = one.variance / one.n;
+  const b = two.variance / two.n;
+  if (a + b === 0) return empty('no-variation-in-either-condition');
+  const df = (a + b) ** 2 / (a ** 2 / (one.n - 1) + b ** 2 / (two.n - 1));
+  const standardError = Math.sqrt(a + b);
+  const t = jStat.studentt.inv(1 - (1 - confidenceLevel) / 2, df);
+  return { ...base, difference, lower: difference - t * standardError, upper: difference + t * standardError, df, standardError, notComputable: null };
 }
 
 export interface PayParityResult {
@@ -93,11 +136,16 @@ function summarize(moments: Moments, field: string): PaySummary {
   return { n, mean, standardDeviation: variance === null ? null : Math.sqrt(variance) };
 }
 
-function compare(summaries: PaySummary[], groups: readonly ({ conditionId: string } & Moments)[], field: string): PayComparison {
+function compare(summaries: PaySummary[], groups: readonly ({ conditionId: string } & Moments)[], field: string, comparisonConditionId: string | undefined): PayComparison {
   const means = summaries.map((summary) => summary.mean).filter((mean): mean is number => mean !== null);
+  const test = welchAnova(groups, field);
+  const comparison = groups.find((group) => group.conditionId === comparisonConditionId) ?? groups[0];
   return {
     largestMeanDifference: means.length < 2 ? null : Math.max(...means) - Math.min(...means),
-    test: welchAnova(groups, field),
+    test,
+    differences: comparison
+      ? groups.filter((group) => group !== comparison).map((group) => welchDifferenceInterval(group, comparison, 0.95, field))
+      : [],
   };
 }
 
@@ -106,6 +154,8 @@ export interface PayParityInput {
   currency: string;
   payOverrideRecorded: boolean;
   conditions: readonly ConditionPayInput[];
+  /** The condition the others' mean pay is compared with; the first condition when absent. */
+  comparisonConditionId?: string;
 }
 
 export function payParity(input: PayParityInput): PayParityResult {
@@ -129,11 +179,13 @@ export function payParity(input: PayParityInput): PayParityResult {
       conditions.map((condition) => condition.perRandomized),
       input.conditions.map((condition) => ({ conditionId: condition.conditionId, ...condition.perRandomized })),
       'pay.conditions.perRandomized',
+      input.comparisonConditionId,
     ),
     perCompleter: compare(
       conditions.map((condition) => condition.perCompleter),
       input.conditions.map((condition) => ({ conditionId: condition.conditionId, ...condition.perCompleter })),
       'pay.conditions.perCompleter',
+      input.comparisonConditionId,
     ),
     payOverrideRecorded: input.payOverrideRecorded,
   };

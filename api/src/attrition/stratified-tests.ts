@@ -1,5 +1,7 @@
 import { jStat } from 'jstat';
 import { AttritionInputError, requireCount } from './attrition-input-error';
+import { requireConditionIds } from './attrition-rates';
+import { type LogRankComponents, type SurvivalGroup, logRankComponents, logRankQuadraticForm } from './log-rank';
 
 /** One stratum's table: per condition, how many were randomized and how many dropped out. */
 export interface StratumCounts {
@@ -74,4 +76,57 @@ function solve(matrix: number[][], vector: number[]): number[] | null {
     }
   }
   return rows.map((row, i) => row[size] / row[i]);
+}
+
+/** One stratum's follow-up per condition (every stratum lists the same conditions, in the same order). */
+export interface StratumSurvival {
+  stratum: string;
+  groups: readonly SurvivalGroup[];
+}
+
+export interface StratifiedLogRankResult {
+  method: 'stratified-log-rank';
+  statistic: number | null;
+  df: number;
+  pValue: number | null;
+  /** Observed and expected dropouts per condition, summed over strata. */
+  groups: { conditionId: string; observed: number; expected: number }[];
+  /** Strata in which someone dropped out. */
+  strataUsed: number;
+}
+
+/**
+ * Stratified log-rank test (Kalbfleisch & Prentice 1980, §7.4; R survival::survdiff with strata()): O − E and its
+ * variance-covariance are computed within each stratum, each stratum with its own risk sets, then summed; X² = U′V⁻¹U
+ * on the conditions with any expected dropout, one left out. With one stratum it is the ordinary log-rank test.
+ */
+export function stratifiedLogRank(strata: readonly StratumSurvival[], field = 'strata'): StratifiedLogRankResult {
+  const ids = strata[0]?.groups.map((group) => group.conditionId) ?? [];
+  requireConditionIds(ids, `${field}[0].groups`);
+  const k = ids.length;
+  const total: LogRankComponents = {
+    observed: new Array<number>(k).fill(0),
+    expected: new Array<number>(k).fill(0),
+    covariance: Array.from({ length: k }, () => new Array<number>(k).fill(0)),
+  };
+  let strataUsed = 0;
+  strata.forEach((stratum, s) => {
+    const here = stratum.groups.map((group) => group.conditionId);
+    if (here.length !== k || here.some((id, i) => id !== ids[i])) {
+      throw new AttritionInputError(`${field}[${s}].groups`, `must list the conditions ${ids.join(', ')} in that order`);
+    }
+    const part = logRankComponents(stratum.groups, `${field}[${s}].groups`);
+    if (part.observed.some((value) => value > 0)) strataUsed += 1;
+    for (let j = 0; j < k; j += 1) {
+      total.observed[j] += part.observed[j];
+      total.expected[j] += part.expected[j];
+      for (let l = 0; l < k; l += 1) total.covariance[j][l] += part.covariance[j][l];
+    }
+  });
+  return {
+    method: 'stratified-log-rank',
+    ...logRankQuadraticForm(total),
+    groups: ids.map((conditionId, g) => ({ conditionId, observed: total.observed[g], expected: total.expected[g] })),
+    strataUsed,
+  };
 }

@@ -3094,6 +3094,59 @@ export interface components {
             /** @enum {string|null} */
             permutationSkipped: "too-many-participants" | null;
         };
+        HazardRatioDto: {
+            conditionId: string;
+            /** @description log hazard ratio against the comparison condition */
+            coefficient: number | null;
+            standardError: number | null;
+            /** @description Hazard of dropping out, this condition over the comparison */
+            hazardRatio: number | null;
+            /** @description Wald interval exp(β ± z·SE) */
+            lower: number | null;
+            upper: number | null;
+            /** @description Wald test of equal hazards */
+            pValue: number | null;
+            /** @enum {string|null} */
+            notEstimable: "nobody-randomized" | "no-dropouts" | "comparison-has-no-dropouts" | "did-not-converge" | "infinite-estimate" | null;
+        };
+        CoxModelDto: {
+            /** @enum {string} */
+            method: "cox-proportional-hazards";
+            /**
+             * @description How tied dropout times are handled
+             * @enum {string}
+             */
+            ties: "efron" | "breslow";
+            comparisonConditionId: string;
+            confidenceLevel: number;
+            /** @description Each other condition against the comparison condition */
+            hazardRatios: components["schemas"]["HazardRatioDto"][];
+            /** @description Newton–Raphson iterations */
+            iterations: number;
+            converged: boolean;
+            /** @description Log partial likelihood at the estimate */
+            logLikelihood: number | null;
+        };
+        CumulativeDropoutDto: {
+            /** @description 1 − S(t), Kaplan–Meier */
+            cumulative: number;
+            lower: number | null;
+            upper: number | null;
+        };
+        PlannedLengthConditionDto: {
+            conditionId: string;
+            /** @description Null while follow-up does not reach the planned length */
+            cumulative: components["schemas"]["CumulativeDropoutDto"] | null;
+            /** @description Longest follow-up so far, days */
+            longestFollowUp: number | null;
+        };
+        PlannedLengthDto: {
+            /** @description Last due day of the schedule when every step is done on its due day */
+            days: number | null;
+            /** @enum {string|null} */
+            unknown: "no-steps" | "a-step-has-no-due-date" | null;
+            conditions: components["schemas"]["PlannedLengthConditionDto"][];
+        };
         SurvivalDto: {
             /** @enum {string} */
             timeUnit: "days";
@@ -3104,6 +3157,40 @@ export interface components {
             censoredAt: string;
             curves: components["schemas"]["SurvivalCurveDto"][];
             logRank: components["schemas"]["LogRankDto"];
+            /** @description Cox proportional-hazards hazard ratios against the comparison condition */
+            cox: components["schemas"]["CoxModelDto"];
+            /** @description Cumulative dropout at the planned study length */
+            plannedLength: components["schemas"]["PlannedLengthDto"];
+        };
+        CochranMantelHaenszelDto: {
+            /** @enum {string} */
+            method: "cochran-mantel-haenszel";
+            statistic: number | null;
+            df: number;
+            pValue: number | null;
+            /** @description Strata that carried information */
+            strataUsed: number;
+        };
+        StratifiedLogRankDto: {
+            /** @enum {string} */
+            method: "stratified-log-rank";
+            statistic: number | null;
+            df: number;
+            pValue: number | null;
+            /** @description Summed over strata */
+            groups: components["schemas"]["LogRankGroupDto"][];
+            /** @description Strata in which someone dropped out */
+            strataUsed: number;
+        };
+        StratifiedDto: {
+            /** @description Randomization strata keys (factor=level joined by "|"); "(none recorded)" for a missing key */
+            strata: string[];
+            /** @description False with fewer than two strata: nothing to stratify by */
+            stratified: boolean;
+            /** @description Dropped / not dropped by condition within strata */
+            cmh: components["schemas"]["CochranMantelHaenszelDto"] | null;
+            /** @description Time to dropout by condition within strata */
+            logRank: components["schemas"]["StratifiedLogRankDto"] | null;
         };
         PaySummaryDto: {
             n: number;
@@ -3128,11 +3215,29 @@ export interface components {
             /** @enum {string|null} */
             notComputable: "fewer-than-two-conditions-with-two-or-more-participants" | "no-variation-within-a-condition" | null;
         };
+        MeanDifferenceDto: {
+            conditionId: string;
+            comparisonConditionId: string;
+            /** @enum {string} */
+            method: "welch-t";
+            /** @description Mean of the condition minus the comparison, minor units */
+            difference: number | null;
+            confidenceLevel: number;
+            lower: number | null;
+            upper: number | null;
+            /** @description Welch–Satterthwaite degrees of freedom */
+            df: number | null;
+            standardError: number | null;
+            /** @enum {string|null} */
+            notComputable: "fewer-than-two-in-a-condition" | "no-variation-in-either-condition" | null;
+        };
         PayComparisonDto: {
             /** @description Largest minus smallest arm mean, minor units */
             largestMeanDifference: number | null;
             /** @description Welch's ANOVA: equal mean pay without assuming equal variances */
             test: components["schemas"]["WelchAnovaDto"];
+            /** @description Each other arm's mean minus the comparison arm's, with a 95 % Welch t interval */
+            differences: components["schemas"]["MeanDifferenceDto"][];
         };
         PayBasisDto: {
             conditions: components["schemas"]["ConditionPayDto"][];
@@ -3263,6 +3368,8 @@ export interface components {
             wwc: components["schemas"]["WwcAssessmentDto"];
             dropoutTest: components["schemas"]["DropoutTestDto"];
             survival: components["schemas"]["SurvivalDto"];
+            /** @description Dropout tests within the randomization strata */
+            stratified: components["schemas"]["StratifiedDto"];
             payParity: components["schemas"]["PayParityDto"];
             covariateBalance: components["schemas"]["CovariateBalanceRowDto"][];
             flow: components["schemas"]["ConsortFlowDto"];

@@ -184,11 +184,79 @@ export class LogRankDto {
   @ApiProperty({ type: String, nullable: true, enum: ['too-many-participants'] }) permutationSkipped: string | null;
 }
 
+export class HazardRatioDto {
+  @ApiProperty() conditionId: string;
+  @ApiProperty({ type: Number, nullable: true, description: 'log hazard ratio against the comparison condition' }) coefficient: number | null;
+  @ApiProperty({ type: Number, nullable: true }) standardError: number | null;
+  @ApiProperty({ type: Number, nullable: true, description: 'Hazard of dropping out, this condition over the comparison' }) hazardRatio: number | null;
+  @ApiProperty({ type: Number, nullable: true, description: 'Wald interval exp(β ± z·SE)' }) lower: number | null;
+  @ApiProperty({ type: Number, nullable: true }) upper: number | null;
+  @ApiProperty({ type: Number, nullable: true, description: 'Wald test of equal hazards' }) pValue: number | null;
+  @ApiProperty({ type: String, nullable: true, enum: ['nobody-randomized', 'no-dropouts', 'comparison-has-no-dropouts', 'did-not-converge', 'infinite-estimate'] })
+  notEstimable: string | null;
+}
+
+export class CoxModelDto {
+  @ApiProperty({ enum: ['cox-proportional-hazards'] }) method: 'cox-proportional-hazards';
+  @ApiProperty({ enum: ['efron', 'breslow'], description: 'How tied dropout times are handled' }) ties: string;
+  @ApiProperty() comparisonConditionId: string;
+  @ApiProperty() confidenceLevel: number;
+  @ApiProperty({ type: [HazardRatioDto], description: 'Each other condition against the comparison condition' }) hazardRatios: HazardRatioDto[];
+  @ApiProperty({ description: 'Newton–Raphson iterations' }) iterations: number;
+  @ApiProperty() converged: boolean;
+  @ApiProperty({ type: Number, nullable: true, description: 'Log partial likelihood at the estimate' }) logLikelihood: number | null;
+}
+
+export class CumulativeDropoutDto {
+  @ApiProperty({ description: '1 − S(t), Kaplan–Meier' }) cumulative: number;
+  @ApiProperty({ type: Number, nullable: true }) lower: number | null;
+  @ApiProperty({ type: Number, nullable: true }) upper: number | null;
+}
+
+export class PlannedLengthConditionDto {
+  @ApiProperty() conditionId: string;
+  @ApiProperty({ type: CumulativeDropoutDto, nullable: true, description: 'Null while follow-up does not reach the planned length' })
+  cumulative: CumulativeDropoutDto | null;
+  @ApiProperty({ type: Number, nullable: true, description: 'Longest follow-up so far, days' }) longestFollowUp: number | null;
+}
+
+export class PlannedLengthDto {
+  @ApiProperty({ type: Number, nullable: true, description: 'Last due day of the schedule when every step is done on its due day' }) days: number | null;
+  @ApiProperty({ type: String, nullable: true, enum: ['no-steps', 'a-step-has-no-due-date'] }) unknown: string | null;
+  @ApiProperty({ type: [PlannedLengthConditionDto] }) conditions: PlannedLengthConditionDto[];
+}
+
 export class SurvivalDto {
   @ApiProperty({ enum: ['days'] }) timeUnit: 'days';
   @ApiProperty({ description: 'When still-active participants are censored (now, or when the study closed)', format: 'date-time' }) censoredAt: string;
   @ApiProperty({ type: [SurvivalCurveDto] }) curves: SurvivalCurveDto[];
   @ApiProperty({ type: LogRankDto }) logRank: LogRankDto;
+  @ApiProperty({ type: CoxModelDto, description: 'Cox proportional-hazards hazard ratios against the comparison condition' }) cox: CoxModelDto;
+  @ApiProperty({ type: PlannedLengthDto, description: 'Cumulative dropout at the planned study length' }) plannedLength: PlannedLengthDto;
+}
+
+export class CochranMantelHaenszelDto {
+  @ApiProperty({ enum: ['cochran-mantel-haenszel'] }) method: 'cochran-mantel-haenszel';
+  @ApiProperty({ type: Number, nullable: true }) statistic: number | null;
+  @ApiProperty() df: number;
+  @ApiProperty({ type: Number, nullable: true }) pValue: number | null;
+  @ApiProperty({ description: 'Strata that carried information' }) strataUsed: number;
+}
+
+export class StratifiedLogRankDto {
+  @ApiProperty({ enum: ['stratified-log-rank'] }) method: 'stratified-log-rank';
+  @ApiProperty({ type: Number, nullable: true }) statistic: number | null;
+  @ApiProperty() df: number;
+  @ApiProperty({ type: Number, nullable: true }) pValue: number | null;
+  @ApiProperty({ type: [LogRankGroupDto], description: 'Summed over strata' }) groups: LogRankGroupDto[];
+  @ApiProperty({ description: 'Strata in which someone dropped out' }) strataUsed: number;
+}
+
+export class StratifiedDto {
+  @ApiProperty({ type: [String], description: 'Randomization strata keys (factor=level joined by "|"); "(none recorded)" for a missing key' }) strata: string[];
+  @ApiProperty({ description: 'False with fewer than two strata: nothing to stratify by' }) stratified: boolean;
+  @ApiProperty({ type: CochranMantelHaenszelDto, nullable: true, description: 'Dropped / not dropped by condition within strata' }) cmh: CochranMantelHaenszelDto | null;
+  @ApiProperty({ type: StratifiedLogRankDto, nullable: true, description: 'Time to dropout by condition within strata' }) logRank: StratifiedLogRankDto | null;
 }
 
 export class PaySummaryDto {
@@ -214,9 +282,24 @@ export class WelchAnovaDto {
   notComputable: string | null;
 }
 
+export class MeanDifferenceDto {
+  @ApiProperty() conditionId: string;
+  @ApiProperty() comparisonConditionId: string;
+  @ApiProperty({ enum: ['welch-t'] }) method: 'welch-t';
+  @ApiProperty({ type: Number, nullable: true, description: 'Mean of the condition minus the comparison, minor units' }) difference: number | null;
+  @ApiProperty() confidenceLevel: number;
+  @ApiProperty({ type: Number, nullable: true }) lower: number | null;
+  @ApiProperty({ type: Number, nullable: true }) upper: number | null;
+  @ApiProperty({ type: Number, nullable: true, description: 'Welch–Satterthwaite degrees of freedom' }) df: number | null;
+  @ApiProperty({ type: Number, nullable: true }) standardError: number | null;
+  @ApiProperty({ type: String, nullable: true, enum: ['fewer-than-two-in-a-condition', 'no-variation-in-either-condition'] }) notComputable: string | null;
+}
+
 export class PayComparisonDto {
   @ApiProperty({ type: Number, nullable: true, description: 'Largest minus smallest arm mean, minor units' }) largestMeanDifference: number | null;
   @ApiProperty({ type: WelchAnovaDto, description: "Welch's ANOVA: equal mean pay without assuming equal variances" }) test: WelchAnovaDto;
+  @ApiProperty({ type: [MeanDifferenceDto], description: "Each other arm's mean minus the comparison arm's, with a 95 % Welch t interval" })
+  differences: MeanDifferenceDto[];
 }
 
 export class PayBasisDto {
@@ -325,6 +408,7 @@ export class AttritionReportDto {
   @ApiProperty({ type: WwcAssessmentDto }) wwc: WwcAssessmentDto;
   @ApiProperty({ type: DropoutTestDto }) dropoutTest: DropoutTestDto;
   @ApiProperty({ type: SurvivalDto }) survival: SurvivalDto;
+  @ApiProperty({ type: StratifiedDto, description: 'Dropout tests within the randomization strata' }) stratified: StratifiedDto;
   @ApiProperty({ type: PayParityDto }) payParity: PayParityDto;
   @ApiProperty({ type: [CovariateBalanceRowDto] }) covariateBalance: CovariateBalanceRowDto[];
   @ApiProperty({ type: ConsortFlowDto }) flow: ConsortFlowDto;

@@ -17,6 +17,10 @@ export type CovariateBalanceRow = components['schemas']['CovariateBalanceRowDto'
 export type ConsortFlow = components['schemas']['ConsortFlowDto'];
 export type FlowBox = components['schemas']['FlowBoxDto'];
 export type ContactsByCondition = components['schemas']['ContactsByConditionDto'];
+export type Stratified = components['schemas']['StratifiedDto'];
+export type CoxModel = components['schemas']['CoxModelDto'];
+export type PlannedLength = components['schemas']['PlannedLengthDto'];
+export type MeanDifference = components['schemas']['MeanDifferenceDto'];
 
 export async function getAttritionReport(studyId: string, comparisonConditionId: string | null): Promise<AttritionReport> {
   return unwrap(

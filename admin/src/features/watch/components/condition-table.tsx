@@ -1,15 +1,24 @@
 import { tableRecipe } from '@/components/ui/recipes';
-import type { ConditionAttrition } from '../api/get-attrition-report';
-import { formatShare, formatShareInterval } from '../utils/watch-format';
+import type { ConditionAttrition, PlannedLength } from '../api/get-attrition-report';
+import { formatShare, formatShareInterval, plannedLengthCell } from '../utils/watch-format';
 
-export function ConditionTable({ conditions, studyClosed }: { conditions: readonly ConditionAttrition[]; studyClosed: boolean }) {
+export function ConditionTable({
+  conditions,
+  studyClosed,
+  plannedLength,
+}: {
+  conditions: readonly ConditionAttrition[];
+  studyClosed: boolean;
+  plannedLength?: PlannedLength;
+}) {
+  const plannedLabel = plannedLength && plannedLength.days !== null ? `Cumulative dropout by day ${plannedLength.days} (Kaplan–Meier)` : null;
   return (
     <div className={tableRecipe.frame}>
       <table className={tableRecipe.table}>
         <caption className="sr-only">Participants per condition</caption>
         <thead>
           <tr>
-            {['Condition', 'Randomized', studyClosed ? 'Did not complete by the close' : 'Active', 'Completed', 'Withdrew', 'Lost', 'Dropout so far', studyClosed ? 'Attrition (WWC)' : 'Attrition (WWC), window ended'].map((label, index) => (
+            {['Condition', 'Randomized', studyClosed ? 'Did not complete by the close' : 'Active', 'Completed', 'Withdrew', 'Lost', 'Dropout so far', studyClosed ? 'Attrition (WWC)' : 'Attrition (WWC), window ended', ...(plannedLabel ? [plannedLabel] : [])].map((label, index) => (
               <th key={label} scope="col" className={`${tableRecipe.headCell} ${index > 0 ? 'text-right' : ''}`}>
                 {label}
               </th>
@@ -40,6 +49,14 @@ export function ConditionTable({ conditions, studyClosed }: { conditions: readon
                 </span>
                 <span className="block text-2xs text-ink-muted">95% CI {formatShareInterval(condition.attritionInterval)}</span>
               </td>
+              {plannedLabel && plannedLength && (
+                <td className={`${tableRecipe.cell} text-right tabular-nums`} data-testid="planned-length-cell">
+                  {plannedLengthCell(
+                    plannedLength,
+                    plannedLength.conditions.find((entry) => entry.conditionId === condition.conditionId),
+                  )}
+                </td>
+              )}
             </tr>
           ))}
         </tbody>

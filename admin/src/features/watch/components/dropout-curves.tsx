@@ -1,7 +1,7 @@
 import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import type { AttritionReport } from '../api/get-attrition-report';
 import { toStepPoints } from '../utils/survival-steps';
-import { formatShare, logRankSentence } from '../utils/watch-format';
+import { formatShare, hazardRatioSentence, logRankSentence } from '../utils/watch-format';
 
 /** Follow-up is exact (fractions of a day); shown with two decimals. */
 const formatDay = (day: number) => day.toFixed(2);
@@ -70,6 +70,23 @@ export function DropoutCurves({ report }: { report: AttritionReport }) {
         Median time to dropout:{' '}
         {curves.map((curve) => `${curve.name} ${curve.median === null ? 'not reached (fewer than half dropped out)' : `${formatDay(curve.median)} days`}`).join('; ')}.
       </p>
+      <div className="text-sm text-ink" data-testid="hazard-ratios">
+        <p>
+          Cox proportional-hazards model, each condition against condition {names.get(report.survival.cox.comparisonConditionId) ?? '?'} (hazard of dropping out;
+          above 1 means people leave sooner):
+        </p>
+        <ul className="list-disc pl-5">
+          {report.survival.cox.hazardRatios.map((ratio) => (
+            <li key={ratio.conditionId}>
+              {hazardRatioSentence(ratio, names.get(ratio.conditionId) ?? '?', names.get(report.survival.cox.comparisonConditionId) ?? '?')}
+            </li>
+          ))}
+        </ul>
+        <p className="text-xs text-ink-muted">
+          Fitted by Newton–Raphson on the partial likelihood; tied dropout times use {report.survival.cox.ties === 'efron' ? "Efron's" : "Breslow's"} method;
+          95% Wald intervals on the log scale. It assumes the ratio stays the same over time: when the curves cross, read the curves instead.
+        </p>
+      </div>
       <p className="text-xs text-ink-muted">
         Follow-up times are exact (fractions of a day), not rounded to whole days. Completers are censored at completion, active participants at {new Date(report.survival.censoredAt).toLocaleString()}. Bands ({Math.round((report.survival.curves[0]?.confidenceLevel ?? 0.95) * 100)}%,
         Greenwood) are listed in the table below.

@@ -11,7 +11,9 @@ import { ContactsByCondition } from './contacts-by-condition';
 import { CovariateBalanceTable } from './covariate-balance-table';
 import { DropoutCurves } from './dropout-curves';
 import { PayParityTable } from './pay-parity-table';
+import { StratifiedTests } from './stratified-tests';
 import { WwcVerdicts } from './wwc-verdicts';
+import { plannedLengthExplanation } from '../utils/watch-format';
 
 export interface DropoutWatchProps {
   studyId: string;
@@ -94,13 +96,24 @@ export function DropoutWatch({ studyId, canEditAlerts, canExport }: DropoutWatch
 
       <Panel id="conditions" title="By condition" description={data.windowRule}>
         <div className="flex flex-col gap-3">
-          <ConditionTable conditions={data.conditions} studyClosed={data.studyStatus === 'closed'} />
+          <ConditionTable conditions={data.conditions} studyClosed={data.studyStatus === 'closed'} plannedLength={data.survival.plannedLength} />
           <RateDefinitions countingRule={data.countingRule} />
+          <p className="text-xs text-ink-muted" data-testid="planned-length">
+            {plannedLengthExplanation(data.survival.plannedLength)}
+          </p>
         </div>
       </Panel>
 
       <Panel id="curves" title="Dropout over time">
         <DropoutCurves report={data} />
+      </Panel>
+
+      <Panel
+        id="strata"
+        title="Within randomization strata"
+        description="Dropout compared within each stratum the randomization balanced on, then combined."
+      >
+        <StratifiedTests report={data} />
       </Panel>
 
       <Panel id="pay" title="Pay by condition">

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { tableRecipe } from '@/components/ui/recipes';
 import { Notice } from '@/components/ui/states';
 import { formatMinor } from '@/lib/money';
-import type { AttritionReport, WelchAnova } from '../api/get-attrition-report';
+import type { AttritionReport, MeanDifference, WelchAnova } from '../api/get-attrition-report';
 import { formatPValue, formatStatistic } from '../utils/watch-format';
 
 function testLine(test: WelchAnova): string {
@@ -11,12 +11,22 @@ function testLine(test: WelchAnova): string {
   return `Welch's test: F(${formatStatistic(test.df1, 0)}, ${formatStatistic(test.df2, 1)}) = ${formatStatistic(test.statistic)}, ${formatPValue(test.pValue)}.`;
 }
 
+function differenceLine(difference: MeanDifference, nameOf: (id: string) => string, money: (minor: number | null) => string): string {
+  const pair = `${nameOf(difference.conditionId)} minus ${nameOf(difference.comparisonConditionId)}`;
+  if (difference.lower === null || difference.upper === null) {
+    const why = difference.notComputable === 'no-variation-in-either-condition' ? 'everyone in both conditions has the same pay' : 'needs at least two people in each condition';
+    return `${pair}: ${money(difference.difference)} (no interval: ${why}).`;
+  }
+  return `${pair}: ${money(difference.difference)} (95% CI ${money(difference.lower)} to ${money(difference.upper)}, Welch t on ${formatStatistic(difference.df, 1)} df).`;
+}
+
 export function PayParityTable({ report }: { report: AttritionReport }) {
   const [basis, setBasis] = useState<'earned' | 'paid'>('earned');
   const pay = report.payParity;
   const data = pay[basis];
   const names = new Map(report.conditions.map((condition) => [condition.conditionId, condition.name]));
   const money = (minor: number | null) => (minor === null ? '—' : formatMinor(Math.round(minor), pay.currency));
+  const nameOf = (id: string) => names.get(id) ?? '?';
 
   return (
     <div className="flex flex-col gap-3">
@@ -60,13 +70,25 @@ export function PayParityTable({ report }: { report: AttritionReport }) {
       <ul className="flex flex-col gap-0.5 text-sm text-ink">
         <li>
           <span className="font-semibold">Per randomized:</span> largest difference {money(data.perRandomized.largestMeanDifference)}. {testLine(data.perRandomized.test)}
+          <ul className="list-disc pl-5" aria-label="Differences per randomized">
+            {data.perRandomized.differences.map((difference) => (
+              <li key={difference.conditionId}>{differenceLine(difference, nameOf, money)}</li>
+            ))}
+          </ul>
         </li>
         <li>
           <span className="font-semibold">Per completer:</span> largest difference {money(data.perCompleter.largestMeanDifference)}. {testLine(data.perCompleter.test)}
+          <ul className="list-disc pl-5" aria-label="Differences per completer">
+            {data.perCompleter.differences.map((difference) => (
+              <li key={difference.conditionId}>{differenceLine(difference, nameOf, money)}</li>
+            ))}
+          </ul>
         </li>
       </ul>
       <p className="text-xs text-ink-muted">
-        Welch's one-way ANOVA compares mean pay without assuming the conditions vary equally; unpaid randomized participants count as zero.
+        Welch's one-way ANOVA compares mean pay without assuming the conditions vary equally; each difference from the comparison condition has a 95%
+        Welch t interval (unequal variances, Welch–Satterthwaite degrees of freedom). Unpaid randomized participants count as zero. Screening aids, not
+        the study's analysis; pay rules defer to your institution's finance office.
       </p>
     </div>
   );

@@ -1,5 +1,18 @@
 import { describe, expect, it } from 'vitest';
-import { dropoutTestSentence, formatPValue, formatShare, logRankSentence, welchTestSentence, wwcVerdictDetail, wwcVerdictSentence } from './watch-format';
+import {
+  dropoutTestSentence,
+  formatPValue,
+  formatShare,
+  hazardRatioSentence,
+  logRankSentence,
+  plannedLengthCell,
+  plannedLengthExplanation,
+  stratifiedSentences,
+  stratumLabel,
+  welchTestSentence,
+  wwcVerdictDetail,
+  wwcVerdictSentence,
+} from './watch-format';
 
 describe('formatPValue', () => {
   // APA Publication Manual 7th ed. §6.36 (from memory): exact p to three decimals, "p < .001" below that.
@@ -150,5 +163,37 @@ describe('welchTestSentence', () => {
     expect(welchTestSentence({ statistic: 3.456, df1: 2, df2: 57.83, pValue: 0.0384, notComputable: null }, 'x')).toBe(
       "Welch's test: F(2, 57.8) = 3.46, p = 0.038.",
     );
+  });
+});
+
+describe('stratified tests, hazard ratios and the planned length in words', () => {
+  it('says plainly when there are no strata, and names both stratified tests when there are', () => {
+    expect(stratifiedSentences({ strata: ['all'], stratified: false, cmh: null, logRank: null })[0]).toMatch(/^This study has no randomization strata/);
+    const lines = stratifiedSentences({
+      strata: ['age=<30', 'age=≥30'],
+      stratified: true,
+      cmh: { statistic: 4.123, df: 2, pValue: 0.1272 },
+      logRank: { statistic: null, df: 0, pValue: null },
+    });
+    expect(lines).toEqual([
+      'Cochran–Mantel–Haenszel test of dropout by condition within strata: χ²(2) = 4.12, p = 0.127.',
+      'Stratified log-rank test of time to dropout within strata: not computable yet (no stratum has dropouts in two or more conditions).',
+    ]);
+    expect(stratumLabel('age=<30|site=north')).toBe('age <30, site north');
+  });
+
+  it('gives the hazard ratio with its interval, or why it cannot be estimated', () => {
+    expect(hazardRatioSentence({ hazardRatio: 2.3149, lower: 1.1, upper: 4.851, pValue: 0.0271, notEstimable: null }, 'B', 'A')).toBe(
+      'B vs A: hazard ratio 2.31 (95% CI 1.10–4.85), Wald p = 0.027.',
+    );
+    expect(hazardRatioSentence({ hazardRatio: null, lower: null, upper: null, pValue: null, notEstimable: 'no-dropouts' }, 'C', 'A')).toMatch(/not estimable \(nobody in it has dropped out/);
+  });
+
+  it('shows cumulative dropout at the planned length, or how far follow-up reaches', () => {
+    const planned = { days: 14, unknown: null };
+    expect(plannedLengthCell(planned, { cumulative: { cumulative: 0.25, lower: 0.1, upper: 0.4 }, longestFollowUp: 20 })).toBe('25.0% (95% CI 10.0–40.0%)');
+    expect(plannedLengthCell(planned, { cumulative: null, longestFollowUp: 9.25 })).toBe('follow-up reaches day 9.3 so far');
+    expect(plannedLengthCell({ days: null, unknown: 'no-steps' }, undefined)).toBe('—');
+    expect(plannedLengthExplanation({ days: null, unknown: 'a-step-has-no-due-date' })).toMatch(/some step has no due date/);
   });
 });

@@ -174,3 +174,79 @@ export function welchTestSentence(
   if (test.notComputable) return `Welch's test: not computable (${test.notComputable.replace(/-/g, ' ')}).`;
   return `Welch's test: F(${formatStatistic(test.df1, 0)}, ${formatStatistic(test.df2, 1)}) = ${formatStatistic(test.statistic)}, ${formatPValue(test.pValue)}.`;
 }
+
+export interface ChiSquareFigures {
+  statistic: number | null;
+  df: number;
+  pValue: number | null;
+}
+
+/** A randomization stratum key ("age=<30|site=north") in plain words ("age <30, site north"). */
+export function stratumLabel(key: string): string {
+  return key
+    .split('|')
+    .map((part) => part.replace('=', ' '))
+    .join(', ');
+}
+
+/** The two stratified tests, or why there is nothing to stratify by; one sentence each. */
+export function stratifiedSentences(stratified: { strata: string[]; stratified: boolean; cmh: ChiSquareFigures | null; logRank: ChiSquareFigures | null }): string[] {
+  if (!stratified.stratified) {
+    return [
+      stratified.strata.length === 0
+        ? 'Nobody is randomized yet, so there are no strata to test within.'
+        : 'This study has no randomization strata: everyone was randomized in one stratum, so there is nothing to stratify by and the pooled tests above stand as they are.',
+    ];
+  }
+  const line = (name: string, test: ChiSquareFigures | null) =>
+    test === null || test.statistic === null
+      ? `${name}: not computable yet (no stratum has dropouts in two or more conditions).`
+      : `${name}: χ²(${test.df}) = ${formatStatistic(test.statistic)}, ${formatPValue(test.pValue)}.`;
+  return [
+    line('Cochran–Mantel–Haenszel test of dropout by condition within strata', stratified.cmh),
+    line('Stratified log-rank test of time to dropout within strata', stratified.logRank),
+  ];
+}
+
+const NOT_ESTIMABLE: Record<string, string> = {
+  'nobody-randomized': 'nobody is randomized to it',
+  'no-dropouts': 'nobody in it has dropped out, so the ratio would be 0',
+  'comparison-has-no-dropouts': 'nobody in the comparison condition has dropped out',
+  'did-not-converge': 'the model did not converge',
+  'infinite-estimate': 'the estimate runs off without bound (dropouts in one condition all fall where the other has none)',
+};
+
+/** One condition's Cox hazard ratio against the comparison, e.g. "B vs A: hazard ratio 2.31 (95% CI 1.10–4.85), p = 0.027". */
+export function hazardRatioSentence(
+  ratio: { hazardRatio: number | null; lower: number | null; upper: number | null; pValue: number | null; notEstimable: string | null },
+  name: string,
+  comparisonName: string,
+): string {
+  if (ratio.hazardRatio === null || ratio.lower === null || ratio.upper === null) {
+    return `${name} vs ${comparisonName}: not estimable (${NOT_ESTIMABLE[ratio.notEstimable ?? ''] ?? 'not enough data'}).`;
+  }
+  return `${name} vs ${comparisonName}: hazard ratio ${formatStatistic(ratio.hazardRatio)} (95% CI ${formatStatistic(ratio.lower)}–${formatStatistic(ratio.upper)}), Wald ${formatPValue(ratio.pValue)}.`;
+}
+
+/** What the planned-length column shows for one condition. */
+export function plannedLengthCell(
+  planned: { days: number | null; unknown: string | null },
+  condition: { cumulative: { cumulative: number; lower: number | null; upper: number | null } | null; longestFollowUp: number | null } | undefined,
+): string {
+  if (planned.days === null) return '—';
+  if (!condition || condition.cumulative === null) {
+    return condition?.longestFollowUp === null || condition === undefined ? 'nobody yet' : `follow-up reaches day ${condition.longestFollowUp.toFixed(1)} so far`;
+  }
+  const { cumulative, lower, upper } = condition.cumulative;
+  return lower === null || upper === null ? formatShare(cumulative) : `${formatShare(cumulative)} (95% CI ${formatShareInterval({ lower, upper })})`;
+}
+
+/** Why no planned length is known, in plain words. */
+export function plannedLengthExplanation(planned: { days: number | null; unknown: string | null }): string {
+  if (planned.days !== null) {
+    return `Cumulative dropout by day ${planned.days}, the planned study length (the last due day when every step is done on its due day), read off the Kaplan–Meier curve with its 95% log-log band.`;
+  }
+  return planned.unknown === 'a-step-has-no-due-date'
+    ? 'No planned study length: some step has no due date, so the schedule sets no end.'
+    : 'No planned study length: the study has no steps yet.';
+}
