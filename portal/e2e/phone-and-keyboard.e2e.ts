@@ -68,7 +68,7 @@ describe('every portal screen on a phone and by keyboard', () => {
     await checkScreen('sign-in', { minStops: 2 });
     await page.getByLabel('Your e-mail address').fill('not-an-address');
     await page.keyboard.press('Tab');
-    await page.getByText(/e-mail address/i).filter({ hasText: /Please/ }).first().waitFor();
+    await page.getByText('Enter an e-mail address like name@example.com.').waitFor();
     await shoot(page, 'sign-in-field-checked-on-leaving');
     await page.getByLabel('Your e-mail address').fill(email);
     await page.getByLabel('Your e-mail address').press('Enter');
