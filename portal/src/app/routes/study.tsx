@@ -239,14 +239,13 @@ function EnrollmentStage({ study, enrollment }: { study: PublicStudy; enrollment
       ) : null}
 
       {next === 'withdrawn' ? (
-        <>
-          <WithdrawnConfirmation
-            studyTitle={enrollment.studyTitle}
-            withdrewAt={withdrawal?.withdrewAt ?? enrollment.withdrewAt}
-            currency={enrollment.currency}
-            earnedMinor={withdrawal?.earnedMinor ?? enrollment.earned.earnedMinor}
-            stillToBePaidMinor={withdrawal?.stillToBePaidMinor ?? enrollment.earned.stillToBePaidMinor}
-          />
+        <WithdrawnConfirmation
+          studyTitle={enrollment.studyTitle}
+          withdrewAt={withdrawal?.withdrewAt ?? enrollment.withdrewAt}
+          currency={enrollment.currency}
+          earnedMinor={withdrawal?.earnedMinor ?? enrollment.earned.earnedMinor}
+          stillToBePaidMinor={withdrawal?.stillToBePaidMinor ?? enrollment.earned.stillToBePaidMinor}
+        >
           {/* The form promises the signed copy stays downloadable at any time, stopping included. */}
           {enrollment.consent.signedVersionId ? (
             <SignedFormDownload
@@ -255,7 +254,7 @@ function EnrollmentStage({ study, enrollment }: { study: PublicStudy; enrollment
               enrollmentReference={enrollment.reference}
             />
           ) : null}
-        </>
+        </WithdrawnConfirmation>
       ) : null}
 
       {stopTakingPart}
