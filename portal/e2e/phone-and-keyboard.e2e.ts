@@ -28,8 +28,7 @@ describe('every portal screen on a phone and by keyboard', () => {
   });
 
   /** The checks every screen gets: a screenshot, no sideways overflow, a visible outline at every Tab stop. */
-  async function checkScreen(name: string, { fullPage = true, minStops = 1 } = {}) {
-    const { page } = browser;
+  async function checkScreen(name: string, { fullPage = true, minStops = 1, page = browser.page } = {}) {
     await shoot(page, name, { fullPage });
     expect(await sidewaysOverflow(page), `${name}: the page is wider than the phone`).toBeLessThanOrEqual(0);
     const { stops, missing } = await stopsWithoutVisibleFocus(page);
@@ -164,5 +163,23 @@ describe('every portal screen on a phone and by keyboard', () => {
     await page.goto(`${e2eEnv.portalUrl}/return`);
     await page.getByRole('heading', { level: 1 }).waitFor();
     await checkScreen('task-return-incomplete');
+  });
+
+  it('shows the signed-out screens with the same focus outline in a desktop window', async () => {
+    const desktop = await launchBrowser('desktop');
+    try {
+      const { page } = desktop;
+      await page.goto(`${e2eEnv.portalUrl}/s/${studySlug}`);
+      await page.getByRole('heading', { level: 1, name: 'Wayfinding cues' }).waitFor();
+      await checkScreen('desktop-study-page', { minStops: 3, page });
+      await page.goto(`${e2eEnv.portalUrl}/sign-in?study=${studySlug}`);
+      await page.getByLabel('Your e-mail address').waitFor();
+      await checkScreen('desktop-sign-in', { minStops: 2, page });
+      await page.goto(`${e2eEnv.portalUrl}/sign-in/link?token=abc`);
+      await page.getByRole('heading', { name: 'This sign-in link is not complete' }).waitFor();
+      await checkScreen('desktop-sign-in-link-malformed', { minStops: 2, page });
+    } finally {
+      await desktop.close();
+    }
   });
 });
