@@ -294,6 +294,17 @@ describe('signing', () => {
       [signed.enrollment.id],
     );
     expect(kept).toMatchObject({ status: 'withdrew', withdrawal_reason: 'Moving away', signatures: '1', allocations: '1' });
+
+    // The form promises the signed copy stays downloadable at any time: stopping keeps it, byte for byte.
+    const afterStopping = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
+    expect(afterStopping).toMatchObject({ next: 'withdrawn', consent: { signedVersionId: version.id } });
+    const again = await browser.get(`/api/studies/${studyId}/enrollments/me/consent.pdf`).buffer(true).parse((res, done) => {
+      const chunks: Buffer[] = [];
+      res.on('data', (chunk: Buffer) => chunks.push(chunk));
+      res.on('end', () => done(null, Buffer.concat(chunks)));
+    });
+    expect(again.status).toBe(200);
+    expect(createHash('sha256').update(again.body as Buffer).digest('hex')).toBe(sha);
   });
 
   it('records an ineligible person as excluded with the reason', async () => {

@@ -11,7 +11,7 @@ describe('fillConsentTemplate', () => {
   it('fills every placeholder from the study fields', () => {
     expect(body).not.toMatch(/\{\{|\}\}|to fill/);
     expect(text).toContain('Consent to take part in a research study: Wayfinding cues');
-    expect(text).toContain('Harbor Lane Institute · Harbor Lane Cognition Lab · Ethics protocol HLCL-2025-014');
+    expect(text).toContain('Harbor Lane Institute · Harbor Lane Cognition Lab · Protocol number HLCL-2025-014');
     expect(text).toContain('contact Dr. Ines Valcourt, the investigator in charge, at wayfinding@harbor-lane.test.');
     expect(text).toContain('About 180 people will take part in this study.');
   });

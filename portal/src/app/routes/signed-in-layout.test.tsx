@@ -22,6 +22,8 @@ describe('signed-in area', () => {
         status: 200,
         body: { items: [{ id: 'a0c4', slug: 'wayfinding-cues', title: 'Wayfinding cues', status: 'recruiting', design: 'between' }] },
       },
+      // Staff have no part of their own in a study.
+      'GET /api/studies/a0c4/enrollments/me': problem(404, 'NOT_FOUND', 'You have not joined this study.'),
     });
     renderApp('/');
 

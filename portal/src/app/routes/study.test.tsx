@@ -2,7 +2,7 @@ import { screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { describe, expect, it } from 'vitest';
 import { installFakeApi, participant, problem, signedOutHandlers } from '@/test/fake-api';
-import { enrollment, publicStudy, studyId } from '@/test/participant-fixtures';
+import { enrollment, pdfBytes, publicStudy, signedEnrollment, studyId } from '@/test/participant-fixtures';
 import { renderApp } from '@/test/render-app';
 
 const studyPage = 'GET /api/public/studies/wayfinding-cues';
@@ -158,5 +158,54 @@ describe('coming back from the e-mailed link', () => {
     renderApp('/studies');
 
     expect(await screen.findByRole('link', { name: 'Wayfinding cues' }, { timeout: 3_000 })).toHaveAttribute('href', '/s/wayfinding-cues');
+  });
+
+  it('keeps the signed form downloadable for someone who stopped taking part', async () => {
+    installFakeApi({
+      'GET /api/auth/me': { status: 200, body: participant },
+      [studyPage]: { status: 200, body: publicStudy },
+      [`GET /api/studies/${studyId}/enrollments/me`]: {
+        status: 200,
+        body: signedEnrollment({ status: 'withdrew', next: 'withdrawn', withdrewAt: '2026-02-09T16:30:00.000Z' }),
+      },
+      [`GET /api/studies/${studyId}/enrollments/me/consent.pdf`]: { status: 200, raw: { bytes: pdfBytes, contentType: 'application/pdf' } },
+    });
+    renderApp('/s/wayfinding-cues');
+
+    expect(await screen.findByRole('heading', { name: 'You have stopped taking part' }, { timeout: 3_000 })).toBeInTheDocument();
+    const download = await screen.findByRole('link', { name: 'Download your signed form (PDF)' });
+    expect(download).toHaveAttribute('download', 'signed-consent-WC-0042.pdf');
+    expect(screen.queryByRole('heading', { name: 'Your steps' })).not.toBeInTheDocument();
+  });
+
+  it('shows in "Your studies" each study\'s true state: stopped, completed, taking part', async () => {
+    const ids = { stopped: 'a1', completed: 'b2', running: 'c3' };
+    installFakeApi({
+      'GET /api/auth/me': { status: 200, body: participant },
+      'GET /api/studies': {
+        status: 200,
+        body: {
+          items: [
+            { id: ids.stopped, slug: 'stopped', title: 'Stopped study', status: 'recruiting', design: 'between', archivedAt: null },
+            { id: ids.completed, slug: 'completed', title: 'Completed study', status: 'closed', design: 'between', archivedAt: null },
+            { id: ids.running, slug: 'running', title: 'Running study', status: 'recruiting', design: 'between', archivedAt: null },
+          ],
+        },
+      },
+      [`GET /api/studies/${ids.stopped}/enrollments/me`]: { status: 200, body: signedEnrollment({ studyId: ids.stopped, status: 'withdrew', next: 'withdrawn' }) },
+      [`GET /api/studies/${ids.completed}/enrollments/me`]: { status: 200, body: signedEnrollment({ studyId: ids.completed, status: 'completed', next: 'done' }) },
+      [`GET /api/studies/${ids.running}/enrollments/me`]: { status: 200, body: signedEnrollment({ studyId: ids.running }) },
+    });
+    renderApp('/studies');
+
+    const card = async (title: string) => within((await screen.findByRole('link', { name: title }, { timeout: 3_000 })).closest('li')!);
+    const stopped = await card('Stopped study');
+    expect(await stopped.findByText('You stopped taking part')).toBeInTheDocument();
+    expect(stopped.getByText('Running')).toBeInTheDocument();
+    const completed = await card('Completed study');
+    expect(await completed.findByText('You completed it')).toBeInTheDocument();
+    expect(completed.getByText('Finished')).toBeInTheDocument();
+    const running = await card('Running study');
+    expect(await running.findByText('Taking part')).toBeInTheDocument();
   });
 });

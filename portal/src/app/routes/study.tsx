@@ -1,4 +1,4 @@
-import { useEffect, useRef, useState } from 'react';
+import { type ReactNode, useEffect, useRef, useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { PageLayout } from '@/components/layout/page-layout';
 import { Button, ButtonLink } from '@/components/ui/button';
@@ -143,6 +143,21 @@ function EnrollmentStage({ study, enrollment }: { study: PublicStudy; enrollment
     window.scrollTo?.({ top: 0 });
     headingRef.current?.focus();
   }, [reconsentAsked, next]);
+
+  // Each stage (questions, form, steps) replaces the one before in place, and a phone would stay scrolled down to
+  // where the last button was, past the new heading. Start the new stage at the top, with focus on the study title.
+  // Two stages put focus somewhere better of their own: the signing confirmation and the withdrawal confirmation.
+  const shownStage = useRef<MyEnrollment['next'] | null>(null);
+  useEffect(() => {
+    const previous = shownStage.current;
+    shownStage.current = next;
+    if (previous === next || next === 'withdrawn' || (next === 'steps' && signature)) return;
+    const heading = headingRef.current;
+    // On first arrival leave a page that already opens at its heading alone (a reload keeps its place).
+    if (previous === null && heading && heading.getBoundingClientRect().top >= 0) return;
+    window.scrollTo?.({ top: 0 });
+    heading?.focus({ preventScroll: true });
+  }, [next, signature]);
   const assignment = enrollment.assignment ?? signature?.assignment ?? null;
 
   const stopTakingPart =
@@ -192,16 +207,19 @@ function EnrollmentStage({ study, enrollment }: { study: PublicStudy; enrollment
       {next === 'steps' || next === 'done' ? (
         <>
           {signature ? (
-            <Notice tone="success" title="You have signed the consent form">
-              Signed on {formatDateTime(signature.signedAt)}. Thank you for taking part.
-            </Notice>
-          ) : null}
-          {next === 'done' ? (
-            <Notice tone="success" title="You have completed every step">
-              Thank you for taking part. Anything still owed to you will be paid as usual.
-            </Notice>
-          ) : null}
-          {assignment ? <YourCondition assignment={assignment} /> : null}
+            <SignedConfirmation signedAt={signature.signedAt}>
+              {assignment ? <YourCondition assignment={assignment} /> : null}
+            </SignedConfirmation>
+          ) : (
+            <>
+              {next === 'done' ? (
+                <Notice tone="success" title="You have completed every step">
+                  Thank you for taking part. Anything still owed to you will be paid as usual.
+                </Notice>
+              ) : null}
+              {assignment ? <YourCondition assignment={assignment} /> : null}
+            </>
+          )}
           {enrollment.consent.signedVersionId ? (
             <SignedFormDownload
               studyId={enrollment.studyId}
@@ -227,11 +245,46 @@ function EnrollmentStage({ study, enrollment }: { study: PublicStudy; enrollment
           currency={enrollment.currency}
           earnedMinor={withdrawal?.earnedMinor ?? enrollment.earned.earnedMinor}
           stillToBePaidMinor={withdrawal?.stillToBePaidMinor ?? enrollment.earned.stillToBePaidMinor}
-        />
+        >
+          {/* The form promises the signed copy stays downloadable at any time, stopping included. */}
+          {enrollment.consent.signedVersionId ? (
+            <SignedFormDownload
+              studyId={enrollment.studyId}
+              signedVersionId={enrollment.consent.signedVersionId}
+              enrollmentReference={enrollment.reference}
+            />
+          ) : null}
+        </WithdrawnConfirmation>
       ) : null}
 
       {stopTakingPart}
     </div>
+  );
+}
+
+/**
+ * Right after signing: the confirmation with what the person was assigned to do, brought into view and focused, so on
+ * a phone (or by keyboard, where focus would otherwise fall back to the page) it is the first thing they meet.
+ */
+function SignedConfirmation({ signedAt, children }: { signedAt: string; children: ReactNode }) {
+  const headingRef = useRef<HTMLHeadingElement>(null);
+  useEffect(() => {
+    const heading = headingRef.current;
+    if (!heading) return;
+    heading.focus({ preventScroll: true });
+    heading.scrollIntoView?.({ block: 'start' });
+  }, []);
+
+  return (
+    <section aria-labelledby="signed-heading" className="flex scroll-mt-4 flex-col gap-5">
+      <div role="status" className="flex flex-col gap-1 rounded-soft border-l-4 border-moss bg-moss-tint px-4 py-3 text-moss-ink">
+        <h2 id="signed-heading" ref={headingRef} tabIndex={-1} className="scroll-mt-4 text-lead font-bold focus:outline-none">
+          You have signed the consent form
+        </h2>
+        <p className="text-fine text-ink">Signed on {formatDateTime(signedAt)}. Thank you for taking part.</p>
+      </div>
+      {children}
+    </section>
   );
 }
 

@@ -6,8 +6,7 @@ export type ButtonVariant = 'primary' | 'secondary' | 'quiet';
 const base =
   'inline-flex min-h-12 items-center justify-center gap-2 rounded-soft px-5 py-3 text-body font-semibold ' +
   'transition-colors duration-150 select-none cursor-pointer ' +
-  'focus:outline-none data-focus:outline-3 data-focus:outline-offset-3 data-focus:outline-lagoon ' +
-  'data-disabled:cursor-not-allowed data-disabled:opacity-60';
+    'data-disabled:cursor-not-allowed data-disabled:opacity-60';
 
 const variants: Record<ButtonVariant, string> = {
   primary: 'bg-clay text-white shadow-card data-hover:bg-clay-deep data-active:bg-clay-deep',
@@ -28,7 +27,7 @@ export function Button({ variant = 'primary', className = '', wide = false, type
 
 type ButtonLinkProps = LinkProps & { variant?: ButtonVariant; wide?: boolean };
 
-// Router links have no data-focus attribute, so they use the plain :focus-visible outline from index.css.
+// Buttons and button-links share the one :focus-visible outline from index.css (no focus style of their own).
 export function ButtonLink({ variant = 'primary', className = '', wide = false, ...props }: ButtonLinkProps) {
   return <Link className={buttonClasses(variant, `${wide ? 'w-full' : ''} ${className}`)} {...props} />;
 }

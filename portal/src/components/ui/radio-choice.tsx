@@ -18,12 +18,11 @@ type RadioChoiceProps = {
 
 const optionClasses =
   'flex min-h-12 cursor-pointer items-center gap-3 rounded-soft border-2 border-sand-deep bg-paper-raised px-4 py-3 ' +
-  'has-[[data-checked]]:border-clay has-[[data-checked]]:bg-clay-tint has-[[data-focus]]:outline-3 ' +
-  'has-[[data-focus]]:outline-offset-2 has-[[data-focus]]:outline-lagoon';
+  'has-[[data-checked]]:border-clay has-[[data-checked]]:bg-clay-tint has-[[data-focus]]:border-lagoon';
 
 const radioClasses =
   'group flex size-6 shrink-0 items-center justify-center rounded-full border-2 border-edge bg-white ' +
-  'focus:outline-none data-checked:border-clay data-checked:bg-clay';
+  'data-checked:border-clay data-checked:bg-clay';
 
 /**
  * One answer out of a few, as big tappable rows. The question is a Headless UI Label inside the group, and the hint

@@ -16,8 +16,7 @@ type SelectListProps = {
 
 const buttonClasses =
   'flex min-h-12 w-full items-center justify-between gap-3 rounded-soft border-2 border-edge bg-paper-raised px-4 py-3 ' +
-  'text-left text-lead text-ink focus:outline-none data-focus:border-lagoon data-focus:outline-3 data-focus:outline-offset-2 ' +
-  'data-focus:outline-lagoon data-invalid:border-ember data-open:border-lagoon';
+  'text-left text-lead text-ink data-focus:border-lagoon data-invalid:border-ember data-open:border-lagoon';
 
 const optionsClasses =
   'z-20 w-(--button-width) rounded-soft border-2 border-edge bg-paper-raised py-1 shadow-card [--anchor-gap:0.25rem] ' +

@@ -9,8 +9,7 @@ type TextAreaFieldProps = Omit<ComponentPropsWithRef<'textarea'>, 'className' | 
 
 const textareaClasses =
   'block w-full min-h-28 rounded-soft border-2 border-edge bg-paper-raised px-4 py-3 text-body text-ink ' +
-  'focus:outline-none data-focus:border-lagoon data-focus:outline-3 data-focus:outline-offset-2 ' +
-  'data-focus:outline-lagoon data-invalid:border-ember data-disabled:opacity-60';
+  'data-focus:border-lagoon data-invalid:border-ember data-disabled:opacity-60';
 
 export function TextAreaField({ label, hint, error, disabled, ...textareaProps }: TextAreaFieldProps) {
   return (

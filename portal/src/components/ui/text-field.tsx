@@ -9,8 +9,7 @@ type TextFieldProps = Omit<ComponentPropsWithRef<'input'>, 'className' | 'childr
 
 const inputClasses =
   'block w-full min-h-12 rounded-soft border-2 border-edge bg-paper-raised px-4 py-3 text-lead text-ink ' +
-  'placeholder:text-ink-soft/70 focus:outline-none data-focus:border-lagoon data-focus:outline-3 ' +
-  'data-focus:outline-offset-2 data-focus:outline-lagoon data-invalid:border-ember data-disabled:opacity-60';
+  'placeholder:text-ink-soft/70 data-focus:border-lagoon data-invalid:border-ember data-disabled:opacity-60';
 
 /** A labelled text input; hint and error are announced with it (Headless UI wires aria-describedby). */
 export function TextField({ label, hint, error, disabled, ...inputProps }: TextFieldProps) {

@@ -4,7 +4,7 @@ import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { TextField } from '@/components/ui/text-field';
 import { isApiError } from '@/lib/api-problem';
-import { describeProblem } from '@/lib/problem-message';
+import { describeProblem, plainFieldMessage } from '@/lib/problem-message';
 import { signInLinkFormSchema, useRequestSignInLink, type SignInLinkFormValues } from '../api/request-sign-in-link';
 
 type EmailSignInFormProps = {
@@ -17,6 +17,8 @@ type EmailSignInFormProps = {
 export function EmailSignInForm({ studySlug, defaultEmail = '', onSent }: EmailSignInFormProps) {
   const requestLink = useRequestSignInLink();
   const { control, handleSubmit, setError, formState } = useForm({
+    // Each field is checked as soon as the person leaves it, then again as they correct it.
+    mode: 'onTouched',
     resolver: zodResolver(signInLinkFormSchema),
     defaultValues: { email: defaultEmail } satisfies SignInLinkFormValues,
   });
@@ -29,7 +31,9 @@ export function EmailSignInForm({ studySlug, defaultEmail = '', onSent }: EmailS
       const emailProblem = isApiError(error, 'VALIDATION_FAILED')
         ? error.fieldErrors.find((fieldError) => fieldError.field === 'email')
         : undefined;
-      if (emailProblem) setError('email', { message: emailProblem.message }, { shouldFocus: true });
+      if (emailProblem) {
+        setError('email', { message: plainFieldMessage(emailProblem, 'Please enter your whole e-mail address, like name@example.com.') }, { shouldFocus: true });
+      }
       else setError('root.server', { message: describeProblem(error) });
     }
   });

@@ -62,4 +62,25 @@ describe('opening the e-mailed sign-in link', () => {
     expect(await screen.findByRole('heading', { name: 'Your studies' })).toBeInTheDocument();
     expect(fakeApi.callsTo('POST', '/api/auth/sign-in-link/consume')).toHaveLength(2);
   });
+
+  it('says in plain words that a malformed link is not complete, never the api\'s field message', async () => {
+    installFakeApi({
+      ...signedOutHandlers,
+      'POST /api/auth/sign-in-link/consume': {
+        status: 400,
+        body: {
+          statusCode: 400,
+          code: 'VALIDATION_FAILED',
+          message: 'Some fields are not right',
+          errors: [{ field: 'token', message: 'token is not a sign-in token' }],
+        },
+      },
+    });
+    renderApp('/sign-in/link?token=abc');
+
+    expect(await screen.findByRole('heading', { name: 'This sign-in link is not complete' })).toBeInTheDocument();
+    expect(screen.getByText(/Ask for a new link and tap it straight from the e-mail/)).toBeInTheDocument();
+    expect(screen.queryByText(/token/i)).not.toBeInTheDocument();
+    expect(screen.getByRole('link', { name: 'Send me a new sign-in link' })).toHaveAttribute('href', '/sign-in');
+  });
 });

@@ -33,6 +33,15 @@ export function SignInLinkStatus({ token, onSignedIn }: SignInLinkStatusProps) {
   }
 
   if (consume.isError) {
+    // The api refuses an address that is not a whole sign-in link before looking it up; say so in our words.
+    if (isApiError(consume.error, 'VALIDATION_FAILED')) {
+      return (
+        <LinkProblem title="This sign-in link is not complete">
+          Part of the link is missing or was changed, which can happen when a link is copied by hand or split across two
+          lines. Ask for a new link and tap it straight from the e-mail.
+        </LinkProblem>
+      );
+    }
     if (isApiError(consume.error, 'LINK_INVALID')) {
       return (
         <LinkProblem title="This sign-in link can no longer be used">

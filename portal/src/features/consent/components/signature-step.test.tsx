@@ -177,4 +177,53 @@ describe('signing the consent form', () => {
     ).toBeInTheDocument();
     expect(fakeApi.callsTo('GET', `/api/studies/${studyId}/enrollments/me/consent.pdf`)).toHaveLength(2);
   }, 10_000);
+
+  it('checks the name as soon as the signer leaves the field, before the button is pressed', async () => {
+    const fakeApi = atSigning();
+    const user = await openSignature();
+
+    await user.type(screen.getByLabelText('Your full name'), 'R');
+    await user.tab();
+
+    expect(await screen.findByText('Please type your full name, at least 2 letters.')).toBeInTheDocument();
+    await user.type(screen.getByLabelText('Your full name'), 'obin Ash');
+    await waitFor(() => expect(screen.queryByText('Please type your full name, at least 2 letters.')).not.toBeInTheDocument());
+    expect(fakeApi.callsTo('POST', signaturePath)).toHaveLength(0);
+  });
+
+  it('puts the api\'s refusal of the name in plain words, without its field name', async () => {
+    atSigning({
+      [`POST ${signaturePath}`]: {
+        status: 400,
+        body: {
+          statusCode: 400,
+          code: 'VALIDATION_FAILED',
+          message: 'Some fields are not right',
+          errors: [{ field: 'typedName', message: 'typedName must be your full name (2 to 200 characters)' }],
+        },
+      },
+    });
+    const user = await openSignature();
+
+    await user.type(screen.getByLabelText('Your full name'), 'Robin Ash');
+    await user.click(screen.getByRole('button', { name: 'Sign the form' }));
+
+    expect(await screen.findByText('Please type your full name, 2 to 200 characters.')).toBeInTheDocument();
+    expect(screen.queryByText(/typedName/)).not.toBeInTheDocument();
+    expect(screen.getByLabelText('Your full name')).toHaveFocus();
+  });
+
+  it('after signing, moves focus to the confirmation, with the assigned instructions right under it', async () => {
+    atSigning();
+    const user = await openSignature();
+
+    await user.type(screen.getByLabelText('Your full name'), 'Robin Ash');
+    await user.keyboard('{Enter}');
+
+    const confirmation = await screen.findByRole('heading', { name: 'You have signed the consent form' });
+    await waitFor(() => expect(confirmation).toHaveFocus());
+    const section = confirmation.closest('section')!;
+    expect(section).toContainElement(screen.getByRole('heading', { name: 'Route guide A' }));
+    expect(section).toContainElement(screen.getByText('Use headphones if you can.'));
+  });
 });

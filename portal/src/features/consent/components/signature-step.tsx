@@ -5,7 +5,7 @@ import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { TextField } from '@/components/ui/text-field';
 import { isApiError } from '@/lib/api-problem';
-import { describeProblem } from '@/lib/problem-message';
+import { describeProblem, plainFieldMessage } from '@/lib/problem-message';
 import type { ConsentToSign } from '../api/get-consent';
 import {
   type CurrentConsentVersion,
@@ -35,6 +35,7 @@ export function SignatureStep({ studyId, consent, onSigned, onVersionChanged, on
   const headingRef = useRef<HTMLHeadingElement>(null);
   const { control, handleSubmit, setError, formState } = useForm<SignatureFormValues>({
     resolver: zodResolver(signatureFormSchema),
+    mode: 'onTouched',
     defaultValues: { typedName: '', mark: '' },
   });
 
@@ -52,8 +53,12 @@ export function SignatureStep({ studyId, consent, onSigned, onVersionChanged, on
       const fieldErrors = isApiError(error, 'VALIDATION_FAILED') ? error.fieldErrors : [];
       const nameProblem = fieldErrors.find((fieldError) => fieldError.field === 'typedName');
       const markProblem = fieldErrors.find((fieldError) => fieldError.field === 'mark');
-      if (nameProblem) setError('typedName', { message: nameProblem.message }, { shouldFocus: true });
-      if (markProblem) setError('mark', { message: markProblem.message });
+      if (nameProblem) {
+        setError('typedName', { message: plainFieldMessage(nameProblem, 'Please type your full name, 2 to 200 characters.') }, { shouldFocus: true });
+      }
+      if (markProblem) {
+        setError('mark', { message: plainFieldMessage(markProblem, 'Your drawing could not be saved. Please clear it and draw it again, or leave it out.') });
+      }
       if (!nameProblem && !markProblem) setError('root.server', { message: signingProblem(error) });
     }
   });

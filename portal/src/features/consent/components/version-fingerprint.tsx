@@ -8,7 +8,7 @@ type VersionFingerprintProps = {
   approval: { reference: string; approvedAt: string };
 };
 
-/** Which form this is: its version, its ethics approval, and the fingerprint that the signed copy will carry too. */
+/** Which form this is: its version, the ethics board's approval reference and date (not the protocol number), and the fingerprint that the signed copy will carry too. */
 export function VersionFingerprint({ version, fingerprint, approval }: VersionFingerprintProps) {
   return (
     <div className="flex flex-col gap-2 rounded-soft border border-sand-deep bg-paper-raised px-4 py-3 text-fine">
@@ -18,7 +18,7 @@ export function VersionFingerprint({ version, fingerprint, approval }: VersionFi
           <dd className="font-semibold">Version {version}</dd>
         </div>
         <div className="flex flex-wrap justify-between gap-x-3">
-          <dt className="text-ink-soft">Ethics approval</dt>
+          <dt className="text-ink-soft">Ethics approval reference</dt>
           <dd className="font-semibold">
             {approval.reference}, {formatDate(approval.approvedAt)}
           </dd>
@@ -32,7 +32,7 @@ export function VersionFingerprint({ version, fingerprint, approval }: VersionFi
         </div>
       </dl>
       <Disclosure>
-        <DisclosureButton className="self-start rounded-soft font-semibold text-clay-ink underline underline-offset-4 focus:outline-none data-focus:outline-3 data-focus:outline-lagoon">
+        <DisclosureButton className="self-start rounded-soft font-semibold text-clay-ink underline underline-offset-4">
           Show the whole fingerprint
         </DisclosureButton>
         <DisclosurePanel className="flex flex-col gap-2">

@@ -29,6 +29,20 @@ export function numberRangeHint(question: ScreeningQuestion): string | null {
   return range ? `A number ${range}` : null;
 }
 
+/** What to ask for when an answer is not right, in the question's own terms (also used for the api's refusals). */
+export function answerProblemInWords(question: ScreeningQuestion): string {
+  switch (question.kind) {
+    case 'yes-no':
+      return 'Please choose Yes or No.';
+    case 'number': {
+      const range = rangeWords(question.min, question.max);
+      return range ? `Please enter a number ${range}.` : 'Please enter a number.';
+    }
+    case 'choice':
+      return 'Please choose one of the answers.';
+  }
+}
+
 function answerSchema(question: ScreeningQuestion) {
   switch (question.kind) {
     case 'yes-no':

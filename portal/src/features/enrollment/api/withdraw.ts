@@ -11,6 +11,12 @@ export type Withdrawal =
 
 export const WITHDRAWAL_REASON_MAX = 1000;
 
+/** The counter under the reason: how many characters are left, or by how many the text is over the limit. */
+export function reasonCountInWords(length: number, max = WITHDRAWAL_REASON_MAX): string {
+  const characters = (count: number) => (count === 1 ? '1 character' : `${count} characters`);
+  return length > max ? `${characters(length - max)} too many` : `${characters(max - length)} left`;
+}
+
 export const withdrawFormSchema = z
   .object({
     reason: z

@@ -175,4 +175,38 @@ describe('screening form built from the study\'s questions', () => {
     expect(await screen.findByText('Is not one of the options.')).toBeInTheDocument();
     expect(screen.getByRole('radiogroup', { name: 'How do you usually get around town?' })).toHaveAttribute('aria-invalid', 'true');
   });
+
+  it('checks a number as soon as the person leaves the question, before saving', async () => {
+    const fakeApi = atScreening();
+    const user = await openScreening();
+
+    await user.type(screen.getByLabelText('How good is your sense of direction?'), '150');
+    await user.tab();
+
+    expect(await screen.findByText('Please enter a number from 1 to 7.')).toBeInTheDocument();
+    expect(fakeApi.callsTo('PUT', screeningPath)).toHaveLength(0);
+  });
+
+  it('puts an api refusal that names its own field in the question\'s words instead', async () => {
+    atScreening({
+      [`PUT ${screeningPath}`]: {
+        status: 400,
+        body: {
+          statusCode: 400,
+          code: 'VALIDATION_FAILED',
+          message: 'Some answers are not right',
+          errors: [{ field: 'answers.sense_of_direction', message: 'answers.sense_of_direction must be a number' }],
+        },
+      },
+    });
+    const user = await openScreening();
+
+    await user.click(screen.getByRole('radio', { name: 'Yes' }));
+    await user.type(screen.getByLabelText('How good is your sense of direction?'), '6');
+    await user.click(screen.getByRole('radio', { name: 'Car' }));
+    await user.click(screen.getByRole('button', { name: 'Save my answers' }));
+
+    expect(await screen.findByText('Please enter a number from 1 to 7.')).toBeInTheDocument();
+    expect(screen.queryByText(/sense_of_direction/)).not.toBeInTheDocument();
+  });
 });

@@ -7,10 +7,10 @@ import { RadioChoice } from '@/components/ui/radio-choice';
 import { SelectList } from '@/components/ui/select-list';
 import { TextField } from '@/components/ui/text-field';
 import { isApiError } from '@/lib/api-problem';
-import { describeProblem } from '@/lib/problem-message';
-import { asSentence } from '@/lib/text';
+import { describeProblem, plainFieldMessage } from '@/lib/problem-message';
 import type { ScreeningQuestion } from '../api/get-my-enrollment';
 import {
+  answerProblemInWords,
   numberRangeHint,
   screeningDefaultValues,
   screeningFieldForApiField,
@@ -42,6 +42,8 @@ export function ScreeningForm({ studyId, questions, answers, onScreened }: Scree
   const schema = useMemo(() => screeningFormSchema(questions), [questions]);
   const { control, handleSubmit, setError, formState } = useForm<ScreeningFormValues, unknown, { answers: Record<string, ScreeningAnswer> }>({
     resolver: zodResolver(schema),
+    // Each answer is checked as soon as the person leaves it, then again as they correct it.
+    mode: 'onTouched',
     defaultValues: screeningDefaultValues(questions, answers),
   });
 
@@ -54,8 +56,9 @@ export function ScreeningForm({ studyId, questions, answers, onScreened }: Scree
       let placed = false;
       for (const fieldError of fieldErrors) {
         const name = screeningFieldForApiField(questions, fieldError.field);
-        if (!name) continue;
-        setError(name, { message: asSentence(fieldError.message) }, { shouldFocus: !placed });
+        const question = questions.find((candidate) => `answers.${candidate.key}` === fieldError.field);
+        if (!name || !question) continue;
+        setError(name, { message: plainFieldMessage(fieldError, answerProblemInWords(question)) }, { shouldFocus: !placed });
         placed = true;
       }
       if (!placed) setError('root.server', { message: describeProblem(error) });

@@ -4,8 +4,7 @@ import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { TextField } from '@/components/ui/text-field';
 import { isApiError } from '@/lib/api-problem';
-import { describeProblem } from '@/lib/problem-message';
-import { asSentence } from '@/lib/text';
+import { describeProblem, plainFieldMessage } from '@/lib/problem-message';
 import {
   type CompleteStepRequest,
   completionCodeFormSchema,
@@ -43,6 +42,7 @@ export function StepCompletionForm({
   const completeStep = useCompleteStep();
   const { control, handleSubmit, setError, formState } = useForm<CompletionCodeFormValues, unknown, CompleteStepRequest>({
     resolver: zodResolver(completionCodeFormSchema),
+    mode: 'onTouched',
     defaultValues: { code: '' },
   });
 
@@ -58,7 +58,7 @@ export function StepCompletionForm({
         ? error.fieldErrors.find((fieldError) => fieldError.field === 'code')
         : undefined;
       if (codeProblem) {
-        setError('code', { message: asSentence(codeProblem.message) }, { shouldFocus: true });
+        setError('code', { message: plainFieldMessage(codeProblem, 'That code was not accepted. Please check it and try again.') }, { shouldFocus: true });
         return;
       }
       const kind: RootProblem = isApiError(error, 'RATE_LIMITED') ? 'rate-limited' : 'other';

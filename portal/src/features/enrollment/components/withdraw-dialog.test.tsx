@@ -122,4 +122,20 @@ describe('withdrawing from a study', () => {
     expect(await within(dialog).findByText('We could not stop your participation')).toBeInTheDocument();
     expect(within(dialog).getByText(/You are still taking part\./)).toBeInTheDocument();
   });
+
+  it('counts the characters left, says by how many a reason is over the limit, and says so on leaving the field', async () => {
+    const fakeApi = atSteps();
+    const { user } = await openWithdrawDialog();
+    const field = screen.getByLabelText('Would you like to tell us why? (optional)');
+    expect(field).toHaveAccessibleDescription(/Up to 1000 characters; 1000 characters left\./);
+
+    await user.click(field);
+    await user.paste('a'.repeat(1200));
+    expect(field).toHaveAccessibleDescription(/200 characters too many\./);
+    expect(field).not.toHaveAccessibleDescription(/\b0 left/);
+
+    await user.tab();
+    expect(await screen.findByText('Please keep your reason to 1000 characters or fewer.')).toBeInTheDocument();
+    expect(fakeApi.callsTo('POST', withdrawPath)).toHaveLength(0);
+  });
 });

@@ -8,6 +8,7 @@ import { describeProblem } from '@/lib/problem-message';
 import { formatMinor } from '@/lib/money';
 import type { MyEnrollment } from '../api/get-my-enrollment';
 import {
+  reasonCountInWords,
   useWithdraw,
   WITHDRAWAL_REASON_MAX,
   type Withdrawal,
@@ -30,6 +31,7 @@ export function WithdrawDialog({ open, onClose, studyId, currency, earned, onWit
   const withdraw = useWithdraw();
   const { control, handleSubmit, formState, watch, reset } = useForm<WithdrawFormValues, unknown, WithdrawRequest>({
     resolver: zodResolver(withdrawFormSchema),
+    mode: 'onTouched',
     defaultValues: { reason: '' },
   });
   const money = (minor: number) => formatMinor(minor, currency);
@@ -86,10 +88,9 @@ export function WithdrawDialog({ open, onClose, studyId, currency, earned, onWit
             <TextAreaField
               {...field}
               label="Would you like to tell us why? (optional)"
-              hint={`It helps the research team improve the study. Up to ${WITHDRAWAL_REASON_MAX} characters; ${Math.max(
-                0,
-                WITHDRAWAL_REASON_MAX - reasonLength,
-              )} left.`}
+              hint={`It helps the research team improve the study. Up to ${WITHDRAWAL_REASON_MAX} characters; ${reasonCountInWords(
+                reasonLength,
+              )}.`}
               error={fieldState.error?.message}
               rows={3}
             />

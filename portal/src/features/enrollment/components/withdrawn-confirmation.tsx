@@ -1,4 +1,4 @@
-import { useEffect, useRef } from 'react';
+import { type ReactNode, useEffect, useRef } from 'react';
 import { ButtonLink } from '@/components/ui/button';
 import { formatDateTime } from '@/lib/date-format';
 import { formatMinor } from '@/lib/money';
@@ -9,9 +9,11 @@ type WithdrawnConfirmationProps = {
   currency: string;
   earnedMinor: number;
   stillToBePaidMinor: number;
+  /** What the person keeps beyond the amounts (their signed form), shown before the way out. */
+  children?: ReactNode;
 };
 
-export function WithdrawnConfirmation({ studyTitle, withdrewAt, currency, earnedMinor, stillToBePaidMinor }: WithdrawnConfirmationProps) {
+export function WithdrawnConfirmation({ studyTitle, withdrewAt, currency, earnedMinor, stillToBePaidMinor, children }: WithdrawnConfirmationProps) {
   const headingRef = useRef<HTMLHeadingElement>(null);
   // The dialog just closed; start screen-reader and keyboard users at the confirmation.
   useEffect(() => headingRef.current?.focus(), []);
@@ -40,6 +42,7 @@ export function WithdrawnConfirmation({ studyTitle, withdrewAt, currency, earned
         We have sent you an e-mail to confirm. What you did so far stays on record, and nothing new will be collected. You
         will not be asked to do anything more for this study.
       </p>
+      {children}
       <ButtonLink to="/studies" variant="secondary" wide>
         Go to your studies
       </ButtonLink>

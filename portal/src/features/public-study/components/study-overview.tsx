@@ -108,7 +108,7 @@ export function StudyOverview({ study, action }: StudyOverviewProps) {
           {study.protocolNumber ? (
             <>
               {' '}
-              · ethics approval number <span className="font-semibold whitespace-nowrap">{study.protocolNumber}</span>
+              · protocol number <span className="font-semibold whitespace-nowrap">{study.protocolNumber}</span>
             </>
           ) : null}
         </p>

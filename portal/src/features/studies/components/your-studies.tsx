@@ -4,6 +4,7 @@ import { Card } from '@/components/ui/card';
 import { Notice } from '@/components/ui/notice';
 import { Spinner } from '@/components/ui/spinner';
 import { describeProblem } from '@/lib/problem-message';
+import { type MyPlace, useMyPlaces } from '../api/get-my-place';
 import { useStudies, type StudySummary } from '../api/get-studies';
 
 /** The participant's studies, with loading, error and a real empty state. */
@@ -26,28 +27,53 @@ export function YourStudies() {
   }
 
   if (studies.data.length === 0) return <NoStudiesYet />;
+  return <StudyList studies={studies.data} />;
+}
 
+function StudyList({ studies }: { studies: StudySummary[] }) {
+  const places = useMyPlaces(studies.map((study) => study.id));
   return (
     <ul className="flex flex-col gap-4" aria-label="Studies you have joined">
-      {studies.data.map((study) => (
-        <StudyItem key={study.id} study={study} />
+      {studies.map((study, index) => (
+        <StudyItem key={study.id} study={study} place={places[index]?.data} placeFailed={places[index]?.isError ?? false} />
       ))}
     </ul>
   );
 }
 
-const statusInPlainWords: Record<StudySummary['status'], string> = {
+const studyStateInPlainWords: Record<StudySummary['status'], string> = {
   draft: 'Not started yet',
   recruiting: 'Running',
   paused: 'Paused for now',
   closed: 'Finished',
 };
 
-function StudyItem({ study }: { study: StudySummary }) {
+/** Where this person stands, first by what they did (stopped, finished), then by what comes next for them. */
+export function yourPartInPlainWords(place: MyPlace): string {
+  if (place.status === 'lost') return 'Ended by the research team';
+  switch (place.next) {
+    case 'withdrawn':
+      return 'You stopped taking part';
+    case 'done':
+      return 'You completed it';
+    case 'excluded':
+      return 'Not a fit for you';
+    case 'screening':
+      return 'Questions to answer';
+    case 'consent':
+      return 'Consent form to sign';
+    case 're-consent':
+      return 'Updated form to sign';
+    case 'steps':
+      return 'Taking part';
+  }
+}
+
+function StudyItem({ study, place, placeFailed }: { study: StudySummary; place: MyPlace | null | undefined; placeFailed: boolean }) {
   return (
     <li>
-      <Card className="relative flex flex-col items-start gap-2">
-        <h2 className="text-heading font-bold">
+      <Card className="relative flex flex-col items-start gap-3">
+        <h2 className="text-heading font-bold wrap-anywhere">
           {/* The whole card is the link's target area; the heading alone names it for screen readers. */}
           <Link
             to={`/s/${encodeURIComponent(study.slug)}`}
@@ -56,8 +82,25 @@ function StudyItem({ study }: { study: StudySummary }) {
             {study.title}
           </Link>
         </h2>
-        <p className="rounded-full bg-sand px-3 py-1 text-fine font-semibold text-ink">{statusInPlainWords[study.status]}</p>
-        <p className="text-fine text-ink-soft">Open it to see where you are and what comes next.</p>
+        <dl className="flex flex-wrap gap-2 text-fine">
+          {place === null ? null : (
+            <div className="flex flex-wrap items-baseline gap-x-1 rounded-full bg-clay-tint px-3 py-1">
+              <dt className="text-ink-soft">Your part:</dt>
+              <dd className="font-semibold text-ink">
+                {place ? yourPartInPlainWords(place) : placeFailed ? 'Open the study to see' : 'Checking…'}
+              </dd>
+            </div>
+          )}
+          <div className="flex flex-wrap items-baseline gap-x-1 rounded-full bg-sand px-3 py-1">
+            <dt className="text-ink-soft">Study:</dt>
+            <dd className="font-semibold text-ink">{studyStateInPlainWords[study.status]}</dd>
+          </div>
+        </dl>
+        <p className="text-fine text-ink-soft">
+          {place?.next === 'withdrawn' || place?.next === 'done'
+            ? 'Open it to see what you earned and to download your signed form.'
+            : 'Open it to see where you are and what comes next.'}
+        </p>
       </Card>
     </li>
   );
