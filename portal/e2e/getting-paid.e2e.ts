@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seriousAccessibilityProblems } from './support/accessibility';
 import { launchPhoneBrowser, type PhoneBrowser } from './support/browser';
 import { e2eEnv } from './support/env';
-import { signInLinkIn, waitForMessageTo } from './support/mailbox';
+import { messagesTo, signInLinkIn, waitForMessageTo } from './support/mailbox';
 import { answerScreeningQuestion, type ScreeningQuestion } from './support/screening';
 import { screenshotTaker } from './support/screenshots';
 import { confirmCardPayment, eventually, StaffApi } from './support/staff-api';
@@ -195,6 +195,10 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     expect(receipt.subject).toContain('$25.00');
     expect(receipt.text).toContain(receiptNumber);
     expect(`${receipt.subject}\n${receipt.text}`).not.toMatch(PROVIDER_ID);
+    // Nor in any other e-mail this participant was sent (sign-in links, the signed form, the receipt).
+    const mail = await messagesTo(email);
+    expect(mail.length).toBeGreaterThanOrEqual(2);
+    for (const message of mail) expect(`${message.subject}\n${message.text}\n${message.html}`, message.subject).not.toMatch(PROVIDER_ID);
     for (const path of [`/s/${studySlug}`, '/payouts', '/studies']) {
       await page.goto(`${e2eEnv.portalUrl}${path}`);
       await page.locator('main').first().waitFor();

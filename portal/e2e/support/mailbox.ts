@@ -41,6 +41,12 @@ export async function waitForMessageTo(
   }
 }
 
+/** Every message the mailbox holds for `recipient`, oldest first. */
+export async function messagesTo(recipient: string): Promise<MailboxMessage[]> {
+  const wanted = recipient.toLowerCase();
+  return (await listMessages()).filter((message) => message.to.some((to) => to.address.toLowerCase() === wanted));
+}
+
 /** The portal sign-in link in a message's plain-text part. */
 export function signInLinkIn(message: MailboxMessage): URL {
   const found = message.text.match(/https?:\/\/\S+\/sign-in\/link\?token=[\w.~%-]+/);
