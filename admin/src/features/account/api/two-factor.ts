@@ -18,8 +18,12 @@ export type ConfirmCodeInput = z.infer<typeof confirmCodeSchema>;
 export const passwordCheckSchema = z.object({ password: z.string().min(1, 'Enter your password.') });
 export type PasswordCheckInput = z.infer<typeof passwordCheckSchema>;
 
-/** After any change the status and the signed-in person (who may no longer be held to set-up) are read again. */
-function useRefreshAfter() {
+/**
+ * After a change the status and the signed-in person (who may no longer be held to set-up) are read again. New
+ * recovery codes are shown first: the read happens when the person says they have saved them, since reading at once
+ * would replace the form (and its answer) before the codes are on screen.
+ */
+export function useRefreshTwoFactor() {
   const queryClient = useQueryClient();
   return () => Promise.all([queryClient.invalidateQueries({ queryKey: twoFactorQueryKey }), queryClient.invalidateQueries({ queryKey: ['auth', 'me'] })]);
 }
@@ -29,23 +33,19 @@ export function useBeginTwoFactorSetup() {
 }
 
 export function useConfirmTwoFactor() {
-  const refresh = useRefreshAfter();
   return useMutation({
     mutationFn: ({ code }: ConfirmCodeInput) => unwrap(apiClient.POST('/api/auth/two-factor/confirm', { body: { code: code.replace(/\s+/g, '') } })),
-    onSuccess: refresh,
   });
 }
 
 export function useRenewRecoveryCodes() {
-  const refresh = useRefreshAfter();
   return useMutation({
     mutationFn: ({ password }: PasswordCheckInput) => unwrap(apiClient.POST('/api/auth/two-factor/recovery-codes', { body: { password } })),
-    onSuccess: refresh,
   });
 }
 
 export function useTurnOffTwoFactor() {
-  const refresh = useRefreshAfter();
+  const refresh = useRefreshTwoFactor();
   return useMutation({
     mutationFn: ({ password }: PasswordCheckInput) => unwrap(apiClient.DELETE('/api/auth/two-factor', { body: { password } })),
     onSuccess: refresh,

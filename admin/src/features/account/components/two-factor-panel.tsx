@@ -13,6 +13,7 @@ import {
   passwordCheckSchema,
   useBeginTwoFactorSetup,
   useConfirmTwoFactor,
+  useRefreshTwoFactor,
   useRenewRecoveryCodes,
   useTurnOffTwoFactor,
   useTwoFactorStatus,
@@ -35,6 +36,7 @@ function plainErrors(error: unknown): unknown {
 /** Two-factor sign-in on the person's own account: set-up with a QR code, recovery codes shown once, turning it off. */
 export function TwoFactorPanel() {
   const status = useTwoFactorStatus();
+  const refresh = useRefreshTwoFactor();
   const [recoveryCodes, setRecoveryCodes] = useState<string[] | null>(null);
 
   const state = status.data?.enabled ? <Badge tone="success">On</Badge> : status.data ? <Badge tone="neutral">Off</Badge> : null;
@@ -50,7 +52,10 @@ export function TwoFactorPanel() {
       ) : status.isError ? (
         <ErrorState message={status.error.message} onRetry={() => void status.refetch()} />
       ) : recoveryCodes ? (
-        <RecoveryCodes codes={recoveryCodes} onDone={() => setRecoveryCodes(null)} />
+        <RecoveryCodes
+          codes={recoveryCodes}
+          onDone={() => void refresh().then(() => setRecoveryCodes(null))}
+        />
       ) : status.data.enabled ? (
         <EnabledSettings recoveryCodesLeft={status.data.recoveryCodesLeft} required={status.data.required} onRenewed={setRecoveryCodes} />
       ) : (
