@@ -5,7 +5,13 @@ export const HTTP_STATUS_BY_CODE = {
   BAD_REQUEST: 400,
   INVALID_CREDENTIALS: 401,
   UNAUTHENTICATED: 401,
+  /** The password was right and the account has two-factor sign-in on: send it again with `code` or `recoveryCode`. */
+  TWO_FACTOR_REQUIRED: 401,
+  /** The two-factor code or recovery code was wrong, or used already. */
+  TWO_FACTOR_INVALID: 401,
   FORBIDDEN: 403,
+  /** The lab requires two-factor sign-in of admins and this admin has not set it up yet: only their account page works. */
+  TWO_FACTOR_SETUP_REQUIRED: 403,
   NOT_FOUND: 404,
   EMAIL_TAKEN: 409,
   CONFLICT: 409,

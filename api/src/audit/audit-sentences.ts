@@ -182,8 +182,49 @@ const payoutAmount = (w: Words): number | null => numberOrNull(w.data.amountMino
 /** Every action the api records. Old codes stay readable: events already written keep the code they were written with. */
 export const AUDIT_ACTIONS: Record<string, ActionWords> = {
   // ── signing in ──
-  'auth.signed-in': { family: 'sign-in', name: 'Signed in', sentence: (w) => `${w.who} signed in ${w.data.method === 'link' ? 'with an e-mailed link' : 'with a password'}.` },
-  'auth.sign-in-failed': { family: 'sign-in', name: 'Sign-in refused', sentence: (w) => `A password sign-in as ${w.event.subjectId ?? 'an unknown address'} was refused.` },
+  'auth.signed-in': {
+    family: 'sign-in',
+    name: 'Signed in',
+    sentence: (w) =>
+      `${w.who} signed in ${
+        w.data.method === 'link'
+          ? 'with an e-mailed link'
+          : w.data.secondFactor === 'code'
+            ? 'with a password and a two-factor code'
+            : w.data.secondFactor === 'recovery-code'
+              ? 'with a password and a recovery code'
+              : 'with a password'
+      }.`,
+  },
+  'auth.sign-in-failed': {
+    family: 'sign-in',
+    name: 'Sign-in refused',
+    sentence: (w) => {
+      const who = w.event.subjectId ?? 'an unknown address';
+      if (w.data.method === 'two-factor-code') return `A sign-in as ${who} gave the right password but a wrong or used two-factor code, and was refused.`;
+      if (w.data.method === 'recovery-code') return `A sign-in as ${who} gave the right password but a wrong or used recovery code, and was refused.`;
+      return `A password sign-in as ${who} was refused.`;
+    },
+  },
+  'auth.two-factor-enabled': { family: 'sign-in', name: 'Two-factor sign-in turned on', sentence: (w) => `${w.who} turned on two-factor sign-in for their account and received new recovery codes.` },
+  'auth.two-factor-disabled': { family: 'sign-in', name: 'Two-factor sign-in turned off', sentence: (w) => `${w.who} turned off two-factor sign-in for their account; its recovery codes no longer work.` },
+  'auth.recovery-codes-renewed': { family: 'sign-in', name: 'Recovery codes renewed', sentence: (w) => `${w.who} made new recovery codes; the earlier ones no longer work.` },
+  'auth.recovery-code-used': {
+    family: 'sign-in',
+    name: 'Recovery code used',
+    sentence: (w) => {
+      const left = numberOrNull(w.data.recoveryCodesLeft);
+      return `${w.who} signed in with a recovery code instead of a two-factor code${left === null ? '' : `; ${left} ${left === 1 ? 'code is' : 'codes are'} left`}.`;
+    },
+  },
+  'lab.two-factor-requirement-changed': {
+    family: 'accounts',
+    name: 'Two-factor requirement for admins changed',
+    sentence: (w) =>
+      w.data.twoFactorRequiredForAdmins === true
+        ? `${w.who} required every admin to sign in with a two-factor code.`
+        : `${w.who} stopped requiring two-factor sign-in of admins.`,
+  },
   'auth.signed-out': { family: 'sign-in', name: 'Signed out', sentence: (w) => `${w.who} signed out.` },
   'auth.refresh-reuse-detected': {
     family: 'sign-in',

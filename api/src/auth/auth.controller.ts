@@ -1,7 +1,7 @@
 import { Body, Controller, Get, HttpCode, Post, Req, Res, UseGuards } from '@nestjs/common';
-import { ApiAcceptedResponse, ApiNoContentResponse, ApiOkResponse, ApiTags, ApiTooManyRequestsResponse } from '@nestjs/swagger';
+import { ApiAcceptedResponse, ApiNoContentResponse, ApiOkResponse, ApiTags, ApiTooManyRequestsResponse, ApiUnauthorizedResponse } from '@nestjs/swagger';
 import type { CookieOptions, Request, Response } from 'express';
-import { CurrentUser, Public, Roles } from '../common/auth/auth.decorators';
+import { AllowedBeforeTwoFactorSetup, CurrentUser, Public, Roles } from '../common/auth/auth.decorators';
 import { ACCESS_COOKIE, REFRESH_COOKIE, SessionUser } from '../common/auth/session-user';
 import { AppConfig } from '../config/app-config';
 import { SignInThrottlerGuard } from '../rate-limit/sign-in-throttler.guard';
@@ -30,8 +30,9 @@ export class AuthController {
   @HttpCode(200)
   @ApiOkResponse({ type: SessionDto })
   @ApiTooManyRequestsResponse({ description: 'Too many attempts' })
+  @ApiUnauthorizedResponse({ description: 'INVALID_CREDENTIALS; TWO_FACTOR_REQUIRED (send again with code or recoveryCode); TWO_FACTOR_INVALID' })
   async signIn(@Body() body: SignInDto, @Req() request: Request, @Res({ passthrough: true }) response: Response): Promise<SessionDto> {
-    return this.withCookies(response, await this.auth.signInWithPassword(body.email, body.password, clientOf(request)));
+    return this.withCookies(response, await this.auth.signInWithPassword(body.email, body.password, { code: body.code, recoveryCode: body.recoveryCode }, clientOf(request)));
   }
 
   @Public()
@@ -80,6 +81,7 @@ export class AuthController {
   }
 
   @Post('password')
+  @AllowedBeforeTwoFactorSetup()
   @HttpCode(204)
   @Roles('coordinator', 'researcher', 'auditor', 'admin')
   @ApiNoContentResponse({ description: 'The signed-in staff member’s password is changed; this session carries on' })
@@ -107,10 +109,11 @@ export class AuthController {
   }
 
   @Get('me')
+  @AllowedBeforeTwoFactorSetup()
   @ApiOkResponse({ type: MeDto })
   async me(@CurrentUser() user: SessionUser): Promise<MeDto> {
     const current = await this.users.findActiveById(user.id);
-    return toMeDto(current!);
+    return toMeDto(current!, user.twoFactorSetupNeeded ?? false);
   }
 
   private cookieOptions(path: string, maxAgeSeconds: number): CookieOptions {

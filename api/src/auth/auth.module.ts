@@ -9,6 +9,8 @@ import { RateLimitModule } from '../rate-limit/rate-limit.module';
 import { UsersModule } from '../users/users.module';
 import { AuthController } from './auth.controller';
 import { AuthService } from './auth.service';
+import { TwoFactorController } from './two-factor.controller';
+import { TwoFactorService } from './two-factor.service';
 
 @Module({
   imports: [
@@ -22,7 +24,7 @@ import { AuthService } from './auth.service';
     MailModule,
     RateLimitModule,
   ],
-  controllers: [AuthController],
-  providers: [AuthService, { provide: APP_GUARD, useClass: SessionGuard }],
+  controllers: [AuthController, TwoFactorController],
+  providers: [AuthService, TwoFactorService, { provide: APP_GUARD, useClass: SessionGuard }],
 })
 export class AuthModule {}

@@ -17,6 +17,8 @@ import { RefreshTokenEntity } from './entities/refresh-token.entity';
 import { hashToken, newOpaqueToken, passwordResetToken, signInLinkToken, successorToken } from './session-tokens';
 import { passwordResetMail } from './password-reset-mail';
 import { signInLinkMail } from './sign-in-link-mail';
+import { SecondFactor, TwoFactorService } from './two-factor.service';
+import { LabSettingsService } from '../users/lab-settings.service';
 
 export interface IssuedSession {
   user: MeDto;
@@ -36,8 +38,16 @@ export interface ClientInfo {
   userAgent: string | null;
 }
 
-export function toMeDto(user: UserEntity): MeDto {
-  return { id: user.id, email: user.email, name: user.name, role: user.role, active: user.active };
+export function toMeDto(user: UserEntity, twoFactorSetupNeeded = false): MeDto {
+  return {
+    id: user.id,
+    email: user.email,
+    name: user.name,
+    role: user.role,
+    active: user.active,
+    twoFactorEnabled: Boolean(user.twoFactorEnabledAt),
+    twoFactorSetupNeeded,
+  };
 }
 
 @Injectable()
@@ -50,6 +60,8 @@ export class AuthService implements OnModuleInit {
     private readonly audit: AuditService,
     private readonly mail: MailService,
     private readonly jobs: JobQueueService,
+    private readonly twoFactor: TwoFactorService,
+    private readonly labSettings: LabSettingsService,
   ) {}
 
   async onModuleInit(): Promise<void> {
@@ -57,20 +69,39 @@ export class AuthService implements OnModuleInit {
     await this.jobs.handle<{ email: string }>(JOB_NAMES.passwordResetRequest, (request, jobId) => this.sendPasswordReset(request.email, jobId));
   }
 
-  async signInWithPassword(email: string, password: string, client: ClientInfo): Promise<IssuedSession> {
+  async signInWithPassword(email: string, password: string, factor: SecondFactor, client: ClientInfo): Promise<IssuedSession> {
     const user = await this.users.verifyStaffPassword(email, password);
     if (!user) {
-      await this.audit.record(this.dataSource.manager, {
-        actor: null,
-        action: 'auth.sign-in-failed',
-        subjectType: 'email',
-        subjectId: email,
-        data: { method: 'password', ...client },
-      });
+      await this.recordRefusal(email, 'password', client);
       // One message for every cause, so the answer does not reveal which addresses have accounts.
       throw new DomainException('INVALID_CREDENTIALS', 'That e-mail and password do not match an active staff account.');
     }
-    return this.dataSource.transaction((manager) => this.startSession(manager, user, 'password', client));
+    if (!user.twoFactorEnabledAt) return this.dataSource.transaction((manager) => this.startSession(manager, user, 'password', client));
+    if (!factor.code && !factor.recoveryCode) {
+      throw new DomainException('TWO_FACTOR_REQUIRED', 'Enter the 6-digit code from your authenticator app, or one of your recovery codes.');
+    }
+    const session = await this.dataSource.transaction(async (manager) => {
+      const check = await this.twoFactor.checkAtSignIn(manager, user.id, factor);
+      return check.ok ? this.startSession(manager, user, 'password', client, check.method) : null;
+    });
+    if (session) return session;
+    await this.recordRefusal(email, factor.code ? 'two-factor-code' : 'recovery-code', client);
+    throw new DomainException(
+      'TWO_FACTOR_INVALID',
+      factor.code
+        ? 'That code is not right, or it was used already. Enter the newest 6-digit code your authenticator app shows.'
+        : 'That recovery code is not right, or it was used already. Each recovery code works once.',
+    );
+  }
+
+  private async recordRefusal(email: string, method: 'password' | 'two-factor-code' | 'recovery-code', client: ClientInfo): Promise<void> {
+    await this.audit.record(this.dataSource.manager, {
+      actor: null,
+      action: 'auth.sign-in-failed',
+      subjectType: 'email',
+      subjectId: email,
+      data: { method, ...client },
+    });
   }
 
   /**
@@ -243,6 +274,7 @@ export class AuthService implements OnModuleInit {
     user: UserEntity,
     method: 'password' | 'link',
     client: ClientInfo,
+    secondFactor?: 'code' | 'recovery-code',
   ): Promise<IssuedSession> {
     await this.users.markSignedIn(manager, user.id);
     const sessionId = randomUUID();
@@ -252,9 +284,10 @@ export class AuthService implements OnModuleInit {
       action: 'auth.signed-in',
       subjectType: 'user',
       subjectId: user.id,
-      data: { method, ...client },
+      data: { method, ...(secondFactor ? { secondFactor } : {}), ...client },
     });
-    return { user: toMeDto(user), accessToken: await this.accessToken(user, sessionId), refreshToken };
+    const setupNeeded = user.role === 'admin' && !user.twoFactorEnabledAt && (await this.labSettings.get()).twoFactorRequiredForAdmins;
+    return { user: toMeDto(user, setupNeeded), accessToken: await this.accessToken(user, sessionId), refreshToken };
   }
 
   /**
@@ -265,7 +298,10 @@ export class AuthService implements OnModuleInit {
   async activeSessionUser(userId: string, sessionId: string): Promise<SessionUser | null> {
     const [row] = await queryRows<SessionUser>(
       this.dataSource.manager,
-      `SELECT u.id, u.email, u.name, u.role FROM user_account u
+      `SELECT u.id, u.email, u.name, u.role,
+              (u.role = 'admin' AND u.two_factor_enabled_at IS NULL
+               AND coalesce((SELECT s.two_factor_required_for_admins FROM lab_setting s WHERE s.id), false)) AS "twoFactorSetupNeeded"
+       FROM user_account u
        WHERE u.id = $1 AND u.active
          AND EXISTS (SELECT 1 FROM refresh_token t
                      WHERE t.family_id = $2 AND t.user_id = u.id AND t.revoked_at IS NULL AND t.expires_at > now())`,

@@ -37,7 +37,7 @@ import {
 } from './dto/enrollment.dto';
 import { EnrollmentEntity, EnrollmentStatus } from './entities/enrollment.entity';
 import { parseRoster } from './roster-import';
-import { evaluateScreening } from './screening-rules';
+import { evaluateScreening, screeningProblemMessage } from './screening-rules';
 
 type RosterProgress = Pick<RosterEntryDto, 'nextStep' | 'unansweredReminders' | 'suggestLost'>;
 
@@ -194,7 +194,10 @@ export class EnrollmentsService implements OnModuleInit {
       }
       const definition = await this.studies.screeningDefinition(studyId, manager);
       const result = evaluateScreening(definition.eligibility, definition.stratification, answers);
-      if (result.errors.length > 0) throw new DomainException('VALIDATION_FAILED', 'Some answers are missing or not valid.', result.errors);
+      if (result.errors.length > 0) {
+        const labels = Object.fromEntries([...definition.eligibility, ...definition.stratification].map((q) => [q.key, q.label]));
+        throw new DomainException('VALIDATION_FAILED', screeningProblemMessage(result.errors, labels), result.errors);
+      }
       enrollment.screeningAnswers = result.answers;
       enrollment.covariates = result.covariates;
       enrollment.screenedAt = new Date();

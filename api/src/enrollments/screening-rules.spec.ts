@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { EligibilityQuestion, evaluateScreening, StratificationQuestion } from './screening-rules';
+import { EligibilityQuestion, evaluateScreening, numberRangeWords, screeningProblemMessage, StratificationQuestion } from './screening-rules';
 
 const adult: EligibilityQuestion = {
   key: 'adult',
@@ -47,5 +47,27 @@ describe('evaluateScreening', () => {
       ['answers.adult', 'answers.screen_hours', 'answers.sense_of_direction', 'answers.shoe_size', 'answers.site'].sort(),
     );
     expect(outcome.eligible).toBe(false);
+  });
+});
+
+describe('plain words for an answer out of range', () => {
+  it('says the allowed numbers on the field and names the question in the headline', () => {
+    const outcome = evaluateScreening([adult, hours], [], { adult: true, screen_hours: 30 });
+    expect(outcome.errors).toEqual([{ field: 'answers.screen_hours', message: 'enter a number from 0 to 24' }]);
+    expect(screeningProblemMessage(outcome.errors, { screen_hours: 'Hours a day at a screen' })).toBe('Hours a day at a screen: enter a number from 0 to 24.');
+  });
+
+  it('words one-sided ranges and several problems', () => {
+    expect(numberRangeWords(0, null)).toBe('enter a number of 0 or more');
+    expect(numberRangeWords(null, 7)).toBe('enter a number of 7 or less');
+    expect(
+      screeningProblemMessage(
+        [
+          { field: 'answers.adult', message: 'please answer this question' },
+          { field: 'answers.site', message: 'must be one of: lab, online' },
+        ],
+        { adult: 'Are you 18 or older?', site: 'Where' },
+      ),
+    ).toBe('Some answers need attention. Are you 18 or older?: please answer this question; Where: must be one of: lab, online.');
   });
 });

@@ -42,6 +42,26 @@ function describeRule(question: EligibilityQuestion): string {
   return question.label;
 }
 
+/** The allowed answers of a number question, as the person should be told them. */
+export function numberRangeWords(min: number | null, max: number | null): string {
+  if (min !== null && max !== null) return `enter a number from ${min} to ${max}`;
+  if (min !== null) return `enter a number of ${min} or more`;
+  return `enter a number of ${max} or less`;
+}
+
+/**
+ * The headline of a refused set of answers, naming each question by its label (`Sense of direction: enter a number
+ * from 0 to 100.`); the field errors keep the keys for the form.
+ */
+export function screeningProblemMessage(errors: FieldError[], labels: Record<string, string>): string {
+  const named = errors.map((error) => {
+    const key = error.field.replace(/^answers\./, '');
+    return `${labels[key] ?? key}: ${error.message}`;
+  });
+  if (named.length === 1) return `${named[0]}.`;
+  return `Some answers need attention. ${named.join('; ')}.`;
+}
+
 /**
  * Checks every answer against its question (a missing or malformed answer is a field error) and then against the
  * eligibility rules. Stratification answers never exclude anyone; they are only checked for form.
@@ -80,7 +100,7 @@ export function evaluateScreening(
         continue;
       }
       if ((question.minValue !== null && value < question.minValue) || (question.maxValue !== null && value > question.maxValue)) {
-        errors.push({ field, message: `must be between ${question.minValue ?? '−∞'} and ${question.maxValue ?? '∞'}` });
+        errors.push({ field, message: numberRangeWords(question.minValue, question.maxValue) });
         continue;
       }
       answers[question.key] = value;

@@ -1,12 +1,14 @@
 import { Module } from '@nestjs/common';
 import { AuditModule } from '../audit/audit.module';
+import { LabSettingsController } from './lab-settings.controller';
+import { LabSettingsService } from './lab-settings.service';
 import { UsersController } from './users.controller';
 import { UsersService } from './users.service';
 
 @Module({
   imports: [AuditModule],
-  controllers: [UsersController],
-  providers: [UsersService],
-  exports: [UsersService],
+  controllers: [UsersController, LabSettingsController],
+  providers: [UsersService, LabSettingsService],
+  exports: [UsersService, LabSettingsService],
 })
 export class UsersModule {}

@@ -148,6 +148,22 @@ export interface paths {
         patch: operations["UsersController_update"];
         trace?: never;
     };
+    "/api/lab-settings": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["LabSettingsController_get"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch: operations["LabSettingsController_update"];
+        trace?: never;
+    };
     "/api/auth/sign-in": {
         parameters: {
             query?: never;
@@ -286,6 +302,70 @@ export interface paths {
         get: operations["AuthController_me"];
         put?: never;
         post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/auth/two-factor": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["TwoFactorController_status"];
+        put?: never;
+        post?: never;
+        delete: operations["TwoFactorController_disable"];
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/auth/two-factor/setup": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["TwoFactorController_setup"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/auth/two-factor/confirm": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["TwoFactorController_confirm"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
+    "/api/auth/two-factor/recovery-codes": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["TwoFactorController_renewRecoveryCodes"];
         delete?: never;
         options?: never;
         head?: never;
@@ -1677,10 +1757,26 @@ export interface components {
             /** @description false deactivates the account */
             active?: boolean;
         };
+        LabSettingsDto: {
+            /** @description Admins must sign in with a two-factor code; an admin without one can only set it up until they do */
+            twoFactorRequiredForAdmins: boolean;
+            /** Format: date-time */
+            updatedAt: string;
+        };
+        UpdateLabSettingsDto: {
+            twoFactorRequiredForAdmins: boolean;
+        };
         SignInDto: {
             /** @example coordinator@evenhand.test */
             email: string;
             password: string;
+            /**
+             * @description The 6-digit code from the authenticator app, when the account has two-factor sign-in on
+             * @example 123456
+             */
+            code?: string;
+            /** @description One of the recovery codes given when two-factor sign-in was turned on; each works once */
+            recoveryCode?: string;
         };
         MeDto: {
             /** Format: uuid */
@@ -1690,6 +1786,10 @@ export interface components {
             /** @enum {string} */
             role: "participant" | "coordinator" | "researcher" | "auditor" | "admin";
             active: boolean;
+            /** @description The person signs in with a two-factor code as well as a password */
+            twoFactorEnabled: boolean;
+            /** @description The lab requires two-factor sign-in of admins and this admin has not set it up yet */
+            twoFactorSetupNeeded: boolean;
         };
         SessionDto: {
             user: components["schemas"]["MeDto"];
@@ -1720,6 +1820,34 @@ export interface components {
         ConsumePasswordResetDto: {
             token: string;
             newPassword: string;
+        };
+        TwoFactorStatusDto: {
+            enabled: boolean;
+            /** Format: date-time */
+            enabledAt: string | null;
+            /** @description Recovery codes not used yet */
+            recoveryCodesLeft: number;
+            /** @description The lab requires it of this person (an admin, with the lab setting on) */
+            required: boolean;
+        };
+        TwoFactorSetupDto: {
+            /** @description Base32 secret, for typing into an authenticator app by hand */
+            secret: string;
+            /** @description otpauth:// address the QR code carries */
+            otpauthUrl: string;
+            /** @description The QR code as an SVG data URL, made on the server */
+            qrCodeDataUrl: string;
+        };
+        ConfirmTwoFactorDto: {
+            /** @example 123456 */
+            code: string;
+        };
+        RecoveryCodesDto: {
+            /** @description Shown once; only their hashes are kept */
+            recoveryCodes: string[];
+        };
+        ConfirmWithPasswordDto: {
+            password: string;
         };
         StudySummaryDto: {
             /** Format: uuid */
@@ -3787,6 +3915,48 @@ export interface operations {
             };
         };
     };
+    LabSettingsController_get: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["LabSettingsDto"];
+                };
+            };
+        };
+    };
+    LabSettingsController_update: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["UpdateLabSettingsDto"];
+            };
+        };
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["LabSettingsDto"];
+                };
+            };
+        };
+    };
     AuthController_signIn: {
         parameters: {
             query?: never;
@@ -3807,6 +3977,13 @@ export interface operations {
                 content: {
                     "application/json": components["schemas"]["SessionDto"];
                 };
+            };
+            /** @description INVALID_CREDENTIALS; TWO_FACTOR_REQUIRED (send again with code or recoveryCode); TWO_FACTOR_INVALID */
+            401: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
             };
             /** @description Too many attempts */
             429: {
@@ -3982,6 +4159,115 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["MeDto"];
+                };
+            };
+        };
+    };
+    TwoFactorController_status: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["TwoFactorStatusDto"];
+                };
+            };
+        };
+    };
+    TwoFactorController_disable: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ConfirmWithPasswordDto"];
+            };
+        };
+        responses: {
+            /** @description Two-factor sign-in is off and the recovery codes are gone */
+            204: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content?: never;
+            };
+        };
+    };
+    TwoFactorController_setup: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            /** @description A new secret and its QR code; nothing changes until a code from it is confirmed */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["TwoFactorSetupDto"];
+                };
+            };
+        };
+    };
+    TwoFactorController_confirm: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ConfirmTwoFactorDto"];
+            };
+        };
+        responses: {
+            /** @description Two-factor sign-in is on; the recovery codes are shown this once */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RecoveryCodesDto"];
+                };
+            };
+        };
+    };
+    TwoFactorController_renewRecoveryCodes: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["ConfirmWithPasswordDto"];
+            };
+        };
+        responses: {
+            /** @description New recovery codes; every earlier one stops working */
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RecoveryCodesDto"];
                 };
             };
         };

@@ -18,6 +18,19 @@ export class SignInDto {
   @MinLength(1, { message: 'password is required' })
   @MaxLength(200)
   password: string;
+
+  @ApiPropertyOptional({ description: 'The 6-digit code from the authenticator app, when the account has two-factor sign-in on', example: '123456' })
+  @IsOptional()
+  @IsString()
+  @Matches(/^\s*\d{3}\s?\d{3}\s*$/, { message: 'code must be the 6 digits your authenticator app shows' })
+  code?: string;
+
+  @ApiPropertyOptional({ description: 'One of the recovery codes given when two-factor sign-in was turned on; each works once' })
+  @IsOptional()
+  @IsString()
+  @MinLength(1, { message: 'recoveryCode is required' })
+  @MaxLength(40, { message: 'recoveryCode is longer than any recovery code' })
+  recoveryCode?: string;
 }
 
 export class RequestSignInLinkDto {
@@ -48,6 +61,9 @@ export class MeDto {
   @ApiProperty() name: string;
   @ApiProperty({ enum: USER_ROLES }) role: UserRole;
   @ApiProperty() active: boolean;
+  @ApiProperty({ description: 'The person signs in with a two-factor code as well as a password' }) twoFactorEnabled: boolean;
+  @ApiProperty({ description: 'The lab requires two-factor sign-in of admins and this admin has not set it up yet' })
+  twoFactorSetupNeeded: boolean;
 }
 
 export class SessionDto {

@@ -6,6 +6,8 @@ export interface SessionUser {
   email: string;
   name: string;
   role: UserRole;
+  /** The lab requires two-factor sign-in of admins and this admin has not set it up. */
+  twoFactorSetupNeeded?: boolean;
 }
 
 export const ACCESS_COOKIE = 'eh_access';

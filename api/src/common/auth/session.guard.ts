@@ -5,7 +5,7 @@ import type { Request } from 'express';
 import { AuthService } from '../../auth/auth.service';
 import type { UserRole } from '../../users/entities/user.entity';
 import { DomainException } from '../errors/domain.exception';
-import { IS_PUBLIC, OPTIONAL_SESSION, ROLES } from './auth.decorators';
+import { BEFORE_TWO_FACTOR_SETUP, IS_PUBLIC, OPTIONAL_SESSION, ROLES } from './auth.decorators';
 import { ACCESS_COOKIE, SessionUser } from './session-user';
 
 /**
@@ -37,6 +37,10 @@ export class SessionGuard implements CanActivate {
     if (user === 'expired') throw new DomainException('UNAUTHENTICATED', 'Your session has expired. Please sign in again.');
     if (!user) throw new DomainException('UNAUTHENTICATED', 'Please sign in.');
     request.user = user;
+
+    if (user.twoFactorSetupNeeded && !this.reflector.getAllAndOverride<boolean>(BEFORE_TWO_FACTOR_SETUP, targets)) {
+      throw new DomainException('TWO_FACTOR_SETUP_REQUIRED', 'The lab requires admins to sign in with a two-factor code. Set it up under Your account first.');
+    }
 
     const roles = this.reflector.getAllAndOverride<UserRole[] | undefined>(ROLES, targets);
     if (roles && !roles.includes(user.role)) {

@@ -36,6 +36,9 @@ export function Component() {
   const role = me.data.role;
   if (!isStaffRole(role)) return <StaffOnlyNotice me={me.data} onSignOut={leave} signingOut={signOut.isPending} />;
 
+  // The lab requires two-factor sign-in of admins and this one has not set it up: only their account page opens.
+  if (me.data.twoFactorSetupNeeded && location.pathname !== '/account') return <Navigate to="/account" replace />;
+
   const navItems = areasFor(role).map((area) => ({ to: areaPaths[area], label: areaLabels[area] }));
   const session: StaffSession = { me: me.data };
   return (

@@ -1,3 +1,4 @@
+import { LabSettingsPanel } from '@/features/lab-settings/components/lab-settings-panel';
 import { StaffDirectory } from '@/features/staff/components/staff-directory';
 import { useStaffSession } from '../../session-context';
 import { RequireArea } from './require-area';
@@ -7,7 +8,10 @@ export function Component() {
   return (
     <RequireArea area="staff">
       <title>Staff · Evenhand</title>
-      <StaffDirectory currentUserId={me.id} />
+      <div className="flex flex-col gap-6">
+        <StaffDirectory currentUserId={me.id} />
+        <LabSettingsPanel />
+      </div>
     </RequireArea>
   );
 }

@@ -8,7 +8,14 @@ export const signInInputSchema = z.object({
   password: z.string().min(1, 'Enter your password.'),
 });
 
-export type SignInInput = z.infer<typeof signInInputSchema>;
+export type SignInInput = z.infer<typeof signInInputSchema> & { code?: string; recoveryCode?: string };
+
+/** The second step, when the account has two-factor sign-in on: a 6-digit code, or one recovery code. */
+export const secondFactorSchema = z.discriminatedUnion('kind', [
+  z.object({ kind: z.literal('code'), value: z.string().trim().regex(/^\d{3}\s?\d{3}$/, 'Enter the 6 digits your authenticator app shows.') }),
+  z.object({ kind: z.literal('recovery-code'), value: z.string().trim().min(1, 'Enter one of your recovery codes.').max(40, 'That is longer than a recovery code.') }),
+]);
+export type SecondFactorInput = z.infer<typeof secondFactorSchema>;
 
 export async function signIn(input: SignInInput): Promise<Me> {
   const session = await unwrap(apiClient.POST('/api/auth/sign-in', { body: input }));

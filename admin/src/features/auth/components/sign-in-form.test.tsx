@@ -5,7 +5,7 @@ import { stubApi } from '@/test/api-stub';
 import { renderWithProviders } from '@/test/render-with-providers';
 import { SignInForm } from './sign-in-form';
 
-const coordinator = { id: '5b0c3c36-6d5e-4a43-9a57-3f2f8f3f1a11', email: 'coordinator@evenhand.test', name: 'Robin Okafor-Lind', role: 'coordinator', active: true };
+const coordinator = { id: '5b0c3c36-6d5e-4a43-9a57-3f2f8f3f1a11', email: 'coordinator@evenhand.test', name: 'Robin Okafor-Lind', role: 'coordinator', active: true, twoFactorEnabled: false, twoFactorSetupNeeded: false };
 
 describe('SignInForm', () => {
   it('names each missing field and sends nothing', async () => {
@@ -79,5 +79,45 @@ describe('SignInForm', () => {
     await userEvent.click(screen.getByRole('button', { name: 'Sign in' }));
 
     expect(await screen.findByRole('alert')).toHaveTextContent('Too many sign-in attempts. Wait a minute and try again.');
+  });
+
+  it('asks for the authenticator code after a right password, then for a recovery code when chosen', async () => {
+    const { requests } = stubApi({
+      'POST /api/auth/sign-in': (request) => {
+        const body = request.body as { code?: string; recoveryCode?: string };
+        if (body.recoveryCode === 'abcde-fghjk') return { status: 200, body: { user: coordinator } };
+        if (body.code || body.recoveryCode) {
+          return { status: 401, body: { statusCode: 401, code: 'TWO_FACTOR_INVALID', message: 'That code is not right, or it was used already.' } };
+        }
+        return { status: 401, body: { statusCode: 401, code: 'TWO_FACTOR_REQUIRED', message: 'Enter the 6-digit code.' } };
+      },
+    });
+    const onSignedIn = vi.fn();
+    renderWithProviders(<SignInForm onSignedIn={onSignedIn} />);
+
+    await userEvent.type(screen.getByLabelText('E-mail'), 'coordinator@evenhand.test');
+    await userEvent.type(screen.getByLabelText('Password'), 'evenhand-demo');
+    await userEvent.click(screen.getByRole('button', { name: 'Sign in' }));
+
+    const codeField = await screen.findByLabelText('Code from your authenticator app');
+    expect(screen.queryByRole('alert')).not.toBeInTheDocument();
+    await userEvent.type(codeField, '12 34');
+    await userEvent.click(screen.getByRole('button', { name: 'Sign in' }));
+    expect(await screen.findByText('Enter the 6 digits your authenticator app shows.')).toBeInTheDocument();
+
+    await userEvent.clear(codeField);
+    await userEvent.type(codeField, '123 456');
+    await userEvent.click(screen.getByRole('button', { name: 'Sign in' }));
+    expect(await screen.findByRole('alert')).toHaveTextContent('That code is not right, or it was used already.');
+
+    await userEvent.click(screen.getByRole('button', { name: 'Use a recovery code instead' }));
+    await userEvent.type(screen.getByLabelText('Recovery code'), 'abcde-fghjk');
+    await userEvent.click(screen.getByRole('button', { name: 'Sign in' }));
+    await waitFor(() => expect(onSignedIn).toHaveBeenCalledWith(coordinator));
+    expect(requests.map((request) => request.body)).toEqual([
+      { email: 'coordinator@evenhand.test', password: 'evenhand-demo' },
+      { email: 'coordinator@evenhand.test', password: 'evenhand-demo', code: '123456' },
+      { email: 'coordinator@evenhand.test', password: 'evenhand-demo', recoveryCode: 'abcde-fghjk' },
+    ]);
   });
 });

@@ -1,5 +1,35 @@
 import { z } from 'zod';
-import { parseMajorAmount } from '@/lib/money';
+import { formatMinor, parseMajorAmount } from '@/lib/money';
+
+/** The api's ceiling on one amount of pay (`@Max(100_000_000)` on `payMinor` in api/src/steps/dto/step.dto.ts). */
+export const MAX_PAY_MINOR = 100_000_000;
+
+/** What is wrong with a typed amount of pay, in the person's currency and words; null when it is fine. */
+export function payProblem(text: string, currency: string): string | null {
+  const amount = parseMajorAmount(text, currency);
+  if (!amount.ok) return amount.message;
+  if (amount.minor > MAX_PAY_MINOR) return `Pay per step: at most ${formatMinor(MAX_PAY_MINOR, currency)}.`;
+  return null;
+}
+
+/** The api's field messages about `payMinor`, said as money in the study's currency. */
+export function plainPayMessage(message: string, currency: string): string {
+  const ceiling = /must not be greater than (\d+)/.exec(message);
+  if (ceiling) return `Pay per step: at most ${formatMinor(Number(ceiling[1]), currency)}.`;
+  if (/must not be less than|negative/.test(message)) return 'Enter an amount above zero.';
+  if (/whole number of minor units/.test(message)) return 'Enter an amount in numbers, like 15 or 15.50.';
+  return message;
+}
+
+/** Rewrites an api refusal's `payMinor` messages in place before they are put on the form. */
+export function withPlainPayMessages(error: unknown, currency: string): unknown {
+  if (error instanceof Error && 'fieldErrors' in error && Array.isArray(error.fieldErrors)) {
+    for (const fieldError of error.fieldErrors as Array<{ field: string; message: string }>) {
+      if (fieldError.field === 'payMinor') fieldError.message = plainPayMessage(fieldError.message, currency);
+    }
+  }
+  return error;
+}
 
 /** Step title, description and pay typed in major units; the currency decides how many decimals are allowed. */
 export function stepInputSchema(currency: string) {
@@ -11,8 +41,8 @@ export function stepInputSchema(currency: string) {
       position: z.string().trim(),
     })
     .superRefine((values, ctx) => {
-      const amount = parseMajorAmount(values.pay, currency);
-      if (!amount.ok) ctx.addIssue({ code: 'custom', path: ['pay'], message: amount.message });
+      const problem = payProblem(values.pay, currency);
+      if (problem) ctx.addIssue({ code: 'custom', path: ['pay'], message: problem });
       if (values.position !== '' && !(/^\d+$/.test(values.position) && Number(values.position) >= 1)) {
         ctx.addIssue({ code: 'custom', path: ['position'], message: 'Enter a place from 1, or leave it empty to add the step last.' });
       }
@@ -36,8 +66,8 @@ export function payOverrideInputSchema(currency: string) {
       reason: z.string().trim().min(10, 'Explain the exception in at least 10 characters; it is kept in the record.').max(1000, 'Keep the reason under 1,000 characters.'),
     })
     .superRefine((values, ctx) => {
-      const amount = parseMajorAmount(values.pay, currency);
-      if (!amount.ok) ctx.addIssue({ code: 'custom', path: ['pay'], message: amount.message });
+      const problem = payProblem(values.pay, currency);
+      if (problem) ctx.addIssue({ code: 'custom', path: ['pay'], message: problem });
     })
     .transform((values) => ({
       conditionId: values.conditionId,

@@ -12,7 +12,7 @@ import type { Condition } from '../api/get-conditions';
 import type { Step } from '../api/get-steps';
 import { useSetPayOverride } from '../api/set-pay-override';
 import { conditionDisplayName } from '../utils/condition-name';
-import { payOverrideInputSchema, type PayOverrideFormOutput, type PayOverrideFormValues } from '../api/step-schema';
+import { payOverrideInputSchema, withPlainPayMessages, type PayOverrideFormOutput, type PayOverrideFormValues } from '../api/step-schema';
 
 const apiToFormField: Record<string, keyof PayOverrideFormValues> = { payMinor: 'pay', reason: 'reason', conditionId: 'conditionId' };
 
@@ -41,7 +41,7 @@ export function PayOverrideForm({ studyId, currency, step, conditions, onSaved, 
   const onSubmit = handleSubmit(({ conditionId, payMinor, reason }) => {
     setOverride.mutate(
       { stepId: step.id, conditionId, body: { payMinor, reason } },
-      { onSuccess: () => onSaved(), onError: (error) => applyApiFieldErrors(error, setError, (field) => apiToFormField[field] ?? null) },
+      { onSuccess: () => onSaved(), onError: (error) => applyApiFieldErrors(withPlainPayMessages(error, currency), setError, (field) => apiToFormField[field] ?? null) },
     );
   });
 

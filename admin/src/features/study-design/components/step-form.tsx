@@ -9,7 +9,7 @@ import { applyApiFieldErrors } from '@/lib/form-field-errors';
 import { minorToMajorText } from '@/lib/money';
 import { useCreateStep } from '../api/create-step';
 import type { Step } from '../api/get-steps';
-import { stepInputSchema, type StepFormOutput, type StepFormValues } from '../api/step-schema';
+import { stepInputSchema, withPlainPayMessages, type StepFormOutput, type StepFormValues } from '../api/step-schema';
 import { useUpdateStep } from '../api/update-step';
 
 const apiToFormField: Record<string, keyof StepFormValues> = { title: 'title', description: 'description', payMinor: 'pay', position: 'position' };
@@ -41,7 +41,7 @@ export function StepForm({ studyId, currency, step, stepCount, onSaved, onCancel
     },
   });
 
-  const onError = (error: unknown) => applyApiFieldErrors(error, setError, (field) => apiToFormField[field] ?? null);
+  const onError = (error: unknown) => applyApiFieldErrors(withPlainPayMessages(error, currency), setError, (field) => apiToFormField[field] ?? null);
 
   const onSubmit = handleSubmit((values) => {
     if (!step) {

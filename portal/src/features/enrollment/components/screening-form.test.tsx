@@ -36,6 +36,10 @@ describe('screening form built from the study\'s questions', () => {
 
     const direction = screen.getByLabelText('How good is your sense of direction?');
     expect(direction).toHaveAccessibleDescription('1 means very poor, 7 means excellent. · A number from 1 to 7');
+    // The browser knows the range too (number keyboards, stepping with the arrow keys).
+    expect(direction).toHaveAttribute('type', 'number');
+    expect(direction).toHaveAttribute('min', '1');
+    expect(direction).toHaveAttribute('max', '7');
 
     const commute = screen.getByRole('radiogroup', { name: 'How do you usually get around town?' });
     expect(within(commute).getAllByRole('radio')).toHaveLength(4);

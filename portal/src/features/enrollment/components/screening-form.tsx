@@ -146,7 +146,11 @@ export function ScreeningForm({ studyId, questions, answers, onScreened }: Scree
                 label={question.label}
                 hint={hint || undefined}
                 error={error}
+                type="number"
                 inputMode="decimal"
+                step="any"
+                min={question.min ?? undefined}
+                max={question.max ?? undefined}
                 autoComplete="off"
               />
             );
