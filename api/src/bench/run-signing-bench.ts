@@ -17,7 +17,7 @@ import { RandomizationService } from '../randomization/randomization.service';
 import { activateBenchConsent } from './bench-consent';
 import { StepsService } from '../steps/steps.service';
 import { StudiesService } from '../studies/studies.service';
-import { BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
+import { DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
 import { BenchOwnDatabase } from './bench-own-database';
 import { formatTable, median, reportRow } from './bench-report';
 import { BENCH_SCHEMES, PRETEST_CUT } from './bench-study';

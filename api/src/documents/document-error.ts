@@ -1,4 +1,4 @@
-import type { FieldError } from '../consent/consent-error';
+import type { FieldError } from '../consent';
 
 export enum DocumentErrorCode {
   InvalidInput = 'invalid-input',

@@ -1,5 +1,5 @@
 import { Module } from '@nestjs/common';
-import { AuditModule } from '../audit/audit.module';
+import { AuditModule } from '../audit';
 import { UsersController } from './users.controller';
 import { UsersService } from './users.service';
 

@@ -1,5 +1,5 @@
 import { Column, Entity, JoinColumn, OneToOne, PrimaryColumn, UpdateDateColumn } from 'typeorm';
-import { StudyEntity } from '../../studies/entities/study.entity';
+import { StudyEntity } from '../../studies';
 
 /**
  * A study's assignment scheme. `settings` is what the researcher chose; `sealedParameters` is the full canonical
