@@ -14,6 +14,7 @@ import { MailModule } from './mail/mail.module';
 import { PaymentsModule } from './payments/payments.module';
 import { AssignmentModule } from './randomization/assignment.module';
 import { StepsModule } from './steps/steps.module';
+import { PublicStudyModule } from './studies/public-study.module';
 import { StudiesModule } from './studies/studies.module';
 import { ConsentModule } from './consent/consent.module';
 import { RemindersModule } from './reminders/reminders.module';
@@ -36,6 +37,7 @@ import { UsersModule } from './users/users.module';
     AuthModule,
     StudiesModule,
     StepsModule,
+    PublicStudyModule,
     AssignmentModule,
     ConsentModule,
     RemindersModule,

@@ -6,7 +6,7 @@
 //   retries                 https://docs.stripe.com/webhooks#retries (non-2xx answers are retried)
 import Stripe from 'stripe';
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { startHarness, waitFor, WEBHOOK_SECRET, type Harness } from './support/harness';
+import { startHarness, WEBHOOK_SECRET, type Harness } from './support/harness';
 
 let harness: Harness;
 let stripe: Stripe;

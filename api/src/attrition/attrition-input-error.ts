@@ -1,11 +1,18 @@
+import { InvalidInputError } from '../common/errors/invalid-input.error';
+import type { FieldError } from '../common/errors/error-codes';
+
 /** Thrown when the figures handed to the attrition statistics are impossible; `field` names the offending input. */
-export class AttritionInputError extends Error {
+export class AttritionInputError extends InvalidInputError {
+  readonly summary = 'The figures for the dropout statistics are not possible.';
+  readonly fieldErrors: FieldError[];
+
   constructor(
     readonly field: string,
     problem: string,
   ) {
     super(`${field}: ${problem}`);
     this.name = 'AttritionInputError';
+    this.fieldErrors = [{ field, message: problem }];
   }
 }
 

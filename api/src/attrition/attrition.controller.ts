@@ -4,7 +4,7 @@ import type { Response } from 'express';
 import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
 import { uuidParam } from '../common/http/uuid-param';
-import { StudyMembersOnly } from '../studies/study-access.guard';
+import { StudyMembersOnly } from '../studies';
 import { AttritionService } from './attrition.service';
 import { AttritionQueryDto, AttritionReportDto } from './dto/attrition-report.dto';
 

@@ -1,7 +1,7 @@
 import { Module } from '@nestjs/common';
-import { AuditModule } from '../audit/audit.module';
+import { AuditModule } from '../audit';
 import { MailModule } from '../mail/mail.module';
-import { StudiesModule } from '../studies/studies.module';
+import { StudiesModule } from '../studies';
 import { AttritionAlertsController } from './alerts/attrition-alerts.controller';
 import { AttritionAlertsService } from './alerts/attrition-alerts.service';
 import { AttritionController } from './attrition.controller';

@@ -1,3 +1,5 @@
+// The attrition domain's public face: other domains import from this file only, never from the files behind it
+// (checked by `npm run lint`, .dependency-cruiser.cjs).
 export * from './attrition-input-error';
 export * from './attrition-rates';
 export * from './attrition-report';
@@ -15,3 +17,5 @@ export * from './stratified-tests';
 export * from './sufficient-statistics';
 export * from './wwc-boundaries';
 export * from './wwc-verdict';
+export * from './attrition.module';
+export * from './attrition.service';

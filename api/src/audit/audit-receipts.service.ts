@@ -7,8 +7,6 @@ import { DomainException } from '../common/errors/domain.exception';
 import { AppConfig } from '../config/app-config';
 import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
 import { MailService } from '../mail/mail.service';
-import { StudiesService } from '../studies/studies.service';
-import { UsersService } from '../users/users.service';
 import { AuditReceiptDocument, ChainHead, sealReceipt } from './audit-receipt';
 import { AuditActor, AuditService } from './audit.service';
 import { AuditReceiptEntity } from './entities/audit-receipt.entity';
@@ -116,6 +114,8 @@ export class AuditReceiptsService implements OnModuleInit {
   }
 
   private async auditors(chains: string[]): Promise<string[]> {
+    // Loaded when a receipt is sent: audit sits below every domain, so studies and users must not load with it.
+    const [{ UsersService }, { StudiesService }] = await Promise.all([import('../users'), import('../studies')]);
     const users = this.moduleRef.get(UsersService, { strict: false });
     const studies = this.moduleRef.get(StudiesService, { strict: false });
     const addresses = new Set<string>();

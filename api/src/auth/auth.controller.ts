@@ -5,7 +5,7 @@ import { AllowedBeforeTwoFactorSetup, CurrentUser, Public, Roles } from '../comm
 import { ACCESS_COOKIE, REFRESH_COOKIE, SessionUser } from '../common/auth/session-user';
 import { AppConfig } from '../config/app-config';
 import { SignInThrottlerGuard } from '../rate-limit/sign-in-throttler.guard';
-import { UsersService } from '../users/users.service';
+import { UsersService } from '../users';
 import { AuthService, ClientInfo, IssuedSession, toMeDto } from './auth.service';
 import { ChangePasswordDto, ConsumePasswordResetDto, RequestPasswordResetDto, ConsumeSignInLinkDto, LinkRequestedDto, MeDto, RequestSignInLinkDto, SessionDto, SignInDto } from './dto/auth.dto';
 

@@ -1,12 +1,12 @@
 import { Module } from '@nestjs/common';
 import { APP_GUARD } from '@nestjs/core';
 import { JwtModule } from '@nestjs/jwt';
-import { AuditModule } from '../audit/audit.module';
-import { SessionGuard } from '../common/auth/session.guard';
+import { AuditModule } from '../audit';
+import { SessionGuard } from './session.guard';
 import { AppConfig } from '../config/app-config';
 import { MailModule } from '../mail/mail.module';
 import { RateLimitModule } from '../rate-limit/rate-limit.module';
-import { UsersModule } from '../users/users.module';
+import { UsersModule } from '../users';
 import { AuthController } from './auth.controller';
 import { AuthService } from './auth.service';
 import { TwoFactorController } from './two-factor.controller';

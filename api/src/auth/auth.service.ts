@@ -3,22 +3,22 @@ import { JwtService } from '@nestjs/jwt';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { randomUUID } from 'node:crypto';
 import { DataSource, EntityManager } from 'typeorm';
-import { AuditService } from '../audit/audit.service';
+import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
 import { DomainException } from '../common/errors/domain.exception';
 import { AppConfig } from '../config/app-config';
 import { queryRows } from '../database/raw-query';
 import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
 import { MailService } from '../mail/mail.service';
-import { UserEntity } from '../users/entities/user.entity';
-import { UsersService } from '../users/users.service';
+import { UserEntity } from '../users';
+import { UsersService } from '../users';
 import { MeDto } from './dto/auth.dto';
 import { RefreshTokenEntity } from './entities/refresh-token.entity';
 import { hashToken, newOpaqueToken, passwordResetToken, signInLinkToken, successorToken } from './session-tokens';
 import { passwordResetMail } from './password-reset-mail';
 import { signInLinkMail } from './sign-in-link-mail';
 import { SecondFactor, TwoFactorService } from './two-factor.service';
-import { LabSettingsService } from '../users/lab-settings.service';
+import { LabSettingsService } from '../users';
 
 export interface IssuedSession {
   user: MeDto;

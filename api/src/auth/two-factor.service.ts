@@ -2,12 +2,12 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import * as QRCode from 'qrcode';
 import { DataSource, EntityManager } from 'typeorm';
-import { AuditService } from '../audit/audit.service';
+import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
 import { DomainException } from '../common/errors/domain.exception';
 import { AppConfig } from '../config/app-config';
 import { queryRows } from '../database/raw-query';
-import { UsersService } from '../users/users.service';
+import { UsersService } from '../users';
 import { ConfirmTwoFactorDto, RecoveryCodesDto, TwoFactorSetupDto, TwoFactorStatusDto } from './dto/two-factor.dto';
 import {
   acceptedTotpStep,

@@ -17,7 +17,7 @@ import { RandomizationService } from '../randomization/randomization.service';
 import { StepsService } from '../steps/steps.service';
 import { activateBenchConsent } from './bench-consent';
 import { StudiesService } from '../studies/studies.service';
-import { BenchDatabase, BenchSetupError, DATABASE_URL_HELP } from './bench-database';
+import { BenchDatabase, DATABASE_URL_HELP } from './bench-database';
 import { runBenchmark } from './concurrent-runner';
 import { formatTable, median, reportRow } from './bench-report';
 

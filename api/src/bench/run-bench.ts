@@ -13,7 +13,7 @@ import { formatVerdicts, judge } from './bench-targets';
 import type { AuditActor } from '../audit/audit.service';
 import { RandomizationService } from '../randomization/randomization.service';
 import { createSeededStream, generateSeed, streamLabel } from '../randomization/seeded-stream';
-import { BenchDatabase, BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
+import { BenchDatabase, DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
 import { formatTable, median, reportRow, ReportTable } from './bench-report';
 import { BENCH_SCHEMES, BenchStudies, BenchStudy, PRETEST_CUT } from './bench-study';
 import { abortOnInterrupt, runConcurrently, timeSync, runBenchmark } from './concurrent-runner';

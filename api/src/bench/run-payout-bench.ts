@@ -200,7 +200,7 @@ class PayoutBench {
   }
 
   /** What the provider holds for this study, against our ledger: one transfer per payout, nothing else. */
-  async exactlyOnce(count: number) {
+  async exactlyOnce() {
     const transfers: Stripe.Transfer[] = [];
     for await (const transfer of this.provider.transfers.list({ transfer_group: `study_${this.studyId}`, limit: 100 })) transfers.push(transfer);
     const perPayout = new Map<string, number>();
@@ -260,7 +260,7 @@ async function main(): Promise<number> {
     log(`baseline: ${payoutCount} bare transfers in ${raw.seconds.toFixed(1)} s (${raw.perSecond.toFixed(0)}/s)`);
     const paid = await bench.payEverything(payoutCount);
     log(`paid: ${payoutCount} payouts in ${paid.totalSeconds.toFixed(1)} s (${paid.perSecond.toFixed(0)}/s)`);
-    const once = await bench.exactlyOnce(payoutCount);
+    const once = await bench.exactlyOnce();
     const receiptsWhenDone = await bench.receiptsSent();
     await until(async () => ((await bench.receiptsSent()) === payoutCount ? true : null), 'every receipt to be sent', 10 * 60_000, interrupted);
 

@@ -1,3 +1,5 @@
+import { InvalidInputError } from '../common/errors/invalid-input.error';
+
 /** One problem with one input field, in words an admin screen can show next to that field. */
 export interface FieldError {
   field: string;
@@ -11,7 +13,9 @@ export enum ConsentErrorCode {
 }
 
 /** The consent domain's one error for bad input: a code plus the field errors that caused it. */
-export class ConsentError extends Error {
+export class ConsentError extends InvalidInputError {
+  readonly summary = 'The consent form cannot be prepared from these details.';
+
   constructor(
     readonly code: ConsentErrorCode,
     readonly fieldErrors: FieldError[],

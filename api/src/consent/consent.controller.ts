@@ -6,7 +6,7 @@ import { memoryStorage } from 'multer';
 import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
 import { uuidParam } from '../common/http/uuid-param';
-import { StudyMembersOnly } from '../studies/study-access.guard';
+import { StudyMembersOnly } from '../studies';
 import { ConsentService, MAX_APPROVAL_LETTER_BYTES } from './consent.service';
 import {
   ConsentCheckDto,

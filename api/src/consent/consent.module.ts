@@ -1,7 +1,7 @@
 import { Module } from '@nestjs/common';
-import { AuditModule } from '../audit/audit.module';
-import { StepsModule } from '../steps/steps.module';
-import { StudiesModule } from '../studies/studies.module';
+import { AuditModule } from '../audit';
+import { StepsModule } from '../steps';
+import { StudiesModule } from '../studies';
 import { ConsentController } from './consent.controller';
 import { ConsentService } from './consent.service';
 

@@ -12,7 +12,6 @@
 const ALWAYS_ESCAPED = /[\\`*_{}[\]<>|~&]/g;
 
 export function singleLine(value: string): string {
-  // eslint-disable-next-line no-control-regex
   return value.replace(/[\u0000-\u001f\u007f\u2028\u2029]+/g, ' ').replace(/ {2,}/g, ' ').trim();
 }
 

@@ -2,13 +2,13 @@ import { Injectable, Logger, OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
 import { AppConfig, DEVELOPMENT_SIGNING_PASSPHRASE } from '../config/app-config';
-import { renderEmail } from '../consent/consent-emails';
-import { ConsentService } from '../consent/consent.service';
-import { describeSigningTime } from '../consent/study-formatting';
-import { EnrollmentsService } from '../enrollments/enrollments.service';
+import { renderEmail } from '../consent';
+import { ConsentService } from '../consent';
+import { describeSigningTime } from '../consent';
+import { EnrollmentsService } from '../enrollments';
 import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
 import { MailService } from '../mail/mail.service';
-import { StudiesService } from '../studies/studies.service';
+import { StudiesService } from '../studies';
 import { buildSignedConsentPdf, PdfSealIdentity } from './signed-consent-pdf';
 import { loadSigningIdentity } from './signing-certificate';
 

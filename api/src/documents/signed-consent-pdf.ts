@@ -20,12 +20,12 @@ import { pdflibAddPlaceholder } from '@signpdf/placeholder-pdf-lib';
 import { P12Signer } from '@signpdf/signer-p12';
 import { SignPdf } from '@signpdf/signpdf';
 import { PDFDocument, PDFImage } from 'pdf-lib';
-import { consentTextBlocks, TextRun } from '../consent/consent-markdown';
-import { isFingerprint, renderedTextFingerprint } from '../consent/consent-text';
-import { describeSigningTime } from '../consent/study-formatting';
-import type { FieldError } from '../consent/consent-error';
+import { consentTextBlocks, TextRun } from '../consent';
+import { isFingerprint, renderedTextFingerprint } from '../consent';
+import { describeSigningTime } from '../consent';
+import type { FieldError } from '../consent';
 import { DocumentError, DocumentErrorCode } from './document-error';
-import { INK, MARGIN, MUTED, PAGE_SIZE, PdfWriter, RULE, TextStyle } from './pdf-layout';
+import { MARGIN, MUTED, PdfWriter, RULE, TextStyle } from './pdf-layout';
 
 export interface SignedConsentPdfInput {
   /** The rendered consent text exactly as signed (renderedConsentText's output). */

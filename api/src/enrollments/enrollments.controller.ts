@@ -31,8 +31,8 @@ import {
 } from './dto/enrollment.dto';
 import { EnrollmentsService } from './enrollments.service';
 import { StepProgressService } from './step-progress.service';
-import { StudyMembersOnly } from '../studies/study-access.guard';
-import { BulkCompletionDto, BulkCompletionResultDto, CompleteStepDto } from '../steps/dto/step.dto';
+import { StudyMembersOnly } from '../studies';
+import { BulkCompletionDto, BulkCompletionResultDto, CompleteStepDto } from '../steps';
 import { AppConfig } from '../config/app-config';
 
 const MAX_ROSTER_BYTES = 5 * 1024 * 1024;

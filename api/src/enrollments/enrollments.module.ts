@@ -1,15 +1,15 @@
 import { Module } from '@nestjs/common';
-import { AuditModule } from '../audit/audit.module';
-import { ConsentModule } from '../consent/consent.module';
+import { AuditModule } from '../audit';
+import { ConsentModule } from '../consent';
 import { MailModule } from '../mail/mail.module';
-import { RandomizationModule } from '../randomization/randomization.module';
-import { StepsModule } from '../steps/steps.module';
-import { StudiesModule } from '../studies/studies.module';
-import { UsersModule } from '../users/users.module';
-import { PayoutsModule } from '../payouts/payouts.module';
+import { RandomizationModule } from '../randomization';
+import { StepsModule } from '../steps';
+import { StudiesModule } from '../studies';
+import { UsersModule } from '../users';
+import { PayoutsModule } from '../payouts';
 import { MyEnrollmentController, ReturnLinkController, RosterController, StepCompletionsController } from './enrollments.controller';
 import { StepProgressService } from './step-progress.service';
-import { RemindersModule } from '../reminders/reminders.module';
+import { RemindersModule } from '../reminders';
 import { EnrollmentsService } from './enrollments.service';
 
 @Module({

@@ -3,26 +3,26 @@ import { Injectable, OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { randomBytes } from 'node:crypto';
 import { DataSource, EntityManager } from 'typeorm';
-import { AuditActor, AuditService } from '../audit/audit.service';
-import type { ClientInfo } from '../auth/auth.service';
+import { AuditActor, AuditService } from '../audit';
+import type { ClientInfo } from '../auth';
 import type { SessionUser } from '../common/auth/session-user';
 import { DomainException } from '../common/errors/domain.exception';
 import { AppConfig } from '../config/app-config';
-import { ConsentService } from '../consent/consent.service';
-import { renderEmail } from '../consent/consent-emails';
-import { formatDuration, formatMoney } from '../consent/study-formatting';
-import { ConsentVersionEntity } from '../consent/entities/consent-version.entity';
+import { ConsentService } from '../consent';
+import { renderEmail } from '../consent';
+import { formatDuration, formatMoney } from '../consent';
+import { ConsentVersionEntity } from '../consent';
 import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
 import { MailService } from '../mail/mail.service';
-import { RandomizationService } from '../randomization/randomization.service';
-import { StepsService } from '../steps/steps.service';
-import { stepTiming, stepWindows } from '../steps/step-window';
-import { ContactsService } from '../reminders/contacts.service';
+import { RandomizationService } from '../randomization';
+import { StepsService } from '../steps';
+import { stepTiming, stepWindows } from '../steps';
+import { ContactsService } from '../reminders';
 import { StepProgressService } from './step-progress.service';
-import { PayoutsService } from '../payouts/payouts.service';
-import { StudyEntity } from '../studies/entities/study.entity';
-import { StudiesService } from '../studies/studies.service';
-import { UsersService } from '../users/users.service';
+import { PayoutsService } from '../payouts';
+import { StudyEntity } from '../studies';
+import { StudiesService } from '../studies';
+import { UsersService } from '../users';
 import {
   ImportResultDto,
   MyEnrollmentDto,
@@ -633,7 +633,6 @@ export class EnrollmentsService implements OnModuleInit {
     const participant = await this.dataSource.query(`SELECT email FROM user_account WHERE id = $1`, [enrollment.participantId]);
     const versions = await this.consent.list(studyId);
     const signatures = await this.consent.signaturesOf(enrollmentId);
-    const signatureIds = signatures.map((s) => s.id);
     const story = await this.audit.storyOf(studyId, enrollment.reference);
     const progress = await this.progressOf(studyId, [enrollment]);
     return {

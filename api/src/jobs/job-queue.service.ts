@@ -57,11 +57,12 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
     if (!this.config.runWorkers) return;
     // Up to 10 jobs per fetch run side by side; each failure is reported for its own job (retried with back-off),
     // and the worker then completes only the jobs still active, i.e. the ones that succeeded.
-    let workerId: string | undefined;
-    workerId = await this.boss.work<Payload>(name, { pollingIntervalSeconds: 0.5, batchSize: JOB_BATCH_SIZE, includeMetadata: true }, async (jobs) => {
+    // The worker id arrives only when `work` resolves; the handler may run before that.
+    const worker: { id?: string } = {};
+    worker.id = await this.boss.work<Payload>(name, { pollingIntervalSeconds: 0.5, batchSize: JOB_BATCH_SIZE, includeMetadata: true }, async (jobs) => {
       // A full batch means more are waiting: fetch again at once instead of sleeping out the polling interval,
       // which would otherwise cap every kind of job at one batch per half second.
-      if (jobs.length === JOB_BATCH_SIZE && workerId) this.boss.notifyWorker(workerId);
+      if (jobs.length === JOB_BATCH_SIZE && worker.id) this.boss.notifyWorker(worker.id);
       const results = await Promise.allSettled(jobs.map((job) => handler(job.data, job.id)));
       for (const [i, result] of results.entries()) {
         if (result.status === 'rejected') await this.failed(name, jobs[i], result.reason, options);

@@ -5,7 +5,7 @@ import type { Request, Response } from 'express';
 import { CurrentUser, Public, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
 import { uuidParam } from '../common/http/uuid-param';
-import { StudyMembersOnly } from '../studies/study-access.guard';
+import { StudyMembersOnly } from '../studies';
 import {
   ApprovalResultDto,
   ApprovePayoutsDto,

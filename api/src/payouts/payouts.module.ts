@@ -1,9 +1,9 @@
 import { Module } from '@nestjs/common';
-import { AuditModule } from '../audit/audit.module';
+import { AuditModule } from '../audit';
 import { MailModule } from '../mail/mail.module';
 import { PaymentsModule } from '../payments/payments.module';
-import { StudiesModule } from '../studies/studies.module';
-import { UsersModule } from '../users/users.module';
+import { StudiesModule } from '../studies';
+import { UsersModule } from '../users';
 import { PayoutsController, StudyPayoutsController } from './payouts.controller';
 import { PayoutRecoveryService } from './payout-recovery.service';
 import { PayoutsService } from './payouts.service';

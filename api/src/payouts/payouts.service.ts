@@ -3,17 +3,17 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { randomUUID } from 'node:crypto';
 import Stripe from 'stripe';
 import { DataSource, EntityManager, In } from 'typeorm';
-import { AuditActor, AuditService } from '../audit/audit.service';
+import { AuditActor, AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
 import { DomainException } from '../common/errors/domain.exception';
 import { AppConfig } from '../config/app-config';
-import { formatMoney } from '../consent/study-formatting';
+import { formatMoney } from '../consent';
 import { queryRows } from '../database/raw-query';
 import { JOB_NAMES, JOB_RETRY_LIMIT, JobQueueService } from '../jobs/job-queue.service';
 import { MailService } from '../mail/mail.service';
 import { PaymentsService } from '../payments/payments.service';
-import { StudiesService } from '../studies/studies.service';
-import { UsersService } from '../users/users.service';
+import { StudiesService } from '../studies';
+import { UsersService } from '../users';
 import {
   ApprovalResultDto,
   BudgetDto,

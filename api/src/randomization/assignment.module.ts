@@ -1,5 +1,5 @@
 import { Module } from '@nestjs/common';
-import { StudiesModule } from '../studies/studies.module';
+import { StudiesModule } from '../studies';
 import { AssignmentController } from './assignment.controller';
 import { RandomizationModule } from './randomization.module';
 

@@ -1,3 +1,5 @@
+// The randomization domain's public face: other domains import from this file only, never from the files behind it
+// (checked by `npm run lint`, .dependency-cruiser.cjs).
 export type { FieldError } from './randomization-error';
 export { RandomizationError, RandomizationErrorCode } from './randomization-error';
 export * from './scheme-parameters';
@@ -16,3 +18,6 @@ export * from './within/williams';
 export * from './within/order-sequence';
 export * from './derive-sequence';
 export * from './dry-run';
+export * from './randomization.module';
+export * from './randomization.service';
+export * from './study-design-snapshot';

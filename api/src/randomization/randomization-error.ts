@@ -1,3 +1,5 @@
+import { InvalidInputError } from '../common/errors/invalid-input.error';
+
 /** One problem with one input field, in words an admin screen can show next to that field. */
 export interface FieldError {
   field: string;
@@ -12,7 +14,9 @@ export enum RandomizationErrorCode {
 }
 
 /** The randomization domain's one error: a code plus the field errors that caused it. */
-export class RandomizationError extends Error {
+export class RandomizationError extends InvalidInputError {
+  readonly summary = 'The assignment settings are not valid.';
+
   constructor(
     readonly code: RandomizationErrorCode,
     readonly fieldErrors: FieldError[],

@@ -1,5 +1,5 @@
 import { Module } from '@nestjs/common';
-import { AuditModule } from '../audit/audit.module';
+import { AuditModule } from '../audit';
 import { RandomizationService } from './randomization.service';
 
 /** The assignment engine: sealing, allocating, verifying. Knows nothing of studies beyond the snapshots it is given. */

@@ -1,7 +1,7 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager } from 'typeorm';
-import { AuditActor, AuditService } from '../audit/audit.service';
+import { AuditActor, AuditService } from '../audit';
 import { DomainException } from '../common/errors/domain.exception';
 import { computeCommitment } from './commitment';
 import { deriveSequence, generateSlots, RecordedAllocation, slotStratumKey, usesSlots, verifyAllocations, VerificationReport } from './derive-sequence';

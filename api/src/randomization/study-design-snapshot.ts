@@ -1,4 +1,4 @@
-import type { StudyDesign } from '../studies/entities/study.entity';
+import type { StudyDesign } from '../studies';
 import { RandomizationError, RandomizationErrorCode } from './randomization-error';
 import {
   DEFAULT_COIN_PROBABILITY,

@@ -1,13 +1,13 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager } from 'typeorm';
-import { AuditService } from '../audit/audit.service';
+import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
 import { DomainException } from '../common/errors/domain.exception';
 import { AppConfig } from '../config/app-config';
-import { renderEmail } from '../consent/consent-emails';
+import { renderEmail } from '../consent';
 import { MailService } from '../mail/mail.service';
-import { StudiesService } from '../studies/studies.service';
+import { StudiesService } from '../studies';
 import { ContactLogDto, SendStaffMessageDto } from './dto/reminders.dto';
 import type { ContactKind } from './entities/contact.entity';
 import { contactRecipient, unansweredReminders } from './reminders.read-model';

@@ -1,4 +1,4 @@
-import { addDays, type StepWindow } from '../steps/step-window';
+import { addDays, type StepWindow } from '../steps';
 
 /**
  * One rule of a study's reminder plan: a number of days after a step opens, or before it is due. The plan is the

@@ -3,7 +3,7 @@ import { ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
 import { uuidParam } from '../common/http/uuid-param';
-import { StudyMembersOnly } from '../studies/study-access.guard';
+import { StudyMembersOnly } from '../studies';
 import { ContactsService } from './contacts.service';
 import { ContactLogDto, ReminderPlanDto, SaveReminderPlanDto, SendStaffMessageDto } from './dto/reminders.dto';
 import { ReminderPlanService } from './reminder-plan.service';

@@ -1,8 +1,8 @@
 import { Module } from '@nestjs/common';
-import { AuditModule } from '../audit/audit.module';
+import { AuditModule } from '../audit';
 import { MailModule } from '../mail/mail.module';
-import { StepsModule } from '../steps/steps.module';
-import { StudiesModule } from '../studies/studies.module';
+import { StepsModule } from '../steps';
+import { StudiesModule } from '../studies';
 import { ContactsService } from './contacts.service';
 import { ReminderPlanService } from './reminder-plan.service';
 import { ReminderSweepService } from './reminder-sweep.service';

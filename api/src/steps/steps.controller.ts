@@ -3,7 +3,7 @@ import { ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
 import { uuidParam } from '../common/http/uuid-param';
-import { StudyMembersOnly } from '../studies/study-access.guard';
+import { StudyMembersOnly } from '../studies';
 import { CreateStepDto, ReturnLinkSetupDto, SetCompletionCodeDto, SetPayOverrideDto, StepListDto, StepSettingsDto, UpdateStepDto } from './dto/step.dto';
 import { StepsService } from './steps.service';
 

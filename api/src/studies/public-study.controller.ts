@@ -2,7 +2,7 @@ import { Controller, Get, Param } from '@nestjs/common';
 import { ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { Public } from '../common/auth/auth.decorators';
 import { DomainException } from '../common/errors/domain.exception';
-import { StepsService } from '../steps/steps.service';
+import { StepsService } from '../steps';
 import { PublicStudyDto } from './dto/screening.dto';
 import { StudiesService } from './studies.service';
 

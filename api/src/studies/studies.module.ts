@@ -1,6 +1,6 @@
 import { Module } from '@nestjs/common';
-import { AuditModule } from '../audit/audit.module';
-import { RandomizationModule } from '../randomization/randomization.module';
+import { AuditModule } from '../audit';
+import { RandomizationModule } from '../randomization';
 import { StaffStudiesController, StudiesController } from './studies.controller';
 import { StudiesService } from './studies.service';
 import { StudyAccessGuard } from './study-access.guard';

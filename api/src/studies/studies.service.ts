@@ -1,15 +1,15 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager } from 'typeorm';
-import { AuditService } from '../audit/audit.service';
+import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
 import { DomainException, ValidationException } from '../common/errors/domain.exception';
-import { RandomizationService } from '../randomization/randomization.service';
-import type { StudyDesignSnapshot } from '../randomization/study-design-snapshot';
-import { factorLevels } from '../randomization/strata';
-import { PRETEST_CUTOFF_EXPLANATION } from '../randomization/strata';
+import { RandomizationService } from '../randomization';
+import type { StudyDesignSnapshot } from '../randomization';
+import { factorLevels } from '../randomization';
+import { PRETEST_CUTOFF_EXPLANATION } from '../randomization';
 import { queryRows } from '../database/raw-query';
-import { UserEntity } from '../users/entities/user.entity';
+import { UserEntity } from '../users';
 import {
   AddMemberDto,
   ConditionDto,

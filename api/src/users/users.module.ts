@@ -1,5 +1,5 @@
 import { Module } from '@nestjs/common';
-import { AuditModule } from '../audit/audit.module';
+import { AuditModule } from '../audit';
 import { LabSettingsController } from './lab-settings.controller';
 import { LabSettingsService } from './lab-settings.service';
 import { UsersController } from './users.controller';

@@ -3,7 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import * as bcrypt from 'bcryptjs';
 import { DataSource, EntityManager } from 'typeorm';
 import { queryRows } from '../database/raw-query';
-import { AuditService } from '../audit/audit.service';
+import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
 import { DomainException } from '../common/errors/domain.exception';
 import { CreateStaffUserDto, ListUsersQueryDto, StaffUserDto, StaffUserPageDto, UpdateStaffUserDto } from './dto/user.dto';

@@ -30,7 +30,7 @@ export function splitBracketKey(key: string): string[] {
   const segments = [key.slice(0, open)];
   let rest = key.slice(open);
   while (rest.length > 0) {
-    const match = /^\[([^\[\]]*)\]/.exec(rest);
+    const match = /^\[([^[\]]*)\]/.exec(rest);
     if (!match) throw new FormBodyError(`the key '${key}' has unbalanced brackets`, key);
     segments.push(match[1] ?? '');
     rest = rest.slice(match[0].length);

@@ -87,7 +87,7 @@ const PUBLISHABLE_FIELDS = [
   'shipping',
   'status',
 ] as const satisfies readonly (keyof Stripe.PaymentIntent & keyof BrowserPaymentIntent)[];
-const everyBrowserFieldListed: Exclude<keyof BrowserPaymentIntent, (typeof PUBLISHABLE_FIELDS)[number]> extends never ? true : never = true;
+const _everyBrowserFieldListed: Exclude<keyof BrowserPaymentIntent, (typeof PUBLISHABLE_FIELDS)[number]> extends never ? true : never = true;
 
 /** What the caller may see: everything with a secret key, the browser subset with a publishable key. */
 function presentIntent(intent: Stripe.PaymentIntent, call: ProviderCall): Partial<Stripe.PaymentIntent> {

@@ -259,7 +259,7 @@ const FIELDS = [
   'paymentIntents',
 ] as const satisfies readonly (keyof WorldSnapshot)[];
 // Fails to compile when WorldSnapshot gains a field that FIELDS (and so this reader) lacks.
-const everyFieldRead: Exclude<keyof WorldSnapshot, (typeof FIELDS)[number]> extends never ? true : never = true;
+const _everyFieldRead: Exclude<keyof WorldSnapshot, (typeof FIELDS)[number]> extends never ? true : never = true;
 
 /** The snapshot in `value` (already parsed from JSON), or a SnapshotError naming what is wrong. */
 export function readWorldSnapshot(value: unknown): WorldSnapshot {

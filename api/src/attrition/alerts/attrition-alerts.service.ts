@@ -1,13 +1,13 @@
 import { Injectable, Logger, OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager, In } from 'typeorm';
-import { AuditService } from '../../audit/audit.service';
+import { AuditService } from '../../audit';
 import type { SessionUser } from '../../common/auth/session-user';
 import { DomainException, ValidationException } from '../../common/errors/domain.exception';
 import { AppConfig } from '../../config/app-config';
 import { JOB_NAMES, JobQueueService } from '../../jobs/job-queue.service';
 import { MailService } from '../../mail/mail.service';
-import { StudiesService } from '../../studies/studies.service';
+import { StudiesService } from '../../studies';
 import { type AttritionFigures, AttritionService } from '../attrition.service';
 import { AttritionAlertsDto, AlertStateDto, PutAttritionAlertsDto } from '../dto/attrition-alerts.dto';
 import { AttritionAlertRuleEntity, type AlertKind } from '../entities/attrition-alert-rule.entity';

@@ -1,6 +1,6 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
 import { bigintAsNumber } from '../../database/column-transformers';
-import { StudyEntity } from '../../studies/entities/study.entity';
+import { StudyEntity } from '../../studies';
 
 export const ALERT_KINDS = ['differential-attrition', 'log-rank', 'pay-difference'] as const;
 export type AlertKind = (typeof ALERT_KINDS)[number];

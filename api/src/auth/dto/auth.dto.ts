@@ -1,8 +1,8 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
 import { IsEmail, IsOptional, IsString, Matches, MaxLength, MinLength } from 'class-validator';
-import { USER_ROLES, UserRole } from '../../users/entities/user.entity';
-import { MIN_PASSWORD_LENGTH } from '../../users/dto/user.dto';
+import { USER_ROLES, UserRole } from '../../users';
+import { MIN_PASSWORD_LENGTH } from '../../users';
 
 const lowerTrimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim().toLowerCase() : value);
 

@@ -1,5 +1,5 @@
 import { applyDecorators, createParamDecorator, ExecutionContext, SetMetadata } from '@nestjs/common';
-import type { UserRole } from '../../users/entities/user.entity';
+import type { UserRole } from './roles';
 import type { SessionUser } from './session-user';
 
 export const IS_PUBLIC = 'evenhand:public';

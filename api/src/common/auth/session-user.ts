@@ -1,4 +1,4 @@
-import type { UserRole } from '../../users/entities/user.entity';
+import type { UserRole } from './roles';
 
 /** The signed-in person as the guards attach it to the request. */
 export interface SessionUser {

@@ -1,10 +1,9 @@
 import { ArgumentsHost, Catch, ExceptionFilter, HttpException, HttpStatus, Logger } from '@nestjs/common';
 import { ThrottlerException } from '@nestjs/throttler';
 import type { Response } from 'express';
-import { ConsentError } from '../../consent/consent-error';
-import { RandomizationError } from '../../randomization/randomization-error';
 import { DomainException } from './domain.exception';
 import { ErrorCode, HTTP_STATUS_BY_CODE, Problem } from './error-codes';
+import { InvalidInputError } from './invalid-input.error';
 
 const CODE_BY_HTTP_STATUS: Partial<Record<number, ErrorCode>> = {
   400: 'BAD_REQUEST',
@@ -31,16 +30,8 @@ export function toProblem(exception: unknown): Problem {
     if (exception.errors) problem.errors = exception.errors;
     return problem;
   }
-  if (exception instanceof RandomizationError) {
-    return {
-      statusCode: 400,
-      code: 'VALIDATION_FAILED',
-      message: 'The assignment settings are not valid.',
-      errors: exception.fieldErrors,
-    };
-  }
-  if (exception instanceof ConsentError) {
-    return { statusCode: 400, code: 'VALIDATION_FAILED', message: 'The consent form cannot be prepared from these details.', errors: exception.fieldErrors };
+  if (exception instanceof InvalidInputError) {
+    return { statusCode: 400, code: 'VALIDATION_FAILED', message: exception.summary, errors: exception.fieldErrors };
   }
   if (exception instanceof ThrottlerException) {
     return {

@@ -1,8 +1,8 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform, Type } from 'class-transformer';
 import { ArrayMaxSize, IsArray, IsBoolean, IsIn, IsInt, IsObject, IsOptional, IsString, IsUUID, Length, Matches, Max, MaxLength, Min } from 'class-validator';
-import { ScreeningQuestionDto } from '../../studies/dto/screening.dto';
-import { STEP_VERIFICATIONS, type CompletionVerifiedBy, type StepVerification } from '../../steps/step-window';
+import { ScreeningQuestionDto } from '../../studies';
+import { STEP_VERIFICATIONS, type CompletionVerifiedBy, type StepVerification } from '../../steps';
 import { ENROLLMENT_STATUSES, EnrollmentStatus } from '../entities/enrollment.entity';
 import { MAX_PAGE } from '../../common/http/paging';
 

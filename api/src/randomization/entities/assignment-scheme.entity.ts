@@ -1,5 +1,5 @@
 import { Column, Entity, JoinColumn, OneToOne, PrimaryColumn, UpdateDateColumn } from 'typeorm';
-import { StudyEntity } from '../../studies/entities/study.entity';
+import type { StudyEntity } from '../../studies';
 
 /**
  * A study's assignment scheme. `settings` is what the researcher chose; `sealedParameters` is the full canonical
@@ -11,7 +11,8 @@ export class AssignmentSchemeEntity {
   @PrimaryColumn({ name: 'study_id', type: 'uuid' })
   studyId: string;
 
-  @OneToOne(() => StudyEntity, { onDelete: 'CASCADE' })
+  // Named, not imported: studies loads the randomization engine, so a value import here would be a load-time cycle.
+  @OneToOne('StudyEntity', { onDelete: 'CASCADE' })
   @JoinColumn({ name: 'study_id' })
   study?: StudyEntity;
 

@@ -1,5 +1,5 @@
 import { Column, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn } from 'typeorm';
-import { ConditionEntity } from '../../studies/entities/condition.entity';
+import { ConditionEntity } from '../../studies';
 import { bigintAsNumber } from '../../database/column-transformers';
 import { StepEntity } from './step.entity';
 

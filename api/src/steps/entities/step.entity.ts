@@ -1,5 +1,5 @@
 import { Column, CreateDateColumn, Entity, Index, JoinColumn, ManyToOne, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
-import { StudyEntity } from '../../studies/entities/study.entity';
+import { StudyEntity } from '../../studies';
 
 import { bigintAsNumber } from '../../database/column-transformers';
 import type { StepOpensFrom, StepVerification } from '../step-window';

@@ -18,7 +18,7 @@ import {
   MinLength,
   ValidateNested,
 } from 'class-validator';
-import { STAFF_ROLES, StaffRole } from '../../users/entities/user.entity';
+import { STAFF_ROLES, StaffRole } from '../../users';
 import { STUDY_DESIGNS, STUDY_STATUSES, StudyDesign, StudyStatus } from '../entities/study.entity';
 
 const trimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);

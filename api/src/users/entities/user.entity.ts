@@ -1,9 +1,8 @@
 import { Column, CreateDateColumn, Entity, Index, PrimaryGeneratedColumn, UpdateDateColumn } from 'typeorm';
+import type { UserRole } from '../../common/auth/roles';
 
-export const USER_ROLES = ['participant', 'coordinator', 'researcher', 'auditor', 'admin'] as const;
-export type UserRole = (typeof USER_ROLES)[number];
-export const STAFF_ROLES = ['coordinator', 'researcher', 'auditor', 'admin'] as const;
-export type StaffRole = (typeof STAFF_ROLES)[number];
+export { STAFF_ROLES, USER_ROLES } from '../../common/auth/roles';
+export type { StaffRole, UserRole } from '../../common/auth/roles';
 
 @Entity({ name: 'user_account' })
 @Index('user_account_email_key', ['email'], { unique: true })

@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useRef, useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Badge } from '@/components/ui/badge';
 import { Button } from '@/components/ui/button';
@@ -185,8 +185,11 @@ function PasswordCheck({ action, onCancel, onRenewed }: { action: 'renew' | 'off
     register,
     handleSubmit,
     setError,
+    setFocus,
     formState: { errors },
   } = useForm<PasswordCheckInput>({ resolver: zodResolver(passwordCheckSchema), defaultValues: { password: '' } });
+  // Opened by a button that asked for it: the password field is the next thing to fill.
+  useEffect(() => setFocus('password'), [setFocus]);
   const onError = (error: unknown) => applyServerErrors(plainErrors(error), ['password'], setError);
   const onSubmit = handleSubmit((input) =>
     action === 'renew' ? renew.mutate(input, { onSuccess: (result) => onRenewed(result.recoveryCodes), onError }) : turnOff.mutate(input, { onSuccess: onCancel, onError }),
@@ -197,7 +200,7 @@ function PasswordCheck({ action, onCancel, onRenewed }: { action: 'renew' | 'off
         {action === 'renew' ? 'New codes replace all your earlier ones.' : 'Your account will then open with the password alone.'} Enter your password to go on.
       </p>
       {errors.root?.server?.message && <Notice>{errors.root.server.message}</Notice>}
-      <TextField label="Your password" type="password" autoComplete="current-password" autoFocus error={errors.password?.message} {...register('password')} />
+      <TextField label="Your password" type="password" autoComplete="current-password" error={errors.password?.message} {...register('password')} />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" variant={action === 'renew' ? 'primary' : 'danger'} pending={mutation.isPending}>
           {action === 'renew' ? 'Make new codes' : 'Turn off'}

@@ -10,7 +10,8 @@ import { labChain, type ActionFamily, type AuditSelection } from '../utils/audit
 export interface AuditFiltersProps {
   selection: AuditSelection;
   options: AuditFilterOptions | undefined;
-  onChange: (next: AuditSelection) => void;
+  /** Gets how to change the selection, applied to the newest one (not to this render's). */
+  onChange: (change: (current: AuditSelection) => AuditSelection) => void;
 }
 
 /** Narrow the trail: study, participant, staff member, dates and kinds of action (several at once). */
@@ -22,9 +23,12 @@ export function AuditFilters({ selection, options, onChange }: AuditFiltersProps
     setSeen(selection.participant);
     setParticipant(selection.participant ?? '');
   }
-  const set = (patch: Partial<AuditSelection>) => onChange({ ...selection, ...patch });
+  const set = (patch: Partial<AuditSelection>) => onChange((current) => ({ ...current, ...patch }));
   const toggleFamily = (family: ActionFamily, on: boolean) =>
-    set({ families: on ? [...selection.families, family] : selection.families.filter((key) => key !== family) });
+    onChange((current) => {
+      const others = current.families.filter((key) => key !== family);
+      return { ...current, families: on ? [...others, family] : others };
+    });
 
   return (
     <div className="flex flex-col gap-4 rounded-lg border border-line bg-sunken/60 p-3 sm:p-4">

@@ -1,11 +1,11 @@
 import { useMemo } from 'react';
-import { useSearchParams } from 'react-router-dom';
 import { Button } from '@/components/ui/button';
 import { cx } from '@/components/ui/cx';
 import { Pager } from '@/components/ui/pager';
 import { Panel } from '@/components/ui/panel';
 import { buttonRecipe } from '@/components/ui/recipes';
 import { EmptyState, ErrorState, LoadingState } from '@/components/ui/states';
+import { useLatestSearchParams } from '@/hooks/use-latest-search-params';
 import { ApiError } from '@/lib/api-error';
 import { parsePageParam } from '@/lib/paging';
 import { useAuditEvents } from '../api/get-audit-events';
@@ -24,7 +24,7 @@ export interface AuditTrailProps {
 }
 
 export function AuditTrail({ canSeal }: AuditTrailProps) {
-  const [searchParams, setSearchParams] = useSearchParams();
+  const [searchParams, updateSearchParams] = useLatestSearchParams();
   const selection = useMemo(() => selectionFromParams(searchParams), [searchParams]);
   const page = parsePageParam(searchParams.get('page'));
   const events = useAuditEvents(selection, page, pageSize);
@@ -32,9 +32,11 @@ export function AuditTrail({ canSeal }: AuditTrailProps) {
   const studyTitles = useMemo(() => new Map((filters.data?.studies ?? []).map((study) => [study.id, study.title])), [filters.data]);
   const familyLabels = useMemo(() => new Map((filters.data?.families ?? []).map((family) => [family.key as string, family.label])), [filters.data]);
 
-  const select = (next: AuditSelection) =>
-    setSearchParams(
-      () => {
+  // Each change starts from the newest address, so quick clicks in a row all count.
+  const select = (change: (current: AuditSelection) => AuditSelection) =>
+    updateSearchParams(
+      (current) => {
+        const next = change(selectionFromParams(current));
         const params = new URLSearchParams();
         if (next.chain) params.set('chain', next.chain);
         if (next.participant) params.set('participant', next.participant);
@@ -47,8 +49,8 @@ export function AuditTrail({ canSeal }: AuditTrailProps) {
       { replace: true },
     );
   const goToPage = (next: number) =>
-    setSearchParams((params) => {
-      const copy = new URLSearchParams(params);
+    updateSearchParams((current) => {
+      const copy = new URLSearchParams(current);
       if (next > 1) copy.set('page', String(next));
       else copy.delete('page');
       return copy;
@@ -59,7 +61,7 @@ export function AuditTrail({ canSeal }: AuditTrailProps) {
     <div className="flex flex-col gap-5">
       <div className="grid gap-4 lg:grid-cols-2">
         <Panel id="integrity" title="Is the trail as it was written?">
-          <IntegrityCheck studyTitles={studyTitles} onShowChain={(chain) => select({ ...selection, chain })} />
+          <IntegrityCheck studyTitles={studyTitles} onShowChain={(chain) => select((current) => ({ ...current, chain }))} />
         </Panel>
         <Panel id="receipts" title="Audit receipts">
           <AuditReceipts canSeal={canSeal} />
@@ -72,7 +74,7 @@ export function AuditTrail({ canSeal }: AuditTrailProps) {
             What happened
           </h2>
           <div className="flex flex-wrap items-center gap-2">
-            {filtered && <Button onClick={() => setSearchParams({}, { replace: true })}>Clear filters</Button>}
+            {filtered && <Button onClick={() => updateSearchParams(() => new URLSearchParams(), { replace: true })}>Clear filters</Button>}
             <a href={exportHref('/api/audit/export.csv', selection)} download className={cx(buttonRecipe.base, buttonRecipe.sizes.regular, buttonRecipe.variants.primary)}>
               Export as CSV
             </a>

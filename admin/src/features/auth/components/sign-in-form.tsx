@@ -1,5 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useState } from 'react';
+import { useEffect, useState } from 'react';
 import { useForm } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/states';
@@ -80,6 +80,8 @@ function SecondFactorForm({ credentials, onSignedIn, onStartOver }: SignInFormPr
     formState: { errors },
   } = useForm<SecondFactorInput>({ resolver: zodResolver(secondFactorSchema), defaultValues: { kind: 'code', value: '' } });
   const kind = watch('kind');
+  // The second step (and each switch of kind) puts the caret in the one field it asks for.
+  useEffect(() => setFocus('value'), [kind, setFocus]);
 
   const onSubmit = handleSubmit(({ kind: chosen, value }) => {
     const factor = chosen === 'code' ? { code: value.replace(/\s+/g, '') } : { recoveryCode: value };
@@ -114,13 +116,12 @@ function SecondFactorForm({ credentials, onSignedIn, onStartOver }: SignInFormPr
           label="Code from your authenticator app"
           inputMode="numeric"
           autoComplete="one-time-code"
-          autoFocus
           maxLength={7}
           error={errors.value?.message}
           {...register('value')}
         />
       ) : (
-        <TextField key="recovery" label="Recovery code" autoComplete="off" spellCheck={false} autoFocus error={errors.value?.message} {...register('value')} />
+        <TextField key="recovery" label="Recovery code" autoComplete="off" spellCheck={false} error={errors.value?.message} {...register('value')} />
       )}
       <Button type="submit" variant="primary" pending={signIn.isPending} className="mt-1 w-full">
         {signIn.isPending ? 'Checking…' : 'Sign in'}

@@ -1,7 +1,7 @@
 import { useMutation } from '@tanstack/react-query';
 import { apiClient } from '@/lib/api-client';
 import { ApiError, toApiProblem } from '@/lib/api-error';
-import { saveBlob } from '@/features/roster/utils/save-blob';
+import { saveBlob } from '@/lib/save-blob';
 
 export interface FinancePeriod {
   from: string;

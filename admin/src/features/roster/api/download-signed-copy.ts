@@ -1,6 +1,6 @@
 import { useMutation } from '@tanstack/react-query';
 import { apiClient, unwrap } from '@/lib/api-client';
-import { saveBlob } from '../utils/save-blob';
+import { saveBlob } from '@/lib/save-blob';
 
 export interface SignedCopyRequest {
   enrollmentId: string;

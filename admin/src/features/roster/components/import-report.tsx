@@ -3,7 +3,7 @@ import { tableRecipe } from '@/components/ui/recipes';
 import { Notice } from '@/components/ui/states';
 import type { ImportResult } from '../api/import-roster';
 import { importReportCsv } from '../utils/import-report-csv';
-import { saveBlob } from '../utils/save-blob';
+import { saveBlob } from '@/lib/save-blob';
 
 /** Rows beyond this are in the downloadable report; a page of thousands of rows helps nobody. */
 export const shownReportRows = 200;

@@ -2,11 +2,11 @@ import { CanActivate, ExecutionContext, Injectable } from '@nestjs/common';
 import { Reflector } from '@nestjs/core';
 import { JwtService } from '@nestjs/jwt';
 import type { Request } from 'express';
-import { AuthService } from '../../auth/auth.service';
-import type { UserRole } from '../../users/entities/user.entity';
-import { DomainException } from '../errors/domain.exception';
-import { BEFORE_TWO_FACTOR_SETUP, IS_PUBLIC, OPTIONAL_SESSION, ROLES } from './auth.decorators';
-import { ACCESS_COOKIE, SessionUser } from './session-user';
+import { AuthService } from './auth.service';
+import type { UserRole } from '../common/auth/roles';
+import { DomainException } from '../common/errors/domain.exception';
+import { BEFORE_TWO_FACTOR_SETUP, IS_PUBLIC, OPTIONAL_SESSION, ROLES } from '../common/auth/auth.decorators';
+import { ACCESS_COOKIE, SessionUser } from '../common/auth/session-user';
 
 /**
  * The global guard: every route needs a valid session unless marked @Public(), and @Roles() narrows it.

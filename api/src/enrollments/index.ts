@@ -1,0 +1,4 @@
+// The enrollments domain's public face: other domains import from this file only, never from the files behind it
+// (checked by `npm run lint`, .dependency-cruiser.cjs).
+export * from './enrollments.module';
+export * from './enrollments.service';

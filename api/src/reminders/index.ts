@@ -1,0 +1,4 @@
+// The reminders domain's public face: other domains import from this file only, never from the files behind it
+// (checked by `npm run lint`, .dependency-cruiser.cjs).
+export * from './contacts.service';
+export * from './reminders.module';
