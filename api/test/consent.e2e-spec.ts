@@ -315,6 +315,15 @@ describe('signing', () => {
     expect(result).toMatchObject({ eligible: false, reasons: ['18 or older'], enrollment: { status: 'excluded', next: 'excluded' } });
   });
 
+  it('refuses to join a study that is not recruiting with its own code', async () => {
+    const { studyId } = await draftBetweenStudy(coordinator);
+    const { browser } = await signedInParticipant(testApp);
+    const refused = await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 409, 'STUDY_NOT_RECRUITING');
+    expect(refused.message).toBe('This study is not taking new participants right now.');
+    const [{ n }] = await testApp.dataSource.query(`SELECT count(*) AS n FROM enrollment WHERE study_id = $1`, [studyId]);
+    expect(Number(n)).toBe(0);
+  });
+
   it('refuses a stale version and a wrong fingerprint with 409 and the current version', async () => {
     const { studyId, version } = await recruitingStudy();
     const { browser } = await signedInParticipant(testApp);
@@ -322,13 +331,14 @@ describe('signing', () => {
     const wrong = await expectStatus(
       browser.post(`/api/studies/${studyId}/enrollments/me/signature`).send({ versionId: version.id, fingerprint: 'a'.repeat(64), typedName: 'Sam Example' }),
       409,
-      'CONFLICT',
+      'CONSENT_VERSION_STALE',
     );
     expect(wrong.currentVersion).toEqual({ versionId: version.id, version: version.version, fingerprint: version.fingerprint });
     const newer = await activeConsentVersion(coordinator, studyId, 'HLREB-2026-031-A1');
     const stale = await expectStatus(
       browser.post(`/api/studies/${studyId}/enrollments/me/signature`).send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Sam Example' }),
       409,
+      'CONSENT_VERSION_STALE',
     );
     expect(stale.currentVersion.versionId).toBe(newer.id);
     const [{ n }] = await testApp.dataSource.query(`SELECT count(*) AS n FROM signature s JOIN enrollment e ON e.id = s.enrollment_id WHERE e.study_id = $1`, [studyId]);

@@ -72,6 +72,8 @@ describe('payouts through a provider outage', () => {
     }
     for (const id of ids) await expectStatus(coordinator.post(`/api/payouts/${id}/retry`), 200);
     await eventually(async () => (await payoutStatuses(testApp, studyId)).every((r) => r.status === 'paid'), 'every payout paid after the retry', 120_000);
+    // A paid payout cannot be sent again: its own code, so a screen can say so without reading the sentence.
+    await expectStatus(coordinator.post(`/api/payouts/${ids[0]}/retry`), 409, 'PAYOUT_NOT_RETRYABLE');
     const transfers = await provider.transfers.list({ transfer_group: `study_${studyId}`, limit: 100 });
     expect(transfers.data).toHaveLength(10);
     expect(new Set(transfers.data.map((t) => t.metadata?.payoutId))).toEqual(new Set(ids));

@@ -104,7 +104,7 @@ describe('completing steps', () => {
     const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
     await expectStatus(coordinator.post(`/api/studies/${studyId}/enrollments/${me.id}/steps/${steps[0].id}/complete`), 200);
     await activeConsentVersion(coordinator, studyId, 'HLREB-2026-031-A2');
-    const blocked = await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[1].id}/complete`).send({ code: 'TWO-2222' }), 409, 'CONFLICT');
+    const blocked = await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[1].id}/complete`).send({ code: 'TWO-2222' }), 409, 'CONSENT_VERSION_STALE');
     expect(blocked.currentVersion.versionId).toBeDefined();
   });
 });

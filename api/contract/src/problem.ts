@@ -15,6 +15,12 @@ export const HTTP_STATUS_BY_CODE = {
   NOT_FOUND: 404,
   EMAIL_TAKEN: 409,
   CONFLICT: 409,
+  /** The consent form changed since it was opened (or since the person last signed); `currentVersion` names the one to read and sign. */
+  CONSENT_VERSION_STALE: 409,
+  /** The study is not recruiting (draft, paused or closed): no one may join, sign a first consent or be invited. */
+  STUDY_NOT_RECRUITING: 409,
+  /** Only a failed payout can be sent again; this one is owed, approved, on its way or paid. */
+  PAYOUT_NOT_RETRYABLE: 409,
   /** A study detail that may no longer change (after the first assignment); `errors[]` names each field and why. */
   STUDY_DETAIL_FIXED: 409,
   PAYLOAD_TOO_LARGE: 413,

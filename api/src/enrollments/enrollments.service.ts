@@ -92,7 +92,7 @@ export class EnrollmentsService implements OnModuleInit {
       const study = await this.studies.require(studyId, manager);
       const existing = await manager.findOne(EnrollmentEntity, { where: { studyId, participantId: user.id } });
       if (existing) return false;
-      if (study.status !== 'recruiting') throw new DomainException('CONFLICT', 'This study is not taking new participants right now.');
+      if (study.status !== 'recruiting') throw new DomainException('STUDY_NOT_RECRUITING', 'This study is not taking new participants right now.');
       const enrollment = await this.insertEnrollment(manager, studyId, user.id, { invitedAt: new Date() });
       await this.audit.record(manager, { chain: studyId, actor: user, action: 'enrollment.joined', subjectType: 'enrollment', subjectId: enrollment.id, data: { reference: enrollment.reference } });
       return true;
@@ -243,7 +243,7 @@ export class EnrollmentsService implements OnModuleInit {
       if (!terms) throw new DomainException('CONFLICT', 'There is no active consent form to sign.');
       const active = terms.version;
       if (input.versionId !== active.id || input.fingerprint !== active.fingerprint) {
-        throw new DomainException('CONFLICT', 'The consent form has changed since you opened it. Please read the current version.', undefined, {
+        throw new DomainException('CONSENT_VERSION_STALE', 'The consent form has changed since you opened it. Please read the current version.', undefined, {
           currentVersion: { versionId: active.id, version: active.version, fingerprint: active.fingerprint },
         });
       }
@@ -258,7 +258,7 @@ export class EnrollmentsService implements OnModuleInit {
       }
       if (firstConsent) {
         const study = await this.studies.require(studyId, manager);
-        if (study.status !== 'recruiting') throw new DomainException('CONFLICT', 'This study is not taking new participants right now.');
+        if (study.status !== 'recruiting') throw new DomainException('STUDY_NOT_RECRUITING', 'This study is not taking new participants right now.');
       }
 
       const now = new Date();
@@ -550,7 +550,7 @@ export class EnrollmentsService implements OnModuleInit {
   async invite(actor: AuditActor, studyId: string, enrollmentIds: string[] | undefined): Promise<number> {
     return this.dataSource.transaction(async (manager) => {
       const study = await this.studies.require(studyId, manager);
-      if (study.status !== 'recruiting') throw new DomainException('CONFLICT', 'Invitations go out once the study is recruiting.');
+      if (study.status !== 'recruiting') throw new DomainException('STUDY_NOT_RECRUITING', 'Invitations go out once the study is recruiting.');
       const steps = await this.steps.list(studyId, manager);
       const builder = manager
         .createQueryBuilder(EnrollmentEntity, 'e')

@@ -34,7 +34,8 @@ class StepRefusal extends DomainException {
     field = 'stepId',
     details?: Record<string, unknown>,
   ) {
-    super('CONFLICT', message, [{ field, message }], details);
+    // A changed consent form has its own code, so the portal can send the person to sign it without reading the text.
+    super(refusal === 'consent' ? 'CONSENT_VERSION_STALE' : 'CONFLICT', message, [{ field, message }], details);
   }
 }
 

@@ -266,7 +266,7 @@ export class PayoutsService implements OnModuleInit {
       if (!payout || (actor.role !== 'admin' && !(await this.studies.isMember(actor.id, payout.studyId)))) {
         throw new DomainException('NOT_FOUND', 'No such payout.');
       }
-      if (payout.status !== 'failed') throw new DomainException('CONFLICT', `Only failed payouts can be retried; this one is ${payout.status}.`);
+      if (payout.status !== 'failed') throw new DomainException('PAYOUT_NOT_RETRYABLE', `Only failed payouts can be retried; this one is ${payout.status}.`);
       const { remainingMinor } = await this.balance(manager, payout.studyId);
       if (payout.amountMinor > remainingMinor) throw new DomainException('CONFLICT', "The study's funded balance does not cover this payout. Fund the study first.");
       await manager.update(PayoutEntity, { id: payoutId }, { status: 'approved', approvedBy: actor.id, approvedAt: new Date() });

@@ -89,7 +89,7 @@ describe('public study page', () => {
       'GET /api/auth/me': { status: 200, body: participant },
       [studyPage]: { status: 200, body: publicStudy },
       [`GET /api/studies/${studyId}/enrollments/me`]: problem(404, 'NOT_FOUND', 'Not joined'),
-      [`POST /api/studies/${studyId}/enrollments/me`]: problem(409, 'CONFLICT', 'Study is not recruiting'),
+      [`POST /api/studies/${studyId}/enrollments/me`]: problem(409, 'STUDY_NOT_RECRUITING', 'Study is not recruiting'),
     });
     renderApp('/s/wayfinding-cues');
 

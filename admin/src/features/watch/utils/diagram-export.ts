@@ -1,6 +1,8 @@
 // Turns the on-screen flow diagram into standalone SVG and PNG files. The drawing uses the theme's CSS variables,
 // which mean nothing outside the page, so each one is replaced by its computed value first.
 
+import { saveBlob } from '@/lib/save-blob';
+
 const VARIABLE = /var\((--[\w-]+)\)/g;
 
 /** The diagram as a standalone SVG document, colours resolved, on a white background. */
@@ -23,19 +25,8 @@ export function standaloneSvg(svg: SVGSVGElement, styles: Pick<CSSStyleDeclarati
   return new XMLSerializer().serializeToString(copy);
 }
 
-function download(blob: Blob, fileName: string): void {
-  const url = URL.createObjectURL(blob);
-  const link = document.createElement('a');
-  link.href = url;
-  link.download = fileName;
-  document.body.append(link);
-  link.click();
-  link.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 1000);
-}
-
 export function downloadSvg(svg: SVGSVGElement, fileName: string): void {
-  download(new Blob([standaloneSvg(svg)], { type: 'image/svg+xml' }), fileName);
+  saveBlob(new Blob([standaloneSvg(svg)], { type: 'image/svg+xml' }), fileName);
 }
 
 /** Draws the standalone SVG on a canvas at twice its size and saves it as PNG. */
@@ -54,5 +45,5 @@ export async function downloadPng(svg: SVGSVGElement, fileName: string): Promise
   context.drawImage(image, 0, 0, width ?? 800, height ?? 600);
   const blob = await new Promise<Blob | null>((resolve) => canvas.toBlob(resolve, 'image/png'));
   if (!blob) throw new Error('The image could not be made.');
-  download(blob, fileName);
+  saveBlob(blob, fileName);
 }

@@ -60,7 +60,7 @@ export type CurrentConsentVersion = { versionId: string; version: number; finger
 
 /** When a signature was refused because the form changed, the version that is current now. */
 export function currentVersionAfterConflict(error: unknown): CurrentConsentVersion | null {
-  if (!isApiError(error, 'CONFLICT')) return null;
+  if (!isApiError(error, 'CONSENT_VERSION_STALE')) return null;
   const current = error.problem.currentVersion as Partial<CurrentConsentVersion> | undefined;
   if (!current || typeof current.versionId !== 'string' || typeof current.version !== 'number') return null;
   return { versionId: current.versionId, version: current.version, fingerprint: String(current.fingerprint ?? '') };

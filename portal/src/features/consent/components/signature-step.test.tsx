@@ -136,7 +136,7 @@ describe('signing the consent form', () => {
         status: 409,
         body: {
           statusCode: 409,
-          code: 'CONFLICT',
+          code: 'CONSENT_VERSION_STALE',
           message: 'This consent version is no longer active',
           currentVersion: { versionId: newVersionId, version: 3, fingerprint: newFingerprint },
         },

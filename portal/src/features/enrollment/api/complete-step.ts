@@ -41,7 +41,7 @@ export async function completeStep({
 
 /** A 409 that names the consent version now current: the person must sign it before any further step. */
 export function needsReconsent(error: unknown): boolean {
-  return isApiError(error, 'CONFLICT') && typeof error.problem.currentVersion === 'object' && error.problem.currentVersion !== null;
+  return isApiError(error, 'CONSENT_VERSION_STALE');
 }
 
 export function useCompleteStep() {

@@ -11,7 +11,7 @@ export function JoinStudyButton({ studyId }: { studyId: string }) {
     <div className="flex flex-col gap-3" aria-live="polite">
       {join.isError ? (
         <Notice tone="error" title="We could not add you to the study">
-          {isApiError(join.error, 'CONFLICT')
+          {isApiError(join.error, 'STUDY_NOT_RECRUITING')
             ? 'This study is not taking new people just now. Please come back to this page later.'
             : describeProblem(join.error)}
         </Notice>

@@ -149,7 +149,7 @@ describe('finishing a step with its completion code', () => {
               }),
       }),
       [`GET ${enrollmentPath}/consent`]: { status: 200, body: consentToSign({ versionId: newVersionId, version: 3 }) },
-      [`POST ${completePath}`]: problemReply(409, 'CONFLICT', 'The consent form has changed.', {
+      [`POST ${completePath}`]: problemReply(409, 'CONSENT_VERSION_STALE', 'The consent form has changed.', {
         currentVersion: { versionId: newVersionId, version: 3, fingerprint: 'f'.repeat(64) },
       }),
     });

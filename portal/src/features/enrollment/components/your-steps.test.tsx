@@ -210,7 +210,7 @@ describe('the steps list', () => {
         status: 409,
         body: {
           statusCode: 409,
-          code: 'CONFLICT',
+          code: 'CONSENT_VERSION_STALE',
           message: 'The consent form has changed: please read and sign the new version before your next step.',
           currentVersion: { versionId: '9a8b7c6d-5e4f-4a3b-8c2d-1e0f9a8b7c6d', version: 3, fingerprint: 'f'.repeat(64) },
         },
