@@ -10,7 +10,7 @@ module.exports = {
   forbidden: [
     {
       name: 'api-domain-deep-import',
-      comment: 'A domain reaches another domain only through that domain\'s index.ts.',
+      comment: "A domain reaches another domain only through that domain's index.ts.",
       severity: 'error',
       // Unit tests may set up with another domain's test fixtures.
       from: { path: `^api/src/(?!(?:${PLUMBING})/)([^/]+)/`, pathNot: '\\.spec\\.ts$' },
@@ -28,7 +28,8 @@ module.exports = {
     },
     {
       name: 'app-feature-imports-another-feature',
-      comment: 'A feature never imports another feature; routes in src/app compose them, shared code lives in src/lib or src/components.',
+      comment:
+        'A feature never imports another feature; routes in src/app compose them, shared code lives in src/lib or src/components.',
       severity: 'error',
       from: { path: '^((?:admin/|portal/)?)src/features/([^/]+)/' },
       to: { path: '^$1src/features/', pathNot: '^$1src/features/$2/' },

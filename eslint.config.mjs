@@ -81,7 +81,10 @@ export default tseslint.config(
     rules: {
       ...jsxA11y.flatConfigs.recommended.rules,
       // Headless UI's Input, Select and Textarea render the native control inside the wrapping label.
-      'jsx-a11y/label-has-associated-control': ['error', { controlComponents: ['Input', 'Select', 'Textarea'], depth: 3 }],
+      'jsx-a11y/label-has-associated-control': [
+        'error',
+        { controlComponents: ['Input', 'Select', 'Textarea'], depth: 3 },
+      ],
       // A scrollable region takes focus so it can be scrolled by keyboard (axe: scrollable-region-focusable).
       'jsx-a11y/no-noninteractive-tabindex': ['error', { roles: ['region'], tags: [] }],
     },

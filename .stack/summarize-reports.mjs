@@ -8,7 +8,9 @@ let passed = 0;
 let failed = 0;
 let skipped = 0;
 const failures = [];
-for (const file of readdirSync(folder).filter((name) => name.endsWith('.json')).sort()) {
+for (const file of readdirSync(folder)
+  .filter((name) => name.endsWith('.json'))
+  .sort()) {
   const report = JSON.parse(readFileSync(join(folder, file), 'utf8'));
   const group = file.replace(/\.json$/, '');
   // A file that failed to load has no tests but still counts as one failure.
@@ -16,7 +18,9 @@ for (const file of readdirSync(folder).filter((name) => name.endsWith('.json')).
   passed += report.numPassedTests;
   failed += report.numFailedTests + brokenFiles.length;
   skipped += report.numPendingTests + (report.numTodoTests ?? 0);
-  console.log(`  ${group.padEnd(14)} ${report.numPassedTests} passed, ${report.numFailedTests + brokenFiles.length} failed`);
+  console.log(
+    `  ${group.padEnd(14)} ${report.numPassedTests} passed, ${report.numFailedTests + brokenFiles.length} failed`,
+  );
   for (const result of report.testResults) {
     const where = relative(process.cwd(), result.name);
     if (result.assertionResults.length === 0 && result.status === 'failed') {
@@ -31,5 +35,11 @@ console.log(`${passed} passed, ${failed} failed, ${skipped} skipped`);
 for (const failure of failures) console.log(`  FAILED ${failure}`);
 
 function firstLine(text) {
-  return (text ?? '').split('\n').find((line) => line.trim() !== '')?.trim().slice(0, 300) ?? '(no message)';
+  return (
+    (text ?? '')
+      .split('\n')
+      .find((line) => line.trim() !== '')
+      ?.trim()
+      .slice(0, 300) ?? '(no message)'
+  );
 }

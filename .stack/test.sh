@@ -60,7 +60,7 @@ vitest_in() {
 
 ensure_dependencies
 # Lint first: ESLint on every workspace and the import boundaries (.dependency-cruiser.cjs); no services needed.
-step "lint" bash -c "cd '$ROOT' && npm run lint --silent"
+step "lint" bash -c "cd '$ROOT' && npm run lint --silent && npm run format:check --silent"
 ensure_postgres_binaries
 ensure_chromium
 ensure_pdfsig

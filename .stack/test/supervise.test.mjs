@@ -22,10 +22,17 @@ test('a crashed service is restarted, its sibling keeps running, and SIGTERM sto
   // "flaky" fails on its first start and stays up on the second; "steady" counts how often it was started.
   const flaky = `node -e "const fs=require('fs');const f='${crashes}';if(!fs.existsSync(f)){fs.writeFileSync(f,'1');process.exit(3)}fs.writeFileSync('${dir}/flaky-up','');setInterval(()=>{},1000)"`;
   const steady = `node -e "const fs=require('fs');fs.appendFileSync('${dir}/steady-starts','x');setInterval(()=>{},1000)"`;
-  const child = spawn('bash', ['-c', `source '${lib}'; run_supervised flaky,steady red,green "${flaky.replace(/"/g, '\\"')}" "${steady.replace(/"/g, '\\"')}"`], {
-    stdio: ['ignore', 'pipe', 'pipe'],
-    env: { ...process.env, TMPDIR: dir },
-  });
+  const child = spawn(
+    'bash',
+    [
+      '-c',
+      `source '${lib}'; run_supervised flaky,steady red,green "${flaky.replace(/"/g, '\\"')}" "${steady.replace(/"/g, '\\"')}"`,
+    ],
+    {
+      stdio: ['ignore', 'pipe', 'pipe'],
+      env: { ...process.env, TMPDIR: dir },
+    },
+  );
   let output = '';
   child.stdout.on('data', (chunk) => (output += chunk));
   child.stderr.on('data', (chunk) => (output += chunk));
@@ -33,7 +40,11 @@ test('a crashed service is restarted, its sibling keeps running, and SIGTERM sto
   try {
     await until(() => existsSync(join(dir, 'flaky-up')), 'the crashed service to come back');
     assert.match(output, /restarted/);
-    assert.equal(readFileSync(join(dir, 'steady-starts'), 'utf8'), 'x', 'the sibling was started once and never stopped');
+    assert.equal(
+      readFileSync(join(dir, 'steady-starts'), 'utf8'),
+      'x',
+      'the sibling was started once and never stopped',
+    );
     child.kill('SIGTERM');
     assert.equal(await exited, 0);
     assert.equal(readFileSync(join(dir, 'steady-starts'), 'utf8'), 'x', 'nothing restarted on the way out');

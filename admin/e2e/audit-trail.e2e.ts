@@ -2,7 +2,14 @@ import { readFileSync } from 'node:fs';
 import type { Download, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seriousAccessibilityProblems } from './support/accessibility';
-import { adminUrl, openBrowser, screenshot, screenshotAtBothWidths, signIn, type BrowserSession } from './support/browser';
+import {
+  adminUrl,
+  openBrowser,
+  screenshot,
+  screenshotAtBothWidths,
+  signIn,
+  type BrowserSession,
+} from './support/browser';
 
 const journey = 'audit-trail';
 
@@ -86,13 +93,21 @@ describe('the auditor reads the audit trail', () => {
     await page.getByRole('button', { name: 'Seal a receipt now' }).click();
     const sealed = await page.getByText(/^Receipt no\. \d+ sealed/).textContent();
     const number = /no\. (\d+)/.exec(sealed ?? '')![1];
-    const receipt = await downloaded(page, () => page.getByRole('link', { name: `Download receipt no. ${number}` }).click());
+    const receipt = await downloaded(page, () =>
+      page.getByRole('link', { name: `Download receipt no. ${number}` }).click(),
+    );
     expect(receipt.name).toBe(`audit-receipt-${number}.json`);
-    expect(JSON.parse(receipt.text)).toMatchObject({ format: 'evenhand-audit-receipt/1', number: Number(number), mac: expect.stringMatching(/^[0-9a-f]{64}$/) });
+    expect(JSON.parse(receipt.text)).toMatchObject({
+      format: 'evenhand-audit-receipt/1',
+      number: Number(number),
+      mac: expect.stringMatching(/^[0-9a-f]{64}$/),
+    });
 
     await page.getByRole('button', { name: 'Check the trail' }).click();
     await page.getByText('Intact.').waitFor({ timeout: 60_000 });
-    expect(await page.getByText(`Checked against audit receipt no. ${number}`, { exact: false }).count()).toBeGreaterThan(0);
+    expect(
+      await page.getByText(`Checked against audit receipt no. ${number}`, { exact: false }).count(),
+    ).toBeGreaterThan(0);
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await screenshotAtBothWidths(page, journey, 'verified');
   });

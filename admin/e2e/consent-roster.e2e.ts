@@ -115,7 +115,9 @@ describe('consent versions, roster and audit trail', () => {
     await page.getByRole('button', { name: 'Save approval details' }).click();
     await page.getByText('Approval details saved.').waitFor();
     const pngRenamed = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 13]);
-    await page.getByLabel('Approval letter (PDF, up to 10 MB)').setInputFiles({ name: 'approval.pdf', mimeType: 'application/pdf', buffer: pngRenamed });
+    await page
+      .getByLabel('Approval letter (PDF, up to 10 MB)')
+      .setInputFiles({ name: 'approval.pdf', mimeType: 'application/pdf', buffer: pngRenamed });
     await page.getByText(/This file is not a PDF/).waitFor();
     const letterName = `approval-${stamp}.pdf`;
     // A minimal one-page PDF: the api loads the letter as a PDF.
@@ -124,7 +126,9 @@ describe('consent versions, roster and audit trail', () => {
         '3 0 obj<</Type/Page/Parent 2 0 R/MediaBox[0 0 612 792]>>endobj\ntrailer<</Root 1 0 R>>\n%%EOF\n',
       'latin1',
     );
-    await page.getByLabel('Approval letter (PDF, up to 10 MB)').setInputFiles({ name: letterName, mimeType: 'application/pdf', buffer: pdf });
+    await page
+      .getByLabel('Approval letter (PDF, up to 10 MB)')
+      .setInputFiles({ name: letterName, mimeType: 'application/pdf', buffer: pdf });
     await page.getByText(`${letterName} was uploaded.`).waitFor();
     expect(await page.getByText(letterName, { exact: false }).first().isVisible()).toBe(true);
     await page.getByRole('button', { name: /^Activate version \d+…$/ }).click();
@@ -163,7 +167,9 @@ describe('consent versions, roster and audit trail', () => {
       'not-an-address,Journey Invitee B,63',
       `journey-${stamp}-c@evenhand.test,Journey Invitee C,77`,
     ].join('\n');
-    await page.getByLabel('CSV file (up to 5 MB)').setInputFiles({ name: `invitees-${stamp}.csv`, mimeType: 'text/csv', buffer: Buffer.from(csv) });
+    await page
+      .getByLabel('CSV file (up to 5 MB)')
+      .setInputFiles({ name: `invitees-${stamp}.csv`, mimeType: 'text/csv', buffer: Buffer.from(csv) });
     await page.getByRole('button', { name: 'Import', exact: true }).click();
     const report = page.getByRole('table', { name: 'Problems found, row by row' });
     await report.waitFor();
@@ -178,13 +184,19 @@ describe('consent versions, roster and audit trail', () => {
     await page.getByText('Import invitees from a CSV file').waitFor({ state: 'detached' });
 
     // A participant's record with a signature: fingerprints, meaning and the audit timeline.
-    await roster.getByRole('link', { name: /^Open the record of / }).first().click();
+    await roster
+      .getByRole('link', { name: /^Open the record of / })
+      .first()
+      .click();
     await page.waitForURL((url) => url.pathname.startsWith(`${studyPath}/roster/`));
     const signature = page.getByRole('article', { name: /Signature on version \d+/ }).first();
     await signature.waitFor();
     expect(await signature.textContent()).toContain('I have read this form and agree to take part');
     expect(await signature.textContent()).toMatch(sha256Hex);
-    await page.getByRole('button', { name: /Download the signed PDF of version \d+/ }).first().waitFor();
+    await page
+      .getByRole('button', { name: /Download the signed PDF of version \d+/ })
+      .first()
+      .waitFor();
     const timeline = page.getByRole('region', { name: 'Timeline' });
     expect(await timeline.textContent()).toMatch(/Participant P-[A-Z0-9]+ signed consent version \d+\./);
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
@@ -200,13 +212,19 @@ describe('consent versions, roster and audit trail', () => {
     await nav.getByRole('link', { name: 'Audit trail' }).click();
     await page.getByRole('heading', { name: 'Audit trail', level: 1 }).waitFor();
     await page.getByRole('heading', { name: 'What happened' }).waitFor();
-    await page.getByRole('button', { name: /^Details of “/ }).first().click();
+    await page
+      .getByRole('button', { name: /^Details of “/ })
+      .first()
+      .click();
     await page.getByText('Previous hash').first().waitFor();
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await screenshot(page, journey, 'audit-event-expanded');
     await page.getByRole('checkbox', { name: 'Consent' }).click();
     await page.waitForURL((url) => url.searchParams.getAll('family').includes('consent'));
-    await page.getByText(/^Coordinator C\. Vasquez-Hale started consent version \d+ from a template\.$/).first().waitFor();
+    await page
+      .getByText(/^Coordinator C\. Vasquez-Hale started consent version \d+ from a template\.$/)
+      .first()
+      .waitFor();
     await page.getByRole('button', { name: 'Check the trail' }).click();
     const chains = page.getByRole('list', { name: 'Chains checked' });
     await chains.waitFor({ timeout: 60_000 });

@@ -18,8 +18,14 @@ function focusStop(page: Page): Promise<FocusStop | null> {
     const style = getComputedStyle(element);
     const outline = style.outlineStyle !== 'none' && parseFloat(style.outlineWidth) > 0;
     const shadow = style.boxShadow !== 'none' && style.boxShadow !== '';
-    const name = (element.getAttribute('aria-label') ?? element.textContent ?? element.getAttribute('name') ?? '').trim().replace(/\s+/g, ' ').slice(0, 40);
-    return { element: `${element.tagName.toLowerCase()}${element.id ? `#${element.id}` : ''} “${name}”`, visible: outline || shadow };
+    const name = (element.getAttribute('aria-label') ?? element.textContent ?? element.getAttribute('name') ?? '')
+      .trim()
+      .replace(/\s+/g, ' ')
+      .slice(0, 40);
+    return {
+      element: `${element.tagName.toLowerCase()}${element.id ? `#${element.id}` : ''} “${name}”`,
+      visible: outline || shadow,
+    };
   });
 }
 
@@ -64,8 +70,14 @@ describe('every interactive element of the staff app shows where keyboard focus 
     await page.getByRole('heading', { name: 'Staff', level: 1 }).waitFor();
 
     await page.goto(`${adminUrl}/studies`);
-    await page.getByRole('link', { name: /Wayfinding cues/ }).first().waitFor();
-    await page.getByRole('link', { name: /Wayfinding cues/ }).first().click();
+    await page
+      .getByRole('link', { name: /Wayfinding cues/ })
+      .first()
+      .waitFor();
+    await page
+      .getByRole('link', { name: /Wayfinding cues/ })
+      .first()
+      .click();
     await page.waitForURL(/\/studies\/[0-9a-f-]{36}/);
     const studyPath = /\/studies\/[0-9a-f-]{36}/.exec(page.url())![0];
 

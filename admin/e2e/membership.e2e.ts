@@ -57,7 +57,9 @@ describe('an admin gives a new staff member a study', () => {
     const addDialog = page.getByRole('dialog');
     // A coordinator can only join as a coordinator: the role is chosen and nothing else is offered.
     await addDialog.getByRole('button', { name: /^Role in the study/ }).click();
-    await expect.poll(() => page.getByRole('option').allTextContents()).toEqual([expect.stringMatching(/^Coordinator/)]);
+    await expect
+      .poll(() => page.getByRole('option').allTextContents())
+      .toEqual([expect.stringMatching(/^Coordinator/)]);
     await page.keyboard.press('Escape');
     await addDialog.getByRole('button', { name: 'Add to study' }).click();
     await addDialog.getByText('Choose a study.').waitFor();

@@ -7,7 +7,11 @@ const mailboxUrl = (process.env.MAILBOX_URL ?? 'http://127.0.0.1:1080').replace(
 
 /** The newest reset link the local mailbox holds for this address. */
 async function resetLinkFor(email: string): Promise<string | undefined> {
-  const messages = (await (await fetch(`${mailboxUrl}/api/email`)).json()) as Array<{ subject: string; text: string; to: Array<{ address: string }> }>;
+  const messages = (await (await fetch(`${mailboxUrl}/api/email`)).json()) as Array<{
+    subject: string;
+    text: string;
+    to: Array<{ address: string }>;
+  }>;
   const mine = messages.filter((m) => m.to.some((to) => to.address === email) && /password/i.test(m.subject));
   return /(https?:\/\/\S+\/reset-password\?token=[A-Za-z0-9_-]+)/.exec(mine.at(-1)?.text ?? '')?.[1];
 }

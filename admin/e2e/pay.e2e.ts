@@ -2,12 +2,22 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Page } from 'playwright-core';
 import { seriousAccessibilityProblems } from './support/accessibility';
 import { readFileSync } from 'node:fs';
-import { adminUrl, openBrowser, screenshot, screenshotAtBothWidths, signIn, type BrowserSession } from './support/browser';
+import {
+  adminUrl,
+  openBrowser,
+  screenshot,
+  screenshotAtBothWidths,
+  signIn,
+  type BrowserSession,
+} from './support/browser';
 
 const journey = 'pay';
 
 /** A group of the payout queue, by its title. */
-const group = (page: Page, title: string) => page.getByRole('list', { name: 'Payouts by what happens next' }).getByRole('button', { name: new RegExp(`^${title}`) });
+const group = (page: Page, title: string) =>
+  page
+    .getByRole('list', { name: 'Payouts by what happens next' })
+    .getByRole('button', { name: new RegExp(`^${title}`) });
 
 /** What a group's heading says: "3 payouts · 2 participants · $30.00", or none. */
 async function groupTotals(page: Page, title: string): Promise<{ payouts: number; amount: number }> {
@@ -46,7 +56,14 @@ describe('paying participants', () => {
     // One source for every total: the cards are the sums of the queue's groups.
     const card = async (key: string) => cents(dollars(await page.getByTestId(`budget-${key}`).textContent()));
     await expect
-      .poll(async () => (await card('owedMinor')) === cents((await groupTotals(page, 'Waiting for approval')).amount + (await groupTotals(page, 'Waiting for the participant’s set-up')).amount))
+      .poll(
+        async () =>
+          (await card('owedMinor')) ===
+          cents(
+            (await groupTotals(page, 'Waiting for approval')).amount +
+              (await groupTotals(page, 'Waiting for the participant’s set-up')).amount,
+          ),
+      )
       .toBe(true);
     expect(await card('needsAttentionMinor')).toBe(cents((await groupTotals(page, 'Needs attention')).amount));
     expect(await card('paidMinor')).toBe(cents((await groupTotals(page, 'Paid')).amount));
@@ -65,8 +82,10 @@ describe('paying participants', () => {
     await page.getByLabel('Postal code').pressSequentially('12345');
     await screenshot(page, journey, 'card-entered');
     await page.getByRole('button', { name: 'Pay $1,000.00' }).click();
-    await page.getByText('$1,000.00 was added to the study\'s balance.').waitFor({ timeout: 30_000 });
-    await expect.poll(async () => dollars(await page.getByTestId('budget-fundedMinor').textContent()), { timeout: 15_000 }).toBeGreaterThanOrEqual(fundedBefore + 1000);
+    await page.getByText("$1,000.00 was added to the study's balance.").waitFor({ timeout: 30_000 });
+    await expect
+      .poll(async () => dollars(await page.getByTestId('budget-fundedMinor').textContent()), { timeout: 15_000 })
+      .toBeGreaterThanOrEqual(fundedBefore + 1000);
     await screenshot(page, journey, 'budget-funded');
 
     // Approve everything waiting (a second run of this journey finds nothing waiting and sends a failed payout again instead).
@@ -78,13 +97,17 @@ describe('paying participants', () => {
       const dialog = page.getByRole('alertdialog');
       await dialog.getByRole('heading', { name: /^Send \$[\d,.]+ now\?$/ }).waitFor();
       expect(await dialog.textContent()).toContain(`${waiting.payouts} payout${waiting.payouts === 1 ? '' : 's'} to`);
-      if (settingUp.payouts > 0) expect(await dialog.textContent()).toContain(`Not included: ${settingUp.payouts} payout`);
+      if (settingUp.payouts > 0)
+        expect(await dialog.textContent()).toContain(`Not included: ${settingUp.payouts} payout`);
       await screenshotAtBothWidths(page, journey, 'confirm-approve-all');
       await dialog.getByRole('button', { name: /^Send \$/ }).click();
       batchSize = waiting.payouts;
     } else {
       await group(page, 'Needs attention').click();
-      await page.getByRole('button', { name: /^Retry / }).first().click();
+      await page
+        .getByRole('button', { name: /^Retry / })
+        .first()
+        .click();
       await page.getByRole('alertdialog').getByRole('button', { name: 'Send again' }).click();
       batchSize = 1;
     }
@@ -102,7 +125,11 @@ describe('paying participants', () => {
     if ((await groupTotals(page, 'Needs attention')).payouts > 0) {
       await group(page, 'Needs attention').click();
       const rows = page.getByRole('table', { name: /^Needs attention: payouts, page 1/ }).locator('tbody tr');
-      await expect.poll(async () => (await rows.count()) > 0 && (await rows.allTextContents()).every((row) => row.includes('Failed'))).toBe(true);
+      await expect
+        .poll(
+          async () => (await rows.count()) > 0 && (await rows.allTextContents()).every((row) => row.includes('Failed')),
+        )
+        .toBe(true);
       const count = await rows.count();
       for (let index = 0; index < count; index += 1) {
         const row = rows.nth(index);
@@ -112,8 +139,14 @@ describe('paying participants', () => {
       expect(await page.getByText(/has not finished setting up/).count()).toBeGreaterThan(0);
       await screenshot(page, journey, 'failed-with-reasons');
       // Sending again asks first.
-      await rows.first().getByRole('button', { name: /^Retry / }).click();
-      await page.getByRole('alertdialog').getByRole('heading', { name: /again\?$/ }).waitFor();
+      await rows
+        .first()
+        .getByRole('button', { name: /^Retry / })
+        .click();
+      await page
+        .getByRole('alertdialog')
+        .getByRole('heading', { name: /again\?$/ })
+        .waitFor();
       await screenshot(page, journey, 'confirm-send-again');
       await page.getByRole('alertdialog').getByRole('button', { name: 'Cancel' }).click();
     }
@@ -121,15 +154,43 @@ describe('paying participants', () => {
     // The paid group: dates, search, order, and one participant's payment history with our receipt numbers.
     await group(page, 'Paid').click();
     const paidTable = page.getByRole('table', { name: /^Paid: payouts, page 1/ });
-    await expect.poll(async () => { const texts = await paidTable.locator('tbody tr').allTextContents(); return texts.length > 0 && texts.every((row) => row.includes('Paid')); }, { timeout: 15_000 }).toBe(true);
-    const firstReference = ((await paidTable.locator('tbody tr').first().getByRole('button', { name: /^Payment history of / }).textContent()) ?? '').trim();
+    await expect
+      .poll(
+        async () => {
+          const texts = await paidTable.locator('tbody tr').allTextContents();
+          return texts.length > 0 && texts.every((row) => row.includes('Paid'));
+        },
+        { timeout: 15_000 },
+      )
+      .toBe(true);
+    const firstReference = (
+      (await paidTable
+        .locator('tbody tr')
+        .first()
+        .getByRole('button', { name: /^Payment history of / })
+        .textContent()) ?? ''
+    ).trim();
     await page.getByRole('searchbox', { name: 'Search' }).fill(firstReference);
-    await expect.poll(async () => { const texts = await paidTable.locator('tbody tr').allTextContents(); return texts.length > 0 && texts.every((row) => row.includes(firstReference)); }, { timeout: 15_000 }).toBe(true);
+    await expect
+      .poll(
+        async () => {
+          const texts = await paidTable.locator('tbody tr').allTextContents();
+          return texts.length > 0 && texts.every((row) => row.includes(firstReference));
+        },
+        { timeout: 15_000 },
+      )
+      .toBe(true);
     await page.getByRole('combobox', { name: 'Order' }).selectOption({ label: 'Largest amount first' });
     await screenshotAtBothWidths(page, journey, 'paid-searched');
-    await paidTable.getByRole('button', { name: `Payment history of ${firstReference}` }).first().click();
+    await paidTable
+      .getByRole('button', { name: `Payment history of ${firstReference}` })
+      .first()
+      .click();
     const history = page.getByRole('dialog', { name: `Payments to ${firstReference}` });
-    await history.getByText(/^wayfinding-cues-\d{4}$/).first().waitFor();
+    await history
+      .getByText(/^wayfinding-cues-\d{4}$/)
+      .first()
+      .waitFor();
     await history.getByText(/^tr_/).first().waitFor();
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await screenshotAtBothWidths(page, journey, 'payment-history');
@@ -139,7 +200,10 @@ describe('paying participants', () => {
     // The finance office's file for this month, named by the study's slug and the period.
     const exportPanel = page.getByRole('region', { name: 'Payments for the finance office' });
     await exportPanel.getByText(/finance office to decide/).waitFor();
-    const [download] = await Promise.all([page.waitForEvent('download'), exportPanel.getByRole('button', { name: 'Download CSV' }).click()]);
+    const [download] = await Promise.all([
+      page.waitForEvent('download'),
+      exportPanel.getByRole('button', { name: 'Download CSV' }).click(),
+    ]);
     expect(download.suggestedFilename()).toMatch(/^wayfinding-cues-payments-\d{4}-\d{2}-01-to-\d{4}-\d{2}-\d{2}\.csv$/);
     const csv = readFileSync((await download.path())!);
     expect([...csv.subarray(0, 3)]).toEqual([0xef, 0xbb, 0xbf]);
@@ -152,7 +216,11 @@ describe('paying participants', () => {
     await region.getByText(/^Checked /).waitFor({ timeout: 30_000 });
     const matches = await region.getByText('Every payout matches.').count();
     if (matches === 0) await region.getByRole('table').waitFor();
-    await page.getByRole('region', { name: 'Tax reporting threshold' }).getByText(/finance office/).first().waitFor();
+    await page
+      .getByRole('region', { name: 'Tax reporting threshold' })
+      .getByText(/finance office/)
+      .first()
+      .waitFor();
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await screenshot(page, journey, 'reconciliation');
   });

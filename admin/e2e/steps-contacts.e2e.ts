@@ -1,7 +1,14 @@
 import type { Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { seriousAccessibilityProblems } from './support/accessibility';
-import { adminUrl, openBrowser, screenshot, screenshotAtBothWidths, signIn, type BrowserSession } from './support/browser';
+import {
+  adminUrl,
+  openBrowser,
+  screenshot,
+  screenshotAtBothWidths,
+  signIn,
+  type BrowserSession,
+} from './support/browser';
 
 const journey = 'steps-contacts';
 
@@ -19,7 +26,8 @@ async function signInAs(page: Page, email: string): Promise<void> {
   await signIn(page, email);
   const landing = page.getByRole('heading', { name: 'Studies', level: 1 });
   await landing.or(page.getByRole('alert')).first().waitFor();
-  if (!(await landing.isVisible())) throw new Error(`Sign-in was refused: ${await page.getByRole('alert').first().textContent()}`);
+  if (!(await landing.isVisible()))
+    throw new Error(`Sign-in was refused: ${await page.getByRole('alert').first().textContent()}`);
 }
 
 /** Opens a demo study from the studies list and returns its id. */
@@ -39,10 +47,16 @@ async function openDemoStudy(page: Page, title: string): Promise<string> {
 async function markableParticipants(page: Page, studyId: string): Promise<RosterEntry[]> {
   const found: RosterEntry[] = [];
   for (const status of ['active', 'assigned']) {
-    const response = await page.request.get(`${adminUrl}/api/studies/${studyId}/enrollments?status=${status}&pageSize=200`);
+    const response = await page.request.get(
+      `${adminUrl}/api/studies/${studyId}/enrollments?status=${status}&pageSize=200`,
+    );
     expect(response.status()).toBe(200);
     const { items } = (await response.json()) as { items: RosterEntry[] };
-    found.push(...items.filter((entry) => !entry.needsReconsent && entry.nextStep && ['open', 'overdue'].includes(entry.nextStep.timing)));
+    found.push(
+      ...items.filter(
+        (entry) => !entry.needsReconsent && entry.nextStep && ['open', 'overdue'].includes(entry.nextStep.timing),
+      ),
+    );
   }
   return found;
 }
@@ -69,7 +83,9 @@ describe('steps, completions, reminders and contacts', () => {
     await page.getByRole('heading', { name: 'New study', level: 1 }).waitFor();
     await page.getByLabel('Title').fill(title);
     await page.getByLabel('Protocol reference').fill('HLCL-2027-044');
-    await page.getByLabel('Summary for participants').fill('One online session finding the way out of a virtual stairwell.');
+    await page
+      .getByLabel('Summary for participants')
+      .fill('One online session finding the way out of a virtual stairwell.');
     await page.getByRole('radio', { name: /Between subjects/ }).click();
     await page.getByRole('button', { name: 'Create study' }).click();
     await page.getByRole('heading', { name: title, level: 1 }).waitFor();
@@ -117,7 +133,10 @@ describe('steps, completions, reminders and contacts', () => {
     const template = await returnPanel.getByLabel('Return address template', { exact: true }).inputValue();
     expect(template).toMatch(/^https?:\/\/.+\/api\/return\/\{token\}$/);
     for (const parameter of ['ref', 'token', 'return', 'code']) {
-      await returnPanel.getByLabel('Parameters added to the task address').getByText(parameter, { exact: true }).waitFor();
+      await returnPanel
+        .getByLabel('Parameters added to the task address')
+        .getByText(parameter, { exact: true })
+        .waitFor();
     }
     await returnPanel.getByRole('button', { name: 'Copy the return address template' }).click();
     await returnPanel.getByText('Copied', { exact: true }).waitFor();
@@ -126,7 +145,10 @@ describe('steps, completions, reminders and contacts', () => {
 
     // Rotating the key is confirmed with the grace period spelled out; cancelled here.
     await returnPanel.getByRole('button', { name: 'Rotate the signing key…' }).click();
-    await page.getByRole('alertdialog').getByText(/keep working for \d+ days/).waitFor();
+    await page
+      .getByRole('alertdialog')
+      .getByText(/keep working for \d+ days/)
+      .waitFor();
     await screenshot(page, journey, 'rotate-key-confirm');
     await page.getByRole('alertdialog').getByRole('button', { name: 'Cancel' }).click();
     await page.getByRole('alertdialog').waitFor({ state: 'detached' });
@@ -168,7 +190,9 @@ describe('steps, completions, reminders and contacts', () => {
     await dialog.getByRole('button', { name: 'Mark done' }).click();
     await dialog.getByText('Paste at least one participant reference, one per line.').waitFor();
     await dialog.getByRole('button', { name: /^Step/ }).click();
-    await page.getByRole('option', { name: new RegExp(`: ${step.title.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}$`) }).click();
+    await page
+      .getByRole('option', { name: new RegExp(`: ${step.title.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')}$`) })
+      .click();
     await dialog.getByLabel('Participant references, one per line').fill(`${person.reference}\nP-NOSUCH9`);
     await dialog.getByText('2 references listed.').waitFor();
     await screenshotAtBothWidths(page, journey, 'list-pasted');
@@ -200,7 +224,10 @@ describe('steps, completions, reminders and contacts', () => {
     await page.getByRole('heading', { name: person.reference }).waitFor();
     const steps = page.getByRole('list', { name: 'Steps of this participant' });
     await steps.waitFor();
-    await page.getByRole('region', { name: 'Contact log' }).getByText(/Unanswered reminders since the last step was done/).waitFor();
+    await page
+      .getByRole('region', { name: 'Contact log' })
+      .getByText(/Unanswered reminders since the last step was done/)
+      .waitFor();
     await screenshotAtBothWidths(page, journey, 'record');
 
     const markButton = steps.getByRole('button', { name: /^Mark step \d+ done$/ }).first();
@@ -208,7 +235,9 @@ describe('steps, completions, reminders and contacts', () => {
     await markButton.click();
     await page.getByText(`Step ${position} is marked done; its pay is owed.`).waitFor();
     const card = steps.getByRole('article', { name: new RegExp(`^Step ${position}:`) });
-    await expect.poll(async () => (await card.textContent()) ?? '').toMatch(/Marked done by staff · recorded by coordinator@evenhand\.test/);
+    await expect
+      .poll(async () => (await card.textContent()) ?? '')
+      .toMatch(/Marked done by staff · recorded by coordinator@evenhand\.test/);
     expect(await card.textContent()).toMatch(/Pay owed/);
     await screenshotAtBothWidths(page, journey, 'record-step-marked');
 
@@ -221,7 +250,9 @@ describe('steps, completions, reminders and contacts', () => {
     await screenshotAtBothWidths(page, journey, 'undo-dialog');
     await undo.getByRole('button', { name: 'Undo the step' }).click();
     await page.getByText(`Step ${position} is no longer done; its unapproved pay was cancelled.`).waitFor();
-    await expect.poll(async () => (await card.textContent()) ?? '').toMatch(/Undone before.*Marked for the wrong person during the journey check/);
+    await expect
+      .poll(async () => (await card.textContent()) ?? '')
+      .toMatch(/Undone before.*Marked for the wrong person during the journey check/);
     expect(await card.getByRole('button', { name: `Mark step ${position} done` }).isVisible()).toBe(true);
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await screenshotAtBothWidths(page, journey, 'record-step-undone');
@@ -246,7 +277,9 @@ describe('steps, completions, reminders and contacts', () => {
       'Re-consent requests',
       'Staff messages',
     ]);
-    expect(await page.getByTestId('contacts-test').textContent()).toMatch(/Welch's test: (F\(\d+, [\d.]+\) = [\d.]+, p [=<>]|not computable \(.+\))/);
+    expect(await page.getByTestId('contacts-test').textContent()).toMatch(
+      /Welch's test: (F\(\d+, [\d.]+\) = [\d.]+, p [=<>]|not computable \(.+\))/,
+    );
     expect(await panel.getByText(/screening aid, not the study's analysis/).isVisible()).toBe(true);
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await screenshotAtBothWidths(page, journey, 'watch-contacts');

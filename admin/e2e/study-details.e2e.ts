@@ -83,6 +83,8 @@ describe('a coordinator edits a running study’s details and archives a closed 
     await page.getByText('Archived', { exact: true }).waitFor();
     await page.goto(`${adminUrl}/studies`);
     await page.getByRole('table', { name: 'Your studies' }).getByRole('link', { name: 'Wayfinding cues' }).waitFor();
-    expect(await page.getByRole('table', { name: 'Your studies' }).getByRole('link', { name: 'Signage pilot' }).count()).toBe(0);
+    expect(
+      await page.getByRole('table', { name: 'Your studies' }).getByRole('link', { name: 'Signage pilot' }).count(),
+    ).toBe(0);
   });
 });

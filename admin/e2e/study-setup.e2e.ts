@@ -43,7 +43,9 @@ describe('a researcher sets up a between-subjects study', () => {
     await page.getByLabel('Title').fill(title);
     expect(await page.getByLabel('Link name').inputValue()).toBe(`corridor-signs-${stamp}`);
     await page.getByLabel('Protocol reference').fill('HLCL-2027-021');
-    await page.getByLabel('Summary for participants').fill('Two short online sessions finding rooms in a virtual office building.');
+    await page
+      .getByLabel('Summary for participants')
+      .fill('Two short online sessions finding rooms in a virtual office building.');
     await page.getByLabel('Lab name').fill('Harbor Lane Cognition Lab');
     await page.getByLabel('Contact e-mail').fill('corridors@harborlane.test');
     await page.getByRole('radio', { name: /Between subjects/ }).click();
@@ -80,7 +82,9 @@ describe('a researcher sets up a between-subjects study', () => {
     await page.getByRole('button', { name: 'Add factors' }).click();
     await page.getByRole('button', { name: 'Add factor' }).click();
     const factors = page.getByRole('form', { name: 'Stratification factors' });
-    await factors.getByLabel('Question participants answer').fill('On a scale from 0 to 100, how easily do you find your way in new buildings?');
+    await factors
+      .getByLabel('Question participants answer')
+      .fill('On a scale from 0 to 100, how easily do you find your way in new buildings?');
     await factors.getByLabel('Key').fill('wayfinding_pretest');
     await factors.getByLabel('Cut points').fill('50');
     await factors.getByText('<50 / ≥50').waitFor();
@@ -118,8 +122,14 @@ describe('a researcher sets up a between-subjects study', () => {
     await screenshot(page, journey, 'pay-override-dialog');
     await override.getByRole('button', { name: 'Record exception' }).click();
     await page.getByText('The pay exception for step 2 was recorded.').waitFor();
-    await page.getByRole('list', { name: 'Pay exceptions for step 2' }).getByText('C · plain corridors: $15.00').waitFor();
-    await page.locator('#steps').getByText(/Some steps pay differently by condition/).waitFor();
+    await page
+      .getByRole('list', { name: 'Pay exceptions for step 2' })
+      .getByText('C · plain corridors: $15.00')
+      .waitFor();
+    await page
+      .locator('#steps')
+      .getByText(/Some steps pay differently by condition/)
+      .waitFor();
 
     // An eligibility question with its rule
     await page.getByRole('button', { name: 'Add questions' }).click();
@@ -155,13 +165,20 @@ describe('a researcher sets up a between-subjects study', () => {
     await page.getByText('Not sealed yet.').waitFor();
     await screenshot(page, journey, 'assignment-draft');
     await dryRun.getByRole('button', { name: 'Run dry run' }).click();
-    await page.getByRole('heading', { name: /Result: 1,000 simulated arrivals · Stratified permuted blocks/ }).waitFor({ timeout: 60_000 });
+    await page
+      .getByRole('heading', { name: /Result: 1,000 simulated arrivals · Stratified permuted blocks/ })
+      .waitFor({ timeout: 60_000 });
     const strata = page.getByRole('table', { name: 'Simulated balance per stratum' });
     await strata.waitFor();
-    expect(await strata.getByRole('rowheader').allTextContents()).toEqual(['wayfinding pretest <50', 'wayfinding pretest ≥50']);
-    const stratumTotals = await strata.getByRole('row').evaluateAll((rows) =>
-      rows.slice(1).map((row) => Number(row.querySelectorAll('td')[3]?.textContent?.replace(/,/g, ''))),
-    );
+    expect(await strata.getByRole('rowheader').allTextContents()).toEqual([
+      'wayfinding pretest <50',
+      'wayfinding pretest ≥50',
+    ]);
+    const stratumTotals = await strata
+      .getByRole('row')
+      .evaluateAll((rows) =>
+        rows.slice(1).map((row) => Number(row.querySelectorAll('td')[3]?.textContent?.replace(/,/g, ''))),
+      );
     expect(stratumTotals.reduce((sum, total) => sum + total, 0)).toBe(1000);
     await page.getByRole('table', { name: 'Simulated arrivals per condition' }).waitFor();
     // One factor: its levels are the strata, so there is no separate factor-level table.
@@ -181,10 +198,18 @@ describe('a researcher sets up a between-subjects study', () => {
     await commitment.waitFor();
     expect(await commitment.textContent()).toMatch(/^[0-9a-f]{64}$/);
     const fingerprint = (await commitment.textContent()) ?? '';
-    expect(await page.locator('header').getByText(`${fingerprint.slice(0, 8)}…`).count()).toBeGreaterThan(0);
+    expect(
+      await page
+        .locator('header')
+        .getByText(`${fingerprint.slice(0, 8)}…`)
+        .count(),
+    ).toBeGreaterThan(0);
     const balance = page.getByRole('table', { name: 'Assignments per stratum and condition' });
     await balance.waitFor();
-    expect(await balance.getByRole('rowheader').allTextContents()).toEqual(['sense of direction <50', 'sense of direction ≥50']);
+    expect(await balance.getByRole('rowheader').allTextContents()).toEqual([
+      'sense of direction <50',
+      'sense of direction ≥50',
+    ]);
     expect(await balance.getByRole('columnheader').allTextContents()).toEqual(['Stratum', 'A', 'B', 'C', 'Total']);
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await screenshot(page, journey, 'demo-assignment');
@@ -198,7 +223,12 @@ describe('a researcher sets up a between-subjects study', () => {
     await page.waitForURL((url) => url.pathname.endsWith('/setup'));
     await page.getByRole('form', { name: 'Assignment scheme' }).waitFor({ state: 'detached' });
     await page.locator('#scheme').getByText('Williams design').waitFor();
-    expect(await page.locator('#scheme').getByText(/someone has already been assigned/).isVisible()).toBe(true);
+    expect(
+      await page
+        .locator('#scheme')
+        .getByText(/someone has already been assigned/)
+        .isVisible(),
+    ).toBe(true);
     expect(await page.locator('#conditions').getByRole('button', { name: 'Add condition' }).count()).toBe(0);
     await screenshot(page, journey, 'within-setup-fixed');
 

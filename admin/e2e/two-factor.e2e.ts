@@ -6,7 +6,8 @@ import { adminUrl, openBrowser, screenshotAtBothWidths, signIn, type BrowserSess
 const journey = 'two-factor';
 
 /** What the authenticator app on the person's phone would show, `stepsAhead` 30-second steps from now (otplib). */
-const appCode = (secret: string, stepsAhead = 0) => generate({ secret, epoch: Math.floor(Date.now() / 1000) + 30 * stepsAhead });
+const appCode = (secret: string, stepsAhead = 0) =>
+  generate({ secret, epoch: Math.floor(Date.now() / 1000) + 30 * stepsAhead });
 
 describe('an admin turns on two-factor sign-in, then signs in with a code and with a recovery code', () => {
   let labAdmin: BrowserSession;
@@ -19,7 +20,12 @@ describe('an admin turns on two-factor sign-in, then signs in with a code and wi
 
   afterAll(async () => {
     // Whatever happened above, the lab-wide requirement must not outlive this journey: other journeys sign in as admin.
-    await newAdmin?.page.request.patch(`${adminUrl}/api/lab-settings`, { data: { twoFactorRequiredForAdmins: false }, headers: { Origin: adminUrl } }).catch(() => undefined);
+    await newAdmin?.page.request
+      .patch(`${adminUrl}/api/lab-settings`, {
+        data: { twoFactorRequiredForAdmins: false },
+        headers: { Origin: adminUrl },
+      })
+      .catch(() => undefined);
     await labAdmin?.close();
     await newAdmin?.close();
   });

@@ -22,8 +22,14 @@ afterAll(async () => {
   await testApp.close();
 });
 
-async function allocateInOwnTransaction(studyId: string, enrollmentId: string, covariates: Record<string, number | string>) {
-  return testApp.dataSource.transaction((manager) => randomization.allocate(manager, actor, { studyId, enrollmentId, covariates }));
+async function allocateInOwnTransaction(
+  studyId: string,
+  enrollmentId: string,
+  covariates: Record<string, number | string>,
+) {
+  return testApp.dataSource.transaction((manager) =>
+    randomization.allocate(manager, actor, { studyId, enrollmentId, covariates }),
+  );
 }
 
 async function sealedSeed(studyId: string): Promise<string> {
@@ -34,38 +40,76 @@ async function sealedSeed(studyId: string): Promise<string> {
 describe('study set-up', () => {
   it('creates a study with conditions, steps and pay, and makes the creator a member', async () => {
     const study = await expectStatus(
-      researcher.post('/api/studies').send({ slug: uniqueSlug('setup'), title: 'Set-up test', design: 'between', budgetMinor: 50000, currency: 'EUR' }),
+      researcher.post('/api/studies').send({
+        slug: uniqueSlug('setup'),
+        title: 'Set-up test',
+        design: 'between',
+        budgetMinor: 50000,
+        currency: 'EUR',
+      }),
       201,
     );
-    expect(study).toMatchObject({ status: 'draft', blinded: true, currency: 'EUR', budgetMinor: 50000, designLocked: false });
+    expect(study).toMatchObject({
+      status: 'draft',
+      blinded: true,
+      currency: 'EUR',
+      budgetMinor: 50000,
+      designLocked: false,
+    });
     const members = await expectStatus(researcher.get(`/api/studies/${study.id}/members`), 200);
     expect(members.items.map((m: { email: string }) => m.email)).toEqual(['researcher@evenhand.test']);
 
-    const steps = await expectStatus(researcher.post(`/api/studies/${study.id}/steps`).send({ title: 'Session 1', payMinor: 1500 }), 201);
-    await expectStatus(researcher.post(`/api/studies/${study.id}/steps`).send({ title: 'Intro', payMinor: 500, position: 1 }), 201);
+    const steps = await expectStatus(
+      researcher.post(`/api/studies/${study.id}/steps`).send({ title: 'Session 1', payMinor: 1500 }),
+      201,
+    );
+    await expectStatus(
+      researcher.post(`/api/studies/${study.id}/steps`).send({ title: 'Intro', payMinor: 500, position: 1 }),
+      201,
+    );
     const list = await expectStatus(researcher.get(`/api/studies/${study.id}/steps`), 200);
-    expect(list.items.map((s: { title: string; position: number }) => [s.position, s.title])).toEqual([[1, 'Intro'], [2, 'Session 1']]);
+    expect(list.items.map((s: { title: string; position: number }) => [s.position, s.title])).toEqual([
+      [1, 'Intro'],
+      [2, 'Session 1'],
+    ]);
     expect(list).toMatchObject({ totalPayMinor: 2000, hasPayOverrides: false, currency: 'EUR' });
     expect(steps.items).toHaveLength(1);
   });
 
   it('refuses pay that is not whole minor units, naming the field', async () => {
-    const study = await expectStatus(researcher.post('/api/studies').send({ slug: uniqueSlug('pay'), title: 'Pay', design: 'between' }), 201);
-    const body = await expectStatus(researcher.post(`/api/studies/${study.id}/steps`).send({ title: 'S', payMinor: 12.5 }), 400, 'VALIDATION_FAILED');
+    const study = await expectStatus(
+      researcher.post('/api/studies').send({ slug: uniqueSlug('pay'), title: 'Pay', design: 'between' }),
+      201,
+    );
+    const body = await expectStatus(
+      researcher.post(`/api/studies/${study.id}/steps`).send({ title: 'S', payMinor: 12.5 }),
+      400,
+      'VALIDATION_FAILED',
+    );
     expect(body.errors[0].field).toBe('payMinor');
   });
 
   it('records a per-condition pay override with its reason and flags it', async () => {
     const { studyId, conditionIds } = await draftBetweenStudy(researcher);
-    const created = await expectStatus(researcher.post(`/api/studies/${studyId}/steps`).send({ title: 'Session', payMinor: 1000 }), 201);
+    const created = await expectStatus(
+      researcher.post(`/api/studies/${studyId}/steps`).send({ title: 'Session', payMinor: 1000 }),
+      201,
+    );
     const stepId = created.items[0].id;
     const withOverride = await expectStatus(
-      researcher.put(`/api/studies/${studyId}/steps/${stepId}/pay-overrides/${conditionIds[1]}`).send({ payMinor: 1200, reason: 'Longer session in this arm' }),
+      researcher
+        .put(`/api/studies/${studyId}/steps/${stepId}/pay-overrides/${conditionIds[1]}`)
+        .send({ payMinor: 1200, reason: 'Longer session in this arm' }),
       200,
     );
     expect(withOverride.hasPayOverrides).toBe(true);
-    expect(withOverride.items[0].payOverrides).toEqual([expect.objectContaining({ conditionId: conditionIds[1], payMinor: 1200 })]);
-    const [event] = await testApp.dataSource.query(`SELECT data FROM audit_event WHERE chain = $1 AND action = 'step.pay-override-recorded'`, [studyId]);
+    expect(withOverride.items[0].payOverrides).toEqual([
+      expect.objectContaining({ conditionId: conditionIds[1], payMinor: 1200 }),
+    ]);
+    const [event] = await testApp.dataSource.query(
+      `SELECT data FROM audit_event WHERE chain = $1 AND action = 'step.pay-override-recorded'`,
+      [studyId],
+    );
     expect(event.data.reason).toBe('Longer session in this arm');
   });
 
@@ -81,14 +125,21 @@ describe('study set-up', () => {
 
   it('refuses a within-subjects method for a between-subjects study', async () => {
     const { studyId } = await draftBetweenStudy(researcher);
-    await expectStatus(researcher.put(`/api/studies/${studyId}/assignment-scheme`).send({ method: 'williams' }), 400, 'VALIDATION_FAILED');
+    await expectStatus(
+      researcher.put(`/api/studies/${studyId}/assignment-scheme`).send({ method: 'williams' }),
+      400,
+      'VALIDATION_FAILED',
+    );
   });
 
   it('hides the study from a researcher who is not a member', async () => {
     const { studyId } = await draftBetweenStudy(researcher);
     const admin = await signedInStaff(testApp, 'admin');
     const email = `outsider-${Date.now()}@evenhand.test`;
-    await expectStatus(admin.post('/api/users').send({ email, name: 'Outsider', role: 'researcher', password: 'a-long-password-1' }), 201);
+    await expectStatus(
+      admin.post('/api/users').send({ email, name: 'Outsider', role: 'researcher', password: 'a-long-password-1' }),
+      201,
+    );
     const outsider = testApp.browser();
     await expectStatus(outsider.post('/api/auth/sign-in').send({ email, password: 'a-long-password-1' }), 200);
     await expectStatus(outsider.get(`/api/studies/${studyId}`), 404, 'NOT_FOUND');
@@ -107,8 +158,16 @@ describe('sealed sequence', () => {
     expect(after.commitment).toMatch(/^[0-9a-f]{64}$/);
     expect(after.seed).toBeNull();
     const conditions = await expectStatus(researcher.get(`/api/studies/${studyId}/conditions`), 200);
-    expect(conditions.items.map((c: { internalName: string | null; code: string }) => [c.code, c.internalName])).toEqual([['A', null], ['B', null]]);
-    const [event] = await testApp.dataSource.query(`SELECT data FROM audit_event WHERE chain = $1 AND action = 'assignment.committed'`, [studyId]);
+    expect(
+      conditions.items.map((c: { internalName: string | null; code: string }) => [c.code, c.internalName]),
+    ).toEqual([
+      ['A', null],
+      ['B', null],
+    ]);
+    const [event] = await testApp.dataSource.query(
+      `SELECT data FROM audit_event WHERE chain = $1 AND action = 'assignment.committed'`,
+      [studyId],
+    );
     expect(event.data.commitment).toBe(after.commitment);
   });
 
@@ -116,18 +175,30 @@ describe('sealed sequence', () => {
     const { studyId } = await draftBetweenStudy(researcher);
     await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
-    const enrollments = await insertEnrollments(testApp, studyId, Array.from({ length: 300 }, () => ({ pretest: 70 })));
+    const enrollments = await insertEnrollments(
+      testApp,
+      studyId,
+      Array.from({ length: 300 }, () => ({ pretest: 70 })),
+    );
     const outcomes = await Promise.all(enrollments.map((id) => allocateInOwnTransaction(studyId, id, { pretest: 70 })));
     const positions = outcomes.map((o) => o.slotPosition).sort((a, b) => a! - b!);
     expect(positions).toEqual(Array.from({ length: 300 }, (_, i) => i + 1));
-    const [{ taken }] = await testApp.dataSource.query(`SELECT count(DISTINCT taken_by) AS taken FROM allocation_slot WHERE study_id = $1`, [studyId]);
+    const [{ taken }] = await testApp.dataSource.query(
+      `SELECT count(DISTINCT taken_by) AS taken FROM allocation_slot WHERE study_id = $1`,
+      [studyId],
+    );
     expect(Number(taken)).toBe(300);
     // Each taken slot holds exactly the condition the seed generates for that position.
     const seed = await sealedSeed(studyId);
-    const [scheme] = await testApp.dataSource.query(`SELECT sealed_parameters FROM assignment_scheme WHERE study_id = $1`, [studyId]);
+    const [scheme] = await testApp.dataSource.query(
+      `SELECT sealed_parameters FROM assignment_scheme WHERE study_id = $1`,
+      [studyId],
+    );
     const expected = generateSlots(seed, parseSchemeParameters(scheme.sealed_parameters), outcomes[0].stratumKey, 300);
     const byPosition = new Map(outcomes.map((o) => [o.slotPosition, o.conditionId]));
-    expect(expected.every((slot) => byPosition.get(slot.position) === (slot as { conditionId: string }).conditionId)).toBe(true);
+    expect(
+      expected.every((slot) => byPosition.get(slot.position) === (slot as { conditionId: string }).conditionId),
+    ).toBe(true);
   });
 
   it('keeps each of 4 strata a prefix of its own generated list', async () => {
@@ -135,10 +206,17 @@ describe('sealed sequence', () => {
     await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const scores = Array.from({ length: 120 }, (_, i) => (i * 37) % 100);
-    const enrollments = await insertEnrollments(testApp, studyId, scores.map((pretest) => ({ pretest })));
+    const enrollments = await insertEnrollments(
+      testApp,
+      studyId,
+      scores.map((pretest) => ({ pretest })),
+    );
     await Promise.all(enrollments.map((id, i) => allocateInOwnTransaction(studyId, id, { pretest: scores[i] })));
     const seed = await sealedSeed(studyId);
-    const [scheme] = await testApp.dataSource.query(`SELECT sealed_parameters FROM assignment_scheme WHERE study_id = $1`, [studyId]);
+    const [scheme] = await testApp.dataSource.query(
+      `SELECT sealed_parameters FROM assignment_scheme WHERE study_id = $1`,
+      [studyId],
+    );
     const parameters = parseSchemeParameters(scheme.sealed_parameters);
     const rows: Array<{ stratum_key: string; position: number; condition_id: string }> = await testApp.dataSource.query(
       `SELECT stratum_key, position, condition_id FROM allocation_slot WHERE study_id = $1 AND taken_by IS NOT NULL ORDER BY stratum_key, position`,
@@ -177,7 +255,9 @@ describe('sealed sequence', () => {
     const once = await allocateInOwnTransaction(studyId, only, { pretest: 90 });
     const twice = await allocateInOwnTransaction(studyId, only, { pretest: 90 });
     expect(twice).toEqual({ ...once, slotPosition: null });
-    const [{ n }] = await testApp.dataSource.query(`SELECT count(*) AS n FROM allocation WHERE enrollment_id = $1`, [only]);
+    const [{ n }] = await testApp.dataSource.query(`SELECT count(*) AS n FROM allocation WHERE enrollment_id = $1`, [
+      only,
+    ]);
     expect(Number(n)).toBe(1);
   });
 
@@ -187,8 +267,16 @@ describe('sealed sequence', () => {
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const [only] = await insertEnrollments(testApp, studyId, [{ pretest: 30 }]);
     await allocateInOwnTransaction(studyId, only, { pretest: 30 });
-    await expectStatus(researcher.put(`/api/studies/${studyId}/assignment-scheme`).send({ method: 'simple' }), 409, 'CONFLICT');
-    await expectStatus(researcher.post(`/api/studies/${studyId}/conditions`).send({ internalName: 'late', participantLabel: 'Late' }), 409, 'CONFLICT');
+    await expectStatus(
+      researcher.put(`/api/studies/${studyId}/assignment-scheme`).send({ method: 'simple' }),
+      409,
+      'CONFLICT',
+    );
+    await expectStatus(
+      researcher.post(`/api/studies/${studyId}/conditions`).send({ internalName: 'late', participantLabel: 'Late' }),
+      409,
+      'CONFLICT',
+    );
     await expectStatus(
       researcher.put(`/api/studies/${studyId}/stratification-factors`).send({ factors: [] }),
       409,
@@ -204,9 +292,19 @@ describe('sealed sequence', () => {
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const first = (await expectStatus(researcher.get(`/api/studies/${studyId}/assignment`), 200)).commitment;
     // Blocks of 6 fit two conditions and three alike, so the scheme stays valid when a third is added.
-    await expectStatus(researcher.put(`/api/studies/${studyId}/assignment-scheme`).send({ method: 'stratified-blocks', blockSizes: [6] }), 200);
+    await expectStatus(
+      researcher
+        .put(`/api/studies/${studyId}/assignment-scheme`)
+        .send({ method: 'stratified-blocks', blockSizes: [6] }),
+      200,
+    );
     const middle = (await expectStatus(researcher.get(`/api/studies/${studyId}/assignment`), 200)).commitment;
-    await expectStatus(researcher.post(`/api/studies/${studyId}/conditions`).send({ internalName: 'gamma', participantLabel: 'Version gamma' }), 201);
+    await expectStatus(
+      researcher
+        .post(`/api/studies/${studyId}/conditions`)
+        .send({ internalName: 'gamma', participantLabel: 'Version gamma' }),
+      201,
+    );
     const second = (await expectStatus(researcher.get(`/api/studies/${studyId}/assignment`), 200)).commitment;
     expect(second).toMatch(/^[0-9a-f]{64}$/);
     expect(new Set([first, middle, second]).size).toBe(3);
@@ -217,7 +315,9 @@ describe('sealed sequence', () => {
     await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const body = await expectStatus(
-      researcher.post(`/api/studies/${studyId}/conditions`).send({ internalName: 'gamma', participantLabel: 'Version gamma' }),
+      researcher
+        .post(`/api/studies/${studyId}/conditions`)
+        .send({ internalName: 'gamma', participantLabel: 'Version gamma' }),
       400,
       'VALIDATION_FAILED',
     );
@@ -227,21 +327,38 @@ describe('sealed sequence', () => {
   });
 
   it('verifies every allocation after unblinding, and reports a mismatch when one is altered in the database', async () => {
-    const { studyId } = await draftBetweenStudy(researcher, { scheme: { method: 'minimization', coinProbability: 0.8 } });
+    const { studyId } = await draftBetweenStudy(researcher, {
+      scheme: { method: 'minimization', coinProbability: 0.8 },
+    });
     await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     await expectStatus(researcher.get(`/api/studies/${studyId}/assignment/verify`), 409, 'CONFLICT');
     const scores = Array.from({ length: 40 }, (_, i) => (i * 53) % 100);
-    const enrollments = await insertEnrollments(testApp, studyId, scores.map((pretest) => ({ pretest })));
-    for (let i = 0; i < enrollments.length; i++) await allocateInOwnTransaction(studyId, enrollments[i], { pretest: scores[i] });
+    const enrollments = await insertEnrollments(
+      testApp,
+      studyId,
+      scores.map((pretest) => ({ pretest })),
+    );
+    for (let i = 0; i < enrollments.length; i++)
+      await allocateInOwnTransaction(studyId, enrollments[i], { pretest: scores[i] });
 
-    await expectStatus(researcher.post(`/api/studies/${studyId}/unblind`).send({ reason: 'short' }), 400, 'VALIDATION_FAILED');
-    const unblinded = await expectStatus(researcher.post(`/api/studies/${studyId}/unblind`).send({ reason: 'Final analysis after the last follow-up' }), 200);
+    await expectStatus(
+      researcher.post(`/api/studies/${studyId}/unblind`).send({ reason: 'short' }),
+      400,
+      'VALIDATION_FAILED',
+    );
+    const unblinded = await expectStatus(
+      researcher.post(`/api/studies/${studyId}/unblind`).send({ reason: 'Final analysis after the last follow-up' }),
+      200,
+    );
     expect(unblinded.seed).toMatch(/^[0-9a-f]{64}$/);
     const report = await expectStatus(researcher.get(`/api/studies/${studyId}/assignment/verify`), 200);
     expect(report).toMatchObject({ allMatch: true, commitmentMatches: true, matched: 40, mismatched: 0 });
 
-    const [victim] = await testApp.dataSource.query(`SELECT id, condition_id, sequence FROM allocation WHERE study_id = $1 ORDER BY sequence DESC LIMIT 1`, [studyId]);
+    const [victim] = await testApp.dataSource.query(
+      `SELECT id, condition_id, sequence FROM allocation WHERE study_id = $1 ORDER BY sequence DESC LIMIT 1`,
+      [studyId],
+    );
     const conditions = await expectStatus(researcher.get(`/api/studies/${studyId}/conditions`), 200);
     const other = conditions.items.find((c: { id: string }) => c.id !== victim.condition_id).id;
     // Allocation rows are append-only; only a database superuser can switch that off, as this insider does.
@@ -261,7 +378,8 @@ describe('sealed sequence', () => {
     await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const enrollments = await insertEnrollments(testApp, studyId, [{ pretest: 5 }, { pretest: 95 }, { pretest: 65 }]);
-    for (const [i, id] of enrollments.entries()) await allocateInOwnTransaction(studyId, id, { pretest: [5, 95, 65][i] });
+    for (const [i, id] of enrollments.entries())
+      await allocateInOwnTransaction(studyId, id, { pretest: [5, 95, 65][i] });
     await expectStatus(researcher.post(`/api/studies/${studyId}/pause`), 200);
     await expectStatus(researcher.post(`/api/studies/${studyId}/close`), 200);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 409, 'CONFLICT');
@@ -272,28 +390,41 @@ describe('sealed sequence', () => {
 
 describe('matched pairs', () => {
   it('pairs a pretested cohort once, places each member on signing, and verifies after unblinding', async () => {
-    const { studyId } = await draftBetweenStudy(researcher, { scheme: { method: 'matched-pairs', pretestKey: 'pretest' } });
+    const { studyId } = await draftBetweenStudy(researcher, {
+      scheme: { method: 'matched-pairs', pretestKey: 'pretest' },
+    });
     await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
     const scores = [12, 88, 45, 46, 90, 13, 70];
-    const enrollments = await insertEnrollments(testApp, studyId, scores.map((pretest) => ({ pretest })));
+    const enrollments = await insertEnrollments(
+      testApp,
+      studyId,
+      scores.map((pretest) => ({ pretest })),
+    );
     await testApp.dataSource.query(`UPDATE enrollment SET status = 'screened' WHERE id = ANY($1)`, [enrollments]);
     const paired = await expectStatus(researcher.post(`/api/studies/${studyId}/enrollments/pair-cohort`), 200);
     expect(paired).toMatchObject({ cohort: 7, pairs: 3, leftoverEnrollmentId: expect.any(String) });
     await expectStatus(researcher.post(`/api/studies/${studyId}/enrollments/pair-cohort`), 409, 'CONFLICT');
     // Neighbours by pretest share a pair and get different conditions.
-    const slots: Array<{ stratum_key: string; condition_id: string; reserved_for: string }> = await testApp.dataSource.query(
-      `SELECT stratum_key, condition_id, reserved_for FROM allocation_slot WHERE study_id = $1 ORDER BY stratum_key, position`,
-      [studyId],
-    );
+    const slots: Array<{ stratum_key: string; condition_id: string; reserved_for: string }> =
+      await testApp.dataSource.query(
+        `SELECT stratum_key, condition_id, reserved_for FROM allocation_slot WHERE study_id = $1 ORDER BY stratum_key, position`,
+        [studyId],
+      );
     const pairs = new Map<string, typeof slots>();
     for (const slot of slots) pairs.set(slot.stratum_key, [...(pairs.get(slot.stratum_key) ?? []), slot]);
-    for (const [key, members] of pairs) if (key !== 'unpaired') expect(new Set(members.map((m) => m.condition_id)).size).toBe(2);
-    const outcomes = await Promise.all(enrollments.slice(0, 4).map((id, i) => allocateInOwnTransaction(studyId, id, { pretest: scores[i] })));
+    for (const [key, members] of pairs)
+      if (key !== 'unpaired') expect(new Set(members.map((m) => m.condition_id)).size).toBe(2);
+    const outcomes = await Promise.all(
+      enrollments.slice(0, 4).map((id, i) => allocateInOwnTransaction(studyId, id, { pretest: scores[i] })),
+    );
     for (const [i, outcome] of outcomes.entries()) {
       expect(outcome.conditionId).toBe(slots.find((s) => s.reserved_for === enrollments[i])!.condition_id);
     }
-    await expectStatus(researcher.post(`/api/studies/${studyId}/unblind`).send({ reason: 'Checking the pairing for the audit' }), 200);
+    await expectStatus(
+      researcher.post(`/api/studies/${studyId}/unblind`).send({ reason: 'Checking the pairing for the audit' }),
+      200,
+    );
     const report = await expectStatus(researcher.get(`/api/studies/${studyId}/assignment/verify`), 200);
     expect(report).toMatchObject({ allMatch: true, commitmentMatches: true, matched: 7 });
   });

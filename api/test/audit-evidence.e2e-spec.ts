@@ -45,12 +45,14 @@ async function asInsider<T>(table: 'audit_event' | 'audit_receipt', work: () => 
 async function probeChain(count: number, email = 'probe@evenhand.test'): Promise<string> {
   const chain = `evidence-probe-${randomUUID()}`;
   await testApp.dataSource.transaction(async (manager) => {
-    for (let i = 1; i <= count; i++) await audit.record(manager, { chain, actor: { id: null, email }, action: `probe.step-${i}`, data: { i } });
+    for (let i = 1; i <= count; i++)
+      await audit.record(manager, { chain, actor: { id: null, email }, action: `probe.step-${i}`, data: { i } });
   });
   return chain;
 }
 
-const rowsOf = (chain: string): Promise<Row[]> => testApp.dataSource.query(`SELECT * FROM audit_event WHERE chain = $1 ORDER BY sequence`, [chain]);
+const rowsOf = (chain: string): Promise<Row[]> =>
+  testApp.dataSource.query(`SELECT * FROM audit_event WHERE chain = $1 ORDER BY sequence`, [chain]);
 
 /** Puts rows back exactly as they were, so the shared database stays verifiable for the other test files. */
 async function restore(rows: Row[]) {
@@ -67,7 +69,10 @@ async function restore(rows: Row[]) {
 }
 
 async function verdictOf(chain: string, receipt?: unknown) {
-  const body = receipt === undefined ? await expectStatus(auditor.get('/api/audit/verify'), 200) : await expectStatus(auditor.post('/api/audit/verify').send({ receipt }), 200);
+  const body =
+    receipt === undefined
+      ? await expectStatus(auditor.get('/api/audit/verify'), 200)
+      : await expectStatus(auditor.post('/api/audit/verify').send({ receipt }), 200);
   return { body, chain: body.chains.find((c: { chain: string }) => c.chain === chain) };
 }
 
@@ -83,9 +88,26 @@ describe('the keyed audit chain', () => {
         let previous = original[1].hash;
         for (const row of original.slice(2)) {
           const data = row.sequence === 3 ? { i: 3, amount: 999 } : row.data;
-          const fields = { chain, sequence: row.sequence, at: row.at.toISOString(), actorId: null, action: row.action, subjectType: null, subjectId: null, data };
-          const hash = forge === 'sha256' ? chainHash(previous, fields) : createHmac('sha256', 'guess').update(previous + canonicalJson(fields)).digest('hex');
-          await testApp.dataSource.query(`UPDATE audit_event SET data = $1, previous_hash = $2, hash = $3 WHERE id = $4`, [JSON.stringify(data), previous, hash, row.id]);
+          const fields = {
+            chain,
+            sequence: row.sequence,
+            at: row.at.toISOString(),
+            actorId: null,
+            action: row.action,
+            subjectType: null,
+            subjectId: null,
+            data,
+          };
+          const hash =
+            forge === 'sha256'
+              ? chainHash(previous, fields)
+              : createHmac('sha256', 'guess')
+                  .update(previous + canonicalJson(fields))
+                  .digest('hex');
+          await testApp.dataSource.query(
+            `UPDATE audit_event SET data = $1, previous_hash = $2, hash = $3 WHERE id = $4`,
+            [JSON.stringify(data), previous, hash, row.id],
+          );
           previous = hash;
         }
       });
@@ -104,7 +126,11 @@ describe('the keyed audit chain', () => {
   it('detects an edited actor e-mail', async () => {
     const chain = await probeChain(3, 'real.person@evenhand.test');
     const original = await rowsOf(chain);
-    await asInsider('audit_event', () => testApp.dataSource.query(`UPDATE audit_event SET actor_email = 'someone.else@evenhand.test' WHERE id = $1`, [original[1].id]));
+    await asInsider('audit_event', () =>
+      testApp.dataSource.query(`UPDATE audit_event SET actor_email = 'someone.else@evenhand.test' WHERE id = $1`, [
+        original[1].id,
+      ]),
+    );
     try {
       expect((await verdictOf(chain)).chain.firstBreak).toEqual({ sequence: 2, reason: 'hash-mismatch' });
     } finally {
@@ -115,7 +141,9 @@ describe('the keyed audit chain', () => {
   it('names an event signed with a key it does not hold, without failing the request', async () => {
     const chain = await probeChain(2);
     const original = await rowsOf(chain);
-    await asInsider('audit_event', () => testApp.dataSource.query(`UPDATE audit_event SET key_id = 'no-such-key' WHERE id = $1`, [original[1].id]));
+    await asInsider('audit_event', () =>
+      testApp.dataSource.query(`UPDATE audit_event SET key_id = 'no-such-key' WHERE id = $1`, [original[1].id]),
+    );
     try {
       expect((await verdictOf(chain)).chain.firstBreak).toEqual({ sequence: 2, reason: 'unknown-key' });
     } finally {
@@ -126,7 +154,11 @@ describe('the keyed audit chain', () => {
   it('detects the newest events deleted, against the last receipt, which auditors receive and can download', async () => {
     const chain = await probeChain(4);
     const receipt = await expectStatus(auditor.post('/api/audit/receipts'), 201);
-    expect(receipt).toMatchObject({ format: 'evenhand-audit-receipt/1', mac: expect.stringMatching(/^[0-9a-f]{64}$/), keyId: expect.any(String) });
+    expect(receipt).toMatchObject({
+      format: 'evenhand-audit-receipt/1',
+      mac: expect.stringMatching(/^[0-9a-f]{64}$/),
+      keyId: expect.any(String),
+    });
     const head = receipt.chains.find((c: { chain: string }) => c.chain === chain);
     expect(head).toMatchObject({ sequence: 4, hash: (await rowsOf(chain))[3].hash });
     const downloaded = await expectStatus(auditor.get(`/api/audit/receipts/${receipt.id}`), 200);
@@ -136,7 +168,9 @@ describe('the keyed audit chain', () => {
     expect(mail.attachments?.[0]).toMatchObject({ contentType: 'application/json' });
 
     const original = await rowsOf(chain);
-    await asInsider('audit_event', () => testApp.dataSource.query(`DELETE FROM audit_event WHERE chain = $1 AND sequence >= 3`, [chain]));
+    await asInsider('audit_event', () =>
+      testApp.dataSource.query(`DELETE FROM audit_event WHERE chain = $1 AND sequence >= 3`, [chain]),
+    );
     try {
       const { body, chain: verdict } = await verdictOf(chain);
       expect(body.intact).toBe(false);
@@ -153,7 +187,9 @@ describe('the keyed audit chain', () => {
     const receipt = await expectStatus(auditor.post('/api/audit/receipts'), 201);
     const original = await rowsOf(chain);
     // A genuine receipt, and a chain whose sealed head was later replaced.
-    await asInsider('audit_event', () => testApp.dataSource.query(`DELETE FROM audit_event WHERE id = $1`, [original[1].id]));
+    await asInsider('audit_event', () =>
+      testApp.dataSource.query(`DELETE FROM audit_event WHERE id = $1`, [original[1].id]),
+    );
     try {
       const { body, chain: verdict } = await verdictOf(chain, receipt);
       expect(body.intact).toBe(false);
@@ -162,12 +198,20 @@ describe('the keyed audit chain', () => {
     } finally {
       await restore(original);
     }
-    const altered = { ...receipt, chains: receipt.chains.map((c: { chain: string; hash: string }) => (c.chain === chain ? { ...c, hash: 'f'.repeat(64) } : c)) };
+    const altered = {
+      ...receipt,
+      chains: receipt.chains.map((c: { chain: string; hash: string }) =>
+        c.chain === chain ? { ...c, hash: 'f'.repeat(64) } : c,
+      ),
+    };
     const { body } = await verdictOf(chain, altered);
     expect(body.intact).toBe(false);
     expect(body.receipt).toMatchObject({ valid: false });
     expect(body.findings[0]).toMatchObject({ chain: null, reason: 'receipt-mac-mismatch' });
-    const malformed = await expectStatus(auditor.post('/api/audit/verify').send({ receipt: { format: 'something else' } }), 200);
+    const malformed = await expectStatus(
+      auditor.post('/api/audit/verify').send({ receipt: { format: 'something else' } }),
+      200,
+    );
     expect(malformed).toMatchObject({ intact: false, receipt: { valid: false } });
     expect((await verdictOf(chain, receipt)).body.intact).toBe(true);
   });
@@ -177,11 +221,19 @@ describe('the keyed audit chain', () => {
     const keys = JSON.parse(readFileSync(config.auditKeyFile, 'utf8'));
     const rotatedFile = join(TMP, `audit-keys-rotated-${Date.now()}.json`);
     const newId = `rotated-${Date.now().toString(36)}`;
-    writeFileSync(rotatedFile, JSON.stringify({ current: newId, keys: { ...keys.keys, [newId]: randomUUID().replace(/-/g, '') + randomUUID().replace(/-/g, '') } }));
+    writeFileSync(
+      rotatedFile,
+      JSON.stringify({
+        current: newId,
+        keys: { ...keys.keys, [newId]: randomUUID().replace(/-/g, '') + randomUUID().replace(/-/g, '') },
+      }),
+    );
     const chain = await probeChain(2);
     const rotated = await startTestApp({ AUDIT_KEY_FILE: rotatedFile, AUDIT_RECEIPT_CRON: '' });
     try {
-      await rotated.dataSource.transaction((manager) => rotated.app.get(AuditService).record(manager, { chain, actor: null, action: 'probe.after-rotation' }));
+      await rotated.dataSource.transaction((manager) =>
+        rotated.app.get(AuditService).record(manager, { chain, actor: null, action: 'probe.after-rotation' }),
+      );
       const rows = await rowsOf(chain);
       expect(rows.map((r) => r.key_id)).toEqual([keys.current, keys.current, newId]);
       const [verdict] = await rotated.app.get(AuditService).verify([chain]);
@@ -193,7 +245,9 @@ describe('the keyed audit chain', () => {
       await rotated.close();
       rmSync(rotatedFile, { force: true });
       // The default configuration does not hold the test's new key: take the probe chain out of the shared database.
-      await asInsider('audit_event', () => testApp.dataSource.query(`DELETE FROM audit_event WHERE chain = $1`, [chain]));
+      await asInsider('audit_event', () =>
+        testApp.dataSource.query(`DELETE FROM audit_event WHERE chain = $1`, [chain]),
+      );
     }
   });
 
@@ -202,7 +256,16 @@ describe('the keyed audit chain', () => {
     let previous = GENESIS_HASH;
     for (let sequence = 1; sequence <= 3; sequence++) {
       const at = new Date(Date.UTC(2026, 0, sequence, 10));
-      const fields = { chain, sequence, at: at.toISOString(), actorId: null, action: 'legacy.event', subjectType: null, subjectId: null, data: { sequence } };
+      const fields = {
+        chain,
+        sequence,
+        at: at.toISOString(),
+        actorId: null,
+        action: 'legacy.event',
+        subjectType: null,
+        subjectId: null,
+        data: { sequence },
+      };
       const hash = chainHash(previous, fields);
       await testApp.dataSource.query(
         `INSERT INTO audit_event (chain, sequence, at, actor_email, action, data, previous_hash, hash) VALUES ($1, $2, $3, 'old@evenhand.test', 'legacy.event', $4, $5, $6)`,
@@ -215,11 +278,20 @@ describe('the keyed audit chain', () => {
     await audit.sealUnkeyedChains();
     await audit.sealUnkeyedChains();
     const rows = await rowsOf(chain);
-    expect(rows.map((r) => r.action)).toEqual(['legacy.event', 'legacy.event', 'legacy.event', 'audit.unkeyed-events-sealed']);
+    expect(rows.map((r) => r.action)).toEqual([
+      'legacy.event',
+      'legacy.event',
+      'legacy.event',
+      'audit.unkeyed-events-sealed',
+    ]);
     expect(rows[3].data).toMatchObject({ unkeyedThrough: 3 });
     expect((await audit.verify([chain]))[0]).toMatchObject({ events: 4, intact: true });
     const original = rows.slice(1, 2);
-    await asInsider('audit_event', () => testApp.dataSource.query(`UPDATE audit_event SET actor_email = 'forged@evenhand.test' WHERE id = $1`, [rows[1].id]));
+    await asInsider('audit_event', () =>
+      testApp.dataSource.query(`UPDATE audit_event SET actor_email = 'forged@evenhand.test' WHERE id = $1`, [
+        rows[1].id,
+      ]),
+    );
     try {
       expect((await audit.verify([chain]))[0].firstBreak).toEqual({ sequence: 4, reason: 'unkeyed-events-changed' });
     } finally {
@@ -229,8 +301,12 @@ describe('the keyed audit chain', () => {
 
   it('refuses to change or remove an audit receipt', async () => {
     const receipt = await expectStatus(auditor.post('/api/audit/receipts'), 201);
-    await expect(testApp.dataSource.query(`UPDATE audit_receipt SET mac = 'x' WHERE id = $1`, [receipt.id])).rejects.toThrow(/append-only/);
-    await expect(testApp.dataSource.query(`DELETE FROM audit_receipt WHERE id = $1`, [receipt.id])).rejects.toThrow(/append-only/);
+    await expect(
+      testApp.dataSource.query(`UPDATE audit_receipt SET mac = 'x' WHERE id = $1`, [receipt.id]),
+    ).rejects.toThrow(/append-only/);
+    await expect(testApp.dataSource.query(`DELETE FROM audit_receipt WHERE id = $1`, [receipt.id])).rejects.toThrow(
+      /append-only/,
+    );
   });
 });
 
@@ -249,12 +325,22 @@ describe('one record of assignment', () => {
     const randomization = testApp.app.get(RandomizationService);
     for (const [i, enrollmentId] of enrollments.entries()) {
       await testApp.dataSource.transaction(async (manager) => {
-        const outcome = await randomization.allocate(manager, { id: null, email: 'test-runner' }, { studyId, enrollmentId, covariates: { pretest: [10, 90, 20][i] } });
+        const outcome = await randomization.allocate(
+          manager,
+          { id: null, email: 'test-runner' },
+          { studyId, enrollmentId, covariates: { pretest: [10, 90, 20][i] } },
+        );
         // As signing does: the enrollment gets the allocation's condition in the same transaction.
-        await manager.query(`UPDATE enrollment SET status = 'assigned', condition_id = $1, stratum_key = $2 WHERE id = $3`, [outcome.conditionId, outcome.stratumKey, enrollmentId]);
+        await manager.query(
+          `UPDATE enrollment SET status = 'assigned', condition_id = $1, stratum_key = $2 WHERE id = $3`,
+          [outcome.conditionId, outcome.stratumKey, enrollmentId],
+        );
       });
     }
-    await expectStatus(researcher.post(`/api/studies/${studyId}/unblind`).send({ reason: 'Checking the record of assignment' }), 200);
+    await expectStatus(
+      researcher.post(`/api/studies/${studyId}/unblind`).send({ reason: 'Checking the record of assignment' }),
+      200,
+    );
   });
 
   const otherCondition = async (enrollmentId: string) => {
@@ -264,15 +350,27 @@ describe('one record of assignment', () => {
 
   it('refuses an enrollment condition that differs from its allocation', async () => {
     await expect(
-      testApp.dataSource.query(`UPDATE enrollment SET condition_id = $1 WHERE id = $2`, [await otherCondition(enrollments[0]), enrollments[0]]),
+      testApp.dataSource.query(`UPDATE enrollment SET condition_id = $1 WHERE id = $2`, [
+        await otherCondition(enrollments[0]),
+        enrollments[0],
+      ]),
     ).rejects.toThrow(/allocation/);
-    await expect(testApp.dataSource.query(`UPDATE enrollment SET condition_id = NULL WHERE id = $1`, [enrollments[0]])).rejects.toThrow(/allocation/);
+    await expect(
+      testApp.dataSource.query(`UPDATE enrollment SET condition_id = NULL WHERE id = $1`, [enrollments[0]]),
+    ).rejects.toThrow(/allocation/);
     expect((await expectStatus(researcher.get(`/api/studies/${studyId}/assignment/verify`), 200)).allMatch).toBe(true);
   });
 
   it('refuses to change or remove an allocation', async () => {
-    await expect(testApp.dataSource.query(`UPDATE allocation SET condition_id = $1 WHERE enrollment_id = $2`, [await otherCondition(enrollments[1]), enrollments[1]])).rejects.toThrow(/append-only/);
-    await expect(testApp.dataSource.query(`DELETE FROM allocation WHERE enrollment_id = $1`, [enrollments[1]])).rejects.toThrow(/append-only/);
+    await expect(
+      testApp.dataSource.query(`UPDATE allocation SET condition_id = $1 WHERE enrollment_id = $2`, [
+        await otherCondition(enrollments[1]),
+        enrollments[1],
+      ]),
+    ).rejects.toThrow(/append-only/);
+    await expect(
+      testApp.dataSource.query(`DELETE FROM allocation WHERE enrollment_id = $1`, [enrollments[1]]),
+    ).rejects.toThrow(/append-only/);
   });
 
   it('reports an enrollment whose condition was changed behind the database’s back', async () => {
@@ -288,7 +386,12 @@ describe('one record of assignment', () => {
     const report = await expectStatus(researcher.get(`/api/studies/${studyId}/assignment/verify`), 200);
     expect(report.allMatch).toBe(false);
     expect(report.enrollmentMismatches).toEqual([
-      expect.objectContaining({ enrollmentId: target, reason: 'differs-from-allocation', enrollment: { conditionId: forged, order: null }, allocation: { conditionId: before.condition_id, order: null } }),
+      expect.objectContaining({
+        enrollmentId: target,
+        reason: 'differs-from-allocation',
+        enrollment: { conditionId: forged, order: null },
+        allocation: { conditionId: before.condition_id, order: null },
+      }),
     ]);
     const check = report.checks.find((c: { enrollmentId: string }) => c.enrollmentId === target);
     expect(check).toMatchObject({ matches: true, enrollmentMatches: false });
@@ -303,18 +406,26 @@ describe('the sealed signed copy', () => {
     await expectStatus(coordinator.post(`/api/studies/${studyId}/open`), 200);
     const { browser } = await signedInParticipant(testApp);
     await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
-    await expectStatus(browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 70 } }), 200);
     await expectStatus(
-      browser.post(`/api/studies/${studyId}/enrollments/me/signature`).send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Sam Example' }),
+      browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 70 } }),
+      200,
+    );
+    await expectStatus(
+      browser
+        .post(`/api/studies/${studyId}/enrollments/me/signature`)
+        .send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Sam Example' }),
       201,
     );
     let pdf: Buffer | undefined;
     for (let i = 0; i < 120 && !pdf; i++) {
-      const response = await browser.get(`/api/studies/${studyId}/enrollments/me/consent.pdf`).buffer(true).parse((res, done) => {
-        const chunks: Buffer[] = [];
-        res.on('data', (chunk: Buffer) => chunks.push(chunk));
-        res.on('end', () => done(null, Buffer.concat(chunks)));
-      });
+      const response = await browser
+        .get(`/api/studies/${studyId}/enrollments/me/consent.pdf`)
+        .buffer(true)
+        .parse((res, done) => {
+          const chunks: Buffer[] = [];
+          res.on('data', (chunk: Buffer) => chunks.push(chunk));
+          res.on('end', () => done(null, Buffer.concat(chunks)));
+        });
       if (response.status === 200) pdf = response.body as Buffer;
       else await new Promise((resolve) => setTimeout(resolve, 250));
     }

@@ -19,14 +19,18 @@ describe('audit outbox and chainer', () => {
   afterAll(() => testApp?.close());
 
   const eventsOf = (chain: string) =>
-    testApp.dataSource.query(`SELECT sequence, action, subject_id FROM audit_event WHERE chain = $1 ORDER BY sequence`, [chain]) as Promise<
-      Array<{ sequence: number; action: string; subject_id: string }>
-    >;
-  const waiting = async (chain: string) => Number((await testApp.dataSource.query(`SELECT count(*) AS n FROM audit_outbox WHERE chain = $1`, [chain]))[0].n);
+    testApp.dataSource.query(
+      `SELECT sequence, action, subject_id FROM audit_event WHERE chain = $1 ORDER BY sequence`,
+      [chain],
+    ) as Promise<Array<{ sequence: number; action: string; subject_id: string }>>;
+  const waiting = async (chain: string) =>
+    Number((await testApp.dataSource.query(`SELECT count(*) AS n FROM audit_outbox WHERE chain = $1`, [chain]))[0].n);
 
   it('seals a committed event into its chain before the transaction call returns', async () => {
     const chain = `outbox-${randomUUID()}`;
-    await testApp.dataSource.transaction((manager) => audit.record(manager, { chain, actor: null, action: 'test.committed', subjectId: 'one' }));
+    await testApp.dataSource.transaction((manager) =>
+      audit.record(manager, { chain, actor: null, action: 'test.committed', subjectId: 'one' }),
+    );
     expect(await eventsOf(chain)).toEqual([{ sequence: 1, action: 'test.committed', subject_id: 'one' }]);
     expect(await waiting(chain)).toBe(0);
   });
@@ -69,15 +73,21 @@ describe('audit outbox and chainer', () => {
     expect(new Set(subjects).size).toBe(n);
     // A transaction's own events keep the order they were recorded in (others may be sealed between them).
     const sequenceOf = new Map(events.map((e) => [`${e.action}:${e.subject_id}`, e.sequence]));
-    for (let i = 0; i < n; i++) expect(sequenceOf.get(`test.concurrent:${i}`)!).toBeLessThan(sequenceOf.get(`test.concurrent-second:${i}`)!);
+    for (let i = 0; i < n; i++)
+      expect(sequenceOf.get(`test.concurrent:${i}`)!).toBeLessThan(sequenceOf.get(`test.concurrent-second:${i}`)!);
     expect(await waiting(chain)).toBe(0);
     expect(await audit.verify([chain])).toEqual([{ chain, events: 2 * n, intact: true, firstBreak: null }]);
   });
 
   it('seals rows left in the outbox by a process that stopped between commit and seal', async () => {
     const chain = `outbox-${randomUUID()}`;
-    await testApp.dataSource.transaction((manager) => audit.record(manager, { chain, actor: null, action: 'test.before-crash' }));
-    await testApp.dataSource.query(`INSERT INTO audit_outbox (chain, action, subject_id, data) VALUES ($1, 'test.left-behind', 'x', '{"n": 1}')`, [chain]);
+    await testApp.dataSource.transaction((manager) =>
+      audit.record(manager, { chain, actor: null, action: 'test.before-crash' }),
+    );
+    await testApp.dataSource.query(
+      `INSERT INTO audit_outbox (chain, action, subject_id, data) VALUES ($1, 'test.left-behind', 'x', '{"n": 1}')`,
+      [chain],
+    );
     await audit.sealWaiting();
     expect((await eventsOf(chain)).map((e) => e.action)).toEqual(['test.before-crash', 'test.left-behind']);
     expect(await waiting(chain)).toBe(0);

@@ -21,7 +21,15 @@ let otherReference: string;
 const today = () => new Date().toISOString().slice(0, 10);
 const dayAfter = (days: number) => new Date(Date.now() + days * 86_400_000).toISOString().slice(0, 10);
 
-type TrailItem = { sentence: string; family: string; name: string; action: string; actorId: string | null; participantReference: string | null; amount: { minor: number; currency: string } | null };
+type TrailItem = {
+  sentence: string;
+  family: string;
+  name: string;
+  action: string;
+  actorId: string | null;
+  participantReference: string | null;
+  amount: { minor: number; currency: string } | null;
+};
 
 beforeAll(async () => {
   testApp = await startTestApp({ AUDIT_RECEIPT_CRON: '' });
@@ -34,16 +42,30 @@ beforeAll(async () => {
   studyId = first.studyId;
   enrollmentId = first.enrollmentId;
   const me = await expectStatus(first.browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
-  await expectStatus(first.browser.post(`/api/studies/${studyId}/enrollments/me/steps/${me.steps[0].id}/complete`).send({ code: 'ONE-1111' }), 200);
+  await expectStatus(
+    first.browser
+      .post(`/api/studies/${studyId}/enrollments/me/steps/${me.steps[0].id}/complete`)
+      .send({ code: 'ONE-1111' }),
+    200,
+  );
   // Funded straight in the ledger: the provider's part of funding is tested in payouts.e2e-spec.ts.
   await testApp.dataSource.query(
     `INSERT INTO study_funding (study_id, payment_intent_id, amount_minor, currency, status, succeeded_at) VALUES ($1, $2, 5000, 'USD', 'succeeded', now())`,
     [studyId, `trail-${studyId}`],
   );
-  const payouts: Array<{ id: string }> = await testApp.dataSource.query(`SELECT id FROM payout WHERE enrollment_id = $1`, [enrollmentId]);
-  await expectStatus(coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: payouts.map((p) => p.id) }), 200);
+  const payouts: Array<{ id: string }> = await testApp.dataSource.query(
+    `SELECT id FROM payout WHERE enrollment_id = $1`,
+    [enrollmentId],
+  );
+  await expectStatus(
+    coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: payouts.map((p) => p.id) }),
+    200,
+  );
 
-  const [row] = await testApp.dataSource.query(`SELECT e.reference, s.slug FROM enrollment e JOIN study s ON s.id = e.study_id WHERE e.id = $1`, [enrollmentId]);
+  const [row] = await testApp.dataSource.query(
+    `SELECT e.reference, s.slug FROM enrollment e JOIN study s ON s.id = e.study_id WHERE e.id = $1`,
+    [enrollmentId],
+  );
   reference = row.reference;
   slug = row.slug;
 
@@ -55,7 +77,9 @@ afterAll(async () => {
   await testApp.close();
 });
 
-async function trail(query: Record<string, string | string[]>): Promise<{ items: TrailItem[]; total: number; page: number; pageSize: number }> {
+async function trail(
+  query: Record<string, string | string[]>,
+): Promise<{ items: TrailItem[]; total: number; page: number; pageSize: number }> {
   return expectStatus(auditor.get('/api/audit').query(query), 200);
 }
 
@@ -65,9 +89,17 @@ describe('the audit trail in plain words', () => {
     const sentences = page.items.map((item) => item.sentence);
     expect(sentences).toContain(`Participant ${reference} joined the study.`);
     expect(sentences).toContain(`Participant ${reference} signed consent version 1.`);
-    expect(sentences).toContain(`Participant ${reference} finished the step “Session 1”, checked with the step’s code; $10.00 is owed. That was their last step.`);
-    expect(sentences.find((s) => s.includes('approved'))).toMatch(/^Coordinator [A-Z]\. \S+ approved 1 payout, \$10\.00 in all\.$/);
-    expect(page.items.find((item) => item.action === 'payout.approved')).toMatchObject({ family: 'payouts', name: 'Payouts approved', amount: { minor: 1000, currency: 'USD' } });
+    expect(sentences).toContain(
+      `Participant ${reference} finished the step “Session 1”, checked with the step’s code; $10.00 is owed. That was their last step.`,
+    );
+    expect(sentences.find((s) => s.includes('approved'))).toMatch(
+      /^Coordinator [A-Z]\. \S+ approved 1 payout, \$10\.00 in all\.$/,
+    );
+    expect(page.items.find((item) => item.action === 'payout.approved')).toMatchObject({
+      family: 'payouts',
+      name: 'Payouts approved',
+      amount: { minor: 1000, currency: 'USD' },
+    });
     expect(sentences.join(' ')).not.toContain(otherReference);
     for (const item of page.items) {
       expect(ACTION_FAMILY_KEYS).toContain(item.family);
@@ -113,9 +145,16 @@ describe('the audit trail in plain words', () => {
     ];
     for (const [query, field] of cases) {
       const problem = await expectStatus(auditor.get('/api/audit').query(query), 400, 'VALIDATION_FAILED');
-      expect(problem.errors.map((e: { field: string }) => e.field), JSON.stringify(query)).toContain(field);
+      expect(
+        problem.errors.map((e: { field: string }) => e.field),
+        JSON.stringify(query),
+      ).toContain(field);
     }
-    const exportProblem = await expectStatus(auditor.get('/api/audit/export.csv').query({ to: 'yesterday' }), 400, 'VALIDATION_FAILED');
+    const exportProblem = await expectStatus(
+      auditor.get('/api/audit/export.csv').query({ to: 'yesterday' }),
+      400,
+      'VALIDATION_FAILED',
+    );
     expect(exportProblem.errors[0].field).toBe('to');
     // Paging belongs to the list, not to the export of the whole selection.
     await expectStatus(auditor.get('/api/audit/export.csv').query({ page: '2' }), 400, 'VALIDATION_FAILED');
@@ -133,15 +172,38 @@ describe('the audit trail in plain words', () => {
     expect(csv.text.charCodeAt(0)).toBe(0xfeff);
     const rows: Array<Record<string, string>> = parse(csv.text, { bom: true, columns: true });
     expect(rows).toHaveLength(listed.total);
-    expect(Object.keys(rows[0])).toEqual(['when_utc', 'study', 'kind', 'action', 'what_happened', 'by', 'participant', 'amount', 'currency', 'chain', 'link', 'hash', 'key_id', 'event_id']);
+    expect(Object.keys(rows[0])).toEqual([
+      'when_utc',
+      'study',
+      'kind',
+      'action',
+      'what_happened',
+      'by',
+      'participant',
+      'amount',
+      'currency',
+      'chain',
+      'link',
+      'hash',
+      'key_id',
+      'event_id',
+    ]);
     const approval = rows.find((row) => row.action === 'Payouts approved')!;
-    expect(approval).toMatchObject({ kind: 'Payouts', amount: '10.00', currency: 'USD', study: 'Test study', chain: studyId });
+    expect(approval).toMatchObject({
+      kind: 'Payouts',
+      amount: '10.00',
+      currency: 'USD',
+      study: 'Test study',
+      chain: studyId,
+    });
     expect(approval.what_happened).toMatch(/approved 1 payout, \$10\.00 in all\.$/);
     expect(rows.every((row) => row.participant === reference || row.participant === '')).toBe(true);
 
     const summary = await auditor.get('/api/audit/export-summary.txt').query(query).buffer(true);
     expect(summary.status).toBe(200);
-    expect(summary.headers['content-disposition']).toBe(`attachment; filename="audit-trail-${slug}-${today()}-verification.txt"`);
+    expect(summary.headers['content-disposition']).toBe(
+      `attachment; filename="audit-trail-${slug}-${today()}-verification.txt"`,
+    );
     const text = summary.text;
     expect(text).toContain(`SHA-256 of the file: ${createHash('sha256').update(csv.text, 'utf8').digest('hex')}`);
     expect(text).toContain(`File: audit-trail-${slug}-${today()}.csv`);
@@ -153,28 +215,49 @@ describe('the audit trail in plain words', () => {
   });
 
   it('names the first failing event in words when the chain is broken', async () => {
-    const [target] = await testApp.dataSource.query(`SELECT * FROM audit_event WHERE chain = $1 AND action = 'payout.approved'`, [studyId]);
+    const [target] = await testApp.dataSource.query(
+      `SELECT * FROM audit_event WHERE chain = $1 AND action = 'payout.approved'`,
+      [studyId],
+    );
     await testApp.dataSource.query(`ALTER TABLE audit_event DISABLE TRIGGER audit_event_append_only`);
     try {
-      await testApp.dataSource.query(`UPDATE audit_event SET data = jsonb_set(data, '{amountMinor}', '100000') WHERE id = $1`, [target.id]);
+      await testApp.dataSource.query(
+        `UPDATE audit_event SET data = jsonb_set(data, '{amountMinor}', '100000') WHERE id = $1`,
+        [target.id],
+      );
       const report = await expectStatus(auditor.get('/api/audit/verify'), 200);
       const finding = report.findings.find((f: { chain: string }) => f.chain === studyId);
-      expect(finding).toMatchObject({ sequence: target.sequence, reason: 'hash-mismatch', studyTitle: 'Test study', event: { name: 'Payouts approved' } });
+      expect(finding).toMatchObject({
+        sequence: target.sequence,
+        reason: 'hash-mismatch',
+        studyTitle: 'Test study',
+        event: { name: 'Payouts approved' },
+      });
       expect(finding.event.sentence).toMatch(/approved 1 payout, \$1,000\.00 in all\.$/);
       const summary = await auditor.get('/api/audit/export-summary.txt').query({ chain: studyId }).buffer(true);
       expect(summary.text).toContain('Verdict: NOT intact.');
       expect(summary.text).toMatch(/First failing event: event \d+ of chain .* It reads: Coordinator/);
     } finally {
-      await testApp.dataSource.query(`UPDATE audit_event SET data = $1 WHERE id = $2`, [JSON.stringify(target.data), target.id]);
+      await testApp.dataSource.query(`UPDATE audit_event SET data = $1 WHERE id = $2`, [
+        JSON.stringify(target.data),
+        target.id,
+      ]);
       await testApp.dataSource.query(`ALTER TABLE audit_event ENABLE TRIGGER audit_event_append_only`);
     }
-    expect((await expectStatus(auditor.get('/api/audit/verify'), 200)).findings.filter((f: { chain: string }) => f.chain === studyId)).toEqual([]);
+    expect(
+      (await expectStatus(auditor.get('/api/audit/verify'), 200)).findings.filter(
+        (f: { chain: string }) => f.chain === studyId,
+      ),
+    ).toEqual([]);
   });
 
   it('offers the families, staff and studies to filter by', async () => {
     const options = await expectStatus(auditor.get('/api/audit/filters'), 200);
     expect(options.families.map((f: { key: string }) => f.key)).toEqual([...ACTION_FAMILY_KEYS]);
-    expect(options.staff.find((s: { id: string }) => s.id === coordinatorId)).toMatchObject({ role: 'coordinator', phrase: expect.stringMatching(/^Coordinator /) });
+    expect(options.staff.find((s: { id: string }) => s.id === coordinatorId)).toMatchObject({
+      role: 'coordinator',
+      phrase: expect.stringMatching(/^Coordinator /),
+    });
     expect(options.staff.every((s: { role: string }) => s.role !== 'participant')).toBe(true);
     expect(options.studies.find((s: { id: string }) => s.id === studyId)).toMatchObject({ slug });
   });

@@ -48,7 +48,10 @@ describe('staff sign-in', () => {
 
   it('records a failed sign-in in the audit trail', async () => {
     await expectStatus(
-      testApp.browser().post('/api/auth/sign-in').send({ email: 'auditor@evenhand.test', password: 'wrong-password-x' }),
+      testApp
+        .browser()
+        .post('/api/auth/sign-in')
+        .send({ email: 'auditor@evenhand.test', password: 'wrong-password-x' }),
       401,
     );
     const [row] = await testApp.dataSource.query(
@@ -63,7 +66,10 @@ describe('staff sign-in', () => {
 
   it('signs out: the refresh token stops working', async () => {
     const browser = testApp.browser();
-    await expectStatus(browser.post('/api/auth/sign-in').send({ email: 'researcher@evenhand.test', password: 'evenhand-demo' }), 200);
+    await expectStatus(
+      browser.post('/api/auth/sign-in').send({ email: 'researcher@evenhand.test', password: 'evenhand-demo' }),
+      200,
+    );
     await expectStatus(browser.post('/api/auth/sign-out'), 204);
     await expectStatus(browser.get('/api/auth/me'), 401);
     await expectStatus(browser.post('/api/auth/refresh'), 401);
@@ -98,20 +104,29 @@ describe('participant sign-in by e-mailed link', () => {
   it('refuses an expired link', async () => {
     const email = uniqueAddress('expired');
     const token = await requestLinkAndReadToken(email);
-    await testApp.dataSource.query(`UPDATE sign_in_link SET expires_at = now() - interval '1 second' WHERE email = $1`, [email]);
+    await testApp.dataSource.query(
+      `UPDATE sign_in_link SET expires_at = now() - interval '1 second' WHERE email = $1`,
+      [email],
+    );
     await expectStatus(testApp.browser().post('/api/auth/sign-in-link/consume').send({ token }), 400, 'LINK_INVALID');
   });
 
   it('refuses an unknown token', async () => {
     await expectStatus(
-      testApp.browser().post('/api/auth/sign-in-link/consume').send({ token: 'x'.repeat(43) }),
+      testApp
+        .browser()
+        .post('/api/auth/sign-in-link/consume')
+        .send({ token: 'x'.repeat(43) }),
       400,
       'LINK_INVALID',
     );
   });
 
   it('answers the same for a staff address but sends it no link', async () => {
-    const answer = await expectStatus(testApp.browser().post('/api/auth/sign-in-link').send({ email: 'admin@evenhand.test' }), 202);
+    const answer = await expectStatus(
+      testApp.browser().post('/api/auth/sign-in-link').send({ email: 'admin@evenhand.test' }),
+      202,
+    );
     expect(answer).toEqual({ sent: true });
     const rows = await testApp.dataSource.query(`SELECT 1 FROM sign_in_link WHERE email = 'admin@evenhand.test'`);
     expect(rows).toHaveLength(0);
@@ -121,22 +136,33 @@ describe('participant sign-in by e-mailed link', () => {
     const email = uniqueAddress('no-password');
     const token = await requestLinkAndReadToken(email);
     await expectStatus(testApp.browser().post('/api/auth/sign-in-link/consume').send({ token }), 200);
-    await expectStatus(testApp.browser().post('/api/auth/sign-in').send({ email, password: 'anything-at-all' }), 401, 'INVALID_CREDENTIALS');
+    await expectStatus(
+      testApp.browser().post('/api/auth/sign-in').send({ email, password: 'anything-at-all' }),
+      401,
+      'INVALID_CREDENTIALS',
+    );
   });
 });
 
 describe('refresh tokens', () => {
   async function signedInBrowser() {
     const browser = testApp.browser();
-    const response = await browser.post('/api/auth/sign-in').send({ email: 'coordinator@evenhand.test', password: 'evenhand-demo' }).expect(200);
-    const refresh = cookiesOf(response).find((c) => c.startsWith('eh_refresh='))!.split(';')[0];
+    const response = await browser
+      .post('/api/auth/sign-in')
+      .send({ email: 'coordinator@evenhand.test', password: 'evenhand-demo' })
+      .expect(200);
+    const refresh = cookiesOf(response)
+      .find((c) => c.startsWith('eh_refresh='))!
+      .split(';')[0];
     return { browser, refresh };
   }
 
   it('rotates the refresh token on every refresh', async () => {
     const { browser, refresh } = await signedInBrowser();
     const response = await browser.post('/api/auth/refresh').expect(200);
-    const rotated = cookiesOf(response).find((c) => c.startsWith('eh_refresh='))!.split(';')[0];
+    const rotated = cookiesOf(response)
+      .find((c) => c.startsWith('eh_refresh='))!
+      .split(';')[0];
     expect(rotated).not.toBe(refresh);
     await expectStatus(browser.get('/api/auth/me'), 200);
   });
@@ -145,7 +171,10 @@ describe('refresh tokens', () => {
     const { browser, refresh: stolen } = await signedInBrowser();
     await expectStatus(browser.post('/api/auth/refresh'), 200);
     // Past the grace window that lets two tabs refresh at once (see hardening.e2e-spec.ts).
-    await testApp.dataSource.query(`UPDATE refresh_token SET replaced_at = now() - interval '1 hour' WHERE token_hash = encode(sha256($1::bytea), 'hex')`, [stolen.split('=')[1]]);
+    await testApp.dataSource.query(
+      `UPDATE refresh_token SET replaced_at = now() - interval '1 hour' WHERE token_hash = encode(sha256($1::bytea), 'hex')`,
+      [stolen.split('=')[1]],
+    );
     // An attacker replays the first token after the rightful owner has already rotated it.
     await expectStatus(testApp.browser().post('/api/auth/refresh').set('Cookie', stolen), 401, 'UNAUTHENTICATED');
     // The owner's current token belongs to the revoked family now, so it fails too.

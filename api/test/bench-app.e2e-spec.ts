@@ -46,17 +46,27 @@ describe('the bare-INSERT baseline route', () => {
   const saved = { ...process.env };
   afterAll(() => restoreEnvironment(saved));
 
-  it('is served by the benchmark\'s HTTP app, in the same app that writes audit events', async () => {
+  it("is served by the benchmark's HTTP app, in the same app that writes audit events", async () => {
     const { app, baseUrl } = await bootBenchHttpApp(process.env.DATABASE_URL!, 4);
     try {
       const before = Number((await app.get(DataSource).query(`SELECT count(*) AS n FROM bench_scratch`))[0].n);
-      const response = await fetch(`${baseUrl}/bench/bare-insert`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: '{}' });
+      const response = await fetch(`${baseUrl}/bench/bare-insert`, {
+        method: 'POST',
+        headers: { 'content-type': 'application/json' },
+        body: '{}',
+      });
       expect(response.status).toBe(200);
       const after = Number((await app.get(DataSource).query(`SELECT count(*) AS n FROM bench_scratch`))[0].n);
       expect(after).toBe(before + 1);
       const chain = `bench-http-${randomUUID()}`;
-      await app.get(DataSource).transaction((manager) => app.get(AuditService).record(manager, { chain, actor: null, action: 'bench.checked' }));
-      expect(await app.get(DataSource).query(`SELECT count(*)::int AS n FROM audit_event WHERE chain = $1`, [chain])).toEqual([{ n: 1 }]);
+      await app
+        .get(DataSource)
+        .transaction((manager) =>
+          app.get(AuditService).record(manager, { chain, actor: null, action: 'bench.checked' }),
+        );
+      expect(
+        await app.get(DataSource).query(`SELECT count(*)::int AS n FROM audit_event WHERE chain = $1`, [chain]),
+      ).toEqual([{ n: 1 }]);
     } finally {
       await app.close();
       restoreEnvironment(saved);
@@ -66,7 +76,11 @@ describe('the bare-INSERT baseline route', () => {
   it('does not exist in the api itself', async () => {
     const testApp = await startTestApp();
     try {
-      const response = await testApp.browser().post('/api/bench/bare-insert').set('content-type', 'application/json').send({});
+      const response = await testApp
+        .browser()
+        .post('/api/bench/bare-insert')
+        .set('content-type', 'application/json')
+        .send({});
       expect(response.status).toBe(404);
     } finally {
       await testApp.close();

@@ -40,7 +40,11 @@ function nested(depth: number): string {
 describe('bodies the api refuses before reading them', () => {
   it('answers JSON nested thousands of levels deep with a 400, also on anonymous sign-in', async () => {
     const body = await expectStatus(
-      testApp.browser().post('/api/auth/sign-in-link').set('content-type', 'application/json').send(`{"email":${nested(3000)}}`),
+      testApp
+        .browser()
+        .post('/api/auth/sign-in-link')
+        .set('content-type', 'application/json')
+        .send(`{"email":${nested(3000)}}`),
       400,
       'VALIDATION_FAILED',
     );
@@ -49,7 +53,11 @@ describe('bodies the api refuses before reading them', () => {
 
   it('answers a body over the size limit with 413 in the problem shape', async () => {
     const big = JSON.stringify({ email: 'someone@example.test', studySlug: 'x'.repeat(2 * 1024 * 1024) });
-    await expectStatus(testApp.browser().post('/api/auth/sign-in-link').set('content-type', 'application/json').send(big), 413, 'PAYLOAD_TOO_LARGE');
+    await expectStatus(
+      testApp.browser().post('/api/auth/sign-in-link').set('content-type', 'application/json').send(big),
+      413,
+      'PAYLOAD_TOO_LARGE',
+    );
   });
 });
 
@@ -57,20 +65,42 @@ describe('null where a field cannot be null', () => {
   it('names the field on the study, condition, step, user and consent-draft routes', async () => {
     const admin = await signedInStaff(testApp, 'admin');
     const { studyId, conditionIds } = await draftBetweenStudy(admin);
-    const step = (await expectStatus(admin.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 500 }), 201)).items[0];
+    const step = (
+      await expectStatus(admin.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 500 }), 201)
+    ).items[0];
     const draft = await expectStatus(
-      admin.post(`/api/studies/${studyId}/consent-versions`).send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
+      admin
+        .post(`/api/studies/${studyId}/consent-versions`)
+        .send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
       201,
     );
-    const [staff] = await testApp.dataSource.query(`SELECT id FROM user_account WHERE email = 'researcher@evenhand.test'`);
+    const [staff] = await testApp.dataSource.query(
+      `SELECT id FROM user_account WHERE email = 'researcher@evenhand.test'`,
+    );
 
     const cases: Array<[string, ReturnType<typeof admin.patch>, string]> = [
       ['study', admin.patch(`/api/studies/${studyId}`).send({ title: null }), 'title'],
-      ['condition', admin.patch(`/api/studies/${studyId}/conditions/${conditionIds[0]}`).send({ participantLabel: null }), 'participantLabel'],
+      [
+        'condition',
+        admin.patch(`/api/studies/${studyId}/conditions/${conditionIds[0]}`).send({ participantLabel: null }),
+        'participantLabel',
+      ],
       ['step', admin.patch(`/api/studies/${studyId}/steps/${step.id}`).send({ title: null }), 'title'],
       ['user', admin.patch(`/api/users/${staff.id}`).send({ name: null }), 'name'],
-      ['consent draft', admin.post(`/api/studies/${studyId}/consent-versions`).send({ templateId: 'consent/minimal-risk-paid-study', values: null }), 'values'],
-      ['consent refill', admin.post(`/api/studies/${studyId}/consent-versions/${draft.id}/refill`).send({ values: { ...FULL_CONSENT_VALUES, studyPurpose: null } }), 'values.studyPurpose'],
+      [
+        'consent draft',
+        admin
+          .post(`/api/studies/${studyId}/consent-versions`)
+          .send({ templateId: 'consent/minimal-risk-paid-study', values: null }),
+        'values',
+      ],
+      [
+        'consent refill',
+        admin
+          .post(`/api/studies/${studyId}/consent-versions/${draft.id}/refill`)
+          .send({ values: { ...FULL_CONSENT_VALUES, studyPurpose: null } }),
+        'values.studyPurpose',
+      ],
     ];
     for (const [name, pending, field] of cases) {
       const body = await expectStatus(pending, 400, 'VALIDATION_FAILED').catch((error: Error) => {
@@ -83,16 +113,34 @@ describe('null where a field cannot be null', () => {
   it('still takes null where the contract says a field may be null', async () => {
     const admin = await signedInStaff(testApp, 'admin');
     const { studyId } = await draftBetweenStudy(admin);
-    const step = (await expectStatus(admin.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 500 }), 201)).items[0];
-    await expectStatus(admin.put(`/api/studies/${studyId}/steps/${step.id}`).send({ verification: 'staff', taskUrl: null, opensAfterDays: 0, opensFrom: 'assignment', dueWithinDays: null }), 200);
+    const step = (
+      await expectStatus(admin.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 500 }), 201)
+    ).items[0];
+    await expectStatus(
+      admin.put(`/api/studies/${studyId}/steps/${step.id}`).send({
+        verification: 'staff',
+        taskUrl: null,
+        opensAfterDays: 0,
+        opensFrom: 'assignment',
+        dueWithinDays: null,
+      }),
+      200,
+    );
   });
 });
 
 describe('strings the database cannot store', () => {
   it('refuses a NUL character in an anonymous e-mail field, naming it', async () => {
-    const body = await expectStatus(testApp.browser().post('/api/auth/sign-in-link').send({ email: 'nul\u0000@example.test' }), 400, 'VALIDATION_FAILED');
+    const body = await expectStatus(
+      testApp.browser().post('/api/auth/sign-in-link').send({ email: 'nul\u0000@example.test' }),
+      400,
+      'VALIDATION_FAILED',
+    );
     expect(fieldsOf(body)).toEqual(['email']);
-    const signIn = await expectStatus(testApp.browser().post('/api/auth/sign-in').send({ email: 'admin@evenhand.test\u0000', password: 'x' }), 400);
+    const signIn = await expectStatus(
+      testApp.browser().post('/api/auth/sign-in').send({ email: 'admin@evenhand.test\u0000', password: 'x' }),
+      400,
+    );
     expect(fieldsOf(signIn)).toEqual(['email']);
   });
 
@@ -100,12 +148,18 @@ describe('strings the database cannot store', () => {
     const admin = await signedInStaff(testApp, 'admin');
     const { studyId } = await draftBetweenStudy(admin);
     const title = await expectStatus(
-      admin.patch(`/api/studies/${studyId}`).set('content-type', 'application/json').send('{"title":"broken \\ud800 title"}'),
+      admin
+        .patch(`/api/studies/${studyId}`)
+        .set('content-type', 'application/json')
+        .send('{"title":"broken \\ud800 title"}'),
       400,
     );
     expect(fieldsOf(title)).toEqual(['title']);
     const nestedValue = await expectStatus(
-      admin.post(`/api/studies/${studyId}/consent-versions`).send({ templateId: 'consent/minimal-risk-paid-study', values: { ...FULL_CONSENT_VALUES, investigatorName: 'Dr \u0000' } }),
+      admin.post(`/api/studies/${studyId}/consent-versions`).send({
+        templateId: 'consent/minimal-risk-paid-study',
+        values: { ...FULL_CONSENT_VALUES, investigatorName: 'Dr \u0000' },
+      }),
       400,
     );
     expect(fieldsOf(nestedValue)).toEqual(['values.investigatorName']);
@@ -123,10 +177,17 @@ describe('list pages', () => {
   it('refuses a page number past any real page on the roster, payouts, audit and users lists', async () => {
     const admin = await signedInStaff(testApp, 'admin');
     const { studyId } = await draftBetweenStudy(admin);
-    for (const path of [`/api/studies/${studyId}/enrollments`, `/api/studies/${studyId}/payouts`, '/api/audit', '/api/users']) {
-      const body = await expectStatus(admin.get(`${path}?page=99999999999999999999`), 400, 'VALIDATION_FAILED').catch((error: Error) => {
-        throw new Error(`${path}: ${error.message}`);
-      });
+    for (const path of [
+      `/api/studies/${studyId}/enrollments`,
+      `/api/studies/${studyId}/payouts`,
+      '/api/audit',
+      '/api/users',
+    ]) {
+      const body = await expectStatus(admin.get(`${path}?page=99999999999999999999`), 400, 'VALIDATION_FAILED').catch(
+        (error: Error) => {
+          throw new Error(`${path}: ${error.message}`);
+        },
+      );
       expect(fieldsOf(body), path).toEqual(['page']);
     }
   });
@@ -138,10 +199,16 @@ describe('uploads', () => {
     const { studyId } = await draftBetweenStudy(admin);
     const email = uniqueAddress('long-name');
     const csv = `email,name,pretest\n${email},${'N'.repeat(4 * 1024 * 1024 - 200)},70\n`;
-    const result = await expectStatus(admin.post(`/api/studies/${studyId}/enrollments/import`).attach('file', Buffer.from(csv), 'roster.csv'), 200);
+    const result = await expectStatus(
+      admin.post(`/api/studies/${studyId}/enrollments/import`).attach('file', Buffer.from(csv), 'roster.csv'),
+      200,
+    );
     expect(result.created).toBe(0);
     expect(result.errors).toEqual([expect.objectContaining({ line: 2, field: 'name' })]);
-    const rows = await testApp.dataSource.query(`SELECT 1 FROM enrollment e JOIN user_account u ON u.id = e.participant_id WHERE u.email = $1`, [email]);
+    const rows = await testApp.dataSource.query(
+      `SELECT 1 FROM enrollment e JOIN user_account u ON u.id = e.participant_id WHERE u.email = $1`,
+      [email],
+    );
     expect(rows).toHaveLength(0);
   });
 
@@ -150,26 +217,40 @@ describe('uploads', () => {
     const { studyId } = await draftBetweenStudy(admin);
     await expectStatus(admin.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 500 }), 201);
     const draft = await expectStatus(
-      admin.post(`/api/studies/${studyId}/consent-versions`).send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
+      admin
+        .post(`/api/studies/${studyId}/consent-versions`)
+        .send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
       201,
     );
     const fake = Buffer.concat([Buffer.from('%PDF-1.7\n'), Buffer.alloc(4000, 0x41)]);
     const body = await expectStatus(
-      admin.post(`/api/studies/${studyId}/consent-versions/${draft.id}/approval-letter`).attach('letter', fake, 'approval.pdf'),
+      admin
+        .post(`/api/studies/${studyId}/consent-versions/${draft.id}/approval-letter`)
+        .attach('letter', fake, 'approval.pdf'),
       415,
       'UNSUPPORTED_MEDIA_TYPE',
     );
     expect(fieldsOf(body)).toEqual(['letter']);
     // A real one still goes through.
-    await expectStatus(admin.post(`/api/studies/${studyId}/consent-versions/${draft.id}/approval-letter`).attach('letter', TINY_PDF, 'approval.pdf'), 200);
+    await expectStatus(
+      admin
+        .post(`/api/studies/${studyId}/consent-versions/${draft.id}/approval-letter`)
+        .attach('letter', TINY_PDF, 'approval.pdf'),
+      200,
+    );
   });
 });
 
 describe('sessions', () => {
   it('ends the session at once on sign-out: the access cookie stops working', async () => {
     const browser = testApp.browser();
-    const response = await browser.post('/api/auth/sign-in').send({ email: 'researcher@evenhand.test', password: 'evenhand-demo' }).expect(200);
-    const access = cookiesOf(response).find((c) => c.startsWith('eh_access='))!.split(';')[0];
+    const response = await browser
+      .post('/api/auth/sign-in')
+      .send({ email: 'researcher@evenhand.test', password: 'evenhand-demo' })
+      .expect(200);
+    const access = cookiesOf(response)
+      .find((c) => c.startsWith('eh_access='))!
+      .split(';')[0];
     await expectStatus(testApp.browser().get('/api/auth/me').set('Cookie', access), 200);
     await expectStatus(browser.post('/api/auth/sign-out'), 204);
     await expectStatus(testApp.browser().get('/api/auth/me').set('Cookie', access), 401, 'UNAUTHENTICATED');
@@ -177,14 +258,22 @@ describe('sessions', () => {
 
   it('gives two tabs refreshing at once the same new pair, and both keep working', async () => {
     const browser = testApp.browser();
-    const response = await browser.post('/api/auth/sign-in').send({ email: 'coordinator@evenhand.test', password: 'evenhand-demo' }).expect(200);
-    const refresh = cookiesOf(response).find((c) => c.startsWith('eh_refresh='))!.split(';')[0];
+    const response = await browser
+      .post('/api/auth/sign-in')
+      .send({ email: 'coordinator@evenhand.test', password: 'evenhand-demo' })
+      .expect(200);
+    const refresh = cookiesOf(response)
+      .find((c) => c.startsWith('eh_refresh='))!
+      .split(';')[0];
     const [first, second] = await Promise.all([
       testApp.browser().post('/api/auth/refresh').set('Cookie', refresh),
       testApp.browser().post('/api/auth/refresh').set('Cookie', refresh),
     ]);
     expect([first.status, second.status]).toEqual([200, 200]);
-    const next = (r: typeof first, name: string) => cookiesOf(r).find((c) => c.startsWith(`${name}=`))!.split(';')[0];
+    const next = (r: typeof first, name: string) =>
+      cookiesOf(r)
+        .find((c) => c.startsWith(`${name}=`))!
+        .split(';')[0];
     expect(next(first, 'eh_refresh')).toBe(next(second, 'eh_refresh'));
     expect(next(first, 'eh_refresh')).not.toBe(refresh);
     await expectStatus(testApp.browser().get('/api/auth/me').set('Cookie', next(second, 'eh_access')), 200);
@@ -194,10 +283,17 @@ describe('sessions', () => {
 
   it('still treats a replayed token after the grace window as theft', async () => {
     const browser = testApp.browser();
-    const response = await browser.post('/api/auth/sign-in').send({ email: 'coordinator@evenhand.test', password: 'evenhand-demo' }).expect(200);
-    const refresh = cookiesOf(response).find((c) => c.startsWith('eh_refresh='))!.split(';')[0];
+    const response = await browser
+      .post('/api/auth/sign-in')
+      .send({ email: 'coordinator@evenhand.test', password: 'evenhand-demo' })
+      .expect(200);
+    const refresh = cookiesOf(response)
+      .find((c) => c.startsWith('eh_refresh='))!
+      .split(';')[0];
     await expectStatus(browser.post('/api/auth/refresh'), 200);
-    await testApp.dataSource.query(`UPDATE refresh_token SET replaced_at = now() - interval '1 hour' WHERE replaced_at IS NOT NULL AND revoked_at IS NULL`);
+    await testApp.dataSource.query(
+      `UPDATE refresh_token SET replaced_at = now() - interval '1 hour' WHERE replaced_at IS NOT NULL AND revoked_at IS NULL`,
+    );
     await expectStatus(testApp.browser().post('/api/auth/refresh').set('Cookie', refresh), 401, 'UNAUTHENTICATED');
     await expectStatus(browser.post('/api/auth/refresh'), 401, 'UNAUTHENTICATED');
   });
@@ -219,7 +315,14 @@ describe('sign-in rate limits', () => {
       }
       expect(statuses).toEqual([401, 401, 401, 401, 401, 429, 429, 429]);
       // The link request shares the client's budget.
-      await expectStatus(limited.browser().post('/api/auth/sign-in-link').send({ email: uniqueAddress('spray') }), 429, 'RATE_LIMITED');
+      await expectStatus(
+        limited
+          .browser()
+          .post('/api/auth/sign-in-link')
+          .send({ email: uniqueAddress('spray') }),
+        429,
+        'RATE_LIMITED',
+      );
     } finally {
       await limited.dataSource.query(`DELETE FROM rate_limit_window`);
       await limited.close();
@@ -227,7 +330,12 @@ describe('sign-in rate limits', () => {
   });
 
   it('limits one e-mail address tried from many clients behind a trusted proxy', async () => {
-    const limited = await startTestApp({ SIGN_IN_LIMIT: '3', SIGN_IN_CLIENT_LIMIT: '50', SIGN_IN_WINDOW_SECONDS: '60', TRUST_PROXY: 'loopback' });
+    const limited = await startTestApp({
+      SIGN_IN_LIMIT: '3',
+      SIGN_IN_CLIENT_LIMIT: '50',
+      SIGN_IN_WINDOW_SECONDS: '60',
+      TRUST_PROXY: 'loopback',
+    });
     try {
       await limited.dataSource.query(`DELETE FROM rate_limit_window`);
       const statuses: number[] = [];
@@ -261,7 +369,9 @@ describe('sign-in link requests', () => {
     const [{ since }] = await testApp.dataSource.query(`SELECT now() AS since`);
     try {
       for (const email of ['admin@evenhand.test', unknown]) {
-        expect(await expectStatus(quiet.browser().post('/api/auth/sign-in-link').send({ email }), 202)).toEqual({ sent: true });
+        expect(await expectStatus(quiet.browser().post('/api/auth/sign-in-link').send({ email }), 202)).toEqual({
+          sent: true,
+        });
       }
       expect(lookups).not.toHaveBeenCalled();
       expect(mails).not.toHaveBeenCalled();
@@ -284,25 +394,38 @@ describe('sign-in link requests', () => {
       );
       expect(pending.n).toBe(0);
     });
-    expect(await testApp.dataSource.query(`SELECT 1 FROM sign_in_link WHERE email = 'admin@evenhand.test'`)).toHaveLength(0);
+    expect(
+      await testApp.dataSource.query(`SELECT 1 FROM sign_in_link WHERE email = 'admin@evenhand.test'`),
+    ).toHaveLength(0);
   });
 });
 
 describe('cross-site requests', () => {
   it('accepts only application/json on JSON routes', async () => {
     await expectStatus(
-      testApp.browser().post('/api/auth/sign-in').type('form').send('email=admin%40evenhand.test&password=evenhand-demo'),
+      testApp
+        .browser()
+        .post('/api/auth/sign-in')
+        .type('form')
+        .send('email=admin%40evenhand.test&password=evenhand-demo'),
       415,
       'UNSUPPORTED_MEDIA_TYPE',
     );
     await expectStatus(
-      testApp.browser().post('/api/auth/sign-in').set('content-type', 'text/plain').send('{"email":"admin@evenhand.test","password":"evenhand-demo"}'),
+      testApp
+        .browser()
+        .post('/api/auth/sign-in')
+        .set('content-type', 'text/plain')
+        .send('{"email":"admin@evenhand.test","password":"evenhand-demo"}'),
       415,
       'UNSUPPORTED_MEDIA_TYPE',
     );
     const admin = await signedInStaff(testApp, 'admin');
     const { studyId } = await draftBetweenStudy(admin);
-    await expectStatus(admin.patch(`/api/studies/${studyId}`).set('content-type', 'text/plain').send('{"title":"Changed"}'), 415);
+    await expectStatus(
+      admin.patch(`/api/studies/${studyId}`).set('content-type', 'text/plain').send('{"title":"Changed"}'),
+      415,
+    );
     // A body-less action needs no content type.
     await expectStatus(admin.get(`/api/studies/${studyId}`), 200);
   });
@@ -310,15 +433,36 @@ describe('cross-site requests', () => {
   it('refuses a state-changing request from a foreign origin, and takes the portal and admin origins', async () => {
     const admin = await signedInStaff(testApp, 'admin');
     const { studyId } = await draftBetweenStudy(admin);
-    await expectStatus(admin.patch(`/api/studies/${studyId}`).set('Origin', 'https://evil.example').send({ title: 'Hijacked' }), 403, 'FORBIDDEN');
-    await expectStatus(testApp.browser().post('/api/auth/sign-in').set('Origin', 'https://evil.example').send({ email: 'admin@evenhand.test', password: 'evenhand-demo' }), 403);
+    await expectStatus(
+      admin.patch(`/api/studies/${studyId}`).set('Origin', 'https://evil.example').send({ title: 'Hijacked' }),
+      403,
+      'FORBIDDEN',
+    );
+    await expectStatus(
+      testApp
+        .browser()
+        .post('/api/auth/sign-in')
+        .set('Origin', 'https://evil.example')
+        .send({ email: 'admin@evenhand.test', password: 'evenhand-demo' }),
+      403,
+    );
     await expectStatus(admin.patch(`/api/studies/${studyId}`).set('Origin', 'null').send({ title: 'Sandboxed' }), 403);
     const [study] = await testApp.dataSource.query(`SELECT title FROM study WHERE id = $1`, [studyId]);
     expect(study.title).toBe('Test study');
 
-    await expectStatus(admin.patch(`/api/studies/${studyId}`).set('Origin', new URL(process.env.ADMIN_URL ?? 'http://127.0.0.1:5174').origin).send({ title: 'From admin' }), 200);
     await expectStatus(
-      testApp.browser().post('/api/auth/sign-in-link').set('Origin', new URL(process.env.PORTAL_URL ?? 'http://127.0.0.1:5173').origin).send({ email: uniqueAddress('portal') }),
+      admin
+        .patch(`/api/studies/${studyId}`)
+        .set('Origin', new URL(process.env.ADMIN_URL ?? 'http://127.0.0.1:5174').origin)
+        .send({ title: 'From admin' }),
+      200,
+    );
+    await expectStatus(
+      testApp
+        .browser()
+        .post('/api/auth/sign-in-link')
+        .set('Origin', new URL(process.env.PORTAL_URL ?? 'http://127.0.0.1:5173').origin)
+        .send({ email: uniqueAddress('portal') }),
       202,
     );
     // Reading is not state-changing.

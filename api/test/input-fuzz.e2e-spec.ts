@@ -50,15 +50,29 @@ beforeAll(async () => {
   testApp = await startTestApp({ RUN_WORKERS: 'false' });
   admin = await signedInStaff(testApp, 'admin');
   const { studyId, conditionIds } = await draftBetweenStudy(admin);
-  const step = (await expectStatus(admin.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 500 }), 201)).items[0];
+  const step = (
+    await expectStatus(admin.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 500 }), 201)
+  ).items[0];
   const draft = await expectStatus(
-    admin.post(`/api/studies/${studyId}/consent-versions`).send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
+    admin
+      .post(`/api/studies/${studyId}/consent-versions`)
+      .send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
     201,
   );
   const [enrollmentId] = await insertEnrollments(testApp, studyId, [{ pretest: 70 }]);
-  const [staff] = await testApp.dataSource.query(`SELECT id FROM user_account WHERE email = 'researcher@evenhand.test'`);
+  const [staff] = await testApp.dataSource.query(
+    `SELECT id FROM user_account WHERE email = 'researcher@evenhand.test'`,
+  );
   const [study] = await testApp.dataSource.query(`SELECT slug FROM study WHERE id = $1`, [studyId]);
-  Object.assign(pathIds, { studyId, conditionId: conditionIds[0], stepId: step.id, versionId: draft.id, enrollmentId, id: staff.id, slug: study.slug });
+  Object.assign(pathIds, {
+    studyId,
+    conditionId: conditionIds[0],
+    stepId: step.id,
+    versionId: draft.id,
+    enrollmentId,
+    id: staff.id,
+    slug: study.slug,
+  });
   document = buildOpenApiDocument(testApp.app);
 });
 afterAll(async () => {
@@ -83,8 +97,11 @@ function operations(): Operation[] {
       if (!operation) continue;
       const path = template.replace(/\{([^}]+)\}/g, (_, name: string) => pathIds[name] ?? UNKNOWN_ID);
       const json = operation.requestBody?.content?.['application/json']?.schema as Schema | undefined;
-      const queryParameters = (operation.parameters ?? []).filter((p: { in: string }) => p.in === 'query').map((p: { name: string }) => p.name);
-      if (json || queryParameters.length) found.push({ method, template, path, schema: json ? resolve(json) : null, queryParameters });
+      const queryParameters = (operation.parameters ?? [])
+        .filter((p: { in: string }) => p.in === 'query')
+        .map((p: { name: string }) => p.name);
+      if (json || queryParameters.length)
+        found.push({ method, template, path, schema: json ? resolve(json) : null, queryParameters });
     }
   }
   return found;
@@ -108,7 +125,11 @@ function wrongTypeFor(schema: Schema): unknown {
 }
 
 const unstorable = fc
-  .tuple(fc.string({ maxLength: 12 }), fc.constantFrom('\u0000', '\ud800', '\udfff', '\udc00x\ud83d'), fc.string({ maxLength: 12 }))
+  .tuple(
+    fc.string({ maxLength: 12 }),
+    fc.constantFrom('\u0000', '\ud800', '\udfff', '\udc00x\ud83d'),
+    fc.string({ maxLength: 12 }),
+  )
   .map(([a, bad, b]) => `${a}${bad}${b}`);
 
 /** Malformed bodies for one operation's schema: each is invalid whatever the other fields hold. */
@@ -123,16 +144,50 @@ function malformedBodies(schema: Schema): fc.Arbitrary<Input> {
       kind: 'deep nesting',
       raw: `{${JSON.stringify(name)}:${'{"a":['.repeat(depth)}1${']}'.repeat(depth)}}`,
     })),
-    fc.tuple(field, unstorable).map(([name, text]) => ({ kind: 'NUL/surrogate string', raw: JSON.stringify({ [name]: text }) })),
-    fc.tuple(field, fc.constantFrom('99999999999999999999999', '1e400', '-1e400', '1.7976931348623157e308', '123456789012345678901234567890.5')).map(([name, number]) => ({
-      kind: 'huge number',
-      raw: `{${JSON.stringify(name)}:${number}}`,
-    })),
-    fc.tuple(field, fc.constantFrom(300_000, 2_500_000)).map(([name, length]) => ({ kind: 'huge string', raw: JSON.stringify({ [name]: 'x'.repeat(length) }) })),
-    fc.constantFrom('[]', '[{}]', '"text"', '42', 'true', 'null', '{"__proto__":{"admin":true}}', '{"constructor":{"prototype":{}}}').map((raw) => ({ kind: 'wrong top level', raw })),
+    fc
+      .tuple(field, unstorable)
+      .map(([name, text]) => ({ kind: 'NUL/surrogate string', raw: JSON.stringify({ [name]: text }) })),
+    fc
+      .tuple(
+        field,
+        fc.constantFrom(
+          '99999999999999999999999',
+          '1e400',
+          '-1e400',
+          '1.7976931348623157e308',
+          '123456789012345678901234567890.5',
+        ),
+      )
+      .map(([name, number]) => ({
+        kind: 'huge number',
+        raw: `{${JSON.stringify(name)}:${number}}`,
+      })),
+    fc
+      .tuple(field, fc.constantFrom(300_000, 2_500_000))
+      .map(([name, length]) => ({ kind: 'huge string', raw: JSON.stringify({ [name]: 'x'.repeat(length) }) })),
+    fc
+      .constantFrom(
+        '[]',
+        '[{}]',
+        '"text"',
+        '42',
+        'true',
+        'null',
+        '{"__proto__":{"admin":true}}',
+        '{"constructor":{"prototype":{}}}',
+      )
+      .map((raw) => ({ kind: 'wrong top level', raw })),
   ];
-  if (notNullable.length) kinds.push(fc.constantFrom(...notNullable).map((name) => ({ kind: 'null', raw: JSON.stringify({ [name]: null }) })));
-  if (typed.length) kinds.push(fc.constantFrom(...typed).map(([name, p]) => ({ kind: 'wrong type', raw: JSON.stringify({ [name]: wrongTypeFor(p) }) })));
+  if (notNullable.length)
+    kinds.push(
+      fc.constantFrom(...notNullable).map((name) => ({ kind: 'null', raw: JSON.stringify({ [name]: null }) })),
+    );
+  if (typed.length)
+    kinds.push(
+      fc
+        .constantFrom(...typed)
+        .map(([name, p]) => ({ kind: 'wrong type', raw: JSON.stringify({ [name]: wrongTypeFor(p) }) })),
+    );
   return fc.oneof(...kinds);
 }
 
@@ -140,7 +195,13 @@ function malformedQueries(parameters: string[]): fc.Arbitrary<string> {
   const value = fc.oneof(
     fc.constantFrom('99999999999999999999', '-1', '0', '1e400', 'NaN', 'abc', '1.5', ''),
     // NUL, and UTF-8 byte sequences that would decode to surrogates.
-    fc.tuple(fc.constantFrom('a', 'text'), fc.constantFrom('%00', '%ED%A0%80', '%ED%BF%BF', '%C0%80'), fc.constantFrom('', 'b')).map(([a, bad, b]) => `${a}${bad}${b}`),
+    fc
+      .tuple(
+        fc.constantFrom('a', 'text'),
+        fc.constantFrom('%00', '%ED%A0%80', '%ED%BF%BF', '%C0%80'),
+        fc.constantFrom('', 'b'),
+      )
+      .map(([a, bad, b]) => `${a}${bad}${b}`),
     fc.constantFrom('x'.repeat(5_000)),
   );
   return fc
@@ -176,7 +237,8 @@ async function rowCounts(): Promise<Record<string, number>> {
      ORDER BY table_name`,
   );
   const counts: Record<string, number> = {};
-  for (const { name } of tables) counts[name] = Number((await testApp.dataSource.query(`SELECT count(*)::int AS n FROM "${name}"`))[0].n);
+  for (const { name } of tables)
+    counts[name] = Number((await testApp.dataSource.query(`SELECT count(*)::int AS n FROM "${name}"`))[0].n);
   return counts;
 }
 
@@ -195,16 +257,26 @@ describe('malformed input on every JSON operation', () => {
       for (const operation of jsonOperations) {
         const inputs = fc.sample(malformedBodies(operation.schema!), { seed: SEED, numRuns: INPUTS_PER_OPERATION });
         for (const input of inputs) {
-          const response = await client()[operation.method](operation.path).set('content-type', 'application/json').send(input.raw);
+          const agent = client();
+          const response = await agent[operation.method](operation.path)
+            .set('content-type', 'application/json')
+            .send(input.raw);
           sent += 1;
           const label = `${who} ${operation.method.toUpperCase()} ${operation.template} [${input.kind}] ${input.raw.slice(0, 80)} → ${response.status}`;
           if (response.status >= 500) serverErrors.push(`${label} ${JSON.stringify(response.body).slice(0, 200)}`);
           else if (response.status < 400) accepted.push(label);
-          else expect(response.body, label).toMatchObject({ statusCode: response.status, code: expect.any(String), message: expect.any(String) });
+          else
+            expect(response.body, label).toMatchObject({
+              statusCode: response.status,
+              code: expect.any(String),
+              message: expect.any(String),
+            });
         }
       }
     }
-    console.info(`input fuzz: ${jsonOperations.length} JSON operations × ${INPUTS_PER_OPERATION} bodies × 2 callers = ${sent} requests; ${serverErrors.length} answered 5xx`);
+    console.info(
+      `input fuzz: ${jsonOperations.length} JSON operations × ${INPUTS_PER_OPERATION} bodies × 2 callers = ${sent} requests; ${serverErrors.length} answered 5xx`,
+    );
     expect(serverErrors).toEqual([]);
     expect(accepted).toEqual([]);
     expect(await rowCounts()).toEqual(before);
@@ -218,7 +290,10 @@ describe('malformed input on every JSON operation', () => {
       for (const path of stringPaths(operation.schema!)) {
         const response = await admin[operation.method](operation.path).send(bodyWith(path, huge));
         sent += 1;
-        if (response.status < 400 || response.status >= 500) accepted.push(`${operation.method.toUpperCase()} ${operation.template} ${path.join('.')} → ${response.status}`);
+        if (response.status < 400 || response.status >= 500)
+          accepted.push(
+            `${operation.method.toUpperCase()} ${operation.template} ${path.join('.')} → ${response.status}`,
+          );
       }
     }
     console.info(`string bounds: ${sent} string fields sent 300,000 characters`);
@@ -232,13 +307,21 @@ describe('malformed input on every JSON operation', () => {
     const serverErrors: string[] = [];
     let sent = 0;
     for (const operation of queried) {
-      for (const query of fc.sample(malformedQueries(operation.queryParameters), { seed: SEED, numRuns: INPUTS_PER_OPERATION })) {
+      for (const query of fc.sample(malformedQueries(operation.queryParameters), {
+        seed: SEED,
+        numRuns: INPUTS_PER_OPERATION,
+      })) {
         const response = await admin[operation.method](`${operation.path}?${query}`);
         sent += 1;
-        if (response.status >= 500) serverErrors.push(`${operation.method.toUpperCase()} ${operation.template}?${query.slice(0, 80)} → ${response.status}`);
+        if (response.status >= 500)
+          serverErrors.push(
+            `${operation.method.toUpperCase()} ${operation.template}?${query.slice(0, 80)} → ${response.status}`,
+          );
       }
     }
-    console.info(`query fuzz: ${queried.length} operations × ${INPUTS_PER_OPERATION} query strings = ${sent} requests; ${serverErrors.length} answered 5xx`);
+    console.info(
+      `query fuzz: ${queried.length} operations × ${INPUTS_PER_OPERATION} query strings = ${sent} requests; ${serverErrors.length} answered 5xx`,
+    );
     expect(serverErrors).toEqual([]);
   }, 300_000);
 });

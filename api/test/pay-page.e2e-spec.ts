@@ -45,7 +45,10 @@ interface Row {
 async function allRows(studyId: string, query: Record<string, string> = {}): Promise<Row[]> {
   const rows: Row[] = [];
   for (let page = 1; ; page++) {
-    const answer = await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts`).query({ ...query, page, pageSize: 500 }), 200);
+    const answer = await expectStatus(
+      coordinator.get(`/api/studies/${studyId}/payouts`).query({ ...query, page, pageSize: 500 }),
+      200,
+    );
     rows.push(...answer.items);
     if (answer.items.length < 500) return rows;
   }
@@ -54,18 +57,35 @@ async function allRows(studyId: string, query: Record<string, string> = {}): Pro
 /** One study, one coded step; Ada finishes payout set-up, Bo does not. */
 async function studyWithTwoPayees() {
   const { studyId } = await draftBetweenStudy(coordinator);
-  const steps = await expectStatus(coordinator.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 1000 }), 201);
+  const steps = await expectStatus(
+    coordinator.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 1000 }),
+    201,
+  );
   const step = steps.items.find((s: { title: string }) => s.title === 'Session 1');
-  await expectStatus(coordinator.put(`/api/studies/${studyId}/steps/${step.id}/completion-code`).send({ code: 'ONE-1111' }), 200);
+  await expectStatus(
+    coordinator.put(`/api/studies/${studyId}/steps/${step.id}/completion-code`).send({ code: 'ONE-1111' }),
+    200,
+  );
   const version = await activeConsentVersion(coordinator, studyId);
   await expectStatus(coordinator.post(`/api/studies/${studyId}/open`), 200);
   const people = [];
   for (const name of ['ada', 'bo']) {
     const { browser, email } = await signedInParticipant(testApp, name);
     await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
-    await expectStatus(browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 60 } }), 200);
-    await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/signature`).send({ versionId: version.id, fingerprint: version.fingerprint, typedName: `Pat ${name}` }), 201);
-    await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/steps/${step.id}/complete`).send({ code: 'ONE-1111' }), 200);
+    await expectStatus(
+      browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 60 } }),
+      200,
+    );
+    await expectStatus(
+      browser
+        .post(`/api/studies/${studyId}/enrollments/me/signature`)
+        .send({ versionId: version.id, fingerprint: version.fingerprint, typedName: `Pat ${name}` }),
+      201,
+    );
+    await expectStatus(
+      browser.post(`/api/studies/${studyId}/enrollments/me/steps/${step.id}/complete`).send({ code: 'ONE-1111' }),
+      200,
+    );
     const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
     people.push({ browser, email, enrollmentId: me.id as string });
   }
@@ -85,9 +105,15 @@ describe('the Pay page', () => {
     await onboard(ada.browser);
     await fund(coordinator, provider, studyId, 50_000);
     const rows = await allRows(studyId);
-    const stepPayOf = (enrollmentId: string) => rows.find((r) => r.enrollmentId === enrollmentId && r.amountMinor === 1000)!;
+    const stepPayOf = (enrollmentId: string) =>
+      rows.find((r) => r.enrollmentId === enrollmentId && r.amountMinor === 1000)!;
     // Bo has not set up payouts: his approved payout fails and needs attention; Ada's is paid.
-    await expectStatus(coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: [stepPayOf(bo.enrollmentId).id, stepPayOf(ada.enrollmentId).id] }), 200);
+    await expectStatus(
+      coordinator
+        .post(`/api/studies/${studyId}/payouts/approve`)
+        .send({ payoutIds: [stepPayOf(bo.enrollmentId).id, stepPayOf(ada.enrollmentId).id] }),
+      200,
+    );
     await eventually(async () => {
       const now = await allRows(studyId);
       return now.filter((r) => r.status === 'paid' || r.status === 'failed').length === 2;
@@ -145,7 +171,11 @@ describe('the Pay page', () => {
     expect(oldest).toEqual([...oldest].sort());
     const history = await allRows(studyId, { enrollmentId: ada.enrollmentId });
     expect(history.map((r) => r.id).sort()).toEqual(found.map((r) => r.id).sort());
-    const bad = await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts`).query({ sort: 'sideways' }), 400, 'VALIDATION_FAILED');
+    const bad = await expectStatus(
+      coordinator.get(`/api/studies/${studyId}/payouts`).query({ sort: 'sideways' }),
+      400,
+      'VALIDATION_FAILED',
+    );
     expect(bad.errors[0].field).toBe('sort');
   });
 
@@ -154,7 +184,9 @@ describe('the Pay page', () => {
     expect(paid.receiptNumber).toBe(`${slug}-0001`);
     expect(paid.providerTransferId).toMatch(/^tr_/);
     const mine = await expectStatus(ada.browser.get('/api/me/payouts'), 200);
-    expect(mine.items.find((p: { status: string }) => p.status === 'paid')).toMatchObject({ receipt: paid.receiptNumber });
+    expect(mine.items.find((p: { status: string }) => p.status === 'paid')).toMatchObject({
+      receipt: paid.receiptNumber,
+    });
     const receipt = await waitForMail(ada.email, 20_000, /receipt/i);
     expect(receipt.text).toContain(`Receipt number: ${paid.receiptNumber}`);
   });
@@ -162,28 +194,45 @@ describe('the Pay page', () => {
   it('shows no provider identifier on any participant-facing answer or e-mail', async () => {
     const { studyId, ada, bo } = setup;
     for (const person of [ada, bo]) {
-      for (const path of ['/api/me/payouts', '/api/me/payout-account', `/api/studies/${studyId}/enrollments/me`, '/api/auth/me']) {
+      for (const path of [
+        '/api/me/payouts',
+        '/api/me/payout-account',
+        `/api/studies/${studyId}/enrollments/me`,
+        '/api/auth/me',
+      ]) {
         const body = await expectStatus(person.browser.get(path), 200);
         expect(JSON.stringify(body), path).not.toMatch(PROVIDER_ID);
       }
-      const mail = (await (await fetch(`${MAILBOX_URL}/api/email`)).json()) as Array<{ to: Array<{ address: string }>; subject: string; text: string; html: string }>;
+      const mail = (await (await fetch(`${MAILBOX_URL}/api/email`)).json()) as Array<{
+        to: Array<{ address: string }>;
+        subject: string;
+        text: string;
+        html: string;
+      }>;
       const theirs = mail.filter((m) => m.to.some((to) => to.address.toLowerCase() === person.email.toLowerCase()));
       expect(theirs.length).toBeGreaterThan(0);
-      for (const message of theirs) expect(`${message.subject}\n${message.text}\n${message.html ?? ''}`, message.subject).not.toMatch(PROVIDER_ID);
+      for (const message of theirs)
+        expect(`${message.subject}\n${message.text}\n${message.html ?? ''}`, message.subject).not.toMatch(PROVIDER_ID);
     }
   });
 
   it('exports a period for the finance office: totals per participant, tax threshold, units and minor units, named by slug and period', async () => {
     const { studyId, slug, ada } = setup;
     const today = new Date().toISOString().slice(0, 10);
-    const response = await coordinator.get(`/api/studies/${studyId}/payouts/finance-export.csv`).query({ from: today, to: today }).buffer(true).parse((res, done) => {
-      const chunks: Buffer[] = [];
-      res.on('data', (chunk: Buffer) => chunks.push(chunk));
-      res.on('end', () => done(null, Buffer.concat(chunks)));
-    });
+    const response = await coordinator
+      .get(`/api/studies/${studyId}/payouts/finance-export.csv`)
+      .query({ from: today, to: today })
+      .buffer(true)
+      .parse((res, done) => {
+        const chunks: Buffer[] = [];
+        res.on('data', (chunk: Buffer) => chunks.push(chunk));
+        res.on('end', () => done(null, Buffer.concat(chunks)));
+      });
     expect(response.status).toBe(200);
     expect(response.headers['content-type']).toMatch(/text\/csv/);
-    expect(response.headers['content-disposition']).toBe(`attachment; filename="${slug}-payments-${today}-to-${today}.csv"`);
+    expect(response.headers['content-disposition']).toBe(
+      `attachment; filename="${slug}-payments-${today}-to-${today}.csv"`,
+    );
     const bytes = response.body as Buffer;
     expect([...bytes.subarray(0, 3)]).toEqual([0xef, 0xbb, 0xbf]);
     const lines = bytes.subarray(3).toString('utf8').trim().split(/\r?\n/);
@@ -192,9 +241,17 @@ describe('the Pay page', () => {
     );
     const adaReference = (await allRows(studyId, { enrollmentId: ada.enrollmentId }))[0].reference;
     expect(lines.slice(1)).toEqual([`${adaReference},1,10.00,1000,USD,10.00,1000,2000.00,under`]);
-    const bad = await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts/finance-export.csv`).query({ from: today, to: '2020-01-01' }), 400, 'VALIDATION_FAILED');
+    const bad = await expectStatus(
+      coordinator.get(`/api/studies/${studyId}/payouts/finance-export.csv`).query({ from: today, to: '2020-01-01' }),
+      400,
+      'VALIDATION_FAILED',
+    );
     expect(bad.errors[0].field).toBe('to');
-    const malformed = await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts/finance-export.csv`).query({ from: 'yesterday', to: today }), 400, 'VALIDATION_FAILED');
+    const malformed = await expectStatus(
+      coordinator.get(`/api/studies/${studyId}/payouts/finance-export.csv`).query({ from: 'yesterday', to: today }),
+      400,
+      'VALIDATION_FAILED',
+    );
     expect(malformed.errors[0].field).toBe('from');
   });
 });

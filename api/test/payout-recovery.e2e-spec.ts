@@ -71,7 +71,11 @@ describe('payouts through a provider outage', () => {
       await providerFaults();
     }
     for (const id of ids) await expectStatus(coordinator.post(`/api/payouts/${id}/retry`), 200);
-    await eventually(async () => (await payoutStatuses(testApp, studyId)).every((r) => r.status === 'paid'), 'every payout paid after the retry', 120_000);
+    await eventually(
+      async () => (await payoutStatuses(testApp, studyId)).every((r) => r.status === 'paid'),
+      'every payout paid after the retry',
+      120_000,
+    );
     // A paid payout cannot be sent again: its own code, so a screen can say so without reading the sentence.
     await expectStatus(coordinator.post(`/api/payouts/${ids[0]}/retry`), 409, 'PAYOUT_NOT_RETRYABLE');
     const transfers = await provider.transfers.list({ transfer_group: `study_${studyId}`, limit: 100 });
@@ -90,7 +94,11 @@ describe('payouts through a provider outage', () => {
     await providerFaults({ failNext: { status: 500, count: 30 } });
     try {
       await expectStatus(coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: ids }), 200);
-      await eventually(async () => (await payoutStatuses(testApp, studyId)).every((r) => r.status === 'paid'), 'every payout paid', 240_000);
+      await eventually(
+        async () => (await payoutStatuses(testApp, studyId)).every((r) => r.status === 'paid'),
+        'every payout paid',
+        240_000,
+      );
     } finally {
       await providerFaults();
     }
@@ -112,7 +120,13 @@ describe('the sweeper', () => {
     try {
       // A sender that reached the provider and died before recording it, and one that died before sending.
       const transfer = await provider.transfers.create(
-        { amount: 100, currency: 'usd', destination, transfer_group: `study_${studyId}`, metadata: { payoutId: reached, studyId } },
+        {
+          amount: 100,
+          currency: 'usd',
+          destination,
+          transfer_group: `study_${studyId}`,
+          metadata: { payoutId: reached, studyId },
+        },
         { idempotencyKey: reached },
       );
       await testApp.dataSource.query(
@@ -126,7 +140,10 @@ describe('the sweeper', () => {
       expect(rows.get(reached)).toMatchObject({ status: 'paid', provider_transfer_id: transfer.id });
       expect(rows.get(lost)).toMatchObject({ status: 'failed', provider_transfer_id: null });
       expect(rows.get(lost)!.failure_reason).toMatch(/no transfer/i);
-      expect(await expectStatus(coordinator.get(`/api/studies/${studyId}/budget`), 200)).toMatchObject({ committedMinor: 0, paidMinor: 100 });
+      expect(await expectStatus(coordinator.get(`/api/studies/${studyId}/budget`), 200)).toMatchObject({
+        committedMinor: 0,
+        paidMinor: 100,
+      });
       // Sweeping again changes nothing.
       await testApp.app.get(PayoutRecoveryService).sweep();
       expect((await payoutStatuses(testApp, studyId)).map((r) => r.status).sort()).toEqual(['failed', 'paid']);
@@ -134,7 +151,10 @@ describe('the sweeper', () => {
       await providerFaults();
     }
     await expectStatus(coordinator.post(`/api/payouts/${lost}/retry`), 200);
-    await eventually(async () => (await payoutStatuses(testApp, studyId)).every((r) => r.status === 'paid'), 'the retried payout paid');
+    await eventually(
+      async () => (await payoutStatuses(testApp, studyId)).every((r) => r.status === 'paid'),
+      'the retried payout paid',
+    );
     const transfers = await provider.transfers.list({ transfer_group: `study_${studyId}`, limit: 100 });
     expect(transfers.data.map((t) => t.metadata?.payoutId).sort()).toEqual([reached, lost].sort());
     const reconciliation = await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts/reconciliation`), 200);
@@ -142,7 +162,9 @@ describe('the sweeper', () => {
   }, 180_000);
 
   it('runs on a schedule in the job queue', async () => {
-    const rows: Array<{ cron: string }> = await testApp.dataSource.query(`SELECT cron FROM job_queue.schedule WHERE name = 'payout.sweep'`);
+    const rows: Array<{ cron: string }> = await testApp.dataSource.query(
+      `SELECT cron FROM job_queue.schedule WHERE name = 'payout.sweep'`,
+    );
     expect(rows).toHaveLength(1);
   });
 });
@@ -152,12 +174,18 @@ describe('funding while the provider is down', () => {
     const { studyId } = await draftBetweenStudy(coordinator);
     await providerFaults({ failNext: { status: 500, count: 100 } });
     try {
-      const problem = await expectStatus(coordinator.post(`/api/studies/${studyId}/funding`).send({ amountMinor: 5000 }), 503, 'PROVIDER_UNAVAILABLE');
+      const problem = await expectStatus(
+        coordinator.post(`/api/studies/${studyId}/funding`).send({ amountMinor: 5000 }),
+        503,
+        'PROVIDER_UNAVAILABLE',
+      );
       expect(problem.message).toMatch(/payment provider/i);
     } finally {
       await providerFaults();
     }
-    expect(await testApp.dataSource.query(`SELECT 1 FROM study_funding WHERE study_id = $1`, [studyId])).toHaveLength(0);
+    expect(await testApp.dataSource.query(`SELECT 1 FROM study_funding WHERE study_id = $1`, [studyId])).toHaveLength(
+      0,
+    );
     await expectStatus(coordinator.post(`/api/studies/${studyId}/funding`).send({ amountMinor: 5000 }), 201);
   });
 });
@@ -165,16 +193,37 @@ describe('funding while the provider is down', () => {
 describe('webhook order, time window and shape', () => {
   const now = () => Math.floor(Date.now() / 1000);
 
-  function post(payload: string, header = provider.webhooks.generateTestHeaderString({ payload, secret: WEBHOOK_SECRET })) {
-    return testApp.browser().post('/api/webhooks/payments').set('Stripe-Signature', header).set('Content-Type', 'application/json').send(payload);
+  function post(
+    payload: string,
+    header = provider.webhooks.generateTestHeaderString({ payload, secret: WEBHOOK_SECRET }),
+  ) {
+    return testApp
+      .browser()
+      .post('/api/webhooks/payments')
+      .set('Stripe-Signature', header)
+      .set('Content-Type', 'application/json')
+      .send(payload);
   }
 
   function event(id: string, type: string, created: number, object: unknown) {
-    return JSON.stringify({ id, object: 'event', api_version: '2026-10-28.endive', created, type, livemode: false, pending_webhooks: 1, request: { id: null, idempotency_key: null }, data: { object } });
+    return JSON.stringify({
+      id,
+      object: 'event',
+      api_version: '2026-10-28.endive',
+      created,
+      type,
+      livemode: false,
+      pending_webhooks: 1,
+      request: { id: null, idempotency_key: null },
+      data: { object },
+    });
   }
 
   async function payoutsEnabled(accountId: string): Promise<boolean> {
-    const [row] = await testApp.dataSource.query(`SELECT payouts_enabled FROM payout_account WHERE provider_account_id = $1`, [accountId]);
+    const [row] = await testApp.dataSource.query(
+      `SELECT payouts_enabled FROM payout_account WHERE provider_account_id = $1`,
+      [accountId],
+    );
     return row.payouts_enabled;
   }
 
@@ -183,15 +232,26 @@ describe('webhook order, time window and shape', () => {
     await onboard(browser);
     const accountId = await providerAccountOf(enrollmentId);
     const current = await provider.accounts.retrieve(accountId);
-    const [latest] = (await provider.events.list({ type: 'account.updated', limit: 100 }, { stripeAccount: accountId })).data;
+    const [latest] = (await provider.events.list({ type: 'account.updated', limit: 100 }, { stripeAccount: accountId }))
+      .data;
     expect(latest).toBeDefined();
-    const switchedOff = { ...current, payouts_enabled: false, details_submitted: false, capabilities: { transfers: 'inactive' } };
+    const switchedOff = {
+      ...current,
+      payouts_enabled: false,
+      details_submitted: false,
+      capabilities: { transfers: 'inactive' },
+    };
 
     // Sent before onboarding finished, delivered after: older than what was applied.
-    const stale = await expectStatus(post(event(`evt_stale_${accountId}`, 'account.updated', latest.created - 60, switchedOff)), 200);
+    const stale = await expectStatus(
+      post(event(`evt_stale_${accountId}`, 'account.updated', latest.created - 60, switchedOff)),
+      200,
+    );
     expect(stale).toMatchObject({ received: true, duplicate: false });
     expect(await payoutsEnabled(accountId)).toBe(true);
-    const [stored] = await testApp.dataSource.query(`SELECT 1 FROM provider_event WHERE provider_event_id = $1`, [`evt_stale_${accountId}`]);
+    const [stored] = await testApp.dataSource.query(`SELECT 1 FROM provider_event WHERE provider_event_id = $1`, [
+      `evt_stale_${accountId}`,
+    ]);
     expect(stored).toBeDefined();
 
     await expectStatus(post(event(`evt_newer_${accountId}`, 'account.updated', latest.created + 1, switchedOff)), 200);
@@ -199,23 +259,66 @@ describe('webhook order, time window and shape', () => {
   });
 
   it('refuses a signature stamped outside five minutes either way, and accepts one inside', async () => {
-    const payload = event(`evt_window_${now()}`, 'balance.available', now(), { object: 'balance', available: [], pending: [] });
+    const payload = event(`evt_window_${now()}`, 'balance.available', now(), {
+      object: 'balance',
+      available: [],
+      pending: [],
+    });
     for (const offset of [400, -400]) {
-      const header = provider.webhooks.generateTestHeaderString({ payload, secret: WEBHOOK_SECRET, timestamp: now() + offset });
+      const header = provider.webhooks.generateTestHeaderString({
+        payload,
+        secret: WEBHOOK_SECRET,
+        timestamp: now() + offset,
+      });
       const refused = await expectStatus(post(payload, header), 400, 'VALIDATION_FAILED');
       expect(refused.errors).toEqual([{ field: 'Stripe-Signature', message: expect.stringMatching(/timestamp/i) }]);
     }
-    expect(await testApp.dataSource.query(`SELECT 1 FROM provider_event WHERE provider_event_id = $1`, [JSON.parse(payload).id])).toHaveLength(0);
-    const header = provider.webhooks.generateTestHeaderString({ payload, secret: WEBHOOK_SECRET, timestamp: now() + 200 });
+    expect(
+      await testApp.dataSource.query(`SELECT 1 FROM provider_event WHERE provider_event_id = $1`, [
+        JSON.parse(payload).id,
+      ]),
+    ).toHaveLength(0);
+    const header = provider.webhooks.generateTestHeaderString({
+      payload,
+      secret: WEBHOOK_SECRET,
+      timestamp: now() + 200,
+    });
     await expectStatus(post(payload, header), 200);
   });
 
   it('answers 400 naming what is missing when a correctly signed webhook is malformed, and stores nothing', async () => {
     const cases: Array<[string, string[]]> = [
       ['{}', ['id', 'type', 'created', 'data']],
-      [JSON.stringify({ id: 'evt_malformed_null', object: 'event', type: 'account.updated', created: now(), data: { object: null } }), ['data.object']],
-      [JSON.stringify({ id: 'evt_malformed_noid', object: 'event', type: 'transfer.created', created: now(), data: { object: { object: 'transfer' } } }), ['data.object.id']],
-      [JSON.stringify({ id: 'evt_malformed_created', object: 'event', type: 'account.updated', created: 'yesterday', data: { object: { id: 'acct_1' } } }), ['created']],
+      [
+        JSON.stringify({
+          id: 'evt_malformed_null',
+          object: 'event',
+          type: 'account.updated',
+          created: now(),
+          data: { object: null },
+        }),
+        ['data.object'],
+      ],
+      [
+        JSON.stringify({
+          id: 'evt_malformed_noid',
+          object: 'event',
+          type: 'transfer.created',
+          created: now(),
+          data: { object: { object: 'transfer' } },
+        }),
+        ['data.object.id'],
+      ],
+      [
+        JSON.stringify({
+          id: 'evt_malformed_created',
+          object: 'event',
+          type: 'account.updated',
+          created: 'yesterday',
+          data: { object: { id: 'acct_1' } },
+        }),
+        ['created'],
+      ],
       ['[1, 2]', ['body']],
     ];
     for (const [payload, fields] of cases) {
@@ -224,6 +327,8 @@ describe('webhook order, time window and shape', () => {
     }
     // A signed body that is not JSON at all never reaches the webhook: the app's JSON parser refuses it as sent.
     await expectStatus(post('not json at all'), 400);
-    expect(await testApp.dataSource.query(`SELECT 1 FROM provider_event WHERE provider_event_id LIKE 'evt_malformed_%'`)).toHaveLength(0);
+    expect(
+      await testApp.dataSource.query(`SELECT 1 FROM provider_event WHERE provider_event_id LIKE 'evt_malformed_%'`),
+    ).toHaveLength(0);
   });
 });

@@ -19,7 +19,11 @@ beforeAll(async () => {
   testApp = await startTestApp({ JOB_RETRY_DELAY_SECONDS: '1' });
   await testApp.app.listen(WEBHOOK_PORT, '127.0.0.1');
   coordinator = await signedInStaff(testApp, 'coordinator');
-  provider = new Stripe('sk_test_evenhand_local', { host: '127.0.0.1', port: Number(process.env.STRIPE_PORT ?? 3200), protocol: 'http' });
+  provider = new Stripe('sk_test_evenhand_local', {
+    host: '127.0.0.1',
+    port: Number(process.env.STRIPE_PORT ?? 3200),
+    protocol: 'http',
+  });
   await fetch(`${PROVIDER_URL}/_control/faults`, { method: 'DELETE' });
 });
 afterAll(async () => {
@@ -27,7 +31,11 @@ afterAll(async () => {
   await testApp.close();
 });
 
-async function eventually<T>(check: () => Promise<T | undefined | false>, what: string, timeoutMs = 30_000): Promise<T> {
+async function eventually<T>(
+  check: () => Promise<T | undefined | false>,
+  what: string,
+  timeoutMs = 30_000,
+): Promise<T> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const value = await check();
@@ -40,7 +48,10 @@ async function eventually<T>(check: () => Promise<T | undefined | false>, what: 
 /** A recruiting study with two coded steps, and a participant who has signed and set up payouts. */
 async function paidStudyWithParticipant() {
   const { studyId } = await draftBetweenStudy(coordinator);
-  for (const [title, payMinor, code] of [['Session 1', 1000, 'ONE-1111'], ['Session 2', 1500, 'TWO-2222']] as const) {
+  for (const [title, payMinor, code] of [
+    ['Session 1', 1000, 'ONE-1111'],
+    ['Session 2', 1500, 'TWO-2222'],
+  ] as const) {
     const steps = await expectStatus(coordinator.post(`/api/studies/${studyId}/steps`).send({ title, payMinor }), 201);
     const step = steps.items.find((s: { title: string }) => s.title === title);
     await expectStatus(coordinator.put(`/api/studies/${studyId}/steps/${step.id}/completion-code`).send({ code }), 200);
@@ -49,9 +60,14 @@ async function paidStudyWithParticipant() {
   await expectStatus(coordinator.post(`/api/studies/${studyId}/open`), 200);
   const { browser, email } = await signedInParticipant(testApp, 'payee');
   await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
-  await expectStatus(browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 60 } }), 200);
   await expectStatus(
-    browser.post(`/api/studies/${studyId}/enrollments/me/signature`).send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Pat Payee' }),
+    browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 60 } }),
+    200,
+  );
+  await expectStatus(
+    browser
+      .post(`/api/studies/${studyId}/enrollments/me/signature`)
+      .send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Pat Payee' }),
     201,
   );
   const steps = (await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200)).steps;
@@ -71,7 +87,10 @@ async function onboard(browser: Browser) {
   });
   expect(done.status).toBe(303);
   expect(done.headers.get('location')).toContain('/payouts?onboarding=done');
-  await eventually(async () => (await expectStatus(browser.get('/api/me/payout-account'), 200)).payoutsEnabled, 'payouts enabled');
+  await eventually(
+    async () => (await expectStatus(browser.get('/api/me/payout-account'), 200)).payoutsEnabled,
+    'payouts enabled',
+  );
 }
 
 /** Funds the study as the admin's card form does: a payment intent confirmed with a test card. */
@@ -79,32 +98,65 @@ async function fund(studyId: string, amountMinor: number) {
   const intent = await expectStatus(coordinator.post(`/api/studies/${studyId}/funding`).send({ amountMinor }), 201);
   const paymentIntentId = intent.clientSecret.split('_secret_')[0];
   await provider.paymentIntents.confirm(paymentIntentId, { payment_method: 'pm_card_visa' });
-  await eventually(async () => (await expectStatus(coordinator.get(`/api/studies/${studyId}/budget`), 200)).fundedMinor >= amountMinor, 'funding');
+  await eventually(
+    async () => (await expectStatus(coordinator.get(`/api/studies/${studyId}/budget`), 200)).fundedMinor >= amountMinor,
+    'funding',
+  );
 }
 
 describe('completing steps', () => {
   it('owes the step pay for a correct code, refuses a wrong one by field, and limits guessing', async () => {
     const { studyId, browser, steps } = await paidStudyWithParticipant();
-    const wrong = await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[0].id}/complete`).send({ code: 'nope' }), 400, 'VALIDATION_FAILED');
+    const wrong = await expectStatus(
+      browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[0].id}/complete`).send({ code: 'nope' }),
+      400,
+      'VALIDATION_FAILED',
+    );
     expect(wrong.errors[0].field).toBe('code');
-    const done = await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[0].id}/complete`).send({ code: ' one-1111 ' }), 200);
-    expect(done).toMatchObject({ status: 'active', earned: { earnedMinor: 1000, paidMinor: 0, stillToBePaidMinor: 1000 } });
+    const done = await expectStatus(
+      browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[0].id}/complete`).send({ code: ' one-1111 ' }),
+      200,
+    );
+    expect(done).toMatchObject({
+      status: 'active',
+      earned: { earnedMinor: 1000, paidMinor: 0, stillToBePaidMinor: 1000 },
+    });
     expect(done.steps[0]).toMatchObject({ status: 'done' });
     // Completing the same step again owes nothing more.
-    await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[0].id}/complete`).send({ code: 'ONE-1111' }), 200);
+    await expectStatus(
+      browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[0].id}/complete`).send({ code: 'ONE-1111' }),
+      200,
+    );
     // One wrong code above, four more here: the fifth wrong code in 15 minutes is the last one allowed.
-    for (let i = 0; i < 4; i++) await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[1].id}/complete`).send({ code: `bad-${i}` }), 400);
-    await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[1].id}/complete`).send({ code: 'TWO-2222' }), 429, 'RATE_LIMITED');
+    for (let i = 0; i < 4; i++)
+      await expectStatus(
+        browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[1].id}/complete`).send({ code: `bad-${i}` }),
+        400,
+      );
+    await expectStatus(
+      browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[1].id}/complete`).send({ code: 'TWO-2222' }),
+      429,
+      'RATE_LIMITED',
+    );
     const queue = await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts`), 200);
-    expect(queue.items.map((p: { amountMinor: number; status: string }) => [p.amountMinor, p.status])).toEqual([[1000, 'owed']]);
+    expect(queue.items.map((p: { amountMinor: number; status: string }) => [p.amountMinor, p.status])).toEqual([
+      [1000, 'owed'],
+    ]);
   });
 
   it('lets staff check a step off, and blocks the next step until a new consent version is signed', async () => {
     const { studyId, browser, steps } = await paidStudyWithParticipant();
     const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
-    await expectStatus(coordinator.post(`/api/studies/${studyId}/enrollments/${me.id}/steps/${steps[0].id}/complete`), 200);
+    await expectStatus(
+      coordinator.post(`/api/studies/${studyId}/enrollments/${me.id}/steps/${steps[0].id}/complete`),
+      200,
+    );
     await activeConsentVersion(coordinator, studyId, 'HLREB-2026-031-A2');
-    const blocked = await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[1].id}/complete`).send({ code: 'TWO-2222' }), 409, 'CONSENT_VERSION_STALE');
+    const blocked = await expectStatus(
+      browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[1].id}/complete`).send({ code: 'TWO-2222' }),
+      409,
+      'CONSENT_VERSION_STALE',
+    );
     expect(blocked.currentVersion.versionId).toBeDefined();
   });
 });
@@ -112,14 +164,24 @@ describe('completing steps', () => {
 describe('paying', () => {
   it('pays an approved payout once after onboarding and funding, with a receipt, and reconciles', async () => {
     const { studyId, browser, email, steps } = await paidStudyWithParticipant();
-    await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[0].id}/complete`).send({ code: 'ONE-1111' }), 200);
+    await expectStatus(
+      browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[0].id}/complete`).send({ code: 'ONE-1111' }),
+      200,
+    );
     const [owed] = (await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts`), 200)).items;
     // Nothing is funded yet: the budget guard refuses.
-    const refused = await expectStatus(coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: [owed.id] }), 409, 'CONFLICT');
+    const refused = await expectStatus(
+      coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: [owed.id] }),
+      409,
+      'CONFLICT',
+    );
     expect(refused.remainingMinor).toBe(0);
     await onboard(browser);
     await fund(studyId, 50_000);
-    const approved = await expectStatus(coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: [owed.id] }), 200);
+    const approved = await expectStatus(
+      coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: [owed.id] }),
+      200,
+    );
     expect(approved).toMatchObject({ approved: 1, amountMinor: 1000, remainingMinor: 49_000 });
     await expectStatus(coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: [owed.id] }), 409);
     const paid = await eventually(async () => {
@@ -138,13 +200,19 @@ describe('paying', () => {
     const reconciliation = await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts/reconciliation`), 200);
     expect(reconciliation).toMatchObject({ differences: [], ledgerPaidCount: 1, providerTransferCount: 1 });
     const tax = await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts/tax-threshold`), 200);
-    expect(tax).toMatchObject({ thresholdMinor: 200_000, participants: [{ paidThisYearMinor: 1000, standing: 'under' }] });
+    expect(tax).toMatchObject({
+      thresholdMinor: 200_000,
+      participants: [{ paidThisYearMinor: 1000, standing: 'under' }],
+    });
     expect(tax.caution).toMatch(/finance office/);
   });
 
   it('makes one transfer when the job crashes after the provider created it but before we recorded it', async () => {
     const { studyId, browser, steps } = await paidStudyWithParticipant();
-    await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[0].id}/complete`).send({ code: 'ONE-1111' }), 200);
+    await expectStatus(
+      browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[0].id}/complete`).send({ code: 'ONE-1111' }),
+      200,
+    );
     await onboard(browser);
     await fund(studyId, 10_000);
     const [owed] = (await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts`), 200)).items;
@@ -154,8 +222,15 @@ describe('paying', () => {
       if (id === owed.id && crashes++ === 0) throw new Error('simulated crash between sending and recording');
     };
     try {
-      await expectStatus(coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: [owed.id] }), 200);
-      await eventually(async () => (await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts`), 200)).items[0].status === 'paid', 'paid after crash');
+      await expectStatus(
+        coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: [owed.id] }),
+        200,
+      );
+      await eventually(
+        async () =>
+          (await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts`), 200)).items[0].status === 'paid',
+        'paid after crash',
+      );
     } finally {
       payouts.afterTransferCreated = null;
     }
@@ -169,13 +244,18 @@ describe('paying', () => {
     await onboard(browser);
     await fund(studyId, 500 * 100);
     const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
-    const [{ participant_id: participantId }] = await testApp.dataSource.query(`SELECT participant_id FROM enrollment WHERE id = $1`, [me.id]);
+    const [{ participant_id: participantId }] = await testApp.dataSource.query(
+      `SELECT participant_id FROM enrollment WHERE id = $1`,
+      [me.id],
+    );
     await testApp.dataSource.query(
       `INSERT INTO payout (id, study_id, enrollment_id, participant_id, kind, amount_minor, currency, idempotency_key)
        SELECT g.id, $1, $2, $3, 'step', 100, 'USD', g.id::text FROM (SELECT gen_random_uuid() AS id FROM generate_series(1, 500)) g`,
       [studyId, me.id, participantId],
     );
-    const ids = (await testApp.dataSource.query(`SELECT id FROM payout WHERE study_id = $1`, [studyId])).map((r: { id: string }) => r.id);
+    const ids = (await testApp.dataSource.query(`SELECT id FROM payout WHERE study_id = $1`, [studyId])).map(
+      (r: { id: string }) => r.id,
+    );
     // 25 server errors (5 % of 500 sends) and every webhook delivered twice.
     await fetch(`${PROVIDER_URL}/_control/faults`, {
       method: 'POST',
@@ -186,7 +266,10 @@ describe('paying', () => {
       await expectStatus(coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: ids }), 200);
       await eventually(
         async () => {
-          const [{ n }] = await testApp.dataSource.query(`SELECT count(*) AS n FROM payout WHERE study_id = $1 AND status = 'paid'`, [studyId]);
+          const [{ n }] = await testApp.dataSource.query(
+            `SELECT count(*) AS n FROM payout WHERE study_id = $1 AND status = 'paid'`,
+            [studyId],
+          );
           return Number(n) === 500;
         },
         '500 payouts paid',
@@ -195,11 +278,18 @@ describe('paying', () => {
     } finally {
       await fetch(`${PROVIDER_URL}/_control/faults`, { method: 'DELETE' });
     }
-    const transfers = await provider.transfers.list({ transfer_group: `study_${studyId}`, limit: 100 }).autoPagingToArray({ limit: 10_000 });
+    const transfers = await provider.transfers
+      .list({ transfer_group: `study_${studyId}`, limit: 100 })
+      .autoPagingToArray({ limit: 10_000 });
     expect(transfers).toHaveLength(500);
     expect(new Set(transfers.map((t) => t.metadata?.payoutId)).size).toBe(500);
     const reconciliation = await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts/reconciliation`), 200);
-    expect(reconciliation).toMatchObject({ differences: [], ledgerPaidCount: 500, ledgerPaidMinor: 50_000, providerTransferMinor: 50_000 });
+    expect(reconciliation).toMatchObject({
+      differences: [],
+      ledgerPaidCount: 500,
+      ledgerPaidMinor: 50_000,
+      providerTransferMinor: 50_000,
+    });
   }, 300_000);
 });
 
@@ -211,21 +301,43 @@ describe('webhooks', () => {
   }
 
   it('refuses a bad signature and changes nothing', async () => {
-    const payload = JSON.stringify({ id: 'evt_forged_1', object: 'event', type: 'payment_intent.succeeded', created: Math.floor(Date.now() / 1000), data: { object: { id: 'pi_forged' } } });
-    await expectStatus(testApp.browser().post('/api/webhooks/payments').set('Stripe-Signature', signed(payload, 'whsec_wrong')).set('Content-Type', 'application/json').send(payload), 400, 'VALIDATION_FAILED');
-    const rows = await testApp.dataSource.query(`SELECT 1 FROM provider_event WHERE provider_event_id = 'evt_forged_1'`);
+    const payload = JSON.stringify({
+      id: 'evt_forged_1',
+      object: 'event',
+      type: 'payment_intent.succeeded',
+      created: Math.floor(Date.now() / 1000),
+      data: { object: { id: 'pi_forged' } },
+    });
+    await expectStatus(
+      testApp
+        .browser()
+        .post('/api/webhooks/payments')
+        .set('Stripe-Signature', signed(payload, 'whsec_wrong'))
+        .set('Content-Type', 'application/json')
+        .send(payload),
+      400,
+      'VALIDATION_FAILED',
+    );
+    const rows = await testApp.dataSource.query(
+      `SELECT 1 FROM provider_event WHERE provider_event_id = 'evt_forged_1'`,
+    );
     expect(rows).toHaveLength(0);
   });
 
   it('treats a duplicate as a no-op and turns a reversed transfer into a reversed payout owed again', async () => {
     const { studyId, browser, steps } = await paidStudyWithParticipant();
-    await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[0].id}/complete`).send({ code: 'ONE-1111' }), 200);
+    await expectStatus(
+      browser.post(`/api/studies/${studyId}/enrollments/me/steps/${steps[0].id}/complete`).send({ code: 'ONE-1111' }),
+      200,
+    );
     await onboard(browser);
     await fund(studyId, 10_000);
     const [owed] = (await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts`), 200)).items;
     await expectStatus(coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: [owed.id] }), 200);
     const paid = await eventually(async () => {
-      const [p] = (await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts`).query({ status: 'paid' }), 200)).items;
+      const [p] = (
+        await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts`).query({ status: 'paid' }), 200)
+      ).items;
       return p;
     }, 'paid');
     await provider.transfers.createReversal(paid.providerTransferId);
@@ -236,9 +348,19 @@ describe('webhooks', () => {
     expect(reversed.map((p: { status: string }) => p.status).sort()).toEqual(['owed', 'reversed']);
 
     // Replaying the very same event changes nothing.
-    const [event] = await testApp.dataSource.query(`SELECT payload FROM provider_event WHERE type = 'transfer.reversed' ORDER BY received_at DESC LIMIT 1`);
+    const [event] = await testApp.dataSource.query(
+      `SELECT payload FROM provider_event WHERE type = 'transfer.reversed' ORDER BY received_at DESC LIMIT 1`,
+    );
     const payload = JSON.stringify(event.payload);
-    const again = await expectStatus(testApp.browser().post('/api/webhooks/payments').set('Stripe-Signature', signed(payload)).set('Content-Type', 'application/json').send(payload), 200);
+    const again = await expectStatus(
+      testApp
+        .browser()
+        .post('/api/webhooks/payments')
+        .set('Stripe-Signature', signed(payload))
+        .set('Content-Type', 'application/json')
+        .send(payload),
+      200,
+    );
     expect(again).toEqual({ received: true, duplicate: true });
     expect((await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts`), 200)).items).toHaveLength(2);
   });

@@ -37,7 +37,11 @@ describe('route table', () => {
     const routes = Object.entries(document.paths).flatMap(([path, item]) =>
       Object.keys(item)
         .filter((method) => method.toUpperCase() in RequestMethod)
-        .map((method) => ({ method, template: path, path: path.replace(/\{[^}]+\}/g, '00000000-0000-4000-8000-000000000000') })),
+        .map((method) => ({
+          method,
+          template: path,
+          path: path.replace(/\{[^}]+\}/g, '00000000-0000-4000-8000-000000000000'),
+        })),
     );
     expect(routes.length).toBeGreaterThan(8);
     const unguarded: string[] = [];
@@ -65,7 +69,11 @@ describe('error shape', () => {
   });
 
   it('names a malformed e-mail and a missing password', async () => {
-    const body = await expectStatus(testApp.browser().post('/api/auth/sign-in').send({ email: 'not-an-email' }), 400, 'VALIDATION_FAILED');
+    const body = await expectStatus(
+      testApp.browser().post('/api/auth/sign-in').send({ email: 'not-an-email' }),
+      400,
+      'VALIDATION_FAILED',
+    );
     expect(body.errors.map((e: { field: string }) => e.field).sort()).toEqual(['email', 'password']);
   });
 
@@ -104,7 +112,10 @@ describe('rate limiting', () => {
       // The client's count is shared across addresses, so earlier sign-ins in this run would count too.
       await limited.dataSource.query(`DELETE FROM rate_limit_window`);
       const attempt = () =>
-        limited.browser().post('/api/auth/sign-in').send({ email: 'rate-limit-probe@evenhand.test', password: 'wrong-password' });
+        limited
+          .browser()
+          .post('/api/auth/sign-in')
+          .send({ email: 'rate-limit-probe@evenhand.test', password: 'wrong-password' });
       for (let i = 0; i < 3; i++) await expectStatus(attempt(), 401);
       const body = await expectStatus(attempt(), 429, 'RATE_LIMITED');
       expect(body.message).toMatch(/too many attempts/i);
@@ -117,17 +128,28 @@ describe('rate limiting', () => {
 describe('audit chain', () => {
   it('holds from the first row after a sequence of events, and the database refuses edits', async () => {
     const admin = testApp.browser();
-    await expectStatus(admin.post('/api/auth/sign-in').send({ email: 'admin@evenhand.test', password: 'evenhand-demo' }), 200);
-    await expectStatus(testApp.browser().post('/api/auth/sign-in').send({ email: 'admin@evenhand.test', password: 'bad-password' }), 401);
+    await expectStatus(
+      admin.post('/api/auth/sign-in').send({ email: 'admin@evenhand.test', password: 'evenhand-demo' }),
+      200,
+    );
+    await expectStatus(
+      testApp.browser().post('/api/auth/sign-in').send({ email: 'admin@evenhand.test', password: 'bad-password' }),
+      401,
+    );
     await expectStatus(admin.post('/api/auth/sign-out'), 204);
     const auditor = testApp.browser();
-    await expectStatus(auditor.post('/api/auth/sign-in').send({ email: 'auditor@evenhand.test', password: 'evenhand-demo' }), 200);
+    await expectStatus(
+      auditor.post('/api/auth/sign-in').send({ email: 'auditor@evenhand.test', password: 'evenhand-demo' }),
+      200,
+    );
     const verdict = await expectStatus(auditor.get('/api/audit/verify'), 200);
     expect(verdict.intact).toBe(true);
     const lab = verdict.chains.find((c: { chain: string }) => c.chain === 'lab');
     expect(lab.events).toBeGreaterThanOrEqual(4);
 
-    await expect(testApp.dataSource.query(`UPDATE audit_event SET action = 'edited' WHERE sequence = 1`)).rejects.toThrow(/append-only/);
+    await expect(
+      testApp.dataSource.query(`UPDATE audit_event SET action = 'edited' WHERE sequence = 1`),
+    ).rejects.toThrow(/append-only/);
     await expect(testApp.dataSource.query(`DELETE FROM audit_event WHERE sequence = 1`)).rejects.toThrow(/append-only/);
   });
 
@@ -135,7 +157,11 @@ describe('audit chain', () => {
     const audit = testApp.app.get(AuditService);
     const chain = `audit-probe-${Date.now()}`;
     const actions = async () =>
-      (await testApp.dataSource.query(`SELECT action, sequence FROM audit_event WHERE chain = $1 ORDER BY sequence`, [chain])).map((r: { action: string }) => r.action);
+      (
+        await testApp.dataSource.query(`SELECT action, sequence FROM audit_event WHERE chain = $1 ORDER BY sequence`, [
+          chain,
+        ])
+      ).map((r: { action: string }) => r.action);
 
     await testApp.dataSource.transaction(async (manager) => {
       await audit.record(manager, { chain, actor: null, action: 'probe.first' });
@@ -169,13 +195,20 @@ describe('audit chain', () => {
 
   it('reports the first broken link when a row is altered behind the api', async () => {
     const auditor = testApp.browser();
-    await expectStatus(auditor.post('/api/auth/sign-in').send({ email: 'auditor@evenhand.test', password: 'evenhand-demo' }), 200);
-    const [original] = await testApp.dataSource.query(`SELECT data FROM audit_event WHERE chain = 'lab' AND sequence = 2`);
+    await expectStatus(
+      auditor.post('/api/auth/sign-in').send({ email: 'auditor@evenhand.test', password: 'evenhand-demo' }),
+      200,
+    );
+    const [original] = await testApp.dataSource.query(
+      `SELECT data FROM audit_event WHERE chain = 'lab' AND sequence = 2`,
+    );
     // Only a database superuser can get past the append-only trigger; this plays someone doing exactly that.
     const tamper = async (data: unknown) => {
       await testApp.dataSource.query(`ALTER TABLE audit_event DISABLE TRIGGER audit_event_append_only`);
       try {
-        await testApp.dataSource.query(`UPDATE audit_event SET data = $1 WHERE chain = 'lab' AND sequence = 2`, [JSON.stringify(data)]);
+        await testApp.dataSource.query(`UPDATE audit_event SET data = $1 WHERE chain = 'lab' AND sequence = 2`, [
+          JSON.stringify(data),
+        ]);
       } finally {
         await testApp.dataSource.query(`ALTER TABLE audit_event ENABLE TRIGGER audit_event_append_only`);
       }
@@ -184,7 +217,10 @@ describe('audit chain', () => {
     try {
       const verdict = await expectStatus(auditor.get('/api/audit/verify'), 200);
       expect(verdict.intact).toBe(false);
-      expect(verdict.chains.find((c: { chain: string }) => c.chain === 'lab').firstBreak).toEqual({ sequence: 2, reason: 'hash-mismatch' });
+      expect(verdict.chains.find((c: { chain: string }) => c.chain === 'lab').firstBreak).toEqual({
+        sequence: 2,
+        reason: 'hash-mismatch',
+      });
     } finally {
       await tamper(original.data);
     }

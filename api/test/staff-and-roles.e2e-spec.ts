@@ -10,7 +10,10 @@ beforeAll(async () => {
   testApp = await startTestApp();
   for (const role of ['admin', 'coordinator', 'researcher', 'auditor']) {
     browsers[role] = testApp.browser();
-    await expectStatus(browsers[role].post('/api/auth/sign-in').send({ email: `${role}@evenhand.test`, password: 'evenhand-demo' }), 200);
+    await expectStatus(
+      browsers[role].post('/api/auth/sign-in').send({ email: `${role}@evenhand.test`, password: 'evenhand-demo' }),
+      200,
+    );
   }
   const email = uniqueAddress('roles-participant');
   await expectStatus(testApp.browser().post('/api/auth/sign-in-link').send({ email }), 202);
@@ -26,10 +29,18 @@ describe('staff management', () => {
   it('lets an admin create, find, change and deactivate a staff member', async () => {
     const email = uniqueAddress('new-staff');
     const created = await expectStatus(
-      browsers.admin.post('/api/users').send({ email, name: 'Noor Testperson', role: 'researcher', password: 'a-long-password-1' }),
+      browsers.admin
+        .post('/api/users')
+        .send({ email, name: 'Noor Testperson', role: 'researcher', password: 'a-long-password-1' }),
       201,
     );
-    expect(created).toMatchObject({ email, name: 'Noor Testperson', role: 'researcher', active: true, lastSignInAt: null });
+    expect(created).toMatchObject({
+      email,
+      name: 'Noor Testperson',
+      role: 'researcher',
+      active: true,
+      lastSignInAt: null,
+    });
     expect(created).not.toHaveProperty('passwordHash');
 
     const page = await expectStatus(browsers.admin.get('/api/users').query({ search: 'noor testp' }), 200);
@@ -42,7 +53,10 @@ describe('staff management', () => {
     const staffBrowser = testApp.browser();
     await expectStatus(staffBrowser.post('/api/auth/sign-in').send({ email, password: 'a-long-password-1' }), 200);
 
-    const changed = await expectStatus(browsers.admin.patch(`/api/users/${created.id}`).send({ role: 'coordinator' }), 200);
+    const changed = await expectStatus(
+      browsers.admin.patch(`/api/users/${created.id}`).send({ role: 'coordinator' }),
+      200,
+    );
     expect(changed.role).toBe('coordinator');
     await expectStatus(browsers.admin.patch(`/api/users/${created.id}`).send({ active: false }), 200);
     // Deactivation takes effect on the very next request, and the password stops working.
@@ -60,7 +74,9 @@ describe('staff management', () => {
 
   it('refuses a duplicate e-mail with a field error', async () => {
     const body = await expectStatus(
-      browsers.admin.post('/api/users').send({ email: 'auditor@evenhand.test', name: 'Dup', role: 'auditor', password: 'a-long-password-1' }),
+      browsers.admin
+        .post('/api/users')
+        .send({ email: 'auditor@evenhand.test', name: 'Dup', role: 'auditor', password: 'a-long-password-1' }),
       409,
       'EMAIL_TAKEN',
     );
@@ -69,7 +85,9 @@ describe('staff management', () => {
 
   it('refuses a short password and a participant role, naming each field', async () => {
     const body = await expectStatus(
-      browsers.admin.post('/api/users').send({ email: uniqueAddress('short'), name: 'Short', role: 'participant', password: 'short' }),
+      browsers.admin
+        .post('/api/users')
+        .send({ email: uniqueAddress('short'), name: 'Short', role: 'participant', password: 'short' }),
       400,
       'VALIDATION_FAILED',
     );
@@ -83,7 +101,11 @@ describe('staff management', () => {
   });
 
   it('answers 404 for an unknown user id and 400 for a malformed one', async () => {
-    await expectStatus(browsers.admin.patch('/api/users/00000000-0000-4000-8000-000000000000').send({ name: 'X' }), 404, 'NOT_FOUND');
+    await expectStatus(
+      browsers.admin.patch('/api/users/00000000-0000-4000-8000-000000000000').send({ name: 'X' }),
+      404,
+      'NOT_FOUND',
+    );
     await expectStatus(browsers.admin.patch('/api/users/not-a-uuid').send({ name: 'X' }), 400);
   });
 });
@@ -113,12 +135,17 @@ describe('roles', () => {
 
   it('shows a coordinator only the studies they are a member of', async () => {
     const slug = `member-check-${Date.now().toString(36)}`;
-    await expectStatus(browsers.coordinator.post('/api/studies').send({ slug, title: 'Member check', design: 'between' }), 201);
+    await expectStatus(
+      browsers.coordinator.post('/api/studies').send({ slug, title: 'Member check', design: 'between' }),
+      201,
+    );
     const coordinatorStudies = await expectStatus(browsers.coordinator.get('/api/studies'), 200);
     expect(coordinatorStudies.items.map((s: { slug: string }) => s.slug)).toContain(slug);
     const email = uniqueAddress('outsider');
     await expectStatus(
-      browsers.admin.post('/api/users').send({ email, name: 'Outsider', role: 'researcher', password: 'a-long-password-1' }),
+      browsers.admin
+        .post('/api/users')
+        .send({ email, name: 'Outsider', role: 'researcher', password: 'a-long-password-1' }),
       201,
     );
     const outsider = testApp.browser();

@@ -50,16 +50,36 @@ describe('editing study details', () => {
     const study = await expectStatus(coordinator.get(`/api/studies/${studyId}`), 200);
     expect(study).toMatchObject({ designLocked: true, assignedCount: 1 });
 
-    const protocol = await expectStatus(coordinator.patch(`/api/studies/${studyId}`).send({ protocolNumber: 'OTHER-1' }), 409, 'STUDY_DETAIL_FIXED');
+    const protocol = await expectStatus(
+      coordinator.patch(`/api/studies/${studyId}`).send({ protocolNumber: 'OTHER-1' }),
+      409,
+      'STUDY_DETAIL_FIXED',
+    );
     expect(protocol.errors).toEqual([expect.objectContaining({ field: 'protocolNumber' })]);
-    const budget = await expectStatus(coordinator.patch(`/api/studies/${studyId}`).send({ budgetMinor: 99_999 }), 409, 'STUDY_DETAIL_FIXED');
+    const budget = await expectStatus(
+      coordinator.patch(`/api/studies/${studyId}`).send({ budgetMinor: 99_999 }),
+      409,
+      'STUDY_DETAIL_FIXED',
+    );
     expect(budget.errors).toEqual([expect.objectContaining({ field: 'budgetMinor' })]);
-    const target = await expectStatus(coordinator.patch(`/api/studies/${studyId}`).send({ targetSize: 0 }), 400, 'VALIDATION_FAILED');
+    const target = await expectStatus(
+      coordinator.patch(`/api/studies/${studyId}`).send({ targetSize: 0 }),
+      400,
+      'VALIDATION_FAILED',
+    );
     expect(target.errors[0].field).toBe('targetSize');
-    await expectStatus(coordinator.patch(`/api/studies/${studyId}`).send({ currency: 'EUR' }), 409, 'STUDY_DETAIL_FIXED');
+    await expectStatus(
+      coordinator.patch(`/api/studies/${studyId}`).send({ currency: 'EUR' }),
+      409,
+      'STUDY_DETAIL_FIXED',
+    );
 
     // Nothing of a refused change is half-written: a good field beside a refused one is not saved either.
-    await expectStatus(coordinator.patch(`/api/studies/${studyId}`).send({ title: 'Half', protocolNumber: 'OTHER-2' }), 409, 'STUDY_DETAIL_FIXED');
+    await expectStatus(
+      coordinator.patch(`/api/studies/${studyId}`).send({ title: 'Half', protocolNumber: 'OTHER-2' }),
+      409,
+      'STUDY_DETAIL_FIXED',
+    );
     expect((await expectStatus(coordinator.get(`/api/studies/${studyId}`), 200)).title).not.toBe('Half');
 
     const allowed = await expectStatus(
@@ -73,7 +93,12 @@ describe('editing study details', () => {
       }),
       200,
     );
-    expect(allowed).toMatchObject({ title: 'Renamed after opening', targetSize: 1, budgetMinor: 120_000, ethicsApprovalReference: 'HLREB-2026-031-A1' });
+    expect(allowed).toMatchObject({
+      title: 'Renamed after opening',
+      targetSize: 1,
+      budgetMinor: 120_000,
+      ethicsApprovalReference: 'HLREB-2026-031-A1',
+    });
   });
 
   it('refuses a target below the number already assigned, naming the field', async () => {
@@ -83,14 +108,25 @@ describe('editing study details', () => {
     const version = versions.items.find((v: { status: string }) => v.status === 'active');
     const { browser } = await signedInParticipant(testApp, 'target-two');
     await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
-    await expectStatus(browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 40 } }), 200);
     await expectStatus(
-      browser.post(`/api/studies/${studyId}/enrollments/me/signature`).send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Sam Second' }),
+      browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 40 } }),
+      200,
+    );
+    await expectStatus(
+      browser
+        .post(`/api/studies/${studyId}/enrollments/me/signature`)
+        .send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Sam Second' }),
       201,
     );
-    const below = await expectStatus(coordinator.patch(`/api/studies/${studyId}`).send({ targetSize: 1 }), 409, 'STUDY_DETAIL_FIXED');
+    const below = await expectStatus(
+      coordinator.patch(`/api/studies/${studyId}`).send({ targetSize: 1 }),
+      409,
+      'STUDY_DETAIL_FIXED',
+    );
     expect(below.errors).toEqual([{ field: 'targetSize', message: expect.stringContaining('2') }]);
-    expect((await expectStatus(coordinator.patch(`/api/studies/${studyId}`).send({ targetSize: 2 }), 200)).targetSize).toBe(2);
+    expect(
+      (await expectStatus(coordinator.patch(`/api/studies/${studyId}`).send({ targetSize: 2 }), 200)).targetSize,
+    ).toBe(2);
   });
 });
 

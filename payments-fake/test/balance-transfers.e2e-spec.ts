@@ -84,7 +84,9 @@ describe('transfers', () => {
   it('fails with balance_insufficient when the platform balance is short, and changes nothing', async () => {
     const destination = await onboardedAccount(harness, stripe);
     await harness.control('/balance', { amount: 999, currency: 'usd' });
-    const error = await caught(stripe.transfers.create({ amount: 1_000, currency: 'usd', destination: destination.id }));
+    const error = await caught(
+      stripe.transfers.create({ amount: 1_000, currency: 'usd', destination: destination.id }),
+    );
     expect(error).toBeInstanceOf(Stripe.errors.StripeInvalidRequestError);
     expect(error.statusCode).toBe(400);
     expect(error.code).toBe('balance_insufficient');
@@ -102,7 +104,9 @@ describe('transfers', () => {
 
   it('refuses an unknown destination with resource_missing', async () => {
     await harness.control('/balance', { amount: 10_000, currency: 'usd' });
-    const error = await caught(stripe.transfers.create({ amount: 100, currency: 'usd', destination: 'acct_1234567890abcdef' }));
+    const error = await caught(
+      stripe.transfers.create({ amount: 100, currency: 'usd', destination: 'acct_1234567890abcdef' }),
+    );
     expect(error).toBeInstanceOf(Stripe.errors.StripeInvalidRequestError);
     expect(error.code).toBe('resource_missing');
     expect(error.param).toBe('destination');
@@ -156,8 +160,16 @@ describe('transfers', () => {
     await harness.control('/balance', { amount: 5_000, currency: 'usd' });
     const transfer = await stripe.transfers.create({ amount: 3_000, currency: 'usd', destination: destination.id });
 
-    const partial = await stripe.transfers.createReversal(transfer.id, { amount: 1_000, metadata: { reason: 'overpaid' } });
-    expect(partial).toMatchObject({ object: 'transfer_reversal', amount: 1_000, currency: 'usd', transfer: transfer.id });
+    const partial = await stripe.transfers.createReversal(transfer.id, {
+      amount: 1_000,
+      metadata: { reason: 'overpaid' },
+    });
+    expect(partial).toMatchObject({
+      object: 'transfer_reversal',
+      amount: 1_000,
+      currency: 'usd',
+      transfer: transfer.id,
+    });
     expect(partial.id).toMatch(/^trr_/);
     let after = await stripe.transfers.retrieve(transfer.id);
     expect(after.amount_reversed).toBe(1_000);
@@ -190,7 +202,10 @@ describe('transfers', () => {
     const destination = await onboardedAccount(harness, stripe);
     await harness.control('/balance', { amount: 500, currency: 'usd' });
     const transfer = await stripe.transfers.create({ amount: 500, currency: 'usd', destination: destination.id });
-    const updated = await stripe.transfers.update(transfer.id, { description: 'Session 1 pay', metadata: { batch: '3' } });
+    const updated = await stripe.transfers.update(transfer.id, {
+      description: 'Session 1 pay',
+      metadata: { batch: '3' },
+    });
     expect(updated.description).toBe('Session 1 pay');
     expect(updated.metadata).toEqual({ batch: '3' });
     const events = await stripe.events.list({ type: 'transfer.updated' });

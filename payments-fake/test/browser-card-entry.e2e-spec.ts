@@ -74,7 +74,12 @@ function confirm(clientSecret: string): Promise<any> {
 }
 
 async function fundingIntent(amount: number): Promise<Stripe.PaymentIntent> {
-  return stripe.paymentIntents.create({ amount, currency: 'usd', description: 'Fund study: Wayfinding cues', metadata: { study: 'wayfinding-cues' } });
+  return stripe.paymentIntents.create({
+    amount,
+    currency: 'usd',
+    description: 'Fund study: Wayfinding cues',
+    metadata: { study: 'wayfinding-cues' },
+  });
 }
 
 async function availableUsd(): Promise<number> {
@@ -114,7 +119,13 @@ describe('the card form', () => {
   it('formats as the payer types and reports problems in change events', async () => {
     await typeCard('4242424242424241', '', '', '');
     expect(await page.getByLabel('Card number').inputValue()).toBe('4242 4242 4242 4241');
-    expect(await lastChange()).toMatchObject({ elementType: 'card', complete: false, empty: false, brand: 'visa', error: { type: 'validation_error', code: 'invalid_number' } });
+    expect(await lastChange()).toMatchObject({
+      elementType: 'card',
+      complete: false,
+      empty: false,
+      brand: 'visa',
+      error: { type: 'validation_error', code: 'invalid_number' },
+    });
     expect(await page.getByLabel('Card number').getAttribute('aria-invalid')).toBe('true');
     expect(await page.locator('#card').getAttribute('class')).toContain('StripeElement--invalid');
 
@@ -144,7 +155,12 @@ describe('paying', () => {
     const intent = await fundingIntent(25_000);
     const before = await availableUsd();
     await typeCard('4242424242424242');
-    expect(await lastChange()).toMatchObject({ complete: true, empty: false, error: undefined, value: { postalCode: '12345' } });
+    expect(await lastChange()).toMatchObject({
+      complete: true,
+      empty: false,
+      error: undefined,
+      value: { postalCode: '12345' },
+    });
     await screenshot(page, 'card-element-03-filled');
 
     const result = await confirm(intent.client_secret as string);
@@ -157,12 +173,17 @@ describe('paying', () => {
     expect(stored.amount_received).toBe(25_000);
     expect(await availableUsd()).toBe(before + 25_000);
     await waitFor(
-      () => harness.receiver.received.some((hook) => hook.type === 'payment_intent.succeeded' && JSON.parse(hook.rawBody).data.object.id === intent.id),
+      () =>
+        harness.receiver.received.some(
+          (hook) => hook.type === 'payment_intent.succeeded' && JSON.parse(hook.rawBody).data.object.id === intent.id,
+        ),
       10_000,
       'payment_intent.succeeded webhook',
     );
 
-    const retrieved = await page.evaluate(([secret]) => (globalThis as any).testApp.retrieve(secret), [intent.client_secret as string] as const);
+    const retrieved = await page.evaluate(([secret]) => (globalThis as any).testApp.retrieve(secret), [
+      intent.client_secret as string,
+    ] as const);
     expect(retrieved.paymentIntent).toMatchObject({ id: intent.id, status: 'succeeded' });
     expect(session.offMachineRequests).toEqual([]);
   });
@@ -174,14 +195,24 @@ describe('paying', () => {
     await typeCard('4000 0000 0000 0002');
     const declined = await confirm(intent.client_secret as string);
     expect(declined.paymentIntent).toBeUndefined();
-    expect(declined.error).toMatchObject({ type: 'card_error', code: 'card_declined', decline_code: 'generic_decline' });
+    expect(declined.error).toMatchObject({
+      type: 'card_error',
+      code: 'card_declined',
+      decline_code: 'generic_decline',
+    });
     expect(declined.error.message).toEqual(expect.any(String));
     expect(declined.error.payment_intent).toMatchObject({ id: intent.id, status: 'requires_payment_method' });
 
     await typeCard('4000 0000 0000 9995');
     const noFunds = await confirm(intent.client_secret as string);
-    expect(noFunds.error).toMatchObject({ type: 'card_error', code: 'card_declined', decline_code: 'insufficient_funds' });
-    expect((await stripe.paymentIntents.retrieve(intent.id)).last_payment_error?.decline_code).toBe('insufficient_funds');
+    expect(noFunds.error).toMatchObject({
+      type: 'card_error',
+      code: 'card_declined',
+      decline_code: 'insufficient_funds',
+    });
+    expect((await stripe.paymentIntents.retrieve(intent.id)).last_payment_error?.decline_code).toBe(
+      'insufficient_funds',
+    );
     expect(await availableUsd()).toBe(before);
 
     await typeCard('4242 4242 4242 4242');

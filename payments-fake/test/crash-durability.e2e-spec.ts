@@ -42,7 +42,12 @@ async function start(port: number): Promise<ChildProcess> {
   if (!existsSync(SERVER)) throw new Error(`${SERVER} is missing: run npm run build -w payments-fake first`);
   const child = spawn(process.execPath, [SERVER], {
     cwd: PACKAGE_ROOT,
-    env: { ...process.env, PAYMENTS_FAKE_PORT: String(port), PAYMENTS_FAKE_WEBHOOK_URL: 'off', PAYMENTS_FAKE_STATE_FILE: file },
+    env: {
+      ...process.env,
+      PAYMENTS_FAKE_PORT: String(port),
+      PAYMENTS_FAKE_WEBHOOK_URL: 'off',
+      PAYMENTS_FAKE_STATE_FILE: file,
+    },
     stdio: ['ignore', 'ignore', 'inherit'],
   });
   children.add(child);
@@ -69,12 +74,27 @@ function stop(child: ChildProcess, signal: NodeJS.Signals): Promise<void> {
 }
 
 function client(port: number): Stripe {
-  return new Stripe('sk_test_evenhand_crash', { host: '127.0.0.1', port, protocol: 'http', maxNetworkRetries: 0, telemetry: false });
+  return new Stripe('sk_test_evenhand_crash', {
+    host: '127.0.0.1',
+    port,
+    protocol: 'http',
+    maxNetworkRetries: 0,
+    telemetry: false,
+  });
 }
 
 async function onboarded(port: number, stripe: Stripe): Promise<string> {
-  const account = await stripe.accounts.create({ type: 'express', country: 'US', capabilities: { transfers: { requested: true } } });
-  const link = await stripe.accountLinks.create({ account: account.id, type: 'account_onboarding', refresh_url: 'http://127.0.0.1:5173/r', return_url: 'http://127.0.0.1:5173/d' });
+  const account = await stripe.accounts.create({
+    type: 'express',
+    country: 'US',
+    capabilities: { transfers: { requested: true } },
+  });
+  const link = await stripe.accountLinks.create({
+    account: account.id,
+    type: 'account_onboarding',
+    refresh_url: 'http://127.0.0.1:5173/r',
+    return_url: 'http://127.0.0.1:5173/d',
+  });
   const action = /action="([^"]+)"/.exec(await (await fetch(link.url)).text())?.[1];
   if (!action) throw new Error('the onboarding page has no form');
   const done = await fetch(new URL(action, `http://127.0.0.1:${port}`), {
@@ -100,7 +120,10 @@ describe('a confirmed transfer after SIGKILL', () => {
     });
     expect(topUp.status).toBe(200);
     const key = randomUUID();
-    const transfer = await stripe.transfers.create({ amount: 1234, currency: 'usd', destination, metadata: { payoutId: key } }, { idempotencyKey: key });
+    const transfer = await stripe.transfers.create(
+      { amount: 1234, currency: 'usd', destination, metadata: { payoutId: key } },
+      { idempotencyKey: key },
+    );
     // Killed the moment the answer is in: no shutdown write, no delayed save.
     await stop(first, 'SIGKILL');
 
@@ -108,7 +131,10 @@ describe('a confirmed transfer after SIGKILL', () => {
     const again = client(port);
     const kept = await again.transfers.retrieve(transfer.id);
     expect(kept).toMatchObject({ id: transfer.id, amount: 1234, destination, metadata: { payoutId: key } });
-    const replay = await again.transfers.create({ amount: 1234, currency: 'usd', destination, metadata: { payoutId: key } }, { idempotencyKey: key });
+    const replay = await again.transfers.create(
+      { amount: 1234, currency: 'usd', destination, metadata: { payoutId: key } },
+      { idempotencyKey: key },
+    );
     expect(replay.id).toBe(transfer.id);
     expect(replay.lastResponse.headers['idempotent-replayed']).toBe('true');
     const balance = await again.balance.retrieve({}, { stripeAccount: destination });
@@ -126,7 +152,12 @@ describe('a confirmed transfer after SIGKILL', () => {
       body: JSON.stringify({ amount: 100_000, currency: 'usd' }),
     });
     const confirmed = await Promise.all(
-      Array.from({ length: 20 }, (_, i) => stripe.transfers.create({ amount: 100 + i, currency: 'usd', destination, transfer_group: 'crash' }, { idempotencyKey: randomUUID() })),
+      Array.from({ length: 20 }, (_, i) =>
+        stripe.transfers.create(
+          { amount: 100 + i, currency: 'usd', destination, transfer_group: 'crash' },
+          { idempotencyKey: randomUUID() },
+        ),
+      ),
     );
     await stop(first, 'SIGKILL');
 

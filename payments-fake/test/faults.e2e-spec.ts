@@ -100,7 +100,12 @@ describe('request faults', () => {
     const unknown = await harness.control('/faults', { chaos: true });
     expect(unknown.body.error.param).toBe('chaos');
     const cleared = await harness.control('/faults', undefined, 'DELETE');
-    expect(cleared.body).toMatchObject({ latencyMs: 0, failNext: null, dropConnectionNext: 0, webhook: { duplicate: false } });
+    expect(cleared.body).toMatchObject({
+      latencyMs: 0,
+      failNext: null,
+      dropConnectionNext: 0,
+      webhook: { duplicate: false },
+    });
   });
 });
 
@@ -121,7 +126,10 @@ describe('webhook faults', () => {
     await harness.control('/faults', { webhook: { reorder: true } });
     await stripe.paymentIntents.create({ amount: 900, currency: 'usd', payment_method: 'pm_card_visa', confirm: true });
     await harness.fake.world.dispatcher.idle();
-    expect(harness.receiver.received.map((hook) => hook.type)).toEqual(['payment_intent.succeeded', 'payment_intent.created']);
+    expect(harness.receiver.received.map((hook) => hook.type)).toEqual([
+      'payment_intent.succeeded',
+      'payment_intent.created',
+    ]);
   });
 
   it('holds deliveries back by delayMs', async () => {

@@ -22,7 +22,11 @@ beforeEach(async () => {
 
 describe('idempotency keys', () => {
   it('replays the first response for the same key and parameters, marked Idempotent-Replayed', async () => {
-    const params: Stripe.AccountCreateParams = { type: 'express', email: 'p010@evenhand.test', metadata: { participant: 'p010' } };
+    const params: Stripe.AccountCreateParams = {
+      type: 'express',
+      email: 'p010@evenhand.test',
+      metadata: { participant: 'p010' },
+    };
     const first = await stripe.accounts.create(params, { idempotencyKey: 'onboard-p010' });
     const second = await stripe.accounts.create(params, { idempotencyKey: 'onboard-p010' });
     expect(second.id).toBe(first.id);
@@ -35,14 +39,22 @@ describe('idempotency keys', () => {
   });
 
   it('treats parameters sent in another order as the same request', async () => {
-    const first = await stripe.accounts.create({ type: 'express', email: 'p011@evenhand.test' }, { idempotencyKey: 'k-order' });
-    const second = await stripe.accounts.create({ email: 'p011@evenhand.test', type: 'express' }, { idempotencyKey: 'k-order' });
+    const first = await stripe.accounts.create(
+      { type: 'express', email: 'p011@evenhand.test' },
+      { idempotencyKey: 'k-order' },
+    );
+    const second = await stripe.accounts.create(
+      { email: 'p011@evenhand.test', type: 'express' },
+      { idempotencyKey: 'k-order' },
+    );
     expect(second.id).toBe(first.id);
   });
 
   it('refuses the same key with other parameters with 400 idempotency_error', async () => {
     await stripe.accounts.create({ type: 'express', email: 'p012@evenhand.test' }, { idempotencyKey: 'k-mismatch' });
-    const error = await caught(stripe.accounts.create({ type: 'express', email: 'p013@evenhand.test' }, { idempotencyKey: 'k-mismatch' }));
+    const error = await caught(
+      stripe.accounts.create({ type: 'express', email: 'p013@evenhand.test' }, { idempotencyKey: 'k-mismatch' }),
+    );
     expect(error).toBeInstanceOf(Stripe.errors.StripeIdempotencyError);
     expect(error.statusCode).toBe(400);
     expect(error.raw.type).toBe('idempotency_error');
@@ -72,10 +84,15 @@ describe('idempotency keys', () => {
   });
 
   it('does not keep a parameter-validation failure, so a corrected retry with the same key runs', async () => {
-    const bad = await caught(stripe.accounts.create({ email: 'p014@evenhand.test' } as never, { idempotencyKey: 'k-fix' }));
+    const bad = await caught(
+      stripe.accounts.create({ email: 'p014@evenhand.test' } as never, { idempotencyKey: 'k-fix' }),
+    );
     expect(bad.code).toBe('parameter_missing');
     // The corrected request has other parameters, but nothing was saved under the key.
-    const good = await stripe.accounts.create({ type: 'express', email: 'p014@evenhand.test' }, { idempotencyKey: 'k-fix' });
+    const good = await stripe.accounts.create(
+      { type: 'express', email: 'p014@evenhand.test' },
+      { idempotencyKey: 'k-fix' },
+    );
     expect(good.object).toBe('account');
   });
 
@@ -97,9 +114,11 @@ describe('idempotency keys', () => {
     // The second is sent once the stand-in holds the first as running, not after a fixed pause.
     const [first, second] = await Promise.allSettled([
       stripe.accounts.create(params, { idempotencyKey: 'k-concurrent' }),
-      waitFor(() => harness.fake.world.idempotency.runningKeys().includes('k-concurrent'), 10_000, 'the first request').then(() =>
-        stripe.accounts.create(params, { idempotencyKey: 'k-concurrent' }),
-      ),
+      waitFor(
+        () => harness.fake.world.idempotency.runningKeys().includes('k-concurrent'),
+        10_000,
+        'the first request',
+      ).then(() => stripe.accounts.create(params, { idempotencyKey: 'k-concurrent' })),
     ]);
     expect(first.status).toBe('fulfilled');
     expect(second.status).toBe('rejected');

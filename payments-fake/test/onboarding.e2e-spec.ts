@@ -66,7 +66,12 @@ describe('account links', () => {
     const unknown = await caught(newLink('acct_0000000000000000'));
     expect(unknown.param).toBe('account');
     const badUrl = await caught(
-      stripe.accountLinks.create({ account: account.id, type: 'account_onboarding', refresh_url: 'not a url', return_url: RETURN_URL }),
+      stripe.accountLinks.create({
+        account: account.id,
+        type: 'account_onboarding',
+        refresh_url: 'not a url',
+        return_url: RETURN_URL,
+      }),
     );
     expect(badUrl.param).toBe('refresh_url');
   });
@@ -102,7 +107,11 @@ describe('hosted onboarding', () => {
     expect(onboarded.requirements?.currently_due).toEqual([]);
     expect(onboarded.external_accounts?.data[0]).toMatchObject({ object: 'bank_account', last4: '6789' });
 
-    await waitFor(() => harness.receiver.received.some((hook) => hook.type === 'account.updated'), 10_000, 'account.updated');
+    await waitFor(
+      () => harness.receiver.received.some((hook) => hook.type === 'account.updated'),
+      10_000,
+      'account.updated',
+    );
     const hook = harness.receiver.received.find((received) => received.type === 'account.updated');
     const event = stripe.webhooks.constructEvent(hook!.rawBody, hook!.signature, WEBHOOK_SECRET);
     expect(event.type).toBe('account.updated');

@@ -50,13 +50,20 @@ describe('payment intents (top-ups)', () => {
   });
 
   it('creates and confirms in one call', async () => {
-    const intent = await stripe.paymentIntents.create({ amount: 1_000, currency: 'usd', payment_method: 'pm_card_mastercard', confirm: true });
+    const intent = await stripe.paymentIntents.create({
+      amount: 1_000,
+      currency: 'usd',
+      payment_method: 'pm_card_mastercard',
+      confirm: true,
+    });
     expect(intent.status).toBe('succeeded');
   });
 
   it('declines pm_card_chargeDeclinedInsufficientFunds with a 402 card_error and keeps the intent retryable', async () => {
     const intent = await stripe.paymentIntents.create({ amount: 2_000, currency: 'usd' });
-    const error = await caught(stripe.paymentIntents.confirm(intent.id, { payment_method: 'pm_card_chargeDeclinedInsufficientFunds' }));
+    const error = await caught(
+      stripe.paymentIntents.confirm(intent.id, { payment_method: 'pm_card_chargeDeclinedInsufficientFunds' }),
+    );
     expect(error).toBeInstanceOf(Stripe.errors.StripeCardError);
     expect(error.statusCode).toBe(402);
     expect(error.code).toBe('card_declined');
@@ -96,13 +103,23 @@ describe('payment intents (top-ups)', () => {
     const pendingHarness = await startHarness({ fundsPendingMs: 60_000, webhookUrl: null });
     try {
       const client = pendingHarness.stripe();
-      await client.paymentIntents.create({ amount: 3_000, currency: 'usd', payment_method: 'pm_card_visa', confirm: true });
+      await client.paymentIntents.create({
+        amount: 3_000,
+        currency: 'usd',
+        payment_method: 'pm_card_visa',
+        confirm: true,
+      });
       let balance = await client.balance.retrieve();
       expect(balance.available).toEqual([{ amount: 0, currency: 'usd' }]);
       expect(balance.pending).toEqual([{ amount: 3_000, currency: 'usd' }]);
 
       // pm_card_bypassPending goes straight to available, as the provider's test card 4000000000000077 does.
-      await client.paymentIntents.create({ amount: 700, currency: 'usd', payment_method: 'pm_card_bypassPending', confirm: true });
+      await client.paymentIntents.create({
+        amount: 700,
+        currency: 'usd',
+        payment_method: 'pm_card_bypassPending',
+        confirm: true,
+      });
       balance = await client.balance.retrieve();
       expect(balance.available).toEqual([{ amount: 700, currency: 'usd' }]);
 
@@ -121,7 +138,13 @@ describe('payouts', () => {
   it('pays out from the platform balance: pending, then paid when settled', async () => {
     await harness.control('/balance', { amount: 10_000, currency: 'usd' });
     const payout = await stripe.payouts.create({ amount: 4_000, currency: 'usd', metadata: { batch: '1' } });
-    expect(payout).toMatchObject({ object: 'payout', amount: 4_000, currency: 'usd', status: 'pending', method: 'standard' });
+    expect(payout).toMatchObject({
+      object: 'payout',
+      amount: 4_000,
+      currency: 'usd',
+      status: 'pending',
+      method: 'standard',
+    });
     expect(payout.id).toMatch(/^po_/);
     expect(payout.arrival_date).toBeGreaterThan(payout.created);
     expect((await stripe.balance.retrieve()).available).toEqual([{ amount: 6_000, currency: 'usd' }]);
@@ -167,7 +190,9 @@ describe('payouts', () => {
     ]);
     // The platform does not see the connected account's payouts, and vice versa.
     expect((await stripe.payouts.list()).data).toHaveLength(0);
-    expect((await stripe.payouts.list({}, { stripeAccount: participant.id })).data.map((p) => p.id)).toEqual([payout.id]);
+    expect((await stripe.payouts.list({}, { stripeAccount: participant.id })).data.map((p) => p.id)).toEqual([
+      payout.id,
+    ]);
     const error = await caught(stripe.payouts.retrieve(payout.id));
     expect(error.code).toBe('resource_missing');
   });

@@ -32,7 +32,11 @@ beforeEach(async () => {
 });
 
 /** A call as the browser script makes it: publishable key, form body, the admin's Origin. */
-async function browserCall(path: string, body: Record<string, string> | null, options: { key?: string; origin?: string } = {}) {
+async function browserCall(
+  path: string,
+  body: Record<string, string> | null,
+  options: { key?: string; origin?: string } = {},
+) {
   const response = await fetch(`${harness.fake.url}${path}`, {
     method: body ? 'POST' : 'GET',
     headers: {
@@ -121,7 +125,9 @@ describe('publishable keys', () => {
     expect(missing.statusCode).toBe(400);
     expect(missing.code).toBe('parameter_missing');
     expect(missing.param).toBe('client_secret');
-    const wrong = await caught(browserSdk.paymentIntents.retrieve(intent.id, { client_secret: other.client_secret as string }));
+    const wrong = await caught(
+      browserSdk.paymentIntents.retrieve(intent.id, { client_secret: other.client_secret as string }),
+    );
     expect(wrong.statusCode).toBe(400);
     expect(wrong.param).toBe('client_secret');
   });
@@ -151,7 +157,10 @@ describe('confirming with a typed card', () => {
     const balance = await stripe.balance.retrieve();
     expect(balance.available[0]?.amount).toBe((before.available[0]?.amount ?? 0) + 40_000);
     await waitFor(
-      () => harness.receiver.received.some((hook) => hook.type === 'payment_intent.succeeded' && JSON.parse(hook.rawBody).data.object.id === intent.id),
+      () =>
+        harness.receiver.received.some(
+          (hook) => hook.type === 'payment_intent.succeeded' && JSON.parse(hook.rawBody).data.object.id === intent.id,
+        ),
       10_000,
       'payment_intent.succeeded webhook',
     );
@@ -160,16 +169,32 @@ describe('confirming with a typed card', () => {
   it('declines 4000 0000 0000 0002 and 4000 0000 0000 9995 with a 402 card_error, and the intent stays open', async () => {
     const intent = await fundingIntent();
     const clientSecret = intent.client_secret as string;
-    const generic = await browserCall(`/v1/payment_intents/${intent.id}/confirm`, typedCard('4000000000000002', { client_secret: clientSecret }));
+    const generic = await browserCall(
+      `/v1/payment_intents/${intent.id}/confirm`,
+      typedCard('4000000000000002', { client_secret: clientSecret }),
+    );
     expect(generic.status).toBe(402);
-    expect(generic.body.error).toMatchObject({ type: 'card_error', code: 'card_declined', decline_code: 'generic_decline' });
+    expect(generic.body.error).toMatchObject({
+      type: 'card_error',
+      code: 'card_declined',
+      decline_code: 'generic_decline',
+    });
     expect(generic.body.error.payment_intent).toMatchObject({ id: intent.id, status: 'requires_payment_method' });
     expect(generic.body.error.payment_intent).not.toHaveProperty('metadata');
 
-    const funds = await browserCall(`/v1/payment_intents/${intent.id}/confirm`, typedCard('4000000000009995', { client_secret: clientSecret }));
+    const funds = await browserCall(
+      `/v1/payment_intents/${intent.id}/confirm`,
+      typedCard('4000000000009995', { client_secret: clientSecret }),
+    );
     expect(funds.status).toBe(402);
-    expect(funds.body.error).toMatchObject({ type: 'card_error', code: 'card_declined', decline_code: 'insufficient_funds' });
-    expect((await stripe.paymentIntents.retrieve(intent.id)).last_payment_error?.decline_code).toBe('insufficient_funds');
+    expect(funds.body.error).toMatchObject({
+      type: 'card_error',
+      code: 'card_declined',
+      decline_code: 'insufficient_funds',
+    });
+    expect((await stripe.paymentIntents.retrieve(intent.id)).last_payment_error?.decline_code).toBe(
+      'insufficient_funds',
+    );
     expect((await stripe.balance.retrieve()).available).toEqual([{ amount: 0, currency: 'usd' }]);
     expect((await stripe.events.list({ type: 'payment_intent.payment_failed' })).data).toHaveLength(2);
   });
@@ -177,7 +202,10 @@ describe('confirming with a typed card', () => {
   it('declines a valid number that is no test card as test_mode_live_card', async () => {
     const intent = await fundingIntent();
     // 4111 1111 1111 1111 passes the Luhn check (a long-standing sample number, from memory) but is not on the provider's list.
-    const answer = await browserCall(`/v1/payment_intents/${intent.id}/confirm`, typedCard('4111111111111111', { client_secret: intent.client_secret as string }));
+    const answer = await browserCall(
+      `/v1/payment_intents/${intent.id}/confirm`,
+      typedCard('4111111111111111', { client_secret: intent.client_secret as string }),
+    );
     expect(answer.status).toBe(402);
     expect(answer.body.error).toMatchObject({ code: 'card_declined', decline_code: 'test_mode_live_card' });
   });
@@ -188,10 +216,23 @@ describe('confirming with a typed card', () => {
     const path = `/v1/payment_intents/${intent.id}/confirm`;
     const mistyped = await browserCall(path, typedCard('4242424242424241', { client_secret: clientSecret }));
     expect(mistyped.status).toBe(402);
-    expect(mistyped.body.error).toMatchObject({ type: 'card_error', code: 'incorrect_number', param: 'payment_method_data[card][number]' });
-    const expired = await browserCall(path, typedCard('4242424242424242', { client_secret: clientSecret, 'payment_method_data[card][exp_year]': '2020' }));
-    expect(expired.body.error).toMatchObject({ code: 'invalid_expiry_year', param: 'payment_method_data[card][exp_year]' });
-    const cvc = await browserCall(path, typedCard('4242424242424242', { client_secret: clientSecret, 'payment_method_data[card][cvc]': '12' }));
+    expect(mistyped.body.error).toMatchObject({
+      type: 'card_error',
+      code: 'incorrect_number',
+      param: 'payment_method_data[card][number]',
+    });
+    const expired = await browserCall(
+      path,
+      typedCard('4242424242424242', { client_secret: clientSecret, 'payment_method_data[card][exp_year]': '2020' }),
+    );
+    expect(expired.body.error).toMatchObject({
+      code: 'invalid_expiry_year',
+      param: 'payment_method_data[card][exp_year]',
+    });
+    const cvc = await browserCall(
+      path,
+      typedCard('4242424242424242', { client_secret: clientSecret, 'payment_method_data[card][cvc]': '12' }),
+    );
     expect(cvc.body.error).toMatchObject({ code: 'invalid_cvc', param: 'payment_method_data[card][cvc]' });
     expect((await stripe.paymentIntents.retrieve(intent.id)).status).toBe('requires_payment_method');
   });
@@ -201,7 +242,9 @@ describe('confirming with a typed card', () => {
     const noSecret = await browserCall(`/v1/payment_intents/${intent.id}/confirm`, typedCard('4242424242424242'));
     expect(noSecret.status).toBe(400);
     expect(noSecret.body.error).toMatchObject({ code: 'parameter_missing', param: 'client_secret' });
-    const server = await browserCall(`/v1/payment_intents/${intent.id}/confirm`, typedCard('4242424242424242'), { key: 'sk_test_evenhand_local_4242' });
+    const server = await browserCall(`/v1/payment_intents/${intent.id}/confirm`, typedCard('4242424242424242'), {
+      key: 'sk_test_evenhand_local_4242',
+    });
     expect(server.status).toBe(400);
     expect(server.body.error.param).toBe('payment_method_data[card]');
     expect((await stripe.paymentIntents.retrieve(intent.id)).status).toBe('requires_payment_method');
@@ -222,7 +265,11 @@ describe('CORS for pages on loopback', () => {
   async function preflight(origin: string) {
     return fetch(`${harness.fake.url}/v1/payment_intents/pi_123/confirm`, {
       method: 'OPTIONS',
-      headers: { Origin: origin, 'Access-Control-Request-Method': 'POST', 'Access-Control-Request-Headers': 'authorization,content-type' },
+      headers: {
+        Origin: origin,
+        'Access-Control-Request-Method': 'POST',
+        'Access-Control-Request-Headers': 'authorization,content-type',
+      },
     });
   }
 
@@ -240,7 +287,9 @@ describe('CORS for pages on loopback', () => {
   it('grants nothing to another site', async () => {
     const response = await preflight('https://example.org');
     expect(response.headers.get('access-control-allow-origin')).toBeNull();
-    const answer = await browserCall('/v1/payment_intents/pi_123?client_secret=pi_123_secret_x', null, { origin: 'https://example.org' });
+    const answer = await browserCall('/v1/payment_intents/pi_123?client_secret=pi_123_secret_x', null, {
+      origin: 'https://example.org',
+    });
     expect(answer.headers.get('access-control-allow-origin')).toBeNull();
   });
 });

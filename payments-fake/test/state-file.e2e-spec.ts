@@ -51,7 +51,10 @@ async function waitForSnapshot(check: (snapshot: WorldSnapshot) => boolean, what
 }
 
 /** Everything a caller can read back through the SDK, each list in full. */
-async function readEverything(client: Stripe, ids: { participant: string; transfer: string; reversal: string; payout: string; intent: string }) {
+async function readEverything(
+  client: Stripe,
+  ids: { participant: string; transfer: string; reversal: string; payout: string; intent: string },
+) {
   const all = { limit: 100 };
   const asParticipant = { stripeAccount: ids.participant };
   return {
@@ -92,7 +95,11 @@ describe('state file', () => {
       return_url: RETURN_URL,
     });
 
-    const topUp = await stripe.paymentIntents.create({ amount: 50_000, currency: 'usd', description: 'Fund study: Wayfinding cues' });
+    const topUp = await stripe.paymentIntents.create({
+      amount: 50_000,
+      currency: 'usd',
+      description: 'Fund study: Wayfinding cues',
+    });
     await stripe.paymentIntents.confirm(topUp.id, { payment_method: 'pm_card_visa' });
     await first.control('/settle');
 
@@ -104,15 +111,29 @@ describe('state file', () => {
     };
     const keyed = await stripe.transfers.create(transferParams, { idempotencyKey: 'payout-101' });
     await stripe.transfers.create({ amount: 5_000, currency: 'usd', destination: participant.id });
-    const reversal = await stripe.transfers.createReversal(keyed.id, { amount: 2_000, metadata: { reason: 'overpaid' } });
+    const reversal = await stripe.transfers.createReversal(keyed.id, {
+      amount: 2_000,
+      metadata: { reason: 'overpaid' },
+    });
     const payout = await stripe.payouts.create({ amount: 3_000, currency: 'usd' });
     await stripe.payouts.create({ amount: 1_000, currency: 'usd' }, { stripeAccount: participant.id });
     // A second top-up stays pending; half of its pending time passes on the stand-in's clock.
-    await stripe.paymentIntents.create({ amount: 20_000, currency: 'usd', payment_method: 'pm_card_visa', confirm: true });
+    await stripe.paymentIntents.create({
+      amount: 20_000,
+      currency: 'usd',
+      payment_method: 'pm_card_visa',
+      confirm: true,
+    });
     await first.control('/clock', { advanceSeconds: 30 });
 
     await first.fake.world.dispatcher.idle();
-    const ids = { participant: participant.id, transfer: keyed.id, reversal: reversal.id, payout: payout.id, intent: topUp.id };
+    const ids = {
+      participant: participant.id,
+      transfer: keyed.id,
+      reversal: reversal.id,
+      payout: payout.id,
+      intent: topUp.id,
+    };
     const before = await readEverything(stripe, ids);
     // 50 000 topped up − 10 000 − 5 000 transferred + 2 000 reversed − 3 000 paid out; 20 000 pending.
     expect(before.balance.available).toEqual([{ amount: 34_000, currency: 'usd' }]);
@@ -123,7 +144,11 @@ describe('state file', () => {
     await first.close();
 
     const saved = readSnapshot();
-    expect(saved).toMatchObject({ format: 'evenhand-payments-fake-state', version: 1, platformAccountId: before.platform.id });
+    expect(saved).toMatchObject({
+      format: 'evenhand-payments-fake-state',
+      version: 1,
+      platformAccountId: before.platform.id,
+    });
     expect(Number.isNaN(Date.parse(saved.savedAt))).toBe(false);
     expect(JSON.stringify(saved)).not.toContain('sk_test_');
 
@@ -141,7 +166,9 @@ describe('state file', () => {
       expect(replayed.lastResponse.headers['idempotent-replayed']).toBe('true');
       expect(replayed.lastResponse.headers['original-request']).toBe(keyed.lastResponse.requestId);
       expect((await client.balance.retrieve()).available).toEqual(before.balance.available);
-      const mismatch = await caught(client.transfers.create({ ...transferParams, amount: 10_001 }, { idempotencyKey: 'payout-101' }));
+      const mismatch = await caught(
+        client.transfers.create({ ...transferParams, amount: 10_001 }, { idempotencyKey: 'payout-101' }),
+      );
       expect(mismatch).toBeInstanceOf(Stripe.errors.StripeIdempotencyError);
       expect(mismatch.message).toContain('payout-101');
 
@@ -175,7 +202,10 @@ describe('state file', () => {
       expect(released.pending).toEqual([{ amount: 0, currency: 'usd' }]);
 
       // What happened after the restart is in the file too.
-      await waitForSnapshot((snapshot) => snapshot.accounts.some((a) => a.id === newAccount.id), 'the new account in the file');
+      await waitForSnapshot(
+        (snapshot) => snapshot.accounts.some((a) => a.id === newAccount.id),
+        'the new account in the file',
+      );
     } finally {
       await second.close();
       await receiver.close();
@@ -190,8 +220,15 @@ describe('state file', () => {
       const client = harness.stripe();
       const platform = await client.accounts.retrieveCurrent();
       const account = await client.accounts.create({ type: 'express', email: 'p104@evenhand.test' });
-      const snapshot = await waitForSnapshot((s) => s.accounts.some((a) => a.id === account.id), 'the account in the file');
-      expect(snapshot).toMatchObject({ format: 'evenhand-payments-fake-state', version: 1, platformAccountId: platform.id });
+      const snapshot = await waitForSnapshot(
+        (s) => s.accounts.some((a) => a.id === account.id),
+        'the account in the file',
+      );
+      expect(snapshot).toMatchObject({
+        format: 'evenhand-payments-fake-state',
+        version: 1,
+        platformAccountId: platform.id,
+      });
       // Written by rename from a temporary file in the same folder, which is gone afterwards.
       expect(readdirSync(folder)).toEqual(['payments-state.json']);
     } finally {
@@ -205,7 +242,10 @@ describe('state file', () => {
     const platform = await client.accounts.retrieveCurrent();
     const account = await client.accounts.create({ type: 'express' });
     await first.control('/balance', { amount: 5_000, currency: 'usd' });
-    await waitForSnapshot((s) => s.accounts.length === 1 && s.ledger.available.length === 1, 'the account and balance in the file');
+    await waitForSnapshot(
+      (s) => s.accounts.length === 1 && s.ledger.available.length === 1,
+      'the account and balance in the file',
+    );
 
     expect((await first.control('/reset')).status).toBe(200);
     const emptied = readSnapshot();
@@ -255,7 +295,13 @@ describe('state file', () => {
     for (const [content, problem] of cases) {
       writeFileSync(file, content);
       const refusal = await caught(
-        startPaymentsFake({ host: '127.0.0.1', port: 0, webhookUrl: null, webhookSecret: WEBHOOK_SECRET, stateFile: file }),
+        startPaymentsFake({
+          host: '127.0.0.1',
+          port: 0,
+          webhookUrl: null,
+          webhookSecret: WEBHOOK_SECRET,
+          stateFile: file,
+        }),
       );
       expect(refusal).toBeInstanceOf(StateFileError);
       expect(refusal.message).toContain(`state file ${file} `);
@@ -267,7 +313,13 @@ describe('state file', () => {
   it('refuses a state file whose folder does not exist', async () => {
     const missing = path.join(folder, 'no-such-folder', 'state.json');
     const refusal = await caught(
-      startPaymentsFake({ host: '127.0.0.1', port: 0, webhookUrl: null, webhookSecret: WEBHOOK_SECRET, stateFile: missing }),
+      startPaymentsFake({
+        host: '127.0.0.1',
+        port: 0,
+        webhookUrl: null,
+        webhookSecret: WEBHOOK_SECRET,
+        stateFile: missing,
+      }),
     );
     expect(refusal).toBeInstanceOf(StateFileError);
     expect(refusal.message).toContain(missing);
@@ -288,7 +340,11 @@ describe('state file', () => {
     const working = await startWebhookReceiver();
     const second = await startHarness({ stateFile: file }, { receiver: working });
     try {
-      await waitFor(() => working.received.some((hook) => hook.eventId === event?.id), 10_000, 'the event delivered again');
+      await waitFor(
+        () => working.received.some((hook) => hook.eventId === event?.id),
+        10_000,
+        'the event delivered again',
+      );
       await second.fake.world.dispatcher.idle();
       const hook = working.received.find((received) => received.eventId === event?.id);
       const delivered = second.stripe().webhooks.constructEvent(hook!.rawBody, hook!.signature, WEBHOOK_SECRET);
@@ -309,7 +365,12 @@ describe('state file', () => {
     const stripe = first.stripe();
     await first.control('/balance', { amount: 5_000, currency: 'usd' });
     const payout = await stripe.payouts.create({ amount: 2_000, currency: 'usd' });
-    await stripe.paymentIntents.create({ amount: 3_000, currency: 'usd', payment_method: 'pm_card_visa', confirm: true });
+    await stripe.paymentIntents.create({
+      amount: 3_000,
+      currency: 'usd',
+      payment_method: 'pm_card_visa',
+      confirm: true,
+    });
     await first.close();
     const saved = readSnapshot();
     expect(saved.payouts[0]?.status).toBe('pending');

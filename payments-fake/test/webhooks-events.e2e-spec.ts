@@ -30,7 +30,10 @@ describe('webhook delivery', () => {
   it('signs each delivery so that the SDK constructEvent accepts it', async () => {
     const intent = await topUp(1_000);
     await harness.fake.world.dispatcher.idle();
-    expect(harness.receiver.received.map((hook) => hook.type)).toEqual(['payment_intent.created', 'payment_intent.succeeded']);
+    expect(harness.receiver.received.map((hook) => hook.type)).toEqual([
+      'payment_intent.created',
+      'payment_intent.succeeded',
+    ]);
     for (const hook of harness.receiver.received) {
       expect(hook.signature).toMatch(/^t=\d+,v1=[0-9a-f]{64}$/);
       expect(hook.headers['content-type']).toMatch(/^application\/json/);
@@ -46,9 +49,9 @@ describe('webhook delivery', () => {
     await topUp(1_000);
     await harness.fake.world.dispatcher.idle();
     const hook = harness.receiver.received[0]!;
-    expect(() => stripe.webhooks.constructEvent(hook.rawBody.replace('1000', '9000'), hook.signature, WEBHOOK_SECRET)).toThrow(
-      Stripe.errors.StripeSignatureVerificationError,
-    );
+    expect(() =>
+      stripe.webhooks.constructEvent(hook.rawBody.replace('1000', '9000'), hook.signature, WEBHOOK_SECRET),
+    ).toThrow(Stripe.errors.StripeSignatureVerificationError);
     expect(() => stripe.webhooks.constructEvent(hook.rawBody, hook.signature, 'whsec_someone_else')).toThrow(
       Stripe.errors.StripeSignatureVerificationError,
     );
@@ -110,7 +113,10 @@ describe('events API', () => {
   });
 
   it('answers an unknown event with 404 resource_missing', async () => {
-    await expect(stripe.events.retrieve('evt_missing')).rejects.toMatchObject({ statusCode: 404, code: 'resource_missing' });
+    await expect(stripe.events.retrieve('evt_missing')).rejects.toMatchObject({
+      statusCode: 404,
+      code: 'resource_missing',
+    });
   });
 
   it('keeps connected-account events apart from the platform events', async () => {

@@ -55,7 +55,10 @@ describe('participant takes part: study link to signed consent, instructions, si
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await shoot(page, 'screening');
     await page.getByRole('button', { name: 'Save my answers' }).click();
-    await page.getByText(/Please (choose Yes or No|enter a number|choose one of the answers)\./).first().waitFor();
+    await page
+      .getByText(/Please (choose Yes or No|enter a number|choose one of the answers)\./)
+      .first()
+      .waitFor();
     await shoot(page, 'screening-unanswered');
 
     const studyId = await studyIdOf(page);
@@ -105,7 +108,10 @@ describe('participant takes part: study link to signed consent, instructions, si
     await page.mouse.move(box.x + box.width * 0.15, box.y + box.height * 0.6);
     await page.mouse.down();
     for (let step = 1; step <= 12; step += 1) {
-      await page.mouse.move(box.x + box.width * (0.15 + step * 0.055), box.y + box.height * (0.6 - 0.25 * Math.sin(step / 2)));
+      await page.mouse.move(
+        box.x + box.width * (0.15 + step * 0.055),
+        box.y + box.height * (0.6 - 0.25 * Math.sin(step / 2)),
+      );
     }
     await page.mouse.up();
     await page.getByText('Drawing added.').waitFor();
@@ -118,7 +124,8 @@ describe('participant takes part: study link to signed consent, instructions, si
       (window as unknown as { sentSignatures: string[] }).sentSignatures = sent;
       const originalFetch = window.fetch.bind(window);
       window.fetch = async (input, init) => {
-        if (input instanceof Request && input.url.endsWith('/enrollments/me/signature')) sent.push(await input.clone().text());
+        if (input instanceof Request && input.url.endsWith('/enrollments/me/signature'))
+          sent.push(await input.clone().text());
         return originalFetch(input, init);
       };
     });

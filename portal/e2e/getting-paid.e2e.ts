@@ -17,7 +17,14 @@ const PROVIDER_ID = /\b(?:tr|acct|pi|evt)_[A-Za-z0-9]/;
 const studySlug = 'checkout-flows';
 
 type Step = { id: string; position: number; title: string; payMinor: number };
-type Payout = { id: string; reference: string; kind: string; stepTitle: string | null; amountMinor: number; status: string };
+type Payout = {
+  id: string;
+  reference: string;
+  kind: string;
+  stepTitle: string | null;
+  amountMinor: number;
+  status: string;
+};
 type Budget = { fundedMinor: number; remainingMinor: number };
 
 describe('participant gets paid: payout setup on the provider’s page, a step completed with its code, paid with a receipt', () => {
@@ -106,7 +113,9 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     await setup.getByText('Set up', { exact: true }).waitFor();
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await shoot(page, 'getting-paid-set-up');
-    expect(await pageApi<{ payoutsEnabled: boolean }>(page, '/api/me/payout-account')).toMatchObject({ payoutsEnabled: true });
+    expect(await pageApi<{ payoutsEnabled: boolean }>(page, '/api/me/payout-account')).toMatchObject({
+      payoutsEnabled: true,
+    });
 
     // 7. The coordinator's view of the study, for the staff side later on.
     const coordinator = await StaffApi.signIn('coordinator@evenhand.test', 'evenhand-demo');
@@ -119,7 +128,9 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     // 8. The task shows the participant their own code at its end; they come back without its Finish button and type
     //    it on the study page: a wrong code is refused at the field, the right one (in any case) completes the step.
     await page.goto(`${e2eEnv.portalUrl}/s/${studySlug}`);
-    const stepOne = page.getByRole('listitem').filter({ has: page.getByRole('heading', { name: `Step 1 · ${firstStep.title}` }) });
+    const stepOne = page
+      .getByRole('listitem')
+      .filter({ has: page.getByRole('heading', { name: `Step 1 · ${firstStep.title}` }) });
     await stepOne.getByRole('button', { name: 'Open the task' }).click();
     await page.waitForURL((url) => url.origin === new URL(e2eEnv.demoTaskUrl).origin);
     const codeCard = page.getByRole('region', { name: 'Your completion code' });
@@ -137,7 +148,12 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     await stepOne.getByRole('button', { name: 'I finished this step' }).click();
     await stepOne.getByText('Thank you: step 1 is done').waitFor();
     await stepOne.getByText('Done', { exact: true }).waitFor();
-    expect(await stepOne.locator('p').filter({ hasText: /^\$[\d.,]+ earned$/ }).textContent()).toBe('$25.00 earned');
+    expect(
+      await stepOne
+        .locator('p')
+        .filter({ hasText: /^\$[\d.,]+ earned$/ })
+        .textContent(),
+    ).toBe('$25.00 earned');
     expect(await page.getByText('Earned so far').locator('..').textContent()).toContain('$25.00');
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await shoot(page, 'step-one-done');
@@ -152,9 +168,13 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     await shoot(page, 'getting-paid-owed');
 
     // 10. The coordinator funds the study by card and approves this payout (the admin journey does this on screen).
-    const funding = await coordinator.request<{ fundingId: string; clientSecret: string }>('POST', `/api/studies/${studyId}/funding`, {
-      amountMinor: 10_000,
-    });
+    const funding = await coordinator.request<{ fundingId: string; clientSecret: string }>(
+      'POST',
+      `/api/studies/${studyId}/funding`,
+      {
+        amountMinor: 10_000,
+      },
+    );
     const fundedBefore = (await coordinator.request<Budget>('GET', `/api/studies/${studyId}/budget`)).fundedMinor;
     await confirmCardPayment(funding.clientSecret);
     await eventually('the card payment to fund the study', async () => {
@@ -165,7 +185,10 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
       return undefined;
     });
     const payout = await eventually('the owed payout for step 1', async () => {
-      const owed = await coordinator.request<{ items: Payout[] }>('GET', `/api/studies/${studyId}/payouts?status=owed&pageSize=500`);
+      const owed = await coordinator.request<{ items: Payout[] }>(
+        'GET',
+        `/api/studies/${studyId}/payouts?status=owed&pageSize=500`,
+      );
       return owed.items.find((item) => item.reference === enrollment.reference && item.kind === 'step');
     });
     expect(payout).toMatchObject({ amountMinor: firstStep.payMinor, stepTitle: firstStep.title });
@@ -173,12 +196,18 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
 
     // 11. The participant sees it paid, with a receipt number, and the receipt arrives by e-mail.
     const receiptNumber = await eventually('the payout to be paid', async () => {
-      const mine = await pageApi<{ items: { id: string; status: string; receipt: string | null }[] }>(page, '/api/me/payouts');
+      const mine = await pageApi<{ items: { id: string; status: string; receipt: string | null }[] }>(
+        page,
+        '/api/me/payouts',
+      );
       const item = mine.items.find((entry) => entry.id === payout.id);
       return item?.status === 'paid' && item.receipt ? item.receipt : undefined;
     });
     await page.reload();
-    const paidRow = page.getByRole('region', { name: 'Your pay' }).getByRole('listitem').filter({ hasText: firstStep.title });
+    const paidRow = page
+      .getByRole('region', { name: 'Your pay' })
+      .getByRole('listitem')
+      .filter({ hasText: firstStep.title });
     await paidRow.getByText('Paid', { exact: true }).waitFor();
     await paidRow.getByText(receiptNumber).waitFor();
     // Our own receipt number (study slug and a count), never the provider's ids, on the page or in the e-mail.
@@ -186,7 +215,12 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     expect(await page.locator('body').innerText()).not.toMatch(PROVIDER_ID);
     expect(await pay.getByText('Paid to you', { exact: true }).locator('..').textContent()).toContain('$25.00');
     const thisYear = page.getByRole('region', { name: 'This year' });
-    expect(await thisYear.getByText(/^Paid to you in \d{4}$/).locator('..').textContent()).toContain('$25.00');
+    expect(
+      await thisYear
+        .getByText(/^Paid to you in \d{4}$/)
+        .locator('..')
+        .textContent(),
+    ).toContain('$25.00');
     await thisYear.getByText(/finance office decides/).waitFor();
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await shoot(page, 'getting-paid-paid');
@@ -198,7 +232,8 @@ describe('participant gets paid: payout setup on the provider’s page, a step c
     // Nor in any other e-mail this participant was sent (sign-in links, the signed form, the receipt).
     const mail = await messagesTo(email);
     expect(mail.length).toBeGreaterThanOrEqual(2);
-    for (const message of mail) expect(`${message.subject}\n${message.text}\n${message.html}`, message.subject).not.toMatch(PROVIDER_ID);
+    for (const message of mail)
+      expect(`${message.subject}\n${message.text}\n${message.html}`, message.subject).not.toMatch(PROVIDER_ID);
     for (const path of [`/s/${studySlug}`, '/payouts', '/studies']) {
       await page.goto(`${e2eEnv.portalUrl}${path}`);
       await page.locator('main').first().waitFor();

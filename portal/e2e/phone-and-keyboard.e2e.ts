@@ -92,7 +92,10 @@ describe('every portal screen on a phone and by keyboard', () => {
     await checkScreen('screening', { minStops: 4 });
 
     const studyId = (await pageApi<{ id: string }>(page, `/api/public/studies/${studySlug}`)).id;
-    const enrollment = await pageApi<{ screening: { questions: ScreeningQuestion[] } }>(page, `/api/studies/${studyId}/enrollments/me`);
+    const enrollment = await pageApi<{ screening: { questions: ScreeningQuestion[] } }>(
+      page,
+      `/api/studies/${studyId}/enrollments/me`,
+    );
     for (const question of enrollment.screening.questions) await answerScreeningQuestion(page, question);
     await page.getByRole('button', { name: 'Save my answers' }).press('Enter');
 

@@ -11,7 +11,15 @@ import { pageApi, takePart } from './support/take-part';
  */
 const studySlug = 'wayfinding-cues';
 
-type Step = { id: string; position: number; title: string; payMinor: number; status: string; verification: string; hasTask: boolean };
+type Step = {
+  id: string;
+  position: number;
+  title: string;
+  payMinor: number;
+  status: string;
+  verification: string;
+  hasTask: boolean;
+};
 
 describe.each(['phone', 'desktop'] as const)('doing a step in the lab’s task and coming back (%s)', (size) => {
   let browser: JourneyBrowser;
@@ -32,8 +40,15 @@ describe.each(['phone', 'desktop'] as const)('doing a step in the lab’s task a
     const { page } = browser;
 
     // 1. Take part: sign-in link, questions, consent; then the steps.
-    const { studyId, reference } = await takePart(page, { studySlug, email, typedName: 'Noor Vale-Okafor', numbers: { sense_of_direction: 40 } });
-    const steps = (await pageApi<{ steps: Step[] }>(page, `/api/studies/${studyId}/enrollments/me`)).steps.sort((a, b) => a.position - b.position);
+    const { studyId, reference } = await takePart(page, {
+      studySlug,
+      email,
+      typedName: 'Noor Vale-Okafor',
+      numbers: { sense_of_direction: 40 },
+    });
+    const steps = (await pageApi<{ steps: Step[] }>(page, `/api/studies/${studyId}/enrollments/me`)).steps.sort(
+      (a, b) => a.position - b.position,
+    );
     const [first, second] = steps;
     if (!first || !second) throw new Error('The demo study should have at least two steps');
     expect(first, 'the demo’s first session is done in the lab’s task and open right after signing').toMatchObject({
@@ -42,8 +57,12 @@ describe.each(['phone', 'desktop'] as const)('doing a step in the lab’s task a
       status: 'open',
     });
 
-    const stepOne = page.getByRole('listitem').filter({ has: page.getByRole('heading', { name: `Step 1 · ${first.title}` }) });
-    const stepTwo = page.getByRole('listitem').filter({ has: page.getByRole('heading', { name: `Step 2 · ${second.title}` }) });
+    const stepOne = page
+      .getByRole('listitem')
+      .filter({ has: page.getByRole('heading', { name: `Step 1 · ${first.title}` }) });
+    const stepTwo = page
+      .getByRole('listitem')
+      .filter({ has: page.getByRole('heading', { name: `Step 2 · ${second.title}` }) });
     await stepOne.getByText('Ready for you', { exact: true }).waitFor();
     await stepOne.getByText(/^Do it by .+\d{4} at /).waitFor();
     await stepOne.getByText(/you are brought back here and the step is marked done/).waitFor();
@@ -73,7 +92,9 @@ describe.each(['phone', 'desktop'] as const)('doing a step in the lab’s task a
     await returned.waitFor();
     expect(await returned.getByText('Owed to you', { exact: true }).locator('..').textContent()).toContain('$10.00');
     await returned.getByText(/^Done on /).waitFor();
-    expect(await returned.getByText('Still to be paid', { exact: true }).locator('..').textContent()).toContain('$10.00');
+    expect(await returned.getByText('Still to be paid', { exact: true }).locator('..').textContent()).toContain(
+      '$10.00',
+    );
     expect(await seriousAccessibilityProblems(page)).toEqual([]);
     await shoot(page, 'return-done');
 
@@ -81,7 +102,12 @@ describe.each(['phone', 'desktop'] as const)('doing a step in the lab’s task a
     await page.getByRole('link', { name: 'Back to the study' }).click();
     await page.waitForURL(`**/s/${studySlug}`);
     await stepOne.getByText('Done', { exact: true }).waitFor();
-    expect(await stepOne.locator('p').filter({ hasText: /^\$[\d.,]+ earned$/ }).textContent()).toBe('$10.00 earned');
+    expect(
+      await stepOne
+        .locator('p')
+        .filter({ hasText: /^\$[\d.,]+ earned$/ })
+        .textContent(),
+    ).toBe('$10.00 earned');
     await page.getByText(/^1 of \d+ done$/).waitFor();
     expect(await page.getByText('Still to be paid', { exact: true }).locator('..').textContent()).toContain('$10.00');
     await stepTwo.getByText(/^Opens on .+\d{4} at /).waitFor();
@@ -99,13 +125,18 @@ describe.each(['phone', 'desktop'] as const)('doing a step in the lab’s task a
 
   it('refuses an altered return link in plain words, and shows the outcome of a return without a session', async () => {
     const { page } = browser;
-    if (!returnAddress) throw new Error('The first journey did not reach the task, so there is no return address to alter');
+    if (!returnAddress)
+      throw new Error('The first journey did not reach the task, so there is no return address to alter');
 
     // One character of the signature changed: the portal says the link was changed, and nothing was marked.
     const altered = alterSignature(returnAddress);
     await page.goto(altered);
     await page.waitForURL((url) => url.pathname === '/return');
-    expect(Object.fromEntries(new URL(page.url()).searchParams)).toEqual({ result: 'refused', study: studySlug, reason: 'forged' });
+    expect(Object.fromEntries(new URL(page.url()).searchParams)).toEqual({
+      result: 'refused',
+      study: studySlug,
+      reason: 'forged',
+    });
     await page.getByRole('heading', { level: 1, name: 'This link was changed' }).waitFor();
     await page.getByText('Nothing was marked done.').waitFor();
     expect(await page.getByRole('link', { name: 'Go to the study page' }).getAttribute('href')).toBe(`/s/${studySlug}`);
@@ -142,6 +173,9 @@ function alterSignature(address: string): string {
   const token = decodeURIComponent(url.pathname.split('/').at(-1) ?? '');
   const at = token.length - 20;
   const swapped = token[at] === 'A' ? 'B' : 'A';
-  url.pathname = url.pathname.replace(/[^/]+$/, encodeURIComponent(`${token.slice(0, at)}${swapped}${token.slice(at + 1)}`));
+  url.pathname = url.pathname.replace(
+    /[^/]+$/,
+    encodeURIComponent(`${token.slice(0, at)}${swapped}${token.slice(at + 1)}`),
+  );
   return url.toString();
 }

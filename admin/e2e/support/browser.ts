@@ -5,7 +5,9 @@ import { fileURLToPath } from 'node:url';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 
 export const adminUrl = (process.env.ADMIN_URL ?? 'http://127.0.0.1:5174').replace(/\/$/, '');
-export const screenshotDir = process.env.SCREENSHOT_DIR ?? resolve(fileURLToPath(new URL('.', import.meta.url)), '../../../.local/screenshots/admin');
+export const screenshotDir =
+  process.env.SCREENSHOT_DIR ??
+  resolve(fileURLToPath(new URL('.', import.meta.url)), '../../../.local/screenshots/admin');
 
 export const demoPassword = 'evenhand-demo';
 

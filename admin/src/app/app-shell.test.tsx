@@ -7,9 +7,27 @@ import { AppProvider } from './provider';
 import { routes } from './router';
 
 const people = {
-  admin: { id: 'a0000000-0000-4000-8000-000000000001', email: 'admin@evenhand.test', name: 'Demo Admin', role: 'admin', active: true },
-  coordinator: { id: 'a0000000-0000-4000-8000-000000000002', email: 'coordinator@evenhand.test', name: 'Demo Coordinator', role: 'coordinator', active: true },
-  participant: { id: 'a0000000-0000-4000-8000-000000000009', email: 'p001@evenhand.test', name: 'p001', role: 'participant', active: true },
+  admin: {
+    id: 'a0000000-0000-4000-8000-000000000001',
+    email: 'admin@evenhand.test',
+    name: 'Demo Admin',
+    role: 'admin',
+    active: true,
+  },
+  coordinator: {
+    id: 'a0000000-0000-4000-8000-000000000002',
+    email: 'coordinator@evenhand.test',
+    name: 'Demo Coordinator',
+    role: 'coordinator',
+    active: true,
+  },
+  participant: {
+    id: 'a0000000-0000-4000-8000-000000000009',
+    email: 'p001@evenhand.test',
+    name: 'p001',
+    role: 'participant',
+    active: true,
+  },
 };
 
 const unauthenticated = { status: 401, body: { statusCode: 401, code: 'UNAUTHENTICATED', message: 'Sign in first.' } };
@@ -37,7 +55,10 @@ describe('app shell', () => {
   });
 
   it('shows a coordinator Studies and not Staff, with the empty state from the api', async () => {
-    stubApi({ 'GET /api/auth/me': { status: 200, body: people.coordinator }, 'GET /api/studies': { status: 200, body: { items: [] } } });
+    stubApi({
+      'GET /api/auth/me': { status: 200, body: people.coordinator },
+      'GET /api/studies': { status: 200, body: { items: [] } },
+    });
     const router = renderApp('/');
 
     expect(await screen.findByText('No studies yet')).toBeInTheDocument();
@@ -102,7 +123,15 @@ describe('app shell', () => {
           { ...people.coordinator, createdAt: '2025-01-02T08:00:00.000Z', lastSignInAt: null },
         ];
         const items = search ? everyone.filter((person) => person.email.includes(search)) : everyone;
-        return { status: 200, body: { items, total: items.length, page: Number(query.get('page')), pageSize: Number(query.get('pageSize')) } };
+        return {
+          status: 200,
+          body: {
+            items,
+            total: items.length,
+            page: Number(query.get('page')),
+            pageSize: Number(query.get('pageSize')),
+          },
+        };
       },
     });
     const router = renderApp('/');

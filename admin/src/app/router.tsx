@@ -8,8 +8,14 @@ export const routes: RouteObject[] = [
     hydrateFallbackElement: <LoadingState label="Opening Evenhand…" className="min-h-dvh" />,
     children: [
       { path: '/sign-in', lazy: () => import('./routes/sign-in') },
-      { path: '/forgot-password', lazy: async () => ({ Component: (await import('./routes/password-pages')).ForgotPasswordPage }) },
-      { path: '/reset-password', lazy: async () => ({ Component: (await import('./routes/password-pages')).ResetPasswordPage }) },
+      {
+        path: '/forgot-password',
+        lazy: async () => ({ Component: (await import('./routes/password-pages')).ForgotPasswordPage }),
+      },
+      {
+        path: '/reset-password',
+        lazy: async () => ({ Component: (await import('./routes/password-pages')).ResetPasswordPage }),
+      },
       {
         path: '/',
         lazy: () => import('./routes/app/root'),

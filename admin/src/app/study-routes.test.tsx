@@ -7,8 +7,19 @@ import { routes } from './router';
 
 const studyId = '8da5576c-4820-4de3-867c-b951081f13b2';
 const base = `/api/studies/${studyId}`;
-const researcher = { id: 'a0000000-0000-4000-8000-000000000003', email: 'researcher@evenhand.test', name: 'Demo Researcher', role: 'researcher', active: true };
-const coordinator = { ...researcher, id: 'a0000000-0000-4000-8000-000000000002', email: 'coordinator@evenhand.test', role: 'coordinator' };
+const researcher = {
+  id: 'a0000000-0000-4000-8000-000000000003',
+  email: 'researcher@evenhand.test',
+  name: 'Demo Researcher',
+  role: 'researcher',
+  active: true,
+};
+const coordinator = {
+  ...researcher,
+  id: 'a0000000-0000-4000-8000-000000000002',
+  email: 'coordinator@evenhand.test',
+  role: 'coordinator',
+};
 
 const study = {
   id: studyId,
@@ -55,7 +66,17 @@ const assignment = {
   unblindedAt: null,
   unblindReason: null,
   allocated: 5,
-  balance: [{ stratumKey: 'sense_of_direction=<50', total: 5, counts: [{ armId: conditions[0]?.id, count: 2 }, { armId: conditions[1]?.id, count: 2 }, { armId: conditions[2]?.id, count: 1 }] }],
+  balance: [
+    {
+      stratumKey: 'sense_of_direction=<50',
+      total: 5,
+      counts: [
+        { armId: conditions[0]?.id, count: 2 },
+        { armId: conditions[1]?.id, count: 2 },
+        { armId: conditions[2]?.id, count: 1 },
+      ],
+    },
+  ],
   pretestNote: 'Evenhand never assigns by a pretest cut-off.',
 };
 
@@ -67,20 +88,68 @@ function stubStudy(me: typeof researcher) {
     [`GET ${base}/conditions`]: { status: 200, body: { items: conditions } },
     [`GET ${base}/steps`]: {
       status: 200,
-      body: { items: [{ id: 'e9a9b7bd-e2fb-4d26-a72e-60dee927320b', position: 1, title: 'Session 1', description: '', payMinor: 1000, hasCompletionCode: false, verification: 'staff', taskUrl: null, opensAfterDays: 0, opensFrom: 'previous-step', dueWithinDays: null, payOverrides: [] }], currency: 'USD', totalPayMinor: 1000, hasPayOverrides: false },
+      body: {
+        items: [
+          {
+            id: 'e9a9b7bd-e2fb-4d26-a72e-60dee927320b',
+            position: 1,
+            title: 'Session 1',
+            description: '',
+            payMinor: 1000,
+            hasCompletionCode: false,
+            verification: 'staff',
+            taskUrl: null,
+            opensAfterDays: 0,
+            opensFrom: 'previous-step',
+            dueWithinDays: null,
+            payOverrides: [],
+          },
+        ],
+        currency: 'USD',
+        totalPayMinor: 1000,
+        hasPayOverrides: false,
+      },
     },
     [`GET ${base}/stratification-factors`]: {
       status: 200,
-      body: { items: [{ id: 'f1', key: 'sense_of_direction', label: 'Sense of direction (0–100)', kind: 'numeric', cutPoints: [50], categories: null, minimizationWeight: 1, levels: ['<50', '≥50'] }], pretestNote: assignment.pretestNote },
+      body: {
+        items: [
+          {
+            id: 'f1',
+            key: 'sense_of_direction',
+            label: 'Sense of direction (0–100)',
+            kind: 'numeric',
+            cutPoints: [50],
+            categories: null,
+            minimizationWeight: 1,
+            levels: ['<50', '≥50'],
+          },
+        ],
+        pretestNote: assignment.pretestNote,
+      },
     },
     [`GET ${base}/screening-questions`]: { status: 200, body: { items: [] } },
     [`GET ${base}/steps/return-link`]: {
       status: 200,
-      body: { returnAddressTemplate: 'http://127.0.0.1:5173/api/return/{token}', parameters: [], keyId: 1, rotatedAt: null, graceDays: 14, validDays: 30 },
+      body: {
+        returnAddressTemplate: 'http://127.0.0.1:5173/api/return/{token}',
+        parameters: [],
+        keyId: 1,
+        rotatedAt: null,
+        graceDays: 14,
+        validDays: 30,
+      },
     },
     [`GET ${base}/reminder-plan`]: {
       status: 200,
-      body: { rules: [], suggestLostAfter: 3, enabled: true, updatedAt: null, previewSubject: 'Reminder', previewText: 'Hello' },
+      body: {
+        rules: [],
+        suggestLostAfter: 3,
+        enabled: true,
+        updatedAt: null,
+        previewSubject: 'Reminder',
+        previewText: 'Hello',
+      },
     },
   });
 }
@@ -105,7 +174,11 @@ describe('study pages', () => {
     expect(router.state.location.pathname).toBe(`/studies/${studyId}/setup`);
     expect(screen.getByRole('link', { name: /Sequence fingerprint cfd28da4…6480b/ })).toBeInTheDocument();
     const tabs = screen.getByRole('navigation', { name: 'Study' });
-    expect(within(tabs).getAllByRole('link').map((link) => link.textContent)).toEqual(['Set-up', 'Assignment', 'Consent', 'Roster', 'Dropout watch', 'Pay']);
+    expect(
+      within(tabs)
+        .getAllByRole('link')
+        .map((link) => link.textContent),
+    ).toEqual(['Set-up', 'Assignment', 'Consent', 'Roster', 'Dropout watch', 'Pay']);
     expect(within(tabs).getByRole('link', { name: 'Set-up' })).toHaveAttribute('aria-current', 'page');
     expect(screen.getByRole('button', { name: 'Pause' })).toBeInTheDocument();
   });
@@ -139,7 +212,11 @@ describe('study pages', () => {
 
     expect(await screen.findByText(commitment)).toBeInTheDocument();
     const balance = screen.getByRole('table', { name: 'Assignments per stratum and condition' });
-    expect(within(balance).getAllByRole('columnheader').map((cell) => cell.textContent)).toEqual(['Stratum', 'A', 'B', 'C', 'Total']);
+    expect(
+      within(balance)
+        .getAllByRole('columnheader')
+        .map((cell) => cell.textContent),
+    ).toEqual(['Stratum', 'A', 'B', 'C', 'Total']);
     expect(within(balance).getByRole('rowheader')).toHaveTextContent('sense of direction <50');
     expect(screen.getByRole('button', { name: 'Unblind…' })).toBeInTheDocument();
     expect(screen.queryByRole('button', { name: 'Verify sequence' })).not.toBeInTheDocument();
@@ -157,7 +234,10 @@ describe('study pages', () => {
     stubApi({
       'GET /api/auth/me': { status: 200, body: researcher },
       [`GET ${base}`]: { status: 404, body: { statusCode: 404, code: 'NOT_FOUND', message: 'No such study.' } },
-      [`GET ${base}/assignment`]: { status: 404, body: { statusCode: 404, code: 'NOT_FOUND', message: 'No such study.' } },
+      [`GET ${base}/assignment`]: {
+        status: 404,
+        body: { statusCode: 404, code: 'NOT_FOUND', message: 'No such study.' },
+      },
     });
     renderApp(`/studies/${studyId}/setup`);
 

@@ -4,7 +4,9 @@ import { MemoryRouter, useSearchParams } from 'react-router-dom';
 import { describe, expect, it } from 'vitest';
 import { useLatestSearchParams } from './use-latest-search-params';
 
-const inRouter = ({ children }: { children: ReactNode }) => <MemoryRouter initialEntries={['/audit']}>{children}</MemoryRouter>;
+const inRouter = ({ children }: { children: ReactNode }) => (
+  <MemoryRouter initialEntries={['/audit']}>{children}</MemoryRouter>
+);
 const adding = (family: string) => (current: URLSearchParams) => {
   const next = new URLSearchParams(current);
   next.append('family', family);
@@ -33,7 +35,9 @@ describe('useLatestSearchParams', () => {
   });
 
   it('starts from the address again after it changed from elsewhere', () => {
-    const { result } = renderHook(() => ({ latest: useLatestSearchParams(), router: useSearchParams() }), { wrapper: inRouter });
+    const { result } = renderHook(() => ({ latest: useLatestSearchParams(), router: useSearchParams() }), {
+      wrapper: inRouter,
+    });
     act(() => result.current.latest[1](adding('other')));
     act(() => result.current.router[1](new URLSearchParams()));
     act(() => result.current.latest[1](adding('steps')));

@@ -6,7 +6,10 @@ describe('placeFieldErrors', () => {
 
   it('places EMAIL_TAKEN on email', () => {
     const error = new ApiError({ statusCode: 409, code: 'EMAIL_TAKEN', message: 'Already in use.' });
-    expect(placeFieldErrors(error, fields)).toEqual({ fields: [{ field: 'email', message: 'Already in use.' }], formMessage: null });
+    expect(placeFieldErrors(error, fields)).toEqual({
+      fields: [{ field: 'email', message: 'Already in use.' }],
+      formMessage: null,
+    });
   });
 
   it('places nested field names on their top-level input and keeps the first message per field', () => {

@@ -32,6 +32,9 @@ export function applyApiFieldErrors<Values extends FieldValues>(
     }
   }
   if (placed.size === 0 || leftOver.length > 0) {
-    setError('root.server', { type: 'server', message: leftOver.length > 0 ? `${error.message} ${leftOver.join('; ')}` : error.message });
+    setError('root.server', {
+      type: 'server',
+      message: leftOver.length > 0 ? `${error.message} ${leftOver.join('; ')}` : error.message,
+    });
   }
 }

@@ -13,7 +13,8 @@ export function parseWholeNumberList(text: string): NumberListResult {
   if (parts.length === 0) return { ok: false, message: 'List at least one number.' };
   const values: number[] = [];
   for (const part of parts) {
-    if (!/^\d+$/.test(part) || Number(part) < 1) return { ok: false, message: `“${part}” is not a whole number of 1 or more.` };
+    if (!/^\d+$/.test(part) || Number(part) < 1)
+      return { ok: false, message: `“${part}” is not a whole number of 1 or more.` };
     values.push(Number(part));
   }
   return { ok: true, values };

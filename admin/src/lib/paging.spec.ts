@@ -4,11 +4,23 @@ import { pageWindow, parsePageParam } from './paging';
 // Row ranges follow the common practice of offset paging: offset = (page - 1) * pageSize, "41–45 of 45".
 describe('pageWindow', () => {
   it('describes a middle page', () => {
-    expect(pageWindow(2, 20, 45)).toEqual({ firstRow: 21, lastRow: 40, pageCount: 3, hasPrevious: true, hasNext: true });
+    expect(pageWindow(2, 20, 45)).toEqual({
+      firstRow: 21,
+      lastRow: 40,
+      pageCount: 3,
+      hasPrevious: true,
+      hasNext: true,
+    });
   });
 
   it('describes a short last page', () => {
-    expect(pageWindow(3, 20, 45)).toEqual({ firstRow: 41, lastRow: 45, pageCount: 3, hasPrevious: true, hasNext: false });
+    expect(pageWindow(3, 20, 45)).toEqual({
+      firstRow: 41,
+      lastRow: 45,
+      pageCount: 3,
+      hasPrevious: true,
+      hasNext: false,
+    });
   });
 
   it('counts an exact multiple without an empty extra page', () => {

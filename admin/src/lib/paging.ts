@@ -9,7 +9,8 @@ export interface PageWindow {
 
 export function pageWindow(page: number, pageSize: number, total: number): PageWindow {
   if (!Number.isInteger(page) || page < 1) throw new RangeError(`page must be a whole number from 1, got ${page}`);
-  if (!Number.isInteger(pageSize) || pageSize < 1) throw new RangeError(`pageSize must be a whole number from 1, got ${pageSize}`);
+  if (!Number.isInteger(pageSize) || pageSize < 1)
+    throw new RangeError(`pageSize must be a whole number from 1, got ${pageSize}`);
   if (!Number.isInteger(total) || total < 0) throw new RangeError(`total must be a whole number from 0, got ${total}`);
 
   const pageCount = Math.max(1, Math.ceil(total / pageSize));

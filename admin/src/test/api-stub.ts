@@ -31,7 +31,10 @@ export function stubApi(handlers: Record<string, Handler>) {
     };
     requests.push(recorded);
     const handler = handlers[`${input.method} ${url.pathname}`];
-    const answer = typeof handler === 'function' ? await handler(recorded) : (handler ?? { status: 599, body: { code: 'UNSTUBBED', message: `${input.method} ${url.pathname}` } });
+    const answer =
+      typeof handler === 'function'
+        ? await handler(recorded)
+        : (handler ?? { status: 599, body: { code: 'UNSTUBBED', message: `${input.method} ${url.pathname}` } });
     return new Response(answer.body === undefined ? null : JSON.stringify(answer.body), {
       status: answer.status,
       headers: answer.body === undefined ? {} : { 'Content-Type': 'application/json' },

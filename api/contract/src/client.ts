@@ -21,7 +21,11 @@ export function createEvenhandClient(options: EvenhandClientOptions): EvenhandCl
   const sessionFetch = createSessionFetch({
     fetch: (request) => globalThis.fetch(request),
     refresh: async () =>
-      (await globalThis.fetch(new Request(new URL('/api/auth/refresh', options.baseUrl), { method: 'POST', credentials: 'include' }))).ok,
+      (
+        await globalThis.fetch(
+          new Request(new URL('/api/auth/refresh', options.baseUrl), { method: 'POST', credentials: 'include' }),
+        )
+      ).ok,
     onSessionLost: options.onSessionLost,
   });
   return createClient<paths>({ baseUrl: options.baseUrl, credentials: 'include', fetch: sessionFetch });

@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { formatMinor, isKnownCurrency, minorToMajorText, minorUnitDigits, minorUnitsToDecimal, parseMajorAmount } from './money';
+import {
+  formatMinor,
+  isKnownCurrency,
+  minorToMajorText,
+  minorUnitDigits,
+  minorUnitsToDecimal,
+  parseMajorAmount,
+} from './money';
 
 describe('minor units of a currency', () => {
   // ISO 4217 list one (SIX Group, maintenance agency), column "Minor unit": USD 2, EUR 2, JPY 0, KRW 0, BHD 3, KWD 3.
@@ -67,8 +74,14 @@ describe('parseMajorAmount', () => {
   });
 
   it('refuses more decimals than the currency has, text and negative amounts', () => {
-    expect(parseMajorAmount('1.005', 'USD')).toEqual({ ok: false, message: 'USD amounts have at most 2 digits after the point.' });
-    expect(parseMajorAmount('10.5', 'JPY')).toEqual({ ok: false, message: 'JPY has no smaller unit; enter a whole amount.' });
+    expect(parseMajorAmount('1.005', 'USD')).toEqual({
+      ok: false,
+      message: 'USD amounts have at most 2 digits after the point.',
+    });
+    expect(parseMajorAmount('10.5', 'JPY')).toEqual({
+      ok: false,
+      message: 'JPY has no smaller unit; enter a whole amount.',
+    });
     expect(parseMajorAmount('ten', 'USD').ok).toBe(false);
     expect(parseMajorAmount('-5', 'USD').ok).toBe(false);
     expect(parseMajorAmount(' ', 'USD')).toEqual({ ok: false, message: 'Enter an amount.' });

@@ -12,12 +12,17 @@ function currencyFormat(currency: string, locale: string, fractionDigits?: numbe
     return new Intl.NumberFormat(locale, {
       style: 'currency',
       currency,
-      ...(fractionDigits === undefined ? {} : { minimumFractionDigits: fractionDigits, maximumFractionDigits: fractionDigits }),
+      ...(fractionDigits === undefined
+        ? {}
+        : { minimumFractionDigits: fractionDigits, maximumFractionDigits: fractionDigits }),
     });
   } catch (cause) {
-    throw new RangeError(`currency "${currency}" is not a currency code this runtime knows (expected ISO 4217, like "USD")`, {
-      cause,
-    });
+    throw new RangeError(
+      `currency "${currency}" is not a currency code this runtime knows (expected ISO 4217, like "USD")`,
+      {
+        cause,
+      },
+    );
   }
 }
 
@@ -76,7 +81,10 @@ export function parseMajorAmount(text: string, currency: string): MajorAmountRes
   if (fraction.length > digits) {
     return {
       ok: false,
-      message: digits === 0 ? `${currency} has no smaller unit; enter a whole amount.` : `${currency} amounts have at most ${digits} digits after the point.`,
+      message:
+        digits === 0
+          ? `${currency} has no smaller unit; enter a whole amount.`
+          : `${currency} amounts have at most ${digits} digits after the point.`,
     };
   }
   const minor = Number(whole + fraction.padEnd(digits, '0'));

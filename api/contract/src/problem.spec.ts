@@ -20,7 +20,10 @@ describe('toApiProblem', () => {
   });
 
   it('does not trust a body whose code the api never sends', () => {
-    expect(toApiProblem(502, '<html>Bad gateway</html>')).toMatchObject({ statusCode: 502, code: 'UNEXPECTED_RESPONSE' });
+    expect(toApiProblem(502, '<html>Bad gateway</html>')).toMatchObject({
+      statusCode: 502,
+      code: 'UNEXPECTED_RESPONSE',
+    });
     expect(toApiProblem(500, { code: 'SOMETHING', message: 'x' })).toMatchObject({ statusCode: 500, code: 'INTERNAL' });
     expect(toApiProblem(401, null).message).toBe('Your session has ended. Please sign in again.');
   });

@@ -101,7 +101,11 @@ describe('createSessionFetch on the sign-in paths', () => {
 
   it('reports a lost session when the retry after a renewal is refused too', async () => {
     const onSessionLost = vi.fn();
-    const sessionFetch = createSessionFetch({ fetch: async () => answer(401), refresh: async () => true, onSessionLost });
+    const sessionFetch = createSessionFetch({
+      fetch: async () => answer(401),
+      refresh: async () => true,
+      onSessionLost,
+    });
     expect((await sessionFetch(get('/api/studies'))).status).toBe(401);
     expect(onSessionLost).toHaveBeenCalledTimes(1);
   });

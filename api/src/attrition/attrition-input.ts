@@ -27,7 +27,11 @@ export function isRandomized(row: Pick<FlowRow, 'arm' | 'status' | 'assigned'>):
  * are therefore never counted as attrition before the study ends, and once it is closed anyone still active is
  * `incompleteAtClose` (COUNTING_RULE in condition-counts.ts).
  */
-export function statusCounts(flow: readonly FlowRow[], arms: readonly ReportArm[], studyClosed: boolean): ConditionStatusCounts[] {
+export function statusCounts(
+  flow: readonly FlowRow[],
+  arms: readonly ReportArm[],
+  studyClosed: boolean,
+): ConditionStatusCounts[] {
   return arms.map((arm) => {
     const counts = { active: 0, completed: 0, withdrew: 0, lost: 0, excludedAfterRandomization: 0 };
     for (const row of flow) {
@@ -36,7 +40,8 @@ export function statusCounts(flow: readonly FlowRow[], arms: readonly ReportArm[
       else if (row.status === 'excluded') counts.excludedAfterRandomization += row.n;
       else counts[row.status as 'completed' | 'withdrew' | 'lost'] += row.n;
     }
-    const randomized = counts.active + counts.completed + counts.withdrew + counts.lost + counts.excludedAfterRandomization;
+    const randomized =
+      counts.active + counts.completed + counts.withdrew + counts.lost + counts.excludedAfterRandomization;
     const incompleteAtClose = studyClosed ? counts.active : 0;
     const active = counts.active - incompleteAtClose;
     return {
@@ -54,7 +59,12 @@ function moments(n: number, sum: string | number | null, squares: string | numbe
   return n === 0 ? NO_MOMENTS : { n, sum: Number(sum ?? 0), sumOfSquares: Number(squares ?? 0) };
 }
 
-function payInput(aggregates: AttritionAggregates, arms: readonly ReportArm[], currency: string, basis: 'paid' | 'earned'): PayParityInput {
+function payInput(
+  aggregates: AttritionAggregates,
+  arms: readonly ReportArm[],
+  currency: string,
+  basis: 'paid' | 'earned',
+): PayParityInput {
   return {
     currency,
     payOverrideRecorded: aggregates.payOverrideRecorded,
@@ -116,16 +126,26 @@ function covariateInputs(rows: readonly CovariateRow[], arms: readonly ReportArm
     inputs.push({
       covariate: categoryCovariate(key, category),
       kind: 'binary',
-      byCondition: arms.map((arm) => ({ conditionId: arm.id, allRandomized: binary(arm, false), completers: binary(arm, true) })),
+      byCondition: arms.map((arm) => ({
+        conditionId: arm.id,
+        allRandomized: binary(arm, false),
+        completers: binary(arm, true),
+      })),
     });
   }
   return inputs;
 }
 
 /** Follow-up per stratum and arm (arms nobody in a stratum is in get no counts there). */
-function stratumInputs(aggregates: AttritionAggregates, arms: readonly ReportArm[]): NonNullable<AttritionReportInput['strata']> {
+function stratumInputs(
+  aggregates: AttritionAggregates,
+  arms: readonly ReportArm[],
+): NonNullable<AttritionReportInput['strata']> {
   const armIds = new Set(arms.map((arm) => arm.id));
-  const groups = new Map<string, { stratum: string | null; conditionId: string; counts: { time: number; dropped: number; censored: number }[] }>();
+  const groups = new Map<
+    string,
+    { stratum: string | null; conditionId: string; counts: { time: number; dropped: number; censored: number }[] }
+  >();
   for (const row of aggregates.strata) {
     if (!armIds.has(row.arm)) continue;
     const key = JSON.stringify([row.stratum, row.arm]);
@@ -156,7 +176,11 @@ export function toReportInput(
       covariates: covariateInputs(aggregates.covariates, arms),
       strata: stratumInputs(aggregates, arms),
       plannedLength: plannedStudyLength(
-        aggregates.steps.map((step) => ({ opensAfterDays: step.opens_after_days, opensFrom: step.opens_from, dueWithinDays: step.due_within_days })),
+        aggregates.steps.map((step) => ({
+          opensAfterDays: step.opens_after_days,
+          opensFrom: step.opens_from,
+          dueWithinDays: step.due_within_days,
+        })),
       ),
     },
     earned: payInput(aggregates, arms, options.currency, 'earned'),

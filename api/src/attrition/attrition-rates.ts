@@ -37,7 +37,8 @@ export function differentialAttrition(counts: readonly AttritionCount[], field =
 export function requireConditionIds(ids: readonly string[], field: string): void {
   const seen = new Set<string>();
   ids.forEach((id, index) => {
-    if (typeof id !== 'string' || id === '') throw new AttritionInputError(`${field}[${index}].conditionId`, 'must be a non-empty string');
+    if (typeof id !== 'string' || id === '')
+      throw new AttritionInputError(`${field}[${index}].conditionId`, 'must be a non-empty string');
     if (seen.has(id)) throw new AttritionInputError(`${field}[${index}].conditionId`, `"${id}" appears more than once`);
     seen.add(id);
   });

@@ -6,8 +6,26 @@ import { type AttritionReportInput, buildAttritionReport } from './attrition-rep
 function studyInput(): AttritionReportInput {
   return {
     conditions: [
-      { conditionId: 'landmarks', randomized: 50, active: 5, completed: 38, withdrew: 4, lost: 2, excludedAfterRandomization: 1, windowEnded: { randomized: 45, completed: 38 } },
-      { conditionId: 'map-only', randomized: 50, active: 4, completed: 26, withdrew: 12, lost: 7, excludedAfterRandomization: 1, windowEnded: { randomized: 46, completed: 26 } },
+      {
+        conditionId: 'landmarks',
+        randomized: 50,
+        active: 5,
+        completed: 38,
+        withdrew: 4,
+        lost: 2,
+        excludedAfterRandomization: 1,
+        windowEnded: { randomized: 45, completed: 38 },
+      },
+      {
+        conditionId: 'map-only',
+        randomized: 50,
+        active: 4,
+        completed: 26,
+        withdrew: 12,
+        lost: 7,
+        excludedAfterRandomization: 1,
+        windowEnded: { randomized: 46, completed: 26 },
+      },
     ],
     comparisonConditionId: 'landmarks',
     survival: [
@@ -34,8 +52,16 @@ function studyInput(): AttritionReportInput {
       currency: 'EUR',
       payOverrideRecorded: false,
       conditions: [
-        { conditionId: 'landmarks', perRandomized: { n: 50, sum: 60_000, sumOfSquares: 87_000_000 }, perCompleter: { n: 38, sum: 57_000, sumOfSquares: 85_500_000 } },
-        { conditionId: 'map-only', perRandomized: { n: 50, sum: 42_000, sumOfSquares: 60_000_000 }, perCompleter: { n: 26, sum: 39_000, sumOfSquares: 58_500_000 } },
+        {
+          conditionId: 'landmarks',
+          perRandomized: { n: 50, sum: 60_000, sumOfSquares: 87_000_000 },
+          perCompleter: { n: 38, sum: 57_000, sumOfSquares: 85_500_000 },
+        },
+        {
+          conditionId: 'map-only',
+          perRandomized: { n: 50, sum: 42_000, sumOfSquares: 60_000_000 },
+          perCompleter: { n: 26, sum: 39_000, sumOfSquares: 58_500_000 },
+        },
       ],
     },
     covariates: [
@@ -59,14 +85,25 @@ describe('buildAttritionReport', () => {
       ['landmarks', 7, 7],
       ['map-only', 20, 20],
     ]);
-    expect(report.overall).toEqual({ randomized: 100, dropped: 27, dropoutRateSoFar: 0.27, windowEndedRandomized: 91, attrited: 27, attritionRate: 27 / 91 });
+    expect(report.overall).toEqual({
+      randomized: 100,
+      dropped: 27,
+      dropoutRateSoFar: 0.27,
+      windowEndedRandomized: 91,
+      attrited: 27,
+      attritionRate: 27 / 91,
+    });
     expect(report.differentialAttrition).toBeCloseTo(20 / 46 - 7 / 45, 15);
   });
 
   it('gives the WWC verdict for the pair against the chosen comparison', () => {
     // Overall 27 / 91 = 29.7 % → row 30 (4.1 / 8.4, WWC handbook table); differential 27.9 points → high under both.
     expect(report.wwc.pairs).toHaveLength(1);
-    expect(report.wwc.pairs[0]).toMatchObject({ conditionId: 'map-only', comparisonConditionId: 'landmarks', overallPercentRow: 30 });
+    expect(report.wwc.pairs[0]).toMatchObject({
+      conditionId: 'map-only',
+      comparisonConditionId: 'landmarks',
+      overallPercentRow: 30,
+    });
     expect([report.wwc.cautious, report.wwc.optimistic]).toEqual(['high-attrition', 'high-attrition']);
   });
 
@@ -108,36 +145,74 @@ describe('buildAttritionReport', () => {
 
   it('refuses aggregates that do not agree with each other, naming the field', () => {
     const shortSurvival = studyInput();
-    shortSurvival.survival = [shortSurvival.survival[0], { conditionId: 'landmarks', counts: [{ time: 2, dropped: 7, censored: 40 }] }];
-    expect(() => buildAttritionReport(shortSurvival)).toThrow(/survival\[1\]: counts 47 participants and 7 dropouts for landmarks, but conditions has 50 and 7/);
+    shortSurvival.survival = [
+      shortSurvival.survival[0],
+      { conditionId: 'landmarks', counts: [{ time: 2, dropped: 7, censored: 40 }] },
+    ];
+    expect(() => buildAttritionReport(shortSurvival)).toThrow(
+      /survival\[1\]: counts 47 participants and 7 dropouts for landmarks, but conditions has 50 and 7/,
+    );
 
     const payMismatch = studyInput();
     const [landmarksPay, mapOnlyPay] = payMismatch.pay.conditions;
-    payMismatch.pay = { ...payMismatch.pay, conditions: [landmarksPay, { ...mapOnlyPay, perCompleter: { n: 25, sum: 37_500, sumOfSquares: 56_250_000 } }] };
-    expect(() => buildAttritionReport(payMismatch)).toThrow(/pay\.conditions\[1\]\.perCompleter\.n: must equal the condition's completed count \(26\)/);
+    payMismatch.pay = {
+      ...payMismatch.pay,
+      conditions: [landmarksPay, { ...mapOnlyPay, perCompleter: { n: 25, sum: 37_500, sumOfSquares: 56_250_000 } }],
+    };
+    expect(() => buildAttritionReport(payMismatch)).toThrow(
+      /pay\.conditions\[1\]\.perCompleter\.n: must equal the condition's completed count \(26\)/,
+    );
 
     const unknown = studyInput();
     const nobody = { n: 0, sum: 0, sumOfSquares: 0 };
-    unknown.pay = { ...unknown.pay, conditions: [...unknown.pay.conditions, { conditionId: 'compass', perRandomized: nobody, perCompleter: nobody }] };
-    expect(() => buildAttritionReport(unknown)).toThrow(/pay\.conditions: names condition\(s\) that are not in conditions: compass/);
+    unknown.pay = {
+      ...unknown.pay,
+      conditions: [...unknown.pay.conditions, { conditionId: 'compass', perRandomized: nobody, perCompleter: nobody }],
+    };
+    expect(() => buildAttritionReport(unknown)).toThrow(
+      /pay\.conditions: names condition\(s\) that are not in conditions: compass/,
+    );
 
     const missing = studyInput();
-    missing.covariates[0].byCondition = missing.covariates[0].byCondition.slice(0, 1) as typeof missing.covariates[0]['byCondition'];
-    expect(() => buildAttritionReport(missing)).toThrow(/covariates\[0\]\.byCondition: has no entry for condition\(s\) landmarks/);
+    missing.covariates[0].byCondition = missing.covariates[0].byCondition.slice(
+      0,
+      1,
+    ) as (typeof missing.covariates)[0]['byCondition'];
+    expect(() => buildAttritionReport(missing)).toThrow(
+      /covariates\[0\]\.byCondition: has no entry for condition\(s\) landmarks/,
+    );
 
-    expect(() => buildAttritionReport({ ...studyInput(), comparisonConditionId: 'compass' })).toThrow(/comparisonConditionId: "compass"/);
+    expect(() => buildAttritionReport({ ...studyInput(), comparisonConditionId: 'compass' })).toThrow(
+      /comparisonConditionId: "compass"/,
+    );
   });
 
   it('judges three conditions pairwise against the comparison', () => {
     const input = studyInput();
     input.conditions = [
       ...input.conditions,
-      { conditionId: 'turn-by-turn', randomized: 50, active: 0, completed: 36, withdrew: 8, lost: 6, excludedAfterRandomization: 0, windowEnded: { randomized: 50, completed: 36 } },
+      {
+        conditionId: 'turn-by-turn',
+        randomized: 50,
+        active: 0,
+        completed: 36,
+        withdrew: 8,
+        lost: 6,
+        excludedAfterRandomization: 0,
+        windowEnded: { randomized: 50, completed: 36 },
+      },
     ];
-    input.survival = [...input.survival, { conditionId: 'turn-by-turn', counts: [{ time: 2, dropped: 14, censored: 36 }] }];
+    input.survival = [
+      ...input.survival,
+      { conditionId: 'turn-by-turn', counts: [{ time: 2, dropped: 14, censored: 36 }] },
+    ];
     input.pay.conditions = [
       ...input.pay.conditions,
-      { conditionId: 'turn-by-turn', perRandomized: { n: 50, sum: 54_000, sumOfSquares: 81_000_000 }, perCompleter: { n: 36, sum: 54_000, sumOfSquares: 81_000_000 } },
+      {
+        conditionId: 'turn-by-turn',
+        perRandomized: { n: 50, sum: 54_000, sumOfSquares: 81_000_000 },
+        perCompleter: { n: 36, sum: 54_000, sumOfSquares: 81_000_000 },
+      },
     ];
     input.covariates = [];
     const three = buildAttritionReport(input);
@@ -152,10 +227,42 @@ describe('buildAttritionReport', () => {
 describe('buildAttritionReport: stratified tests, hazard ratio and the planned length', () => {
   // The same study split by a randomization stratum; the split adds up to the pooled counts above.
   const strata: AttritionReportInput['strata'] = [
-    { stratum: 'age=<30', conditionId: 'map-only', counts: [{ time: 1, dropped: 4, censored: 0 }, { time: 3, dropped: 5, censored: 1 }, { time: 7, dropped: 2, censored: 13 }] },
-    { stratum: 'age=≥30', conditionId: 'map-only', counts: [{ time: 1, dropped: 2, censored: 0 }, { time: 3, dropped: 3, censored: 1 }, { time: 7, dropped: 4, censored: 15 }] },
-    { stratum: 'age=<30', conditionId: 'landmarks', counts: [{ time: 2, dropped: 1, censored: 0 }, { time: 5, dropped: 2, censored: 1 }, { time: 7, dropped: 1, censored: 20 }] },
-    { stratum: 'age=≥30', conditionId: 'landmarks', counts: [{ time: 2, dropped: 1, censored: 0 }, { time: 5, dropped: 1, censored: 2 }, { time: 7, dropped: 1, censored: 20 }] },
+    {
+      stratum: 'age=<30',
+      conditionId: 'map-only',
+      counts: [
+        { time: 1, dropped: 4, censored: 0 },
+        { time: 3, dropped: 5, censored: 1 },
+        { time: 7, dropped: 2, censored: 13 },
+      ],
+    },
+    {
+      stratum: 'age=≥30',
+      conditionId: 'map-only',
+      counts: [
+        { time: 1, dropped: 2, censored: 0 },
+        { time: 3, dropped: 3, censored: 1 },
+        { time: 7, dropped: 4, censored: 15 },
+      ],
+    },
+    {
+      stratum: 'age=<30',
+      conditionId: 'landmarks',
+      counts: [
+        { time: 2, dropped: 1, censored: 0 },
+        { time: 5, dropped: 2, censored: 1 },
+        { time: 7, dropped: 1, censored: 20 },
+      ],
+    },
+    {
+      stratum: 'age=≥30',
+      conditionId: 'landmarks',
+      counts: [
+        { time: 2, dropped: 1, censored: 0 },
+        { time: 5, dropped: 1, censored: 2 },
+        { time: 7, dropped: 1, censored: 20 },
+      ],
+    },
   ];
 
   it('names the strata and runs both stratified tests on the same people as the pooled ones', () => {
@@ -168,7 +275,10 @@ describe('buildAttritionReport: stratified tests, hazard ratio and the planned l
   });
 
   it('says there is nothing to stratify by with one stratum, and refuses strata that do not add up', () => {
-    const one = buildAttritionReport({ ...studyInput(), strata: studyInput().survival.map((entry) => ({ stratum: 'all', ...entry })) });
+    const one = buildAttritionReport({
+      ...studyInput(),
+      strata: studyInput().survival.map((entry) => ({ stratum: 'all', ...entry })),
+    });
     expect(one.stratified).toEqual({ strata: ['all'], stratified: false, cmh: null, logRank: null });
     expect(() => buildAttritionReport({ ...studyInput(), strata: strata!.slice(1) })).toThrow(/strata.*map-only/);
   });
@@ -184,6 +294,8 @@ describe('buildAttritionReport: stratified tests, hazard ratio and the planned l
     const landmarks = report.survival.plannedLength.conditions[0];
     expect(landmarks.cumulative?.cumulative as number).toBeCloseTo(1 - (48 / 50) * (45 / 48) * (40 / 42), 12);
     const later = buildAttritionReport({ ...studyInput(), plannedLength: { days: 30, unknown: null } });
-    expect(later.survival.plannedLength.conditions.every((c) => c.cumulative === null && c.longestFollowUp === 7)).toBe(true);
+    expect(later.survival.plannedLength.conditions.every((c) => c.cumulative === null && c.longestFollowUp === 7)).toBe(
+      true,
+    );
   });
 });

@@ -8,7 +8,12 @@ import { type KaplanMeierCurve, type SurvivalTimeCount, kaplanMeier } from './ka
 import { type LogRankResult, logRankTest } from './log-rank';
 import { type PayParityInput, type PayParityResult, payParity } from './pay-parity';
 import { type CumulativeDropout, type PlannedLengthUnknown, cumulativeDropoutAt } from './planned-length';
-import { type StratifiedLogRankResult, type StratifiedTestResult, cochranMantelHaenszel, stratifiedLogRank } from './stratified-tests';
+import {
+  type StratifiedLogRankResult,
+  type StratifiedTestResult,
+  cochranMantelHaenszel,
+  stratifiedLogRank,
+} from './stratified-tests';
 import { type WwcAssessment, assessWwcAgainstComparison } from './wwc-verdict';
 
 /** Per-condition aggregates, as the service's SQL returns them, from which the whole dropout watch is computed. */
@@ -82,7 +87,8 @@ function requireSameConditions(ids: readonly string[], expected: readonly string
   const missing = expected.filter((id) => !ids.includes(id));
   const unknown = ids.filter((id) => !expected.includes(id));
   if (missing.length > 0) throw new AttritionInputError(field, `has no entry for condition(s) ${missing.join(', ')}`);
-  if (unknown.length > 0) throw new AttritionInputError(field, `names condition(s) that are not in conditions: ${unknown.join(', ')}`);
+  if (unknown.length > 0)
+    throw new AttritionInputError(field, `names condition(s) that are not in conditions: ${unknown.join(', ')}`);
 }
 
 function inConditionOrder<T extends { conditionId: string }>(entries: readonly T[], ids: readonly string[]): T[] {
@@ -99,12 +105,27 @@ export function buildAttritionReport(input: AttritionReportInput): AttritionRepo
   const ids = conditions.map((condition) => condition.conditionId);
   requireConditionIds(ids, 'conditions');
   if (input.comparisonConditionId !== undefined && !ids.includes(input.comparisonConditionId)) {
-    throw new AttritionInputError('comparisonConditionId', `"${input.comparisonConditionId}" is not one of the study's conditions`);
+    throw new AttritionInputError(
+      'comparisonConditionId',
+      `"${input.comparisonConditionId}" is not one of the study's conditions`,
+    );
   }
-  requireSameConditions(input.survival.map((entry) => entry.conditionId), ids, 'survival');
-  requireSameConditions(input.pay.conditions.map((entry) => entry.conditionId), ids, 'pay.conditions');
+  requireSameConditions(
+    input.survival.map((entry) => entry.conditionId),
+    ids,
+    'survival',
+  );
+  requireSameConditions(
+    input.pay.conditions.map((entry) => entry.conditionId),
+    ids,
+    'pay.conditions',
+  );
   input.covariates.forEach((covariate, index) =>
-    requireSameConditions(covariate.byCondition.map((entry) => entry.conditionId), ids, `covariates[${index}].byCondition`),
+    requireSameConditions(
+      covariate.byCondition.map((entry) => entry.conditionId),
+      ids,
+      `covariates[${index}].byCondition`,
+    ),
   );
 
   const survival = inConditionOrder(input.survival, ids);
@@ -127,14 +148,21 @@ export function buildAttritionReport(input: AttritionReportInput): AttritionRepo
     const { randomized, completed } = conditions[ids.indexOf(entry.conditionId)];
     const at = `pay.conditions[${index}]`;
     if (entry.perRandomized.n !== randomized) {
-      throw new AttritionInputError(`${at}.perRandomized.n`, `must equal the condition's randomized count (${randomized})`);
+      throw new AttritionInputError(
+        `${at}.perRandomized.n`,
+        `must equal the condition's randomized count (${randomized})`,
+      );
     }
     if (entry.perCompleter.n !== completed) {
-      throw new AttritionInputError(`${at}.perCompleter.n`, `must equal the condition's completed count (${completed})`);
+      throw new AttritionInputError(
+        `${at}.perCompleter.n`,
+        `must equal the condition's completed count (${completed})`,
+      );
     }
   });
 
-  const sum = (pick: (condition: ConditionAttrition) => number) => conditions.reduce((total, condition) => total + pick(condition), 0);
+  const sum = (pick: (condition: ConditionAttrition) => number) =>
+    conditions.reduce((total, condition) => total + pick(condition), 0);
   const randomized = sum((c) => c.randomized);
   const dropped = sum((c) => c.dropped);
   const windowEndedRandomized = sum((c) => c.windowEnded.randomized);
@@ -162,7 +190,9 @@ export function buildAttritionReport(input: AttritionReportInput): AttritionRepo
     differentialAttrition: differentialAttrition(attritionCounts),
     wwc: assessWwcAgainstComparison(attritionCounts, comparisonConditionId),
     dropoutTest: testDropoutByCondition(
-      conditions.filter((c) => c.randomized > 0).map((c) => ({ dropped: c.dropped, notDropped: c.randomized - c.dropped })),
+      conditions
+        .filter((c) => c.randomized > 0)
+        .map((c) => ({ dropped: c.dropped, notDropped: c.randomized - c.dropped })),
     ),
     survival: {
       curves,
@@ -184,12 +214,21 @@ export function buildAttritionReport(input: AttritionReportInput): AttritionRepo
   };
 }
 
-function stratifiedReport(rows: NonNullable<AttritionReportInput['strata']>, conditions: readonly ConditionAttrition[]): StratifiedReport {
+function stratifiedReport(
+  rows: NonNullable<AttritionReportInput['strata']>,
+  conditions: readonly ConditionAttrition[],
+): StratifiedReport {
   const ids = conditions.map((condition) => condition.conditionId);
   rows.forEach((row, index) => {
-    if (!ids.includes(row.conditionId)) throw new AttritionInputError(`strata[${index}].conditionId`, `"${row.conditionId}" is not one of the study's conditions`);
+    if (!ids.includes(row.conditionId))
+      throw new AttritionInputError(
+        `strata[${index}].conditionId`,
+        `"${row.conditionId}" is not one of the study's conditions`,
+      );
   });
-  const names = [...new Set(rows.map((row) => row.stratum ?? NO_STRATUM_LABEL))].sort((x, y) => (x < y ? -1 : x > y ? 1 : 0));
+  const names = [...new Set(rows.map((row) => row.stratum ?? NO_STRATUM_LABEL))].sort((x, y) =>
+    x < y ? -1 : x > y ? 1 : 0,
+  );
   // The strata must partition the same people the pooled figures count.
   conditions.forEach((condition) => {
     const counts = rows.filter((row) => row.conditionId === condition.conditionId).flatMap((row) => row.counts);
@@ -207,7 +246,9 @@ function stratifiedReport(rows: NonNullable<AttritionReportInput['strata']>, con
     stratum,
     groups: ids.map((conditionId) => ({
       conditionId,
-      counts: rows.filter((row) => (row.stratum ?? NO_STRATUM_LABEL) === stratum && row.conditionId === conditionId).flatMap((row) => row.counts),
+      counts: rows
+        .filter((row) => (row.stratum ?? NO_STRATUM_LABEL) === stratum && row.conditionId === conditionId)
+        .flatMap((row) => row.counts),
     })),
   }));
   const cmh = cochranMantelHaenszel(

@@ -6,7 +6,13 @@
  * them; attrition only aggregates, which no single domain's service could do without loading every row.
  */
 
-import { splitFollowedGroups, type FlowRow, type FollowedGroupRow, type StratumSurvivalRow, type SurvivalRow } from './followed-groups';
+import {
+  splitFollowedGroups,
+  type FlowRow,
+  type FollowedGroupRow,
+  type StratumSurvivalRow,
+  type SurvivalRow,
+} from './followed-groups';
 
 export type { FlowRow, StratumSurvivalRow, SurvivalRow } from './followed-groups';
 
@@ -49,7 +55,6 @@ function followUpEnd(alias: string): string {
 export function followUpDays(alias = 'e'): string {
   return `greatest(0, extract(epoch FROM (${followUpEnd(alias)}) - ${alias}.assigned_at) / 86400)::float8`;
 }
-
 
 /** Σ columns arrive as numeric text, Σ² columns as float8 numbers. */
 export interface PayRow {
@@ -252,7 +257,10 @@ export interface ContactRow {
 }
 
 /** Contacts sent after randomization (reminders, re-consent requests, staff messages) per participant, summed per arm. */
-export async function readContactAggregates(run: SqlRunner, study: { id: string; design: StudyDesign }): Promise<ContactRow[]> {
+export async function readContactAggregates(
+  run: SqlRunner,
+  study: { id: string; design: StudyDesign },
+): Promise<ContactRow[]> {
   const arm = armExpression(study.design);
   const rows = await run<ContactRow>(
     `WITH per_participant AS (

@@ -17,7 +17,10 @@ export class AttritionController {
   @Get('attrition')
   @Roles('researcher', 'coordinator', 'auditor', 'admin')
   @ApiOkResponse({ type: AttritionReportDto })
-  report(@Param('studyId', uuidParam('studyId')) studyId: string, @Query() query: AttritionQueryDto): Promise<AttritionReportDto> {
+  report(
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Query() query: AttritionQueryDto,
+  ): Promise<AttritionReportDto> {
     return this.attrition.report(studyId, query.comparisonConditionId);
   }
 
@@ -25,7 +28,11 @@ export class AttritionController {
   @Roles('researcher', 'coordinator', 'admin')
   @ApiProduces('text/csv')
   @ApiOkResponse({ description: 'One row per enrollment, streamed', schema: { type: 'string' } })
-  async exportCsv(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Res() response: Response): Promise<void> {
+  async exportCsv(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Res() response: Response,
+  ): Promise<void> {
     // Headers only once the study is known to exist, so that failures before the first row keep the problem shape.
     await this.attrition.writeExport(user, studyId, response, () => {
       response.status(200);

@@ -12,13 +12,26 @@ import type { StudyEntity } from '../studies';
 import { StudiesService } from '../studies';
 import { type ConsortFlow, type ReportArm, consortFlow, isRandomized, toReportInput } from './attrition-input';
 import { type AttritionReport, buildAttritionReport } from './attrition-report';
-import { type AttritionAggregates, type ExportRow, type SqlRunner, readAttritionAggregates, readContactAggregates, readCovariateKeys, readExportPage } from './attrition-sql';
+import {
+  type AttritionAggregates,
+  type ExportRow,
+  type SqlRunner,
+  readAttritionAggregates,
+  readContactAggregates,
+  readCovariateKeys,
+  readExportPage,
+} from './attrition-sql';
 import { REPEATED_LOOKS_CAUTION } from './alerts/alert-rules';
 import { COUNTING_RULE } from './condition-counts';
 import { contactParity } from './contact-parity';
 import { WWC_ROW_RULE } from './wwc-verdict';
 import { type PayParityResult, payParity } from './pay-parity';
-import type { AttritionReportDto, ConsortFlowDto, ContactsByConditionDto, PayBasisDto } from './dto/attrition-report.dto';
+import type {
+  AttritionReportDto,
+  ConsortFlowDto,
+  ContactsByConditionDto,
+  PayBasisDto,
+} from './dto/attrition-report.dto';
 
 export const WINDOW_RULE =
   'The participation window has ended for everyone once the study is closed; while it runs, for participants who completed, withdrew, were lost to follow-up or were excluded after randomization. Active participants are never counted as attrition before the study closes.';
@@ -32,7 +45,17 @@ const CAUTIONS = [
 
 const EXPORT_PAGE_SIZE = 2000;
 const FIXED_COLUMNS = ['reference', 'condition', 'stratum'] as const;
-const TRAILING_COLUMNS = ['status', 'assigned_at', 'completed_at', 'dropped_out_at', 'counted_as', 'steps_done', 'paid_minor', 'earned_minor', 'currency'] as const;
+const TRAILING_COLUMNS = [
+  'status',
+  'assigned_at',
+  'completed_at',
+  'dropped_out_at',
+  'counted_as',
+  'steps_done',
+  'paid_minor',
+  'earned_minor',
+  'currency',
+] as const;
 
 interface StudyArms {
   study: StudyEntity;
@@ -91,7 +114,11 @@ export class AttritionService {
     // One snapshot for every aggregate: the report cross-checks the survival and pay totals against the counts.
     return this.dataSource.transaction('REPEATABLE READ', (manager: EntityManager) => {
       const run: SqlRunner = (sql, parameters) => manager.query(sql, parameters);
-      return readAttritionAggregates(run, { id: study.id, design: study.design, currency: study.currency, closed: study.status === 'closed' }, censorAt);
+      return readAttritionAggregates(
+        run,
+        { id: study.id, design: study.design, currency: study.currency, closed: study.status === 'closed' },
+        censorAt,
+      );
     });
   }
 
@@ -101,24 +128,38 @@ export class AttritionService {
   }
 
   /** The report and the raw figures behind it, for the alert rules. */
-  async compute(studyId: string, comparisonConditionId?: string): Promise<{ dto: AttritionReportDto; figures: AttritionFigures }> {
+  async compute(
+    studyId: string,
+    comparisonConditionId?: string,
+  ): Promise<{ dto: AttritionReportDto; figures: AttritionFigures }> {
     const context = await this.studyArms(studyId);
     const { study } = context;
     const computedAt = new Date();
-    const censorAt = study.status === 'closed' && study.closedAt && study.closedAt < computedAt ? study.closedAt : computedAt;
+    const censorAt =
+      study.status === 'closed' && study.closedAt && study.closedAt < computedAt ? study.closedAt : computedAt;
     const aggregates = await this.readConsistently(study, censorAt);
     const arms = this.arms(context, aggregates.flow);
     if (comparisonConditionId !== undefined && !arms.some((arm) => arm.id === comparisonConditionId)) {
-      throw new ValidationException([{ field: 'comparisonConditionId', message: `is not one of the study's ${study.design === 'within' ? 'orders' : 'conditions'}` }]);
+      throw new ValidationException([
+        {
+          field: 'comparisonConditionId',
+          message: `is not one of the study's ${study.design === 'within' ? 'orders' : 'conditions'}`,
+        },
+      ]);
     }
 
-    const input = toReportInput(aggregates, arms, { studyClosed: study.status === 'closed', currency: study.currency, comparisonConditionId });
+    const input = toReportInput(aggregates, arms, {
+      studyClosed: study.status === 'closed',
+      currency: study.currency,
+      comparisonConditionId,
+    });
     const report = buildAttritionReport(input.report);
     const earned = payParity({ ...input.earned, comparisonConditionId: report.wwc.comparisonConditionId ?? undefined });
     const names = new Map(arms.map((arm) => [arm.id, arm.name]));
     const nameOf = (id: string) => names.get(id) as string;
     const cautions = [...CAUTIONS];
-    if (study.design === 'within') cautions.push('Within-subjects study: each order of conditions is reported as one arm.');
+    if (study.design === 'within')
+      cautions.push('Within-subjects study: each order of conditions is reported as one arm.');
     if (context.blinded) cautions.push('The study is blinded: conditions are shown by code until it is unblinded.');
 
     const dto: AttritionReportDto = {
@@ -179,8 +220,15 @@ export class AttritionService {
     return { dto, figures: { report, earned } };
   }
 
-  private async contacts(study: StudyEntity, arms: ReportArm[], nameOf: (id: string) => string): Promise<ContactsByConditionDto> {
-    const rows = await readContactAggregates((sql, parameters) => this.dataSource.query(sql, parameters), { id: study.id, design: study.design });
+  private async contacts(
+    study: StudyEntity,
+    arms: ReportArm[],
+    nameOf: (id: string) => string,
+  ): Promise<ContactsByConditionDto> {
+    const rows = await readContactAggregates((sql, parameters) => this.dataSource.query(sql, parameters), {
+      id: study.id,
+      design: study.design,
+    });
     const byArm = new Map(rows.map((r) => [r.arm, r]));
     const parity = contactParity(
       arms.map((arm) => {
@@ -209,7 +257,12 @@ export class AttritionService {
    * Writes the study's data set as CSV to `out`, one row per enrollment, page by page in reference order, waiting
    * whenever the client is slower than the database; never more than one page in memory.
    */
-  async writeExport(actor: SessionUser, studyId: string, out: Writable, begin: () => void = () => undefined): Promise<void> {
+  async writeExport(
+    actor: SessionUser,
+    studyId: string,
+    out: Writable,
+    begin: () => void = () => undefined,
+  ): Promise<void> {
     const context = await this.studyArms(studyId);
     const { study } = context;
     const run: SqlRunner = (sql, parameters) => this.dataSource.query(sql, parameters);
@@ -235,7 +288,14 @@ export class AttritionService {
     const record = (row: ExportRow): Record<string, unknown> => {
       const values: Record<string, unknown> = {
         reference: row.reference,
-        condition: row.arm === null ? '' : spreadsheetSafe(study.design === 'within' ? this.orderName(context, row.arm) : (context.conditionNames.get(row.arm) ?? '?')),
+        condition:
+          row.arm === null
+            ? ''
+            : spreadsheetSafe(
+                study.design === 'within'
+                  ? this.orderName(context, row.arm)
+                  : (context.conditionNames.get(row.arm) ?? '?'),
+              ),
         stratum: row.stratum_key ?? '',
         status: row.status,
         assigned_at: row.assigned_at,
@@ -249,7 +309,14 @@ export class AttritionService {
       };
       for (const { key, header } of covariateColumns) {
         const value = row.covariates[key];
-        values[header] = typeof value === 'string' ? spreadsheetSafe(value) : value === null || value === undefined ? '' : typeof value === 'object' ? JSON.stringify(value) : value;
+        values[header] =
+          typeof value === 'string'
+            ? spreadsheetSafe(value)
+            : value === null || value === undefined
+              ? ''
+              : typeof value === 'object'
+                ? JSON.stringify(value)
+                : value;
       }
       return values;
     };
@@ -262,7 +329,12 @@ export class AttritionService {
       let after: string | null = null;
       for (;;) {
         const closedAt = study.status === 'closed' ? (study.closedAt ?? new Date()) : null;
-        const page: ExportRow[] = await readExportPage(run, { id: study.id, design: study.design, currency: study.currency, closedAt }, after, EXPORT_PAGE_SIZE);
+        const page: ExportRow[] = await readExportPage(
+          run,
+          { id: study.id, design: study.design, currency: study.currency, closedAt },
+          after,
+          EXPORT_PAGE_SIZE,
+        );
         for (const row of page) {
           if (gone.signal.aborted) throw new Error('the client closed the connection');
           if (!csv.write(record(row))) await once(csv, 'drain', { signal: gone.signal });
@@ -273,7 +345,9 @@ export class AttritionService {
       csv.end();
       await finished(out);
     } catch (error) {
-      this.logger.error(`Export of study ${studyId} stopped: ${error instanceof Error ? error.message : String(error)}`);
+      this.logger.error(
+        `Export of study ${studyId} stopped: ${error instanceof Error ? error.message : String(error)}`,
+      );
       csv.destroy();
       out.destroy();
     } finally {

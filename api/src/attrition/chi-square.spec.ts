@@ -25,7 +25,12 @@ describe('chiSquareIndependence', () => {
     // Source: @stdlib/stats-chi2test 0.2.1, a general-purpose statistics package; correct: false disables Yates.
     const table = fc
       .record({ rows: fc.integer({ min: 2, max: 5 }), columns: fc.integer({ min: 2, max: 4 }) })
-      .chain(({ rows, columns }) => fc.array(fc.array(fc.integer({ min: 1, max: 400 }), { minLength: columns, maxLength: columns }), { minLength: rows, maxLength: rows }));
+      .chain(({ rows, columns }) =>
+        fc.array(fc.array(fc.integer({ min: 1, max: 400 }), { minLength: columns, maxLength: columns }), {
+          minLength: rows,
+          maxLength: rows,
+        }),
+      );
     fc.assert(
       fc.property(table, (observed) => {
         const ours = chiSquareIndependence(observed);
@@ -33,7 +38,9 @@ describe('chiSquareIndependence', () => {
         expect(ours.df).toBe(reference.df);
         expect(ours.statistic as number).toBeCloseTo(reference.statistic, 8);
         expect(ours.pValue as number).toBeCloseTo(reference.pValue, 10);
-        observed.forEach((row, i) => row.forEach((_, j) => expect(ours.expected[i][j]).toBeCloseTo(reference.expected.get(i, j), 9)));
+        observed.forEach((row, i) =>
+          row.forEach((_, j) => expect(ours.expected[i][j]).toBeCloseTo(reference.expected.get(i, j), 9)),
+        );
       }),
       { numRuns: 200 },
     );
@@ -42,7 +49,12 @@ describe('chiSquareIndependence', () => {
   it('keeps the p-value within [0, 1] for any table, and gives null when a row or column total is zero', () => {
     const table = fc
       .record({ rows: fc.integer({ min: 2, max: 4 }), columns: fc.integer({ min: 2, max: 3 }) })
-      .chain(({ rows, columns }) => fc.array(fc.array(fc.nat(50), { minLength: columns, maxLength: columns }), { minLength: rows, maxLength: rows }));
+      .chain(({ rows, columns }) =>
+        fc.array(fc.array(fc.nat(50), { minLength: columns, maxLength: columns }), {
+          minLength: rows,
+          maxLength: rows,
+        }),
+      );
     fc.assert(
       fc.property(table, (observed) => {
         const { pValue, statistic } = chiSquareIndependence(observed);
@@ -60,8 +72,18 @@ describe('chiSquareIndependence', () => {
   it('refuses tables that are ragged, too small or hold something other than counts', () => {
     expect(() => chiSquareIndependence([[1, 2]])).toThrow(/table: needs at least two rows/);
     expect(() => chiSquareIndependence([[1, 2], [3]])).toThrow(/table\[1\]: has 1 cells, expected 2/);
-    expect(() => chiSquareIndependence([[1, 2], [3, -4]])).toThrow(/table\[1\]\[1\]: must be a whole number/);
-    expect(() => chiSquareIndependence([[1, 2], [3, 0.5]])).toThrow(/table\[1\]\[1\]/);
+    expect(() =>
+      chiSquareIndependence([
+        [1, 2],
+        [3, -4],
+      ]),
+    ).toThrow(/table\[1\]\[1\]: must be a whole number/);
+    expect(() =>
+      chiSquareIndependence([
+        [1, 2],
+        [3, 0.5],
+      ]),
+    ).toThrow(/table\[1\]\[1\]/);
   });
 });
 

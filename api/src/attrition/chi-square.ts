@@ -19,7 +19,8 @@ export function requireTable(observed: readonly (readonly number[])[], field: st
   const columns = observed[0]?.length ?? 0;
   if (columns < 2) throw new AttritionInputError(`${field}[0]`, 'needs at least two columns');
   observed.forEach((row, i) => {
-    if (row.length !== columns) throw new AttritionInputError(`${field}[${i}]`, `has ${row.length} cells, expected ${columns}`);
+    if (row.length !== columns)
+      throw new AttritionInputError(`${field}[${i}]`, `has ${row.length} cells, expected ${columns}`);
     row.forEach((cell, j) => requireCount(cell, `${field}[${i}][${j}]`));
   });
 }
@@ -31,10 +32,18 @@ export function chiSquareIndependence(observed: readonly (readonly number[])[], 
   const rowTotals = observed.map((row) => row.reduce((sum, cell) => sum + cell, 0));
   const columnTotals = observed[0].map((_, j) => observed.reduce((sum, row) => sum + row[j], 0));
   const total = rowTotals.reduce((sum, value) => sum + value, 0);
-  const expected = rowTotals.map((rowTotal) => columnTotals.map((columnTotal) => (total === 0 ? 0 : (rowTotal * columnTotal) / total)));
+  const expected = rowTotals.map((rowTotal) =>
+    columnTotals.map((columnTotal) => (total === 0 ? 0 : (rowTotal * columnTotal) / total)),
+  );
   const df = (observed.length - 1) * (columnTotals.length - 1);
   const smallExpectedCounts = expected.some((row) => row.some((cell) => cell < 5));
-  const base = { method: 'chi-square' as const, df, expected, continuityCorrection: false as const, smallExpectedCounts };
+  const base = {
+    method: 'chi-square' as const,
+    df,
+    expected,
+    continuityCorrection: false as const,
+    smallExpectedCounts,
+  };
   if (rowTotals.includes(0) || columnTotals.includes(0)) return { ...base, statistic: null, pValue: null };
 
   let statistic = 0;

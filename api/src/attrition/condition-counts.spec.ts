@@ -26,7 +26,16 @@ describe('summarizeCondition', () => {
   });
 
   it('gives null rather than NaN when nobody is randomized or nobody has reached the end of their window', () => {
-    const empty = summarizeCondition({ ...running, randomized: 0, active: 0, completed: 0, withdrew: 0, lost: 0, excludedAfterRandomization: 0, windowEnded: { randomized: 0, completed: 0 } });
+    const empty = summarizeCondition({
+      ...running,
+      randomized: 0,
+      active: 0,
+      completed: 0,
+      withdrew: 0,
+      lost: 0,
+      excludedAfterRandomization: 0,
+      windowEnded: { randomized: 0, completed: 0 },
+    });
     expect(empty.dropoutRateSoFar).toBeNull();
     expect(empty.attritionRate).toBeNull();
     expect(summarizeCondition({ ...running, windowEnded: { randomized: 0, completed: 0 } }).attritionRate).toBeNull();
@@ -34,15 +43,22 @@ describe('summarizeCondition', () => {
 
   it('refuses counts whose statuses do not add up to the randomized count, naming the field', () => {
     expect(() => summarizeCondition({ ...running, randomized: 41 }, 'conditions[1]')).toThrowError(
-      new AttritionInputError('conditions[1].randomized', 'must equal active + completed + withdrew + lost + excludedAfterRandomization + incompleteAtClose (40), got 41'),
+      new AttritionInputError(
+        'conditions[1].randomized',
+        'must equal active + completed + withdrew + lost + excludedAfterRandomization + incompleteAtClose (40), got 41',
+      ),
     );
   });
 
   it('refuses negative, fractional and impossible window counts', () => {
     expect(() => summarizeCondition({ ...running, lost: -1 })).toThrow(/condition\.lost: must be a whole number/);
     expect(() => summarizeCondition({ ...running, active: 9.5, completed: 22.5 })).toThrow(/condition\.active/);
-    expect(() => summarizeCondition({ ...running, windowEnded: { randomized: 41, completed: 0 } })).toThrow(/windowEnded\.randomized: must not exceed randomized \(40\), got 41/);
-    expect(() => summarizeCondition({ ...running, windowEnded: { randomized: 30, completed: 23 } })).toThrow(/windowEnded\.completed: must not exceed completed \(22\), got 23/);
+    expect(() => summarizeCondition({ ...running, windowEnded: { randomized: 41, completed: 0 } })).toThrow(
+      /windowEnded\.randomized: must not exceed randomized \(40\), got 41/,
+    );
+    expect(() => summarizeCondition({ ...running, windowEnded: { randomized: 30, completed: 23 } })).toThrow(
+      /windowEnded\.completed: must not exceed completed \(22\), got 23/,
+    );
     expect(() => summarizeCondition({ ...running, conditionId: '' })).toThrow(/condition\.conditionId/);
   });
 });
@@ -75,7 +91,9 @@ describe('overall and differential attrition', () => {
     expect(differentialAttrition(rates)).toBeCloseTo(0.15, 15);
     expect(differentialAttrition([{ randomized: 10, attrited: 1 }])).toBeNull();
     expect(overallAttrition([])).toBeNull();
-    expect(() => attritionRate({ randomized: 5, attrited: 6 }, 'pair[0]')).toThrow(/pair\[0\]\.attrited: must not exceed randomized \(5\), got 6/);
+    expect(() => attritionRate({ randomized: 5, attrited: 6 }, 'pair[0]')).toThrow(
+      /pair\[0\]\.attrited: must not exceed randomized \(5\), got 6/,
+    );
   });
 });
 
@@ -89,21 +107,34 @@ const conditionCounts = fc
     excludedAfterRandomization: fc.nat(20),
     activeEnded: fc.nat(50),
   })
-  .map(({ active, completedEnded, completedRunning, withdrew, lost, excludedAfterRandomization, activeEnded }): ConditionStatusCounts => {
-    const randomized = active + completedEnded + completedRunning + withdrew + lost + excludedAfterRandomization;
-    const endedActive = Math.min(activeEnded, active);
-    return {
-      conditionId: 'c',
-      randomized,
+  .map(
+    ({
       active,
-      completed: completedEnded + completedRunning,
+      completedEnded,
+      completedRunning,
       withdrew,
       lost,
       excludedAfterRandomization,
-      // Everyone who dropped out has ended their participation, plus some completers and active people past their window.
-      windowEnded: { randomized: completedEnded + withdrew + lost + excludedAfterRandomization + endedActive, completed: completedEnded },
-    };
-  });
+      activeEnded,
+    }): ConditionStatusCounts => {
+      const randomized = active + completedEnded + completedRunning + withdrew + lost + excludedAfterRandomization;
+      const endedActive = Math.min(activeEnded, active);
+      return {
+        conditionId: 'c',
+        randomized,
+        active,
+        completed: completedEnded + completedRunning,
+        withdrew,
+        lost,
+        excludedAfterRandomization,
+        // Everyone who dropped out has ended their participation, plus some completers and active people past their window.
+        windowEnded: {
+          randomized: completedEnded + withdrew + lost + excludedAfterRandomization + endedActive,
+          completed: completedEnded,
+        },
+      };
+    },
+  );
 
 describe('properties', () => {
   it('keeps every rate within [0, 1]', () => {
@@ -111,7 +142,10 @@ describe('properties', () => {
       fc.property(fc.array(conditionCounts, { minLength: 1, maxLength: 5 }), (conditions) => {
         const summaries = conditions.map((condition) => summarizeCondition(condition));
         const inUnit = (rate: number | null) => rate === null || (rate >= 0 && rate <= 1);
-        const counts = summaries.map((summary) => ({ randomized: summary.windowEnded.randomized, attrited: summary.attrited }));
+        const counts = summaries.map((summary) => ({
+          randomized: summary.windowEnded.randomized,
+          attrited: summary.attrited,
+        }));
         return (
           summaries.every((summary) => inUnit(summary.dropoutRateSoFar) && inUnit(summary.attritionRate)) &&
           inUnit(overallAttrition(counts)) &&
@@ -129,10 +163,17 @@ describe('properties', () => {
           ...condition,
           randomized: condition.randomized + 1,
           completed: condition.completed + 1,
-          windowEnded: { randomized: condition.windowEnded.randomized + 1, completed: condition.windowEnded.completed + 1 },
+          windowEnded: {
+            randomized: condition.windowEnded.randomized + 1,
+            completed: condition.windowEnded.completed + 1,
+          },
         });
-        const notHigher = (later: number | null, earlier: number | null) => earlier === null || (later as number) <= earlier;
-        return notHigher(after.attritionRate, before.attritionRate) && notHigher(after.dropoutRateSoFar, before.dropoutRateSoFar);
+        const notHigher = (later: number | null, earlier: number | null) =>
+          earlier === null || (later as number) <= earlier;
+        return (
+          notHigher(after.attritionRate, before.attritionRate) &&
+          notHigher(after.dropoutRateSoFar, before.dropoutRateSoFar)
+        );
       }),
     );
   });

@@ -61,7 +61,12 @@ export function summarizeCondition(counts: ConditionStatusCounts, field = 'condi
     );
   }
   requireAtMost(counts.windowEnded.randomized, counts.randomized, at('windowEnded.randomized'), 'randomized');
-  requireAtMost(counts.windowEnded.completed, counts.windowEnded.randomized, at('windowEnded.completed'), 'windowEnded.randomized');
+  requireAtMost(
+    counts.windowEnded.completed,
+    counts.windowEnded.randomized,
+    at('windowEnded.completed'),
+    'windowEnded.randomized',
+  );
   requireAtMost(counts.windowEnded.completed, counts.completed, at('windowEnded.completed'), 'completed');
 
   const attrited = counts.windowEnded.randomized - counts.windowEnded.completed;

@@ -3,7 +3,11 @@ import { describe, expect, it } from 'vitest';
 import { contactParity } from './contact-parity';
 
 function moments(values: number[]) {
-  return { n: values.length, sum: values.reduce((a, b) => a + b, 0), sumOfSquares: values.reduce((a, b) => a + b * b, 0) };
+  return {
+    n: values.length,
+    sum: values.reduce((a, b) => a + b, 0),
+    sumOfSquares: values.reduce((a, b) => a + b * b, 0),
+  };
 }
 
 describe('contactParity', () => {

@@ -11,7 +11,15 @@ export interface ArmContactMoments {
 }
 
 export interface ContactParity {
-  conditions: Array<{ conditionId: string; participants: number; contacts: number; meanPerParticipant: number | null; reminders: number; reconsentRequests: number; staffMessages: number }>;
+  conditions: Array<{
+    conditionId: string;
+    participants: number;
+    contacts: number;
+    meanPerParticipant: number | null;
+    reminders: number;
+    reconsentRequests: number;
+    staffMessages: number;
+  }>;
   /** Largest minus smallest arm mean, contacts per participant. */
   largestMeanDifference: number | null;
   test: WelchAnovaResult;

@@ -16,14 +16,26 @@ const nobody = { n: 0, sum: 0, sumOfSquares: 0 };
 function reportOf(rows: FollowedGroupRow[], studyClosed: boolean) {
   const { flow, survival, strata } = splitFollowedGroups(rows, studyClosed);
   const count = (arm: string, completed?: boolean) =>
-    flow.filter((r) => r.arm === arm && r.assigned && (completed === undefined || (r.status === 'completed') === completed)).reduce((t, r) => t + r.n, 0);
+    flow
+      .filter(
+        (r) => r.arm === arm && r.assigned && (completed === undefined || (r.status === 'completed') === completed),
+      )
+      .reduce((t, r) => t + r.n, 0);
   const aggregates: AttritionAggregates = {
     flow,
     survival,
     pay: arms.map((arm) => ({
-      arm: arm.id, randomized: count(arm.id), completed: count(arm.id, true),
-      paid_sum: '0', paid_squares: 0, paid_completer_sum: '0', paid_completer_squares: 0,
-      earned_sum: '0', earned_squares: 0, earned_completer_sum: '0', earned_completer_squares: 0,
+      arm: arm.id,
+      randomized: count(arm.id),
+      completed: count(arm.id, true),
+      paid_sum: '0',
+      paid_squares: 0,
+      paid_completer_sum: '0',
+      paid_completer_squares: 0,
+      earned_sum: '0',
+      earned_squares: 0,
+      earned_completer_sum: '0',
+      earned_completer_squares: 0,
     })),
     covariates: [],
     strata,
@@ -74,7 +86,13 @@ describe('one counting rule for people still active', () => {
       { arm: 'c', status: 'completed', assigned: true, reason: null, randomized: true, day: 10, n: 1 },
     ];
     const { report, flow } = reportOf(rows, false);
-    expect(report.conditions[0]).toMatchObject({ active: 2, incompleteAtClose: 0, dropped: 0, attrited: 0, windowEnded: { randomized: 3, completed: 3 } });
+    expect(report.conditions[0]).toMatchObject({
+      active: 2,
+      incompleteAtClose: 0,
+      dropped: 0,
+      attrited: 0,
+      windowEnded: { randomized: 3, completed: 3 },
+    });
     expect(report.survival.curves[0].steps.at(-1)).toMatchObject({ time: 12.5, dropped: 0, censored: 2 });
     expect(flow.arms[0]).toMatchObject({ stillInFollowUp: 2, incompleteAtClose: 0 });
   });
@@ -88,7 +106,12 @@ describe('one counting rule for people still active', () => {
           const curveDropped = report.survival.curves[i].steps.reduce((t, s) => t + s.dropped, 0);
           expect(curveDropped).toBe(condition.dropped);
           const arm = flow.arms[i];
-          expect(arm.withdrew.total + arm.lostToFollowUp.total + arm.excludedAfterRandomization.total + arm.incompleteAtClose).toBe(condition.dropped);
+          expect(
+            arm.withdrew.total +
+              arm.lostToFollowUp.total +
+              arm.excludedAfterRandomization.total +
+              arm.incompleteAtClose,
+          ).toBe(condition.dropped);
           expect(arm.stillInFollowUp).toBe(condition.active);
           if (closed) {
             // Once closed, everyone's window has ended and WWC attrition is exactly the dropouts.
@@ -100,9 +123,12 @@ describe('one counting rule for people still active', () => {
         });
         // The stratified tests count the same people the same way: their observed dropouts add up to the pooled ones.
         if (report.stratified.logRank !== null) {
-          report.conditions.forEach((condition, i) => expect(report.stratified.logRank!.groups[i].observed).toBe(condition.dropped));
+          report.conditions.forEach((condition, i) =>
+            expect(report.stratified.logRank!.groups[i].observed).toBe(condition.dropped),
+          );
         }
-        const tableDropped = report.dropoutTest.chiSquare === null ? null : report.dropoutTest.chiSquare.expected.flat().length;
+        const tableDropped =
+          report.dropoutTest.chiSquare === null ? null : report.dropoutTest.chiSquare.expected.flat().length;
         if (tableDropped !== null) {
           const rowsTested = report.conditions.filter((c) => c.randomized > 0);
           const observedDropped = rowsTested.reduce((t, c) => t + c.dropped, 0);

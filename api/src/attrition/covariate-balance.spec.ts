@@ -1,17 +1,28 @@
 import { jStat } from 'jstat';
 import seedrandom from 'seedrandom';
 import { describe, expect, it } from 'vitest';
-import { type CovariateInput, covariateBalance, standardizedMeanDifferenceBinary, standardizedMeanDifferenceContinuous } from './covariate-balance';
+import {
+  type CovariateInput,
+  covariateBalance,
+  standardizedMeanDifferenceBinary,
+  standardizedMeanDifferenceContinuous,
+} from './covariate-balance';
 
 describe('standardized mean differences (Austin 2009, Statistics in Medicine 28:3083)', () => {
   it('continuous form on a hand-computable example', () => {
     // By hand: condition ages 4, 6, 8 → mean 6, s² = (4 + 0 + 4) / 2 = 4; comparison 1, 3, 5, 7, 9 → mean 5,
     // s² = (16 + 4 + 0 + 4 + 16) / 4 = 10; d = (6 − 5) / √((4 + 10) / 2) = 1 / √7 = 0.37796.
-    const result = standardizedMeanDifferenceContinuous({ n: 3, sum: 18, sumOfSquares: 116 }, { n: 5, sum: 25, sumOfSquares: 165 });
+    const result = standardizedMeanDifferenceContinuous(
+      { n: 3, sum: 18, sumOfSquares: 116 },
+      { n: 5, sum: 25, sumOfSquares: 165 },
+    );
     expect(result.d).toBeCloseTo(0.37796, 5);
     // Chance range by hand: all eight values 1…9 minus 2 → S² = (281 − 43²/8) / 7 = 7.125; 1.96·√(7.125·(1/3 + 1/5)) / √7
     // = 1.4476: with three and five people a d of 0.38 is well within what re-randomizing them produces.
-    expect(result.chanceRange as number).toBeCloseTo((jStat.normal.inv(0.975, 0, 1) * Math.sqrt((281 - 43 ** 2 / 8) / 7 * (1 / 3 + 1 / 5))) / Math.sqrt(7), 10);
+    expect(result.chanceRange as number).toBeCloseTo(
+      (jStat.normal.inv(0.975, 0, 1) * Math.sqrt(((281 - 43 ** 2 / 8) / 7) * (1 / 3 + 1 / 5))) / Math.sqrt(7),
+      10,
+    );
     expect(result.imbalanced).toBe(false);
   });
 
@@ -27,10 +38,24 @@ describe('standardized mean differences (Austin 2009, Statistics in Medicine 28:
   });
 
   it('handles groups without spread or without people', () => {
-    expect(standardizedMeanDifferenceBinary({ n: 10, count: 0 }, { n: 10, count: 0 })).toEqual({ d: 0, chanceRange: 0, imbalanced: false });
-    expect(standardizedMeanDifferenceBinary({ n: 10, count: 0 }, { n: 10, count: 10 })).toEqual({ d: null, chanceRange: null, imbalanced: true });
-    expect(standardizedMeanDifferenceBinary({ n: 0, count: 0 }, { n: 10, count: 3 })).toEqual({ d: null, chanceRange: null, imbalanced: null });
-    expect(standardizedMeanDifferenceContinuous({ n: 1, sum: 30, sumOfSquares: 900 }, { n: 5, sum: 25, sumOfSquares: 165 })).toEqual({ d: null, chanceRange: null, imbalanced: null });
+    expect(standardizedMeanDifferenceBinary({ n: 10, count: 0 }, { n: 10, count: 0 })).toEqual({
+      d: 0,
+      chanceRange: 0,
+      imbalanced: false,
+    });
+    expect(standardizedMeanDifferenceBinary({ n: 10, count: 0 }, { n: 10, count: 10 })).toEqual({
+      d: null,
+      chanceRange: null,
+      imbalanced: true,
+    });
+    expect(standardizedMeanDifferenceBinary({ n: 0, count: 0 }, { n: 10, count: 3 })).toEqual({
+      d: null,
+      chanceRange: null,
+      imbalanced: null,
+    });
+    expect(
+      standardizedMeanDifferenceContinuous({ n: 1, sum: 30, sumOfSquares: 900 }, { n: 5, sum: 25, sumOfSquares: 165 }),
+    ).toEqual({ d: null, chanceRange: null, imbalanced: null });
     expect(() => standardizedMeanDifferenceBinary({ n: 5, count: 6 }, { n: 5, count: 1 }, 'covariates[2]')).toThrow(
       /covariates\[2\]\.condition\.count: must not exceed n \(5\), got 6/,
     );
@@ -43,8 +68,16 @@ describe('covariateBalance', () => {
       covariate: 'age',
       kind: 'continuous',
       byCondition: [
-        { conditionId: 'landmarks', allRandomized: { n: 5, sum: 25, sumOfSquares: 165 }, completers: { n: 5, sum: 25, sumOfSquares: 165 } },
-        { conditionId: 'map-only', allRandomized: { n: 3, sum: 18, sumOfSquares: 116 }, completers: { n: 2, sum: 14, sumOfSquares: 100 } },
+        {
+          conditionId: 'landmarks',
+          allRandomized: { n: 5, sum: 25, sumOfSquares: 165 },
+          completers: { n: 5, sum: 25, sumOfSquares: 165 },
+        },
+        {
+          conditionId: 'map-only',
+          allRandomized: { n: 3, sum: 18, sumOfSquares: 116 },
+          completers: { n: 2, sum: 14, sumOfSquares: 100 },
+        },
       ],
     },
     {
@@ -70,7 +103,9 @@ describe('covariateBalance', () => {
   });
 
   it('refuses a comparison condition a covariate has no entry for', () => {
-    expect(() => covariateBalance(inputs, 'turn-by-turn')).toThrow(/covariates\[0\]\.byCondition: has no entry for the comparison condition "turn-by-turn"/);
+    expect(() => covariateBalance(inputs, 'turn-by-turn')).toThrow(
+      /covariates\[0\]\.byCondition: has no entry for the comparison condition "turn-by-turn"/,
+    );
   });
 });
 
@@ -78,8 +113,12 @@ describe('a balance flag scaled to the sample', () => {
   const random = seedrandom('balance-spec');
   // Box–Muller standard normal from the seeded stream.
   const normal = () => Math.sqrt(-2 * Math.log(1 - random())) * Math.cos(2 * Math.PI * random());
-  const momentsOf = (values: number[]) => ({ n: values.length, sum: values.reduce((t, v) => t + v, 0), sumOfSquares: values.reduce((t, v) => t + v * v, 0) });
-  const shuffled = <T,>(values: T[]) => {
+  const momentsOf = (values: number[]) => ({
+    n: values.length,
+    sum: values.reduce((t, v) => t + v, 0),
+    sumOfSquares: values.reduce((t, v) => t + v * v, 0),
+  });
+  const shuffled = <T>(values: T[]) => {
     const copy = [...values];
     for (let i = copy.length - 1; i > 0; i -= 1) {
       const j = Math.floor(random() * (i + 1));
@@ -107,7 +146,9 @@ describe('a balance flag scaled to the sample', () => {
     const result = standardizedMeanDifferenceContinuous(momentsOf(values.slice(0, 18)), momentsOf(values.slice(18)));
     const permuted = Array.from({ length: 4000 }, () => {
       const order = shuffled(values);
-      return Math.abs(standardizedMeanDifferenceContinuous(momentsOf(order.slice(0, 18)), momentsOf(order.slice(18))).d as number);
+      return Math.abs(
+        standardizedMeanDifferenceContinuous(momentsOf(order.slice(0, 18)), momentsOf(order.slice(18))).d as number,
+      );
     }).sort((x, y) => x - y);
     const percentile95 = permuted[Math.floor(0.95 * permuted.length)];
     expect(Math.abs((result.chanceRange as number) - percentile95) / percentile95).toBeLessThan(0.12);
@@ -117,17 +158,25 @@ describe('a balance flag scaled to the sample', () => {
     const binary = standardizedMeanDifferenceBinary({ n: 15, count: 5 }, { n: 15, count: 4 });
     const permutedBinary = Array.from({ length: 4000 }, () => {
       const order = shuffled(people);
-      const d = standardizedMeanDifferenceBinary({ n: 15, count: count(order.slice(0, 15)) }, { n: 15, count: count(order.slice(15)) }).d;
+      const d = standardizedMeanDifferenceBinary(
+        { n: 15, count: count(order.slice(0, 15)) },
+        { n: 15, count: count(order.slice(15)) },
+      ).d;
       return d === null ? Infinity : Math.abs(d);
     }).sort((x, y) => x - y);
     // The binary |d| takes few values, so compare with the permutation's 95th percentile loosely.
-    expect(binary.chanceRange as number).toBeGreaterThan(permutedBinary[Math.floor(0.9 * permutedBinary.length)] * 0.85);
+    expect(binary.chanceRange as number).toBeGreaterThan(
+      permutedBinary[Math.floor(0.9 * permutedBinary.length)] * 0.85,
+    );
     expect(binary.chanceRange as number).toBeLessThan(permutedBinary[Math.floor(0.99 * permutedBinary.length)] * 1.15);
   });
 
   it('adds the variance ratio with its range under equal variances from the F distribution (jStat.centralF)', () => {
     // By hand: s² 4 (n 3) and 10 (n 5) → ratio 0.4; range F(2, 4) 2.5 % and 97.5 % points from jStat.
-    const result = standardizedMeanDifferenceContinuous({ n: 3, sum: 18, sumOfSquares: 116 }, { n: 5, sum: 25, sumOfSquares: 165 });
+    const result = standardizedMeanDifferenceContinuous(
+      { n: 3, sum: 18, sumOfSquares: 116 },
+      { n: 5, sum: 25, sumOfSquares: 165 },
+    );
     expect(result.varianceRatio).toBeCloseTo(0.4, 12);
     expect(result.varianceRatioRange).toEqual([jStat.centralF.inv(0.025, 2, 4), jStat.centralF.inv(0.975, 2, 4)]);
     expect(result.varianceRatioImbalanced).toBe(false);

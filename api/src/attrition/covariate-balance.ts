@@ -63,7 +63,11 @@ function judged(difference: number, pooledVariance: number, permutationVariance:
   const z = jStat.normal.inv(1 - CHANCE_LEVEL / 2, 0, 1);
   const allowed = z * Math.sqrt(permutationVariance);
   if (pooledVariance === 0) {
-    return { d: difference === 0 ? 0 : null, chanceRange: difference === 0 ? 0 : null, imbalanced: Math.abs(difference) > allowed };
+    return {
+      d: difference === 0 ? 0 : null,
+      chanceRange: difference === 0 ? 0 : null,
+      imbalanced: Math.abs(difference) > allowed,
+    };
   }
   const spread = Math.sqrt(pooledVariance);
   const d = difference / spread;
@@ -80,19 +84,33 @@ export function standardizedMeanDifferenceContinuous(
   const two = meanAndVariance(comparison, `${field}.comparison`);
   if (one.variance === null || two.variance === null) return NOTHING;
   const combined = meanAndVariance(
-    { n: condition.n + comparison.n, sum: condition.sum + comparison.sum, sumOfSquares: condition.sumOfSquares + comparison.sumOfSquares },
+    {
+      n: condition.n + comparison.n,
+      sum: condition.sum + comparison.sum,
+      sumOfSquares: condition.sumOfSquares + comparison.sumOfSquares,
+    },
     field,
   );
   const permutationVariance = (combined.variance as number) * (1 / condition.n + 1 / comparison.n);
-  const result = judged((one.mean as number) - (two.mean as number), (one.variance + two.variance) / 2, permutationVariance);
-  if (two.variance === 0) return { ...result, varianceRatio: null, varianceRatioRange: null, varianceRatioImbalanced: null };
+  const result = judged(
+    (one.mean as number) - (two.mean as number),
+    (one.variance + two.variance) / 2,
+    permutationVariance,
+  );
+  if (two.variance === 0)
+    return { ...result, varianceRatio: null, varianceRatioRange: null, varianceRatioImbalanced: null };
   // Variance ratio against F(n1 − 1, n2 − 1), its distribution when both groups are normal with equal variances.
   const varianceRatio = one.variance / two.variance;
   const range: [number, number] = [
     jStat.centralF.inv(CHANCE_LEVEL / 2, condition.n - 1, comparison.n - 1),
     jStat.centralF.inv(1 - CHANCE_LEVEL / 2, condition.n - 1, comparison.n - 1),
   ];
-  return { ...result, varianceRatio, varianceRatioRange: range, varianceRatioImbalanced: varianceRatio < range[0] || varianceRatio > range[1] };
+  return {
+    ...result,
+    varianceRatio,
+    varianceRatioRange: range,
+    varianceRatioImbalanced: varianceRatio < range[0] || varianceRatio > range[1],
+  };
 }
 
 function requireBinaryCount(count: BinaryCount, field: string): void {
@@ -114,26 +132,36 @@ export function standardizedMeanDifferenceBinary(
   const p2 = comparison.count / comparison.n;
   const total = condition.n + comparison.n;
   const pooled = (condition.count + comparison.count) / total;
-  const permutationVariance = total < 2 ? 0 : ((pooled * (1 - pooled) * total) / (total - 1)) * (1 / condition.n + 1 / comparison.n);
+  const permutationVariance =
+    total < 2 ? 0 : ((pooled * (1 - pooled) * total) / (total - 1)) * (1 / condition.n + 1 / comparison.n);
   return judged(p1 - p2, (p1 * (1 - p1) + p2 * (1 - p2)) / 2, permutationVariance);
 }
 
 /** Each other condition against the comparison condition (the first when none is picked), among all randomized and among completers. */
-export function covariateBalance(inputs: readonly CovariateInput[], comparisonConditionId?: string): CovariateBalanceRow[] {
+export function covariateBalance(
+  inputs: readonly CovariateInput[],
+  comparisonConditionId?: string,
+): CovariateBalanceRow[] {
   return inputs.flatMap((input, index) => {
     const field = `covariates[${index}]`;
     if (typeof input.covariate !== 'string' || input.covariate === '') {
       throw new AttritionInputError(`${field}.covariate`, 'must be a non-empty string');
     }
     if (input.kind !== 'continuous' && input.kind !== 'binary') {
-      throw new AttritionInputError(`${field}.kind`, `must be "continuous" or "binary", got ${String((input as { kind: unknown }).kind)}`);
+      throw new AttritionInputError(
+        `${field}.kind`,
+        `must be "continuous" or "binary", got ${String((input as { kind: unknown }).kind)}`,
+      );
     }
     const ids = input.byCondition.map((entry) => entry.conditionId);
     requireConditionIds(ids, `${field}.byCondition`);
     if (ids.length === 0) return [];
     const comparisonIndex = comparisonConditionId === undefined ? 0 : ids.indexOf(comparisonConditionId);
     if (comparisonIndex < 0) {
-      throw new AttritionInputError(`${field}.byCondition`, `has no entry for the comparison condition "${comparisonConditionId}"`);
+      throw new AttritionInputError(
+        `${field}.byCondition`,
+        `has no entry for the comparison condition "${comparisonConditionId}"`,
+      );
     }
 
     return ids.flatMap((conditionId, i): CovariateBalanceRow[] => {
@@ -148,8 +176,16 @@ export function covariateBalance(inputs: readonly CovariateInput[], comparisonCo
             kind: input.kind,
             conditionId,
             comparisonConditionId: ids[comparisonIndex],
-            allRandomized: standardizedMeanDifferenceContinuous(condition.allRandomized, comparison.allRandomized, `${at}.allRandomized`),
-            completers: standardizedMeanDifferenceContinuous(condition.completers, comparison.completers, `${at}.completers`),
+            allRandomized: standardizedMeanDifferenceContinuous(
+              condition.allRandomized,
+              comparison.allRandomized,
+              `${at}.allRandomized`,
+            ),
+            completers: standardizedMeanDifferenceContinuous(
+              condition.completers,
+              comparison.completers,
+              `${at}.completers`,
+            ),
           },
         ];
       }
@@ -161,7 +197,11 @@ export function covariateBalance(inputs: readonly CovariateInput[], comparisonCo
           kind: input.kind,
           conditionId,
           comparisonConditionId: ids[comparisonIndex],
-          allRandomized: standardizedMeanDifferenceBinary(condition.allRandomized, comparison.allRandomized, `${at}.allRandomized`),
+          allRandomized: standardizedMeanDifferenceBinary(
+            condition.allRandomized,
+            comparison.allRandomized,
+            `${at}.allRandomized`,
+          ),
           completers: standardizedMeanDifferenceBinary(condition.completers, comparison.completers, `${at}.completers`),
         },
       ];

@@ -30,16 +30,31 @@ describe('coxProportionalHazards', () => {
     const [placeboRatio] = coxProportionalHazards(freireich, '6-mp', { ties: 'breslow' }).hazardRatios;
     expect(placeboRatio.coefficient as number).toBeCloseTo(1.509, 3);
     expect(placeboRatio.hazardRatio as number).toBeCloseTo(4.52, 2);
-    expect(placeboRatio.standardError as number).toBeCloseTo(0.410, 2);
+    expect(placeboRatio.standardError as number).toBeCloseTo(0.41, 2);
   });
 
-  const series = fc.array(fc.record({ time: fc.nat(40), dropped: fc.nat(3), censored: fc.nat(3) }), { minLength: 1, maxLength: 10 });
+  const series = fc.array(fc.record({ time: fc.nat(40), dropped: fc.nat(3), censored: fc.nat(3) }), {
+    minLength: 1,
+    maxLength: 10,
+  });
 
   it('turns the hazard ratio over when the comparison is swapped (property, fast-check)', () => {
     fc.assert(
       fc.property(series, series, (a: SurvivalTimeCount[], b: SurvivalTimeCount[]) => {
-        const one = coxProportionalHazards([{ conditionId: 'a', counts: a }, { conditionId: 'b', counts: b }], 'a').hazardRatios[0];
-        const other = coxProportionalHazards([{ conditionId: 'a', counts: a }, { conditionId: 'b', counts: b }], 'b').hazardRatios[0];
+        const one = coxProportionalHazards(
+          [
+            { conditionId: 'a', counts: a },
+            { conditionId: 'b', counts: b },
+          ],
+          'a',
+        ).hazardRatios[0];
+        const other = coxProportionalHazards(
+          [
+            { conditionId: 'a', counts: a },
+            { conditionId: 'b', counts: b },
+          ],
+          'b',
+        ).hazardRatios[0];
         if (one.coefficient === null || other.coefficient === null) return true;
         expect(other.coefficient).toBeCloseTo(-one.coefficient, 5);
         expect(other.standardError as number).toBeCloseTo(one.standardError as number, 5);
@@ -51,14 +66,18 @@ describe('coxProportionalHazards', () => {
 
   it('gives the same fit under Efron and Breslow when no two dropouts share a time (property, fast-check)', () => {
     // Efron (1977): the two approximations differ only in how tied event times are handled.
-    const untied = fc.uniqueArray(fc.integer({ min: 1, max: 60 }), { minLength: 4, maxLength: 20 }).map((times) =>
-      times.map((time, i) => ({ time, dropped: i % 2 === 0 ? 1 : 0, censored: i % 2 === 0 ? 0 : 1, arm: i % 3 })),
-    );
+    const untied = fc
+      .uniqueArray(fc.integer({ min: 1, max: 60 }), { minLength: 4, maxLength: 20 })
+      .map((times) =>
+        times.map((time, i) => ({ time, dropped: i % 2 === 0 ? 1 : 0, censored: i % 2 === 0 ? 0 : 1, arm: i % 3 })),
+      );
     fc.assert(
       fc.property(untied, (people) => {
         const groups = [0, 1, 2].map((arm) => ({
           conditionId: `arm-${arm}`,
-          counts: people.filter((p) => p.arm === arm).map(({ time, dropped, censored }) => ({ time, dropped, censored })),
+          counts: people
+            .filter((p) => p.arm === arm)
+            .map(({ time, dropped, censored }) => ({ time, dropped, censored })),
         }));
         const efron = coxProportionalHazards(groups, 'arm-0');
         const breslow = coxProportionalHazards(groups, 'arm-0', { ties: 'breslow' });
@@ -101,7 +120,9 @@ describe('coxProportionalHazards', () => {
   });
 
   it('names the field of bad input', () => {
-    expect(() => coxProportionalHazards([{ conditionId: 'a', counts: [{ time: -1, dropped: 1, censored: 0 }] }], 'a')).toThrow(/groups\[0\]\.counts\[0\]\.time/);
+    expect(() =>
+      coxProportionalHazards([{ conditionId: 'a', counts: [{ time: -1, dropped: 1, censored: 0 }] }], 'a'),
+    ).toThrow(/groups\[0\]\.counts\[0\]\.time/);
     expect(() => coxProportionalHazards(freireich, 'nope')).toThrow(/comparisonConditionId/);
   });
 });

@@ -6,7 +6,8 @@ import type { SurvivalGroup } from './log-rank';
 
 export type CoxTies = 'efron' | 'breslow';
 
-export type HazardRatioNotEstimable = 'nobody-randomized' | 'no-dropouts' | 'comparison-has-no-dropouts' | 'did-not-converge' | 'infinite-estimate';
+export type HazardRatioNotEstimable =
+  'nobody-randomized' | 'no-dropouts' | 'comparison-has-no-dropouts' | 'did-not-converge' | 'infinite-estimate';
 
 /** Beyond these the partial likelihood is monotone (the estimate runs off to ±∞), as coxph warns "coefficient may be infinite". */
 const LARGEST_COEFFICIENT = 15;
@@ -71,7 +72,8 @@ export function coxProportionalHazards(
     field,
   );
   const comparisonIndex = groups.findIndex((group) => group.conditionId === comparisonConditionId);
-  if (comparisonIndex < 0) throw new AttritionInputError('comparisonConditionId', `"${comparisonConditionId}" is not one of the groups`);
+  if (comparisonIndex < 0)
+    throw new AttritionInputError('comparisonConditionId', `"${comparisonConditionId}" is not one of the groups`);
   const series = groups.map((group, g) => normalizeSurvivalCounts(group.counts, `${field}[${g}].counts`));
   const people = series.map((counts) => counts.reduce((sum, count) => sum + count.dropped + count.censored, 0));
   const events = series.map((counts) => counts.reduce((sum, count) => sum + count.dropped, 0));
@@ -90,7 +92,13 @@ export function coxProportionalHazards(
   const others = groups.map((_, g) => g).filter((g) => g !== comparisonIndex);
   if (events[comparisonIndex] === 0 || people[comparisonIndex] === 0) {
     const reason = people[comparisonIndex] === 0 ? 'nobody-randomized' : 'comparison-has-no-dropouts';
-    return { ...base, hazardRatios: others.map((g) => notEstimable(g, people[g] === 0 ? 'nobody-randomized' : reason)), iterations: 0, converged: false, logLikelihood: null };
+    return {
+      ...base,
+      hazardRatios: others.map((g) => notEstimable(g, people[g] === 0 ? 'nobody-randomized' : reason)),
+      iterations: 0,
+      converged: false,
+      logLikelihood: null,
+    };
   }
   // The fitted conditions: the comparison (baseline) and every other condition with anyone dropping out.
   const fitted = others.filter((g) => events[g] > 0);
@@ -98,7 +106,10 @@ export function coxProportionalHazards(
   const p = fitted.length;
 
   const times = [...new Set(included.flatMap((g) => series[g].map((count) => count.time)))].sort((x, y) => x - y);
-  const slices: TimeSlice[] = times.map(() => ({ dropped: new Array<number>(included.length).fill(0), censored: new Array<number>(included.length).fill(0) }));
+  const slices: TimeSlice[] = times.map(() => ({
+    dropped: new Array<number>(included.length).fill(0),
+    censored: new Array<number>(included.length).fill(0),
+  }));
   const timeIndex = new Map(times.map((time, index) => [time, index]));
   included.forEach((g, column) =>
     series[g].forEach((count) => {
@@ -181,7 +192,8 @@ export function coxProportionalHazards(
     if (inverse === null || !(inverse[index][index] > 0)) return notEstimable(g, 'did-not-converge');
     const coefficient = beta[index];
     const standardError = Math.sqrt(inverse[index][index]);
-    if (Math.abs(coefficient) > LARGEST_COEFFICIENT || standardError > LARGEST_STANDARD_ERROR) return notEstimable(g, 'infinite-estimate');
+    if (Math.abs(coefficient) > LARGEST_COEFFICIENT || standardError > LARGEST_STANDARD_ERROR)
+      return notEstimable(g, 'infinite-estimate');
     const wald = coefficient / standardError;
     return {
       conditionId: groups[g].conditionId,
@@ -204,7 +216,8 @@ function solve(matrix: number[][], vector: number[]): number[] | null {
   const rows = matrix.map((row, i) => [...row, vector[i]]);
   for (let column = 0; column < size; column += 1) {
     let pivot = column;
-    for (let row = column + 1; row < size; row += 1) if (Math.abs(rows[row][column]) > Math.abs(rows[pivot][column])) pivot = row;
+    for (let row = column + 1; row < size; row += 1)
+      if (Math.abs(rows[row][column]) > Math.abs(rows[pivot][column])) pivot = row;
     if (!(Math.abs(rows[pivot][column]) > 1e-14)) return null;
     [rows[column], rows[pivot]] = [rows[pivot], rows[column]];
     for (let row = 0; row < size; row += 1) {

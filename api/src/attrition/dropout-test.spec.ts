@@ -13,7 +13,8 @@ import { exactRowsByTwoTest } from './exact-table-test';
 function bruteForceExactP(dropped: number[], sizes: number[]): number {
   const total = sizes.reduce((sum, n) => sum + n, 0);
   const m = dropped.reduce((sum, x) => sum + x, 0);
-  const probability = (xs: number[]) => xs.reduce((product, x, i) => product * jStat.combination(sizes[i], x), 1) / jStat.combination(total, m);
+  const probability = (xs: number[]) =>
+    xs.reduce((product, x, i) => product * jStat.combination(sizes[i], x), 1) / jStat.combination(total, m);
   const observed = probability(dropped);
   let p = 0;
   const walk = (i: number, xs: number[]) => {
@@ -29,7 +30,8 @@ function bruteForceExactP(dropped: number[], sizes: number[]): number {
   return p;
 }
 
-const rowsOf = (dropped: number[], sizes: number[]) => dropped.map((d, i) => ({ dropped: d, notDropped: sizes[i] - d }));
+const rowsOf = (dropped: number[], sizes: number[]) =>
+  dropped.map((d, i) => ({ dropped: d, notDropped: sizes[i] - d }));
 
 describe('test of dropout by condition with three or more conditions and small expected counts', () => {
   // 3 × 14 randomized, 2 / 4 / 8 dropped: every expected dropout count is 14 · 14 / 42 = 4.67 (< 5), as in the demo study.
@@ -57,13 +59,18 @@ describe('test of dropout by condition with three or more conditions and small e
 describe('exactRowsByTwoTest', () => {
   it('agrees with brute-force enumeration on every small table (property, fast-check)', () => {
     fc.assert(
-      fc.property(fc.array(fc.integer({ min: 1, max: 7 }), { minLength: 2, maxLength: 4 }).chain((sizes) =>
-        fc.tuple(fc.constant(sizes), fc.tuple(...sizes.map((n) => fc.integer({ min: 0, max: n })))),
-      ), ([sizes, dropped]) => {
-        const result = exactRowsByTwoTest(rowsOf(dropped, sizes).map((r) => [r.dropped, r.notDropped]));
-        expect(result.method).toBe('freeman-halton-exact');
-        expect(result.pValue).toBeCloseTo(bruteForceExactP(dropped, sizes), 10);
-      }),
+      fc.property(
+        fc
+          .array(fc.integer({ min: 1, max: 7 }), { minLength: 2, maxLength: 4 })
+          .chain((sizes) =>
+            fc.tuple(fc.constant(sizes), fc.tuple(...sizes.map((n) => fc.integer({ min: 0, max: n })))),
+          ),
+        ([sizes, dropped]) => {
+          const result = exactRowsByTwoTest(rowsOf(dropped, sizes).map((r) => [r.dropped, r.notDropped]));
+          expect(result.method).toBe('freeman-halton-exact');
+          expect(result.pValue).toBeCloseTo(bruteForceExactP(dropped, sizes), 10);
+        },
+      ),
       { numRuns: 150, seed: 14 },
     );
   });

@@ -43,23 +43,45 @@ export function testDropoutByCondition(rows: readonly DropoutTableRow[], field =
   const observed = rows.map((row) => [row.dropped, row.notDropped]);
   const withoutStatistic = { statistic: null, df: null, continuityCorrection: false as const };
   if (observed.length < 2) {
-    return { method: 'chi-square', reason: 'not-computable', smallestExpected: null, ...withoutStatistic, pValue: null, chiSquare: null, fisherExact: null, exact: null };
+    return {
+      method: 'chi-square',
+      reason: 'not-computable',
+      smallestExpected: null,
+      ...withoutStatistic,
+      pValue: null,
+      chiSquare: null,
+      fisherExact: null,
+      exact: null,
+    };
   }
   const chiSquare = chiSquareIndependence(observed, field);
   const smallestExpected = Math.min(...chiSquare.expected.flat());
   const fisher = observed.length === 2 ? fisherExact(observed, field) : null;
   const computable = chiSquare.statistic !== null;
   const choice = chooseDropoutTest(observed, field);
-  const exact = computable && choice !== 'chi-square' && observed.length > 2 ? exactRowsByTwoTest(observed, {}, field) : null;
+  const exact =
+    computable && choice !== 'chi-square' && observed.length > 2 ? exactRowsByTwoTest(observed, {}, field) : null;
   const common = { smallestExpected, chiSquare, fisherExact: fisher, exact };
   if (!computable) {
     return { method: 'chi-square', reason: 'not-computable', ...withoutStatistic, pValue: null, ...common };
   }
   if (choice === 'fisher-exact' && fisher !== null) {
-    return { method: 'fisher-exact', reason: 'small-expected-counts', ...withoutStatistic, pValue: fisher.pValueTwoSided, ...common };
+    return {
+      method: 'fisher-exact',
+      reason: 'small-expected-counts',
+      ...withoutStatistic,
+      pValue: fisher.pValueTwoSided,
+      ...common,
+    };
   }
   if (exact !== null) {
-    return { method: exact.method, reason: 'small-expected-counts', ...withoutStatistic, pValue: exact.pValue, ...common };
+    return {
+      method: exact.method,
+      reason: 'small-expected-counts',
+      ...withoutStatistic,
+      pValue: exact.pValue,
+      ...common,
+    };
   }
   return {
     method: 'chi-square',

@@ -37,7 +37,11 @@ const DEFAULT_SEED = 'evenhand-dropout-exact-test';
  * the p-value is estimated from seeded random tables with the same margins ((1 + hits) / (B + 1), as R's
  * simulate.p.value), and its standard error is returned.
  */
-export function exactRowsByTwoTest(observed: readonly (readonly number[])[], options: ExactTableTestOptions = {}, field = 'table'): ExactTableTestResult {
+export function exactRowsByTwoTest(
+  observed: readonly (readonly number[])[],
+  options: ExactTableTestOptions = {},
+  field = 'table',
+): ExactTableTestResult {
   requireTable(observed, field);
   if (observed[0].length !== 2) throw new AttritionInputError(field, 'must have exactly two columns');
   const rowTotals = observed.map((row) => row[0] + row[1]);
@@ -73,7 +77,10 @@ export function exactRowsByTwoTest(observed: readonly (readonly number[])[], opt
     let remainingM = m;
     let logP = 0;
     for (let i = 0; i < rowTotals.length; i += 1) {
-      const x = i === rowTotals.length - 1 ? remainingM : drawHypergeometric(remainingTotal, remainingM, rowTotals[i], random());
+      const x =
+        i === rowTotals.length - 1
+          ? remainingM
+          : drawHypergeometric(remainingTotal, remainingM, rowTotals[i], random());
       logP += logC[i][x];
       remainingTotal -= rowTotals[i];
       remainingM -= x;
@@ -134,7 +141,9 @@ function drawHypergeometric(population: number, successes: number, draws: number
   const highest = Math.min(draws, successes);
   let x = lowest;
   let pmf = Math.exp(
-    jStat.combinationln(successes, x) + jStat.combinationln(population - successes, draws - x) - jStat.combinationln(population, draws),
+    jStat.combinationln(successes, x) +
+      jStat.combinationln(population - successes, draws - x) -
+      jStat.combinationln(population, draws),
   );
   let cumulative = pmf;
   while (cumulative < u && x < highest) {

@@ -54,7 +54,8 @@ export function splitFollowedGroups(
     else flow.set(flowKey, { arm: row.arm, status: row.status, assigned: row.assigned, reason: row.reason, n: row.n });
 
     if (!row.randomized) continue;
-    if (row.arm === null || row.day === null) throw new Error(`A randomized group has no ${row.arm === null ? 'arm' : 'day'}.`);
+    if (row.arm === null || row.day === null)
+      throw new Error(`A randomized group has no ${row.arm === null ? 'arm' : 'day'}.`);
     const timeKey = JSON.stringify([row.arm, row.day]);
     const time = survival.get(timeKey) ?? { arm: row.arm, day: row.day, dropped: 0, censored: 0 };
     const stratum = row.stratum ?? null;

@@ -4,8 +4,27 @@ import { tallySurvivalTimes } from './kaplan-meier';
 // as printed in most survival texts and in R's MASS::gehan (checked against the Rdatasets copy via the search tool).
 export const sixMp = tallySurvivalTimes(
   [
-    [6, true], [6, true], [6, true], [6, false], [7, true], [9, false], [10, true], [10, false], [11, false], [13, true], [16, true],
-    [17, false], [19, false], [20, false], [22, true], [23, true], [25, false], [32, false], [32, false], [34, false], [35, false],
+    [6, true],
+    [6, true],
+    [6, true],
+    [6, false],
+    [7, true],
+    [9, false],
+    [10, true],
+    [10, false],
+    [11, false],
+    [13, true],
+    [16, true],
+    [17, false],
+    [19, false],
+    [20, false],
+    [22, true],
+    [23, true],
+    [25, false],
+    [32, false],
+    [32, false],
+    [34, false],
+    [35, false],
   ].map(([time, dropped]) => ({ time: time as number, dropped: dropped as boolean })),
 );
 export const placebo = tallySurvivalTimes(

@@ -13,7 +13,8 @@ describe('Wilson interval', () => {
   it('is the set of p whose score test (jStat normal) does not reject: the bounds solve (p̂ − p)² = z²·p(1 − p)/n', () => {
     const z = jStat.normal.inv(0.975, 0, 1);
     const { lower, upper } = wilsonInterval(7, 30)!;
-    for (const bound of [lower, upper]) expect((7 / 30 - bound) ** 2).toBeCloseTo((z * z * bound * (1 - bound)) / 30, 12);
+    for (const bound of [lower, upper])
+      expect((7 / 30 - bound) ** 2).toBeCloseTo((z * z * bound * (1 - bound)) / 30, 12);
     expect(wilsonInterval(0, 0)).toBeNull();
     expect(wilsonInterval(0, 10)!.lower).toBe(0);
   });

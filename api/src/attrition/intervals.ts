@@ -27,7 +27,13 @@ export function wilsonInterval(events: number, n: number, confidenceLevel = 0.95
 
 // Newcombe's hybrid score interval for p1 − p2 (Newcombe 1998, Statistics in Medicine 17:873, method 10), from the
 // two Wilson intervals: δ − √((p1 − l1)² + (u2 − p2)²) to δ + √((u1 − p1)² + (p2 − l2)²).
-export function newcombeDifferenceInterval(events1: number, n1: number, events2: number, n2: number, confidenceLevel = 0.95): Interval | null {
+export function newcombeDifferenceInterval(
+  events1: number,
+  n1: number,
+  events2: number,
+  n2: number,
+  confidenceLevel = 0.95,
+): Interval | null {
   const one = wilsonInterval(events1, n1, confidenceLevel, 'first');
   const two = wilsonInterval(events2, n2, confidenceLevel, 'second');
   if (one === null || two === null) return null;
@@ -48,10 +54,20 @@ export interface RiskRatio {
 
 // Risk ratio (p1 / p2) with the Katz log interval (Katz et al. 1978, Biometrics 34:469): SE(log RR) = √(1/a − 1/n1 + 1/b − 1/n2).
 // Null when either group has no events or nobody (the ratio or its interval is undefined).
-export function riskRatio(events1: number, n1: number, events2: number, n2: number, confidenceLevel = 0.95): RiskRatio | null {
+export function riskRatio(
+  events1: number,
+  n1: number,
+  events2: number,
+  n2: number,
+  confidenceLevel = 0.95,
+): RiskRatio | null {
   if (n1 === 0 || n2 === 0 || events1 === 0 || events2 === 0) return null;
   const estimate = events1 / n1 / (events2 / n2);
   const standardError = Math.sqrt(1 / events1 - 1 / n1 + 1 / events2 - 1 / n2);
   const z = zFor(confidenceLevel);
-  return { estimate, lower: Math.exp(Math.log(estimate) - z * standardError), upper: Math.exp(Math.log(estimate) + z * standardError) };
+  return {
+    estimate,
+    lower: Math.exp(Math.log(estimate) - z * standardError),
+    upper: Math.exp(Math.log(estimate) + z * standardError),
+  };
 }

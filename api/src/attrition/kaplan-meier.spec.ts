@@ -10,7 +10,15 @@ describe('kaplanMeier', () => {
   it('reproduces the 6-MP product-limit estimates', () => {
     // Source: Freireich et al. (1963) 6-MP group; KM at 6, 7, 10, 13, 16, 22, 23 = 0.8571, 0.8067, 0.7529, 0.6902,
     // 0.6275, 0.5378, 0.4482, the values printed in survival texts (e.g. Kleinbaum & Klein, Survival Analysis; from memory).
-    const expected: [number, number][] = [[6, 0.8571], [7, 0.8067], [10, 0.7529], [13, 0.6902], [16, 0.6275], [22, 0.5378], [23, 0.4482]];
+    const expected: [number, number][] = [
+      [6, 0.8571],
+      [7, 0.8067],
+      [10, 0.7529],
+      [13, 0.6902],
+      [16, 0.6275],
+      [22, 0.5378],
+      [23, 0.4482],
+    ];
     for (const [time, survival] of expected) expect(at(time)?.survival).toBeCloseTo(survival, 4);
     expect(curve.atStart).toBe(21);
     expect(at(6)).toMatchObject({ atRisk: 21, dropped: 3, censored: 1 });
@@ -26,7 +34,14 @@ describe('kaplanMeier', () => {
     expect(at(6)?.upper).toBeCloseTo(0.9516, 3);
     // Greenwood SEs at the later dropout times, as printed by R survival::survfit for the 6-MP group (from memory):
     // 7: 0.0869, 10: 0.0963, 13: 0.1068, 16: 0.1141, 22: 0.1282, 23: 0.1346.
-    const printed: [number, number][] = [[7, 0.0869], [10, 0.0963], [13, 0.1068], [16, 0.1141], [22, 0.1282], [23, 0.1346]];
+    const printed: [number, number][] = [
+      [7, 0.0869],
+      [10, 0.0963],
+      [13, 0.1068],
+      [16, 0.1141],
+      [22, 0.1282],
+      [23, 0.1346],
+    ];
     for (const [time, standardError] of printed) expect(at(time)?.standardError).toBeCloseTo(standardError, 4);
     expect(curve.bandForm).toBe('log-log');
     expect(curve.confidenceLevel).toBe(0.95);
@@ -70,13 +85,17 @@ describe('kaplanMeier', () => {
   });
 
   it('never increases, stays within [0, 1] and keeps the estimate inside its band', () => {
-    const counts = fc.array(fc.record({ time: fc.nat(60), dropped: fc.nat(6), censored: fc.nat(6) }), { maxLength: 40 });
+    const counts = fc.array(fc.record({ time: fc.nat(60), dropped: fc.nat(6), censored: fc.nat(6) }), {
+      maxLength: 40,
+    });
     fc.assert(
       fc.property(counts, (entries: SurvivalTimeCount[]) => {
         const { steps } = kaplanMeier(entries);
         return steps.every((step, i) => {
           const previous = i === 0 ? 1 : steps[i - 1].survival;
-          const inBand = step.lower === null || ((step.lower as number) <= step.survival + 1e-12 && step.survival <= (step.upper as number) + 1e-12);
+          const inBand =
+            step.lower === null ||
+            ((step.lower as number) <= step.survival + 1e-12 && step.survival <= (step.upper as number) + 1e-12);
           return step.survival <= previous && step.survival >= 0 && step.survival <= 1 && inBand;
         });
       }),

@@ -94,7 +94,11 @@ export function kaplanMeier(
 }
 
 // Log-log band (Kalbfleisch & Prentice 1980): S^exp(±z·σ) with σ = √(Greenwood sum) / |log S|.
-function band(survival: number, greenwoodSum: number, z: number): Pick<KaplanMeierStep, 'standardError' | 'lower' | 'upper'> {
+function band(
+  survival: number,
+  greenwoodSum: number,
+  z: number,
+): Pick<KaplanMeierStep, 'standardError' | 'lower' | 'upper'> {
   if (survival === 0 || !Number.isFinite(greenwoodSum)) return { standardError: null, lower: null, upper: null };
   const standardError = survival * Math.sqrt(greenwoodSum);
   // No dropout yet: Greenwood's variance is 0 and the band collapses onto S = 1.

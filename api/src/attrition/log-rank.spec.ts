@@ -20,7 +20,10 @@ describe('logRankTest', () => {
     expect(result.groups[1].expected).toBeCloseTo(10.7, 1);
   });
 
-  const group = fc.array(fc.record({ time: fc.nat(30), dropped: fc.nat(4), censored: fc.nat(4) }), { minLength: 1, maxLength: 12 });
+  const group = fc.array(fc.record({ time: fc.nat(30), dropped: fc.nat(4), censored: fc.nat(4) }), {
+    minLength: 1,
+    maxLength: 12,
+  });
 
   it('does not depend on which condition is left out of the variance-covariance form', () => {
     // Property of the quadratic form U′V⁻¹U (Peto & Peto 1972): any k − 1 of the k conditions give the same statistic.
@@ -81,15 +84,35 @@ describe('log-rank test on few dropouts', () => {
   // Eight people, four per condition; the first condition loses three early and one later, the second nobody:
   // four dropouts in all, so the chi-square approximation is doubtful (every expected count below 5).
   const groups = [
-    { conditionId: 'a', counts: [{ time: 1.5, dropped: 1, censored: 0 }, { time: 2.25, dropped: 1, censored: 0 }, { time: 3, dropped: 1, censored: 0 }, { time: 6.5, dropped: 1, censored: 0 }] },
-    { conditionId: 'b', counts: [{ time: 4, dropped: 0, censored: 1 }, { time: 10, dropped: 0, censored: 3 }] },
+    {
+      conditionId: 'a',
+      counts: [
+        { time: 1.5, dropped: 1, censored: 0 },
+        { time: 2.25, dropped: 1, censored: 0 },
+        { time: 3, dropped: 1, censored: 0 },
+        { time: 6.5, dropped: 1, censored: 0 },
+      ],
+    },
+    {
+      conditionId: 'b',
+      counts: [
+        { time: 4, dropped: 0, censored: 1 },
+        { time: 10, dropped: 0, censored: 3 },
+      ],
+    },
   ];
 
   /** Brute force: every one of the C(8, 4) = 70 ways to relabel the same eight follow-ups, equally likely under randomization. */
   function exactPermutationP(): number {
     const people = [
-      { time: 1.5, dropped: true }, { time: 2.25, dropped: true }, { time: 3, dropped: true }, { time: 6.5, dropped: true },
-      { time: 4, dropped: false }, { time: 10, dropped: false }, { time: 10, dropped: false }, { time: 10, dropped: false },
+      { time: 1.5, dropped: true },
+      { time: 2.25, dropped: true },
+      { time: 3, dropped: true },
+      { time: 6.5, dropped: true },
+      { time: 4, dropped: false },
+      { time: 10, dropped: false },
+      { time: 10, dropped: false },
+      { time: 10, dropped: false },
     ];
     const observed = logRankTest(groups).statistic as number;
     let extreme = 0;
@@ -97,8 +120,14 @@ describe('log-rank test on few dropouts', () => {
     for (let mask = 0; mask < 256; mask += 1) {
       if (mask.toString(2).split('1').length - 1 !== 4) continue;
       const tally = (inA: boolean) =>
-        people.filter((_, i) => Boolean(mask & (1 << i)) === inA).map((p) => ({ time: p.time, dropped: p.dropped ? 1 : 0, censored: p.dropped ? 0 : 1 }));
-      const statistic = logRankTest([{ conditionId: 'a', counts: tally(true) }, { conditionId: 'b', counts: tally(false) }]).statistic ?? 0;
+        people
+          .filter((_, i) => Boolean(mask & (1 << i)) === inA)
+          .map((p) => ({ time: p.time, dropped: p.dropped ? 1 : 0, censored: p.dropped ? 0 : 1 }));
+      const statistic =
+        logRankTest([
+          { conditionId: 'a', counts: tally(true) },
+          { conditionId: 'b', counts: tally(false) },
+        ]).statistic ?? 0;
       total += 1;
       if (statistic >= observed - 1e-9) extreme += 1;
     }
@@ -111,7 +140,10 @@ describe('log-rank test on few dropouts', () => {
     expect(result.pValue as number).toBeLessThan(0.05); // the asymptotic p
     const permutation = result.permutation!;
     expect(permutation.replicates).toBeGreaterThanOrEqual(2000);
-    expect(permutation.standardError).toBeCloseTo(Math.sqrt((permutation.pValue * (1 - permutation.pValue)) / permutation.replicates), 12);
+    expect(permutation.standardError).toBeCloseTo(
+      Math.sqrt((permutation.pValue * (1 - permutation.pValue)) / permutation.replicates),
+      12,
+    );
     // Reference: full enumeration of the 70 relabelings (above): 2 of 70 are as extreme, p = 0.0286.
     expect(Math.abs(permutation.pValue - exactPermutationP())).toBeLessThan(4 * permutation.standardError + 1e-3);
     expect(logRankTest(groups).permutation?.pValue).toBe(permutation.pValue); // same seed, same answer
@@ -119,8 +151,20 @@ describe('log-rank test on few dropouts', () => {
 
   it('does not flag a test with enough dropouts in every condition', () => {
     const many = logRankTest([
-      { conditionId: 'a', counts: [{ time: 1, dropped: 20, censored: 0 }, { time: 5, dropped: 0, censored: 30 }] },
-      { conditionId: 'b', counts: [{ time: 2, dropped: 10, censored: 0 }, { time: 5, dropped: 0, censored: 40 }] },
+      {
+        conditionId: 'a',
+        counts: [
+          { time: 1, dropped: 20, censored: 0 },
+          { time: 5, dropped: 0, censored: 30 },
+        ],
+      },
+      {
+        conditionId: 'b',
+        counts: [
+          { time: 2, dropped: 10, censored: 0 },
+          { time: 5, dropped: 0, censored: 40 },
+        ],
+      },
     ]);
     expect(many.fewEvents).toBe(false);
     expect(many.permutation).toBeNull();

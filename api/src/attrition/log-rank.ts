@@ -44,9 +44,13 @@ export function logRankTest(groups: readonly SurvivalGroup[], field = 'groups'):
   const core = logRankCore(groups, field);
   const informative = core.groups.filter((group) => group.expected > 0);
   const fewEvents = informative.length >= 2 && informative.some((group) => group.expected < FEW_EXPECTED_EVENTS);
-  const participants = groups.reduce((total, group) => total + group.counts.reduce((sum, count) => sum + count.dropped + count.censored, 0), 0);
+  const participants = groups.reduce(
+    (total, group) => total + group.counts.reduce((sum, count) => sum + count.dropped + count.censored, 0),
+    0,
+  );
   const tooMany = participants > PERMUTATION_MAX_PARTICIPANTS;
-  const permutation = fewEvents && !tooMany && core.statistic !== null ? permutationLogRank(groups, core.statistic, field) : null;
+  const permutation =
+    fewEvents && !tooMany && core.statistic !== null ? permutationLogRank(groups, core.statistic, field) : null;
   return { ...core, fewEvents, permutation, permutationSkipped: fewEvents && tooMany ? 'too-many-participants' : null };
 }
 
@@ -125,7 +129,8 @@ function statisticOf(k: number, steps: number, dropped: Int32Array, censored: In
       const spread = n > 1 ? (d * (n - d)) / (n - 1) : 0;
       for (let j = 0; j < k; j += 1) {
         expected[j] += (d * atRisk[j]) / n;
-        for (let l = 0; l < k; l += 1) covariance[j][l] += spread * (atRisk[j] / n) * ((j === l ? 1 : 0) - atRisk[l] / n);
+        for (let l = 0; l < k; l += 1)
+          covariance[j][l] += spread * (atRisk[j] / n) * ((j === l ? 1 : 0) - atRisk[l] / n);
       }
     }
     for (let g = 0; g < k; g += 1) atRisk[g] -= dropped[g * steps + t] + censored[g * steps + t];
@@ -134,8 +139,16 @@ function statisticOf(k: number, steps: number, dropped: Int32Array, censored: In
   if (informative.length < 2) return null;
   const kept = informative.slice(0, -1);
   const u = kept.map((g) => observed[g] - expected[g]);
-  const solution = solveLinearSystem(kept.map((j) => kept.map((l) => covariance[j][l])), u);
-  return solution === null ? null : Math.max(0, u.reduce((total, value, i) => total + value * solution[i], 0));
+  const solution = solveLinearSystem(
+    kept.map((j) => kept.map((l) => covariance[j][l])),
+    u,
+  );
+  return solution === null
+    ? null
+    : Math.max(
+        0,
+        u.reduce((total, value, i) => total + value * solution[i], 0),
+      );
 }
 
 /** Observed and expected dropouts per condition and the variance-covariance of O − E, summed over dropout times. */
@@ -181,7 +194,11 @@ export function logRankComponents(groups: readonly SurvivalGroup[], field = 'gro
 }
 
 /** U′V⁻¹U on the conditions with any expected dropout, one left out (as R's survdiff); null statistic when not computable. */
-export function logRankQuadraticForm({ observed, expected, covariance }: LogRankComponents): { statistic: number | null; df: number; pValue: number | null } {
+export function logRankQuadraticForm({ observed, expected, covariance }: LogRankComponents): {
+  statistic: number | null;
+  df: number;
+  pValue: number | null;
+} {
   const informative = expected.map((value, g) => (value > 0 ? g : -1)).filter((g) => g >= 0);
   const df = Math.max(0, informative.length - 1);
   if (informative.length < 2) return { statistic: null, df, pValue: null };
@@ -197,13 +214,20 @@ export function logRankQuadraticForm({ observed, expected, covariance }: LogRank
   return { statistic, df, pValue: Math.min(1, Math.max(0, 1 - jStat.chisquare.cdf(statistic, df))) };
 }
 
-function logRankCore(groups: readonly SurvivalGroup[], field: string): Omit<LogRankResult, 'fewEvents' | 'permutation' | 'permutationSkipped'> {
+function logRankCore(
+  groups: readonly SurvivalGroup[],
+  field: string,
+): Omit<LogRankResult, 'fewEvents' | 'permutation' | 'permutationSkipped'> {
   requireConditionIds(
     groups.map((group) => group.conditionId),
     field,
   );
   const components = logRankComponents(groups, field);
-  const resultGroups = groups.map((group, g) => ({ conditionId: group.conditionId, observed: components.observed[g], expected: components.expected[g] }));
+  const resultGroups = groups.map((group, g) => ({
+    conditionId: group.conditionId,
+    observed: components.observed[g],
+    expected: components.expected[g],
+  }));
   // As R's survdiff: conditions with no expected dropout carry no information and do not count towards the df.
   return { method: 'log-rank', ...logRankQuadraticForm(components), groups: resultGroups };
 }

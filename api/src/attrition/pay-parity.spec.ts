@@ -5,7 +5,11 @@ import { type ConditionPayInput, payParity, welchAnova, welchDifferenceInterval 
 import { type Moments, meanAndVariance } from './sufficient-statistics';
 
 function moments(values: number[]): Moments {
-  return { n: values.length, sum: values.reduce((s, x) => s + x, 0), sumOfSquares: values.reduce((s, x) => s + x * x, 0) };
+  return {
+    n: values.length,
+    sum: values.reduce((s, x) => s + x, 0),
+    sumOfSquares: values.reduce((s, x) => s + x * x, 0),
+  };
 }
 
 describe('welchAnova', () => {
@@ -65,7 +69,11 @@ describe('payParity', () => {
 
   it('says the test is not computable when pay does not vary within a condition (fixed pay for completers)', () => {
     const result = payParity({ currency: 'EUR', payOverrideRecorded: false, conditions: [landmarks, mapOnly] });
-    expect(result.perCompleter.test).toMatchObject({ statistic: null, pValue: null, notComputable: 'no-variation-within-a-condition' });
+    expect(result.perCompleter.test).toMatchObject({
+      statistic: null,
+      pValue: null,
+      notComputable: 'no-variation-within-a-condition',
+    });
   });
 
   it('leaves out conditions with fewer than two participants and says which were tested', () => {
@@ -76,18 +84,30 @@ describe('payParity', () => {
     ]);
     expect(result.conditionIdsTested).toEqual(['a', 'c']);
     expect(result.df1).toBe(1);
-    expect(welchAnova([{ conditionId: 'a', ...moments([1, 2]) }]).notComputable).toBe('fewer-than-two-conditions-with-two-or-more-participants');
+    expect(welchAnova([{ conditionId: 'a', ...moments([1, 2]) }]).notComputable).toBe(
+      'fewer-than-two-conditions-with-two-or-more-participants',
+    );
   });
 
   it('passes the pay-override flag through', () => {
-    expect(payParity({ currency: 'usd', payOverrideRecorded: true, conditions: [landmarks, mapOnly] }).payOverrideRecorded).toBe(true);
+    expect(
+      payParity({ currency: 'usd', payOverrideRecorded: true, conditions: [landmarks, mapOnly] }).payOverrideRecorded,
+    ).toBe(true);
   });
 
   it('refuses impossible aggregates, naming the field', () => {
-    expect(() => meanAndVariance({ n: 3, sum: 30, sumOfSquares: 200 }, 'pay')).toThrow(/pay\.sumOfSquares: is smaller than sum² \/ n/);
-    expect(() => meanAndVariance({ n: 0, sum: 5, sumOfSquares: 25 }, 'pay')).toThrow(/pay: sum and sumOfSquares must be 0 when n is 0/);
+    expect(() => meanAndVariance({ n: 3, sum: 30, sumOfSquares: 200 }, 'pay')).toThrow(
+      /pay\.sumOfSquares: is smaller than sum² \/ n/,
+    );
+    expect(() => meanAndVariance({ n: 0, sum: 5, sumOfSquares: 25 }, 'pay')).toThrow(
+      /pay: sum and sumOfSquares must be 0 when n is 0/,
+    );
     expect(() =>
-      payParity({ currency: 'EUR', payOverrideRecorded: false, conditions: [{ ...landmarks, perCompleter: { n: 1, sum: -5, sumOfSquares: 25 } }, mapOnly] }),
+      payParity({
+        currency: 'EUR',
+        payOverrideRecorded: false,
+        conditions: [{ ...landmarks, perCompleter: { n: 1, sum: -5, sumOfSquares: 25 } }, mapOnly],
+      }),
     ).toThrow(/pay\.conditions\[0\]\.perCompleter\.sum: amounts paid cannot be negative/);
     expect(() => payParity({ currency: 'euro', payOverrideRecorded: false, conditions: [] })).toThrow(/pay\.currency/);
   });
@@ -96,14 +116,21 @@ describe('payParity', () => {
 const mean = (values: number[]) => values.reduce((s, v) => s + v, 0) / values.length;
 
 describe('welchDifferenceInterval', () => {
-  const momentsOf = (values: number[]): Moments => ({ n: values.length, sum: values.reduce((s, v) => s + v, 0), sumOfSquares: values.reduce((s, v) => s + v * v, 0) });
+  const momentsOf = (values: number[]): Moments => ({
+    n: values.length,
+    sum: values.reduce((s, v) => s + v, 0),
+    sumOfSquares: values.reduce((s, v) => s + v * v, 0),
+  });
 
   it('matches the Welch interval of @stdlib/stats-ttest2 on raw amounts (property, fast-check)', () => {
     // Outside reference: @stdlib/stats-ttest2 (default variance "unequal": Welch test, Satterthwaite df), given every value.
     const amounts = fc.array(fc.integer({ min: 0, max: 5000 }), { minLength: 2, maxLength: 40 });
     fc.assert(
       fc.property(amounts, amounts, (x, y) => {
-        const ours = welchDifferenceInterval({ conditionId: 'x', ...momentsOf(x) }, { conditionId: 'y', ...momentsOf(y) });
+        const ours = welchDifferenceInterval(
+          { conditionId: 'x', ...momentsOf(x) },
+          { conditionId: 'y', ...momentsOf(y) },
+        );
         if (ours.notComputable !== null) return new Set([...x]).size === 1 && new Set([...y]).size === 1;
         const theirs = ttest2(x, y);
         expect(ours.difference as number).toBeCloseTo(mean(x) - mean(y), 6);
@@ -117,10 +144,15 @@ describe('welchDifferenceInterval', () => {
   });
 
   it('is not computable below two people or without any variation, and payParity lists each arm against the comparison', () => {
-    expect(welchDifferenceInterval({ conditionId: 'a', n: 1, sum: 5, sumOfSquares: 25 }, { conditionId: 'b', ...momentsOf([1, 2]) }).notComputable).toBe(
-      'fewer-than-two-in-a-condition',
-    );
-    expect(welchDifferenceInterval({ conditionId: 'a', ...momentsOf([3, 3]) }, { conditionId: 'b', ...momentsOf([1, 1]) })).toMatchObject({
+    expect(
+      welchDifferenceInterval(
+        { conditionId: 'a', n: 1, sum: 5, sumOfSquares: 25 },
+        { conditionId: 'b', ...momentsOf([1, 2]) },
+      ).notComputable,
+    ).toBe('fewer-than-two-in-a-condition');
+    expect(
+      welchDifferenceInterval({ conditionId: 'a', ...momentsOf([3, 3]) }, { conditionId: 'b', ...momentsOf([1, 1]) }),
+    ).toMatchObject({
       difference: 2,
       lower: null,
       notComputable: 'no-variation-in-either-condition',
@@ -129,8 +161,15 @@ describe('welchDifferenceInterval', () => {
       currency: 'EUR',
       payOverrideRecorded: false,
       comparisonConditionId: 'b',
-      conditions: ['a', 'b', 'c'].map((conditionId, i) => ({ conditionId, perRandomized: momentsOf([100 * i, 100 * i + 50, 10]), perCompleter: momentsOf([500, 600]) })),
+      conditions: ['a', 'b', 'c'].map((conditionId, i) => ({
+        conditionId,
+        perRandomized: momentsOf([100 * i, 100 * i + 50, 10]),
+        perCompleter: momentsOf([500, 600]),
+      })),
     });
-    expect(result.perRandomized.differences.map((d) => `${d.conditionId}-${d.comparisonConditionId}`)).toEqual(['a-b', 'c-b']);
+    expect(result.perRandomized.differences.map((d) => `${d.conditionId}-${d.comparisonConditionId}`)).toEqual([
+      'a-b',
+      'c-b',
+    ]);
   });
 });

@@ -19,7 +19,8 @@ export interface PaySummary {
   standardDeviation: number | null;
 }
 
-export type WelchAnovaNotComputable = 'fewer-than-two-conditions-with-two-or-more-participants' | 'no-variation-within-a-condition';
+export type WelchAnovaNotComputable =
+  'fewer-than-two-conditions-with-two-or-more-participants' | 'no-variation-within-a-condition';
 
 export interface WelchAnovaResult {
   method: 'welch-anova';
@@ -68,17 +69,39 @@ export function welchDifferenceInterval(
 ): MeanDifference {
   const one = meanAndVariance(condition, `${field}.condition`);
   const two = meanAndVariance(comparison, `${field}.comparison`);
-  const base = { conditionId: condition.conditionId, comparisonConditionId: comparison.conditionId, method: 'welch-t' as const, confidenceLevel };
+  const base = {
+    conditionId: condition.conditionId,
+    comparisonConditionId: comparison.conditionId,
+    method: 'welch-t' as const,
+    confidenceLevel,
+  };
   const difference = one.mean === null || two.mean === null ? null : one.mean - two.mean;
-  const empty = (notComputable: MeanDifferenceNotComputable): MeanDifference => ({ ...base, difference, lower: null, upper: null, df: null, standardError: null, notComputable });
-  if (one.variance === null || two.variance === null || difference === null) return empty('fewer-than-two-in-a-condition');
+  const empty = (notComputable: MeanDifferenceNotComputable): MeanDifference => ({
+    ...base,
+    difference,
+    lower: null,
+    upper: null,
+    df: null,
+    standardError: null,
+    notComputable,
+  });
+  if (one.variance === null || two.variance === null || difference === null)
+    return empty('fewer-than-two-in-a-condition');
   const a = one.variance / one.n;
   const b = two.variance / two.n;
   if (a + b === 0) return empty('no-variation-in-either-condition');
   const df = (a + b) ** 2 / (a ** 2 / (one.n - 1) + b ** 2 / (two.n - 1));
   const standardError = Math.sqrt(a + b);
   const t = jStat.studentt.inv(1 - (1 - confidenceLevel) / 2, df);
-  return { ...base, difference, lower: difference - t * standardError, upper: difference + t * standardError, df, standardError, notComputable: null };
+  return {
+    ...base,
+    difference,
+    lower: difference - t * standardError,
+    upper: difference + t * standardError,
+    df,
+    standardError,
+    notComputable: null,
+  };
 }
 
 export interface PayParityResult {
@@ -101,7 +124,10 @@ export function welchAnova(groups: readonly ({ conditionId: string } & Moments)[
     groups.map((group) => group.conditionId),
     field,
   );
-  const summaries = groups.map((group, index) => ({ conditionId: group.conditionId, ...meanAndVariance(group, `${field}[${index}]`) }));
+  const summaries = groups.map((group, index) => ({
+    conditionId: group.conditionId,
+    ...meanAndVariance(group, `${field}[${index}]`),
+  }));
   const tested = summaries.filter((summary) => summary.n >= 2);
   const conditionIdsTested = tested.map((summary) => summary.conditionId);
   const notComputable = (reason: WelchAnovaNotComputable): WelchAnovaResult => ({
@@ -120,7 +146,8 @@ export function welchAnova(groups: readonly ({ conditionId: string } & Moments)[
   const weights = tested.map((summary) => summary.n / (summary.variance as number));
   const totalWeight = weights.reduce((sum, w) => sum + w, 0);
   const weightedMean = tested.reduce((sum, summary, i) => sum + weights[i] * (summary.mean as number), 0) / totalWeight;
-  const between = tested.reduce((sum, summary, i) => sum + weights[i] * ((summary.mean as number) - weightedMean) ** 2, 0) / (k - 1);
+  const between =
+    tested.reduce((sum, summary, i) => sum + weights[i] * ((summary.mean as number) - weightedMean) ** 2, 0) / (k - 1);
   const lambda = tested.reduce((sum, summary, i) => sum + (1 - weights[i] / totalWeight) ** 2 / (summary.n - 1), 0);
   const statistic = between / (1 + (2 * (k - 2) * lambda) / (k * k - 1));
   const df1 = k - 1;
@@ -136,7 +163,12 @@ function summarize(moments: Moments, field: string): PaySummary {
   return { n, mean, standardDeviation: variance === null ? null : Math.sqrt(variance) };
 }
 
-function compare(summaries: PaySummary[], groups: readonly ({ conditionId: string } & Moments)[], field: string, comparisonConditionId: string | undefined): PayComparison {
+function compare(
+  summaries: PaySummary[],
+  groups: readonly ({ conditionId: string } & Moments)[],
+  field: string,
+  comparisonConditionId: string | undefined,
+): PayComparison {
   const means = summaries.map((summary) => summary.mean).filter((mean): mean is number => mean !== null);
   const test = welchAnova(groups, field);
   const comparison = groups.find((group) => group.conditionId === comparisonConditionId) ?? groups[0];
@@ -144,7 +176,9 @@ function compare(summaries: PaySummary[], groups: readonly ({ conditionId: strin
     largestMeanDifference: means.length < 2 ? null : Math.max(...means) - Math.min(...means),
     test,
     differences: comparison
-      ? groups.filter((group) => group !== comparison).map((group) => welchDifferenceInterval(group, comparison, 0.95, field))
+      ? groups
+          .filter((group) => group !== comparison)
+          .map((group) => welchDifferenceInterval(group, comparison, 0.95, field))
       : [],
   };
 }
@@ -160,9 +194,13 @@ export interface PayParityInput {
 
 export function payParity(input: PayParityInput): PayParityResult {
   if (typeof input.currency !== 'string' || !/^[A-Za-z]{3}$/.test(input.currency)) {
-    throw new AttritionInputError('pay.currency', `must be an ISO 4217 code such as "EUR", got ${String(input.currency)}`);
+    throw new AttritionInputError(
+      'pay.currency',
+      `must be an ISO 4217 code such as "EUR", got ${String(input.currency)}`,
+    );
   }
-  if (typeof input.payOverrideRecorded !== 'boolean') throw new AttritionInputError('pay.payOverrideRecorded', 'must be true or false');
+  if (typeof input.payOverrideRecorded !== 'boolean')
+    throw new AttritionInputError('pay.payOverrideRecorded', 'must be true or false');
   requireConditionIds(
     input.conditions.map((condition) => condition.conditionId),
     'pay.conditions',

@@ -16,11 +16,16 @@ describe('plannedStudyLength', () => {
 
   it('is unknown without steps or when a step has no due date', () => {
     expect(plannedStudyLength([])).toEqual({ days: null, unknown: 'no-steps' });
-    expect(plannedStudyLength([{ opensAfterDays: 0, opensFrom: 'assignment', dueWithinDays: null }])).toEqual({ days: null, unknown: 'a-step-has-no-due-date' });
+    expect(plannedStudyLength([{ opensAfterDays: 0, opensFrom: 'assignment', dueWithinDays: null }])).toEqual({
+      days: null,
+      unknown: 'a-step-has-no-due-date',
+    });
   });
 
   it('names the field of bad input', () => {
-    expect(() => plannedStudyLength([{ opensAfterDays: -1, opensFrom: 'assignment', dueWithinDays: 2 }])).toThrow(/steps\[0\]\.opensAfterDays/);
+    expect(() => plannedStudyLength([{ opensAfterDays: -1, opensFrom: 'assignment', dueWithinDays: 2 }])).toThrow(
+      /steps\[0\]\.opensAfterDays/,
+    );
   });
 });
 

@@ -16,7 +16,10 @@ export type PlannedLengthUnknown = 'no-steps' | 'a-step-has-no-due-date';
  * its due day (the longest anyone can take without missing a due date). Unknown when there are no steps or some
  * step has no due date, since then the schedule sets no end.
  */
-export function plannedStudyLength(steps: readonly PlannedStep[], field = 'steps'): { days: number | null; unknown: PlannedLengthUnknown | null } {
+export function plannedStudyLength(
+  steps: readonly PlannedStep[],
+  field = 'steps',
+): { days: number | null; unknown: PlannedLengthUnknown | null } {
   if (steps.length === 0) return { days: null, unknown: 'no-steps' };
   let previousDue = 0;
   let longest = 0;
@@ -46,7 +49,10 @@ export interface CumulativeDropout {
  * Cumulative dropout by day t read off a Kaplan–Meier curve: 1 − S(t), S being the step at the last time ≤ t.
  * Null when follow-up so far does not reach t (the curve is undefined past the longest follow-up), or nobody is in it.
  */
-export function cumulativeDropoutAt(curve: Pick<KaplanMeierCurve, 'steps' | 'atStart'>, t: number): CumulativeDropout | null {
+export function cumulativeDropoutAt(
+  curve: Pick<KaplanMeierCurve, 'steps' | 'atStart'>,
+  t: number,
+): CumulativeDropout | null {
   if (curve.atStart === 0 || curve.steps.length === 0) return null;
   const last = curve.steps[curve.steps.length - 1];
   if (last.time < t && last.survival > 0) return null;

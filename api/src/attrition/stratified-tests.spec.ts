@@ -12,7 +12,9 @@ describe('Cochran–Mantel–Haenszel test of dropout across strata', () => {
       [9, 11],
       [12, 8],
     ];
-    const result = cochranMantelHaenszel([{ stratum: 'all', conditions: table.map(([dropped, stayed]) => ({ randomized: dropped + stayed, dropped })) }]);
+    const result = cochranMantelHaenszel([
+      { stratum: 'all', conditions: table.map(([dropped, stayed]) => ({ randomized: dropped + stayed, dropped })) },
+    ]);
     const pearson = chi2test(table, { correct: false }).statistic;
     expect(result.df).toBe(2);
     expect(result.statistic as number).toBeCloseTo((pearson * 59) / 60, 10);
@@ -21,8 +23,20 @@ describe('Cochran–Mantel–Haenszel test of dropout across strata', () => {
   it('on 2×2 tables equals the classic Mantel–Haenszel form Σ(a − E a)² / Σ Var a, by hand', () => {
     // Stratum 1: 3/10 vs 6/10 dropped; stratum 2: 1/8 vs 4/12. E a = n1 m / N; Var a = n1 n2 m (N − m) / (N² (N − 1)).
     const strata = [
-      { stratum: 'low', conditions: [{ randomized: 10, dropped: 3 }, { randomized: 10, dropped: 6 }] },
-      { stratum: 'high', conditions: [{ randomized: 8, dropped: 1 }, { randomized: 12, dropped: 4 }] },
+      {
+        stratum: 'low',
+        conditions: [
+          { randomized: 10, dropped: 3 },
+          { randomized: 10, dropped: 6 },
+        ],
+      },
+      {
+        stratum: 'high',
+        conditions: [
+          { randomized: 8, dropped: 1 },
+          { randomized: 12, dropped: 4 },
+        ],
+      },
     ];
     const e1 = (10 * 9) / 20;
     const v1 = (10 * 10 * 9 * 11) / (400 * 19);
@@ -35,7 +49,15 @@ describe('Cochran–Mantel–Haenszel test of dropout across strata', () => {
   });
 
   it('skips strata without information and is not computable without any', () => {
-    const result = cochranMantelHaenszel([{ stratum: 'x', conditions: [{ randomized: 5, dropped: 0 }, { randomized: 5, dropped: 0 }] }]);
+    const result = cochranMantelHaenszel([
+      {
+        stratum: 'x',
+        conditions: [
+          { randomized: 5, dropped: 0 },
+          { randomized: 5, dropped: 0 },
+        ],
+      },
+    ]);
     expect(result.statistic).toBeNull();
     expect(result.strataUsed).toBe(0);
   });
@@ -44,7 +66,15 @@ describe('Cochran–Mantel–Haenszel test of dropout across strata', () => {
 describe('stratified log-rank test of time to dropout', () => {
   it('with one stratum is the ordinary log-rank test (Freireich 1963: χ² = 16.79, as R survdiff)', () => {
     // Source: Kleinbaum & Klein, Survival Analysis, log-rank χ² = 16.79 on 1 df for these remission data.
-    const result = stratifiedLogRank([{ stratum: 'all', groups: [{ conditionId: '6-mp', counts: sixMp }, { conditionId: 'placebo', counts: placebo }] }]);
+    const result = stratifiedLogRank([
+      {
+        stratum: 'all',
+        groups: [
+          { conditionId: '6-mp', counts: sixMp },
+          { conditionId: 'placebo', counts: placebo },
+        ],
+      },
+    ]);
     expect(result.statistic as number).toBeCloseTo(16.79, 2);
     expect(result.df).toBe(1);
     expect(result.groups[1]).toMatchObject({ conditionId: 'placebo', observed: 21 });
@@ -61,11 +91,17 @@ describe('stratified log-rank test of time to dropout', () => {
         const logRank = stratifiedLogRank(
           strata.map(({ stratum, arms, time }) => ({
             stratum,
-            groups: arms.map((x, i) => ({ conditionId: `c${i}`, counts: [{ time, dropped: x.dropped, censored: x.stayed }] })),
+            groups: arms.map((x, i) => ({
+              conditionId: `c${i}`,
+              counts: [{ time, dropped: x.dropped, censored: x.stayed }],
+            })),
           })),
         );
         const cmh = cochranMantelHaenszel(
-          strata.map(({ stratum, arms }) => ({ stratum, conditions: arms.map((x) => ({ randomized: x.dropped + x.stayed, dropped: x.dropped })) })),
+          strata.map(({ stratum, arms }) => ({
+            stratum,
+            conditions: arms.map((x) => ({ randomized: x.dropped + x.stayed, dropped: x.dropped })),
+          })),
         );
         if (logRank.statistic === null || cmh.statistic === null) return true;
         expect(logRank.statistic).toBeCloseTo(cmh.statistic, 8);
@@ -82,8 +118,20 @@ describe('stratified log-rank test of time to dropout', () => {
     const young = (n: number) => [{ time: 2, dropped: n, censored: n }];
     const old = (n: number) => [{ time: 20, dropped: n, censored: 3 * n }];
     const strata = [
-      { stratum: 'age=<30', groups: [{ conditionId: 'a', counts: young(2) }, { conditionId: 'b', counts: young(8) }] },
-      { stratum: 'age=≥30', groups: [{ conditionId: 'a', counts: old(8) }, { conditionId: 'b', counts: old(2) }] },
+      {
+        stratum: 'age=<30',
+        groups: [
+          { conditionId: 'a', counts: young(2) },
+          { conditionId: 'b', counts: young(8) },
+        ],
+      },
+      {
+        stratum: 'age=≥30',
+        groups: [
+          { conditionId: 'a', counts: old(8) },
+          { conditionId: 'b', counts: old(2) },
+        ],
+      },
     ];
     expect(stratifiedLogRank(strata).statistic).toBeCloseTo(0, 10);
     const pooled = logRankTest([
@@ -96,8 +144,20 @@ describe('stratified log-rank test of time to dropout', () => {
   it('names the stratum whose conditions do not match', () => {
     expect(() =>
       stratifiedLogRank([
-        { stratum: 'x', groups: [{ conditionId: 'a', counts: [] }, { conditionId: 'b', counts: [] }] },
-        { stratum: 'y', groups: [{ conditionId: 'b', counts: [] }, { conditionId: 'a', counts: [] }] },
+        {
+          stratum: 'x',
+          groups: [
+            { conditionId: 'a', counts: [] },
+            { conditionId: 'b', counts: [] },
+          ],
+        },
+        {
+          stratum: 'y',
+          groups: [
+            { conditionId: 'b', counts: [] },
+            { conditionId: 'a', counts: [] },
+          ],
+        },
       ]),
     ).toThrow(/strata\[1\]\.groups/);
   });

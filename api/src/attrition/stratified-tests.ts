@@ -31,11 +31,13 @@ export function cochranMantelHaenszel(strata: readonly StratumCounts[], field = 
   const v = Array.from({ length: r }, () => new Array<number>(r).fill(0));
   let strataUsed = 0;
   strata.forEach((stratum, s) => {
-    if (stratum.conditions.length !== r) throw new AttritionInputError(`${field}[${s}].conditions`, `must list ${r} conditions`);
+    if (stratum.conditions.length !== r)
+      throw new AttritionInputError(`${field}[${s}].conditions`, `must list ${r} conditions`);
     const n = stratum.conditions.map((c, i) => {
       requireCount(c.randomized, `${field}[${s}].conditions[${i}].randomized`);
       requireCount(c.dropped, `${field}[${s}].conditions[${i}].dropped`);
-      if (c.dropped > c.randomized) throw new AttritionInputError(`${field}[${s}].conditions[${i}].dropped`, 'must not exceed randomized');
+      if (c.dropped > c.randomized)
+        throw new AttritionInputError(`${field}[${s}].conditions[${i}].dropped`, 'must not exceed randomized');
       return c.randomized;
     });
     const total = n.reduce((sum, value) => sum + value, 0);
@@ -50,15 +52,25 @@ export function cochranMantelHaenszel(strata: readonly StratumCounts[], field = 
   });
   const informative = v.map((row, i) => (row[i] > 0 ? i : -1)).filter((i) => i >= 0);
   const df = Math.max(0, informative.length - 1);
-  if (informative.length < 2) return { method: 'cochran-mantel-haenszel', statistic: null, df, pValue: null, strataUsed };
+  if (informative.length < 2)
+    return { method: 'cochran-mantel-haenszel', statistic: null, df, pValue: null, strataUsed };
   const kept = informative.slice(0, -1);
   const solution = solve(
     kept.map((i) => kept.map((j) => v[i][j])),
     kept.map((i) => u[i]),
   );
   if (solution === null) return { method: 'cochran-mantel-haenszel', statistic: null, df, pValue: null, strataUsed };
-  const statistic = Math.max(0, kept.reduce((sum, i, index) => sum + u[i] * solution[index], 0));
-  return { method: 'cochran-mantel-haenszel', statistic, df, pValue: Math.min(1, Math.max(0, 1 - jStat.chisquare.cdf(statistic, df))), strataUsed };
+  const statistic = Math.max(
+    0,
+    kept.reduce((sum, i, index) => sum + u[i] * solution[index], 0),
+  );
+  return {
+    method: 'cochran-mantel-haenszel',
+    statistic,
+    df,
+    pValue: Math.min(1, Math.max(0, 1 - jStat.chisquare.cdf(statistic, df))),
+    strataUsed,
+  };
 }
 
 function solve(matrix: number[][], vector: number[]): number[] | null {
@@ -66,7 +78,8 @@ function solve(matrix: number[][], vector: number[]): number[] | null {
   const rows = matrix.map((row, i) => [...row, vector[i]]);
   for (let column = 0; column < size; column += 1) {
     let pivot = column;
-    for (let row = column + 1; row < size; row += 1) if (Math.abs(rows[row][column]) > Math.abs(rows[pivot][column])) pivot = row;
+    for (let row = column + 1; row < size; row += 1)
+      if (Math.abs(rows[row][column]) > Math.abs(rows[pivot][column])) pivot = row;
     if (Math.abs(rows[pivot][column]) < 1e-12) return null;
     [rows[column], rows[pivot]] = [rows[pivot], rows[column]];
     for (let row = 0; row < size; row += 1) {
@@ -113,7 +126,10 @@ export function stratifiedLogRank(strata: readonly StratumSurvival[], field = 's
   strata.forEach((stratum, s) => {
     const here = stratum.groups.map((group) => group.conditionId);
     if (here.length !== k || here.some((id, i) => id !== ids[i])) {
-      throw new AttritionInputError(`${field}[${s}].groups`, `must list the conditions ${ids.join(', ')} in that order`);
+      throw new AttritionInputError(
+        `${field}[${s}].groups`,
+        `must list the conditions ${ids.join(', ')} in that order`,
+      );
     }
     const part = logRankComponents(stratum.groups, `${field}[${s}].groups`);
     if (part.observed.some((value) => value > 0)) strataUsed += 1;

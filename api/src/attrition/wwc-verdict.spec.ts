@@ -9,7 +9,10 @@ function fromRowAndGap(overallPercent: number, gapTwentieths: number) {
   // 4,000 per condition: overall exactly on the row (a + b = 80·row), differential |a − b| / 40 points.
   const total = 80 * overallPercent;
   const gap = 2 * gapTwentieths;
-  return assessWwcPair({ randomized: 4000, attrited: (total + gap) / 2 }, { randomized: 4000, attrited: (total - gap) / 2 });
+  return assessWwcPair(
+    { randomized: 4000, attrited: (total + gap) / 2 },
+    { randomized: 4000, attrited: (total - gap) / 2 },
+  );
 }
 
 describe('WWC verdict on both sides of the boundary', () => {
@@ -26,8 +29,16 @@ describe('WWC verdict on both sides of the boundary', () => {
     it(`at ${row} % overall: low at ${cautious} points cautious / ${optimistic} optimistic, high just above`, () => {
       const onCautious = fromRowAndGap(row, Math.round(cautious * 20));
       expect(onCautious.overallPercentRow).toBe(row);
-      expect(onCautious.cautious).toEqual({ verdict: 'low-attrition', maxDifferentialPercent: cautious, overallPercentRow: row });
-      expect(onCautious.optimistic).toEqual({ verdict: 'low-attrition', maxDifferentialPercent: optimistic, overallPercentRow: row });
+      expect(onCautious.cautious).toEqual({
+        verdict: 'low-attrition',
+        maxDifferentialPercent: cautious,
+        overallPercentRow: row,
+      });
+      expect(onCautious.optimistic).toEqual({
+        verdict: 'low-attrition',
+        maxDifferentialPercent: optimistic,
+        overallPercentRow: row,
+      });
 
       const aboveCautious = fromRowAndGap(row, Math.round(cautious * 20) + 1);
       expect(aboveCautious.overallPercentRow).toBe(row);
@@ -50,10 +61,16 @@ describe('WWC verdict on both sides of the boundary', () => {
     const on = assessWwcPair({ randomized: 1000, attrited: 57 }, { randomized: 20000, attrited: 0 });
     expect(on.overallPercentRow).toBe(0);
     expect(on.cautious.verdict).toBe('low-attrition');
-    expect(assessWwcPair({ randomized: 1000, attrited: 58 }, { randomized: 20000, attrited: 0 }).cautious.verdict).toBe('high-attrition');
+    expect(assessWwcPair({ randomized: 1000, attrited: 58 }, { randomized: 20000, attrited: 0 }).cautious.verdict).toBe(
+      'high-attrition',
+    );
     // 100 of 1,000: differential 10.0 points, overall 0.48 % → row 0, on the optimistic line; 101 is above it.
-    expect(assessWwcPair({ randomized: 1000, attrited: 100 }, { randomized: 20000, attrited: 0 }).optimistic.verdict).toBe('low-attrition');
-    expect(assessWwcPair({ randomized: 1000, attrited: 101 }, { randomized: 20000, attrited: 0 }).optimistic.verdict).toBe('high-attrition');
+    expect(
+      assessWwcPair({ randomized: 1000, attrited: 100 }, { randomized: 20000, attrited: 0 }).optimistic.verdict,
+    ).toBe('low-attrition');
+    expect(
+      assessWwcPair({ randomized: 1000, attrited: 101 }, { randomized: 20000, attrited: 0 }).optimistic.verdict,
+    ).toBe('high-attrition');
   });
 
   it('agrees with the examples of a public R implementation of the WWC standards (RWWC attritest.Rd)', () => {
@@ -99,7 +116,11 @@ describe('the table row for an overall rate between two whole percents', () => {
 
   it('says "outside the published range" above 57 %, including any rate between 57 % and 58 %', () => {
     const justAbove = pair(1145, 1146); // 2,291 / 4,000 = 57.275 %: row 58 is not in the table
-    expect(justAbove.cautious).toEqual({ verdict: 'outside-published-range', maxDifferentialPercent: null, overallPercentRow: null });
+    expect(justAbove.cautious).toEqual({
+      verdict: 'outside-published-range',
+      maxDifferentialPercent: null,
+      overallPercentRow: null,
+    });
     expect(justAbove.optimistic.verdict).toBe('outside-published-range');
     // Exactly 57 %: row 57 (0.0 / 2.3); differential 0.1 points: above the cautious line, below the optimistic.
     const lastRow = pair(1139, 1141);
@@ -129,7 +150,11 @@ describe('every pair of three or more conditions', () => {
     expect(result.allPairs).toHaveLength(3);
     expect(result.cautious).toBe('high-attrition');
     expect(result.optimistic).toBe('low-attrition');
-    expect(result.worstPair.cautious).toMatchObject({ conditionId: 'map', comparisonConditionId: 'none', overallPercentRows: [20] });
+    expect(result.worstPair.cautious).toMatchObject({
+      conditionId: 'map',
+      comparisonConditionId: 'none',
+      overallPercentRows: [20],
+    });
     expect(result.worstPair.cautious?.differentialAttritionRate).toBeCloseTo(0.08, 12);
   });
 });
@@ -161,8 +186,12 @@ describe('more than two conditions', () => {
 
   it('uses the first condition when none is picked, and refuses an unknown one', () => {
     expect(assessWwcAgainstComparison(conditions).comparisonConditionId).toBe('landmarks');
-    expect(() => assessWwcAgainstComparison(conditions, 'compass')).toThrow(/comparisonConditionId: "compass" is not one of the study's conditions/);
-    expect(() => assessWwcAgainstComparison([conditions[0], conditions[0]])).toThrow(/conditions\[1\]\.conditionId: "landmarks" appears more than once/);
+    expect(() => assessWwcAgainstComparison(conditions, 'compass')).toThrow(
+      /comparisonConditionId: "compass" is not one of the study's conditions/,
+    );
+    expect(() => assessWwcAgainstComparison([conditions[0], conditions[0]])).toThrow(
+      /conditions\[1\]\.conditionId: "landmarks" appears more than once/,
+    );
   });
 
   it('is not computable with a single condition', () => {

@@ -65,7 +65,9 @@ export function overallPercentRows(attrited: bigint, randomized: bigint): number
 
 function boundaryVerdict(condition: AttritionCount, comparison: AttritionCount, tenthsOfPercent: number): WwcVerdict {
   // |a/na − b/nb| ≤ t/1000  ⇔  1000·|a·nb − b·na| ≤ t·na·nb
-  const gap = BigInt(condition.attrited) * BigInt(comparison.randomized) - BigInt(comparison.attrited) * BigInt(condition.randomized);
+  const gap =
+    BigInt(condition.attrited) * BigInt(comparison.randomized) -
+    BigInt(comparison.attrited) * BigInt(condition.randomized);
   const absoluteGap = gap < 0n ? -gap : gap;
   const allowed = BigInt(tenthsOfPercent) * BigInt(condition.randomized) * BigInt(comparison.randomized);
   return 1000n * absoluteGap <= allowed ? 'low-attrition' : 'high-attrition';
@@ -94,9 +96,14 @@ export function assessWwcPair(
     };
   }
   const differentialAttritionRate = Math.abs(conditionRate - comparisonRate);
-  const rows = overallPercentRows(BigInt(condition.attrited + comparison.attrited), BigInt(condition.randomized + comparison.randomized));
+  const rows = overallPercentRows(
+    BigInt(condition.attrited + comparison.attrited),
+    BigInt(condition.randomized + comparison.randomized),
+  );
   const judge = (pick: (row: WwcBoundaryRow) => number): WwcBoundaryVerdict => {
-    const tableRows = rows.map((percent) => (percent > WWC_HIGHEST_TABULATED_OVERALL_PERCENT ? null : wwcBoundaryRow(percent)));
+    const tableRows = rows.map((percent) =>
+      percent > WWC_HIGHEST_TABULATED_OVERALL_PERCENT ? null : wwcBoundaryRow(percent),
+    );
     if (tableRows.some((row) => row === null)) {
       return { verdict: 'outside-published-range', maxDifferentialPercent: null, overallPercentRow: null };
     }
@@ -117,12 +124,22 @@ export function assessWwcPair(
     overallPercentRows: rows,
     cautious,
     optimistic,
-    differenceInterval: newcombeDifferenceInterval(condition.attrited, condition.randomized, comparison.attrited, comparison.randomized),
+    differenceInterval: newcombeDifferenceInterval(
+      condition.attrited,
+      condition.randomized,
+      comparison.attrited,
+      comparison.randomized,
+    ),
     riskRatio: riskRatio(condition.attrited, condition.randomized, comparison.attrited, comparison.randomized),
   };
 }
 
-const SEVERITY: readonly WwcVerdict[] = ['low-attrition', 'not-computable', 'outside-published-range', 'high-attrition'];
+const SEVERITY: readonly WwcVerdict[] = [
+  'low-attrition',
+  'not-computable',
+  'outside-published-range',
+  'high-attrition',
+];
 
 function leastFavourable(verdicts: WwcVerdict[]): WwcVerdict {
   if (verdicts.length === 0) return 'not-computable';
@@ -130,7 +147,10 @@ function leastFavourable(verdicts: WwcVerdict[]): WwcVerdict {
 }
 
 /** Most severe verdict first; among equals, the largest differential beyond (or closest to) its boundary. */
-function worstPairUnder(pairs: readonly WwcPairAssessment[], boundary: 'cautious' | 'optimistic'): WwcPairAssessment | null {
+function worstPairUnder(
+  pairs: readonly WwcPairAssessment[],
+  boundary: 'cautious' | 'optimistic',
+): WwcPairAssessment | null {
   const excess = (pair: WwcPairAssessment) =>
     (pair.differentialAttritionRate ?? -Infinity) * 100 - (pair[boundary].maxDifferentialPercent ?? 0);
   return (
@@ -163,17 +183,27 @@ export function assessWwcAgainstComparison(
       worstPair: { cautious: null, optimistic: null },
     };
   }
-  const comparison = comparisonConditionId === undefined ? conditions[0] : conditions.find((c) => c.conditionId === comparisonConditionId);
+  const comparison =
+    comparisonConditionId === undefined
+      ? conditions[0]
+      : conditions.find((c) => c.conditionId === comparisonConditionId);
   if (comparison === undefined) {
-    throw new AttritionInputError('comparisonConditionId', `"${comparisonConditionId}" is not one of the study's conditions`);
+    throw new AttritionInputError(
+      'comparisonConditionId',
+      `"${comparisonConditionId}" is not one of the study's conditions`,
+    );
   }
   const assess = (condition: ConditionAttritionCount, against: ConditionAttritionCount): WwcPairAssessment => ({
     conditionId: condition.conditionId,
     comparisonConditionId: against.conditionId,
     ...assessWwcPair(condition, against),
   });
-  const pairs = conditions.filter((condition) => condition !== comparison).map((condition) => assess(condition, comparison));
-  const allPairs = conditions.flatMap((condition, i) => conditions.slice(i + 1).map((other) => assess(condition, other)));
+  const pairs = conditions
+    .filter((condition) => condition !== comparison)
+    .map((condition) => assess(condition, comparison));
+  const allPairs = conditions.flatMap((condition, i) =>
+    conditions.slice(i + 1).map((other) => assess(condition, other)),
+  );
   return {
     comparisonConditionId: comparison.conditionId,
     pairs,

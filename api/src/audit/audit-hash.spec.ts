@@ -1,6 +1,18 @@
 import { execFileSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
-import { canonicalJson, ChainedEventFields, chainHash, finishWalk, GENESIS_HASH, hmacHex, keyedEventHash, startWalk, StoredEvent, UNKEYED_SEAL_ACTION, walkChain } from './audit-hash';
+import {
+  canonicalJson,
+  ChainedEventFields,
+  chainHash,
+  finishWalk,
+  GENESIS_HASH,
+  hmacHex,
+  keyedEventHash,
+  startWalk,
+  StoredEvent,
+  UNKEYED_SEAL_ACTION,
+  walkChain,
+} from './audit-hash';
 
 function event(sequence: number, data: Record<string, unknown> = {}): ChainedEventFields {
   return {
@@ -22,7 +34,13 @@ function keyedChainOf(count: number, after: StoredEvent[] = []): StoredEvent[] {
   const events = [...after];
   let previousHash = after.length ? after[after.length - 1].hash : GENESIS_HASH;
   for (let sequence = after.length + 1; sequence <= after.length + count; sequence++) {
-    const fields = { ...event(sequence, { n: sequence }), id: `e${sequence}`, actorEmail: 'a@b.test', previousHash, keyId: 'k1' };
+    const fields = {
+      ...event(sequence, { n: sequence }),
+      id: `e${sequence}`,
+      actorEmail: 'a@b.test',
+      previousHash,
+      keyId: 'k1',
+    };
     const hash = keyedEventHash(KEY, fields);
     events.push({ ...fields, hash });
     previousHash = hash;
@@ -49,7 +67,9 @@ const check = (events: StoredEvent[]) => {
 
 describe('canonicalJson', () => {
   it('sorts keys at every depth and drops undefined', () => {
-    expect(canonicalJson({ b: 1, a: { d: [2, { z: 1, y: 0 }], c: undefined } })).toBe('{"a":{"d":[2,{"y":0,"z":1}]},"b":1}');
+    expect(canonicalJson({ b: 1, a: { d: [2, { z: 1, y: 0 }], c: undefined } })).toBe(
+      '{"a":{"d":[2,{"y":0,"z":1}]},"b":1}',
+    );
   });
 });
 
@@ -66,10 +86,14 @@ describe('chainHash', () => {
 describe('hmacHex', () => {
   // RFC 4231 (HMAC-SHA-256 test vectors), test cases 1, 2 and 6.
   it('matches RFC 4231 test case 1', () => {
-    expect(hmacHex(Buffer.alloc(20, 0x0b), 'Hi There')).toBe('b0344c61d8db38535ca8afceaf0bf12b881dc200c9833da726e9376c2e32cff7');
+    expect(hmacHex(Buffer.alloc(20, 0x0b), 'Hi There')).toBe(
+      'b0344c61d8db38535ca8afceaf0bf12b881dc200c9833da726e9376c2e32cff7',
+    );
   });
   it('matches RFC 4231 test case 2', () => {
-    expect(hmacHex(Buffer.from('Jefe'), 'what do ya want for nothing?')).toBe('5bdcc146bf60754e6a042426089575c75a003f089d2739839dec58b964ec3843');
+    expect(hmacHex(Buffer.from('Jefe'), 'what do ya want for nothing?')).toBe(
+      '5bdcc146bf60754e6a042426089575c75a003f089d2739839dec58b964ec3843',
+    );
   });
   it('matches RFC 4231 test case 6 (key longer than the block)', () => {
     expect(hmacHex(Buffer.alloc(131, 0xaa), 'Test Using Larger Than Block-Size Key - Hash Key First')).toBe(
@@ -127,7 +151,14 @@ describe('walkChain', () => {
     expect(check(sealed)).toBeNull();
     const edited = sealed.map((e, i) => (i === 1 ? { ...e, actorEmail: 'forged@b.test' } : e));
     expect(check(edited)).toEqual({ sequence: 4, reason: 'unkeyed-events-changed' });
-    expect(check([...sealed, ...unkeyedChainOf(5).slice(4).map((e) => ({ ...e, previousHash: sealed[3].hash }))])).toEqual({ sequence: 5, reason: 'unkeyed-after-keyed' });
+    expect(
+      check([
+        ...sealed,
+        ...unkeyedChainOf(5)
+          .slice(4)
+          .map((e) => ({ ...e, previousHash: sealed[3].hash })),
+      ]),
+    ).toEqual({ sequence: 5, reason: 'unkeyed-after-keyed' });
     walk = startWalk();
     expect(walk.unkeyedCount).toBe(0);
   });

@@ -50,8 +50,26 @@ export function hmacHex(key: Buffer, message: string | Buffer): string {
 
 /** The keyed scheme: hex HMAC-SHA-256, under the key named by keyId, of the canonical JSON of every stored column. */
 export function keyedEventHash(key: Buffer, event: StoredEventFields): string {
-  const { id, chain, sequence, at, actorId, actorEmail, action, subjectType, subjectId, data, previousHash, keyId } = event;
-  return hmacHex(key, canonicalJson({ v: 2, id, chain, sequence, at, actorId, actorEmail, action, subjectType, subjectId, data, previousHash, keyId }));
+  const { id, chain, sequence, at, actorId, actorEmail, action, subjectType, subjectId, data, previousHash, keyId } =
+    event;
+  return hmacHex(
+    key,
+    canonicalJson({
+      v: 2,
+      id,
+      chain,
+      sequence,
+      at,
+      actorId,
+      actorEmail,
+      action,
+      subjectType,
+      subjectId,
+      data,
+      previousHash,
+      keyId,
+    }),
+  );
 }
 
 /**
@@ -89,7 +107,14 @@ export interface ChainWalk {
 }
 
 export function startWalk(): ChainWalk {
-  return { sequence: 0, hash: GENESIS_HASH, keyedSeen: false, unkeyedCount: 0, unkeyedDigest: GENESIS_HASH, unkeyedSealed: false };
+  return {
+    sequence: 0,
+    hash: GENESIS_HASH,
+    keyedSeen: false,
+    unkeyedCount: 0,
+    unkeyedDigest: GENESIS_HASH,
+    unkeyedSealed: false,
+  };
 }
 
 /**
@@ -97,22 +122,30 @@ export function startWalk(): ChainWalk {
  * walk state after the last good event). Keyed events must carry a known key and a matching HMAC; unkeyed events
  * (written before keys existed) are accepted only when a keyed seal later in the chain covers them all.
  */
-export function walkChain(events: StoredEvent[], walk: ChainWalk, keyOf: (keyId: string) => Buffer | undefined): { walk: ChainWalk; broken: ChainBreak | null } {
+export function walkChain(
+  events: StoredEvent[],
+  walk: ChainWalk,
+  keyOf: (keyId: string) => Buffer | undefined,
+): { walk: ChainWalk; broken: ChainBreak | null } {
   const state = { ...walk };
   for (const event of events) {
-    if (event.sequence !== state.sequence + 1) return { walk: state, broken: { sequence: event.sequence, reason: 'sequence-gap' } };
-    if (event.previousHash !== state.hash) return { walk: state, broken: { sequence: event.sequence, reason: 'previous-hash-mismatch' } };
+    if (event.sequence !== state.sequence + 1)
+      return { walk: state, broken: { sequence: event.sequence, reason: 'sequence-gap' } };
+    if (event.previousHash !== state.hash)
+      return { walk: state, broken: { sequence: event.sequence, reason: 'previous-hash-mismatch' } };
     if (event.keyId === null) {
       if (state.keyedSeen) return { walk: state, broken: { sequence: event.sequence, reason: 'unkeyed-after-keyed' } };
       const { id: _id, actorEmail: _email, previousHash, keyId: _keyId, hash, ...fields } = event;
-      if (chainHash(previousHash, fields) !== hash) return { walk: state, broken: { sequence: event.sequence, reason: 'hash-mismatch' } };
+      if (chainHash(previousHash, fields) !== hash)
+        return { walk: state, broken: { sequence: event.sequence, reason: 'hash-mismatch' } };
       state.unkeyedCount += 1;
       state.unkeyedDigest = foldUnkeyedEvent(state.unkeyedDigest, event);
     } else {
       const key = keyOf(event.keyId);
       if (!key) return { walk: state, broken: { sequence: event.sequence, reason: 'unknown-key' } };
       const { hash, ...fields } = event;
-      if (keyedEventHash(key, fields) !== hash) return { walk: state, broken: { sequence: event.sequence, reason: 'hash-mismatch' } };
+      if (keyedEventHash(key, fields) !== hash)
+        return { walk: state, broken: { sequence: event.sequence, reason: 'hash-mismatch' } };
       if (!state.keyedSeen && state.unkeyedCount > 0) {
         const seal = event.action === UNKEYED_SEAL_ACTION ? event.data : null;
         if (!seal) return { walk: state, broken: { sequence: 1, reason: 'unkeyed' } };

@@ -56,7 +56,11 @@ export function parseKeyFile(text: string, path: string): AuditKeyRing {
   if (typeof parsed.current !== 'string' || typeof parsed.keys !== 'object' || parsed.keys === null) {
     throw new Error(`${path}: the audit key file needs "current" and "keys"`);
   }
-  return ringOf(Object.entries(parsed.keys as Record<string, string>).map(([id, hex]) => [id, String(hex)]), parsed.current, path);
+  return ringOf(
+    Object.entries(parsed.keys as Record<string, string>).map(([id, hex]) => [id, String(hex)]),
+    parsed.current,
+    path,
+  );
 }
 
 /** Loads the key ring; creates a development key file when allowed and none exists. */
@@ -67,9 +71,14 @@ export function loadAuditKeys(options: { keyList: string; keyFile: string; mayCr
     text = readFileSync(options.keyFile, 'utf8');
   } catch (error: unknown) {
     if ((error as NodeJS.ErrnoException).code !== 'ENOENT') throw error;
-    if (!options.mayCreate) throw new Error(`AUDIT_KEY_FILE: ${options.keyFile} does not exist; set AUDIT_KEYS or provide the key file`);
+    if (!options.mayCreate)
+      throw new Error(`AUDIT_KEY_FILE: ${options.keyFile} does not exist; set AUDIT_KEYS or provide the key file`);
     const id = `dev-${randomBytes(4).toString('hex')}`;
-    const created = JSON.stringify({ current: id, keys: { [id]: randomBytes(MIN_KEY_BYTES).toString('hex') } }, null, 2);
+    const created = JSON.stringify(
+      { current: id, keys: { [id]: randomBytes(MIN_KEY_BYTES).toString('hex') } },
+      null,
+      2,
+    );
     mkdirSync(dirname(options.keyFile), { recursive: true, mode: 0o700 });
     try {
       // "wx": two processes starting at once end up with the one file that was written first.

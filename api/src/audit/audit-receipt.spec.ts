@@ -30,7 +30,9 @@ describe('audit receipts', () => {
 
   it('names what is wrong with an altered, foreign or malformed receipt', () => {
     const receipt = sealReceipt(KEY, body);
-    expect(checkReceipt({ ...receipt, chains: [{ ...receipt.chains[0], sequence: 8 }, receipt.chains[1]] }, keyOf)).toBe('receipt-mac-mismatch');
+    expect(
+      checkReceipt({ ...receipt, chains: [{ ...receipt.chains[0], sequence: 8 }, receipt.chains[1]] }, keyOf),
+    ).toBe('receipt-mac-mismatch');
     expect(checkReceipt({ ...receipt, keyId: 'k2' }, keyOf)).toBe('receipt-unknown-key');
     expect(checkReceipt({ format: 'other' }, keyOf)).toBe('receipt-malformed');
     expect(checkReceipt(null, keyOf)).toBe('receipt-malformed');
@@ -47,6 +49,8 @@ describe('audit keys', () => {
 
   it('refuses short keys and a current key that is missing, naming the source', () => {
     expect(() => parseKeyList(`k=${'11'.repeat(8)}`)).toThrow(/AUDIT_KEYS: key "k" must be at least 32 bytes/);
-    expect(() => parseKeyFile(JSON.stringify({ current: 'x', keys: { y: '11'.repeat(32) } }), '/keys.json')).toThrow(/current key "x"/);
+    expect(() => parseKeyFile(JSON.stringify({ current: 'x', keys: { y: '11'.repeat(32) } }), '/keys.json')).toThrow(
+      /current key "x"/,
+    );
   });
 });

@@ -34,7 +34,11 @@ export function receiptMac(key: Buffer, receipt: Omit<AuditReceiptDocument, 'mac
 }
 
 export function sealReceipt(key: Buffer, body: Omit<AuditReceiptDocument, 'mac' | 'format'>): AuditReceiptDocument {
-  const unsealed = { format: RECEIPT_FORMAT, ...body, chains: [...body.chains].sort((a, b) => (a.chain < b.chain ? -1 : a.chain > b.chain ? 1 : 0)) };
+  const unsealed = {
+    format: RECEIPT_FORMAT,
+    ...body,
+    chains: [...body.chains].sort((a, b) => (a.chain < b.chain ? -1 : a.chain > b.chain ? 1 : 0)),
+  };
   return { ...unsealed, mac: receiptMac(key, unsealed) };
 }
 
@@ -62,12 +66,22 @@ function isReceiptShape(value: unknown): value is AuditReceiptDocument {
     /^[0-9a-f]{64}$/.test(r.mac) &&
     typeof r.issuedAt === 'string' &&
     Array.isArray(r.chains) &&
-    r.chains.every((c) => typeof c === 'object' && c !== null && typeof c.chain === 'string' && Number.isSafeInteger(c.sequence) && c.sequence >= 1 && typeof c.hash === 'string')
+    r.chains.every(
+      (c) =>
+        typeof c === 'object' &&
+        c !== null &&
+        typeof c.chain === 'string' &&
+        Number.isSafeInteger(c.sequence) &&
+        c.sequence >= 1 &&
+        typeof c.hash === 'string',
+    )
   );
 }
 
 export const RECEIPT_PROBLEM_TEXT: Record<ReceiptProblem, string> = {
-  'receipt-malformed': 'The receipt is not an Evenhand audit receipt (format, fields or chain heads are missing or malformed).',
+  'receipt-malformed':
+    'The receipt is not an Evenhand audit receipt (format, fields or chain heads are missing or malformed).',
   'receipt-unknown-key': 'The receipt names an audit key this server does not hold, so it cannot be checked.',
-  'receipt-mac-mismatch': 'The receipt’s HMAC does not match its contents: the receipt was altered or made without the audit key.',
+  'receipt-mac-mismatch':
+    'The receipt’s HMAC does not match its contents: the receipt was altered or made without the audit key.',
 };

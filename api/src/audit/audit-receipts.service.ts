@@ -70,7 +70,13 @@ export class AuditReceiptsService implements OnModuleInit {
         mac: document.mac,
       });
       if (actor) {
-        await this.audit.record(manager, { actor, action: 'audit.receipt-issued', subjectType: 'audit-receipt', subjectId: document.id, data: { number: document.number, chains: heads.length } });
+        await this.audit.record(manager, {
+          actor,
+          action: 'audit.receipt-issued',
+          subjectType: 'audit-receipt',
+          subjectId: document.id,
+          data: { number: document.number, chains: heads.length },
+        });
       }
       await this.jobs.enqueue(manager, JOB_NAMES.auditReceipt, { receiptId: document.id });
       return document;
@@ -81,16 +87,29 @@ export class AuditReceiptsService implements OnModuleInit {
     const rows: Array<{ chain: string; sequence: number; hash: string; at: Date }> = await manager.query(
       `SELECT DISTINCT ON (chain) chain, sequence, hash, at FROM audit_event ORDER BY chain, sequence DESC`,
     );
-    return rows.map((row) => ({ chain: row.chain, sequence: Number(row.sequence), hash: row.hash, at: new Date(row.at).toISOString() }));
+    return rows.map((row) => ({
+      chain: row.chain,
+      sequence: Number(row.sequence),
+      hash: row.hash,
+      at: new Date(row.at).toISOString(),
+    }));
   }
 
   async list(): Promise<Array<{ id: string; number: number; issuedAt: string; reason: string; chains: number }>> {
     const rows = await this.dataSource.getRepository(AuditReceiptEntity).find({ order: { number: 'DESC' }, take: 100 });
-    return rows.map((row) => ({ id: row.id, number: row.number, issuedAt: row.issuedAt.toISOString(), reason: row.reason, chains: row.document.chains.length }));
+    return rows.map((row) => ({
+      id: row.id,
+      number: row.number,
+      issuedAt: row.issuedAt.toISOString(),
+      reason: row.reason,
+      chains: row.document.chains.length,
+    }));
   }
 
   async get(id: string): Promise<AuditReceiptDocument> {
-    const row = UUID.test(id) ? await this.dataSource.getRepository(AuditReceiptEntity).findOne({ where: { id } }) : null;
+    const row = UUID.test(id)
+      ? await this.dataSource.getRepository(AuditReceiptEntity).findOne({ where: { id } })
+      : null;
     if (!row) throw new DomainException('NOT_FOUND', 'There is no audit receipt with this id.');
     return row.document;
   }
@@ -107,7 +126,13 @@ export class AuditReceiptsService implements OnModuleInit {
         text:
           `Audit receipt ${receipt.id} (no. ${receipt.number}, ${receipt.reason}) seals the heads of ${receipt.chains.length} audit chain(s) as of ${receipt.issuedAt}.\n\n` +
           'Keep the attached file. Handing it to "Verify against a receipt" (POST /api/audit/verify) shows whether any event it covers was later removed or rewritten.\n',
-        attachments: [{ filename: `audit-receipt-${receipt.number}.json`, content: Buffer.from(json), contentType: 'application/json' }],
+        attachments: [
+          {
+            filename: `audit-receipt-${receipt.number}.json`,
+            content: Buffer.from(json),
+            contentType: 'application/json',
+          },
+        ],
       });
     }
     this.logger.log(`Audit receipt ${receipt.number} sent to ${recipients.length} auditor(s)`);
@@ -121,18 +146,24 @@ export class AuditReceiptsService implements OnModuleInit {
     const addresses = new Set<string>();
     for (let page = 1; ; page++) {
       const staff = await users.listStaff({ page, pageSize: 100 } as never);
-      for (const user of staff.items) if (user.role === 'auditor' && user.active) addresses.add(user.email.toLowerCase());
+      for (const user of staff.items)
+        if (user.role === 'auditor' && user.active) addresses.add(user.email.toLowerCase());
       if (page * 100 >= staff.total) break;
     }
     for (const chain of chains) {
       if (!UUID.test(chain) || !(await studies.exists(chain))) continue;
-      for (const member of (await studies.listMembers(chain)).items) if (member.role === 'auditor') addresses.add(member.email.toLowerCase());
+      for (const member of (await studies.listMembers(chain)).items)
+        if (member.role === 'auditor') addresses.add(member.email.toLowerCase());
     }
     return [...addresses].sort();
   }
 }
 
 function sameHeads(a: ChainHead[], b: ChainHead[]): boolean {
-  const key = (heads: ChainHead[]) => heads.map((h) => `${h.chain}:${h.sequence}:${h.hash}`).sort().join('|');
+  const key = (heads: ChainHead[]) =>
+    heads
+      .map((h) => `${h.chain}:${h.sequence}:${h.hash}`)
+      .sort()
+      .join('|');
   return key(a) === key(b);
 }

@@ -36,7 +36,10 @@ function recordedActions(): Array<{ where: string; codes: string[]; pattern: Reg
     for (const call of text.matchAll(/audit\.record\(\s*[\w.]+\s*,\s*\{/g)) {
       const start = call.index! + call[0].length;
       const body = text.slice(start, start + 1200);
-      const action = /\baction:\s*([^,\n]+?)\s*,\s*(?:subjectType|subjectId|data|actor|chain)\b|\baction:\s*([^,\n]+)\s*,?\n/.exec(body);
+      const action =
+        /\baction:\s*([^,\n]+?)\s*,\s*(?:subjectType|subjectId|data|actor|chain)\b|\baction:\s*([^,\n]+)\s*,?\n/.exec(
+          body,
+        );
       const where = `${relative(SRC, file)}:${text.slice(0, call.index).split('\n').length}`;
       if (!action) {
         found.push({ where, codes: [], pattern: null });
@@ -45,10 +48,19 @@ function recordedActions(): Array<{ where: string; codes: string[]; pattern: Reg
       const expression = (action[1] ?? action[2]).trim();
       const template = /^`([^`]*)`$/.exec(expression);
       if (template) {
-        const pattern = new RegExp(`^${template[1].split(/\$\{[^}]*\}/).map((part) => part.replace(/[.*+?^$()|[\]\\]/g, '\\$&')).join('[a-z-]+')}$`);
+        const pattern = new RegExp(
+          `^${template[1]
+            .split(/\$\{[^}]*\}/)
+            .map((part) => part.replace(/[.*+?^$()|[\]\\]/g, '\\$&'))
+            .join('[a-z-]+')}$`,
+        );
         // Only the values the interpolation can produce (the arms of a conditional), not what it compares with.
         const prefix = template[1].split('${')[0];
-        found.push({ where, codes: [...template[1].matchAll(/[?:]\s*'([a-z-]+)'/g)].map((m) => `${prefix}${m[1]}`), pattern });
+        found.push({
+          where,
+          codes: [...template[1].matchAll(/[?:]\s*'([a-z-]+)'/g)].map((m) => `${prefix}${m[1]}`),
+          pattern,
+        });
       } else {
         const results = expression.includes('?') ? expression.slice(expression.indexOf('?') + 1) : expression;
         found.push({ where, codes: [...results.matchAll(/'([^']+)'/g)].map((m) => m[1]), pattern: null });
@@ -105,7 +117,10 @@ describe('the audit trail in plain words', () => {
 
   it('reads every action as a finished sentence with no codes, ids or empty values in it', () => {
     for (const [action, words] of Object.entries(AUDIT_ACTIONS)) {
-      const { sentence, name, family } = describeEvent({ action, actorEmail: 'coordinator@evenhand.test', subjectId: 'x', data: SAMPLE_DATA[action] ?? {} }, context());
+      const { sentence, name, family } = describeEvent(
+        { action, actorEmail: 'coordinator@evenhand.test', subjectId: 'x', data: SAMPLE_DATA[action] ?? {} },
+        context(),
+      );
       expect(ACTION_FAMILY_KEYS, action).toContain(family);
       expect(family).toBe(words.family);
       expect(name, action).not.toMatch(/\./);
@@ -116,7 +131,12 @@ describe('the audit trail in plain words', () => {
   });
 
   it('says who approved how many payouts and the total in the study’s currency', () => {
-    expect(describeEvent({ action: 'payout.approved', actorEmail: null, subjectId: null, data: { count: 3, amountMinor: 3600 } }, context())).toEqual({
+    expect(
+      describeEvent(
+        { action: 'payout.approved', actorEmail: null, subjectId: null, data: { count: 3, amountMinor: 3600 } },
+        context(),
+      ),
+    ).toEqual({
       family: 'payouts',
       name: 'Payouts approved',
       sentence: 'Coordinator C. Vasquez-Hale approved 3 payouts, $36.00 in all.',
@@ -126,38 +146,72 @@ describe('the audit trail in plain words', () => {
 
   it('names the participant by reference, never by e-mail, and the step by its title', () => {
     const done = describeEvent(
-      { action: 'step.completed', actorEmail: 'p001@evenhand.test', subjectId: 'e', data: { verifiedBy: 'return-link', payMinor: 1200, completedStudy: true } },
+      {
+        action: 'step.completed',
+        actorEmail: 'p001@evenhand.test',
+        subjectId: 'e',
+        data: { verifiedBy: 'return-link', payMinor: 1200, completedStudy: true },
+      },
       context({ actor: { name: '', email: 'p001@evenhand.test', role: 'participant' }, actorIsParticipant: true }),
     );
-    expect(done.sentence).toBe('Participant P-7KQ2XA finished the step “Session 1”, checked by the return link from the task; $12.00 is owed. That was their last step.');
+    expect(done.sentence).toBe(
+      'Participant P-7KQ2XA finished the step “Session 1”, checked by the return link from the task; $12.00 is owed. That was their last step.',
+    );
     expect(done.sentence).not.toContain('@');
-    const byStaff = describeEvent({ action: 'step.completed', actorEmail: null, subjectId: 'e', data: { verifiedBy: 'staff', payMinor: 500 } }, context());
-    expect(byStaff.sentence).toBe('Coordinator C. Vasquez-Hale marked the step “Session 1” done for participant P-7KQ2XA; $5.00 is owed.');
+    const byStaff = describeEvent(
+      { action: 'step.completed', actorEmail: null, subjectId: 'e', data: { verifiedBy: 'staff', payMinor: 500 } },
+      context(),
+    );
+    expect(byStaff.sentence).toBe(
+      'Coordinator C. Vasquez-Hale marked the step “Session 1” done for participant P-7KQ2XA; $5.00 is owed.',
+    );
   });
 
   it('reads events written under earlier codes as the action they meant', () => {
-    const paid = describeEvent({ action: 'payout.paid', actorEmail: null, subjectId: 'p', data: { transferId: 'tr_1', amountMinor: 1200 } }, context({ actor: null }));
-    expect(paid).toMatchObject({ family: 'payouts', name: 'Paid', sentence: '$12.00 reached participant P-7KQ2XA’s payout account.' });
+    const paid = describeEvent(
+      { action: 'payout.paid', actorEmail: null, subjectId: 'p', data: { transferId: 'tr_1', amountMinor: 1200 } },
+      context({ actor: null }),
+    );
+    expect(paid).toMatchObject({
+      family: 'payouts',
+      name: 'Paid',
+      sentence: '$12.00 reached participant P-7KQ2XA’s payout account.',
+    });
     expect(paid.sentence).not.toMatch(/tr_|payout\.paid/);
     expect(familyOf('funding.succeeded')).toBe('funding');
     expect(actionWords('payout.failed')?.name).toBe('Payout not sent');
   });
 
   it('has a place for codes it does not know, without failing', () => {
-    expect(describeEvent({ action: 'probe.step-1', actorEmail: 'probe@evenhand.test', subjectId: null, data: {} }, context({ actor: null }))).toMatchObject({
+    expect(
+      describeEvent(
+        { action: 'probe.step-1', actorEmail: 'probe@evenhand.test', subjectId: null, data: {} },
+        context({ actor: null }),
+      ),
+    ).toMatchObject({
       family: 'other',
       sentence: expect.stringMatching(/^probe@evenhand\.test recorded an event/),
     });
   });
 
   it('lists every code of a family, earlier codes included, for filtering stored events', () => {
-    expect(actionsInFamilies(['funding']).sort()).toEqual(['funding.declined', 'funding.failed', 'funding.received', 'funding.started', 'funding.succeeded']);
+    expect(actionsInFamilies(['funding']).sort()).toEqual([
+      'funding.declined',
+      'funding.failed',
+      'funding.received',
+      'funding.started',
+      'funding.succeeded',
+    ]);
     expect(actionsInFamilies(['exports'])).toEqual(['study.exported']);
-    expect(new Set(actionsInFamilies([...ACTION_FAMILY_KEYS])).size).toBe(Object.keys(AUDIT_ACTIONS).length + Object.keys(EARLIER_ACTION_CODES).length);
+    expect(new Set(actionsInFamilies([...ACTION_FAMILY_KEYS])).size).toBe(
+      Object.keys(AUDIT_ACTIONS).length + Object.keys(EARLIER_ACTION_CODES).length,
+    );
   });
 
   it('shortens names to an initial and the last name, after the role', () => {
-    expect(personPhrase({ name: 'Ada Lindqvist-Oyelaran', email: 'a@x', role: 'admin' })).toBe('Lab admin A. Lindqvist-Oyelaran');
+    expect(personPhrase({ name: 'Ada Lindqvist-Oyelaran', email: 'a@x', role: 'admin' })).toBe(
+      'Lab admin A. Lindqvist-Oyelaran',
+    );
     expect(personPhrase({ name: 'Aurel', email: 'a@x', role: 'auditor' })).toBe('Auditor Aurel');
     expect(personPhrase({ name: ' ', email: 'a@x', role: 'researcher' })).toBe('Researcher a@x');
   });

@@ -9,12 +9,28 @@
 
 export const ACTION_FAMILIES = [
   { key: 'sign-in', label: 'Signing in', description: 'Sign-ins, sign-outs and refused attempts' },
-  { key: 'accounts', label: 'Accounts', description: 'Staff accounts made, changed or deactivated; participant accounts made' },
+  {
+    key: 'accounts',
+    label: 'Accounts',
+    description: 'Staff accounts made, changed or deactivated; participant accounts made',
+  },
   { key: 'membership', label: 'Study membership', description: 'Who works on which study' },
-  { key: 'settings', label: 'Study settings', description: 'Study details, conditions, steps, pay, screening, reminders' },
+  {
+    key: 'settings',
+    label: 'Study settings',
+    description: 'Study details, conditions, steps, pay, screening, reminders',
+  },
   { key: 'consent', label: 'Consent', description: 'Consent versions, approval letters, signatures' },
-  { key: 'enrollment', label: 'Enrollment', description: 'Joining, screening, invitations, withdrawal, lost to follow-up' },
-  { key: 'assignment', label: 'Assignment', description: 'The assignment scheme, its sealed sequence, each assignment, unblinding' },
+  {
+    key: 'enrollment',
+    label: 'Enrollment',
+    description: 'Joining, screening, invitations, withdrawal, lost to follow-up',
+  },
+  {
+    key: 'assignment',
+    label: 'Assignment',
+    description: 'The assignment scheme, its sealed sequence, each assignment, unblinding',
+  },
   { key: 'steps', label: 'Steps', description: 'Steps done, undone, and refused codes or return links' },
   { key: 'contact', label: 'Messages', description: 'Messages staff sent to participants' },
   { key: 'watch', label: 'Dropout watch', description: 'Dropout alerts set and sent' },
@@ -175,7 +191,8 @@ export function formatAmount(minor: number, currency: string | null): string {
   }
 }
 
-const numberOrNull = (value: unknown): number | null => (typeof value === 'number' && Number.isFinite(value) ? value : null);
+const numberOrNull = (value: unknown): number | null =>
+  typeof value === 'number' && Number.isFinite(value) ? value : null;
 
 const payoutAmount = (w: Words): number | null => numberOrNull(w.data.amountMinor) ?? w.context.payoutAmountMinor;
 
@@ -201,14 +218,28 @@ export const AUDIT_ACTIONS: Record<string, ActionWords> = {
     name: 'Sign-in refused',
     sentence: (w) => {
       const who = w.event.subjectId ?? 'an unknown address';
-      if (w.data.method === 'two-factor-code') return `A sign-in as ${who} gave the right password but a wrong or used two-factor code, and was refused.`;
-      if (w.data.method === 'recovery-code') return `A sign-in as ${who} gave the right password but a wrong or used recovery code, and was refused.`;
+      if (w.data.method === 'two-factor-code')
+        return `A sign-in as ${who} gave the right password but a wrong or used two-factor code, and was refused.`;
+      if (w.data.method === 'recovery-code')
+        return `A sign-in as ${who} gave the right password but a wrong or used recovery code, and was refused.`;
       return `A password sign-in as ${who} was refused.`;
     },
   },
-  'auth.two-factor-enabled': { family: 'sign-in', name: 'Two-factor sign-in turned on', sentence: (w) => `${w.who} turned on two-factor sign-in for their account and received new recovery codes.` },
-  'auth.two-factor-disabled': { family: 'sign-in', name: 'Two-factor sign-in turned off', sentence: (w) => `${w.who} turned off two-factor sign-in for their account; its recovery codes no longer work.` },
-  'auth.recovery-codes-renewed': { family: 'sign-in', name: 'Recovery codes renewed', sentence: (w) => `${w.who} made new recovery codes; the earlier ones no longer work.` },
+  'auth.two-factor-enabled': {
+    family: 'sign-in',
+    name: 'Two-factor sign-in turned on',
+    sentence: (w) => `${w.who} turned on two-factor sign-in for their account and received new recovery codes.`,
+  },
+  'auth.two-factor-disabled': {
+    family: 'sign-in',
+    name: 'Two-factor sign-in turned off',
+    sentence: (w) => `${w.who} turned off two-factor sign-in for their account; its recovery codes no longer work.`,
+  },
+  'auth.recovery-codes-renewed': {
+    family: 'sign-in',
+    name: 'Recovery codes renewed',
+    sentence: (w) => `${w.who} made new recovery codes; the earlier ones no longer work.`,
+  },
   'auth.recovery-code-used': {
     family: 'sign-in',
     name: 'Recovery code used',
@@ -229,7 +260,8 @@ export const AUDIT_ACTIONS: Record<string, ActionWords> = {
   'auth.refresh-reuse-detected': {
     family: 'sign-in',
     name: 'Session ended as a precaution',
-    sentence: (w) => `A session token of ${w.context.subjectPerson ? personPhrase(w.context.subjectPerson) : 'an account'} was used twice, so that session was ended.`,
+    sentence: (w) =>
+      `A session token of ${w.context.subjectPerson ? personPhrase(w.context.subjectPerson) : 'an account'} was used twice, so that session was ended.`,
   },
   // ── accounts ──
   'user.created': {
@@ -243,68 +275,134 @@ export const AUDIT_ACTIONS: Record<string, ActionWords> = {
   'user.updated': {
     family: 'accounts',
     name: 'Staff account changed',
-    sentence: (w) => `${w.who} changed the ${fieldList(w.data.changes)} of the staff account ${String(w.data.email ?? '')}.`.replace(' .', '.'),
+    sentence: (w) =>
+      `${w.who} changed the ${fieldList(w.data.changes)} of the staff account ${String(w.data.email ?? '')}.`.replace(
+        ' .',
+        '.',
+      ),
   },
-  'user.password-changed': { family: 'accounts', name: 'Password changed', sentence: (w) => `${w.who} changed their own password.` },
+  'user.password-changed': {
+    family: 'accounts',
+    name: 'Password changed',
+    sentence: (w) => `${w.who} changed their own password.`,
+  },
   'user.password-reset': {
     family: 'accounts',
     name: 'Password set from an e-mailed link',
-    sentence: (w) => `A new password was set for the staff account ${String(w.data.email ?? '')} from an e-mailed link; its other sessions ended.`,
+    sentence: (w) =>
+      `A new password was set for the staff account ${String(w.data.email ?? '')} from an e-mailed link; its other sessions ended.`,
   },
-  'user.deactivated': { family: 'accounts', name: 'Staff account deactivated', sentence: (w) => `${w.who} deactivated the staff account ${String(w.data.email ?? '')}.` },
+  'user.deactivated': {
+    family: 'accounts',
+    name: 'Staff account deactivated',
+    sentence: (w) => `${w.who} deactivated the staff account ${String(w.data.email ?? '')}.`,
+  },
   // ── membership ──
   'study.member-added': {
     family: 'membership',
     name: 'Member added',
-    sentence: (w) => `${w.who} added ${String(w.data.email ?? 'someone')} to the study as ${withArticle(String(w.data.role ?? 'member'))}.`,
+    sentence: (w) =>
+      `${w.who} added ${String(w.data.email ?? 'someone')} to the study as ${withArticle(String(w.data.role ?? 'member'))}.`,
   },
   'study.member-removed': {
     family: 'membership',
     name: 'Member removed',
-    sentence: (w) => `${w.who} removed ${w.context.subjectPerson ? w.context.subjectPerson.email : 'a member'} (${withArticle(String(w.data.role ?? 'member'))}) from the study.`,
+    sentence: (w) =>
+      `${w.who} removed ${w.context.subjectPerson ? w.context.subjectPerson.email : 'a member'} (${withArticle(String(w.data.role ?? 'member'))}) from the study.`,
   },
   // ── study settings ──
-  'study.created': { family: 'settings', name: 'Study created', sentence: (w) => `${w.who} created the study ${quoted(w.data.title)}.` },
-  'study.updated': { family: 'settings', name: 'Study details changed', sentence: (w) => `${w.who} changed the study’s ${fieldList(w.data.changes)}.` },
+  'study.created': {
+    family: 'settings',
+    name: 'Study created',
+    sentence: (w) => `${w.who} created the study ${quoted(w.data.title)}.`,
+  },
+  'study.updated': {
+    family: 'settings',
+    name: 'Study details changed',
+    sentence: (w) => `${w.who} changed the study’s ${fieldList(w.data.changes)}.`,
+  },
   'study.opened': {
     family: 'settings',
     name: 'Study opened',
     sentence: (w) => `${w.who} ${w.data.from === 'paused' ? 'reopened' : 'opened'} the study for recruiting.`,
   },
-  'study.archived': { family: 'settings', name: 'Study archived', sentence: (w) => `${w.who} archived the closed study, taking it out of the default lists.` },
-  'study.unarchived': { family: 'settings', name: 'Study brought back from the archive', sentence: (w) => `${w.who} brought the study back from the archive.` },
+  'study.archived': {
+    family: 'settings',
+    name: 'Study archived',
+    sentence: (w) => `${w.who} archived the closed study, taking it out of the default lists.`,
+  },
+  'study.unarchived': {
+    family: 'settings',
+    name: 'Study brought back from the archive',
+    sentence: (w) => `${w.who} brought the study back from the archive.`,
+  },
   'study.paused': { family: 'settings', name: 'Study paused', sentence: (w) => `${w.who} paused recruiting.` },
   'study.closed': { family: 'settings', name: 'Study closed', sentence: (w) => `${w.who} closed the study.` },
-  'condition.created': { family: 'settings', name: 'Condition added', sentence: (w) => `${w.who} added the condition ${quoted(w.data.internalName)}.` },
-  'condition.updated': { family: 'settings', name: 'Condition changed', sentence: (w) => `${w.who} changed a condition’s ${fieldList(w.data.changes)}.` },
+  'condition.created': {
+    family: 'settings',
+    name: 'Condition added',
+    sentence: (w) => `${w.who} added the condition ${quoted(w.data.internalName)}.`,
+  },
+  'condition.updated': {
+    family: 'settings',
+    name: 'Condition changed',
+    sentence: (w) => `${w.who} changed a condition’s ${fieldList(w.data.changes)}.`,
+  },
   'stratification.replaced': {
     family: 'settings',
     name: 'Strata set',
     sentence: (w) => {
-      const factors = Array.isArray(w.data.factors) ? (w.data.factors as Array<{ key?: unknown }>).map((factor) => factor.key) : [];
-      return factors.length ? `${w.who} set the stratification factors: ${listOf(factors)}.` : `${w.who} removed the stratification factors.`;
+      const factors = Array.isArray(w.data.factors)
+        ? (w.data.factors as Array<{ key?: unknown }>).map((factor) => factor.key)
+        : [];
+      return factors.length
+        ? `${w.who} set the stratification factors: ${listOf(factors)}.`
+        : `${w.who} removed the stratification factors.`;
     },
   },
   'screening.replaced': {
     family: 'settings',
     name: 'Screening questions set',
-    sentence: (w) => `${w.who} set the screening questions (${plural(Array.isArray(w.data.keys) ? w.data.keys.length : 0, 'question')}).`,
+    sentence: (w) =>
+      `${w.who} set the screening questions (${plural(Array.isArray(w.data.keys) ? w.data.keys.length : 0, 'question')}).`,
   },
-  'step.created': { family: 'settings', name: 'Step added', sentence: (w) => `${w.who} added the step ${quoted(w.data.title)}, paying ${w.money(w.data.payMinor)}.` },
-  'step.updated': { family: 'settings', name: 'Step changed', sentence: (w) => `${w.who} changed the ${fieldList(w.data.changes)} of the step ${w.step}.` },
+  'step.created': {
+    family: 'settings',
+    name: 'Step added',
+    sentence: (w) => `${w.who} added the step ${quoted(w.data.title)}, paying ${w.money(w.data.payMinor)}.`,
+  },
+  'step.updated': {
+    family: 'settings',
+    name: 'Step changed',
+    sentence: (w) => `${w.who} changed the ${fieldList(w.data.changes)} of the step ${w.step}.`,
+  },
   'step.pay-override-recorded': {
     family: 'settings',
     name: 'Pay exception recorded',
-    sentence: (w) => `${w.who} set a different pay of ${w.money(w.data.payMinor)} for one condition on the step ${w.step}, because ${quoted(w.data.reason)}.`,
+    sentence: (w) =>
+      `${w.who} set a different pay of ${w.money(w.data.payMinor)} for one condition on the step ${w.step}, because ${quoted(w.data.reason)}.`,
   },
-  'step.pay-override-removed': { family: 'settings', name: 'Pay exception removed', sentence: (w) => `${w.who} removed the different pay for one condition on the step ${w.step}.` },
-  'step.completion-code-set': { family: 'settings', name: 'Step code set', sentence: (w) => `${w.who} set a new code for the step ${w.step}.` },
+  'step.pay-override-removed': {
+    family: 'settings',
+    name: 'Pay exception removed',
+    sentence: (w) => `${w.who} removed the different pay for one condition on the step ${w.step}.`,
+  },
+  'step.completion-code-set': {
+    family: 'settings',
+    name: 'Step code set',
+    sentence: (w) => `${w.who} set a new code for the step ${w.step}.`,
+  },
   'step.verification-set': {
     family: 'settings',
     name: 'Step checking set',
-    sentence: (w) => `${w.who} set how the step ${w.step} is checked: ${VERIFICATION_WORDS[String(w.data.verification)] ?? 'as configured'}.`,
+    sentence: (w) =>
+      `${w.who} set how the step ${w.step} is checked: ${VERIFICATION_WORDS[String(w.data.verification)] ?? 'as configured'}.`,
   },
-  'step.return-key-rotated': { family: 'settings', name: 'Return-link key replaced', sentence: (w) => `${w.who} replaced the key that signs the study’s return links.` },
+  'step.return-key-rotated': {
+    family: 'settings',
+    name: 'Return-link key replaced',
+    sentence: (w) => `${w.who} replaced the key that signs the study’s return links.`,
+  },
   'reminders.plan-saved': {
     family: 'settings',
     name: 'Reminder plan saved',
@@ -312,9 +410,22 @@ export const AUDIT_ACTIONS: Record<string, ActionWords> = {
       `${w.who} saved the reminder plan with ${plural(Array.isArray(w.data.rules) ? w.data.rules.length : 0, 'reminder')}${w.data.enabled === false ? ', switched off' : ''}.`,
   },
   // ── consent ──
-  'consent.draft-created': { family: 'consent', name: 'Consent draft started', sentence: (w) => `${w.who} started consent version ${String(w.data.version ?? '')} from a template.` },
-  'consent.draft-refilled': { family: 'consent', name: 'Consent draft refilled', sentence: (w) => `${w.who} filled consent version ${String(w.data.version ?? '')} in again from its template.` },
-  'consent.draft-updated': { family: 'consent', name: 'Consent draft edited', sentence: (w) => `${w.who} edited the ${fieldList(Object.fromEntries(listKeys(w.data.fields)))} of a draft consent version.` },
+  'consent.draft-created': {
+    family: 'consent',
+    name: 'Consent draft started',
+    sentence: (w) => `${w.who} started consent version ${String(w.data.version ?? '')} from a template.`,
+  },
+  'consent.draft-refilled': {
+    family: 'consent',
+    name: 'Consent draft refilled',
+    sentence: (w) => `${w.who} filled consent version ${String(w.data.version ?? '')} in again from its template.`,
+  },
+  'consent.draft-updated': {
+    family: 'consent',
+    name: 'Consent draft edited',
+    sentence: (w) =>
+      `${w.who} edited the ${fieldList(Object.fromEntries(listKeys(w.data.fields)))} of a draft consent version.`,
+  },
   'consent.approval-letter-uploaded': {
     family: 'consent',
     name: 'Approval letter added',
@@ -323,54 +434,90 @@ export const AUDIT_ACTIONS: Record<string, ActionWords> = {
   'consent.activated': {
     family: 'consent',
     name: 'Consent version in use',
-    sentence: (w) => `${w.who} made consent version ${String(w.data.version ?? '')} the one participants sign${w.data.approvalReference ? ` (ethics approval ${String(w.data.approvalReference)})` : ''}.`,
+    sentence: (w) =>
+      `${w.who} made consent version ${String(w.data.version ?? '')} the one participants sign${w.data.approvalReference ? ` (ethics approval ${String(w.data.approvalReference)})` : ''}.`,
   },
-  'consent.retired': { family: 'consent', name: 'Consent version retired', sentence: (w) => `Consent version ${String(w.data.version ?? '')} was retired by ${lower(w.who)}.` },
+  'consent.retired': {
+    family: 'consent',
+    name: 'Consent version retired',
+    sentence: (w) => `Consent version ${String(w.data.version ?? '')} was retired by ${lower(w.who)}.`,
+  },
   'consent.reconsent-requested': {
     family: 'consent',
     name: 'Asked to sign again',
-    sentence: (w) => `${plural(w.data.enrollments, 'enrolled participant')} will be asked to sign consent version ${String(w.data.version ?? '')} before their next step.`,
+    sentence: (w) =>
+      `${plural(w.data.enrollments, 'enrolled participant')} will be asked to sign consent version ${String(w.data.version ?? '')} before their next step.`,
   },
-  'consent.reconsent-reminded': { family: 'consent', name: 'Reminded to sign again', sentence: (w) => `${w.who} reminded ${plural(w.data.count, 'participant')} to sign the new consent version.` },
-  'consent.signed': { family: 'consent', name: 'Consent signed', sentence: (w) => `${w.Participant} signed consent version ${String(w.data.version ?? '')}.` },
-  'consent.re-signed': { family: 'consent', name: 'New consent version signed', sentence: (w) => `${w.Participant} signed the new consent version ${String(w.data.version ?? '')}.` },
+  'consent.reconsent-reminded': {
+    family: 'consent',
+    name: 'Reminded to sign again',
+    sentence: (w) => `${w.who} reminded ${plural(w.data.count, 'participant')} to sign the new consent version.`,
+  },
+  'consent.signed': {
+    family: 'consent',
+    name: 'Consent signed',
+    sentence: (w) => `${w.Participant} signed consent version ${String(w.data.version ?? '')}.`,
+  },
+  'consent.re-signed': {
+    family: 'consent',
+    name: 'New consent version signed',
+    sentence: (w) => `${w.Participant} signed the new consent version ${String(w.data.version ?? '')}.`,
+  },
   // ── enrollment ──
   'enrollment.joined': { family: 'enrollment', name: 'Joined', sentence: (w) => `${w.Participant} joined the study.` },
-  'enrollment.screened': { family: 'enrollment', name: 'Screened in', sentence: (w) => `${w.Participant} answered the screening questions and can take part.` },
-  'enrollment.excluded': { family: 'enrollment', name: 'Screened out', sentence: (w) => `${w.Participant} answered the screening questions and cannot take part.` },
+  'enrollment.screened': {
+    family: 'enrollment',
+    name: 'Screened in',
+    sentence: (w) => `${w.Participant} answered the screening questions and can take part.`,
+  },
+  'enrollment.excluded': {
+    family: 'enrollment',
+    name: 'Screened out',
+    sentence: (w) => `${w.Participant} answered the screening questions and cannot take part.`,
+  },
   'enrollment.withdrew': {
     family: 'enrollment',
     name: 'Withdrew',
     sentence: (w) =>
-      (w.data.by === 'staff' ? `${w.who} withdrew ${w.participant} from the study` : `${w.Participant} withdrew from the study`) +
-      (w.data.reason ? `, saying ${quoted(w.data.reason)}.` : '.'),
+      (w.data.by === 'staff'
+        ? `${w.who} withdrew ${w.participant} from the study`
+        : `${w.Participant} withdrew from the study`) + (w.data.reason ? `, saying ${quoted(w.data.reason)}.` : '.'),
   },
   'enrollment.lost': {
     family: 'enrollment',
     name: 'Lost to follow-up',
-    sentence: (w) => `${w.who} marked ${w.participant} as lost to follow-up${w.data.reason ? `: ${quoted(w.data.reason)}` : ''}.`,
+    sentence: (w) =>
+      `${w.who} marked ${w.participant} as lost to follow-up${w.data.reason ? `: ${quoted(w.data.reason)}` : ''}.`,
   },
   'roster.imported': {
     family: 'enrollment',
     name: 'Roster imported',
-    sentence: (w) => `${w.who} imported a roster: ${plural(w.data.created, 'new participant')}, ${String(w.data.alreadyEnrolled ?? 0)} already on it, ${plural(w.data.rowErrors, 'row')} refused.`,
+    sentence: (w) =>
+      `${w.who} imported a roster: ${plural(w.data.created, 'new participant')}, ${String(w.data.alreadyEnrolled ?? 0)} already on it, ${plural(w.data.rowErrors, 'row')} refused.`,
   },
-  'roster.invited': { family: 'enrollment', name: 'Invitations sent', sentence: (w) => `${w.who} sent ${plural(w.data.count, 'invitation')}.` },
+  'roster.invited': {
+    family: 'enrollment',
+    name: 'Invitations sent',
+    sentence: (w) => `${w.who} sent ${plural(w.data.count, 'invitation')}.`,
+  },
   // ── assignment ──
   'assignment.scheme-saved': {
     family: 'assignment',
     name: 'Assignment scheme saved',
-    sentence: (w) => `${w.who} saved the assignment scheme: ${METHOD_WORDS[String(w.data.method)] ?? String(w.data.method ?? 'a scheme')}.`,
+    sentence: (w) =>
+      `${w.who} saved the assignment scheme: ${METHOD_WORDS[String(w.data.method)] ?? String(w.data.method ?? 'a scheme')}.`,
   },
   'assignment.committed': {
     family: 'assignment',
     name: 'Sequence sealed',
-    sentence: (w) => `${w.who} sealed the assignment sequence; its fingerprint begins ${String(w.data.commitment ?? '').slice(0, 12)}.`,
+    sentence: (w) =>
+      `${w.who} sealed the assignment sequence; its fingerprint begins ${String(w.data.commitment ?? '').slice(0, 12)}.`,
   },
   'assignment.recommitted': {
     family: 'assignment',
     name: 'Sequence sealed again',
-    sentence: (w) => `${w.who} sealed a new assignment sequence after the design changed; its fingerprint begins ${String(w.data.commitment ?? '').slice(0, 12)}.`,
+    sentence: (w) =>
+      `${w.who} sealed a new assignment sequence after the design changed; its fingerprint begins ${String(w.data.commitment ?? '').slice(0, 12)}.`,
   },
   'assignment.allocated': {
     family: 'assignment',
@@ -378,12 +525,22 @@ export const AUDIT_ACTIONS: Record<string, ActionWords> = {
     sentence: (w) =>
       `${w.Participant} was assigned at signing, number ${String(w.data.sequence ?? '?')} in the sequence${w.data.stratumKey ? ` of stratum ${String(w.data.stratumKey)}` : ''}.`,
   },
-  'assignment.unblinded': { family: 'assignment', name: 'Unblinded', sentence: (w) => `${w.who} unblinded the study, giving the reason ${quoted(w.data.reason)}.` },
-  'assignment.seed-revealed': { family: 'assignment', name: 'Seed revealed', sentence: (w) => `The assignment seed was revealed when ${lower(w.who)} closed the study, so anyone can re-derive the sequence.` },
+  'assignment.unblinded': {
+    family: 'assignment',
+    name: 'Unblinded',
+    sentence: (w) => `${w.who} unblinded the study, giving the reason ${quoted(w.data.reason)}.`,
+  },
+  'assignment.seed-revealed': {
+    family: 'assignment',
+    name: 'Seed revealed',
+    sentence: (w) =>
+      `The assignment seed was revealed when ${lower(w.who)} closed the study, so anyone can re-derive the sequence.`,
+  },
   'assignment.cohort-paired': {
     family: 'assignment',
     name: 'Cohort paired',
-    sentence: (w) => `${w.who} paired ${plural(w.data.cohort, 'pretested participant')} into ${plural(w.data.pairs, 'pair')}.`,
+    sentence: (w) =>
+      `${w.who} paired ${plural(w.data.cohort, 'pretested participant')} into ${plural(w.data.pairs, 'pair')}.`,
   },
   // ── steps ──
   'step.completed': {
@@ -409,7 +566,11 @@ export const AUDIT_ACTIONS: Record<string, ActionWords> = {
     sentence: (w) =>
       `${w.who} marked the step ${w.step} done from a list of ${plural(w.data.lines, 'line')}: ${String(w.data.completed ?? 0)} done now, ${String(w.data.alreadyDone ?? 0)} already done, ${String(Array.isArray(w.data.failed) ? w.data.failed.length : 0)} refused.`,
   },
-  'step.code-refused': { family: 'steps', name: 'Code refused', sentence: (w) => `${w.Participant} typed a code for the step ${w.step} that does not match.` },
+  'step.code-refused': {
+    family: 'steps',
+    name: 'Code refused',
+    sentence: (w) => `${w.Participant} typed a code for the step ${w.step} that does not match.`,
+  },
   'step.return-refused': {
     family: 'steps',
     name: 'Return link refused',
@@ -417,13 +578,25 @@ export const AUDIT_ACTIONS: Record<string, ActionWords> = {
       `A return link${w.data.reference ? ` for participant ${String(w.data.reference)}` : ''} was refused: ${RETURN_REFUSALS[String(w.data.reason)] ?? 'it could not be checked'}.`,
   },
   // ── messages ──
-  'contact.message-sent': { family: 'contact', name: 'Message sent', sentence: (w) => `${w.who} sent ${w.participant} a message, ${quoted(w.data.subject)}.` },
+  'contact.message-sent': {
+    family: 'contact',
+    name: 'Message sent',
+    sentence: (w) => `${w.who} sent ${w.participant} a message, ${quoted(w.data.subject)}.`,
+  },
   // ── dropout watch ──
-  'attrition.alerts-updated': { family: 'watch', name: 'Dropout alerts set', sentence: (w) => `${w.who} changed the dropout alerts.` },
+  'attrition.alerts-updated': {
+    family: 'watch',
+    name: 'Dropout alerts set',
+    sentence: (w) => `${w.who} changed the dropout alerts.`,
+  },
   'attrition.alert-sent': {
     family: 'watch',
     name: 'Dropout alert sent',
-    sentence: (w) => `A dropout alert went to ${plural(Array.isArray(w.data.recipients) ? w.data.recipients.length : 0, 'person', 'people')}: ${String(w.data.summary ?? 'a threshold was crossed')}`.replace(/([^.])$/, '$1.'),
+    sentence: (w) =>
+      `A dropout alert went to ${plural(Array.isArray(w.data.recipients) ? w.data.recipients.length : 0, 'person', 'people')}: ${String(w.data.summary ?? 'a threshold was crossed')}`.replace(
+        /([^.])$/,
+        '$1.',
+      ),
   },
   // ── payouts ──
   'payout.approved': {
@@ -432,40 +605,71 @@ export const AUDIT_ACTIONS: Record<string, ActionWords> = {
     sentence: (w) => `${w.who} approved ${plural(w.data.count, 'payout')}, ${w.money(w.data.amountMinor)} in all.`,
     amountMinor: (w) => numberOrNull(w.data.amountMinor),
   },
-  'payout.retried': { family: 'payouts', name: 'Payout sent again', sentence: (w) => `${w.who} sent ${w.money(w.context.payoutAmountMinor)} to ${w.participant} again after it was not sent.`, amountMinor: payoutAmount },
-  'payout.delivered': { family: 'payouts', name: 'Paid', sentence: (w) => `${w.money(payoutAmount(w))} reached ${w.participant}’s payout account.`, amountMinor: payoutAmount },
+  'payout.retried': {
+    family: 'payouts',
+    name: 'Payout sent again',
+    sentence: (w) =>
+      `${w.who} sent ${w.money(w.context.payoutAmountMinor)} to ${w.participant} again after it was not sent.`,
+    amountMinor: payoutAmount,
+  },
+  'payout.delivered': {
+    family: 'payouts',
+    name: 'Paid',
+    sentence: (w) => `${w.money(payoutAmount(w))} reached ${w.participant}’s payout account.`,
+    amountMinor: payoutAmount,
+  },
   'payout.undelivered': {
     family: 'payouts',
     name: 'Payout not sent',
-    sentence: (w) => `${w.money(payoutAmount(w))} for ${w.participant} could not be sent${w.data.reason ? `: ${String(w.data.reason).replace(/\.$/, '')}` : ''}.`,
+    sentence: (w) =>
+      `${w.money(payoutAmount(w))} for ${w.participant} could not be sent${w.data.reason ? `: ${String(w.data.reason).replace(/\.$/, '')}` : ''}.`,
     amountMinor: payoutAmount,
   },
   'payout.returned': {
     family: 'payouts',
     name: 'Payment taken back',
-    sentence: (w) => `${w.money(payoutAmount(w))} paid to ${w.participant} came back from their payout account${w.data.owedAgainAs ? ' and is owed again' : ''}.`,
+    sentence: (w) =>
+      `${w.money(payoutAmount(w))} paid to ${w.participant} came back from their payout account${w.data.owedAgainAs ? ' and is owed again' : ''}.`,
     amountMinor: payoutAmount,
   },
   // ── funding ──
-  'funding.started': { family: 'funding', name: 'Funding started', sentence: (w) => `${w.who} started adding ${w.money(w.data.amountMinor)} to the study’s balance by card.`, amountMinor: (w) => numberOrNull(w.data.amountMinor) },
-  'funding.received': { family: 'funding', name: 'Funding received', sentence: (w) => `${w.money(w.data.amountMinor)} was added to the study’s balance.`, amountMinor: (w) => numberOrNull(w.data.amountMinor) },
-  'funding.declined': { family: 'funding', name: 'Funding declined', sentence: (w) => `A card payment of ${w.money(w.data.amountMinor)} to the study’s balance was declined.`, amountMinor: (w) => numberOrNull(w.data.amountMinor) },
+  'funding.started': {
+    family: 'funding',
+    name: 'Funding started',
+    sentence: (w) => `${w.who} started adding ${w.money(w.data.amountMinor)} to the study’s balance by card.`,
+    amountMinor: (w) => numberOrNull(w.data.amountMinor),
+  },
+  'funding.received': {
+    family: 'funding',
+    name: 'Funding received',
+    sentence: (w) => `${w.money(w.data.amountMinor)} was added to the study’s balance.`,
+    amountMinor: (w) => numberOrNull(w.data.amountMinor),
+  },
+  'funding.declined': {
+    family: 'funding',
+    name: 'Funding declined',
+    sentence: (w) => `A card payment of ${w.money(w.data.amountMinor)} to the study’s balance was declined.`,
+    amountMinor: (w) => numberOrNull(w.data.amountMinor),
+  },
   // ── exports ──
   'study.exported': {
     family: 'exports',
     name: 'Data set exported',
-    sentence: (w) => `${w.who} exported the study’s data set as CSV${w.data.blinded ? ', with conditions masked' : ''}.`,
+    sentence: (w) =>
+      `${w.who} exported the study’s data set as CSV${w.data.blinded ? ', with conditions masked' : ''}.`,
   },
   // ── audit receipts ──
   'audit.receipt-issued': {
     family: 'audit-receipts',
     name: 'Audit receipt sealed',
-    sentence: (w) => `${w.who} sealed audit receipt no. ${String(w.data.number ?? '?')}, covering ${plural(w.data.chains, 'chain')}.`,
+    sentence: (w) =>
+      `${w.who} sealed audit receipt no. ${String(w.data.number ?? '?')}, covering ${plural(w.data.chains, 'chain')}.`,
   },
   'audit.unkeyed-events-sealed': {
     family: 'audit-receipts',
     name: 'Earlier events sealed',
-    sentence: (w) => `Evenhand sealed the ${plural(w.data.unkeyedThrough, 'event')} written before the trail was keyed.`,
+    sentence: (w) =>
+      `Evenhand sealed the ${plural(w.data.unkeyedThrough, 'event')} written before the trail was keyed.`,
   },
 };
 
@@ -491,7 +695,9 @@ function listKeys(value: unknown): Array<[string, true]> {
 
 function lower(phrase: string): string {
   // "Coordinator C. Vasquez-Hale" inside a sentence: the role word lower-cased, the name kept.
-  return phrase.replace(/^(Lab admin|Coordinator|Researcher|Auditor|Participant|Someone|Evenhand)\b/, (word) => (word === 'Evenhand' ? word : word.toLowerCase()));
+  return phrase.replace(/^(Lab admin|Coordinator|Researcher|Auditor|Participant|Someone|Evenhand)\b/, (word) =>
+    word === 'Evenhand' ? word : word.toLowerCase(),
+  );
 }
 
 /** The action words for a code, following earlier codes to the one they meant. */
@@ -507,7 +713,9 @@ export function familyOf(action: string): ActionFamily {
 /** Every code, current and earlier, in the given families (for filtering the stored events). */
 export function actionsInFamilies(families: readonly ActionFamily[]): string[] {
   const wanted = new Set(families);
-  return [...Object.keys(AUDIT_ACTIONS), ...Object.keys(EARLIER_ACTION_CODES)].filter((code) => wanted.has(familyOf(code)));
+  return [...Object.keys(AUDIT_ACTIONS), ...Object.keys(EARLIER_ACTION_CODES)].filter((code) =>
+    wanted.has(familyOf(code)),
+  );
 }
 
 /** Every code this version has words for. */
@@ -516,7 +724,8 @@ export function knownActionCodes(): string[] {
 }
 
 function actorPhrase(event: SentenceEvent, context: SentenceContext): string {
-  if (context.actorIsParticipant) return context.participantReference ? `Participant ${context.participantReference}` : 'A participant';
+  if (context.actorIsParticipant)
+    return context.participantReference ? `Participant ${context.participantReference}` : 'A participant';
   if (context.actor) return context.actor.role === 'participant' ? 'A participant' : personPhrase(context.actor);
   if (event.actorEmail) return event.actorEmail;
   return 'Evenhand';
@@ -531,13 +740,19 @@ export function describeEvent(event: SentenceEvent, context: SentenceContext): E
     participant: reference ? `participant ${reference}` : 'a participant',
     Participant: reference ? `Participant ${reference}` : 'A participant',
     step: context.stepTitle ? quoted(context.stepTitle) : 'that is no longer listed',
-    money: (minor) => (typeof minor === 'number' && Number.isFinite(minor) ? formatAmount(minor, context.currency) : 'an amount'),
+    money: (minor) =>
+      typeof minor === 'number' && Number.isFinite(minor) ? formatAmount(minor, context.currency) : 'an amount',
     data: event.data ?? {},
     event,
     context,
   };
   if (!words) {
-    return { family: 'other', name: 'Other event', sentence: `${w.who} recorded an event this version of Evenhand has no words for; its details show what was stored.`, amount: null };
+    return {
+      family: 'other',
+      name: 'Other event',
+      sentence: `${w.who} recorded an event this version of Evenhand has no words for; its details show what was stored.`,
+      amount: null,
+    };
   }
   const amountMinor = words.amountMinor?.(w) ?? null;
   return {

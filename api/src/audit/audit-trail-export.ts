@@ -19,7 +19,22 @@ export interface ExportableEvent {
   keyId: string | null;
 }
 
-export const EXPORT_COLUMNS = ['when_utc', 'study', 'kind', 'action', 'what_happened', 'by', 'participant', 'amount', 'currency', 'chain', 'link', 'hash', 'key_id', 'event_id'] as const;
+export const EXPORT_COLUMNS = [
+  'when_utc',
+  'study',
+  'kind',
+  'action',
+  'what_happened',
+  'by',
+  'participant',
+  'amount',
+  'currency',
+  'chain',
+  'link',
+  'hash',
+  'key_id',
+  'event_id',
+] as const;
 
 // Excel and LibreOffice read a CSV as UTF-8 only when it starts with the byte-order mark.
 const BYTE_ORDER_MARK = '\uFEFF';
@@ -33,7 +48,8 @@ function spreadsheetSafe(value: string): string {
 export function majorUnits(minor: number, currency: string): string {
   let digits = 2;
   try {
-    digits = new Intl.NumberFormat('en-US', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2;
+    digits =
+      new Intl.NumberFormat('en-US', { style: 'currency', currency }).resolvedOptions().maximumFractionDigits ?? 2;
   } catch {
     // an unknown code keeps two decimals
   }
@@ -90,14 +106,21 @@ export interface SummaryInput {
   listed: number;
   byAction: Map<string, number>;
   chains: ChainCheck[];
-  receipt: { number: number | null; id: string | null; issuedAt: string | null; source: 'latest' | 'given'; valid: boolean } | null;
+  receipt: {
+    number: number | null;
+    id: string | null;
+    issuedAt: string | null;
+    source: 'latest' | 'given';
+    valid: boolean;
+  } | null;
   receiptProblem: string | null;
 }
 
 /** The verification summary that goes with an export: what was selected, how many, and whether the chains hold. */
 export function verificationSummary(input: SummaryInput): string {
   const byFamily = new Map<string, number>();
-  for (const [action, count] of input.byAction) byFamily.set(familyOf(action), (byFamily.get(familyOf(action)) ?? 0) + count);
+  for (const [action, count] of input.byAction)
+    byFamily.set(familyOf(action), (byFamily.get(familyOf(action)) ?? 0) + count);
   const intact = input.chains.every((chain) => chain.intact) && !input.receiptProblem;
   const lines = [
     'Evenhand audit trail: verification summary',
@@ -110,7 +133,9 @@ export function verificationSummary(input: SummaryInput): string {
     ...input.selection.map((line) => `  ${line}`),
     '',
     `Events listed: ${input.listed}`,
-    ...ACTION_FAMILIES.filter((family) => byFamily.has(family.key)).map((family) => `  ${family.label}: ${byFamily.get(family.key)}`),
+    ...ACTION_FAMILIES.filter((family) => byFamily.has(family.key)).map(
+      (family) => `  ${family.label}: ${byFamily.get(family.key)}`,
+    ),
     '',
     'Verification',
     `  Verdict: ${intact ? 'intact. No event in these chains was changed, removed or slipped in after it was written.' : 'NOT intact. See the first failing event below.'}`,

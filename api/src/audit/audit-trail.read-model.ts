@@ -2,7 +2,15 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
 import { DomainException } from '../common/errors/domain.exception';
-import { ACTION_FAMILIES, actionsInFamilies, ActionFamily, describeEvent, knownActionCodes, personPhrase, SentenceContext } from './audit-sentences';
+import {
+  ACTION_FAMILIES,
+  actionsInFamilies,
+  ActionFamily,
+  describeEvent,
+  knownActionCodes,
+  personPhrase,
+  SentenceContext,
+} from './audit-sentences';
 import { AuditSelection, selectionBounds } from './audit-trail-selection';
 
 /** One stored event with everything its sentence needs: the trail as people read it. */
@@ -75,9 +83,16 @@ export const EXPORT_ROW_LIMIT = 100_000;
 export class AuditTrailReadModel {
   constructor(@InjectDataSource() private readonly dataSource: DataSource) {}
 
-  async page(selection: AuditSelection, page: number, pageSize: number): Promise<{ items: TrailEvent[]; total: number }> {
+  async page(
+    selection: AuditSelection,
+    page: number,
+    pageSize: number,
+  ): Promise<{ items: TrailEvent[]; total: number }> {
     const where = await this.whereOf(selection);
-    const [{ total }] = await this.dataSource.query(`SELECT count(*)::int AS total FROM audit_event ev WHERE ${where.sql}`, where.params);
+    const [{ total }] = await this.dataSource.query(
+      `SELECT count(*)::int AS total FROM audit_event ev WHERE ${where.sql}`,
+      where.params,
+    );
     const ids: Array<{ id: string }> = await this.dataSource.query(
       `SELECT ev.id FROM audit_event ev WHERE ${where.sql} ORDER BY ev.at DESC, ev.chain, ev.sequence DESC LIMIT $${where.params.length + 1} OFFSET $${where.params.length + 2}`,
       [...where.params, pageSize, (page - 1) * pageSize],
@@ -88,11 +103,16 @@ export class AuditTrailReadModel {
   /** The whole selection, newest first, a page at a time (for the export). */
   async *all(selection: AuditSelection): AsyncGenerator<TrailEvent[]> {
     const where = await this.whereOf(selection);
-    const [{ total }] = await this.dataSource.query(`SELECT count(*)::int AS total FROM audit_event ev WHERE ${where.sql}`, where.params);
+    const [{ total }] = await this.dataSource.query(
+      `SELECT count(*)::int AS total FROM audit_event ev WHERE ${where.sql}`,
+      where.params,
+    );
     if (total > EXPORT_ROW_LIMIT) {
-      throw new DomainException('VALIDATION_FAILED', `This selection holds ${total} events; an export holds at most ${EXPORT_ROW_LIMIT}. Narrow the dates or families.`, [
-        { field: 'from', message: `narrow the selection to at most ${EXPORT_ROW_LIMIT} events` },
-      ]);
+      throw new DomainException(
+        'VALIDATION_FAILED',
+        `This selection holds ${total} events; an export holds at most ${EXPORT_ROW_LIMIT}. Narrow the dates or families.`,
+        [{ field: 'from', message: `narrow the selection to at most ${EXPORT_ROW_LIMIT} events` }],
+      );
     }
     const pageSize = 2000;
     for (let offset = 0; offset < total; offset += pageSize) {
@@ -106,7 +126,9 @@ export class AuditTrailReadModel {
   }
 
   /** Counts per family and per chain over the selection, for the export's summary. */
-  async counts(selection: AuditSelection): Promise<{ total: number; byAction: Map<string, number>; byChain: Map<string, number> }> {
+  async counts(
+    selection: AuditSelection,
+  ): Promise<{ total: number; byAction: Map<string, number>; byChain: Map<string, number> }> {
     const where = await this.whereOf(selection);
     const rows: Array<{ chain: string; action: string; n: number }> = await this.dataSource.query(
       `SELECT ev.chain, ev.action, count(*)::int AS n FROM audit_event ev WHERE ${where.sql} GROUP BY ev.chain, ev.action`,
@@ -125,14 +147,20 @@ export class AuditTrailReadModel {
 
   /** The event at one place in one chain, in words (to name the first failing event of a check). */
   async eventAt(chain: string, sequence: number): Promise<TrailEvent | null> {
-    const [row] = await this.dataSource.query(`SELECT id FROM audit_event WHERE chain = $1 AND sequence = $2`, [chain, sequence]);
+    const [row] = await this.dataSource.query(`SELECT id FROM audit_event WHERE chain = $1 AND sequence = $2`, [
+      chain,
+      sequence,
+    ]);
     return row ? ((await this.enrich([row.id]))[0] ?? null) : null;
   }
 
   async studyTitles(chains: string[]): Promise<Map<string, { title: string; slug: string }>> {
     const ids = chains.filter((chain) => new RegExp(UUID_TEXT.slice(1, -1)).test(chain));
     if (ids.length === 0) return new Map();
-    const rows: Array<{ id: string; title: string; slug: string }> = await this.dataSource.query(`SELECT id, title, slug FROM study WHERE id = ANY($1::uuid[])`, [ids]);
+    const rows: Array<{ id: string; title: string; slug: string }> = await this.dataSource.query(
+      `SELECT id, title, slug FROM study WHERE id = ANY($1::uuid[])`,
+      [ids],
+    );
     return new Map(rows.map((row) => [row.id, { title: row.title, slug: row.slug }]));
   }
 
@@ -141,9 +169,15 @@ export class AuditTrailReadModel {
     const staff: Array<{ id: string; name: string; email: string; role: string }> = await this.dataSource.query(
       `SELECT id, name, email, role FROM user_account WHERE role <> 'participant' ORDER BY name, email`,
     );
-    const studies: Array<{ id: string; title: string; slug: string }> = await this.dataSource.query(`SELECT id, title, slug FROM study ORDER BY title`);
+    const studies: Array<{ id: string; title: string; slug: string }> = await this.dataSource.query(
+      `SELECT id, title, slug FROM study ORDER BY title`,
+    );
     return {
-      families: ACTION_FAMILIES.map((family) => ({ key: family.key, label: family.label, description: family.description })),
+      families: ACTION_FAMILIES.map((family) => ({
+        key: family.key,
+        label: family.label,
+        description: family.description,
+      })),
       staff: staff.map((person) => ({ ...person, phrase: personPhrase(person) })),
       studies,
     };
@@ -172,7 +206,9 @@ export class AuditTrailReadModel {
     if (selection.participant) {
       const targets: Array<{ id: string; study_id: string; participant_id: string }> = await this.dataSource.query(
         `SELECT id, study_id, participant_id FROM enrollment WHERE upper(reference) = $1${selection.chain && selection.chain !== 'lab' ? ' AND study_id::text = $2' : ''}`,
-        selection.chain && selection.chain !== 'lab' ? [selection.participant, selection.chain] : [selection.participant],
+        selection.chain && selection.chain !== 'lab'
+          ? [selection.participant, selection.chain]
+          : [selection.participant],
       );
       if (targets.length === 0) {
         clauses.push('FALSE');
@@ -229,20 +265,31 @@ export class AuditTrailReadModel {
 }
 
 function toTrailEvent(row: EnrichedRow): TrailEvent {
-  const actor = row.actor_id && row.actor_role ? { name: row.actor_name ?? '', email: row.actor_account_email ?? '', role: row.actor_role } : null;
+  const actor =
+    row.actor_id && row.actor_role
+      ? { name: row.actor_name ?? '', email: row.actor_account_email ?? '', role: row.actor_role }
+      : null;
   const actorIsParticipant = actor?.role === 'participant';
   const participantReference =
-    row.subject_reference ?? row.payout_reference ?? (actorIsParticipant ? row.actor_reference : null) ?? (typeof row.data?.reference === 'string' && row.chain !== 'lab' ? row.data.reference : null);
+    row.subject_reference ??
+    row.payout_reference ??
+    (actorIsParticipant ? row.actor_reference : null) ??
+    (typeof row.data?.reference === 'string' && row.chain !== 'lab' ? row.data.reference : null);
   const context: SentenceContext = {
     actor,
     participantReference,
     actorIsParticipant,
-    subjectPerson: row.subject_role ? { name: row.subject_name ?? '', email: row.subject_email ?? '', role: row.subject_role } : null,
+    subjectPerson: row.subject_role
+      ? { name: row.subject_name ?? '', email: row.subject_email ?? '', role: row.subject_role }
+      : null,
     stepTitle: row.step_title,
     currency: (row.payout_currency ?? row.study_currency)?.trim() ?? null,
     payoutAmountMinor: row.payout_amount_minor === null ? null : Number(row.payout_amount_minor),
   };
-  const words = describeEvent({ action: row.action, actorEmail: row.actor_email, subjectId: row.subject_id, data: row.data ?? {} }, context);
+  const words = describeEvent(
+    { action: row.action, actorEmail: row.actor_email, subjectId: row.subject_id, data: row.data ?? {} },
+    context,
+  );
   return {
     id: row.id,
     chain: row.chain,
@@ -266,7 +313,8 @@ function toTrailEvent(row: EnrichedRow): TrailEvent {
 }
 
 function actorPhraseOf(row: EnrichedRow, context: SentenceContext): string {
-  if (context.actorIsParticipant) return context.participantReference ? `Participant ${context.participantReference}` : 'A participant';
+  if (context.actorIsParticipant)
+    return context.participantReference ? `Participant ${context.participantReference}` : 'A participant';
   if (context.actor) return personPhrase(context.actor);
   return row.actor_email ?? 'Evenhand';
 }

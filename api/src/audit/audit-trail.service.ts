@@ -21,7 +21,11 @@ export class AuditTrailService {
     private readonly audit: AuditService,
   ) {}
 
-  async page(selection: AuditSelection, page: number, pageSize: number): Promise<{ items: TrailEvent[]; total: number }> {
+  async page(
+    selection: AuditSelection,
+    page: number,
+    pageSize: number,
+  ): Promise<{ items: TrailEvent[]; total: number }> {
     this.refuseBadWindow(selection);
     return this.readModel.page(selection, page, pageSize);
   }
@@ -31,7 +35,10 @@ export class AuditTrailService {
   }
 
   /** The selection as CSV (byte-order mark, newest first) and the name it is saved under. */
-  async exportCsv(selection: AuditSelection, now = new Date()): Promise<{ fileName: string; body: string; listed: number }> {
+  async exportCsv(
+    selection: AuditSelection,
+    now = new Date(),
+  ): Promise<{ fileName: string; body: string; listed: number }> {
     this.refuseBadWindow(selection);
     let body = csvHeader();
     let listed = 0;
@@ -58,7 +65,11 @@ export class AuditTrailService {
    * The verification summary of the same selection: it names the CSV it goes with and that file's SHA-256, the
    * counts, and the verdict of every chain in the selection against the latest audit receipt.
    */
-  async exportSummary(actor: SessionUser, selection: AuditSelection, now = new Date()): Promise<{ fileName: string; body: string }> {
+  async exportSummary(
+    actor: SessionUser,
+    selection: AuditSelection,
+    now = new Date(),
+  ): Promise<{ fileName: string; body: string }> {
     const csv = await this.exportCsv(selection, now);
     const counts = await this.readModel.counts(selection);
     const chains = [...new Set([...counts.byChain.keys(), ...(selection.chain ? [selection.chain] : [])])].sort();
@@ -73,7 +84,9 @@ export class AuditTrailService {
         eventsInChain: verdict.events,
         eventsListed: counts.byChain.get(verdict.chain) ?? 0,
         intact: verdict.intact,
-        firstFailure: finding ? `${finding.message}${finding.event ? ` It reads: ${finding.event.sentence}` : ''}` : null,
+        firstFailure: finding
+          ? `${finding.message}${finding.event ? ` It reads: ${finding.event.sentence}` : ''}`
+          : null,
       };
     });
     const options = await this.readModel.filterOptions();
@@ -83,7 +96,10 @@ export class AuditTrailService {
       exportedBy: personPhrase(actor),
       fileName: csv.fileName,
       fileSha256: sha256Hex(csv.body),
-      selection: selectionInWords(selection, { study: selection.chain ? (titles.get(selection.chain)?.title ?? null) : null, staff: staff ? `${staff.phrase} (${staff.email})` : null }),
+      selection: selectionInWords(selection, {
+        study: selection.chain ? (titles.get(selection.chain)?.title ?? null) : null,
+        staff: staff ? `${staff.phrase} (${staff.email})` : null,
+      }),
       listed: counts.total,
       byAction: counts.byAction,
       chains: checks,
@@ -98,7 +114,10 @@ export class AuditTrailService {
     const titles = await this.readModel.studyTitles(report.findings.flatMap((f) => (f.chain ? [f.chain] : [])));
     const described: DescribedFinding[] = [];
     for (const finding of report.findings) {
-      const event = finding.chain !== null && finding.sequence !== null ? await this.readModel.eventAt(finding.chain, finding.sequence) : null;
+      const event =
+        finding.chain !== null && finding.sequence !== null
+          ? await this.readModel.eventAt(finding.chain, finding.sequence)
+          : null;
       described.push({
         ...finding,
         studyTitle: finding.chain ? (titles.get(finding.chain)?.title ?? null) : null,

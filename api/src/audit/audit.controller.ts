@@ -21,7 +21,15 @@ import {
 } from './dto/audit.dto';
 
 function selectionOf(query: AuditSelectionDto) {
-  return { chain: query.chain, participant: query.participant, staff: query.staff, from: query.from, to: query.to, family: query.family, action: query.action };
+  return {
+    chain: query.chain,
+    participant: query.participant,
+    staff: query.staff,
+    from: query.from,
+    to: query.to,
+    family: query.family,
+    action: query.action,
+  };
 }
 
 function eventDto(event: TrailEvent): AuditEventDto {
@@ -74,7 +82,11 @@ export class AuditController {
   @Get('export-summary.txt')
   @ApiProduces('text/plain')
   @ApiOkResponse({ description: 'Plain text', schema: { type: 'string' } })
-  async exportSummary(@CurrentUser() user: SessionUser, @Query() query: AuditSelectionDto, @Res({ passthrough: true }) response: Response): Promise<string> {
+  async exportSummary(
+    @CurrentUser() user: SessionUser,
+    @Query() query: AuditSelectionDto,
+    @Res({ passthrough: true }) response: Response,
+  ): Promise<string> {
     const file = await this.trail.exportSummary(user, selectionOf(query));
     download(response, file.fileName, 'text/plain; charset=utf-8');
     return file.body;
@@ -109,7 +121,10 @@ export class AuditController {
 
   @Get('receipts/:receiptId')
   @ApiOkResponse({ type: AuditReceiptDto })
-  async getReceipt(@Param('receiptId', uuidParam('receiptId')) receiptId: string, @Res({ passthrough: true }) response: Response): Promise<AuditReceiptDto> {
+  async getReceipt(
+    @Param('receiptId', uuidParam('receiptId')) receiptId: string,
+    @Res({ passthrough: true }) response: Response,
+  ): Promise<AuditReceiptDto> {
     const receipt = await this.receipts.get(receiptId);
     response.setHeader('Content-Disposition', `attachment; filename="audit-receipt-${receipt.number}.json"`);
     return receipt;

@@ -6,5 +6,10 @@ import { AuditTrailService } from './audit-trail.service';
 import { AuditController } from './audit.controller';
 import { AuditService } from './audit.service';
 
-@Module({ imports: [MailModule], controllers: [AuditController], providers: [AuditService, AuditReceiptsService, AuditTrailReadModel, AuditTrailService], exports: [AuditService] })
+@Module({
+  imports: [MailModule],
+  controllers: [AuditController],
+  providers: [AuditService, AuditReceiptsService, AuditTrailReadModel, AuditTrailService],
+  exports: [AuditService],
+})
 export class AuditModule {}

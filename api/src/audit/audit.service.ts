@@ -2,11 +2,29 @@ import { Injectable, Logger, OnApplicationBootstrap, OnApplicationShutdown, OnMo
 import { InjectDataSource } from '@nestjs/typeorm';
 import { randomUUID } from 'node:crypto';
 import { Pool } from 'pg';
-import { DataSource, EntityManager, EntitySubscriberInterface, QueryRunner, TransactionCommitEvent, TransactionRollbackEvent } from 'typeorm';
+import {
+  DataSource,
+  EntityManager,
+  EntitySubscriberInterface,
+  QueryRunner,
+  TransactionCommitEvent,
+  TransactionRollbackEvent,
+} from 'typeorm';
 import type { QueryDeepPartialEntity } from 'typeorm/query-builder/QueryPartialEntity';
 import { AppConfig } from '../config/app-config';
 import { AuditChainer } from './audit-chainer';
-import { ChainBreak, ChainWalk, describeBreak, finishWalk, GENESIS_HASH, keyedEventHash, startWalk, StoredEvent, UNKEYED_SEAL_ACTION, walkChain } from './audit-hash';
+import {
+  ChainBreak,
+  ChainWalk,
+  describeBreak,
+  finishWalk,
+  GENESIS_HASH,
+  keyedEventHash,
+  startWalk,
+  StoredEvent,
+  UNKEYED_SEAL_ACTION,
+  walkChain,
+} from './audit-hash';
 import { AuditKeyRing, loadAuditKeys } from './audit-keys';
 import { AuditReceiptDocument, checkReceipt, ReceiptProblem, RECEIPT_PROBLEM_TEXT } from './audit-receipt';
 import { AuditTrailReadModel, TrailEvent } from './audit-trail.read-model';
@@ -81,11 +99,24 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap, OnApp
     config: AppConfig,
     private readonly trail: AuditTrailReadModel,
   ) {
-    this.keys = loadAuditKeys({ keyList: config.auditKeys, keyFile: config.auditKeyFile, mayCreate: config.nodeEnv !== 'production' });
-    this.chainerPool = new Pool({ connectionString: config.databaseUrl, max: 2, application_name: 'evenhand-audit-chainer' });
+    this.keys = loadAuditKeys({
+      keyList: config.auditKeys,
+      keyFile: config.auditKeyFile,
+      mayCreate: config.nodeEnv !== 'production',
+    });
+    this.chainerPool = new Pool({
+      connectionString: config.databaseUrl,
+      max: 2,
+      application_name: 'evenhand-audit-chainer',
+    });
     this.chainerPool.on('error', (error) => this.logger.error(`audit chainer connection: ${error.message}`));
-    this.chainer = new AuditChainer(this.chainerPool, () => this.currentKey, (chain, error) =>
-      this.logger.error(`Sealing chain ${chain} failed; its events wait in the outbox for the next seal: ${error.message}`),
+    this.chainer = new AuditChainer(
+      this.chainerPool,
+      () => this.currentKey,
+      (chain, error) =>
+        this.logger.error(
+          `Sealing chain ${chain} failed; its events wait in the outbox for the next seal: ${error.message}`,
+        ),
     );
   }
 
@@ -101,7 +132,10 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap, OnApp
     await this.sealUnkeyedChains();
     await this.sealWaiting();
     // Rows left by a process that stopped between a commit and its seal, or by a failed seal.
-    this.sweep = setInterval(() => void this.sealWaiting().catch((error: Error) => this.logger.error(error.message)), 5000);
+    this.sweep = setInterval(
+      () => void this.sealWaiting().catch((error: Error) => this.logger.error(error.message)),
+      5000,
+    );
     this.sweep.unref();
   }
 
@@ -128,10 +162,18 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap, OnApp
     for (const { chain } of rows) {
       await this.dataSource.transaction(async (manager) => {
         await this.lockChain(manager, chain);
-        const [head] = await manager.query(`SELECT key_id FROM audit_event WHERE chain = $1 ORDER BY sequence DESC LIMIT 1`, [chain]);
+        const [head] = await manager.query(
+          `SELECT key_id FROM audit_event WHERE chain = $1 ORDER BY sequence DESC LIMIT 1`,
+          [chain],
+        );
         if (!head || head.key_id !== null) return; // another process sealed it meanwhile
         let walk = startWalk();
-        for await (const page of this.pagesOf(chain, manager)) walk = walkChain(page.filter((e) => e.keyId === null), walk, this.keyOf).walk;
+        for await (const page of this.pagesOf(chain, manager))
+          walk = walkChain(
+            page.filter((e) => e.keyId === null),
+            walk,
+            this.keyOf,
+          ).walk;
         await this.appendLocked(manager, chain, [
           {
             chain,
@@ -139,13 +181,18 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap, OnApp
             action: UNKEYED_SEAL_ACTION,
             subjectType: 'audit-chain',
             subjectId: chain,
-            data: { unkeyedThrough: walk.unkeyedCount, unkeyedDigest: walk.unkeyedDigest, note: 'Events written before keying, sealed once with the current key.' },
+            data: {
+              unkeyedThrough: walk.unkeyedCount,
+              unkeyedDigest: walk.unkeyedDigest,
+              note: 'Events written before keying, sealed once with the current key.',
+            },
           },
         ]);
         sealed.push(chain);
       });
     }
-    if (sealed.length) this.logger.log(`Sealed the unkeyed events of ${sealed.length} chain(s) with key ${this.keys.currentId}`);
+    if (sealed.length)
+      this.logger.log(`Sealed the unkeyed events of ${sealed.length} chain(s) with key ${this.keys.currentId}`);
     return sealed;
   }
 
@@ -222,35 +269,37 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap, OnApp
 
   /** Appends to one chain whose lock the transaction holds. */
   private async appendLocked(manager: EntityManager, chain: string, records: AuditRecord[]): Promise<void> {
-    const [last] = await manager.query(`SELECT sequence, hash FROM audit_event WHERE chain = $1 ORDER BY sequence DESC LIMIT 1`, [chain]);
+    const [last] = await manager.query(
+      `SELECT sequence, hash FROM audit_event WHERE chain = $1 ORDER BY sequence DESC LIMIT 1`,
+      [chain],
+    );
     let sequence: number = last ? Number(last.sequence) : 0;
     let previousHash: string = last?.hash ?? GENESIS_HASH;
     // Stamped under the lock, so a chain's times never go backwards as its sequence goes up.
     const at = new Date();
     const { id: keyId, key } = this.currentKey;
-    const events = records
-      .map((record) => {
-        sequence += 1;
-        const fields = {
-          id: randomUUID(),
-          chain,
-          sequence,
-          at: at.toISOString(),
-          actorId: record.actor?.id ?? null,
-          actorEmail: record.actor?.email ?? null,
-          action: record.action,
-          subjectType: record.subjectType ?? null,
-          subjectId: record.subjectId ?? null,
-          // Stored as jsonb and read back canonically: hash what the database will hand back.
-          data: JSON.parse(JSON.stringify(record.data ?? {})) as Record<string, unknown>,
-          previousHash,
-          keyId,
-        };
-        const hash = keyedEventHash(key, fields);
-        const event = manager.create(AuditEventEntity, { ...fields, at, hash });
-        previousHash = hash;
-        return event;
-      });
+    const events = records.map((record) => {
+      sequence += 1;
+      const fields = {
+        id: randomUUID(),
+        chain,
+        sequence,
+        at: at.toISOString(),
+        actorId: record.actor?.id ?? null,
+        actorEmail: record.actor?.email ?? null,
+        action: record.action,
+        subjectType: record.subjectType ?? null,
+        subjectId: record.subjectId ?? null,
+        // Stored as jsonb and read back canonically: hash what the database will hand back.
+        data: JSON.parse(JSON.stringify(record.data ?? {})) as Record<string, unknown>,
+        previousHash,
+        keyId,
+      };
+      const hash = keyedEventHash(key, fields);
+      const event = manager.create(AuditEventEntity, { ...fields, at, hash });
+      previousHash = hash;
+      return event;
+    });
     await manager.insert(AuditEventEntity, events as QueryDeepPartialEntity<AuditEventEntity>[]);
   }
 
@@ -274,7 +323,10 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap, OnApp
     let receipt: AuditReceiptDocument | null = null;
     let receiptCheck: ReceiptCheck | null = null;
     const given = options.receipt !== undefined;
-    const candidate = given ? options.receipt : (await this.dataSource.getRepository(AuditReceiptEntity).findOne({ where: {}, order: { number: 'DESC' } }))?.document;
+    const candidate = given
+      ? options.receipt
+      : (await this.dataSource.getRepository(AuditReceiptEntity).findOne({ where: {}, order: { number: 'DESC' } }))
+          ?.document;
     if (candidate !== undefined) {
       const problem: ReceiptProblem | null = checkReceipt(candidate, this.keyOf);
       const shaped = candidate as Partial<AuditReceiptDocument>;
@@ -285,12 +337,16 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap, OnApp
         source: given ? 'given' : 'latest',
         valid: problem === null,
       };
-      if (problem) findings.push({ chain: null, sequence: null, reason: problem, message: RECEIPT_PROBLEM_TEXT[problem] });
+      if (problem)
+        findings.push({ chain: null, sequence: null, reason: problem, message: RECEIPT_PROBLEM_TEXT[problem] });
       else receipt = candidate as AuditReceiptDocument;
     }
     const heads = new Map((receipt?.chains ?? []).map((head) => [head.chain, head]));
     let names: string[] =
-      options.chains ?? (await this.dataSource.query(`SELECT DISTINCT chain FROM audit_event ORDER BY chain`)).map((row: { chain: string }) => row.chain);
+      options.chains ??
+      (await this.dataSource.query(`SELECT DISTINCT chain FROM audit_event ORDER BY chain`)).map(
+        (row: { chain: string }) => row.chain,
+      );
     if (!options.chains) names = [...new Set([...names, ...heads.keys()])].sort();
     const verdicts: ChainVerdict[] = [];
     for (const chain of names) {
@@ -303,7 +359,10 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap, OnApp
     return { intact: findings.length === 0, chains: verdicts, receipt: receiptCheck, findings };
   }
 
-  private async verifyChain(chain: string, sealedHead: { sequence: number; hash: string } | null): Promise<ChainVerdict> {
+  private async verifyChain(
+    chain: string,
+    sealedHead: { sequence: number; hash: string } | null,
+  ): Promise<ChainVerdict> {
     let walk: ChainWalk = startWalk();
     let count = 0;
     let hashAtSealedHead: string | null = null;
@@ -321,7 +380,11 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap, OnApp
     return { chain, events: count, intact: firstBreak === null, firstBreak };
   }
 
-  private compareWithReceipt(walk: ChainWalk, sealedHead: { sequence: number; hash: string } | null, hashAtSealedHead: string | null): ChainBreak | null {
+  private compareWithReceipt(
+    walk: ChainWalk,
+    sealedHead: { sequence: number; hash: string } | null,
+    hashAtSealedHead: string | null,
+  ): ChainBreak | null {
     if (!sealedHead) return null;
     if (walk.sequence < sealedHead.sequence) return { sequence: walk.sequence + 1, reason: 'missing-after-receipt' };
     if (hashAtSealedHead !== sealedHead.hash) return { sequence: sealedHead.sequence, reason: 'receipt-mismatch' };
@@ -329,7 +392,10 @@ export class AuditService implements OnModuleInit, OnApplicationBootstrap, OnApp
   }
 
   /** One chain's events in sequence order, 5,000 at a time, as the hash sees them. */
-  private async *pagesOf(chain: string, manager: EntityManager = this.dataSource.manager): AsyncGenerator<StoredEvent[]> {
+  private async *pagesOf(
+    chain: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): AsyncGenerator<StoredEvent[]> {
     let after = 0;
     for (;;) {
       const rows: AuditEventEntity[] = await manager

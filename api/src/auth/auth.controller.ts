@@ -1,5 +1,12 @@
 import { Body, Controller, Get, HttpCode, Post, Req, Res, UseGuards } from '@nestjs/common';
-import { ApiAcceptedResponse, ApiNoContentResponse, ApiOkResponse, ApiTags, ApiTooManyRequestsResponse, ApiUnauthorizedResponse } from '@nestjs/swagger';
+import {
+  ApiAcceptedResponse,
+  ApiNoContentResponse,
+  ApiOkResponse,
+  ApiTags,
+  ApiTooManyRequestsResponse,
+  ApiUnauthorizedResponse,
+} from '@nestjs/swagger';
 import type { CookieOptions, Request, Response } from 'express';
 import { AllowedBeforeTwoFactorSetup, CurrentUser, Public, Roles } from '../common/auth/auth.decorators';
 import { ACCESS_COOKIE, REFRESH_COOKIE, SessionUser } from '../common/auth/session-user';
@@ -7,7 +14,17 @@ import { AppConfig } from '../config/app-config';
 import { SignInThrottlerGuard } from '../rate-limit/sign-in-throttler.guard';
 import { UsersService } from '../users';
 import { AuthService, ClientInfo, IssuedSession, toMeDto } from './auth.service';
-import { ChangePasswordDto, ConsumePasswordResetDto, RequestPasswordResetDto, ConsumeSignInLinkDto, LinkRequestedDto, MeDto, RequestSignInLinkDto, SessionDto, SignInDto } from './dto/auth.dto';
+import {
+  ChangePasswordDto,
+  ConsumePasswordResetDto,
+  RequestPasswordResetDto,
+  ConsumeSignInLinkDto,
+  LinkRequestedDto,
+  MeDto,
+  RequestSignInLinkDto,
+  SessionDto,
+  SignInDto,
+} from './dto/auth.dto';
 
 const REFRESH_COOKIE_PATH = '/api/auth';
 
@@ -30,9 +47,23 @@ export class AuthController {
   @HttpCode(200)
   @ApiOkResponse({ type: SessionDto })
   @ApiTooManyRequestsResponse({ description: 'Too many attempts' })
-  @ApiUnauthorizedResponse({ description: 'INVALID_CREDENTIALS; TWO_FACTOR_REQUIRED (send again with code or recoveryCode); TWO_FACTOR_INVALID' })
-  async signIn(@Body() body: SignInDto, @Req() request: Request, @Res({ passthrough: true }) response: Response): Promise<SessionDto> {
-    return this.withCookies(response, await this.auth.signInWithPassword(body.email, body.password, { code: body.code, recoveryCode: body.recoveryCode }, clientOf(request)));
+  @ApiUnauthorizedResponse({
+    description: 'INVALID_CREDENTIALS; TWO_FACTOR_REQUIRED (send again with code or recoveryCode); TWO_FACTOR_INVALID',
+  })
+  async signIn(
+    @Body() body: SignInDto,
+    @Req() request: Request,
+    @Res({ passthrough: true }) response: Response,
+  ): Promise<SessionDto> {
+    return this.withCookies(
+      response,
+      await this.auth.signInWithPassword(
+        body.email,
+        body.password,
+        { code: body.code, recoveryCode: body.recoveryCode },
+        clientOf(request),
+      ),
+    );
   }
 
   @Public()
@@ -93,7 +124,10 @@ export class AuthController {
   @UseGuards(SignInThrottlerGuard)
   @Post('password-reset')
   @HttpCode(202)
-  @ApiAcceptedResponse({ type: LinkRequestedDto, description: 'The same answer whether or not the address has an account' })
+  @ApiAcceptedResponse({
+    type: LinkRequestedDto,
+    description: 'The same answer whether or not the address has an account',
+  })
   async requestPasswordReset(@Body() body: RequestPasswordResetDto): Promise<LinkRequestedDto> {
     await this.auth.requestPasswordReset(body.email);
     return { sent: true };
@@ -122,7 +156,11 @@ export class AuthController {
 
   private withCookies(response: Response, session: IssuedSession): SessionDto {
     response.cookie(ACCESS_COOKIE, session.accessToken, this.cookieOptions('/', this.config.accessTokenSeconds));
-    response.cookie(REFRESH_COOKIE, session.refreshToken, this.cookieOptions(REFRESH_COOKIE_PATH, this.config.refreshTokenSeconds));
+    response.cookie(
+      REFRESH_COOKIE,
+      session.refreshToken,
+      this.cookieOptions(REFRESH_COOKIE_PATH, this.config.refreshTokenSeconds),
+    );
     return { user: session.user, studySlug: session.studySlug ?? null };
   }
 

@@ -65,20 +65,36 @@ export class AuthService implements OnModuleInit {
   ) {}
 
   async onModuleInit(): Promise<void> {
-    await this.jobs.handle<SignInLinkRequest>(JOB_NAMES.signInLinkRequest, (request, jobId) => this.sendSignInLink(request, jobId));
-    await this.jobs.handle<{ email: string }>(JOB_NAMES.passwordResetRequest, (request, jobId) => this.sendPasswordReset(request.email, jobId));
+    await this.jobs.handle<SignInLinkRequest>(JOB_NAMES.signInLinkRequest, (request, jobId) =>
+      this.sendSignInLink(request, jobId),
+    );
+    await this.jobs.handle<{ email: string }>(JOB_NAMES.passwordResetRequest, (request, jobId) =>
+      this.sendPasswordReset(request.email, jobId),
+    );
   }
 
-  async signInWithPassword(email: string, password: string, factor: SecondFactor, client: ClientInfo): Promise<IssuedSession> {
+  async signInWithPassword(
+    email: string,
+    password: string,
+    factor: SecondFactor,
+    client: ClientInfo,
+  ): Promise<IssuedSession> {
     const user = await this.users.verifyStaffPassword(email, password);
     if (!user) {
       await this.recordRefusal(email, 'password', client);
       // One message for every cause, so the answer does not reveal which addresses have accounts.
-      throw new DomainException('INVALID_CREDENTIALS', 'That e-mail and password do not match an active staff account.');
+      throw new DomainException(
+        'INVALID_CREDENTIALS',
+        'That e-mail and password do not match an active staff account.',
+      );
     }
-    if (!user.twoFactorEnabledAt) return this.dataSource.transaction((manager) => this.startSession(manager, user, 'password', client));
+    if (!user.twoFactorEnabledAt)
+      return this.dataSource.transaction((manager) => this.startSession(manager, user, 'password', client));
     if (!factor.code && !factor.recoveryCode) {
-      throw new DomainException('TWO_FACTOR_REQUIRED', 'Enter the 6-digit code from your authenticator app, or one of your recovery codes.');
+      throw new DomainException(
+        'TWO_FACTOR_REQUIRED',
+        'Enter the 6-digit code from your authenticator app, or one of your recovery codes.',
+      );
     }
     const session = await this.dataSource.transaction(async (manager) => {
       const check = await this.twoFactor.checkAtSignIn(manager, user.id, factor);
@@ -94,7 +110,11 @@ export class AuthService implements OnModuleInit {
     );
   }
 
-  private async recordRefusal(email: string, method: 'password' | 'two-factor-code' | 'recovery-code', client: ClientInfo): Promise<void> {
+  private async recordRefusal(
+    email: string,
+    method: 'password' | 'two-factor-code' | 'recovery-code',
+    client: ClientInfo,
+  ): Promise<void> {
     await this.audit.record(this.dataSource.manager, {
       actor: null,
       action: 'auth.sign-in-failed',
@@ -156,7 +176,10 @@ export class AuthService implements OnModuleInit {
         [user.id, user.email, hashToken(token), this.config.passwordResetSeconds],
       );
       if (inserted.length === 0) return;
-      await this.mail.enqueue(manager, passwordResetMail(user.email, link.toString(), Math.round(this.config.passwordResetSeconds / 60)));
+      await this.mail.enqueue(
+        manager,
+        passwordResetMail(user.email, link.toString(), Math.round(this.config.passwordResetSeconds / 60)),
+      );
     });
   }
 
@@ -170,7 +193,10 @@ export class AuthService implements OnModuleInit {
       );
       const user = reset ? await this.users.findActiveById(reset.user_id) : null;
       if (!reset || !user || user.role === 'participant') {
-        throw new DomainException('LINK_INVALID', 'This password link is not valid any more: it was used already, has expired, or is unknown. Ask for a new one.');
+        throw new DomainException(
+          'LINK_INVALID',
+          'This password link is not valid any more: it was used already, has expired, or is unknown. Ask for a new one.',
+        );
       }
       await this.users.setPasswordFromReset(manager, user.id, newPassword);
       await this.audit.record(manager, {
@@ -194,7 +220,10 @@ export class AuthService implements OnModuleInit {
         [hashToken(token)],
       );
       if (!updated) {
-        throw new DomainException('LINK_INVALID', 'This sign-in link is not valid any more: it was used already, has expired, or is unknown. Ask for a new one.');
+        throw new DomainException(
+          'LINK_INVALID',
+          'This sign-in link is not valid any more: it was used already, has expired, or is unknown. Ask for a new one.',
+        );
       }
       const { user, created } = await this.users.findOrCreateParticipant(manager, updated.email);
       if (user.role !== 'participant' || !user.active) {
@@ -222,7 +251,11 @@ export class AuthService implements OnModuleInit {
         lock: { mode: 'pessimistic_write' },
       });
       if (!current || current.expiresAt <= new Date()) return { kind: 'unknown' as const };
-      if (!current.revokedAt && current.replacedAt && Date.now() - current.replacedAt.getTime() <= this.config.refreshGraceSeconds * 1000) {
+      if (
+        !current.revokedAt &&
+        current.replacedAt &&
+        Date.now() - current.replacedAt.getTime() <= this.config.refreshGraceSeconds * 1000
+      ) {
         // Another tab refreshed with this token a moment ago: hand out the same successor instead of crying theft.
         const successor = await this.sameSuccessor(manager, refreshToken, current);
         if (successor) return successor;
@@ -243,7 +276,14 @@ export class AuthService implements OnModuleInit {
       current.replacedAt = new Date();
       await manager.save(current);
       const next = await this.issueRefreshToken(manager, user.id, current.familyId, this.successorOf(refreshToken));
-      return { kind: 'rotated' as const, session: { user: toMeDto(user), accessToken: await this.accessToken(user, current.familyId), refreshToken: next } };
+      return {
+        kind: 'rotated' as const,
+        session: {
+          user: toMeDto(user),
+          accessToken: await this.accessToken(user, current.familyId),
+          refreshToken: next,
+        },
+      };
     });
     if (outcome.kind === 'rotated') return outcome.session;
     throw new DomainException(
@@ -286,7 +326,8 @@ export class AuthService implements OnModuleInit {
       subjectId: user.id,
       data: { method, ...(secondFactor ? { secondFactor } : {}), ...client },
     });
-    const setupNeeded = user.role === 'admin' && !user.twoFactorEnabledAt && (await this.labSettings.get()).twoFactorRequiredForAdmins;
+    const setupNeeded =
+      user.role === 'admin' && !user.twoFactorEnabledAt && (await this.labSettings.get()).twoFactorRequiredForAdmins;
     return { user: toMeDto(user, setupNeeded), accessToken: await this.accessToken(user, sessionId), refreshToken };
   }
 
@@ -312,7 +353,10 @@ export class AuthService implements OnModuleInit {
 
   /** Access tokens name their session (`sid`, the refresh-token family), so each request can check it is still live. */
   private accessToken(user: UserEntity, sessionId: string): Promise<string> {
-    return this.jwt.signAsync({ sub: user.id, role: user.role, sid: sessionId }, { expiresIn: this.config.accessTokenSeconds });
+    return this.jwt.signAsync(
+      { sub: user.id, role: user.role, sid: sessionId },
+      { expiresIn: this.config.accessTokenSeconds },
+    );
   }
 
   private successorOf(refreshToken: string): string {
@@ -322,17 +366,28 @@ export class AuthService implements OnModuleInit {
   /** The pair a racing refresh already produced from this token, if its successor is still live. */
   private async sameSuccessor(manager: EntityManager, refreshToken: string, current: RefreshTokenEntity) {
     const successor = this.successorOf(refreshToken);
-    const next = await manager.findOne(RefreshTokenEntity, { where: { tokenHash: hashToken(successor), familyId: current.familyId } });
+    const next = await manager.findOne(RefreshTokenEntity, {
+      where: { tokenHash: hashToken(successor), familyId: current.familyId },
+    });
     if (!next || next.revokedAt || next.expiresAt <= new Date()) return null;
     const user = await this.users.findActiveById(current.userId);
     if (!user) return null;
     return {
       kind: 'rotated' as const,
-      session: { user: toMeDto(user), accessToken: await this.accessToken(user, current.familyId), refreshToken: successor },
+      session: {
+        user: toMeDto(user),
+        accessToken: await this.accessToken(user, current.familyId),
+        refreshToken: successor,
+      },
     };
   }
 
-  private async issueRefreshToken(manager: EntityManager, userId: string, familyId: string, token: string): Promise<string> {
+  private async issueRefreshToken(
+    manager: EntityManager,
+    userId: string,
+    familyId: string,
+    token: string,
+  ): Promise<string> {
     await manager.insert(RefreshTokenEntity, {
       userId,
       familyId,
@@ -343,6 +398,8 @@ export class AuthService implements OnModuleInit {
   }
 
   private async revokeFamily(manager: EntityManager, familyId: string): Promise<void> {
-    await manager.query(`UPDATE refresh_token SET revoked_at = now() WHERE family_id = $1 AND revoked_at IS NULL`, [familyId]);
+    await manager.query(`UPDATE refresh_token SET revoked_at = now() WHERE family_id = $1 AND revoked_at IS NULL`, [
+      familyId,
+    ]);
   }
 }

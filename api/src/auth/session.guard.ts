@@ -34,12 +34,16 @@ export class SessionGuard implements CanActivate {
     const token: unknown = request.cookies?.[ACCESS_COOKIE];
     if (typeof token !== 'string' || token === '') throw new DomainException('UNAUTHENTICATED', 'Please sign in.');
     const user = await this.sessionUser(token);
-    if (user === 'expired') throw new DomainException('UNAUTHENTICATED', 'Your session has expired. Please sign in again.');
+    if (user === 'expired')
+      throw new DomainException('UNAUTHENTICATED', 'Your session has expired. Please sign in again.');
     if (!user) throw new DomainException('UNAUTHENTICATED', 'Please sign in.');
     request.user = user;
 
     if (user.twoFactorSetupNeeded && !this.reflector.getAllAndOverride<boolean>(BEFORE_TWO_FACTOR_SETUP, targets)) {
-      throw new DomainException('TWO_FACTOR_SETUP_REQUIRED', 'The lab requires admins to sign in with a two-factor code. Set it up under Your account first.');
+      throw new DomainException(
+        'TWO_FACTOR_SETUP_REQUIRED',
+        'The lab requires admins to sign in with a two-factor code. Set it up under Your account first.',
+      );
     }
 
     const roles = this.reflector.getAllAndOverride<UserRole[] | undefined>(ROLES, targets);
@@ -66,7 +70,13 @@ export class SessionGuard implements CanActivate {
       return 'expired';
     }
     // Tokens minted before sessions were named carry no sid; they end here and the apps refresh.
-    if (typeof claims.sub !== 'string' || typeof claims.sid !== 'string' || !UUID.test(claims.sub) || !UUID.test(claims.sid)) return null;
+    if (
+      typeof claims.sub !== 'string' ||
+      typeof claims.sid !== 'string' ||
+      !UUID.test(claims.sub) ||
+      !UUID.test(claims.sid)
+    )
+      return null;
     return this.auth.activeSessionUser(claims.sub, claims.sid);
   }
 }

@@ -2,7 +2,13 @@ import { Body, Controller, Delete, Get, HttpCode, Post } from '@nestjs/common';
 import { ApiNoContentResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { AllowedBeforeTwoFactorSetup, CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
-import { ConfirmTwoFactorDto, ConfirmWithPasswordDto, RecoveryCodesDto, TwoFactorSetupDto, TwoFactorStatusDto } from './dto/two-factor.dto';
+import {
+  ConfirmTwoFactorDto,
+  ConfirmWithPasswordDto,
+  RecoveryCodesDto,
+  TwoFactorSetupDto,
+  TwoFactorStatusDto,
+} from './dto/two-factor.dto';
 import { TwoFactorService } from './two-factor.service';
 
 @ApiTags('auth')
@@ -20,14 +26,20 @@ export class TwoFactorController {
 
   @Post('setup')
   @HttpCode(200)
-  @ApiOkResponse({ type: TwoFactorSetupDto, description: 'A new secret and its QR code; nothing changes until a code from it is confirmed' })
+  @ApiOkResponse({
+    type: TwoFactorSetupDto,
+    description: 'A new secret and its QR code; nothing changes until a code from it is confirmed',
+  })
   setup(@CurrentUser() user: SessionUser): Promise<TwoFactorSetupDto> {
     return this.twoFactor.beginSetup(user);
   }
 
   @Post('confirm')
   @HttpCode(200)
-  @ApiOkResponse({ type: RecoveryCodesDto, description: 'Two-factor sign-in is on; the recovery codes are shown this once' })
+  @ApiOkResponse({
+    type: RecoveryCodesDto,
+    description: 'Two-factor sign-in is on; the recovery codes are shown this once',
+  })
   confirm(@CurrentUser() user: SessionUser, @Body() body: ConfirmTwoFactorDto): Promise<RecoveryCodesDto> {
     return this.twoFactor.confirmSetup(user, body);
   }
@@ -35,7 +47,10 @@ export class TwoFactorController {
   @Post('recovery-codes')
   @HttpCode(200)
   @ApiOkResponse({ type: RecoveryCodesDto, description: 'New recovery codes; every earlier one stops working' })
-  renewRecoveryCodes(@CurrentUser() user: SessionUser, @Body() body: ConfirmWithPasswordDto): Promise<RecoveryCodesDto> {
+  renewRecoveryCodes(
+    @CurrentUser() user: SessionUser,
+    @Body() body: ConfirmWithPasswordDto,
+  ): Promise<RecoveryCodesDto> {
     return this.twoFactor.renewRecoveryCodes(user, body.password);
   }
 

@@ -20,7 +20,9 @@ import {
 } from './two-factor';
 
 export type SecondFactor = { code?: string; recoveryCode?: string };
-export type SecondFactorOutcome = { ok: true; method: 'code' | 'recovery-code'; recoveryCodesLeft?: number } | { ok: false; method: 'code' | 'recovery-code' | 'none' };
+export type SecondFactorOutcome =
+  | { ok: true; method: 'code' | 'recovery-code'; recoveryCodesLeft?: number }
+  | { ok: false; method: 'code' | 'recovery-code' | 'none' };
 
 interface TwoFactorRow {
   email: string;
@@ -53,14 +55,21 @@ export class TwoFactorService {
 
   private async requiredFor(manager: EntityManager, role: string): Promise<boolean> {
     if (role !== 'admin') return false;
-    const [setting] = await queryRows<{ required: boolean }>(manager, `SELECT two_factor_required_for_admins AS required FROM lab_setting WHERE id`);
+    const [setting] = await queryRows<{ required: boolean }>(
+      manager,
+      `SELECT two_factor_required_for_admins AS required FROM lab_setting WHERE id`,
+    );
     return setting?.required ?? false;
   }
 
   async status(user: SessionUser): Promise<TwoFactorStatusDto> {
     const manager = this.dataSource.manager;
     const row = await this.row(manager, user.id);
-    const [left] = await queryRows<{ n: number }>(manager, `SELECT count(*)::int AS n FROM two_factor_recovery_code WHERE user_id = $1 AND used_at IS NULL`, [user.id]);
+    const [left] = await queryRows<{ n: number }>(
+      manager,
+      `SELECT count(*)::int AS n FROM two_factor_recovery_code WHERE user_id = $1 AND used_at IS NULL`,
+      [user.id],
+    );
     return {
       enabled: Boolean(row?.two_factor_enabled_at),
       enabledAt: row?.two_factor_enabled_at ? row.two_factor_enabled_at.toISOString() : null,
@@ -72,9 +81,13 @@ export class TwoFactorService {
   /** Offers a new secret (kept encrypted until a code from it is confirmed). Refused while one is already on. */
   async beginSetup(user: SessionUser): Promise<TwoFactorSetupDto> {
     const row = await this.row(this.dataSource.manager, user.id);
-    if (!row || row.role === 'participant') throw new DomainException('FORBIDDEN', 'Two-factor sign-in is for staff accounts.');
+    if (!row || row.role === 'participant')
+      throw new DomainException('FORBIDDEN', 'Two-factor sign-in is for staff accounts.');
     if (row.two_factor_enabled_at) {
-      throw new DomainException('CONFLICT', 'Two-factor sign-in is already on. Turn it off first to set up a new authenticator app.');
+      throw new DomainException(
+        'CONFLICT',
+        'Two-factor sign-in is already on. Turn it off first to set up a new authenticator app.',
+      );
     }
     const secret = newTotpSecret();
     await this.dataSource.manager.query(`UPDATE user_account SET two_factor_pending_secret = $2 WHERE id = $1`, [
@@ -92,14 +105,19 @@ export class TwoFactorService {
       const row = await this.row(manager, user.id, true);
       if (!row || row.two_factor_enabled_at) throw new DomainException('CONFLICT', 'Two-factor sign-in is already on.');
       if (!row.two_factor_pending_secret) {
-        throw new DomainException('CONFLICT', 'Start the set-up first: choose “Set up two-factor sign-in” to get a QR code.');
+        throw new DomainException(
+          'CONFLICT',
+          'Start the set-up first: choose “Set up two-factor sign-in” to get a QR code.',
+        );
       }
       const secret = decryptTotpSecret(row.two_factor_pending_secret, this.config.jwtSecret);
       const step = await acceptedTotpStep(secret, body.code, Date.now() / 1000, null);
       if (step === null) {
-        throw new DomainException('VALIDATION_FAILED', 'That code does not match. Enter the newest 6-digit code your authenticator app shows.', [
-          { field: 'code', message: 'does not match the authenticator app’s current code' },
-        ]);
+        throw new DomainException(
+          'VALIDATION_FAILED',
+          'That code does not match. Enter the newest 6-digit code your authenticator app shows.',
+          [{ field: 'code', message: 'does not match the authenticator app’s current code' }],
+        );
       }
       await manager.query(
         `UPDATE user_account SET two_factor_secret = two_factor_pending_secret, two_factor_pending_secret = NULL,
@@ -107,7 +125,13 @@ export class TwoFactorService {
         [user.id, step],
       );
       const recoveryCodes = await this.replaceRecoveryCodes(manager, user.id);
-      await this.audit.record(manager, { actor: user, action: 'auth.two-factor-enabled', subjectType: 'user', subjectId: user.id, data: { email: row.email } });
+      await this.audit.record(manager, {
+        actor: user,
+        action: 'auth.two-factor-enabled',
+        subjectType: 'user',
+        subjectId: user.id,
+        data: { email: row.email },
+      });
       return { recoveryCodes };
     });
   }
@@ -119,14 +143,23 @@ export class TwoFactorService {
       const row = await this.row(manager, user.id, true);
       if (!row?.two_factor_enabled_at) return;
       if (await this.requiredFor(manager, row.role)) {
-        throw new DomainException('CONFLICT', 'The lab requires two-factor sign-in of admins, so it cannot be turned off for your account.');
+        throw new DomainException(
+          'CONFLICT',
+          'The lab requires two-factor sign-in of admins, so it cannot be turned off for your account.',
+        );
       }
       await manager.query(
         `UPDATE user_account SET two_factor_secret = NULL, two_factor_pending_secret = NULL, two_factor_enabled_at = NULL, two_factor_last_step = NULL WHERE id = $1`,
         [user.id],
       );
       await manager.query(`DELETE FROM two_factor_recovery_code WHERE user_id = $1`, [user.id]);
-      await this.audit.record(manager, { actor: user, action: 'auth.two-factor-disabled', subjectType: 'user', subjectId: user.id, data: { email: row.email } });
+      await this.audit.record(manager, {
+        actor: user,
+        action: 'auth.two-factor-disabled',
+        subjectType: 'user',
+        subjectId: user.id,
+        data: { email: row.email },
+      });
     });
   }
 
@@ -137,7 +170,13 @@ export class TwoFactorService {
       const row = await this.row(manager, user.id, true);
       if (!row?.two_factor_enabled_at) throw new DomainException('CONFLICT', 'Turn on two-factor sign-in first.');
       const recoveryCodes = await this.replaceRecoveryCodes(manager, user.id);
-      await this.audit.record(manager, { actor: user, action: 'auth.recovery-codes-renewed', subjectType: 'user', subjectId: user.id, data: { email: row.email } });
+      await this.audit.record(manager, {
+        actor: user,
+        action: 'auth.recovery-codes-renewed',
+        subjectType: 'user',
+        subjectId: user.id,
+        data: { email: row.email },
+      });
       return { recoveryCodes };
     });
   }
@@ -164,7 +203,11 @@ export class TwoFactorService {
         [userId, hashRecoveryCode(factor.recoveryCode)],
       );
       if (used.length === 0) return { ok: false, method: 'recovery-code' };
-      const [left] = await queryRows<{ n: number }>(manager, `SELECT count(*)::int AS n FROM two_factor_recovery_code WHERE user_id = $1 AND used_at IS NULL`, [userId]);
+      const [left] = await queryRows<{ n: number }>(
+        manager,
+        `SELECT count(*)::int AS n FROM two_factor_recovery_code WHERE user_id = $1 AND used_at IS NULL`,
+        [userId],
+      );
       await this.audit.record(manager, {
         actor: { id: userId, email: row.email },
         action: 'auth.recovery-code-used',
@@ -179,17 +222,19 @@ export class TwoFactorService {
 
   private async checkPassword(user: SessionUser, password: string): Promise<void> {
     if (!(await this.users.verifyStaffPassword(user.email, password))) {
-      throw new DomainException('VALIDATION_FAILED', 'That is not your password.', [{ field: 'password', message: 'is not your current password' }]);
+      throw new DomainException('VALIDATION_FAILED', 'That is not your password.', [
+        { field: 'password', message: 'is not your current password' },
+      ]);
     }
   }
 
   private async replaceRecoveryCodes(manager: EntityManager, userId: string): Promise<string[]> {
     const codes = newRecoveryCodes();
     await manager.query(`DELETE FROM two_factor_recovery_code WHERE user_id = $1`, [userId]);
-    await manager.query(
-      `INSERT INTO two_factor_recovery_code (user_id, code_hash) SELECT $1, unnest($2::text[])`,
-      [userId, codes.map(hashRecoveryCode)],
-    );
+    await manager.query(`INSERT INTO two_factor_recovery_code (user_id, code_hash) SELECT $1, unnest($2::text[])`, [
+      userId,
+      codes.map(hashRecoveryCode),
+    ]);
     return codes;
   }
 }

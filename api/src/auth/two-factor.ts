@@ -28,7 +28,12 @@ export function totpCodeAt(secret: string, epochSeconds: number): Promise<string
  * The 30-second step a typed code belongs to, or null when it matches none. One step either side is allowed for a
  * phone clock that drifts; a step at or before `lastStep` is refused, so an overheard code cannot be used again.
  */
-export async function acceptedTotpStep(secret: string, typed: string, epochSeconds: number, lastStep: number | null): Promise<number | null> {
+export async function acceptedTotpStep(
+  secret: string,
+  typed: string,
+  epochSeconds: number,
+  lastStep: number | null,
+): Promise<number | null> {
   const token = typed.replace(/\s+/g, '');
   if (!/^\d{6}$/.test(token)) return null;
   const result = await verify({
@@ -62,7 +67,9 @@ export function normalizeRecoveryCode(typed: string): string {
 
 /** Recovery codes are random, so a plain SHA-256 is enough to keep them unreadable at rest. */
 export function hashRecoveryCode(typed: string): string {
-  return createHash('sha256').update(`recovery-code:${normalizeRecoveryCode(typed)}`).digest('hex');
+  return createHash('sha256')
+    .update(`recovery-code:${normalizeRecoveryCode(typed)}`)
+    .digest('hex');
 }
 
 function secretKey(serverSecret: string): Buffer {
@@ -74,7 +81,9 @@ export function encryptTotpSecret(secret: string, serverSecret: string): string 
   const iv = randomBytes(12);
   const cipher = createCipheriv('aes-256-gcm', secretKey(serverSecret), iv);
   const sealed = Buffer.concat([cipher.update(secret, 'utf8'), cipher.final()]);
-  return ['v1', iv.toString('base64url'), cipher.getAuthTag().toString('base64url'), sealed.toString('base64url')].join('.');
+  return ['v1', iv.toString('base64url'), cipher.getAuthTag().toString('base64url'), sealed.toString('base64url')].join(
+    '.',
+  );
 }
 
 export function decryptTotpSecret(stored: string, serverSecret: string): string {

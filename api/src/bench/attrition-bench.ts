@@ -75,9 +75,17 @@ class AttritionBench {
       this.researcher = row as SessionUser;
     }
     const researcher = this.researcher as SessionUser;
-    const study = await this.studies.create(researcher, { slug: `attrition-bench-${size}`, title: `Attrition benchmark (${size})`, design: 'between', currency: CURRENCY });
+    const study = await this.studies.create(researcher, {
+      slug: `attrition-bench-${size}`,
+      title: `Attrition benchmark (${size})`,
+      design: 'between',
+      currency: CURRENCY,
+    });
     for (const name of ['audio cues', 'map cues', 'no cues']) {
-      await this.studies.createCondition(researcher, study.id, { internalName: name, participantLabel: `Route guide ${name}` });
+      await this.studies.createCondition(researcher, study.id, {
+        internalName: name,
+        participantLabel: `Route guide ${name}`,
+      });
     }
     await this.dataSource.transaction(async (manager) => {
       const snapshot = await this.studies.designSnapshot(study.id, manager);
@@ -94,7 +102,10 @@ class AttritionBench {
    * third condition completes less often (a visible differential dropout). Completers get a paid payout of 1500.
    */
   async insertEnrollments(studyId: string, size: number, studyNumber: number): Promise<void> {
-    const conditions: { id: string }[] = await this.dataSource.query(`SELECT id FROM condition WHERE study_id = $1 ORDER BY position`, [studyId]);
+    const conditions: { id: string }[] = await this.dataSource.query(
+      `SELECT id FROM condition WHERE study_id = $1 ORDER BY position`,
+      [studyId],
+    );
     await this.dataSource.query(
       `INSERT INTO enrollment (id, study_id, participant_id, reference, status, covariates, stratum_key, condition_id,
                                invited_at, assigned_at, completed_at, withdrew_at, lost_at, excluded_at, withdrawal_reason, exclusion_reason)
@@ -135,11 +146,14 @@ class AttritionBench {
   }
 
   async analyze(): Promise<void> {
-    for (const table of ['user_account', 'enrollment', 'payout']) await this.dataSource.query(`VACUUM ANALYZE ${table}`);
+    for (const table of ['user_account', 'enrollment', 'payout'])
+      await this.dataSource.query(`VACUUM ANALYZE ${table}`);
   }
 
   async countEnrollments(studyId: string): Promise<number> {
-    const [row] = await this.dataSource.query(`SELECT count(*)::int AS n FROM enrollment WHERE study_id = $1`, [studyId]);
+    const [row] = await this.dataSource.query(`SELECT count(*)::int AS n FROM enrollment WHERE study_id = $1`, [
+      studyId,
+    ]);
     return row.n;
   }
 
@@ -186,7 +200,8 @@ async function main(): Promise<number> {
 
     const results = [];
     for (const study of studies) {
-      if ((await bench.countEnrollments(study.studyId)) !== study.size) throw new Error(`study of ${study.size} does not hold ${study.size} enrollments`);
+      if ((await bench.countEnrollments(study.studyId)) !== study.size)
+        throw new Error(`study of ${study.size} does not hold ${study.size} enrollments`);
       // Warm-up: the first run of each query plans it and pulls the pages into the cache.
       await bench.countEnrollments(study.studyId);
       const warm = await bench.attrition.report(study.studyId);
@@ -197,7 +212,9 @@ async function main(): Promise<number> {
         baseline.push((await timed(() => bench.countEnrollments(study.studyId))).seconds * 1000);
         report.push((await timed(() => bench.attrition.report(study.studyId))).seconds * 1000);
       }
-      log(`${study.size.toLocaleString('en')}: count(*) ${median(baseline).toFixed(1)} ms, attrition report ${median(report).toFixed(0)} ms`);
+      log(
+        `${study.size.toLocaleString('en')}: count(*) ${median(baseline).toFixed(1)} ms, attrition report ${median(report).toFixed(0)} ms`,
+      );
       results.push({ study, baseline, report, wwc: warm.wwc.cautious, randomized: warm.overall.randomized });
     }
 

@@ -29,7 +29,11 @@ export async function bootBenchContext(databaseUrl: string, connections: number)
 }
 
 /** The whole api served over HTTP on 127.0.0.1 (port 0: any free one), with the bare-INSERT route. */
-export async function bootBenchHttpApp(databaseUrl: string, connections: number, port = 0): Promise<{ app: INestApplication; baseUrl: string }> {
+export async function bootBenchHttpApp(
+  databaseUrl: string,
+  connections: number,
+  port = 0,
+): Promise<{ app: INestApplication; baseUrl: string }> {
   benchEnvironment(databaseUrl, connections);
   const app = await NestFactory.create(BenchAppModule, { logger: ['error', 'warn'], rawBody: true });
   configureApp(app);

@@ -24,11 +24,20 @@ const TINY_PDF = Buffer.from(
 );
 
 /** An approved, active consent version, as the admin screens make one; a study opens only with one. */
-export async function activateBenchConsent(app: INestApplicationContext, researcher: SessionUser, studyId: string, reference: string) {
+export async function activateBenchConsent(
+  app: INestApplicationContext,
+  researcher: SessionUser,
+  studyId: string,
+  reference: string,
+) {
   const consent = app.get(ConsentService);
   const draft = await consent.createDraft(researcher, studyId, 'consent/minimal-risk-paid-study', CONSENT_VALUES);
   await consent.updateDraft(researcher, studyId, draft.id, { approvalReference: reference, approvedAt: '2026-11-20' });
-  await consent.uploadApprovalLetter(researcher, studyId, draft.id, { buffer: TINY_PDF, originalname: 'approval.pdf', size: TINY_PDF.length });
+  await consent.uploadApprovalLetter(researcher, studyId, draft.id, {
+    buffer: TINY_PDF,
+    originalname: 'approval.pdf',
+    size: TINY_PDF.length,
+  });
   const active = await consent.activate(researcher, studyId, draft.id);
   if (!active.fingerprint) throw new Error('the activated consent version has no fingerprint');
   return { ...active, fingerprint: active.fingerprint };

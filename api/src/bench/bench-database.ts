@@ -59,14 +59,20 @@ export class BenchDatabase {
     try {
       await admin.connect();
     } catch (error) {
-      throw new BenchSetupError(`Cannot connect to DATABASE_URL (${parsed.host}${parsed.pathname}): ${(error as Error).message}`);
+      throw new BenchSetupError(
+        `Cannot connect to DATABASE_URL (${parsed.host}${parsed.pathname}): ${(error as Error).message}`,
+      );
     }
     return new BenchDatabase(admin, databaseUrl);
   }
 
   /** Creates the schema and applies every migration in it, as `npm run migrate -w api` would. */
   async createAndMigrate(): Promise<void> {
-    const [{ exists }] = (await this.admin.query(`SELECT EXISTS (SELECT 1 FROM pg_namespace WHERE nspname = $1) AS exists`, [JOB_QUEUE_SCHEMA])).rows;
+    const [{ exists }] = (
+      await this.admin.query(`SELECT EXISTS (SELECT 1 FROM pg_namespace WHERE nspname = $1) AS exists`, [
+        JOB_QUEUE_SCHEMA,
+      ])
+    ).rows;
     this.createdJobQueue = !exists;
     await this.admin.query(`CREATE SCHEMA "${this.schema}"`);
     const migrator = new DataSource(dataSourceOptions(this.url));

@@ -12,7 +12,10 @@ export class BenchOwnDatabase {
   readonly name = `evenhand_bench_${process.pid}_${Date.now().toString(36)}`;
   readonly url: string;
 
-  private constructor(private readonly admin: Client, databaseUrl: string) {
+  private constructor(
+    private readonly admin: Client,
+    databaseUrl: string,
+  ) {
     const url = new URL(databaseUrl);
     url.pathname = `/${this.name}`;
     if (!url.searchParams.has('application_name')) url.searchParams.set('application_name', 'evenhand-bench');
@@ -33,14 +36,18 @@ export class BenchOwnDatabase {
     try {
       await admin.connect();
     } catch (error) {
-      throw new BenchSetupError(`Cannot connect to DATABASE_URL (${parsed.host}${parsed.pathname}): ${(error as Error).message}`);
+      throw new BenchSetupError(
+        `Cannot connect to DATABASE_URL (${parsed.host}${parsed.pathname}): ${(error as Error).message}`,
+      );
     }
     const database = new BenchOwnDatabase(admin, databaseUrl);
     try {
       await admin.query(`CREATE DATABASE "${database.name}"`);
     } catch (error) {
       await admin.end();
-      throw new BenchSetupError(`DATABASE_URL's user may not create a database (${(error as Error).message}); the signing benchmark needs one of its own`);
+      throw new BenchSetupError(
+        `DATABASE_URL's user may not create a database (${(error as Error).message}); the signing benchmark needs one of its own`,
+      );
     }
     return database;
   }

@@ -34,8 +34,17 @@ const figure = (value: number) => (value >= 100 ? value.toFixed(0) : value >= 10
 /** A plain fixed-width table: what was measured, its median, the ratio to the baseline, every round. */
 export function formatTable(table: ReportTable): string {
   const header = ['measurement', `median ${table.unit}`, table.ratioHeading, 'rounds'];
-  const body = table.rows.map((row) => [row.label, figure(row.value), row.ratio === null ? '–' : row.ratio.toFixed(3), row.samples.map(figure).join('  ')]);
+  const body = table.rows.map((row) => [
+    row.label,
+    figure(row.value),
+    row.ratio === null ? '–' : row.ratio.toFixed(3),
+    row.samples.map(figure).join('  '),
+  ]);
   const widths = header.map((cell, i) => Math.max(cell.length, ...body.map((cells) => cells[i].length)));
-  const line = (cells: string[]) => cells.map((cell, i) => (i === 0 || i === 3 ? cell.padEnd(widths[i]) : cell.padStart(widths[i]))).join('  ').trimEnd();
+  const line = (cells: string[]) =>
+    cells
+      .map((cell, i) => (i === 0 || i === 3 ? cell.padEnd(widths[i]) : cell.padStart(widths[i])))
+      .join('  ')
+      .trimEnd();
   return [table.title, line(header), widths.map((w) => '-'.repeat(w)).join('  '), ...body.map(line)].join('\n');
 }

@@ -19,7 +19,9 @@ class BareInsertController {
   @Public()
   @HttpCode(200)
   async bareInsert(): Promise<{ ok: true }> {
-    await this.dataSource.transaction((manager) => manager.query(`INSERT INTO bench_scratch (note) VALUES ('bare insert')`));
+    await this.dataSource.transaction((manager) =>
+      manager.query(`INSERT INTO bench_scratch (note) VALUES ('bare insert')`),
+    );
     return { ok: true };
   }
 }
@@ -38,6 +40,8 @@ export class BenchRoutesModule implements OnModuleInit {
   }
 
   async onModuleInit(): Promise<void> {
-    await this.dataSource.query(`CREATE TABLE IF NOT EXISTS bench_scratch (id bigserial PRIMARY KEY, note text NOT NULL, at timestamptz NOT NULL DEFAULT now())`);
+    await this.dataSource.query(
+      `CREATE TABLE IF NOT EXISTS bench_scratch (id bigserial PRIMARY KEY, note text NOT NULL, at timestamptz NOT NULL DEFAULT now())`,
+    );
   }
 }

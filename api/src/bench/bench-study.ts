@@ -55,7 +55,10 @@ export class BenchStudies {
       design: 'between',
     });
     for (const name of ['cue-a', 'cue-b']) {
-      await this.studies.createCondition(researcher, study.id, { internalName: name, participantLabel: `Route guide ${name.slice(-1).toUpperCase()}` });
+      await this.studies.createCondition(researcher, study.id, {
+        internalName: name,
+        participantLabel: `Route guide ${name.slice(-1).toUpperCase()}`,
+      });
     }
     await this.studies.replaceFactors(researcher, study.id, [
       { key: 'pretest', label: 'Pretest score (0–100)', kind: 'numeric', cutPoints: [PRETEST_CUT] },
@@ -72,7 +75,12 @@ export class BenchStudies {
   }
 
   /** As `PUT /studies/:id/assignment-scheme` does it, in one transaction. */
-  private async saveScheme(actor: SessionUser, studyId: string, method: SchemeMethod, settings: SchemeSettings): Promise<void> {
+  private async saveScheme(
+    actor: SessionUser,
+    studyId: string,
+    method: SchemeMethod,
+    settings: SchemeSettings,
+  ): Promise<void> {
     await this.dataSource.transaction(async (manager) => {
       await this.studies.require(studyId, manager, true);
       const snapshot = await this.studies.designSnapshot(studyId, manager);

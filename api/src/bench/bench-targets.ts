@@ -22,7 +22,8 @@ export function formatVerdicts(verdicts: readonly TargetVerdict[]): string {
   const width = Math.max(...verdicts.map((v) => v.label.length));
   return verdicts
     .map((v) => {
-      const target = v.bound === null ? 'no target (for information)' : `target ${v.bound === 'at-least' ? '≥' : '≤'} ${v.value}`;
+      const target =
+        v.bound === null ? 'no target (for information)' : `target ${v.bound === 'at-least' ? '≥' : '≤'} ${v.value}`;
       const verdict = v.bound === null ? '' : v.met ? 'met' : 'MISSED';
       return `${v.label.padEnd(width)}  ${v.ratio.toFixed(3).padStart(8)}  ${target}  ${verdict}`.trimEnd();
     })

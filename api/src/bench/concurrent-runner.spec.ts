@@ -68,7 +68,11 @@ describe('runConcurrently', () => {
   });
 
   it('refuses counts that are not whole numbers of 1 or more, naming the argument', async () => {
-    await expect(runConcurrently(0, 4, async () => {})).rejects.toThrow('total must be a whole number of 1 or more (got 0)');
-    await expect(runConcurrently(10, 1.5, async () => {})).rejects.toThrow('workers must be a whole number of 1 or more (got 1.5)');
+    await expect(runConcurrently(0, 4, async () => {})).rejects.toThrow(
+      'total must be a whole number of 1 or more (got 0)',
+    );
+    await expect(runConcurrently(10, 1.5, async () => {})).rejects.toThrow(
+      'workers must be a whole number of 1 or more (got 1.5)',
+    );
   });
 });

@@ -19,8 +19,10 @@ export async function runConcurrently(
   operation: (index: number) => Promise<unknown>,
   signal?: AbortSignal,
 ): Promise<ThroughputSample> {
-  if (!Number.isSafeInteger(total) || total < 1) throw new RangeError(`total must be a whole number of 1 or more (got ${total})`);
-  if (!Number.isSafeInteger(workers) || workers < 1) throw new RangeError(`workers must be a whole number of 1 or more (got ${workers})`);
+  if (!Number.isSafeInteger(total) || total < 1)
+    throw new RangeError(`total must be a whole number of 1 or more (got ${total})`);
+  if (!Number.isSafeInteger(workers) || workers < 1)
+    throw new RangeError(`workers must be a whole number of 1 or more (got ${workers})`);
   let next = 0;
   let failure: unknown = null;
   const loop = async () => {

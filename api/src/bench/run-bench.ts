@@ -49,7 +49,9 @@ class AllocationBench {
   }
 
   async createScratchTable(): Promise<void> {
-    await this.dataSource.query(`CREATE TABLE bench_scratch (id bigserial PRIMARY KEY, note text NOT NULL, at timestamptz NOT NULL DEFAULT now())`);
+    await this.dataSource.query(
+      `CREATE TABLE bench_scratch (id bigserial PRIMARY KEY, note text NOT NULL, at timestamptz NOT NULL DEFAULT now())`,
+    );
   }
 
   /** n transactions, each BEGIN, one INSERT, COMMIT, through the same pool and the same transaction helper. */
@@ -57,7 +59,10 @@ class AllocationBench {
     return runConcurrently(
       n,
       CONNECTIONS,
-      (i) => this.dataSource.transaction((manager) => manager.query(`INSERT INTO bench_scratch (note) VALUES ($1)`, [`arrival ${i}`])),
+      (i) =>
+        this.dataSource.transaction((manager) =>
+          manager.query(`INSERT INTO bench_scratch (note) VALUES ($1)`, [`arrival ${i}`]),
+        ),
       this.signal,
     );
   }
@@ -70,7 +75,9 @@ class AllocationBench {
       CONNECTIONS,
       (i) => {
         const { enrollmentId, covariates } = study.enrollments[i];
-        return this.dataSource.transaction((manager) => this.randomization.allocate(manager, ACTOR, { studyId: study.studyId, enrollmentId, covariates }));
+        return this.dataSource.transaction((manager) =>
+          this.randomization.allocate(manager, ACTOR, { studyId: study.studyId, enrollmentId, covariates }),
+        );
       },
       this.signal,
     );
@@ -114,7 +121,12 @@ interface Measured {
   schemes: Record<BenchScheme, number[]>;
 }
 
-async function measureDatabase(bench: AllocationBench, arrivals: number, rounds: number, log: (line: string) => void): Promise<Measured> {
+async function measureDatabase(
+  bench: AllocationBench,
+  arrivals: number,
+  rounds: number,
+  log: (line: string) => void,
+): Promise<Measured> {
   const warmUp = Math.min(200, arrivals);
   await bench.baseline(warmUp);
   for (const method of SCHEMES) await bench.allocations(method, warmUp);
@@ -135,7 +147,10 @@ async function measureDatabase(bench: AllocationBench, arrivals: number, rounds:
   return measured;
 }
 
-async function measureDryRun(studies: BenchStudies, randomization: RandomizationService): Promise<{ baseline: number[]; schemes: Record<BenchScheme, number[]> }> {
+async function measureDryRun(
+  studies: BenchStudies,
+  randomization: RandomizationService,
+): Promise<{ baseline: number[]; schemes: Record<BenchScheme, number[]> }> {
   // Any study of the bench design will do: the dry run reads only its conditions and factors.
   const { studyId } = await studies.open('stratified-blocks', 1);
   const snapshot = await studies.designSnapshot(studyId);
@@ -148,8 +163,13 @@ async function measureDryRun(studies: BenchStudies, randomization: Randomization
     return sum;
   };
   const dryRun = (method: BenchScheme) => () => {
-    const result = randomization.dryRun(method, BENCH_SCHEMES[method], snapshot, { arrivals: DRY_RUN_ARRIVALS, seed, covariateMix });
-    if (result.arrivals !== DRY_RUN_ARRIVALS || result.strata.length !== 2) throw new Error(`${method} dry run did not simulate ${DRY_RUN_ARRIVALS} arrivals in 2 strata`);
+    const result = randomization.dryRun(method, BENCH_SCHEMES[method], snapshot, {
+      arrivals: DRY_RUN_ARRIVALS,
+      seed,
+      covariateMix,
+    });
+    if (result.arrivals !== DRY_RUN_ARRIVALS || result.strata.length !== 2)
+      throw new Error(`${method} dry run did not simulate ${DRY_RUN_ARRIVALS} arrivals in 2 strata`);
     return result;
   };
   // Let the JIT settle first: the earliest runs are several times slower than the rest.
@@ -157,7 +177,10 @@ async function measureDryRun(studies: BenchStudies, randomization: Randomization
     drawNumbers();
     for (const method of SCHEMES) dryRun(method)();
   }
-  const seconds = { baseline: [] as number[], schemes: { 'stratified-blocks': [] as number[], minimization: [] as number[] } };
+  const seconds = {
+    baseline: [] as number[],
+    schemes: { 'stratified-blocks': [] as number[], minimization: [] as number[] },
+  };
   for (let round = 0; round < DRY_RUN_ROUNDS; round++) {
     for (const method of SCHEMES) {
       seconds.baseline.push(timeSync(drawNumbers));
@@ -193,7 +216,9 @@ async function main(): Promise<number> {
     const measured = await measureDatabase(bench, arrivals, rounds, log);
     const pool = poolOf(dataSource);
     if (pool.options.max !== CONNECTIONS || pool.totalCount !== CONNECTIONS) {
-      throw new Error(`the pool should hold ${CONNECTIONS} connections, but its limit is ${pool.options.max} and it opened ${pool.totalCount}`);
+      throw new Error(
+        `the pool should hold ${CONNECTIONS} connections, but its limit is ${pool.options.max} and it opened ${pool.totalCount}`,
+      );
     }
     const dryRun = await measureDryRun(bench.studyDesigns, app.get(RandomizationService));
 
@@ -221,8 +246,18 @@ async function main(): Promise<number> {
     console.log(`\n${formatTable(throughput)}\n\n${formatTable(dryRunTable)}\n`);
     // Allocation alone has no target in this run (signing, which includes it, has one); printed for information.
     const verdicts = [
-      judge({ label: 'allocate (stratified blocks) ÷ bare INSERT', ratio: throughput.rows[1].ratio!, bound: null, value: null }),
-      judge({ label: 'allocate (minimization) ÷ bare INSERT', ratio: throughput.rows[2].ratio!, bound: null, value: null }),
+      judge({
+        label: 'allocate (stratified blocks) ÷ bare INSERT',
+        ratio: throughput.rows[1].ratio!,
+        bound: null,
+        value: null,
+      }),
+      judge({
+        label: 'allocate (minimization) ÷ bare INSERT',
+        ratio: throughput.rows[2].ratio!,
+        bound: null,
+        value: null,
+      }),
     ];
     console.log(`${formatVerdicts(verdicts)}\n`);
 

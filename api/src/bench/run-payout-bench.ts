@@ -34,7 +34,12 @@ const PAYOUT_MINOR = 100;
 
 const log = (line: string) => console.log(`[payout-bench] ${line}`);
 
-async function until<T>(check: () => Promise<T | null>, what: string, timeoutMs: number, signal: AbortSignal): Promise<T> {
+async function until<T>(
+  check: () => Promise<T | null>,
+  what: string,
+  timeoutMs: number,
+  signal: AbortSignal,
+): Promise<T> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     if (signal.aborted) throw new Error('interrupted');
@@ -79,9 +84,14 @@ class PayoutBench {
       targetSize: 1000,
     });
     this.studyId = study.id;
-    for (const name of ['cue-a', 'cue-b']) await studies.createCondition(this.coordinator, study.id, { internalName: name, participantLabel: `Route guide ${name.slice(-1).toUpperCase()}` });
+    for (const name of ['cue-a', 'cue-b'])
+      await studies.createCondition(this.coordinator, study.id, {
+        internalName: name,
+        participantLabel: `Route guide ${name.slice(-1).toUpperCase()}`,
+      });
     const steps = this.app.get(StepsService);
-    for (let s = 1; s <= stepsPerPayee; s++) await steps.create(this.coordinator, study.id, { title: `Session ${s}`, payMinor: PAYOUT_MINOR });
+    for (let s = 1; s <= stepsPerPayee; s++)
+      await steps.create(this.coordinator, study.id, { title: `Session ${s}`, payMinor: PAYOUT_MINOR });
   }
 
   /** Payees enrolled in the study, each with a provider account set up through the hosted onboarding page. */
@@ -102,16 +112,24 @@ class PayoutBench {
          SELECT made.id, made.email FROM made JOIN enrolled ON enrolled.participant_id = made.id ORDER BY made.email`,
         [count, this.studyId],
       )
-    ).map((r: { id: string; email: string }) => ({ id: r.id, email: r.email, name: '', role: 'participant' }) as SessionUser);
-    await runConcurrently(people.length, JOB_BATCH_SIZE, async (i) => {
-      const { url } = await this.payouts.startOnboarding(people[i]);
-      await completeHostedOnboarding(url, 'Bench Payee');
-      const status = await this.payouts.accountStatus(people[i]);
-      if (!status.payoutsEnabled) throw new Error(`payee ${i + 1} finished onboarding but payouts are not enabled`);
-    }, this.signal);
-    this.destinations = (await this.dataSource.query(`SELECT provider_account_id FROM payout_account ORDER BY provider_account_id`)).map(
-      (r: { provider_account_id: string }) => r.provider_account_id,
+    ).map(
+      (r: { id: string; email: string }) =>
+        ({ id: r.id, email: r.email, name: '', role: 'participant' }) as SessionUser,
     );
+    await runConcurrently(
+      people.length,
+      JOB_BATCH_SIZE,
+      async (i) => {
+        const { url } = await this.payouts.startOnboarding(people[i]);
+        await completeHostedOnboarding(url, 'Bench Payee');
+        const status = await this.payouts.accountStatus(people[i]);
+        if (!status.payoutsEnabled) throw new Error(`payee ${i + 1} finished onboarding but payouts are not enabled`);
+      },
+      this.signal,
+    );
+    this.destinations = (
+      await this.dataSource.query(`SELECT provider_account_id FROM payout_account ORDER BY provider_account_id`)
+    ).map((r: { provider_account_id: string }) => r.provider_account_id);
   }
 
   /** Every payee completes every step: one owed payout each, written as step completion would write them. */
@@ -128,22 +146,35 @@ class PayoutBench {
        JOIN enrollment e ON e.id = x.enrollment_id JOIN study st ON st.id = e.study_id`,
       [this.studyId, this.coordinator.id, PAYOUT_MINOR],
     );
-    const [{ n }] = await this.dataSource.query(`SELECT count(*)::int AS n FROM payout WHERE study_id = $1 AND status = 'owed'`, [this.studyId]);
+    const [{ n }] = await this.dataSource.query(
+      `SELECT count(*)::int AS n FROM payout WHERE study_id = $1 AND status = 'owed'`,
+      [this.studyId],
+    );
     return n;
   }
 
   /** Funds the study as the card form does; the test card whose money is available at once. */
   async fundStudy(amountMinor: number): Promise<void> {
     const intent = await this.payouts.createFunding(this.coordinator, this.studyId, amountMinor);
-    await this.provider.paymentIntents.confirm(intent.clientSecret.split('_secret_')[0], { payment_method: 'pm_card_bypassPending' });
+    await this.provider.paymentIntents.confirm(intent.clientSecret.split('_secret_')[0], {
+      payment_method: 'pm_card_bypassPending',
+    });
     const budget = await this.payouts.refreshFunding(this.studyId, intent.fundingId);
-    if (budget.fundedMinor < amountMinor) throw new Error(`funding did not land: funded ${budget.fundedMinor}, expected ${amountMinor}`);
+    if (budget.fundedMinor < amountMinor)
+      throw new Error(`funding did not land: funded ${budget.fundedMinor}, expected ${amountMinor}`);
   }
 
   /** Money on the platform for the baseline's transfers, outside any study. */
   async fundBaseline(amountMinor: number): Promise<void> {
-    const intent = await this.provider.paymentIntents.create({ amount: amountMinor, currency: 'usd', allowed_payment_method_types: ['card'], metadata: { purpose: 'bench-baseline' } });
-    const confirmed = await this.provider.paymentIntents.confirm(intent.id, { payment_method: 'pm_card_bypassPending' });
+    const intent = await this.provider.paymentIntents.create({
+      amount: amountMinor,
+      currency: 'usd',
+      allowed_payment_method_types: ['card'],
+      metadata: { purpose: 'bench-baseline' },
+    });
+    const confirmed = await this.provider.paymentIntents.confirm(intent.id, {
+      payment_method: 'pm_card_bypassPending',
+    });
     if (confirmed.status !== 'succeeded') throw new Error(`the baseline top-up ended ${confirmed.status}`);
   }
 
@@ -157,7 +188,13 @@ class PayoutBench {
       JOB_BATCH_SIZE,
       (i) =>
         this.provider.transfers.create(
-          { amount: PAYOUT_MINOR, currency: 'usd', destination: this.destinations[i % this.destinations.length], transfer_group: 'bench_baseline', metadata: { baseline: String(i) } },
+          {
+            amount: PAYOUT_MINOR,
+            currency: 'usd',
+            destination: this.destinations[i % this.destinations.length],
+            transfer_group: 'bench_baseline',
+            metadata: { baseline: String(i) },
+          },
           { idempotencyKey: randomUUID() },
         ),
       this.signal,
@@ -165,8 +202,12 @@ class PayoutBench {
   }
 
   /** Approves every owed payout in one go, then waits for the job workers to have paid them all. */
-  async payEverything(count: number): Promise<{ approveSeconds: number; totalSeconds: number; perSecond: number; attempts: Record<string, number> }> {
-    const ids: string[] = (await this.dataSource.query(`SELECT id FROM payout WHERE study_id = $1 AND status = 'owed'`, [this.studyId])).map((r: { id: string }) => r.id);
+  async payEverything(
+    count: number,
+  ): Promise<{ approveSeconds: number; totalSeconds: number; perSecond: number; attempts: Record<string, number> }> {
+    const ids: string[] = (
+      await this.dataSource.query(`SELECT id FROM payout WHERE study_id = $1 AND status = 'owed'`, [this.studyId])
+    ).map((r: { id: string }) => r.id);
     const started = performance.now();
     const approval = await this.payouts.approve(this.coordinator, this.studyId, ids);
     if (approval.approved !== count) throw new Error(`approved ${approval.approved} of ${count}`);
@@ -193,7 +234,10 @@ class PayoutBench {
     );
     const totalSeconds = (performance.now() - started) / 1000;
     const attempts: Record<string, number> = {};
-    for (const r of await this.dataSource.query(`SELECT attempts, count(*)::int AS n FROM payout WHERE study_id = $1 GROUP BY attempts ORDER BY attempts`, [this.studyId])) {
+    for (const r of await this.dataSource.query(
+      `SELECT attempts, count(*)::int AS n FROM payout WHERE study_id = $1 GROUP BY attempts ORDER BY attempts`,
+      [this.studyId],
+    )) {
       attempts[r.attempts] = r.n;
     }
     return { approveSeconds, totalSeconds, perSecond: count / totalSeconds, attempts };
@@ -202,20 +246,32 @@ class PayoutBench {
   /** What the provider holds for this study, against our ledger: one transfer per payout, nothing else. */
   async exactlyOnce() {
     const transfers: Stripe.Transfer[] = [];
-    for await (const transfer of this.provider.transfers.list({ transfer_group: `study_${this.studyId}`, limit: 100 })) transfers.push(transfer);
+    for await (const transfer of this.provider.transfers.list({ transfer_group: `study_${this.studyId}`, limit: 100 }))
+      transfers.push(transfer);
     const perPayout = new Map<string, number>();
-    for (const t of transfers) perPayout.set(t.metadata?.payoutId ?? '(none)', (perPayout.get(t.metadata?.payoutId ?? '(none)') ?? 0) + 1);
+    for (const t of transfers)
+      perPayout.set(t.metadata?.payoutId ?? '(none)', (perPayout.get(t.metadata?.payoutId ?? '(none)') ?? 0) + 1);
     const duplicates = [...perPayout.values()].reduce((sum, n) => sum + (n - 1), 0);
     const [ledger] = await this.dataSource.query(
       `SELECT count(*)::int AS paid, count(DISTINCT provider_transfer_id)::int AS distinct_transfers FROM payout WHERE study_id = $1 AND status = 'paid'`,
       [this.studyId],
     );
     const reconciliation = await this.payouts.reconciliation(this.studyId);
-    return { transfers: transfers.length, payoutsWithATransfer: perPayout.size, duplicates, ledgerPaid: ledger.paid, ledgerDistinctTransfers: ledger.distinct_transfers, differences: reconciliation.differences.length };
+    return {
+      transfers: transfers.length,
+      payoutsWithATransfer: perPayout.size,
+      duplicates,
+      ledgerPaid: ledger.paid,
+      ledgerDistinctTransfers: ledger.distinct_transfers,
+      differences: reconciliation.differences.length,
+    };
   }
 
   async receiptsSent(): Promise<number> {
-    const [{ n }] = await this.dataSource.query(`SELECT count(*)::int AS n FROM payout WHERE study_id = $1 AND receipt_sent_at IS NOT NULL`, [this.studyId]);
+    const [{ n }] = await this.dataSource.query(
+      `SELECT count(*)::int AS n FROM payout WHERE study_id = $1 AND receipt_sent_at IS NOT NULL`,
+      [this.studyId],
+    );
     return n;
   }
 }
@@ -226,11 +282,15 @@ async function main(): Promise<number> {
     console.error(DATABASE_URL_HELP.replaceAll('npm run bench', 'bash api/src/bench/run-payout-bench.sh'));
     return 1;
   }
-  if (!process.env.STRIPE_PORT) throw new BenchSetupError('STRIPE_PORT must name the port of a running payments stand-in (run-payout-bench.sh starts one)');
+  if (!process.env.STRIPE_PORT)
+    throw new BenchSetupError(
+      'STRIPE_PORT must name the port of a running payments stand-in (run-payout-bench.sh starts one)',
+    );
   const payoutCount = wholeNumberSetting('BENCH_PAYOUTS', 10_000, 100, 100_000);
   const payees = wholeNumberSetting('BENCH_PAYEES', 500, 1, 10_000);
   const apiPort = wholeNumberSetting('BENCH_API_PORT', 3190, 1024, 65535);
-  if (payoutCount % payees !== 0) throw new BenchSetupError(`BENCH_PAYOUTS (${payoutCount}) must be a multiple of BENCH_PAYEES (${payees})`);
+  if (payoutCount % payees !== 0)
+    throw new BenchSetupError(`BENCH_PAYOUTS (${payoutCount}) must be a multiple of BENCH_PAYEES (${payees})`);
   const interrupted = abortOnInterrupt(log);
 
   const started = Date.now();
@@ -253,7 +313,9 @@ async function main(): Promise<number> {
     await bench.fundStudy(payoutCount * PAYOUT_MINOR);
     const warmUp = Math.min(500, payoutCount);
     await bench.fundBaseline((payoutCount + warmUp) * PAYOUT_MINOR);
-    log(`set up: ${payees} payees onboarded, ${owed} owed payouts, study funded (${((Date.now() - started) / 1000).toFixed(0)} s)`);
+    log(
+      `set up: ${payees} payees onboarded, ${owed} owed payouts, study funded (${((Date.now() - started) / 1000).toFixed(0)} s)`,
+    );
 
     await bench.baseline(warmUp);
     const raw = await bench.baseline(payoutCount);
@@ -262,12 +324,19 @@ async function main(): Promise<number> {
     log(`paid: ${payoutCount} payouts in ${paid.totalSeconds.toFixed(1)} s (${paid.perSecond.toFixed(0)}/s)`);
     const once = await bench.exactlyOnce();
     const receiptsWhenDone = await bench.receiptsSent();
-    await until(async () => ((await bench.receiptsSent()) === payoutCount ? true : null), 'every receipt to be sent', 10 * 60_000, interrupted);
+    await until(
+      async () => ((await bench.receiptsSent()) === payoutCount ? true : null),
+      'every receipt to be sent',
+      10 * 60_000,
+      interrupted,
+    );
 
     const problems: string[] = [];
-    if (once.transfers !== payoutCount) problems.push(`the provider holds ${once.transfers} transfers for ${payoutCount} payouts`);
+    if (once.transfers !== payoutCount)
+      problems.push(`the provider holds ${once.transfers} transfers for ${payoutCount} payouts`);
     if (once.duplicates !== 0) problems.push(`${once.duplicates} duplicate transfer(s)`);
-    if (once.ledgerDistinctTransfers !== payoutCount) problems.push(`${once.ledgerDistinctTransfers} distinct transfer ids in the ledger`);
+    if (once.ledgerDistinctTransfers !== payoutCount)
+      problems.push(`${once.ledgerDistinctTransfers} distinct transfer ids in the ledger`);
     if (once.differences !== 0) problems.push(`reconciliation lists ${once.differences} difference(s)`);
 
     console.log('');
@@ -276,10 +345,20 @@ async function main(): Promise<number> {
         title: `${payoutCount} payouts to ${payees} payees against bare transfer creation (${JOB_BATCH_SIZE} at a time, one run each)`,
         unit: 'per s',
         ratioHeading: '÷ baseline',
-        rows: [reportRow('bare transfers.create at the provider', [raw.perSecond]), reportRow('approve → job → transfer → paid', [paid.perSecond], [raw.perSecond])],
+        rows: [
+          reportRow('bare transfers.create at the provider', [raw.perSecond]),
+          reportRow('approve → job → transfer → paid', [paid.perSecond], [raw.perSecond]),
+        ],
       }),
     );
-    const verdicts = [judge({ label: 'payouts ÷ bare transfer creation', ratio: paid.perSecond / raw.perSecond, bound: 'at-least', value: PAYOUT_TARGET })];
+    const verdicts = [
+      judge({
+        label: 'payouts ÷ bare transfer creation',
+        ratio: paid.perSecond / raw.perSecond,
+        bound: 'at-least',
+        value: PAYOUT_TARGET,
+      }),
+    ];
     console.log(`\n${formatVerdicts(verdicts)}\n`);
     console.log(
       JSON.stringify({

@@ -69,23 +69,39 @@ class SigningBench {
     const { status, text } = await new Promise<{ status: number; text: string }>((resolve, reject) => {
       const call = request(
         url,
-        { method: 'POST', agent: this.http, headers: { 'content-type': 'application/json', 'content-length': Buffer.byteLength(payload), ...(cookie ? { cookie } : {}) } },
+        {
+          method: 'POST',
+          agent: this.http,
+          headers: {
+            'content-type': 'application/json',
+            'content-length': Buffer.byteLength(payload),
+            ...(cookie ? { cookie } : {}),
+          },
+        },
         (response) => {
           const chunks: Buffer[] = [];
           response.on('data', (chunk: Buffer) => chunks.push(chunk));
-          response.on('end', () => resolve({ status: response.statusCode ?? 0, text: Buffer.concat(chunks).toString('utf8') }));
+          response.on('end', () =>
+            resolve({ status: response.statusCode ?? 0, text: Buffer.concat(chunks).toString('utf8') }),
+          );
           response.on('error', reject);
         },
       );
       call.on('error', reject);
       call.end(payload);
     });
-    if (status !== expected) throw new Error(`POST ${url} answered ${status}, expected ${expected}: ${text.slice(0, 300)}`);
+    if (status !== expected)
+      throw new Error(`POST ${url} answered ${status}, expected ${expected}: ${text.slice(0, 300)}`);
   }
 
   /** The bare-INSERT route, by the same number of clients over the same HTTP stack. */
   baseline(n: number) {
-    return runConcurrently(n, CONNECTIONS, (i) => this.post(`${this.baseUrls[i % this.baseUrls.length]}/bench/bare-insert`, {}, 200), this.signal);
+    return runConcurrently(
+      n,
+      CONNECTIONS,
+      (i) => this.post(`${this.baseUrls[i % this.baseUrls.length]}/bench/bare-insert`, {}, 200),
+      this.signal,
+    );
   }
 
   /** A fresh recruiting study per round (set up outside the timing), then n people signing at once over HTTP. */
@@ -129,7 +145,8 @@ class SigningBench {
        FROM audit_event WHERE chain = $1`,
       [study.studyId],
     );
-    if (audit.signed !== n || audit.allocated !== n) throw new Error(`expected ${n} signing and ${n} allocation audit events, found ${JSON.stringify(audit)}`);
+    if (audit.signed !== n || audit.allocated !== n)
+      throw new Error(`expected ${n} signing and ${n} allocation audit events, found ${JSON.stringify(audit)}`);
   }
 
   /** As the admin screens do it: conditions, a pretest factor, one step, stratified blocks, open, consent active. */
@@ -146,17 +163,34 @@ class SigningBench {
       targetSize: n,
     });
     for (const name of ['cue-a', 'cue-b']) {
-      await this.studies.createCondition(researcher, study.id, { internalName: name, participantLabel: `Route guide ${name.slice(-1).toUpperCase()}` });
+      await this.studies.createCondition(researcher, study.id, {
+        internalName: name,
+        participantLabel: `Route guide ${name.slice(-1).toUpperCase()}`,
+      });
     }
-    await this.studies.replaceFactors(researcher, study.id, [{ key: 'pretest', label: 'Pretest score (0–100)', kind: 'numeric', cutPoints: [PRETEST_CUT] }]);
+    await this.studies.replaceFactors(researcher, study.id, [
+      { key: 'pretest', label: 'Pretest score (0–100)', kind: 'numeric', cutPoints: [PRETEST_CUT] },
+    ]);
     await this.steps.create(researcher, study.id, { title: 'Session 1', payMinor: 1000 });
     await this.dataSource.transaction(async (manager) => {
       const snapshot = await this.studies.designSnapshot(study.id, manager);
-      await this.randomization.saveScheme(manager, researcher, study.id, 'stratified-blocks', BENCH_SCHEMES['stratified-blocks'], snapshot, false);
+      await this.randomization.saveScheme(
+        manager,
+        researcher,
+        study.id,
+        'stratified-blocks',
+        BENCH_SCHEMES['stratified-blocks'],
+        snapshot,
+        false,
+      );
     });
     const active = await activateBenchConsent(this.app, researcher, study.id, `QREB-BENCH-${this.created}`);
     await this.studies.transition(researcher, study.id, 'open');
-    return { studyId: study.id, version: { versionId: active.id, fingerprint: active.fingerprint }, participants: await this.screenedParticipants(study.id, n) };
+    return {
+      studyId: study.id,
+      version: { versionId: active.id, fingerprint: active.fingerprint },
+      participants: await this.screenedParticipants(study.id, n),
+    };
   }
 
   /** Participants who passed screening, written directly as the roster import does, each with a live session. */
@@ -186,7 +220,10 @@ class SigningBench {
         email: row.email,
         name: '',
         role: 'participant' as const,
-        accessToken: await this.jwt.signAsync({ sub: row.id, role: 'participant', sid: sessions[i].familyId }, { expiresIn: 3600 }),
+        accessToken: await this.jwt.signAsync(
+          { sub: row.id, role: 'participant', sid: sessions[i].familyId },
+          { expiresIn: 3600 },
+        ),
       })),
     ) as Promise<SigningStudy['participants']>;
   }
@@ -237,11 +274,17 @@ async function main(): Promise<number> {
       baseline.push(base.perSecond);
       const sign = await bench.signings(signings);
       signed.push(sign.perSecond);
-      log(`round ${round}/${rounds}: bare INSERT ${base.perSecond.toFixed(0)}/s, signing ${sign.perSecond.toFixed(0)}/s`);
+      log(
+        `round ${round}/${rounds}: bare INSERT ${base.perSecond.toFixed(0)}/s, signing ${sign.perSecond.toFixed(0)}/s`,
+      );
     }
     const pool = (dataSource.driver as PostgresDriver).master as { totalCount: number; options: { max: number } };
-    if (pool.options.max !== CONNECTIONS) throw new Error(`the pool should hold ${CONNECTIONS} connections, but its limit is ${pool.options.max}`);
-    const rows = [reportRow('POST /bench/bare-insert (BEGIN, INSERT, COMMIT)', baseline), reportRow('POST …/enrollments/me/signature (stratified blocks, 2 strata)', signed, baseline)];
+    if (pool.options.max !== CONNECTIONS)
+      throw new Error(`the pool should hold ${CONNECTIONS} connections, but its limit is ${pool.options.max}`);
+    const rows = [
+      reportRow('POST /bench/bare-insert (BEGIN, INSERT, COMMIT)', baseline),
+      reportRow('POST …/enrollments/me/signature (stratified blocks, 2 strata)', signed, baseline),
+    ];
     console.log('');
     console.log(
       formatTable({
@@ -251,7 +294,14 @@ async function main(): Promise<number> {
         rows,
       }),
     );
-    const verdicts = [judge({ label: 'signing ÷ bare INSERT, both over HTTP', ratio: rows[1].ratio!, bound: 'at-least', value: SIGNING_TARGET })];
+    const verdicts = [
+      judge({
+        label: 'signing ÷ bare INSERT, both over HTTP',
+        ratio: rows[1].ratio!,
+        bound: 'at-least',
+        value: SIGNING_TARGET,
+      }),
+    ];
     console.log(`\n${formatVerdicts(verdicts)}\n`);
     const rates = (list: number[]) => list.map((v) => Math.round(v));
     console.log(
@@ -263,7 +313,11 @@ async function main(): Promise<number> {
         rounds,
         postgres: await database.serverVersion(),
         baselinePerSecond: { median: Math.round(median(baseline)), rounds: rates(baseline) },
-        signingsPerSecond: { median: Math.round(median(signed)), ratio: Number(rows[1].ratio!.toFixed(4)), rounds: rates(signed) },
+        signingsPerSecond: {
+          median: Math.round(median(signed)),
+          ratio: Number(rows[1].ratio!.toFixed(4)),
+          rounds: rates(signed),
+        },
         target: { atLeast: SIGNING_TARGET, met: verdicts[0].met },
         seconds: Math.round((Date.now() - started) / 100) / 10,
       }),

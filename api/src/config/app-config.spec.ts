@@ -37,7 +37,9 @@ describe('loadConfig', () => {
   it('refuses the benchmark routes in production and keeps them off by default', () => {
     expect(loadConfig({}).benchRoutes).toBe(false);
     expect(loadConfig({ BENCH_ROUTES: 'true' }).benchRoutes).toBe(true);
-    expect(() => loadConfig({ NODE_ENV: 'production', BENCH_ROUTES: 'true' })).toThrow(/BENCH_ROUTES: the benchmark routes may not be served in production/);
+    expect(() => loadConfig({ NODE_ENV: 'production', BENCH_ROUTES: 'true' })).toThrow(
+      /BENCH_ROUTES: the benchmark routes may not be served in production/,
+    );
   });
 
   it('sizes the database pool from DATABASE_POOL_MAX', () => {

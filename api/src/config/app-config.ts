@@ -1,7 +1,18 @@
 import { plainToInstance, Transform } from 'class-transformer';
 import { isIP } from 'node:net';
 import { resolve } from 'node:path';
-import { IsBoolean, IsIn, IsInt, IsString, IsUrl, Max, Min, MinLength, registerDecorator, validateSync } from 'class-validator';
+import {
+  IsBoolean,
+  IsIn,
+  IsInt,
+  IsString,
+  IsUrl,
+  Max,
+  Min,
+  MinLength,
+  registerDecorator,
+  validateSync,
+} from 'class-validator';
 
 /** Secrets that are fine on a developer's machine and must never reach production. */
 export const DEVELOPMENT_SECRETS = {
@@ -37,13 +48,24 @@ function IsProxyList() {
     registerDecorator({
       target: target.constructor,
       propertyName,
-      options: { message: 'must be empty or a comma-separated list of proxy addresses, subnets or loopback/linklocal/uniquelocal' },
-      validator: { validate: (value: unknown) => Array.isArray(value) && value.every((entry) => typeof entry === 'string' && isProxyEntry(entry)) },
+      options: {
+        message:
+          'must be empty or a comma-separated list of proxy addresses, subnets or loopback/linklocal/uniquelocal',
+      },
+      validator: {
+        validate: (value: unknown) =>
+          Array.isArray(value) && value.every((entry) => typeof entry === 'string' && isProxyEntry(entry)),
+      },
     });
 }
 
 const toList = ({ value }: { value: unknown }) =>
-  typeof value === 'string' ? value.split(',').map((entry) => entry.trim()).filter((entry) => entry !== '') : value;
+  typeof value === 'string'
+    ? value
+        .split(',')
+        .map((entry) => entry.trim())
+        .filter((entry) => entry !== '')
+    : value;
 
 /** All run-time settings, read once from the environment at boot and validated. */
 export class AppConfig {
@@ -317,12 +339,15 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env): AppConfig {
   }
   const config = plainToInstance(AppConfig, raw);
   const problems = validateSync(config, { forbidUnknownValues: true }).map(
-    (error) => `${ENVIRONMENT_NAMES[error.property as keyof AppConfig]}: ${Object.values(error.constraints ?? {}).join('; ')}`,
+    (error) =>
+      `${ENVIRONMENT_NAMES[error.property as keyof AppConfig]}: ${Object.values(error.constraints ?? {}).join('; ')}`,
   );
   if (production) {
     for (const [key, value] of Object.entries(DEVELOPMENT_SECRETS)) {
       if ((config as unknown as Record<string, string>)[key] === value) {
-        problems.push(`${ENVIRONMENT_NAMES[key as keyof AppConfig]}: the development default may not be used in production`);
+        problems.push(
+          `${ENVIRONMENT_NAMES[key as keyof AppConfig]}: the development default may not be used in production`,
+        );
       }
     }
     if (config.benchRoutes) problems.push('BENCH_ROUTES: the benchmark routes may not be served in production');

@@ -18,13 +18,19 @@ describe('approvalLetterProblem', () => {
   });
 
   it('refuses a file that only starts like a PDF', async () => {
-    expect(await approvalLetterProblem(Buffer.concat([Buffer.from('%PDF-1.7\n'), Buffer.alloc(4000, 0x41)]), 'x.pdf')).toMatchObject({ field: 'letter' });
-    expect(await approvalLetterProblem(Buffer.from('%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n', 'latin1'), 'x.pdf')).toMatchObject({ field: 'letter' });
+    expect(
+      await approvalLetterProblem(Buffer.concat([Buffer.from('%PDF-1.7\n'), Buffer.alloc(4000, 0x41)]), 'x.pdf'),
+    ).toMatchObject({ field: 'letter' });
+    expect(
+      await approvalLetterProblem(Buffer.from('%PDF-1.4\n1 0 obj<<>>endobj\ntrailer<<>>\n%%EOF\n', 'latin1'), 'x.pdf'),
+    ).toMatchObject({ field: 'letter' });
   });
 
   it('refuses a PDF without pages, a non-PDF and an unstorable file name', async () => {
     const empty = await PDFDocument.create();
-    expect(await approvalLetterProblem(Buffer.from(await empty.save({ addDefaultPage: false })), 'x.pdf')).toMatchObject({ message: expect.stringMatching(/without any page/) });
+    expect(
+      await approvalLetterProblem(Buffer.from(await empty.save({ addDefaultPage: false })), 'x.pdf'),
+    ).toMatchObject({ message: expect.stringMatching(/without any page/) });
     expect(await approvalLetterProblem(Buffer.from('hello'), 'x.pdf')).toMatchObject({ field: 'letter' });
     expect(await approvalLetterProblem(ONE_PAGE, 'x\u0000.pdf')).toMatchObject({ field: 'letter' });
   });

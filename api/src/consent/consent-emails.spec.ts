@@ -23,10 +23,14 @@ describe('participant e-mails', () => {
     });
     expect(mail.subject).toBe('Your signed consent form for Wayfinding cues');
     expect(mail.text).toContain('Hello Noor Adebayo-Lindqvist,');
-    expect(mail.text).toContain('Attached is a PDF copy of the consent form you signed on 2025-03-14 09:26:53 UTC (10:26:53 in Europe/Berlin, UTC+01:00) (form version 2).');
+    expect(mail.text).toContain(
+      'Attached is a PDF copy of the consent form you signed on 2025-03-14 09:26:53 UTC (10:26:53 in Europe/Berlin, UTC+01:00) (form version 2).',
+    );
     expect(mail.text).toContain(fingerprint);
     expect(mail.text).toContain('open your study page (http://127.0.0.1:5173/studies/wayfinding-cues)');
-    expect(mail.html).toContain('<a href="http://127.0.0.1:5173/studies/wayfinding-cues" rel="noopener noreferrer">open your study page</a>');
+    expect(mail.html).toContain(
+      '<a href="http://127.0.0.1:5173/studies/wayfinding-cues" rel="noopener noreferrer">open your study page</a>',
+    );
     expect(mail.text + mail.html).not.toContain('STAFF NOTICE');
   });
 
@@ -45,15 +49,26 @@ describe('participant e-mails', () => {
     const mail = renderEmail('email/withdrawal-confirmation', view);
     expect(mail.subject).toBe('You have stopped taking part in Wayfinding cues');
     expect(mail.text).toMatch(/^Hello,\n/);
-    expect(mail.text).toContain('• Earned for completed steps: $25.00\n• Already paid: $10.00\n• Still to be paid to you: $15.00');
+    expect(mail.text).toContain(
+      '• Earned for completed steps: $25.00\n• Already paid: $10.00\n• Still to be paid to you: $15.00',
+    );
     expect(mail.text).toContain('The amount still owed is sent by bank transfer within 7 days.');
 
-    const settled = renderEmail('email/withdrawal-confirmation', { ...view, owedAmount: formatMoney(0, 'USD'), hasOwedAmount: false });
+    const settled = renderEmail('email/withdrawal-confirmation', {
+      ...view,
+      owedAmount: formatMoney(0, 'USD'),
+      hasOwedAmount: false,
+    });
     expect(settled.text).not.toContain('The amount still owed');
   });
 
   it('re-consent request and invitation fill their own fields', () => {
-    const reconsent = renderEmail('email/re-consent-request', { ...common, formVersion: 3, ethicsBoardName: 'the Harbor Lane Research Ethics Board', changeSummary: 'Session 2 is now 10 minutes shorter.' });
+    const reconsent = renderEmail('email/re-consent-request', {
+      ...common,
+      formVersion: 3,
+      ethicsBoardName: 'the Harbor Lane Research Ethics Board',
+      changeSummary: 'Session 2 is now 10 minutes shorter.',
+    });
     expect(reconsent.text).toContain('the new version (3) has been approved by the Harbor Lane Research Ethics Board.');
     expect(reconsent.text).toContain('What changed: Session 2 is now 10 minutes shorter.');
 
@@ -70,11 +85,25 @@ describe('participant e-mails', () => {
   });
 
   it('keeps a subject on one line whatever the study title holds', () => {
-    const mail = renderEmail('email/signed-copy', { ...common, studyTitle: 'Cues\r\nBcc: someone@else.test', signedAt: 'x', formVersion: 1, textFingerprint: 'b'.repeat(64) });
+    const mail = renderEmail('email/signed-copy', {
+      ...common,
+      studyTitle: 'Cues\r\nBcc: someone@else.test',
+      signedAt: 'x',
+      formVersion: 1,
+      textFingerprint: 'b'.repeat(64),
+    });
     expect(mail.subject).toBe('Your signed consent form for Cues Bcc: someone@else.test');
   });
 
   it('refuses a portal address that is not an absolute web address', () => {
-    expect(() => renderEmail('email/signed-copy', { ...common, portalUrl: '/studies/x', signedAt: 'x', formVersion: 1, textFingerprint: 'c'.repeat(64) })).toThrow(ConsentError);
+    expect(() =>
+      renderEmail('email/signed-copy', {
+        ...common,
+        portalUrl: '/studies/x',
+        signedAt: 'x',
+        formVersion: 1,
+        textFingerprint: 'c'.repeat(64),
+      }),
+    ).toThrow(ConsentError);
   });
 });

@@ -19,7 +19,11 @@ type EmailCommonView = {
   portalUrl: string;
 };
 
-export type SignedCopyEmailView = EmailCommonView & { signedAt: string; formVersion: string | number; textFingerprint: string };
+export type SignedCopyEmailView = EmailCommonView & {
+  signedAt: string;
+  formVersion: string | number;
+  textFingerprint: string;
+};
 export type WithdrawalConfirmationEmailView = EmailCommonView & {
   withdrawnAt: string;
   earnedAmount: string;
@@ -29,7 +33,11 @@ export type WithdrawalConfirmationEmailView = EmailCommonView & {
   paymentMethod: string;
   paymentDays: number;
 };
-export type ReConsentRequestEmailView = EmailCommonView & { formVersion: string | number; ethicsBoardName: string; changeSummary: string };
+export type ReConsentRequestEmailView = EmailCommonView & {
+  formVersion: string | number;
+  ethicsBoardName: string;
+  changeSummary: string;
+};
 export type StudyInvitationEmailView = EmailCommonView & {
   institutionName: string;
   studySummary: string;
@@ -61,7 +69,10 @@ export interface RenderedEmail {
 export function renderEmail<K extends EmailTemplateId>(templateId: K, view: EmailViews[K]): RenderedEmail {
   const template = findTemplate(templateId);
   const templateView = view as unknown as TemplateView;
-  const body = renderedConsentText(renderTemplate(readTemplateSource(templateId), templateView, 'markdown', templateId), templateId);
+  const body = renderedConsentText(
+    renderTemplate(readTemplateSource(templateId), templateView, 'markdown', templateId),
+    templateId,
+  );
   return {
     templateId,
     subject: renderTemplate(template.subject ?? '', templateView, 'plain', `${templateId} subject`),

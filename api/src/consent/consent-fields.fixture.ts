@@ -11,12 +11,18 @@ export const wayfindingConsentFields: ConsentTemplateFields = {
   contactPhone: null,
   ethicsBoardName: 'the Harbor Lane Research Ethics Board',
   ethicsBoardContact: 'ethics-board@harbor-lane.test',
-  studyPurpose: 'We want to learn whether sound cues or map cues help people find their way through an unfamiliar virtual town.',
+  studyPurpose:
+    'We want to learn whether sound cues or map cues help people find their way through an unfamiliar virtual town.',
   estimatedMinutes: null,
   targetSize: 180,
   steps: [
     { title: 'Session 1: practice town', payMinor: 1000, estimatedMinutes: 20 },
-    { title: 'Session 2: test town', description: 'You find five landmarks in a new town.', payMinor: 1500, estimatedMinutes: 30 },
+    {
+      title: 'Session 2: test town',
+      description: 'You find five landmarks in a new town.',
+      payMinor: 1500,
+      estimatedMinutes: 30,
+    },
     { title: 'Follow-up questionnaire', payMinor: 500, estimatedMinutes: 10 },
   ],
   currency: 'USD',

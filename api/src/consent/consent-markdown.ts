@@ -12,7 +12,33 @@ type Token = ReturnType<MarkdownIt['parse']>[number];
 const markdown = new MarkdownIt({ html: false, linkify: false, typographer: false });
 
 const SANITIZE_OPTIONS: sanitizeHtml.IOptions = {
-  allowedTags: ['h1', 'h2', 'h3', 'h4', 'h5', 'h6', 'p', 'br', 'hr', 'ul', 'ol', 'li', 'strong', 'em', 's', 'code', 'pre', 'blockquote', 'a', 'table', 'thead', 'tbody', 'tr', 'th', 'td'],
+  allowedTags: [
+    'h1',
+    'h2',
+    'h3',
+    'h4',
+    'h5',
+    'h6',
+    'p',
+    'br',
+    'hr',
+    'ul',
+    'ol',
+    'li',
+    'strong',
+    'em',
+    's',
+    'code',
+    'pre',
+    'blockquote',
+    'a',
+    'table',
+    'thead',
+    'tbody',
+    'tr',
+    'th',
+    'td',
+  ],
   allowedAttributes: { a: ['href', 'rel'], ol: ['start'], th: ['style'], td: ['style'] },
   allowedStyles: { '*': { 'text-align': [/^(left|right|center)$/] } },
   allowedSchemes: ['https', 'http', 'mailto'],
@@ -123,7 +149,11 @@ export function consentTextBlocks(markdownSource: string): ConsentTextBlock[] {
         break;
       case 'inline':
         if (cells) {
-          cells.push(inlineRuns(token).map((r) => r.text).join(''));
+          cells.push(
+            inlineRuns(token)
+              .map((r) => r.text)
+              .join(''),
+          );
         } else {
           blocks.push({ kind: 'paragraph', runs: inlineRuns(token), depth, marker: pendingMarker });
           pendingMarker = null;
@@ -131,14 +161,24 @@ export function consentTextBlocks(markdownSource: string): ConsentTextBlock[] {
         break;
       case 'fence':
       case 'code_block':
-        blocks.push({ kind: 'paragraph', runs: [{ text: token.content.replace(/\n$/, ''), bold: false }], depth, marker: pendingMarker });
+        blocks.push({
+          kind: 'paragraph',
+          runs: [{ text: token.content.replace(/\n$/, ''), bold: false }],
+          depth,
+          marker: pendingMarker,
+        });
         pendingMarker = null;
         break;
       case 'tr_open':
         cells = [];
         break;
       case 'tr_close':
-        blocks.push({ kind: 'paragraph', runs: [{ text: (cells ?? []).join(' | '), bold: false }], depth, marker: null });
+        blocks.push({
+          kind: 'paragraph',
+          runs: [{ text: (cells ?? []).join(' | '), bold: false }],
+          depth,
+          marker: null,
+        });
         cells = null;
         break;
       case 'hr':
@@ -163,7 +203,8 @@ export function renderConsentPlainText(markdownSource: string): string {
     } else {
       const content = block.runs.map((run) => run.text).join('');
       const indent = block.kind === 'paragraph' ? '  '.repeat(Math.max(0, block.depth - 1)) : '';
-      text += block.kind === 'paragraph' && block.marker ? `${indent}${block.marker} ${content}` : `${indent}${content}`;
+      text +=
+        block.kind === 'paragraph' && block.marker ? `${indent}${block.marker} ${content}` : `${indent}${content}`;
     }
     previousWasListItem = isListItem;
   }

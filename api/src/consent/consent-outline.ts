@@ -35,7 +35,9 @@ export interface ConsentOutline {
 
 function inlineText(token: Token | undefined): string {
   return (token?.children ?? [])
-    .map((child) => (child.type === 'text' || child.type === 'code_inline' ? child.content : child.type === 'softbreak' ? ' ' : ''))
+    .map((child) =>
+      child.type === 'text' || child.type === 'code_inline' ? child.content : child.type === 'softbreak' ? ' ' : '',
+    )
     .join('')
     .trim();
 }
@@ -60,15 +62,26 @@ export function outlineConsent(markdownSource: string, field = 'body'): ConsentO
       if (level === 1 && title === null && sections.length === 0 && preambleWords === 0) {
         title = inlineText(inline);
       } else {
-        const markers = (inline.children ?? []).filter((c) => c.type === 'html_inline').flatMap((c) => markersIn(c.content));
-        sections.push({ heading: inlineText(inline), level, line: (token.map?.[0] ?? 0) + 1, markers, ownWords: 0, words: 0 });
+        const markers = (inline.children ?? [])
+          .filter((c) => c.type === 'html_inline')
+          .flatMap((c) => markersIn(c.content));
+        sections.push({
+          heading: inlineText(inline),
+          level,
+          line: (token.map?.[0] ?? 0) + 1,
+          markers,
+          ownWords: 0,
+          words: 0,
+        });
       }
       i += 2;
     } else if (token.type === 'html_block') {
       current()?.markers.push(...markersIn(token.content));
     } else if (token.type === 'inline') {
       const words = countWords(inlineText(token));
-      const markers = (token.children ?? []).filter((c) => c.type === 'html_inline').flatMap((c) => markersIn(c.content));
+      const markers = (token.children ?? [])
+        .filter((c) => c.type === 'html_inline')
+        .flatMap((c) => markersIn(c.content));
       const section = current();
       if (section) {
         section.ownWords += words;
@@ -85,7 +98,8 @@ export function outlineConsent(markdownSource: string, field = 'body'): ConsentO
 
   sections.forEach((section, index) => {
     section.words = section.ownWords;
-    for (let j = index + 1; j < sections.length && sections[j].level > section.level; j += 1) section.words += sections[j].ownWords;
+    for (let j = index + 1; j < sections.length && sections[j].level > section.level; j += 1)
+      section.words += sections[j].ownWords;
   });
   return { title, preambleWords, sections };
 }

@@ -54,7 +54,13 @@ function text(value: string | null | undefined, label: string): string | Markdow
   return typeof value === 'string' && value.trim() !== '' ? value : toFill(label);
 }
 
-function count(value: number | null | undefined, label: string, field: string, errors: FieldError[], min = 1): string | MarkdownFragment {
+function count(
+  value: number | null | undefined,
+  label: string,
+  field: string,
+  errors: FieldError[],
+  min = 1,
+): string | MarkdownFragment {
   if (value === null || value === undefined) return toFill(label);
   if (!Number.isSafeInteger(value) || value < min) {
     errors.push({ field, message: `must be a whole number ≥ ${min}, got ${String(value)}` });
@@ -65,37 +71,66 @@ function count(value: number | null | undefined, label: string, field: string, e
 
 export function consentTemplateView(fields: ConsentTemplateFields): TemplateView {
   const errors: FieldError[] = [];
-  if (typeof fields?.studyTitle !== 'string' || fields.studyTitle.trim() === '') errors.push({ field: 'studyTitle', message: 'is required' });
-  if (!Array.isArray(fields?.steps) || fields.steps.length === 0) errors.push({ field: 'steps', message: 'must list at least one step with its pay' });
+  if (typeof fields?.studyTitle !== 'string' || fields.studyTitle.trim() === '')
+    errors.push({ field: 'studyTitle', message: 'is required' });
+  if (!Array.isArray(fields?.steps) || fields.steps.length === 0)
+    errors.push({ field: 'steps', message: 'must list at least one step with its pay' });
   if (typeof fields?.currency !== 'string' || !/^[A-Z]{3}$/.test(fields.currency)) {
-    errors.push({ field: 'currency', message: `must be an ISO 4217 code in capitals such as USD, got ${JSON.stringify(fields?.currency)}` });
+    errors.push({
+      field: 'currency',
+      message: `must be an ISO 4217 code in capitals such as USD, got ${JSON.stringify(fields?.currency)}`,
+    });
   }
-  if (fields?.contactEmail && !EMAIL.test(fields.contactEmail.trim())) errors.push({ field: 'contactEmail', message: 'must be an e-mail address' });
+  if (fields?.contactEmail && !EMAIL.test(fields.contactEmail.trim()))
+    errors.push({ field: 'contactEmail', message: 'must be an e-mail address' });
   if (typeof fields?.futureUseDeidentified !== 'boolean') {
-    errors.push({ field: 'futureUseDeidentified', message: 'must say (true or false) whether de-identified data may be used in future research' });
+    errors.push({
+      field: 'futureUseDeidentified',
+      message: 'must say (true or false) whether de-identified data may be used in future research',
+    });
   }
   const steps = Array.isArray(fields?.steps) ? fields.steps : [];
   steps.forEach((step, i) => {
-    if (typeof step?.title !== 'string' || step.title.trim() === '') errors.push({ field: `steps[${i}].title`, message: 'is required' });
+    if (typeof step?.title !== 'string' || step.title.trim() === '')
+      errors.push({ field: `steps[${i}].title`, message: 'is required' });
     if (!Number.isSafeInteger(step?.payMinor) || step.payMinor < 0) {
-      errors.push({ field: `steps[${i}].payMinor`, message: `must be a whole number of minor units ≥ 0, got ${String(step?.payMinor)}` });
+      errors.push({
+        field: `steps[${i}].payMinor`,
+        message: `must be a whole number of minor units ≥ 0, got ${String(step?.payMinor)}`,
+      });
     }
     if (step?.estimatedMinutes != null && (!Number.isSafeInteger(step.estimatedMinutes) || step.estimatedMinutes < 1)) {
-      errors.push({ field: `steps[${i}].estimatedMinutes`, message: `must be a whole number of minutes ≥ 1, got ${String(step.estimatedMinutes)}` });
+      errors.push({
+        field: `steps[${i}].estimatedMinutes`,
+        message: `must be a whole number of minutes ≥ 1, got ${String(step.estimatedMinutes)}`,
+      });
     }
   });
-  if (fields?.estimatedMinutes != null && (!Number.isSafeInteger(fields.estimatedMinutes) || fields.estimatedMinutes < 1)) {
-    errors.push({ field: 'estimatedMinutes', message: `must be a whole number of minutes ≥ 1, got ${String(fields.estimatedMinutes)}` });
+  if (
+    fields?.estimatedMinutes != null &&
+    (!Number.isSafeInteger(fields.estimatedMinutes) || fields.estimatedMinutes < 1)
+  ) {
+    errors.push({
+      field: 'estimatedMinutes',
+      message: `must be a whole number of minutes ≥ 1, got ${String(fields.estimatedMinutes)}`,
+    });
   }
   const targetSize = count(fields?.targetSize, 'approximate number of participants', 'targetSize', errors);
   const paymentDays = count(fields?.paymentDays, 'days within which payment is sent', 'paymentDays', errors);
-  const dataRetentionYears = count(fields?.dataRetentionYears, 'years the records are kept', 'dataRetentionYears', errors);
+  const dataRetentionYears = count(
+    fields?.dataRetentionYears,
+    'years the records are kept',
+    'dataRetentionYears',
+    errors,
+  );
   if (errors.length > 0) throw new ConsentError(ConsentErrorCode.InvalidFields, errors);
 
   const locale = fields.locale ?? 'en-US';
   const money = (minor: number, field: string) => formatMoney(minor, fields.currency, locale, field);
   const stepMinutes = steps.map((s) => s.estimatedMinutes ?? null);
-  const totalMinutes = fields.estimatedMinutes ?? (stepMinutes.every((m) => m !== null) ? stepMinutes.reduce((a, m) => a + (m ?? 0), 0) : null);
+  const totalMinutes =
+    fields.estimatedMinutes ??
+    (stepMinutes.every((m) => m !== null) ? stepMinutes.reduce((a, m) => a + (m ?? 0), 0) : null);
   const include = fields.include ?? {};
 
   return {
@@ -118,7 +153,10 @@ export function consentTemplateView(fields: ConsentTemplateFields): TemplateView
       pay: money(step.payMinor, `steps[${i}].payMinor`),
       minutes: step.estimatedMinutes ?? null,
     })),
-    totalPay: money(steps.reduce((sum, step) => sum + step.payMinor, 0), 'steps'),
+    totalPay: money(
+      steps.reduce((sum, step) => sum + step.payMinor, 0),
+      'steps',
+    ),
     paymentMethod: text(fields.paymentMethod, 'how payment is sent'),
     paymentDays,
     dataRetentionYears,
@@ -136,9 +174,17 @@ export function fillConsentTemplate(fields: ConsentTemplateFields, templateId = 
   try {
     kind = findTemplate(templateId).kind;
   } catch (error: unknown) {
-    throw new ConsentError(ConsentErrorCode.InvalidTemplate, [{ field: 'templateId', message: error instanceof Error ? error.message.replace(/^templateId: /, '') : String(error) }]);
+    throw new ConsentError(ConsentErrorCode.InvalidTemplate, [
+      {
+        field: 'templateId',
+        message: error instanceof Error ? error.message.replace(/^templateId: /, '') : String(error),
+      },
+    ]);
   }
-  if (kind !== 'consent') throw new ConsentError(ConsentErrorCode.InvalidTemplate, [{ field: 'templateId', message: `"${templateId}" is not a consent form template` }]);
+  if (kind !== 'consent')
+    throw new ConsentError(ConsentErrorCode.InvalidTemplate, [
+      { field: 'templateId', message: `"${templateId}" is not a consent form template` },
+    ]);
   return fillConsentTemplateSource(readTemplateSource(templateId), fields);
 }
 

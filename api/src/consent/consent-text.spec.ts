@@ -4,7 +4,8 @@ import { isFingerprint, renderedConsentText, renderedTextFingerprint } from './c
 
 describe('rendered consent text', () => {
   it('drops staff comments and normalizes line endings, trailing spaces and blank lines', () => {
-    const source = '<!--\nSTAFF NOTICE\n-->\r\n\r\n# Title  \r\n\r\n\r\n\r\n## Key information\r\n<!-- element: key-information -->\r\nText.\t\r\n';
+    const source =
+      '<!--\nSTAFF NOTICE\n-->\r\n\r\n# Title  \r\n\r\n\r\n\r\n## Key information\r\n<!-- element: key-information -->\r\nText.\t\r\n';
     expect(renderedConsentText(source)).toBe('# Title\n\n## Key information\n\nText.\n');
   });
 
@@ -19,7 +20,9 @@ describe('rendered consent text', () => {
   });
 
   it('refuses a comment that is never closed, naming the field', () => {
-    expect(() => renderedConsentText('Text <!-- open', 'body')).toThrow(/^body: has a comment opened with "<!--" that is never closed/);
+    expect(() => renderedConsentText('Text <!-- open', 'body')).toThrow(
+      /^body: has a comment opened with "<!--" that is never closed/,
+    );
   });
 
   it('refuses a form that is empty once comments are removed', () => {
@@ -32,7 +35,9 @@ describe('renderedTextFingerprint', () => {
     // Reference: GNU coreutils, `printf 'abc\n' | sha256sum`.
     expect(renderedTextFingerprint('abc\n')).toBe('edeaaff3f1774ad2888673770c6d64097e391bc362d7d6fb34982ddf0efd18cb');
     // Reference: `printf 'caf\xc3\xa9\n' | sha256sum` — "é" as the two UTF-8 bytes C3 A9.
-    expect(renderedTextFingerprint('caf\u00e9\n')).toBe('7b49b9e063bd91a4f9252b413261f5557b9c570aa61516989499f64a62dbcdd6');
+    expect(renderedTextFingerprint('caf\u00e9\n')).toBe(
+      '7b49b9e063bd91a4f9252b413261f5557b9c570aa61516989499f64a62dbcdd6',
+    );
   });
 
   it('is the same for the same visible form written on Windows and on Linux', () => {

@@ -24,7 +24,11 @@ export function renderedConsentText(markdownSource: string, field = 'body'): str
   if (typeof markdownSource !== 'string') consentFail(ConsentErrorCode.InvalidText, field, 'must be a text');
   const withoutComments = markdownSource.replace(/\r\n?/g, '\n').replace(HTML_COMMENT, '');
   if (withoutComments.includes('<!--')) {
-    consentFail(ConsentErrorCode.InvalidText, field, 'has a comment opened with "<!--" that is never closed with "-->"');
+    consentFail(
+      ConsentErrorCode.InvalidText,
+      field,
+      'has a comment opened with "<!--" that is never closed with "-->"',
+    );
   }
   const text = withoutComments
     .normalize('NFC')

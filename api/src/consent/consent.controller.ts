@@ -1,4 +1,15 @@
-import { Body, Controller, Get, HttpCode, Param, Patch, Post, Res, UploadedFile, UseInterceptors } from '@nestjs/common';
+import {
+  Body,
+  Controller,
+  Get,
+  HttpCode,
+  Param,
+  Patch,
+  Post,
+  Res,
+  UploadedFile,
+  UseInterceptors,
+} from '@nestjs/common';
 import { FileInterceptor } from '@nestjs/platform-express';
 import { ApiBody, ApiConsumes, ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
@@ -44,7 +55,11 @@ export class ConsentController {
   @Roles(...EDITORS)
   @StudyMembersOnly()
   @ApiCreatedResponse({ type: ConsentVersionDto })
-  create(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: CreateConsentVersionDto): Promise<ConsentVersionDto> {
+  create(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: CreateConsentVersionDto,
+  ): Promise<ConsentVersionDto> {
     return this.consent.createDraft(user, studyId, body.templateId, body.values);
   }
 
@@ -52,7 +67,10 @@ export class ConsentController {
   @Roles('coordinator', 'researcher', 'auditor', 'admin')
   @StudyMembersOnly()
   @ApiOkResponse({ type: ConsentVersionDto })
-  async get(@Param('studyId', uuidParam('studyId')) studyId: string, @Param('versionId', uuidParam('versionId')) versionId: string): Promise<ConsentVersionDto> {
+  async get(
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('versionId', uuidParam('versionId')) versionId: string,
+  ): Promise<ConsentVersionDto> {
     return this.consent.toDto(await this.consent.get(studyId, versionId));
   }
 
@@ -88,7 +106,10 @@ export class ConsentController {
   @Roles('coordinator', 'researcher', 'auditor', 'admin')
   @StudyMembersOnly()
   @ApiOkResponse({ type: ConsentCheckDto })
-  check(@Param('studyId', uuidParam('studyId')) studyId: string, @Param('versionId', uuidParam('versionId')) versionId: string): Promise<ConsentCheckDto> {
+  check(
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('versionId', uuidParam('versionId')) versionId: string,
+  ): Promise<ConsentCheckDto> {
     return this.consent.check(studyId, versionId);
   }
 
@@ -97,10 +118,17 @@ export class ConsentController {
   @Roles(...EDITORS)
   @StudyMembersOnly()
   @ApiConsumes('multipart/form-data')
-  @ApiBody({ schema: { type: 'object', properties: { letter: { type: 'string', format: 'binary' } }, required: ['letter'] } })
+  @ApiBody({
+    schema: { type: 'object', properties: { letter: { type: 'string', format: 'binary' } }, required: ['letter'] },
+  })
   @ApiOkResponse({ type: ConsentVersionDto })
   // One byte over the limit is enough for multer to refuse, so nothing larger is ever held or stored.
-  @UseInterceptors(FileInterceptor('letter', { storage: memoryStorage(), limits: { fileSize: MAX_APPROVAL_LETTER_BYTES + 1, files: 1 } }))
+  @UseInterceptors(
+    FileInterceptor('letter', {
+      storage: memoryStorage(),
+      limits: { fileSize: MAX_APPROVAL_LETTER_BYTES + 1, files: 1 },
+    }),
+  )
   upload(
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,
@@ -119,7 +147,9 @@ export class ConsentController {
     @Res() response: Response,
   ): Promise<void> {
     const letter = await this.consent.approvalLetter(studyId, versionId);
-    response.type('application/pdf').setHeader('Content-Disposition', `attachment; filename="${letter.name.replace(/[^\w.-]+/g, '_')}"`);
+    response
+      .type('application/pdf')
+      .setHeader('Content-Disposition', `attachment; filename="${letter.name.replace(/[^\w.-]+/g, '_')}"`);
     response.send(letter.bytes);
   }
 
@@ -128,7 +158,11 @@ export class ConsentController {
   @Roles(...EDITORS)
   @StudyMembersOnly()
   @ApiOkResponse({ type: ConsentVersionDto })
-  activate(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Param('versionId', uuidParam('versionId')) versionId: string): Promise<ConsentVersionDto> {
+  activate(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('versionId', uuidParam('versionId')) versionId: string,
+  ): Promise<ConsentVersionDto> {
     return this.consent.activate(user, studyId, versionId);
   }
 }

@@ -5,5 +5,10 @@ import { StudiesModule } from '../studies';
 import { ConsentController } from './consent.controller';
 import { ConsentService } from './consent.service';
 
-@Module({ imports: [AuditModule, StudiesModule, StepsModule], controllers: [ConsentController], providers: [ConsentService], exports: [ConsentService] })
+@Module({
+  imports: [AuditModule, StudiesModule, StepsModule],
+  controllers: [ConsentController],
+  providers: [ConsentService],
+  exports: [ConsentService],
+})
 export class ConsentModule {}

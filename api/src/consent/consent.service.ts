@@ -27,7 +27,12 @@ function givenFields(values: object): Record<string, unknown> {
   return Object.fromEntries(Object.entries(values).filter(([, value]) => value !== undefined));
 }
 
-export type ActivationListener = (manager: EntityManager, studyId: string, version: ConsentVersionEntity, actor: AuditActor) => Promise<void>;
+export type ActivationListener = (
+  manager: EntityManager,
+  studyId: string,
+  version: ConsentVersionEntity,
+  actor: AuditActor,
+) => Promise<void>;
 
 @Injectable()
 export class ConsentService {
@@ -43,7 +48,8 @@ export class ConsentService {
       key: 'consent',
       label: 'An active consent version',
       order: 4,
-      check: async (manager, studyId) => ((await this.activeVersion(studyId, manager)) ? null : 'activate an approved consent version'),
+      check: async (manager, studyId) =>
+        (await this.activeVersion(studyId, manager)) ? null : 'activate an approved consent version',
     });
   }
 
@@ -53,24 +59,38 @@ export class ConsentService {
   }
 
   listTemplates() {
-    return templates.filter((t) => t.kind === 'consent').map(({ id, title, version, fields, notice }) => ({ id, title, version, fields: [...fields], notice }));
+    return templates
+      .filter((t) => t.kind === 'consent')
+      .map(({ id, title, version, fields, notice }) => ({ id, title, version, fields: [...fields], notice }));
   }
 
   async list(studyId: string): Promise<ConsentVersionDto[]> {
     await this.studies.require(studyId);
-    const versions = await this.dataSource.getRepository(ConsentVersionEntity).find({ where: { studyId }, order: { version: 'DESC' } });
+    const versions = await this.dataSource
+      .getRepository(ConsentVersionEntity)
+      .find({ where: { studyId }, order: { version: 'DESC' } });
     return Promise.all(versions.map((v) => this.toDto(v)));
   }
 
   /** With `lock`, holds the version's row until the transaction ends (activation and refilling take it). */
-  async get(studyId: string, versionId: string, manager: EntityManager = this.dataSource.manager, lock = false): Promise<ConsentVersionEntity> {
-    const version = await manager.findOne(ConsentVersionEntity, { where: { id: versionId, studyId }, ...(lock && { lock: { mode: 'pessimistic_write' as const } }) });
+  async get(
+    studyId: string,
+    versionId: string,
+    manager: EntityManager = this.dataSource.manager,
+    lock = false,
+  ): Promise<ConsentVersionEntity> {
+    const version = await manager.findOne(ConsentVersionEntity, {
+      where: { id: versionId, studyId },
+      ...(lock && { lock: { mode: 'pessimistic_write' as const } }),
+    });
     if (!version) throw new DomainException('NOT_FOUND', 'No such consent version in this study.');
     return version;
   }
 
   async toDto(version: ConsentVersionEntity): Promise<ConsentVersionDto> {
-    const [{ n }] = await this.dataSource.query(`SELECT count(*) AS n FROM signature WHERE consent_version_id = $1`, [version.id]);
+    const [{ n }] = await this.dataSource.query(`SELECT count(*) AS n FROM signature WHERE consent_version_id = $1`, [
+      version.id,
+    ]);
     let previewHtml = '';
     try {
       previewHtml = renderConsentHtml(version.body);
@@ -88,7 +108,11 @@ export class ConsentService {
       approvalReference: version.approvalReference,
       approvedAt: version.approvedAt,
       approvalLetter: version.approvalLetterSha256
-        ? { name: version.approvalLetterName, size: version.approvalLetterSize ?? 0, sha256: version.approvalLetterSha256 }
+        ? {
+            name: version.approvalLetterName,
+            size: version.approvalLetterSize ?? 0,
+            sha256: version.approvalLetterSha256,
+          }
         : null,
       fingerprint: version.fingerprint,
       activeFrom: version.activeFrom?.toISOString() ?? null,
@@ -108,17 +132,32 @@ export class ConsentService {
   }
 
   /** A new draft filled from the template with the study's own fields, plus the values given. */
-  async createDraft(actor: AuditActor, studyId: string, templateId: string, values: ConsentFieldsDto = {}): Promise<ConsentVersionDto> {
+  async createDraft(
+    actor: AuditActor,
+    studyId: string,
+    templateId: string,
+    values: ConsentFieldsDto = {},
+  ): Promise<ConsentVersionDto> {
     const known = templates.find((t) => t.id === templateId && t.kind === 'consent');
     if (!known) {
       throw new DomainException('VALIDATION_FAILED', 'Unknown consent template.', [
-        { field: 'templateId', message: `must be one of ${this.listTemplates().map((t) => t.id).join(', ') || DEFAULT_CONSENT_TEMPLATE_ID}` },
+        {
+          field: 'templateId',
+          message: `must be one of ${
+            this.listTemplates()
+              .map((t) => t.id)
+              .join(', ') || DEFAULT_CONSENT_TEMPLATE_ID
+          }`,
+        },
       ]);
     }
     const body = fillConsentTemplate(await this.templateFields(studyId, values), templateId);
     const created = await this.dataSource.transaction(async (manager) => {
       await manager.query(`SELECT pg_advisory_xact_lock(hashtextextended($1, 0))`, [`consent-version:${studyId}`]);
-      const [{ next }] = await manager.query(`SELECT coalesce(max(version), 0) + 1 AS next FROM consent_version WHERE study_id = $1`, [studyId]);
+      const [{ next }] = await manager.query(
+        `SELECT coalesce(max(version), 0) + 1 AS next FROM consent_version WHERE study_id = $1`,
+        [studyId],
+      );
       const version = await manager.save(
         manager.create(ConsentVersionEntity, {
           studyId,
@@ -130,7 +169,14 @@ export class ConsentService {
           createdBy: actor.id,
         }),
       );
-      await this.audit.record(manager, { chain: studyId, actor, action: 'consent.draft-created', subjectType: 'consent-version', subjectId: version.id, data: { version: version.version, templateId } });
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'consent.draft-created',
+        subjectType: 'consent-version',
+        subjectId: version.id,
+        data: { version: version.version, templateId },
+      });
       return version;
     });
     return this.toDto(created);
@@ -140,12 +186,20 @@ export class ConsentService {
    * Fills a draft in again from its own template, the study's fields and steps as they are now, and the values given
    * (which replace the stored ones). The whole text is replaced, hand edits to the wording included.
    */
-  async refillDraft(actor: AuditActor, studyId: string, versionId: string, values: ConsentFieldsDto): Promise<ConsentVersionDto> {
+  async refillDraft(
+    actor: AuditActor,
+    studyId: string,
+    versionId: string,
+    values: ConsentFieldsDto,
+  ): Promise<ConsentVersionDto> {
     const refilled = await this.dataSource.transaction(async (manager) => {
       // The same row lock activation takes, so a draft cannot be refilled while it is being activated.
       const version = await this.get(studyId, versionId, manager, true);
       if (version.status !== 'draft') {
-        throw new DomainException('CONFLICT', `Version ${version.version} is ${version.status}, so its text is fixed; create a new draft to change the wording.`);
+        throw new DomainException(
+          'CONFLICT',
+          `Version ${version.version} is ${version.status}, so its text is fixed; create a new draft to change the wording.`,
+        );
       }
       version.body = fillConsentTemplate(await this.templateFields(studyId, values, manager), version.templateId);
       version.templateValues = givenFields(values);
@@ -164,7 +218,11 @@ export class ConsentService {
   }
 
   /** What a template is filled with: the study's fields and steps as they are now, plus the values staff gave. */
-  private async templateFields(studyId: string, values: ConsentFieldsDto, manager: EntityManager = this.dataSource.manager): Promise<ConsentTemplateFields> {
+  private async templateFields(
+    studyId: string,
+    values: ConsentFieldsDto,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<ConsentTemplateFields> {
     const study = await this.studies.require(studyId, manager);
     const steps = await this.steps.list(studyId, manager);
     return {
@@ -189,15 +247,26 @@ export class ConsentService {
     };
   }
 
-  async updateDraft(actor: AuditActor, studyId: string, versionId: string, input: UpdateConsentVersionDto): Promise<ConsentVersionDto> {
+  async updateDraft(
+    actor: AuditActor,
+    studyId: string,
+    versionId: string,
+    input: UpdateConsentVersionDto,
+  ): Promise<ConsentVersionDto> {
     const updated = await this.dataSource.transaction(async (manager) => {
       const version = await this.get(studyId, versionId, manager);
-      if (version.status !== 'draft') throw new DomainException('CONFLICT', 'An approved version is fixed; create a new draft to change the wording.');
+      if (version.status !== 'draft')
+        throw new DomainException(
+          'CONFLICT',
+          'An approved version is fixed; create a new draft to change the wording.',
+        );
       if (input.body !== undefined) {
         try {
           renderedConsentText(input.body);
         } catch (error) {
-          throw new DomainException('VALIDATION_FAILED', 'The form text cannot be used.', [{ field: 'body', message: (error as Error).message }]);
+          throw new DomainException('VALIDATION_FAILED', 'The form text cannot be used.', [
+            { field: 'body', message: (error as Error).message },
+          ]);
         }
       }
       const changes = givenFields(input);
@@ -228,23 +297,35 @@ export class ConsentService {
     versionId: string,
     file: { buffer: Buffer; originalname: string; size: number } | undefined,
   ): Promise<ConsentVersionDto> {
-    if (!file) throw new DomainException('VALIDATION_FAILED', 'Attach the approval letter as a PDF file.', [{ field: 'letter', message: 'is required' }]);
+    if (!file)
+      throw new DomainException('VALIDATION_FAILED', 'Attach the approval letter as a PDF file.', [
+        { field: 'letter', message: 'is required' },
+      ]);
     if (file.size === 0 || file.buffer.length === 0) {
       throw new DomainException('VALIDATION_FAILED', 'The file is empty.', [{ field: 'letter', message: 'is empty' }]);
     }
     if (file.size > MAX_APPROVAL_LETTER_BYTES) {
-      throw new DomainException('PAYLOAD_TOO_LARGE', 'The approval letter may be at most 10 MB.', [{ field: 'letter', message: 'is larger than 10 MB' }]);
+      throw new DomainException('PAYLOAD_TOO_LARGE', 'The approval letter may be at most 10 MB.', [
+        { field: 'letter', message: 'is larger than 10 MB' },
+      ]);
     }
     const problem = await approvalLetterProblem(file.buffer, file.originalname);
-    if (problem) throw new DomainException('UNSUPPORTED_MEDIA_TYPE', 'The approval letter must be a PDF file.', [problem]);
+    if (problem)
+      throw new DomainException('UNSUPPORTED_MEDIA_TYPE', 'The approval letter must be a PDF file.', [problem]);
     const sha256 = createHash('sha256').update(file.buffer).digest('hex');
     const updated = await this.dataSource.transaction(async (manager) => {
       const version = await this.get(studyId, versionId, manager);
-      if (version.status !== 'draft') throw new DomainException('CONFLICT', 'The letter of an approved version cannot be replaced.');
+      if (version.status !== 'draft')
+        throw new DomainException('CONFLICT', 'The letter of an approved version cannot be replaced.');
       await manager.update(
         ConsentVersionEntity,
         { id: versionId },
-        { approvalLetter: file.buffer, approvalLetterSha256: sha256, approvalLetterName: file.originalname.slice(0, 200), approvalLetterSize: file.size },
+        {
+          approvalLetter: file.buffer,
+          approvalLetterSha256: sha256,
+          approvalLetterName: file.originalname.slice(0, 200),
+          approvalLetterSize: file.size,
+        },
       );
       await this.audit.record(manager, {
         chain: studyId,
@@ -265,7 +346,8 @@ export class ConsentService {
       .addSelect('v.approvalLetter')
       .where('v.id = :versionId AND v.study_id = :studyId', { versionId, studyId })
       .getOne();
-    if (!row?.approvalLetter) throw new DomainException('NOT_FOUND', 'No approval letter has been uploaded for this version.');
+    if (!row?.approvalLetter)
+      throw new DomainException('NOT_FOUND', 'No approval letter has been uploaded for this version.');
     return { bytes: row.approvalLetter, name: row.approvalLetterName ?? `approval-letter-v${row.version}.pdf` };
   }
 
@@ -277,9 +359,13 @@ export class ConsentService {
     const activated = await this.dataSource.transaction(async (manager) => {
       await this.studies.require(studyId, manager, true);
       const version = await this.get(studyId, versionId, manager, true);
-      if (version.status !== 'draft') throw new DomainException('CONFLICT', `Version ${version.version} is already ${version.status}.`);
+      if (version.status !== 'draft')
+        throw new DomainException('CONFLICT', `Version ${version.version} is already ${version.status}.`);
       const missing = [
-        !version.approvalReference && { field: 'approvalReference', message: 'the ethics approval reference is required' },
+        !version.approvalReference && {
+          field: 'approvalReference',
+          message: 'the ethics approval reference is required',
+        },
         !version.approvedAt && { field: 'approvedAt', message: 'the approval date is required' },
         !version.approvalLetterSha256 && { field: 'letter', message: 'upload the approval letter (PDF) first' },
       ].filter(Boolean) as Array<{ field: string; message: string }>;
@@ -298,9 +384,20 @@ export class ConsentService {
       const previous = await manager.findOne(ConsentVersionEntity, { where: { studyId, status: 'active' } });
       if (previous) {
         await manager.update(ConsentVersionEntity, { id: previous.id }, { status: 'retired', activeTo: now });
-        await this.audit.record(manager, { chain: studyId, actor, action: 'consent.retired', subjectType: 'consent-version', subjectId: previous.id, data: { version: previous.version } });
+        await this.audit.record(manager, {
+          chain: studyId,
+          actor,
+          action: 'consent.retired',
+          subjectType: 'consent-version',
+          subjectId: previous.id,
+          data: { version: previous.version },
+        });
       }
-      await manager.update(ConsentVersionEntity, { id: versionId }, { status: 'active', renderedText, fingerprint, activeFrom: now });
+      await manager.update(
+        ConsentVersionEntity,
+        { id: versionId },
+        { status: 'active', renderedText, fingerprint, activeFrom: now },
+      );
       const active = (await manager.findOne(ConsentVersionEntity, { where: { id: versionId } }))!;
       await this.audit.record(manager, {
         chain: studyId,
@@ -308,7 +405,12 @@ export class ConsentService {
         action: 'consent.activated',
         subjectType: 'consent-version',
         subjectId: versionId,
-        data: { version: active.version, fingerprint, approvalReference: active.approvalReference, letterSha256: active.approvalLetterSha256 },
+        data: {
+          version: active.version,
+          fingerprint,
+          approvalReference: active.approvalReference,
+          letterSha256: active.approvalLetterSha256,
+        },
       });
       for (const listener of this.activationListeners) await listener(manager, studyId, active, actor);
       return active;
@@ -317,8 +419,14 @@ export class ConsentService {
   }
 
   /** The version people sign now, read with a share lock so an activation cannot slip in mid-signature. */
-  async activeVersion(studyId: string, manager: EntityManager = this.dataSource.manager, lock = false): Promise<ConsentVersionEntity | null> {
-    const builder = manager.createQueryBuilder(ConsentVersionEntity, 'v').where("v.study_id = :studyId AND v.status = 'active'", { studyId });
+  async activeVersion(
+    studyId: string,
+    manager: EntityManager = this.dataSource.manager,
+    lock = false,
+  ): Promise<ConsentVersionEntity | null> {
+    const builder = manager
+      .createQueryBuilder(ConsentVersionEntity, 'v')
+      .where("v.study_id = :studyId AND v.status = 'active'", { studyId });
     if (lock) builder.setLock('pessimistic_read');
     return builder.getOne();
   }
@@ -354,15 +462,21 @@ export class ConsentService {
     manager: EntityManager,
     studyId: string,
     enrollmentId: string,
-  ): Promise<{ version: Pick<ConsentVersionEntity, 'id' | 'version' | 'fingerprint'>; existing: SignatureEntity | null } | null> {
-    const [row]: Array<{ id: string; version: number; fingerprint: string | null; signature_id: string | null }> = await manager.query(
-      `SELECT v.id, v.version, v.fingerprint, s.id AS signature_id
+  ): Promise<{
+    version: Pick<ConsentVersionEntity, 'id' | 'version' | 'fingerprint'>;
+    existing: SignatureEntity | null;
+  } | null> {
+    const [row]: Array<{ id: string; version: number; fingerprint: string | null; signature_id: string | null }> =
+      await manager.query(
+        `SELECT v.id, v.version, v.fingerprint, s.id AS signature_id
        FROM consent_version v LEFT JOIN signature s ON s.consent_version_id = v.id AND s.enrollment_id = $2
        WHERE v.study_id = $1 AND v.status = 'active' FOR SHARE OF v`,
-      [studyId, enrollmentId],
-    );
+        [studyId, enrollmentId],
+      );
     if (!row) return null;
-    const existing = row.signature_id ? await manager.findOne(SignatureEntity, { where: { id: row.signature_id } }) : null;
+    const existing = row.signature_id
+      ? await manager.findOne(SignatureEntity, { where: { id: row.signature_id } })
+      : null;
     return { version: { id: row.id, version: row.version, fingerprint: row.fingerprint }, existing };
   }
 
@@ -372,7 +486,15 @@ export class ConsentService {
 
   async recordSignature(
     manager: EntityManager,
-    input: { enrollmentId: string; version: Pick<ConsentVersionEntity, 'id' | 'fingerprint'>; typedName: string; mark: string | null; timeZone: string | null; ip: string | null; userAgent: string | null },
+    input: {
+      enrollmentId: string;
+      version: Pick<ConsentVersionEntity, 'id' | 'fingerprint'>;
+      typedName: string;
+      mark: string | null;
+      timeZone: string | null;
+      ip: string | null;
+      userAgent: string | null;
+    },
   ): Promise<SignatureEntity> {
     return manager.save(
       manager.create(SignatureEntity, {
@@ -391,11 +513,17 @@ export class ConsentService {
   }
 
   signatureWithPdf(signatureId: string): Promise<SignatureEntity | null> {
-    return this.dataSource.createQueryBuilder(SignatureEntity, 's').addSelect('s.pdf').where('s.id = :signatureId', { signatureId }).getOne();
+    return this.dataSource
+      .createQueryBuilder(SignatureEntity, 's')
+      .addSelect('s.pdf')
+      .where('s.id = :signatureId', { signatureId })
+      .getOne();
   }
 
   async storeSignedPdf(signatureId: string, pdf: Buffer, sha256: string): Promise<void> {
-    await this.dataSource.getRepository(SignatureEntity).update({ id: signatureId, pdfSha256: IsNull() }, { pdf, pdfSha256: sha256, pdfReadyAt: new Date() });
+    await this.dataSource
+      .getRepository(SignatureEntity)
+      .update({ id: signatureId, pdfSha256: IsNull() }, { pdf, pdfSha256: sha256, pdfReadyAt: new Date() });
   }
 
   async markCopyEmailed(signatureId: string): Promise<void> {
@@ -406,7 +534,10 @@ export class ConsentService {
     return this.dataSource.getRepository(SignatureEntity).find({ where: { enrollmentId }, order: { signedAt: 'ASC' } });
   }
 
-  async signedPdf(enrollmentId: string, signatureId?: string): Promise<{ bytes: Buffer; sha256: string; version: number } | null> {
+  async signedPdf(
+    enrollmentId: string,
+    signatureId?: string,
+  ): Promise<{ bytes: Buffer; sha256: string; version: number } | null> {
     const builder = this.dataSource
       .createQueryBuilder(SignatureEntity, 's')
       .addSelect('s.pdf')

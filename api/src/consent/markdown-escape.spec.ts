@@ -12,29 +12,49 @@ const MARKDOWN_PUNCTUATION = [...'\\`*_{}[]()<>#+-=.!|~&:;/"\' 019aZé'];
 describe('escapeMarkdownText', () => {
   it('renders any value as its literal text, whatever Markdown punctuation it holds (checked against markdown-it)', () => {
     fc.assert(
-      fc.property(fc.string({ unit: fc.constantFrom(...MARKDOWN_PUNCTUATION, '\n', '\t'), minLength: 1, maxLength: 24 }), (value) => {
-        const literal = singleLine(value);
-        fc.pre(literal !== '');
-        expect(reference.render(escapeMarkdownText(value))).toBe(asLiteralParagraph(literal));
-      }),
+      fc.property(
+        fc.string({ unit: fc.constantFrom(...MARKDOWN_PUNCTUATION, '\n', '\t'), minLength: 1, maxLength: 24 }),
+        (value) => {
+          const literal = singleLine(value);
+          fc.pre(literal !== '');
+          expect(reference.render(escapeMarkdownText(value))).toBe(asLiteralParagraph(literal));
+        },
+      ),
       { numRuns: 3000 },
     );
   });
 
   it('also renders literally after template text on the same line and as a list item', () => {
     fc.assert(
-      fc.property(fc.string({ unit: fc.constantFrom(...MARKDOWN_PUNCTUATION), minLength: 1, maxLength: 16 }), (value) => {
-        const literal = singleLine(value);
-        fc.pre(literal !== '');
-        expect(reference.render(`Protocol ${escapeMarkdownText(value)}`)).toBe(asLiteralParagraph(`Protocol ${literal}`));
-        expect(reference.render(`- ${escapeMarkdownText(value)}`)).toBe(`<ul>\n<li>${reference.utils.escapeHtml(literal)}</li>\n</ul>\n`);
-      }),
+      fc.property(
+        fc.string({ unit: fc.constantFrom(...MARKDOWN_PUNCTUATION), minLength: 1, maxLength: 16 }),
+        (value) => {
+          const literal = singleLine(value);
+          fc.pre(literal !== '');
+          expect(reference.render(`Protocol ${escapeMarkdownText(value)}`)).toBe(
+            asLiteralParagraph(`Protocol ${literal}`),
+          );
+          expect(reference.render(`- ${escapeMarkdownText(value)}`)).toBe(
+            `<ul>\n<li>${reference.utils.escapeHtml(literal)}</li>\n</ul>\n`,
+          );
+        },
+      ),
       { numRuns: 2000 },
     );
   });
 
   it('neutralises the usual ways a field could inject markup', () => {
-    for (const value of ['<script>alert(1)</script>', '[click](javascript:alert(1))', '**bold**', '# Heading', '1. first', '&copy; 2025', '| a | b |', '```code```', '{{studyTitle}}']) {
+    for (const value of [
+      '<script>alert(1)</script>',
+      '[click](javascript:alert(1))',
+      '**bold**',
+      '# Heading',
+      '1. first',
+      '&copy; 2025',
+      '| a | b |',
+      '```code```',
+      '{{studyTitle}}',
+    ]) {
       expect(reference.render(escapeMarkdownText(value))).toBe(asLiteralParagraph(value));
     }
   });
@@ -48,11 +68,15 @@ describe('escapeMarkdownText', () => {
 
 describe('markdownLinkDestination', () => {
   it('accepts absolute http(s) and mailto addresses and percent-encodes what would end a Markdown link', () => {
-    expect(markdownLinkDestination('https://portal.test/studies/wayfinding-cues?from=mail')).toBe('https://portal.test/studies/wayfinding-cues?from=mail');
+    expect(markdownLinkDestination('https://portal.test/studies/wayfinding-cues?from=mail')).toBe(
+      'https://portal.test/studies/wayfinding-cues?from=mail',
+    );
     const destination = markdownLinkDestination('https://portal.test/a (b)/<c>');
     expect(destination).toBe('https://portal.test/a%20%28b%29/%3Cc%3E');
     // markdown-it keeps the whole address inside the link.
-    expect(reference.render(`[x](${destination})`)).toBe('<p><a href="https://portal.test/a%20%28b%29/%3Cc%3E">x</a></p>\n');
+    expect(reference.render(`[x](${destination})`)).toBe(
+      '<p><a href="https://portal.test/a%20%28b%29/%3Cc%3E">x</a></p>\n',
+    );
   });
 
   it('refuses relative and script addresses', () => {

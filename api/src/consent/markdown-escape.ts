@@ -12,7 +12,10 @@
 const ALWAYS_ESCAPED = /[\\`*_{}[\]<>|~&]/g;
 
 export function singleLine(value: string): string {
-  return value.replace(/[\u0000-\u001f\u007f\u2028\u2029]+/g, ' ').replace(/ {2,}/g, ' ').trim();
+  return value
+    .replace(/[\u0000-\u001f\u007f\u2028\u2029]+/g, ' ')
+    .replace(/ {2,}/g, ' ')
+    .trim();
 }
 
 export function escapeMarkdownText(value: string): string {

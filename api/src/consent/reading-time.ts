@@ -24,9 +24,16 @@ export interface ReadingTimeEstimate {
 }
 
 /** Whole minutes, rounded up; at least one minute for any text. Counts what the participant sees (no staff comments). */
-export function estimateReadingTime(markdownSource: string, wordsPerMinute = SILENT_READING_WORDS_PER_MINUTE): ReadingTimeEstimate {
+export function estimateReadingTime(
+  markdownSource: string,
+  wordsPerMinute = SILENT_READING_WORDS_PER_MINUTE,
+): ReadingTimeEstimate {
   if (!Number.isFinite(wordsPerMinute) || wordsPerMinute <= 0) {
-    consentFail(ConsentErrorCode.InvalidFields, 'wordsPerMinute', `must be a positive number, got ${String(wordsPerMinute)}`);
+    consentFail(
+      ConsentErrorCode.InvalidFields,
+      'wordsPerMinute',
+      `must be a positive number, got ${String(wordsPerMinute)}`,
+    );
   }
   const text = consentTextBlocks(markdownSource)
     .map((block) => (block.kind === 'rule' ? '' : block.runs.map((run) => run.text).join('')))

@@ -73,7 +73,11 @@ describe('required elements of informed consent (45 CFR 46.116(a)(5)(i) and (b)(
     const [keyInformation, purpose, ...rest] = sections;
     const report = checkRequiredElements(join(head, [purpose, keyInformation, ...rest]));
     expect(report.findings).toHaveLength(1);
-    expect(report.findings[0]).toMatchObject({ code: 'key-information-not-first', element: 'key-information', citation: '45 CFR 46.116(a)(5)(i)' });
+    expect(report.findings[0]).toMatchObject({
+      code: 'key-information-not-first',
+      element: 'key-information',
+      citation: '45 CFR 46.116(a)(5)(i)',
+    });
     expect(report.findings[0].message).toBe(
       `Key information (45 CFR 46.116(a)(5)(i)) must begin the form, but the section "What the study is about and what you will do" comes before it. ` +
         `Move "Key information about this study" (line ${report.findings[0].line}) so it is the first section after the title.`,
@@ -90,11 +94,15 @@ describe('required elements of informed consent (45 CFR 46.116(a)(5)(i) and (b)(
 
   it('reports a section that keeps its heading and marker but lost its text (45 CFR 46.116(b)(2))', () => {
     const { head, sections } = sectionsOf(fullForm);
-    const emptied = sections.map((s) => (s.includes('<!-- element: b2 -->') ? '## Possible risks and discomforts\n<!-- element: b2 -->\n\nTBD.\n' : s));
+    const emptied = sections.map((s) =>
+      s.includes('<!-- element: b2 -->') ? '## Possible risks and discomforts\n<!-- element: b2 -->\n\nTBD.\n' : s,
+    );
     const report = checkRequiredElements(join(head, emptied));
     expect(report.findings).toHaveLength(1);
     expect(report.findings[0]).toMatchObject({ code: 'empty-element', element: 'b2', citation: '45 CFR 46.116(b)(2)' });
-    expect(report.findings[0].message).toMatch(/^Foreseeable risks and discomforts \(45 CFR 46\.116\(b\)\(2\)\): the section "Possible risks and discomforts" on line \d+ has almost no text\./);
+    expect(report.findings[0].message).toMatch(
+      /^Foreseeable risks and discomforts \(45 CFR 46\.116\(b\)\(2\)\): the section "Possible risks and discomforts" on line \d+ has almost no text\./,
+    );
   });
 
   it('lists findings in the order key information, then (b)(1) to (b)(9)', () => {
@@ -110,7 +118,18 @@ describe('required elements of informed consent (45 CFR 46.116(a)(5)(i) and (b)(
 
   it('recognises a hand-written form by its headings alone', () => {
     const sentence = 'This section says what it needs to say in plain words.';
-    const headings = ['Summary', 'Purpose and procedures', 'Risks', 'Benefits', 'Alternatives', 'Confidentiality', 'Research-related injury', 'Questions and contacts', 'Voluntary participation', 'Future use of your data'];
+    const headings = [
+      'Summary',
+      'Purpose and procedures',
+      'Risks',
+      'Benefits',
+      'Alternatives',
+      'Confidentiality',
+      'Research-related injury',
+      'Questions and contacts',
+      'Voluntary participation',
+      'Future use of your data',
+    ];
     const form = `# Consent form\n\n${headings.map((h) => `## ${h}\n\n${sentence}\n`).join('\n')}`;
     const report = checkRequiredElements(form);
     expect(report.findings).toEqual([]);
@@ -118,7 +137,8 @@ describe('required elements of informed consent (45 CFR 46.116(a)(5)(i) and (b)(
   });
 
   it('lets one marker name several elements', () => {
-    const form = '# Form\n\n## Key information\n<!-- element: key-information -->\nA short summary of the whole study for you.\n\n## Everything else\n<!-- element: b1 b2 b3 b4 b5 b6 b7 b8 b9 -->\nOne long section that covers every element of the form in turn.\n';
+    const form =
+      '# Form\n\n## Key information\n<!-- element: key-information -->\nA short summary of the whole study for you.\n\n## Everything else\n<!-- element: b1 b2 b3 b4 b5 b6 b7 b8 b9 -->\nOne long section that covers every element of the form in turn.\n';
     expect(checkRequiredElements(form).findings).toEqual([]);
   });
 
@@ -126,9 +146,13 @@ describe('required elements of informed consent (45 CFR 46.116(a)(5)(i) and (b)(
     const { protocolNumber: _protocol, ...withoutProtocol } = wayfindingConsentFields;
     const report = checkRequiredElements(fillConsentTemplate(withoutProtocol));
     expect(report.findings.map((f) => f.code)).toEqual(['unfilled-placeholder']);
-    expect(report.findings[0].message).toMatch(/^Line \d+ still says "\[to fill: ethics protocol number\]": replace it with the study's details\.$/);
+    expect(report.findings[0].message).toMatch(
+      /^Line \d+ still says "\[to fill: ethics protocol number\]": replace it with the study's details\.$/,
+    );
 
-    const raw = checkRequiredElements('# {{studyTitle}}\n\n## Key information\n<!-- element: key-information -->\nPay is {{totalPay}} for all steps together.\n');
+    const raw = checkRequiredElements(
+      '# {{studyTitle}}\n\n## Key information\n<!-- element: key-information -->\nPay is {{totalPay}} for all steps together.\n',
+    );
     expect(raw.findings.filter((f) => f.code === 'unfilled-placeholder').map((f) => [f.line, f.message])).toEqual([
       [1, 'Line 1 still has the template placeholder "{{studyTitle}}": replace it with the study\'s details.'],
       [5, 'Line 5 still has the template placeholder "{{totalPay}}": replace it with the study\'s details.'],

@@ -22,7 +22,8 @@ import { TO_FILL_PATTERN } from './template-rendering';
 export const MIN_SECTION_WORDS = 5;
 export const PREAMBLE_WORD_LIMIT = 60;
 
-export type ConsentFindingCode = 'missing-element' | 'empty-element' | 'key-information-not-first' | 'unfilled-placeholder';
+export type ConsentFindingCode =
+  'missing-element' | 'empty-element' | 'key-information-not-first' | 'unfilled-placeholder';
 
 export interface ConsentFinding {
   code: ConsentFindingCode;
@@ -60,9 +61,12 @@ type Candidate = { section: ConsentSection; by: 'marker' | 'heading' };
 
 function sectionsFor(element: ConsentElement, sections: ConsentSection[]): Candidate[] {
   return sections.flatMap((section): Candidate[] => {
-    if (section.markers.length > 0) return section.markers.includes(element.id) ? [{ section, by: 'marker' as const }] : [];
+    if (section.markers.length > 0)
+      return section.markers.includes(element.id) ? [{ section, by: 'marker' as const }] : [];
     const heading = normalizedHeading(section.heading);
-    return element.headingPatterns.some((pattern) => pattern.test(heading)) ? [{ section, by: 'heading' as const }] : [];
+    return element.headingPatterns.some((pattern) => pattern.test(heading))
+      ? [{ section, by: 'heading' as const }]
+      : [];
   });
 }
 
@@ -124,7 +128,10 @@ export function checkRequiredElements(markdownSource: string): RequiredElementsR
     if (id === 'key-information' && section) {
       const first = outline.sections[0];
       if (first !== section || outline.preambleWords > PREAMBLE_WORD_LIMIT) {
-        const before = first !== section ? `the section "${first.heading}" comes before it` : `${outline.preambleWords} words of text come before it`;
+        const before =
+          first !== section
+            ? `the section "${first.heading}" comes before it`
+            : `${outline.preambleWords} words of text come before it`;
         findings.push({
           code: 'key-information-not-first',
           element: id,

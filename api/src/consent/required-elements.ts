@@ -28,17 +28,31 @@ export const CONSENT_ELEMENTS: readonly ConsentElement[] = [
     id: 'key-information',
     citation: '45 CFR 46.116(a)(5)(i)',
     name: 'Key information',
-    requirement: 'gives a concise, focused summary of what is most likely to help someone decide whether to take part, before anything else in the form',
+    requirement:
+      'gives a concise, focused summary of what is most likely to help someone decide whether to take part, before anything else in the form',
     suggestedHeading: 'Key information about this study',
-    headingPatterns: [/\bkey (information|facts|points)\b/, /\bat a glance\b/, /^(study )?summary$/, /\bconcise summary\b/],
+    headingPatterns: [
+      /\bkey (information|facts|points)\b/,
+      /\bat a glance\b/,
+      /^(study )?summary$/,
+      /\bconcise summary\b/,
+    ],
   },
   {
     id: 'b1',
     citation: '45 CFR 46.116(b)(1)',
     name: 'Research statement, purpose, duration and procedures',
-    requirement: 'says the study is research and explains its purpose, how long taking part lasts, what participants will do, and which procedures, if any, are experimental',
+    requirement:
+      'says the study is research and explains its purpose, how long taking part lasts, what participants will do, and which procedures, if any, are experimental',
     suggestedHeading: 'What the study is about and what you will do',
-    headingPatterns: [/\bpurpose\b/, /\bprocedures?\b/, /\bwhat (the study|this study|the research) is about\b/, /\bwhat (you|i) will do\b/, /\bwhat will happen\b/, /\b(study|research) description\b/],
+    headingPatterns: [
+      /\bpurpose\b/,
+      /\bprocedures?\b/,
+      /\bwhat (the study|this study|the research) is about\b/,
+      /\bwhat (you|i) will do\b/,
+      /\bwhat will happen\b/,
+      /\b(study|research) description\b/,
+    ],
   },
   {
     id: 'b2',
@@ -52,7 +66,8 @@ export const CONSENT_ELEMENTS: readonly ConsentElement[] = [
     id: 'b3',
     citation: '45 CFR 46.116(b)(3)',
     name: 'Benefits',
-    requirement: 'describes any benefits to the participant or to others that may reasonably be expected (pay is not counted as a benefit)',
+    requirement:
+      'describes any benefits to the participant or to others that may reasonably be expected (pay is not counted as a benefit)',
     suggestedHeading: 'Possible benefits',
     headingPatterns: [/\bbenefits?\b/],
   },
@@ -60,7 +75,8 @@ export const CONSENT_ELEMENTS: readonly ConsentElement[] = [
     id: 'b4',
     citation: '45 CFR 46.116(b)(4)',
     name: 'Alternatives',
-    requirement: "discloses any appropriate alternative procedures or courses of treatment that might be to the participant's advantage (for most behavioural studies: simply not taking part)",
+    requirement:
+      "discloses any appropriate alternative procedures or courses of treatment that might be to the participant's advantage (for most behavioural studies: simply not taking part)",
     suggestedHeading: 'Other choices you have',
     headingPatterns: [/\balternatives?\b/, /\bother (choices|options)\b/],
   },
@@ -70,13 +86,18 @@ export const CONSENT_ELEMENTS: readonly ConsentElement[] = [
     name: 'Confidentiality',
     requirement: 'describes to what extent records that identify the participant will be kept confidential',
     suggestedHeading: 'How we protect your information',
-    headingPatterns: [/\bconfidential(ity)?\b/, /\bprivacy\b/, /\bprotect(ing|s)? your (information|data|privacy|records)\b/],
+    headingPatterns: [
+      /\bconfidential(ity)?\b/,
+      /\bprivacy\b/,
+      /\bprotect(ing|s)? your (information|data|privacy|records)\b/,
+    ],
   },
   {
     id: 'b6',
     citation: '45 CFR 46.116(b)(6)',
     name: 'Compensation and treatment for injury',
-    requirement: 'explains whether compensation or medical treatment is available if injury occurs and where to find out more (the regulation asks for it when research is more than minimal risk; a minimal-risk form can say in a sentence what applies)',
+    requirement:
+      'explains whether compensation or medical treatment is available if injury occurs and where to find out more (the regulation asks for it when research is more than minimal risk; a minimal-risk form can say in a sentence what applies)',
     suggestedHeading: 'If you are harmed by taking part',
     headingPatterns: [/\binjur(y|ies|ed)\b/, /\bharm(ed)?\b/, /\bif you are hurt\b/],
   },
@@ -84,7 +105,8 @@ export const CONSENT_ELEMENTS: readonly ConsentElement[] = [
     id: 'b7',
     citation: '45 CFR 46.116(b)(7)',
     name: 'Contacts for questions, rights and injury',
-    requirement: "says whom to contact with questions about the research, about participants' rights, and in the event of a research-related injury",
+    requirement:
+      "says whom to contact with questions about the research, about participants' rights, and in the event of a research-related injury",
     suggestedHeading: 'Whom to contact',
     headingPatterns: [/\bcontacts?\b/, /\bquestions\b/, /\bwho(m)? (to|can i) (ask|contact|call)\b/],
   },
@@ -92,7 +114,8 @@ export const CONSENT_ELEMENTS: readonly ConsentElement[] = [
     id: 'b8',
     citation: '45 CFR 46.116(b)(8)',
     name: 'Voluntary participation',
-    requirement: 'states that taking part is voluntary, that refusing involves no penalty or loss of benefits, and that the participant may stop at any time without penalty or loss of benefits',
+    requirement:
+      'states that taking part is voluntary, that refusing involves no penalty or loss of benefits, and that the participant may stop at any time without penalty or loss of benefits',
     suggestedHeading: 'Taking part is your choice',
     headingPatterns: [/\bvoluntar(y|ily)\b/, /\byour choice\b/, /\bright to (refuse|decline)\b/],
   },
@@ -100,7 +123,8 @@ export const CONSENT_ELEMENTS: readonly ConsentElement[] = [
     id: 'b9',
     citation: '45 CFR 46.116(b)(9)',
     name: 'Future use of identifiable information',
-    requirement: 'states either that identifiers might be removed and the information then used or shared for future research without further consent, or that it will not be used or shared for future research even with identifiers removed',
+    requirement:
+      'states either that identifiers might be removed and the information then used or shared for future research without further consent, or that it will not be used or shared for future research even with identifiers removed',
     suggestedHeading: 'Use of your information in future research',
     headingPatterns: [/\bfuture (research|use|studies)\b/, /\bidentifiers?\b/],
   },

@@ -6,14 +6,23 @@ const moneyFormats = new Map<string, Intl.NumberFormat>();
 
 /** Minor units (cents) as a currency amount, with the currency's own number of decimals as Intl knows it. */
 export function formatMoney(amountMinor: number, currency: string, locale = 'en-US', field = 'amountMinor'): string {
-  if (!Number.isSafeInteger(amountMinor)) consentFail(ConsentErrorCode.InvalidFields, field, `must be a whole number of minor units, got ${String(amountMinor)}`);
+  if (!Number.isSafeInteger(amountMinor))
+    consentFail(
+      ConsentErrorCode.InvalidFields,
+      field,
+      `must be a whole number of minor units, got ${String(amountMinor)}`,
+    );
   const key = `${locale}|${currency}`;
   let format = moneyFormats.get(key);
   if (!format) {
     try {
       format = new Intl.NumberFormat(locale, { style: 'currency', currency });
     } catch {
-      consentFail(ConsentErrorCode.InvalidFields, 'currency', `must be an ISO 4217 code such as USD, got ${JSON.stringify(currency)}`);
+      consentFail(
+        ConsentErrorCode.InvalidFields,
+        'currency',
+        `must be an ISO 4217 code such as USD, got ${JSON.stringify(currency)}`,
+      );
     }
     moneyFormats.set(key, format);
   }
@@ -48,7 +57,8 @@ const pad = (n: number) => String(n).padStart(2, '0');
 
 /** The instant in UTC and in the signer's time zone, with the offset stated (the IANA database through Intl). */
 export function describeSigningTime(at: Date, timeZone = 'UTC', field = 'signedAt'): SigningTime {
-  if (!(at instanceof Date) || Number.isNaN(at.getTime())) consentFail(ConsentErrorCode.InvalidFields, field, 'must be a valid date and time');
+  if (!(at instanceof Date) || Number.isNaN(at.getTime()))
+    consentFail(ConsentErrorCode.InvalidFields, field, 'must be a valid date and time');
   let parts: Intl.DateTimeFormatPart[];
   try {
     parts = new Intl.DateTimeFormat('en-US', {
@@ -63,7 +73,11 @@ export function describeSigningTime(at: Date, timeZone = 'UTC', field = 'signedA
       timeZoneName: 'longOffset',
     }).formatToParts(at);
   } catch {
-    consentFail(ConsentErrorCode.InvalidFields, 'timeZone', `must be an IANA time zone such as Europe/Berlin, got ${JSON.stringify(timeZone)}`);
+    consentFail(
+      ConsentErrorCode.InvalidFields,
+      'timeZone',
+      `must be an IANA time zone such as Europe/Berlin, got ${JSON.stringify(timeZone)}`,
+    );
   }
   const part = (type: Intl.DateTimeFormatPartTypes) => parts.find((p) => p.type === type)?.value ?? '';
   const offsetName = part('timeZoneName'); // "GMT+01:00", or "GMT" at zero offset

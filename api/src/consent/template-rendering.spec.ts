@@ -5,7 +5,13 @@ import { MarkdownFragment, renderTemplate, toFill } from './template-rendering';
 describe('renderTemplate', () => {
   it('escapes every value for Markdown, inside lists and conditions too', () => {
     const source = '# {{title}}\n\n{{#each steps}}\n- {{name}}{{#if minutes}} ({{minutes}} min){{/if}}\n{{/each}}';
-    const out = renderTemplate(source, { title: '*Wayfinding* <cues>', steps: [{ name: '# one', minutes: 20 }, { name: 'two_b', minutes: null }] });
+    const out = renderTemplate(source, {
+      title: '*Wayfinding* <cues>',
+      steps: [
+        { name: '# one', minutes: 20 },
+        { name: 'two_b', minutes: null },
+      ],
+    });
     expect(out).toBe('# \\*Wayfinding\\* \\<cues\\>\n\n- \\# one (20 min)\n- two\\_b\n');
   });
 
@@ -39,10 +45,14 @@ describe('renderTemplate', () => {
   });
 
   it('inserts Markdown fragments as they are, and shows "to fill" markers literally', () => {
-    expect(renderTemplate('{{a}} {{b}}', { a: new MarkdownFragment('**bold**'), b: toFill('protocol number') })).toBe('**bold** \\[to fill: protocol number\\]');
+    expect(renderTemplate('{{a}} {{b}}', { a: new MarkdownFragment('**bold**'), b: toFill('protocol number') })).toBe(
+      '**bold** \\[to fill: protocol number\\]',
+    );
   });
 
   it('writes plain text (for subject lines) on one line without Markdown escapes', () => {
-    expect(renderTemplate('Your form for {{studyTitle}}', { studyTitle: 'Cues *& maps*\r\nBcc: x@y.test' }, 'plain')).toBe('Your form for Cues *& maps* Bcc: x@y.test');
+    expect(
+      renderTemplate('Your form for {{studyTitle}}', { studyTitle: 'Cues *& maps*\r\nBcc: x@y.test' }, 'plain'),
+    ).toBe('Your form for Cues *& maps* Bcc: x@y.test');
   });
 });

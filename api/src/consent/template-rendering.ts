@@ -14,7 +14,8 @@ export class MarkdownFragment {
   constructor(readonly markdown: string) {}
 }
 
-export type TemplateValue = string | number | boolean | null | MarkdownFragment | TemplateValue[] | { [key: string]: TemplateValue };
+export type TemplateValue =
+  string | number | boolean | null | MarkdownFragment | TemplateValue[] | { [key: string]: TemplateValue };
 export type TemplateView = { [key: string]: TemplateValue };
 
 /** Visible in the filled form and reported by the required-elements check until someone replaces it. */
@@ -49,15 +50,22 @@ function escapeView(value: TemplateValue, path: string, escaping: Escaping, erro
   if (Array.isArray(value)) return value.map((item, i) => escapeView(item, `${path}[${i}]`, escaping, errors));
   if (typeof value === 'object') {
     const escaped: Record<string, unknown> = {};
-    for (const [key, member] of Object.entries(value)) escaped[key] = escapeView(member, path ? `${path}.${key}` : key, escaping, errors);
+    for (const [key, member] of Object.entries(value))
+      escaped[key] = escapeView(member, path ? `${path}.${key}` : key, escaping, errors);
     return escaped;
   }
   errors.push({ field: path, message: `has an unsupported type (${typeof value})` });
   return null;
 }
 
-export function renderTemplate(source: string, view: TemplateView, escaping: Escaping = 'markdown', field = 'template'): string {
-  if (typeof source !== 'string') throw new ConsentError(ConsentErrorCode.InvalidTemplate, [{ field, message: 'must be a text' }]);
+export function renderTemplate(
+  source: string,
+  view: TemplateView,
+  escaping: Escaping = 'markdown',
+  field = 'template',
+): string {
+  if (typeof source !== 'string')
+    throw new ConsentError(ConsentErrorCode.InvalidTemplate, [{ field, message: 'must be a text' }]);
   const errors: FieldError[] = [];
   const escapedView = escapeView(view, '', escaping, errors);
   if (errors.length > 0) throw new ConsentError(ConsentErrorCode.InvalidFields, errors);

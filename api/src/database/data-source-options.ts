@@ -80,7 +80,23 @@ export const ENTITIES = [
 ];
 
 /** Every migration in order. Never edit one that has landed; add a new one. */
-export const MIGRATIONS = [Foundation1764600000000, StudyDesign1764600100000, ConsentAndEnrollment1764600200000, Pay1764600300000, AttritionAlerts1764600400000, LostReason1764600500000, StepVerificationAndContact1764600600000, AuditEvidence1764600700000, PayoutRecovery1764600850000, AuditTrailLookups1764700100000, StudyDetailsAndArchive1764700300000, PasswordReset1764700310000, ReceiptNumbers1764700400000, AuditOutbox1764700500000, TwoFactor1764700630000];
+export const MIGRATIONS = [
+  Foundation1764600000000,
+  StudyDesign1764600100000,
+  ConsentAndEnrollment1764600200000,
+  Pay1764600300000,
+  AttritionAlerts1764600400000,
+  LostReason1764600500000,
+  StepVerificationAndContact1764600600000,
+  AuditEvidence1764600700000,
+  PayoutRecovery1764600850000,
+  AuditTrailLookups1764700100000,
+  StudyDetailsAndArchive1764700300000,
+  PasswordReset1764700310000,
+  ReceiptNumbers1764700400000,
+  AuditOutbox1764700500000,
+  TwoFactor1764700630000,
+];
 
 /** `poolMax`: connections kept open (`DATABASE_POOL_MAX`); the benchmarks boot with more, never by rebuilding the pool. */
 export function dataSourceOptions(databaseUrl: string, poolMax = 20): DataSourceOptions {

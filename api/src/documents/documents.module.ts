@@ -5,5 +5,9 @@ import { MailModule } from '../mail/mail.module';
 import { StudiesModule } from '../studies';
 import { DocumentsService } from './documents.service';
 
-@Module({ imports: [ConsentModule, EnrollmentsModule, StudiesModule, MailModule], providers: [DocumentsService], exports: [DocumentsService] })
+@Module({
+  imports: [ConsentModule, EnrollmentsModule, StudiesModule, MailModule],
+  providers: [DocumentsService],
+  exports: [DocumentsService],
+})
 export class DocumentsModule {}

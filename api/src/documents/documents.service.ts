@@ -33,7 +33,10 @@ export class DocumentsService implements OnModuleInit {
   ) {}
 
   async onModuleInit(): Promise<void> {
-    if (this.config.nodeEnv === 'production' && this.config.documentSigningPassphrase === DEVELOPMENT_SIGNING_PASSPHRASE) {
+    if (
+      this.config.nodeEnv === 'production' &&
+      this.config.documentSigningPassphrase === DEVELOPMENT_SIGNING_PASSPHRASE
+    ) {
       throw new Error('DOCUMENT_SIGNING_PASSPHRASE: the development default may not be used in production');
     }
     this.identity = loadSigningIdentity({
@@ -41,7 +44,9 @@ export class DocumentsService implements OnModuleInit {
       passphrase: this.config.documentSigningPassphrase,
       mayCreate: this.config.nodeEnv !== 'production',
     });
-    await this.jobs.handle<{ signatureId: string }>(JOB_NAMES.signedCopy, ({ signatureId }) => this.makeSignedCopy(signatureId));
+    await this.jobs.handle<{ signatureId: string }>(JOB_NAMES.signedCopy, ({ signatureId }) =>
+      this.makeSignedCopy(signatureId),
+    );
   }
 
   async makeSignedCopy(signatureId: string): Promise<void> {
@@ -55,27 +60,30 @@ export class DocumentsService implements OnModuleInit {
     const version = await this.consent.get(enrollment.studyId, signature.consentVersionId);
     let pdf = signature.pdf;
     if (!pdf) {
-      const built = await buildSignedConsentPdf({
-        consentText: version.renderedText!,
-        textFingerprint: signature.textFingerprint,
-        studyTitle: study.title,
-        labName: study.labName || 'The research team',
-        formVersion: version.version,
-        consentVersionId: version.id,
-        ethicsApprovalReference: version.approvalReference ?? '',
-        ethicsApprovedOn: version.approvedAt ?? '',
-        enrollmentReference: enrollment.reference,
-        signatureId: signature.id,
-        signer: {
-          typedName: signature.typedName,
-          signedAt: signature.signedAt,
-          timeZone: signature.timeZone ?? 'UTC',
-          meaning: signature.meaning,
-          markPngDataUrl: signature.mark,
-          ipAddress: signature.ip ?? 'not recorded',
-          userAgent: signature.userAgent ?? 'not recorded',
+      const built = await buildSignedConsentPdf(
+        {
+          consentText: version.renderedText!,
+          textFingerprint: signature.textFingerprint,
+          studyTitle: study.title,
+          labName: study.labName || 'The research team',
+          formVersion: version.version,
+          consentVersionId: version.id,
+          ethicsApprovalReference: version.approvalReference ?? '',
+          ethicsApprovedOn: version.approvedAt ?? '',
+          enrollmentReference: enrollment.reference,
+          signatureId: signature.id,
+          signer: {
+            typedName: signature.typedName,
+            signedAt: signature.signedAt,
+            timeZone: signature.timeZone ?? 'UTC',
+            meaning: signature.meaning,
+            markPngDataUrl: signature.mark,
+            ipAddress: signature.ip ?? 'not recorded',
+            userAgent: signature.userAgent ?? 'not recorded',
+          },
         },
-      }, this.identity ?? undefined);
+        this.identity ?? undefined,
+      );
       pdf = Buffer.from(built.bytes);
       await this.consent.storeSignedPdf(signature.id, pdf, built.sha256);
     }
@@ -97,7 +105,9 @@ export class DocumentsService implements OnModuleInit {
         subject: email.subject,
         text: email.text,
         html: email.html,
-        attachments: [{ filename: `signed-consent-v${version.version}.pdf`, content: pdf, contentType: 'application/pdf' }],
+        attachments: [
+          { filename: `signed-consent-v${version.version}.pdf`, content: pdf, contentType: 'application/pdf' },
+        ],
       });
       await this.consent.markCopyEmailed(signature.id);
     }

@@ -153,7 +153,13 @@ export class PdfWriter {
       this.ensure(style.lineHeight);
       const baseline = this.y - style.size;
       if (index === 0 && firstLineMarker) {
-        this.page.drawText(firstLineMarker, { x: x - 16, y: baseline, size: style.size, font: this.fonts.regular, color: style.color ?? INK });
+        this.page.drawText(firstLineMarker, {
+          x: x - 16,
+          y: baseline,
+          size: style.size,
+          font: this.fonts.regular,
+          color: style.color ?? INK,
+        });
       }
       let cursor = x;
       for (const piece of line) {
@@ -177,7 +183,12 @@ export class PdfWriter {
   rule(): void {
     this.ensure(12);
     this.y -= 6;
-    this.page.drawLine({ start: { x: MARGIN.left, y: this.y }, end: { x: PAGE_SIZE[0] - MARGIN.right, y: this.y }, thickness: 0.6, color: RULE });
+    this.page.drawLine({
+      start: { x: MARGIN.left, y: this.y },
+      end: { x: PAGE_SIZE[0] - MARGIN.right, y: this.y },
+      thickness: 0.6,
+      color: RULE,
+    });
     this.y -= 6;
   }
 
@@ -192,9 +203,20 @@ export class PdfWriter {
       const room = this.width - rightWidth - 16;
       while (left.length > 1 && this.fonts.regular.widthOfTextAtSize(left, size) > room) left = `${left.slice(0, -2)}…`;
       const y = MARGIN.bottom - 32;
-      page.drawLine({ start: { x: MARGIN.left, y: y + 12 }, end: { x: PAGE_SIZE[0] - MARGIN.right, y: y + 12 }, thickness: 0.5, color: RULE });
+      page.drawLine({
+        start: { x: MARGIN.left, y: y + 12 },
+        end: { x: PAGE_SIZE[0] - MARGIN.right, y: y + 12 },
+        thickness: 0.5,
+        color: RULE,
+      });
       page.drawText(left, { x: MARGIN.left, y, size, font: this.fonts.regular, color: MUTED });
-      page.drawText(right, { x: PAGE_SIZE[0] - MARGIN.right - rightWidth, y, size, font: this.fonts.regular, color: MUTED });
+      page.drawText(right, {
+        x: PAGE_SIZE[0] - MARGIN.right - rightWidth,
+        y,
+        size,
+        font: this.fonts.regular,
+        color: MUTED,
+      });
     });
   }
 }

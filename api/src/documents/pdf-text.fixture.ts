@@ -6,9 +6,16 @@ export interface PdfTextPage {
   text: string;
 }
 
-export async function extractPdfText(bytes: Uint8Array): Promise<{ pages: PdfTextPage[]; info: Record<string, unknown> }> {
+export async function extractPdfText(
+  bytes: Uint8Array,
+): Promise<{ pages: PdfTextPage[]; info: Record<string, unknown> }> {
   // pdf.js takes ownership of the buffer it is given, so hand it a copy.
-  const document = await getDocument({ data: new Uint8Array(bytes), isEvalSupported: false, useSystemFonts: false, verbosity: 0 }).promise;
+  const document = await getDocument({
+    data: new Uint8Array(bytes),
+    isEvalSupported: false,
+    useSystemFonts: false,
+    verbosity: 0,
+  }).promise;
   const pages: PdfTextPage[] = [];
   for (let number = 1; number <= document.numPages; number += 1) {
     const page = await document.getPage(number);

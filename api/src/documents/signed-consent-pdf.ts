@@ -91,7 +91,8 @@ const LIST_INDENT = 18;
 const FIELD_WIDTH_INSET = 24;
 const NAME: TextStyle = { size: 12, lineHeight: 16, bold: true };
 const FINGERPRINT: TextStyle = { size: 9.5, lineHeight: 13 };
-const SIGNED_ELECTRONICALLY = 'Signed electronically by typing the full name above and confirming with the button whose meaning is stated above.';
+const SIGNED_ELECTRONICALLY =
+  'Signed electronically by typing the full name above and confirming with the button whose meaning is stated above.';
 
 let fontBytes: { regular: Uint8Array; bold: Uint8Array } | null = null;
 function shippedFontBytes() {
@@ -116,12 +117,19 @@ function validate(input: SignedConsentPdfInput): { markBytes: Uint8Array | null 
   need(input?.signer?.meaning, 'signer.meaning');
   need(input?.signer?.ipAddress, 'signer.ipAddress');
   need(input?.signer?.userAgent, 'signer.userAgent');
-  if (!Number.isSafeInteger(input?.formVersion) || input.formVersion < 1) errors.push({ field: 'formVersion', message: 'must be a whole number ≥ 1' });
-  if (typeof input?.ethicsApprovedOn !== 'string' || !/^\d{4}-\d{2}-\d{2}$/.test(input.ethicsApprovedOn) || Number.isNaN(Date.parse(input.ethicsApprovedOn))) {
+  if (!Number.isSafeInteger(input?.formVersion) || input.formVersion < 1)
+    errors.push({ field: 'formVersion', message: 'must be a whole number ≥ 1' });
+  if (
+    typeof input?.ethicsApprovedOn !== 'string' ||
+    !/^\d{4}-\d{2}-\d{2}$/.test(input.ethicsApprovedOn) ||
+    Number.isNaN(Date.parse(input.ethicsApprovedOn))
+  ) {
     errors.push({ field: 'ethicsApprovedOn', message: 'must be a date written YYYY-MM-DD' });
   }
-  if (!(input?.signer?.signedAt instanceof Date) || Number.isNaN(input.signer.signedAt.getTime())) errors.push({ field: 'signer.signedAt', message: 'must be a valid date and time' });
-  if (input?.issuedAt !== undefined && (!(input.issuedAt instanceof Date) || Number.isNaN(input.issuedAt.getTime()))) errors.push({ field: 'issuedAt', message: 'must be a valid date and time' });
+  if (!(input?.signer?.signedAt instanceof Date) || Number.isNaN(input.signer.signedAt.getTime()))
+    errors.push({ field: 'signer.signedAt', message: 'must be a valid date and time' });
+  if (input?.issuedAt !== undefined && (!(input.issuedAt instanceof Date) || Number.isNaN(input.issuedAt.getTime())))
+    errors.push({ field: 'issuedAt', message: 'must be a valid date and time' });
   if (!isFingerprint(input?.textFingerprint)) {
     errors.push({ field: 'textFingerprint', message: 'must be 64 lowercase hex characters (SHA-256)' });
   } else if (typeof input.consentText === 'string' && input.consentText.trim() !== '') {
@@ -129,9 +137,13 @@ function validate(input: SignedConsentPdfInput): { markBytes: Uint8Array | null 
     try {
       actual = renderedTextFingerprint(input.consentText);
     } catch {
-      errors.push({ field: 'consentText', message: 'is not in rendered form: pass the stored rendered text, not the draft' });
+      errors.push({
+        field: 'consentText',
+        message: 'is not in rendered form: pass the stored rendered text, not the draft',
+      });
     }
-    if (actual !== null && actual !== input.textFingerprint) errors.push({ field: 'textFingerprint', message: `does not match the text (the text hashes to ${actual})` });
+    if (actual !== null && actual !== input.textFingerprint)
+      errors.push({ field: 'textFingerprint', message: `does not match the text (the text hashes to ${actual})` });
   }
 
   let markBytes: Uint8Array | null = null;
@@ -142,8 +154,16 @@ function validate(input: SignedConsentPdfInput): { markBytes: Uint8Array | null 
       errors.push({ field: 'signer.markPngDataUrl', message: 'must be a PNG data URL (data:image/png;base64,…)' });
     } else {
       markBytes = Buffer.from(match[1], 'base64');
-      if (markBytes.length > MAX_MARK_BYTES) errors.push({ field: 'signer.markPngDataUrl', message: `must be at most ${MAX_MARK_BYTES / 1024} KB, got ${Math.ceil(markBytes.length / 1024)} KB` });
-      else if (!PNG_SIGNATURE.every((byte, i) => markBytes?.[i] === byte)) errors.push({ field: 'signer.markPngDataUrl', message: 'is not a PNG image (its first bytes are not the PNG signature)' });
+      if (markBytes.length > MAX_MARK_BYTES)
+        errors.push({
+          field: 'signer.markPngDataUrl',
+          message: `must be at most ${MAX_MARK_BYTES / 1024} KB, got ${Math.ceil(markBytes.length / 1024)} KB`,
+        });
+      else if (!PNG_SIGNATURE.every((byte, i) => markBytes?.[i] === byte))
+        errors.push({
+          field: 'signer.markPngDataUrl',
+          message: 'is not a PNG image (its first bytes are not the PNG signature)',
+        });
     }
   }
   if (errors.length > 0) throw new DocumentError(DocumentErrorCode.InvalidInput, errors);
@@ -162,7 +182,10 @@ function unsupportedCharacters(texts: string[], bytes: Uint8Array): string[] {
   return [...missing];
 }
 
-export async function buildSignedConsentPdf(input: SignedConsentPdfInput, seal?: PdfSealIdentity): Promise<SignedConsentPdf> {
+export async function buildSignedConsentPdf(
+  input: SignedConsentPdfInput,
+  seal?: PdfSealIdentity,
+): Promise<SignedConsentPdf> {
   const { markBytes } = validate(input);
   const { signer } = input;
   const time = describeSigningTime(signer.signedAt, signer.timeZone?.trim() || 'UTC', 'signer.signedAt');
@@ -180,11 +203,18 @@ export async function buildSignedConsentPdf(input: SignedConsentPdfInput, seal?:
     try {
       markImage = await doc.embedPng(markBytes);
     } catch (error: unknown) {
-      throw new DocumentError(DocumentErrorCode.InvalidInput, [{ field: 'signer.markPngDataUrl', message: `is not a readable PNG image (${error instanceof Error ? error.message : String(error)})` }]);
+      throw new DocumentError(DocumentErrorCode.InvalidInput, [
+        {
+          field: 'signer.markPngDataUrl',
+          message: `is not a readable PNG image (${error instanceof Error ? error.message : String(error)})`,
+        },
+      ]);
     }
   }
 
-  doc.setTitle(`Signed consent form: ${input.studyTitle} (version ${input.formVersion})`, { showInWindowTitleBar: true });
+  doc.setTitle(`Signed consent form: ${input.studyTitle} (version ${input.formVersion})`, {
+    showInWindowTitleBar: true,
+  });
   doc.setAuthor(input.labName);
   doc.setSubject(`Signed by ${signer.typedName} on ${time.utc}`);
   doc.setCreator('Evenhand');
@@ -237,7 +267,11 @@ export async function buildSignedConsentPdf(input: SignedConsentPdfInput, seal?:
     });
     // The placeholder's byte ranges are found in the file's text, which object streams would compress away.
     const unsigned = await doc.save({ useObjectStreams: false });
-    const signed = await new SignPdf().sign(Buffer.from(unsigned), new P12Signer(Buffer.from(seal.p12), { passphrase: seal.passphrase }), issuedAt);
+    const signed = await new SignPdf().sign(
+      Buffer.from(unsigned),
+      new P12Signer(Buffer.from(seal.p12), { passphrase: seal.passphrase }),
+      issuedAt,
+    );
     bytes = new Uint8Array(signed);
   } else {
     bytes = await doc.save({ useObjectStreams: true });
@@ -248,7 +282,10 @@ export async function buildSignedConsentPdf(input: SignedConsentPdfInput, seal?:
     sha256: createHash('sha256').update(bytes).digest('hex'),
     pageCount: doc.getPageCount(),
     markSha256,
-    unsupportedCharacters: unsupportedCharacters([input.consentText, signer.typedName, signer.meaning, input.studyTitle, input.labName], bytesOfFonts.regular),
+    unsupportedCharacters: unsupportedCharacters(
+      [input.consentText, signer.typedName, signer.meaning, input.studyTitle, input.labName],
+      bytesOfFonts.regular,
+    ),
   };
 }
 
@@ -262,11 +299,18 @@ function field(writer: PdfWriter, label: string, value: string, valueStyle: Text
   writer.gap(5);
 }
 
-function drawSignatureBlock(writer: PdfWriter, input: SignedConsentPdfInput, signedAtText: string, mark: PDFImage | null): void {
+function drawSignatureBlock(
+  writer: PdfWriter,
+  input: SignedConsentPdfInput,
+  signedAtText: string,
+  mark: PDFImage | null,
+): void {
   const markSize = mark ? mark.scaleToFit(220, 70) : null;
   const markHeight = markSize ? LABEL.lineHeight + 4 + markSize.height + 4 + 9 : 0;
   const height =
-    12 + 17 + 6 +
+    12 +
+    17 +
+    6 +
     fieldHeight(writer, input.signer.typedName, NAME) +
     fieldHeight(writer, signedAtText, BODY) +
     fieldHeight(writer, input.signer.meaning, BODY) +
@@ -279,7 +323,12 @@ function drawSignatureBlock(writer: PdfWriter, input: SignedConsentPdfInput, sig
   writer.ensure(height);
   const top = writer.y;
   writer.gap(12);
-  writer.text(run('Signature', true), { size: 12.5, lineHeight: 17 }, MARGIN.left + 12, writer.width - FIELD_WIDTH_INSET);
+  writer.text(
+    run('Signature', true),
+    { size: 12.5, lineHeight: 17 },
+    MARGIN.left + 12,
+    writer.width - FIELD_WIDTH_INSET,
+  );
   writer.gap(6);
   field(writer, 'PRINTED NAME OF THE SIGNER', input.signer.typedName, NAME);
   field(writer, 'DATE AND TIME SIGNED', signedAtText);
@@ -287,15 +336,32 @@ function drawSignatureBlock(writer: PdfWriter, input: SignedConsentPdfInput, sig
   if (mark && markSize) {
     writer.text(run('DRAWN MARK'), LABEL, MARGIN.left + 12, writer.width - FIELD_WIDTH_INSET);
     writer.gap(4);
-    writer.page.drawImage(mark, { x: MARGIN.left + 12, y: writer.y - markSize.height, width: markSize.width, height: markSize.height });
+    writer.page.drawImage(mark, {
+      x: MARGIN.left + 12,
+      y: writer.y - markSize.height,
+      width: markSize.width,
+      height: markSize.height,
+    });
     writer.gap(markSize.height + 4);
-    writer.page.drawLine({ start: { x: MARGIN.left + 12, y: writer.y }, end: { x: MARGIN.left + 12 + 240, y: writer.y }, thickness: 0.6, color: MUTED });
+    writer.page.drawLine({
+      start: { x: MARGIN.left + 12, y: writer.y },
+      end: { x: MARGIN.left + 12 + 240, y: writer.y },
+      thickness: 0.6,
+      color: MUTED,
+    });
     writer.gap(9);
   }
   field(writer, 'FORM TEXT FINGERPRINT (SHA-256)', input.textFingerprint, FINGERPRINT);
   writer.text(run(SIGNED_ELECTRONICALLY), SMALL, MARGIN.left + 12, writer.width - FIELD_WIDTH_INSET);
   writer.gap(10);
-  writer.page.drawRectangle({ x: MARGIN.left, y: writer.y, width: writer.width, height: top - writer.y, borderColor: RULE, borderWidth: 0.8 });
+  writer.page.drawRectangle({
+    x: MARGIN.left,
+    y: writer.y,
+    width: writer.width,
+    height: top - writer.y,
+    borderColor: RULE,
+    borderWidth: 0.8,
+  });
 }
 
 /**
@@ -316,14 +382,29 @@ function drawSigningRecord(
   writer.gap(6);
   writer.text(run('Record of this signing'), heading);
   writer.gap(heading.after);
-  writer.text(run(`Written by ${input.labName} at the moment of signing, and part of this signed copy like the form above.`), { ...BODY, color: MUTED });
+  writer.text(
+    run(`Written by ${input.labName} at the moment of signing, and part of this signed copy like the form above.`),
+    { ...BODY, color: MUTED },
+  );
   writer.gap(8);
   const signatureRecord = input.signatureId ? ` (signature record ${input.signatureId})` : '';
   const items: Array<[string, string]> = [
-    ['The form. ', `${input.studyTitle}, run by ${input.labName}: consent form version ${input.formVersion} (id ${input.consentVersionId}), approved by the ethics board under reference ${input.ethicsApprovalReference} on ${input.ethicsApprovedOn}.`],
-    ['Who signed, and what it means. ', `${signer.typedName} signed as enrollment ${input.enrollmentReference}${signatureRecord}, with this meaning: “${signer.meaning}”`],
-    ['When. ', `${facts.time.local} in ${facts.time.timeZone} (${facts.time.offset}), which is ${facts.time.iso} in UTC.`],
-    ['From where. ', `From network address ${signer.ipAddress}, in a browser that described itself as: ${signer.userAgent}`],
+    [
+      'The form. ',
+      `${input.studyTitle}, run by ${input.labName}: consent form version ${input.formVersion} (id ${input.consentVersionId}), approved by the ethics board under reference ${input.ethicsApprovalReference} on ${input.ethicsApprovedOn}.`,
+    ],
+    [
+      'Who signed, and what it means. ',
+      `${signer.typedName} signed as enrollment ${input.enrollmentReference}${signatureRecord}, with this meaning: “${signer.meaning}”`,
+    ],
+    [
+      'When. ',
+      `${facts.time.local} in ${facts.time.timeZone} (${facts.time.offset}), which is ${facts.time.iso} in UTC.`,
+    ],
+    [
+      'From where. ',
+      `From network address ${signer.ipAddress}, in a browser that described itself as: ${signer.userAgent}`,
+    ],
   ];
   items.forEach(([lead, text], index) => {
     const runs = [{ text: lead, bold: true }, ...run(text)];
@@ -334,10 +415,29 @@ function drawSigningRecord(
   });
   // A fingerprint is one unbroken string: each gets its own line under the item.
   writer.ensure(BODY.lineHeight + 2 * FINGERPRINT.lineHeight + 10);
-  writer.text([{ text: 'Fingerprints (SHA-256). ', bold: true }, ...run('The consent text exactly as signed, and the drawn mark.')], BODY, MARGIN.left + LIST_INDENT, writer.width - LIST_INDENT, `${items.length + 1}.`);
+  writer.text(
+    [
+      { text: 'Fingerprints (SHA-256). ', bold: true },
+      ...run('The consent text exactly as signed, and the drawn mark.'),
+    ],
+    BODY,
+    MARGIN.left + LIST_INDENT,
+    writer.width - LIST_INDENT,
+    `${items.length + 1}.`,
+  );
   writer.gap(2);
-  writer.text(run(`Form text: ${input.textFingerprint}`), FINGERPRINT, MARGIN.left + LIST_INDENT, writer.width - LIST_INDENT);
-  writer.text(run(`Drawn mark: ${facts.markSha256 ?? 'none was drawn'}`), FINGERPRINT, MARGIN.left + LIST_INDENT, writer.width - LIST_INDENT);
+  writer.text(
+    run(`Form text: ${input.textFingerprint}`),
+    FINGERPRINT,
+    MARGIN.left + LIST_INDENT,
+    writer.width - LIST_INDENT,
+  );
+  writer.text(
+    run(`Drawn mark: ${facts.markSha256 ?? 'none was drawn'}`),
+    FINGERPRINT,
+    MARGIN.left + LIST_INDENT,
+    writer.width - LIST_INDENT,
+  );
   writer.gap(5);
   const checking = [
     { text: 'Checking this copy. ', bold: true },
@@ -347,11 +447,5 @@ function drawSigningRecord(
     ),
   ];
   writer.ensure(writer.height(checking, BODY, writer.width - LIST_INDENT));
-  writer.text(
-    checking,
-    BODY,
-    MARGIN.left + LIST_INDENT,
-    writer.width - LIST_INDENT,
-    `${items.length + 2}.`,
-  );
+  writer.text(checking, BODY, MARGIN.left + LIST_INDENT, writer.width - LIST_INDENT, `${items.length + 2}.`);
 }

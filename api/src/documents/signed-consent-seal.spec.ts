@@ -72,7 +72,11 @@ describe('sealed signed copy (PDF digital signature, detached PKCS#7/CMS)', { ti
   it('creates a development identity once and reuses it; outside development a missing file stops start-up', () => {
     const path = join(dir, 'keys/signing.p12');
     const created = loadSigningIdentity({ path, passphrase: 'pass-phrase', mayCreate: true });
-    expect(loadSigningIdentity({ path, passphrase: 'pass-phrase', mayCreate: true }).p12.equals(created.p12)).toBe(true);
-    expect(() => loadSigningIdentity({ path: join(dir, 'missing.p12'), passphrase: 'pass-phrase', mayCreate: false })).toThrow(/DOCUMENT_SIGNING_P12/);
+    expect(loadSigningIdentity({ path, passphrase: 'pass-phrase', mayCreate: true }).p12.equals(created.p12)).toBe(
+      true,
+    );
+    expect(() =>
+      loadSigningIdentity({ path: join(dir, 'missing.p12'), passphrase: 'pass-phrase', mayCreate: false }),
+    ).toThrow(/DOCUMENT_SIGNING_P12/);
   });
 });

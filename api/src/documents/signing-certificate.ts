@@ -14,7 +14,11 @@ export interface SigningIdentity {
 }
 
 /** A self-signed RSA-2048 certificate for document signing, valid for ten years from `now`, as a PKCS#12 file. */
-export function createDevelopmentP12(passphrase: string, commonName = 'Evenhand development document signing', now = new Date()): Buffer {
+export function createDevelopmentP12(
+  passphrase: string,
+  commonName = 'Evenhand development document signing',
+  now = new Date(),
+): Buffer {
   // Node makes the key (fast, native); node-forge builds the certificate and the PKCS#12 container.
   const { privateKey, publicKey } = generateKeyPairSync('rsa', { modulusLength: 2048 });
   const key = forge.pki.privateKeyFromPem(privateKey.export({ type: 'pkcs1', format: 'pem' }).toString());
@@ -34,12 +38,19 @@ export function createDevelopmentP12(passphrase: string, commonName = 'Evenhand 
     { name: 'keyUsage', digitalSignature: true, nonRepudiation: true },
   ]);
   certificate.sign(key, forge.md.sha256.create());
-  const asn1 = forge.pkcs12.toPkcs12Asn1(key, [certificate], passphrase, { algorithm: '3des', friendlyName: commonName });
+  const asn1 = forge.pkcs12.toPkcs12Asn1(key, [certificate], passphrase, {
+    algorithm: '3des',
+    friendlyName: commonName,
+  });
   return Buffer.from(forge.asn1.toDer(asn1).getBytes(), 'binary');
 }
 
 /** Reads the PKCS#12 file; creates a development one when allowed and none exists. */
-export function loadSigningIdentity(options: { path: string; passphrase: string; mayCreate: boolean }): SigningIdentity {
+export function loadSigningIdentity(options: {
+  path: string;
+  passphrase: string;
+  mayCreate: boolean;
+}): SigningIdentity {
   try {
     return { p12: readFileSync(options.path), passphrase: options.passphrase };
   } catch (error: unknown) {

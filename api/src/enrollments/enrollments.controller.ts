@@ -1,6 +1,28 @@
-import { Body, Controller, Delete, Get, HttpCode, Param, Post, Put, Query, Req, Res, UploadedFile, UseInterceptors } from '@nestjs/common';
+import {
+  Body,
+  Controller,
+  Delete,
+  Get,
+  HttpCode,
+  Param,
+  Post,
+  Put,
+  Query,
+  Req,
+  Res,
+  UploadedFile,
+  UseInterceptors,
+} from '@nestjs/common';
 import { FileInterceptor } from '@nestjs/platform-express';
-import { ApiBody, ApiConsumes, ApiCreatedResponse, ApiOkResponse, ApiProduces, ApiResponse, ApiTags } from '@nestjs/swagger';
+import {
+  ApiBody,
+  ApiConsumes,
+  ApiCreatedResponse,
+  ApiOkResponse,
+  ApiProduces,
+  ApiResponse,
+  ApiTags,
+} from '@nestjs/swagger';
 import type { Request, Response } from 'express';
 import { memoryStorage } from 'multer';
 import { CurrentUser, PublicWithOptionalSession, Roles } from '../common/auth/auth.decorators';
@@ -61,7 +83,11 @@ export class MyEnrollmentController {
 
   @Post()
   @ApiCreatedResponse({ type: MyEnrollmentDto })
-  async join(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Res({ passthrough: true }) response: Response): Promise<MyEnrollmentDto> {
+  async join(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Res({ passthrough: true }) response: Response,
+  ): Promise<MyEnrollmentDto> {
     const { created, enrollment } = await this.enrollments.join(user, studyId);
     response.status(created ? 201 : 200);
     return enrollment;
@@ -69,19 +95,29 @@ export class MyEnrollmentController {
 
   @Get()
   @ApiOkResponse({ type: MyEnrollmentDto })
-  me(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<MyEnrollmentDto> {
+  me(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+  ): Promise<MyEnrollmentDto> {
     return this.enrollments.me(user, studyId);
   }
 
   @Put('screening')
   @ApiOkResponse({ type: ScreeningResultDto })
-  screening(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: SubmitScreeningDto): Promise<ScreeningResultDto> {
+  screening(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: SubmitScreeningDto,
+  ): Promise<ScreeningResultDto> {
     return this.enrollments.submitScreening(user, studyId, body.answers);
   }
 
   @Get('consent')
   @ApiOkResponse({ type: ConsentToSignDto })
-  consent(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<ConsentToSignDto> {
+  consent(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+  ): Promise<ConsentToSignDto> {
     return this.enrollments.consentToSign(user, studyId);
   }
 
@@ -113,7 +149,10 @@ export class MyEnrollmentController {
   }
 
   @Get('steps/:stepId/start')
-  @ApiOkResponse({ type: StepStartDto, description: "The lab's external task for this step, with the reference and a signed return address" })
+  @ApiOkResponse({
+    type: StepStartDto,
+    description: "The lab's external task for this step, with the reference and a signed return address",
+  })
   startStep(
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,
@@ -124,7 +163,11 @@ export class MyEnrollmentController {
 
   @Get('consent.pdf')
   @ApiProduces('application/pdf')
-  async pdf(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Res() response: Response): Promise<void> {
+  async pdf(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Res() response: Response,
+  ): Promise<void> {
     const pdf = await this.enrollments.myPdf(user, studyId);
     sendPdf(response, pdf, `signed-consent-v${pdf.version}.pdf`);
   }
@@ -132,7 +175,11 @@ export class MyEnrollmentController {
   @Post('withdraw')
   @HttpCode(200)
   @ApiOkResponse({ type: WithdrawalResultDto })
-  withdraw(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: WithdrawDto): Promise<WithdrawalResultDto> {
+  withdraw(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: WithdrawDto,
+  ): Promise<WithdrawalResultDto> {
     return this.enrollments.withdrawSelf(user, studyId, body.reason);
   }
 }
@@ -150,7 +197,10 @@ export class RosterController {
   @Get()
   @Roles('coordinator', 'researcher', 'auditor', 'admin')
   @ApiOkResponse({ type: RosterPageDto })
-  list(@Param('studyId', uuidParam('studyId')) studyId: string, @Query() query: RosterQueryDto): Promise<RosterPageDto> {
+  list(
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Query() query: RosterQueryDto,
+  ): Promise<RosterPageDto> {
     return this.enrollments.roster(studyId, query);
   }
 
@@ -158,13 +208,26 @@ export class RosterController {
   @HttpCode(200)
   @Roles('coordinator', 'admin')
   @ApiConsumes('multipart/form-data')
-  @ApiBody({ schema: { type: 'object', properties: { file: { type: 'string', format: 'binary' } }, required: ['file'] } })
+  @ApiBody({
+    schema: { type: 'object', properties: { file: { type: 'string', format: 'binary' } }, required: ['file'] },
+  })
   @ApiOkResponse({ type: ImportResultDto })
-  @UseInterceptors(FileInterceptor('file', { storage: memoryStorage(), limits: { fileSize: MAX_ROSTER_BYTES, files: 1 } }))
-  import(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @UploadedFile() file: Express.Multer.File | undefined): Promise<ImportResultDto> {
-    if (!file || file.size === 0) throw new DomainException('VALIDATION_FAILED', 'Attach the roster as a CSV file.', [{ field: 'file', message: file ? 'is empty' : 'is required' }]);
+  @UseInterceptors(
+    FileInterceptor('file', { storage: memoryStorage(), limits: { fileSize: MAX_ROSTER_BYTES, files: 1 } }),
+  )
+  import(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @UploadedFile() file: Express.Multer.File | undefined,
+  ): Promise<ImportResultDto> {
+    if (!file || file.size === 0)
+      throw new DomainException('VALIDATION_FAILED', 'Attach the roster as a CSV file.', [
+        { field: 'file', message: file ? 'is empty' : 'is required' },
+      ]);
     if (file.buffer.includes(0)) {
-      throw new DomainException('UNSUPPORTED_MEDIA_TYPE', 'The roster must be a CSV text file.', [{ field: 'file', message: 'is not a text file' }]);
+      throw new DomainException('UNSUPPORTED_MEDIA_TYPE', 'The roster must be a CSV text file.', [
+        { field: 'file', message: 'is not a text file' },
+      ]);
     }
     return this.enrollments.importRoster(user, studyId, file.buffer.toString('utf8'));
   }
@@ -173,7 +236,11 @@ export class RosterController {
   @HttpCode(200)
   @Roles('coordinator', 'admin')
   @ApiOkResponse({ type: CountDto })
-  async invite(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: InviteDto): Promise<CountDto> {
+  async invite(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: InviteDto,
+  ): Promise<CountDto> {
     return { count: await this.enrollments.invite(user, studyId, body.enrollmentIds) };
   }
 
@@ -181,7 +248,10 @@ export class RosterController {
   @HttpCode(200)
   @Roles('coordinator', 'researcher', 'admin')
   @ApiOkResponse({ type: PairCohortResultDto })
-  pairCohort(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<PairCohortResultDto> {
+  pairCohort(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+  ): Promise<PairCohortResultDto> {
     return this.enrollments.pairCohort(user, studyId);
   }
 
@@ -189,14 +259,20 @@ export class RosterController {
   @HttpCode(200)
   @Roles('coordinator', 'admin')
   @ApiOkResponse({ type: CountDto })
-  async remind(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<CountDto> {
+  async remind(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+  ): Promise<CountDto> {
     return { count: await this.enrollments.sendReconsentReminders(user, studyId) };
   }
 
   @Get(':enrollmentId')
   @Roles('coordinator', 'researcher', 'auditor', 'admin')
   @ApiOkResponse({ type: ParticipantRecordDto })
-  record(@Param('studyId', uuidParam('studyId')) studyId: string, @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string): Promise<ParticipantRecordDto> {
+  record(
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string,
+  ): Promise<ParticipantRecordDto> {
     return this.enrollments.record(studyId, enrollmentId);
   }
 
@@ -216,7 +292,10 @@ export class RosterController {
 
   @Delete(':enrollmentId/steps/:stepId/complete')
   @Roles('coordinator', 'admin')
-  @ApiOkResponse({ type: RosterEntryDto, description: 'Undoes a completion with a reason, only while its payout has not been approved' })
+  @ApiOkResponse({
+    type: RosterEntryDto,
+    description: 'Undoes a completion with a reason, only while its payout has not been approved',
+  })
   async undoCompletion(
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,
@@ -230,8 +309,14 @@ export class RosterController {
 
   @Get(':enrollmentId/step-codes')
   @Roles('coordinator', 'researcher', 'admin')
-  @ApiOkResponse({ type: StepCodesDto, description: "This participant's own completion codes, for steps that use them" })
-  stepCodes(@Param('studyId', uuidParam('studyId')) studyId: string, @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string): Promise<StepCodesDto> {
+  @ApiOkResponse({
+    type: StepCodesDto,
+    description: "This participant's own completion codes, for steps that use them",
+  })
+  stepCodes(
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string,
+  ): Promise<StepCodesDto> {
     return this.stepProgress.codesOf(studyId, enrollmentId);
   }
 
@@ -300,7 +385,10 @@ export class StepCompletionsController {
   @ApiProduces('text/csv')
   async codesCsv(@Param('studyId', uuidParam('studyId')) studyId: string, @Res() response: Response): Promise<void> {
     const csv = await this.stepProgress.codesCsv(studyId);
-    response.type('text/csv').setHeader('Content-Disposition', 'attachment; filename="participant-codes.csv"').send(csv);
+    response
+      .type('text/csv')
+      .setHeader('Content-Disposition', 'attachment; filename="participant-codes.csv"')
+      .send(csv);
   }
 }
 
@@ -315,8 +403,16 @@ export class ReturnLinkController {
 
   @Get(':token')
   @PublicWithOptionalSession()
-  @ApiResponse({ status: 302, description: "To the portal's return page, which says whether the step was marked done or why not" })
-  async returnFromTask(@Param('token') token: string, @CurrentUser() user: SessionUser | undefined, @Req() request: Request, @Res() response: Response): Promise<void> {
+  @ApiResponse({
+    status: 302,
+    description: "To the portal's return page, which says whether the step was marked done or why not",
+  })
+  async returnFromTask(
+    @Param('token') token: string,
+    @CurrentUser() user: SessionUser | undefined,
+    @Req() request: Request,
+    @Res() response: Response,
+  ): Promise<void> {
     const result = await this.stepProgress.completeFromReturnLink(token.slice(0, 400), user ?? null, clientOf(request));
     const target = new URL('/return', this.config.portalUrl);
     target.searchParams.set('result', result.outcome);

@@ -7,13 +7,28 @@ import { StepsModule } from '../steps';
 import { StudiesModule } from '../studies';
 import { UsersModule } from '../users';
 import { PayoutsModule } from '../payouts';
-import { MyEnrollmentController, ReturnLinkController, RosterController, StepCompletionsController } from './enrollments.controller';
+import {
+  MyEnrollmentController,
+  ReturnLinkController,
+  RosterController,
+  StepCompletionsController,
+} from './enrollments.controller';
 import { StepProgressService } from './step-progress.service';
 import { RemindersModule } from '../reminders';
 import { EnrollmentsService } from './enrollments.service';
 
 @Module({
-  imports: [AuditModule, StudiesModule, StepsModule, ConsentModule, RandomizationModule, UsersModule, MailModule, PayoutsModule, RemindersModule],
+  imports: [
+    AuditModule,
+    StudiesModule,
+    StepsModule,
+    ConsentModule,
+    RandomizationModule,
+    UsersModule,
+    MailModule,
+    PayoutsModule,
+    RemindersModule,
+  ],
   controllers: [MyEnrollmentController, RosterController, StepCompletionsController, ReturnLinkController],
   providers: [EnrollmentsService, StepProgressService],
   exports: [EnrollmentsService],

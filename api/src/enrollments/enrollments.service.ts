@@ -81,35 +81,59 @@ export class EnrollmentsService implements OnModuleInit {
   ) {}
 
   async onModuleInit(): Promise<void> {
-    this.consent.onActivation((manager, studyId, version, actor) => this.requestReconsent(manager, studyId, version, actor));
+    this.consent.onActivation((manager, studyId, version, actor) =>
+      this.requestReconsent(manager, studyId, version, actor),
+    );
   }
 
   // ── the participant's own enrollment ──────────────────────────────────────
 
   async join(user: SessionUser, studyId: string): Promise<{ created: boolean; enrollment: MyEnrollmentDto }> {
-    if (user.role !== 'participant') throw new DomainException('FORBIDDEN', 'Staff accounts cannot take part in studies.');
+    if (user.role !== 'participant')
+      throw new DomainException('FORBIDDEN', 'Staff accounts cannot take part in studies.');
     const created = await this.dataSource.transaction(async (manager) => {
       const study = await this.studies.require(studyId, manager);
       const existing = await manager.findOne(EnrollmentEntity, { where: { studyId, participantId: user.id } });
       if (existing) return false;
-      if (study.status !== 'recruiting') throw new DomainException('STUDY_NOT_RECRUITING', 'This study is not taking new participants right now.');
+      if (study.status !== 'recruiting')
+        throw new DomainException('STUDY_NOT_RECRUITING', 'This study is not taking new participants right now.');
       const enrollment = await this.insertEnrollment(manager, studyId, user.id, { invitedAt: new Date() });
-      await this.audit.record(manager, { chain: studyId, actor: user, action: 'enrollment.joined', subjectType: 'enrollment', subjectId: enrollment.id, data: { reference: enrollment.reference } });
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor: user,
+        action: 'enrollment.joined',
+        subjectType: 'enrollment',
+        subjectId: enrollment.id,
+        data: { reference: enrollment.reference },
+      });
       return true;
     });
     return { created, enrollment: await this.me(user, studyId) };
   }
 
-  private async insertEnrollment(manager: EntityManager, studyId: string, participantId: string, values: Partial<EnrollmentEntity>): Promise<EnrollmentEntity> {
+  private async insertEnrollment(
+    manager: EntityManager,
+    studyId: string,
+    participantId: string,
+    values: Partial<EnrollmentEntity>,
+  ): Promise<EnrollmentEntity> {
     for (let attempt = 0; ; attempt++) {
       const reference = newReference();
       const clash = await manager.exists(EnrollmentEntity, { where: { studyId, reference } });
-      if (!clash) return manager.save(manager.create(EnrollmentEntity, { studyId, participantId, reference, status: 'invited', ...values }));
+      if (!clash)
+        return manager.save(
+          manager.create(EnrollmentEntity, { studyId, participantId, reference, status: 'invited', ...values }),
+        );
       if (attempt > 5) throw new Error('could not find a free enrollment reference');
     }
   }
 
-  private async requireMine(manager: EntityManager, user: SessionUser, studyId: string, lock = false): Promise<EnrollmentEntity> {
+  private async requireMine(
+    manager: EntityManager,
+    user: SessionUser,
+    studyId: string,
+    lock = false,
+  ): Promise<EnrollmentEntity> {
     const enrollment = await manager.findOne(EnrollmentEntity, {
       where: { studyId, participantId: user.id },
       ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}),
@@ -140,10 +164,13 @@ export class EnrollmentsService implements OnModuleInit {
       : ordered.length
         ? {
             label: ordered.map((c) => c!.participantLabel).join(', then '),
-            instructions: ordered.map((c, i) => `${i + 1}. ${c!.participantLabel}: ${c!.participantInstructions}`).join('\n\n'),
+            instructions: ordered
+              .map((c, i) => `${i + 1}. ${c!.participantLabel}: ${c!.participantInstructions}`)
+              .join('\n\n'),
           }
         : null;
-    const needsSignature = Boolean(active) && enrollment.signedVersionId !== active?.id && !CLOSED_STATUSES.includes(enrollment.status);
+    const needsSignature =
+      Boolean(active) && enrollment.signedVersionId !== active?.id && !CLOSED_STATUSES.includes(enrollment.status);
     const lastSignature = signatures[signatures.length - 1];
     return {
       id: enrollment.id,
@@ -186,16 +213,25 @@ export class EnrollmentsService implements OnModuleInit {
     }
   }
 
-  async submitScreening(user: SessionUser, studyId: string, answers: Record<string, unknown>): Promise<ScreeningResultDto> {
+  async submitScreening(
+    user: SessionUser,
+    studyId: string,
+    answers: Record<string, unknown>,
+  ): Promise<ScreeningResultDto> {
     const outcome = await this.dataSource.transaction(async (manager) => {
       const enrollment = await this.requireMine(manager, user, studyId, true);
       if (!['invited', 'screened', 'excluded'].includes(enrollment.status)) {
-        throw new DomainException('CONFLICT', 'Your screening answers are final once you have signed the consent form.');
+        throw new DomainException(
+          'CONFLICT',
+          'Your screening answers are final once you have signed the consent form.',
+        );
       }
       const definition = await this.studies.screeningDefinition(studyId, manager);
       const result = evaluateScreening(definition.eligibility, definition.stratification, answers);
       if (result.errors.length > 0) {
-        const labels = Object.fromEntries([...definition.eligibility, ...definition.stratification].map((q) => [q.key, q.label]));
+        const labels = Object.fromEntries(
+          [...definition.eligibility, ...definition.stratification].map((q) => [q.key, q.label]),
+        );
         throw new DomainException('VALIDATION_FAILED', screeningProblemMessage(result.errors, labels), result.errors);
       }
       enrollment.screeningAnswers = result.answers;
@@ -236,16 +272,26 @@ export class EnrollmentsService implements OnModuleInit {
    * the audit events and the job that makes and e-mails the signed copy. A repeated request returns what the first
    * one did.
    */
-  async sign(user: SessionUser, studyId: string, input: SignConsentDto, client: ClientInfo): Promise<{ created: boolean; result: SignatureResultDto }> {
+  async sign(
+    user: SessionUser,
+    studyId: string,
+    input: SignConsentDto,
+    client: ClientInfo,
+  ): Promise<{ created: boolean; result: SignatureResultDto }> {
     const { signature, created } = await this.dataSource.transaction(async (manager) => {
       const enrollment = await this.requireMine(manager, user, studyId, true);
       const terms = await this.consent.signingTerms(manager, studyId, enrollment.id);
       if (!terms) throw new DomainException('CONFLICT', 'There is no active consent form to sign.');
       const active = terms.version;
       if (input.versionId !== active.id || input.fingerprint !== active.fingerprint) {
-        throw new DomainException('CONSENT_VERSION_STALE', 'The consent form has changed since you opened it. Please read the current version.', undefined, {
-          currentVersion: { versionId: active.id, version: active.version, fingerprint: active.fingerprint },
-        });
+        throw new DomainException(
+          'CONSENT_VERSION_STALE',
+          'The consent form has changed since you opened it. Please read the current version.',
+          undefined,
+          {
+            currentVersion: { versionId: active.id, version: active.version, fingerprint: active.fingerprint },
+          },
+        );
       }
       if (terms.existing) return { signature: terms.existing, created: false };
       const firstConsent = ['screened', 'consented'].includes(enrollment.status);
@@ -253,19 +299,26 @@ export class EnrollmentsService implements OnModuleInit {
       if (!firstConsent && !reconsent) {
         throw new DomainException(
           'CONFLICT',
-          enrollment.status === 'invited' ? 'Please answer the screening questions first.' : 'Your participation is closed, so there is nothing to sign.',
+          enrollment.status === 'invited'
+            ? 'Please answer the screening questions first.'
+            : 'Your participation is closed, so there is nothing to sign.',
         );
       }
       if (firstConsent) {
         const study = await this.studies.require(studyId, manager);
-        if (study.status !== 'recruiting') throw new DomainException('STUDY_NOT_RECRUITING', 'This study is not taking new participants right now.');
+        if (study.status !== 'recruiting')
+          throw new DomainException('STUDY_NOT_RECRUITING', 'This study is not taking new participants right now.');
       }
 
       const now = new Date();
       const changes: Partial<EnrollmentEntity> = { signedVersionId: active.id, reconsentRequestedAt: null };
       if (firstConsent) {
         // The allocator claims its slot before this transaction writes any audit event (see its lock-order note).
-        const outcome = await this.randomization.allocate(manager, user, { studyId, enrollmentId: enrollment.id, covariates: enrollment.covariates });
+        const outcome = await this.randomization.allocate(manager, user, {
+          studyId,
+          enrollmentId: enrollment.id,
+          covariates: enrollment.covariates,
+        });
         Object.assign(changes, {
           status: 'assigned',
           consentedAt: now,
@@ -285,14 +338,25 @@ export class EnrollmentsService implements OnModuleInit {
         userAgent: client.userAgent,
       });
       // Only the columns signing changes, in one UPDATE (a save would read the row again first).
-      await manager.update(EnrollmentEntity, { id: enrollment.id }, changes as QueryDeepPartialEntity<EnrollmentEntity>);
+      await manager.update(
+        EnrollmentEntity,
+        { id: enrollment.id },
+        changes as QueryDeepPartialEntity<EnrollmentEntity>,
+      );
       await this.audit.record(manager, {
         chain: studyId,
         actor: user,
         action: reconsent ? 'consent.re-signed' : 'consent.signed',
         subjectType: 'enrollment',
         subjectId: enrollment.id,
-        data: { signatureId: signature.id, version: active.version, fingerprint: active.fingerprint, ip: client.ip, userAgent: client.userAgent, withMark: Boolean(input.mark) },
+        data: {
+          signatureId: signature.id,
+          version: active.version,
+          fingerprint: active.fingerprint,
+          ip: client.ip,
+          userAgent: client.userAgent,
+          withMark: Boolean(input.mark),
+        },
       });
       await this.jobs.enqueue(manager, JOB_NAMES.signedCopy, { signatureId: signature.id });
       return { signature, created: true };
@@ -300,23 +364,41 @@ export class EnrollmentsService implements OnModuleInit {
     const enrollment = await this.me(user, studyId);
     return {
       created,
-      result: { signatureId: signature.id, signedAt: signature.signedAt.toISOString(), assignment: enrollment.assignment, enrollment },
+      result: {
+        signatureId: signature.id,
+        signedAt: signature.signedAt.toISOString(),
+        assignment: enrollment.assignment,
+        enrollment,
+      },
     };
   }
 
   async myPdf(user: SessionUser, studyId: string) {
     const enrollment = await this.requireMine(this.dataSource.manager, user, studyId);
     const pdf = await this.consent.signedPdf(enrollment.id);
-    if (!pdf) throw new DomainException('NOT_FOUND', 'Your signed copy is still being prepared. Please try again in a moment.');
+    if (!pdf)
+      throw new DomainException('NOT_FOUND', 'Your signed copy is still being prepared. Please try again in a moment.');
     return pdf;
   }
 
   async withdrawSelf(user: SessionUser, studyId: string, reason: string | undefined): Promise<WithdrawalResultDto> {
     const enrollment = await this.dataSource.transaction((manager) =>
-      this.withdraw(manager, user, studyId, () => this.requireMine(manager, user, studyId, true), reason, 'participant'),
+      this.withdraw(
+        manager,
+        user,
+        studyId,
+        () => this.requireMine(manager, user, studyId, true),
+        reason,
+        'participant',
+      ),
     );
     const view = await this.myView(enrollment);
-    return { withdrewAt: enrollment.withdrewAt!.toISOString(), earnedMinor: view.earned.earnedMinor, stillToBePaidMinor: view.earned.stillToBePaidMinor, enrollment: view };
+    return {
+      withdrewAt: enrollment.withdrewAt!.toISOString(),
+      earnedMinor: view.earned.earnedMinor,
+      stillToBePaidMinor: view.earned.stillToBePaidMinor,
+      enrollment: view,
+    };
   }
 
   /** Records a withdrawal; records are never deleted, and the person keeps what they earned. */
@@ -364,7 +446,12 @@ export class EnrollmentsService implements OnModuleInit {
         paymentMethod: 'the payment method you set up',
         paymentDays: 14,
       });
-      await this.mail.enqueue(manager, { to: participant.email, subject: email.subject, text: email.text, html: email.html });
+      await this.mail.enqueue(manager, {
+        to: participant.email,
+        subject: email.subject,
+        text: email.text,
+        html: email.html,
+      });
     }
     return enrollment;
   }
@@ -372,16 +459,24 @@ export class EnrollmentsService implements OnModuleInit {
   // ── re-consent ────────────────────────────────────────────────────────────
 
   /** When a new version becomes active, everyone still taking part must sign it before their next step. */
-  private async requestReconsent(manager: EntityManager, studyId: string, version: ConsentVersionEntity, actor: AuditActor): Promise<void> {
+  private async requestReconsent(
+    manager: EntityManager,
+    studyId: string,
+    version: ConsentVersionEntity,
+    actor: AuditActor,
+  ): Promise<void> {
     const flagged = await manager
       .createQueryBuilder()
       .update(EnrollmentEntity)
       .set({ reconsentRequestedAt: () => 'now()' })
-      .where('study_id = :studyId AND status IN (:...statuses) AND signed_version_id IS NOT NULL AND signed_version_id <> :versionId', {
-        studyId,
-        statuses: ['assigned', 'active'],
-        versionId: version.id,
-      })
+      .where(
+        'study_id = :studyId AND status IN (:...statuses) AND signed_version_id IS NOT NULL AND signed_version_id <> :versionId',
+        {
+          studyId,
+          statuses: ['assigned', 'active'],
+          versionId: version.id,
+        },
+      )
       .execute();
     await this.audit.record(manager, {
       chain: studyId,
@@ -416,9 +511,22 @@ export class EnrollmentsService implements OnModuleInit {
           changeSummary: 'The research team has updated the consent form for this study.',
         });
         await this.mail.enqueue(manager, { to: row.email, subject: email.subject, text: email.text, html: email.html });
-        await this.contacts.log(manager, { studyId, enrollmentId: row.id, kind: 'reconsent-request', subject: email.subject, sentBy: actor.id });
+        await this.contacts.log(manager, {
+          studyId,
+          enrollmentId: row.id,
+          kind: 'reconsent-request',
+          subject: email.subject,
+          sentBy: actor.id,
+        });
       }
-      await this.audit.record(manager, { chain: studyId, actor, action: 'consent.reconsent-reminded', subjectType: 'study', subjectId: studyId, data: { count: rows.length } });
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'consent.reconsent-reminded',
+        subjectType: 'study',
+        subjectId: studyId,
+        data: { count: rows.length },
+      });
       return rows.length;
     });
   }
@@ -435,8 +543,14 @@ export class EnrollmentsService implements OnModuleInit {
     if (query.status) builder.andWhere('e.status = :status', { status: query.status });
     if (query.needsReconsent) builder.andWhere('e.reconsent_requested_at IS NOT NULL');
     if (query.search?.trim()) {
-      const pattern = `%${query.search.trim().toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
-      builder.andWhere('(lower(u.email) LIKE :pattern OR lower(e.display_name) LIKE :pattern OR lower(e.reference) LIKE :pattern)', { pattern });
+      const pattern = `%${query.search
+        .trim()
+        .toLowerCase()
+        .replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+      builder.andWhere(
+        '(lower(u.email) LIKE :pattern OR lower(e.display_name) LIKE :pattern OR lower(e.reference) LIKE :pattern)',
+        { pattern },
+      );
     }
     const total = await builder.getCount();
     const { entities, raw } = await builder
@@ -469,7 +583,11 @@ export class EnrollmentsService implements OnModuleInit {
   /** The next step with its window, and reminders gone unanswered, for each enrollment on a roster page. */
   private async progressOf(studyId: string, enrollments: EnrollmentEntity[]): Promise<Map<string, RosterProgress>> {
     const ids = enrollments.map((e) => e.id);
-    const [schedules, completions, followUp] = await Promise.all([this.steps.schedulesOf(studyId), this.steps.completionTimesOf(ids), this.contacts.followUpOf(studyId, ids)]);
+    const [schedules, completions, followUp] = await Promise.all([
+      this.steps.schedulesOf(studyId),
+      this.steps.completionTimesOf(ids),
+      this.contacts.followUpOf(studyId, ids),
+    ]);
     const now = new Date();
     return new Map(
       enrollments.map((e) => {
@@ -481,10 +599,23 @@ export class EnrollmentsService implements OnModuleInit {
         const timing = window ? stepTiming(window, false, now) : null;
         const nextStep =
           window && timing && timing !== 'done'
-            ? { stepId: window.stepId, title: schedules[index].title, opensAt: window.opensAt?.toISOString() ?? null, dueAt: window.dueAt?.toISOString() ?? null, timing }
+            ? {
+                stepId: window.stepId,
+                title: schedules[index].title,
+                opensAt: window.opensAt?.toISOString() ?? null,
+                dueAt: window.dueAt?.toISOString() ?? null,
+                timing,
+              }
             : null;
         const follow = followUp.get(e.id) ?? { unansweredReminders: 0, suggestLost: false };
-        return [e.id, { nextStep, unansweredReminders: follow.unansweredReminders, suggestLost: Boolean(takingPart) && follow.suggestLost }];
+        return [
+          e.id,
+          {
+            nextStep,
+            unansweredReminders: follow.unansweredReminders,
+            suggestLost: Boolean(takingPart) && follow.suggestLost,
+          },
+        ];
       }),
     );
   }
@@ -538,10 +669,22 @@ export class EnrollmentsService implements OnModuleInit {
           alreadyEnrolled += 1;
           continue;
         }
-        await this.insertEnrollment(manager, studyId, user.id, { covariates: row.covariates, displayName: row.name, invitedBy: actor.id, invitedAt: new Date() });
+        await this.insertEnrollment(manager, studyId, user.id, {
+          covariates: row.covariates,
+          displayName: row.name,
+          invitedBy: actor.id,
+          invitedAt: new Date(),
+        });
         created += 1;
       }
-      await this.audit.record(manager, { chain: studyId, actor, action: 'roster.imported', subjectType: 'study', subjectId: studyId, data: { created, alreadyEnrolled, rowErrors: parsed.errors.length } });
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'roster.imported',
+        subjectType: 'study',
+        subjectId: studyId,
+        data: { created, alreadyEnrolled, rowErrors: parsed.errors.length },
+      });
     });
     parsed.errors.sort((a, b) => a.line - b.line);
     return { created, alreadyEnrolled, errors: parsed.errors, ignoredColumns: parsed.ignoredColumns };
@@ -550,7 +693,8 @@ export class EnrollmentsService implements OnModuleInit {
   async invite(actor: AuditActor, studyId: string, enrollmentIds: string[] | undefined): Promise<number> {
     return this.dataSource.transaction(async (manager) => {
       const study = await this.studies.require(studyId, manager);
-      if (study.status !== 'recruiting') throw new DomainException('STUDY_NOT_RECRUITING', 'Invitations go out once the study is recruiting.');
+      if (study.status !== 'recruiting')
+        throw new DomainException('STUDY_NOT_RECRUITING', 'Invitations go out once the study is recruiting.');
       const steps = await this.steps.list(studyId, manager);
       const builder = manager
         .createQueryBuilder(EnrollmentEntity, 'e')
@@ -558,7 +702,10 @@ export class EnrollmentsService implements OnModuleInit {
         .addSelect('u.email', 'email')
         .setLock('pessimistic_write', undefined, ['e'])
         .where("e.study_id = :studyId AND e.status = 'invited'", { studyId });
-      if (enrollmentIds) builder.andWhere('e.id IN (:...ids)', { ids: enrollmentIds.length ? enrollmentIds : ['00000000-0000-0000-0000-000000000000'] });
+      if (enrollmentIds)
+        builder.andWhere('e.id IN (:...ids)', {
+          ids: enrollmentIds.length ? enrollmentIds : ['00000000-0000-0000-0000-000000000000'],
+        });
       else builder.andWhere('e.invitation_sent_at IS NULL');
       const { entities, raw } = await builder.getRawAndEntities();
       const link = new URL(`/s/${study.slug}`, this.config.portalUrl).toString();
@@ -576,21 +723,43 @@ export class EnrollmentsService implements OnModuleInit {
           stepsPhrase: `${steps.items.length} ${steps.items.length === 1 ? 'step' : 'steps'}`,
           totalPay: formatMoney(steps.totalPayMinor, study.currency),
         });
-        await this.mail.enqueue(manager, { to: raw[i].email, subject: email.subject, text: email.text, html: email.html });
-        await this.contacts.log(manager, { studyId, enrollmentId: enrollment.id, kind: 'invitation', subject: email.subject, sentBy: actor.id });
+        await this.mail.enqueue(manager, {
+          to: raw[i].email,
+          subject: email.subject,
+          text: email.text,
+          html: email.html,
+        });
+        await this.contacts.log(manager, {
+          studyId,
+          enrollmentId: enrollment.id,
+          kind: 'invitation',
+          subject: email.subject,
+          sentBy: actor.id,
+        });
         await manager.update(EnrollmentEntity, { id: enrollment.id }, { invitationSentAt: new Date() });
       }
-      await this.audit.record(manager, { chain: studyId, actor, action: 'roster.invited', subjectType: 'study', subjectId: studyId, data: { count: entities.length } });
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'roster.invited',
+        subjectType: 'study',
+        subjectId: studyId,
+        data: { count: entities.length },
+      });
       return entities.length;
     });
   }
 
   /** Matched pairs: everyone on the roster with a pretest who has not consented yet forms the cohort. */
-  async pairCohort(actor: AuditActor, studyId: string): Promise<{ pairs: number; leftoverEnrollmentId: string | null; cohort: number }> {
+  async pairCohort(
+    actor: AuditActor,
+    studyId: string,
+  ): Promise<{ pairs: number; leftoverEnrollmentId: string | null; cohort: number }> {
     return this.dataSource.transaction(async (manager) => {
       const scheme = await this.randomization.schemeOf(studyId, manager);
       const pretestKey = (scheme?.settings as { pretestKey?: string } | undefined)?.pretestKey;
-      if (!pretestKey) throw new DomainException('CONFLICT', 'Pairing applies to a study whose scheme is matched pairs.');
+      if (!pretestKey)
+        throw new DomainException('CONFLICT', 'Pairing applies to a study whose scheme is matched pairs.');
       const rows = await manager.find(EnrollmentEntity, { where: { studyId }, order: { createdAt: 'ASC', id: 'ASC' } });
       const cohort = rows
         .filter((e) => ['invited', 'screened'].includes(e.status) && typeof e.covariates[pretestKey] === 'number')
@@ -600,43 +769,89 @@ export class EnrollmentsService implements OnModuleInit {
     });
   }
 
-  private async requireOnRoster(manager: EntityManager, studyId: string, enrollmentId: string): Promise<EnrollmentEntity> {
-    const enrollment = await manager.findOne(EnrollmentEntity, { where: { id: enrollmentId, studyId }, lock: { mode: 'pessimistic_write' } });
+  private async requireOnRoster(
+    manager: EntityManager,
+    studyId: string,
+    enrollmentId: string,
+  ): Promise<EnrollmentEntity> {
+    const enrollment = await manager.findOne(EnrollmentEntity, {
+      where: { id: enrollmentId, studyId },
+      lock: { mode: 'pessimistic_write' },
+    });
     if (!enrollment) throw new DomainException('NOT_FOUND', 'No such participant in this study.');
     return enrollment;
   }
 
-  async markLost(actor: AuditActor, studyId: string, enrollmentId: string, reason: string | undefined): Promise<RosterEntryDto> {
+  async markLost(
+    actor: AuditActor,
+    studyId: string,
+    enrollmentId: string,
+    reason: string | undefined,
+  ): Promise<RosterEntryDto> {
     await this.dataSource.transaction(async (manager) => {
       const enrollment = await this.requireOnRoster(manager, studyId, enrollmentId);
       if (!['assigned', 'active'].includes(enrollment.status)) {
-        throw new DomainException('CONFLICT', 'Only someone who was assigned and has not finished can be lost to follow-up.');
+        throw new DomainException(
+          'CONFLICT',
+          'Only someone who was assigned and has not finished can be lost to follow-up.',
+        );
       }
       enrollment.status = 'lost';
       enrollment.lostAt = new Date();
       enrollment.lostReason = reason?.trim() || null;
       await manager.save(enrollment);
-      await this.audit.record(manager, { chain: studyId, actor, action: 'enrollment.lost', subjectType: 'enrollment', subjectId: enrollmentId, data: { reason: enrollment.lostReason } });
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'enrollment.lost',
+        subjectType: 'enrollment',
+        subjectId: enrollmentId,
+        data: { reason: enrollment.lostReason },
+      });
     });
     return (await this.record(studyId, enrollmentId)).enrollment;
   }
 
-  async withdrawOnBehalf(actor: AuditActor, studyId: string, enrollmentId: string, reason: string | undefined): Promise<RosterEntryDto> {
-    await this.dataSource.transaction((manager) => this.withdraw(manager, actor, studyId, () => this.requireOnRoster(manager, studyId, enrollmentId), reason, 'staff'));
+  async withdrawOnBehalf(
+    actor: AuditActor,
+    studyId: string,
+    enrollmentId: string,
+    reason: string | undefined,
+  ): Promise<RosterEntryDto> {
+    await this.dataSource.transaction((manager) =>
+      this.withdraw(
+        manager,
+        actor,
+        studyId,
+        () => this.requireOnRoster(manager, studyId, enrollmentId),
+        reason,
+        'staff',
+      ),
+    );
     return (await this.record(studyId, enrollmentId)).enrollment;
   }
 
   async record(studyId: string, enrollmentId: string): Promise<ParticipantRecordDto> {
     const study = await this.studies.require(studyId);
-    const enrollment = await this.dataSource.getRepository(EnrollmentEntity).findOne({ where: { id: enrollmentId, studyId } });
+    const enrollment = await this.dataSource
+      .getRepository(EnrollmentEntity)
+      .findOne({ where: { id: enrollmentId, studyId } });
     if (!enrollment) throw new DomainException('NOT_FOUND', 'No such participant in this study.');
-    const participant = await this.dataSource.query(`SELECT email FROM user_account WHERE id = $1`, [enrollment.participantId]);
+    const participant = await this.dataSource.query(`SELECT email FROM user_account WHERE id = $1`, [
+      enrollment.participantId,
+    ]);
     const versions = await this.consent.list(studyId);
     const signatures = await this.consent.signaturesOf(enrollmentId);
     const story = await this.audit.storyOf(studyId, enrollment.reference);
     const progress = await this.progressOf(studyId, [enrollment]);
     return {
-      enrollment: this.rosterEntry(enrollment, participant[0]?.email ?? '', await this.conditionLabels(study), versions, progress.get(enrollment.id)),
+      enrollment: this.rosterEntry(
+        enrollment,
+        participant[0]?.email ?? '',
+        await this.conditionLabels(study),
+        versions,
+        progress.get(enrollment.id),
+      ),
       steps: await this.stepProgress.recordSteps(studyId, enrollment),
       withdrawalReason: enrollment.withdrawalReason,
       lostReason: enrollment.lostReason,
@@ -653,7 +868,14 @@ export class EnrollmentsService implements OnModuleInit {
         userAgent: s.userAgent,
         hasMark: Boolean(s.mark),
       })),
-      timeline: story.map((event) => ({ at: event.at.toISOString(), action: event.action, name: event.name, sentence: event.sentence, actorEmail: event.actorEmail, data: event.data })),
+      timeline: story.map((event) => ({
+        at: event.at.toISOString(),
+        action: event.action,
+        name: event.name,
+        sentence: event.sentence,
+        actorEmail: event.actorEmail,
+        data: event.data,
+      })),
     };
   }
 
@@ -668,7 +890,9 @@ export class EnrollmentsService implements OnModuleInit {
   }
 
   async staffPdf(studyId: string, enrollmentId: string, signatureId: string) {
-    const enrollment = await this.dataSource.getRepository(EnrollmentEntity).findOne({ where: { id: enrollmentId, studyId } });
+    const enrollment = await this.dataSource
+      .getRepository(EnrollmentEntity)
+      .findOne({ where: { id: enrollmentId, studyId } });
     if (!enrollment) throw new DomainException('NOT_FOUND', 'No such participant in this study.');
     const pdf = await this.consent.signedPdf(enrollmentId, signatureId);
     if (!pdf) throw new DomainException('NOT_FOUND', 'This signed copy is not ready yet.');

@@ -43,20 +43,42 @@ export function parseRoster(csv: string, factors: RosterFactor[]): ParsedRoster 
   try {
     records = parse(csv.replace(/^\uFEFF/, ''), { skip_empty_lines: true, relax_column_count: true, trim: true });
   } catch (error) {
-    return { rows: [], errors: [{ line: 1, field: 'file', message: `is not readable as CSV: ${(error as Error).message}` }], ignoredColumns: [] };
+    return {
+      rows: [],
+      errors: [{ line: 1, field: 'file', message: `is not readable as CSV: ${(error as Error).message}` }],
+      ignoredColumns: [],
+    };
   }
-  if (records.length === 0) return { rows: [], errors: [{ line: 1, field: 'file', message: 'is empty' }], ignoredColumns: [] };
+  if (records.length === 0)
+    return { rows: [], errors: [{ line: 1, field: 'file', message: 'is empty' }], ignoredColumns: [] };
   const header = records[0].map((h) => h.trim().toLowerCase());
   const emailColumn = header.findIndex((h) => h === 'email' || h === 'e-mail');
-  if (emailColumn < 0) return { rows: [], errors: [{ line: 1, field: 'email', message: 'the header row needs an "email" column' }], ignoredColumns: [] };
+  if (emailColumn < 0)
+    return {
+      rows: [],
+      errors: [{ line: 1, field: 'email', message: 'the header row needs an "email" column' }],
+      ignoredColumns: [],
+    };
   const nameColumn = header.indexOf('name');
   const factorColumns = factors.map((f) => ({ factor: f, column: header.indexOf(f.key) }));
-  const ignoredColumns = header.filter((h, i) => i !== emailColumn && i !== nameColumn && !factors.some((f) => f.key === h));
+  const ignoredColumns = header.filter(
+    (h, i) => i !== emailColumn && i !== nameColumn && !factors.some((f) => f.key === h),
+  );
   const errors: RosterRowError[] = factorColumns
     .filter((c) => c.column < 0)
-    .map((c) => ({ line: 1, field: c.factor.key, message: `the header row has no "${c.factor.key}" column; those answers will be asked at screening` }));
+    .map((c) => ({
+      line: 1,
+      field: c.factor.key,
+      message: `the header row has no "${c.factor.key}" column; those answers will be asked at screening`,
+    }));
   if (records.length - 1 > MAX_ROSTER_ROWS) {
-    return { rows: [], errors: [{ line: 1, field: 'file', message: `has ${records.length - 1} rows; at most ${MAX_ROSTER_ROWS} per import` }], ignoredColumns };
+    return {
+      rows: [],
+      errors: [
+        { line: 1, field: 'file', message: `has ${records.length - 1} rows; at most ${MAX_ROSTER_ROWS} per import` },
+      ],
+      ignoredColumns,
+    };
   }
 
   const rows: RosterRow[] = [];
@@ -65,7 +87,11 @@ export function parseRoster(csv: string, factors: RosterFactor[]): ParsedRoster 
     const line = index + 2;
     const email = (record[emailColumn] ?? '').trim().toLowerCase();
     if (email.length > MAX_EMAIL_LENGTH || CONTROL_CHARACTERS.test(email)) {
-      errors.push({ line, field: 'email', message: `is not an e-mail address (at most ${MAX_EMAIL_LENGTH} characters, no control characters)` });
+      errors.push({
+        line,
+        field: 'email',
+        message: `is not an e-mail address (at most ${MAX_EMAIL_LENGTH} characters, no control characters)`,
+      });
       return;
     }
     if (!EMAIL.test(email)) {
@@ -93,7 +119,11 @@ export function parseRoster(csv: string, factors: RosterFactor[]): ParsedRoster 
       const raw = (record[column] ?? '').trim();
       if (raw === '') continue;
       if (raw.length > MAX_DISPLAY_NAME_LENGTH || CONTROL_CHARACTERS.test(raw)) {
-        errors.push({ line, field: factor.key, message: `is not a readable answer (at most ${MAX_DISPLAY_NAME_LENGTH} characters, no control characters)` });
+        errors.push({
+          line,
+          field: factor.key,
+          message: `is not a readable answer (at most ${MAX_DISPLAY_NAME_LENGTH} characters, no control characters)`,
+        });
         rowOk = false;
         continue;
       }
@@ -104,7 +134,11 @@ export function parseRoster(csv: string, factors: RosterFactor[]): ParsedRoster 
           rowOk = false;
         } else covariates[factor.key] = value;
       } else if (!(factor.categories ?? []).includes(raw)) {
-        errors.push({ line, field: factor.key, message: `"${raw}" is not one of ${(factor.categories ?? []).join(', ')}` });
+        errors.push({
+          line,
+          field: factor.key,
+          message: `"${raw}" is not one of ${(factor.categories ?? []).join(', ')}`,
+        });
         rowOk = false;
       } else covariates[factor.key] = raw;
     }

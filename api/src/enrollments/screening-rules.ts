@@ -35,7 +35,8 @@ export interface ScreeningOutcome {
 function describeRule(question: EligibilityQuestion): string {
   if (question.criterion) return question.criterion;
   if (question.kind === 'number') {
-    if (question.eligibleMin !== null && question.eligibleMax !== null) return `${question.label}: between ${question.eligibleMin} and ${question.eligibleMax}`;
+    if (question.eligibleMin !== null && question.eligibleMax !== null)
+      return `${question.label}: between ${question.eligibleMin} and ${question.eligibleMax}`;
     if (question.eligibleMin !== null) return `${question.label}: at least ${question.eligibleMin}`;
     if (question.eligibleMax !== null) return `${question.label}: at most ${question.eligibleMax}`;
   }
@@ -99,12 +100,18 @@ export function evaluateScreening(
         errors.push({ field, message: 'must be a number' });
         continue;
       }
-      if ((question.minValue !== null && value < question.minValue) || (question.maxValue !== null && value > question.maxValue)) {
+      if (
+        (question.minValue !== null && value < question.minValue) ||
+        (question.maxValue !== null && value > question.maxValue)
+      ) {
         errors.push({ field, message: numberRangeWords(question.minValue, question.maxValue) });
         continue;
       }
       answers[question.key] = value;
-      if ((question.eligibleMin !== null && value < question.eligibleMin) || (question.eligibleMax !== null && value > question.eligibleMax)) {
+      if (
+        (question.eligibleMin !== null && value < question.eligibleMin) ||
+        (question.eligibleMax !== null && value > question.eligibleMax)
+      ) {
         reasons.push(describeRule(question));
       }
     } else {

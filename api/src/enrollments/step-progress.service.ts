@@ -20,11 +20,22 @@ import { EnrollmentEntity } from './entities/enrollment.entity';
 const WRONG_CODE_LIMIT = 5;
 const WRONG_CODE_WINDOW_MS = 15 * 60 * 1000;
 const TAKING_PART = ['assigned', 'active'];
-const DATE = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'long', year: 'numeric', hour: '2-digit', minute: '2-digit', timeZone: 'UTC', timeZoneName: 'short' });
+const DATE = new Intl.DateTimeFormat('en-GB', {
+  day: 'numeric',
+  month: 'long',
+  year: 'numeric',
+  hour: '2-digit',
+  minute: '2-digit',
+  timeZone: 'UTC',
+  timeZoneName: 'short',
+});
 
 /** Why a return link was refused; the portal's return page explains each in plain words. */
-export type ReturnRefusal = 'malformed' | 'forged' | 'expired' | 'other-person' | 'not-open' | 'not-taking-part' | 'consent';
-export type ReturnOutcome = { outcome: 'done' | 'already-done'; studySlug: string; stepId: string } | { outcome: 'refused'; reason: ReturnRefusal; studySlug: string | null };
+export type ReturnRefusal =
+  'malformed' | 'forged' | 'expired' | 'other-person' | 'not-open' | 'not-taking-part' | 'consent';
+export type ReturnOutcome =
+  | { outcome: 'done' | 'already-done'; studySlug: string; stepId: string }
+  | { outcome: 'refused'; reason: ReturnRefusal; studySlug: string | null };
 
 /** A refusal that also names what the return page should say. */
 class StepRefusal extends DomainException {
@@ -58,7 +69,12 @@ export class StepProgressService {
   // ── what a participant sees ───────────────────────────────────────────────
 
   /** Each step with its window and status for the participant's own view. */
-  async participantSteps(enrollment: EnrollmentEntity, stepList: StepListDto, needsSignature: boolean, now = new Date()): Promise<MyStepDto[]> {
+  async participantSteps(
+    enrollment: EnrollmentEntity,
+    stepList: StepListDto,
+    needsSignature: boolean,
+    now = new Date(),
+  ): Promise<MyStepDto[]> {
     const completions = await this.steps.completionsOf(enrollment.id);
     const done = new Map(completions.map((c) => [c.stepId, c.completedAt]));
     const windows = this.windowsFor(enrollment, stepList, done);
@@ -74,9 +90,11 @@ export class StepProgressService {
         payMinor: step.payOverrides.find((o) => o.conditionId === enrollment.conditionId)?.payMinor ?? step.payMinor,
         status: timing === 'done' || takingPart ? timing : 'locked',
         completedAt: done.get(step.id)?.toISOString() ?? null,
-        hasCompletionCode: step.verification === 'participant-code' || (step.verification === 'shared-code' && step.hasCompletionCode),
+        hasCompletionCode:
+          step.verification === 'participant-code' || (step.verification === 'shared-code' && step.hasCompletionCode),
         verification: step.verification,
-        hasTask: Boolean(step.taskUrl) && (step.verification === 'return-link' || step.verification === 'participant-code'),
+        hasTask:
+          Boolean(step.taskUrl) && (step.verification === 'return-link' || step.verification === 'participant-code'),
         opensAt: window?.opensAt?.toISOString() ?? null,
         dueAt: window?.dueAt?.toISOString() ?? null,
       };
@@ -84,7 +102,11 @@ export class StepProgressService {
   }
 
   /** Windows exist once someone is assigned; before that, none. */
-  private windowsFor(enrollment: EnrollmentEntity, stepList: StepListDto, done: ReadonlyMap<string, Date>): Array<StepWindow | undefined> {
+  private windowsFor(
+    enrollment: EnrollmentEntity,
+    stepList: StepListDto,
+    done: ReadonlyMap<string, Date>,
+  ): Array<StepWindow | undefined> {
     if (!enrollment.assignedAt) return stepList.items.map(() => undefined);
     return stepWindows(stepList.items, enrollment.assignedAt, done);
   }
@@ -96,11 +118,20 @@ export class StepProgressService {
     const stepList = await this.steps.list(studyId);
     const step = stepList.items.find((s) => s.id === stepId)!;
     if (!step.taskUrl || !['return-link', 'participant-code'].includes(step.verification)) {
-      throw new DomainException('CONFLICT', 'This step is not done in an external task.', [{ field: 'stepId', message: 'has no external task' }]);
+      throw new DomainException('CONFLICT', 'This step is not done in an external task.', [
+        { field: 'stepId', message: 'has no external task' },
+      ]);
     }
     const done = new Map((await this.steps.completionsOf(enrollment.id)).map((c) => [c.stepId, c.completedAt]));
     const window = this.windowsFor(enrollment, stepList, done)[stepList.items.indexOf(step)];
-    const url = await this.steps.taskAddress({ studyId, stepId, enrollmentId: enrollment.id, reference: enrollment.reference, dueAt: window?.dueAt ?? null, now: new Date() });
+    const url = await this.steps.taskAddress({
+      studyId,
+      stepId,
+      enrollmentId: enrollment.id,
+      reference: enrollment.reference,
+      dueAt: window?.dueAt ?? null,
+      now: new Date(),
+    });
     return { url };
   }
 
@@ -110,10 +141,17 @@ export class StepProgressService {
    * The signed return address: checks the link and marks the step done. Anything wrong (forged, altered, expired,
    * someone else's, step not open) records nothing but the refused attempt in the audit trail.
    */
-  async completeFromReturnLink(token: string, user: SessionUser | null, client: { ip: string | null; userAgent: string | null }): Promise<ReturnOutcome> {
+  async completeFromReturnLink(
+    token: string,
+    user: SessionUser | null,
+    client: { ip: string | null; userAgent: string | null },
+  ): Promise<ReturnOutcome> {
     const read = readReturnToken(token);
     const studyId = read?.claim.studyId;
-    const study = studyId && /^[0-9a-f-]{36}$/.test(studyId) && (await this.studies.exists(studyId)) ? await this.studies.require(studyId) : null;
+    const study =
+      studyId && /^[0-9a-f-]{36}$/.test(studyId) && (await this.studies.exists(studyId))
+        ? await this.studies.require(studyId)
+        : null;
     const refuse = async (reason: ReturnRefusal): Promise<ReturnOutcome> => {
       await this.audit.record(this.dataSource.manager, {
         chain: study?.id,
@@ -121,21 +159,36 @@ export class StepProgressService {
         action: 'step.return-refused',
         subjectType: study ? 'study' : 'return-link',
         subjectId: study?.id ?? 'unknown',
-        data: { reason, reference: read?.claim.reference ?? null, stepId: read?.claim.stepId ?? null, ip: client.ip, userAgent: client.userAgent },
+        data: {
+          reason,
+          reference: read?.claim.reference ?? null,
+          stepId: read?.claim.stepId ?? null,
+          ip: client.ip,
+          userAgent: client.userAgent,
+        },
       });
       return { outcome: 'refused', reason, studySlug: study?.slug ?? null };
     };
     if (!read || !study) return refuse(read ? 'forged' : 'malformed');
     const check = await this.steps.checkReturnToken(study.id, token, new Date());
     if (!check.ok) return refuse(check.reason);
-    const enrollment = await this.dataSource.manager.findOne(EnrollmentEntity, { where: { studyId: study.id, reference: check.claim.reference } });
+    const enrollment = await this.dataSource.manager.findOne(EnrollmentEntity, {
+      where: { studyId: study.id, reference: check.claim.reference },
+    });
     if (!enrollment) return refuse('forged');
     if (user && enrollment.participantId !== user.id) return refuse('other-person');
     try {
       const created = await this.dataSource.transaction(async (manager) => {
-        const locked = await manager.findOneOrFail(EnrollmentEntity, { where: { id: enrollment.id }, lock: { mode: 'pessimistic_write' } });
+        const locked = await manager.findOneOrFail(EnrollmentEntity, {
+          where: { id: enrollment.id },
+          lock: { mode: 'pessimistic_write' },
+        });
         const actor: AuditActor = user ?? { id: null, email: null };
-        return this.completeStep(manager, actor, study.id, locked, check.claim.stepId, 'return-link', { keyId: check.keyId, linkExpiresAt: check.claim.expiresAt.toISOString(), ip: client.ip });
+        return this.completeStep(manager, actor, study.id, locked, check.claim.stepId, 'return-link', {
+          keyId: check.keyId,
+          linkExpiresAt: check.claim.expiresAt.toISOString(),
+          ip: client.ip,
+        });
       });
       return { outcome: created ? 'done' : 'already-done', studySlug: study.slug, stepId: check.claim.stepId };
     } catch (error) {
@@ -152,7 +205,10 @@ export class StepProgressService {
     // Only wrong codes count, so the same window store as sign-in is used directly rather than as a route guard.
     const limiter = new PostgresThrottlerStorage(this.dataSource);
     if ((await limiter.hitsInWindow(limiterKey)) >= WRONG_CODE_LIMIT) {
-      throw new DomainException('RATE_LIMITED', 'Too many wrong codes. Please wait 15 minutes, or ask the research team to check the step off.');
+      throw new DomainException(
+        'RATE_LIMITED',
+        'Too many wrong codes. Please wait 15 minutes, or ask the research team to check the step off.',
+      );
     }
     const { matched, verifiedBy } = await this.steps.checkCode(studyId, stepId, enrollment.id, code);
     if (!matched) {
@@ -165,7 +221,9 @@ export class StepProgressService {
         subjectId: enrollment.id,
         data: { stepId, verification: verifiedBy },
       });
-      throw new DomainException('VALIDATION_FAILED', 'That code does not match this step.', [{ field: 'code', message: 'does not match; check it and try again' }]);
+      throw new DomainException('VALIDATION_FAILED', 'That code does not match this step.', [
+        { field: 'code', message: 'does not match; check it and try again' },
+      ]);
     }
     await this.dataSource.transaction(async (manager) => {
       const locked = await this.requireMine(manager, user, studyId, true);
@@ -184,15 +242,23 @@ export class StepProgressService {
    * Marks one step done for every reference in a pasted or uploaded list. Each line is checked and written on its
    * own, so a bad line (unknown reference, not taking part, step not open) writes nothing and the rest go through.
    */
-  async completeList(actor: SessionUser, studyId: string, stepId: string, references: string[]): Promise<BulkCompletionResultDto> {
+  async completeList(
+    actor: SessionUser,
+    studyId: string,
+    stepId: string,
+    references: string[],
+  ): Promise<BulkCompletionResultDto> {
     await this.steps.requireStepOf(studyId, stepId);
     const wanted = references.map((r) => r.trim().toUpperCase());
-    const found = await this.dataSource.manager.find(EnrollmentEntity, { where: { studyId, reference: In([...new Set(wanted.filter(Boolean))]) } });
+    const found = await this.dataSource.manager.find(EnrollmentEntity, {
+      where: { studyId, reference: In([...new Set(wanted.filter(Boolean))]) },
+    });
     const byReference = new Map(found.map((e) => [e.reference, e]));
     const seen = new Set<string>();
     const rows: BulkCompletionRowDto[] = [];
     for (const [i, reference] of wanted.entries()) {
-      const row = (outcome: BulkCompletionRowDto['outcome'], message: string | null) => rows.push({ line: i + 1, reference: references[i].trim(), outcome, message });
+      const row = (outcome: BulkCompletionRowDto['outcome'], message: string | null) =>
+        rows.push({ line: i + 1, reference: references[i].trim(), outcome, message });
       const enrollment = byReference.get(reference);
       if (!reference) row('failed', 'empty line');
       else if (!enrollment) row('failed', 'no participant with this reference in the study');
@@ -201,7 +267,10 @@ export class StepProgressService {
         seen.add(reference);
         try {
           const created = await this.dataSource.transaction(async (manager) => {
-            const locked = await manager.findOneOrFail(EnrollmentEntity, { where: { id: enrollment.id }, lock: { mode: 'pessimistic_write' } });
+            const locked = await manager.findOneOrFail(EnrollmentEntity, {
+              where: { id: enrollment.id },
+              lock: { mode: 'pessimistic_write' },
+            });
             return this.completeStep(manager, actor, studyId, locked, stepId, 'staff-list', { line: i + 1 });
           });
           row(created ? 'completed' : 'already-done', null);
@@ -219,7 +288,14 @@ export class StepProgressService {
       action: 'step.list-marked',
       subjectType: 'step',
       subjectId: stepId,
-      data: { lines: rows.length, completed: result.completed, alreadyDone: result.alreadyDone, failed: rows.filter((r) => r.outcome === 'failed').map((r) => ({ line: r.line, reference: r.reference.slice(0, 40), message: r.message })) },
+      data: {
+        lines: rows.length,
+        completed: result.completed,
+        alreadyDone: result.alreadyDone,
+        failed: rows
+          .filter((r) => r.outcome === 'failed')
+          .map((r) => ({ line: r.line, reference: r.reference.slice(0, 40), message: r.message })),
+      },
     });
     return result;
   }
@@ -235,7 +311,8 @@ export class StepProgressService {
         enrollment.status = 'active';
         enrollment.completedAt = null;
       }
-      if (enrollment.status === 'active' && (await this.steps.completionsOf(enrollmentId, manager)).length === 0) enrollment.status = 'assigned';
+      if (enrollment.status === 'active' && (await this.steps.completionsOf(enrollmentId, manager)).length === 0)
+        enrollment.status = 'assigned';
       await manager.save(enrollment);
       await this.audit.record(manager, {
         chain: studyId,
@@ -276,13 +353,31 @@ export class StepProgressService {
       evidence,
     });
     if (!outcome.created) return false;
-    const owedBase = { studyId, enrollmentId: enrollment.id, participantId: enrollment.participantId, conditionId: enrollment.conditionId, currency: study.currency };
-    await this.payouts.createOwed(manager, { ...owedBase, stepCompletionId: outcome.completion.id, kind: 'step', amountMinor: outcome.payMinor, payOverride: outcome.payOverride });
+    const owedBase = {
+      studyId,
+      enrollmentId: enrollment.id,
+      participantId: enrollment.participantId,
+      conditionId: enrollment.conditionId,
+      currency: study.currency,
+    };
+    await this.payouts.createOwed(manager, {
+      ...owedBase,
+      stepCompletionId: outcome.completion.id,
+      kind: 'step',
+      amountMinor: outcome.payMinor,
+      payOverride: outcome.payOverride,
+    });
     enrollment.status = outcome.remainingSteps === 0 ? 'completed' : 'active';
     if (outcome.remainingSteps === 0) {
       enrollment.completedAt = new Date();
       if (study.completionBonusMinor > 0) {
-        await this.payouts.createOwed(manager, { ...owedBase, stepCompletionId: null, kind: 'bonus', amountMinor: study.completionBonusMinor, payOverride: false });
+        await this.payouts.createOwed(manager, {
+          ...owedBase,
+          stepCompletionId: null,
+          kind: 'bonus',
+          amountMinor: study.completionBonusMinor,
+          payOverride: false,
+        });
       }
     }
     await manager.save(enrollment);
@@ -292,37 +387,63 @@ export class StepProgressService {
       action: 'step.completed',
       subjectType: 'enrollment',
       subjectId: enrollment.id,
-      data: { stepId, verifiedBy, payMinor: outcome.payMinor, payOverride: outcome.payOverride, completedStudy: outcome.remainingSteps === 0 },
+      data: {
+        stepId,
+        verifiedBy,
+        payMinor: outcome.payMinor,
+        payOverride: outcome.payOverride,
+        completedStudy: outcome.remainingSteps === 0,
+      },
     });
     return true;
   }
 
   /** Taking part, consent current, and the step's window open (or past due: late work still counts). */
-  private async requireCanComplete(manager: EntityManager, studyId: string, enrollment: EnrollmentEntity, stepId: string): Promise<void> {
+  private async requireCanComplete(
+    manager: EntityManager,
+    studyId: string,
+    enrollment: EnrollmentEntity,
+    stepId: string,
+  ): Promise<void> {
     if (!TAKING_PART.includes(enrollment.status)) {
-      if (enrollment.status === 'completed') throw new StepRefusal('not-taking-part', 'Every step is already done.', 'enrollment');
-      throw new StepRefusal('not-taking-part', 'Steps can be completed only while taking part in the study.', 'enrollment');
+      if (enrollment.status === 'completed')
+        throw new StepRefusal('not-taking-part', 'Every step is already done.', 'enrollment');
+      throw new StepRefusal(
+        'not-taking-part',
+        'Steps can be completed only while taking part in the study.',
+        'enrollment',
+      );
     }
     const active = await this.consent.activeVersion(studyId, manager);
     if (active && enrollment.signedVersionId !== active.id) {
-      throw new StepRefusal('consent', 'The consent form has changed: please read and sign the new version before your next step.', 'stepId', {
-        currentVersion: { versionId: active.id, version: active.version, fingerprint: active.fingerprint },
-      });
+      throw new StepRefusal(
+        'consent',
+        'The consent form has changed: please read and sign the new version before your next step.',
+        'stepId',
+        {
+          currentVersion: { versionId: active.id, version: active.version, fingerprint: active.fingerprint },
+        },
+      );
     }
     const stepList = await this.steps.list(studyId, manager);
     const index = stepList.items.findIndex((s) => s.id === stepId);
     if (index < 0) throw new DomainException('NOT_FOUND', 'No such step in this study.');
-    const done = new Map((await this.steps.completionsOf(enrollment.id, manager)).map((c) => [c.stepId, c.completedAt]));
+    const done = new Map(
+      (await this.steps.completionsOf(enrollment.id, manager)).map((c) => [c.stepId, c.completedAt]),
+    );
     const window = this.windowsFor(enrollment, stepList, done)[index];
     const timing: StepTiming = window ? stepTiming(window, done.has(stepId), new Date()) : 'waiting';
-    if (timing === 'upcoming') throw new StepRefusal('not-open', `This step opens on ${DATE.format(window!.opensAt!)}.`);
+    if (timing === 'upcoming')
+      throw new StepRefusal('not-open', `This step opens on ${DATE.format(window!.opensAt!)}.`);
     if (timing === 'waiting') throw new StepRefusal('not-open', 'This step opens after the one before it is done.');
   }
 
   // ── codes and the record ──────────────────────────────────────────────────
 
   async codesOf(studyId: string, enrollmentId: string): Promise<StepCodesDto> {
-    const enrollment = await this.dataSource.manager.findOne(EnrollmentEntity, { where: { id: enrollmentId, studyId } });
+    const enrollment = await this.dataSource.manager.findOne(EnrollmentEntity, {
+      where: { id: enrollmentId, studyId },
+    });
     if (!enrollment) throw new DomainException('NOT_FOUND', 'No such participant in this study.');
     return { reference: enrollment.reference, items: await this.steps.participantCodes(studyId, enrollmentId) };
   }
@@ -349,7 +470,9 @@ export class StepProgressService {
     const windows = this.windowsFor(enrollment, stepList, done);
     const payoutStatus = await this.payouts.statusByCompletion(inForce.map((c) => c.id));
     const codes = new Map((await this.steps.participantCodes(studyId, enrollment.id)).map((c) => [c.stepId, c.code]));
-    const emails = await this.emailsOf([...new Set(history.flatMap((c) => [c.recordedBy, c.undoneBy]).filter((id): id is string => Boolean(id)))]);
+    const emails = await this.emailsOf([
+      ...new Set(history.flatMap((c) => [c.recordedBy, c.undoneBy]).filter((id): id is string => Boolean(id))),
+    ]);
     const takingPart = TAKING_PART.includes(enrollment.status);
     return stepList.items.map((step, i) => {
       const completion = inForce.find((c) => c.stepId === step.id);
@@ -377,7 +500,12 @@ export class StepProgressService {
           : null,
         undone: history
           .filter((c) => c.stepId === step.id && c.undoneAt)
-          .map((c) => ({ completedAt: c.completedAt.toISOString(), undoneAt: c.undoneAt!.toISOString(), reason: c.undoReason ?? '', undoneByEmail: c.undoneBy ? (emails.get(c.undoneBy) ?? null) : null })),
+          .map((c) => ({
+            completedAt: c.completedAt.toISOString(),
+            undoneAt: c.undoneAt!.toISOString(),
+            reason: c.undoReason ?? '',
+            undoneByEmail: c.undoneBy ? (emails.get(c.undoneBy) ?? null) : null,
+          })),
         code: codes.get(step.id) ?? null,
       };
     });
@@ -385,11 +513,19 @@ export class StepProgressService {
 
   private async emailsOf(userIds: string[]): Promise<Map<string, string>> {
     if (userIds.length === 0) return new Map();
-    const rows: Array<{ id: string; email: string }> = await this.dataSource.query(`SELECT id, email FROM user_account WHERE id = ANY($1::uuid[])`, [userIds]);
+    const rows: Array<{ id: string; email: string }> = await this.dataSource.query(
+      `SELECT id, email FROM user_account WHERE id = ANY($1::uuid[])`,
+      [userIds],
+    );
     return new Map(rows.map((r) => [r.id, r.email]));
   }
 
-  private async requireMine(manager: EntityManager, user: SessionUser, studyId: string, lock = false): Promise<EnrollmentEntity> {
+  private async requireMine(
+    manager: EntityManager,
+    user: SessionUser,
+    studyId: string,
+    lock = false,
+  ): Promise<EnrollmentEntity> {
     const enrollment = await manager.findOne(EnrollmentEntity, {
       where: { studyId, participantId: user.id },
       ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}),
@@ -398,8 +534,15 @@ export class StepProgressService {
     return enrollment;
   }
 
-  private async requireOnRoster(manager: EntityManager, studyId: string, enrollmentId: string): Promise<EnrollmentEntity> {
-    const enrollment = await manager.findOne(EnrollmentEntity, { where: { id: enrollmentId, studyId }, lock: { mode: 'pessimistic_write' } });
+  private async requireOnRoster(
+    manager: EntityManager,
+    studyId: string,
+    enrollmentId: string,
+  ): Promise<EnrollmentEntity> {
+    const enrollment = await manager.findOne(EnrollmentEntity, {
+      where: { id: enrollmentId, studyId },
+      lock: { mode: 'pessimistic_write' },
+    });
     if (!enrollment) throw new DomainException('NOT_FOUND', 'No such participant in this study.');
     return enrollment;
   }

@@ -32,7 +32,10 @@ export class HealthController {
   @ApiServiceUnavailableResponse({ type: HealthDto })
   async check(@Res({ passthrough: true }) response: Response): Promise<HealthDto> {
     const [database, queue, payments] = await Promise.all([
-      this.dataSource.query('SELECT 1').then(() => 'up' as const, () => 'down' as const),
+      this.dataSource.query('SELECT 1').then(
+        () => 'up' as const,
+        () => 'down' as const,
+      ),
       this.jobs.isReachable().then((up) => (up ? 'up' : 'down') as PartState),
       this.payments.isReachable().then((up) => (up ? 'up' : 'down') as PartState),
     ]);

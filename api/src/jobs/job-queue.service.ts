@@ -16,7 +16,18 @@ export interface JobHandlerOptions<Payload> {
 }
 
 /** Every kind of background job, so names are not spread as strings. */
-export const JOB_NAMES = { sendMail: 'mail.send', signedCopy: 'consent.signed-copy', sendPayout: 'payout.send', payoutReceipt: 'payout.receipt', sweepPayouts: 'payout.sweep', evaluateAttritionAlerts: 'attrition.evaluate-alerts', sweepReminders: 'reminders.sweep', auditReceipt: 'audit.receipt', signInLinkRequest: 'auth.sign-in-link', passwordResetRequest: 'auth.password-reset' } as const;
+export const JOB_NAMES = {
+  sendMail: 'mail.send',
+  signedCopy: 'consent.signed-copy',
+  sendPayout: 'payout.send',
+  payoutReceipt: 'payout.receipt',
+  sweepPayouts: 'payout.sweep',
+  evaluateAttritionAlerts: 'attrition.evaluate-alerts',
+  sweepReminders: 'reminders.sweep',
+  auditReceipt: 'audit.receipt',
+  signInLinkRequest: 'auth.sign-in-link',
+  passwordResetRequest: 'auth.password-reset',
+} as const;
 /** Jobs fetched and run side by side per worker. */
 export const JOB_BATCH_SIZE = 10;
 /** Tries after the first before a job is given up. */
@@ -44,7 +55,12 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
     await this.boss.start();
     for (const name of Object.values(JOB_NAMES)) {
       // Back-off is ours (see handle): pg-boss waits the base delay, and we move the retry to its capped time.
-      const options = { name, retryLimit: JOB_RETRY_LIMIT, retryDelay: this.config.jobRetryDelaySeconds, retryBackoff: false };
+      const options = {
+        name,
+        retryLimit: JOB_RETRY_LIMIT,
+        retryDelay: this.config.jobRetryDelaySeconds,
+        retryBackoff: false,
+      };
       await this.boss.createQueue(name, options);
       await this.boss.updateQueue(name, options); // queues made by an earlier release keep their old settings otherwise
     }
@@ -52,35 +68,52 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
   }
 
   /** Registers the worker for a job kind; only processes with RUN_WORKERS=true pick up work. */
-  async handle<Payload extends object>(name: JobName, handler: JobHandler<Payload>, options: JobHandlerOptions<Payload> = {}): Promise<void> {
+  async handle<Payload extends object>(
+    name: JobName,
+    handler: JobHandler<Payload>,
+    options: JobHandlerOptions<Payload> = {},
+  ): Promise<void> {
     this.handlers.set(name, handler as JobHandler<never>);
     if (!this.config.runWorkers) return;
     // Up to 10 jobs per fetch run side by side; each failure is reported for its own job (retried with back-off),
     // and the worker then completes only the jobs still active, i.e. the ones that succeeded.
     // The worker id arrives only when `work` resolves; the handler may run before that.
     const worker: { id?: string } = {};
-    worker.id = await this.boss.work<Payload>(name, { pollingIntervalSeconds: 0.5, batchSize: JOB_BATCH_SIZE, includeMetadata: true }, async (jobs) => {
-      // A full batch means more are waiting: fetch again at once instead of sleeping out the polling interval,
-      // which would otherwise cap every kind of job at one batch per half second.
-      if (jobs.length === JOB_BATCH_SIZE && worker.id) this.boss.notifyWorker(worker.id);
-      const results = await Promise.allSettled(jobs.map((job) => handler(job.data, job.id)));
-      for (const [i, result] of results.entries()) {
-        if (result.status === 'rejected') await this.failed(name, jobs[i], result.reason, options);
-      }
-    });
+    worker.id = await this.boss.work<Payload>(
+      name,
+      { pollingIntervalSeconds: 0.5, batchSize: JOB_BATCH_SIZE, includeMetadata: true },
+      async (jobs) => {
+        // A full batch means more are waiting: fetch again at once instead of sleeping out the polling interval,
+        // which would otherwise cap every kind of job at one batch per half second.
+        if (jobs.length === JOB_BATCH_SIZE && worker.id) this.boss.notifyWorker(worker.id);
+        const results = await Promise.allSettled(jobs.map((job) => handler(job.data, job.id)));
+        for (const [i, result] of results.entries()) {
+          if (result.status === 'rejected') await this.failed(name, jobs[i], result.reason, options);
+        }
+      },
+    );
   }
 
-  private async failed<Payload extends object>(name: JobName, job: PgBoss.JobWithMetadata<Payload>, error: unknown, options: JobHandlerOptions<Payload>): Promise<void> {
+  private async failed<Payload extends object>(
+    name: JobName,
+    job: PgBoss.JobWithMetadata<Payload>,
+    error: unknown,
+    options: JobHandlerOptions<Payload>,
+  ): Promise<void> {
     const reason = error instanceof Error ? error.message : String(error);
     await this.boss.fail(name, job.id, { message: reason });
     if (job.retryCount < job.retryLimit) {
       const retry = job.retryCount + 1;
       const delay = retryDelaySeconds(retry, this.config.jobRetryDelaySeconds, this.config.jobRetryDelayMaxSeconds);
-      this.logger.warn(`${name} job ${job.id} failed, retry ${retry} of ${job.retryLimit} in ${delay.toFixed(1)} s: ${reason}`);
-      await this.boss.getDb().executeSql(
-        `UPDATE job_queue.job SET start_after = now() + $3 * interval '1 second' WHERE name = $1 AND id = $2 AND state = 'retry'`,
-        [name, job.id, delay],
+      this.logger.warn(
+        `${name} job ${job.id} failed, retry ${retry} of ${job.retryLimit} in ${delay.toFixed(1)} s: ${reason}`,
       );
+      await this.boss
+        .getDb()
+        .executeSql(
+          `UPDATE job_queue.job SET start_after = now() + $3 * interval '1 second' WHERE name = $1 AND id = $2 AND state = 'retry'`,
+          [name, job.id, delay],
+        );
       return;
     }
     this.logger.warn(`${name} job ${job.id} failed its last try: ${reason}`);
@@ -101,9 +134,14 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
 
   /** Enqueues many jobs of one kind inside the caller's transaction, a thousand rows per statement. */
   async enqueueMany<Payload extends object>(manager: EntityManager, name: JobName, payloads: Payload[]): Promise<void> {
-    const db = { executeSql: async (text: string, values: unknown[]) => ({ rows: await queryRows(manager, text, values) }) };
+    const db = {
+      executeSql: async (text: string, values: unknown[]) => ({ rows: await queryRows(manager, text, values) }),
+    };
     for (let i = 0; i < payloads.length; i += 1000) {
-      await this.boss.insert(payloads.slice(i, i + 1000).map((data) => ({ name, data })), { db });
+      await this.boss.insert(
+        payloads.slice(i, i + 1000).map((data) => ({ name, data })),
+        { db },
+      );
     }
   }
 

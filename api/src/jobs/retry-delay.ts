@@ -5,7 +5,12 @@
  * has no maximum of its own (its back-off doubles without bound). Back-off and jitter after AWS Architecture Blog,
  * "Exponential Backoff And Jitter" (Brooker, 2015).
  */
-export function retryDelaySeconds(retry: number, baseSeconds: number, maxSeconds: number, random: () => number = Math.random): number {
+export function retryDelaySeconds(
+  retry: number,
+  baseSeconds: number,
+  maxSeconds: number,
+  random: () => number = Math.random,
+): number {
   const ceiling = Math.min(maxSeconds, baseSeconds * 2 ** Math.min(30, Math.max(0, retry - 1)));
   return ceiling / 2 + (ceiling / 2) * random();
 }

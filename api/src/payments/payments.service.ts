@@ -22,7 +22,10 @@ export class PaymentsService {
       return await request(this.client);
     } catch (error) {
       if (isProviderUnavailable(error)) {
-        throw new DomainException('PROVIDER_UNAVAILABLE', `The payment provider is not answering right now, so ${what} did not happen. Nothing was charged or changed; try again in a few minutes.`);
+        throw new DomainException(
+          'PROVIDER_UNAVAILABLE',
+          `The payment provider is not answering right now, so ${what} did not happen. Nothing was charged or changed; try again in a few minutes.`,
+        );
       }
       throw error;
     }

@@ -3,11 +3,14 @@ import { describe, expect, it } from 'vitest';
 import { isProviderUnavailable } from './provider-failure';
 
 // Errors as the SDK itself builds them from a provider answer (StripeError.generate), so the check follows its classes.
-const fromAnswer = (statusCode: number, type: string) => Stripe.errors.StripeError.generate({ type, message: 'x', statusCode } as never);
+const fromAnswer = (statusCode: number, type: string) =>
+  Stripe.errors.StripeError.generate({ type, message: 'x', statusCode } as never);
 
 describe('isProviderUnavailable', () => {
   it('is true for an unreachable provider, its server errors and rate limits', () => {
-    expect(isProviderUnavailable(new Stripe.errors.StripeConnectionError({ message: 'ECONNREFUSED' } as never))).toBe(true);
+    expect(isProviderUnavailable(new Stripe.errors.StripeConnectionError({ message: 'ECONNREFUSED' } as never))).toBe(
+      true,
+    );
     expect(isProviderUnavailable(fromAnswer(500, 'api_error'))).toBe(true);
     expect(isProviderUnavailable(fromAnswer(503, 'api_error'))).toBe(true);
     expect(isProviderUnavailable(fromAnswer(429, 'rate_limit_error'))).toBe(true);

@@ -6,7 +6,8 @@ import Stripe from 'stripe';
  * Idempotency-Key; anything else is the provider refusing what we asked.
  */
 export function isProviderUnavailable(error: unknown): boolean {
-  if (error instanceof Stripe.errors.StripeConnectionError || error instanceof Stripe.errors.StripeRateLimitError) return true;
+  if (error instanceof Stripe.errors.StripeConnectionError || error instanceof Stripe.errors.StripeRateLimitError)
+    return true;
   if (error instanceof Stripe.errors.StripeError) {
     const status = error.statusCode ?? 0;
     return status >= 500 || status === 429 || (status === 0 && error.type === 'StripeAPIError');

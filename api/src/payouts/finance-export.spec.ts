@@ -40,7 +40,9 @@ describe('financeExportCsv', () => {
   });
 
   it('is named by the study slug and the period', () => {
-    expect(financeExportFileName('harbor-memory', '2026-01-01', '2026-03-31')).toBe('harbor-memory-payments-2026-01-01-to-2026-03-31.csv');
+    expect(financeExportFileName('harbor-memory', '2026-01-01', '2026-03-31')).toBe(
+      'harbor-memory-payments-2026-01-01-to-2026-03-31.csv',
+    );
   });
 
   it('calls 80 % of the threshold near and the threshold itself over', () => {

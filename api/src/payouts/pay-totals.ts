@@ -4,7 +4,14 @@ import type { PayoutStatus } from './entities/payout.entity';
  * What staff must do next about a payout: the Pay page groups its queue by this, and every total on the page (the
  * budget figures, the section counts, the approval dialogs) is summed from the same rows by `summarizePayTotals`.
  */
-export const PAYOUT_STAGES = ['to-approve', 'awaiting-setup', 'needs-attention', 'on-its-way', 'paid', 'closed'] as const;
+export const PAYOUT_STAGES = [
+  'to-approve',
+  'awaiting-setup',
+  'needs-attention',
+  'on-its-way',
+  'paid',
+  'closed',
+] as const;
 export type PayoutStage = (typeof PAYOUT_STAGES)[number];
 
 /** Owed payouts split by whether the participant can receive money yet; the other stages follow the status. */
@@ -74,7 +81,9 @@ export function summarizePayTotals(buckets: PayoutBucket[]): PayTotals {
   const countsByStatus: Partial<Record<PayoutStatus, number>> = {};
   const amountByStatus: Partial<Record<PayoutStatus, number>> = {};
   const people = new Map<PayoutStage, Set<string>>(PAYOUT_STAGES.map((stage) => [stage, new Set()]));
-  const stages = Object.fromEntries(PAYOUT_STAGES.map((stage) => [stage, { count: 0, amountMinor: 0, participants: 0 }])) as Record<PayoutStage, StageTotal>;
+  const stages = Object.fromEntries(
+    PAYOUT_STAGES.map((stage) => [stage, { count: 0, amountMinor: 0, participants: 0 }]),
+  ) as Record<PayoutStage, StageTotal>;
   for (const bucket of buckets) {
     countsByStatus[bucket.status] = (countsByStatus[bucket.status] ?? 0) + bucket.count;
     amountByStatus[bucket.status] = (amountByStatus[bucket.status] ?? 0) + bucket.amountMinor;

@@ -69,9 +69,13 @@ export class PayoutRecoveryService implements OnModuleInit {
       const { study_id: studyId, provider_account_id: destination } = group[0]!;
       let transfers: Map<string, Stripe.Transfer>;
       try {
-        transfers = destination ? await this.transfersFor(studyId, destination, new Set(group.map((p) => p.id))) : new Map();
+        transfers = destination
+          ? await this.transfersFor(studyId, destination, new Set(group.map((p) => p.id)))
+          : new Map();
       } catch (error) {
-        this.logger.warn(`could not ask the provider about ${group.length} payout(s) of study ${studyId}: ${(error as Error).message}`);
+        this.logger.warn(
+          `could not ask the provider about ${group.length} payout(s) of study ${studyId}: ${(error as Error).message}`,
+        );
         result.unresolved += group.length;
         continue;
       }
@@ -89,9 +93,17 @@ export class PayoutRecoveryService implements OnModuleInit {
   }
 
   /** The provider's transfers of a study to one account that name one of `payoutIds`, by payout id. */
-  private async transfersFor(studyId: string, destination: string, payoutIds: Set<string>): Promise<Map<string, Stripe.Transfer>> {
+  private async transfersFor(
+    studyId: string,
+    destination: string,
+    payoutIds: Set<string>,
+  ): Promise<Map<string, Stripe.Transfer>> {
     const found = new Map<string, Stripe.Transfer>();
-    for await (const transfer of this.payments.client.transfers.list({ transfer_group: `study_${studyId}`, destination, limit: 100 })) {
+    for await (const transfer of this.payments.client.transfers.list({
+      transfer_group: `study_${studyId}`,
+      destination,
+      limit: 100,
+    })) {
       const payoutId = transfer.metadata?.payoutId;
       if (payoutId && payoutIds.has(payoutId)) found.set(payoutId, transfer);
       if (found.size === payoutIds.size) break;

@@ -33,7 +33,10 @@ export class StudyPayoutsController {
   @Get('payouts')
   @Roles('coordinator', 'researcher', 'auditor', 'admin')
   @ApiOkResponse({ type: PayoutPageDto })
-  list(@Param('studyId', uuidParam('studyId')) studyId: string, @Query() query: PayoutQueryDto): Promise<PayoutPageDto> {
+  list(
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Query() query: PayoutQueryDto,
+  ): Promise<PayoutPageDto> {
     return this.payouts.list(studyId, query);
   }
 
@@ -41,7 +44,11 @@ export class StudyPayoutsController {
   @HttpCode(200)
   @Roles('coordinator', 'admin')
   @ApiOkResponse({ type: ApprovalResultDto })
-  approve(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: ApprovePayoutsDto): Promise<ApprovalResultDto> {
+  approve(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: ApprovePayoutsDto,
+  ): Promise<ApprovalResultDto> {
     return this.payouts.approve(user, studyId, body.payoutIds);
   }
 
@@ -55,10 +62,23 @@ export class StudyPayoutsController {
   @Get('payouts/finance-export.csv')
   @Roles('coordinator', 'auditor', 'admin')
   @ApiProduces('text/csv')
-  @ApiOkResponse({ description: "Per participant: paid in the period, paid in the year across studies, the tax-reporting threshold (UTF-8 with a byte-order mark). Pay and tax rules defer to the institution's finance office.", schema: { type: 'string' } })
-  async financeExport(@Param('studyId', uuidParam('studyId')) studyId: string, @Query() query: FinanceExportQueryDto, @Res() response: Response): Promise<void> {
+  @ApiOkResponse({
+    description:
+      "Per participant: paid in the period, paid in the year across studies, the tax-reporting threshold (UTF-8 with a byte-order mark). Pay and tax rules defer to the institution's finance office.",
+    schema: { type: 'string' },
+  })
+  async financeExport(
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Query() query: FinanceExportQueryDto,
+    @Res() response: Response,
+  ): Promise<void> {
     const { fileName, csv } = await this.payouts.financeExport(studyId, query);
-    response.status(200).type('text/csv; charset=utf-8').setHeader('Content-Disposition', `attachment; filename="${fileName}"`).setHeader('Cache-Control', 'no-store').send(csv);
+    response
+      .status(200)
+      .type('text/csv; charset=utf-8')
+      .setHeader('Content-Disposition', `attachment; filename="${fileName}"`)
+      .setHeader('Cache-Control', 'no-store')
+      .send(csv);
   }
 
   @Get('payouts/tax-threshold')
@@ -78,7 +98,11 @@ export class StudyPayoutsController {
   @Post('funding')
   @Roles('coordinator', 'admin')
   @ApiCreatedResponse({ type: FundingIntentDto })
-  fund(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: CreateFundingDto): Promise<FundingIntentDto> {
+  fund(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: CreateFundingDto,
+  ): Promise<FundingIntentDto> {
     return this.payouts.createFunding(user, studyId, body.amountMinor);
   }
 
@@ -86,7 +110,10 @@ export class StudyPayoutsController {
   @HttpCode(200)
   @Roles('coordinator', 'admin')
   @ApiOkResponse({ type: BudgetDto })
-  refreshFunding(@Param('studyId', uuidParam('studyId')) studyId: string, @Param('fundingId', uuidParam('fundingId')) fundingId: string): Promise<BudgetDto> {
+  refreshFunding(
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('fundingId', uuidParam('fundingId')) fundingId: string,
+  ): Promise<BudgetDto> {
     return this.payouts.refreshFunding(studyId, fundingId);
   }
 }
@@ -100,7 +127,10 @@ export class PayoutsController {
   @HttpCode(200)
   @Roles('coordinator', 'admin')
   @ApiOkResponse({ description: 'Queued again' })
-  async retry(@CurrentUser() user: SessionUser, @Param('payoutId', uuidParam('payoutId')) payoutId: string): Promise<{ queued: boolean }> {
+  async retry(
+    @CurrentUser() user: SessionUser,
+    @Param('payoutId', uuidParam('payoutId')) payoutId: string,
+  ): Promise<{ queued: boolean }> {
     await this.payouts.retry(user, payoutId);
     return { queued: true };
   }

@@ -102,7 +102,18 @@ export class PayoutsService implements OnModuleInit {
       manager,
       `INSERT INTO payout (id, study_id, enrollment_id, participant_id, condition_id, step_completion_id, kind, amount_minor, currency, pay_override, idempotency_key)
        VALUES ($1::uuid, $2, $3, $4, $5, $6, $7, $8, $9, $10, $1::text) ON CONFLICT DO NOTHING RETURNING id`,
-      [id, input.studyId, input.enrollmentId, input.participantId, input.conditionId, input.stepCompletionId, input.kind, input.amountMinor, input.currency, input.payOverride],
+      [
+        id,
+        input.studyId,
+        input.enrollmentId,
+        input.participantId,
+        input.conditionId,
+        input.stepCompletionId,
+        input.kind,
+        input.amountMinor,
+        input.currency,
+        input.payOverride,
+      ],
     );
     return rows.length ? manager.findOneOrFail(PayoutEntity, { where: { id } }) : null;
   }
@@ -111,7 +122,10 @@ export class PayoutsService implements OnModuleInit {
    * Cancels what a step completion (and, with `bonus`, the completion bonus) made owed, so the completion can be
    * undone. Refused once any of it was approved: approved pay is on its way to the participant.
    */
-  async cancelOwedFor(manager: EntityManager, input: { enrollmentId: string; stepCompletionId: string; bonus: boolean }): Promise<number> {
+  async cancelOwedFor(
+    manager: EntityManager,
+    input: { enrollmentId: string; stepCompletionId: string; bonus: boolean },
+  ): Promise<number> {
     const rows: Array<{ id: string; status: string; kind: string }> = await manager.query(
       `SELECT id, status, kind FROM payout
         WHERE status NOT IN ('cancelled','reversed')
@@ -120,12 +134,16 @@ export class PayoutsService implements OnModuleInit {
       [input.stepCompletionId, input.enrollmentId, input.bonus],
     );
     if (rows.some((row) => row.status !== 'owed')) {
-      throw new DomainException('CONFLICT', 'Its payout has already been approved, so this completion can no longer be undone.', [
-        { field: 'stepId', message: 'payout already approved' },
-      ]);
+      throw new DomainException(
+        'CONFLICT',
+        'Its payout has already been approved, so this completion can no longer be undone.',
+        [{ field: 'stepId', message: 'payout already approved' }],
+      );
     }
     if (rows.length === 0) return 0;
-    await manager.query(`UPDATE payout SET status = 'cancelled', updated_at = now() WHERE id = ANY($1::uuid[])`, [rows.map((r) => r.id)]);
+    await manager.query(`UPDATE payout SET status = 'cancelled', updated_at = now() WHERE id = ANY($1::uuid[])`, [
+      rows.map((r) => r.id),
+    ]);
     return rows.length;
   }
 
@@ -213,21 +231,43 @@ export class PayoutsService implements OnModuleInit {
 
   /** Every total the Pay page shows, from one pass over the study's payouts (see pay-totals.ts). */
   private async payTotals(manager: EntityManager, studyId: string): Promise<PayTotals> {
-    const rows: Array<{ enrollment_id: string; status: PayoutEntity['status']; ready: boolean; n: string; amount: string }> = await manager.query(
+    const rows: Array<{
+      enrollment_id: string;
+      status: PayoutEntity['status'];
+      ready: boolean;
+      n: string;
+      amount: string;
+    }> = await manager.query(
       `SELECT p.enrollment_id, p.status, coalesce(a.payouts_enabled, false) AS ready, count(*) AS n, sum(p.amount_minor) AS amount
        FROM payout p LEFT JOIN payout_account a ON a.user_id = p.participant_id
        WHERE p.study_id = $1 GROUP BY 1, 2, 3`,
       [studyId],
     );
-    const buckets: PayoutBucket[] = rows.map((r) => ({ enrollmentId: r.enrollment_id, status: r.status, payoutAccountReady: r.ready, count: Number(r.n), amountMinor: Number(r.amount) }));
+    const buckets: PayoutBucket[] = rows.map((r) => ({
+      enrollmentId: r.enrollment_id,
+      status: r.status,
+      payoutAccountReady: r.ready,
+      count: Number(r.n),
+      amountMinor: Number(r.amount),
+    }));
     return summarizePayTotals(buckets);
   }
 
   private async balance(manager: EntityManager, studyId: string) {
-    const [funded] = await manager.query(`SELECT coalesce(sum(amount_minor), 0) AS n FROM study_funding WHERE study_id = $1 AND status = 'succeeded'`, [studyId]);
+    const [funded] = await manager.query(
+      `SELECT coalesce(sum(amount_minor), 0) AS n FROM study_funding WHERE study_id = $1 AND status = 'succeeded'`,
+      [studyId],
+    );
     const { committedMinor, paidMinor, owedMinor, needsAttentionMinor } = await this.payTotals(manager, studyId);
     const fundedMinor = Number(funded.n);
-    return { fundedMinor, committedMinor, paidMinor, owedMinor, needsAttentionMinor, remainingMinor: fundedMinor - committedMinor - paidMinor };
+    return {
+      fundedMinor,
+      committedMinor,
+      paidMinor,
+      owedMinor,
+      needsAttentionMinor,
+      remainingMinor: fundedMinor - committedMinor - paidMinor,
+    };
   }
 
   /** Approves owed payouts and queues one send job each; refused beyond the study's funded balance. */
@@ -236,25 +276,57 @@ export class PayoutsService implements OnModuleInit {
       // One approval at a time per study, so two batches cannot both pass the budget check.
       await this.studies.require(studyId, manager, true);
       const unique = [...new Set(payoutIds)];
-      const payouts = await manager.find(PayoutEntity, { where: { id: In(unique), studyId }, lock: { mode: 'pessimistic_write' } });
+      const payouts = await manager.find(PayoutEntity, {
+        where: { id: In(unique), studyId },
+        lock: { mode: 'pessimistic_write' },
+      });
       const missing = unique.filter((id) => !payouts.some((p) => p.id === id));
-      if (missing.length) throw new DomainException('NOT_FOUND', `${missing.length} payout(s) are not in this study.`, missing.map((id) => ({ field: 'payoutIds', message: `${id} is not a payout of this study` })));
+      if (missing.length)
+        throw new DomainException(
+          'NOT_FOUND',
+          `${missing.length} payout(s) are not in this study.`,
+          missing.map((id) => ({ field: 'payoutIds', message: `${id} is not a payout of this study` })),
+        );
       const notOwed = payouts.filter((p) => p.status !== 'owed');
       if (notOwed.length) {
-        throw new DomainException('CONFLICT', 'Only owed payouts can be approved.', notOwed.map((p) => ({ field: 'payoutIds', message: `${p.id} is ${p.status}` })));
+        throw new DomainException(
+          'CONFLICT',
+          'Only owed payouts can be approved.',
+          notOwed.map((p) => ({ field: 'payoutIds', message: `${p.id} is ${p.status}` })),
+        );
       }
       const amountMinor = payouts.reduce((sum, p) => sum + p.amountMinor, 0);
       const { remainingMinor } = await this.balance(manager, studyId);
       if (amountMinor > remainingMinor) {
-        throw new DomainException('CONFLICT', `Approving ${payouts.length} payout(s) needs more than the study's funded balance. Fund the study first.`, undefined, {
-          neededMinor: amountMinor,
-          remainingMinor,
-        });
+        throw new DomainException(
+          'CONFLICT',
+          `Approving ${payouts.length} payout(s) needs more than the study's funded balance. Fund the study first.`,
+          undefined,
+          {
+            neededMinor: amountMinor,
+            remainingMinor,
+          },
+        );
       }
       const now = new Date();
-      await manager.update(PayoutEntity, { id: In(unique) }, { status: 'approved', approvedBy: actor.id, approvedAt: now, failureReason: null });
-      await this.jobs.enqueueMany(manager, JOB_NAMES.sendPayout, payouts.map((payout) => ({ payoutId: payout.id })));
-      await this.audit.record(manager, { chain: studyId, actor, action: 'payout.approved', subjectType: 'study', subjectId: studyId, data: { count: payouts.length, amountMinor, payoutIds: unique } });
+      await manager.update(
+        PayoutEntity,
+        { id: In(unique) },
+        { status: 'approved', approvedBy: actor.id, approvedAt: now, failureReason: null },
+      );
+      await this.jobs.enqueueMany(
+        manager,
+        JOB_NAMES.sendPayout,
+        payouts.map((payout) => ({ payoutId: payout.id })),
+      );
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'payout.approved',
+        subjectType: 'study',
+        subjectId: studyId,
+        data: { count: payouts.length, amountMinor, payoutIds: unique },
+      });
       return { approved: payouts.length, amountMinor, remainingMinor: remainingMinor - amountMinor };
     });
   }
@@ -262,16 +334,38 @@ export class PayoutsService implements OnModuleInit {
   /** Sends a failed payout again; only staff of its study (or an admin) may, and to anyone else it does not exist. */
   async retry(actor: SessionUser, payoutId: string): Promise<{ studyId: string }> {
     return this.dataSource.transaction(async (manager) => {
-      const payout = await manager.findOne(PayoutEntity, { where: { id: payoutId }, lock: { mode: 'pessimistic_write' } });
+      const payout = await manager.findOne(PayoutEntity, {
+        where: { id: payoutId },
+        lock: { mode: 'pessimistic_write' },
+      });
       if (!payout || (actor.role !== 'admin' && !(await this.studies.isMember(actor.id, payout.studyId)))) {
         throw new DomainException('NOT_FOUND', 'No such payout.');
       }
-      if (payout.status !== 'failed') throw new DomainException('PAYOUT_NOT_RETRYABLE', `Only failed payouts can be retried; this one is ${payout.status}.`);
+      if (payout.status !== 'failed')
+        throw new DomainException(
+          'PAYOUT_NOT_RETRYABLE',
+          `Only failed payouts can be retried; this one is ${payout.status}.`,
+        );
       const { remainingMinor } = await this.balance(manager, payout.studyId);
-      if (payout.amountMinor > remainingMinor) throw new DomainException('CONFLICT', "The study's funded balance does not cover this payout. Fund the study first.");
-      await manager.update(PayoutEntity, { id: payoutId }, { status: 'approved', approvedBy: actor.id, approvedAt: new Date() });
+      if (payout.amountMinor > remainingMinor)
+        throw new DomainException(
+          'CONFLICT',
+          "The study's funded balance does not cover this payout. Fund the study first.",
+        );
+      await manager.update(
+        PayoutEntity,
+        { id: payoutId },
+        { status: 'approved', approvedBy: actor.id, approvedAt: new Date() },
+      );
       await this.jobs.enqueue(manager, JOB_NAMES.sendPayout, { payoutId });
-      await this.audit.record(manager, { chain: payout.studyId, actor, action: 'payout.retried', subjectType: 'payout', subjectId: payoutId, data: { previousReason: payout.failureReason } });
+      await this.audit.record(manager, {
+        chain: payout.studyId,
+        actor,
+        action: 'payout.retried',
+        subjectType: 'payout',
+        subjectId: payoutId,
+        data: { previousReason: payout.failureReason },
+      });
       return { studyId: payout.studyId };
     });
   }
@@ -283,7 +377,15 @@ export class PayoutsService implements OnModuleInit {
   async send(payoutId: string): Promise<void> {
     // Claims the payout and reads where it goes in one statement: the row lock lasts only that statement, and a
     // payout that is no longer approved (paid meanwhile, cancelled) is left alone.
-    const [payout] = await queryRows<{ id: string; study_id: string; amount_minor: string; currency: string; idempotency_key: string; provider_account_id: string | null; payouts_enabled: boolean | null }>(
+    const [payout] = await queryRows<{
+      id: string;
+      study_id: string;
+      amount_minor: string;
+      currency: string;
+      idempotency_key: string;
+      provider_account_id: string | null;
+      payouts_enabled: boolean | null;
+    }>(
       this.dataSource.manager,
       `WITH claimed AS (
          UPDATE payout SET status = 'sending', attempts = attempts + 1, sent_at = coalesce(sent_at, now()), updated_at = now()
@@ -327,7 +429,11 @@ export class PayoutsService implements OnModuleInit {
    * may retry it (the retry sends under the same Idempotency-Key, so it can never pay twice). With `idleSince`,
    * only a payout no try has touched since then (the sweeper's guard against a sender that just woke up).
    */
-  async markFailed(payout: { id: string; studyId: string }, reason: string, options: { from?: Array<'approved' | 'sending'>; idleSince?: Date } = {}): Promise<boolean> {
+  async markFailed(
+    payout: { id: string; studyId: string },
+    reason: string,
+    options: { from?: Array<'approved' | 'sending'>; idleSince?: Date } = {},
+  ): Promise<boolean> {
     return this.dataSource.transaction(async (manager) => {
       const [failed] = await queryRows<{ id: string }>(
         manager,
@@ -336,7 +442,14 @@ export class PayoutsService implements OnModuleInit {
         [payout.id, reason, options.from ?? ['sending'], options.idleSince ?? null],
       );
       if (failed) {
-        await this.audit.record(manager, { chain: payout.studyId, actor: null, action: 'payout.undelivered', subjectType: 'payout', subjectId: payout.id, data: { reason } });
+        await this.audit.record(manager, {
+          chain: payout.studyId,
+          actor: null,
+          action: 'payout.undelivered',
+          subjectType: 'payout',
+          subjectId: payout.id,
+          data: { reason },
+        });
       }
       return Boolean(failed);
     });
@@ -355,7 +468,10 @@ export class PayoutsService implements OnModuleInit {
    * that transfer, and reversed when the transfer was. Used by webhooks and by the sweeper; applying the same
    * transfer again changes nothing.
    */
-  async settleFromTransfer(transfer: Pick<Stripe.Transfer, 'id' | 'reversed' | 'metadata'>, manager?: EntityManager): Promise<void> {
+  async settleFromTransfer(
+    transfer: Pick<Stripe.Transfer, 'id' | 'reversed' | 'metadata'>,
+    manager?: EntityManager,
+  ): Promise<void> {
     const run = async (m: EntityManager) => {
       const payoutId = transfer.metadata?.payoutId;
       if (payoutId && UUID.test(payoutId)) await this.markPaid(payoutId, transfer.id, m);
@@ -387,9 +503,19 @@ export class PayoutsService implements OnModuleInit {
          ) SELECT next.last_number, s.slug FROM next, study s WHERE s.id = $1`,
         [payout.study_id],
       );
-      await m.query(`UPDATE payout SET receipt_number = $2 WHERE id = $1`, [payoutId, receiptNumber(counter.slug, counter.last_number)]);
+      await m.query(`UPDATE payout SET receipt_number = $2 WHERE id = $1`, [
+        payoutId,
+        receiptNumber(counter.slug, counter.last_number),
+      ]);
       await this.jobs.enqueue(m, JOB_NAMES.payoutReceipt, { payoutId });
-      await this.audit.record(m, { chain: payout.study_id, actor: null, action: 'payout.delivered', subjectType: 'payout', subjectId: payoutId, data: { transferId, amountMinor: Number(payout.amount_minor) } });
+      await this.audit.record(m, {
+        chain: payout.study_id,
+        actor: null,
+        action: 'payout.delivered',
+        subjectType: 'payout',
+        subjectId: payoutId,
+        data: { transferId, amountMinor: Number(payout.amount_minor) },
+      });
     };
     if (manager) await run(manager);
     else await this.dataSource.transaction(run);
@@ -430,25 +556,37 @@ export class PayoutsService implements OnModuleInit {
    * than the last one applied to the same object (the provider does not promise delivery order, and each event
    * carries its object's whole state at that moment, so applying a stale one would undo a newer state).
    */
-  async handleWebhook(rawBody: Buffer | undefined, signature: string | undefined): Promise<{ received: true; duplicate: boolean }> {
+  async handleWebhook(
+    rawBody: Buffer | undefined,
+    signature: string | undefined,
+  ): Promise<{ received: true; duplicate: boolean }> {
     if (!rawBody || !signature) {
-      throw new DomainException('VALIDATION_FAILED', 'A signed webhook body is required.', [{ field: 'Stripe-Signature', message: 'is missing' }]);
+      throw new DomainException('VALIDATION_FAILED', 'A signed webhook body is required.', [
+        { field: 'Stripe-Signature', message: 'is missing' },
+      ]);
     }
     let body: unknown;
     try {
       body = this.provider.webhooks.constructEvent(rawBody, signature, this.config.stripeWebhookSecret, 300);
     } catch (error) {
       if (error instanceof SyntaxError) {
-        throw new DomainException('VALIDATION_FAILED', 'The webhook body is not JSON.', [{ field: 'body', message: 'must be a JSON event' }]);
+        throw new DomainException('VALIDATION_FAILED', 'The webhook body is not JSON.', [
+          { field: 'body', message: 'must be a JSON event' },
+        ]);
       }
-      throw new DomainException('VALIDATION_FAILED', 'The webhook signature does not verify.', [{ field: 'Stripe-Signature', message: (error as Error).message }]);
+      throw new DomainException('VALIDATION_FAILED', 'The webhook signature does not verify.', [
+        { field: 'Stripe-Signature', message: (error as Error).message },
+      ]);
     }
     const timeProblem = signatureTimeProblem(signature, Math.floor(Date.now() / 1000));
     if (timeProblem) {
-      throw new DomainException('VALIDATION_FAILED', 'The webhook signature is stamped outside the accepted window.', [{ field: 'Stripe-Signature', message: timeProblem }]);
+      throw new DomainException('VALIDATION_FAILED', 'The webhook signature is stamped outside the accepted window.', [
+        { field: 'Stripe-Signature', message: timeProblem },
+      ]);
     }
     const read = readProviderEvent(body);
-    if ('errors' in read) throw new DomainException('VALIDATION_FAILED', 'The webhook event is malformed.', read.errors);
+    if ('errors' in read)
+      throw new DomainException('VALIDATION_FAILED', 'The webhook event is malformed.', read.errors);
     const { event } = read;
     return this.dataSource.transaction(async (manager) => {
       const inserted = await queryRows(
@@ -496,7 +634,11 @@ export class PayoutsService implements OnModuleInit {
         return;
       case 'payment_intent.succeeded':
       case 'payment_intent.payment_failed':
-        await this.applyFunding(manager, event.objectId!, event.type === 'payment_intent.succeeded' ? 'succeeded' : 'failed');
+        await this.applyFunding(
+          manager,
+          event.objectId!,
+          event.type === 'payment_intent.succeeded' ? 'succeeded' : 'failed',
+        );
         return;
       default:
         return;
@@ -514,7 +656,10 @@ export class PayoutsService implements OnModuleInit {
 
   /** A reversed transfer: the payout is marked reversed and the money is owed again as a new payout. */
   private async applyReversal(manager: EntityManager, transferId: string): Promise<void> {
-    const payout = await manager.findOne(PayoutEntity, { where: { providerTransferId: transferId }, lock: { mode: 'pessimistic_write' } });
+    const payout = await manager.findOne(PayoutEntity, {
+      where: { providerTransferId: transferId },
+      lock: { mode: 'pessimistic_write' },
+    });
     if (!payout || payout.status === 'reversed') return;
     await manager.update(PayoutEntity, { id: payout.id }, { status: 'reversed', reversedAt: new Date() });
     const again = await this.createOwed(manager, {
@@ -528,14 +673,39 @@ export class PayoutsService implements OnModuleInit {
       currency: payout.currency.trim(),
       payOverride: payout.payOverride,
     });
-    await this.audit.record(manager, { chain: payout.studyId, actor: null, action: 'payout.returned', subjectType: 'payout', subjectId: payout.id, data: { transferId, owedAgainAs: again?.id ?? null } });
+    await this.audit.record(manager, {
+      chain: payout.studyId,
+      actor: null,
+      action: 'payout.returned',
+      subjectType: 'payout',
+      subjectId: payout.id,
+      data: { transferId, owedAgainAs: again?.id ?? null },
+    });
   }
 
-  private async applyFunding(manager: EntityManager, paymentIntentId: string, status: 'succeeded' | 'failed'): Promise<void> {
-    const funding = await manager.findOne(StudyFundingEntity, { where: { paymentIntentId }, lock: { mode: 'pessimistic_write' } });
+  private async applyFunding(
+    manager: EntityManager,
+    paymentIntentId: string,
+    status: 'succeeded' | 'failed',
+  ): Promise<void> {
+    const funding = await manager.findOne(StudyFundingEntity, {
+      where: { paymentIntentId },
+      lock: { mode: 'pessimistic_write' },
+    });
     if (!funding || funding.status === 'succeeded') return;
-    await manager.update(StudyFundingEntity, { id: funding.id }, { status, succeededAt: status === 'succeeded' ? new Date() : null });
-    await this.audit.record(manager, { chain: funding.studyId, actor: null, action: status === 'succeeded' ? 'funding.received' : 'funding.declined', subjectType: 'funding', subjectId: funding.id, data: { amountMinor: funding.amountMinor, paymentIntentId } });
+    await manager.update(
+      StudyFundingEntity,
+      { id: funding.id },
+      { status, succeededAt: status === 'succeeded' ? new Date() : null },
+    );
+    await this.audit.record(manager, {
+      chain: funding.studyId,
+      actor: null,
+      action: status === 'succeeded' ? 'funding.received' : 'funding.declined',
+      subjectType: 'funding',
+      subjectId: funding.id,
+      data: { amountMinor: funding.amountMinor, paymentIntentId },
+    });
   }
 
   // ── reconciliation ────────────────────────────────────────────────────────
@@ -545,12 +715,18 @@ export class PayoutsService implements OnModuleInit {
     // Every page, however many: the SDK's autoPagingToArray stops at 10,000 items.
     const transfers: Stripe.Transfer[] = [];
     await this.payments.call('the reconciliation', async (provider) => {
-      for await (const transfer of provider.transfers.list({ transfer_group: `study_${studyId}`, limit: 100 })) transfers.push(transfer);
+      for await (const transfer of provider.transfers.list({ transfer_group: `study_${studyId}`, limit: 100 }))
+        transfers.push(transfer);
     });
     const ledger = await this.dataSource.getRepository(PayoutEntity).find({ where: { studyId } });
     return reconcile(
       ledger.map((p) => ({ id: p.id, status: p.status, amountMinor: p.amountMinor, transferId: p.providerTransferId })),
-      transfers.map((t) => ({ id: t.id, amountMinor: t.amount, reversed: t.reversed, payoutId: t.metadata?.payoutId ?? null })),
+      transfers.map((t) => ({
+        id: t.id,
+        amountMinor: t.amount,
+        reversed: t.reversed,
+        payoutId: t.metadata?.payoutId ?? null,
+      })),
     );
   }
 
@@ -569,8 +745,24 @@ export class PayoutsService implements OnModuleInit {
       }),
     );
     const funding = await this.dataSource.transaction(async (manager) => {
-      const saved = await manager.save(manager.create(StudyFundingEntity, { studyId, paymentIntentId: intent.id, amountMinor, currency: study.currency, status: 'pending', createdBy: actor.id }));
-      await this.audit.record(manager, { chain: studyId, actor, action: 'funding.started', subjectType: 'funding', subjectId: saved.id, data: { amountMinor, paymentIntentId: intent.id } });
+      const saved = await manager.save(
+        manager.create(StudyFundingEntity, {
+          studyId,
+          paymentIntentId: intent.id,
+          amountMinor,
+          currency: study.currency,
+          status: 'pending',
+          createdBy: actor.id,
+        }),
+      );
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'funding.started',
+        subjectType: 'funding',
+        subjectId: saved.id,
+        data: { amountMinor, paymentIntentId: intent.id },
+      });
       return saved;
     });
     return {
@@ -585,11 +777,17 @@ export class PayoutsService implements OnModuleInit {
 
   /** Asks the provider directly, for when the browser says it succeeded before the webhook arrives. */
   async refreshFunding(studyId: string, fundingId: string): Promise<BudgetDto> {
-    const funding = await this.dataSource.getRepository(StudyFundingEntity).findOne({ where: { id: fundingId, studyId } });
+    const funding = await this.dataSource
+      .getRepository(StudyFundingEntity)
+      .findOne({ where: { id: fundingId, studyId } });
     if (!funding) throw new DomainException('NOT_FOUND', 'No such funding for this study.');
-    const intent = await this.payments.call('checking the funding', (provider) => provider.paymentIntents.retrieve(funding.paymentIntentId));
+    const intent = await this.payments.call('checking the funding', (provider) =>
+      provider.paymentIntents.retrieve(funding.paymentIntentId),
+    );
     if (intent.status === 'succeeded' || intent.status === 'canceled') {
-      await this.dataSource.transaction((manager) => this.applyFunding(manager, intent.id, intent.status === 'succeeded' ? 'succeeded' : 'failed'));
+      await this.dataSource.transaction((manager) =>
+        this.applyFunding(manager, intent.id, intent.status === 'succeeded' ? 'succeeded' : 'failed'),
+      );
     }
     return this.budget(studyId);
   }
@@ -597,12 +795,20 @@ export class PayoutsService implements OnModuleInit {
   async budget(studyId: string): Promise<BudgetDto> {
     const study = await this.studies.require(studyId);
     const totals = await this.balance(this.dataSource.manager, studyId);
-    const fundings = await this.dataSource.getRepository(StudyFundingEntity).find({ where: { studyId }, order: { createdAt: 'DESC' } });
+    const fundings = await this.dataSource
+      .getRepository(StudyFundingEntity)
+      .find({ where: { studyId }, order: { createdAt: 'DESC' } });
     return {
       currency: study.currency,
       plannedMinor: study.budgetMinor,
       ...totals,
-      fundings: fundings.map((f) => ({ id: f.id, amountMinor: f.amountMinor, status: f.status, createdAt: f.createdAt.toISOString(), succeededAt: f.succeededAt?.toISOString() ?? null })),
+      fundings: fundings.map((f) => ({
+        id: f.id,
+        amountMinor: f.amountMinor,
+        status: f.status,
+        createdAt: f.createdAt.toISOString(),
+        succeededAt: f.succeededAt?.toISOString() ?? null,
+      })),
     };
   }
 
@@ -613,7 +819,9 @@ export class PayoutsService implements OnModuleInit {
     if (!account) return { exists: false, payoutsEnabled: false, onboarding: 'none' };
     if (refresh && !account.payoutsEnabled) {
       try {
-        await this.dataSource.transaction(async (manager) => this.updateAccountState(manager, await this.provider.accounts.retrieve(account.providerAccountId)));
+        await this.dataSource.transaction(async (manager) =>
+          this.updateAccountState(manager, await this.provider.accounts.retrieve(account.providerAccountId)),
+        );
       } catch (error) {
         this.logger.warn(`could not refresh account ${account.providerAccountId}: ${(error as Error).message}`);
       }
@@ -628,7 +836,12 @@ export class PayoutsService implements OnModuleInit {
     if (!account) {
       const created = await this.payments.call('setting up your payout account', (provider) =>
         provider.accounts.create(
-          { type: 'express', email: user.email, capabilities: { transfers: { requested: true } }, metadata: { userId: user.id } },
+          {
+            type: 'express',
+            email: user.email,
+            capabilities: { transfers: { requested: true } },
+            metadata: { userId: user.id },
+          },
           { idempotencyKey: `payout-account-${user.id}` },
         ),
       );
@@ -663,8 +876,10 @@ export class PayoutsService implements OnModuleInit {
     const pendingMinor: Record<string, number> = {};
     for (const r of rows) {
       const currency = (r.currency as string).trim();
-      if (r.status === 'paid' && (r.paid_at as Date).getUTCFullYear() === year) paidThisYearMinor[currency] = (paidThisYearMinor[currency] ?? 0) + Number(r.amount_minor);
-      if (['owed', 'approved', 'sending', 'failed'].includes(r.status as string)) pendingMinor[currency] = (pendingMinor[currency] ?? 0) + Number(r.amount_minor);
+      if (r.status === 'paid' && (r.paid_at as Date).getUTCFullYear() === year)
+        paidThisYearMinor[currency] = (paidThisYearMinor[currency] ?? 0) + Number(r.amount_minor);
+      if (['owed', 'approved', 'sending', 'failed'].includes(r.status as string))
+        pendingMinor[currency] = (pendingMinor[currency] ?? 0) + Number(r.amount_minor);
     }
     return {
       items: rows.map((r) => ({
@@ -682,7 +897,8 @@ export class PayoutsService implements OnModuleInit {
       account: await this.accountStatus(user),
       paidThisYearMinor,
       pendingMinor,
-      taxNote: 'Payments for taking part in research can count as income. Rules differ by country; if you are unsure, ask a tax adviser.',
+      taxNote:
+        'Payments for taking part in research can count as income. Rules differ by country; if you are unsure, ask a tax adviser.',
     };
   }
 
@@ -706,7 +922,12 @@ export class PayoutsService implements OnModuleInit {
       caution: TAX_CAUTION,
       participants: rows.map((r) => {
         const paid = Number(r.paid);
-        return { participantId: r.participant_id, email: r.email, paidThisYearMinor: paid, standing: thresholdStanding(paid, threshold) };
+        return {
+          participantId: r.participant_id,
+          email: r.email,
+          paidThisYearMinor: paid,
+          standing: thresholdStanding(paid, threshold),
+        };
       }),
     };
   }
@@ -720,9 +941,14 @@ export class PayoutsService implements OnModuleInit {
     const study = await this.studies.require(studyId);
     const from = parseDay(query.from, 'from');
     const to = parseDay(query.to, 'to');
-    if (to < from) throw new DomainException('VALIDATION_FAILED', 'The period ends before it starts.', [{ field: 'to', message: 'must be on or after the first day (from)' }]);
+    if (to < from)
+      throw new DomainException('VALIDATION_FAILED', 'The period ends before it starts.', [
+        { field: 'to', message: 'must be on or after the first day (from)' },
+      ]);
     if (to.getTime() - from.getTime() > 366 * 86_400_000) {
-      throw new DomainException('VALIDATION_FAILED', 'A period can be at most a year long.', [{ field: 'to', message: 'must be within a year of the first day (from)' }]);
+      throw new DomainException('VALIDATION_FAILED', 'A period can be at most a year long.', [
+        { field: 'to', message: 'must be within a year of the first day (from)' },
+      ]);
     }
     const end = new Date(to.getTime() + 86_400_000);
     const yearStart = new Date(Date.UTC(to.getUTCFullYear(), 0, 1));
@@ -740,7 +966,12 @@ export class PayoutsService implements OnModuleInit {
       [studyId, from, end, yearStart, study.currency],
     );
     const csv = financeExportCsv(
-      rows.map((r) => ({ participantReference: r.reference, paymentsInPeriod: Number(r.n), paidInPeriodMinor: Number(r.paid), paidThisYearMinor: Number(r.year_paid) })),
+      rows.map((r) => ({
+        participantReference: r.reference,
+        paymentsInPeriod: Number(r.n),
+        paidInPeriodMinor: Number(r.paid),
+        paidThisYearMinor: Number(r.year_paid),
+      })),
       study.currency.trim(),
       this.config.taxReportingThresholdMinor,
     );
@@ -752,7 +983,9 @@ export class PayoutsService implements OnModuleInit {
 function parseDay(value: string, field: string): Date {
   const day = new Date(`${value}T00:00:00.000Z`);
   if (Number.isNaN(day.getTime()) || day.toISOString().slice(0, 10) !== value) {
-    throw new DomainException('VALIDATION_FAILED', `${field} is not a real calendar day.`, [{ field, message: `${value} is not a real calendar day` }]);
+    throw new DomainException('VALIDATION_FAILED', `${field} is not a real calendar day.`, [
+      { field, message: `${value} is not a real calendar day` },
+    ]);
   }
   return day;
 }

@@ -58,11 +58,17 @@ export function readProviderEvent(body: unknown): { event: ProviderEventEnvelope
     errors.push({ field: 'data.object.id', message: `is required for ${body.type}` });
   }
   if (errors.length > 0) return { errors };
-  return { event: { id: body.id as string, type: body.type as string, created: body.created as number, object, objectId } };
+  return {
+    event: { id: body.id as string, type: body.type as string, created: body.created as number, object, objectId },
+  };
 }
 
 /** Why a signature header's timestamp is unacceptable at `nowSeconds`, or null when it is within the window. */
-export function signatureTimeProblem(header: string, nowSeconds: number, toleranceSeconds = SIGNATURE_TOLERANCE_SECONDS): string | null {
+export function signatureTimeProblem(
+  header: string,
+  nowSeconds: number,
+  toleranceSeconds = SIGNATURE_TOLERANCE_SECONDS,
+): string | null {
   const stamps = header
     .split(',')
     .map((part) => part.trim().split('='))

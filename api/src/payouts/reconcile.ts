@@ -32,19 +32,49 @@ export function reconcile(ledger: LedgerPayout[], transfers: ProviderTransfer[],
   for (const payout of sent) {
     const transfer = byTransfer.get(payout.transferId!);
     if (!transfer) {
-      differences.push({ kind: 'missing-at-provider', payoutId: payout.id, transferId: payout.transferId, ledgerAmountMinor: payout.amountMinor, providerAmountMinor: null, message: 'We recorded this payout as sent, but the provider has no such transfer.' });
+      differences.push({
+        kind: 'missing-at-provider',
+        payoutId: payout.id,
+        transferId: payout.transferId,
+        ledgerAmountMinor: payout.amountMinor,
+        providerAmountMinor: null,
+        message: 'We recorded this payout as sent, but the provider has no such transfer.',
+      });
       continue;
     }
     if (transfer.amountMinor !== payout.amountMinor) {
-      differences.push({ kind: 'amount-differs', payoutId: payout.id, transferId: transfer.id, ledgerAmountMinor: payout.amountMinor, providerAmountMinor: transfer.amountMinor, message: 'The amounts differ.' });
+      differences.push({
+        kind: 'amount-differs',
+        payoutId: payout.id,
+        transferId: transfer.id,
+        ledgerAmountMinor: payout.amountMinor,
+        providerAmountMinor: transfer.amountMinor,
+        message: 'The amounts differ.',
+      });
     }
     if (transfer.reversed !== (payout.status === 'reversed')) {
-      differences.push({ kind: 'reversal-differs', payoutId: payout.id, transferId: transfer.id, ledgerAmountMinor: payout.amountMinor, providerAmountMinor: transfer.amountMinor, message: transfer.reversed ? 'The provider reversed this transfer; our ledger still shows it paid.' : 'Our ledger shows a reversal the provider does not.' });
+      differences.push({
+        kind: 'reversal-differs',
+        payoutId: payout.id,
+        transferId: transfer.id,
+        ledgerAmountMinor: payout.amountMinor,
+        providerAmountMinor: transfer.amountMinor,
+        message: transfer.reversed
+          ? 'The provider reversed this transfer; our ledger still shows it paid.'
+          : 'Our ledger shows a reversal the provider does not.',
+      });
     }
   }
   for (const transfer of transfers) {
     if (!known.has(transfer.id)) {
-      differences.push({ kind: 'unknown-at-provider', payoutId: transfer.payoutId, transferId: transfer.id, ledgerAmountMinor: null, providerAmountMinor: transfer.amountMinor, message: 'The provider shows a transfer our ledger does not record as sent.' });
+      differences.push({
+        kind: 'unknown-at-provider',
+        payoutId: transfer.payoutId,
+        transferId: transfer.id,
+        ledgerAmountMinor: null,
+        providerAmountMinor: transfer.amountMinor,
+        message: 'The provider shows a transfer our ledger does not record as sent.',
+      });
     }
   }
   const ledgerPaid = ledger.filter((p) => p.status === 'paid');

@@ -8,7 +8,14 @@ import { DomainException } from '../common/errors/domain.exception';
 import { uuidParam } from '../common/http/uuid-param';
 import { StudiesService } from '../studies';
 import { StudyMembersOnly } from '../studies';
-import { AssignmentDto, DryRunRequestDto, DryRunResultDto, PutAssignmentSchemeDto, UnblindDto, VerificationDto } from './dto/assignment.dto';
+import {
+  AssignmentDto,
+  DryRunRequestDto,
+  DryRunResultDto,
+  PutAssignmentSchemeDto,
+  UnblindDto,
+  VerificationDto,
+} from './dto/assignment.dto';
 import { RandomizationService } from './randomization.service';
 import { SchemeMethod } from './scheme-parameters';
 import { generateSeed } from './seeded-stream';
@@ -28,11 +35,16 @@ export class AssignmentController {
   @Put('assignment-scheme')
   @Roles('coordinator', 'researcher', 'admin')
   @ApiOkResponse({ type: AssignmentDto })
-  async putScheme(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: PutAssignmentSchemeDto): Promise<AssignmentDto> {
+  async putScheme(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: PutAssignmentSchemeDto,
+  ): Promise<AssignmentDto> {
     const { method, ...settings } = body;
     await this.dataSource.transaction(async (manager) => {
       const study = await this.studies.require(studyId, manager, true);
-      if (study.status === 'closed') throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+      if (study.status === 'closed')
+        throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
       const snapshot = await this.studies.designSnapshot(studyId, manager);
       await this.randomization.saveScheme(manager, user, studyId, method, settings, snapshot, study.status !== 'draft');
     });
@@ -66,15 +78,25 @@ export class AssignmentController {
   @HttpCode(200)
   @Roles('coordinator', 'researcher', 'admin')
   @ApiOkResponse({ type: DryRunResultDto })
-  async dryRun(@Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: DryRunRequestDto): Promise<DryRunResultDto> {
+  async dryRun(
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: DryRunRequestDto,
+  ): Promise<DryRunResultDto> {
     const snapshot = await this.studies.designSnapshot(studyId);
     const saved = await this.randomization.schemeOf(studyId);
     const method = (body.method ?? saved?.method) as SchemeMethod | undefined;
-    if (!method) throw new DomainException('VALIDATION_FAILED', 'Choose a scheme to simulate.', [{ field: 'method', message: 'is required when no scheme is saved' }]);
+    if (!method)
+      throw new DomainException('VALIDATION_FAILED', 'Choose a scheme to simulate.', [
+        { field: 'method', message: 'is required when no scheme is saved' },
+      ]);
     const settings = (body.method ? (body.settings ?? {}) : (saved?.settings ?? {})) as SchemeSettings;
     // A throwaway seed, returned so the same simulation can be run again; never the study's sealed seed.
     const seed = body.seed?.toLowerCase() ?? generateSeed();
-    const result = this.randomization.dryRun(method, settings, snapshot, { arrivals: body.arrivals, seed, covariateMix: body.covariateMix });
+    const result = this.randomization.dryRun(method, settings, snapshot, {
+      arrivals: body.arrivals,
+      seed,
+      covariateMix: body.covariateMix,
+    });
     return { ...(result as unknown as DryRunResultDto), seed };
   }
 
@@ -82,11 +104,16 @@ export class AssignmentController {
   @HttpCode(200)
   @Roles('researcher', 'admin')
   @ApiOkResponse({ type: AssignmentDto })
-  async unblind(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: UnblindDto): Promise<AssignmentDto> {
+  async unblind(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: UnblindDto,
+  ): Promise<AssignmentDto> {
     await this.dataSource.transaction(async (manager) => {
       await this.studies.require(studyId, manager, true);
       const scheme = await this.randomization.schemeOf(studyId, manager);
-      if (!scheme?.commitment) throw new DomainException('CONFLICT', 'There is nothing to unblind: the study has not opened.');
+      if (!scheme?.commitment)
+        throw new DomainException('CONFLICT', 'There is nothing to unblind: the study has not opened.');
       await this.randomization.revealSeed(manager, user, studyId, { kind: 'unblinded', text: body.reason });
     });
     return this.get(studyId);
@@ -100,7 +127,12 @@ export class AssignmentController {
     const report = await this.randomization.verify(studyId);
     return {
       ...report,
-      checks: report.checks.map(({ participantId, ...check }) => ({ ...check, enrollmentId: participantId, expected: check.expected, recorded: check.recorded })),
+      checks: report.checks.map(({ participantId, ...check }) => ({
+        ...check,
+        enrollmentId: participantId,
+        expected: check.expected,
+        recorded: check.recorded,
+      })),
     };
   }
 }

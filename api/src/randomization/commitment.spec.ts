@@ -27,16 +27,22 @@ const CANONICAL_BY_HAND =
 describe('commitment', () => {
   it('writes canonical JSON with sorted keys and no whitespace', () => {
     expect(canonicalJson(parameters)).toBe(CANONICAL_BY_HAND);
-    expect(canonicalJson({ b: [2, { d: 1, c: null }], a: 'x"y', skipped: undefined })).toBe('{"a":"x\\"y","b":[2,{"c":null,"d":1}]}');
+    expect(canonicalJson({ b: [2, { d: 1, c: null }], a: 'x"y', skipped: undefined })).toBe(
+      '{"a":"x\\"y","b":[2,{"c":null,"d":1}]}',
+    );
     expect(() => canonicalJson({ a: Number.NaN })).toThrow(/parameters\.a/);
   });
 
   it('equals sha256sum of the documented byte layout, computed by the shell command auditors are given', () => {
     // Outside check: GNU coreutils sha256sum over `printf '%s\n%s' "$SEED" "$CANONICAL_JSON"`, the command in
     // commitment.ts, with the seed lowercased by the shell (tr) rather than by our code.
-    const output = execFileSync('bash', ['-c', `printf '%s\\n%s' "$(printf '%s' "$SEED" | tr A-F a-f)" "$CANONICAL_JSON" | sha256sum`], {
-      env: { ...process.env, SEED, CANONICAL_JSON: CANONICAL_BY_HAND, LC_ALL: 'C.UTF-8' },
-    }).toString();
+    const output = execFileSync(
+      'bash',
+      ['-c', `printf '%s\\n%s' "$(printf '%s' "$SEED" | tr A-F a-f)" "$CANONICAL_JSON" | sha256sum`],
+      {
+        env: { ...process.env, SEED, CANONICAL_JSON: CANONICAL_BY_HAND, LC_ALL: 'C.UTF-8' },
+      },
+    ).toString();
     const expected = output.split(' ')[0];
     expect(expected).toMatch(/^[0-9a-f]{64}$/);
     expect(computeCommitment(SEED, parameters)).toBe(expected);
@@ -63,7 +69,12 @@ describe('commitment', () => {
 
   it('commits to the normalized parameters, defaults included', () => {
     const bare = { method: 'williams', conditionIds: ['a', 'b', 'c'] } as unknown as SchemeParameters;
-    const full: SchemeParameters = { method: 'williams', conditionIds: ['a', 'b', 'c'], squaresPerBlock: [1], factors: [] };
+    const full: SchemeParameters = {
+      method: 'williams',
+      conditionIds: ['a', 'b', 'c'],
+      squaresPerBlock: [1],
+      factors: [],
+    };
     expect(computeCommitment(SEED, bare)).toBe(computeCommitment(SEED, full));
   });
 });

@@ -1,5 +1,12 @@
 import { describe, expect, it } from 'vitest';
-import { deriveSequence, generateSlots, RecordedAllocation, slotStratumKey, usesSlots, verifyAllocations } from './derive-sequence';
+import {
+  deriveSequence,
+  generateSlots,
+  RecordedAllocation,
+  slotStratumKey,
+  usesSlots,
+  verifyAllocations,
+} from './derive-sequence';
 import { RandomizationError } from './randomization-error';
 import { SchemeParameters } from './scheme-parameters';
 import { AllocationSlot } from './schemes/allocation-slot';
@@ -48,18 +55,23 @@ const slotSchemes: SchemeParameters[] = [
 ];
 
 describe('deriving and verifying the sequence', () => {
-  it.each(slotSchemes.map((p) => [p.method, p] as const))('re-derives every %s allocation the allocator made', (_, parameters) => {
-    expect(usesSlots(parameters)).toBe(true);
-    const recorded = allocateFromSlots(parameters, arrivals(120));
-    const report = verifyAllocations(SEED, parameters, recorded);
-    expect(report.allMatch).toBe(true);
-    expect(report.matched).toBe(120);
-  });
+  it.each(slotSchemes.map((p) => [p.method, p] as const))(
+    're-derives every %s allocation the allocator made',
+    (_, parameters) => {
+      expect(usesSlots(parameters)).toBe(true);
+      const recorded = allocateFromSlots(parameters, arrivals(120));
+      const report = verifyAllocations(SEED, parameters, recorded);
+      expect(report.allMatch).toBe(true);
+      expect(report.matched).toBe(120);
+    },
+  );
 
   it('reports exactly the allocation that was altered, and a wrong seed as mismatches', () => {
     const parameters = slotSchemes[2];
     const recorded = allocateFromSlots(parameters, arrivals(60));
-    const altered = recorded.map((r, i) => (i === 17 ? { ...r, conditionId: r.conditionId === 'map' ? 'none' : 'map' } : r));
+    const altered = recorded.map((r, i) =>
+      i === 17 ? { ...r, conditionId: r.conditionId === 'map' ? 'none' : 'map' } : r,
+    );
     const report = verifyAllocations(SEED, parameters, altered);
     expect(report.allMatch).toBe(false);
     expect(report.mismatched).toBe(1);
@@ -72,7 +84,11 @@ describe('deriving and verifying the sequence', () => {
     const parameters = slotSchemes[3];
     const recorded = allocateFromSlots(parameters, arrivals(30));
     const altered = recorded.map((r, i) => (i === 4 ? { ...r, order: (r.order as string[]).slice().reverse() } : r));
-    expect(verifyAllocations(SEED, parameters, altered).checks.filter((c) => !c.matches).map((c) => c.arrivalPosition)).toEqual([5]);
+    expect(
+      verifyAllocations(SEED, parameters, altered)
+        .checks.filter((c) => !c.matches)
+        .map((c) => c.arrivalPosition),
+    ).toEqual([5]);
   });
 
   it('replays minimization arrival by arrival', () => {
@@ -88,7 +104,13 @@ describe('deriving and verifying the sequence', () => {
     };
     const tally = emptyTally(parameters);
     const recorded = arrivals(80).map((person, i) => {
-      const decision = assignByMinimization({ seed: SEED, parameters, arrivalPosition: i + 1, covariates: person.covariates, tally });
+      const decision = assignByMinimization({
+        seed: SEED,
+        parameters,
+        arrivalPosition: i + 1,
+        covariates: person.covariates,
+        tally,
+      });
       recordInTally(tally, decision.levels, decision.conditionId);
       return { ...person, conditionId: decision.conditionId };
     });
@@ -97,7 +119,11 @@ describe('deriving and verifying the sequence', () => {
   });
 
   it('replays matched pairs from the pretest covariate, in any arrival order', () => {
-    const parameters: SchemeParameters = { method: 'matched-pairs', conditions: conditions.slice(0, 2), pretestId: 'sense' };
+    const parameters: SchemeParameters = {
+      method: 'matched-pairs',
+      conditions: conditions.slice(0, 2),
+      pretestId: 'sense',
+    };
     const people = arrivals(21);
     const batch = assignMatchedPairs(
       SEED,
@@ -107,7 +133,9 @@ describe('deriving and verifying the sequence', () => {
     const recorded = batch.allocations.map((a, i) => ({ ...people[i], conditionId: a.conditionId }));
     expect(verifyAllocations(SEED, parameters, recorded.slice().reverse()).allMatch).toBe(true);
     const derived = deriveSequence(SEED, parameters, people);
-    expect(derived.filter((d) => d.pairIndex === null).map((d) => d.participantId)).toEqual([batch.leftover?.participantId]);
+    expect(derived.filter((d) => d.pairIndex === null).map((d) => d.participantId)).toEqual([
+      batch.leftover?.participantId,
+    ]);
   });
 
   it('lists at most 50 covariate problems, then says how many more there are', () => {
@@ -124,10 +152,15 @@ describe('deriving and verifying the sequence', () => {
 
   it('names the arrival whose covariates are missing', () => {
     try {
-      deriveSequence(SEED, slotSchemes[2], [{ participantId: 'p1', covariates: { sense: 3, site: 'lab' } }, { participantId: 'p2', covariates: { sense: 3 } }]);
+      deriveSequence(SEED, slotSchemes[2], [
+        { participantId: 'p1', covariates: { sense: 3, site: 'lab' } },
+        { participantId: 'p2', covariates: { sense: 3 } },
+      ]);
       expect.unreachable();
     } catch (error) {
-      expect((error as RandomizationError).fieldErrors).toEqual([{ field: 'arrivals[1].covariates.site', message: expect.stringContaining('missing') }]);
+      expect((error as RandomizationError).fieldErrors).toEqual([
+        { field: 'arrivals[1].covariates.site', message: expect.stringContaining('missing') },
+      ]);
     }
   });
 });
@@ -149,12 +182,15 @@ describe('slots claimed out of arrival order (concurrent signings skip each othe
     return shuffled;
   }
 
-  it.each(slotSchemes.map((p) => [p.method, p] as const))('%s: verify re-derives each allocation by its slot', (_, parameters) => {
-    const report = verifyAllocations(SEED, parameters, claimedOutOfOrder(parameters, arrivals(120)));
-    expect(report.mismatched).toBe(0);
-    expect(report.allMatch).toBe(true);
-    expect(report.slots?.every((s) => s.skipped.length === 0 && s.reused.length === 0)).toBe(true);
-  });
+  it.each(slotSchemes.map((p) => [p.method, p] as const))(
+    '%s: verify re-derives each allocation by its slot',
+    (_, parameters) => {
+      const report = verifyAllocations(SEED, parameters, claimedOutOfOrder(parameters, arrivals(120)));
+      expect(report.mismatched).toBe(0);
+      expect(report.allMatch).toBe(true);
+      expect(report.slots?.every((s) => s.skipped.length === 0 && s.reused.length === 0)).toBe(true);
+    },
+  );
 
   it('reports a slot taken twice, a slot skipped and a condition that is not its slot’s', () => {
     const parameters = slotSchemes[2];
@@ -171,7 +207,9 @@ describe('slots claimed out of arrival order (concurrent signings skip each othe
     expect(stratum.highest).toBe(highest);
     expect(report.allMatch).toBe(false);
 
-    const other = recorded.map((r, i) => (i === 4 ? { ...r, conditionId: r.conditionId === 'audio' ? 'map' : 'audio' } : r));
+    const other = recorded.map((r, i) =>
+      i === 4 ? { ...r, conditionId: r.conditionId === 'audio' ? 'map' : 'audio' } : r,
+    );
     const mismatch = verifyAllocations(SEED, parameters, other);
     expect(mismatch.checks.filter((c) => !c.matches).map((c) => c.participantId)).toEqual([recorded[4].participantId]);
   });

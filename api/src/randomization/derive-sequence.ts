@@ -17,7 +17,14 @@ import { assignMatchedPairs } from './schemes/matched-pairs';
 import { decideByMinimization, emptyTallyOf, recordInTally } from './schemes/minimization';
 import { blockSlots } from './schemes/permuted-blocks';
 import { generateSimpleSequence } from './schemes/simple';
-import { allStratumKeys, Covariates, FactorLevels, participantLevels, stratumKeyFromLevels, UNSTRATIFIED_STRATUM_KEY } from './strata';
+import {
+  allStratumKeys,
+  Covariates,
+  FactorLevels,
+  participantLevels,
+  stratumKeyFromLevels,
+  UNSTRATIFIED_STRATUM_KEY,
+} from './strata';
 import { OrderSlot, orderSlots } from './within/order-sequence';
 
 export interface RecordedArrival {
@@ -73,19 +80,30 @@ export function generateSlots(
   const slotCount = checkSlotCount(count);
   if (!usesSlots(checked)) {
     throw new RandomizationError(RandomizationErrorCode.InvalidParameters, [
-      { field: 'method', message: `${checked.method} decides each arrival when it comes; it has no pre-generated slots` },
+      {
+        field: 'method',
+        message: `${checked.method} decides each arrival when it comes; it has no pre-generated slots`,
+      },
     ]);
   }
   const strata = allStratumKeys(schemeFactors(checked));
   if (!strata.includes(stratumKey)) {
     throw new RandomizationError(RandomizationErrorCode.InvalidInput, [
-      { field: 'stratumKey', message: `"${stratumKey}" is not a stratum of this scheme (strata: ${strata.join(', ')})` },
+      {
+        field: 'stratumKey',
+        message: `"${stratumKey}" is not a stratum of this scheme (strata: ${strata.join(', ')})`,
+      },
     ]);
   }
   return slotsOf(seed, checked, stratumKey, slotCount);
 }
 
-function slotsOf(seed: string, parameters: SchemeParameters, stratumKey: string, count: number): AllocationSlot[] | OrderSlot[] {
+function slotsOf(
+  seed: string,
+  parameters: SchemeParameters,
+  stratumKey: string,
+  count: number,
+): AllocationSlot[] | OrderSlot[] {
   if (isWithinDesign(parameters)) return orderSlots(seed, parameters, stratumKey, count);
   switch (parameters.method) {
     case 'simple':
@@ -113,7 +131,10 @@ function levelsOfArrivals(factors: StratificationFactor[], arrivals: readonly Re
   });
   if (errors.length > MAX_REPORTED_ERRORS) {
     const more = errors.length - MAX_REPORTED_ERRORS;
-    errors.splice(MAX_REPORTED_ERRORS, more, { field: 'arrivals', message: `${more} more covariate problems not listed` });
+    errors.splice(MAX_REPORTED_ERRORS, more, {
+      field: 'arrivals',
+      message: `${more} more covariate problems not listed`,
+    });
   }
   if (errors.length > 0) throw new RandomizationError(RandomizationErrorCode.InvalidCovariates, errors);
   return levels;
@@ -127,7 +148,9 @@ export function deriveSequence(
 ): DerivedAllocation[] {
   const checked = parseSchemeParameters(parameters);
   if (!Array.isArray(arrivals)) {
-    throw new RandomizationError(RandomizationErrorCode.InvalidInput, [{ field: 'arrivals', message: 'must be a list' }]);
+    throw new RandomizationError(RandomizationErrorCode.InvalidInput, [
+      { field: 'arrivals', message: 'must be a list' },
+    ]);
   }
   const factors = schemeFactors(checked);
   const levels = levelsOfArrivals(factors, arrivals);
@@ -242,12 +265,17 @@ export function verifyAllocations(
   recorded: readonly RecordedAllocation[],
 ): VerificationReport {
   const checked = parseSchemeParameters(parameters);
-  if (usesSlots(checked) && recorded.length > 0 && recorded.every((r) => typeof r.slotPosition === 'number')) return verifyBySlot(seed, checked, recorded);
+  if (usesSlots(checked) && recorded.length > 0 && recorded.every((r) => typeof r.slotPosition === 'number'))
+    return verifyBySlot(seed, checked, recorded);
   const derived = deriveSequence(seed, parameters, recorded);
   const checks = derived.map((expected, i): AllocationCheck => {
     const recordedOrder = recorded[i].order;
-    const actual = { conditionId: recorded[i].conditionId ?? null, order: recordedOrder ? recordedOrder.slice() : null };
-    const matches = expected.order !== null ? sameOrder(expected.order, actual.order) : expected.conditionId === actual.conditionId;
+    const actual = {
+      conditionId: recorded[i].conditionId ?? null,
+      order: recordedOrder ? recordedOrder.slice() : null,
+    };
+    const matches =
+      expected.order !== null ? sameOrder(expected.order, actual.order) : expected.conditionId === actual.conditionId;
     return {
       arrivalPosition: expected.arrivalPosition,
       participantId: expected.participantId,
@@ -268,7 +296,11 @@ export function verifyAllocations(
  * strict arrival order gave: every slot used once, no gaps once signings settle, and blocks balanced (every
  * complete block of positions holds exactly the seed's block).
  */
-function verifyBySlot(seed: string, parameters: SchemeParameters, recorded: readonly RecordedAllocation[]): VerificationReport {
+function verifyBySlot(
+  seed: string,
+  parameters: SchemeParameters,
+  recorded: readonly RecordedAllocation[],
+): VerificationReport {
   const keys = recorded.map((r) => slotStratumKey(parameters, r.covariates ?? {}));
   const highest = new Map<string, number>();
   recorded.forEach((r, i) => {
@@ -280,10 +312,21 @@ function verifyBySlot(seed: string, parameters: SchemeParameters, recorded: read
   const checks = recorded.map((r, i): AllocationCheck => {
     const key = r.stratumKey ?? keys[i];
     const slot = (sequences.get(key) as (AllocationSlot | OrderSlot)[])[r.slotPosition! - 1];
-    const expected = slot && 'order' in slot ? { conditionId: null, order: slot.order.slice() } : { conditionId: slot?.conditionId ?? null, order: null };
+    const expected =
+      slot && 'order' in slot
+        ? { conditionId: null, order: slot.order.slice() }
+        : { conditionId: slot?.conditionId ?? null, order: null };
     const actual = { conditionId: r.conditionId ?? null, order: r.order ? r.order.slice() : null };
-    const sameSlot = expected.order !== null ? sameOrder(expected.order, actual.order) : expected.conditionId === actual.conditionId;
-    return { arrivalPosition: i + 1, participantId: r.participantId, stratumKey: keys[i], expected, recorded: actual, matches: Boolean(slot) && key === keys[i] && sameSlot };
+    const sameSlot =
+      expected.order !== null ? sameOrder(expected.order, actual.order) : expected.conditionId === actual.conditionId;
+    return {
+      arrivalPosition: i + 1,
+      participantId: r.participantId,
+      stratumKey: keys[i],
+      expected,
+      recorded: actual,
+      matches: Boolean(slot) && key === keys[i] && sameSlot,
+    };
   });
   const slots: StratumSlots[] = [...highest.entries()]
     .sort(([a], [b]) => a.localeCompare(b))
@@ -303,5 +346,11 @@ function verifyBySlot(seed: string, parameters: SchemeParameters, recorded: read
     });
   const matched = checks.filter((c) => c.matches).length;
   const settled = slots.every((s) => s.skipped.length === 0 && s.reused.length === 0);
-  return { allMatch: matched === checks.length && settled, matched, mismatched: checks.length - matched, checks, slots };
+  return {
+    allMatch: matched === checks.length && settled,
+    matched,
+    mismatched: checks.length - matched,
+    checks,
+    slots,
+  };
 }

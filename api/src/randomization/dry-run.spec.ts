@@ -15,7 +15,12 @@ const mix: DryRunInput['covariateMix'] = {
   sense: { kind: 'numeric-values', values: [1, 2, 3, 4, 5, 6, 7].map((value) => ({ value, probability: 1 })) },
   site: { kind: 'categorical', proportions: { lab: 1, online: 3 } },
 };
-const stratified: SchemeParameters = { method: 'stratified-blocks', conditions, blockSizes: [3, 6], factors: [sense, site] };
+const stratified: SchemeParameters = {
+  method: 'stratified-blocks',
+  conditions,
+  blockSizes: [3, 6],
+  factors: [sense, site],
+};
 
 describe('dry run', () => {
   // Speed is measured in the benchmark (npm run bench -w api), not asserted here.
@@ -33,7 +38,7 @@ describe('dry run', () => {
     const siteOnline = result.factorLevels.find((l) => l.factorId === 'site' && l.level === 'online');
     expect(Math.abs((siteOnline?.total ?? 0) / 10_000 - 0.75)).toBeLessThan(4 * Math.sqrt(0.1875 / 10_000));
     const senseLow = result.factorLevels.find((l) => l.factorId === 'sense' && l.level === '<4');
-    expect(Math.abs((senseLow?.total ?? 0) / 10_000 - 3 / 7)).toBeLessThan(4 * Math.sqrt((12 / 49) / 10_000));
+    expect(Math.abs((senseLow?.total ?? 0) / 10_000 - 3 / 7)).toBeLessThan(4 * Math.sqrt(12 / 49 / 10_000));
   });
 
   it('runs minimization on 10,000 arrivals', () => {
@@ -53,7 +58,12 @@ describe('dry run', () => {
   });
 
   it('reports the peak inside each sampled stretch, never less than the imbalance at its end', () => {
-    const result = runDryRun({ parameters: { method: 'simple', conditions }, arrivals: 5000, seed: SEED, covariateMix: {} });
+    const result = runDryRun({
+      parameters: { method: 'simple', conditions },
+      arrivals: 5000,
+      seed: SEED,
+      covariateMix: {},
+    });
     expect(result.imbalanceOverTime).toHaveLength(200);
     const peaks = result.imbalanceOverTime.map((p) => p.overall);
     expect(result.largestImbalance.overall).toBe(Math.max(...peaks));
@@ -80,7 +90,12 @@ describe('dry run', () => {
     });
     expect(simple.factorLevels.map((l) => l.level)).toEqual(['<4', '≥4']);
     const within = runDryRun({
-      parameters: { method: 'williams', conditionIds: ['express', 'guest', 'account'], squaresPerBlock: [1], factors: [] },
+      parameters: {
+        method: 'williams',
+        conditionIds: ['express', 'guest', 'account'],
+        squaresPerBlock: [1],
+        factors: [],
+      },
       arrivals: 60,
       seed: SEED,
       covariateMix: {},
@@ -119,7 +134,10 @@ describe('dry run', () => {
       parameters: stratified,
       arrivals: 10,
       seed: SEED,
-      covariateMix: { site: { kind: 'categorical', proportions: { lab: 1, mars: 1 } }, sense: { kind: 'normal', mean: 1, sd: -1 } },
+      covariateMix: {
+        site: { kind: 'categorical', proportions: { lab: 1, mars: 1 } },
+        sense: { kind: 'normal', mean: 1, sd: -1 },
+      },
     });
     expect(mixErrors).toEqual([
       { field: 'covariateMix.sense.sd', message: 'must be a number of 0 or more' },
@@ -129,9 +147,17 @@ describe('dry run', () => {
       field: 'covariateMix.sense',
       message: 'needs a distribution because the scheme uses it',
     });
-    expect(() => runDryRun({ parameters: stratified, arrivals: 10, seed: SEED, covariateMix: {} })).toThrow(RandomizationError);
-    expect(validateDryRunInput({ parameters: stratified, arrivals: 10, seed: SEED, covariateMix: mix, reportFactors: [site] })).toEqual([
-      { field: 'reportFactors[0].id', message: expect.stringContaining('already a factor of the scheme') },
-    ]);
+    expect(() => runDryRun({ parameters: stratified, arrivals: 10, seed: SEED, covariateMix: {} })).toThrow(
+      RandomizationError,
+    );
+    expect(
+      validateDryRunInput({
+        parameters: stratified,
+        arrivals: 10,
+        seed: SEED,
+        covariateMix: mix,
+        reportFactors: [site],
+      }),
+    ).toEqual([{ field: 'reportFactors[0].id', message: expect.stringContaining('already a factor of the scheme') }]);
   });
 });

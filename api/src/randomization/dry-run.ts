@@ -9,7 +9,13 @@
  */
 import { FieldError, RandomizationError, RandomizationErrorCode } from './randomization-error';
 import { deriveSequence, RecordedArrival, schemeFactors } from './derive-sequence';
-import { isWithinDesign, parseSchemeParameters, SchemeParameters, StratificationFactor, validateSchemeParameters } from './scheme-parameters';
+import {
+  isWithinDesign,
+  parseSchemeParameters,
+  SchemeParameters,
+  StratificationFactor,
+  validateSchemeParameters,
+} from './scheme-parameters';
 import { createSeededStream, normalizeSeed, SeededStream, streamLabel } from './seeded-stream';
 import { allStratumKeys, Covariates, factorLevels, participantLevels } from './strata';
 import { ordersOf } from './within/order-sequence';
@@ -98,7 +104,12 @@ function covariateNeeds(parameters: SchemeParameters, reportFactors: Stratificat
   for (const factor of schemeFactors(parameters)) add(factor, 'the scheme uses it');
   for (const factor of reportFactors) if (!needs.has(factor.id)) add(factor, 'it is a reported factor');
   if (parameters.method === 'matched-pairs') {
-    needs.set(parameters.pretestId, { id: parameters.pretestId, kind: 'numeric', categories: [], reason: 'pairs are matched on it' });
+    needs.set(parameters.pretestId, {
+      id: parameters.pretestId,
+      kind: 'numeric',
+      categories: [],
+      reason: 'pairs are matched on it',
+    });
   }
   return [...needs.values()].sort((a, b) => (a.id < b.id ? -1 : 1));
 }
@@ -122,13 +133,19 @@ function samplerFor(need: CovariateNeed, raw: unknown, errors: FieldError[]): Sa
   const before = errors.length;
   if (need.kind === 'categorical') {
     if (raw.kind !== 'categorical' || !isRecord(raw.proportions)) {
-      errors.push({ field, message: 'must be {kind: "categorical", proportions: {category: share}} for a categorical factor' });
+      errors.push({
+        field,
+        message: 'must be {kind: "categorical", proportions: {category: share}} for a categorical factor',
+      });
       return undefined;
     }
     const proportions = raw.proportions;
     for (const [category, share] of Object.entries(proportions)) {
       if (!need.categories.includes(category)) {
-        errors.push({ field: `${field}.proportions.${category}`, message: `is not a category of "${need.id}" (${need.categories.join(', ')})` });
+        errors.push({
+          field: `${field}.proportions.${category}`,
+          message: `is not a category of "${need.id}" (${need.categories.join(', ')})`,
+        });
       } else if (!validWeight(share)) {
         errors.push({ field: `${field}.proportions.${category}`, message: 'must be a share of 0 or more' });
       }
@@ -163,11 +180,15 @@ function samplerFor(need: CovariateNeed, raw: unknown, errors: FieldError[]): Sa
   }
   if (raw.kind === 'normal') {
     const { mean, sd } = raw;
-    if (typeof mean !== 'number' || !Number.isFinite(mean)) errors.push({ field: `${field}.mean`, message: 'must be a finite number' });
-    if (typeof sd !== 'number' || !Number.isFinite(sd) || sd < 0) errors.push({ field: `${field}.sd`, message: 'must be a number of 0 or more' });
+    if (typeof mean !== 'number' || !Number.isFinite(mean))
+      errors.push({ field: `${field}.mean`, message: 'must be a finite number' });
+    if (typeof sd !== 'number' || !Number.isFinite(sd) || sd < 0)
+      errors.push({ field: `${field}.sd`, message: 'must be a number of 0 or more' });
     if (errors.length > before) return undefined;
     // Box–Muller, one normal value from two uniforms.
-    return (stream) => (mean as number) + (sd as number) * Math.sqrt(-2 * Math.log(stream.uniform())) * Math.cos(2 * Math.PI * stream.uniform());
+    return (stream) =>
+      (mean as number) +
+      (sd as number) * Math.sqrt(-2 * Math.log(stream.uniform())) * Math.cos(2 * Math.PI * stream.uniform());
   }
   errors.push({ field: `${field}.kind`, message: 'must be numeric-values or normal for a numeric covariate' });
   return undefined;
@@ -219,9 +240,15 @@ export function validateDryRunInput(input: unknown): FieldError[] {
   const errors: FieldError[] = [];
   if (!isRecord(input)) return [{ field: 'dryRun', message: 'must be an object' }];
   const parameters = validateSchemeParameters(input.parameters);
-  if (!parameters.ok) errors.push(...parameters.errors.map((e) => ({ field: `parameters.${e.field}`, message: e.message })));
+  if (!parameters.ok)
+    errors.push(...parameters.errors.map((e) => ({ field: `parameters.${e.field}`, message: e.message })));
   const arrivals = input.arrivals;
-  if (typeof arrivals !== 'number' || !Number.isSafeInteger(arrivals) || arrivals < 1 || arrivals > MAX_DRY_RUN_ARRIVALS) {
+  if (
+    typeof arrivals !== 'number' ||
+    !Number.isSafeInteger(arrivals) ||
+    arrivals < 1 ||
+    arrivals > MAX_DRY_RUN_ARRIVALS
+  ) {
     errors.push({ field: 'arrivals', message: `must be a whole number from 1 to ${MAX_DRY_RUN_ARRIVALS}` });
   }
   try {
@@ -230,7 +257,8 @@ export function validateDryRunInput(input: unknown): FieldError[] {
     if (!(error instanceof RandomizationError)) throw error;
     errors.push(...error.fieldErrors);
   }
-  if (!isRecord(input.covariateMix)) errors.push({ field: 'covariateMix', message: 'must be an object keyed by covariate id' });
+  if (!isRecord(input.covariateMix))
+    errors.push({ field: 'covariateMix', message: 'must be an object keyed by covariate id' });
   if (input.reportFactors !== undefined) {
     const probe = validateSchemeParameters({
       method: 'stratified-blocks',
@@ -241,13 +269,19 @@ export function validateDryRunInput(input: unknown): FieldError[] {
       blockSizes: [2],
       factors: input.reportFactors,
     });
-    if (!probe.ok) errors.push(...probe.errors.map((e) => ({ field: e.field.replace(/^factors/, 'reportFactors'), message: e.message })));
+    if (!probe.ok)
+      errors.push(
+        ...probe.errors.map((e) => ({ field: e.field.replace(/^factors/, 'reportFactors'), message: e.message })),
+      );
   }
   if (errors.length === 0 && parameters.ok && Array.isArray(input.reportFactors)) {
     const schemeIds = new Set(schemeFactors(parameters.value).map((f) => f.id));
     (input.reportFactors as StratificationFactor[]).forEach((factor, i) => {
       if (schemeIds.has(factor.id)) {
-        errors.push({ field: `reportFactors[${i}].id`, message: `"${factor.id}" is already a factor of the scheme; it is reported anyway` });
+        errors.push({
+          field: `reportFactors[${i}].id`,
+          message: `"${factor.id}" is already a factor of the scheme; it is reported anyway`,
+        });
       }
     });
   }
@@ -268,7 +302,10 @@ export function runDryRun(input: DryRunInput): DryRunResult {
   const n = input.arrivals;
 
   const needs = covariateNeeds(parameters, reportFactors);
-  const samplers = needs.map((need) => ({ id: need.id, sample: samplerFor(need, input.covariateMix[need.id], []) as Sampler }));
+  const samplers = needs.map((need) => ({
+    id: need.id,
+    sample: samplerFor(need, input.covariateMix[need.id], []) as Sampler,
+  }));
   const covariateStream = createSeededStream(seed, streamLabel.dryRunCovariates());
   const arrivals: RecordedArrival[] = [];
   for (let i = 0; i < n; i++) {
@@ -318,7 +355,9 @@ export function runDryRun(input: DryRunInput): DryRunResult {
     const stratumNow = strata.add(allocation.stratumKey, arm);
     let levelNow = 0;
     const arrivalLevels =
-      reportFactors.length > 0 ? participantLevels(levelFactors, arrivals[i].covariates as Covariates) : allocation.levels;
+      reportFactors.length > 0
+        ? participantLevels(levelFactors, arrivals[i].covariates as Covariates)
+        : allocation.levels;
     for (const factor of levelFactors) {
       levelNow = Math.max(levelNow, levels.add(levelKey(factor.id, arrivalLevels[factor.id]), arm));
     }
@@ -366,13 +405,24 @@ export function runDryRun(input: DryRunInput): DryRunResult {
     })),
     strata: strataKeys.map((stratumKey) => {
       const row = strata.counts.get(stratumKey) as Int32Array;
-      return { stratumKey, total: sum(row), counts: countsRecord(row), imbalance: strata.current.get(stratumKey) as number };
+      return {
+        stratumKey,
+        total: sum(row),
+        counts: countsRecord(row),
+        imbalance: strata.current.get(stratumKey) as number,
+      };
     }),
     factorLevels: levelFactors.flatMap((factor) =>
       factorLevels(factor).map((level) => {
         const key = levelKey(factor.id, level);
         const row = levels.counts.get(key) as Int32Array;
-        return { factorId: factor.id, level, total: sum(row), counts: countsRecord(row), imbalance: levels.current.get(key) as number };
+        return {
+          factorId: factor.id,
+          level,
+          total: sum(row),
+          counts: countsRecord(row),
+          imbalance: levels.current.get(key) as number,
+        };
       }),
     ),
     imbalanceOverTime: series,

@@ -9,7 +9,11 @@ export * from './commitment';
 export * from './schemes/allocation-slot';
 export * from './schemes/simple';
 export * from './schemes/permuted-blocks';
-export { generateStratifiedSequences, generateStratumSequence, stratumOfParticipant } from './schemes/stratified-blocks';
+export {
+  generateStratifiedSequences,
+  generateStratumSequence,
+  stratumOfParticipant,
+} from './schemes/stratified-blocks';
 export * from './schemes/minimization';
 export * from './schemes/matched-pairs';
 export * from './within/counterbalance';

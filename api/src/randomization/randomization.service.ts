@@ -4,12 +4,26 @@ import { DataSource, EntityManager } from 'typeorm';
 import { AuditActor, AuditService } from '../audit';
 import { DomainException } from '../common/errors/domain.exception';
 import { computeCommitment } from './commitment';
-import { deriveSequence, generateSlots, RecordedAllocation, slotStratumKey, usesSlots, verifyAllocations, VerificationReport } from './derive-sequence';
+import {
+  deriveSequence,
+  generateSlots,
+  RecordedAllocation,
+  slotStratumKey,
+  usesSlots,
+  verifyAllocations,
+  VerificationReport,
+} from './derive-sequence';
 import { DryRunResult, runDryRun, CovariateDistribution } from './dry-run';
 import { AllocationSlotEntity } from './entities/allocation-slot.entity';
 import { AllocationEntity } from './entities/allocation.entity';
 import { AssignmentSchemeEntity } from './entities/assignment-scheme.entity';
-import { isWithinDesign, parseParametersOf, parseSchemeParameters, SchemeMethod, SchemeParameters } from './scheme-parameters';
+import {
+  isWithinDesign,
+  parseParametersOf,
+  parseSchemeParameters,
+  SchemeMethod,
+  SchemeParameters,
+} from './scheme-parameters';
 import { assignMatchedPairs } from './schemes/matched-pairs';
 import { assignByMinimization, emptyTallyOf, MinimizationTally } from './schemes/minimization';
 import { generateSeed } from './seeded-stream';
@@ -86,7 +100,10 @@ export class RandomizationService {
     return manager.count(AllocationEntity, { where: { studyId } });
   }
 
-  async schemeOf(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<AssignmentSchemeEntity | null> {
+  async schemeOf(
+    studyId: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<AssignmentSchemeEntity | null> {
     return manager.findOne(AssignmentSchemeEntity, { where: { studyId } });
   }
 
@@ -124,23 +141,41 @@ export class RandomizationService {
    * Seals the scheme when a study opens (or when its design changes before anyone is assigned): draws a fresh
    * 256-bit seed from the OS, freezes the canonical parameters and publishes SHA-256 over both.
    */
-  async sealForOpening(manager: EntityManager, actor: AuditActor, studyId: string, snapshot: StudyDesignSnapshot): Promise<void> {
+  async sealForOpening(
+    manager: EntityManager,
+    actor: AuditActor,
+    studyId: string,
+    snapshot: StudyDesignSnapshot,
+  ): Promise<void> {
     const scheme = await this.schemeOf(studyId, manager);
     if (!scheme) {
       throw new DomainException('CONFLICT', 'Choose an assignment scheme before opening the study.', [
         { field: 'assignmentScheme', message: 'is not set' },
       ]);
     }
-    const parameters = buildSchemeParameters(scheme.method as SchemeMethod, scheme.settings as SchemeSettings, snapshot);
+    const parameters = buildSchemeParameters(
+      scheme.method as SchemeMethod,
+      scheme.settings as SchemeSettings,
+      snapshot,
+    );
     if (scheme.commitment && (await this.hasAllocations(studyId, manager))) return;
     await this.commit(manager, actor, studyId, parameters, scheme.commitment ? 'recommitted' : 'committed');
   }
 
   /** After the design changed in an open study with nobody assigned yet: a new seed and commitment. */
-  async recommitAfterDesignChange(manager: EntityManager, actor: AuditActor, studyId: string, snapshot: StudyDesignSnapshot): Promise<void> {
+  async recommitAfterDesignChange(
+    manager: EntityManager,
+    actor: AuditActor,
+    studyId: string,
+    snapshot: StudyDesignSnapshot,
+  ): Promise<void> {
     const scheme = await this.schemeOf(studyId, manager);
     if (!scheme?.commitment) return;
-    const parameters = buildSchemeParameters(scheme.method as SchemeMethod, scheme.settings as SchemeSettings, snapshot);
+    const parameters = buildSchemeParameters(
+      scheme.method as SchemeMethod,
+      scheme.settings as SchemeSettings,
+      snapshot,
+    );
     await this.commit(manager, actor, studyId, parameters, 'recommitted');
   }
 
@@ -170,7 +205,12 @@ export class RandomizationService {
   }
 
   /** Reveals the seed: at closure, or with an audited unblinding. */
-  async revealSeed(manager: EntityManager, actor: AuditActor, studyId: string, reason: { kind: 'closed' } | { kind: 'unblinded'; text: string }) {
+  async revealSeed(
+    manager: EntityManager,
+    actor: AuditActor,
+    studyId: string,
+    reason: { kind: 'closed' } | { kind: 'unblinded'; text: string },
+  ) {
     const scheme = await this.schemeOf(studyId, manager);
     if (!scheme?.commitment) return;
     const now = new Date();
@@ -179,7 +219,12 @@ export class RandomizationService {
       await manager.update(
         AssignmentSchemeEntity,
         { studyId },
-        { unblindedAt: now, unblindedBy: actor.id, unblindReason: reason.text, seedRevealedAt: scheme.seedRevealedAt ?? now },
+        {
+          unblindedAt: now,
+          unblindedBy: actor.id,
+          unblindReason: reason.text,
+          seedRevealedAt: scheme.seedRevealedAt ?? now,
+        },
       );
     } else if (!scheme.seedRevealedAt) {
       await manager.update(AssignmentSchemeEntity, { studyId }, { seedRevealedAt: now });
@@ -191,7 +236,10 @@ export class RandomizationService {
       action: reason.kind === 'unblinded' ? 'assignment.unblinded' : 'assignment.seed-revealed',
       subjectType: 'study',
       subjectId: studyId,
-      data: reason.kind === 'unblinded' ? { reason: reason.text, seed, commitment: scheme.commitment } : { seed, commitment: scheme.commitment },
+      data:
+        reason.kind === 'unblinded'
+          ? { reason: reason.text, seed, commitment: scheme.commitment }
+          : { seed, commitment: scheme.commitment },
     });
   }
 
@@ -201,7 +249,8 @@ export class RandomizationService {
       .addSelect('scheme.seed')
       .where('scheme.study_id = :studyId', { studyId })
       .getOne();
-    if (!row?.seed) throw new DomainException('CONFLICT', 'The study has not been opened, so there is no sealed sequence yet.');
+    if (!row?.seed)
+      throw new DomainException('CONFLICT', 'The study has not been opened, so there is no sealed sequence yet.');
     return row.seed;
   }
 
@@ -247,8 +296,13 @@ export class RandomizationService {
    * Minimization looks at everyone assigned before, so it keeps one lock for the whole study.
    * Lock order: call this before writing the study's audit events in the same transaction.
    */
-  async allocate(manager: EntityManager, actor: AuditActor, input: { studyId: string; enrollmentId: string; covariates: CovariateRecord }): Promise<AllocationOutcome> {
-    if (!manager.queryRunner?.isTransactionActive) throw new Error('allocate() must run inside the caller’s transaction');
+  async allocate(
+    manager: EntityManager,
+    actor: AuditActor,
+    input: { studyId: string; enrollmentId: string; covariates: CovariateRecord },
+  ): Promise<AllocationOutcome> {
+    if (!manager.queryRunner?.isTransactionActive)
+      throw new Error('allocate() must run inside the caller’s transaction');
     let sealed = await this.sealedScheme(manager, input.studyId);
     let outcome: AllocationOutcome;
     if (usesSlots(sealed.parameters)) {
@@ -290,15 +344,22 @@ export class RandomizationService {
   private async sealedScheme(manager: EntityManager, studyId: string, reload = false): Promise<SealedScheme> {
     const cached = reload ? undefined : this.sealedSchemes.get(studyId);
     if (cached) return cached;
-    const [row]: Array<{ sealed_parameters: Record<string, unknown> | null; seed: string | null; commitment: string | null }> = await manager.query(
-      `SELECT sealed_parameters, seed, commitment FROM assignment_scheme WHERE study_id = $1`,
-      [studyId],
-    );
+    const [row]: Array<{
+      sealed_parameters: Record<string, unknown> | null;
+      seed: string | null;
+      commitment: string | null;
+    }> = await manager.query(`SELECT sealed_parameters, seed, commitment FROM assignment_scheme WHERE study_id = $1`, [
+      studyId,
+    ]);
     if (!row?.sealed_parameters || !row.commitment || !row.seed) {
       this.sealedSchemes.delete(studyId);
       throw new DomainException('CONFLICT', 'This study is not open for assignment yet.');
     }
-    const sealed = { parameters: parseSchemeParameters(row.sealed_parameters), seed: row.seed, commitment: row.commitment };
+    const sealed = {
+      parameters: parseSchemeParameters(row.sealed_parameters),
+      seed: row.seed,
+      commitment: row.commitment,
+    };
     if (this.sealedSchemes.size >= 1000) this.sealedSchemes.delete(this.sealedSchemes.keys().next().value!);
     this.sealedSchemes.set(studyId, sealed);
     return sealed;
@@ -319,7 +380,9 @@ export class RandomizationService {
     if (first !== 'none') return first;
     // Every free slot is taken or being claimed: under the stratum's lock, try once more (another transaction may
     // have just generated a batch), else generate the next batch here and claim from it.
-    await manager.query(`SELECT pg_advisory_xact_lock(hashtextextended($1, 0))`, [`allocation:${input.studyId}:${stratumKey}`]);
+    await manager.query(`SELECT pg_advisory_xact_lock(hashtextextended($1, 0))`, [
+      `allocation:${input.studyId}:${stratumKey}`,
+    ]);
     const second = await this.claimStatement(manager, sealed, stratumKey, input);
     if (second !== 'none') return second;
     await this.generateMoreSlots(manager, sealed.seed, sealed.parameters, input.studyId, stratumKey);
@@ -334,9 +397,15 @@ export class RandomizationService {
     stratumKey: string,
     input: { studyId: string; enrollmentId: string; covariates: CovariateRecord },
   ): Promise<AllocationOutcome | 'stale' | 'already' | 'none'> {
-    const [row]: Array<{ current: boolean; already: boolean; sequence: number | null; position: number | null; condition_id: string | null; condition_order: string[] | null }> =
-      await manager.query(
-        `WITH scheme AS (
+    const [row]: Array<{
+      current: boolean;
+      already: boolean;
+      sequence: number | null;
+      position: number | null;
+      condition_id: string | null;
+      condition_order: string[] | null;
+    }> = await manager.query(
+      `WITH scheme AS (
            SELECT 1 FROM assignment_scheme WHERE study_id = $1 AND commitment = $5
          ), earlier AS (
            SELECT 1 FROM allocation WHERE enrollment_id = $3
@@ -356,22 +425,39 @@ export class RandomizationService {
          SELECT EXISTS (SELECT 1 FROM scheme) AS current, EXISTS (SELECT 1 FROM earlier) AS already,
                 inserted.sequence, claimed.position, claimed.condition_id, claimed.condition_order
          FROM (SELECT 1) one LEFT JOIN inserted ON true LEFT JOIN claimed ON claimed.id = inserted.slot_id`,
-        [input.studyId, stratumKey, input.enrollmentId, JSON.stringify(input.covariates ?? {}), sealed.commitment],
-      );
+      [input.studyId, stratumKey, input.enrollmentId, JSON.stringify(input.covariates ?? {}), sealed.commitment],
+    );
     if (!row.current) return 'stale';
     if (row.already) return 'already';
     if (row.sequence === null) return 'none';
-    return { conditionId: row.condition_id, conditionOrder: row.condition_order, stratumKey, sequence: Number(row.sequence), slotPosition: Number(row.position) };
+    return {
+      conditionId: row.condition_id,
+      conditionOrder: row.condition_order,
+      stratumKey,
+      sequence: Number(row.sequence),
+      slotPosition: Number(row.position),
+    };
   }
 
   /**
    * Generates the stratum's next batch of slots; the caller holds the stratum's lock (to its commit, which only
    * happens at a batch boundary), so the others that ran out wait and then find the new slots.
    */
-  private async generateMoreSlots(manager: EntityManager, seed: string, parameters: SchemeParameters, studyId: string, stratumKey: string) {
-    const [{ n }] = await manager.query(`SELECT count(*) AS n FROM allocation_slot WHERE study_id = $1 AND stratum_key = $2`, [studyId, stratumKey]);
+  private async generateMoreSlots(
+    manager: EntityManager,
+    seed: string,
+    parameters: SchemeParameters,
+    studyId: string,
+    stratumKey: string,
+  ) {
+    const [{ n }] = await manager.query(
+      `SELECT count(*) AS n FROM allocation_slot WHERE study_id = $1 AND stratum_key = $2`,
+      [studyId, stratumKey],
+    );
     const existing = Number(n);
-    const slots = generateSlots(seed, parameters, stratumKey, existing + SLOT_BATCH).slice(existing) as Array<AllocationSlot | OrderSlot>;
+    const slots = generateSlots(seed, parameters, stratumKey, existing + SLOT_BATCH).slice(existing) as Array<
+      AllocationSlot | OrderSlot
+    >;
     await manager.insert(
       AllocationSlotEntity,
       slots.map((slot) => ({
@@ -395,7 +481,13 @@ export class RandomizationService {
     // Minimization looks at everyone assigned so far, so the whole study is one stratum for locking.
     await manager.query(`SELECT pg_advisory_xact_lock(hashtextextended($1, 0))`, [`allocation:${input.studyId}:*`]);
     const tally = await this.minimizationTally(manager, input.studyId, parameters);
-    const decision = assignByMinimization({ seed, parameters, arrivalPosition: tally.allocated + 1, covariates: input.covariates, tally });
+    const decision = assignByMinimization({
+      seed,
+      parameters,
+      arrivalPosition: tally.allocated + 1,
+      covariates: input.covariates,
+      tally,
+    });
     const allocation = await this.record(manager, {
       studyId: input.studyId,
       enrollmentId: input.enrollmentId,
@@ -433,13 +525,19 @@ export class RandomizationService {
     return tally;
   }
 
-  private async takeReservedSlot(manager: EntityManager, input: { studyId: string; enrollmentId: string; covariates: CovariateRecord }): Promise<AllocationOutcome> {
+  private async takeReservedSlot(
+    manager: EntityManager,
+    input: { studyId: string; enrollmentId: string; covariates: CovariateRecord },
+  ): Promise<AllocationOutcome> {
     const slot = await manager.findOne(AllocationSlotEntity, {
       where: { studyId: input.studyId, reservedFor: input.enrollmentId },
       lock: { mode: 'pessimistic_write' },
     });
     if (!slot) {
-      throw new DomainException('CONFLICT', 'This person is not part of the paired cohort, so matched-pairs assignment cannot place them.');
+      throw new DomainException(
+        'CONFLICT',
+        'This person is not part of the paired cohort, so matched-pairs assignment cannot place them.',
+      );
     }
     await manager.update(AllocationSlotEntity, { id: slot.id }, { takenBy: input.enrollmentId, takenAt: new Date() });
     const [{ nextval }] = await manager.query(`SELECT nextval('allocation_sequence') AS nextval`);
@@ -457,7 +555,10 @@ export class RandomizationService {
     return this.outcomeOf(allocation, slot.position);
   }
 
-  private async record(manager: EntityManager, values: Omit<AllocationEntity, 'id' | 'allocatedAt'>): Promise<AllocationEntity> {
+  private async record(
+    manager: EntityManager,
+    values: Omit<AllocationEntity, 'id' | 'allocatedAt'>,
+  ): Promise<AllocationEntity> {
     return manager.save(manager.create(AllocationEntity, values));
   }
 
@@ -487,11 +588,17 @@ export class RandomizationService {
     if (!scheme?.sealedParameters || scheme.method !== 'matched-pairs') {
       throw new DomainException('CONFLICT', 'Pairing applies to an open study whose scheme is matched pairs.');
     }
-    if (scheme.pairedCohort) throw new DomainException('CONFLICT', 'The cohort has already been paired; matched pairs pair one batch.');
-    if (cohort.length < 2) throw new DomainException('CONFLICT', 'Pairing needs at least two pretested people on the roster.');
+    if (scheme.pairedCohort)
+      throw new DomainException('CONFLICT', 'The cohort has already been paired; matched pairs pair one batch.');
+    if (cohort.length < 2)
+      throw new DomainException('CONFLICT', 'Pairing needs at least two pretested people on the roster.');
     const parameters = parseParametersOf(scheme.sealedParameters, ['matched-pairs']);
     const seed = await this.sealedSeed(manager, studyId);
-    const result = assignMatchedPairs(seed, parameters, cohort.map((c) => ({ participantId: c.enrollmentId, pretest: c.pretest })));
+    const result = assignMatchedPairs(
+      seed,
+      parameters,
+      cohort.map((c) => ({ participantId: c.enrollmentId, pretest: c.pretest })),
+    );
     const slots = [
       ...result.pairs.flatMap((pair) =>
         pair.members.map((member, i) => ({ stratumKey: `pair-${pair.pairIndex}`, position: i + 1, member })),
@@ -500,7 +607,13 @@ export class RandomizationService {
     ];
     await manager.insert(
       AllocationSlotEntity,
-      slots.map(({ stratumKey, position, member }) => ({ studyId, stratumKey, position, conditionId: member.conditionId, reservedFor: member.participantId })),
+      slots.map(({ stratumKey, position, member }) => ({
+        studyId,
+        stratumKey,
+        position,
+        conditionId: member.conditionId,
+        reservedFor: member.participantId,
+      })),
     );
     await manager.update(AssignmentSchemeEntity, { studyId }, { pairedCohort: cohort as never });
     await this.audit.record(manager, {
@@ -525,7 +638,12 @@ export class RandomizationService {
     for (const mismatch of mismatches) mismatch.expected = expectedBy.get(mismatch.enrollmentId) ?? null;
     const flagged = new Set(mismatches.map((m) => m.enrollmentId));
     const checks = report.checks.map((check) => ({ ...check, enrollmentMatches: !flagged.has(check.participantId) }));
-    return { ...report, checks, allMatch: report.allMatch && mismatches.length === 0, enrollmentMismatches: mismatches };
+    return {
+      ...report,
+      checks,
+      allMatch: report.allMatch && mismatches.length === 0,
+      enrollmentMismatches: mismatches,
+    };
   }
 
   /**
@@ -534,15 +652,22 @@ export class RandomizationService {
    * Reads the enrollment's copy of this domain's decision, nothing else of the enrollment.
    */
   private async enrollmentMismatches(studyId: string): Promise<EnrollmentMismatch[]> {
-    const rows: Array<{ id: string; e_condition: string | null; e_order: string[] | null; allocated: boolean; a_condition: string | null; a_order: string[] | null; a_study: string | null }> =
-      await this.dataSource.query(
-        `SELECT e.id, e.condition_id AS e_condition, e.condition_order AS e_order, a.id IS NOT NULL AS allocated,
+    const rows: Array<{
+      id: string;
+      e_condition: string | null;
+      e_order: string[] | null;
+      allocated: boolean;
+      a_condition: string | null;
+      a_order: string[] | null;
+      a_study: string | null;
+    }> = await this.dataSource.query(
+      `SELECT e.id, e.condition_id AS e_condition, e.condition_order AS e_order, a.id IS NOT NULL AS allocated,
                 a.condition_id AS a_condition, a.condition_order AS a_order, a.study_id AS a_study
          FROM enrollment e LEFT JOIN allocation a ON a.enrollment_id = e.id
          WHERE e.study_id = $1 AND (a.id IS NOT NULL OR e.condition_id IS NOT NULL OR e.condition_order IS NOT NULL)
          ORDER BY e.id`,
-        [studyId],
-      );
+      [studyId],
+    );
     const mismatches: EnrollmentMismatch[] = [];
     for (const row of rows) {
       const enrollment = { conditionId: row.e_condition, order: row.e_order };
@@ -551,26 +676,43 @@ export class RandomizationService {
       let reason: EnrollmentMismatch['reason'] | null = null;
       if (!allocation) reason = 'no-allocation';
       else if (row.a_study !== studyId) reason = 'allocation-of-another-study';
-      else if (copied && (enrollment.conditionId !== allocation.conditionId || JSON.stringify(enrollment.order) !== JSON.stringify(allocation.order))) reason = 'differs-from-allocation';
+      else if (
+        copied &&
+        (enrollment.conditionId !== allocation.conditionId ||
+          JSON.stringify(enrollment.order) !== JSON.stringify(allocation.order))
+      )
+        reason = 'differs-from-allocation';
       if (reason) mismatches.push({ enrollmentId: row.id, reason, enrollment, allocation, expected: null });
     }
     return mismatches;
   }
 
-  private async verifySequence(studyId: string): Promise<VerificationReport & { commitmentMatches: boolean; seed: string; commitment: string }> {
+  private async verifySequence(
+    studyId: string,
+  ): Promise<VerificationReport & { commitmentMatches: boolean; seed: string; commitment: string }> {
     const scheme = await this.schemeOf(studyId);
-    if (!scheme?.commitment || !scheme.sealedParameters) throw new DomainException('CONFLICT', 'This study has no sealed sequence yet.');
+    if (!scheme?.commitment || !scheme.sealedParameters)
+      throw new DomainException('CONFLICT', 'This study has no sealed sequence yet.');
     if (!scheme.seedRevealedAt) {
-      throw new DomainException('CONFLICT', 'The seed is still sealed: verification is possible after closure or an audited unblinding.');
+      throw new DomainException(
+        'CONFLICT',
+        'The seed is still sealed: verification is possible after closure or an audited unblinding.',
+      );
     }
     const seed = await this.sealedSeed(this.dataSource.manager, studyId);
     const parameters = parseSchemeParameters(scheme.sealedParameters);
-    if (parameters.method === 'matched-pairs') return { ...(await this.verifyPairs(studyId, seed, parameters, scheme)), seed, commitment: scheme.commitment };
-    const allocations = await this.dataSource.getRepository(AllocationEntity).find({ where: { studyId }, order: { sequence: 'ASC' } });
+    if (parameters.method === 'matched-pairs')
+      return { ...(await this.verifyPairs(studyId, seed, parameters, scheme)), seed, commitment: scheme.commitment };
+    const allocations = await this.dataSource
+      .getRepository(AllocationEntity)
+      .find({ where: { studyId }, order: { sequence: 'ASC' } });
     // Slot schemes are verified by the slot each allocation took (claims may be out of arrival order).
     const positions = new Map<string, number>();
     if (usesSlots(parameters)) {
-      const rows: Array<{ id: string; position: number }> = await this.dataSource.query(`SELECT id, position FROM allocation_slot WHERE study_id = $1 AND taken_by IS NOT NULL`, [studyId]);
+      const rows: Array<{ id: string; position: number }> = await this.dataSource.query(
+        `SELECT id, position FROM allocation_slot WHERE study_id = $1 AND taken_by IS NOT NULL`,
+        [studyId],
+      );
       for (const row of rows) positions.set(row.id, row.position);
     }
     const recorded: RecordedAllocation[] = allocations.map((a) => ({
@@ -578,10 +720,17 @@ export class RandomizationService {
       covariates: a.covariates,
       conditionId: isWithinDesign(parameters) ? null : a.conditionId,
       order: a.conditionOrder,
-      ...(a.slotId && positions.has(a.slotId) ? { stratumKey: a.stratumKey, slotPosition: positions.get(a.slotId)! } : {}),
+      ...(a.slotId && positions.has(a.slotId)
+        ? { stratumKey: a.stratumKey, slotPosition: positions.get(a.slotId)! }
+        : {}),
     }));
     const report = verifyAllocations(seed, parameters, recorded);
-    return { ...report, commitmentMatches: computeCommitment(seed, parameters) === scheme.commitment, seed, commitment: scheme.commitment };
+    return {
+      ...report,
+      commitmentMatches: computeCommitment(seed, parameters) === scheme.commitment,
+      seed,
+      commitment: scheme.commitment,
+    };
   }
 
   /** Pairs the recorded cohort again and checks every reserved slot (taken or not) holds the derived condition. */
@@ -600,7 +749,10 @@ export class RandomizationService {
     const derived = deriveSequence(
       seed,
       parameters,
-      cohort.map((c) => ({ participantId: c.enrollmentId, covariates: { [(parameters as { pretestId: string }).pretestId]: c.pretest } })),
+      cohort.map((c) => ({
+        participantId: c.enrollmentId,
+        covariates: { [(parameters as { pretestId: string }).pretestId]: c.pretest },
+      })),
     );
     const checks = derived.map((d) => {
       const recorded = recordedCondition.get(d.participantId) ?? null;

@@ -213,7 +213,10 @@ function readScheme(input: unknown, errors: FieldError[]): SchemeParameters | un
     }
     case 'minimization': {
       const conditions = readConditions(input.conditions, errors);
-      const factors = readFactors(input.factors, 'factors', errors, { required: true, weighted: true }) as MinimizationFactor[];
+      const factors = readFactors(input.factors, 'factors', errors, {
+        required: true,
+        weighted: true,
+      }) as MinimizationFactor[];
       return {
         method: schemeMethod,
         conditions,
@@ -225,7 +228,10 @@ function readScheme(input: unknown, errors: FieldError[]): SchemeParameters | un
     case 'matched-pairs': {
       const conditions = readConditions(input.conditions, errors);
       if (conditions.length > 0 && conditions.length !== 2) {
-        errors.push({ field: 'conditions', message: `matched pairs need exactly two conditions (got ${conditions.length})` });
+        errors.push({
+          field: 'conditions',
+          message: `matched pairs need exactly two conditions (got ${conditions.length})`,
+        });
       } else if (conditions.length === 2 && conditions[0].weight !== conditions[1].weight) {
         errors.push({
           field: 'conditions[1].weight',
@@ -282,7 +288,8 @@ function readConditions(value: unknown, errors: FieldError[]): ConditionAllocati
   if (value.length < 2) {
     errors.push({
       field: 'conditions',
-      message: value.length === 0 ? 'is empty; at least two conditions are needed' : 'at least two conditions are needed',
+      message:
+        value.length === 0 ? 'is empty; at least two conditions are needed' : 'at least two conditions are needed',
     });
   }
   const conditions = value.map((raw, i): ConditionAllocation => {
@@ -292,12 +299,16 @@ function readConditions(value: unknown, errors: FieldError[]): ConditionAllocati
       return { conditionId: '', weight: 0 };
     }
     for (const key of Object.keys(raw)) {
-      if (key !== 'conditionId' && key !== 'weight') errors.push({ field: `${field}.${key}`, message: 'is not a condition setting' });
+      if (key !== 'conditionId' && key !== 'weight')
+        errors.push({ field: `${field}.${key}`, message: 'is not a condition setting' });
     }
     const conditionId = readConditionId(raw.conditionId, `${field}.conditionId`, errors);
     const weight = raw.weight;
     if (!isPositiveInteger(weight)) {
-      errors.push({ field: `${field}.weight`, message: `must be a whole number of 1 or more (got ${describe(weight)})` });
+      errors.push({
+        field: `${field}.weight`,
+        message: `must be a whole number of 1 or more (got ${describe(weight)})`,
+      });
       return { conditionId, weight: 0 };
     }
     return { conditionId, weight };
@@ -496,7 +507,10 @@ function readConditionIds(value: unknown, design: WithinDesign, errors: FieldErr
 function readSquaresPerBlock(value: unknown, errors: FieldError[]): number[] {
   if (value === undefined) return [1];
   if (!Array.isArray(value) || value.length === 0) {
-    errors.push({ field: 'squaresPerBlock', message: 'must list at least one block size, in whole copies of the design' });
+    errors.push({
+      field: 'squaresPerBlock',
+      message: 'must list at least one block size, in whole copies of the design',
+    });
     return [1];
   }
   value.forEach((count, i) => {

@@ -47,7 +47,10 @@ describe('strata', () => {
       expect(error).toBeInstanceOf(RandomizationError);
       expect((error as RandomizationError).fieldErrors).toEqual([
         { field: 'covariates.pretest', message: expect.stringContaining('is missing') },
-        { field: 'covariates.site', message: expect.stringContaining('"east" is not one of the categories of "site": north, south') },
+        {
+          field: 'covariates.site',
+          message: expect.stringContaining('"east" is not one of the categories of "site": north, south'),
+        },
         { field: 'covariates.sense', message: expect.stringContaining('must be a number') },
       ]);
     }

@@ -34,7 +34,13 @@ export interface SchemeSettings {
   stratify?: boolean;
 }
 
-const BETWEEN_METHODS: SchemeMethod[] = ['simple', 'permuted-blocks', 'stratified-blocks', 'minimization', 'matched-pairs'];
+const BETWEEN_METHODS: SchemeMethod[] = [
+  'simple',
+  'permuted-blocks',
+  'stratified-blocks',
+  'minimization',
+  'matched-pairs',
+];
 
 function asFactor(factor: StudyDesignSnapshot['factors'][number]): StratificationFactor {
   return factor.kind === 'numeric'
@@ -46,11 +52,18 @@ function asFactor(factor: StudyDesignSnapshot['factors'][number]): Stratificatio
  * Combines the study's design with the researcher's settings into the scheme's full canonical parameters,
  * validated by the engine. Field errors name the setting at fault.
  */
-export function buildSchemeParameters(method: SchemeMethod, settings: SchemeSettings, snapshot: StudyDesignSnapshot): SchemeParameters {
+export function buildSchemeParameters(
+  method: SchemeMethod,
+  settings: SchemeSettings,
+  snapshot: StudyDesignSnapshot,
+): SchemeParameters {
   const isWithinMethod = !BETWEEN_METHODS.includes(method);
   if (snapshot.design === 'within' && !isWithinMethod) {
     throw new RandomizationError(RandomizationErrorCode.InvalidParameters, [
-      { field: 'method', message: `a within-subjects study hands out orders: use counterbalanced, latin-square or williams (got ${method})` },
+      {
+        field: 'method',
+        message: `a within-subjects study hands out orders: use counterbalanced, latin-square or williams (got ${method})`,
+      },
     ]);
   }
   if (snapshot.design === 'between' && isWithinMethod) {

@@ -34,7 +34,10 @@ export class PostgresThrottlerStorage implements ThrottlerStorage {
 
   /** Hits counted so far in the key's current window (0 once the window has ended). */
   async hitsInWindow(key: string): Promise<number> {
-    const [row] = await this.dataSource.query(`SELECT hits FROM rate_limit_window WHERE key = $1 AND window_ends_at > now()`, [key]);
+    const [row] = await this.dataSource.query(
+      `SELECT hits FROM rate_limit_window WHERE key = $1 AND window_ends_at > now()`,
+      [key],
+    );
     return row ? Number(row.hits) : 0;
   }
 }

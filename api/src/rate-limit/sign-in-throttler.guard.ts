@@ -22,7 +22,9 @@ export function signInEmailOf(request: Request): string {
 export class SignInThrottlerGuard extends ThrottlerGuard {
   protected override generateKey(context: ExecutionContext, clientAddress: string, throttlerName: string): string {
     const subject =
-      throttlerName === SIGN_IN_EMAIL_THROTTLER ? `email:${signInEmailOf(context.switchToHttp().getRequest<Request>())}` : `client:${clientAddress}`;
+      throttlerName === SIGN_IN_EMAIL_THROTTLER
+        ? `email:${signInEmailOf(context.switchToHttp().getRequest<Request>())}`
+        : `client:${clientAddress}`;
     return createHash('sha256').update(`sign-in|${throttlerName}|${subject}`).digest('hex');
   }
 }

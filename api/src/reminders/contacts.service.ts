@@ -42,14 +42,31 @@ export class ContactsService {
       `INSERT INTO contact (study_id, enrollment_id, kind, subject, step_id, dedupe_key, sent_by, sent_at)
        VALUES ($1, $2, $3, $4, $5, $6, $7, coalesce($8::timestamptz, now()))
        ON CONFLICT (enrollment_id, dedupe_key) WHERE dedupe_key IS NOT NULL DO NOTHING RETURNING id`,
-      [contact.studyId, contact.enrollmentId, contact.kind, contact.subject.slice(0, 300), contact.stepId ?? null, contact.dedupeKey ?? null, contact.sentBy ?? null, contact.sentAt ?? null],
+      [
+        contact.studyId,
+        contact.enrollmentId,
+        contact.kind,
+        contact.subject.slice(0, 300),
+        contact.stepId ?? null,
+        contact.dedupeKey ?? null,
+        contact.sentBy ?? null,
+        contact.sentAt ?? null,
+      ],
     );
     return rows.length > 0;
   }
 
   async logOf(studyId: string, enrollmentId: string): Promise<ContactLogDto> {
-    if (!(await contactRecipient(this.dataSource.manager, studyId, enrollmentId))) throw new DomainException('NOT_FOUND', 'No such participant in this study.');
-    const rows: Array<{ id: string; kind: ContactKind; sent_at: Date; subject: string; step_title: string | null; sent_by_email: string | null }> = await this.dataSource.query(
+    if (!(await contactRecipient(this.dataSource.manager, studyId, enrollmentId)))
+      throw new DomainException('NOT_FOUND', 'No such participant in this study.');
+    const rows: Array<{
+      id: string;
+      kind: ContactKind;
+      sent_at: Date;
+      subject: string;
+      step_title: string | null;
+      sent_by_email: string | null;
+    }> = await this.dataSource.query(
       `SELECT c.id, c.kind, c.sent_at, c.subject, s.title AS step_title, u.email AS sent_by_email
          FROM contact c LEFT JOIN step s ON s.id = c.step_id LEFT JOIN user_account u ON u.id = c.sent_by
         WHERE c.enrollment_id = $1 ORDER BY c.sent_at DESC, c.id`,
@@ -58,7 +75,14 @@ export class ContactsService {
     const unanswered = (await unansweredReminders(this.dataSource.manager, [enrollmentId])).get(enrollmentId) ?? 0;
     const plan = await this.plans.settingsOf(studyId);
     return {
-      items: rows.map((r) => ({ id: r.id, kind: r.kind, sentAt: r.sent_at.toISOString(), subject: r.subject, stepTitle: r.step_title, sentByEmail: r.sent_by_email })),
+      items: rows.map((r) => ({
+        id: r.id,
+        kind: r.kind,
+        sentAt: r.sent_at.toISOString(),
+        subject: r.subject,
+        stepTitle: r.step_title,
+        sentByEmail: r.sent_by_email,
+      })),
       unansweredReminders: unanswered,
       suggestLostAfter: plan.suggestLostAfter,
       suggestLost: unanswered >= plan.suggestLostAfter,
@@ -66,13 +90,26 @@ export class ContactsService {
   }
 
   /** Unanswered reminders for many enrollments, and whether each reached the study's threshold. */
-  async followUpOf(studyId: string, enrollmentIds: string[]): Promise<Map<string, { unansweredReminders: number; suggestLost: boolean }>> {
+  async followUpOf(
+    studyId: string,
+    enrollmentIds: string[],
+  ): Promise<Map<string, { unansweredReminders: number; suggestLost: boolean }>> {
     const counts = await unansweredReminders(this.dataSource.manager, enrollmentIds);
     const { suggestLostAfter } = await this.plans.settingsOf(studyId);
-    return new Map(enrollmentIds.map((id) => [id, { unansweredReminders: counts.get(id) ?? 0, suggestLost: (counts.get(id) ?? 0) >= suggestLostAfter }]));
+    return new Map(
+      enrollmentIds.map((id) => [
+        id,
+        { unansweredReminders: counts.get(id) ?? 0, suggestLost: (counts.get(id) ?? 0) >= suggestLostAfter },
+      ]),
+    );
   }
 
-  async sendStaffMessage(actor: SessionUser, studyId: string, enrollmentId: string, input: SendStaffMessageDto): Promise<ContactLogDto> {
+  async sendStaffMessage(
+    actor: SessionUser,
+    studyId: string,
+    enrollmentId: string,
+    input: SendStaffMessageDto,
+  ): Promise<ContactLogDto> {
     await this.dataSource.transaction(async (manager) => {
       const study = await this.studies.require(studyId, manager);
       const recipient = await contactRecipient(manager, studyId, enrollmentId);
@@ -90,11 +127,28 @@ export class ContactsService {
         subject: input.subject,
         message: input.message,
       });
-      await this.mail.enqueue(manager, { to: recipient.email, subject: email.subject, text: email.text, html: email.html });
-      await this.log(manager, { studyId, enrollmentId, kind: 'staff-message', subject: input.subject, sentBy: actor.id });
-      await this.audit.record(manager, { chain: studyId, actor, action: 'contact.message-sent', subjectType: 'enrollment', subjectId: enrollmentId, data: { subject: input.subject } });
+      await this.mail.enqueue(manager, {
+        to: recipient.email,
+        subject: email.subject,
+        text: email.text,
+        html: email.html,
+      });
+      await this.log(manager, {
+        studyId,
+        enrollmentId,
+        kind: 'staff-message',
+        subject: input.subject,
+        sentBy: actor.id,
+      });
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'contact.message-sent',
+        subjectType: 'enrollment',
+        subjectId: enrollmentId,
+        data: { subject: input.subject },
+      });
     });
     return this.logOf(studyId, enrollmentId);
   }
 }
-

@@ -65,10 +65,14 @@ export class ReminderPlanService {
   async save(actor: SessionUser, studyId: string, input: SaveReminderPlanDto): Promise<ReminderPlanDto> {
     const keys = input.rules.map(ruleKey);
     const repeated = keys.findIndex((key, i) => keys.indexOf(key) !== i);
-    if (repeated >= 0) throw new DomainException('VALIDATION_FAILED', 'Each reminder may appear once.', [{ field: `rules.${repeated}`, message: 'repeats an earlier reminder' }]);
+    if (repeated >= 0)
+      throw new DomainException('VALIDATION_FAILED', 'Each reminder may appear once.', [
+        { field: `rules.${repeated}`, message: 'repeats an earlier reminder' },
+      ]);
     await this.dataSource.transaction(async (manager) => {
       const study = await this.studies.require(studyId, manager, true);
-      if (study.status === 'closed') throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+      if (study.status === 'closed')
+        throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
       const rules = input.rules.map((r) => ({ anchor: r.anchor, days: r.days }));
       await manager.query(
         `INSERT INTO reminder_plan (study_id, rules, suggest_lost_after, enabled, updated_by, updated_at) VALUES ($1, $2, $3, $4, $5, now())
@@ -91,7 +95,14 @@ export class ReminderPlanService {
   /** The reminder e-mail for one step and rule, as the participant receives it. */
   async render(
     study: StudyEntity,
-    input: { participantName: string | null; stepTitle: string; stepPayMinor: number; rule: ReminderRule; opensAt: Date; dueAt: Date | null },
+    input: {
+      participantName: string | null;
+      stepTitle: string;
+      stepPayMinor: number;
+      rule: ReminderRule;
+      opensAt: Date;
+      dueAt: Date | null;
+    },
   ): Promise<RenderedEmail> {
     return renderEmail('email/step-reminder', {
       participantName: input.participantName,
@@ -110,6 +121,13 @@ export class ReminderPlanService {
     const first = (await this.steps.list(study.id)).items[0];
     const opensAt = new Date();
     const dueAt = first?.dueWithinDays != null ? new Date(opensAt.getTime() + first.dueWithinDays * 86_400_000) : null;
-    return this.render(study, { participantName: 'Alex', stepTitle: first?.title ?? 'Your first step', stepPayMinor: first?.payMinor ?? 0, rule, opensAt, dueAt });
+    return this.render(study, {
+      participantName: 'Alex',
+      stepTitle: first?.title ?? 'Your first step',
+      stepPayMinor: first?.payMinor ?? 0,
+      rule,
+      opensAt,
+      dueAt,
+    });
   }
 }

@@ -24,14 +24,20 @@ describe('planReminders', () => {
   it('sends what is due now and drops what is long past', () => {
     const windows = stepWindows(steps, assignedAt, new Map());
     const planned = planReminders(DEFAULT_REMINDER_RULES, { windows, doneStepIds: new Set() });
-    expect(remindersDue(planned, new Date('2026-02-03T09:00:00Z')).map((r) => r.dedupeKey)).toEqual(['reminder:s1:opens+0', 'reminder:s1:due-2']);
+    expect(remindersDue(planned, new Date('2026-02-03T09:00:00Z')).map((r) => r.dedupeKey)).toEqual([
+      'reminder:s1:opens+0',
+      'reminder:s1:due-2',
+    ]);
     expect(remindersDue(planned, new Date('2026-02-20T09:00:00Z')).map((r) => r.dedupeKey)).toEqual([]);
   });
 
   // The property the dropout watch relies on: two people who arrive at the same moment and progress alike get the
   // same reminders, whatever condition each was assigned to.
   it('gives identical schedules in every condition for any plan and arrival', () => {
-    const rule = fc.record({ anchor: fc.constantFrom<'opens' | 'due'>('opens', 'due'), days: fc.integer({ min: 0, max: 14 }) });
+    const rule = fc.record({
+      anchor: fc.constantFrom<'opens' | 'due'>('opens', 'due'),
+      days: fc.integer({ min: 0, max: 14 }),
+    });
     const step = fc.record({
       opensAfterDays: fc.integer({ min: 0, max: 30 }),
       opensFrom: fc.constantFrom<'assignment' | 'previous-step'>('assignment', 'previous-step'),
@@ -46,9 +52,17 @@ describe('planReminders', () => {
         fc.constantFrom('condition-a', 'condition-b', 'condition-c'),
         (rules: ReminderRule[], shapes, arrival, doneAfterDays, conditionId) => {
           const schedule = shapes.map((s, i) => ({ ...s, id: `step-${i}` }));
-          const completions = new Map(doneAfterDays.slice(0, schedule.length).map((d, i) => [`step-${i}`, new Date(arrival.getTime() + d * 86_400_000)]));
+          const completions = new Map(
+            doneAfterDays
+              .slice(0, schedule.length)
+              .map((d, i) => [`step-${i}`, new Date(arrival.getTime() + d * 86_400_000)]),
+          );
           const plannedFor = (enrollment: { conditionId: string }) =>
-            planReminders(rules, { windows: stepWindows(schedule, arrival, completions), doneStepIds: new Set(completions.keys()), ...{ conditionId: enrollment.conditionId } });
+            planReminders(rules, {
+              windows: stepWindows(schedule, arrival, completions),
+              doneStepIds: new Set(completions.keys()),
+              ...{ conditionId: enrollment.conditionId },
+            });
           const reference = plannedFor({ conditionId: 'condition-a' });
           expect(plannedFor({ conditionId })).toEqual(reference);
         },

@@ -44,7 +44,12 @@ export function planReminders(rules: readonly ReminderRule[], subject: ReminderS
   for (const window of subject.windows) {
     if (subject.doneStepIds.has(window.stepId) || !window.opensAt) continue;
     for (const rule of rules) {
-      const sendAt = rule.anchor === 'opens' ? addDays(window.opensAt, rule.days) : window.dueAt ? addDays(window.dueAt, -rule.days) : null;
+      const sendAt =
+        rule.anchor === 'opens'
+          ? addDays(window.opensAt, rule.days)
+          : window.dueAt
+            ? addDays(window.dueAt, -rule.days)
+            : null;
       if (!sendAt || sendAt < window.opensAt || (window.dueAt && sendAt > window.dueAt)) continue;
       planned.push({ stepId: window.stepId, dedupeKey: `reminder:${window.stepId}:${ruleKey(rule)}`, rule, sendAt });
     }

@@ -44,7 +44,8 @@ export class ReminderSweepService implements OnModuleInit {
       if (sent > 0) this.logger.log(`sent ${sent} reminders`);
     });
     // An empty cron turns the schedule off (the test suites sweep at moments of their own choosing).
-    if (this.config.reminderSweepCron) await this.jobs.schedule(JOB_NAMES.sweepReminders, this.config.reminderSweepCron);
+    if (this.config.reminderSweepCron)
+      await this.jobs.schedule(JOB_NAMES.sweepReminders, this.config.reminderSweepCron);
     else await this.jobs.unschedule(JOB_NAMES.sweepReminders);
   }
 
@@ -52,7 +53,8 @@ export class ReminderSweepService implements OnModuleInit {
   async sweep(now: Date, studyIds?: string[]): Promise<number> {
     const candidates = await reminderCandidates(this.dataSource.manager, studyIds);
     const byStudy = new Map<string, ReminderCandidate[]>();
-    for (const candidate of candidates) byStudy.set(candidate.studyId, [...(byStudy.get(candidate.studyId) ?? []), candidate]);
+    for (const candidate of candidates)
+      byStudy.set(candidate.studyId, [...(byStudy.get(candidate.studyId) ?? []), candidate]);
     let sent = 0;
     for (const [studyId, people] of byStudy) sent += await this.sweepStudy(studyId, people, now);
     return sent;
@@ -71,7 +73,10 @@ export class ReminderSweepService implements OnModuleInit {
       for (const person of people) {
         const done = completions.get(person.enrollmentId) ?? new Map<string, Date>();
         const windows = stepWindows(schedules, person.assignedAt, done);
-        for (const reminder of remindersDue(planReminders(settings.rules, { windows, doneStepIds: new Set(done.keys()) }), now)) {
+        for (const reminder of remindersDue(
+          planReminders(settings.rules, { windows, doneStepIds: new Set(done.keys()) }),
+          now,
+        )) {
           const step = schedules.find((s) => s.id === reminder.stepId)!;
           const window = windows.find((w) => w.stepId === reminder.stepId)!;
           const email = await this.plans.render(study, {
@@ -92,7 +97,12 @@ export class ReminderSweepService implements OnModuleInit {
             sentAt: now,
           });
           if (!logged) continue;
-          await this.mail.enqueue(manager, { to: person.email, subject: email.subject, text: email.text, html: email.html });
+          await this.mail.enqueue(manager, {
+            to: person.email,
+            subject: email.subject,
+            text: email.text,
+            html: email.html,
+          });
           sent += 1;
         }
       }

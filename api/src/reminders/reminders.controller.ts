@@ -26,21 +26,34 @@ export class RemindersController {
 
   @Put('reminder-plan')
   @Roles('coordinator', 'researcher', 'admin')
-  @ApiOkResponse({ type: ReminderPlanDto, description: 'One plan for the whole study: the same reminders for every condition' })
-  savePlan(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: SaveReminderPlanDto): Promise<ReminderPlanDto> {
+  @ApiOkResponse({
+    type: ReminderPlanDto,
+    description: 'One plan for the whole study: the same reminders for every condition',
+  })
+  savePlan(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: SaveReminderPlanDto,
+  ): Promise<ReminderPlanDto> {
     return this.plans.save(user, studyId, body);
   }
 
   @Get('enrollments/:enrollmentId/contacts')
   @Roles('coordinator', 'researcher', 'auditor', 'admin')
   @ApiOkResponse({ type: ContactLogDto })
-  log(@Param('studyId', uuidParam('studyId')) studyId: string, @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string): Promise<ContactLogDto> {
+  log(
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string,
+  ): Promise<ContactLogDto> {
     return this.contacts.logOf(studyId, enrollmentId);
   }
 
   @Post('enrollments/:enrollmentId/contacts')
   @Roles('coordinator', 'admin')
-  @ApiCreatedResponse({ type: ContactLogDto, description: 'Sends a message to one participant and logs it as a contact' })
+  @ApiCreatedResponse({
+    type: ContactLogDto,
+    description: 'Sends a message to one participant and logs it as a contact',
+  })
   message(
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,

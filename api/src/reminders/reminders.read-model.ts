@@ -15,7 +15,14 @@ export interface ReminderCandidate {
 
 /** Everyone taking part (assigned or active) in a study that is recruiting or paused. */
 export async function reminderCandidates(manager: EntityManager, studyIds?: string[]): Promise<ReminderCandidate[]> {
-  const rows: Array<{ id: string; study_id: string; reference: string; display_name: string | null; email: string; assigned_at: Date }> = await manager.query(
+  const rows: Array<{
+    id: string;
+    study_id: string;
+    reference: string;
+    display_name: string | null;
+    email: string;
+    assigned_at: Date;
+  }> = await manager.query(
     `SELECT e.id, e.study_id, e.reference, e.display_name, u.email, e.assigned_at
        FROM enrollment e
        JOIN study s ON s.id = e.study_id
@@ -25,11 +32,21 @@ export async function reminderCandidates(manager: EntityManager, studyIds?: stri
       ORDER BY e.study_id, e.assigned_at, e.id`,
     [studyIds ?? null],
   );
-  return rows.map((r) => ({ enrollmentId: r.id, studyId: r.study_id, reference: r.reference, displayName: r.display_name, email: r.email, assignedAt: r.assigned_at }));
+  return rows.map((r) => ({
+    enrollmentId: r.id,
+    studyId: r.study_id,
+    reference: r.reference,
+    displayName: r.display_name,
+    email: r.email,
+    assignedAt: r.assigned_at,
+  }));
 }
 
 /** Reminders sent since (or at) the later of assignment and the last step done: the ones nobody answered yet. */
-export async function unansweredReminders(manager: EntityManager, enrollmentIds: string[]): Promise<Map<string, number>> {
+export async function unansweredReminders(
+  manager: EntityManager,
+  enrollmentIds: string[],
+): Promise<Map<string, number>> {
   if (enrollmentIds.length === 0) return new Map();
   const rows: Array<{ id: string; n: number }> = await manager.query(
     `SELECT e.id,

@@ -7,5 +7,7 @@ export function normalizeCompletionCode(code: string): string {
 
 /** SHA-256 over the step id and the normalized code, so the same code on two steps hashes differently. */
 export function completionCodeHash(stepId: string, code: string): string {
-  return createHash('sha256').update(`${stepId}:${normalizeCompletionCode(code)}`).digest('hex');
+  return createHash('sha256')
+    .update(`${stepId}:${normalizeCompletionCode(code)}`)
+    .digest('hex');
 }

@@ -23,7 +23,9 @@ export function participantCode(codeKey: Buffer, enrollmentId: string, stepId: s
 
 /** Compared without case, spaces or the dash, in constant time. */
 export function participantCodeMatches(codeKey: Buffer, enrollmentId: string, stepId: string, given: string): boolean {
-  const expected = Buffer.from(normalizeCompletionCode(participantCode(codeKey, enrollmentId, stepId)).replace(/-/g, ''));
+  const expected = Buffer.from(
+    normalizeCompletionCode(participantCode(codeKey, enrollmentId, stepId)).replace(/-/g, ''),
+  );
   const typed = Buffer.from(normalizeCompletionCode(given).replace(/-/g, ''));
   return expected.length === typed.length && timingSafeEqual(expected, typed);
 }

@@ -52,7 +52,9 @@ export function signReturnToken(claim: ReturnLinkClaim, key: ReturnKey): string 
 }
 
 /** Parses without trusting: the claim is only meaningful when `ok` is true. */
-export function readReturnToken(token: string): { claim: ReturnLinkClaim; keyId: number; payload: string; signature: string } | null {
+export function readReturnToken(
+  token: string,
+): { claim: ReturnLinkClaim; keyId: number; payload: string; signature: string } | null {
   const parts = token.split('.');
   if (parts.length !== 6) return null;
   const [studyId, reference, stepId, expiry, keyId, signature] = parts;
@@ -78,7 +80,8 @@ export function verifyReturnToken(token: string, keys: ReturnKeyRing, now: Date)
   if (!key) return { ok: false, reason: 'forged', claim: read.claim };
   const expected = Buffer.from(signatureOf(read.payload, key.secret));
   const given = Buffer.from(read.signature);
-  if (expected.length !== given.length || !timingSafeEqual(expected, given)) return { ok: false, reason: 'forged', claim: read.claim };
+  if (expected.length !== given.length || !timingSafeEqual(expected, given))
+    return { ok: false, reason: 'forged', claim: read.claim };
   if (now > read.claim.expiresAt) return { ok: false, reason: 'expired', claim: read.claim };
   return { ok: true, claim: read.claim, keyId: read.keyId };
 }

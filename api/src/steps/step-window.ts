@@ -1,6 +1,11 @@
 /** How a step's completion is checked. */
 export type StepVerification = 'return-link' | 'participant-code' | 'shared-code' | 'staff';
-export const STEP_VERIFICATIONS: readonly StepVerification[] = ['return-link', 'participant-code', 'shared-code', 'staff'];
+export const STEP_VERIFICATIONS: readonly StepVerification[] = [
+  'return-link',
+  'participant-code',
+  'shared-code',
+  'staff',
+];
 /** What a step's window counts from. */
 export type StepOpensFrom = 'assignment' | 'previous-step';
 /** How a recorded completion was verified; `staff-list` is a staff mark from a pasted or uploaded list. */
@@ -34,7 +39,11 @@ export function addDays(at: Date, days: number): Date {
  * Each step's window for one participant, in step order: it opens a number of days after assignment or after the
  * previous step was done, and is due a number of days after it opens. Nothing here depends on the condition.
  */
-export function stepWindows(steps: readonly StepSchedule[], assignedAt: Date, completedAt: ReadonlyMap<string, Date>): StepWindow[] {
+export function stepWindows(
+  steps: readonly StepSchedule[],
+  assignedAt: Date,
+  completedAt: ReadonlyMap<string, Date>,
+): StepWindow[] {
   const windows: StepWindow[] = [];
   let previousDoneAt: Date | null = assignedAt;
   for (const step of steps) {

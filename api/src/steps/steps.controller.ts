@@ -4,7 +4,15 @@ import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
 import { uuidParam } from '../common/http/uuid-param';
 import { StudyMembersOnly } from '../studies';
-import { CreateStepDto, ReturnLinkSetupDto, SetCompletionCodeDto, SetPayOverrideDto, StepListDto, StepSettingsDto, UpdateStepDto } from './dto/step.dto';
+import {
+  CreateStepDto,
+  ReturnLinkSetupDto,
+  SetCompletionCodeDto,
+  SetPayOverrideDto,
+  StepListDto,
+  StepSettingsDto,
+  UpdateStepDto,
+} from './dto/step.dto';
 import { StepsService } from './steps.service';
 
 const DESIGNERS = ['coordinator', 'researcher', 'admin'] as const;
@@ -25,7 +33,11 @@ export class StepsController {
   @Post()
   @Roles(...DESIGNERS)
   @ApiCreatedResponse({ type: StepListDto })
-  create(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: CreateStepDto): Promise<StepListDto> {
+  create(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: CreateStepDto,
+  ): Promise<StepListDto> {
     return this.steps.create(user, studyId, body);
   }
 
@@ -43,7 +55,10 @@ export class StepsController {
 
   @Put(':stepId')
   @Roles(...DESIGNERS)
-  @ApiOkResponse({ type: StepListDto, description: 'How the step is verified (return link, per-participant code, one shared code, staff) and its window' })
+  @ApiOkResponse({
+    type: StepListDto,
+    description: 'How the step is verified (return link, per-participant code, one shared code, staff) and its window',
+  })
   saveSettings(
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,
@@ -64,7 +79,10 @@ export class StepsController {
   @HttpCode(200)
   @Roles(...DESIGNERS)
   @ApiOkResponse({ type: ReturnLinkSetupDto })
-  rotateReturnKey(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<ReturnLinkSetupDto> {
+  rotateReturnKey(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+  ): Promise<ReturnLinkSetupDto> {
     return this.steps.rotateReturnKey(user, studyId);
   }
 

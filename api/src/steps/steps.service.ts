@@ -8,7 +8,15 @@ import { DomainException } from '../common/errors/domain.exception';
 import { StudiesService } from '../studies';
 import { AppConfig } from '../config/app-config';
 import { queryRows } from '../database/raw-query';
-import { CreateStepDto, ReturnLinkSetupDto, SetPayOverrideDto, StepDto, StepListDto, StepSettingsDto, UpdateStepDto } from './dto/step.dto';
+import {
+  CreateStepDto,
+  ReturnLinkSetupDto,
+  SetPayOverrideDto,
+  StepDto,
+  StepListDto,
+  StepSettingsDto,
+  UpdateStepDto,
+} from './dto/step.dto';
 import { StudyStepKeyEntity } from './entities/study-step-key.entity';
 import { participantCode, participantCodeMatches } from './participant-code';
 import { signReturnToken, verifyReturnToken, type ReturnKeyRing, type ReturnTokenCheck } from './return-link';
@@ -30,7 +38,8 @@ export class StepsService {
       key: 'steps',
       label: 'At least one paid step',
       order: 3,
-      check: async (manager, studyId) => ((await manager.count(StepEntity, { where: { studyId } })) > 0 ? null : 'add at least one step'),
+      check: async (manager, studyId) =>
+        (await manager.count(StepEntity, { where: { studyId } })) > 0 ? null : 'add at least one step',
     });
   }
 
@@ -62,7 +71,12 @@ export class StepsService {
       dueWithinDays: step.dueWithinDays,
       payOverrides: overrides
         .filter((o) => o.stepId === step.id)
-        .map((o) => ({ conditionId: o.conditionId, payMinor: o.payMinor, reason: o.reason, recordedAt: o.recordedAt.toISOString() })),
+        .map((o) => ({
+          conditionId: o.conditionId,
+          payMinor: o.payMinor,
+          reason: o.reason,
+          recordedAt: o.recordedAt.toISOString(),
+        })),
     }));
     return {
       items,
@@ -75,17 +89,30 @@ export class StepsService {
   async create(actor: SessionUser, studyId: string, input: CreateStepDto): Promise<StepListDto> {
     return this.dataSource.transaction(async (manager) => {
       await this.requireChangeable(manager, studyId);
-      const [{ max }] = await manager.query(`SELECT coalesce(max(position), 0) AS max FROM step WHERE study_id = $1`, [studyId]);
+      const [{ max }] = await manager.query(`SELECT coalesce(max(position), 0) AS max FROM step WHERE study_id = $1`, [
+        studyId,
+      ]);
       const last = Number(max);
       const position = Math.min(input.position ?? last + 1, last + 1);
       // Make room: park later steps far out of range, then bring them back one place down, so the unique
       // (study, position) index never sees two steps at once in the same place.
       if (position <= last) {
-        await manager.query(`UPDATE step SET position = position + 1000000 WHERE study_id = $1 AND position >= $2`, [studyId, position]);
-        await manager.query(`UPDATE step SET position = position - 999999 WHERE study_id = $1 AND position > 1000000`, [studyId]);
+        await manager.query(`UPDATE step SET position = position + 1000000 WHERE study_id = $1 AND position >= $2`, [
+          studyId,
+          position,
+        ]);
+        await manager.query(`UPDATE step SET position = position - 999999 WHERE study_id = $1 AND position > 1000000`, [
+          studyId,
+        ]);
       }
       const step = await manager.save(
-        manager.create(StepEntity, { studyId, position, title: input.title, description: input.description ?? '', payMinor: input.payMinor }),
+        manager.create(StepEntity, {
+          studyId,
+          position,
+          title: input.title,
+          description: input.description ?? '',
+          payMinor: input.payMinor,
+        }),
       );
       await this.audit.record(manager, {
         chain: studyId,
@@ -103,21 +130,39 @@ export class StepsService {
     return this.dataSource.transaction(async (manager) => {
       await this.requireChangeable(manager, studyId);
       const step = await this.requireStep(manager, studyId, stepId);
-      const changes = Object.fromEntries(Object.entries(input).filter(([k, v]) => v !== undefined && (step as never)[k] !== v));
+      const changes = Object.fromEntries(
+        Object.entries(input).filter(([k, v]) => v !== undefined && (step as never)[k] !== v),
+      );
       if (Object.keys(changes).length > 0) {
         await manager.update(StepEntity, { id: stepId }, changes);
-        await this.audit.record(manager, { chain: studyId, actor, action: 'step.updated', subjectType: 'step', subjectId: stepId, data: { changes } });
+        await this.audit.record(manager, {
+          chain: studyId,
+          actor,
+          action: 'step.updated',
+          subjectType: 'step',
+          subjectId: stepId,
+          data: { changes },
+        });
       }
       return this.list(studyId, manager);
     });
   }
 
   /** Records a deliberate exception to equal pay for one condition; it is flagged wherever pay is shown. */
-  async setPayOverride(actor: SessionUser, studyId: string, stepId: string, conditionId: string, input: SetPayOverrideDto): Promise<StepListDto> {
+  async setPayOverride(
+    actor: SessionUser,
+    studyId: string,
+    stepId: string,
+    conditionId: string,
+    input: SetPayOverrideDto,
+  ): Promise<StepListDto> {
     return this.dataSource.transaction(async (manager) => {
       await this.requireChangeable(manager, studyId);
       await this.requireStep(manager, studyId, stepId);
-      if (!(await this.studies.hasCondition(studyId, conditionId, manager))) throw new DomainException('NOT_FOUND', 'No such condition in this study.', [{ field: 'conditionId', message: 'is not a condition of this study' }]);
+      if (!(await this.studies.hasCondition(studyId, conditionId, manager)))
+        throw new DomainException('NOT_FOUND', 'No such condition in this study.', [
+          { field: 'conditionId', message: 'is not a condition of this study' },
+        ]);
       await manager.query(
         `INSERT INTO step_pay_override (step_id, condition_id, pay_minor, reason, recorded_by) VALUES ($1, $2, $3, $4, $5)
          ON CONFLICT (step_id, condition_id) DO UPDATE SET pay_minor = EXCLUDED.pay_minor, reason = EXCLUDED.reason,
@@ -136,13 +181,25 @@ export class StepsService {
     });
   }
 
-  async removePayOverride(actor: SessionUser, studyId: string, stepId: string, conditionId: string): Promise<StepListDto> {
+  async removePayOverride(
+    actor: SessionUser,
+    studyId: string,
+    stepId: string,
+    conditionId: string,
+  ): Promise<StepListDto> {
     return this.dataSource.transaction(async (manager) => {
       await this.requireChangeable(manager, studyId);
       await this.requireStep(manager, studyId, stepId);
       const result = await manager.delete(StepPayOverrideEntity, { stepId, conditionId });
       if (result.affected) {
-        await this.audit.record(manager, { chain: studyId, actor, action: 'step.pay-override-removed', subjectType: 'step', subjectId: stepId, data: { conditionId } });
+        await this.audit.record(manager, {
+          chain: studyId,
+          actor,
+          action: 'step.pay-override-removed',
+          subjectType: 'step',
+          subjectId: stepId,
+          data: { conditionId },
+        });
       }
       return this.list(studyId, manager);
     });
@@ -153,8 +210,19 @@ export class StepsService {
     return this.dataSource.transaction(async (manager) => {
       await this.requireChangeable(manager, studyId);
       await this.requireStep(manager, studyId, stepId);
-      await manager.update(StepEntity, { id: stepId }, { completionCodeHash: completionCodeHash(stepId, code), verification: 'shared-code' });
-      await this.audit.record(manager, { chain: studyId, actor, action: 'step.completion-code-set', subjectType: 'step', subjectId: stepId, data: {} });
+      await manager.update(
+        StepEntity,
+        { id: stepId },
+        { completionCodeHash: completionCodeHash(stepId, code), verification: 'shared-code' },
+      );
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'step.completion-code-set',
+        subjectType: 'step',
+        subjectId: stepId,
+        data: {},
+      });
       return this.list(studyId, manager);
     });
   }
@@ -163,7 +231,12 @@ export class StepsService {
    * Checks a typed code: the participant's own code on a per-participant-code step, the step's one code on a
    * shared-code step. Which kind matched is returned so the completion records it.
    */
-  async checkCode(studyId: string, stepId: string, enrollmentId: string, code: string): Promise<{ matched: boolean; verifiedBy: 'participant-code' | 'shared-code' }> {
+  async checkCode(
+    studyId: string,
+    stepId: string,
+    enrollmentId: string,
+    code: string,
+  ): Promise<{ matched: boolean; verifiedBy: 'participant-code' | 'shared-code' }> {
     const step = await this.dataSource
       .createQueryBuilder(StepEntity, 'step')
       .addSelect('step.completionCodeHash')
@@ -175,13 +248,22 @@ export class StepsService {
       return { matched: participantCodeMatches(key, enrollmentId, stepId, code), verifiedBy: 'participant-code' };
     }
     if (step.verification !== 'shared-code' || !step.completionCodeHash) {
-      throw new DomainException('CONFLICT', step.verification === 'return-link' ? 'This step is finished in its task: use the task button, and you will be brought back.' : 'This step has no completion code; the research team will check it off for you.');
+      throw new DomainException(
+        'CONFLICT',
+        step.verification === 'return-link'
+          ? 'This step is finished in its task: use the task button, and you will be brought back.'
+          : 'This step has no completion code; the research team will check it off for you.',
+      );
     }
     const given = Buffer.from(completionCodeHash(stepId, code), 'hex');
     return { matched: timingSafeEqual(given, Buffer.from(step.completionCodeHash, 'hex')), verifiedBy: 'shared-code' };
   }
 
-  async requireStepOf(studyId: string, stepId: string, manager: EntityManager = this.dataSource.manager): Promise<StepEntity> {
+  async requireStepOf(
+    studyId: string,
+    stepId: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<StepEntity> {
     return this.requireStep(manager, studyId, stepId);
   }
 
@@ -200,19 +282,35 @@ export class StepsService {
       recordedBy: string | null;
       evidence?: Record<string, unknown>;
     },
-  ): Promise<{ completion: StepCompletionEntity; created: boolean; payMinor: number; payOverride: boolean; remainingSteps: number }> {
+  ): Promise<{
+    completion: StepCompletionEntity;
+    created: boolean;
+    payMinor: number;
+    payOverride: boolean;
+    remainingSteps: number;
+  }> {
     const step = await this.requireStep(manager, input.studyId, input.stepId);
     const inserted = await manager
       .createQueryBuilder()
       .insert()
       .into(StepCompletionEntity)
-      .values({ enrollmentId: input.enrollmentId, stepId: input.stepId, verifiedBy: input.verifiedBy, recordedBy: input.recordedBy, evidence: (input.evidence ?? {}) as never })
+      .values({
+        enrollmentId: input.enrollmentId,
+        stepId: input.stepId,
+        verifiedBy: input.verifiedBy,
+        recordedBy: input.recordedBy,
+        evidence: (input.evidence ?? {}) as never,
+      })
       .orIgnore()
       .returning('id')
       .execute();
-    const completion = await manager.findOneOrFail(StepCompletionEntity, { where: { enrollmentId: input.enrollmentId, stepId: input.stepId, undoneAt: IsNull() } });
+    const completion = await manager.findOneOrFail(StepCompletionEntity, {
+      where: { enrollmentId: input.enrollmentId, stepId: input.stepId, undoneAt: IsNull() },
+    });
     const override = input.conditionId
-      ? await manager.findOne(StepPayOverrideEntity, { where: { stepId: input.stepId, conditionId: input.conditionId } })
+      ? await manager.findOne(StepPayOverrideEntity, {
+          where: { stepId: input.stepId, conditionId: input.conditionId },
+        })
       : null;
     const [{ remaining }] = await manager.query(
       `SELECT count(*) AS remaining FROM step s WHERE s.study_id = $1
@@ -229,35 +327,62 @@ export class StepsService {
   }
 
   /** Completions in force (not undone), oldest first. */
-  completionsOf(enrollmentId: string, manager: EntityManager = this.dataSource.manager): Promise<StepCompletionEntity[]> {
-    return manager.find(StepCompletionEntity, { where: { enrollmentId, undoneAt: IsNull() }, order: { completedAt: 'ASC' } });
+  completionsOf(
+    enrollmentId: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<StepCompletionEntity[]> {
+    return manager.find(StepCompletionEntity, {
+      where: { enrollmentId, undoneAt: IsNull() },
+      order: { completedAt: 'ASC' },
+    });
   }
 
   /** Every completion, undone ones included, for the participant's record. */
-  completionHistoryOf(enrollmentId: string, manager: EntityManager = this.dataSource.manager): Promise<StepCompletionEntity[]> {
+  completionHistoryOf(
+    enrollmentId: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<StepCompletionEntity[]> {
     return manager.find(StepCompletionEntity, { where: { enrollmentId }, order: { completedAt: 'ASC' } });
   }
 
   /** Completions in force for many enrollments at once: step id → completion time per enrollment. */
-  async completionTimesOf(enrollmentIds: string[], manager: EntityManager = this.dataSource.manager): Promise<Map<string, Map<string, Date>>> {
+  async completionTimesOf(
+    enrollmentIds: string[],
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<Map<string, Map<string, Date>>> {
     const byEnrollment = new Map<string, Map<string, Date>>(enrollmentIds.map((id) => [id, new Map()]));
     if (enrollmentIds.length === 0) return byEnrollment;
-    const rows = await manager.find(StepCompletionEntity, { where: { enrollmentId: In(enrollmentIds), undoneAt: IsNull() } });
+    const rows = await manager.find(StepCompletionEntity, {
+      where: { enrollmentId: In(enrollmentIds), undoneAt: IsNull() },
+    });
     for (const row of rows) byEnrollment.get(row.enrollmentId)?.set(row.stepId, row.completedAt);
     return byEnrollment;
   }
 
   /** Step windows' inputs in step order. */
-  async schedulesOf(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<Array<StepSchedule & { title: string; position: number }>> {
+  async schedulesOf(
+    studyId: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<Array<StepSchedule & { title: string; position: number }>> {
     const steps = await manager.find(StepEntity, { where: { studyId }, order: { position: 'ASC' } });
-    return steps.map((s) => ({ id: s.id, title: s.title, position: s.position, opensAfterDays: s.opensAfterDays, opensFrom: s.opensFrom, dueWithinDays: s.dueWithinDays }));
+    return steps.map((s) => ({
+      id: s.id,
+      title: s.title,
+      position: s.position,
+      opensAfterDays: s.opensAfterDays,
+      opensFrom: s.opensFrom,
+      dueWithinDays: s.dueWithinDays,
+    }));
   }
 
   /**
    * Undoes a completion in force, keeping it as history with who undid it and why. The caller cancels its payout
    * first (refused once approved) inside the same transaction.
    */
-  async undoCompletion(manager: EntityManager, input: { enrollmentId: string; stepId: string; undoneBy: string; reason: string }): Promise<StepCompletionEntity> {
+  async undoCompletion(
+    manager: EntityManager,
+    input: { enrollmentId: string; stepId: string; undoneBy: string; reason: string },
+  ): Promise<StepCompletionEntity> {
     const completion = await manager.findOne(StepCompletionEntity, {
       where: { enrollmentId: input.enrollmentId, stepId: input.stepId, undoneAt: IsNull() },
       lock: { mode: 'pessimistic_write' },
@@ -272,7 +397,12 @@ export class StepsService {
   // ── how completions are verified ──────────────────────────────────────────
 
   /** How a step is verified and when it can be done; a shared code can be set in the same call. */
-  async saveSettings(actor: SessionUser, studyId: string, stepId: string, input: StepSettingsDto): Promise<StepListDto> {
+  async saveSettings(
+    actor: SessionUser,
+    studyId: string,
+    stepId: string,
+    input: StepSettingsDto,
+  ): Promise<StepListDto> {
     return this.dataSource.transaction(async (manager) => {
       await this.requireChangeable(manager, studyId);
       const step = await manager
@@ -283,10 +413,14 @@ export class StepsService {
       if (!step) throw new DomainException('NOT_FOUND', 'No such step in this study.');
       const taskUrl = input.taskUrl?.trim() || null;
       if (input.verification === 'return-link' && !taskUrl) {
-        throw new DomainException('VALIDATION_FAILED', 'A return-link step needs the address of the external task.', [{ field: 'taskUrl', message: 'is required for a return link' }]);
+        throw new DomainException('VALIDATION_FAILED', 'A return-link step needs the address of the external task.', [
+          { field: 'taskUrl', message: 'is required for a return link' },
+        ]);
       }
       if (input.verification === 'shared-code' && !input.sharedCode && !step.completionCodeHash) {
-        throw new DomainException('VALIDATION_FAILED', 'Set the code everyone will type for this step.', [{ field: 'sharedCode', message: 'is required for one code for the whole step' }]);
+        throw new DomainException('VALIDATION_FAILED', 'Set the code everyone will type for this step.', [
+          { field: 'sharedCode', message: 'is required for one code for the whole step' },
+        ]);
       }
       const changes: Partial<StepEntity> = {
         verification: input.verification,
@@ -320,11 +454,10 @@ export class StepsService {
         .getOne();
     const existing = await read();
     if (existing) return existing;
-    await manager.query(`INSERT INTO study_step_key (study_id, code_key, return_key) VALUES ($1, $2, $3) ON CONFLICT (study_id) DO NOTHING`, [
-      studyId,
-      randomBytes(32).toString('base64'),
-      randomBytes(32).toString('base64'),
-    ]);
+    await manager.query(
+      `INSERT INTO study_step_key (study_id, code_key, return_key) VALUES ($1, $2, $3) ON CONFLICT (study_id) DO NOTHING`,
+      [studyId, randomBytes(32).toString('base64'), randomBytes(32).toString('base64')],
+    );
     return (await read())!;
   }
 
@@ -333,7 +466,11 @@ export class StepsService {
       current: { id: keys.returnKeyId, secret: Buffer.from(keys.returnKey, 'base64') },
       previous:
         keys.previousReturnKey && keys.returnKeyRotatedAt
-          ? { id: keys.returnKeyId - 1, secret: Buffer.from(keys.previousReturnKey, 'base64'), acceptUntil: addDays(keys.returnKeyRotatedAt, this.config.returnLinkGraceDays) }
+          ? {
+              id: keys.returnKeyId - 1,
+              secret: Buffer.from(keys.previousReturnKey, 'base64'),
+              acceptUntil: addDays(keys.returnKeyRotatedAt, this.config.returnLinkGraceDays),
+            }
           : null,
     };
   }
@@ -343,10 +480,26 @@ export class StepsService {
     return {
       returnAddressTemplate: `${this.returnBase()}{token}`,
       parameters: [
-        { name: 'ref', meaning: "The participant's pseudonymous reference (for example P-7KQ2MX); store it with their answers instead of any name or e-mail." },
-        { name: 'token', meaning: 'The signed return token. At the end of the task, send the participant to the return address with this value in place of {token}.' },
-        { name: 'return', meaning: 'The whole return address, already filled in. If your tool can redirect to a value it received, redirect to this one.' },
-        { name: 'code', meaning: "Only for steps with per-participant codes: this participant's code, if your task shows it at the end." },
+        {
+          name: 'ref',
+          meaning:
+            "The participant's pseudonymous reference (for example P-7KQ2MX); store it with their answers instead of any name or e-mail.",
+        },
+        {
+          name: 'token',
+          meaning:
+            'The signed return token. At the end of the task, send the participant to the return address with this value in place of {token}.',
+        },
+        {
+          name: 'return',
+          meaning:
+            'The whole return address, already filled in. If your tool can redirect to a value it received, redirect to this one.',
+        },
+        {
+          name: 'code',
+          meaning:
+            "Only for steps with per-participant codes: this participant's code, if your task shows it at the end.",
+        },
       ],
       keyId: keys.returnKeyId,
       rotatedAt: keys.returnKeyRotatedAt?.toISOString() ?? null,
@@ -366,7 +519,14 @@ export class StepsService {
          WHERE study_id = $1 RETURNING return_key_id`,
         [studyId, randomBytes(32).toString('base64')],
       );
-      await this.audit.record(manager, { chain: studyId, actor, action: 'step.return-key-rotated', subjectType: 'study', subjectId: studyId, data: { keyId: row.return_key_id } });
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'step.return-key-rotated',
+        subjectType: 'study',
+        subjectId: studyId,
+        data: { keyId: row.return_key_id },
+      });
     });
     return this.returnLinkSetup(studyId);
   }
@@ -376,20 +536,33 @@ export class StepsService {
   }
 
   /** The external task's address with the reference, the signed return address and (for code steps) the code. */
-  async taskAddress(input: { studyId: string; stepId: string; enrollmentId: string; reference: string; dueAt: Date | null; now: Date }): Promise<string> {
+  async taskAddress(input: {
+    studyId: string;
+    stepId: string;
+    enrollmentId: string;
+    reference: string;
+    dueAt: Date | null;
+    now: Date;
+  }): Promise<string> {
     const step = await this.requireStep(this.dataSource.manager, input.studyId, input.stepId);
     if (!step.taskUrl) throw new DomainException('CONFLICT', 'This step is not done in an external task.');
     const keys = await this.keysOf(input.studyId);
     const validFrom = input.dueAt && input.dueAt > input.now ? input.dueAt : input.now;
     const token = signReturnToken(
-      { studyId: input.studyId, reference: input.reference, stepId: step.id, expiresAt: addDays(validFrom, this.config.returnLinkValidDays) },
+      {
+        studyId: input.studyId,
+        reference: input.reference,
+        stepId: step.id,
+        expiresAt: addDays(validFrom, this.config.returnLinkValidDays),
+      },
       this.keyRing(keys).current,
     );
     const url = new URL(step.taskUrl);
     url.searchParams.set('ref', input.reference);
     url.searchParams.set('token', token);
     url.searchParams.set('return', `${this.returnBase()}${token}`);
-    if (step.verification === 'participant-code') url.searchParams.set('code', participantCode(Buffer.from(keys.codeKey, 'base64'), input.enrollmentId, step.id));
+    if (step.verification === 'participant-code')
+      url.searchParams.set('code', participantCode(Buffer.from(keys.codeKey, 'base64'), input.enrollmentId, step.id));
     return url.toString();
   }
 
@@ -400,18 +573,39 @@ export class StepsService {
   }
 
   /** This participant's own code for each per-participant-code step. */
-  async participantCodes(studyId: string, enrollmentId: string): Promise<Array<{ stepId: string; position: number; title: string; code: string }>> {
-    const steps = await this.dataSource.manager.find(StepEntity, { where: { studyId, verification: 'participant-code' }, order: { position: 'ASC' } });
+  async participantCodes(
+    studyId: string,
+    enrollmentId: string,
+  ): Promise<Array<{ stepId: string; position: number; title: string; code: string }>> {
+    const steps = await this.dataSource.manager.find(StepEntity, {
+      where: { studyId, verification: 'participant-code' },
+      order: { position: 'ASC' },
+    });
     if (steps.length === 0) return [];
     const key = Buffer.from((await this.keysOf(studyId)).codeKey, 'base64');
-    return steps.map((s) => ({ stepId: s.id, position: s.position, title: s.title, code: participantCode(key, enrollmentId, s.id) }));
+    return steps.map((s) => ({
+      stepId: s.id,
+      position: s.position,
+      title: s.title,
+      code: participantCode(key, enrollmentId, s.id),
+    }));
   }
 
   /** Codes for many enrollments, for the lab's printed lists. */
   async participantCodesFor(studyId: string, enrollments: Array<{ id: string; reference: string }>) {
-    const steps = await this.dataSource.manager.find(StepEntity, { where: { studyId, verification: 'participant-code' }, order: { position: 'ASC' } });
+    const steps = await this.dataSource.manager.find(StepEntity, {
+      where: { studyId, verification: 'participant-code' },
+      order: { position: 'ASC' },
+    });
     const key = Buffer.from((await this.keysOf(studyId)).codeKey, 'base64');
-    return enrollments.flatMap((e) => steps.map((s) => ({ reference: e.reference, position: s.position, title: s.title, code: participantCode(key, e.id, s.id) })));
+    return enrollments.flatMap((e) =>
+      steps.map((s) => ({
+        reference: e.reference,
+        position: s.position,
+        title: s.title,
+        code: participantCode(key, e.id, s.id),
+      })),
+    );
   }
 
   private async requireChangeable(manager: EntityManager, studyId: string): Promise<void> {

@@ -20,7 +20,8 @@ export class PublicStudyController {
   @ApiOkResponse({ type: PublicStudyDto })
   async get(@Param('slug') slug: string): Promise<PublicStudyDto> {
     const study = /^[a-z0-9-]{1,80}$/.test(slug) ? await this.studies.findBySlug(slug) : null;
-    if (!study || study.status === 'draft') throw new DomainException('NOT_FOUND', 'There is no open study at this link.');
+    if (!study || study.status === 'draft')
+      throw new DomainException('NOT_FOUND', 'There is no open study at this link.');
     const steps = await this.steps.list(study.id);
     const { eligibility } = await this.studies.screeningDefinition(study.id);
     return {
@@ -35,7 +36,12 @@ export class PublicStudyController {
       contactEmail: study.contactEmail,
       currency: study.currency,
       totalPayMinor: steps.totalPayMinor,
-      steps: steps.items.map(({ position, title, description, payMinor }) => ({ position, title, description, payMinor })),
+      steps: steps.items.map(({ position, title, description, payMinor }) => ({
+        position,
+        title,
+        description,
+        payMinor,
+      })),
       eligibility: eligibility.map((q) => ({ key: q.key, label: q.criterion ?? q.label })),
     };
   }

@@ -18,14 +18,19 @@ export function checkFactorDefinitions(factors: FactorDefinition[]): void {
     seen.add(factor.key);
     if (factor.kind === 'numeric') {
       const cuts = factor.cutPoints ?? [];
-      if (cuts.length === 0) errors.push({ field: `${at}.cutPoints`, message: 'a numeric factor needs at least one cut point' });
-      if (cuts.some((c, j) => j > 0 && c <= cuts[j - 1])) errors.push({ field: `${at}.cutPoints`, message: 'must be strictly increasing' });
+      if (cuts.length === 0)
+        errors.push({ field: `${at}.cutPoints`, message: 'a numeric factor needs at least one cut point' });
+      if (cuts.some((c, j) => j > 0 && c <= cuts[j - 1]))
+        errors.push({ field: `${at}.cutPoints`, message: 'must be strictly increasing' });
       if (factor.categories) errors.push({ field: `${at}.categories`, message: 'is only for categorical factors' });
     } else {
       const categories = (factor.categories ?? []).map((c) => c.trim());
-      if (categories.length < 2) errors.push({ field: `${at}.categories`, message: 'a categorical factor needs at least two categories' });
-      if (new Set(categories).size !== categories.length) errors.push({ field: `${at}.categories`, message: 'must not repeat a category' });
-      if (categories.some((c) => c === '')) errors.push({ field: `${at}.categories`, message: 'must not contain an empty category' });
+      if (categories.length < 2)
+        errors.push({ field: `${at}.categories`, message: 'a categorical factor needs at least two categories' });
+      if (new Set(categories).size !== categories.length)
+        errors.push({ field: `${at}.categories`, message: 'must not repeat a category' });
+      if (categories.some((c) => c === ''))
+        errors.push({ field: `${at}.categories`, message: 'must not contain an empty category' });
       if (factor.cutPoints) errors.push({ field: `${at}.cutPoints`, message: 'is only for numeric factors' });
     }
   });
@@ -51,7 +56,8 @@ export function checkScreeningQuestions(questions: ScreeningQuestionDefinition[]
     const at = `questions.${i}`;
     if (seen.has(q.key)) errors.push({ field: `${at}.key`, message: `"${q.key}" is used by another question` });
     seen.add(q.key);
-    if (q.kind === 'choice' && (q.options ?? []).length < 2) errors.push({ field: `${at}.options`, message: 'a choice needs at least two options' });
+    if (q.kind === 'choice' && (q.options ?? []).length < 2)
+      errors.push({ field: `${at}.options`, message: 'a choice needs at least two options' });
     if (q.kind === 'yes-no' && q.eligibleValues?.some((v) => typeof v !== 'boolean')) {
       errors.push({ field: `${at}.eligibleValues`, message: 'a yes-no question accepts true or false' });
     }

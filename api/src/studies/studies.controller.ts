@@ -32,7 +32,10 @@ export class StudiesController {
   constructor(private readonly studies: StudiesService) {}
 
   @Get()
-  @ApiOkResponse({ type: StudyListDto, description: 'Staff lists leave archived studies out; ?archived=true lists only those' })
+  @ApiOkResponse({
+    type: StudyListDto,
+    description: 'Staff lists leave archived studies out; ?archived=true lists only those',
+  })
   list(@CurrentUser() user: SessionUser, @Query() query: ListStudiesQueryDto): Promise<StudyListDto> {
     return this.studies.listFor(user, query.archived === 'true');
   }
@@ -56,7 +59,11 @@ export class StudiesController {
   @Roles(...DESIGNERS)
   @StudyMembersOnly()
   @ApiOkResponse({ type: StudyDto })
-  update(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: UpdateStudyDto): Promise<StudyDto> {
+  update(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: UpdateStudyDto,
+  ): Promise<StudyDto> {
     return this.studies.update(user, studyId, body);
   }
 
@@ -81,8 +88,14 @@ export class StudiesController {
   @HttpCode(200)
   @Roles(...DESIGNERS)
   @StudyMembersOnly()
-  @ApiOkResponse({ type: StudyDto, description: 'Closed studies only; archived studies leave the default lists and can still be opened' })
-  archive(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<StudyDto> {
+  @ApiOkResponse({
+    type: StudyDto,
+    description: 'Closed studies only; archived studies leave the default lists and can still be opened',
+  })
+  archive(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+  ): Promise<StudyDto> {
     return this.studies.setArchived(user, studyId, true);
   }
 
@@ -91,7 +104,10 @@ export class StudiesController {
   @Roles(...DESIGNERS)
   @StudyMembersOnly()
   @ApiOkResponse({ type: StudyDto })
-  unarchive(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string): Promise<StudyDto> {
+  unarchive(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+  ): Promise<StudyDto> {
     return this.studies.setArchived(user, studyId, false);
   }
 
@@ -125,7 +141,11 @@ export class StudiesController {
   @Roles(...DESIGNERS)
   @StudyMembersOnly()
   @ApiCreatedResponse({ type: ConditionDto })
-  addCondition(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: CreateConditionDto): Promise<ConditionDto> {
+  addCondition(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: CreateConditionDto,
+  ): Promise<ConditionDto> {
     return this.studies.createCondition(user, studyId, body);
   }
 
@@ -154,7 +174,11 @@ export class StudiesController {
   @Roles(...DESIGNERS)
   @StudyMembersOnly()
   @ApiOkResponse({ type: StratificationFactorListDto })
-  replaceFactors(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: ReplaceFactorsDto): Promise<StratificationFactorListDto> {
+  replaceFactors(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: ReplaceFactorsDto,
+  ): Promise<StratificationFactorListDto> {
     return this.studies.replaceFactors(user, studyId, body.factors);
   }
 
@@ -190,8 +214,15 @@ export class StudiesController {
   @Post(':studyId/members')
   @Roles('admin')
   @StudyMembersOnly()
-  @ApiCreatedResponse({ type: MemberListDto, description: 'Admins only; the membership role must match the person\'s staff role' })
-  addMember(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: AddMemberDto): Promise<MemberListDto> {
+  @ApiCreatedResponse({
+    type: MemberListDto,
+    description: "Admins only; the membership role must match the person's staff role",
+  })
+  addMember(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: AddMemberDto,
+  ): Promise<MemberListDto> {
     return this.studies.addMember(user, studyId, body);
   }
 

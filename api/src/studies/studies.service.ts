@@ -43,7 +43,10 @@ const STATUS_AFTER: Record<Transition, StudyStatus> = { open: 'recruiting', paus
 
 /** Neutral codes for conditions, shown instead of names while a study is blinded. */
 function conditionCode(position: number): string {
-  return String.fromCharCode('A'.charCodeAt(0) + ((position - 1) % 26)) + (position > 26 ? String(Math.ceil(position / 26)) : '');
+  return (
+    String.fromCharCode('A'.charCodeAt(0) + ((position - 1) % 26)) +
+    (position > 26 ? String(Math.ceil(position / 26)) : '')
+  );
 }
 
 /** One thing a study needs before it opens; `check` returns what is missing, or null when met. */
@@ -78,7 +81,8 @@ export class StudiesService {
       key: 'assignmentScheme',
       label: 'A saved assignment scheme',
       order: 2,
-      check: async (manager, studyId) => ((await this.randomization.schemeOf(studyId, manager)) ? null : 'choose and save an assignment scheme'),
+      check: async (manager, studyId) =>
+        (await this.randomization.schemeOf(studyId, manager)) ? null : 'choose and save an assignment scheme',
     });
   }
 
@@ -87,19 +91,33 @@ export class StudiesService {
     const builder = this.dataSource.getRepository(StudyEntity).createQueryBuilder('study');
     if (user.role === 'participant') {
       // The enrollments domain owns participation; studies only filters by it.
-      builder.where('study.id IN (SELECT study_id FROM enrollment WHERE participant_id = :userId)', { userId: user.id });
+      builder.where('study.id IN (SELECT study_id FROM enrollment WHERE participant_id = :userId)', {
+        userId: user.id,
+      });
     } else {
       if (user.role !== 'admin' && user.role !== 'auditor') {
-        builder.innerJoin(StudyMembershipEntity, 'membership', 'membership.study_id = study.id AND membership.user_id = :userId', {
-          userId: user.id,
-        });
+        builder.innerJoin(
+          StudyMembershipEntity,
+          'membership',
+          'membership.study_id = study.id AND membership.user_id = :userId',
+          {
+            userId: user.id,
+          },
+        );
       }
       // Staff lists leave archived studies out unless asked for them; a participant's own list keeps every study.
       builder.where(archived ? 'study.archived_at IS NOT NULL' : 'study.archived_at IS NULL');
     }
     const studies = await builder.orderBy('study.created_at', 'DESC').getMany();
     return {
-      items: studies.map(({ id, slug, title, status, design, archivedAt }) => ({ id, slug, title, status, design, archivedAt: archivedAt?.toISOString() ?? null })),
+      items: studies.map(({ id, slug, title, status, design, archivedAt }) => ({
+        id,
+        slug,
+        title,
+        status,
+        design,
+        archivedAt: archivedAt?.toISOString() ?? null,
+      })),
     };
   }
 
@@ -113,11 +131,16 @@ export class StudiesService {
 
   /** Lets another domain add what a study needs before it opens (consent: an active version; steps: at least one). */
   addOpeningRequirement(requirement: OpeningRequirement): void {
-    this.openingRequirements = [...this.openingRequirements.filter((r) => r.key !== requirement.key), requirement].sort((a, b) => a.order - b.order);
+    this.openingRequirements = [...this.openingRequirements.filter((r) => r.key !== requirement.key), requirement].sort(
+      (a, b) => a.order - b.order,
+    );
   }
 
   /** Everything a study needs before it opens, each met or with what is missing. */
-  async openingChecklist(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<OpeningChecklistDto> {
+  async openingChecklist(
+    studyId: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<OpeningChecklistDto> {
     await this.require(studyId, manager);
     const items = [];
     for (const requirement of this.openingRequirements) {
@@ -132,7 +155,10 @@ export class StudiesService {
   }
 
   async require(studyId: string, manager: EntityManager = this.dataSource.manager, lock = false): Promise<StudyEntity> {
-    const study = await manager.findOne(StudyEntity, { where: { id: studyId }, ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}) });
+    const study = await manager.findOne(StudyEntity, {
+      where: { id: studyId },
+      ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}),
+    });
     if (!study) throw new DomainException('NOT_FOUND', 'No such study.');
     return study;
   }
@@ -167,9 +193,13 @@ export class StudiesService {
   async create(actor: SessionUser, input: CreateStudyDto): Promise<StudyDto> {
     const study = await this.dataSource.transaction(async (manager) => {
       if (await manager.exists(StudyEntity, { where: { slug: input.slug } })) {
-        throw new DomainException('CONFLICT', 'Another study already uses this link name.', [{ field: 'slug', message: 'is already taken' }]);
+        throw new DomainException('CONFLICT', 'Another study already uses this link name.', [
+          { field: 'slug', message: 'is already taken' },
+        ]);
       }
-      const created = await manager.save(manager.create(StudyEntity, { ...input, createdBy: actor.id, status: 'draft' }));
+      const created = await manager.save(
+        manager.create(StudyEntity, { ...input, createdBy: actor.id, status: 'draft' }),
+      );
       await manager.insert(StudyMembershipEntity, { studyId: created.id, userId: actor.id, role: actor.role });
       await this.audit.record(manager, {
         chain: created.id,
@@ -187,19 +217,37 @@ export class StudiesService {
   async update(actor: SessionUser, studyId: string, input: UpdateStudyDto): Promise<StudyDto> {
     const study = await this.dataSource.transaction(async (manager) => {
       const current = await this.require(studyId, manager, true);
-      if (current.archivedAt) throw new DomainException('CONFLICT', 'An archived study is kept as it was. Take it out of the archive to look at it; it stays closed.');
-      if (current.status === 'closed') throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+      if (current.archivedAt)
+        throw new DomainException(
+          'CONFLICT',
+          'An archived study is kept as it was. Take it out of the archive to look at it; it stays closed.',
+        );
+      if (current.status === 'closed')
+        throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
       const wanted = { ...input, ...(input.ethicsApprovalReference === '' ? { ethicsApprovalReference: null } : {}) };
       const assignedCount = await this.randomization.countAllocations(studyId, manager);
-      const refused = refusedDetailChanges({ ...current, archived: false }, wanted as Partial<StudyDetails>, assignedCount);
+      const refused = refusedDetailChanges(
+        { ...current, archived: false },
+        wanted as Partial<StudyDetails>,
+        assignedCount,
+      );
       if (refused.length > 0) {
         throw new DomainException('STUDY_DETAIL_FIXED', refused.map((r) => r.message).join(' '), refused);
       }
-      const changes = Object.fromEntries(Object.entries(wanted).filter(([k, v]) => v !== undefined && (current as never)[k] !== v));
+      const changes = Object.fromEntries(
+        Object.entries(wanted).filter(([k, v]) => v !== undefined && (current as never)[k] !== v),
+      );
       if (Object.keys(changes).length === 0) return current;
       Object.assign(current, changes);
       const saved = await manager.save(current);
-      await this.audit.record(manager, { chain: studyId, actor, action: 'study.updated', subjectType: 'study', subjectId: studyId, data: { changes } });
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'study.updated',
+        subjectType: 'study',
+        subjectId: studyId,
+        data: { changes },
+      });
       return saved;
     });
     return this.toDto(study);
@@ -209,7 +257,10 @@ export class StudiesService {
     const study = await this.dataSource.transaction(async (manager) => {
       const current = await this.require(studyId, manager, true);
       if (!ALLOWED_TRANSITIONS[transition].includes(current.status)) {
-        throw new DomainException('CONFLICT', `A ${current.status} study cannot be ${transition === 'open' ? 'opened' : transition === 'pause' ? 'paused' : 'closed'}.`);
+        throw new DomainException(
+          'CONFLICT',
+          `A ${current.status} study cannot be ${transition === 'open' ? 'opened' : transition === 'pause' ? 'paused' : 'closed'}.`,
+        );
       }
       if (transition === 'open') {
         const checklist = await this.openingChecklist(studyId, manager);
@@ -252,7 +303,10 @@ export class StudiesService {
     const study = await this.dataSource.transaction(async (manager) => {
       const current = await this.require(studyId, manager, true);
       if (archived && current.status !== 'closed') {
-        throw new DomainException('CONFLICT', `Only a closed study can be archived; this one is ${current.status}. Close it first.`);
+        throw new DomainException(
+          'CONFLICT',
+          `Only a closed study can be archived; this one is ${current.status}. Close it first.`,
+        );
       }
       if (archived === (current.archivedAt !== null)) return current;
       current.archivedAt = archived ? new Date() : null;
@@ -271,14 +325,23 @@ export class StudiesService {
   }
 
   /** What the assignment engine needs to know about the design, read in the caller's transaction. */
-  async designSnapshot(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<StudyDesignSnapshot> {
+  async designSnapshot(
+    studyId: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<StudyDesignSnapshot> {
     const study = await this.require(studyId, manager);
     const conditions = await manager.find(ConditionEntity, { where: { studyId }, order: { position: 'ASC' } });
     const factors = await manager.find(StratificationFactorEntity, { where: { studyId }, order: { position: 'ASC' } });
     return {
       design: study.design,
       conditions: conditions.map((c) => ({ id: c.id, weight: c.allocationWeight })),
-      factors: factors.map((f) => ({ key: f.key, kind: f.kind, cutPoints: f.cutPoints, categories: f.categories, minimizationWeight: f.minimizationWeight })),
+      factors: factors.map((f) => ({
+        key: f.key,
+        kind: f.kind,
+        cutPoints: f.cutPoints,
+        categories: f.categories,
+        minimizationWeight: f.minimizationWeight,
+      })),
     };
   }
 
@@ -286,19 +349,33 @@ export class StudiesService {
 
   async listConditions(studyId: string): Promise<ConditionDto[]> {
     const study = await this.require(studyId);
-    const conditions = await this.dataSource.getRepository(ConditionEntity).find({ where: { studyId }, order: { position: 'ASC' } });
+    const conditions = await this.dataSource
+      .getRepository(ConditionEntity)
+      .find({ where: { studyId }, order: { position: 'ASC' } });
     const scheme = await this.randomization.schemeOf(studyId);
     const hideNames = study.blinded && study.status !== 'draft' && !scheme?.unblindedAt;
     return conditions.map((c) => this.conditionDto(c, hideNames));
   }
 
   /** What a participant may know of the conditions: labels and instructions, never internal names. */
-  async listConditionsForParticipant(studyId: string): Promise<Array<{ id: string; participantLabel: string; participantInstructions: string }>> {
-    const conditions = await this.dataSource.getRepository(ConditionEntity).find({ where: { studyId }, order: { position: 'ASC' } });
-    return conditions.map(({ id, participantLabel, participantInstructions }) => ({ id, participantLabel, participantInstructions }));
+  async listConditionsForParticipant(
+    studyId: string,
+  ): Promise<Array<{ id: string; participantLabel: string; participantInstructions: string }>> {
+    const conditions = await this.dataSource
+      .getRepository(ConditionEntity)
+      .find({ where: { studyId }, order: { position: 'ASC' } });
+    return conditions.map(({ id, participantLabel, participantInstructions }) => ({
+      id,
+      participantLabel,
+      participantInstructions,
+    }));
   }
 
-  hasCondition(studyId: string, conditionId: string, manager: EntityManager = this.dataSource.manager): Promise<boolean> {
+  hasCondition(
+    studyId: string,
+    conditionId: string,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<boolean> {
     return manager.exists(ConditionEntity, { where: { id: conditionId, studyId } });
   }
 
@@ -316,7 +393,10 @@ export class StudiesService {
 
   async createCondition(actor: SessionUser, studyId: string, input: CreateConditionDto): Promise<ConditionDto> {
     return this.changeDesign(actor, studyId, 'Conditions', async (manager) => {
-      const [{ max }] = await manager.query(`SELECT coalesce(max(position), 0) AS max FROM condition WHERE study_id = $1`, [studyId]);
+      const [{ max }] = await manager.query(
+        `SELECT coalesce(max(position), 0) AS max FROM condition WHERE study_id = $1`,
+        [studyId],
+      );
       const position = Number(max) + 1;
       await this.refuseDuplicateConditionName(manager, studyId, input.internalName);
       const condition = await manager.save(
@@ -336,13 +416,22 @@ export class StudiesService {
         action: 'condition.created',
         subjectType: 'condition',
         subjectId: condition.id,
-        data: { code: condition.code, internalName: condition.internalName, allocationWeight: condition.allocationWeight },
+        data: {
+          code: condition.code,
+          internalName: condition.internalName,
+          allocationWeight: condition.allocationWeight,
+        },
       });
       return this.conditionDto(condition, false);
     });
   }
 
-  async updateCondition(actor: SessionUser, studyId: string, conditionId: string, input: UpdateConditionDto): Promise<ConditionDto> {
+  async updateCondition(
+    actor: SessionUser,
+    studyId: string,
+    conditionId: string,
+    input: UpdateConditionDto,
+  ): Promise<ConditionDto> {
     // What participants read can be corrected at any time; what assignment depends on cannot after the first assignment.
     const touchesAssignment = input.allocationWeight !== undefined;
     const apply = async (manager: EntityManager) => {
@@ -354,27 +443,43 @@ export class StudiesService {
       const changes = Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined));
       Object.assign(condition, changes);
       const saved = await manager.save(condition);
-      await this.audit.record(manager, { chain: studyId, actor, action: 'condition.updated', subjectType: 'condition', subjectId: conditionId, data: { changes } });
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'condition.updated',
+        subjectType: 'condition',
+        subjectId: conditionId,
+        data: { changes },
+      });
       return this.conditionDto(saved, false);
     };
     if (touchesAssignment) return this.changeDesign(actor, studyId, 'Allocation weights', apply);
     return this.dataSource.transaction(async (manager) => {
       const study = await this.require(studyId, manager, true);
-      if (study.status === 'closed') throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+      if (study.status === 'closed')
+        throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
       return apply(manager);
     });
   }
 
   private async refuseDuplicateConditionName(manager: EntityManager, studyId: string, name: string): Promise<void> {
-    const [clash] = await manager.query(`SELECT 1 FROM condition WHERE study_id = $1 AND lower(internal_name) = lower($2)`, [studyId, name]);
-    if (clash) throw new DomainException('CONFLICT', 'Another condition already has this name.', [{ field: 'internalName', message: 'is already used in this study' }]);
+    const [clash] = await manager.query(
+      `SELECT 1 FROM condition WHERE study_id = $1 AND lower(internal_name) = lower($2)`,
+      [studyId, name],
+    );
+    if (clash)
+      throw new DomainException('CONFLICT', 'Another condition already has this name.', [
+        { field: 'internalName', message: 'is already used in this study' },
+      ]);
   }
 
   // ── stratification factors ────────────────────────────────────────────────
 
   async listFactors(studyId: string): Promise<StratificationFactorListDto> {
     await this.require(studyId);
-    const factors = await this.dataSource.getRepository(StratificationFactorEntity).find({ where: { studyId }, order: { position: 'ASC' } });
+    const factors = await this.dataSource
+      .getRepository(StratificationFactorEntity)
+      .find({ where: { studyId }, order: { position: 'ASC' } });
     return { items: factors.map((f) => this.factorDto(f)), pretestNote: PRETEST_CUTOFF_EXPLANATION };
   }
 
@@ -383,10 +488,23 @@ export class StudiesService {
       f.kind === 'numeric'
         ? factorLevels({ id: f.key, kind: 'numeric', cutPoints: f.cutPoints ?? [] })
         : factorLevels({ id: f.key, kind: 'categorical', categories: f.categories ?? [] });
-    return { id: f.id, key: f.key, label: f.label, kind: f.kind, cutPoints: f.cutPoints, categories: f.categories, minimizationWeight: f.minimizationWeight, levels };
+    return {
+      id: f.id,
+      key: f.key,
+      label: f.label,
+      kind: f.kind,
+      cutPoints: f.cutPoints,
+      categories: f.categories,
+      minimizationWeight: f.minimizationWeight,
+      levels,
+    };
   }
 
-  async replaceFactors(actor: SessionUser, studyId: string, factors: StratificationFactorInputDto[]): Promise<StratificationFactorListDto> {
+  async replaceFactors(
+    actor: SessionUser,
+    studyId: string,
+    factors: StratificationFactorInputDto[],
+  ): Promise<StratificationFactorListDto> {
     checkFactorDefinitions(factors);
     await this.changeDesign(actor, studyId, 'Stratification factors', async (manager) => {
       await manager.delete(StratificationFactorEntity, { studyId });
@@ -409,7 +527,14 @@ export class StudiesService {
         action: 'stratification.replaced',
         subjectType: 'study',
         subjectId: studyId,
-        data: { factors: factors.map((f) => ({ key: f.key, kind: f.kind, cutPoints: f.cutPoints ?? null, categories: f.categories ?? null })) },
+        data: {
+          factors: factors.map((f) => ({
+            key: f.key,
+            kind: f.kind,
+            cutPoints: f.cutPoints ?? null,
+            categories: f.categories ?? null,
+          })),
+        },
       });
     });
     return this.listFactors(studyId);
@@ -419,13 +544,25 @@ export class StudiesService {
    * Runs a change to what assignment depends on: refused in a closed study or after the first assignment;
    * in an open study with nobody assigned yet, the sequence is sealed again under a new seed and commitment.
    */
-  private async changeDesign<T>(actor: SessionUser, studyId: string, what: string, change: (manager: EntityManager) => Promise<T>): Promise<T> {
+  private async changeDesign<T>(
+    actor: SessionUser,
+    studyId: string,
+    what: string,
+    change: (manager: EntityManager) => Promise<T>,
+  ): Promise<T> {
     return this.dataSource.transaction(async (manager) => {
       const study = await this.require(studyId, manager, true);
-      if (study.status === 'closed') throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+      if (study.status === 'closed')
+        throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
       await this.randomization.assertDesignUnlocked(manager, studyId, what);
       const result = await change(manager);
-      if (study.status !== 'draft') await this.randomization.recommitAfterDesignChange(manager, actor, studyId, await this.designSnapshot(studyId, manager));
+      if (study.status !== 'draft')
+        await this.randomization.recommitAfterDesignChange(
+          manager,
+          actor,
+          studyId,
+          await this.designSnapshot(studyId, manager),
+        );
       return result;
     });
   }
@@ -442,7 +579,11 @@ export class StudiesService {
   }
 
   /** The questions in the order a participant answers them: eligibility first, then the stratification answers. */
-  async screeningQuestions(studyId: string, manager: EntityManager = this.dataSource.manager, withRules = false): Promise<ScreeningQuestionDto[]> {
+  async screeningQuestions(
+    studyId: string,
+    manager: EntityManager = this.dataSource.manager,
+    withRules = false,
+  ): Promise<ScreeningQuestionDto[]> {
     const { eligibility, stratification } = await this.screeningDefinition(studyId, manager);
     return [
       ...eligibility.map((q) => ({
@@ -473,14 +614,22 @@ export class StudiesService {
     ];
   }
 
-  async replaceScreeningQuestions(actor: SessionUser, studyId: string, questions: ScreeningQuestionInputDto[]): Promise<ScreeningQuestionListDto> {
+  async replaceScreeningQuestions(
+    actor: SessionUser,
+    studyId: string,
+    questions: ScreeningQuestionInputDto[],
+  ): Promise<ScreeningQuestionListDto> {
     checkScreeningQuestions(questions);
     await this.dataSource.transaction(async (manager) => {
       const study = await this.require(studyId, manager, true);
-      if (study.status === 'closed') throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+      if (study.status === 'closed')
+        throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
       const factorKeys = (await manager.find(StratificationFactorEntity, { where: { studyId } })).map((f) => f.key);
       const clash = questions.find((q) => factorKeys.includes(q.key));
-      if (clash) throw new ValidationException([{ field: 'questions', message: `"${clash.key}" is already a stratification factor of this study` }]);
+      if (clash)
+        throw new ValidationException([
+          { field: 'questions', message: `"${clash.key}" is already a stratification factor of this study` },
+        ]);
       await manager.delete(ScreeningQuestionEntity, { studyId });
       await manager.insert(
         ScreeningQuestionEntity,
@@ -500,7 +649,14 @@ export class StudiesService {
           position: i + 1,
         })),
       );
-      await this.audit.record(manager, { chain: studyId, actor, action: 'screening.replaced', subjectType: 'study', subjectId: studyId, data: { keys: questions.map((q) => q.key) } });
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'screening.replaced',
+        subjectType: 'study',
+        subjectId: studyId,
+        data: { keys: questions.map((q) => q.key) },
+      });
     });
     return { items: await this.screeningQuestions(studyId, this.dataSource.manager, true) };
   }
@@ -522,20 +678,31 @@ export class StudiesService {
       await this.require(studyId, manager);
       const user = await manager.findOne(UserEntity, { where: { email: input.email } });
       if (!user || user.role === 'participant' || !user.active) {
-        throw new DomainException('NOT_FOUND', 'No active staff account has this e-mail.', [{ field: 'email', message: 'is not an active staff account' }]);
+        throw new DomainException('NOT_FOUND', 'No active staff account has this e-mail.', [
+          { field: 'email', message: 'is not an active staff account' },
+        ]);
       }
       // A membership grants what the person's staff role allows, so the two must agree (admins may hold any).
       if (user.role !== 'admin' && user.role !== input.role) {
-        throw new DomainException('VALIDATION_FAILED', `${user.email} is a ${user.role}; add them to the study as a ${user.role}.`, [
-          { field: 'role', message: `must be ${user.role}, the person's staff role` },
-        ]);
+        throw new DomainException(
+          'VALIDATION_FAILED',
+          `${user.email} is a ${user.role}; add them to the study as a ${user.role}.`,
+          [{ field: 'role', message: `must be ${user.role}, the person's staff role` }],
+        );
       }
       await manager.query(
         `INSERT INTO study_membership (study_id, user_id, role) VALUES ($1, $2, $3)
          ON CONFLICT (study_id, user_id) DO UPDATE SET role = EXCLUDED.role`,
         [studyId, user.id, input.role],
       );
-      await this.audit.record(manager, { chain: studyId, actor, action: 'study.member-added', subjectType: 'user', subjectId: user.id, data: { email: user.email, role: input.role } });
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'study.member-added',
+        subjectType: 'user',
+        subjectId: user.id,
+        data: { email: user.email, role: input.role },
+      });
     });
     return this.listMembers(studyId);
   }
@@ -543,9 +710,23 @@ export class StudiesService {
   async removeMember(actor: SessionUser, studyId: string, userId: string): Promise<MemberListDto> {
     await this.dataSource.transaction(async (manager) => {
       await this.require(studyId, manager, true);
-      const [removed] = await queryRows<{ role: string }>(manager, `DELETE FROM study_membership WHERE study_id = $1 AND user_id = $2 RETURNING role`, [studyId, userId]);
-      if (!removed) throw new DomainException('NOT_FOUND', 'This person is not a member of the study.', [{ field: 'userId', message: 'is not a member' }]);
-      await this.audit.record(manager, { chain: studyId, actor, action: 'study.member-removed', subjectType: 'user', subjectId: userId, data: { role: removed.role } });
+      const [removed] = await queryRows<{ role: string }>(
+        manager,
+        `DELETE FROM study_membership WHERE study_id = $1 AND user_id = $2 RETURNING role`,
+        [studyId, userId],
+      );
+      if (!removed)
+        throw new DomainException('NOT_FOUND', 'This person is not a member of the study.', [
+          { field: 'userId', message: 'is not a member' },
+        ]);
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'study.member-removed',
+        subjectType: 'user',
+        subjectId: userId,
+        data: { role: removed.role },
+      });
     });
     return this.listMembers(studyId);
   }

@@ -17,7 +17,9 @@ export class StudyAccessGuard implements CanActivate {
     const user = request.user;
     if (!user) throw new DomainException('UNAUTHENTICATED', 'Please sign in.');
     if (typeof studyId !== 'string' || !UUID.test(studyId)) {
-      throw new DomainException('VALIDATION_FAILED', 'studyId must be a UUID.', [{ field: 'studyId', message: 'must be a UUID' }]);
+      throw new DomainException('VALIDATION_FAILED', 'studyId must be a UUID.', [
+        { field: 'studyId', message: 'must be a UUID' },
+      ]);
     }
     // Admins manage every study; auditors read every study (their role allows no writes).
     if (user.role === 'admin' || user.role === 'auditor') return true;

@@ -35,22 +35,40 @@ export const STUDY_EDIT_RULES: readonly string[] = [
 ];
 
 /** The changes this study refuses now, each with its field and a reason in plain words; empty when all may be saved. */
-export function refusedDetailChanges(current: StudyDetails, changes: Partial<StudyDetails>, assignedCount: number): RefusedDetail[] {
+export function refusedDetailChanges(
+  current: StudyDetails,
+  changes: Partial<StudyDetails>,
+  assignedCount: number,
+): RefusedDetail[] {
   const refused: RefusedDetail[] = [];
-  const changing = <K extends keyof StudyDetails>(key: K) => changes[key] !== undefined && changes[key] !== current[key];
+  const changing = <K extends keyof StudyDetails>(key: K) =>
+    changes[key] !== undefined && changes[key] !== current[key];
   if (changing('design') && current.status !== 'draft') {
     refused.push({ field: 'design', message: 'The design is fixed once the study has opened.' });
   }
   if (assignedCount === 0) return refused;
   if (changing('protocolNumber')) {
-    refused.push({ field: 'protocolNumber', message: 'The protocol reference is fixed after the first assignment: signed consent forms quote it.' });
+    refused.push({
+      field: 'protocolNumber',
+      message: 'The protocol reference is fixed after the first assignment: signed consent forms quote it.',
+    });
   }
-  if (changing('currency')) refused.push({ field: 'currency', message: 'The currency is fixed after the first assignment: pay is owed in it.' });
+  if (changing('currency'))
+    refused.push({
+      field: 'currency',
+      message: 'The currency is fixed after the first assignment: pay is owed in it.',
+    });
   if (changing('blinded')) {
-    refused.push({ field: 'blinded', message: 'Blinding is fixed after the first assignment; close the study or unblind it with a reason.' });
+    refused.push({
+      field: 'blinded',
+      message: 'Blinding is fixed after the first assignment; close the study or unblind it with a reason.',
+    });
   }
   if (changes.budgetMinor !== undefined && changes.budgetMinor < current.budgetMinor) {
-    refused.push({ field: 'budgetMinor', message: 'The budget may be raised but not lowered after the first assignment.' });
+    refused.push({
+      field: 'budgetMinor',
+      message: 'The budget may be raised but not lowered after the first assignment.',
+    });
   }
   if (changes.targetSize !== undefined && changes.targetSize !== null && changes.targetSize < assignedCount) {
     refused.push({

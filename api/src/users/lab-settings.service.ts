@@ -20,7 +20,10 @@ export class LabSettingsService {
       this.dataSource.manager,
       `SELECT two_factor_required_for_admins, updated_at FROM lab_setting WHERE id`,
     );
-    return { twoFactorRequiredForAdmins: row?.two_factor_required_for_admins ?? false, updatedAt: (row?.updated_at ?? new Date(0)).toISOString() };
+    return {
+      twoFactorRequiredForAdmins: row?.two_factor_required_for_admins ?? false,
+      updatedAt: (row?.updated_at ?? new Date(0)).toISOString(),
+    };
   }
 
   /**
@@ -35,11 +38,17 @@ export class LabSettingsService {
       );
       if (current?.two_factor_required_for_admins === body.twoFactorRequiredForAdmins) return;
       if (body.twoFactorRequiredForAdmins) {
-        const [own] = await queryRows<{ on: boolean }>(manager, `SELECT two_factor_enabled_at IS NOT NULL AS on FROM user_account WHERE id = $1`, [actor.id]);
+        const [own] = await queryRows<{ on: boolean }>(
+          manager,
+          `SELECT two_factor_enabled_at IS NOT NULL AS on FROM user_account WHERE id = $1`,
+          [actor.id],
+        );
         if (!own?.on) {
-          throw new DomainException('CONFLICT', 'Turn on two-factor sign-in for your own account first, then require it of every admin.', [
-            { field: 'twoFactorRequiredForAdmins', message: 'needs your own two-factor sign-in turned on first' },
-          ]);
+          throw new DomainException(
+            'CONFLICT',
+            'Turn on two-factor sign-in for your own account first, then require it of every admin.',
+            [{ field: 'twoFactorRequiredForAdmins', message: 'needs your own two-factor sign-in turned on first' }],
+          );
         }
       }
       await manager.query(

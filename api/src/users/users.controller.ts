@@ -3,7 +3,13 @@ import { uuidParam } from '../common/http/uuid-param';
 import { ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
-import { CreateStaffUserDto, ListUsersQueryDto, StaffUserDto, StaffUserPageDto, UpdateStaffUserDto } from './dto/user.dto';
+import {
+  CreateStaffUserDto,
+  ListUsersQueryDto,
+  StaffUserDto,
+  StaffUserPageDto,
+  UpdateStaffUserDto,
+} from './dto/user.dto';
 import { UsersService } from './users.service';
 
 @ApiTags('staff')

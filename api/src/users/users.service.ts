@@ -6,7 +6,13 @@ import { queryRows } from '../database/raw-query';
 import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
 import { DomainException } from '../common/errors/domain.exception';
-import { CreateStaffUserDto, ListUsersQueryDto, StaffUserDto, StaffUserPageDto, UpdateStaffUserDto } from './dto/user.dto';
+import {
+  CreateStaffUserDto,
+  ListUsersQueryDto,
+  StaffUserDto,
+  StaffUserPageDto,
+  UpdateStaffUserDto,
+} from './dto/user.dto';
 import { STAFF_ROLES, UserEntity } from './entities/user.entity';
 
 const BCRYPT_ROUNDS = 10;
@@ -59,9 +65,12 @@ export class UsersService {
   /** A staff member changes their own password; the current one must be given, and the new one must differ. */
   async changeOwnPassword(actor: SessionUser, currentPassword: string, newPassword: string): Promise<void> {
     const user = await this.users.findOne({ where: { id: actor.id } });
-    if (!user || !user.passwordHash || user.role === 'participant') throw new DomainException('FORBIDDEN', 'Only staff accounts have a password.');
+    if (!user || !user.passwordHash || user.role === 'participant')
+      throw new DomainException('FORBIDDEN', 'Only staff accounts have a password.');
     if (!(await bcrypt.compare(currentPassword, user.passwordHash))) {
-      throw new DomainException('VALIDATION_FAILED', 'The current password is not right.', [{ field: 'currentPassword', message: 'is not your current password' }]);
+      throw new DomainException('VALIDATION_FAILED', 'The current password is not right.', [
+        { field: 'currentPassword', message: 'is not your current password' },
+      ]);
     }
     if (currentPassword === newPassword) {
       throw new DomainException('VALIDATION_FAILED', 'Choose a password different from the current one.', [
@@ -71,7 +80,13 @@ export class UsersService {
     const passwordHash = await this.hashPassword(newPassword);
     await this.dataSource.transaction(async (manager) => {
       await manager.update(UserEntity, { id: user.id }, { passwordHash });
-      await this.audit.record(manager, { actor, action: 'user.password-changed', subjectType: 'user', subjectId: user.id, data: { email: user.email } });
+      await this.audit.record(manager, {
+        actor,
+        action: 'user.password-changed',
+        subjectType: 'user',
+        subjectId: user.id,
+        data: { email: user.email },
+      });
     });
   }
 
@@ -79,7 +94,9 @@ export class UsersService {
   async setPasswordFromReset(manager: EntityManager, userId: string, newPassword: string): Promise<void> {
     const passwordHash = await this.hashPassword(newPassword);
     await manager.update(UserEntity, { id: userId }, { passwordHash });
-    await manager.query(`UPDATE refresh_token SET revoked_at = now() WHERE user_id = $1 AND revoked_at IS NULL`, [userId]);
+    await manager.query(`UPDATE refresh_token SET revoked_at = now() WHERE user_id = $1 AND revoked_at IS NULL`, [
+      userId,
+    ]);
   }
 
   async markSignedIn(manager: EntityManager, userId: string): Promise<void> {
@@ -87,7 +104,10 @@ export class UsersService {
   }
 
   /** A participant signs in by e-mailed link; the first use creates the account. */
-  async findOrCreateParticipant(manager: EntityManager, email: string): Promise<{ user: UserEntity; created: boolean }> {
+  async findOrCreateParticipant(
+    manager: EntityManager,
+    email: string,
+  ): Promise<{ user: UserEntity; created: boolean }> {
     const normalized = email.trim().toLowerCase();
     const inserted = await queryRows(
       manager,
@@ -103,7 +123,10 @@ export class UsersService {
       .createQueryBuilder('user')
       .where('user.role IN (:...roles)', { roles: [...STAFF_ROLES] });
     if (query.search?.trim()) {
-      const pattern = `%${query.search.trim().toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+      const pattern = `%${query.search
+        .trim()
+        .toLowerCase()
+        .replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
       builder.andWhere('(lower(user.email) LIKE :pattern OR lower(user.name) LIKE :pattern)', { pattern });
     }
     const [items, total] = await builder
@@ -130,7 +153,13 @@ export class UsersService {
         ]);
       }
       const user = await manager.save(
-        manager.create(UserEntity, { email: input.email, name: input.name, role: input.role, passwordHash, active: true }),
+        manager.create(UserEntity, {
+          email: input.email,
+          name: input.name,
+          role: input.role,
+          passwordHash,
+          active: true,
+        }),
       );
       await this.audit.record(manager, {
         actor,
@@ -167,7 +196,9 @@ export class UsersService {
       if (Object.keys(changes).length === 0) return toStaffUserDto(user);
       const saved = await manager.save(user);
       if (changes.active?.to === false) {
-        await manager.query(`UPDATE refresh_token SET revoked_at = now() WHERE user_id = $1 AND revoked_at IS NULL`, [user.id]);
+        await manager.query(`UPDATE refresh_token SET revoked_at = now() WHERE user_id = $1 AND revoked_at IS NULL`, [
+          user.id,
+        ]);
       }
       await this.audit.record(manager, {
         actor,

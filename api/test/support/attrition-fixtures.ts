@@ -24,13 +24,22 @@ export interface HistoryEntry {
 }
 
 /** Writes enrollments with a set history straight into the tables, as years of roster activity would have left them. */
-export async function insertHistory(testApp: TestApp, studyId: string, entries: HistoryEntry[], tag: string): Promise<string[]> {
+export async function insertHistory(
+  testApp: TestApp,
+  studyId: string,
+  entries: HistoryEntry[],
+  tag: string,
+): Promise<string[]> {
   const db = testApp.dataSource;
   const [{ currency }] = await db.query(`SELECT currency FROM study WHERE id = $1`, [studyId]);
-  const steps: { id: string }[] = await db.query(`SELECT id FROM step WHERE study_id = $1 ORDER BY position`, [studyId]);
+  const steps: { id: string }[] = await db.query(`SELECT id FROM step WHERE study_id = $1 ORDER BY position`, [
+    studyId,
+  ]);
   const ids: string[] = [];
   for (const [i, entry] of entries.entries()) {
-    const [user] = await db.query(`INSERT INTO user_account (email, role) VALUES ($1, 'participant') RETURNING id`, [`${tag}-${i}@example.test`]);
+    const [user] = await db.query(`INSERT INTO user_account (email, role) VALUES ($1, 'participant') RETURNING id`, [
+      `${tag}-${i}@example.test`,
+    ]);
     const assigned = entry.conditionId !== undefined;
     const at = (status: string) => (entry.status === status ? dayOf(entry.endDay ?? 0) : null);
     const [enrollment] = await db.query(
@@ -57,17 +66,26 @@ export async function insertHistory(testApp: TestApp, studyId: string, entries: 
       ],
     );
     for (const step of steps.slice(0, entry.stepsDone ?? 0)) {
-      await db.query(`INSERT INTO step_completion (enrollment_id, step_id, completed_at, verified_by) VALUES ($1, $2, $3, 'staff')`, [
-        enrollment.id,
-        step.id,
-        dayOf(1),
-      ]);
+      await db.query(
+        `INSERT INTO step_completion (enrollment_id, step_id, completed_at, verified_by) VALUES ($1, $2, $3, 'staff')`,
+        [enrollment.id, step.id, dayOf(1)],
+      );
     }
     for (const [j, [amount, status]] of (entry.payouts ?? []).entries()) {
       await db.query(
         `INSERT INTO payout (study_id, enrollment_id, participant_id, condition_id, kind, amount_minor, currency, status, idempotency_key, paid_at)
          VALUES ($1, $2, $3, $4, 'step', $5, $6, $7, $8, $9)`,
-        [studyId, enrollment.id, user.id, entry.conditionId ?? null, amount, currency, status, `${tag}-${i}-${j}`, status === 'paid' ? dayOf(2) : null],
+        [
+          studyId,
+          enrollment.id,
+          user.id,
+          entry.conditionId ?? null,
+          amount,
+          currency,
+          status,
+          `${tag}-${i}-${j}`,
+          status === 'paid' ? dayOf(2) : null,
+        ],
       );
     }
     ids.push(enrollment.id);
@@ -81,11 +99,18 @@ const MAILBOX_URL = process.env.MAILBOX_URL ?? 'http://127.0.0.1:1080';
 export async function mailsTo(address: string, subject: RegExp): Promise<Array<{ subject: string; text: string }>> {
   const response = await fetch(`${MAILBOX_URL}/api/email`);
   const messages = (await response.json()) as Array<{ subject: string; text: string; to: Array<{ address: string }> }>;
-  return messages.filter((m) => m.to.some((to) => to.address.toLowerCase() === address.toLowerCase()) && subject.test(m.subject));
+  return messages.filter(
+    (m) => m.to.some((to) => to.address.toLowerCase() === address.toLowerCase()) && subject.test(m.subject),
+  );
 }
 
 /** Waits until exactly `count` such messages have arrived, then a little longer to catch a surplus one. */
-export async function expectMailCount(address: string, subject: RegExp, count: number, timeoutMs = 20_000): Promise<Array<{ subject: string; text: string }>> {
+export async function expectMailCount(
+  address: string,
+  subject: RegExp,
+  count: number,
+  timeoutMs = 20_000,
+): Promise<Array<{ subject: string; text: string }>> {
   const deadline = Date.now() + timeoutMs;
   let found = await mailsTo(address, subject);
   while (found.length < count && Date.now() < deadline) {
@@ -94,6 +119,7 @@ export async function expectMailCount(address: string, subject: RegExp, count: n
   }
   await new Promise((resolve) => setTimeout(resolve, 1500));
   found = await mailsTo(address, subject);
-  if (found.length !== count) throw new Error(`Expected ${count} e-mail(s) to ${address} matching ${subject}, found ${found.length}`);
+  if (found.length !== count)
+    throw new Error(`Expected ${count} e-mail(s) to ${address} matching ${subject}, found ${found.length}`);
   return found;
 }

@@ -27,15 +27,30 @@ export const TINY_PDF = Buffer.from(
 
 export async function activeConsentVersion(browser: Browser, studyId: string, reference = 'HLREB-2026-031') {
   const draft = await expectStatus(
-    browser.post(`/api/studies/${studyId}/consent-versions`).send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
+    browser
+      .post(`/api/studies/${studyId}/consent-versions`)
+      .send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
     201,
   );
-  await expectStatus(browser.patch(`/api/studies/${studyId}/consent-versions/${draft.id}`).send({ approvalReference: reference, approvedAt: '2026-11-20' }), 200);
-  await expectStatus(browser.post(`/api/studies/${studyId}/consent-versions/${draft.id}/approval-letter`).attach('letter', TINY_PDF, 'approval.pdf'), 200);
+  await expectStatus(
+    browser
+      .patch(`/api/studies/${studyId}/consent-versions/${draft.id}`)
+      .send({ approvalReference: reference, approvedAt: '2026-11-20' }),
+    200,
+  );
+  await expectStatus(
+    browser
+      .post(`/api/studies/${studyId}/consent-versions/${draft.id}/approval-letter`)
+      .attach('letter', TINY_PDF, 'approval.pdf'),
+    200,
+  );
   return expectStatus(browser.post(`/api/studies/${studyId}/consent-versions/${draft.id}/activate`), 200);
 }
 
-export async function signedInParticipant(testApp: TestApp, prefix = 'participant'): Promise<{ browser: Browser; email: string }> {
+export async function signedInParticipant(
+  testApp: TestApp,
+  prefix = 'participant',
+): Promise<{ browser: Browser; email: string }> {
   const email = uniqueAddress(prefix);
   await expectStatus(testApp.browser().post('/api/auth/sign-in-link').send({ email }), 202);
   const token = signInTokenFrom(await waitForMail(email));
@@ -47,6 +62,7 @@ export async function signedInParticipant(testApp: TestApp, prefix = 'participan
 /** What a study needs before it opens besides its design: a paid step (unless it has one) and an active consent form. */
 export async function prepareToOpen(browser: Browser, studyId: string) {
   const steps = await expectStatus(browser.get(`/api/studies/${studyId}/steps`), 200);
-  if (steps.items.length === 0) await expectStatus(browser.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 1000 }), 201);
+  if (steps.items.length === 0)
+    await expectStatus(browser.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 1000 }), 201);
   return activeConsentVersion(browser, studyId);
 }

@@ -16,7 +16,9 @@ export async function waitForMail(recipient: string, timeoutMs = 20_000, subject
     const response = await fetch(`${MAILBOX_URL}/api/email`);
     const messages = (await response.json()) as MailboxMessage[];
     const found = messages.filter(
-      (m) => m.to.some((to) => to.address.toLowerCase() === recipient.toLowerCase()) && (!subject || subject.test(m.subject)),
+      (m) =>
+        m.to.some((to) => to.address.toLowerCase() === recipient.toLowerCase()) &&
+        (!subject || subject.test(m.subject)),
     );
     if (found.length > 0) return found[found.length - 1];
     await new Promise((resolve) => setTimeout(resolve, 250));

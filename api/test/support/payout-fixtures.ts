@@ -10,7 +10,11 @@ export const WEBHOOK_SECRET = 'whsec_evenhand_dev';
 
 /** The provider's SDK as a test drives it, pointed at the stand-in. */
 export function providerClient(): Stripe {
-  return new Stripe('sk_test_evenhand_local', { host: '127.0.0.1', port: Number(process.env.STRIPE_PORT ?? 3200), protocol: 'http' });
+  return new Stripe('sk_test_evenhand_local', {
+    host: '127.0.0.1',
+    port: Number(process.env.STRIPE_PORT ?? 3200),
+    protocol: 'http',
+  });
 }
 
 /** Switches the stand-in's faults (POST) or clears them all (no body). */
@@ -24,7 +28,11 @@ export async function providerFaults(change?: Record<string, unknown>): Promise<
 }
 
 /** Polls until `check` gives something truthy; the deadline is generous because CI machines are busy. */
-export async function eventually<T>(check: () => Promise<T | undefined | false>, what: string, timeoutMs = 60_000): Promise<T> {
+export async function eventually<T>(
+  check: () => Promise<T | undefined | false>,
+  what: string,
+  timeoutMs = 60_000,
+): Promise<T> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const value = await check();
@@ -37,16 +45,27 @@ export async function eventually<T>(check: () => Promise<T | undefined | false>,
 /** A recruiting study with one coded step, and a participant who has signed. */
 export async function studyWithParticipant(testApp: TestApp, coordinator: Browser, name = 'payee') {
   const { studyId } = await draftBetweenStudy(coordinator);
-  const steps = await expectStatus(coordinator.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 1000 }), 201);
+  const steps = await expectStatus(
+    coordinator.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 1000 }),
+    201,
+  );
   const step = steps.items.find((s: { title: string }) => s.title === 'Session 1');
-  await expectStatus(coordinator.put(`/api/studies/${studyId}/steps/${step.id}/completion-code`).send({ code: 'ONE-1111' }), 200);
+  await expectStatus(
+    coordinator.put(`/api/studies/${studyId}/steps/${step.id}/completion-code`).send({ code: 'ONE-1111' }),
+    200,
+  );
   const version = await activeConsentVersion(coordinator, studyId);
   await expectStatus(coordinator.post(`/api/studies/${studyId}/open`), 200);
   const { browser, email } = await signedInParticipant(testApp, name);
   await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
-  await expectStatus(browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 60 } }), 200);
   await expectStatus(
-    browser.post(`/api/studies/${studyId}/enrollments/me/signature`).send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Pat Payee' }),
+    browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 60 } }),
+    200,
+  );
+  await expectStatus(
+    browser
+      .post(`/api/studies/${studyId}/enrollments/me/signature`)
+      .send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Pat Payee' }),
     201,
   );
   const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
@@ -65,21 +84,40 @@ export async function onboard(browser: Browser): Promise<string> {
     body: new URLSearchParams({ full_name: 'Pat Payee', confirmed: 'yes', action: 'complete' }).toString(),
   });
   expect(done.status).toBe(303);
-  await eventually(async () => (await expectStatus(browser.get('/api/me/payout-account'), 200)).payoutsEnabled, 'payouts enabled');
+  await eventually(
+    async () => (await expectStatus(browser.get('/api/me/payout-account'), 200)).payoutsEnabled,
+    'payouts enabled',
+  );
   return url;
 }
 
 /** Funds the study as the admin's card form does: a payment intent confirmed with a test card. */
-export async function fund(coordinator: Browser, provider: Stripe, studyId: string, amountMinor: number): Promise<void> {
+export async function fund(
+  coordinator: Browser,
+  provider: Stripe,
+  studyId: string,
+  amountMinor: number,
+): Promise<void> {
   const intent = await expectStatus(coordinator.post(`/api/studies/${studyId}/funding`).send({ amountMinor }), 201);
   const paymentIntentId = intent.clientSecret.split('_secret_')[0];
   await provider.paymentIntents.confirm(paymentIntentId, { payment_method: 'pm_card_visa' });
-  await eventually(async () => (await expectStatus(coordinator.get(`/api/studies/${studyId}/budget`), 200)).fundedMinor >= amountMinor, 'funding');
+  await eventually(
+    async () => (await expectStatus(coordinator.get(`/api/studies/${studyId}/budget`), 200)).fundedMinor >= amountMinor,
+    'funding',
+  );
 }
 
 /** Owed payouts of 100 minor units each, written straight into the ledger (as a busy study would have them). */
-export async function owedPayouts(testApp: TestApp, studyId: string, enrollmentId: string, count: number): Promise<string[]> {
-  const [{ participant_id: participantId }] = await testApp.dataSource.query(`SELECT participant_id FROM enrollment WHERE id = $1`, [enrollmentId]);
+export async function owedPayouts(
+  testApp: TestApp,
+  studyId: string,
+  enrollmentId: string,
+  count: number,
+): Promise<string[]> {
+  const [{ participant_id: participantId }] = await testApp.dataSource.query(
+    `SELECT participant_id FROM enrollment WHERE id = $1`,
+    [enrollmentId],
+  );
   const rows: Array<{ id: string }> = await testApp.dataSource.query(
     `INSERT INTO payout (id, study_id, enrollment_id, participant_id, kind, amount_minor, currency, idempotency_key)
      SELECT g.id, $1, $2, $3, 'step', 100, 'USD', g.id::text FROM (SELECT gen_random_uuid() AS id FROM generate_series(1, $4::int)) g
@@ -89,6 +127,12 @@ export async function owedPayouts(testApp: TestApp, studyId: string, enrollmentI
   return rows.map((r) => r.id);
 }
 
-export async function payoutStatuses(testApp: TestApp, studyId: string): Promise<Array<{ id: string; status: string; failure_reason: string | null; provider_transfer_id: string | null }>> {
-  return testApp.dataSource.query(`SELECT id, status, failure_reason, provider_transfer_id FROM payout WHERE study_id = $1 ORDER BY id`, [studyId]);
+export async function payoutStatuses(
+  testApp: TestApp,
+  studyId: string,
+): Promise<Array<{ id: string; status: string; failure_reason: string | null; provider_transfer_id: string | null }>> {
+  return testApp.dataSource.query(
+    `SELECT id, status, failure_reason, provider_transfer_id FROM payout WHERE study_id = $1 ORDER BY id`,
+    [studyId],
+  );
 }

@@ -4,9 +4,15 @@ import type { TestApp } from './test-app';
 
 export type Browser = ReturnType<TestApp['browser']>;
 
-export async function signedInStaff(testApp: TestApp, role: 'admin' | 'coordinator' | 'researcher' | 'auditor'): Promise<Browser> {
+export async function signedInStaff(
+  testApp: TestApp,
+  role: 'admin' | 'coordinator' | 'researcher' | 'auditor',
+): Promise<Browser> {
   const browser = testApp.browser();
-  await expectStatus(browser.post('/api/auth/sign-in').send({ email: `${role}@evenhand.test`, password: 'evenhand-demo' }), 200);
+  await expectStatus(
+    browser.post('/api/auth/sign-in').send({ email: `${role}@evenhand.test`, password: 'evenhand-demo' }),
+    200,
+  );
   return browser;
 }
 
@@ -36,7 +42,9 @@ export async function draftBetweenStudy(
   const conditionIds: string[] = [];
   for (const name of options.conditions ?? ['alpha', 'beta']) {
     const condition = await expectStatus(
-      browser.post(`/api/studies/${study.id}/conditions`).send({ internalName: name, participantLabel: `Version ${name}` }),
+      browser
+        .post(`/api/studies/${study.id}/conditions`)
+        .send({ internalName: name, participantLabel: `Version ${name}` }),
       201,
     );
     conditionIds.push(condition.id);
@@ -48,7 +56,9 @@ export async function draftBetweenStudy(
     200,
   );
   await expectStatus(
-    browser.put(`/api/studies/${study.id}/assignment-scheme`).send(options.scheme ?? { method: 'stratified-blocks', blockSizes: [2, 4] }),
+    browser
+      .put(`/api/studies/${study.id}/assignment-scheme`)
+      .send(options.scheme ?? { method: 'stratified-blocks', blockSizes: [2, 4] }),
     200,
   );
   expect(conditionIds.length).toBeGreaterThan(1);
@@ -56,7 +66,11 @@ export async function draftBetweenStudy(
 }
 
 /** Creates participant accounts and enrollments directly, as the roster import will. */
-export async function insertEnrollments(testApp: TestApp, studyId: string, covariates: Array<Record<string, number | string>>): Promise<string[]> {
+export async function insertEnrollments(
+  testApp: TestApp,
+  studyId: string,
+  covariates: Array<Record<string, number | string>>,
+): Promise<string[]> {
   const ids: string[] = [];
   const tag = `${Date.now().toString(36)}${Math.random().toString(36).slice(2, 6)}`;
   for (let i = 0; i < covariates.length; i++) {

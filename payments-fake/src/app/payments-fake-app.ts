@@ -66,7 +66,10 @@ export function worldOptions(options: PaymentsFakeOptions): ProviderWorldOptions
   };
 }
 
-export function createPaymentsFakeApp(world: ProviderWorld, options: { browserScriptFile?: string } = {}): express.Express {
+export function createPaymentsFakeApp(
+  world: ProviderWorld,
+  options: { browserScriptFile?: string } = {},
+): express.Express {
   const app = express();
   app.disable('x-powered-by');
   app.set('etag', false);
@@ -118,7 +121,9 @@ function listen(app: express.Express, host: string, port: number): Promise<Serve
  * restored first; an unreadable file, or one that is not a version 1 snapshot, rejects with a
  * StateFileError naming the file, and the file is left as it is.
  */
-export async function startPaymentsFake(options: PaymentsFakeOptions & { host: string; port: number }): Promise<RunningPaymentsFake> {
+export async function startPaymentsFake(
+  options: PaymentsFakeOptions & { host: string; port: number },
+): Promise<RunningPaymentsFake> {
   const world = new ProviderWorld(worldOptions(options));
   const stateFile = options.stateFile ?? null;
   let restoredSavedAt: string | null = null;

@@ -158,7 +158,10 @@ export function providerApiRouter(world: ProviderWorld, routes: readonly Provide
     res.set('Stripe-Version', req.get('stripe-version') ?? DEFAULT_API_VERSION);
     next();
   });
-  router.use('/v1', browserCors({ methods: 'GET, POST, DELETE', allowHeaders: ALLOWED_HEADERS, exposeHeaders: EXPOSED_HEADERS }));
+  router.use(
+    '/v1',
+    browserCors({ methods: 'GET, POST, DELETE', allowHeaders: ALLOWED_HEADERS, exposeHeaders: EXPOSED_HEADERS }),
+  );
 
   router.use('/v1', express.text({ type: () => true, limit: '1mb' }));
 

@@ -46,12 +46,23 @@ const DEFAULT_CLASSES: Required<Omit<StripeElementClasses, 'webkitAutofill'>> = 
   invalid: 'StripeElement--invalid',
 };
 
-const FIELD_SPECS: Record<CardField, { label: string; autocomplete: string; placeholder: string; inputMode: string }> = {
-  number: { label: 'Card number', autocomplete: 'cc-number', placeholder: 'The long number on the card', inputMode: 'numeric' },
-  expiry: { label: 'Expiry date (MM/YY)', autocomplete: 'cc-exp', placeholder: 'month/year', inputMode: 'numeric' },
-  cvc: { label: 'Security code (CVC)', autocomplete: 'cc-csc', placeholder: '3 or 4 digits', inputMode: 'numeric' },
-  postalCode: { label: 'Postal code', autocomplete: 'postal-code', placeholder: 'Of the card’s bill', inputMode: 'text' },
-};
+const FIELD_SPECS: Record<CardField, { label: string; autocomplete: string; placeholder: string; inputMode: string }> =
+  {
+    number: {
+      label: 'Card number',
+      autocomplete: 'cc-number',
+      placeholder: 'The long number on the card',
+      inputMode: 'numeric',
+    },
+    expiry: { label: 'Expiry date (MM/YY)', autocomplete: 'cc-exp', placeholder: 'month/year', inputMode: 'numeric' },
+    cvc: { label: 'Security code (CVC)', autocomplete: 'cc-csc', placeholder: '3 or 4 digits', inputMode: 'numeric' },
+    postalCode: {
+      label: 'Postal code',
+      autocomplete: 'postal-code',
+      placeholder: 'Of the card’s bill',
+      inputMode: 'text',
+    },
+  };
 
 // appearance.variables (https://docs.stripe.com/elements/appearance-api) → our custom properties.
 const APPEARANCE_VARIABLES: Record<string, string> = {
@@ -97,7 +108,11 @@ export class CardElementStandIn implements StripeCardElement {
   #destroyed = false;
   #lastChange: StripeCardElementChangeEvent | undefined;
 
-  constructor(options: StripeCardElementOptions | undefined, appearance: Appearance | undefined, onDestroy: () => void) {
+  constructor(
+    options: StripeCardElementOptions | undefined,
+    appearance: Appearance | undefined,
+    onDestroy: () => void,
+  ) {
     this.#options = { ...options };
     this.#appearance = appearance;
     this.#onDestroy = onDestroy;
@@ -137,10 +152,13 @@ export class CardElementStandIn implements StripeCardElement {
 
   mount(domElement: string | HTMLElement): void {
     this.#assertUsable('mount');
-    if (this.#mountNode) throw new IntegrationError('This card element is already mounted. Call unmount() before mounting it again.');
+    if (this.#mountNode)
+      throw new IntegrationError('This card element is already mounted. Call unmount() before mounting it again.');
     const node = typeof domElement === 'string' ? document.querySelector(domElement) : domElement;
     if (typeof domElement === 'string' && !node) {
-      throw new IntegrationError(`The selector ${domElement} matches no element on the page, so the card element cannot be mounted.`);
+      throw new IntegrationError(
+        `The selector ${domElement} matches no element on the page, so the card element cannot be mounted.`,
+      );
     }
     if (!(node instanceof HTMLElement)) throw new IntegrationError('mount() takes a CSS selector or a DOM element.');
     ensureStyles(node.ownerDocument);
@@ -224,7 +242,8 @@ export class CardElementStandIn implements StripeCardElement {
   }
 
   #assertUsable(method: string): void {
-    if (this.#destroyed) throw new IntegrationError(`This card element was destroyed; ${method}() cannot be used. Create a new element.`);
+    if (this.#destroyed)
+      throw new IntegrationError(`This card element was destroyed; ${method}() cannot be used. Create a new element.`);
   }
 
   #postalCodeShown(): boolean {
@@ -373,7 +392,8 @@ export class CardElementStandIn implements StripeCardElement {
       const digitsBefore = digitsOf(raw.slice(0, caret)).length;
       const padded = Math.max(0, digitsOf(formatted).length - digitsOf(raw).length);
       input.value = formatted;
-      const position = name === 'postalCode' ? Math.min(caret, formatted.length) : caretAfterDigits(formatted, digitsBefore + padded);
+      const position =
+        name === 'postalCode' ? Math.min(caret, formatted.length) : caretAfterDigits(formatted, digitsBefore + padded);
       input.setSelectionRange(position, position);
     }
     this.#entry[name] = formatted;

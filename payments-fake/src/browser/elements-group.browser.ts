@@ -21,9 +21,14 @@ export class ElementsGroupStandIn {
 
   create(elementType: string, options?: StripeCardElementOptions): CardElementStandIn {
     if (elementType !== 'card') {
-      throw new IntegrationError(`The payments stand-in offers only the 'card' element; '${elementType}' is not available.`);
+      throw new IntegrationError(
+        `The payments stand-in offers only the 'card' element; '${elementType}' is not available.`,
+      );
     }
-    if (this.#card) throw new IntegrationError("This elements() group already has a card element. Use getElement('card') or destroy() it first.");
+    if (this.#card)
+      throw new IntegrationError(
+        "This elements() group already has a card element. Use getElement('card') or destroy() it first.",
+      );
     const card = new CardElementStandIn(options, this.#appearance, () => {
       if (this.#card === card) this.#card = undefined;
     });

@@ -4,7 +4,11 @@ import { encodeForm } from './form-encoding';
 
 describe('encodeForm', () => {
   it('writes nested hashes and lists with bracket keys, percent-encoded', () => {
-    const body = encodeForm({ client_secret: 'pi_1_secret_2', payment_method_data: { type: 'card', card: { exp_month: 12 } }, expand: ['payment_method'] });
+    const body = encodeForm({
+      client_secret: 'pi_1_secret_2',
+      payment_method_data: { type: 'card', card: { exp_month: 12 } },
+      expand: ['payment_method'],
+    });
     expect(body).toBe(
       'client_secret=pi_1_secret_2&payment_method_data%5Btype%5D=card&payment_method_data%5Bcard%5D%5Bexp_month%5D=12&expand%5B0%5D=payment_method',
     );

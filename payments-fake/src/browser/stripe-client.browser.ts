@@ -45,7 +45,9 @@ const SUPPORTED_DATA = ['payment_method', 'receipt_email', 'return_url'];
 function paymentIntentId(clientSecret: unknown, method: string): string {
   const match = typeof clientSecret === 'string' ? /^(pi_[A-Za-z0-9]+)_secret_[A-Za-z0-9]+$/.exec(clientSecret) : null;
   if (!match) {
-    throw new IntegrationError(`${method}() needs the PaymentIntent's client_secret, of the form pi_…_secret_…; it got ${JSON.stringify(clientSecret)}.`);
+    throw new IntegrationError(
+      `${method}() needs the PaymentIntent's client_secret, of the form pi_…_secret_…; it got ${JSON.stringify(clientSecret)}.`,
+    );
   }
   return match[1] as string;
 }
@@ -69,13 +71,23 @@ export function createStripeClient(apiOrigin: string, publishableKey: string, op
         cache: 'no-store',
       });
     } catch {
-      return { error: { type: 'api_connection_error', message: `Could not reach the payments stand-in at ${apiOrigin}. Is it running?` } };
+      return {
+        error: {
+          type: 'api_connection_error',
+          message: `Could not reach the payments stand-in at ${apiOrigin}. Is it running?`,
+        },
+      };
     }
     const body: unknown = await response.json().catch(() => undefined);
     if (response.ok) return { body };
     const error = (body as { error?: StripeError } | undefined)?.error;
     if (error && typeof error === 'object' && typeof error.type === 'string') return { error };
-    return { error: { type: 'api_error', message: `The payments stand-in answered ${response.status} without an error object.` } };
+    return {
+      error: {
+        type: 'api_error',
+        message: `The payments stand-in answered ${response.status} without an error object.`,
+      },
+    };
   }
 
   function intentResult(answer: ProviderAnswer): PaymentIntentResult {
@@ -88,11 +100,15 @@ export function createStripeClient(apiOrigin: string, publishableKey: string, op
     if (typeof paymentMethod === 'string') return { params: { payment_method: paymentMethod } };
     const { card, billing_details: billingDetails, ...rest } = paymentMethod;
     const unsupported = Object.keys(rest);
-    if (unsupported.length > 0) throw new IntegrationError(`payment_method.${unsupported[0]} is not supported by the payments stand-in.`);
+    if (unsupported.length > 0)
+      throw new IntegrationError(`payment_method.${unsupported[0]} is not supported by the payments stand-in.`);
     const typed = CardElementStandIn.typedCard(card, new Date());
-    if (!typed) throw new IntegrationError('payment_method.card must be the card element made by elements().create("card").');
+    if (!typed)
+      throw new IntegrationError('payment_method.card must be the card element made by elements().create("card").');
     if (!CardElementStandIn.isMounted(card as CardElementStandIn)) {
-      throw new IntegrationError('The card element must be mounted when you confirm, so the payer can see what they typed.');
+      throw new IntegrationError(
+        'The card element must be mounted when you confirm, so the payer can see what they typed.',
+      );
     }
     if (typed.check.firstProblem) {
       CardElementStandIn.revealProblems(card as CardElementStandIn);
@@ -121,7 +137,9 @@ export function createStripeClient(apiOrigin: string, publishableKey: string, op
     const id = paymentIntentId(clientSecret, 'confirmCardPayment');
     const unsupported = Object.keys(data).filter((key) => !SUPPORTED_DATA.includes(key));
     if (unsupported.length > 0) {
-      throw new IntegrationError(`confirmCardPayment() data.${unsupported[0]} is not supported by the payments stand-in (it takes ${SUPPORTED_DATA.join(', ')}).`);
+      throw new IntegrationError(
+        `confirmCardPayment() data.${unsupported[0]} is not supported by the payments stand-in (it takes ${SUPPORTED_DATA.join(', ')}).`,
+      );
     }
     const method = paymentMethodParams(data.payment_method);
     if (method.error) return Promise.resolve({ error: method.error });

@@ -15,7 +15,9 @@ const RELEASE_TRAIN: ReleaseTrain = 'endive';
 function scriptOrigin(): string {
   const script = document.currentScript;
   if (script instanceof HTMLScriptElement && script.src) return new URL(script.src).origin;
-  throw new Error('payments-fake: include stripe.js with <script src="http://127.0.0.1:3200/v1/stripe.js">, so it knows where the stand-in runs.');
+  throw new Error(
+    'payments-fake: include stripe.js with <script src="http://127.0.0.1:3200/v1/stripe.js">, so it knows where the stand-in runs.',
+  );
 }
 
 const apiOrigin = scriptOrigin();
@@ -25,10 +27,14 @@ function Stripe(publishableKey: unknown, options?: StripeConstructorOptions) {
     throw new IntegrationError('Stripe() needs your publishable key (pk_test_…) as its first argument.');
   }
   if (publishableKey.startsWith('sk_') || publishableKey.startsWith('rk_')) {
-    throw new IntegrationError('Stripe() was given a secret key. The browser takes the publishable key (pk_test_…); keep secret keys on the server.');
+    throw new IntegrationError(
+      'Stripe() was given a secret key. The browser takes the publishable key (pk_test_…); keep secret keys on the server.',
+    );
   }
   if (!publishableKey.startsWith('pk_test_')) {
-    throw new IntegrationError('The payments stand-in holds test data only: Stripe() takes a pk_test_… publishable key.');
+    throw new IntegrationError(
+      'The payments stand-in holds test data only: Stripe() takes a pk_test_… publishable key.',
+    );
   }
   if (options !== undefined && (typeof options !== 'object' || options === null)) {
     throw new IntegrationError('Stripe() options must be an object, e.g. { apiVersion } or { stripeAccount }.');

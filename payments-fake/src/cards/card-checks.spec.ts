@@ -103,10 +103,16 @@ describe('expiry', () => {
   it('reads MM/YY while typing', () => {
     expect(checkExpiry('', midMarch2026).status).toBe('empty');
     expect(checkExpiry('0', midMarch2026).status).toBe('incomplete');
-    expect(checkExpiry('13', midMarch2026)).toMatchObject({ status: 'invalid', problem: { code: 'invalid_expiry_month' } });
+    expect(checkExpiry('13', midMarch2026)).toMatchObject({
+      status: 'invalid',
+      problem: { code: 'invalid_expiry_month' },
+    });
     expect(checkExpiry('03/2', midMarch2026).status).toBe('incomplete');
     expect(checkExpiry('03/26', midMarch2026)).toEqual({ status: 'complete' });
-    expect(checkExpiry('02/26', midMarch2026)).toMatchObject({ status: 'invalid', problem: { code: 'invalid_expiry_month_past' } });
+    expect(checkExpiry('02/26', midMarch2026)).toMatchObject({
+      status: 'invalid',
+      problem: { code: 'invalid_expiry_month_past' },
+    });
     expect(checkExpiry('12 / 30', midMarch2026)).toEqual({ status: 'complete' });
   });
 });
@@ -140,7 +146,11 @@ describe('checkCardEntry', () => {
   const good = { number: '4242 4242 4242 4242', expiry: '12/30', cvc: '123', postalCode: '12345' };
 
   it('is complete when every shown field is, and empty when nothing is typed', () => {
-    expect(checkCardEntry(good, { now, postalCodeShown: true })).toMatchObject({ complete: true, empty: false, brand: 'visa' });
+    expect(checkCardEntry(good, { now, postalCodeShown: true })).toMatchObject({
+      complete: true,
+      empty: false,
+      brand: 'visa',
+    });
     const blank = checkCardEntry({ number: '', expiry: '', cvc: '', postalCode: '' }, { now, postalCodeShown: true });
     expect(blank).toMatchObject({ complete: false, empty: true, firstProblem: { code: 'incomplete_number' } });
   });

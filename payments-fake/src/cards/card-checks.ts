@@ -99,7 +99,8 @@ export function checkCardNumber(text: string): FieldCheck {
   if (digits.length === 0) return { status: 'empty', problem: cardProblem('incomplete_number') };
   const length = cardNumberLength(cardBrand(digits));
   if (digits.length < length) return { status: 'incomplete', problem: cardProblem('incomplete_number') };
-  if (digits.length > length || !passesLuhn(digits)) return { status: 'invalid', problem: cardProblem('invalid_number') };
+  if (digits.length > length || !passesLuhn(digits))
+    return { status: 'invalid', problem: cardProblem('invalid_number') };
   return { status: 'complete' };
 }
 
@@ -159,7 +160,8 @@ export function checkPostalCode(text: string): FieldCheck {
   const value = text.trim();
   if (value.length === 0) return { status: 'empty', problem: cardProblem('incomplete_zip') };
   if (value.length < 3) return { status: 'incomplete', problem: cardProblem('incomplete_zip') };
-  if (value.length > 10 || !/^[A-Za-z0-9 -]+$/.test(value)) return { status: 'invalid', problem: cardProblem('incomplete_zip') };
+  if (value.length > 10 || !/^[A-Za-z0-9 -]+$/.test(value))
+    return { status: 'invalid', problem: cardProblem('incomplete_zip') };
   return { status: 'complete' };
 }
 
@@ -213,7 +215,8 @@ export function visibleProblem(
     const fieldCheck = check.fields[field];
     if (!fieldCheck.problem) continue;
     if (fieldCheck.status === 'invalid') return { field, problem: fieldCheck.problem };
-    if (fieldCheck.status === 'incomplete' && left.has(field) && focused !== field) return { field, problem: fieldCheck.problem };
+    if (fieldCheck.status === 'incomplete' && left.has(field) && focused !== field)
+      return { field, problem: fieldCheck.problem };
   }
   return undefined;
 }

@@ -18,7 +18,9 @@ describe('readConfig', () => {
 
   it('keeps the state in memory unless a state file is named, and makes its path absolute', () => {
     expect(readConfig({ PAYMENTS_FAKE_STATE_FILE: '  ' }).stateFile).toBeNull();
-    expect(readConfig({ PAYMENTS_FAKE_STATE_FILE: '/srv/evenhand/payments-state.json' }).stateFile).toBe('/srv/evenhand/payments-state.json');
+    expect(readConfig({ PAYMENTS_FAKE_STATE_FILE: '/srv/evenhand/payments-state.json' }).stateFile).toBe(
+      '/srv/evenhand/payments-state.json',
+    );
     expect(readConfig({ PAYMENTS_FAKE_STATE_FILE: '.local/payments-state.json' }).stateFile).toBe(
       path.join(process.cwd(), '.local/payments-state.json'),
     );
@@ -26,7 +28,9 @@ describe('readConfig', () => {
 
   it('follows the port in hosted links unless a public URL is given', () => {
     expect(readConfig({ PAYMENTS_FAKE_PORT: '3299' }).publicUrl).toBe('http://127.0.0.1:3299');
-    expect(readConfig({ PAYMENTS_FAKE_PUBLIC_URL: 'https://pay.example.test/' }).publicUrl).toBe('https://pay.example.test');
+    expect(readConfig({ PAYMENTS_FAKE_PUBLIC_URL: 'https://pay.example.test/' }).publicUrl).toBe(
+      'https://pay.example.test',
+    );
   });
 
   it('turns webhook delivery off with "off"', () => {

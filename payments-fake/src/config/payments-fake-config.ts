@@ -86,7 +86,10 @@ export function readConfig(env: NodeJS.ProcessEnv): PaymentsFakeConfig {
   if (/[\s/]/.test(host)) throw new ConfigError('PAYMENTS_FAKE_HOST', `must be a host name or address, got '${host}'`);
   const port = readInteger(env, 'PAYMENTS_FAKE_PORT', 0, 65535);
   const linkHost = host === '0.0.0.0' || host === '::' ? '127.0.0.1' : host.includes(':') ? `[${host}]` : host;
-  const publicUrl = read(env, 'PAYMENTS_FAKE_PUBLIC_URL') === '' ? `http://${linkHost}:${port}` : readHttpUrl(env, 'PAYMENTS_FAKE_PUBLIC_URL');
+  const publicUrl =
+    read(env, 'PAYMENTS_FAKE_PUBLIC_URL') === ''
+      ? `http://${linkHost}:${port}`
+      : readHttpUrl(env, 'PAYMENTS_FAKE_PUBLIC_URL');
   return {
     port,
     host,

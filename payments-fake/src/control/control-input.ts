@@ -22,7 +22,8 @@ export function asObject(value: unknown, field: string): JsonObject {
 
 export function refuseUnknownFields(body: JsonObject, known: readonly string[], prefix = ''): void {
   for (const key of Object.keys(body)) {
-    if (!known.includes(key)) throw new ControlInputError(prefix + key, `is not a known field (known: ${known.join(', ')})`);
+    if (!known.includes(key))
+      throw new ControlInputError(prefix + key, `is not a known field (known: ${known.join(', ')})`);
   }
 }
 
@@ -37,9 +38,12 @@ export function readInteger(
     if (options.required) throw new ControlInputError(label, 'is required');
     return undefined;
   }
-  if (typeof value !== 'number' || !Number.isSafeInteger(value)) throw new ControlInputError(label, 'must be an integer');
-  if (options.min !== undefined && value < options.min) throw new ControlInputError(label, `must be at least ${options.min}`);
-  if (options.max !== undefined && value > options.max) throw new ControlInputError(label, `must be at most ${options.max}`);
+  if (typeof value !== 'number' || !Number.isSafeInteger(value))
+    throw new ControlInputError(label, 'must be an integer');
+  if (options.min !== undefined && value < options.min)
+    throw new ControlInputError(label, `must be at least ${options.min}`);
+  if (options.max !== undefined && value > options.max)
+    throw new ControlInputError(label, `must be at most ${options.max}`);
   return value;
 }
 

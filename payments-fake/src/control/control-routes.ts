@@ -26,7 +26,13 @@ export function controlRouter(world: ProviderWorld): express.Router {
     const body = asObject(req.body ?? {}, 'body');
     refuseUnknownFields(body, ['amount', 'currency', 'account']);
     const amount = readInteger(body, 'amount', { required: true, min: 0 }) as number;
-    const currency = (readString(body, 'currency', { required: true, pattern: /^[A-Za-z]{3}$/, patternText: 'a three-letter currency code' }) as string).toLowerCase();
+    const currency = (
+      readString(body, 'currency', {
+        required: true,
+        pattern: /^[A-Za-z]{3}$/,
+        patternText: 'a three-letter currency code',
+      }) as string
+    ).toLowerCase();
     const accountId = readString(body, 'account') ?? world.platformAccountId;
     if (accountId !== world.platformAccountId && !world.accounts.get(accountId)) {
       throw new ControlInputError('account', `no connected account ${accountId}`);
@@ -70,7 +76,11 @@ export function controlRouter(world: ProviderWorld): express.Router {
   router.post('/payouts/:id/fail', (req, res) => {
     const body = asObject(req.body ?? {}, 'body');
     refuseUnknownFields(body, ['failureCode']);
-    const failureCode = readString(body, 'failureCode', { pattern: /^[a-z_]+$/, patternText: 'a lower-case code such as account_closed' }) ?? 'account_closed';
+    const failureCode =
+      readString(body, 'failureCode', {
+        pattern: /^[a-z_]+$/,
+        patternText: 'a lower-case code such as account_closed',
+      }) ?? 'account_closed';
     const payout = failPayout(world, req.params.id as string, failureCode);
     if (!payout) {
       controlError(res, 404, `No pending payout ${req.params.id}`, 'id');

@@ -116,7 +116,13 @@ describe('round trip through the official SDK encoder', () => {
   );
 
   it('decodes nested hashes, lists, numbers, booleans and unicode sent by the SDK', async () => {
-    const stripe = new Stripe('sk_test_encoder', { host: '127.0.0.1', port, protocol: 'http', maxNetworkRetries: 0, telemetry: false });
+    const stripe = new Stripe('sk_test_encoder', {
+      host: '127.0.0.1',
+      port,
+      protocol: 'http',
+      maxNetworkRetries: 0,
+      telemetry: false,
+    });
     await stripe.accounts.create({
       type: 'express',
       email: 'p+tag@evenhand.test',

@@ -92,7 +92,8 @@ function assignPath(root: FormObject, segments: string[], value: string, key: st
       child = isIndex(nextSegment as string) ? [] : {};
       container[segment] = child;
     }
-    if (typeof child === 'string') throw new FormBodyError(`the key '${key}' is sent both as a value and as a hash`, key);
+    if (typeof child === 'string')
+      throw new FormBodyError(`the key '${key}' is sent both as a value and as a hash`, key);
     if (Array.isArray(child) && !isIndex(nextSegment as string)) {
       // `a[0]=x&a[name]=y`: the list turns out to be a hash keyed by its indices.
       const asObject: FormObject = {};

@@ -43,7 +43,9 @@ describe('ParamReader', () => {
     expect(failure(() => reader('amount=abc').integer('amount')).body.code).toBe('parameter_invalid_integer');
     expect(failure(() => reader('amount=0').integer('amount', { min: 1 })).body.param).toBe('amount');
     expect(failure(() => reader('limit=101').integer('limit', { max: 100 })).body.param).toBe('limit');
-    expect(failure(() => reader('amount=99999999999999999999').integer('amount')).body.code).toBe('parameter_invalid_integer');
+    expect(failure(() => reader('amount=99999999999999999999').integer('amount')).body.code).toBe(
+      'parameter_invalid_integer',
+    );
   });
 
   it('treats an empty string as an attempt to unset (parameter_invalid_empty unless nullable)', () => {
@@ -56,11 +58,16 @@ describe('ParamReader', () => {
     expect(failure(() => reader('type=premium').oneOf('type', ['express', 'custom'] as const)).body.param).toBe('type');
     expect(failure(() => reader('currency=dollars').currency('currency')).body.param).toBe('currency');
     expect(failure(() => reader('country=USA').country('country')).body.param).toBe('country');
-    expect(failure(() => reader('email=nobody').email('email')).body).toMatchObject({ code: 'email_invalid', param: 'email' });
+    expect(failure(() => reader('email=nobody').email('email')).body).toMatchObject({
+      code: 'email_invalid',
+      param: 'email',
+    });
   });
 
   it('accepts only absolute http(s) URLs where a URL is expected', () => {
-    expect(reader('return_url=http%3A%2F%2F127.0.0.1%3A5173%2Fdone').url('return_url')).toBe('http://127.0.0.1:5173/done');
+    expect(reader('return_url=http%3A%2F%2F127.0.0.1%3A5173%2Fdone').url('return_url')).toBe(
+      'http://127.0.0.1:5173/done',
+    );
     expect(failure(() => reader('return_url=%2Fdone').url('return_url')).body.code).toBe('url_invalid');
     expect(failure(() => reader('return_url=javascript%3Aalert(1)').url('return_url')).body.code).toBe('url_invalid');
   });
@@ -107,12 +114,16 @@ describe('metadata', () => {
     expect(METADATA_LIMITS).toEqual({ keys: 50, keyLength: 40, valueLength: 500 });
     const key40 = 'k'.repeat(40);
     expect(reader(`metadata[${key40}]=v`).metadata()?.set).toEqual({ [key40]: 'v' });
-    expect(failure(() => reader(`metadata[${'k'.repeat(41)}]=v`).metadata()).body.param).toBe(`metadata[${'k'.repeat(41)}]`);
+    expect(failure(() => reader(`metadata[${'k'.repeat(41)}]=v`).metadata()).body.param).toBe(
+      `metadata[${'k'.repeat(41)}]`,
+    );
     expect(reader(`metadata[k]=${'v'.repeat(500)}`).metadata()?.set.k).toHaveLength(500);
     expect(failure(() => reader(`metadata[k]=${'v'.repeat(501)}`).metadata()).body.param).toBe('metadata[k]');
     const fifty = Object.fromEntries(Array.from({ length: 50 }, (_, i) => [`k${i}`, 'v']));
     expect(Object.keys(applyMetadataChange(fifty, undefined))).toHaveLength(50);
-    expect(failure(() => applyMetadataChange(fifty, { clearAll: false, set: { extra: 'v' }, unset: [] })).body.param).toBe('metadata');
+    expect(
+      failure(() => applyMetadataChange(fifty, { clearAll: false, set: { extra: 'v' }, unset: [] })).body.param,
+    ).toBe('metadata');
   });
 
   it('refuses a nested value inside metadata', () => {

@@ -109,8 +109,10 @@ export class ParamReader {
       throw providerErrors.invalidInteger(this.nameOf(name), value);
     }
     const number = Number(value);
-    if (options.min !== undefined && number < options.min) throw providerErrors.integerTooSmall(this.nameOf(name), options.min);
-    if (options.max !== undefined && number > options.max) throw providerErrors.integerTooLarge(this.nameOf(name), options.max);
+    if (options.min !== undefined && number < options.min)
+      throw providerErrors.integerTooSmall(this.nameOf(name), options.min);
+    if (options.max !== undefined && number > options.max)
+      throw providerErrors.integerTooLarge(this.nameOf(name), options.max);
     return number;
   }
 
@@ -164,7 +166,8 @@ export class ParamReader {
     } catch {
       throw providerErrors.invalidUrl(this.nameOf(name), value);
     }
-    if (parsed.protocol !== 'http:' && parsed.protocol !== 'https:') throw providerErrors.invalidUrl(this.nameOf(name), value);
+    if (parsed.protocol !== 'http:' && parsed.protocol !== 'https:')
+      throw providerErrors.invalidUrl(this.nameOf(name), value);
     return value;
   }
 
@@ -213,12 +216,19 @@ export class ParamReader {
     }
     for (const [key, entry] of entries) {
       const entryParam = paramName([...this.path, name, key]);
-      if (typeof entry !== 'string') throw providerErrors.metadataProblem(entryParam, `Metadata values must be strings (${entryParam}).`);
+      if (typeof entry !== 'string')
+        throw providerErrors.metadataProblem(entryParam, `Metadata values must be strings (${entryParam}).`);
       if (key.length > METADATA_LIMITS.keyLength) {
-        throw providerErrors.metadataProblem(entryParam, `Metadata keys can be at most ${METADATA_LIMITS.keyLength} characters long.`);
+        throw providerErrors.metadataProblem(
+          entryParam,
+          `Metadata keys can be at most ${METADATA_LIMITS.keyLength} characters long.`,
+        );
       }
       if (entry.length > METADATA_LIMITS.valueLength) {
-        throw providerErrors.metadataProblem(entryParam, `Metadata values can be at most ${METADATA_LIMITS.valueLength} characters long.`);
+        throw providerErrors.metadataProblem(
+          entryParam,
+          `Metadata values can be at most ${METADATA_LIMITS.valueLength} characters long.`,
+        );
       }
       if (entry === '') change.unset.push(key);
       else change.set[key] = entry;

@@ -110,9 +110,11 @@ export const providerErrors = {
 
   malformedBody: (detail: string) => invalidRequest(400, `Invalid request body: ${detail}`, {}, { storable: false }),
 
-  parameterMissing: (param: string) => parameterProblem(`Missing required param: ${param}.`, param, 'parameter_missing'),
+  parameterMissing: (param: string) =>
+    parameterProblem(`Missing required param: ${param}.`, param, 'parameter_missing'),
 
-  parameterUnknown: (param: string) => parameterProblem(`Received unknown parameter: ${param}`, param, 'parameter_unknown'),
+  parameterUnknown: (param: string) =>
+    parameterProblem(`Received unknown parameter: ${param}`, param, 'parameter_unknown'),
 
   parameterEmpty: (param: string) =>
     parameterProblem(
@@ -135,7 +137,8 @@ export const providerErrors = {
 
   invalidString: (param: string) => parameterProblem(`Invalid string: ${param} must be a single text value.`, param),
 
-  invalidObject: (param: string) => parameterProblem(`Invalid object: ${param} must be a hash of keys and values.`, param),
+  invalidObject: (param: string) =>
+    parameterProblem(`Invalid object: ${param} must be a hash of keys and values.`, param),
 
   invalidArray: (param: string) => parameterProblem(`Invalid array: ${param} must be a list of values.`, param),
 
@@ -146,7 +149,10 @@ export const providerErrors = {
     parameterProblem(`Invalid ${param}: must be one of ${allowed.join(', ')}`, param),
 
   invalidCurrency: (param: string, value: string) =>
-    parameterProblem(`Invalid currency: ${value}. Send a three-letter ISO 4217 code in lower case, such as usd.`, param),
+    parameterProblem(
+      `Invalid currency: ${value}. Send a three-letter ISO 4217 code in lower case, such as usd.`,
+      param,
+    ),
 
   invalidCountry: (param: string, value: string) =>
     parameterProblem(`Country '${value}' is unknown. Send a two-letter ISO 3166-1 code such as 'US' or 'GB'.`, param),
@@ -154,16 +160,17 @@ export const providerErrors = {
   invalidEmail: (param: string, value: string) =>
     parameterProblem(`Invalid email address: ${value}`, param, 'email_invalid'),
 
-  invalidUrl: (param: string, value: string) =>
-    parameterProblem(`Not a valid URL: ${value}`, param, 'url_invalid'),
+  invalidUrl: (param: string, value: string) => parameterProblem(`Not a valid URL: ${value}`, param, 'url_invalid'),
 
   metadataProblem: (param: string, message: string) => parameterProblem(message, param),
 
   parametersExclusive: (params: readonly string[]) =>
-    parameterProblem(`You may only specify one of these parameters: ${params.join(', ')}.`, params[params.length - 1] ?? ''),
+    parameterProblem(
+      `You may only specify one of these parameters: ${params.join(', ')}.`,
+      params[params.length - 1] ?? '',
+    ),
 
-  notExpandable: (path: string) =>
-    parameterProblem(`This property cannot be expanded (${path}).`, 'expand'),
+  notExpandable: (path: string) => parameterProblem(`This property cannot be expanded (${path}).`, 'expand'),
 
   resourceMissing: (objectName: string, id: string, param = 'id') =>
     invalidRequest(404, `No such ${objectName}: '${id}'`, { code: 'resource_missing', param }),
@@ -208,16 +215,18 @@ export const providerErrors = {
     }),
 
   transferReversalTooLarge: (available: number) =>
-    invalidRequest(
-      400,
-      `The reversal amount is larger than what remains of the transfer (${available}).`,
-      { code: 'parameter_invalid_integer', param: 'amount' },
-    ),
+    invalidRequest(400, `The reversal amount is larger than what remains of the transfer (${available}).`, {
+      code: 'parameter_invalid_integer',
+      param: 'amount',
+    }),
 
   unexpectedState: (message: string, code: string, param?: string) => invalidRequest(400, message, { code, param }),
 
   onlyOnPlatform: () =>
-    invalidRequest(400, 'This request is made by the platform account and cannot be sent with a Stripe-Account header.'),
+    invalidRequest(
+      400,
+      'This request is made by the platform account and cannot be sent with a Stripe-Account header.',
+    ),
 
   idempotencyParamsMismatch: (key: string) =>
     new ProviderError(

@@ -26,7 +26,10 @@ describe('FaultSwitches', () => {
     const faults = new FaultSwitches();
     faults.apply(readFaultChange({ latencyMs: 50, webhook: { duplicate: true } }));
     faults.apply(readFaultChange({ webhook: { delayMs: 10 } }));
-    expect(faults.settings()).toMatchObject({ latencyMs: 50, webhook: { duplicate: true, delayMs: 10, reorder: false } });
+    expect(faults.settings()).toMatchObject({
+      latencyMs: 50,
+      webhook: { duplicate: true, delayMs: 10, reorder: false },
+    });
     faults.clear();
     expect(faults.settings()).toEqual({
       latencyMs: 0,

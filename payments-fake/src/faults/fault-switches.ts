@@ -42,7 +42,9 @@ function noFaults(): FaultSettings {
 }
 
 /** Validates a POST /_control/faults body; fields left out keep their current setting. */
-export function readFaultChange(input: unknown): Partial<Omit<FaultSettings, 'webhook'>> & { webhook?: Partial<WebhookFaults> } {
+export function readFaultChange(
+  input: unknown,
+): Partial<Omit<FaultSettings, 'webhook'>> & { webhook?: Partial<WebhookFaults> } {
   const body = asObject(input, 'body');
   refuseUnknownFields(body, ['latencyMs', 'failNext', 'dropConnectionNext', 'dropResponseNext', 'webhook']);
   const change: ReturnType<typeof readFaultChange> = {};

@@ -24,7 +24,11 @@ export function browserScriptRouter(scriptFile = BROWSER_SCRIPT_FILE): express.R
     } catch {
       const message = `payments-fake: the browser script is not built (${scriptFile} is missing). Run: npm run build -w payments-fake`;
       console.error(message);
-      res.status(503).type('text/javascript; charset=utf-8').set('Cache-Control', 'no-store').send(`throw new Error(${JSON.stringify(message)});\n`);
+      res
+        .status(503)
+        .type('text/javascript; charset=utf-8')
+        .set('Cache-Control', 'no-store')
+        .send(`throw new Error(${JSON.stringify(message)});\n`);
       return;
     }
     res

@@ -47,7 +47,10 @@ describe('renderOnboardingPage', () => {
   });
 
   it('shows errors in an alert and marks the fields invalid', () => {
-    const html = renderOnboardingPage({ ...input, errors: { fullName: 'Name on your bank account: write your name.' } });
+    const html = renderOnboardingPage({
+      ...input,
+      errors: { fullName: 'Name on your bank account: write your name.' },
+    });
     expect(html).toContain('role="alert"');
     expect(html).toContain('aria-invalid="true"');
     expect(html).toContain('aria-describedby="full_name_hint full_name_error"');

@@ -45,7 +45,10 @@ function firstValue(value: unknown): string {
 export function onboardingRouter(world: ProviderWorld): express.Router {
   const router = express.Router();
   const goneMessage = () =>
-    renderMessagePage('Link not valid', 'This setup link is not valid. Go back to the site that sent you and ask for a new link.');
+    renderMessagePage(
+      'Link not valid',
+      'This setup link is not valid. Go back to the site that sent you and ask for a new link.',
+    );
 
   router.get('/onboarding/:token', (req: Request, res: Response) => {
     const link = world.accountLinks.get(req.params.token as string);
@@ -96,7 +99,10 @@ export function onboardingRouter(world: ProviderWorld): express.Router {
         res.redirect(303, session.returnUrl);
         return;
       }
-      const form: OnboardingForm = { fullName: firstValue(body.full_name), confirmed: firstValue(body.confirmed) === 'yes' };
+      const form: OnboardingForm = {
+        fullName: firstValue(body.full_name),
+        confirmed: firstValue(body.confirmed) === 'yes',
+      };
       const errors = checkOnboardingForm(form);
       if (Object.keys(errors).length > 0) {
         const input = pageInput(world, session, form, errors);

@@ -3,7 +3,13 @@ import { canonicalJson } from './canonical-json';
 import { IDEMPOTENCY_TTL_MS, IdempotencyStore } from './idempotency-store';
 
 // Behaviour as published at https://docs.stripe.com/api/idempotent_requests.
-const base = { scope: 'sk_test_a|acct_platform', key: 'k1', endpoint: 'POST /v1/transfers', requestId: 'req_1', nowMs: 0 };
+const base = {
+  scope: 'sk_test_a|acct_platform',
+  key: 'k1',
+  endpoint: 'POST /v1/transfers',
+  requestId: 'req_1',
+  nowMs: 0,
+};
 
 describe('IdempotencyStore', () => {
   it('reserves a new key, then replays the saved answer for the same parameters', () => {

@@ -61,7 +61,8 @@ export class IdempotencyStore {
     const fingerprint = canonicalJson(request.params);
     const existing = this.entries.get(entryKey);
     if (existing && request.nowMs - existing.createdAtMs < this.ttlMs) {
-      if (existing.endpoint !== request.endpoint) return { kind: 'endpoint_mismatch', firstEndpoint: existing.endpoint };
+      if (existing.endpoint !== request.endpoint)
+        return { kind: 'endpoint_mismatch', firstEndpoint: existing.endpoint };
       if (existing.fingerprint !== fingerprint) return { kind: 'params_mismatch' };
       if (!existing.response) return { kind: 'in_progress' };
       return { kind: 'replay', response: existing.response, originalRequestId: existing.requestId };
@@ -113,6 +114,7 @@ export class IdempotencyStore {
 
   restoreSnapshot(records: readonly IdempotencyRecord[]): void {
     this.clear();
-    for (const record of records) this.entries.set(this.entryKey(record.scope, record.key), { ...record, response: { ...record.response } });
+    for (const record of records)
+      this.entries.set(this.entryKey(record.scope, record.key), { ...record, response: { ...record.response } });
   }
 }

@@ -36,7 +36,8 @@ export interface ReleasedFunds {
 }
 
 function assertAmount(amount: number): void {
-  if (!Number.isSafeInteger(amount)) throw new RangeError(`amount must be an integer number of minor units, got ${amount}`);
+  if (!Number.isSafeInteger(amount))
+    throw new RangeError(`amount must be an integer number of minor units, got ${amount}`);
 }
 
 export class Ledger {

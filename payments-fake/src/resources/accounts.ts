@@ -31,8 +31,22 @@ export const KNOWN_CAPABILITIES = [
 // Country → currency, ISO 4217 (common practice); the euro area listed by country.
 const EURO_AREA = 'AT BE CY DE EE ES FI FR GR HR IE IT LT LU LV MT NL PT SI SK'.split(' ');
 const COUNTRY_CURRENCIES: Record<string, string> = {
-  US: 'usd', GB: 'gbp', CA: 'cad', AU: 'aud', NZ: 'nzd', CH: 'chf', SE: 'sek', NO: 'nok', DK: 'dkk',
-  PL: 'pln', JP: 'jpy', SG: 'sgd', HK: 'hkd', MX: 'mxn', BR: 'brl', IN: 'inr',
+  US: 'usd',
+  GB: 'gbp',
+  CA: 'cad',
+  AU: 'aud',
+  NZ: 'nzd',
+  CH: 'chf',
+  SE: 'sek',
+  NO: 'nok',
+  DK: 'dkk',
+  PL: 'pln',
+  JP: 'jpy',
+  SG: 'sgd',
+  HK: 'hkd',
+  MX: 'mxn',
+  BR: 'brl',
+  IN: 'inr',
 };
 
 export function currencyOfCountry(country: string): string {
@@ -95,7 +109,10 @@ function emptyBusinessProfile(): Stripe.Account.BusinessProfile {
   };
 }
 
-function readBusinessProfile(params: ParamReader, current: Stripe.Account.BusinessProfile): Stripe.Account.BusinessProfile {
+function readBusinessProfile(
+  params: ParamReader,
+  current: Stripe.Account.BusinessProfile,
+): Stripe.Account.BusinessProfile {
   const profile = params.hash('business_profile');
   if (profile === undefined) return current;
   if (profile === null) return emptyBusinessProfile();
@@ -242,7 +259,11 @@ function updateAccount(call: ProviderCall, world: ProviderWorld): Stripe.Account
   account.metadata = metadata;
   account.business_profile = businessProfile;
   account.tos_acceptance = tosAcceptance;
-  account.capabilities = applyCapabilityRequests(account.capabilities ?? {}, capabilityRequests, account.details_submitted);
+  account.capabilities = applyCapabilityRequests(
+    account.capabilities ?? {},
+    capabilityRequests,
+    account.details_submitted,
+  );
   account.charges_enabled = chargesEnabled(account);
   if (account.requirements && businessType) {
     const outstanding = (account.requirements.currently_due ?? []).filter((item) => item !== 'business_type');
@@ -360,7 +381,8 @@ export const accountRoutes: ProviderRoute[] = [
     handle: (call, world) => {
       const id = call.pathParams.id as string;
       if (!call.account.isPlatform && call.account.id !== id) throw providerErrors.accountInvalid(call.maskedKey, id);
-      const account = id === world.platformAccountId ? platformAccount(world) : requireAccount(world, id, call.maskedKey);
+      const account =
+        id === world.platformAccountId ? platformAccount(world) : requireAccount(world, id, call.maskedKey);
       const expand = call.params.stringList('expand');
       call.params.finish();
       return expandObject(structuredClone(account), expand, {});

@@ -32,7 +32,8 @@ export const eventRoutes: ProviderRoute[] = [
       params.finish();
       if (type !== undefined && types !== undefined) throw providerErrors.parametersExclusive(['type', 'types']);
       const matches = (event: ProviderEvent) =>
-        (type === undefined || eventTypeMatches(type, event.type)) && (types === undefined || types.includes(event.type));
+        (type === undefined || eventTypeMatches(type, event.type)) &&
+        (types === undefined || types.includes(event.type));
       const events = world.events.newestFirst(scopeOf(call.account.isPlatform, call.account.id)).filter(matches);
       return structuredClone(listPage(events, query, '/v1/events', 'event'));
     },

@@ -16,7 +16,11 @@ function expandOne<T extends object>(object: T, field: string, expanders: Expand
   return expanded === undefined ? object : { ...object, [field]: expanded };
 }
 
-export function expandObject<T extends object>(object: T, paths: readonly string[] | undefined, expanders: Expanders): T {
+export function expandObject<T extends object>(
+  object: T,
+  paths: readonly string[] | undefined,
+  expanders: Expanders,
+): T {
   let out = object;
   for (const path of paths ?? []) out = expandOne(out, path, expanders, path);
   return out;

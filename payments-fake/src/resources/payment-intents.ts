@@ -87,7 +87,9 @@ const PUBLISHABLE_FIELDS = [
   'shipping',
   'status',
 ] as const satisfies readonly (keyof Stripe.PaymentIntent & keyof BrowserPaymentIntent)[];
-const _everyBrowserFieldListed: Exclude<keyof BrowserPaymentIntent, (typeof PUBLISHABLE_FIELDS)[number]> extends never ? true : never = true;
+const _everyBrowserFieldListed: Exclude<keyof BrowserPaymentIntent, (typeof PUBLISHABLE_FIELDS)[number]> extends never
+  ? true
+  : never = true;
 
 /** What the caller may see: everything with a secret key, the browser subset with a publishable key. */
 function presentIntent(intent: Stripe.PaymentIntent, call: ProviderCall): Partial<Stripe.PaymentIntent> {
@@ -158,7 +160,19 @@ function readBillingDetails(data: ParamReader): void {
 }
 
 // Smallest chargeable amounts in minor units (from memory of https://docs.stripe.com/currencies#minimum-and-maximum-charge-amounts).
-const MINIMUM_CHARGE: Record<string, number> = { usd: 50, eur: 50, gbp: 30, cad: 50, aud: 50, chf: 50, jpy: 50, nzd: 50, sek: 300, nok: 300, dkk: 250 };
+const MINIMUM_CHARGE: Record<string, number> = {
+  usd: 50,
+  eur: 50,
+  gbp: 30,
+  cad: 50,
+  aud: 50,
+  chf: 50,
+  jpy: 50,
+  nzd: 50,
+  sek: 300,
+  nok: 300,
+  dkk: 250,
+};
 const MAXIMUM_AMOUNT = 99_999_999;
 
 const UPDATABLE_STATUSES = ['requires_payment_method', 'requires_confirmation'];
@@ -201,7 +215,12 @@ function eventRequest(call: ProviderCall) {
  * Confirms with the test card: success credits the platform balance, a decline is a 402.
  * `typedOutcome` is for a typed card that is none of the test cards.
  */
-function confirmIntent(world: ProviderWorld, intent: Stripe.PaymentIntent, call: ProviderCall, typedOutcome?: CardOutcome): void {
+function confirmIntent(
+  world: ProviderWorld,
+  intent: Stripe.PaymentIntent,
+  call: ProviderCall,
+  typedOutcome?: CardOutcome,
+): void {
   const paymentMethod = (intent.payment_method as string | null) ?? null;
   if (!paymentMethod && !typedOutcome) {
     throw providerErrors.unexpectedState(
@@ -251,7 +270,12 @@ function confirmIntent(world: ProviderWorld, intent: Stripe.PaymentIntent, call:
   if (pendingMs === 0) {
     world.ledger.creditAvailable(world.platformAccountId, intent.currency, intent.amount);
   } else {
-    world.ledger.creditPending(world.platformAccountId, intent.currency, intent.amount, world.clock.nowMs() + pendingMs);
+    world.ledger.creditPending(
+      world.platformAccountId,
+      intent.currency,
+      intent.amount,
+      world.clock.nowMs() + pendingMs,
+    );
     world.scheduleFundsRelease();
   }
   world.emit({
@@ -271,7 +295,8 @@ function createIntent(call: ProviderCall, world: ProviderWorld): Stripe.PaymentI
   // (and the browser library) still send payment_method_types.
   const allowedTypes = params.stringList('allowed_payment_method_types');
   const legacyTypes = params.stringList('payment_method_types');
-  if (allowedTypes && legacyTypes) throw providerErrors.parametersExclusive(['allowed_payment_method_types', 'payment_method_types']);
+  if (allowedTypes && legacyTypes)
+    throw providerErrors.parametersExclusive(['allowed_payment_method_types', 'payment_method_types']);
   const paymentMethodTypes = allowedTypes ?? legacyTypes;
   params.stringList('excluded_payment_method_types');
   const automatic = params.hash('automatic_payment_methods');
@@ -292,7 +317,10 @@ function createIntent(call: ProviderCall, world: ProviderWorld): Stripe.PaymentI
   params.finish();
 
   if (paymentMethodTypes && automaticEnabled) {
-    throw providerErrors.parametersExclusive(['automatic_payment_methods', allowedTypes ? 'allowed_payment_method_types' : 'payment_method_types']);
+    throw providerErrors.parametersExclusive([
+      'automatic_payment_methods',
+      allowedTypes ? 'allowed_payment_method_types' : 'payment_method_types',
+    ]);
   }
   const id = objectId('pi');
   const intent: Stripe.PaymentIntent = {
@@ -325,7 +353,9 @@ function createIntent(call: ProviderCall, world: ProviderWorld): Stripe.PaymentI
     on_behalf_of: null,
     payment_method: paymentMethod ?? null,
     payment_method_configuration_details: null,
-    payment_method_options: { card: { installments: null, mandate_options: null, network: null, request_three_d_secure: 'automatic' } },
+    payment_method_options: {
+      card: { installments: null, mandate_options: null, network: null, request_three_d_secure: 'automatic' },
+    },
     payment_method_types: paymentMethodTypes ?? ['card'],
     payment_record: null,
     processing: null,
@@ -381,7 +411,9 @@ export const paymentIntentRoutes: ProviderRoute[] = [
       const query = readListQuery(call.params);
       call.params.stringList('expand');
       call.params.finish();
-      return structuredClone(listPage(world.paymentIntents.newestFirst(), query, '/v1/payment_intents', 'payment_intent'));
+      return structuredClone(
+        listPage(world.paymentIntents.newestFirst(), query, '/v1/payment_intents', 'payment_intent'),
+      );
     },
   },
   {
@@ -411,7 +443,8 @@ export const paymentIntentRoutes: ProviderRoute[] = [
       checkClientSecret(intent, clientSecret, call);
       const paymentMethod = readPaymentMethod(params);
       const typedCard = readTypedCard(params, call, new Date(world.clock.nowMs()));
-      if (paymentMethod !== undefined && typedCard) throw providerErrors.parametersExclusive(['payment_method', 'payment_method_data']);
+      if (paymentMethod !== undefined && typedCard)
+        throw providerErrors.parametersExclusive(['payment_method', 'payment_method_data']);
       params.url('return_url');
       const receiptEmail = params.email('receipt_email');
       const expand = params.stringList('expand');

@@ -183,7 +183,10 @@ export const payoutRoutes: ProviderRoute[] = [
       const expand = call.params.stringList('expand');
       call.params.finish();
       if (payout.status !== 'pending') {
-        throw providerErrors.unexpectedState(`Payout ${payout.id} is ${payout.status} and can no longer be canceled.`, 'payout_not_cancelable');
+        throw providerErrors.unexpectedState(
+          `Payout ${payout.id} is ${payout.status} and can no longer be canceled.`,
+          'payout_not_cancelable',
+        );
       }
       world.ledger.creditAvailable(call.account.id, payout.currency, payout.amount);
       changeStatus(

@@ -112,7 +112,12 @@ function updateTransfer(call: ProviderCall, world: ProviderWorld): Stripe.Transf
   transfer.metadata = metadata;
   const changed = previousAttributes(before, transfer);
   if (Object.keys(changed).length > 0) {
-    world.emit({ type: 'transfer.updated', object: transfer, previousAttributes: changed, request: eventRequest(call) });
+    world.emit({
+      type: 'transfer.updated',
+      object: transfer,
+      previousAttributes: changed,
+      request: eventRequest(call),
+    });
   }
   return expandObject(structuredClone(transfer), expand, expanders(world));
 }
@@ -131,7 +136,10 @@ function createReversal(call: ProviderCall, world: ProviderWorld): Stripe.Transf
   params.finish();
 
   if (remaining === 0) {
-    throw providerErrors.unexpectedState(`Transfer ${transfer.id} is already fully reversed.`, 'transfer_already_reversed');
+    throw providerErrors.unexpectedState(
+      `Transfer ${transfer.id} is already fully reversed.`,
+      'transfer_already_reversed',
+    );
   }
   if (amount > remaining) throw providerErrors.transferReversalTooLarge(remaining);
   const destinationId = transfer.destination as string;
@@ -214,7 +222,12 @@ export const transferRoutes: ProviderRoute[] = [
       call.params.stringList('expand');
       call.params.finish();
       return structuredClone(
-        listPage(reversalsNewestFirst(world, transfer.id), query, `/v1/transfers/${transfer.id}/reversals`, 'transfer_reversal'),
+        listPage(
+          reversalsNewestFirst(world, transfer.id),
+          query,
+          `/v1/transfers/${transfer.id}/reversals`,
+          'transfer_reversal',
+        ),
       );
     },
   },

@@ -164,7 +164,11 @@ export class ProviderWorld {
       const isPlatform = accountId === this.platformAccountId;
       this.emit({
         type: 'balance.available',
-        object: { object: 'balance', livemode: false, ...this.ledger.split(accountId, this.defaultCurrencyOf(accountId)) },
+        object: {
+          object: 'balance',
+          livemode: false,
+          ...this.ledger.split(accountId, this.defaultCurrencyOf(accountId)),
+        },
         account: isPlatform ? undefined : accountId,
         request,
       });

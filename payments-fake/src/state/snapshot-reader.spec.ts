@@ -15,14 +15,36 @@ function busyWorld(): ProviderWorld {
   world.clock.advance(90);
   world.ledger.creditAvailable(world.platformAccountId, 'usd', 12_000);
   world.ledger.creditPending(world.platformAccountId, 'usd', 3_000, world.clock.nowMs() + 60_000);
-  world.idempotency.begin({ scope: 'f|acct', key: 'k1', endpoint: 'POST /v1/transfers', params: { amount: '1' }, requestId: 'req_1', nowMs: 5 });
+  world.idempotency.begin({
+    scope: 'f|acct',
+    key: 'k1',
+    endpoint: 'POST /v1/transfers',
+    params: { amount: '1' },
+    requestId: 'req_1',
+    nowMs: 5,
+  });
   world.idempotency.complete('f|acct', 'k1', { status: 200, body: '{"id":"tr_a1"}' });
   world.faults.apply({ latencyMs: 20, failNext: { status: 429, count: 2 } });
   world.accounts.add({ id: 'acct_a1', object: 'account', email: 'p201@evenhand.test' } as Stripe.Account);
   world.accounts.add({ id: 'acct_a2', object: 'account', email: 'p202@evenhand.test' } as Stripe.Account);
-  world.transfers.add({ id: 'tr_a1', object: 'transfer', amount: 1_000, amount_reversed: 100, currency: 'usd' } as Stripe.Transfer);
-  world.transferReversals.set('tr_a1', [{ id: 'trr_a1', object: 'transfer_reversal', amount: 100 } as Stripe.TransferReversal]);
-  world.payouts.add({ id: 'po_a1', object: 'payout', amount: 500, created: 1_700_000_000, currency: 'usd', status: 'pending' } as Stripe.Payout);
+  world.transfers.add({
+    id: 'tr_a1',
+    object: 'transfer',
+    amount: 1_000,
+    amount_reversed: 100,
+    currency: 'usd',
+  } as Stripe.Transfer);
+  world.transferReversals.set('tr_a1', [
+    { id: 'trr_a1', object: 'transfer_reversal', amount: 100 } as Stripe.TransferReversal,
+  ]);
+  world.payouts.add({
+    id: 'po_a1',
+    object: 'payout',
+    amount: 500,
+    created: 1_700_000_000,
+    currency: 'usd',
+    status: 'pending',
+  } as Stripe.Payout);
   world.payoutAccounts.set('po_a1', 'acct_a1');
   world.paymentIntents.add({ id: 'pi_a1', object: 'payment_intent', status: 'succeeded' } as Stripe.PaymentIntent);
   world.emit({ type: 'transfer.created', object: { id: 'tr_a1' } });
@@ -57,7 +79,11 @@ describe('readWorldSnapshot', () => {
   it('reads back what a world wrote, and a world restored from it writes the same again', () => {
     const world = busyWorld();
     const content = fileContent(world);
-    expect(content).toMatchObject({ format: 'evenhand-payments-fake-state', version: 1, savedAt: '2026-03-01T09:30:00.000Z' });
+    expect(content).toMatchObject({
+      format: 'evenhand-payments-fake-state',
+      version: 1,
+      savedAt: '2026-03-01T09:30:00.000Z',
+    });
     const snapshot = readWorldSnapshot(content);
     expect(snapshot).toEqual(content);
 
@@ -86,12 +112,18 @@ describe('readWorldSnapshot', () => {
       change(copy);
       return refusal(copy);
     };
-    expect(broken((c) => (c.ledger.pending[0].amount = 12.5)).message).toBe('ledger.pending[0].amount: must be an integer, found 12.5');
-    expect(broken((c) => delete c.ledger.available[0].currency).message).toBe('ledger.available[0].currency: must be a string, found nothing');
+    expect(broken((c) => (c.ledger.pending[0].amount = 12.5)).message).toBe(
+      'ledger.pending[0].amount: must be an integer, found 12.5',
+    );
+    expect(broken((c) => delete c.ledger.available[0].currency).message).toBe(
+      'ledger.available[0].currency: must be a string, found nothing',
+    );
     expect(broken((c) => (c.accounts[1].id = 'acct_a1')).message).toBe('accounts[1]: repeats acct_a1');
     expect(broken((c) => (c.payouts[0].object = 'transfer')).field).toBe('payouts[0].object');
     expect(broken((c) => (c.payoutAccounts = [])).message).toBe('payoutAccounts: has no entry for payout po_a1');
-    expect(broken((c) => (c.transferReversals[0].transferId = 'tr_gone')).field).toBe('transferReversals[0].transferId');
+    expect(broken((c) => (c.transferReversals[0].transferId = 'tr_gone')).field).toBe(
+      'transferReversals[0].transferId',
+    );
     expect(broken((c) => (c.idempotency[0].response.status = 42)).field).toBe('idempotency[0].response.status');
     expect(broken((c) => (c.faults.failNext.status = 503)).field).toBe('faults.failNext.status');
     expect(broken((c) => (c.events[0].pending_webhooks = -1)).field).toBe('events[0].pending_webhooks');

@@ -48,7 +48,8 @@ function array(value: unknown, field: string): unknown[] {
 
 function string(value: unknown, field: string, pattern?: RegExp, patternText?: string): string {
   if (typeof value !== 'string') throw new SnapshotError(field, `must be a string, found ${describe(value)}`);
-  if (pattern && !pattern.test(value)) throw new SnapshotError(field, `must be ${patternText ?? String(pattern)}, found ${describe(value)}`);
+  if (pattern && !pattern.test(value))
+    throw new SnapshotError(field, `must be ${patternText ?? String(pattern)}, found ${describe(value)}`);
   return value;
 }
 
@@ -57,7 +58,8 @@ function nullableString(value: unknown, field: string): string | null {
 }
 
 function integer(value: unknown, field: string, min = Number.MIN_SAFE_INTEGER, max = Number.MAX_SAFE_INTEGER): number {
-  if (typeof value !== 'number' || !Number.isSafeInteger(value)) throw new SnapshotError(field, `must be an integer, found ${describe(value)}`);
+  if (typeof value !== 'number' || !Number.isSafeInteger(value))
+    throw new SnapshotError(field, `must be an integer, found ${describe(value)}`);
   if (value < min || value > max) throw new SnapshotError(field, `must be between ${min} and ${max}, found ${value}`);
   return value;
 }
@@ -68,7 +70,8 @@ function boolean(value: unknown, field: string): boolean {
 }
 
 function oneOf<T extends string | number>(value: unknown, field: string, allowed: readonly T[]): T {
-  if (!allowed.includes(value as T)) throw new SnapshotError(field, `must be one of ${allowed.join(', ')}, found ${describe(value)}`);
+  if (!allowed.includes(value as T))
+    throw new SnapshotError(field, `must be one of ${allowed.join(', ')}, found ${describe(value)}`);
   return value as T;
 }
 
@@ -90,7 +93,11 @@ function uniqueBy<T>(items: readonly T[], field: string, keyOf: (item: T) => str
 const CURRENCY = /^[a-z]{3}$/;
 
 /** A provider object: an object with an id of the right prefix and the right `object` name. */
-function providerObject<T>(objectName: string, idPrefix: string, readMore?: (value: JsonObject, field: string) => void) {
+function providerObject<T>(
+  objectName: string,
+  idPrefix: string,
+  readMore?: (value: JsonObject, field: string) => void,
+) {
   return (value: unknown, field: string): T => {
     const item = object(value, field);
     string(item.id, `${field}.id`, new RegExp(`^${idPrefix}_[A-Za-z0-9_]+$`), `an id starting ${idPrefix}_`);
@@ -265,16 +272,24 @@ const _everyFieldRead: Exclude<keyof WorldSnapshot, (typeof FIELDS)[number]> ext
 export function readWorldSnapshot(value: unknown): WorldSnapshot {
   const root = object(value, '(top level)');
   if (root.format !== STATE_FORMAT) {
-    throw new SnapshotError('format', `must be '${STATE_FORMAT}' (this is not a payments-fake state file), found ${describe(root.format)}`);
+    throw new SnapshotError(
+      'format',
+      `must be '${STATE_FORMAT}' (this is not a payments-fake state file), found ${describe(root.format)}`,
+    );
   }
   if (root.version !== STATE_VERSION) {
-    throw new SnapshotError('version', `must be ${STATE_VERSION} (the only version this stand-in reads), found ${describe(root.version)}`);
+    throw new SnapshotError(
+      'version',
+      `must be ${STATE_VERSION} (the only version this stand-in reads), found ${describe(root.version)}`,
+    );
   }
   for (const key of Object.keys(root)) {
-    if (!(FIELDS as readonly string[]).includes(key)) throw new SnapshotError(key, `is not a field of version ${STATE_VERSION}`);
+    if (!(FIELDS as readonly string[]).includes(key))
+      throw new SnapshotError(key, `is not a field of version ${STATE_VERSION}`);
   }
   const savedAt = string(root.savedAt, 'savedAt');
-  if (Number.isNaN(Date.parse(savedAt))) throw new SnapshotError('savedAt', `must be an ISO 8601 time, found '${savedAt}'`);
+  if (Number.isNaN(Date.parse(savedAt)))
+    throw new SnapshotError('savedAt', `must be an ISO 8601 time, found '${savedAt}'`);
   const clock = object(root.clock, 'clock');
 
   const accounts = uniqueBy(list(root.accounts, 'accounts', readAccount), 'accounts', (account) => account.id);
@@ -286,7 +301,8 @@ export function readWorldSnapshot(value: unknown): WorldSnapshot {
   const transferReversals = list(root.transferReversals, 'transferReversals', (item, at) => {
     const entry = object(item, at);
     const transferId = string(entry.transferId, `${at}.transferId`);
-    if (!transferIds.has(transferId)) throw new SnapshotError(`${at}.transferId`, `names no transfer in transfers (${transferId})`);
+    if (!transferIds.has(transferId))
+      throw new SnapshotError(`${at}.transferId`, `names no transfer in transfers (${transferId})`);
     return { transferId, reversals: list(entry.reversals, `${at}.reversals`, readReversal) };
   });
   uniqueBy(transferReversals, 'transferReversals', (entry) => entry.transferId);
@@ -305,7 +321,12 @@ export function readWorldSnapshot(value: unknown): WorldSnapshot {
     format: STATE_FORMAT,
     version: STATE_VERSION,
     savedAt,
-    platformAccountId: string(root.platformAccountId, 'platformAccountId', /^acct_[A-Za-z0-9]+$/, 'an account id (acct_…)'),
+    platformAccountId: string(
+      root.platformAccountId,
+      'platformAccountId',
+      /^acct_[A-Za-z0-9]+$/,
+      'an account id (acct_…)',
+    ),
     clock: { offsetMs: integer(clock.offsetMs, 'clock.offsetMs') },
     ledger: readLedger(root.ledger, 'ledger'),
     idempotency: uniqueBy(
@@ -317,7 +338,11 @@ export function readWorldSnapshot(value: unknown): WorldSnapshot {
     events: uniqueBy(list(root.events, 'events', readEvent), 'events', (event) => event.id),
     webhooks: readWebhooks(root.webhooks, 'webhooks'),
     accounts,
-    accountLinks: uniqueBy(list(root.accountLinks, 'accountLinks', readAccountLink), 'accountLinks', (link) => link.token),
+    accountLinks: uniqueBy(
+      list(root.accountLinks, 'accountLinks', readAccountLink),
+      'accountLinks',
+      (link) => link.token,
+    ),
     onboardingSessions: uniqueBy(
       list(root.onboardingSessions, 'onboardingSessions', readOnboardingSession),
       'onboardingSessions',
@@ -327,6 +352,10 @@ export function readWorldSnapshot(value: unknown): WorldSnapshot {
     transferReversals,
     payouts,
     payoutAccounts,
-    paymentIntents: uniqueBy(list(root.paymentIntents, 'paymentIntents', readPaymentIntent), 'paymentIntents', (intent) => intent.id),
+    paymentIntents: uniqueBy(
+      list(root.paymentIntents, 'paymentIntents', readPaymentIntent),
+      'paymentIntents',
+      (intent) => intent.id,
+    ),
   };
 }

@@ -2,7 +2,18 @@
 // (a temporary file in the same folder, flushed to disk, then renamed over the old one), so a
 // crash mid-write leaves the previous snapshot, never half of one.
 
-import { closeSync, constants, fsyncSync, openSync, readFileSync, renameSync, rmSync, statSync, writeFileSync, accessSync } from 'node:fs';
+import {
+  closeSync,
+  constants,
+  fsyncSync,
+  openSync,
+  readFileSync,
+  renameSync,
+  rmSync,
+  statSync,
+  writeFileSync,
+  accessSync,
+} from 'node:fs';
 import { open, rm } from 'node:fs/promises';
 import path from 'node:path';
 import { randomToken } from '../ids/object-id';
@@ -58,7 +69,8 @@ export function readStateFile(file: string): WorldSnapshot | undefined {
   try {
     return readWorldSnapshot(parsed);
   } catch (error) {
-    if (error instanceof SnapshotError) throw new StateFileError(file, `is not a version 1 payments-fake snapshot: ${error.message}`);
+    if (error instanceof SnapshotError)
+      throw new StateFileError(file, `is not a version 1 payments-fake snapshot: ${error.message}`);
     throw error;
   }
 }

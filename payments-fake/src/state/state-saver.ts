@@ -74,7 +74,9 @@ export class StateSaver {
     this.timer = setTimeout(() => {
       this.timer = undefined;
       // The stand-in keeps serving from memory; the next change tries again.
-      this.flush().catch((error: unknown) => console.error(`payments-fake: ${error instanceof Error ? error.message : String(error)}`));
+      this.flush().catch((error: unknown) =>
+        console.error(`payments-fake: ${error instanceof Error ? error.message : String(error)}`),
+      );
     }, this.delayMs);
     this.timer.unref();
   }

@@ -6,7 +6,11 @@ import { computeSignature, signatureHeaderValue } from './webhook-signature';
 // https://docs.stripe.com/webhooks#verify-manually.
 const stripe = new Stripe('sk_test_signature', { telemetry: false });
 const secret = 'whsec_evenhand_test';
-const payload = JSON.stringify({ id: 'evt_1', object: 'event', type: 'payout.paid', data: { object: { id: 'po_1' } } }, null, 2);
+const payload = JSON.stringify(
+  { id: 'evt_1', object: 'event', type: 'payout.paid', data: { object: { id: 'po_1' } } },
+  null,
+  2,
+);
 
 describe('webhook signature', () => {
   it('produces the same header as the SDK test helper for the same timestamp', () => {
@@ -27,7 +31,9 @@ describe('webhook signature', () => {
     expect(() => stripe.webhooks.constructEvent(`${payload} `, header, secret)).toThrow();
     expect(() => stripe.webhooks.constructEvent(payload, header, 'whsec_other')).toThrow();
     // The SDK's default tolerance is 300 seconds.
-    expect(() => stripe.webhooks.constructEvent(payload, signatureHeaderValue(payload, secret, now - 301), secret)).toThrow();
+    expect(() =>
+      stripe.webhooks.constructEvent(payload, signatureHeaderValue(payload, secret, now - 301), secret),
+    ).toThrow();
   });
 
   it('is the hex HMAC-SHA256 of "<t>.<body>"', () => {

@@ -11,7 +11,8 @@ import path from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 
 export const CHROMIUM_PATH = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
-export const SCREENSHOT_DIR = process.env.SCREENSHOT_DIR ?? path.resolve(__dirname, '../../../.local/screenshots/payments-fake');
+export const SCREENSHOT_DIR =
+  process.env.SCREENSHOT_DIR ?? path.resolve(__dirname, '../../../.local/screenshots/payments-fake');
 
 export interface BrowserSession {
   context: BrowserContext;
@@ -134,10 +135,14 @@ window.appReady = (async () => {
 
 /** Serves the test page on a free loopback port, pointing its script tag at the stand-in. */
 export async function startTestPage(standInUrl: string, publishableKey: string): Promise<TestPage> {
-  const stripeJsFile = path.join(path.dirname(createRequire(__filename).resolve('@stripe/stripe-js/package.json')), 'dist/index.mjs');
+  const stripeJsFile = path.join(
+    path.dirname(createRequire(__filename).resolve('@stripe/stripe-js/package.json')),
+    'dist/index.mjs',
+  );
   const stripeJs = readFileSync(stripeJsFile, 'utf8');
   const server: Server = createServer((req, res) => {
-    const send = (type: string, body: string) => res.writeHead(200, { 'Content-Type': type, 'Cache-Control': 'no-store' }).end(body);
+    const send = (type: string, body: string) =>
+      res.writeHead(200, { 'Content-Type': type, 'Cache-Control': 'no-store' }).end(body);
     if (req.url === '/') send('text/html; charset=utf-8', pageHtml(`${standInUrl}/v1/stripe.js`));
     else if (req.url === '/app.mjs') send('text/javascript; charset=utf-8', appModule(publishableKey));
     else if (req.url === '/stripe-js.mjs') send('text/javascript; charset=utf-8', stripeJs);

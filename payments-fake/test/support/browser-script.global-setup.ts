@@ -8,7 +8,10 @@ import { promisify } from 'node:util';
 
 export default async function buildBrowserScript(): Promise<void> {
   const packageRoot = path.resolve(__dirname, '../..');
-  const rolldownCli = path.join(path.dirname(createRequire(__filename).resolve('rolldown/package.json')), 'bin/cli.mjs');
+  const rolldownCli = path.join(
+    path.dirname(createRequire(__filename).resolve('rolldown/package.json')),
+    'bin/cli.mjs',
+  );
   try {
     await promisify(execFile)(process.execPath, [rolldownCli, '-c', 'rolldown.config.mts'], { cwd: packageRoot });
   } catch (error) {

@@ -76,7 +76,10 @@ export interface Harness {
 }
 
 /** `receiver`: deliver to this receiver (kept open on close) instead of a new one of its own. */
-export async function startHarness(options: Partial<PaymentsFakeOptions> = {}, shared: { receiver?: WebhookReceiver } = {}): Promise<Harness> {
+export async function startHarness(
+  options: Partial<PaymentsFakeOptions> = {},
+  shared: { receiver?: WebhookReceiver } = {},
+): Promise<Harness> {
   const receiver = shared.receiver ?? (await startWebhookReceiver());
   const fake = await startPaymentsFake({
     host: '127.0.0.1',
@@ -129,7 +132,12 @@ export async function onboardedAccount(
   stripe: Stripe,
   capabilities: Stripe.AccountCreateParams.Capabilities = { transfers: { requested: true } },
 ): Promise<Stripe.Account> {
-  const account = await stripe.accounts.create({ type: 'express', country: 'US', email: 'p001@evenhand.test', capabilities });
+  const account = await stripe.accounts.create({
+    type: 'express',
+    country: 'US',
+    email: 'p001@evenhand.test',
+    capabilities,
+  });
   const link = await stripe.accountLinks.create({
     account: account.id,
     type: 'account_onboarding',

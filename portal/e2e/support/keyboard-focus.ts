@@ -7,7 +7,10 @@ export type FocusStop = { element: string; outline: string };
  * and returns every stop whose focus indicator is missing: computed outline style "none" or zero width.
  * Everything focusable by Tab counts: links, buttons, button-links, inputs, radios, disclosures.
  */
-export async function stopsWithoutVisibleFocus(page: Page, { maxStops = 60 } = {}): Promise<{ stops: number; missing: FocusStop[] }> {
+export async function stopsWithoutVisibleFocus(
+  page: Page,
+  { maxStops = 60 } = {},
+): Promise<{ stops: number; missing: FocusStop[] }> {
   await page.evaluate(() => {
     (document.activeElement as HTMLElement | null)?.blur();
     window.scrollTo(0, 0);
@@ -21,7 +24,10 @@ export async function stopsWithoutVisibleFocus(page: Page, { maxStops = 60 } = {
       const element = document.activeElement as HTMLElement | null;
       if (!element || element === document.body) return null;
       const style = getComputedStyle(element);
-      const name = (element.getAttribute('aria-label') ?? element.textContent ?? '').replace(/\s+/g, ' ').trim().slice(0, 50);
+      const name = (element.getAttribute('aria-label') ?? element.textContent ?? '')
+        .replace(/\s+/g, ' ')
+        .trim()
+        .slice(0, 50);
       const path: string[] = [];
       for (let node: Element | null = element; node && node !== document.body; node = node.parentElement) {
         path.unshift(`${node.tagName}:${Array.prototype.indexOf.call(node.parentElement?.children ?? [], node)}`);
@@ -48,7 +54,10 @@ export async function sidewaysOverflow(page: Page): Promise<number> {
 }
 
 /** Where an element sits against the window: fully or partly in view, and its top edge. */
-export async function placeInWindow(page: Page, selector: string): Promise<{ top: number; bottom: number; windowHeight: number }> {
+export async function placeInWindow(
+  page: Page,
+  selector: string,
+): Promise<{ top: number; bottom: number; windowHeight: number }> {
   return page.evaluate((css) => {
     const element = document.querySelector(css);
     if (!element) throw new Error(`Nothing matches ${css}`);

@@ -30,12 +30,15 @@ export async function waitForMessageTo(
   for (;;) {
     const matching = (await listMessages()).filter(
       (message) =>
-        message.to.some((to) => to.address.toLowerCase() === wanted) && (subject === undefined || subject.test(message.subject)),
+        message.to.some((to) => to.address.toLowerCase() === wanted) &&
+        (subject === undefined || subject.test(message.subject)),
     );
     const newest = matching.at(-1);
     if (newest) return newest;
     if (Date.now() > deadline) {
-      throw new Error(`No e-mail to ${recipient}${subject ? ` with a subject like ${subject}` : ''} arrived within ${timeoutMs} ms`);
+      throw new Error(
+        `No e-mail to ${recipient}${subject ? ` with a subject like ${subject}` : ''} arrived within ${timeoutMs} ms`,
+      );
     }
     await new Promise((resolve) => setTimeout(resolve, intervalMs));
   }

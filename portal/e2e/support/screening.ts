@@ -13,7 +13,11 @@ export type ScreeningQuestion = {
  * An answer that keeps this person eligible for the demo study: yes, the first option, and for a number the value
  * in `numbers` for its key or else a middling one.
  */
-export async function answerScreeningQuestion(page: Page, question: ScreeningQuestion, numbers: Record<string, number> = {}): Promise<void> {
+export async function answerScreeningQuestion(
+  page: Page,
+  question: ScreeningQuestion,
+  numbers: Record<string, number> = {},
+): Promise<void> {
   if (question.kind === 'yes-no') {
     await page.getByRole('radiogroup', { name: question.label }).getByRole('radio', { name: 'Yes' }).click();
   } else if (question.kind === 'number') {
@@ -26,7 +30,9 @@ export async function answerScreeningQuestion(page: Page, question: ScreeningQue
     const group = page.getByRole('radiogroup', { name: question.label });
     if (await group.count()) await group.getByRole('radio', { name: first }).click();
     else {
-      await page.getByRole('button', { name: new RegExp(question.label.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')) }).click();
+      await page
+        .getByRole('button', { name: new RegExp(question.label.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')) })
+        .click();
       await page.getByRole('option', { name: first }).click();
     }
   }

@@ -37,17 +37,25 @@ export class StaffApi {
 /** Confirms a card payment intent on the payment service stand-in with its test Visa card, as the browser script would. */
 export async function confirmCardPayment(clientSecret: string): Promise<void> {
   const intentId = clientSecret.split('_secret_')[0];
-  if (!intentId?.startsWith('pi_')) throw new Error(`clientSecret does not start with a payment intent id: "${clientSecret}"`);
+  if (!intentId?.startsWith('pi_'))
+    throw new Error(`clientSecret does not start with a payment intent id: "${clientSecret}"`);
   const response = await fetch(`${e2eEnv.paymentsUrl}/v1/payment_intents/${intentId}/confirm`, {
     method: 'POST',
-    headers: { Authorization: `Bearer ${e2eEnv.paymentsSecretKey}`, 'Content-Type': 'application/x-www-form-urlencoded' },
+    headers: {
+      Authorization: `Bearer ${e2eEnv.paymentsSecretKey}`,
+      'Content-Type': 'application/x-www-form-urlencoded',
+    },
     body: 'payment_method=pm_card_visa',
   });
   if (!response.ok) throw new Error(`Confirming ${intentId} answered ${response.status}: ${await response.text()}`);
 }
 
 /** Asks again until `check` gives a value (not undefined), or fails after `timeoutMs` saying what it waited for. */
-export async function eventually<T>(what: string, check: () => Promise<T | undefined>, { timeoutMs = 30_000, intervalMs = 500 } = {}): Promise<T> {
+export async function eventually<T>(
+  what: string,
+  check: () => Promise<T | undefined>,
+  { timeoutMs = 30_000, intervalMs = 500 } = {},
+): Promise<T> {
   const deadline = Date.now() + timeoutMs;
   for (;;) {
     const value = await check();

@@ -17,7 +17,13 @@ export async function pageApi<T>(page: Page, path: string): Promise<T> {
  */
 export async function takePart(
   page: Page,
-  { studySlug, email, typedName, numbers = {}, shoot }: {
+  {
+    studySlug,
+    email,
+    typedName,
+    numbers = {},
+    shoot,
+  }: {
     studySlug: string;
     email: string;
     typedName: string;

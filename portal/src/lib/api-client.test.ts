@@ -38,7 +38,12 @@ describe('api client session refresh', () => {
       'POST /api/auth/refresh': { status: 200, body: {} },
     });
     // Any POST will do to show the body survives the retry; the portal itself does not create users.
-    const body = { email: 'new.person@lab.test', name: 'Robin Example', role: 'researcher' as const, password: 'long-enough-pass' };
+    const body = {
+      email: 'new.person@lab.test',
+      name: 'Robin Example',
+      role: 'researcher' as const,
+      password: 'long-enough-pass',
+    };
 
     const { response } = await api.POST('/api/users', { body });
 

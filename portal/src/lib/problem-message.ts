@@ -10,8 +10,11 @@ export const GENERAL_INPUT_PROBLEM = 'Something you entered was not accepted. Pl
  */
 function speaksInFieldNames(field: string, message: string): boolean {
   const lastName = field.split('.').at(-1) ?? field;
-  const opensWithFieldName = lastName !== '' && new RegExp(`^${lastName.replace(/[^\w]/g, '')}\\b`).test(message.trim());
-  return opensWithFieldName || /\b[a-z]+[A-Z]\w*\b/.test(message) || /(?:^|\s)[a-z]\w*\.[a-z]\w*(?=[\s:]|$)/.test(message);
+  const opensWithFieldName =
+    lastName !== '' && new RegExp(`^${lastName.replace(/[^\w]/g, '')}\\b`).test(message.trim());
+  return (
+    opensWithFieldName || /\b[a-z]+[A-Z]\w*\b/.test(message) || /(?:^|\s)[a-z]\w*\.[a-z]\w*(?=[\s:]|$)/.test(message)
+  );
 }
 
 /**

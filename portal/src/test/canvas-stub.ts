@@ -17,7 +17,9 @@ export function stubCanvas() {
       return true;
     },
   });
-  vi.spyOn(HTMLCanvasElement.prototype, 'getContext').mockImplementation(() => context as unknown as CanvasRenderingContext2D);
+  vi.spyOn(HTMLCanvasElement.prototype, 'getContext').mockImplementation(
+    () => context as unknown as CanvasRenderingContext2D,
+  );
   vi.spyOn(HTMLCanvasElement.prototype, 'toDataURL').mockImplementation(() => stubMark);
 }
 

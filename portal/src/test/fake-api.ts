@@ -41,7 +41,10 @@ export function installFakeApi(handlers: Record<string, Handler>) {
     }
     return reply.body === undefined
       ? new Response(null, { status: reply.status })
-      : new Response(JSON.stringify(reply.body), { status: reply.status, headers: { 'Content-Type': 'application/json' } });
+      : new Response(JSON.stringify(reply.body), {
+          status: reply.status,
+          headers: { 'Content-Type': 'application/json' },
+        });
   });
 
   return {

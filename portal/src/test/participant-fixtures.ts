@@ -21,7 +21,12 @@ export const publicStudy: PublicStudy = {
   totalPayMinor: 3750,
   steps: [
     { position: 2, title: 'Second session', description: 'Three more routes, a week later.', payMinor: 1500 },
-    { position: 1, title: 'First session', description: 'Three routes on screen and a short questionnaire.', payMinor: 1250 },
+    {
+      position: 1,
+      title: 'First session',
+      description: 'Three routes on screen and a short questionnaire.',
+      payMinor: 1250,
+    },
     { position: 3, title: 'Follow-up questions', description: 'Ten minutes, online.', payMinor: 1000 },
   ],
   eligibility: [
@@ -67,9 +72,36 @@ export function enrollment(overrides: Partial<MyEnrollment> = {}): MyEnrollment 
     consent: { activeVersionId: versionId, signedVersionId: null, needsSignature: true, signedAt: null },
     assignment: null,
     steps: [
-      { ...unassignedStep, id: 's1', position: 1, title: 'First session', description: 'Three routes on screen.', payMinor: 1250, hasCompletionCode: true, verification: 'shared-code' },
-      { ...unassignedStep, id: 's2', position: 2, title: 'Second session', description: 'Three more routes.', payMinor: 1500, hasCompletionCode: true, verification: 'shared-code' },
-      { ...unassignedStep, id: 's3', position: 3, title: 'Follow-up questions', description: 'Ten minutes, online.', payMinor: 1000, hasCompletionCode: false, verification: 'staff' },
+      {
+        ...unassignedStep,
+        id: 's1',
+        position: 1,
+        title: 'First session',
+        description: 'Three routes on screen.',
+        payMinor: 1250,
+        hasCompletionCode: true,
+        verification: 'shared-code',
+      },
+      {
+        ...unassignedStep,
+        id: 's2',
+        position: 2,
+        title: 'Second session',
+        description: 'Three more routes.',
+        payMinor: 1500,
+        hasCompletionCode: true,
+        verification: 'shared-code',
+      },
+      {
+        ...unassignedStep,
+        id: 's3',
+        position: 3,
+        title: 'Follow-up questions',
+        description: 'Ten minutes, online.',
+        payMinor: 1000,
+        hasCompletionCode: false,
+        verification: 'staff',
+      },
     ],
     earned: { earnedMinor: 0, paidMinor: 0, stillToBePaidMinor: 0 },
     withdrewAt: null,
@@ -93,7 +125,11 @@ export function consentToSign(overrides: Partial<ConsentToSign> = {}): ConsentTo
     keyInformationHtml,
     sections: [
       { id: 'key-information', heading: 'Key information', html: keyInformationHtml },
-      { id: 'purpose', heading: 'Why we are doing this study', html: '<p>To learn which cues help people find their way.</p>' },
+      {
+        id: 'purpose',
+        heading: 'Why we are doing this study',
+        html: '<p>To learn which cues help people find their way.</p>',
+      },
       { id: 'risks', heading: 'Risks and discomforts', html: '<p>You may feel a little tired after a session.</p>' },
       {
         id: 'questions',

@@ -8,7 +8,9 @@ export function Component() {
       <title>Page not found · Evenhand</title>
       <p className="text-xs font-semibold tracking-wide text-ink-faint uppercase">Evenhand · 404</p>
       <h1 className="text-2xl font-semibold">Page not found</h1>
-      <p className="text-ink-muted">There is nothing at this address. It may have moved, or the link may be mistyped.</p>
+      <p className="text-ink-muted">
+        There is nothing at this address. It may have moved, or the link may be mistyped.
+      </p>
       <div className="mt-2">
         <Link to="/" className={cx(buttonRecipe.base, buttonRecipe.sizes.regular, buttonRecipe.variants.primary)}>
           Go to the start page

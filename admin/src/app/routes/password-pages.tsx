@@ -31,7 +31,9 @@ function PublicCard({ title, children }: { title: string; children: React.ReactN
 export function ForgotPasswordPage() {
   return (
     <PublicCard title="Forgot your password?">
-      <p className="mb-4 text-sm text-ink-muted">Enter the e-mail you sign in with, and we send a link to choose a new password.</p>
+      <p className="mb-4 text-sm text-ink-muted">
+        Enter the e-mail you sign in with, and we send a link to choose a new password.
+      </p>
       <RequestResetForm />
     </PublicCard>
   );
@@ -44,7 +46,11 @@ export function ResetPasswordPage() {
     <PublicCard title="Choose a new password">
       {token.length < 20 ? (
         <Notice>
-          This link is incomplete. Open the whole link from the e-mail, or <Link to="/forgot-password" className="font-medium underline underline-offset-2">ask for a new one</Link>.
+          This link is incomplete. Open the whole link from the e-mail, or{' '}
+          <Link to="/forgot-password" className="font-medium underline underline-offset-2">
+            ask for a new one
+          </Link>
+          .
         </Notice>
       ) : (
         <ChooseNewPasswordForm token={token} />

@@ -11,7 +11,9 @@ describe('RootErrorBoundary', () => {
   it('replaces a crashed page with a calm message and a way back', async () => {
     vi.spyOn(console, 'error').mockImplementation(() => {});
     vi.spyOn(console, 'warn').mockImplementation(() => {});
-    const router = createMemoryRouter([{ ErrorBoundary: RootErrorBoundary, children: [{ path: '/', Component: Exploding }] }]);
+    const router = createMemoryRouter([
+      { ErrorBoundary: RootErrorBoundary, children: [{ path: '/', Component: Exploding }] },
+    ]);
     render(<RouterProvider router={router} />);
 
     expect(await screen.findByRole('heading', { name: 'Something went wrong' })).toBeInTheDocument();

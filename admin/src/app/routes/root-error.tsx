@@ -6,7 +6,8 @@ export function RootErrorBoundary() {
   const error = useRouteError();
   const notFound = isRouteErrorResponse(error) && error.status === 404;
   // A failed lazy import usually means a new version was deployed while the tab was open.
-  const staleBundle = error instanceof TypeError && /dynamically imported module|Importing a module script/i.test(error.message);
+  const staleBundle =
+    error instanceof TypeError && /dynamically imported module|Importing a module script/i.test(error.message);
 
   return (
     <main className="mx-auto flex min-h-dvh max-w-lg flex-col justify-center gap-3 px-6">
@@ -21,7 +22,11 @@ export function RootErrorBoundary() {
             : 'The page hit an unexpected problem. Your saved work is safe; reload to try again.'}
       </p>
       <div className="mt-2 flex gap-2">
-        <button type="button" className={cx(buttonRecipe.base, buttonRecipe.sizes.regular, buttonRecipe.variants.primary)} onClick={() => window.location.reload()}>
+        <button
+          type="button"
+          className={cx(buttonRecipe.base, buttonRecipe.sizes.regular, buttonRecipe.variants.primary)}
+          onClick={() => window.location.reload()}
+        >
           Reload
         </button>
         <a href="/" className={cx(buttonRecipe.base, buttonRecipe.sizes.regular, buttonRecipe.variants.secondary)}>

@@ -28,14 +28,20 @@ export function Component() {
           <h1 className="mb-4 text-lg font-semibold">Sign in</h1>
           <SignInForm onSignedIn={() => navigate(returnPath, { replace: true })} />
           <p className="mt-4 text-sm">
-            <Link to="/forgot-password" className="font-medium text-spruce-ink underline underline-offset-2 hover:text-spruce">
+            <Link
+              to="/forgot-password"
+              className="font-medium text-spruce-ink underline underline-offset-2 hover:text-spruce"
+            >
               Forgot your password?
             </Link>
           </p>
         </div>
         <p className="mt-4 text-sm text-ink-muted">
           Taking part in a study? Participants sign in on the{' '}
-          <a href={participantSiteUrl} className="font-medium text-spruce-ink underline underline-offset-2 hover:text-spruce">
+          <a
+            href={participantSiteUrl}
+            className="font-medium text-spruce-ink underline underline-offset-2 hover:text-spruce"
+          >
             participant site
           </a>{' '}
           instead.

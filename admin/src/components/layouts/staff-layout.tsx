@@ -18,7 +18,15 @@ export interface StaffLayoutProps {
   children: React.ReactNode;
 }
 
-export function StaffLayout({ navItems, personName, personEmail, roleLabel, onSignOut, signingOut, children }: StaffLayoutProps) {
+export function StaffLayout({
+  navItems,
+  personName,
+  personEmail,
+  roleLabel,
+  onSignOut,
+  signingOut,
+  children,
+}: StaffLayoutProps) {
   return (
     <div className="flex min-h-dvh flex-col">
       <a
@@ -44,7 +52,9 @@ export function StaffLayout({ navItems, personName, personEmail, roleLabel, onSi
                 className={({ isActive }) =>
                   cx(
                     'flex items-center border-b-2 px-3 text-sm font-medium transition-colors',
-                    isActive ? 'border-ochre text-night-ink' : 'border-transparent text-night-muted hover:text-night-ink',
+                    isActive
+                      ? 'border-ochre text-night-ink'
+                      : 'border-transparent text-night-muted hover:text-night-ink',
                   )
                 }
               >
@@ -59,7 +69,10 @@ export function StaffLayout({ navItems, personName, personEmail, roleLabel, onSi
                 {personName}
               </p>
               <p className="text-xs text-night-muted">{roleLabel}</p>
-              <NavLink to="/account" className="text-xs text-night-muted underline-offset-2 hover:text-night-ink hover:underline">
+              <NavLink
+                to="/account"
+                className="text-xs text-night-muted underline-offset-2 hover:text-night-ink hover:underline"
+              >
                 Your account
               </NavLink>
             </div>

@@ -16,7 +16,16 @@ export interface ButtonProps extends Omit<HeadlessButtonProps, 'className' | 'ch
   pending?: boolean;
 }
 
-export function Button({ variant = 'secondary', size = 'regular', className, pending = false, disabled, children, type = 'button', ...props }: ButtonProps) {
+export function Button({
+  variant = 'secondary',
+  size = 'regular',
+  className,
+  pending = false,
+  disabled,
+  children,
+  type = 'button',
+  ...props
+}: ButtonProps) {
   return (
     <HeadlessButton
       type={type}

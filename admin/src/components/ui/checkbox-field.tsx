@@ -15,9 +15,25 @@ export interface CheckboxFieldProps {
 export function CheckboxField({ label, hint, checked, onChange, disabled, error, className }: CheckboxFieldProps) {
   return (
     <Field className={cx('flex items-start gap-2.5', className)} disabled={disabled}>
-      <Checkbox checked={checked} onChange={onChange} aria-invalid={error ? true : undefined} className={cx(checkboxRecipe, 'mt-0.5')}>
-        <svg className="size-3 text-ink-inverse invisible group-data-checked:visible" viewBox="0 0 16 16" fill="none" aria-hidden="true">
-          <path d="m3.5 8.5 3 3 6-7" stroke="currentColor" strokeWidth="2.2" strokeLinecap="round" strokeLinejoin="round" />
+      <Checkbox
+        checked={checked}
+        onChange={onChange}
+        aria-invalid={error ? true : undefined}
+        className={cx(checkboxRecipe, 'mt-0.5')}
+      >
+        <svg
+          className="size-3 text-ink-inverse invisible group-data-checked:visible"
+          viewBox="0 0 16 16"
+          fill="none"
+          aria-hidden="true"
+        >
+          <path
+            d="m3.5 8.5 3 3 6-7"
+            stroke="currentColor"
+            strokeWidth="2.2"
+            strokeLinecap="round"
+            strokeLinejoin="round"
+          />
         </svg>
       </Checkbox>
       <span className="flex flex-col">

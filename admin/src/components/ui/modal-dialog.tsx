@@ -14,7 +14,15 @@ export interface ModalDialogProps {
   size?: 'narrow' | 'wide';
 }
 
-export function ModalDialog({ open, onClose, title, description, children, role = 'dialog', size = 'narrow' }: ModalDialogProps) {
+export function ModalDialog({
+  open,
+  onClose,
+  title,
+  description,
+  children,
+  role = 'dialog',
+  size = 'narrow',
+}: ModalDialogProps) {
   const wide = size === 'wide';
   return (
     <Dialog open={open} onClose={onClose} role={role} transition className="relative z-50">
@@ -34,5 +42,9 @@ export function ModalDialog({ open, onClose, title, description, children, role 
 
 /** The button row at the bottom of a dialog. */
 export function DialogActions({ children }: { children: React.ReactNode }) {
-  return <div className="-mx-5 -mb-4 mt-5 flex justify-end gap-2 border-t border-line bg-canvas px-5 py-3 rounded-b-lg">{children}</div>;
+  return (
+    <div className="-mx-5 -mb-4 mt-5 flex justify-end gap-2 border-t border-line bg-canvas px-5 py-3 rounded-b-lg">
+      {children}
+    </div>
+  );
 }

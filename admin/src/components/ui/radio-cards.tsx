@@ -57,7 +57,9 @@ export function RadioCards<Value extends string>({
               </span>
               <span className="min-w-0">
                 <Label className={radioCardRecipe.label}>{option.label}</Label>
-                {option.description && <Description className={radioCardRecipe.description}>{option.description}</Description>}
+                {option.description && (
+                  <Description className={radioCardRecipe.description}>{option.description}</Description>
+                )}
               </span>
             </Radio>
           </Field>

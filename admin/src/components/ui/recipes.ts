@@ -1,8 +1,7 @@
 // Class recipes for every Headless UI primitive, in one place. Styled with v2 data-attribute variants.
 
 export const buttonRecipe = {
-  base:
-    'inline-flex shrink-0 items-center justify-center gap-1.5 rounded-md text-sm font-medium whitespace-nowrap transition-colors focus:outline-none data-focus:outline-2 data-focus:outline-offset-2 data-focus:outline-spruce data-disabled:cursor-not-allowed data-disabled:opacity-50',
+  base: 'inline-flex shrink-0 items-center justify-center gap-1.5 rounded-md text-sm font-medium whitespace-nowrap transition-colors focus:outline-none data-focus:outline-2 data-focus:outline-offset-2 data-focus:outline-spruce data-disabled:cursor-not-allowed data-disabled:opacity-50',
   sizes: {
     regular: 'h-8 px-3',
     compact: 'h-7 px-2',
@@ -90,7 +89,8 @@ export const radioCardRecipe = {
 export const switchRecipe = {
   track:
     'group inline-flex h-5 w-9 shrink-0 cursor-pointer items-center rounded-full bg-line-strong transition-colors focus:outline-none data-checked:bg-spruce data-focus:outline-2 data-focus:outline-offset-2 data-focus:outline-spruce data-disabled:cursor-not-allowed data-disabled:opacity-50',
-  thumb: 'size-4 translate-x-0.5 rounded-full bg-surface shadow-raised transition-transform group-data-checked:translate-x-4.5',
+  thumb:
+    'size-4 translate-x-0.5 rounded-full bg-surface shadow-raised transition-transform group-data-checked:translate-x-4.5',
 };
 
 export const checkboxRecipe =
@@ -120,5 +120,6 @@ export const tabNavRecipe = {
 
 export const progressRecipe = {
   track: 'relative h-1.5 w-full overflow-hidden rounded-full bg-sunken',
-  indeterminateBar: 'absolute inset-y-0 w-1/3 rounded-full bg-spruce motion-safe:animate-[evenhand-indeterminate_1.4s_ease-in-out_infinite]',
+  indeterminateBar:
+    'absolute inset-y-0 w-1/3 rounded-full bg-spruce motion-safe:animate-[evenhand-indeterminate_1.4s_ease-in-out_infinite]',
 };

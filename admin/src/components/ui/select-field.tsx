@@ -38,18 +38,39 @@ export function SelectField<Value extends string>({
   return (
     <Field className={cx(fieldRecipe.field, className)} disabled={disabled}>
       <Label className={fieldRecipe.label}>{label}</Label>
-      <Listbox value={value ?? null} onChange={(next: Value | null) => next !== null && onChange(next)} invalid={Boolean(error)}>
+      <Listbox
+        value={value ?? null}
+        onChange={(next: Value | null) => next !== null && onChange(next)}
+        invalid={Boolean(error)}
+      >
         <ListboxButton ref={buttonRef} className={listboxRecipe.button} onBlur={onBlur}>
           <span className={selected ? undefined : 'text-ink-faint'}>{selected?.label ?? placeholder}</span>
           <svg className="size-3.5 text-ink-muted" viewBox="0 0 16 16" fill="none" aria-hidden="true">
-            <path d="M4.5 6.5 8 10l3.5-3.5" stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" strokeLinejoin="round" />
+            <path
+              d="M4.5 6.5 8 10l3.5-3.5"
+              stroke="currentColor"
+              strokeWidth="1.6"
+              strokeLinecap="round"
+              strokeLinejoin="round"
+            />
           </svg>
         </ListboxButton>
         <ListboxOptions anchor="bottom start" transition className={listboxRecipe.options}>
           {options.map((option) => (
             <ListboxOption key={option.value} value={option.value} className={listboxRecipe.option}>
-              <svg className="mt-0.5 size-3.5 shrink-0 text-spruce invisible group-data-selected:visible" viewBox="0 0 16 16" fill="none" aria-hidden="true">
-                <path d="m3.5 8.5 3 3 6-7" stroke="currentColor" strokeWidth="1.8" strokeLinecap="round" strokeLinejoin="round" />
+              <svg
+                className="mt-0.5 size-3.5 shrink-0 text-spruce invisible group-data-selected:visible"
+                viewBox="0 0 16 16"
+                fill="none"
+                aria-hidden="true"
+              >
+                <path
+                  d="m3.5 8.5 3 3 6-7"
+                  stroke="currentColor"
+                  strokeWidth="1.8"
+                  strokeLinecap="round"
+                  strokeLinejoin="round"
+                />
               </svg>
               <span>
                 {option.label}

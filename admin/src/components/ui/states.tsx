@@ -5,7 +5,11 @@ import { Spinner } from './spinner';
 
 export function LoadingState({ label = 'Loading…', className }: { label?: string; className?: string }) {
   return (
-    <div role="status" aria-live="polite" className={cx('flex items-center justify-center gap-2 py-10 text-sm text-ink-muted', className)}>
+    <div
+      role="status"
+      aria-live="polite"
+      className={cx('flex items-center justify-center gap-2 py-10 text-sm text-ink-muted', className)}
+    >
       <Spinner />
       <span>{label}</span>
     </div>
@@ -36,7 +40,10 @@ export interface ErrorStateProps {
 
 export function ErrorState({ title = 'This could not be loaded', message, onRetry }: ErrorStateProps) {
   return (
-    <div role="alert" className="flex flex-col items-center gap-2 rounded-lg border border-danger/30 bg-danger-soft px-6 py-10 text-center">
+    <div
+      role="alert"
+      className="flex flex-col items-center gap-2 rounded-lg border border-danger/30 bg-danger-soft px-6 py-10 text-center"
+    >
       <p className="text-lg font-semibold text-danger">{title}</p>
       <p className="max-w-prose text-sm text-ink">{message}</p>
       {onRetry && (
@@ -51,9 +58,20 @@ export function ErrorState({ title = 'This could not be loaded', message, onRetr
 export type NoticeTone = keyof typeof noticeRecipe.tones;
 
 /** A message above a form; announced when it appears. */
-export function Notice({ tone = 'danger', children, className }: { tone?: NoticeTone; children: React.ReactNode; className?: string }) {
+export function Notice({
+  tone = 'danger',
+  children,
+  className,
+}: {
+  tone?: NoticeTone;
+  children: React.ReactNode;
+  className?: string;
+}) {
   return (
-    <div role={tone === 'info' ? 'status' : 'alert'} className={cx(noticeRecipe.base, noticeRecipe.tones[tone], className)}>
+    <div
+      role={tone === 'info' ? 'status' : 'alert'}
+      className={cx(noticeRecipe.base, noticeRecipe.tones[tone], className)}
+    >
       {children}
     </div>
   );

@@ -10,7 +10,15 @@ export interface TextAreaFieldProps extends Omit<TextareaProps, 'className' | 'i
   ref?: React.Ref<HTMLTextAreaElement>;
 }
 
-export function TextAreaField({ label, hint, error, className, disabled, rows = 3, ...textareaProps }: TextAreaFieldProps) {
+export function TextAreaField({
+  label,
+  hint,
+  error,
+  className,
+  disabled,
+  rows = 3,
+  ...textareaProps
+}: TextAreaFieldProps) {
   return (
     <Field className={cx(fieldRecipe.field, className)} disabled={disabled}>
       <Label className={fieldRecipe.label}>{label}</Label>

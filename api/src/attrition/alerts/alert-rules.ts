@@ -44,10 +44,18 @@ export interface AlertContext {
   plannedSize?: number | null;
 }
 
-export function readAlert(rule: AlertRule, report: AttritionReport, earned: PayParityResult, currency: string, context: AlertContext = {}): AlertReading {
+export function readAlert(
+  rule: AlertRule,
+  report: AttritionReport,
+  earned: PayParityResult,
+  currency: string,
+  context: AlertContext = {},
+): AlertReading {
   if (rule.kind === 'differential-attrition') {
     // Every pair of conditions, as the headline on screen: a high pair is never hidden by the comparison picked.
-    const failing = report.wwc.allPairs.filter((pair) => pair.cautious.verdict === 'high-attrition' || pair.cautious.verdict === 'outside-published-range');
+    const failing = report.wwc.allPairs.filter(
+      (pair) => pair.cautious.verdict === 'high-attrition' || pair.cautious.verdict === 'outside-published-range',
+    );
     const computable = report.wwc.allPairs.filter((pair) => pair.differentialAttritionRate !== null);
     const worst = [...(failing.length > 0 ? failing : computable)].sort(
       (x, y) => (y.differentialAttritionRate ?? 0) - (x.differentialAttritionRate ?? 0),
@@ -67,13 +75,20 @@ export function readAlert(rule: AlertRule, report: AttritionReport, earned: PayP
   if (rule.kind === 'log-rank') {
     const { pValue, statistic, df, permutation } = report.survival.logRank;
     // No planned size recorded: every look is an interim look.
-    const interim = context.plannedSize === undefined || context.plannedSize === null || report.overall.randomized < context.plannedSize;
+    const interim =
+      context.plannedSize === undefined ||
+      context.plannedSize === null ||
+      report.overall.randomized < context.plannedSize;
     const threshold = interim ? Math.min(rule.pValueBelow, INTERIM_P_BOUNDARY) : rule.pValueBelow;
     // With few dropouts the permutation p stands in for the asymptotic one.
     const p = permutation?.pValue ?? pValue;
     const crossed = p !== null && p < threshold;
-    const level = interim ? `the interim boundary ${threshold} that applies until the planned size is reached` : `${threshold}`;
-    const which = permutation ? `permutation p = ${permutation.pValue.toPrecision(3)} (few dropouts; asymptotic p = ${pValue?.toPrecision(3)})` : `p = ${p?.toPrecision(3)}`;
+    const level = interim
+      ? `the interim boundary ${threshold} that applies until the planned size is reached`
+      : `${threshold}`;
+    const which = permutation
+      ? `permutation p = ${permutation.pValue.toPrecision(3)} (few dropouts; asymptotic p = ${pValue?.toPrecision(3)})`
+      : `p = ${p?.toPrecision(3)}`;
     const summary =
       (crossed
         ? `Time to dropout differs by condition: log-rank χ² = ${(statistic as number).toFixed(2)} on ${df} df, ${which} (below ${level}).`

@@ -23,7 +23,11 @@ export class AttritionAlertsController {
   @Put()
   @Roles('researcher', 'admin')
   @ApiOkResponse({ type: AttritionAlertsDto })
-  put(@CurrentUser() user: SessionUser, @Param('studyId', uuidParam('studyId')) studyId: string, @Body() body: PutAttritionAlertsDto): Promise<AttritionAlertsDto> {
+  put(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Body() body: PutAttritionAlertsDto,
+  ): Promise<AttritionAlertsDto> {
     return this.alerts.put(user, studyId, body);
   }
 }

@@ -36,7 +36,8 @@ interface RuleWithState {
 
 function toRule(rule: AttritionAlertRuleEntity): AlertRule {
   if (rule.kind === 'log-rank') return { kind: 'log-rank', pValueBelow: rule.pValueBelow as number };
-  if (rule.kind === 'pay-difference') return { kind: 'pay-difference', amountMinor: rule.amountMinor as number, basis: rule.payBasis ?? 'earned' };
+  if (rule.kind === 'pay-difference')
+    return { kind: 'pay-difference', amountMinor: rule.amountMinor as number, basis: rule.payBasis ?? 'earned' };
   return { kind: 'differential-attrition' };
 }
 
@@ -84,8 +85,16 @@ export class AttritionAlertsService implements OnModuleInit {
 
   private async rulesOf(studyId: string, manager: EntityManager = this.dataSource.manager): Promise<RuleWithState[]> {
     const rules = await manager.find(AttritionAlertRuleEntity, { where: { studyId } });
-    const states = rules.length === 0 ? [] : await manager.find(AttritionAlertStateEntity, { where: { ruleId: In(rules.map((rule) => rule.id)) } });
-    return rules.map((rule) => ({ rule, state: states.find((state) => state.ruleId === rule.id) ?? manager.create(AttritionAlertStateEntity, { ruleId: rule.id }) }));
+    const states =
+      rules.length === 0
+        ? []
+        : await manager.find(AttritionAlertStateEntity, { where: { ruleId: In(rules.map((rule) => rule.id)) } });
+    return rules.map((rule) => ({
+      rule,
+      state:
+        states.find((state) => state.ruleId === rule.id) ??
+        manager.create(AttritionAlertStateEntity, { ruleId: rule.id }),
+    }));
   }
 
   async get(studyId: string): Promise<AttritionAlertsDto> {
@@ -120,15 +129,24 @@ export class AttritionAlertsService implements OnModuleInit {
   }
 
   /** A comparison arm is a condition of the study, or for a within-subjects study an order of them joined by ">". */
-  private async requireComparison(manager: EntityManager, studyId: string, design: string, comparisonConditionId: string): Promise<void> {
+  private async requireComparison(
+    manager: EntityManager,
+    studyId: string,
+    design: string,
+    comparisonConditionId: string,
+  ): Promise<void> {
     const ids = comparisonConditionId.split('>');
     const shapeOk = ids.every((id) => UUID.test(id)) && (design === 'within' ? ids.length >= 2 : ids.length === 1);
-    const known = shapeOk && (await Promise.all(ids.map((id) => this.studies.hasCondition(studyId, id, manager)))).every(Boolean);
+    const known =
+      shapeOk && (await Promise.all(ids.map((id) => this.studies.hasCondition(studyId, id, manager)))).every(Boolean);
     if (!known) {
       throw new ValidationException([
         {
           field: 'differentialAttrition.comparisonConditionId',
-          message: design === 'within' ? "must be an order of the study's conditions (condition ids joined by \">\")" : "must be one of the study's conditions",
+          message:
+            design === 'within'
+              ? 'must be an order of the study\'s conditions (condition ids joined by ">")'
+              : "must be one of the study's conditions",
         },
       ]);
     }
@@ -140,9 +158,24 @@ export class AttritionAlertsService implements OnModuleInit {
       const comparison = input.differentialAttrition.comparisonConditionId ?? null;
       if (comparison !== null) await this.requireComparison(manager, studyId, study.design, comparison);
 
-      const wanted: Record<AlertKind, Pick<AttritionAlertRuleEntity, 'enabled' | 'comparisonConditionId' | 'pValueBelow' | 'amountMinor' | 'payBasis'>> = {
-        'differential-attrition': { enabled: input.differentialAttrition.enabled, comparisonConditionId: comparison, pValueBelow: null, amountMinor: null, payBasis: null },
-        'log-rank': { enabled: input.logRank.enabled, comparisonConditionId: null, pValueBelow: input.logRank.pValueBelow, amountMinor: null, payBasis: null },
+      const wanted: Record<
+        AlertKind,
+        Pick<AttritionAlertRuleEntity, 'enabled' | 'comparisonConditionId' | 'pValueBelow' | 'amountMinor' | 'payBasis'>
+      > = {
+        'differential-attrition': {
+          enabled: input.differentialAttrition.enabled,
+          comparisonConditionId: comparison,
+          pValueBelow: null,
+          amountMinor: null,
+          payBasis: null,
+        },
+        'log-rank': {
+          enabled: input.logRank.enabled,
+          comparisonConditionId: null,
+          pValueBelow: input.logRank.pValueBelow,
+          amountMinor: null,
+          payBasis: null,
+        },
         'pay-difference': {
           enabled: input.payDifference.enabled,
           comparisonConditionId: null,
@@ -155,16 +188,37 @@ export class AttritionAlertsService implements OnModuleInit {
       const changed: Record<string, unknown> = {};
       for (const [kind, values] of Object.entries(wanted) as [AlertKind, (typeof wanted)[AlertKind]][]) {
         const current = existing.find((entry) => entry.rule.kind === kind)?.rule;
-        if (current && (Object.keys(values) as (keyof typeof values)[]).every((key) => current[key] === values[key])) continue;
+        if (current && (Object.keys(values) as (keyof typeof values)[]).every((key) => current[key] === values[key]))
+          continue;
         changed[kind] = values;
         const rule = current
           ? await manager.save(Object.assign(current, values, { updatedBy: actor.id }))
-          : await manager.save(manager.create(AttritionAlertRuleEntity, { studyId, kind, ...values, updatedBy: actor.id }));
+          : await manager.save(
+              manager.create(AttritionAlertRuleEntity, { studyId, kind, ...values, updatedBy: actor.id }),
+            );
         // A changed rule starts afresh: if it is above its new threshold, that is a new crossing.
-        await manager.save(manager.create(AttritionAlertStateEntity, { ruleId: rule.id, crossed: false, lastValue: null, lastThreshold: null, evaluatedAt: null, crossedAt: null, notifiedAt: null, crossings: 0 }));
+        await manager.save(
+          manager.create(AttritionAlertStateEntity, {
+            ruleId: rule.id,
+            crossed: false,
+            lastValue: null,
+            lastThreshold: null,
+            evaluatedAt: null,
+            crossedAt: null,
+            notifiedAt: null,
+            crossings: 0,
+          }),
+        );
       }
       if (Object.keys(changed).length > 0) {
-        await this.audit.record(manager, { chain: studyId, actor, action: 'attrition.alerts-updated', subjectType: 'study', subjectId: studyId, data: { changed } });
+        await this.audit.record(manager, {
+          chain: studyId,
+          actor,
+          action: 'attrition.alerts-updated',
+          subjectType: 'study',
+          subjectId: studyId,
+          data: { changed },
+        });
       }
     });
     return this.get(studyId);
@@ -180,11 +234,19 @@ export class AttritionAlertsService implements OnModuleInit {
 
     const differential = enabled.find((entry) => entry.rule.kind === 'differential-attrition')?.rule;
     const figures = await this.figures(studyId, differential?.comparisonConditionId ?? undefined);
-    const readings = new Map(enabled.map(({ rule }) => [rule.id, readAlert(toRule(rule), figures.report, figures.earned, study.currency, { plannedSize: study.targetSize })]));
+    const readings = new Map(
+      enabled.map(({ rule }) => [
+        rule.id,
+        readAlert(toRule(rule), figures.report, figures.earned, study.currency, { plannedSize: study.targetSize }),
+      ]),
+    );
 
     return this.dataSource.transaction(async (manager) => {
       // Locked, so that two evaluators (two api instances, or a test beside the job) cannot both send one crossing.
-      const locked = await manager.find(AttritionAlertRuleEntity, { where: { studyId, enabled: true }, lock: { mode: 'pessimistic_write' } });
+      const locked = await manager.find(AttritionAlertRuleEntity, {
+        where: { studyId, enabled: true },
+        lock: { mode: 'pessimistic_write' },
+      });
       const states = await this.rulesOf(studyId, manager);
       const now = new Date();
       const crossed: { rule: AttritionAlertRuleEntity; reading: AlertReading }[] = [];
@@ -194,11 +256,18 @@ export class AttritionAlertsService implements OnModuleInit {
         const before = enabled.find((entry) => entry.rule.id === rule.id)?.rule;
         // Changed while we computed: the next run judges it against its new settings.
         if (!reading || !before || before.updatedAt.getTime() !== rule.updatedAt.getTime()) continue;
-        const state = states.find((entry) => entry.rule.id === rule.id)?.state ?? manager.create(AttritionAlertStateEntity, { ruleId: rule.id, crossings: 0 });
+        const state =
+          states.find((entry) => entry.rule.id === rule.id)?.state ??
+          manager.create(AttritionAlertStateEntity, { ruleId: rule.id, crossings: 0 });
         const transition = alertTransition(state.crossed, reading.crossed);
         if (transition === 'crossed') {
           crossed.push({ rule, reading });
-          Object.assign(state, { crossed: true, crossedAt: now, notifiedAt: now, crossings: (state.crossings ?? 0) + 1 });
+          Object.assign(state, {
+            crossed: true,
+            crossedAt: now,
+            notifiedAt: now,
+            crossings: (state.crossings ?? 0) + 1,
+          });
         } else if (transition === 'back-below') {
           backBelow.push(rule.kind);
           state.crossed = false;
@@ -207,7 +276,15 @@ export class AttritionAlertsService implements OnModuleInit {
         await manager.save(state);
       }
 
-      const recipients = crossed.length === 0 ? [] : await this.notify(manager, study.id, study.title, crossed.map((entry) => entry.reading));
+      const recipients =
+        crossed.length === 0
+          ? []
+          : await this.notify(
+              manager,
+              study.id,
+              study.title,
+              crossed.map((entry) => entry.reading),
+            );
       for (const { rule, reading } of crossed) {
         await this.audit.record(manager, {
           chain: studyId,
@@ -215,10 +292,22 @@ export class AttritionAlertsService implements OnModuleInit {
           action: 'attrition.alert-sent',
           subjectType: 'attrition-alert-rule',
           subjectId: rule.id,
-          data: { kind: rule.kind, value: reading.value, threshold: reading.threshold, summary: reading.summary, recipients },
+          data: {
+            kind: rule.kind,
+            value: reading.value,
+            threshold: reading.threshold,
+            summary: reading.summary,
+            recipients,
+          },
         });
       }
-      return { studyId, newlyCrossed: crossed.map((entry) => entry.rule.kind), backBelow, recipients, readings: [...readings.values()] };
+      return {
+        studyId,
+        newlyCrossed: crossed.map((entry) => entry.rule.kind),
+        backBelow,
+        recipients,
+        readings: [...readings.values()],
+      };
     });
   }
 
@@ -227,7 +316,11 @@ export class AttritionAlertsService implements OnModuleInit {
       return (await this.attrition.compute(studyId, comparisonConditionId)).figures;
     } catch (error) {
       // The chosen comparison arm may have no one in it yet (within-subjects orders): fall back to the first condition.
-      if (comparisonConditionId !== undefined && error instanceof DomainException && error.code === 'VALIDATION_FAILED') {
+      if (
+        comparisonConditionId !== undefined &&
+        error instanceof DomainException &&
+        error.code === 'VALIDATION_FAILED'
+      ) {
         return (await this.attrition.compute(studyId)).figures;
       }
       throw error;
@@ -235,7 +328,12 @@ export class AttritionAlertsService implements OnModuleInit {
   }
 
   /** One e-mail per researcher of the study, queued in the caller's transaction; returns their addresses. */
-  private async notify(manager: EntityManager, studyId: string, title: string, readings: AlertReading[]): Promise<string[]> {
+  private async notify(
+    manager: EntityManager,
+    studyId: string,
+    title: string,
+    readings: AlertReading[],
+  ): Promise<string[]> {
     const members = await this.studies.listMembers(studyId);
     const researchers = members.items.filter((member) => member.role === 'researcher');
     const url = this.watchUrl(studyId);
@@ -261,14 +359,18 @@ export class AttritionAlertsService implements OnModuleInit {
 
   /** Evaluates every study that has an enabled rule; one study's failure does not stop the others. */
   async evaluateAll(): Promise<{ studies: number; failed: number }> {
-    const rows: { study_id: string }[] = await this.dataSource.query(`SELECT DISTINCT study_id FROM attrition_alert_rule WHERE enabled`);
+    const rows: { study_id: string }[] = await this.dataSource.query(
+      `SELECT DISTINCT study_id FROM attrition_alert_rule WHERE enabled`,
+    );
     let failed = 0;
     for (const { study_id: studyId } of rows) {
       try {
         await this.evaluateStudy(studyId);
       } catch (error) {
         failed += 1;
-        this.logger.error(`Alerts of study ${studyId} could not be evaluated: ${error instanceof Error ? error.message : String(error)}`);
+        this.logger.error(
+          `Alerts of study ${studyId} could not be evaluated: ${error instanceof Error ? error.message : String(error)}`,
+        );
       }
     }
     return { studies: rows.length, failed };

@@ -1,13 +1,29 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { IsBoolean, IsDefined, IsIn, IsInt, IsNumber, IsOptional, IsString, Length, Max, Min, ValidateNested } from 'class-validator';
+import {
+  IsBoolean,
+  IsDefined,
+  IsIn,
+  IsInt,
+  IsNumber,
+  IsOptional,
+  IsString,
+  Length,
+  Max,
+  Min,
+  ValidateNested,
+} from 'class-validator';
 
 export class DifferentialAttritionRuleDto {
   @ApiProperty({ description: 'E-mail when differential attrition is above the cautious WWC boundary' })
   @IsBoolean()
   enabled: boolean;
 
-  @ApiPropertyOptional({ type: String, nullable: true, description: 'Arm the others are compared with; the first condition when null' })
+  @ApiPropertyOptional({
+    type: String,
+    nullable: true,
+    description: 'Arm the others are compared with; the first condition when null',
+  })
   @IsOptional()
   @IsString()
   @Length(1, 2000)
@@ -27,7 +43,9 @@ export class LogRankRuleDto {
 }
 
 export class PayDifferenceRuleDto {
-  @ApiProperty({ description: 'E-mail when mean pay per randomized participant differs between conditions by more than amountMinor' })
+  @ApiProperty({
+    description: 'E-mail when mean pay per randomized participant differs between conditions by more than amountMinor',
+  })
   @IsBoolean()
   enabled: boolean;
 
@@ -37,7 +55,10 @@ export class PayDifferenceRuleDto {
   @Max(1_000_000_000)
   amountMinor: number;
 
-  @ApiProperty({ enum: ['paid', 'earned'], description: 'paid: payouts with status paid; earned: also owed, approved and sending' })
+  @ApiProperty({
+    enum: ['paid', 'earned'],
+    description: 'paid: payouts with status paid; earned: also owed, approved and sending',
+  })
   @IsIn(['paid', 'earned'], { message: 'basis must be paid or earned' })
   basis: 'paid' | 'earned';
 }
@@ -63,7 +84,8 @@ export class PutAttritionAlertsDto {
 }
 
 export class AlertStateDto {
-  @ApiProperty({ description: 'Above the threshold at the last evaluation; no new e-mail until it goes back below' }) crossed: boolean;
+  @ApiProperty({ description: 'Above the threshold at the last evaluation; no new e-mail until it goes back below' })
+  crossed: boolean;
   @ApiProperty({ type: Number, nullable: true }) lastValue: number | null;
   @ApiProperty({ type: Number, nullable: true }) lastThreshold: number | null;
   @ApiProperty({ type: String, nullable: true, format: 'date-time' }) evaluatedAt: string | null;

@@ -1,6 +1,20 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform, Type } from 'class-transformer';
-import { ArrayMaxSize, IsArray, IsIn, IsInt, IsISO8601, IsObject, IsOptional, IsString, IsUUID, Matches, Max, MaxLength, Min } from 'class-validator';
+import {
+  ArrayMaxSize,
+  IsArray,
+  IsIn,
+  IsInt,
+  IsISO8601,
+  IsObject,
+  IsOptional,
+  IsString,
+  IsUUID,
+  Matches,
+  Max,
+  MaxLength,
+  Min,
+} from 'class-validator';
 import { ACTION_FAMILY_KEYS, type ActionFamily } from '../audit-sentences';
 import { MAX_PAGE } from '../../common/http/paging';
 
@@ -50,7 +64,11 @@ export class AuditSelectionDto {
   @IsISO8601({ strict: true }, { message: 'must be a real date' })
   to?: string;
 
-  @ApiPropertyOptional({ description: 'Families of action; several may be given', enum: ACTION_FAMILY_KEYS, isArray: true })
+  @ApiPropertyOptional({
+    description: 'Families of action; several may be given',
+    enum: ACTION_FAMILY_KEYS,
+    isArray: true,
+  })
   @IsOptional()
   @Transform(asList)
   @IsArray()
@@ -58,7 +76,10 @@ export class AuditSelectionDto {
   @IsIn(ACTION_FAMILY_KEYS, { each: true, message: `each must be one of ${ACTION_FAMILY_KEYS.join(', ')}` })
   family?: ActionFamily[];
 
-  @ApiPropertyOptional({ description: 'One stored action code (kept for links made before families)', example: 'auth.signed-in' })
+  @ApiPropertyOptional({
+    description: 'One stored action code (kept for links made before families)',
+    example: 'auth.signed-in',
+  })
   @IsOptional()
   @IsString()
   @Matches(/^[a-z][a-z-]*(\.[a-z][a-z-]*)+$/, { message: 'must be an action code such as auth.signed-in' })
@@ -96,7 +117,8 @@ export class AuditEventDto {
   @ApiProperty({ format: 'date-time' }) at: string;
   @ApiProperty({ nullable: true, type: String }) actorId: string | null;
   @ApiProperty({ nullable: true, type: String }) actorEmail: string | null;
-  @ApiProperty({ description: 'The code as stored (covered by the hash); people read `name` and `sentence`' }) action: string;
+  @ApiProperty({ description: 'The code as stored (covered by the hash); people read `name` and `sentence`' })
+  action: string;
   @ApiProperty({ nullable: true, type: String }) subjectType: string | null;
   @ApiProperty({ nullable: true, type: String }) subjectId: string | null;
   @ApiProperty({ type: 'object', additionalProperties: true }) data: Record<string, unknown>;
@@ -108,7 +130,8 @@ export class AuditEventDto {
   @ApiProperty({ example: 'Coordinator C. Vasquez-Hale approved 3 payouts, $36.00 in all.' }) sentence: string;
   @ApiProperty({ description: 'Who acted, in words', example: 'Coordinator C. Vasquez-Hale' }) actorPhrase: string;
   @ApiProperty({ nullable: true, type: String }) participantReference: string | null;
-  @ApiProperty({ nullable: true, type: String, description: 'The study of the chain; null for lab-wide events' }) studyTitle: string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'The study of the chain; null for lab-wide events' })
+  studyTitle: string | null;
   @ApiProperty({ type: AmountDto, nullable: true }) amount: AmountDto | null;
 }
 
@@ -144,12 +167,19 @@ export class FailingEventDto {
 }
 
 export class AuditFindingDto {
-  @ApiProperty({ nullable: true, type: String, description: 'null when the finding is about the receipt' }) chain: string | null;
-  @ApiProperty({ nullable: true, type: String, description: 'The study of the chain, when it is one' }) studyTitle?: string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'null when the finding is about the receipt' }) chain:
+    string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'The study of the chain, when it is one' }) studyTitle?:
+    string | null;
   @ApiProperty({ nullable: true, type: Number }) sequence: number | null;
   @ApiProperty() reason: string;
   @ApiProperty() message: string;
-  @ApiProperty({ type: FailingEventDto, nullable: true, description: 'The first failing event in words, when it is still stored' }) event?: FailingEventDto | null;
+  @ApiProperty({
+    type: FailingEventDto,
+    nullable: true,
+    description: 'The first failing event in words, when it is still stored',
+  })
+  event?: FailingEventDto | null;
 }
 
 export class ReceiptCheckDto {
@@ -166,7 +196,11 @@ export class AuditReportDto extends AuditVerificationDto {
 }
 
 export class VerifyAgainstReceiptDto {
-  @ApiProperty({ type: 'object', additionalProperties: true, description: 'An audit receipt exactly as downloaded or e-mailed' })
+  @ApiProperty({
+    type: 'object',
+    additionalProperties: true,
+    description: 'An audit receipt exactly as downloaded or e-mailed',
+  })
   @IsObject()
   receipt: Record<string, unknown>;
 }

@@ -4,7 +4,8 @@ import { IsEmail, IsOptional, IsString, Matches, MaxLength, MinLength } from 'cl
 import { USER_ROLES, UserRole } from '../../users';
 import { MIN_PASSWORD_LENGTH } from '../../users';
 
-const lowerTrimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim().toLowerCase() : value);
+const lowerTrimmed = ({ value }: { value: unknown }) =>
+  typeof value === 'string' ? value.trim().toLowerCase() : value;
 
 export class SignInDto {
   @ApiProperty({ example: 'coordinator@evenhand.test' })
@@ -19,13 +20,18 @@ export class SignInDto {
   @MaxLength(200)
   password: string;
 
-  @ApiPropertyOptional({ description: 'The 6-digit code from the authenticator app, when the account has two-factor sign-in on', example: '123456' })
+  @ApiPropertyOptional({
+    description: 'The 6-digit code from the authenticator app, when the account has two-factor sign-in on',
+    example: '123456',
+  })
   @IsOptional()
   @IsString()
   @Matches(/^\s*\d{3}\s?\d{3}\s*$/, { message: 'code must be the 6 digits your authenticator app shows' })
   code?: string;
 
-  @ApiPropertyOptional({ description: 'One of the recovery codes given when two-factor sign-in was turned on; each works once' })
+  @ApiPropertyOptional({
+    description: 'One of the recovery codes given when two-factor sign-in was turned on; each works once',
+  })
   @IsOptional()
   @IsString()
   @MinLength(1, { message: 'recoveryCode is required' })
@@ -61,7 +67,8 @@ export class MeDto {
   @ApiProperty() name: string;
   @ApiProperty({ enum: USER_ROLES }) role: UserRole;
   @ApiProperty() active: boolean;
-  @ApiProperty({ description: 'The person signs in with a two-factor code as well as a password' }) twoFactorEnabled: boolean;
+  @ApiProperty({ description: 'The person signs in with a two-factor code as well as a password' })
+  twoFactorEnabled: boolean;
   @ApiProperty({ description: 'The lab requires two-factor sign-in of admins and this admin has not set it up yet' })
   twoFactorSetupNeeded: boolean;
 }

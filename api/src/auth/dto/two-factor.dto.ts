@@ -5,7 +5,8 @@ export class TwoFactorStatusDto {
   @ApiProperty() enabled: boolean;
   @ApiProperty({ format: 'date-time', nullable: true, type: String }) enabledAt: string | null;
   @ApiProperty({ description: 'Recovery codes not used yet' }) recoveryCodesLeft: number;
-  @ApiProperty({ description: 'The lab requires it of this person (an admin, with the lab setting on)' }) required: boolean;
+  @ApiProperty({ description: 'The lab requires it of this person (an admin, with the lab setting on)' })
+  required: boolean;
 }
 
 /** The secret is shown here once, at set-up, and never returned again. */

@@ -11,7 +11,8 @@ export const Public = () => SetMetadata(IS_PUBLIC, true);
 export const OPTIONAL_SESSION = 'evenhand:optional-session';
 
 /** A public route that still reads the session when there is one (`CurrentUser` is then set, else undefined). */
-export const PublicWithOptionalSession = () => applyDecorators(SetMetadata(IS_PUBLIC, true), SetMetadata(OPTIONAL_SESSION, true));
+export const PublicWithOptionalSession = () =>
+  applyDecorators(SetMetadata(IS_PUBLIC, true), SetMetadata(OPTIONAL_SESSION, true));
 
 export const BEFORE_TWO_FACTOR_SETUP = 'evenhand:before-two-factor-setup';
 

@@ -47,12 +47,20 @@ export function toProblem(exception: unknown): Problem {
       typeof body === 'string'
         ? body
         : Array.isArray((body as { message?: unknown }).message)
-          ? ((body as { message: string[] }).message).join('; ')
+          ? (body as { message: string[] }).message.join('; ')
           : String((body as { message?: unknown }).message ?? exception.message);
     const code = CODE_BY_HTTP_STATUS[statusCode] ?? (statusCode >= 500 ? 'INTERNAL' : 'BAD_REQUEST');
-    return { statusCode, code, message: statusCode === 404 && message.startsWith('Cannot ') ? 'No such route.' : message };
+    return {
+      statusCode,
+      code,
+      message: statusCode === 404 && message.startsWith('Cannot ') ? 'No such route.' : message,
+    };
   }
-  return { statusCode: HttpStatus.INTERNAL_SERVER_ERROR, code: 'INTERNAL', message: 'Something went wrong on our side.' };
+  return {
+    statusCode: HttpStatus.INTERNAL_SERVER_ERROR,
+    code: 'INTERNAL',
+    message: 'Something went wrong on our side.',
+  };
 }
 
 @Catch()

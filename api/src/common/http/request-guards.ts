@@ -41,7 +41,8 @@ export function refuseForeignOrigins(allowedUrls: string[]): RequestHandler {
   return (request: Request, response: Response, next: NextFunction) => {
     if (SAFE_METHODS.has(request.method)) return next();
     const origin = request.get('origin');
-    if (origin === undefined || allowed.has(origin) || origin === `${request.protocol}://${request.get('host')}`) return next();
+    if (origin === undefined || allowed.has(origin) || origin === `${request.protocol}://${request.get('host')}`)
+      return next();
     answer(response, new DomainException('FORBIDDEN', 'This request came from a site that may not act on Evenhand.'));
   };
 }
@@ -63,12 +64,16 @@ export class MediaTypeInterceptor implements NestInterceptor {
   intercept(context: ExecutionContext, next: CallHandler): Observable<unknown> {
     const request = context.switchToHttp().getRequest<Request>();
     if (hasBody(request)) {
-      const declared = this.reflector.getAllAndOverride<string[] | undefined>(API_CONSUMES, [context.getHandler(), context.getClass()]) ?? [
-        'application/json',
-      ];
+      const declared = this.reflector.getAllAndOverride<string[] | undefined>(API_CONSUMES, [
+        context.getHandler(),
+        context.getClass(),
+      ]) ?? ['application/json'];
       const mediaType = (request.get('content-type') ?? '').split(';')[0].trim().toLowerCase();
       if (!declared.includes(mediaType)) {
-        throw new DomainException('UNSUPPORTED_MEDIA_TYPE', `This route takes a body of type ${declared.join(' or ')}.`);
+        throw new DomainException(
+          'UNSUPPORTED_MEDIA_TYPE',
+          `This route takes a body of type ${declared.join(' or ')}.`,
+        );
       }
     }
     return next.handle();

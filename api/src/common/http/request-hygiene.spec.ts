@@ -15,7 +15,11 @@ describe('isUnstorableText', () => {
 
 describe('inspectParsedInput', () => {
   it('names every unstorable string and key by its path', () => {
-    const errors = inspectParsedInput({ title: 'ok', values: { name: 'x\u0000', list: ['fine', '\ud800'] }, ['k\u0000']: 1 });
+    const errors = inspectParsedInput({
+      title: 'ok',
+      values: { name: 'x\u0000', list: ['fine', '\ud800'] },
+      ['k\u0000']: 1,
+    });
     expect(errors.map((e) => e.field)).toEqual(['body', 'values.name', 'values.list.1']);
   });
 

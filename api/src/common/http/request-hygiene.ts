@@ -36,12 +36,17 @@ export function inspectParsedInput(value: unknown, maxDepth = MAX_JSON_DEPTH, ro
       // One report is enough; nothing below this point is read.
       return errors;
     }
-    const entries = Array.isArray(current) ? current.map((item, index) => [String(index), item] as const) : Object.entries(current);
+    const entries = Array.isArray(current)
+      ? current.map((item, index) => [String(index), item] as const)
+      : Object.entries(current);
     for (let i = entries.length - 1; i >= 0; i--) {
       const [key, item] = entries[i];
       const childPath = path ? `${path}.${key}` : key;
       if (!Array.isArray(current) && isUnstorableText(key)) {
-        errors.push({ field: path || 'body', message: 'has a key with a NUL character or an unpaired UTF-16 surrogate' });
+        errors.push({
+          field: path || 'body',
+          message: 'has a key with a NUL character or an unpaired UTF-16 surrogate',
+        });
         continue;
       }
       stack.push({ value: item, path: childPath, depth: depth + 1 });

@@ -3,5 +3,7 @@ import { ValidationException } from '../errors/domain.exception';
 
 /** A path id that must be a UUID; a malformed one is a 400 naming the parameter. */
 export function uuidParam(name: string): ParseUUIDPipe {
-  return new ParseUUIDPipe({ exceptionFactory: () => new ValidationException([{ field: name, message: 'must be a UUID' }]) });
+  return new ParseUUIDPipe({
+    exceptionFactory: () => new ValidationException([{ field: name, message: 'must be a UUID' }]),
+  });
 }

@@ -17,7 +17,11 @@ class ExampleDto {
   @IsInt()
   dueDays?: number | null;
   @ApiProperty() @IsString() name: string;
-  @ApiPropertyOptional({ type: [ItemDto] }) @IsOptional() @ValidateNested({ each: true }) @Type(() => ItemDto) items?: ItemDto[];
+  @ApiPropertyOptional({ type: [ItemDto] })
+  @IsOptional()
+  @ValidateNested({ each: true })
+  @Type(() => ItemDto)
+  items?: ItemDto[];
 }
 
 async function fieldErrors(body: unknown) {
@@ -32,7 +36,9 @@ async function fieldErrors(body: unknown) {
 
 describe('the global validation pipe', () => {
   it('refuses null in an optional field that may not be null, naming it', async () => {
-    expect(await fieldErrors({ name: 'n', title: null })).toEqual([{ field: 'title', message: 'title may not be null; leave it out instead' }]);
+    expect(await fieldErrors({ name: 'n', title: null })).toEqual([
+      { field: 'title', message: 'title may not be null; leave it out instead' },
+    ]);
   });
 
   it('takes null where the contract marks the field nullable', async () => {
@@ -44,6 +50,8 @@ describe('the global validation pipe', () => {
   });
 
   it('refuses null inside nested DTOs with the nested path', async () => {
-    expect((await fieldErrors({ name: 'n', items: [{ label: 'a' }, { label: null }] })).map((e) => e.field)).toEqual(['items.1.label']);
+    expect((await fieldErrors({ name: 'n', items: [{ label: 'a' }, { label: null }] })).map((e) => e.field)).toEqual([
+      'items.1.label',
+    ]);
   });
 });

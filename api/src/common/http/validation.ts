@@ -18,7 +18,12 @@ function flatten(errors: ValidationError[], parent = ''): FieldError[] {
 }
 
 function isDtoInstance(value: unknown): value is object {
-  return typeof value === 'object' && value !== null && !Array.isArray(value) && Object.getPrototypeOf(value) !== Object.prototype;
+  return (
+    typeof value === 'object' &&
+    value !== null &&
+    !Array.isArray(value) &&
+    Object.getPrototypeOf(value) !== Object.prototype
+  );
 }
 
 /**
@@ -31,7 +36,8 @@ export function nullFieldErrors(dto: object, parent = ''): FieldError[] {
   for (const [key, value] of Object.entries(dto)) {
     const field = parent ? `${parent}.${key}` : key;
     if (value === null) {
-      const options = Reflect.getMetadata(API_MODEL_PROPERTIES, Object.getPrototypeOf(dto), key) as { nullable?: boolean } | undefined;
+      const options = Reflect.getMetadata(API_MODEL_PROPERTIES, Object.getPrototypeOf(dto), key) as
+        { nullable?: boolean } | undefined;
       if (!options?.nullable) errors.push({ field, message: `${field} may not be null; leave it out instead` });
     } else if (Array.isArray(value)) {
       value.forEach((item, index) => {
@@ -50,7 +56,14 @@ class EvenhandValidationPipe extends ValidationPipe {
     const reported = new Set(flatten(errors).map((error) => error.field));
     const nulls = isDtoInstance(object) ? nullFieldErrors(object).filter((error) => !reported.has(error.field)) : [];
     // Dotted property names flatten to the same field path as nested class-validator errors.
-    return [...errors, ...nulls.map((error): ValidationError => ({ property: error.field, constraints: { isNotNull: error.message }, children: [] }))];
+    return [
+      ...errors,
+      ...nulls.map((error): ValidationError => ({
+        property: error.field,
+        constraints: { isNotNull: error.message },
+        children: [],
+      })),
+    ];
   }
 }
 

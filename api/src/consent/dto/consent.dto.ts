@@ -1,6 +1,18 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform, Type } from 'class-transformer';
-import { IsBoolean, IsDateString, IsEmail, IsInt, IsObject, IsOptional, IsString, Length, MaxLength, Min, ValidateNested } from 'class-validator';
+import {
+  IsBoolean,
+  IsDateString,
+  IsEmail,
+  IsInt,
+  IsObject,
+  IsOptional,
+  IsString,
+  Length,
+  MaxLength,
+  Min,
+  ValidateNested,
+} from 'class-validator';
 
 const trimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -27,7 +39,10 @@ export class ConsentFieldsDto {
   @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(200) paymentMethod?: string;
   @ApiPropertyOptional() @IsOptional() @IsInt() @Min(1) paymentDays?: number;
   @ApiPropertyOptional() @IsOptional() @IsInt() @Min(1) dataRetentionYears?: number;
-  @ApiPropertyOptional({ description: '(b)(9): whether de-identified data may be used in future research' }) @IsOptional() @IsBoolean() futureUseDeidentified?: boolean;
+  @ApiPropertyOptional({ description: '(b)(9): whether de-identified data may be used in future research' })
+  @IsOptional()
+  @IsBoolean()
+  futureUseDeidentified?: boolean;
 }
 
 export class CreateConsentVersionDto {
@@ -85,15 +100,24 @@ export class ConsentFindingDto {
 export class ConsentCheckDto {
   @ApiProperty() passes: boolean;
   @ApiProperty({ type: [ConsentFindingDto] }) findings: ConsentFindingDto[];
-  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) required: Record<string, unknown>[];
-  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) optional: Record<string, unknown>[];
+  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) required: Record<
+    string,
+    unknown
+  >[];
+  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) optional: Record<
+    string,
+    unknown
+  >[];
 }
 
 export class ConsentVersionDto {
   @ApiProperty({ format: 'uuid' }) id: string;
   @ApiProperty() version: number;
   @ApiProperty() templateId: string;
-  @ApiProperty({ type: ConsentFieldsDto, description: 'The values the text was last filled in with (not the study’s own fields)' })
+  @ApiProperty({
+    type: ConsentFieldsDto,
+    description: 'The values the text was last filled in with (not the study’s own fields)',
+  })
   templateValues: ConsentFieldsDto;
   @ApiProperty({ enum: ['draft', 'active', 'retired'] }) status: 'draft' | 'active' | 'retired';
   @ApiProperty() body: string;
@@ -102,7 +126,8 @@ export class ConsentVersionDto {
   @ApiProperty({ nullable: true, type: String }) approvedAt: string | null;
   @ApiProperty({ nullable: true, type: Object, description: 'The uploaded ethics approval letter' })
   approvalLetter: { name: string | null; size: number; sha256: string } | null;
-  @ApiProperty({ nullable: true, type: String, description: 'SHA-256 of the rendered text, fixed at activation' }) fingerprint: string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'SHA-256 of the rendered text, fixed at activation' })
+  fingerprint: string | null;
   @ApiProperty({ nullable: true, type: String }) activeFrom: string | null;
   @ApiProperty({ nullable: true, type: String }) activeTo: string | null;
   @ApiProperty() readingMinutes: number;

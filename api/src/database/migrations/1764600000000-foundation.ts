@@ -71,7 +71,9 @@ export class Foundation1764600000000 implements MigrationInterface {
         role text NOT NULL,
         created_at timestamptz NOT NULL DEFAULT now()
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX study_membership_study_user_key ON study_membership (study_id, user_id)`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX study_membership_study_user_key ON study_membership (study_id, user_id)`,
+    );
     await queryRunner.query(`CREATE INDEX study_membership_user_idx ON study_membership (user_id)`);
 
     await queryRunner.query(`

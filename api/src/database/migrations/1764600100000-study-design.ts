@@ -6,10 +6,14 @@ export class StudyDesign1764600100000 implements MigrationInterface {
 
   async up(queryRunner: QueryRunner): Promise<void> {
     await queryRunner.query(`ALTER TABLE study ADD COLUMN summary text NOT NULL DEFAULT ''`);
-    await queryRunner.query(`ALTER TABLE study ADD COLUMN estimated_minutes integer NULL CHECK (estimated_minutes IS NULL OR estimated_minutes > 0)`);
+    await queryRunner.query(
+      `ALTER TABLE study ADD COLUMN estimated_minutes integer NULL CHECK (estimated_minutes IS NULL OR estimated_minutes > 0)`,
+    );
     await queryRunner.query(`ALTER TABLE study ADD COLUMN opened_at timestamptz NULL`);
     await queryRunner.query(`ALTER TABLE study ADD COLUMN closed_at timestamptz NULL`);
-    await queryRunner.query(`ALTER TABLE study ADD COLUMN created_by uuid NULL REFERENCES user_account(id) ON DELETE SET NULL`);
+    await queryRunner.query(
+      `ALTER TABLE study ADD COLUMN created_by uuid NULL REFERENCES user_account(id) ON DELETE SET NULL`,
+    );
 
     await queryRunner.query(`
       CREATE TABLE condition (
@@ -24,7 +28,9 @@ export class StudyDesign1764600100000 implements MigrationInterface {
         created_at timestamptz NOT NULL DEFAULT now(),
         updated_at timestamptz NOT NULL DEFAULT now()
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX condition_study_name_key ON condition (study_id, lower(internal_name))`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX condition_study_name_key ON condition (study_id, lower(internal_name))`,
+    );
     await queryRunner.query(`CREATE UNIQUE INDEX condition_study_code_key ON condition (study_id, code)`);
 
     await queryRunner.query(`
@@ -50,7 +56,9 @@ export class StudyDesign1764600100000 implements MigrationInterface {
         recorded_by uuid NULL REFERENCES user_account(id) ON DELETE SET NULL,
         recorded_at timestamptz NOT NULL DEFAULT now()
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX step_pay_override_step_condition_key ON step_pay_override (step_id, condition_id)`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX step_pay_override_step_condition_key ON step_pay_override (step_id, condition_id)`,
+    );
 
     await queryRunner.query(`
       CREATE TABLE stratification_factor (
@@ -64,7 +72,9 @@ export class StudyDesign1764600100000 implements MigrationInterface {
         minimization_weight numeric NOT NULL DEFAULT 1 CHECK (minimization_weight > 0),
         position integer NOT NULL
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX stratification_factor_study_key_key ON stratification_factor (study_id, key)`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX stratification_factor_study_key_key ON stratification_factor (study_id, key)`,
+    );
 
     await queryRunner.query(`
       CREATE TABLE assignment_scheme (
@@ -109,7 +119,9 @@ export class StudyDesign1764600100000 implements MigrationInterface {
         created_at timestamptz NOT NULL DEFAULT now(),
         updated_at timestamptz NOT NULL DEFAULT now()
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX enrollment_study_participant_key ON enrollment (study_id, participant_id)`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX enrollment_study_participant_key ON enrollment (study_id, participant_id)`,
+    );
     await queryRunner.query(`CREATE UNIQUE INDEX enrollment_study_reference_key ON enrollment (study_id, reference)`);
     await queryRunner.query(`CREATE INDEX enrollment_study_status_idx ON enrollment (study_id, status)`);
     await queryRunner.query(`CREATE INDEX enrollment_participant_idx ON enrollment (participant_id)`);
@@ -129,7 +141,9 @@ export class StudyDesign1764600100000 implements MigrationInterface {
         taken_at timestamptz NULL,
         CONSTRAINT allocation_slot_has_assignment CHECK (condition_id IS NOT NULL OR condition_order IS NOT NULL)
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX allocation_slot_stratum_position_key ON allocation_slot (study_id, stratum_key, position)`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX allocation_slot_stratum_position_key ON allocation_slot (study_id, stratum_key, position)`,
+    );
     await queryRunner.query(`CREATE UNIQUE INDEX allocation_slot_taken_by_key ON allocation_slot (taken_by)`);
     await queryRunner.query(`
       CREATE TABLE allocation (
@@ -149,7 +163,9 @@ export class StudyDesign1764600100000 implements MigrationInterface {
     await queryRunner.query(`CREATE SEQUENCE allocation_sequence AS integer`);
     await queryRunner.query(`CREATE UNIQUE INDEX allocation_study_sequence_key ON allocation (study_id, sequence)`);
     await queryRunner.query(`CREATE UNIQUE INDEX allocation_enrollment_key ON allocation (enrollment_id)`);
-    await queryRunner.query(`CREATE INDEX allocation_slot_next_free_idx ON allocation_slot (study_id, stratum_key, position) WHERE taken_by IS NULL`);
+    await queryRunner.query(
+      `CREATE INDEX allocation_slot_next_free_idx ON allocation_slot (study_id, stratum_key, position) WHERE taken_by IS NULL`,
+    );
   }
 
   async down(queryRunner: QueryRunner): Promise<void> {

@@ -25,7 +25,9 @@ export class ConsentAndEnrollment1764600200000 implements MigrationInterface {
         eligible_max numeric NULL,
         position integer NOT NULL
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX screening_question_study_key_key ON screening_question (study_id, key)`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX screening_question_study_key_key ON screening_question (study_id, key)`,
+    );
 
     await queryRunner.query(`
       CREATE TABLE consent_version (
@@ -51,8 +53,12 @@ export class ConsentAndEnrollment1764600200000 implements MigrationInterface {
         updated_at timestamptz NOT NULL DEFAULT now(),
         CONSTRAINT consent_version_active_is_fixed CHECK (status = 'draft' OR (fingerprint IS NOT NULL AND rendered_text IS NOT NULL AND approval_letter IS NOT NULL))
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX consent_version_study_version_key ON consent_version (study_id, version)`);
-    await queryRunner.query(`CREATE UNIQUE INDEX consent_version_one_active_key ON consent_version (study_id) WHERE status = 'active'`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX consent_version_study_version_key ON consent_version (study_id, version)`,
+    );
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX consent_version_one_active_key ON consent_version (study_id) WHERE status = 'active'`,
+    );
     // An approved form is evidence: once it has left draft its text may never change.
     await queryRunner.query(`
       CREATE FUNCTION consent_version_freeze_approved() RETURNS trigger LANGUAGE plpgsql AS $$
@@ -70,9 +76,13 @@ export class ConsentAndEnrollment1764600200000 implements MigrationInterface {
       FOR EACH ROW EXECUTE FUNCTION consent_version_freeze_approved()`);
 
     await queryRunner.query(`ALTER TABLE enrollment ADD COLUMN screening_answers jsonb NULL`);
-    await queryRunner.query(`ALTER TABLE enrollment ADD COLUMN signed_version_id uuid NULL REFERENCES consent_version(id) ON DELETE RESTRICT`);
+    await queryRunner.query(
+      `ALTER TABLE enrollment ADD COLUMN signed_version_id uuid NULL REFERENCES consent_version(id) ON DELETE RESTRICT`,
+    );
     await queryRunner.query(`ALTER TABLE enrollment ADD COLUMN reconsent_requested_at timestamptz NULL`);
-    await queryRunner.query(`ALTER TABLE enrollment ADD COLUMN invited_by uuid NULL REFERENCES user_account(id) ON DELETE SET NULL`);
+    await queryRunner.query(
+      `ALTER TABLE enrollment ADD COLUMN invited_by uuid NULL REFERENCES user_account(id) ON DELETE SET NULL`,
+    );
     await queryRunner.query(`ALTER TABLE enrollment ADD COLUMN invitation_sent_at timestamptz NULL`);
     await queryRunner.query(`ALTER TABLE enrollment ADD COLUMN display_name text NULL`);
 
@@ -94,13 +104,22 @@ export class ConsentAndEnrollment1764600200000 implements MigrationInterface {
         pdf_ready_at timestamptz NULL,
         copy_emailed_at timestamptz NULL
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX signature_enrollment_version_key ON signature (enrollment_id, consent_version_id)`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX signature_enrollment_version_key ON signature (enrollment_id, consent_version_id)`,
+    );
     await queryRunner.query(`CREATE INDEX signature_version_idx ON signature (consent_version_id)`);
   }
 
   async down(queryRunner: QueryRunner): Promise<void> {
     await queryRunner.query(`DROP TABLE signature`);
-    for (const column of ['display_name', 'invitation_sent_at', 'invited_by', 'reconsent_requested_at', 'signed_version_id', 'screening_answers']) {
+    for (const column of [
+      'display_name',
+      'invitation_sent_at',
+      'invited_by',
+      'reconsent_requested_at',
+      'signed_version_id',
+      'screening_answers',
+    ]) {
       await queryRunner.query(`ALTER TABLE enrollment DROP COLUMN ${column}`);
     }
     await queryRunner.query(`DROP TRIGGER consent_version_frozen ON consent_version`);

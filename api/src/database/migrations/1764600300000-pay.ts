@@ -6,7 +6,9 @@ export class Pay1764600300000 implements MigrationInterface {
 
   async up(queryRunner: QueryRunner): Promise<void> {
     await queryRunner.query(`ALTER TABLE step ADD COLUMN completion_code_hash text NULL`);
-    await queryRunner.query(`ALTER TABLE study ADD COLUMN completion_bonus_minor bigint NOT NULL DEFAULT 0 CHECK (completion_bonus_minor >= 0)`);
+    await queryRunner.query(
+      `ALTER TABLE study ADD COLUMN completion_bonus_minor bigint NOT NULL DEFAULT 0 CHECK (completion_bonus_minor >= 0)`,
+    );
 
     await queryRunner.query(`
       CREATE TABLE step_completion (
@@ -17,7 +19,9 @@ export class Pay1764600300000 implements MigrationInterface {
         verified_by text NOT NULL CHECK (verified_by IN ('code','staff')),
         recorded_by uuid NULL REFERENCES user_account(id) ON DELETE SET NULL
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX step_completion_enrollment_step_key ON step_completion (enrollment_id, step_id)`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX step_completion_enrollment_step_key ON step_completion (enrollment_id, step_id)`,
+    );
 
     await queryRunner.query(`
       CREATE TABLE payout (
@@ -46,12 +50,20 @@ export class Pay1764600300000 implements MigrationInterface {
         updated_at timestamptz NOT NULL DEFAULT now()
       )`);
     await queryRunner.query(`CREATE UNIQUE INDEX payout_idempotency_key_key ON payout (idempotency_key)`);
-    await queryRunner.query(`CREATE UNIQUE INDEX payout_step_completion_key ON payout (step_completion_id) WHERE step_completion_id IS NOT NULL AND status NOT IN ('cancelled','reversed')`);
-    await queryRunner.query(`CREATE UNIQUE INDEX payout_bonus_once_key ON payout (enrollment_id) WHERE kind = 'bonus' AND status NOT IN ('cancelled','reversed')`);
-    await queryRunner.query(`CREATE UNIQUE INDEX payout_provider_transfer_key ON payout (provider_transfer_id) WHERE provider_transfer_id IS NOT NULL`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX payout_step_completion_key ON payout (step_completion_id) WHERE step_completion_id IS NOT NULL AND status NOT IN ('cancelled','reversed')`,
+    );
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX payout_bonus_once_key ON payout (enrollment_id) WHERE kind = 'bonus' AND status NOT IN ('cancelled','reversed')`,
+    );
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX payout_provider_transfer_key ON payout (provider_transfer_id) WHERE provider_transfer_id IS NOT NULL`,
+    );
     await queryRunner.query(`CREATE INDEX payout_study_status_idx ON payout (study_id, status)`);
     await queryRunner.query(`CREATE INDEX payout_enrollment_idx ON payout (enrollment_id)`);
-    await queryRunner.query(`CREATE INDEX payout_participant_paid_idx ON payout (participant_id, paid_at) WHERE status = 'paid'`);
+    await queryRunner.query(
+      `CREATE INDEX payout_participant_paid_idx ON payout (participant_id, paid_at) WHERE status = 'paid'`,
+    );
 
     await queryRunner.query(`
       CREATE TABLE payout_account (
@@ -74,7 +86,9 @@ export class Pay1764600300000 implements MigrationInterface {
         received_at timestamptz NOT NULL DEFAULT now(),
         processed_at timestamptz NULL
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX provider_event_provider_event_id_key ON provider_event (provider_event_id)`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX provider_event_provider_event_id_key ON provider_event (provider_event_id)`,
+    );
 
     await queryRunner.query(`
       CREATE TABLE study_funding (
@@ -88,7 +102,9 @@ export class Pay1764600300000 implements MigrationInterface {
         created_at timestamptz NOT NULL DEFAULT now(),
         succeeded_at timestamptz NULL
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX study_funding_payment_intent_key ON study_funding (payment_intent_id)`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX study_funding_payment_intent_key ON study_funding (payment_intent_id)`,
+    );
     await queryRunner.query(`CREATE INDEX study_funding_study_idx ON study_funding (study_id)`);
   }
 

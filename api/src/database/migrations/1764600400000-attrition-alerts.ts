@@ -23,7 +23,9 @@ export class AttritionAlerts1764600400000 implements MigrationInterface {
           OR (kind = 'log-rank' AND p_value_below IS NOT NULL)
           OR (kind = 'pay-difference' AND amount_minor IS NOT NULL AND pay_basis IS NOT NULL))
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX attrition_alert_rule_study_kind_key ON attrition_alert_rule (study_id, kind)`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX attrition_alert_rule_study_kind_key ON attrition_alert_rule (study_id, kind)`,
+    );
 
     await queryRunner.query(`
       CREATE TABLE attrition_alert_state (

@@ -41,7 +41,9 @@ export class StepVerificationAndContact1764600600000 implements MigrationInterfa
         ADD COLUMN undo_reason text NULL`);
     // An undone completion stays as history; the step can then be completed again.
     await queryRunner.query(`DROP INDEX step_completion_enrollment_step_key`);
-    await queryRunner.query(`CREATE UNIQUE INDEX step_completion_enrollment_step_key ON step_completion (enrollment_id, step_id) WHERE undone_at IS NULL`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX step_completion_enrollment_step_key ON step_completion (enrollment_id, step_id) WHERE undone_at IS NULL`,
+    );
 
     await queryRunner.query(`
       CREATE TABLE reminder_plan (
@@ -67,7 +69,9 @@ export class StepVerificationAndContact1764600600000 implements MigrationInterfa
       )`);
     await queryRunner.query(`CREATE INDEX contact_enrollment_sent_idx ON contact (enrollment_id, sent_at)`);
     await queryRunner.query(`CREATE INDEX contact_study_idx ON contact (study_id)`);
-    await queryRunner.query(`CREATE UNIQUE INDEX contact_enrollment_dedupe_key ON contact (enrollment_id, dedupe_key) WHERE dedupe_key IS NOT NULL`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX contact_enrollment_dedupe_key ON contact (enrollment_id, dedupe_key) WHERE dedupe_key IS NOT NULL`,
+    );
   }
 
   async down(queryRunner: QueryRunner): Promise<void> {
@@ -75,9 +79,13 @@ export class StepVerificationAndContact1764600600000 implements MigrationInterfa
     await queryRunner.query(`DROP TABLE reminder_plan`);
     await queryRunner.query(`DELETE FROM step_completion WHERE undone_at IS NOT NULL`);
     await queryRunner.query(`DROP INDEX step_completion_enrollment_step_key`);
-    await queryRunner.query(`CREATE UNIQUE INDEX step_completion_enrollment_step_key ON step_completion (enrollment_id, step_id)`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX step_completion_enrollment_step_key ON step_completion (enrollment_id, step_id)`,
+    );
     await queryRunner.query(`ALTER TABLE step_completion DROP CONSTRAINT step_completion_verified_by_check`);
-    await queryRunner.query(`UPDATE step_completion SET verified_by = CASE WHEN verified_by IN ('staff','staff-list') THEN 'staff' ELSE 'code' END`);
+    await queryRunner.query(
+      `UPDATE step_completion SET verified_by = CASE WHEN verified_by IN ('staff','staff-list') THEN 'staff' ELSE 'code' END`,
+    );
     await queryRunner.query(`
       ALTER TABLE step_completion
         ADD CONSTRAINT step_completion_verified_by_check CHECK (verified_by IN ('code','staff')),

@@ -18,7 +18,9 @@ export class PayoutRecovery1764600850000 implements MigrationInterface {
       )`);
     await queryRunner.query(`ALTER TABLE provider_event ADD COLUMN object_id text NULL`);
     await queryRunner.query(`ALTER TABLE provider_event ADD COLUMN applied boolean NOT NULL DEFAULT true`);
-    await queryRunner.query(`CREATE INDEX provider_event_object_idx ON provider_event (object_id) WHERE object_id IS NOT NULL`);
+    await queryRunner.query(
+      `CREATE INDEX provider_event_object_idx ON provider_event (object_id) WHERE object_id IS NOT NULL`,
+    );
     await queryRunner.query(`CREATE INDEX payout_sending_since_idx ON payout (updated_at) WHERE status = 'sending'`);
   }
 

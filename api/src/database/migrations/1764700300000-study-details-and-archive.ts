@@ -7,7 +7,9 @@ export class StudyDetailsAndArchive1764700300000 implements MigrationInterface {
   async up(queryRunner: QueryRunner): Promise<void> {
     await queryRunner.query(`ALTER TABLE study ADD COLUMN ethics_approval_reference text NULL`);
     await queryRunner.query(`ALTER TABLE study ADD COLUMN archived_at timestamptz NULL`);
-    await queryRunner.query(`ALTER TABLE study ADD CONSTRAINT study_archived_only_when_closed CHECK (archived_at IS NULL OR status = 'closed')`);
+    await queryRunner.query(
+      `ALTER TABLE study ADD CONSTRAINT study_archived_only_when_closed CHECK (archived_at IS NULL OR status = 'closed')`,
+    );
     await queryRunner.query(`CREATE INDEX study_archived_at_idx ON study (archived_at)`);
   }
 

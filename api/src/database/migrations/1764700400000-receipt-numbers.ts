@@ -14,7 +14,9 @@ export class ReceiptNumbers1764700400000 implements MigrationInterface {
         last_number integer NOT NULL
       )`);
     await queryRunner.query(`ALTER TABLE payout ADD COLUMN receipt_number text NULL`);
-    await queryRunner.query(`CREATE UNIQUE INDEX payout_receipt_number_key ON payout (receipt_number) WHERE receipt_number IS NOT NULL`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX payout_receipt_number_key ON payout (receipt_number) WHERE receipt_number IS NOT NULL`,
+    );
     // Payouts paid before this change get their numbers in the order they were paid.
     await queryRunner.query(`
       WITH numbered AS (

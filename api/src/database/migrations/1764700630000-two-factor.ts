@@ -23,7 +23,9 @@ export class TwoFactor1764700630000 implements MigrationInterface {
         used_at timestamptz NULL,
         created_at timestamptz NOT NULL DEFAULT now()
       )`);
-    await queryRunner.query(`CREATE UNIQUE INDEX two_factor_recovery_code_hash_key ON two_factor_recovery_code (user_id, code_hash)`);
+    await queryRunner.query(
+      `CREATE UNIQUE INDEX two_factor_recovery_code_hash_key ON two_factor_recovery_code (user_id, code_hash)`,
+    );
     await queryRunner.query(`
       CREATE TABLE lab_setting (
         id boolean PRIMARY KEY DEFAULT true CHECK (id),

@@ -12,7 +12,14 @@ import { StudiesService } from '../../studies/studies.service';
 import { UsersService } from '../../users/users.service';
 import { playDemoHistory } from './play-demo-history';
 import { playDemoPayouts } from './play-demo-payouts';
-import { DEMO_LAB, DEMO_MEMBERSHIPS, DEMO_STUDIES, DemoStudy, demoParticipantEmail, demoTaskAddress } from './demo-scenario';
+import {
+  DEMO_LAB,
+  DEMO_MEMBERSHIPS,
+  DEMO_STUDIES,
+  DemoStudy,
+  demoParticipantEmail,
+  demoTaskAddress,
+} from './demo-scenario';
 
 const DEMO_CLIENT = { ip: '127.0.0.1', userAgent: 'Evenhand demo loader' };
 
@@ -35,15 +42,30 @@ async function demoApprovalLetter(study: DemoStudy, reference: string): Promise<
   return Buffer.from(await pdf.save());
 }
 
-async function activateVersion(consent: ConsentService, actor: SessionUser, studyId: string, study: DemoStudy, reference: string, amend?: (body: string) => string) {
+async function activateVersion(
+  consent: ConsentService,
+  actor: SessionUser,
+  studyId: string,
+  study: DemoStudy,
+  reference: string,
+  amend?: (body: string) => string,
+) {
   const draft = await consent.createDraft(actor, studyId, 'consent/minimal-risk-paid-study', {
     ...DEMO_LAB.consentValues,
     contactEmail: study.contactEmail,
     studyPurpose: study.purpose,
   });
-  await consent.updateDraft(actor, studyId, draft.id, { approvalReference: reference, approvedAt: '2026-11-20', ...(amend ? { body: amend(draft.body) } : {}) });
+  await consent.updateDraft(actor, studyId, draft.id, {
+    approvalReference: reference,
+    approvedAt: '2026-11-20',
+    ...(amend ? { body: amend(draft.body) } : {}),
+  });
   const letter = await demoApprovalLetter(study, reference);
-  await consent.uploadApprovalLetter(actor, studyId, draft.id, { buffer: letter, originalname: `${reference}.pdf`, size: letter.length });
+  await consent.uploadApprovalLetter(actor, studyId, draft.id, {
+    buffer: letter,
+    originalname: `${reference}.pdf`,
+    size: letter.length,
+  });
   return consent.activate(actor, studyId, draft.id);
 }
 
@@ -62,7 +84,12 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
   const users = app.get(UsersService);
   const coordinatorEntity = await users.findByEmail('coordinator@evenhand.test');
   if (!coordinatorEntity) throw new Error('load the demo accounts first');
-  const coordinator: SessionUser = { id: coordinatorEntity.id, email: coordinatorEntity.email, name: coordinatorEntity.name, role: 'coordinator' };
+  const coordinator: SessionUser = {
+    id: coordinatorEntity.id,
+    email: coordinatorEntity.email,
+    name: coordinatorEntity.name,
+    role: 'coordinator',
+  };
   const built: string[] = [];
 
   for (const demo of DEMO_STUDIES) {
@@ -90,7 +117,11 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
     if (demo.factors.length) await studies.replaceFactors(coordinator, study.id, demo.factors);
     await studies.replaceScreeningQuestions(coordinator, study.id, demo.screening);
     for (const step of demo.steps) {
-      const { items } = await steps.create(coordinator, study.id, { title: step.title, description: step.description, payMinor: step.payMinor });
+      const { items } = await steps.create(coordinator, study.id, {
+        title: step.title,
+        description: step.description,
+        payMinor: step.payMinor,
+      });
       await steps.saveSettings(coordinator, study.id, items[items.length - 1].id, {
         verification: step.verification,
         taskUrl: step.task ? demoTaskAddress(step.task) : null,
@@ -117,26 +148,52 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
       const participant: SessionUser = { id: user.id, email: user.email, name: '', role: 'participant' };
       await enrollments.join(participant, study.id);
       const excluded = i < demo.participants.excluded;
-      const answers: Record<string, number | string | boolean> = Object.fromEntries(demo.screening.map((q) => [q.key, !(excluded && q.key === 'adult')]));
+      const answers: Record<string, number | string | boolean> = Object.fromEntries(
+        demo.screening.map((q) => [q.key, !(excluded && q.key === 'adult')]),
+      );
       // A spread of self-ratings, so both strata fill.
       for (const factor of demo.factors) answers[factor.key] = (n * 37) % 101;
       const screening = await enrollments.submitScreening(participant, study.id, answers);
       if (!screening.eligible) continue;
-      await enrollments.sign(participant, study.id, { versionId: first.id, fingerprint: first.fingerprint!, typedName: `Demo Participant ${String(n).padStart(3, '0')}` }, DEMO_CLIENT);
+      await enrollments.sign(
+        participant,
+        study.id,
+        {
+          versionId: first.id,
+          fingerprint: first.fingerprint!,
+          typedName: `Demo Participant ${String(n).padStart(3, '0')}`,
+        },
+        DEMO_CLIENT,
+      );
       signedUp.push(participant);
     }
 
     if (demo.amendment) {
       const amendment = demo.amendment;
       const second = await activateVersion(consent, coordinator, study.id, demo, amendment.approvalReference, (body) =>
-        body.replace(/(## What the study is about and what you will do\n(?:<!--[^\n]*-->\n)?)/, `$1\n${amendment.note}\n`),
+        body.replace(
+          /(## What the study is about and what you will do\n(?:<!--[^\n]*-->\n)?)/,
+          `$1\n${amendment.note}\n`,
+        ),
       );
       for (const participant of signedUp.slice(0, amendment.resign)) {
-        await enrollments.sign(participant, study.id, { versionId: second.id, fingerprint: second.fingerprint!, typedName: `Demo Participant (re-signed)` }, DEMO_CLIENT);
+        await enrollments.sign(
+          participant,
+          study.id,
+          { versionId: second.id, fingerprint: second.fingerprint!, typedName: `Demo Participant (re-signed)` },
+          DEMO_CLIENT,
+        );
       }
     }
     // Only people on the current consent version can go on with their steps; the rest wait to re-consent.
-    if (demo.history) await playDemoHistory(app, coordinator, study.id, demo, signedUp.slice(0, demo.amendment?.resign ?? signedUp.length));
+    if (demo.history)
+      await playDemoHistory(
+        app,
+        coordinator,
+        study.id,
+        demo,
+        signedUp.slice(0, demo.amendment?.resign ?? signedUp.length),
+      );
     if (demo.pay) await playDemoPayouts(app, coordinator, study.id, demo, signedUp);
     if (demo.closedAndArchived) {
       await studies.transition(coordinator, study.id, 'close');

@@ -74,7 +74,12 @@ export interface DemoStudy {
    * the last `notSetUp` payees never set up getting paid, and one payout that failed because its payee had not
    * finished setting up yet (they have since, so a retry goes through).
    */
-  pay?: { fundings: Array<{ amountMinor: number; daysAgo: number }>; paidAfterDays?: number; notSetUp?: number; failedOnce?: boolean };
+  pay?: {
+    fundings: Array<{ amountMinor: number; daysAgo: number }>;
+    paidAfterDays?: number;
+    notSetUp?: number;
+    failedOnce?: boolean;
+  };
   /** A finished pilot: closed once its people signed, then archived (it shows under Studies › Archive). */
   closedAndArchived?: boolean;
 }
@@ -92,17 +97,20 @@ export const DEMO_STUDIES: DemoStudy[] = [
     budgetMinor: 600000,
     contactEmail: 'wayfinding@harborlane.test',
     blinded: true,
-    purpose: 'We want to learn which kind of route help lets people find their way best in a building they have never seen.',
+    purpose:
+      'We want to learn which kind of route help lets people find their way best in a building they have never seen.',
     conditions: [
       {
         internalName: 'audio cues',
         participantLabel: 'Route guide, version 1',
-        participantInstructions: 'Turn your sound on. At each junction you will hear a short spoken hint about where to go next.',
+        participantInstructions:
+          'Turn your sound on. At each junction you will hear a short spoken hint about where to go next.',
       },
       {
         internalName: 'map cues',
         participantLabel: 'Route guide, version 2',
-        participantInstructions: 'A small floor plan stays in the corner of the screen. Your position is shown on it as you walk.',
+        participantInstructions:
+          'A small floor plan stays in the corner of the screen. Your position is shown on it as you walk.',
       },
       {
         internalName: 'no cues',
@@ -110,10 +118,23 @@ export const DEMO_STUDIES: DemoStudy[] = [
         participantInstructions: 'Find your way using what you see in the building: signs, doors and landmarks.',
       },
     ],
-    factors: [{ key: 'sense_of_direction', label: 'On a scale from 0 to 100, how good is your sense of direction?', kind: 'numeric', cutPoints: [50] }],
+    factors: [
+      {
+        key: 'sense_of_direction',
+        label: 'On a scale from 0 to 100, how good is your sense of direction?',
+        kind: 'numeric',
+        cutPoints: [50],
+      },
+    ],
     screening: [
       { key: 'adult', label: 'Are you 18 or older?', kind: 'yes-no', eligibleValues: [true], criterion: '18 or older' },
-      { key: 'vision', label: 'Can you see a computer screen clearly (with glasses or lenses if you use them)?', kind: 'yes-no', eligibleValues: [true], criterion: 'Able to see a screen clearly' },
+      {
+        key: 'vision',
+        label: 'Can you see a computer screen clearly (with glasses or lenses if you use them)?',
+        kind: 'yes-no',
+        eligibleValues: [true],
+        criterion: 'Able to see a screen clearly',
+      },
     ],
     // The sessions run in the lab's own task tool and bring people back by return link; the call is checked off by staff.
     steps: [
@@ -190,20 +211,36 @@ export const DEMO_STUDIES: DemoStudy[] = [
     title: 'Checkout flows',
     protocolNumber: 'HLCL-2026-021',
     design: 'within',
-    summary: 'One online session in which you buy a few things in three versions of a pretend shop and tell us how it went.',
+    summary:
+      'One online session in which you buy a few things in three versions of a pretend shop and tell us how it went.',
     estimatedMinutes: 40,
     targetSize: 36,
     budgetMinor: 180000,
     contactEmail: 'checkout@harborlane.test',
     blinded: false,
-    purpose: 'We want to learn how the design of an online checkout changes how quickly and comfortably people finish a purchase.',
+    purpose:
+      'We want to learn how the design of an online checkout changes how quickly and comfortably people finish a purchase.',
     conditions: [
-      { internalName: 'one-page checkout', participantLabel: 'Shop A', participantInstructions: 'Buy the three items on your list in Shop A.' },
-      { internalName: 'step-by-step checkout', participantLabel: 'Shop B', participantInstructions: 'Buy the three items on your list in Shop B.' },
-      { internalName: 'express checkout', participantLabel: 'Shop C', participantInstructions: 'Buy the three items on your list in Shop C.' },
+      {
+        internalName: 'one-page checkout',
+        participantLabel: 'Shop A',
+        participantInstructions: 'Buy the three items on your list in Shop A.',
+      },
+      {
+        internalName: 'step-by-step checkout',
+        participantLabel: 'Shop B',
+        participantInstructions: 'Buy the three items on your list in Shop B.',
+      },
+      {
+        internalName: 'express checkout',
+        participantLabel: 'Shop C',
+        participantInstructions: 'Buy the three items on your list in Shop C.',
+      },
     ],
     factors: [],
-    screening: [{ key: 'adult', label: 'Are you 18 or older?', kind: 'yes-no', eligibleValues: [true], criterion: '18 or older' }],
+    screening: [
+      { key: 'adult', label: 'Are you 18 or older?', kind: 'yes-no', eligibleValues: [true], criterion: '18 or older' },
+    ],
     // The shop shows each participant their own code at the end; they type it on the study page.
     steps: [
       {
@@ -242,11 +279,21 @@ export const DEMO_STUDIES: DemoStudy[] = [
     blinded: false,
     purpose: 'We wanted to try out, on a few people, how two styles of building signs are read before a larger study.',
     conditions: [
-      { internalName: 'pictogram signs', participantLabel: 'Sign set 1', participantInstructions: 'Look at each sign in set 1 and say where it points.' },
-      { internalName: 'text signs', participantLabel: 'Sign set 2', participantInstructions: 'Look at each sign in set 2 and say where it points.' },
+      {
+        internalName: 'pictogram signs',
+        participantLabel: 'Sign set 1',
+        participantInstructions: 'Look at each sign in set 1 and say where it points.',
+      },
+      {
+        internalName: 'text signs',
+        participantLabel: 'Sign set 2',
+        participantInstructions: 'Look at each sign in set 2 and say where it points.',
+      },
     ],
     factors: [],
-    screening: [{ key: 'adult', label: 'Are you 18 or older?', kind: 'yes-no', eligibleValues: [true], criterion: '18 or older' }],
+    screening: [
+      { key: 'adult', label: 'Are you 18 or older?', kind: 'yes-no', eligibleValues: [true], criterion: '18 or older' },
+    ],
     steps: [
       {
         title: 'The sign session',
@@ -267,10 +314,11 @@ export const DEMO_STUDIES: DemoStudy[] = [
 ];
 
 /** Which demo staff work on which demo study (the coordinator creates them and is a member already). */
-export const DEMO_MEMBERSHIPS: Array<{ email: string; slug: string; role: 'coordinator' | 'researcher' | 'auditor' }> = [
-  { email: 'researcher@evenhand.test', slug: 'wayfinding-cues', role: 'researcher' },
-  { email: 'researcher@evenhand.test', slug: 'checkout-flows', role: 'researcher' },
-];
+export const DEMO_MEMBERSHIPS: Array<{ email: string; slug: string; role: 'coordinator' | 'researcher' | 'auditor' }> =
+  [
+    { email: 'researcher@evenhand.test', slug: 'wayfinding-cues', role: 'researcher' },
+    { email: 'researcher@evenhand.test', slug: 'checkout-flows', role: 'researcher' },
+  ];
 
 /** Where the demo task stand-in answers: DEMO_TASK_URL, set by `npm start` and `npm test` to the port they run it on. */
 export function demoTaskAddress(task: string, base = process.env.DEMO_TASK_URL || 'http://127.0.0.1:3300'): string {

@@ -1,13 +1,22 @@
 import type { AddressInfo } from 'node:net';
 import { describe, expect, it } from 'vitest';
-import { answerDemoTaskRequest, escapeHtml, renderTaskPage, returnAddress, startDemoTaskServer } from './demo-task-server';
+import {
+  answerDemoTaskRequest,
+  escapeHtml,
+  renderTaskPage,
+  returnAddress,
+  startDemoTaskServer,
+} from './demo-task-server';
 
 const RETURN = 'http://127.0.0.1:5173/api/return/v1.abc_DEF-123.sig';
 
 describe('returnAddress', () => {
-  it.each(['http://127.0.0.1:5173/api/return/t', 'https://portal.example.org/api/return/t?x=1'])('accepts the web address %s', (value) => {
-    expect(returnAddress(value)?.toString()).toBe(value);
-  });
+  it.each(['http://127.0.0.1:5173/api/return/t', 'https://portal.example.org/api/return/t?x=1'])(
+    'accepts the web address %s',
+    (value) => {
+      expect(returnAddress(value)?.toString()).toBe(value);
+    },
+  );
 
   it.each([
     ['missing', null],
@@ -24,7 +33,9 @@ describe('returnAddress', () => {
 
 describe('escapeHtml', () => {
   it('escapes every character that could open markup or end an attribute', () => {
-    expect(escapeHtml(`<a href="x" title='y'>&</a>`)).toBe('&lt;a href=&quot;x&quot; title=&#39;y&#39;&gt;&amp;&lt;/a&gt;');
+    expect(escapeHtml(`<a href="x" title='y'>&</a>`)).toBe(
+      '&lt;a href=&quot;x&quot; title=&#39;y&#39;&gt;&amp;&lt;/a&gt;',
+    );
   });
 });
 
@@ -41,7 +52,12 @@ describe('renderTaskPage', () => {
   });
 
   it('escapes a reference and a code that carry markup', () => {
-    const page = renderTaskPage({ slug: 'checkout-shopping', reference: '<script>alert(1)</script>', code: '"><img src=x onerror=alert(1)>', returnTo: RETURN });
+    const page = renderTaskPage({
+      slug: 'checkout-shopping',
+      reference: '<script>alert(1)</script>',
+      code: '"><img src=x onerror=alert(1)>',
+      returnTo: RETURN,
+    });
     expect(page).not.toContain('<script>alert(1)');
     expect(page).not.toContain('<img src=x');
     expect(page).toContain('&lt;script&gt;alert(1)&lt;/script&gt;');
@@ -49,13 +65,23 @@ describe('renderTaskPage', () => {
   });
 
   it('shows the participant’s code when one was passed', () => {
-    const page = renderTaskPage({ slug: 'checkout-shopping', reference: 'P-ABC234', code: 'K7M-Q2XR', returnTo: RETURN });
+    const page = renderTaskPage({
+      slug: 'checkout-shopping',
+      reference: 'P-ABC234',
+      code: 'K7M-Q2XR',
+      returnTo: RETURN,
+    });
     expect(page).toContain('Your completion code');
     expect(page).toContain('<p class="code">K7M-Q2XR</p>');
   });
 
   it('keeps a return address’s own query in hidden fields, since a GET form replaces the query', () => {
-    const page = renderTaskPage({ slug: 'x', reference: 'P-1', code: null, returnTo: 'https://portal.example.org/back?study=a&b=%22q%22' });
+    const page = renderTaskPage({
+      slug: 'x',
+      reference: 'P-1',
+      code: null,
+      returnTo: 'https://portal.example.org/back?study=a&b=%22q%22',
+    });
     expect(page).toContain('action="https://portal.example.org/back"');
     expect(page).toContain('<input type="hidden" name="study" value="a">');
     expect(page).toContain('<input type="hidden" name="b" value="&quot;q&quot;">');
@@ -73,7 +99,9 @@ describe('renderTaskPage', () => {
   });
 
   it('says so when no reference was passed', () => {
-    expect(renderTaskPage({ slug: 'x', reference: '  ', code: null, returnTo: RETURN })).toContain('none (the ref parameter is missing)');
+    expect(renderTaskPage({ slug: 'x', reference: '  ', code: null, returnTo: RETURN })).toContain(
+      'none (the ref parameter is missing)',
+    );
   });
 });
 
@@ -103,7 +131,9 @@ describe('startDemoTaskServer', () => {
       const health = await fetch(`http://127.0.0.1:${port}/health`);
       expect(health.status).toBe(200);
       expect(await health.json()).toEqual({ status: 'ok' });
-      const page = await fetch(`http://127.0.0.1:${port}/task/wayfinding-session-1?ref=P-7KQ2MX&return=${encodeURIComponent(RETURN)}`);
+      const page = await fetch(
+        `http://127.0.0.1:${port}/task/wayfinding-session-1?ref=P-7KQ2MX&return=${encodeURIComponent(RETURN)}`,
+      );
       expect(page.status).toBe(200);
       expect(page.headers.get('content-security-policy')).toContain("default-src 'none'");
       expect(await page.text()).toContain('Finish and go back to the study');

@@ -17,15 +17,20 @@ export interface DemoTask {
 export const DEMO_TASKS: Record<string, DemoTask> = {
   'wayfinding-session-1': {
     title: 'Wayfinding, session 1: learning the building',
-    intro: 'In the real session you would walk through a virtual building for about 20 minutes. Here, two questions stand in for it.',
+    intro:
+      'In the real session you would walk through a virtual building for about 20 minutes. Here, two questions stand in for it.',
     questions: [
       { prompt: 'Which way did you turn at the first junction?', options: ['Left', 'Right', 'Straight on'] },
-      { prompt: 'How sure are you of the way back to the entrance?', options: ['Not sure', 'Fairly sure', 'Very sure'] },
+      {
+        prompt: 'How sure are you of the way back to the entrance?',
+        options: ['Not sure', 'Fairly sure', 'Very sure'],
+      },
     ],
   },
   'wayfinding-session-2': {
     title: 'Wayfinding, session 2: finding rooms',
-    intro: 'In the real session you would find five rooms in the building you learned. Here, two questions stand in for it.',
+    intro:
+      'In the real session you would find five rooms in the building you learned. Here, two questions stand in for it.',
     questions: [
       { prompt: 'Which floor was the library on?', options: ['Ground floor', 'First floor', 'Second floor'] },
       { prompt: 'How hard was it to find the rooms?', options: ['Easy', 'Manageable', 'Hard'] },
@@ -53,7 +58,10 @@ const TASK_PATH = /^\/task\/([a-z0-9][a-z0-9-]{0,79})\/?$/;
 const MAX_SHOWN = 120;
 
 export function escapeHtml(value: string): string {
-  return value.replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!);
+  return value.replace(
+    /[&<>"']/g,
+    (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c]!,
+  );
 }
 
 /** The address to finish at: only an absolute http(s) address counts (never `javascript:`, `data:` or a relative path). */
@@ -117,7 +125,9 @@ function shown(value: string | null): string | null {
 /** The finish form: GET to the return address, its own query (if any) carried in hidden fields so nothing is lost. */
 function finishForm(target: URL): string {
   const action = `${target.origin}${target.pathname}`;
-  const hidden = [...target.searchParams].map(([name, value]) => `<input type="hidden" name="${escapeHtml(name)}" value="${escapeHtml(value)}">`).join('');
+  const hidden = [...target.searchParams]
+    .map(([name, value]) => `<input type="hidden" name="${escapeHtml(name)}" value="${escapeHtml(value)}">`)
+    .join('');
   return `<form method="get" action="${escapeHtml(action)}">${hidden}<button type="submit">Finish and go back to the study</button></form>`;
 }
 
@@ -130,7 +140,10 @@ export function renderTaskPage(input: TaskPageInput): string {
     .map(
       (q, i) =>
         `<fieldset><legend>${i + 1}. ${escapeHtml(q.prompt)}</legend>${q.options
-          .map((option) => `<label><input type="radio" name="q${i + 1}" value="${escapeHtml(option)}"> ${escapeHtml(option)}</label>`)
+          .map(
+            (option) =>
+              `<label><input type="radio" name="q${i + 1}" value="${escapeHtml(option)}"> ${escapeHtml(option)}</label>`,
+          )
           .join('')}</fieldset>`,
     )
     .join('');
@@ -142,7 +155,9 @@ export function renderTaskPage(input: TaskPageInput): string {
   const finish = target
     ? `${finishForm(target)}<p class="quiet">This takes you back to <span>${escapeHtml(target.host)}</span>, where the step is marked done.</p>`
     : `<div class="problem"><p><strong>This link is incomplete.</strong> ${
-        input.returnTo ? 'The return address it carries is not a web address (http or https).' : 'It carries no return address.'
+        input.returnTo
+          ? 'The return address it carries is not a web address (http or https).'
+          : 'It carries no return address.'
       } Go back to the study page and start the step again from there, so the link arrives whole.</p></div>`;
   return `<!doctype html>
 <html lang="en">
@@ -191,23 +206,32 @@ const INDEX_PAGE = `<!doctype html><html lang="en"><head><meta charset="utf-8"><
 <body><main><div class="notice" role="note"><strong>Demo stand-in for a lab’s own task</strong>Evenhand’s demo studies send participants here.</div>
 <h1>Demo tasks</h1><ul>${Object.entries(DEMO_TASKS)
   .map(([slug, task]) => `<li><a href="/task/${slug}">${escapeHtml(task.title)}</a></li>`)
-  .join('')}</ul><p class="quiet">Open a task from a study step in the participant portal: the link then carries the reference and the return address.</p></main></body></html>`;
+  .join(
+    '',
+  )}</ul><p class="quiet">Open a task from a study step in the participant portal: the link then carries the reference and the return address.</p></main></body></html>`;
 
 /** Routes one request: `/health`, `/` (the list of tasks) and `/task/<name>`. */
 export function answerDemoTaskRequest(method: string, rawUrl: string): DemoTaskResponse {
   const url = new URL(rawUrl, 'http://demo-task.invalid');
-  if (method !== 'GET' && method !== 'HEAD') return { status: 405, contentType: 'text/plain; charset=utf-8', body: 'Only GET is served here.\n' };
+  if (method !== 'GET' && method !== 'HEAD')
+    return { status: 405, contentType: 'text/plain; charset=utf-8', body: 'Only GET is served here.\n' };
   if (url.pathname === '/health') return { status: 200, contentType: 'application/json', body: '{"status":"ok"}' };
   if (url.pathname === '/') return { status: 200, contentType: 'text/html; charset=utf-8', body: INDEX_PAGE };
   const match = TASK_PATH.exec(url.pathname);
   if (!match) return { status: 404, contentType: 'text/plain; charset=utf-8', body: 'No such task.\n' };
-  const page = renderTaskPage({ slug: match[1], reference: url.searchParams.get('ref'), code: url.searchParams.get('code'), returnTo: url.searchParams.get('return') });
+  const page = renderTaskPage({
+    slug: match[1],
+    reference: url.searchParams.get('ref'),
+    code: url.searchParams.get('code'),
+    returnTo: url.searchParams.get('return'),
+  });
   return { status: 200, contentType: 'text/html; charset=utf-8', body: page };
 }
 
 const SECURITY_HEADERS = {
   // Inline style only, no scripts, nothing fetched; the one form goes to the (http or https) return address.
-  'Content-Security-Policy': "default-src 'none'; style-src 'unsafe-inline'; form-action http: https:; base-uri 'none'; frame-ancestors 'none'",
+  'Content-Security-Policy':
+    "default-src 'none'; style-src 'unsafe-inline'; form-action http: https:; base-uri 'none'; frame-ancestors 'none'",
   'Referrer-Policy': 'no-referrer',
   'Cache-Control': 'no-store',
   'X-Content-Type-Options': 'nosniff',
@@ -216,7 +240,11 @@ const SECURITY_HEADERS = {
 export function startDemoTaskServer(port: number, host = '127.0.0.1'): Promise<Server> {
   const server = createServer((request, response) => {
     const answer = answerDemoTaskRequest(request.method ?? 'GET', request.url ?? '/');
-    response.writeHead(answer.status, { 'Content-Type': answer.contentType, ...SECURITY_HEADERS, ...(answer.status === 405 ? { Allow: 'GET, HEAD' } : {}) });
+    response.writeHead(answer.status, {
+      'Content-Type': answer.contentType,
+      ...SECURITY_HEADERS,
+      ...(answer.status === 405 ? { Allow: 'GET, HEAD' } : {}),
+    });
     response.end(request.method === 'HEAD' ? undefined : answer.body);
   });
   return new Promise((resolve, reject) => {
@@ -227,7 +255,8 @@ export function startDemoTaskServer(port: number, host = '127.0.0.1'): Promise<S
 
 if (require.main === module) {
   const port = Number(process.env.DEMO_TASK_PORT ?? 3300);
-  if (!Number.isInteger(port) || port < 0 || port > 65535) throw new Error(`DEMO_TASK_PORT must be a port number, not ${process.env.DEMO_TASK_PORT}`);
+  if (!Number.isInteger(port) || port < 0 || port > 65535)
+    throw new Error(`DEMO_TASK_PORT must be a port number, not ${process.env.DEMO_TASK_PORT}`);
   startDemoTaskServer(port).then(
     (server) => {
       console.log(`Demo task stand-in on http://127.0.0.1:${port}`);

@@ -30,7 +30,13 @@ export function demoChance(n: number, salt: number): number {
  * faster; and the reminders each would have been sent under the study's plan up to when they stopped (or now), so
  * the dropout watch has steps, dropouts and contacts to compare by condition.
  */
-export async function playDemoHistory(app: INestApplicationContext, coordinator: SessionUser, studyId: string, demo: DemoStudy, people: SessionUser[]): Promise<void> {
+export async function playDemoHistory(
+  app: INestApplicationContext,
+  coordinator: SessionUser,
+  studyId: string,
+  demo: DemoStudy,
+  people: SessionUser[],
+): Promise<void> {
   const history = demo.history;
   if (!history) return;
   const dataSource = app.get(DataSource);
@@ -55,9 +61,15 @@ export async function playDemoHistory(app: INestApplicationContext, coordinator:
     studySummary: study.summary || study.title,
     estimatedDuration: study.estimatedMinutes ? formatDuration(study.estimatedMinutes) : 'a short time',
     stepsPhrase: `${stepList.length} steps`,
-    totalPay: formatMoney(stepList.reduce((sum, s) => sum + s.payMinor, 0), study.currency),
+    totalPay: formatMoney(
+      stepList.reduce((sum, s) => sum + s.payMinor, 0),
+      study.currency,
+    ),
   });
-  const conditions: Array<{ id: string; internal_name: string }> = await dataSource.query(`SELECT id, internal_name FROM condition WHERE study_id = $1`, [studyId]);
+  const conditions: Array<{ id: string; internal_name: string }> = await dataSource.query(
+    `SELECT id, internal_name FROM condition WHERE study_id = $1`,
+    [studyId],
+  );
   const internalNameOf = new Map(conditions.map((c) => [c.id, c.internal_name]));
   const now = new Date();
   // Who stops is drawn from each person's place within their condition, not from the random allocation's order, so
@@ -73,17 +85,21 @@ export async function playDemoHistory(app: INestApplicationContext, coordinator:
     const dropRate = history.dropoutByCondition[internalName] ?? 0.15;
     const place = placeInCondition.get(row.condition_id) ?? 0;
     placeInCondition.set(row.condition_id, place + 1);
-    const draw = place + 100 * Math.max(0, demo.conditions.findIndex((c) => c.internalName === internalName));
+    const draw =
+      place +
+      100 *
+        Math.max(
+          0,
+          demo.conditions.findIndex((c) => c.internalName === internalName),
+        );
 
     // Assigned first, so every window below counts from the invented day and each completion finds its step open.
     const assignedAt = new Date(now.getTime() - (history.days - (i * history.days) / people.length) * DAY_MS);
     const invitedAt = addDays(assignedAt, -(1 + demoChance(draw, 50)));
-    await dataSource.query(`UPDATE enrollment SET assigned_at = $1, consented_at = $1, invitation_sent_at = $2, invited_by = $3 WHERE id = $4`, [
-      assignedAt,
-      invitedAt,
-      coordinator.id,
-      row.id,
-    ]);
+    await dataSource.query(
+      `UPDATE enrollment SET assigned_at = $1, consented_at = $1, invitation_sent_at = $2, invited_by = $3 WHERE id = $4`,
+      [assignedAt, invitedAt, coordinator.id, row.id],
+    );
 
     const done = new Map<string, Date>();
     let stoppedBefore: number | null = null;
@@ -94,21 +110,35 @@ export async function playDemoHistory(app: INestApplicationContext, coordinator:
       }
       const window = stepWindows(schedules, assignedAt, done)[s];
       // Done a little after it opens and before it is due (three days when it has no due date).
-      const span = (window.dueAt ? window.dueAt.getTime() - window.opensAt!.getTime() : 3 * DAY_MS) * (0.1 + 0.75 * demoChance(draw, 40 + s));
+      const span =
+        (window.dueAt ? window.dueAt.getTime() - window.opensAt!.getTime() : 3 * DAY_MS) *
+        (0.1 + 0.75 * demoChance(draw, 40 + s));
       const at = new Date(window.opensAt!.getTime() + span);
       if (at > now) break;
-      await completeAsVerified(stepProgress, steps, coordinator, person, studyId, row, stepList[s].verification, schedule.id);
-      await dataSource.query(`UPDATE step_completion SET completed_at = $1 WHERE enrollment_id = $2 AND step_id = $3 AND undone_at IS NULL`, [at, row.id, schedule.id]);
+      await completeAsVerified(
+        stepProgress,
+        steps,
+        coordinator,
+        person,
+        studyId,
+        row,
+        stepList[s].verification,
+        schedule.id,
+      );
+      await dataSource.query(
+        `UPDATE step_completion SET completed_at = $1 WHERE enrollment_id = $2 AND step_id = $3 AND undone_at IS NULL`,
+        [at, row.id, schedule.id],
+      );
       await dataSource.query(
         `UPDATE payout SET created_at = $1 WHERE step_completion_id = (SELECT id FROM step_completion WHERE enrollment_id = $2 AND step_id = $3 AND undone_at IS NULL)`,
         [at, row.id, schedule.id],
       );
       done.set(schedule.id, at);
     }
-    await dataSource.query(`UPDATE enrollment SET completed_at = CASE WHEN status = 'completed' THEN $1::timestamptz END WHERE id = $2`, [
-      done.size ? new Date(Math.max(...[...done.values()].map((d) => d.getTime()))) : null,
-      row.id,
-    ]);
+    await dataSource.query(
+      `UPDATE enrollment SET completed_at = CASE WHEN status = 'completed' THEN $1::timestamptz END WHERE id = $2`,
+      [done.size ? new Date(Math.max(...[...done.values()].map((d) => d.getTime()))) : null, row.id],
+    );
 
     // Someone who stops withdraws a day into the step's window, or goes quiet and is marked lost once it is overdue.
     let stoppedAt: Date | null = null;
@@ -120,10 +150,17 @@ export async function playDemoHistory(app: INestApplicationContext, coordinator:
       if ((withdraws || marksLost) && at < now) {
         stoppedAt = at;
         if (withdraws) {
-          await enrollments.withdrawOnBehalf(coordinator, studyId, row.id, history.withdrawalReasons[i % history.withdrawalReasons.length]);
+          await enrollments.withdrawOnBehalf(
+            coordinator,
+            studyId,
+            row.id,
+            history.withdrawalReasons[i % history.withdrawalReasons.length],
+          );
           await dataSource.query(`UPDATE enrollment SET withdrew_at = $1 WHERE id = $2`, [at, row.id]);
         } else {
-          await dataSource.query(`UPDATE enrollment SET status = 'active' WHERE id = $1 AND status = 'assigned'`, [row.id]);
+          await dataSource.query(`UPDATE enrollment SET status = 'active' WHERE id = $1 AND status = 'assigned'`, [
+            row.id,
+          ]);
           await enrollments.markLost(coordinator, studyId, row.id, 'No reply to the reminders');
           await dataSource.query(`UPDATE enrollment SET lost_at = $1 WHERE id = $2`, [at, row.id]);
         }
@@ -139,7 +176,14 @@ export async function playDemoHistory(app: INestApplicationContext, coordinator:
       return r.sendAt <= until && (!doneAt || r.sendAt < doneAt);
     });
     await dataSource.transaction(async (manager) => {
-      await contacts.log(manager, { studyId, enrollmentId: row.id, kind: 'invitation', subject: invitation.subject, sentBy: coordinator.id, sentAt: invitedAt });
+      await contacts.log(manager, {
+        studyId,
+        enrollmentId: row.id,
+        kind: 'invitation',
+        subject: invitation.subject,
+        sentBy: coordinator.id,
+        sentAt: invitedAt,
+      });
       for (const reminder of owed) {
         const s = schedules.findIndex((schedule) => schedule.id === reminder.stepId);
         const window: StepWindow = windows[s];
@@ -151,7 +195,15 @@ export async function playDemoHistory(app: INestApplicationContext, coordinator:
           opensAt: window.opensAt!,
           dueAt: window.dueAt,
         });
-        await contacts.log(manager, { studyId, enrollmentId: row.id, kind: 'reminder', subject: email.subject, stepId: reminder.stepId, dedupeKey: reminder.dedupeKey, sentAt: reminder.sendAt });
+        await contacts.log(manager, {
+          studyId,
+          enrollmentId: row.id,
+          kind: 'reminder',
+          subject: email.subject,
+          stepId: reminder.stepId,
+          dedupeKey: reminder.dedupeKey,
+          sentAt: reminder.sendAt,
+        });
       }
     });
   }
@@ -172,8 +224,16 @@ async function completeAsVerified(
     await stepProgress.completeByStaff(coordinator, studyId, enrollment.id, stepId);
     return;
   }
-  const address = await steps.taskAddress({ studyId, stepId, enrollmentId: enrollment.id, reference: enrollment.reference, dueAt: null, now: new Date() });
+  const address = await steps.taskAddress({
+    studyId,
+    stepId,
+    enrollmentId: enrollment.id,
+    reference: enrollment.reference,
+    dueAt: null,
+    now: new Date(),
+  });
   const token = new URL(address).searchParams.get('token') ?? '';
   const result = await stepProgress.completeFromReturnLink(token, participant, DEMO_CLIENT);
-  if (result.outcome !== 'done') throw new Error(`demo return link for ${enrollment.reference} was not accepted: ${JSON.stringify(result)}`);
+  if (result.outcome !== 'done')
+    throw new Error(`demo return link for ${enrollment.reference} was not accepted: ${JSON.stringify(result)}`);
 }

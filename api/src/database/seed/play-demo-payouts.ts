@@ -14,7 +14,13 @@ const DAY_MS = 24 * 3600 * 1000;
  * ones still owed, a few people who never set up, and one payout that failed and can be retried.
  * Needs the payment provider (the local stand-in in development) to be reachable.
  */
-export async function playDemoPayouts(app: INestApplicationContext, coordinator: SessionUser, studyId: string, demo: DemoStudy, people: SessionUser[]): Promise<void> {
+export async function playDemoPayouts(
+  app: INestApplicationContext,
+  coordinator: SessionUser,
+  studyId: string,
+  demo: DemoStudy,
+  people: SessionUser[],
+): Promise<void> {
   const pay = demo.pay;
   if (!pay) return;
   const dataSource = app.get(DataSource);
@@ -25,10 +31,15 @@ export async function playDemoPayouts(app: INestApplicationContext, coordinator:
   for (const funding of pay.fundings) {
     const intent = await payouts.createFunding(coordinator, studyId, funding.amountMinor);
     // The provider's test card whose money is available at once, so the older payouts below can be sent.
-    await provider.paymentIntents.confirm(intent.clientSecret.split('_secret_')[0], { payment_method: 'pm_card_bypassPending' });
+    await provider.paymentIntents.confirm(intent.clientSecret.split('_secret_')[0], {
+      payment_method: 'pm_card_bypassPending',
+    });
     await payouts.refreshFunding(studyId, intent.fundingId);
     const at = new Date(now - funding.daysAgo * DAY_MS);
-    await dataSource.query(`UPDATE study_funding SET created_at = $1, succeeded_at = $1 WHERE id = $2`, [at, intent.fundingId]);
+    await dataSource.query(`UPDATE study_funding SET created_at = $1, succeeded_at = $1 WHERE id = $2`, [
+      at,
+      intent.fundingId,
+    ]);
   }
 
   const owed: Array<{ id: string; participant_id: string; created_at: Date }> = await dataSource.query(
@@ -53,12 +64,17 @@ export async function playDemoPayouts(app: INestApplicationContext, coordinator:
     const { url } = await payouts.startOnboarding(person);
     await completeHostedOnboarding(url, `Demo Participant ${person.email.split('@')[0]}`);
     const status = await payouts.accountStatus(person);
-    if (!status.payoutsEnabled) throw new Error(`demo payee ${person.email} finished onboarding but payouts are not enabled`);
+    if (!status.payoutsEnabled)
+      throw new Error(`demo payee ${person.email} finished onboarding but payouts are not enabled`);
   }
 
   const toPay = due.filter((p) => p.id !== failing?.id);
   if (toPay.length) {
-    await payouts.approve(coordinator, studyId, toPay.map((p) => p.id));
+    await payouts.approve(
+      coordinator,
+      studyId,
+      toPay.map((p) => p.id),
+    );
     for (const payout of toPay) await payouts.send(payout.id);
   }
   // Dated as if each was approved two days after it was earned and paid the same day, receipt included.
@@ -85,7 +101,11 @@ export async function playDemoPayouts(app: INestApplicationContext, coordinator:
  * when that file is gone but the database is not, say so rather than let reconciliation surprise someone.
  */
 export async function warnIfProviderForgotDemoPayouts(app: INestApplicationContext): Promise<string | null> {
-  const [paid] = await app.get(DataSource).query(`SELECT provider_transfer_id FROM payout WHERE status = 'paid' AND provider_transfer_id IS NOT NULL ORDER BY paid_at LIMIT 1`);
+  const [paid] = await app
+    .get(DataSource)
+    .query(
+      `SELECT provider_transfer_id FROM payout WHERE status = 'paid' AND provider_transfer_id IS NOT NULL ORDER BY paid_at LIMIT 1`,
+    );
   if (!paid) return null;
   try {
     await app.get(PaymentsService).client.transfers.retrieve(paid.provider_transfer_id);

@@ -19,7 +19,9 @@ async function main(): Promise<void> {
     const built = await buildDemoStudies(app);
     const warning = built.length ? null : await warnIfProviderForgotDemoPayouts(app);
     if (warning) console.warn(`Warning: ${warning}`);
-    console.log(`Demo scenario ready: ${staff} staff accounts; ${built.length ? `built ${built.join(', ')}` : 'studies already present'}.`);
+    console.log(
+      `Demo scenario ready: ${staff} staff accounts; ${built.length ? `built ${built.join(', ')}` : 'studies already present'}.`,
+    );
   } finally {
     await app.close();
   }

@@ -1,6 +1,21 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform, Type } from 'class-transformer';
-import { ArrayMaxSize, IsArray, IsBoolean, IsIn, IsInt, IsObject, IsOptional, IsString, IsUUID, Length, Matches, Max, MaxLength, Min } from 'class-validator';
+import {
+  ArrayMaxSize,
+  IsArray,
+  IsBoolean,
+  IsIn,
+  IsInt,
+  IsObject,
+  IsOptional,
+  IsString,
+  IsUUID,
+  Length,
+  Matches,
+  Max,
+  MaxLength,
+  Min,
+} from 'class-validator';
 import { ScreeningQuestionDto } from '../../studies';
 import { STEP_VERIFICATIONS, type CompletionVerifiedBy, type StepVerification } from '../../steps';
 import { ENROLLMENT_STATUSES, EnrollmentStatus } from '../entities/enrollment.entity';
@@ -13,7 +28,10 @@ const trimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? 
 
 export class ScreeningStateDto {
   @ApiProperty({ type: [ScreeningQuestionDto] }) questions: ScreeningQuestionDto[];
-  @ApiProperty({ nullable: true, type: 'object', additionalProperties: true }) answers: Record<string, number | string | boolean> | null;
+  @ApiProperty({ nullable: true, type: 'object', additionalProperties: true }) answers: Record<
+    string,
+    number | string | boolean
+  > | null;
   @ApiProperty({ nullable: true, type: String }) exclusionReason: string | null;
 }
 
@@ -37,20 +55,34 @@ export class MyStepDto {
   @ApiProperty() payMinor: number;
   @ApiProperty({
     enum: STEP_STATUSES,
-    description: 'done; open (can be done now); overdue (open, past its due date); upcoming (opens later); waiting (opens after the previous step); locked (not taking part, or a new consent form to sign first)',
+    description:
+      'done; open (can be done now); overdue (open, past its due date); upcoming (opens later); waiting (opens after the previous step); locked (not taking part, or a new consent form to sign first)',
   })
   status: StepStatus;
   @ApiProperty({ nullable: true, type: String }) completedAt: string | null;
-  @ApiProperty({ description: 'Whether the participant finishes this step by entering a code; otherwise a return link or staff mark it done.' })
+  @ApiProperty({
+    description:
+      'Whether the participant finishes this step by entering a code; otherwise a return link or staff mark it done.',
+  })
   hasCompletionCode: boolean;
   @ApiProperty({ enum: STEP_VERIFICATIONS }) verification: StepVerification;
-  @ApiProperty({ description: 'Whether the step is done in the lab\'s external task, opened through the start route' }) hasTask: boolean;
-  @ApiProperty({ nullable: true, type: String, description: 'When the step opens; null while it waits for the previous step' }) opensAt: string | null;
-  @ApiProperty({ nullable: true, type: String, description: 'Until when it can be done; null for no due date' }) dueAt: string | null;
+  @ApiProperty({ description: "Whether the step is done in the lab's external task, opened through the start route" })
+  hasTask: boolean;
+  @ApiProperty({
+    nullable: true,
+    type: String,
+    description: 'When the step opens; null while it waits for the previous step',
+  })
+  opensAt: string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'Until when it can be done; null for no due date' }) dueAt:
+    string | null;
 }
 
 export class StepStartDto {
-  @ApiProperty({ description: 'The external task, with the reference, the signed return address and, for code steps, the code' }) url: string;
+  @ApiProperty({
+    description: 'The external task, with the reference, the signed return address and, for code steps, the code',
+  })
+  url: string;
 }
 
 export class RosterNextStepDto {
@@ -58,7 +90,8 @@ export class RosterNextStepDto {
   @ApiProperty() title: string;
   @ApiProperty({ nullable: true, type: String }) opensAt: string | null;
   @ApiProperty({ nullable: true, type: String }) dueAt: string | null;
-  @ApiProperty({ enum: ['waiting', 'upcoming', 'open', 'overdue'] }) timing: 'waiting' | 'upcoming' | 'open' | 'overdue';
+  @ApiProperty({ enum: ['waiting', 'upcoming', 'open', 'overdue'] }) timing:
+    'waiting' | 'upcoming' | 'open' | 'overdue';
 }
 
 export class RecordCompletionDto {
@@ -67,7 +100,12 @@ export class RecordCompletionDto {
   @ApiProperty({ enum: [...STEP_VERIFICATIONS, 'staff-list'] }) verifiedBy: CompletionVerifiedBy;
   @ApiProperty({ nullable: true, type: String }) recordedByEmail: string | null;
   @ApiProperty({ type: 'object', additionalProperties: true }) evidence: Record<string, unknown>;
-  @ApiProperty({ nullable: true, type: String, enum: ['owed', 'approved', 'sending', 'paid', 'failed', 'cancelled', 'reversed'] }) payoutStatus: string | null;
+  @ApiProperty({
+    nullable: true,
+    type: String,
+    enum: ['owed', 'approved', 'sending', 'paid', 'failed', 'cancelled', 'reversed'],
+  })
+  payoutStatus: string | null;
   @ApiProperty({ description: 'True while its payout has not been approved' }) canUndo: boolean;
 }
 
@@ -89,7 +127,8 @@ export class RecordStepDto {
   @ApiProperty({ nullable: true, type: String }) dueAt: string | null;
   @ApiProperty({ type: RecordCompletionDto, nullable: true }) completion: RecordCompletionDto | null;
   @ApiProperty({ type: [UndoneCompletionDto] }) undone: UndoneCompletionDto[];
-  @ApiProperty({ nullable: true, type: String, description: 'This participant\'s own code, for participant-code steps' }) code: string | null;
+  @ApiProperty({ nullable: true, type: String, description: "This participant's own code, for participant-code steps" })
+  code: string | null;
 }
 
 export class UndoCompletionDto {
@@ -137,7 +176,11 @@ export class MyEnrollmentDto {
 }
 
 export class SubmitScreeningDto {
-  @ApiProperty({ type: 'object', additionalProperties: true, description: 'Answer per question key: true/false, a number or an option' })
+  @ApiProperty({
+    type: 'object',
+    additionalProperties: true,
+    description: 'Answer per question key: true/false, a number or an option',
+  })
   @IsObject()
   answers: Record<string, number | string | boolean>;
 }
@@ -224,15 +267,24 @@ export class WithdrawalResultDto {
 }
 
 export class RosterQueryDto {
-  @ApiPropertyOptional({ enum: ENROLLMENT_STATUSES }) @IsOptional() @IsIn(ENROLLMENT_STATUSES) status?: EnrollmentStatus;
-  @ApiPropertyOptional({ description: 'E-mail, name or reference' }) @IsOptional() @IsString() @MaxLength(200) search?: string;
+  @ApiPropertyOptional({ enum: ENROLLMENT_STATUSES })
+  @IsOptional()
+  @IsIn(ENROLLMENT_STATUSES)
+  status?: EnrollmentStatus;
+  @ApiPropertyOptional({ description: 'E-mail, name or reference' })
+  @IsOptional()
+  @IsString()
+  @MaxLength(200)
+  search?: string;
   @ApiPropertyOptional({ description: 'Only people who still need to sign the newest consent version' })
   @IsOptional()
   @Transform(({ value }) => value === true || value === 'true')
   @IsBoolean()
   needsReconsent?: boolean;
-  @ApiPropertyOptional({ default: 1 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(MAX_PAGE) page: number = 1;
-  @ApiPropertyOptional({ default: 25 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(200) pageSize: number = 25;
+  @ApiPropertyOptional({ default: 1 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(MAX_PAGE) page: number =
+    1;
+  @ApiPropertyOptional({ default: 25 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(200) pageSize: number =
+    25;
 }
 
 export class RosterEntryDto {
@@ -241,7 +293,12 @@ export class RosterEntryDto {
   @ApiProperty() email: string;
   @ApiProperty({ nullable: true, type: String }) name: string | null;
   @ApiProperty({ enum: ENROLLMENT_STATUSES }) status: EnrollmentStatus;
-  @ApiProperty({ nullable: true, type: String, description: 'Condition code (A, B…), or the internal name once unblinded' }) condition: string | null;
+  @ApiProperty({
+    nullable: true,
+    type: String,
+    description: 'Condition code (A, B…), or the internal name once unblinded',
+  })
+  condition: string | null;
   @ApiProperty({ nullable: true, type: String }) stratumKey: string | null;
   @ApiProperty({ type: 'object', additionalProperties: true }) covariates: Record<string, number | string | null>;
   @ApiProperty() needsReconsent: boolean;
@@ -249,10 +306,18 @@ export class RosterEntryDto {
   @ApiProperty({ nullable: true, type: String }) invitationSentAt: string | null;
   @ApiProperty({ nullable: true, type: String }) assignedAt: string | null;
   @ApiProperty() createdAt: string;
-  @ApiProperty({ type: RosterNextStepDto, nullable: true, description: 'The first step not yet done, with its window; null when none is pending' })
+  @ApiProperty({
+    type: RosterNextStepDto,
+    nullable: true,
+    description: 'The first step not yet done, with its window; null when none is pending',
+  })
   nextStep: RosterNextStepDto | null;
-  @ApiProperty({ description: 'Reminders sent since the last step was done (or since assignment)' }) unansweredReminders: number;
-  @ApiProperty({ description: 'True when unanswered reminders reached the plan\'s threshold: Evenhand suggests marking lost to follow-up; staff decide' })
+  @ApiProperty({ description: 'Reminders sent since the last step was done (or since assignment)' })
+  unansweredReminders: number;
+  @ApiProperty({
+    description:
+      "True when unanswered reminders reached the plan's threshold: Evenhand suggests marking lost to follow-up; staff decide",
+  })
   suggestLost: boolean;
 }
 
@@ -267,13 +332,22 @@ export class RosterPageDto {
 export class ImportResultDto {
   @ApiProperty() created: number;
   @ApiProperty({ description: 'Rows for people already on the roster; left unchanged' }) alreadyEnrolled: number;
-  @ApiProperty({ type: 'array', items: { type: 'object', properties: { line: { type: 'number' }, field: { type: 'string' }, message: { type: 'string' } } } })
+  @ApiProperty({
+    type: 'array',
+    items: {
+      type: 'object',
+      properties: { line: { type: 'number' }, field: { type: 'string' }, message: { type: 'string' } },
+    },
+  })
   errors: Array<{ line: number; field: string; message: string }>;
   @ApiProperty({ type: [String] }) ignoredColumns: string[];
 }
 
 export class InviteDto {
-  @ApiPropertyOptional({ type: [String], description: 'Enrollments to invite; omit to invite everyone not yet invited' })
+  @ApiPropertyOptional({
+    type: [String],
+    description: 'Enrollments to invite; omit to invite everyone not yet invited',
+  })
   @IsOptional()
   @IsArray()
   @ArrayMaxSize(5000)
@@ -314,7 +388,12 @@ export class SignatureSummaryDto {
 export class ParticipantRecordDto {
   @ApiProperty({ type: RosterEntryDto }) enrollment: RosterEntryDto;
   @ApiProperty({ nullable: true, type: String }) withdrawalReason: string | null;
-  @ApiProperty({ nullable: true, type: String, description: 'What staff noted when marking this person lost to follow-up.' }) lostReason: string | null;
+  @ApiProperty({
+    nullable: true,
+    type: String,
+    description: 'What staff noted when marking this person lost to follow-up.',
+  })
+  lostReason: string | null;
   @ApiProperty({ nullable: true, type: String }) exclusionReason: string | null;
   @ApiProperty({ type: [SignatureSummaryDto] }) signatures: SignatureSummaryDto[];
   @ApiProperty({ type: [RecordStepDto] }) steps: RecordStepDto[];
@@ -322,7 +401,9 @@ export class ParticipantRecordDto {
 }
 
 export class PairCohortResultDto {
-  @ApiProperty({ description: 'People paired (everyone on the roster with a pretest who has not consented yet)' }) cohort: number;
+  @ApiProperty({ description: 'People paired (everyone on the roster with a pretest who has not consented yet)' })
+  cohort: number;
   @ApiProperty() pairs: number;
-  @ApiProperty({ nullable: true, type: String, description: 'The odd one out, assigned by a coin of its own' }) leftoverEnrollmentId: string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'The odd one out, assigned by a coin of its own' })
+  leftoverEnrollmentId: string | null;
 }

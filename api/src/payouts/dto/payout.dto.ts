@@ -1,6 +1,19 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Type } from 'class-transformer';
-import { ArrayMaxSize, ArrayMinSize, IsArray, IsIn, IsInt, IsOptional, IsString, IsUUID, Matches, Max, MaxLength, Min } from 'class-validator';
+import {
+  ArrayMaxSize,
+  ArrayMinSize,
+  IsArray,
+  IsIn,
+  IsInt,
+  IsOptional,
+  IsString,
+  IsUUID,
+  Matches,
+  Max,
+  MaxLength,
+  Min,
+} from 'class-validator';
 import { PAYOUT_STAGES, PayoutStage } from '../pay-totals';
 import { PAYOUT_STATUSES, PayoutStatus } from '../entities/payout.entity';
 import { MAX_PAGE } from '../../common/http/paging';
@@ -9,7 +22,8 @@ export class PayoutDto {
   @ApiProperty() id: string;
   @ApiProperty() enrollmentId: string;
   @ApiProperty() reference: string;
-  @ApiProperty({ nullable: true, type: String, description: 'Condition code, or its name once unblinded' }) condition: string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'Condition code, or its name once unblinded' }) condition:
+    string | null;
   @ApiProperty({ enum: ['step', 'bonus'] }) kind: 'step' | 'bonus';
   @ApiProperty({ nullable: true, type: String }) stepTitle: string | null;
   @ApiProperty() amountMinor: number;
@@ -18,8 +32,18 @@ export class PayoutDto {
   @ApiProperty({ enum: PAYOUT_STATUSES }) status: PayoutStatus;
   @ApiProperty({ nullable: true, type: String }) failureReason: string | null;
   @ApiProperty({ enum: PAYOUT_STAGES, description: 'What staff must do next about it' }) stage: PayoutStage;
-  @ApiProperty({ nullable: true, type: String, description: 'Our receipt number, once paid: what the participant sees' }) receiptNumber: string | null;
-  @ApiProperty({ nullable: true, type: String, description: "The provider's transfer id: for staff only, never shown to participants" }) providerTransferId: string | null;
+  @ApiProperty({
+    nullable: true,
+    type: String,
+    description: 'Our receipt number, once paid: what the participant sees',
+  })
+  receiptNumber: string | null;
+  @ApiProperty({
+    nullable: true,
+    type: String,
+    description: "The provider's transfer id: for staff only, never shown to participants",
+  })
+  providerTransferId: string | null;
   @ApiProperty() payoutAccountReady: boolean;
   @ApiProperty() createdAt: string;
   @ApiProperty({ nullable: true, type: String }) approvedAt: string | null;
@@ -33,8 +57,10 @@ export class StageTotalDto {
 }
 
 export class PayoutStagesDto {
-  @ApiProperty({ type: StageTotalDto, description: 'Owed, and the participant can receive money' }) 'to-approve': StageTotalDto;
-  @ApiProperty({ type: StageTotalDto, description: 'Owed, and the participant has not finished payout set-up' }) 'awaiting-setup': StageTotalDto;
+  @ApiProperty({ type: StageTotalDto, description: 'Owed, and the participant can receive money' })
+  'to-approve': StageTotalDto;
+  @ApiProperty({ type: StageTotalDto, description: 'Owed, and the participant has not finished payout set-up' })
+  'awaiting-setup': StageTotalDto;
   @ApiProperty({ type: StageTotalDto, description: 'Failed: staff must look' }) 'needs-attention': StageTotalDto;
   @ApiProperty({ type: StageTotalDto, description: 'Approved or being sent' }) 'on-its-way': StageTotalDto;
   @ApiProperty({ type: StageTotalDto }) paid: StageTotalDto;
@@ -48,7 +74,10 @@ export class PayoutPageDto {
   @ApiProperty() pageSize: number;
   @ApiProperty({ type: 'object', additionalProperties: { type: 'number' } }) countsByStatus: Record<string, number>;
   @ApiProperty({ type: 'object', additionalProperties: { type: 'number' } }) amountByStatus: Record<string, number>;
-  @ApiProperty({ type: PayoutStagesDto, description: 'Every payout of the study by stage (whatever the filter), from the same sums as the budget' })
+  @ApiProperty({
+    type: PayoutStagesDto,
+    description: 'Every payout of the study by stage (whatever the filter), from the same sums as the budget',
+  })
   stages: PayoutStagesDto;
 }
 
@@ -57,17 +86,28 @@ export type PayoutSort = (typeof PAYOUT_SORTS)[number];
 
 export class PayoutQueryDto {
   @ApiPropertyOptional({ enum: PAYOUT_STATUSES }) @IsOptional() @IsIn(PAYOUT_STATUSES) status?: PayoutStatus;
-  @ApiPropertyOptional({ enum: PAYOUT_STAGES }) @IsOptional() @IsIn(PAYOUT_STAGES, { message: `stage must be one of ${PAYOUT_STAGES.join(', ')}` }) stage?: PayoutStage;
+  @ApiPropertyOptional({ enum: PAYOUT_STAGES })
+  @IsOptional()
+  @IsIn(PAYOUT_STAGES, { message: `stage must be one of ${PAYOUT_STAGES.join(', ')}` })
+  stage?: PayoutStage;
   @ApiPropertyOptional() @IsOptional() @IsUUID('4') conditionId?: string;
-  @ApiPropertyOptional({ description: "One participant's payouts (their payment history)" }) @IsOptional() @IsUUID('4', { message: 'enrollmentId must be an enrollment id' }) enrollmentId?: string;
+  @ApiPropertyOptional({ description: "One participant's payouts (their payment history)" })
+  @IsOptional()
+  @IsUUID('4', { message: 'enrollmentId must be an enrollment id' })
+  enrollmentId?: string;
   @ApiPropertyOptional({ description: 'Participant reference, step title or receipt number (part of it)' })
   @IsOptional()
   @IsString()
   @MaxLength(100, { message: 'search must be at most 100 characters' })
   search?: string;
-  @ApiPropertyOptional({ enum: PAYOUT_SORTS, default: 'newest' }) @IsOptional() @IsIn(PAYOUT_SORTS, { message: `sort must be one of ${PAYOUT_SORTS.join(', ')}` }) sort: PayoutSort = 'newest';
-  @ApiPropertyOptional({ default: 1 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(MAX_PAGE) page: number = 1;
-  @ApiPropertyOptional({ default: 50 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(500) pageSize: number = 50;
+  @ApiPropertyOptional({ enum: PAYOUT_SORTS, default: 'newest' })
+  @IsOptional()
+  @IsIn(PAYOUT_SORTS, { message: `sort must be one of ${PAYOUT_SORTS.join(', ')}` })
+  sort: PayoutSort = 'newest';
+  @ApiPropertyOptional({ default: 1 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(MAX_PAGE) page: number =
+    1;
+  @ApiPropertyOptional({ default: 50 }) @IsOptional() @Type(() => Number) @IsInt() @Min(1) @Max(500) pageSize: number =
+    50;
 }
 
 export class ApprovePayoutsDto {
@@ -91,10 +131,14 @@ export class BudgetDto {
   @ApiProperty({ description: 'Money put in by card and confirmed' }) fundedMinor: number;
   @ApiProperty({ description: 'Approved or being sent' }) committedMinor: number;
   @ApiProperty() paidMinor: number;
-  @ApiProperty({ description: 'Earned by participants, not yet approved (the owed rows of the queue)' }) owedMinor: number;
-  @ApiProperty({ description: 'Failed payouts, to be retried (the needs-attention rows of the queue)' }) needsAttentionMinor: number;
+  @ApiProperty({ description: 'Earned by participants, not yet approved (the owed rows of the queue)' })
+  owedMinor: number;
+  @ApiProperty({ description: 'Failed payouts, to be retried (the needs-attention rows of the queue)' })
+  needsAttentionMinor: number;
   @ApiProperty({ description: 'funded − committed − paid' }) remainingMinor: number;
-  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) fundings: Array<Record<string, unknown>>;
+  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) fundings: Array<
+    Record<string, unknown>
+  >;
 }
 
 export class CreateFundingDto {
@@ -115,7 +159,8 @@ export class FundingIntentDto {
 }
 
 export class ReconciliationDifferenceDto {
-  @ApiProperty({ enum: ['missing-at-provider', 'unknown-at-provider', 'amount-differs', 'reversal-differs'] }) kind: string;
+  @ApiProperty({ enum: ['missing-at-provider', 'unknown-at-provider', 'amount-differs', 'reversal-differs'] })
+  kind: string;
   @ApiProperty({ nullable: true, type: String }) payoutId: string | null;
   @ApiProperty({ nullable: true, type: String }) transferId: string | null;
   @ApiProperty({ nullable: true, type: Number }) ledgerAmountMinor: number | null;
@@ -153,15 +198,24 @@ export class MyPayoutDto {
   @ApiProperty({ enum: PAYOUT_STATUSES }) status: PayoutStatus;
   @ApiProperty() createdAt: string;
   @ApiProperty({ nullable: true, type: String }) paidAt: string | null;
-  @ApiProperty({ nullable: true, type: String, description: 'Our receipt number (study slug and a count), once paid' }) receipt: string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'Our receipt number (study slug and a count), once paid' })
+  receipt: string | null;
 }
 
 export class MyPayoutsDto {
   @ApiProperty({ type: [MyPayoutDto] }) items: MyPayoutDto[];
   @ApiProperty({ type: PayoutAccountStatusDto }) account: PayoutAccountStatusDto;
-  @ApiProperty({ description: 'Paid this calendar year, per currency', type: 'object', additionalProperties: { type: 'number' } })
+  @ApiProperty({
+    description: 'Paid this calendar year, per currency',
+    type: 'object',
+    additionalProperties: { type: 'number' },
+  })
   paidThisYearMinor: Record<string, number>;
-  @ApiProperty({ description: 'Owed or on its way, per currency', type: 'object', additionalProperties: { type: 'number' } })
+  @ApiProperty({
+    description: 'Owed or on its way, per currency',
+    type: 'object',
+    additionalProperties: { type: 'number' },
+  })
   pendingMinor: Record<string, number>;
   @ApiProperty() taxNote: string;
 }

@@ -23,7 +23,10 @@ export class PutAssignmentSchemeDto {
   @IsIn(SCHEME_METHODS, { message: `method must be one of ${SCHEME_METHODS.join(', ')}` })
   method: SchemeMethod;
 
-  @ApiPropertyOptional({ type: [Number], description: 'permuted and stratified blocks: allowed block sizes, each a multiple of the total weight' })
+  @ApiPropertyOptional({
+    type: [Number],
+    description: 'permuted and stratified blocks: allowed block sizes, each a multiple of the total weight',
+  })
   @IsOptional()
   @IsArray()
   @ArrayMinSize(1)
@@ -74,11 +77,22 @@ export class StratumBalanceDto {
 export class AssignmentDto {
   @ApiProperty({ nullable: true, type: String, enum: SCHEME_METHODS }) method: string | null;
   @ApiProperty({ type: 'object', additionalProperties: true }) settings: Record<string, unknown>;
-  @ApiProperty({ nullable: true, type: String, description: 'SHA-256 over the sealed seed and the canonical parameters' }) commitment: string | null;
+  @ApiProperty({
+    nullable: true,
+    type: String,
+    description: 'SHA-256 over the sealed seed and the canonical parameters',
+  })
+  commitment: string | null;
   @ApiProperty({ nullable: true, type: String, format: 'date-time' }) committedAt: string | null;
-  @ApiProperty({ nullable: true, type: 'object', additionalProperties: true, description: 'The canonical parameters the commitment covers' })
+  @ApiProperty({
+    nullable: true,
+    type: 'object',
+    additionalProperties: true,
+    description: 'The canonical parameters the commitment covers',
+  })
   sealedParameters: Record<string, unknown> | null;
-  @ApiProperty({ nullable: true, type: String, description: 'Revealed only after closure or unblinding' }) seed: string | null;
+  @ApiProperty({ nullable: true, type: String, description: 'Revealed only after closure or unblinding' }) seed:
+    string | null;
   @ApiProperty({ nullable: true, type: String, format: 'date-time' }) seedRevealedAt: string | null;
   @ApiProperty({ nullable: true, type: String, format: 'date-time' }) unblindedAt: string | null;
   @ApiProperty({ nullable: true, type: String }) unblindReason: string | null;
@@ -94,7 +108,9 @@ export class DryRunRequestDto {
   @Max(100_000)
   arrivals: number;
 
-  @ApiPropertyOptional({ description: '64 hex characters; a fresh throwaway seed when omitted. Never the study’s sealed seed.' })
+  @ApiPropertyOptional({
+    description: '64 hex characters; a fresh throwaway seed when omitted. Never the study’s sealed seed.',
+  })
   @IsOptional()
   @Matches(/^[0-9a-fA-F]{64}$/, { message: 'seed must be 64 hexadecimal characters' })
   seed?: string;
@@ -102,7 +118,8 @@ export class DryRunRequestDto {
   @ApiProperty({
     type: 'object',
     additionalProperties: true,
-    description: 'Per covariate key: {kind:"categorical",proportions}, {kind:"numeric-values",values:[{value,probability}]} or {kind:"normal",mean,sd}',
+    description:
+      'Per covariate key: {kind:"categorical",proportions}, {kind:"numeric-values",values:[{value,probability}]} or {kind:"normal",mean,sd}',
   })
   @IsObject()
   covariateMix: Record<string, never>;
@@ -112,7 +129,11 @@ export class DryRunRequestDto {
   @IsIn(SCHEME_METHODS)
   method?: SchemeMethod;
 
-  @ApiPropertyOptional({ type: 'object', additionalProperties: true, description: 'Settings for `method`, as in PUT assignment-scheme' })
+  @ApiPropertyOptional({
+    type: 'object',
+    additionalProperties: true,
+    description: 'Settings for `method`, as in PUT assignment-scheme',
+  })
   @IsOptional()
   @IsObject()
   settings?: Record<string, never>;
@@ -120,13 +141,28 @@ export class DryRunRequestDto {
 
 export class DryRunResultDto {
   @ApiProperty() arrivals: number;
-  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) arms: Record<string, unknown>[];
-  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) strata: Record<string, unknown>[];
-  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) factorLevels: Record<string, unknown>[];
-  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) imbalanceOverTime: Record<string, unknown>[];
+  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) arms: Record<
+    string,
+    unknown
+  >[];
+  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) strata: Record<
+    string,
+    unknown
+  >[];
+  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) factorLevels: Record<
+    string,
+    unknown
+  >[];
+  @ApiProperty({ type: 'array', items: { type: 'object', additionalProperties: true } }) imbalanceOverTime: Record<
+    string,
+    unknown
+  >[];
   @ApiProperty({ type: 'object', additionalProperties: true }) largestImbalance: Record<string, unknown>;
   @ApiProperty({ type: 'object', additionalProperties: true }) finalImbalance: Record<string, unknown>;
-  @ApiProperty({ type: 'object', nullable: true, additionalProperties: true }) matchedPairs: Record<string, unknown> | null;
+  @ApiProperty({ type: 'object', nullable: true, additionalProperties: true }) matchedPairs: Record<
+    string,
+    unknown
+  > | null;
   @ApiProperty() seed: string;
 }
 
@@ -145,14 +181,18 @@ export class AllocationCheckDto {
   @ApiProperty({ type: 'object', additionalProperties: true }) expected: Record<string, unknown>;
   @ApiProperty({ type: 'object', additionalProperties: true }) recorded: Record<string, unknown>;
   @ApiProperty() matches: boolean;
-  @ApiProperty({ description: "whether the enrollment's recorded condition and order equal its allocation" }) enrollmentMatches: boolean;
+  @ApiProperty({ description: "whether the enrollment's recorded condition and order equal its allocation" })
+  enrollmentMatches: boolean;
 }
 
 export class EnrollmentMismatchDto {
   @ApiProperty() enrollmentId: string;
   @ApiProperty({ enum: ['differs-from-allocation', 'no-allocation', 'allocation-of-another-study'] }) reason: string;
   @ApiProperty({ type: 'object', additionalProperties: true }) enrollment: Record<string, unknown>;
-  @ApiProperty({ type: 'object', additionalProperties: true, nullable: true }) allocation: Record<string, unknown> | null;
+  @ApiProperty({ type: 'object', additionalProperties: true, nullable: true }) allocation: Record<
+    string,
+    unknown
+  > | null;
   @ApiProperty({ type: 'object', additionalProperties: true, nullable: true }) expected: Record<string, unknown> | null;
 }
 
@@ -172,11 +212,15 @@ export class VerificationDto {
   @ApiProperty() seed: string;
   @ApiProperty() commitment: string;
   @ApiProperty({ type: [AllocationCheckDto] }) checks: AllocationCheckDto[];
-  @ApiProperty({ type: [EnrollmentMismatchDto], description: 'enrollments whose recorded condition differs from their allocation' })
+  @ApiProperty({
+    type: [EnrollmentMismatchDto],
+    description: 'enrollments whose recorded condition differs from their allocation',
+  })
   enrollmentMismatches: EnrollmentMismatchDto[];
   @ApiPropertyOptional({
     type: [StratumSlotsDto],
-    description: 'slot schemes: each stratum’s taken positions (verified by slot, since concurrent signings may claim out of arrival order)',
+    description:
+      'slot schemes: each stratum’s taken positions (verified by slot, since concurrent signings may claim out of arrival order)',
   })
   slots?: StratumSlotsDto[];
 }

@@ -38,21 +38,33 @@ describe('matched pairs', () => {
 
   it('reports the highest scorer of an odd cohort as the odd one out and assigns them by a coin', () => {
     fc.assert(
-      fc.property(seedArb, fc.uniqueArray(fc.integer({ min: 0, max: 100 }), { minLength: 1, maxLength: 41 }), (seed, scores) => {
-        fc.pre(scores.length % 2 === 1);
-        const cohort = scores.map((pretest, i) => ({ participantId: `p${i}`, pretest }));
-        const result = assignMatchedPairs(seed, parameters, cohort);
-        expect(result.pairs).toHaveLength((scores.length - 1) / 2);
-        expect(result.leftover?.pretest).toBe(Math.max(...scores));
-        expect(['audio', 'map']).toContain(result.leftover?.conditionId);
-        const paired = result.pairs.flatMap((p) => p.members.map((m) => m.pretest));
-        expect(paired).toEqual(scores.slice().sort((a, b) => a - b).slice(0, -1));
-      }),
+      fc.property(
+        seedArb,
+        fc.uniqueArray(fc.integer({ min: 0, max: 100 }), { minLength: 1, maxLength: 41 }),
+        (seed, scores) => {
+          fc.pre(scores.length % 2 === 1);
+          const cohort = scores.map((pretest, i) => ({ participantId: `p${i}`, pretest }));
+          const result = assignMatchedPairs(seed, parameters, cohort);
+          expect(result.pairs).toHaveLength((scores.length - 1) / 2);
+          expect(result.leftover?.pretest).toBe(Math.max(...scores));
+          expect(['audio', 'map']).toContain(result.leftover?.conditionId);
+          const paired = result.pairs.flatMap((p) => p.members.map((m) => m.pretest));
+          expect(paired).toEqual(
+            scores
+              .slice()
+              .sort((a, b) => a - b)
+              .slice(0, -1),
+          );
+        },
+      ),
     );
   });
 
   it('flips a fair coin inside each pair', () => {
-    const cohort = Array.from({ length: 4000 }, (_, i) => ({ participantId: `p${String(i).padStart(4, '0')}`, pretest: i }));
+    const cohort = Array.from({ length: 4000 }, (_, i) => ({
+      participantId: `p${String(i).padStart(4, '0')}`,
+      pretest: i,
+    }));
     const result = assignMatchedPairs(SEED, parameters, cohort);
     const lowGetsAudio = result.pairs.filter((p) => p.members[0].conditionId === 'audio').length;
     // Binomial(2000, 1/2): sd ≈ 22.4, 4 sd tolerance (common practice).
@@ -69,7 +81,10 @@ describe('matched pairs', () => {
       ]);
       expect.unreachable();
     } catch (error) {
-      expect((error as RandomizationError).fieldErrors.map((e) => e.field)).toEqual(['participants[1].participantId', 'participants[1].pretest']);
+      expect((error as RandomizationError).fieldErrors.map((e) => e.field)).toEqual([
+        'participants[1].participantId',
+        'participants[1].pretest',
+      ]);
     }
   });
 });

@@ -60,12 +60,27 @@ describe('minimization (Pocock & Simon 1975)', () => {
     const cases: [Partial<MinimizationParameters>, number, number][] = [
       [{}, 5, 1],
       [{ measure: 'variance' }, 6.5, 0.5],
-      [{ factors: [{ ...handedness, weight: 1 }, { ...pretest, weight: 2 }] }, 8, 2],
+      [
+        {
+          factors: [
+            { ...handedness, weight: 1 },
+            { ...pretest, weight: 2 },
+          ],
+        },
+        8,
+        2,
+      ],
     ];
     for (const [extra, gA, gB] of cases) {
       const parameters = twoArm(extra);
       const tally = tallyFromAllocations(parameters, earlier);
-      const decision = assignByMinimization({ seed: SEED, parameters, arrivalPosition: 7, covariates: newcomer, tally });
+      const decision = assignByMinimization({
+        seed: SEED,
+        parameters,
+        arrivalPosition: 7,
+        covariates: newcomer,
+        tally,
+      });
       expect(decision.imbalanceByCondition).toEqual([
         { conditionId: 'A', imbalance: gA },
         { conditionId: 'B', imbalance: gB },
@@ -96,7 +111,10 @@ describe('minimization (Pocock & Simon 1975)', () => {
       measure: 'range',
       coinProbability: 1,
     };
-    const at = (site: string, score: number, conditionId: string) => ({ covariates: { site, pretest: score }, conditionId });
+    const at = (site: string, score: number, conditionId: string) => ({
+      covariates: { site, pretest: score },
+      conditionId,
+    });
     const tally = tallyFromAllocations(parameters, [
       at('north', 60, 'A'),
       at('north', 55, 'A'),
@@ -108,7 +126,13 @@ describe('minimization (Pocock & Simon 1975)', () => {
       at('south', 20, 'A'),
       at('south', 40, 'B'),
     ]);
-    const decision = assignByMinimization({ seed: SEED, parameters, arrivalPosition: 10, covariates: { site: 'north', pretest: 80 }, tally });
+    const decision = assignByMinimization({
+      seed: SEED,
+      parameters,
+      arrivalPosition: 10,
+      covariates: { site: 'north', pretest: 80 },
+      tally,
+    });
     expect(decision.imbalanceByCondition.map((c) => c.imbalance)).toEqual([2, 1, 3]);
     expect(decision.conditionId).toBe('B');
   });
@@ -181,44 +205,59 @@ describe('minimization (Pocock & Simon 1975)', () => {
     // Each run: 1,000 studies of 30 participants, 2-3 factors of 2-3 equally likely levels, default p (2/3).
     // Sum over factor levels of |n_A − n_B|; when written the ratio to simple randomization was 0.53-0.64.
     fc.assert(
-      fc.property(seedArb, fc.array(fc.integer({ min: 2, max: 3 }), { minLength: 2, maxLength: 3 }), (master, levelCounts) => {
-        const factors = levelCounts.map((count, f) => ({
-          id: `f${f}`,
-          kind: 'categorical' as const,
-          categories: Array.from({ length: count }, (_, i) => `l${i}`),
-          weight: 1,
-        }));
-        const parameters: MinimizationParameters = {
-          method: 'minimization',
-          conditions: twoArm().conditions,
-          factors,
-          measure: 'range',
-          coinProbability: 2 / 3,
-        };
-        const simple: SimpleParameters = { method: 'simple', conditions: parameters.conditions };
-        const studies = 1000;
-        const size = 30;
-        const studySeeds = createSeededStream(master, 'study-seeds');
-        const covariateStream = createSeededStream(master, 'covariates');
-        let minimizationTotal = 0;
-        let simpleTotal = 0;
-        for (let s = 0; s < studies; s++) {
-          const seed = Array.from({ length: 8 }, () => studySeeds.integerBelow(2 ** 32).toString(16).padStart(8, '0')).join('');
-          const people: FactorLevels[] = Array.from({ length: size }, () =>
-            Object.fromEntries(factors.map((f) => [f.id, f.categories[covariateStream.integerBelow(f.categories.length)]])),
-          );
-          const byMinimization = emptyTally(parameters);
-          const bySimple = emptyTally(parameters);
-          const simpleSlots = generateSimpleSequence(seed, simple, size);
-          people.forEach((levels, i) => {
-            recordInTally(byMinimization, levels, decideByMinimization(seed, parameters, i + 1, levels, byMinimization).conditionId);
-            recordInTally(bySimple, levels, simpleSlots[i].conditionId);
-          });
-          minimizationTotal += marginalImbalance(byMinimization);
-          simpleTotal += marginalImbalance(bySimple);
-        }
-        expect(minimizationTotal).toBeLessThan(0.75 * simpleTotal);
-      }),
+      fc.property(
+        seedArb,
+        fc.array(fc.integer({ min: 2, max: 3 }), { minLength: 2, maxLength: 3 }),
+        (master, levelCounts) => {
+          const factors = levelCounts.map((count, f) => ({
+            id: `f${f}`,
+            kind: 'categorical' as const,
+            categories: Array.from({ length: count }, (_, i) => `l${i}`),
+            weight: 1,
+          }));
+          const parameters: MinimizationParameters = {
+            method: 'minimization',
+            conditions: twoArm().conditions,
+            factors,
+            measure: 'range',
+            coinProbability: 2 / 3,
+          };
+          const simple: SimpleParameters = { method: 'simple', conditions: parameters.conditions };
+          const studies = 1000;
+          const size = 30;
+          const studySeeds = createSeededStream(master, 'study-seeds');
+          const covariateStream = createSeededStream(master, 'covariates');
+          let minimizationTotal = 0;
+          let simpleTotal = 0;
+          for (let s = 0; s < studies; s++) {
+            const seed = Array.from({ length: 8 }, () =>
+              studySeeds
+                .integerBelow(2 ** 32)
+                .toString(16)
+                .padStart(8, '0'),
+            ).join('');
+            const people: FactorLevels[] = Array.from({ length: size }, () =>
+              Object.fromEntries(
+                factors.map((f) => [f.id, f.categories[covariateStream.integerBelow(f.categories.length)]]),
+              ),
+            );
+            const byMinimization = emptyTally(parameters);
+            const bySimple = emptyTally(parameters);
+            const simpleSlots = generateSimpleSequence(seed, simple, size);
+            people.forEach((levels, i) => {
+              recordInTally(
+                byMinimization,
+                levels,
+                decideByMinimization(seed, parameters, i + 1, levels, byMinimization).conditionId,
+              );
+              recordInTally(bySimple, levels, simpleSlots[i].conditionId);
+            });
+            minimizationTotal += marginalImbalance(byMinimization);
+            simpleTotal += marginalImbalance(bySimple);
+          }
+          expect(minimizationTotal).toBeLessThan(0.75 * simpleTotal);
+        },
+      ),
       { numRuns: 3, endOnFailure: true },
     );
   });
@@ -226,13 +265,21 @@ describe('minimization (Pocock & Simon 1975)', () => {
   it('refuses a tally and arrival position that do not fit together', () => {
     const parameters = twoArm();
     const tally = tallyFromAllocations(parameters, earlier);
-    expect(() => assignByMinimization({ seed: SEED, parameters, arrivalPosition: 3, covariates: newcomer, tally })).toThrow(
-      /arrivalPosition: must be 7/,
-    );
+    expect(() =>
+      assignByMinimization({ seed: SEED, parameters, arrivalPosition: 3, covariates: newcomer, tally }),
+    ).toThrow(/arrivalPosition: must be 7/);
     const foreign: MinimizationTally = { ...tally, conditionIds: ['X', 'Y'] };
-    expect(() => assignByMinimization({ seed: SEED, parameters, arrivalPosition: 7, covariates: newcomer, tally: foreign })).toThrow(/tally/);
+    expect(() =>
+      assignByMinimization({ seed: SEED, parameters, arrivalPosition: 7, covariates: newcomer, tally: foreign }),
+    ).toThrow(/tally/);
     try {
-      assignByMinimization({ seed: SEED, parameters, arrivalPosition: 7, covariates: { hand: 'both', pretest: 1 }, tally });
+      assignByMinimization({
+        seed: SEED,
+        parameters,
+        arrivalPosition: 7,
+        covariates: { hand: 'both', pretest: 1 },
+        tally,
+      });
       expect.unreachable();
     } catch (error) {
       expect((error as RandomizationError).fieldErrors[0].field).toBe('covariates.hand');
@@ -248,6 +295,7 @@ describe('minimization (Pocock & Simon 1975)', () => {
 
 function marginalImbalance(tally: MinimizationTally): number {
   let total = 0;
-  for (const levels of Object.values(tally.counts)) for (const [a, b] of Object.values(levels)) total += Math.abs(a - b);
+  for (const levels of Object.values(tally.counts))
+    for (const [a, b] of Object.values(levels)) total += Math.abs(a - b);
   return total;
 }

@@ -57,7 +57,10 @@ export function emptyTallyOf(parameters: MinimizationParameters): MinimizationTa
   return {
     conditionIds: parameters.conditions.map((c) => c.conditionId),
     counts: Object.fromEntries(
-      parameters.factors.map((f) => [f.id, Object.fromEntries(factorLevels(f).map((level) => [level, new Array<number>(k).fill(0)]))]),
+      parameters.factors.map((f) => [
+        f.id,
+        Object.fromEntries(factorLevels(f).map((level) => [level, new Array<number>(k).fill(0)])),
+      ]),
     ),
     allocated: 0,
   };
@@ -66,10 +69,12 @@ export function emptyTallyOf(parameters: MinimizationParameters): MinimizationTa
 /** Adds one allocation to the tally, in place. */
 export function recordInTally(tally: MinimizationTally, levels: FactorLevels, conditionId: string): void {
   const index = tally.conditionIds.indexOf(conditionId);
-  if (index < 0) fail(RandomizationErrorCode.InvalidInput, 'conditionId', `"${conditionId}" is not a condition of this scheme`);
+  if (index < 0)
+    fail(RandomizationErrorCode.InvalidInput, 'conditionId', `"${conditionId}" is not a condition of this scheme`);
   for (const [factorId, level] of Object.entries(levels)) {
     const row = tally.counts[factorId]?.[level];
-    if (row === undefined) fail(RandomizationErrorCode.InvalidInput, `levels.${factorId}`, `"${level}" is not a level of this factor`);
+    if (row === undefined)
+      fail(RandomizationErrorCode.InvalidInput, `levels.${factorId}`, `"${level}" is not a level of this factor`);
     row[index] += 1;
   }
   tally.allocated += 1;
@@ -166,7 +171,15 @@ export function decideByMinimization(
     const others = parameters.conditions.map((c) => c.conditionId).filter((id) => id !== preferredConditionId);
     conditionId = others[stream.integerBelow(others.length)];
   }
-  return { arrivalPosition, conditionId, levels, imbalanceByCondition, tiedConditionIds, preferredConditionId, followedPreference };
+  return {
+    arrivalPosition,
+    conditionId,
+    levels,
+    imbalanceByCondition,
+    tiedConditionIds,
+    preferredConditionId,
+    followedPreference,
+  };
 }
 
 export interface MinimizationInput {

@@ -80,7 +80,10 @@ describe('permuted blocks', () => {
     fc.assert(
       fc.property(seedArb, seedArb, (a, b) => {
         fc.pre(a !== b);
-        const ids = (seed: string) => generatePermutedBlockSequence(seed, parameters, 64).map((s) => s.conditionId).join('');
+        const ids = (seed: string) =>
+          generatePermutedBlockSequence(seed, parameters, 64)
+            .map((s) => s.conditionId)
+            .join('');
         expect(ids(a)).not.toBe(ids(b));
       }),
       { numRuns: 100 },
@@ -105,7 +108,8 @@ describe('permuted blocks', () => {
     }
     expect([...counts.keys()].sort()).toEqual(['AABB', 'ABAB', 'ABBA', 'BAAB', 'BABA', 'BBAA']);
     // Each arrangement equally likely: Binomial(1500, 1/6), sd ≈ 14.4, 4 sd tolerance (common practice).
-    for (const count of counts.values()) expect(Math.abs(count - blocks / 6)).toBeLessThan(4 * Math.sqrt((blocks * 5) / 36));
+    for (const count of counts.values())
+      expect(Math.abs(count - blocks / 6)).toBeLessThan(4 * Math.sqrt((blocks * 5) / 36));
   });
 
   it('draws block sizes from the allowed list, each about equally often', () => {
@@ -117,7 +121,9 @@ describe('permuted blocks', () => {
       ],
       blockSizes: [3, 6, 9],
     };
-    const sizes = blocksOf(generatePermutedBlockSequence(SEED, parameters, 18_000)).map((b) => b[0].blockSize as number);
+    const sizes = blocksOf(generatePermutedBlockSequence(SEED, parameters, 18_000)).map(
+      (b) => b[0].blockSize as number,
+    );
     for (const size of [3, 6, 9]) {
       const share = sizes.filter((s) => s === size).length / sizes.length;
       expect(Math.abs(share - 1 / 3)).toBeLessThan(4 * Math.sqrt(2 / 9 / sizes.length));
@@ -133,7 +139,9 @@ describe('permuted blocks', () => {
       ],
       blockSizes: [3],
     };
-    expect(() => generatePermutedBlockSequence(SEED, parameters, 10)).toThrow(/blockSizes\[0\]: 3 is not a multiple of the total weight 2/);
+    expect(() => generatePermutedBlockSequence(SEED, parameters, 10)).toThrow(
+      /blockSizes\[0\]: 3 is not a multiple of the total weight 2/,
+    );
     expect(() => generatePermutedBlockSequence(SEED, { ...parameters, blockSizes: [2] }, -1)).toThrow(/count/);
   });
 });

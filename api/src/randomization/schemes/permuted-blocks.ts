@@ -78,7 +78,10 @@ export function generatePermutedBlockSequence(
 }
 
 /** How many times each condition appears in one complete block of this size. */
-export function expectedBlockCounts(conditions: readonly ConditionAllocation[], blockSize: number): Record<string, number> {
+export function expectedBlockCounts(
+  conditions: readonly ConditionAllocation[],
+  blockSize: number,
+): Record<string, number> {
   const copies = blockSize / totalWeight(conditions);
   return Object.fromEntries(conditions.map((c) => [c.conditionId, c.weight * copies]));
 }

@@ -1,7 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { RandomizationError } from '../randomization-error';
 import { StratifiedBlocksParameters } from '../scheme-parameters';
-import { generateStratifiedSequences, generateStratumSequence, PRETEST_CUTOFF_EXPLANATION, stratumOfParticipant } from './stratified-blocks';
+import {
+  generateStratifiedSequences,
+  generateStratumSequence,
+  PRETEST_CUTOFF_EXPLANATION,
+  stratumOfParticipant,
+} from './stratified-blocks';
 
 const SEED = '7a'.repeat(32);
 const parameters: StratifiedBlocksParameters = {
@@ -21,7 +26,12 @@ const parameters: StratifiedBlocksParameters = {
 describe('stratified permuted blocks', () => {
   it('keeps one independent sequence per stratum', () => {
     const sequences = generateStratifiedSequences(SEED, parameters, 30);
-    expect(Object.keys(sequences).sort()).toEqual(['sense=<4|site=lab', 'sense=<4|site=online', 'sense=≥4|site=lab', 'sense=≥4|site=online']);
+    expect(Object.keys(sequences).sort()).toEqual([
+      'sense=<4|site=lab',
+      'sense=<4|site=online',
+      'sense=≥4|site=lab',
+      'sense=≥4|site=online',
+    ]);
     const patterns = Object.values(sequences).map((slots) => slots.map((s) => s.conditionId).join(','));
     expect(new Set(patterns).size).toBe(4);
     for (const [key, slots] of Object.entries(sequences)) {
@@ -43,12 +53,16 @@ describe('stratified permuted blocks', () => {
       stratumOfParticipant(parameters, { sense: 5 });
       expect.unreachable();
     } catch (error) {
-      expect((error as RandomizationError).fieldErrors).toEqual([{ field: 'covariates.site', message: expect.stringContaining('missing') }]);
+      expect((error as RandomizationError).fieldErrors).toEqual([
+        { field: 'covariates.site', message: expect.stringContaining('missing') },
+      ]);
     }
   });
 
   it('refuses a stratum key the factors cannot produce', () => {
-    expect(() => generateStratumSequence(SEED, parameters, 'sense=≥65', 5)).toThrow(/stratumKey: "sense=≥65" is not a stratum/);
+    expect(() => generateStratumSequence(SEED, parameters, 'sense=≥65', 5)).toThrow(
+      /stratumKey: "sense=≥65" is not a stratum/,
+    );
   });
 
   it('re-exports the reason pretests stratify instead of assigning by cut-off', () => {

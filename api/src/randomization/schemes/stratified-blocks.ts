@@ -45,6 +45,9 @@ export function generateStratifiedSequences(
   const checked = parseParametersOf(parameters, ['stratified-blocks']);
   const count = checkSlotCount(slotsPerStratum, 'slotsPerStratum');
   return Object.fromEntries(
-    allStratumKeys(checked.factors).map((key) => [key, blockSlots(seed, checked.conditions, checked.blockSizes, key, count)]),
+    allStratumKeys(checked.factors).map((key) => [
+      key,
+      blockSlots(seed, checked.conditions, checked.blockSizes, key, count),
+    ]),
   );
 }

@@ -29,12 +29,20 @@ describe('cyclic Latin square', () => {
   });
 
   it('tells a Latin square from arrangements that are not one', () => {
-    expect(isLatinSquare([
-      ['A', 'B', 'C'],
-      ['B', 'C', 'A'],
-      ['B', 'A', 'C'],
-    ])).toBe(false);
-    expect(isLatinSquare([['A', 'B'], ['B', 'A'], ['A', 'B']])).toBe(false);
+    expect(
+      isLatinSquare([
+        ['A', 'B', 'C'],
+        ['B', 'C', 'A'],
+        ['B', 'A', 'C'],
+      ]),
+    ).toBe(false);
+    expect(
+      isLatinSquare([
+        ['A', 'B'],
+        ['B', 'A'],
+        ['A', 'B'],
+      ]),
+    ).toBe(false);
     expect(isLatinSquare([])).toBe(false);
   });
 

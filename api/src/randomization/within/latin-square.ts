@@ -3,7 +3,11 @@ import { fail, RandomizationErrorCode } from '../randomization-error';
 
 export function checkDistinctConditions(conditionIds: readonly string[], minimum: number, design: string): void {
   if (conditionIds.length < minimum) {
-    fail(RandomizationErrorCode.InvalidParameters, 'conditionIds', `${design} needs at least ${minimum} conditions (got ${conditionIds.length})`);
+    fail(
+      RandomizationErrorCode.InvalidParameters,
+      'conditionIds',
+      `${design} needs at least ${minimum} conditions (got ${conditionIds.length})`,
+    );
   }
   if (new Set(conditionIds).size !== conditionIds.length) {
     fail(RandomizationErrorCode.InvalidParameters, 'conditionIds', 'must not list a condition twice');

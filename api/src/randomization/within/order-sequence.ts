@@ -56,7 +56,12 @@ export function orderSlots(
   const orders = ordersOf(parameters);
   const stream = createSeededStream(seed, streamLabel.orders(stratumKey));
   const blockSizes = parameters.squaresPerBlock.map((squares) => squares * orders.length);
-  return drawPermutedBlocks(stream, orders.map(() => 1), blockSizes, count).map((draw, i) => ({
+  return drawPermutedBlocks(
+    stream,
+    orders.map(() => 1),
+    blockSizes,
+    count,
+  ).map((draw, i) => ({
     stratumKey,
     position: i + 1,
     orderIndex: draw.itemIndex,
@@ -77,7 +82,11 @@ export function generateOrderSequence(
   const checked = parseParametersOf(parameters, WITHIN_DESIGNS);
   const strata = allStratumKeys(checked.factors);
   if (!strata.includes(stratumKey)) {
-    fail(RandomizationErrorCode.InvalidInput, 'stratumKey', `"${stratumKey}" is not a stratum of this design (strata: ${strata.join(', ')})`);
+    fail(
+      RandomizationErrorCode.InvalidInput,
+      'stratumKey',
+      `"${stratumKey}" is not a stratum of this design (strata: ${strata.join(', ')})`,
+    );
   }
   return orderSlots(seed, checked, stratumKey, checkSlotCount(count));
 }

@@ -4,7 +4,8 @@ import { isLatinSquare } from './latin-square';
 import { carryoverBalance, williamsDesign } from './williams';
 
 const rows = (text: string) => text.split(' / ').map((row) => row.split(' '));
-const idsArb = (min: number, max: number) => fc.uniqueArray(fc.string({ minLength: 1, maxLength: 6 }), { minLength: min, maxLength: max });
+const idsArb = (min: number, max: number) =>
+  fc.uniqueArray(fc.string({ minLength: 1, maxLength: 6 }), { minLength: min, maxLength: max });
 
 describe('Williams design', () => {
   it('for 4 conditions equals the standard construction A B D C / B C A D / C D B A / D A C B', () => {
@@ -56,7 +57,9 @@ describe('Williams design', () => {
           const balance = carryoverBalance(design);
           expect(balance.balanced).toBe(true);
           expect(balance.timesEachPairAdjacent).toBe(2);
-          const timesAtPosition = ids.map((id) => ids.map((_, position) => design.filter((order) => order[position] === id).length));
+          const timesAtPosition = ids.map((id) =>
+            ids.map((_, position) => design.filter((order) => order[position] === id).length),
+          );
           expect(timesAtPosition.flat().every((times) => times === 2)).toBe(true);
         },
       ),

@@ -1,13 +1,27 @@
 import { ApiProperty } from '@nestjs/swagger';
 import { Transform, Type } from 'class-transformer';
-import { ArrayMaxSize, IsArray, IsBoolean, IsIn, IsInt, IsString, Length, Max, Min, ValidateNested } from 'class-validator';
+import {
+  ArrayMaxSize,
+  IsArray,
+  IsBoolean,
+  IsIn,
+  IsInt,
+  IsString,
+  Length,
+  Max,
+  Min,
+  ValidateNested,
+} from 'class-validator';
 import type { ContactKind } from '../entities/contact.entity';
 
 const trimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 export const CONTACT_KINDS: ContactKind[] = ['invitation', 'reminder', 'reconsent-request', 'staff-message'];
 
 export class ReminderRuleDto {
-  @ApiProperty({ enum: ['opens', 'due'], description: 'Counted from the day the step opens, or back from its due date' })
+  @ApiProperty({
+    enum: ['opens', 'due'],
+    description: 'Counted from the day the step opens, or back from its due date',
+  })
   @IsIn(['opens', 'due'], { message: 'anchor must be opens or due' })
   anchor: 'opens' | 'due';
 
@@ -23,7 +37,8 @@ export class ReminderPlanDto {
   @ApiProperty() suggestLostAfter: number;
   @ApiProperty() enabled: boolean;
   @ApiProperty({ nullable: true, type: String }) updatedAt: string | null;
-  @ApiProperty({ description: 'The reminder e-mail as participants receive it, filled in for the first step' }) previewSubject: string;
+  @ApiProperty({ description: 'The reminder e-mail as participants receive it, filled in for the first step' })
+  previewSubject: string;
   @ApiProperty() previewText: string;
 }
 
@@ -57,7 +72,8 @@ export class ContactDto {
 
 export class ContactLogDto {
   @ApiProperty({ type: [ContactDto] }) items: ContactDto[];
-  @ApiProperty({ description: 'Reminders since the last step was done (or since assignment)' }) unansweredReminders: number;
+  @ApiProperty({ description: 'Reminders since the last step was done (or since assignment)' })
+  unansweredReminders: number;
   @ApiProperty() suggestLostAfter: number;
   @ApiProperty() suggestLost: boolean;
 }

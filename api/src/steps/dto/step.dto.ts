@@ -1,6 +1,20 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
-import { ArrayMaxSize, ArrayMinSize, IsArray, IsIn, IsInt, IsOptional, IsString, IsUrl, Length, Max, MaxLength, Min, ValidateIf } from 'class-validator';
+import {
+  ArrayMaxSize,
+  ArrayMinSize,
+  IsArray,
+  IsIn,
+  IsInt,
+  IsOptional,
+  IsString,
+  IsUrl,
+  Length,
+  Max,
+  MaxLength,
+  Min,
+  ValidateIf,
+} from 'class-validator';
 import { STEP_VERIFICATIONS, type StepOpensFrom, type StepVerification } from '../step-window';
 
 const trimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
@@ -17,14 +31,26 @@ export class StepDto {
   @ApiProperty() position: number;
   @ApiProperty() title: string;
   @ApiProperty() description: string;
-  @ApiProperty({ description: 'Minor units of the study currency; the same in every condition unless overridden' }) payMinor: number;
-  @ApiProperty({ description: 'Whether a code shared by everyone has been set for this step' }) hasCompletionCode: boolean;
+  @ApiProperty({ description: 'Minor units of the study currency; the same in every condition unless overridden' })
+  payMinor: number;
+  @ApiProperty({ description: 'Whether a code shared by everyone has been set for this step' })
+  hasCompletionCode: boolean;
   @ApiProperty({ enum: STEP_VERIFICATIONS, description: 'How a completion is checked' }) verification: StepVerification;
-  @ApiProperty({ nullable: true, type: String, description: "The lab's external task, for return-link steps" }) taskUrl: string | null;
-  @ApiProperty({ description: 'Days after assignment or after the previous step at which the step opens' }) opensAfterDays: number;
+  @ApiProperty({ nullable: true, type: String, description: "The lab's external task, for return-link steps" })
+  taskUrl: string | null;
+  @ApiProperty({ description: 'Days after assignment or after the previous step at which the step opens' })
+  opensAfterDays: number;
   @ApiProperty({ enum: ['assignment', 'previous-step'] }) opensFrom: StepOpensFrom;
-  @ApiProperty({ nullable: true, type: Number, description: 'Days after opening by which it is due; null for no due date' }) dueWithinDays: number | null;
-  @ApiProperty({ type: [PayOverrideDto], description: 'Recorded exceptions to equal pay; each is flagged in the parity view' })
+  @ApiProperty({
+    nullable: true,
+    type: Number,
+    description: 'Days after opening by which it is due; null for no due date',
+  })
+  dueWithinDays: number | null;
+  @ApiProperty({
+    type: [PayOverrideDto],
+    description: 'Recorded exceptions to equal pay; each is flagged in the parity view',
+  })
   payOverrides: PayOverrideDto[];
 }
 
@@ -87,7 +113,10 @@ export class SetPayOverrideDto {
 }
 
 export class SetCompletionCodeDto {
-  @ApiProperty({ example: 'WAY-42', description: 'Shown to participants at the end of the external task; stored only as a hash' })
+  @ApiProperty({
+    example: 'WAY-42',
+    description: 'Shown to participants at the end of the external task; stored only as a hash',
+  })
   @Transform(trimmed)
   @IsString()
   @Length(4, 64, { message: 'code must be 4 to 64 characters' })
@@ -108,11 +137,19 @@ export class StepSettingsDto {
   @IsIn(STEP_VERIFICATIONS, { message: `verification must be one of ${STEP_VERIFICATIONS.join(', ')}` })
   verification: StepVerification;
 
-  @ApiPropertyOptional({ nullable: true, type: String, example: 'https://tasks.example.org/wayfinding/session-1', description: 'Required for return-link steps' })
+  @ApiPropertyOptional({
+    nullable: true,
+    type: String,
+    example: 'https://tasks.example.org/wayfinding/session-1',
+    description: 'Required for return-link steps',
+  })
   @ValidateIf((o: StepSettingsDto) => o.taskUrl !== null && o.taskUrl !== undefined)
   @IsString()
   @MaxLength(2000)
-  @IsUrl({ protocols: ['http', 'https'], require_protocol: true, require_tld: false }, { message: 'taskUrl must be a web address starting with http:// or https://' })
+  @IsUrl(
+    { protocols: ['http', 'https'], require_protocol: true, require_tld: false },
+    { message: 'taskUrl must be a web address starting with http:// or https://' },
+  )
   taskUrl?: string | null;
 
   @ApiProperty({ minimum: 0, maximum: 3650 })
@@ -125,14 +162,22 @@ export class StepSettingsDto {
   @IsIn(['assignment', 'previous-step'], { message: 'opensFrom must be assignment or previous-step' })
   opensFrom: StepOpensFrom;
 
-  @ApiPropertyOptional({ nullable: true, type: Number, minimum: 0, maximum: 3650, description: 'Null or absent for no due date' })
+  @ApiPropertyOptional({
+    nullable: true,
+    type: Number,
+    minimum: 0,
+    maximum: 3650,
+    description: 'Null or absent for no due date',
+  })
   @ValidateIf((o: StepSettingsDto) => o.dueWithinDays !== null && o.dueWithinDays !== undefined)
   @IsInt({ message: 'dueWithinDays must be a whole number of days' })
   @Min(0)
   @Max(3650)
   dueWithinDays?: number | null;
 
-  @ApiPropertyOptional({ description: 'For shared-code steps: sets or replaces the code everyone types; stored only as a hash' })
+  @ApiPropertyOptional({
+    description: 'For shared-code steps: sets or replaces the code everyone types; stored only as a hash',
+  })
   @IsOptional()
   @Transform(trimmed)
   @IsString()
@@ -147,16 +192,26 @@ export class ReturnLinkParameterDto {
 
 /** What a lab pastes into its external task so participants come back to Evenhand. */
 export class ReturnLinkSetupDto {
-  @ApiProperty({ description: 'The return address with {token} where the token passed to the task goes' }) returnAddressTemplate: string;
-  @ApiProperty({ type: [ReturnLinkParameterDto], description: 'What Evenhand adds to the task address' }) parameters: ReturnLinkParameterDto[];
+  @ApiProperty({ description: 'The return address with {token} where the token passed to the task goes' })
+  returnAddressTemplate: string;
+  @ApiProperty({ type: [ReturnLinkParameterDto], description: 'What Evenhand adds to the task address' })
+  parameters: ReturnLinkParameterDto[];
   @ApiProperty({ description: 'Which return key signs new links' }) keyId: number;
   @ApiProperty({ nullable: true, type: String }) rotatedAt: string | null;
-  @ApiProperty({ description: 'Days links signed with the previous key keep working after a rotation' }) graceDays: number;
-  @ApiProperty({ description: 'Days a return link stays valid after its step is due (or after it was issued, with no due date)' }) validDays: number;
+  @ApiProperty({ description: 'Days links signed with the previous key keep working after a rotation' })
+  graceDays: number;
+  @ApiProperty({
+    description: 'Days a return link stays valid after its step is due (or after it was issued, with no due date)',
+  })
+  validDays: number;
 }
 
 export class BulkCompletionDto {
-  @ApiProperty({ type: [String], description: 'Participant references, one per line as pasted or uploaded', example: ['P-ABC234', 'P-XYZ789'] })
+  @ApiProperty({
+    type: [String],
+    description: 'Participant references, one per line as pasted or uploaded',
+    example: ['P-ABC234', 'P-XYZ789'],
+  })
   @IsArray()
   @ArrayMinSize(1, { message: 'references must list at least one participant reference' })
   @ArrayMaxSize(5000)

@@ -1,12 +1,25 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform, Type } from 'class-transformer';
-import { ArrayMaxSize, IsArray, IsIn, IsNumber, IsOptional, IsString, Length, Matches, MaxLength, ValidateNested } from 'class-validator';
+import {
+  ArrayMaxSize,
+  IsArray,
+  IsIn,
+  IsNumber,
+  IsOptional,
+  IsString,
+  Length,
+  Matches,
+  MaxLength,
+  ValidateNested,
+} from 'class-validator';
 
 const trimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
 export class ScreeningQuestionInputDto {
   @ApiProperty({ example: 'adult' })
-  @Matches(/^[a-z][a-z0-9_]{0,63}$/, { message: 'key must start with a letter and use lower-case letters, digits and _' })
+  @Matches(/^[a-z][a-z0-9_]{0,63}$/, {
+    message: 'key must start with a letter and use lower-case letters, digits and _',
+  })
   key: string;
 
   @ApiProperty({ example: 'Are you 18 or older?' })
@@ -19,7 +32,12 @@ export class ScreeningQuestionInputDto {
   @IsIn(['yes-no', 'number', 'choice'])
   kind: 'yes-no' | 'number' | 'choice';
 
-  @ApiPropertyOptional({ type: [String] }) @IsOptional() @IsArray() @ArrayMaxSize(50) @IsString({ each: true }) options?: string[];
+  @ApiPropertyOptional({ type: [String] })
+  @IsOptional()
+  @IsArray()
+  @ArrayMaxSize(50)
+  @IsString({ each: true })
+  options?: string[];
   @ApiPropertyOptional() @IsOptional() @IsNumber() minValue?: number;
   @ApiPropertyOptional() @IsOptional() @IsNumber() maxValue?: number;
   @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(500) help?: string;
@@ -28,7 +46,11 @@ export class ScreeningQuestionInputDto {
   @IsString()
   @MaxLength(200)
   criterion?: string;
-  @ApiPropertyOptional({ description: 'yes-no: [true] or [false]; choice: the options that may take part', type: 'array', items: {} })
+  @ApiPropertyOptional({
+    description: 'yes-no: [true] or [false]; choice: the options that may take part',
+    type: 'array',
+    items: {},
+  })
   @IsOptional()
   @IsArray()
   eligibleValues?: Array<string | boolean>;
@@ -53,11 +75,16 @@ export class ScreeningQuestionDto {
   @ApiPropertyOptional() min?: number;
   @ApiPropertyOptional() max?: number;
   @ApiPropertyOptional() help?: string;
-  @ApiProperty({ enum: ['eligibility', 'stratification'], description: 'Stratification answers balance the assignment; they never exclude anyone' })
+  @ApiProperty({
+    enum: ['eligibility', 'stratification'],
+    description: 'Stratification answers balance the assignment; they never exclude anyone',
+  })
   purpose: 'eligibility' | 'stratification';
   // The rule itself is for staff only: participants are never shown which answer qualifies.
   @ApiPropertyOptional({ description: 'Staff view only' }) criterion?: string;
-  @ApiPropertyOptional({ description: 'Staff view only', type: 'array', items: {} }) eligibleValues?: Array<string | boolean>;
+  @ApiPropertyOptional({ description: 'Staff view only', type: 'array', items: {} }) eligibleValues?: Array<
+    string | boolean
+  >;
   @ApiPropertyOptional({ description: 'Staff view only' }) eligibleMin?: number;
   @ApiPropertyOptional({ description: 'Staff view only' }) eligibleMax?: number;
 }

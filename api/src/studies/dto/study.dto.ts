@@ -29,11 +29,15 @@ export class StudySummaryDto {
   @ApiProperty() title: string;
   @ApiProperty({ enum: STUDY_STATUSES }) status: StudyStatus;
   @ApiProperty({ enum: STUDY_DESIGNS }) design: StudyDesign;
-  @ApiProperty({ format: 'date-time', nullable: true, type: String, description: 'When the closed study was archived' }) archivedAt: string | null;
+  @ApiProperty({ format: 'date-time', nullable: true, type: String, description: 'When the closed study was archived' })
+  archivedAt: string | null;
 }
 
 export class ListStudiesQueryDto {
-  @ApiPropertyOptional({ enum: ['true', 'false'], description: 'true lists only archived studies; by default they are left out' })
+  @ApiPropertyOptional({
+    enum: ['true', 'false'],
+    description: 'true lists only archived studies; by default they are left out',
+  })
   @IsOptional()
   @IsIn(['true', 'false'], { message: 'archived must be true or false' })
   archived?: 'true' | 'false';
@@ -53,20 +57,31 @@ export class StudyDto extends StudySummaryDto {
   @ApiProperty() blinded: boolean;
   @ApiProperty() labName: string;
   @ApiProperty({ nullable: true, type: String }) contactEmail: string | null;
-  @ApiProperty({ nullable: true, type: String, description: 'The ethics board approval reference (not the protocol number)' })
+  @ApiProperty({
+    nullable: true,
+    type: String,
+    description: 'The ethics board approval reference (not the protocol number)',
+  })
   ethicsApprovalReference: string | null;
   @ApiProperty({ description: 'People assigned so far; the target size may not go below it' }) assignedCount: number;
-  @ApiProperty({ type: [String], description: 'What may change in the details, and when, in plain words' }) editRules: string[];
+  @ApiProperty({ type: [String], description: 'What may change in the details, and when, in plain words' })
+  editRules: string[];
   @ApiProperty({ format: 'date-time', nullable: true, type: String }) openedAt: string | null;
   @ApiProperty({ format: 'date-time', nullable: true, type: String }) closedAt: string | null;
   @ApiProperty({ format: 'date-time' }) createdAt: string;
-  @ApiProperty({ description: 'Whether anyone has been assigned yet; the design is fixed from then on' }) designLocked: boolean;
+  @ApiProperty({ description: 'Whether anyone has been assigned yet; the design is fixed from then on' })
+  designLocked: boolean;
 }
 
 export class CreateStudyDto {
-  @ApiProperty({ example: 'wayfinding-cues', description: 'Lower-case letters, digits and dashes; used in the study link' })
+  @ApiProperty({
+    example: 'wayfinding-cues',
+    description: 'Lower-case letters, digits and dashes; used in the study link',
+  })
   @Transform(trimmed)
-  @Matches(/^[a-z0-9]+(-[a-z0-9]+)*$/, { message: 'slug must be lower-case letters and digits separated by single dashes' })
+  @Matches(/^[a-z0-9]+(-[a-z0-9]+)*$/, {
+    message: 'slug must be lower-case letters and digits separated by single dashes',
+  })
   @Length(3, 60, { message: 'slug must be 3 to 60 characters' })
   slug: string;
 
@@ -166,7 +181,11 @@ export class UpdateStudyDto {
 export class ConditionDto {
   @ApiProperty({ format: 'uuid' }) id: string;
   @ApiProperty({ description: 'Neutral code shown while blinded' }) code: string;
-  @ApiProperty({ description: 'Staff-only name; hidden behind the code while the study is blinded', nullable: true, type: String })
+  @ApiProperty({
+    description: 'Staff-only name; hidden behind the code while the study is blinded',
+    nullable: true,
+    type: String,
+  })
   internalName: string | null;
   @ApiProperty() participantLabel: string;
   @ApiProperty() participantInstructions: string;
@@ -214,7 +233,9 @@ export class UpdateConditionDto {
 
 export class StratificationFactorInputDto {
   @ApiProperty({ example: 'sense_of_direction' })
-  @Matches(/^[a-z][a-z0-9_]{0,63}$/, { message: 'key must start with a letter and use lower-case letters, digits and _' })
+  @Matches(/^[a-z][a-z0-9_]{0,63}$/, {
+    message: 'key must start with a letter and use lower-case letters, digits and _',
+  })
   key: string;
 
   @ApiProperty({ example: 'How good is your sense of direction? (0–100)' })

@@ -32,7 +32,12 @@ export class StratificationFactorEntity {
   @Column({ type: 'jsonb', nullable: true })
   categories: string[] | null;
 
-  @Column({ name: 'minimization_weight', type: 'numeric', default: 1, transformer: { to: (v: number) => v, from: (v: string) => Number(v) } })
+  @Column({
+    name: 'minimization_weight',
+    type: 'numeric',
+    default: 1,
+    transformer: { to: (v: number) => v, from: (v: string) => Number(v) },
+  })
   minimizationWeight: number;
 
   @Column({ type: 'integer' })

@@ -7,7 +7,8 @@ import { MAX_PAGE } from '../../common/http/paging';
 export const MIN_PASSWORD_LENGTH = 12;
 
 const trimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
-const lowerTrimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim().toLowerCase() : value);
+const lowerTrimmed = ({ value }: { value: unknown }) =>
+  typeof value === 'string' ? value.trim().toLowerCase() : value;
 
 export class StaffUserDto {
   @ApiProperty({ format: 'uuid' }) id: string;

@@ -16,18 +16,85 @@ const none = { exists: false, payoutsEnabled: false, onboarding: 'none' as const
 const started = { exists: true, payoutsEnabled: false, onboarding: 'started' as const };
 const ready = { exists: true, payoutsEnabled: true, onboarding: 'complete' as const };
 const onboardingUrl = 'http://127.0.0.1:3200/onboarding/acctlink_demo_1';
-const taxNote = 'Payments for taking part in research can count as income. Rules differ by country; if you are unsure, ask a tax adviser.';
+const taxNote =
+  'Payments for taking part in research can count as income. Rules differ by country; if you are unsure, ask a tax adviser.';
 const year = new Date().getUTCFullYear();
 
 // Invented demo payments, one of each status a participant meets.
 const payouts: MyPayouts = {
   items: [
-    { id: 'p6', studyTitle: 'Wayfinding cues', stepTitle: 'Session 1: learning the building', kind: 'step', amountMinor: 1000, currency: 'USD', status: 'reversed', createdAt: '2026-02-01T10:00:00.000Z', paidAt: null, receipt: null },
-    { id: 'p5', studyTitle: 'Wayfinding cues', stepTitle: null, kind: 'bonus', amountMinor: 500, currency: 'USD', status: 'failed', createdAt: '2026-02-12T10:00:00.000Z', paidAt: null, receipt: null },
-    { id: 'p4', studyTitle: 'Wayfinding cues', stepTitle: 'Session 3: finding rooms again', kind: 'step', amountMinor: 1500, currency: 'USD', status: 'approved', createdAt: '2026-02-12T09:00:00.000Z', paidAt: null, receipt: null },
-    { id: 'p3', studyTitle: 'Wayfinding cues', stepTitle: 'Session 2: finding rooms', kind: 'step', amountMinor: 1200, currency: 'USD', status: 'owed', createdAt: '2026-02-05T09:00:00.000Z', paidAt: null, receipt: null },
-    { id: 'p2', studyTitle: 'Checkout flows', stepTitle: 'First checkout', kind: 'step', amountMinor: 99_950, currency: 'USD', status: 'owed', createdAt: '2026-02-04T09:00:00.000Z', paidAt: null, receipt: null },
-    { id: 'p1', studyTitle: 'Wayfinding cues', stepTitle: 'Session 1: learning the building', kind: 'step', amountMinor: 1000, currency: 'USD', status: 'paid', createdAt: '2026-02-01T10:00:00.000Z', paidAt: '2026-02-03T15:00:00.000Z', receipt: 'wayfinding-cues-0001' },
+    {
+      id: 'p6',
+      studyTitle: 'Wayfinding cues',
+      stepTitle: 'Session 1: learning the building',
+      kind: 'step',
+      amountMinor: 1000,
+      currency: 'USD',
+      status: 'reversed',
+      createdAt: '2026-02-01T10:00:00.000Z',
+      paidAt: null,
+      receipt: null,
+    },
+    {
+      id: 'p5',
+      studyTitle: 'Wayfinding cues',
+      stepTitle: null,
+      kind: 'bonus',
+      amountMinor: 500,
+      currency: 'USD',
+      status: 'failed',
+      createdAt: '2026-02-12T10:00:00.000Z',
+      paidAt: null,
+      receipt: null,
+    },
+    {
+      id: 'p4',
+      studyTitle: 'Wayfinding cues',
+      stepTitle: 'Session 3: finding rooms again',
+      kind: 'step',
+      amountMinor: 1500,
+      currency: 'USD',
+      status: 'approved',
+      createdAt: '2026-02-12T09:00:00.000Z',
+      paidAt: null,
+      receipt: null,
+    },
+    {
+      id: 'p3',
+      studyTitle: 'Wayfinding cues',
+      stepTitle: 'Session 2: finding rooms',
+      kind: 'step',
+      amountMinor: 1200,
+      currency: 'USD',
+      status: 'owed',
+      createdAt: '2026-02-05T09:00:00.000Z',
+      paidAt: null,
+      receipt: null,
+    },
+    {
+      id: 'p2',
+      studyTitle: 'Checkout flows',
+      stepTitle: 'First checkout',
+      kind: 'step',
+      amountMinor: 99_950,
+      currency: 'USD',
+      status: 'owed',
+      createdAt: '2026-02-04T09:00:00.000Z',
+      paidAt: null,
+      receipt: null,
+    },
+    {
+      id: 'p1',
+      studyTitle: 'Wayfinding cues',
+      stepTitle: 'Session 1: learning the building',
+      kind: 'step',
+      amountMinor: 1000,
+      currency: 'USD',
+      status: 'paid',
+      createdAt: '2026-02-01T10:00:00.000Z',
+      paidAt: '2026-02-03T15:00:00.000Z',
+      receipt: 'wayfinding-cues-0001',
+    },
   ],
   account: ready,
   paidThisYearMinor: { USD: 1000 },
@@ -46,7 +113,8 @@ function atPayouts(handlers: Parameters<typeof installFakeApi>[0] = {}) {
   });
 }
 
-const setupPanel = async () => within(await screen.findByRole('region', { name: 'How you get paid' }, { timeout: 8_000 }));
+const setupPanel = async () =>
+  within(await screen.findByRole('region', { name: 'How you get paid' }, { timeout: 8_000 }));
 
 beforeEach(() => vi.mocked(leaveForExternalPage).mockClear());
 afterEach(() => vi.useRealTimers());
@@ -98,12 +166,19 @@ describe('getting paid: the payout setup', () => {
 
   it('coming back from the payment service, checks again until payouts are enabled, then says so', async () => {
     const fakeApi = atPayouts({
-      'GET /api/me/payout-account': (_request, callNumber) => ({ status: 200, body: callNumber === 1 ? started : ready }),
+      'GET /api/me/payout-account': (_request, callNumber) => ({
+        status: 200,
+        body: callNumber === 1 ? started : ready,
+      }),
     });
     renderApp('/payouts?onboarding=done');
 
-    expect(await screen.findByText(/Checking your setup with the payment service/, {}, { timeout: 8_000 })).toBeInTheDocument();
-    expect(await screen.findByText('You’re set up', {}, { timeout: SETUP_CHECK_INTERVAL_MS + 3_000 })).toBeInTheDocument();
+    expect(
+      await screen.findByText(/Checking your setup with the payment service/, {}, { timeout: 8_000 }),
+    ).toBeInTheDocument();
+    expect(
+      await screen.findByText('You’re set up', {}, { timeout: SETUP_CHECK_INTERVAL_MS + 3_000 }),
+    ).toBeInTheDocument();
     expect(fakeApi.callsTo('GET', '/api/me/payout-account').length).toBeGreaterThanOrEqual(2);
     expect((await setupPanel()).getByText('Set up')).toBeInTheDocument();
   });
@@ -136,7 +211,9 @@ describe('getting paid: the payout setup', () => {
 
   it('says so when the payment service cannot be reached, and does not leave the page', async () => {
     const user = userEvent.setup();
-    atPayouts({ 'POST /api/me/payout-account': problem(502, 'PROVIDER_UNAVAILABLE', 'Payment provider did not answer') });
+    atPayouts({
+      'POST /api/me/payout-account': problem(502, 'PROVIDER_UNAVAILABLE', 'Payment provider did not answer'),
+    });
     renderApp('/payouts');
 
     await user.click((await setupPanel()).getByRole('button', { name: 'Set up how you get paid' }));
@@ -149,7 +226,9 @@ describe('getting paid: the payout setup', () => {
 
   it('refuses to follow a setup link that is not a web address', async () => {
     const user = userEvent.setup();
-    atPayouts({ 'POST /api/me/payout-account': { status: 200, body: { url: 'javascript:alert(1)', account: started } } });
+    atPayouts({
+      'POST /api/me/payout-account': { status: 200, body: { url: 'javascript:alert(1)', account: started } },
+    });
     renderApp('/payouts');
 
     await user.click((await setupPanel()).getByRole('button', { name: 'Set up how you get paid' }));
@@ -182,7 +261,9 @@ describe('getting paid: the payments', () => {
     expect(paid.getByText('Session 1: learning the building')).toBeInTheDocument();
     expect(paid.getByText('Paid')).toBeInTheDocument();
     expect(paid.getByText('Paid on February 3, 2026')).toBeInTheDocument();
-    expect(paid.getByText('wayfinding-cues-0001').parentElement).toHaveTextContent('Receipt number wayfinding-cues-0001');
+    expect(paid.getByText('wayfinding-cues-0001').parentElement).toHaveTextContent(
+      'Receipt number wayfinding-cues-0001',
+    );
     expect(within(rows[3]!).getByText('Waiting for approval')).toBeInTheDocument();
     expect(within(rows[3]!).getByText('$12.00')).toBeInTheDocument();
     expect(within(rows[4]!).getByText('$999.50')).toBeInTheDocument();

@@ -43,8 +43,8 @@ export function RootErrorBoundary() {
       <section role="alert" className="flex flex-col gap-5">
         <h1 className="text-title font-bold">Sorry, something went wrong</h1>
         <p className="text-lead">
-          This page stopped working. Nothing you did caused it. Reloading usually helps; if it keeps happening, please try
-          again later.
+          This page stopped working. Nothing you did caused it. Reloading usually helps; if it keeps happening, please
+          try again later.
         </p>
         <div className="flex flex-col gap-3">
           <Button wide onClick={() => window.location.reload()}>
@@ -59,4 +59,3 @@ export function RootErrorBoundary() {
     </PageLayout>
   );
 }
-

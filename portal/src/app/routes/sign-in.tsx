@@ -32,7 +32,11 @@ export function SignInRoute() {
         />
       ) : (
         <section aria-labelledby="sign-in-heading" className="flex flex-col gap-6">
-          {state?.signedOut ? <Notice tone="success" title="You have signed out.">See you next time.</Notice> : null}
+          {state?.signedOut ? (
+            <Notice tone="success" title="You have signed out.">
+              See you next time.
+            </Notice>
+          ) : null}
           {state?.sessionEnded ? (
             <Notice title="Please sign in again.">For your safety, sessions end after a while.</Notice>
           ) : null}
@@ -41,9 +45,7 @@ export function SignInRoute() {
               {/* Kept whole: a heading broken at the hyphen ("e- / mail") reads badly on a phone. */}
               Sign in with your <span className="whitespace-nowrap">e-mail</span>
             </h1>
-            <p className="text-lead">
-              No password needed. We will e-mail you a link; tap it and you are in.
-            </p>
+            <p className="text-lead">No password needed. We will e-mail you a link; tap it and you are in.</p>
             {studySlug ? (
               <p className="text-body text-ink-soft">You came here from a study link. Sign in to continue.</p>
             ) : null}

@@ -17,10 +17,17 @@ describe('signed-in area', () => {
 
   it('shows the studies with the signed-in address, for staff too', async () => {
     installFakeApi({
-      'GET /api/auth/me': { status: 200, body: { ...participant, email: 'coordinator@evenhand.test', role: 'coordinator' } },
+      'GET /api/auth/me': {
+        status: 200,
+        body: { ...participant, email: 'coordinator@evenhand.test', role: 'coordinator' },
+      },
       'GET /api/studies': {
         status: 200,
-        body: { items: [{ id: 'a0c4', slug: 'wayfinding-cues', title: 'Wayfinding cues', status: 'recruiting', design: 'between' }] },
+        body: {
+          items: [
+            { id: 'a0c4', slug: 'wayfinding-cues', title: 'Wayfinding cues', status: 'recruiting', design: 'between' },
+          ],
+        },
       },
       // Staff have no part of their own in a study.
       'GET /api/studies/a0c4/enrollments/me': problem(404, 'NOT_FOUND', 'You have not joined this study.'),

@@ -12,11 +12,15 @@ describe('public study page', () => {
     installFakeApi({ ...signedOutHandlers, [studyPage]: { status: 200, body: publicStudy } });
     renderApp('/s/wayfinding-cues');
 
-    expect(await screen.findByRole('heading', { level: 1, name: 'Wayfinding cues' }, { timeout: 3_000 })).toBeInTheDocument();
+    expect(
+      await screen.findByRole('heading', { level: 1, name: 'Wayfinding cues' }, { timeout: 3_000 }),
+    ).toBeInTheDocument();
     expect(screen.getByText('Harbor Lane Cognition Lab', { selector: 'p' })).toBeInTheDocument();
     expect(screen.getByText('About 1 hour 15 minutes in all')).toBeInTheDocument();
     expect(screen.getByText('$37.50 in all')).toBeInTheDocument();
-    expect(screen.getByText('You will walk three short routes on a screen and tell us how sure you felt.')).toBeInTheDocument();
+    expect(
+      screen.getByText('You will walk three short routes on a screen and tell us how sure you felt.'),
+    ).toBeInTheDocument();
 
     // Steps in their order, whatever order the api listed them in, each with its pay.
     const steps = within(screen.getByRole('region', { name: 'What taking part involves' })).getAllByRole('listitem');
@@ -62,7 +66,9 @@ describe('public study page', () => {
     });
     renderApp('/s/no-such-study');
 
-    expect(await screen.findByRole('heading', { name: 'We could not find this study' }, { timeout: 3_000 })).toBeInTheDocument();
+    expect(
+      await screen.findByRole('heading', { name: 'We could not find this study' }, { timeout: 3_000 }),
+    ).toBeInTheDocument();
   });
 
   it('lets someone signed in join, and then asks the screening questions', async () => {
@@ -115,7 +121,9 @@ describe('public study page', () => {
     });
     renderApp('/s/wayfinding-cues');
 
-    expect(await screen.findByRole('heading', { name: 'You have stopped taking part' }, { timeout: 3_000 })).toBeInTheDocument();
+    expect(
+      await screen.findByRole('heading', { name: 'You have stopped taking part' }, { timeout: 3_000 }),
+    ).toBeInTheDocument();
     expect(screen.getByText('You earned').nextElementSibling).toHaveTextContent('$12.50');
     expect(screen.queryByRole('heading', { name: 'Your steps' })).not.toBeInTheDocument();
   });
@@ -152,12 +160,19 @@ describe('coming back from the e-mailed link', () => {
       'GET /api/auth/me': { status: 200, body: participant },
       'GET /api/studies': {
         status: 200,
-        body: { items: [{ id: studyId, slug: 'wayfinding-cues', title: 'Wayfinding cues', status: 'recruiting', design: 'between' }] },
+        body: {
+          items: [
+            { id: studyId, slug: 'wayfinding-cues', title: 'Wayfinding cues', status: 'recruiting', design: 'between' },
+          ],
+        },
       },
     });
     renderApp('/studies');
 
-    expect(await screen.findByRole('link', { name: 'Wayfinding cues' }, { timeout: 3_000 })).toHaveAttribute('href', '/s/wayfinding-cues');
+    expect(await screen.findByRole('link', { name: 'Wayfinding cues' }, { timeout: 3_000 })).toHaveAttribute(
+      'href',
+      '/s/wayfinding-cues',
+    );
   });
 
   it('keeps the signed form downloadable for someone who stopped taking part', async () => {
@@ -168,11 +183,16 @@ describe('coming back from the e-mailed link', () => {
         status: 200,
         body: signedEnrollment({ status: 'withdrew', next: 'withdrawn', withdrewAt: '2026-02-09T16:30:00.000Z' }),
       },
-      [`GET /api/studies/${studyId}/enrollments/me/consent.pdf`]: { status: 200, raw: { bytes: pdfBytes, contentType: 'application/pdf' } },
+      [`GET /api/studies/${studyId}/enrollments/me/consent.pdf`]: {
+        status: 200,
+        raw: { bytes: pdfBytes, contentType: 'application/pdf' },
+      },
     });
     renderApp('/s/wayfinding-cues');
 
-    expect(await screen.findByRole('heading', { name: 'You have stopped taking part' }, { timeout: 3_000 })).toBeInTheDocument();
+    expect(
+      await screen.findByRole('heading', { name: 'You have stopped taking part' }, { timeout: 3_000 }),
+    ).toBeInTheDocument();
     const download = await screen.findByRole('link', { name: 'Download your signed form (PDF)' });
     expect(download).toHaveAttribute('download', 'signed-consent-WC-0042.pdf');
     expect(screen.queryByRole('heading', { name: 'Your steps' })).not.toBeInTheDocument();
@@ -186,19 +206,50 @@ describe('coming back from the e-mailed link', () => {
         status: 200,
         body: {
           items: [
-            { id: ids.stopped, slug: 'stopped', title: 'Stopped study', status: 'recruiting', design: 'between', archivedAt: null },
-            { id: ids.completed, slug: 'completed', title: 'Completed study', status: 'closed', design: 'between', archivedAt: null },
-            { id: ids.running, slug: 'running', title: 'Running study', status: 'recruiting', design: 'between', archivedAt: null },
+            {
+              id: ids.stopped,
+              slug: 'stopped',
+              title: 'Stopped study',
+              status: 'recruiting',
+              design: 'between',
+              archivedAt: null,
+            },
+            {
+              id: ids.completed,
+              slug: 'completed',
+              title: 'Completed study',
+              status: 'closed',
+              design: 'between',
+              archivedAt: null,
+            },
+            {
+              id: ids.running,
+              slug: 'running',
+              title: 'Running study',
+              status: 'recruiting',
+              design: 'between',
+              archivedAt: null,
+            },
           ],
         },
       },
-      [`GET /api/studies/${ids.stopped}/enrollments/me`]: { status: 200, body: signedEnrollment({ studyId: ids.stopped, status: 'withdrew', next: 'withdrawn' }) },
-      [`GET /api/studies/${ids.completed}/enrollments/me`]: { status: 200, body: signedEnrollment({ studyId: ids.completed, status: 'completed', next: 'done' }) },
-      [`GET /api/studies/${ids.running}/enrollments/me`]: { status: 200, body: signedEnrollment({ studyId: ids.running }) },
+      [`GET /api/studies/${ids.stopped}/enrollments/me`]: {
+        status: 200,
+        body: signedEnrollment({ studyId: ids.stopped, status: 'withdrew', next: 'withdrawn' }),
+      },
+      [`GET /api/studies/${ids.completed}/enrollments/me`]: {
+        status: 200,
+        body: signedEnrollment({ studyId: ids.completed, status: 'completed', next: 'done' }),
+      },
+      [`GET /api/studies/${ids.running}/enrollments/me`]: {
+        status: 200,
+        body: signedEnrollment({ studyId: ids.running }),
+      },
     });
     renderApp('/studies');
 
-    const card = async (title: string) => within((await screen.findByRole('link', { name: title }, { timeout: 3_000 })).closest('li')!);
+    const card = async (title: string) =>
+      within((await screen.findByRole('link', { name: title }, { timeout: 3_000 })).closest('li')!);
     const stopped = await card('Stopped study');
     expect(await stopped.findByText('You stopped taking part')).toBeInTheDocument();
     expect(stopped.getByText('Running')).toBeInTheDocument();

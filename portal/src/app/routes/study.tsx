@@ -197,11 +197,7 @@ function EnrollmentStage({ study, enrollment }: { study: PublicStudy; enrollment
       ) : null}
 
       {next === 'consent' || next === 're-consent' ? (
-        <ConsentJourney
-          studyId={enrollment.studyId}
-          reconsent={next === 're-consent'}
-          onSigned={setSignature}
-        />
+        <ConsentJourney studyId={enrollment.studyId} reconsent={next === 're-consent'} onSigned={setSignature} />
       ) : null}
 
       {next === 'steps' || next === 'done' ? (
@@ -277,8 +273,16 @@ function SignedConfirmation({ signedAt, children }: { signedAt: string; children
 
   return (
     <section aria-labelledby="signed-heading" className="flex scroll-mt-4 flex-col gap-5">
-      <div role="status" className="flex flex-col gap-1 rounded-soft border-l-4 border-moss bg-moss-tint px-4 py-3 text-moss-ink">
-        <h2 id="signed-heading" ref={headingRef} tabIndex={-1} className="scroll-mt-4 text-lead font-bold focus:outline-none">
+      <div
+        role="status"
+        className="flex flex-col gap-1 rounded-soft border-l-4 border-moss bg-moss-tint px-4 py-3 text-moss-ink"
+      >
+        <h2
+          id="signed-heading"
+          ref={headingRef}
+          tabIndex={-1}
+          className="scroll-mt-4 text-lead font-bold focus:outline-none"
+        >
           You have signed the consent form
         </h2>
         <p className="text-fine text-ink">Signed on {formatDateTime(signedAt)}. Thank you for taking part.</p>

@@ -11,7 +11,14 @@ const firstDone = signedEnrollment({
   status: 'active',
   steps: signedEnrollment().steps.map((step, index) =>
     index === 0
-      ? { ...step, verification: 'return-link', hasTask: true, hasCompletionCode: false, status: 'done', completedAt: '2026-02-05T10:00:00.000Z' }
+      ? {
+          ...step,
+          verification: 'return-link',
+          hasTask: true,
+          hasCompletionCode: false,
+          status: 'done',
+          completedAt: '2026-02-05T10:00:00.000Z',
+        }
       : index === 1
         ? { ...step, status: 'upcoming', opensAt: '2026-02-06T10:00:00.000Z' }
         : step,
@@ -103,7 +110,11 @@ describe('coming back from the lab’s task', () => {
   });
 
   it.each([
-    ['expired', 'This link back from the task has expired', /Start the task again from the study page: it gives you a fresh link\./],
+    [
+      'expired',
+      'This link back from the task has expired',
+      /Start the task again from the study page: it gives you a fresh link\./,
+    ],
     ['other-person', 'This link belongs to someone else', /sign in as yourself, then start the task again/],
     ['not-open', 'This step is not open yet', /Your study page says when the step opens\./],
     ['consent', 'Please sign the new consent form first', /Read and sign the new form on the study page/],
@@ -126,7 +137,10 @@ describe('coming back from the lab’s task', () => {
     installFakeApi({ ...signedIn, [studyPage]: { status: 200, body: publicStudy } });
     renderApp('/return?result=refused&study=wayfinding-cues&reason=forged');
 
-    expect(await screen.findByRole('link', { name: 'Go to the study page' })).toHaveAttribute('href', '/s/wayfinding-cues');
+    expect(await screen.findByRole('link', { name: 'Go to the study page' })).toHaveAttribute(
+      'href',
+      '/s/wayfinding-cues',
+    );
     expect(await screen.findByRole('link', { name: 'wayfinding@harborlane.test' })).toHaveAttribute(
       'href',
       'mailto:wayfinding@harborlane.test',
@@ -137,7 +151,10 @@ describe('coming back from the lab’s task', () => {
     installFakeApi({ ...signedIn, [studyPage]: { status: 200, body: publicStudy } });
     renderApp('/return?result=refused&study=wayfinding-cues&reason=consent');
 
-    expect(await screen.findByRole('link', { name: 'Read and sign the new form' })).toHaveAttribute('href', '/s/wayfinding-cues');
+    expect(await screen.findByRole('link', { name: 'Read and sign the new form' })).toHaveAttribute(
+      'href',
+      '/s/wayfinding-cues',
+    );
   });
 
   it('lets someone holding another person’s link sign out, then sign in as themselves', async () => {
@@ -153,7 +170,10 @@ describe('coming back from the lab’s task', () => {
     await user.click(screen.getByRole('button', { name: 'Sign out' }));
 
     expect(await screen.findByText('You have signed out.')).toBeInTheDocument();
-    expect(screen.getByRole('link', { name: 'Sign in as yourself' })).toHaveAttribute('href', '/sign-in?study=wayfinding-cues');
+    expect(screen.getByRole('link', { name: 'Sign in as yourself' })).toHaveAttribute(
+      'href',
+      '/sign-in?study=wayfinding-cues',
+    );
     expect(screen.getByRole('heading', { level: 1, name: 'This link belongs to someone else' })).toBeInTheDocument();
     expect(fakeApi.callsTo('POST', '/api/auth/sign-out')).toHaveLength(1);
   });
@@ -162,7 +182,10 @@ describe('coming back from the lab’s task', () => {
     installFakeApi({ ...signedOutHandlers, [studyPage]: { status: 200, body: publicStudy } });
     renderApp('/return?result=refused&study=wayfinding-cues&reason=expired');
 
-    expect(await screen.findByRole('link', { name: 'Sign in' })).toHaveAttribute('href', '/sign-in?study=wayfinding-cues');
+    expect(await screen.findByRole('link', { name: 'Sign in' })).toHaveAttribute(
+      'href',
+      '/sign-in?study=wayfinding-cues',
+    );
     expect(screen.queryByRole('link', { name: 'Go to the study page' })).not.toBeInTheDocument();
   });
 
@@ -181,7 +204,9 @@ describe('coming back from the lab’s task', () => {
     installFakeApi({ ...signedIn, [studyPage]: { status: 200, body: publicStudy } });
     renderApp('/return?study=wayfinding-cues');
 
-    expect(await screen.findByRole('heading', { level: 1, name: 'We could not tell how the task ended' })).toBeInTheDocument();
+    expect(
+      await screen.findByRole('heading', { level: 1, name: 'We could not tell how the task ended' }),
+    ).toBeInTheDocument();
     expect(screen.getByRole('link', { name: 'Go to the study page' })).toHaveAttribute('href', '/s/wayfinding-cues');
   });
 });

@@ -17,7 +17,15 @@ function BrandMark() {
  * Every screen: a skip link, the brand bar (with optional account actions and, below it, navigation) and one main
  * column sized for phones.
  */
-export function PageLayout({ children, actions, navigation }: { children: ReactNode; actions?: ReactNode; navigation?: ReactNode }) {
+export function PageLayout({
+  children,
+  actions,
+  navigation,
+}: {
+  children: ReactNode;
+  actions?: ReactNode;
+  navigation?: ReactNode;
+}) {
   return (
     <div className="flex min-h-dvh flex-col">
       <a
@@ -33,7 +41,11 @@ export function PageLayout({ children, actions, navigation }: { children: ReactN
         </div>
         {navigation ? <div className="mx-auto w-full max-w-xl px-4">{navigation}</div> : null}
       </header>
-      <main id="main" tabIndex={-1} className="mx-auto flex w-full max-w-xl flex-1 flex-col px-4 pt-8 pb-16 focus:outline-none">
+      <main
+        id="main"
+        tabIndex={-1}
+        className="mx-auto flex w-full max-w-xl flex-1 flex-col px-4 pt-8 pb-16 focus:outline-none"
+      >
         {children}
       </main>
       <footer className="mx-auto w-full max-w-xl px-4 pb-8 text-fine text-ink-soft">

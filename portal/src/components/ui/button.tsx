@@ -6,7 +6,7 @@ export type ButtonVariant = 'primary' | 'secondary' | 'quiet';
 const base =
   'inline-flex min-h-12 items-center justify-center gap-2 rounded-soft px-5 py-3 text-body font-semibold ' +
   'transition-colors duration-150 select-none cursor-pointer ' +
-    'data-disabled:cursor-not-allowed data-disabled:opacity-60';
+  'data-disabled:cursor-not-allowed data-disabled:opacity-60';
 
 const variants: Record<ButtonVariant, string> = {
   primary: 'bg-clay text-white shadow-card data-hover:bg-clay-deep data-active:bg-clay-deep',
@@ -19,10 +19,16 @@ export function buttonClasses(variant: ButtonVariant = 'primary', extra = ''): s
   return `${base} ${variants[variant]} ${extra}`.trim();
 }
 
-type ButtonProps = Omit<HeadlessButtonProps, 'className'> & { variant?: ButtonVariant; className?: string; wide?: boolean };
+type ButtonProps = Omit<HeadlessButtonProps, 'className'> & {
+  variant?: ButtonVariant;
+  className?: string;
+  wide?: boolean;
+};
 
 export function Button({ variant = 'primary', className = '', wide = false, type = 'button', ...props }: ButtonProps) {
-  return <HeadlessButton type={type} className={buttonClasses(variant, `${wide ? 'w-full' : ''} ${className}`)} {...props} />;
+  return (
+    <HeadlessButton type={type} className={buttonClasses(variant, `${wide ? 'w-full' : ''} ${className}`)} {...props} />
+  );
 }
 
 type ButtonLinkProps = LinkProps & { variant?: ButtonVariant; wide?: boolean };

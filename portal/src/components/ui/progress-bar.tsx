@@ -1,5 +1,15 @@
 /** How far along someone is, with the words a screen reader says ("Part 2 of 9"). */
-export function ProgressBar({ value, max, label, valueText }: { value: number; max: number; label: string; valueText: string }) {
+export function ProgressBar({
+  value,
+  max,
+  label,
+  valueText,
+}: {
+  value: number;
+  max: number;
+  label: string;
+  valueText: string;
+}) {
   const percent = max === 0 ? 0 : Math.round((value / max) * 100);
   return (
     <div

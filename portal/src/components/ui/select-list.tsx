@@ -26,7 +26,17 @@ const optionClasses =
   'flex min-h-12 cursor-pointer items-center gap-3 px-4 py-2 text-body data-focus:bg-clay-tint data-selected:font-bold';
 
 /** One answer out of many, as a list that opens; for a handful of answers use RadioChoice instead. */
-export function SelectList({ label, hint, error, options, value, onChange, onBlur, placeholder = 'Choose an answer', ref }: SelectListProps) {
+export function SelectList({
+  label,
+  hint,
+  error,
+  options,
+  value,
+  onChange,
+  onBlur,
+  placeholder = 'Choose an answer',
+  ref,
+}: SelectListProps) {
   const id = useId();
   return (
     <Field className="flex flex-col gap-2">

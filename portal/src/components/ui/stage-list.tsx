@@ -9,7 +9,11 @@ export function StageList({ stages, current, label }: { stages: string[]; curren
             key={stage}
             aria-current={state === 'current' ? 'step' : undefined}
             className={`flex flex-1 flex-col gap-1 border-t-4 pt-1 ${
-              state === 'ahead' ? 'border-sand-deep text-ink-soft' : state === 'current' ? 'border-clay font-bold' : 'border-moss'
+              state === 'ahead'
+                ? 'border-sand-deep text-ink-soft'
+                : state === 'current'
+                  ? 'border-clay font-bold'
+                  : 'border-moss'
             }`}
           >
             <span>

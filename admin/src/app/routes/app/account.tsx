@@ -17,10 +17,17 @@ export function Component() {
         </p>
       </div>
       {me.twoFactorSetupNeeded && (
-        <Notice tone="caution">The lab requires admins to sign in with a two-factor code. Set it up below; the rest of Evenhand opens once it is on.</Notice>
+        <Notice tone="caution">
+          The lab requires admins to sign in with a two-factor code. Set it up below; the rest of Evenhand opens once it
+          is on.
+        </Notice>
       )}
       <TwoFactorPanel />
-      <Panel id="password" title="Password" description="Change the password you sign in with. If you have forgotten it, sign out and use “Forgot your password?” on the sign-in page.">
+      <Panel
+        id="password"
+        title="Password"
+        description="Change the password you sign in with. If you have forgotten it, sign out and use “Forgot your password?” on the sign-in page."
+      >
         <ChangePasswordForm />
       </Panel>
     </div>

@@ -16,7 +16,8 @@ export function Component() {
         <AuditPage />
       ) : (
         <EmptyState title="Not part of your role">
-          The audit trail is for auditors and lab admins. If you need it for your work, ask a lab admin to change your role.
+          The audit trail is for auditors and lab admins. If you need it for your work, ask a lab admin to change your
+          role.
         </EmptyState>
       )}
     </>
@@ -31,8 +32,8 @@ function AuditPage() {
           Audit trail
         </h1>
         <p className="max-w-prose text-sm text-ink-muted">
-          Everything people and Evenhand did, in plain sentences, newest first: consent, assignment, steps, pay and every change to a study. Nothing here can be
-          edited; the check below proves it.
+          Everything people and Evenhand did, in plain sentences, newest first: consent, assignment, steps, pay and
+          every change to a study. Nothing here can be edited; the check below proves it.
         </p>
       </div>
       <AuditTrail canSeal />

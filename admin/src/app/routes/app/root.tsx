@@ -23,7 +23,9 @@ export function Component() {
       <main className="mx-auto max-w-lg px-6 py-24">
         <ErrorState
           title="Evenhand cannot be reached"
-          message={me.error instanceof ApiError ? me.error.message : 'The server did not answer. Try again in a moment.'}
+          message={
+            me.error instanceof ApiError ? me.error.message : 'The server did not answer. Try again in a moment.'
+          }
           onRetry={() => void me.refetch()}
         />
       </main>
@@ -62,8 +64,8 @@ function StaffOnlyNotice({ me, onSignOut, signingOut }: { me: Me; onSignOut: () 
       <p className="text-xs font-semibold tracking-wide text-ink-faint uppercase">Evenhand · Staff</p>
       <h1 className="text-2xl font-semibold">This site is for lab staff</h1>
       <p className="text-ink-muted">
-        You are signed in as <strong className="font-semibold text-ink">{me.email}</strong>, a study participant. Your studies, consent
-        forms and payments are on the participant site.
+        You are signed in as <strong className="font-semibold text-ink">{me.email}</strong>, a study participant. Your
+        studies, consent forms and payments are on the participant site.
       </p>
       <div className="mt-2 flex flex-wrap gap-2">
         <a

@@ -24,16 +24,26 @@ export function Component() {
       <section aria-labelledby="studies-heading" className="flex flex-col gap-4">
         <div className="flex flex-wrap items-end justify-between gap-3">
           <div>
-            <h1 id="studies-heading" className="text-xl font-semibold">Studies</h1>
+            <h1 id="studies-heading" className="text-xl font-semibold">
+              Studies
+            </h1>
             <p className="text-sm text-ink-muted">The studies you are a member of.</p>
           </div>
           {newStudy}
         </div>
         <nav aria-label="Which studies" className={tabNavRecipe.list}>
-          <Link to="/studies" aria-current={archived ? undefined : 'page'} className={cx(tabNavRecipe.tab, archived ? tabNavRecipe.inactive : tabNavRecipe.active)}>
+          <Link
+            to="/studies"
+            aria-current={archived ? undefined : 'page'}
+            className={cx(tabNavRecipe.tab, archived ? tabNavRecipe.inactive : tabNavRecipe.active)}
+          >
             Current
           </Link>
-          <Link to="/studies?archived=1" aria-current={archived ? 'page' : undefined} className={cx(tabNavRecipe.tab, archived ? tabNavRecipe.active : tabNavRecipe.inactive)}>
+          <Link
+            to="/studies?archived=1"
+            aria-current={archived ? 'page' : undefined}
+            className={cx(tabNavRecipe.tab, archived ? tabNavRecipe.active : tabNavRecipe.inactive)}
+          >
             Archive
           </Link>
         </nav>

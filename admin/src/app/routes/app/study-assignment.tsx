@@ -58,7 +58,11 @@ export function Component() {
       : [...new Set(balance.flatMap((stratum) => stratum.counts.map((count) => count.armId)))].sort((a, b) =>
           armLabel(conditions.data, a).code.localeCompare(armLabel(conditions.data, b).code),
         );
-  const canUnblind = mayUnblind(me.role) && assignment.data.commitment !== null && assignment.data.unblindedAt === null && study.status !== 'closed';
+  const canUnblind =
+    mayUnblind(me.role) &&
+    assignment.data.commitment !== null &&
+    assignment.data.unblindedAt === null &&
+    study.status !== 'closed';
 
   return (
     <div className="flex flex-col gap-5">
@@ -92,11 +96,19 @@ export function Component() {
           </EmptyState>
         ) : (
           <div className="flex flex-col gap-2">
-            <BalanceTable caption="Assignments per stratum and condition" rows={balance} conditions={armConditions} armIds={armIds} />
+            <BalanceTable
+              caption="Assignments per stratum and condition"
+              rows={balance}
+              conditions={armConditions}
+              armIds={armIds}
+            />
             <p className="text-sm text-ink-muted">
               {assignment.data.allocated.toLocaleString()} assigned in all
               {study.status === 'recruiting' && ' · refreshes every 15 seconds'}
-              {study.blinded && conditions.data.some((condition) => condition.internalName === null) && ' · condition names hidden while blinded'}.
+              {study.blinded &&
+                conditions.data.some((condition) => condition.internalName === null) &&
+                ' · condition names hidden while blinded'}
+              .
             </p>
           </div>
         )}
@@ -124,7 +136,9 @@ export function Component() {
         onClose={() => setUnblinding(false)}
         onUnblinded={() => {
           setUnblinding(false);
-          setAnnouncement('The study was unblinded. The seed is shown below the fingerprint, and the sequence can now be verified.');
+          setAnnouncement(
+            'The study was unblinded. The seed is shown below the fingerprint, and the sequence can now be verified.',
+          );
         }}
       />
     </div>

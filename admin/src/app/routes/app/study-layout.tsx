@@ -33,7 +33,11 @@ export function Component() {
         <LoadingState label="Loading the study…" />
       ) : study.isError ? (
         <ErrorState
-          title={study.error instanceof ApiError && (study.error.statusCode === 404 || study.error.statusCode === 403) ? 'Study not available' : undefined}
+          title={
+            study.error instanceof ApiError && (study.error.statusCode === 404 || study.error.statusCode === 403)
+              ? 'Study not available'
+              : undefined
+          }
           message={
             study.error instanceof ApiError && (study.error.statusCode === 404 || study.error.statusCode === 403)
               ? 'There is no such study, or you are not one of its members. Ask a lab admin to add you to it.'
@@ -52,7 +56,13 @@ export function Component() {
           />
           <nav aria-label="Study" className={tabNavRecipe.list}>
             {tabs.map((tab) => (
-              <NavLink key={tab.to} to={tab.to} className={({ isActive }) => cx(tabNavRecipe.tab, isActive ? tabNavRecipe.active : tabNavRecipe.inactive)}>
+              <NavLink
+                key={tab.to}
+                to={tab.to}
+                className={({ isActive }) =>
+                  cx(tabNavRecipe.tab, isActive ? tabNavRecipe.active : tabNavRecipe.inactive)
+                }
+              >
                 {tab.label}
               </NavLink>
             ))}

@@ -16,18 +16,25 @@ export function Component() {
           <Link to="/studies" className="text-sm text-spruce-ink underline-offset-2 hover:underline">
             ← All studies
           </Link>
-          <h1 id="new-study-heading" className="mt-1 text-xl font-semibold">New study</h1>
+          <h1 id="new-study-heading" className="mt-1 text-xl font-semibold">
+            New study
+          </h1>
           <p className="text-sm text-ink-muted">
-            Start with what the study is and how it compares conditions. Conditions, steps, pay and the assignment scheme come next,
-            on the study’s set-up page. You become the study’s first member.
+            Start with what the study is and how it compares conditions. Conditions, steps, pay and the assignment
+            scheme come next, on the study’s set-up page. You become the study’s first member.
           </p>
         </div>
         {mayDesignStudy(me.role) ? (
           <div className="rounded-lg border border-line bg-surface p-5 shadow-raised">
-            <CreateStudyForm onCancel={() => navigate('/studies')} onCreated={(study) => navigate(`/studies/${study.id}/setup`)} />
+            <CreateStudyForm
+              onCancel={() => navigate('/studies')}
+              onCreated={(study) => navigate(`/studies/${study.id}/setup`)}
+            />
           </div>
         ) : (
-          <EmptyState title="Not part of your role">Coordinators and researchers create studies. Ask one of them to add you to a study.</EmptyState>
+          <EmptyState title="Not part of your role">
+            Coordinators and researchers create studies. Ask one of them to add you to a study.
+          </EmptyState>
         )}
       </section>
     </RequireArea>

@@ -23,7 +23,10 @@ export function Component() {
         blinded={study.blinded}
         canManage={payManagers.includes(me.role)}
         canReview={payReviewers.includes(me.role)}
-        conditions={(conditions.data ?? []).map((condition) => ({ id: condition.id, label: condition.internalName ?? condition.code }))}
+        conditions={(conditions.data ?? []).map((condition) => ({
+          id: condition.id,
+          label: condition.internalName ?? condition.code,
+        }))}
       />
     </>
   );

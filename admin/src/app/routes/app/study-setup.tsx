@@ -59,8 +59,16 @@ export function Component() {
           </a>
         ))}
       </nav>
-      {(study.status === 'draft' || study.status === 'paused') && mayDesignStudy(me.role) && <OpeningChecklistPanel studyId={study.id} />}
-      <ConditionsSection studyId={study.id} design={study.design} blinded={study.blinded} isDraft={study.status === 'draft'} permissions={permissions} />
+      {(study.status === 'draft' || study.status === 'paused') && mayDesignStudy(me.role) && (
+        <OpeningChecklistPanel studyId={study.id} />
+      )}
+      <ConditionsSection
+        studyId={study.id}
+        design={study.design}
+        blinded={study.blinded}
+        isDraft={study.status === 'draft'}
+        permissions={permissions}
+      />
       <StepsSection studyId={study.id} design={study.design} permissions={permissions} />
       <ReturnLinkPanel studyId={study.id} canRotate={permissions.content === null} />
       <ReminderPlanSection studyId={study.id} canEdit={permissions.content === null} />
@@ -82,7 +90,9 @@ function SchemeSection({ study, permissions }: { study: Study; permissions: Setu
     if (failed) {
       return (
         <ErrorState
-          message={failed.error instanceof ApiError ? failed.error.message : 'The assignment scheme could not be loaded.'}
+          message={
+            failed.error instanceof ApiError ? failed.error.message : 'The assignment scheme could not be loaded.'
+          }
           onRetry={() => [assignment, conditions, factors].forEach((query) => void query.refetch())}
         />
       );

@@ -4,7 +4,10 @@ import { apiClient, unwrap } from '@/lib/api-client';
 
 // The api's rule (MIN_PASSWORD_LENGTH in api/src/users/dto/user.dto.ts), said early, in words.
 export const MIN_PASSWORD_LENGTH = 12;
-const newPassword = z.string().min(MIN_PASSWORD_LENGTH, `Use at least ${MIN_PASSWORD_LENGTH} characters.`).max(200, 'Use at most 200 characters.');
+const newPassword = z
+  .string()
+  .min(MIN_PASSWORD_LENGTH, `Use at least ${MIN_PASSWORD_LENGTH} characters.`)
+  .max(200, 'Use at most 200 characters.');
 
 export const changePasswordSchema = z
   .object({
@@ -12,8 +15,14 @@ export const changePasswordSchema = z
     newPassword,
     repeatPassword: z.string(),
   })
-  .refine((values) => values.newPassword === values.repeatPassword, { path: ['repeatPassword'], message: 'The two new passwords differ.' })
-  .refine((values) => values.newPassword !== values.currentPassword, { path: ['newPassword'], message: 'Choose a password different from the current one.' });
+  .refine((values) => values.newPassword === values.repeatPassword, {
+    path: ['repeatPassword'],
+    message: 'The two new passwords differ.',
+  })
+  .refine((values) => values.newPassword !== values.currentPassword, {
+    path: ['newPassword'],
+    message: 'Choose a password different from the current one.',
+  });
 export type ChangePasswordInput = z.infer<typeof changePasswordSchema>;
 
 export const requestResetSchema = z.object({ email: z.email('Enter the e-mail address you sign in with.') });
@@ -21,7 +30,10 @@ export type RequestResetInput = z.infer<typeof requestResetSchema>;
 
 export const chooseNewPasswordSchema = z
   .object({ newPassword, repeatPassword: z.string() })
-  .refine((values) => values.newPassword === values.repeatPassword, { path: ['repeatPassword'], message: 'The two passwords differ.' });
+  .refine((values) => values.newPassword === values.repeatPassword, {
+    path: ['repeatPassword'],
+    message: 'The two passwords differ.',
+  });
 export type ChooseNewPasswordInput = z.infer<typeof chooseNewPasswordSchema>;
 
 export function useChangePassword() {
@@ -32,7 +44,10 @@ export function useChangePassword() {
 }
 
 export function useRequestPasswordReset() {
-  return useMutation({ mutationFn: ({ email }: RequestResetInput) => unwrap(apiClient.POST('/api/auth/password-reset', { body: { email } })) });
+  return useMutation({
+    mutationFn: ({ email }: RequestResetInput) =>
+      unwrap(apiClient.POST('/api/auth/password-reset', { body: { email } })),
+  });
 }
 
 export function useConsumePasswordReset() {

@@ -4,14 +4,18 @@ import { apiClient, unwrap } from '@/lib/api-client';
 
 export const twoFactorQueryKey = ['auth', 'two-factor'] as const;
 
-export const twoFactorQueryOptions = () => queryOptions({ queryKey: twoFactorQueryKey, queryFn: () => unwrap(apiClient.GET('/api/auth/two-factor')) });
+export const twoFactorQueryOptions = () =>
+  queryOptions({ queryKey: twoFactorQueryKey, queryFn: () => unwrap(apiClient.GET('/api/auth/two-factor')) });
 
 export function useTwoFactorStatus() {
   return useQuery(twoFactorQueryOptions());
 }
 
 export const confirmCodeSchema = z.object({
-  code: z.string().trim().regex(/^\d{3}\s?\d{3}$/, 'Enter the 6 digits your authenticator app shows.'),
+  code: z
+    .string()
+    .trim()
+    .regex(/^\d{3}\s?\d{3}$/, 'Enter the 6 digits your authenticator app shows.'),
 });
 export type ConfirmCodeInput = z.infer<typeof confirmCodeSchema>;
 
@@ -25,7 +29,11 @@ export type PasswordCheckInput = z.infer<typeof passwordCheckSchema>;
  */
 export function useRefreshTwoFactor() {
   const queryClient = useQueryClient();
-  return () => Promise.all([queryClient.invalidateQueries({ queryKey: twoFactorQueryKey }), queryClient.invalidateQueries({ queryKey: ['auth', 'me'] })]);
+  return () =>
+    Promise.all([
+      queryClient.invalidateQueries({ queryKey: twoFactorQueryKey }),
+      queryClient.invalidateQueries({ queryKey: ['auth', 'me'] }),
+    ]);
 }
 
 export function useBeginTwoFactorSetup() {
@@ -34,20 +42,23 @@ export function useBeginTwoFactorSetup() {
 
 export function useConfirmTwoFactor() {
   return useMutation({
-    mutationFn: ({ code }: ConfirmCodeInput) => unwrap(apiClient.POST('/api/auth/two-factor/confirm', { body: { code: code.replace(/\s+/g, '') } })),
+    mutationFn: ({ code }: ConfirmCodeInput) =>
+      unwrap(apiClient.POST('/api/auth/two-factor/confirm', { body: { code: code.replace(/\s+/g, '') } })),
   });
 }
 
 export function useRenewRecoveryCodes() {
   return useMutation({
-    mutationFn: ({ password }: PasswordCheckInput) => unwrap(apiClient.POST('/api/auth/two-factor/recovery-codes', { body: { password } })),
+    mutationFn: ({ password }: PasswordCheckInput) =>
+      unwrap(apiClient.POST('/api/auth/two-factor/recovery-codes', { body: { password } })),
   });
 }
 
 export function useTurnOffTwoFactor() {
   const refresh = useRefreshTwoFactor();
   return useMutation({
-    mutationFn: ({ password }: PasswordCheckInput) => unwrap(apiClient.DELETE('/api/auth/two-factor', { body: { password } })),
+    mutationFn: ({ password }: PasswordCheckInput) =>
+      unwrap(apiClient.DELETE('/api/auth/two-factor', { body: { password } })),
     onSuccess: refresh,
   });
 }

@@ -22,7 +22,12 @@ describe('ChangePasswordForm', () => {
     stubApi({
       'POST /api/auth/password': {
         status: 400,
-        body: { statusCode: 400, code: 'VALIDATION_FAILED', message: 'The current password is not right.', errors: [{ field: 'currentPassword', message: 'is not your current password' }] },
+        body: {
+          statusCode: 400,
+          code: 'VALIDATION_FAILED',
+          message: 'The current password is not right.',
+          errors: [{ field: 'currentPassword', message: 'is not your current password' }],
+        },
       },
     });
     renderWithProviders(<ChangePasswordForm />);
@@ -30,6 +35,10 @@ describe('ChangePasswordForm', () => {
     await userEvent.type(screen.getByLabelText('New password'), 'a-brand-new-password');
     await userEvent.type(screen.getByLabelText('New password again'), 'a-brand-new-password');
     await userEvent.click(screen.getByRole('button', { name: 'Change password' }));
-    await waitFor(() => expect(screen.getByLabelText('Current password')).toHaveAccessibleDescription('That is not your current password.'));
+    await waitFor(() =>
+      expect(screen.getByLabelText('Current password')).toHaveAccessibleDescription(
+        'That is not your current password.',
+      ),
+    );
   });
 });

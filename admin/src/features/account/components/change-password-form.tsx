@@ -5,7 +5,12 @@ import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/states';
 import { TextField } from '@/components/ui/text-field';
 import { applyServerErrors } from '@/lib/form-server-errors';
-import { changePasswordSchema, MIN_PASSWORD_LENGTH, useChangePassword, type ChangePasswordInput } from '../api/passwords';
+import {
+  changePasswordSchema,
+  MIN_PASSWORD_LENGTH,
+  useChangePassword,
+  type ChangePasswordInput,
+} from '../api/passwords';
 
 const formFields = ['currentPassword', 'newPassword'] as const;
 // The api names the field; the form says it in words.
@@ -23,7 +28,10 @@ export function ChangePasswordForm() {
     setError,
     reset,
     formState: { errors },
-  } = useForm<ChangePasswordInput>({ resolver: zodResolver(changePasswordSchema), defaultValues: { currentPassword: '', newPassword: '', repeatPassword: '' } });
+  } = useForm<ChangePasswordInput>({
+    resolver: zodResolver(changePasswordSchema),
+    defaultValues: { currentPassword: '', newPassword: '', repeatPassword: '' },
+  });
 
   const onSubmit = handleSubmit((input) => {
     setChanged(false);
@@ -34,7 +42,8 @@ export function ChangePasswordForm() {
       },
       onError: (error) => {
         if (error instanceof Error && 'fieldErrors' in error && Array.isArray(error.fieldErrors)) {
-          for (const fieldError of error.fieldErrors as Array<{ message: string }>) fieldError.message = plainFieldMessages[fieldError.message] ?? fieldError.message;
+          for (const fieldError of error.fieldErrors as Array<{ message: string }>)
+            fieldError.message = plainFieldMessages[fieldError.message] ?? fieldError.message;
         }
         applyServerErrors(error, formFields, setError);
       },
@@ -47,7 +56,13 @@ export function ChangePasswordForm() {
         {changed && <Notice tone="info">Your password was changed. Use the new one next time you sign in.</Notice>}
       </div>
       {errors.root?.server?.message && <Notice>{errors.root.server.message}</Notice>}
-      <TextField label="Current password" type="password" autoComplete="current-password" error={errors.currentPassword?.message} {...register('currentPassword')} />
+      <TextField
+        label="Current password"
+        type="password"
+        autoComplete="current-password"
+        error={errors.currentPassword?.message}
+        {...register('currentPassword')}
+      />
       <TextField
         label="New password"
         type="password"
@@ -56,7 +71,13 @@ export function ChangePasswordForm() {
         error={errors.newPassword?.message}
         {...register('newPassword')}
       />
-      <TextField label="New password again" type="password" autoComplete="new-password" error={errors.repeatPassword?.message} {...register('repeatPassword')} />
+      <TextField
+        label="New password again"
+        type="password"
+        autoComplete="new-password"
+        error={errors.repeatPassword?.message}
+        {...register('repeatPassword')}
+      />
       <div>
         <Button type="submit" variant="primary" pending={changePassword.isPending}>
           Change password

@@ -5,7 +5,12 @@ import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/states';
 import { TextField } from '@/components/ui/text-field';
 import { ApiError } from '@/lib/api-error';
-import { chooseNewPasswordSchema, MIN_PASSWORD_LENGTH, useConsumePasswordReset, type ChooseNewPasswordInput } from '../api/passwords';
+import {
+  chooseNewPasswordSchema,
+  MIN_PASSWORD_LENGTH,
+  useConsumePasswordReset,
+  type ChooseNewPasswordInput,
+} from '../api/passwords';
 
 export function ChooseNewPasswordForm({ token }: { token: string }) {
   const consume = useConsumePasswordReset();
@@ -13,7 +18,10 @@ export function ChooseNewPasswordForm({ token }: { token: string }) {
     register,
     handleSubmit,
     formState: { errors },
-  } = useForm<ChooseNewPasswordInput>({ resolver: zodResolver(chooseNewPasswordSchema), defaultValues: { newPassword: '', repeatPassword: '' } });
+  } = useForm<ChooseNewPasswordInput>({
+    resolver: zodResolver(chooseNewPasswordSchema),
+    defaultValues: { newPassword: '', repeatPassword: '' },
+  });
 
   if (consume.isSuccess) {
     return (
@@ -28,7 +36,12 @@ export function ChooseNewPasswordForm({ token }: { token: string }) {
   }
   const linkProblem = consume.error instanceof ApiError && consume.error.code === 'LINK_INVALID';
   return (
-    <form onSubmit={handleSubmit(({ newPassword }) => consume.mutate({ token, newPassword }))} noValidate aria-label="Choose a new password" className="flex flex-col gap-4">
+    <form
+      onSubmit={handleSubmit(({ newPassword }) => consume.mutate({ token, newPassword }))}
+      noValidate
+      aria-label="Choose a new password"
+      className="flex flex-col gap-4"
+    >
       {consume.isError && (
         <Notice>
           {linkProblem ? (
@@ -54,7 +67,13 @@ export function ChooseNewPasswordForm({ token }: { token: string }) {
         error={errors.newPassword?.message}
         {...register('newPassword')}
       />
-      <TextField label="New password again" type="password" autoComplete="new-password" error={errors.repeatPassword?.message} {...register('repeatPassword')} />
+      <TextField
+        label="New password again"
+        type="password"
+        autoComplete="new-password"
+        error={errors.repeatPassword?.message}
+        {...register('repeatPassword')}
+      />
       <Button type="submit" variant="primary" pending={consume.isPending}>
         Set new password
       </Button>

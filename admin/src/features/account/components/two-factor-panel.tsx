@@ -22,13 +22,15 @@ import {
 } from '../api/two-factor';
 
 const plainFieldMessages: Record<string, string> = {
-  'does not match the authenticator app’s current code': 'That code does not match. Enter the newest code your app shows.',
+  'does not match the authenticator app’s current code':
+    'That code does not match. Enter the newest code your app shows.',
   'is not your current password': 'That is not your password.',
 };
 
 function plainErrors(error: unknown): unknown {
   if (error instanceof Error && 'fieldErrors' in error && Array.isArray(error.fieldErrors)) {
-    for (const fieldError of error.fieldErrors as Array<{ message: string }>) fieldError.message = plainFieldMessages[fieldError.message] ?? fieldError.message;
+    for (const fieldError of error.fieldErrors as Array<{ message: string }>)
+      fieldError.message = plainFieldMessages[fieldError.message] ?? fieldError.message;
   }
   return error;
 }
@@ -39,7 +41,11 @@ export function TwoFactorPanel() {
   const refresh = useRefreshTwoFactor();
   const [recoveryCodes, setRecoveryCodes] = useState<string[] | null>(null);
 
-  const state = status.data?.enabled ? <Badge tone="success">On</Badge> : status.data ? <Badge tone="neutral">Off</Badge> : null;
+  const state = status.data?.enabled ? (
+    <Badge tone="success">On</Badge>
+  ) : status.data ? (
+    <Badge tone="neutral">Off</Badge>
+  ) : null;
   return (
     <Panel
       id="two-factor"
@@ -52,12 +58,13 @@ export function TwoFactorPanel() {
       ) : status.isError ? (
         <ErrorState message={status.error.message} onRetry={() => void status.refetch()} />
       ) : recoveryCodes ? (
-        <RecoveryCodes
-          codes={recoveryCodes}
-          onDone={() => void refresh().then(() => setRecoveryCodes(null))}
-        />
+        <RecoveryCodes codes={recoveryCodes} onDone={() => void refresh().then(() => setRecoveryCodes(null))} />
       ) : status.data.enabled ? (
-        <EnabledSettings recoveryCodesLeft={status.data.recoveryCodesLeft} required={status.data.required} onRenewed={setRecoveryCodes} />
+        <EnabledSettings
+          recoveryCodesLeft={status.data.recoveryCodesLeft}
+          required={status.data.required}
+          onRenewed={setRecoveryCodes}
+        />
       ) : (
         <SetUp required={status.data.required} onEnabled={setRecoveryCodes} />
       )}
@@ -79,10 +86,15 @@ function SetUp({ required, onEnabled }: { required: boolean; onEnabled: (codes: 
   if (!begin.data) {
     return (
       <div className="flex flex-col items-start gap-3">
-        {required && <Notice tone="caution">The lab requires admins to sign in with a two-factor code. Set it up to go on using Evenhand.</Notice>}
+        {required && (
+          <Notice tone="caution">
+            The lab requires admins to sign in with a two-factor code. Set it up to go on using Evenhand.
+          </Notice>
+        )}
         {begin.isError && <Notice>{begin.error.message}</Notice>}
         <p className="max-w-prose text-sm text-ink-muted">
-          You need an authenticator app on your phone (any app that reads QR codes for time-based codes). Setting up takes about a minute.
+          You need an authenticator app on your phone (any app that reads QR codes for time-based codes). Setting up
+          takes about a minute.
         </p>
         <Button variant="primary" pending={begin.isPending} onClick={() => begin.mutate()}>
           Set up two-factor sign-in
@@ -92,7 +104,10 @@ function SetUp({ required, onEnabled }: { required: boolean; onEnabled: (codes: 
   }
 
   const onSubmit = handleSubmit((input) =>
-    confirm.mutate(input, { onSuccess: (result) => onEnabled(result.recoveryCodes), onError: (error) => applyServerErrors(plainErrors(error), ['code'], setError) }),
+    confirm.mutate(input, {
+      onSuccess: (result) => onEnabled(result.recoveryCodes),
+      onError: (error) => applyServerErrors(plainErrors(error), ['code'], setError),
+    }),
   );
 
   return (
@@ -102,10 +117,20 @@ function SetUp({ required, onEnabled }: { required: boolean; onEnabled: (codes: 
         <li>Enter the 6-digit code the app then shows, to check it works.</li>
       </ol>
       <div className="flex flex-col gap-4 sm:flex-row sm:items-start">
-        <img src={begin.data.qrCodeDataUrl} alt="QR code for your authenticator app" width={176} height={176} className="size-44 rounded-md border border-line bg-white" />
+        <img
+          src={begin.data.qrCodeDataUrl}
+          alt="QR code for your authenticator app"
+          width={176}
+          height={176}
+          className="size-44 rounded-md border border-line bg-white"
+        />
         <div className="flex min-w-0 flex-col gap-1.5 text-sm">
           <p className="text-ink-muted">Cannot scan? Type this key into the app instead:</p>
-          <code ref={keyRef} data-testid="two-factor-key" className="rounded-md bg-sunken px-2 py-1 font-mono text-sm break-all">
+          <code
+            ref={keyRef}
+            data-testid="two-factor-key"
+            className="rounded-md bg-sunken px-2 py-1 font-mono text-sm break-all"
+          >
             {begin.data.secret.replace(/(.{4})/g, '$1 ').trim()}
           </code>
           <div>
@@ -113,9 +138,21 @@ function SetUp({ required, onEnabled }: { required: boolean; onEnabled: (codes: 
           </div>
         </div>
       </div>
-      <form onSubmit={onSubmit} noValidate aria-label="Confirm two-factor sign-in" className="flex max-w-sm flex-col gap-3">
+      <form
+        onSubmit={onSubmit}
+        noValidate
+        aria-label="Confirm two-factor sign-in"
+        className="flex max-w-sm flex-col gap-3"
+      >
         {errors.root?.server?.message && <Notice>{errors.root.server.message}</Notice>}
-        <TextField label="Code from your authenticator app" inputMode="numeric" autoComplete="one-time-code" maxLength={7} error={errors.code?.message} {...register('code')} />
+        <TextField
+          label="Code from your authenticator app"
+          inputMode="numeric"
+          autoComplete="one-time-code"
+          maxLength={7}
+          error={errors.code?.message}
+          {...register('code')}
+        />
         <div>
           <Button type="submit" variant="primary" pending={confirm.isPending}>
             Turn on two-factor sign-in
@@ -130,12 +167,18 @@ function RecoveryCodes({ codes, onDone }: { codes: string[]; onDone: () => void 
   const listRef = useRef<HTMLUListElement>(null);
   return (
     <div className="flex flex-col gap-3">
-      <Notice tone="info">Two-factor sign-in is on. Save these recovery codes now: they are shown only this once.</Notice>
+      <Notice tone="info">
+        Two-factor sign-in is on. Save these recovery codes now: they are shown only this once.
+      </Notice>
       <p className="max-w-prose text-sm text-ink-muted">
-        If you lose your phone, each code signs you in once in place of an app code. Keep them somewhere safe and apart from your password, for
-        example printed or in a password manager.
+        If you lose your phone, each code signs you in once in place of an app code. Keep them somewhere safe and apart
+        from your password, for example printed or in a password manager.
       </p>
-      <ul ref={listRef} aria-label="Recovery codes" className="grid max-w-md grid-cols-2 gap-x-6 gap-y-1 rounded-md bg-sunken p-3 font-mono text-sm">
+      <ul
+        ref={listRef}
+        aria-label="Recovery codes"
+        className="grid max-w-md grid-cols-2 gap-x-6 gap-y-1 rounded-md bg-sunken p-3 font-mono text-sm"
+      >
         {codes.map((code) => (
           <li key={code}>{code}</li>
         ))}
@@ -150,7 +193,15 @@ function RecoveryCodes({ codes, onDone }: { codes: string[]; onDone: () => void 
   );
 }
 
-function EnabledSettings({ recoveryCodesLeft, required, onRenewed }: { recoveryCodesLeft: number; required: boolean; onRenewed: (codes: string[]) => void }) {
+function EnabledSettings({
+  recoveryCodesLeft,
+  required,
+  onRenewed,
+}: {
+  recoveryCodesLeft: number;
+  required: boolean;
+  onRenewed: (codes: string[]) => void;
+}) {
   const [action, setAction] = useState<'renew' | 'off' | null>(null);
   return (
     <div className="flex flex-col gap-3">
@@ -160,7 +211,11 @@ function EnabledSettings({ recoveryCodesLeft, required, onRenewed }: { recoveryC
           {recoveryCodesLeft === 1 ? '1 recovery code is left.' : `${recoveryCodesLeft} recovery codes are left.`}
         </span>
       </p>
-      {required && <p className="text-sm text-ink-muted">The lab requires two-factor sign-in of admins, so it cannot be turned off for your account.</p>}
+      {required && (
+        <p className="text-sm text-ink-muted">
+          The lab requires two-factor sign-in of admins, so it cannot be turned off for your account.
+        </p>
+      )}
       {action === null ? (
         <div className="flex flex-wrap gap-2">
           <Button onClick={() => setAction('renew')}>Make new recovery codes</Button>
@@ -177,7 +232,15 @@ function EnabledSettings({ recoveryCodesLeft, required, onRenewed }: { recoveryC
   );
 }
 
-function PasswordCheck({ action, onCancel, onRenewed }: { action: 'renew' | 'off'; onCancel: () => void; onRenewed: (codes: string[]) => void }) {
+function PasswordCheck({
+  action,
+  onCancel,
+  onRenewed,
+}: {
+  action: 'renew' | 'off';
+  onCancel: () => void;
+  onRenewed: (codes: string[]) => void;
+}) {
   const renew = useRenewRecoveryCodes();
   const turnOff = useTurnOffTwoFactor();
   const mutation = action === 'renew' ? renew : turnOff;
@@ -192,15 +255,31 @@ function PasswordCheck({ action, onCancel, onRenewed }: { action: 'renew' | 'off
   useEffect(() => setFocus('password'), [setFocus]);
   const onError = (error: unknown) => applyServerErrors(plainErrors(error), ['password'], setError);
   const onSubmit = handleSubmit((input) =>
-    action === 'renew' ? renew.mutate(input, { onSuccess: (result) => onRenewed(result.recoveryCodes), onError }) : turnOff.mutate(input, { onSuccess: onCancel, onError }),
+    action === 'renew'
+      ? renew.mutate(input, { onSuccess: (result) => onRenewed(result.recoveryCodes), onError })
+      : turnOff.mutate(input, { onSuccess: onCancel, onError }),
   );
   return (
-    <form onSubmit={onSubmit} noValidate aria-label={action === 'renew' ? 'Make new recovery codes' : 'Turn off two-factor sign-in'} className="flex max-w-sm flex-col gap-3">
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      aria-label={action === 'renew' ? 'Make new recovery codes' : 'Turn off two-factor sign-in'}
+      className="flex max-w-sm flex-col gap-3"
+    >
       <p className="text-sm text-ink-muted">
-        {action === 'renew' ? 'New codes replace all your earlier ones.' : 'Your account will then open with the password alone.'} Enter your password to go on.
+        {action === 'renew'
+          ? 'New codes replace all your earlier ones.'
+          : 'Your account will then open with the password alone.'}{' '}
+        Enter your password to go on.
       </p>
       {errors.root?.server?.message && <Notice>{errors.root.server.message}</Notice>}
-      <TextField label="Your password" type="password" autoComplete="current-password" error={errors.password?.message} {...register('password')} />
+      <TextField
+        label="Your password"
+        type="password"
+        autoComplete="current-password"
+        error={errors.password?.message}
+        {...register('password')}
+      />
       <div className="flex flex-wrap gap-2">
         <Button type="submit" variant={action === 'renew' ? 'primary' : 'danger'} pending={mutation.isPending}>
           {action === 'renew' ? 'Make new codes' : 'Turn off'}

@@ -1,5 +1,10 @@
 import { z } from 'zod';
-import { checkSchemeSettings, toSchemeSettings, type SchemeContext, type SchemeFormValues } from '../utils/scheme-settings';
+import {
+  checkSchemeSettings,
+  toSchemeSettings,
+  type SchemeContext,
+  type SchemeFormValues,
+} from '../utils/scheme-settings';
 import type { CovariateDistribution, DryRunRequest } from './run-dry-run';
 import { schemeFormFields } from './save-assignment-scheme';
 
@@ -33,28 +38,44 @@ export function dryRunFormSchema(factors: readonly DryRunFactor[], context: Sche
     .superRefine((values, ctx) => {
       const arrivals = values.arrivals.replace(/[,\s]/g, '');
       if (!/^\d+$/.test(arrivals) || Number(arrivals) < 1 || Number(arrivals) > maxDryRunArrivals) {
-        ctx.addIssue({ code: 'custom', path: ['arrivals'], message: `Enter a whole number of arrivals from 1 to ${maxDryRunArrivals.toLocaleString('en')}.` });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['arrivals'],
+          message: `Enter a whole number of arrivals from 1 to ${maxDryRunArrivals.toLocaleString('en')}.`,
+        });
       }
       if (values.seed !== '' && !/^[0-9a-fA-F]{64}$/.test(values.seed)) {
-        ctx.addIssue({ code: 'custom', path: ['seed'], message: 'A seed is 64 hexadecimal characters; leave it empty for a fresh one.' });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['seed'],
+          message: 'A seed is 64 hexadecimal characters; leave it empty for a fresh one.',
+        });
       }
       factors.forEach((factor, i) => {
         const row = values.mix[i];
         if (!row) return;
         if (factor.kind === 'numeric') {
-          if (!isNumber(row.mean)) ctx.addIssue({ code: 'custom', path: ['mix', i, 'mean'], message: 'Enter the average score.' });
-          if (!isNumber(row.sd) || Number(row.sd) < 0) ctx.addIssue({ code: 'custom', path: ['mix', i, 'sd'], message: 'Enter a spread of 0 or more.' });
+          if (!isNumber(row.mean))
+            ctx.addIssue({ code: 'custom', path: ['mix', i, 'mean'], message: 'Enter the average score.' });
+          if (!isNumber(row.sd) || Number(row.sd) < 0)
+            ctx.addIssue({ code: 'custom', path: ['mix', i, 'sd'], message: 'Enter a spread of 0 or more.' });
         } else {
           row.shares.forEach((share, j) => {
-            if (!isNumber(share) || Number(share) < 0) ctx.addIssue({ code: 'custom', path: ['mix', i, 'shares', j], message: 'Enter a share of 0 or more.' });
+            if (!isNumber(share) || Number(share) < 0)
+              ctx.addIssue({ code: 'custom', path: ['mix', i, 'shares', j], message: 'Enter a share of 0 or more.' });
           });
           if (row.shares.every((share) => !isNumber(share) || Number(share) <= 0)) {
-            ctx.addIssue({ code: 'custom', path: ['mix', i, 'shares', 0], message: 'Give at least one category a share above 0.' });
+            ctx.addIssue({
+              code: 'custom',
+              path: ['mix', i, 'shares', 0],
+              message: 'Give at least one category a share above 0.',
+            });
           }
         }
       });
       if (values.compare || !hasSavedScheme) {
-        for (const issue of checkSchemeSettings(values, context)) ctx.addIssue({ code: 'custom', path: [issue.path], message: issue.message });
+        for (const issue of checkSchemeSettings(values, context))
+          ctx.addIssue({ code: 'custom', path: [issue.path], message: issue.message });
       }
     })
     .transform((values): DryRunRequest => {
@@ -64,14 +85,21 @@ export function dryRunFormSchema(factors: readonly DryRunFactor[], context: Sche
         covariateMix[factor.key] =
           factor.kind === 'numeric'
             ? { kind: 'normal', mean: Number(row.mean), sd: Number(row.sd) }
-            : { kind: 'categorical', proportions: Object.fromEntries((factor.categories ?? []).map((category, j) => [category, Number(row.shares[j] ?? 0)])) };
+            : {
+                kind: 'categorical',
+                proportions: Object.fromEntries(
+                  (factor.categories ?? []).map((category, j) => [category, Number(row.shares[j] ?? 0)]),
+                ),
+              };
       });
       const comparing = values.compare || !hasSavedScheme;
       return {
         arrivals: Number(values.arrivals.replace(/[,\s]/g, '')),
         covariateMix,
         ...(values.seed ? { seed: values.seed.toLowerCase() } : {}),
-        ...(comparing && values.method ? { method: values.method, settings: toSchemeSettings(values as SchemeFormValues) } : {}),
+        ...(comparing && values.method
+          ? { method: values.method, settings: toSchemeSettings(values as SchemeFormValues) }
+          : {}),
       };
     });
 }

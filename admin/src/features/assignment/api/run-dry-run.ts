@@ -61,7 +61,9 @@ export interface DryRunResult {
 }
 
 export async function runDryRun(studyId: string, request: DryRunRequest): Promise<DryRunResult> {
-  const result = await unwrap(apiClient.POST('/api/studies/{studyId}/assignment/dry-run', { params: { path: { studyId } }, body: request }));
+  const result = await unwrap(
+    apiClient.POST('/api/studies/{studyId}/assignment/dry-run', { params: { path: { studyId } }, body: request }),
+  );
   return result as unknown as DryRunResult;
 }
 

@@ -2,7 +2,15 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiClient, unwrap } from '@/lib/api-client';
 import { studyKeys } from '@/lib/study-keys';
 import { z } from 'zod';
-import { betweenMethods, checkSchemeSettings, withinMethods, type SchemeContext, type SchemeFormValues, type SchemeMethod, type SchemeSettings } from '../utils/scheme-settings';
+import {
+  betweenMethods,
+  checkSchemeSettings,
+  withinMethods,
+  type SchemeContext,
+  type SchemeFormValues,
+  type SchemeMethod,
+  type SchemeSettings,
+} from '../utils/scheme-settings';
 import type { Assignment } from './get-assignment';
 
 /** The scheme's form fields; the dry-run form reuses them to compare another scheme. */
@@ -19,7 +27,8 @@ export const schemeFormFields = {
 /** The scheme form's schema: the settings are checked against the current conditions and factors. */
 export function schemeFormSchema(context: SchemeContext) {
   return z.object(schemeFormFields).superRefine((values, ctx) => {
-    for (const issue of checkSchemeSettings(values, context)) ctx.addIssue({ code: 'custom', path: [issue.path], message: issue.message });
+    for (const issue of checkSchemeSettings(values, context))
+      ctx.addIssue({ code: 'custom', path: [issue.path], message: issue.message });
   });
 }
 
@@ -27,17 +36,31 @@ export function schemeFormSchema(context: SchemeContext) {
 export function schemeFieldOf(apiField: string): keyof SchemeFormValues | null {
   const first = apiField.split('.')[0] ?? apiField;
   if (first === 'pretestId' || first === 'pretestKey') return 'pretestKey';
-  return (['method', 'blockSizes', 'measure', 'coinProbability', 'squaresPerBlock', 'stratify'] as const).find((field) => field === first) ?? null;
+  return (
+    (['method', 'blockSizes', 'measure', 'coinProbability', 'squaresPerBlock', 'stratify'] as const).find(
+      (field) => field === first,
+    ) ?? null
+  );
 }
 
-export async function saveAssignmentScheme(studyId: string, method: SchemeMethod, settings: SchemeSettings): Promise<Assignment> {
-  return unwrap(apiClient.PUT('/api/studies/{studyId}/assignment-scheme', { params: { path: { studyId } }, body: { method, ...settings } }));
+export async function saveAssignmentScheme(
+  studyId: string,
+  method: SchemeMethod,
+  settings: SchemeSettings,
+): Promise<Assignment> {
+  return unwrap(
+    apiClient.PUT('/api/studies/{studyId}/assignment-scheme', {
+      params: { path: { studyId } },
+      body: { method, ...settings },
+    }),
+  );
 }
 
 export function useSaveAssignmentScheme(studyId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ method, settings }: { method: SchemeMethod; settings: SchemeSettings }) => saveAssignmentScheme(studyId, method, settings),
+    mutationFn: ({ method, settings }: { method: SchemeMethod; settings: SchemeSettings }) =>
+      saveAssignmentScheme(studyId, method, settings),
     onSuccess: (assignment) => {
       queryClient.setQueryData(studyKeys.assignment(studyId), assignment);
       return Promise.all([

@@ -5,7 +5,11 @@ import { studyKeys } from '@/lib/study-keys';
 import type { Assignment } from './get-assignment';
 
 export const unblindInputSchema = z.object({
-  reason: z.string().trim().min(10, 'Explain the reason in at least 10 characters; it is kept in the audit trail.').max(2000, 'Keep the reason under 2,000 characters.'),
+  reason: z
+    .string()
+    .trim()
+    .min(10, 'Explain the reason in at least 10 characters; it is kept in the audit trail.')
+    .max(2000, 'Keep the reason under 2,000 characters.'),
   confirmed: z.boolean().refine((ticked) => ticked, 'Tick the box to confirm you understand what unblinding reveals.'),
 });
 

@@ -23,14 +23,25 @@ export interface BalanceTableProps {
 }
 
 /** Counts per stratum (or factor level) and condition (or order), with row totals. */
-export function BalanceTable({ caption, rows, conditions, armIds, armLabels, rowHeader = 'Stratum', rowLabel, showImbalance = false }: BalanceTableProps) {
+export function BalanceTable({
+  caption,
+  rows,
+  conditions,
+  armIds,
+  armLabels,
+  rowHeader = 'Stratum',
+  rowLabel,
+  showImbalance = false,
+}: BalanceTableProps) {
   return (
     <div className={tableRecipe.frame}>
       <table className={tableRecipe.table}>
         <caption className="sr-only">{caption}</caption>
         <thead>
           <tr>
-            <th scope="col" className={tableRecipe.headCell}>{rowHeader}</th>
+            <th scope="col" className={tableRecipe.headCell}>
+              {rowHeader}
+            </th>
             {armIds.map((armId) => {
               const label = armLabel(conditions, armId, armLabels?.[armId]);
               return (
@@ -40,7 +51,9 @@ export function BalanceTable({ caption, rows, conditions, armIds, armLabels, row
                 </th>
               );
             })}
-            <th scope="col" className={`${tableRecipe.headCell} text-right`}>Total</th>
+            <th scope="col" className={`${tableRecipe.headCell} text-right`}>
+              Total
+            </th>
             {showImbalance && (
               <th scope="col" className={`${tableRecipe.headCell} text-right`}>
                 Imbalance
@@ -59,9 +72,13 @@ export function BalanceTable({ caption, rows, conditions, armIds, armLabels, row
                   {(row.counts.find((count) => count.armId === armId)?.count ?? 0).toLocaleString()}
                 </td>
               ))}
-              <td className={`${tableRecipe.cell} text-right font-semibold tabular-nums`}>{row.total.toLocaleString()}</td>
+              <td className={`${tableRecipe.cell} text-right font-semibold tabular-nums`}>
+                {row.total.toLocaleString()}
+              </td>
               {showImbalance && (
-                <td className={`${tableRecipe.cell} text-right tabular-nums ${row.imbalance && row.imbalance > 2 ? 'font-semibold text-caution' : ''}`}>
+                <td
+                  className={`${tableRecipe.cell} text-right tabular-nums ${row.imbalance && row.imbalance > 2 ? 'font-semibold text-caution' : ''}`}
+                >
                   {formatImbalance(row.imbalance ?? 0)}
                 </td>
               )}

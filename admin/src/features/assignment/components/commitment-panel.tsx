@@ -31,23 +31,31 @@ export function CommitmentPanel({ assignment }: { assignment: Assignment }) {
         {assignment.commitment ? (
           <div className="flex flex-col gap-2">
             <p className="text-xs font-semibold text-ink">Fingerprint (SHA-256 commitment)</p>
-            <p className="rounded-md border border-line bg-canvas px-3 py-2 font-mono text-sm break-all" data-testid="commitment">
+            <p
+              className="rounded-md border border-line bg-canvas px-3 py-2 font-mono text-sm break-all"
+              data-testid="commitment"
+            >
               {assignment.commitment}
             </p>
             <div className="flex flex-wrap items-center gap-3">
               <CopyButton value={assignment.commitment} label="Copy fingerprint" />
-              {assignment.committedAt && <span className="text-xs text-ink-muted">Published {dateTime.format(new Date(assignment.committedAt))}</span>}
+              {assignment.committedAt && (
+                <span className="text-xs text-ink-muted">
+                  Published {dateTime.format(new Date(assignment.committedAt))}
+                </span>
+              )}
             </div>
             <p className="max-w-prose text-sm text-ink-muted">
-              The fingerprint is SHA-256 over the secret seed and the scheme’s parameters. Anyone holding it can later check that the
-              sequence was not changed: once the seed is revealed (at closing or an audited unblinding), hashing it with the
-              parameters must give this exact value, and re-deriving the sequence from it must reproduce every assignment.
+              The fingerprint is SHA-256 over the secret seed and the scheme’s parameters. Anyone holding it can later
+              check that the sequence was not changed: once the seed is revealed (at closing or an audited unblinding),
+              hashing it with the parameters must give this exact value, and re-deriving the sequence from it must
+              reproduce every assignment.
             </p>
           </div>
         ) : (
           <p className="text-sm text-ink-muted">
-            Not sealed yet. Opening the study draws the seed, seals the sequence and publishes its fingerprint here and in the audit
-            trail.
+            Not sealed yet. Opening the study draws the seed, seals the sequence and publishes its fingerprint here and
+            in the audit trail.
           </p>
         )}
 
@@ -64,7 +72,9 @@ export function CommitmentPanel({ assignment }: { assignment: Assignment }) {
                 <pre className="max-h-80 overflow-auto rounded-md border border-line bg-canvas p-3 font-mono text-xs">
                   {JSON.stringify(assignment.sealedParameters, null, 2)}
                 </pre>
-                <p className="mt-1 text-xs text-ink-muted">Exactly what the fingerprint covers, with conditions and factors by id.</p>
+                <p className="mt-1 text-xs text-ink-muted">
+                  Exactly what the fingerprint covers, with conditions and factors by id.
+                </p>
               </DisclosurePanel>
             </Disclosure>
           )}
@@ -73,12 +83,19 @@ export function CommitmentPanel({ assignment }: { assignment: Assignment }) {
         {assignment.seed && (
           <div className="flex flex-col gap-2 border-t border-line pt-3">
             <p className="text-xs font-semibold text-ink">Revealed seed</p>
-            <p className="rounded-md border border-line bg-canvas px-3 py-2 font-mono text-sm break-all" data-testid="seed">
+            <p
+              className="rounded-md border border-line bg-canvas px-3 py-2 font-mono text-sm break-all"
+              data-testid="seed"
+            >
               {assignment.seed}
             </p>
             <div className="flex flex-wrap items-center gap-3">
               <CopyButton value={assignment.seed} label="Copy seed" />
-              {assignment.seedRevealedAt && <span className="text-xs text-ink-muted">Revealed {dateTime.format(new Date(assignment.seedRevealedAt))}</span>}
+              {assignment.seedRevealedAt && (
+                <span className="text-xs text-ink-muted">
+                  Revealed {dateTime.format(new Date(assignment.seedRevealedAt))}
+                </span>
+              )}
             </div>
             {assignment.unblindedAt && (
               <p className="text-sm text-ink-muted">

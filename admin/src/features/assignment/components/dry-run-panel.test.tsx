@@ -16,7 +16,11 @@ const factors: DryRunFactor[] = [
   { key: 'pretest', kind: 'numeric', cutPoints: [40, 60], categories: null },
   { key: 'site', kind: 'categorical', cutPoints: null, categories: ['north', 'south'] },
 ];
-const context: SchemeContext = { design: 'between', conditionWeights: [1, 1], factors: factors.map(({ key, kind }) => ({ key, kind })) };
+const context: SchemeContext = {
+  design: 'between',
+  conditionWeights: [1, 1],
+  factors: factors.map(({ key, kind }) => ({ key, kind })),
+};
 
 // A result in the shape of api/src/randomization/dry-run.ts (DryRunResult); the numbers only need to be consistent.
 const result = {
@@ -45,7 +49,14 @@ const result = {
 
 function renderPanel(savedMethod: string | null = 'minimization') {
   return renderWithProviders(
-    <DryRunPanel studyId={studyId} context={context} conditions={conditions} factors={factors} savedMethod={savedMethod} savedSettings={{}} />,
+    <DryRunPanel
+      studyId={studyId}
+      context={context}
+      conditions={conditions}
+      factors={factors}
+      savedMethod={savedMethod}
+      savedSettings={{}}
+    />,
   );
 }
 
@@ -76,17 +87,33 @@ describe('DryRunPanel', () => {
     });
 
     answer({ status: 200, body: result });
-    expect(await screen.findByRole('heading', { name: /Result: 8 simulated arrivals · Minimization/ })).toBeInTheDocument();
+    expect(
+      await screen.findByRole('heading', { name: /Result: 8 simulated arrivals · Minimization/ }),
+    ).toBeInTheDocument();
     expect(screen.queryByRole('progressbar')).not.toBeInTheDocument();
     const strata = screen.getByRole('table', { name: 'Simulated balance per stratum' });
-    expect(within(strata).getAllByRole('rowheader').map((cell) => cell.textContent)).toEqual(['pretest <40 · site north', 'pretest ≥60 · site south']);
+    expect(
+      within(strata)
+        .getAllByRole('rowheader')
+        .map((cell) => cell.textContent),
+    ).toEqual(['pretest <40 · site north', 'pretest ≥60 · site south']);
     const levels = screen.getByRole('table', { name: 'Simulated balance per factor level' });
-    expect(within(levels).getAllByRole('rowheader').map((cell) => cell.textContent)).toEqual(['pretest <40', 'site south']);
-    expect(screen.getByRole('img', { name: /largest imbalance over 8 arrivals\. All participants: at most 2; Worst stratum: at most 1; Worst factor level: at most 2/ })).toBeInTheDocument();
+    expect(
+      within(levels)
+        .getAllByRole('rowheader')
+        .map((cell) => cell.textContent),
+    ).toEqual(['pretest <40', 'site south']);
+    expect(
+      screen.getByRole('img', {
+        name: /largest imbalance over 8 arrivals\. All participants: at most 2; Worst stratum: at most 1; Worst factor level: at most 2/,
+      }),
+    ).toBeInTheDocument();
   });
 
   it('compares another scheme with its own settings and checks them first', async () => {
-    const { requests } = stubApi({ [`POST /api/studies/${studyId}/assignment/dry-run`]: { status: 200, body: result } });
+    const { requests } = stubApi({
+      [`POST /api/studies/${studyId}/assignment/dry-run`]: { status: 200, body: result },
+    });
     renderPanel();
 
     await userEvent.click(screen.getByRole('switch', { name: 'Try another scheme' }));
@@ -103,7 +130,11 @@ describe('DryRunPanel', () => {
     await userEvent.type(screen.getByLabelText('Simulated arrivals'), '100000');
     await userEvent.click(screen.getByRole('button', { name: 'Run dry run' }));
     await waitFor(() => expect(requests).toHaveLength(1));
-    expect(requests[0]?.body).toMatchObject({ arrivals: 100000, method: 'permuted-blocks', settings: { blockSizes: [2, 4] } });
+    expect(requests[0]?.body).toMatchObject({
+      arrivals: 100000,
+      method: 'permuted-blocks',
+      settings: { blockSizes: [2, 4] },
+    });
   }, 20_000);
 
   it('refuses more than 100,000 arrivals and a malformed seed', async () => {
@@ -116,7 +147,9 @@ describe('DryRunPanel', () => {
     await userEvent.click(screen.getByRole('button', { name: 'Run dry run' }));
 
     expect(await screen.findByText('Enter a whole number of arrivals from 1 to 100,000.')).toBeInTheDocument();
-    expect(screen.getByText('A seed is 64 hexadecimal characters; leave it empty for a fresh one.')).toBeInTheDocument();
+    expect(
+      screen.getByText('A seed is 64 hexadecimal characters; leave it empty for a fresh one.'),
+    ).toBeInTheDocument();
     expect(requests).toHaveLength(0);
   });
 });

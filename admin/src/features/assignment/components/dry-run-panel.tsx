@@ -8,7 +8,13 @@ import { Notice } from '@/components/ui/states';
 import { SwitchField } from '@/components/ui/switch-field';
 import { TextField } from '@/components/ui/text-field';
 import { applyApiFieldErrors } from '@/lib/form-field-errors';
-import { defaultMix, dryRunFormSchema, maxDryRunArrivals, type DryRunFactor, type DryRunFormValues } from '../api/dry-run-schema';
+import {
+  defaultMix,
+  dryRunFormSchema,
+  maxDryRunArrivals,
+  type DryRunFactor,
+  type DryRunFormValues,
+} from '../api/dry-run-schema';
 import { useRunDryRun, type DryRunRequest } from '../api/run-dry-run';
 import { useElapsedSeconds } from '../hooks/use-elapsed-seconds';
 import type { ArmCondition } from '../utils/arm-labels';
@@ -57,7 +63,15 @@ export function DryRunPanel({ studyId, context, conditions, factors, savedMethod
       onError: (error) =>
         applyApiFieldErrors(error, setError, (field) => {
           const first = field.split('.')[0];
-          if (first === 'arrivals' || first === 'seed' || first === 'method' || first === 'blockSizes' || first === 'coinProbability' || first === 'squaresPerBlock') return first;
+          if (
+            first === 'arrivals' ||
+            first === 'seed' ||
+            first === 'method' ||
+            first === 'blockSizes' ||
+            first === 'coinProbability' ||
+            first === 'squaresPerBlock'
+          )
+            return first;
           const mix = /^covariateMix\.([^.]+)/.exec(field);
           const index = mix ? factors.findIndex((factor) => factor.key === mix[1]) : -1;
           if (index >= 0) return factors[index]?.kind === 'numeric' ? `mix.${index}.mean` : `mix.${index}.shares.0`;
@@ -66,7 +80,10 @@ export function DryRunPanel({ studyId, context, conditions, factors, savedMethod
     });
   });
 
-  const methodOptions = methodsFor(context.design).map((method) => ({ value: method, label: schemeMethodText[method].label }));
+  const methodOptions = methodsFor(context.design).map((method) => ({
+    value: method,
+    label: schemeMethodText[method].label,
+  }));
 
   return (
     <Panel
@@ -97,22 +114,41 @@ export function DryRunPanel({ studyId, context, conditions, factors, savedMethod
           {factors.length > 0 && (
             <fieldset className="flex flex-col gap-3">
               <legend className="mb-1 text-sm font-semibold">Who arrives</legend>
-              <p className="-mt-1 text-xs text-ink-muted">How the stratification answers are spread among simulated participants.</p>
+              <p className="-mt-1 text-xs text-ink-muted">
+                How the stratification answers are spread among simulated participants.
+              </p>
               {factors.map((factor, index) =>
                 factor.kind === 'numeric' ? (
-                  <div key={factor.key} className="grid gap-3 rounded-md border border-line bg-canvas p-3 sm:grid-cols-[1fr_10rem_10rem]">
+                  <div
+                    key={factor.key}
+                    className="grid gap-3 rounded-md border border-line bg-canvas p-3 sm:grid-cols-[1fr_10rem_10rem]"
+                  >
                     <p className="text-sm">
                       <span className="font-mono font-medium">{factor.key}</span>
-                      <span className="block text-xs text-ink-muted">Scores drawn from a normal distribution; cut at {(factor.cutPoints ?? []).join(', ')}.</span>
+                      <span className="block text-xs text-ink-muted">
+                        Scores drawn from a normal distribution; cut at {(factor.cutPoints ?? []).join(', ')}.
+                      </span>
                     </p>
-                    <TextField label="Average" inputMode="decimal" error={errors.mix?.[index]?.mean?.message} {...register(`mix.${index}.mean`)} />
-                    <TextField label="Standard deviation" inputMode="decimal" error={errors.mix?.[index]?.sd?.message} {...register(`mix.${index}.sd`)} />
+                    <TextField
+                      label="Average"
+                      inputMode="decimal"
+                      error={errors.mix?.[index]?.mean?.message}
+                      {...register(`mix.${index}.mean`)}
+                    />
+                    <TextField
+                      label="Standard deviation"
+                      inputMode="decimal"
+                      error={errors.mix?.[index]?.sd?.message}
+                      {...register(`mix.${index}.sd`)}
+                    />
                   </div>
                 ) : (
                   <div key={factor.key} className="flex flex-col gap-2 rounded-md border border-line bg-canvas p-3">
                     <p className="text-sm">
                       <span className="font-mono font-medium">{factor.key}</span>
-                      <span className="block text-xs text-ink-muted">Relative shares: 2 and 1 means twice as many in the first.</span>
+                      <span className="block text-xs text-ink-muted">
+                        Relative shares: 2 and 1 means twice as many in the first.
+                      </span>
                     </p>
                     <div className="grid gap-3 sm:grid-cols-4">
                       {(factor.categories ?? []).map((category, j) => (
@@ -154,7 +190,14 @@ export function DryRunPanel({ studyId, context, conditions, factors, savedMethod
                   control={control}
                   name="method"
                   render={({ field, fieldState }) => (
-                    <RadioCards label="Method to simulate" value={field.value} onChange={field.onChange} options={methodOptions} error={fieldState.error?.message} columns={2} />
+                    <RadioCards
+                      label="Method to simulate"
+                      value={field.value}
+                      onChange={field.onChange}
+                      options={methodOptions}
+                      error={fieldState.error?.message}
+                      columns={2}
+                    />
                   )}
                 />
                 <SchemeParameterFields context={context} />
@@ -170,7 +213,10 @@ export function DryRunPanel({ studyId, context, conditions, factors, savedMethod
               <div className="flex min-w-64 flex-1 flex-col gap-1" role="status">
                 <IndeterminateProgress label="Dry run in progress" />
                 <p className="text-xs text-ink-muted">
-                  Simulating {requestedArrivals?.toLocaleString()} arrivals… <span className="tabular-nums" aria-hidden="true">{elapsed} s</span>
+                  Simulating {requestedArrivals?.toLocaleString()} arrivals…{' '}
+                  <span className="tabular-nums" aria-hidden="true">
+                    {elapsed} s
+                  </span>
                 </p>
               </div>
             )}
@@ -179,7 +225,9 @@ export function DryRunPanel({ studyId, context, conditions, factors, savedMethod
       </FormProvider>
 
       <p aria-live="polite" className="sr-only">
-        {dryRun.isSuccess && !dryRun.isPending ? `Dry run finished: ${dryRun.data.arrivals.toLocaleString()} arrivals simulated. Results follow.` : ''}
+        {dryRun.isSuccess && !dryRun.isPending
+          ? `Dry run finished: ${dryRun.data.arrivals.toLocaleString()} arrivals simulated. Results follow.`
+          : ''}
       </p>
       {dryRun.isSuccess && !dryRun.isPending && (
         <div className="mt-5 border-t border-line pt-5">

@@ -7,7 +7,11 @@ import { ImbalanceChart } from './imbalance-chart';
 import { schemeMethodText } from './scheme-methods';
 import type { SchemeMethod } from '../utils/scheme-settings';
 
-const percent = new Intl.NumberFormat(undefined, { style: 'percent', minimumFractionDigits: 1, maximumFractionDigits: 1 });
+const percent = new Intl.NumberFormat(undefined, {
+  style: 'percent',
+  minimumFractionDigits: 1,
+  maximumFractionDigits: 1,
+});
 
 export interface DryRunResultsProps {
   result: DryRunResult;
@@ -15,7 +19,9 @@ export interface DryRunResultsProps {
   method: string | null;
 }
 
-function toRows(items: readonly { stratumKey: string; total: number; counts: Record<string, number>; imbalance: number }[]) {
+function toRows(
+  items: readonly { stratumKey: string; total: number; counts: Record<string, number>; imbalance: number }[],
+) {
   return items.map((item) => ({
     stratumKey: item.stratumKey,
     total: item.total,
@@ -51,9 +57,23 @@ export function DryRunResults({ result, conditions, method }: DryRunResultsProps
       <dl className="grid gap-3 sm:grid-cols-3">
         {[
           { label: 'All participants', peak: result.largestImbalance.overall, final: result.finalImbalance.overall },
-          ...(stratified ? [{ label: 'Worst stratum', peak: result.largestImbalance.inStratum, final: result.finalImbalance.inStratum }] : []),
+          ...(stratified
+            ? [
+                {
+                  label: 'Worst stratum',
+                  peak: result.largestImbalance.inStratum,
+                  final: result.finalImbalance.inStratum,
+                },
+              ]
+            : []),
           ...(showLevels
-            ? [{ label: 'Worst factor level', peak: result.largestImbalance.inFactorLevel, final: result.finalImbalance.inFactorLevel }]
+            ? [
+                {
+                  label: 'Worst factor level',
+                  peak: result.largestImbalance.inFactorLevel,
+                  final: result.finalImbalance.inFactorLevel,
+                },
+              ]
             : []),
         ].map((item) => (
           <div key={item.label} className="rounded-md border border-line bg-canvas px-3 py-2">
@@ -73,10 +93,18 @@ export function DryRunResults({ result, conditions, method }: DryRunResultsProps
             <caption className="sr-only">Simulated arrivals per condition</caption>
             <thead>
               <tr>
-                <th scope="col" className={tableRecipe.headCell}>{result.arms.some((arm) => arm.armId.startsWith('order-')) ? 'Order' : 'Condition'}</th>
-                <th scope="col" className={`${tableRecipe.headCell} text-right`}>Participants</th>
-                <th scope="col" className={`${tableRecipe.headCell} text-right`}>Share</th>
-                <th scope="col" className={`${tableRecipe.headCell} text-right`}>Target</th>
+                <th scope="col" className={tableRecipe.headCell}>
+                  {result.arms.some((arm) => arm.armId.startsWith('order-')) ? 'Order' : 'Condition'}
+                </th>
+                <th scope="col" className={`${tableRecipe.headCell} text-right`}>
+                  Participants
+                </th>
+                <th scope="col" className={`${tableRecipe.headCell} text-right`}>
+                  Share
+                </th>
+                <th scope="col" className={`${tableRecipe.headCell} text-right`}>
+                  Target
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -90,7 +118,9 @@ export function DryRunResults({ result, conditions, method }: DryRunResultsProps
                     </th>
                     <td className={`${tableRecipe.cell} text-right tabular-nums`}>{arm.count.toLocaleString()}</td>
                     <td className={`${tableRecipe.cell} text-right tabular-nums`}>{percent.format(arm.share)}</td>
-                    <td className={`${tableRecipe.cell} text-right tabular-nums text-ink-muted`}>{percent.format(arm.targetShare)}</td>
+                    <td className={`${tableRecipe.cell} text-right tabular-nums text-ink-muted`}>
+                      {percent.format(arm.targetShare)}
+                    </td>
                   </tr>
                 );
               })}
@@ -101,10 +131,19 @@ export function DryRunResults({ result, conditions, method }: DryRunResultsProps
 
       <div className="flex flex-col gap-2">
         <h4 className="text-sm font-semibold">Per stratum</h4>
-        <BalanceTable caption="Simulated balance per stratum" rows={toRows(result.strata)} conditions={conditions} armIds={armIds} armLabels={armLabels} showImbalance />
+        <BalanceTable
+          caption="Simulated balance per stratum"
+          rows={toRows(result.strata)}
+          conditions={conditions}
+          armIds={armIds}
+          armLabels={armLabels}
+          showImbalance
+        />
       </div>
 
-      {factorCount === 1 && <p className="-mt-3 text-xs text-ink-muted">With one stratification factor, its levels are the strata above.</p>}
+      {factorCount === 1 && (
+        <p className="-mt-3 text-xs text-ink-muted">With one stratification factor, its levels are the strata above.</p>
+      )}
 
       {showLevels && (
         <div className="flex flex-col gap-2">
@@ -128,7 +167,9 @@ export function DryRunResults({ result, conditions, method }: DryRunResultsProps
       {result.matchedPairs && (
         <p className="text-sm">
           {result.matchedPairs.pairs.toLocaleString()} pairs
-          {result.matchedPairs.leftoverParticipantId ? '; one person was left unpaired (odd number of arrivals).' : '; nobody was left unpaired.'}
+          {result.matchedPairs.leftoverParticipantId
+            ? '; one person was left unpaired (odd number of arrivals).'
+            : '; nobody was left unpaired.'}
         </p>
       )}
 
@@ -140,7 +181,9 @@ export function DryRunResults({ result, conditions, method }: DryRunResultsProps
         <div>
           <CopyButton value={result.seed} label="Copy seed" />
         </div>
-        <p className="text-xs text-ink-muted">Paste it into the seed field to repeat exactly this simulation. It is never the study’s sealed seed.</p>
+        <p className="text-xs text-ink-muted">
+          Paste it into the seed field to repeat exactly this simulation. It is never the study’s sealed seed.
+        </p>
       </div>
     </section>
   );

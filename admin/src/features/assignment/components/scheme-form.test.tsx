@@ -7,7 +7,11 @@ import type { SchemeContext } from '../utils/scheme-settings';
 import { SchemeForm } from './scheme-form';
 
 const studyId = '0d9f8e7c-6b5a-4c3d-8e2f-1a0b9c8d7e6f';
-const threeConditions: SchemeContext = { design: 'between', conditionWeights: [1, 1, 1], factors: [{ key: 'sense_of_direction', kind: 'numeric' }] };
+const threeConditions: SchemeContext = {
+  design: 'between',
+  conditionWeights: [1, 1, 1],
+  factors: [{ key: 'sense_of_direction', kind: 'numeric' }],
+};
 
 const savedAssignment = {
   method: 'stratified-blocks',
@@ -59,7 +63,10 @@ describe('SchemeForm', () => {
 
   it('uses the weights: with 2 : 1 : 1 a block of 6 is refused and 4, 8 are saved', async () => {
     const { requests } = stubApi({
-      'PUT /api/studies/0d9f8e7c-6b5a-4c3d-8e2f-1a0b9c8d7e6f/assignment-scheme': { status: 200, body: { ...savedAssignment, settings: { blockSizes: [4, 8] } } },
+      'PUT /api/studies/0d9f8e7c-6b5a-4c3d-8e2f-1a0b9c8d7e6f/assignment-scheme': {
+        status: 200,
+        body: { ...savedAssignment, settings: { blockSizes: [4, 8] } },
+      },
     });
     renderForm({ ...threeConditions, conditionWeights: [2, 1, 1] });
 
@@ -90,7 +97,10 @@ describe('SchemeForm', () => {
 
   it('starts minimization at the biased coin 2/3 and sends exactly 2/3', async () => {
     const { requests } = stubApi({
-      'PUT /api/studies/0d9f8e7c-6b5a-4c3d-8e2f-1a0b9c8d7e6f/assignment-scheme': { status: 200, body: { ...savedAssignment, method: 'minimization', settings: {} } },
+      'PUT /api/studies/0d9f8e7c-6b5a-4c3d-8e2f-1a0b9c8d7e6f/assignment-scheme': {
+        status: 200,
+        body: { ...savedAssignment, method: 'minimization', settings: {} },
+      },
     });
     renderForm();
 

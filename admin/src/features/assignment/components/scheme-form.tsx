@@ -7,7 +7,14 @@ import { RadioCards } from '@/components/ui/radio-cards';
 import { Notice } from '@/components/ui/states';
 import { applyApiFieldErrors } from '@/lib/form-field-errors';
 import { schemeFieldOf, schemeFormSchema, useSaveAssignmentScheme } from '../api/save-assignment-scheme';
-import { methodsFor, schemeFormValuesFrom, toSchemeSettings, type SchemeContext, type SchemeFormValues, type SchemeMethod } from '../utils/scheme-settings';
+import {
+  methodsFor,
+  schemeFormValuesFrom,
+  toSchemeSettings,
+  type SchemeContext,
+  type SchemeFormValues,
+  type SchemeMethod,
+} from '../utils/scheme-settings';
 import { SchemeParameterFields } from './scheme-parameter-fields';
 import { schemeMethodText } from './scheme-methods';
 
@@ -23,7 +30,14 @@ export interface SchemeFormProps {
   dryRunPath?: string;
 }
 
-export function SchemeForm({ studyId, context, savedMethod, savedSettings, resealsOnSave, dryRunPath }: SchemeFormProps) {
+export function SchemeForm({
+  studyId,
+  context,
+  savedMethod,
+  savedSettings,
+  resealsOnSave,
+  dryRunPath,
+}: SchemeFormProps) {
   const save = useSaveAssignmentScheme(studyId);
   const [saved, setSaved] = useState<string | null>(null);
   const form = useForm<SchemeFormValues>({
@@ -45,7 +59,9 @@ export function SchemeForm({ studyId, context, savedMethod, savedSettings, resea
       {
         onSuccess: (assignment) => {
           form.reset(schemeFormValuesFrom(assignment.method, assignment.settings, context));
-          setSaved(`Saved: ${schemeMethodText[method].label}.${resealsOnSave ? ' A fresh sequence was sealed under a new fingerprint.' : ''}`);
+          setSaved(
+            `Saved: ${schemeMethodText[method].label}.${resealsOnSave ? ' A fresh sequence was sealed under a new fingerprint.' : ''}`,
+          );
         },
         onError: (error) => applyApiFieldErrors(error, setError, schemeFieldOf),
       },
@@ -63,7 +79,10 @@ export function SchemeForm({ studyId, context, savedMethod, savedSettings, resea
       <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Assignment scheme">
         {errors.root?.server?.message && <Notice>{errors.root.server.message}</Notice>}
         {resealsOnSave && (
-          <Notice tone="caution">The study is open and nobody is assigned yet: saving a scheme seals a fresh sequence under a new fingerprint.</Notice>
+          <Notice tone="caution">
+            The study is open and nobody is assigned yet: saving a scheme seals a fresh sequence under a new
+            fingerprint.
+          </Notice>
         )}
         <Controller
           control={control}
@@ -87,7 +106,10 @@ export function SchemeForm({ studyId, context, savedMethod, savedSettings, resea
           <p className="text-sm text-ink-muted">
             {savedMethod ? (
               <>
-                Saved now: <span className="font-medium text-ink">{schemeMethodText[savedMethod as SchemeMethod]?.label ?? savedMethod}</span>
+                Saved now:{' '}
+                <span className="font-medium text-ink">
+                  {schemeMethodText[savedMethod as SchemeMethod]?.label ?? savedMethod}
+                </span>
                 {isDirty && ' (unsaved changes)'}
               </>
             ) : (

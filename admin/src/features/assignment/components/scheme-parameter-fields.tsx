@@ -53,7 +53,15 @@ export function SchemeParameterFields({ context, disabled = false }: SchemeParam
             control={control}
             name="measure"
             render={({ field }) => (
-              <SelectField label="Imbalance measure" value={field.value} onChange={field.onChange} onBlur={field.onBlur} buttonRef={field.ref} options={measureOptions} disabled={disabled} />
+              <SelectField
+                label="Imbalance measure"
+                value={field.value}
+                onChange={field.onChange}
+                onBlur={field.onBlur}
+                buttonRef={field.ref}
+                options={measureOptions}
+                disabled={disabled}
+              />
             )}
           />
           <TextField
@@ -64,7 +72,9 @@ export function SchemeParameterFields({ context, disabled = false }: SchemeParam
             error={errors.coinProbability?.message}
             {...register('coinProbability')}
           />
-          <p className="text-xs text-ink-muted sm:col-span-2">Each factor’s weight in minimization is set with the stratification factors.</p>
+          <p className="text-xs text-ink-muted sm:col-span-2">
+            Each factor’s weight in minimization is set with the stratification factors.
+          </p>
         </div>
       );
     case 'matched-pairs':

@@ -9,7 +9,10 @@ function settingLines(settings: Record<string, unknown>): string[] {
     lines.push(`Biased coin ${Math.abs(settings.coinProbability - 2 / 3) < 1e-12 ? '2/3' : settings.coinProbability}`);
   }
   if (typeof settings.pretestKey === 'string') lines.push(`Pairs matched on ${settings.pretestKey}`);
-  if (Array.isArray(settings.squaresPerBlock)) lines.push(`Blocks of ${settings.squaresPerBlock.join(' or ')} whole design${settings.squaresPerBlock.length === 1 && settings.squaresPerBlock[0] === 1 ? '' : 's'}`);
+  if (Array.isArray(settings.squaresPerBlock))
+    lines.push(
+      `Blocks of ${settings.squaresPerBlock.join(' or ')} whole design${settings.squaresPerBlock.length === 1 && settings.squaresPerBlock[0] === 1 ? '' : 's'}`,
+    );
   if (settings.stratify === true) lines.push('Stratified');
   return lines;
 }

@@ -54,18 +54,30 @@ describe('UnblindDialog', () => {
     const onUnblinded = vi.fn();
     renderWithProviders(<UnblindDialog studyId={studyId} open onClose={vi.fn()} onUnblinded={onUnblinded} />);
 
-    await userEvent.type(await screen.findByLabelText('Reason'), '  Data collection finished; analysis plan registered.  ');
+    await userEvent.type(
+      await screen.findByLabelText('Reason'),
+      '  Data collection finished; analysis plan registered.  ',
+    );
     await userEvent.click(confirmBox());
     await submit();
 
     await waitFor(() => expect(onUnblinded).toHaveBeenCalled());
     expect(requests).toEqual([
-      expect.objectContaining({ method: 'POST', path: `/api/studies/${studyId}/unblind`, body: { reason: 'Data collection finished; analysis plan registered.' } }),
+      expect.objectContaining({
+        method: 'POST',
+        path: `/api/studies/${studyId}/unblind`,
+        body: { reason: 'Data collection finished; analysis plan registered.' },
+      }),
     ]);
   });
 
   it('shows the api’s 409 inside the dialog and stays open', async () => {
-    stubApi({ [unblindPath]: { status: 409, body: { statusCode: 409, code: 'CONFLICT', message: 'This study has already been unblinded.' } } });
+    stubApi({
+      [unblindPath]: {
+        status: 409,
+        body: { statusCode: 409, code: 'CONFLICT', message: 'This study has already been unblinded.' },
+      },
+    });
     const onUnblinded = vi.fn();
     renderWithProviders(<UnblindDialog studyId={studyId} open onClose={vi.fn()} onUnblinded={onUnblinded} />);
 

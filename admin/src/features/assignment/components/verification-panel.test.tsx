@@ -23,7 +23,18 @@ const check = (position: number, expected: string, recorded: string) => ({
 describe('VerificationPanel', () => {
   it('checks nothing until asked, then reports every match', async () => {
     const { requests } = stubApi({
-      [verifyPath]: { status: 200, body: { allMatch: true, commitmentMatches: true, matched: 2, mismatched: 0, seed: 'ab'.repeat(32), commitment: 'cd'.repeat(32), checks: [check(1, 'c-a', 'c-a'), check(2, 'c-b', 'c-b')] } },
+      [verifyPath]: {
+        status: 200,
+        body: {
+          allMatch: true,
+          commitmentMatches: true,
+          matched: 2,
+          mismatched: 0,
+          seed: 'ab'.repeat(32),
+          commitment: 'cd'.repeat(32),
+          checks: [check(1, 'c-a', 'c-a'), check(2, 'c-b', 'c-b')],
+        },
+      },
     });
     renderWithProviders(<VerificationPanel studyId={studyId} conditions={conditions} />);
     expect(requests).toHaveLength(0);
@@ -35,25 +46,58 @@ describe('VerificationPanel', () => {
 
   it('lists the rows that differ from the derived sequence', async () => {
     stubApi({
-      [verifyPath]: { status: 200, body: { allMatch: false, commitmentMatches: true, matched: 1, mismatched: 1, seed: 'ab'.repeat(32), commitment: 'cd'.repeat(32), checks: [check(1, 'c-a', 'c-a'), check(2, 'c-a', 'c-b')] } },
+      [verifyPath]: {
+        status: 200,
+        body: {
+          allMatch: false,
+          commitmentMatches: true,
+          matched: 1,
+          mismatched: 1,
+          seed: 'ab'.repeat(32),
+          commitment: 'cd'.repeat(32),
+          checks: [check(1, 'c-a', 'c-a'), check(2, 'c-a', 'c-b')],
+        },
+      },
     });
     renderWithProviders(<VerificationPanel studyId={studyId} conditions={conditions} />);
 
     await userEvent.click(screen.getByRole('button', { name: 'Verify sequence' }));
     expect(await screen.findByText(/1 of 2 recorded assignments differ/)).toBeInTheDocument();
-    const rows = within(screen.getByRole('table', { name: 'Assignments that differ from the derived sequence' })).getAllByRole('row');
+    const rows = within(
+      screen.getByRole('table', { name: 'Assignments that differ from the derived sequence' }),
+    ).getAllByRole('row');
     expect(rows).toHaveLength(2);
     expect(rows[1]).toHaveTextContent('2');
     expect(rows[1]).toHaveTextContent('sense of direction <50');
-    expect(within(rows[1] as HTMLElement).getAllByRole('cell').map((cell) => cell.textContent).slice(-2)).toEqual(['A', 'B']);
+    expect(
+      within(rows[1] as HTMLElement)
+        .getAllByRole('cell')
+        .map((cell) => cell.textContent)
+        .slice(-2),
+    ).toEqual(['A', 'B']);
   });
 
   it('lists enrollments whose recorded condition is not their allocation, though the sequence itself matches', async () => {
-    const changed = { enrollmentId: 'e0000000-0000-4000-8000-000000000002', reason: 'differs-from-allocation', enrollment: { conditionId: 'c-b', order: null }, allocation: { conditionId: 'c-a', order: null }, expected: { conditionId: 'c-a', order: null } };
+    const changed = {
+      enrollmentId: 'e0000000-0000-4000-8000-000000000002',
+      reason: 'differs-from-allocation',
+      enrollment: { conditionId: 'c-b', order: null },
+      allocation: { conditionId: 'c-a', order: null },
+      expected: { conditionId: 'c-a', order: null },
+    };
     stubApi({
       [verifyPath]: {
         status: 200,
-        body: { allMatch: false, commitmentMatches: true, matched: 2, mismatched: 0, seed: 'ab'.repeat(32), commitment: 'cd'.repeat(32), checks: [check(1, 'c-a', 'c-a'), check(2, 'c-a', 'c-a')], enrollmentMismatches: [changed] },
+        body: {
+          allMatch: false,
+          commitmentMatches: true,
+          matched: 2,
+          mismatched: 0,
+          seed: 'ab'.repeat(32),
+          commitment: 'cd'.repeat(32),
+          checks: [check(1, 'c-a', 'c-a'), check(2, 'c-a', 'c-a')],
+          enrollmentMismatches: [changed],
+        },
       },
     });
     renderWithProviders(<VerificationPanel studyId={studyId} conditions={conditions} />);
@@ -71,7 +115,11 @@ describe('VerificationPanel', () => {
     stubApi({
       [verifyPath]: {
         status: 409,
-        body: { statusCode: 409, code: 'CONFLICT', message: 'The seed is still sealed: verification is possible after closure or an audited unblinding.' },
+        body: {
+          statusCode: 409,
+          code: 'CONFLICT',
+          message: 'The seed is still sealed: verification is possible after closure or an audited unblinding.',
+        },
       },
     });
     renderWithProviders(<VerificationPanel studyId={studyId} conditions={conditions} />);

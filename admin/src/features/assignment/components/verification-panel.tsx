@@ -34,19 +34,27 @@ export function VerificationPanel({ studyId, conditions }: { studyId: string; co
       title="Verify the sequence"
       description="With the seed revealed, Evenhand hashes it with the sealed parameters, compares the result with the published fingerprint, and replays every assignment."
       actions={
-        <Button variant="primary" onClick={() => (requested ? void verification.refetch() : setRequested(true))} pending={verification.isFetching}>
+        <Button
+          variant="primary"
+          onClick={() => (requested ? void verification.refetch() : setRequested(true))}
+          pending={verification.isFetching}
+        >
           {verification.data ? 'Verify again' : 'Verify sequence'}
         </Button>
       }
     >
       {!requested ? (
-        <p className="text-sm text-ink-muted">Nothing is checked until you ask; it reads every allocation of the study.</p>
+        <p className="text-sm text-ink-muted">
+          Nothing is checked until you ask; it reads every allocation of the study.
+        </p>
       ) : verification.isPending ? (
         <LoadingState label="Replaying the sequence…" />
       ) : verification.isError ? (
         <ErrorState
           title="Verification could not run"
-          message={verification.error instanceof ApiError ? verification.error.message : 'The check could not be completed.'}
+          message={
+            verification.error instanceof ApiError ? verification.error.message : 'The check could not be completed.'
+          }
           onRetry={() => void verification.refetch()}
         />
       ) : (
@@ -59,7 +67,8 @@ export function VerificationPanel({ studyId, conditions }: { studyId: string; co
           ) : (
             <Notice tone="danger">
               <span className="font-semibold">Mismatch.</span>{' '}
-              {!verification.data.commitmentMatches && 'The seed and parameters do not reproduce the published fingerprint. '}
+              {!verification.data.commitmentMatches &&
+                'The seed and parameters do not reproduce the published fingerprint. '}
               {verification.data.mismatched > 0 &&
                 `${verification.data.mismatched.toLocaleString()} of ${(verification.data.matched + verification.data.mismatched).toLocaleString()} recorded assignments differ from the derived sequence. `}
               {enrollmentMismatches.length > 0 &&
@@ -69,7 +78,13 @@ export function VerificationPanel({ studyId, conditions }: { studyId: string; co
           <dl className="flex flex-wrap gap-x-6 gap-y-1 text-sm">
             <div className="flex gap-1.5">
               <dt className="text-ink-muted">Fingerprint</dt>
-              <dd>{verification.data.commitmentMatches ? <Badge tone="success">matches</Badge> : <Badge tone="danger">does not match</Badge>}</dd>
+              <dd>
+                {verification.data.commitmentMatches ? (
+                  <Badge tone="success">matches</Badge>
+                ) : (
+                  <Badge tone="danger">does not match</Badge>
+                )}
+              </dd>
             </div>
             <div className="flex gap-1.5">
               <dt className="text-ink-muted">Matched</dt>
@@ -89,12 +104,18 @@ export function VerificationPanel({ studyId, conditions }: { studyId: string; co
               <h3 className="text-sm font-semibold">Enrollments that differ from their allocation</h3>
               <ul className="divide-y divide-line rounded-md border border-line">
                 {enrollmentMismatches.map((mismatch) => (
-                  <li key={mismatch.enrollmentId} className="flex flex-col gap-0.5 px-3 py-2 text-sm sm:flex-row sm:flex-wrap sm:items-baseline sm:gap-x-4">
-                    <span className="font-medium text-danger">{MISMATCH_REASONS[mismatch.reason] ?? mismatch.reason}</span>
+                  <li
+                    key={mismatch.enrollmentId}
+                    className="flex flex-col gap-0.5 px-3 py-2 text-sm sm:flex-row sm:flex-wrap sm:items-baseline sm:gap-x-4"
+                  >
+                    <span className="font-medium text-danger">
+                      {MISMATCH_REASONS[mismatch.reason] ?? mismatch.reason}
+                    </span>
                     <span className="font-mono text-xs break-all text-ink-muted">{mismatch.enrollmentId}</span>
                     <span>
-                      Recorded <span className="font-mono text-danger">{allocationText(conditions, mismatch.enrollment)}</span>, allocation{' '}
-                      <span className="font-mono">{allocationText(conditions, mismatch.allocation)}</span>
+                      Recorded{' '}
+                      <span className="font-mono text-danger">{allocationText(conditions, mismatch.enrollment)}</span>,
+                      allocation <span className="font-mono">{allocationText(conditions, mismatch.allocation)}</span>
                       {mismatch.expected && (
                         <>
                           , sequence <span className="font-mono">{allocationText(conditions, mismatch.expected)}</span>
@@ -112,11 +133,21 @@ export function VerificationPanel({ studyId, conditions }: { studyId: string; co
                 <caption className="sr-only">Assignments that differ from the derived sequence</caption>
                 <thead>
                   <tr>
-                    <th scope="col" className={tableRecipe.headCell}>Arrival</th>
-                    <th scope="col" className={tableRecipe.headCell}>Enrollment</th>
-                    <th scope="col" className={tableRecipe.headCell}>Stratum</th>
-                    <th scope="col" className={tableRecipe.headCell}>Sequence says</th>
-                    <th scope="col" className={tableRecipe.headCell}>Recorded</th>
+                    <th scope="col" className={tableRecipe.headCell}>
+                      Arrival
+                    </th>
+                    <th scope="col" className={tableRecipe.headCell}>
+                      Enrollment
+                    </th>
+                    <th scope="col" className={tableRecipe.headCell}>
+                      Stratum
+                    </th>
+                    <th scope="col" className={tableRecipe.headCell}>
+                      Sequence says
+                    </th>
+                    <th scope="col" className={tableRecipe.headCell}>
+                      Recorded
+                    </th>
                   </tr>
                 </thead>
                 <tbody>
@@ -126,7 +157,9 @@ export function VerificationPanel({ studyId, conditions }: { studyId: string; co
                       <td className={`${tableRecipe.cell} font-mono text-xs`}>{check.enrollmentId}</td>
                       <td className={tableRecipe.cell}>{stratumLabel(check.stratumKey)}</td>
                       <td className={`${tableRecipe.cell} font-mono`}>{allocationText(conditions, check.expected)}</td>
-                      <td className={`${tableRecipe.cell} font-mono text-danger`}>{allocationText(conditions, check.recorded)}</td>
+                      <td className={`${tableRecipe.cell} font-mono text-danger`}>
+                        {allocationText(conditions, check.recorded)}
+                      </td>
                     </tr>
                   ))}
                 </tbody>

@@ -28,7 +28,11 @@ export function conditionCode(conditions: readonly ArmCondition[], id: string): 
 }
 
 /** "A → C → B" for an order; the code (and name) for a single condition. */
-export function armLabel(conditions: readonly ArmCondition[], armId: string, label?: string): { code: string; name: string | null } {
+export function armLabel(
+  conditions: readonly ArmCondition[],
+  armId: string,
+  label?: string,
+): { code: string; name: string | null } {
   const order = orderOfArm(armId, label);
   if (order) return { code: order.map((id) => conditionCode(conditions, id)).join(' → '), name: null };
   const condition = conditions.find((c) => c.id === armId);

@@ -10,7 +10,13 @@ export type SchemeMethod =
   | 'latin-square'
   | 'williams';
 
-export const betweenMethods: readonly SchemeMethod[] = ['simple', 'permuted-blocks', 'stratified-blocks', 'minimization', 'matched-pairs'];
+export const betweenMethods: readonly SchemeMethod[] = [
+  'simple',
+  'permuted-blocks',
+  'stratified-blocks',
+  'minimization',
+  'matched-pairs',
+];
 export const withinMethods: readonly SchemeMethod[] = ['counterbalanced', 'latin-square', 'williams'];
 
 export function methodsFor(design: 'between' | 'within'): readonly SchemeMethod[] {
@@ -95,50 +101,89 @@ export function checkSchemeSettings(values: SchemeFormValues, context: SchemeCon
   const method = values.method;
   if (!method) return [{ path: 'method', message: 'Choose how participants are assigned.' }];
   if (!methodsFor(context.design).includes(method)) {
-    return [{ path: 'method', message: context.design === 'between' ? 'This method hands out orders; the study is between-subjects.' : 'A within-subjects study hands out orders: choose counterbalanced, Latin square or Williams.' }];
+    return [
+      {
+        path: 'method',
+        message:
+          context.design === 'between'
+            ? 'This method hands out orders; the study is between-subjects.'
+            : 'A within-subjects study hands out orders: choose counterbalanced, Latin square or Williams.',
+      },
+    ];
   }
   const conditionCount = context.conditionWeights.length;
   const factorCount = context.factors.length;
 
-  if (context.design === 'between' && conditionCount < 2) issues.push({ path: 'method', message: 'Add at least two conditions first.' });
+  if (context.design === 'between' && conditionCount < 2)
+    issues.push({ path: 'method', message: 'Add at least two conditions first.' });
 
   if (method === 'permuted-blocks' || method === 'stratified-blocks') {
     const sizes = parseWholeNumberList(values.blockSizes);
-    const problem = sizes.ok ? (conditionCount > 0 ? blockSizeProblem(sizes.values, context.conditionWeights) : null) : sizes.message;
+    const problem = sizes.ok
+      ? conditionCount > 0
+        ? blockSizeProblem(sizes.values, context.conditionWeights)
+        : null
+      : sizes.message;
     if (problem) issues.push({ path: 'blockSizes', message: problem });
   }
   if ((method === 'stratified-blocks' || method === 'minimization') && factorCount === 0) {
-    issues.push({ path: 'method', message: 'This method balances within stratification factors: add at least one factor first.' });
+    issues.push({
+      path: 'method',
+      message: 'This method balances within stratification factors: add at least one factor first.',
+    });
   }
   if (method === 'minimization') {
     const p = parseProbability(values.coinProbability);
     if (p === null || p < 0.5 || p > 1) {
-      issues.push({ path: 'coinProbability', message: 'Enter a probability from 0.5 (a fair coin, ignoring imbalance) to 1 (always the least-imbalanced condition), e.g. 2/3.' });
+      issues.push({
+        path: 'coinProbability',
+        message:
+          'Enter a probability from 0.5 (a fair coin, ignoring imbalance) to 1 (always the least-imbalanced condition), e.g. 2/3.',
+      });
     }
   }
   if (method === 'matched-pairs') {
-    if (conditionCount !== 2) issues.push({ path: 'method', message: `Matched pairs need exactly two conditions (this study has ${conditionCount}).` });
-    else if (context.conditionWeights[0] !== context.conditionWeights[1]) issues.push({ path: 'method', message: 'Matched pairs split each pair 1 : 1, so both conditions need the same weight.' });
+    if (conditionCount !== 2)
+      issues.push({
+        path: 'method',
+        message: `Matched pairs need exactly two conditions (this study has ${conditionCount}).`,
+      });
+    else if (context.conditionWeights[0] !== context.conditionWeights[1])
+      issues.push({
+        path: 'method',
+        message: 'Matched pairs split each pair 1 : 1, so both conditions need the same weight.',
+      });
     const pretest = context.factors.find((factor) => factor.key === values.pretestKey);
     if (!pretest || pretest.kind !== 'numeric') {
       issues.push({
         path: 'pretestKey',
-        message: context.factors.some((factor) => factor.kind === 'numeric') ? 'Choose the numeric pretest to pair people on.' : 'Add a numeric pretest as a stratification factor first.',
+        message: context.factors.some((factor) => factor.kind === 'numeric')
+          ? 'Choose the numeric pretest to pair people on.'
+          : 'Add a numeric pretest as a stratification factor first.',
       });
     }
   }
   if (method === 'counterbalanced' && conditionCount !== 2) {
-    issues.push({ path: 'method', message: `AB/BA counterbalancing needs exactly two conditions (this study has ${conditionCount}); use a Latin square or Williams design for three or more.` });
+    issues.push({
+      path: 'method',
+      message: `AB/BA counterbalancing needs exactly two conditions (this study has ${conditionCount}); use a Latin square or Williams design for three or more.`,
+    });
   }
   if ((method === 'latin-square' || method === 'williams') && conditionCount < 3) {
-    issues.push({ path: 'method', message: `This design needs at least three conditions (this study has ${conditionCount}); use counterbalancing for two.` });
+    issues.push({
+      path: 'method',
+      message: `This design needs at least three conditions (this study has ${conditionCount}); use counterbalancing for two.`,
+    });
   }
   if (withinMethods.includes(method)) {
     const squares = parseWholeNumberList(values.squaresPerBlock);
     if (!squares.ok) issues.push({ path: 'squaresPerBlock', message: squares.message });
-    else if (squares.values.some((count) => count > 100)) issues.push({ path: 'squaresPerBlock', message: 'Use at most 100 copies of the design per block.' });
-    else if (new Set(squares.values).size !== squares.values.length) issues.push({ path: 'squaresPerBlock', message: 'A size is listed twice; list each once.' });
-    if (values.stratify && factorCount === 0) issues.push({ path: 'stratify', message: 'There are no stratification factors to stratify by.' });
+    else if (squares.values.some((count) => count > 100))
+      issues.push({ path: 'squaresPerBlock', message: 'Use at most 100 copies of the design per block.' });
+    else if (new Set(squares.values).size !== squares.values.length)
+      issues.push({ path: 'squaresPerBlock', message: 'A size is listed twice; list each once.' });
+    if (values.stratify && factorCount === 0)
+      issues.push({ path: 'stratify', message: 'There are no stratification factors to stratify by.' });
   }
   return issues;
 }
@@ -172,15 +217,22 @@ function probabilityText(p: number | undefined): string {
 }
 
 /** Form values from what is saved (GET …/assignment `method` and `settings`), with sensible starting values. */
-export function schemeFormValuesFrom(method: string | null, settings: Record<string, unknown>, context: SchemeContext): SchemeFormValues {
+export function schemeFormValuesFrom(
+  method: string | null,
+  settings: Record<string, unknown>,
+  context: SchemeContext,
+): SchemeFormValues {
   const list = (value: unknown) => (Array.isArray(value) ? value.join(', ') : '');
   const total = totalWeight(context.conditionWeights);
   const firstNumeric = context.factors.find((factor) => factor.kind === 'numeric')?.key ?? '';
   return {
-    method: method && methodsFor(context.design).includes(method as SchemeMethod) ? (method as SchemeMethod) : undefined,
+    method:
+      method && methodsFor(context.design).includes(method as SchemeMethod) ? (method as SchemeMethod) : undefined,
     blockSizes: list(settings.blockSizes) || (total > 0 ? `${total}, ${total * 2}` : ''),
     measure: settings.measure === 'variance' ? 'variance' : 'range',
-    coinProbability: probabilityText(typeof settings.coinProbability === 'number' ? settings.coinProbability : undefined),
+    coinProbability: probabilityText(
+      typeof settings.coinProbability === 'number' ? settings.coinProbability : undefined,
+    ),
     pretestKey: typeof settings.pretestKey === 'string' ? settings.pretestKey : firstNumeric,
     squaresPerBlock: list(settings.squaresPerBlock) || '1',
     stratify: settings.stratify === true,

@@ -9,7 +9,8 @@ export async function getAuditFilters(): Promise<AuditFilterOptions> {
   return unwrap(apiClient.GET('/api/audit/filters'));
 }
 
-export const auditFiltersQueryOptions = () => queryOptions({ queryKey: [...auditKey, 'filters'], queryFn: getAuditFilters, staleTime: 60_000 });
+export const auditFiltersQueryOptions = () =>
+  queryOptions({ queryKey: [...auditKey, 'filters'], queryFn: getAuditFilters, staleTime: 60_000 });
 
 /** The families of action, staff members and studies the trail can be narrowed to. */
 export function useAuditFilters() {

@@ -3,7 +3,12 @@ import { Badge } from '@/components/ui/badge';
 import { cx } from '@/components/ui/cx';
 import type { AuditEvent } from '../api/get-audit-events';
 
-const dayFormat = new Intl.DateTimeFormat(undefined, { weekday: 'long', day: 'numeric', month: 'long', year: 'numeric' });
+const dayFormat = new Intl.DateTimeFormat(undefined, {
+  weekday: 'long',
+  day: 'numeric',
+  month: 'long',
+  year: 'numeric',
+});
 // Minutes are enough to read by; the exact moment is in the details.
 const timeFormat = new Intl.DateTimeFormat(undefined, { hour: '2-digit', minute: '2-digit' });
 
@@ -48,7 +53,9 @@ function EventEntry({ event, familyLabel }: { event: AuditEvent; familyLabel: st
       <div className="flex min-w-0 flex-1 flex-col gap-1">
         <p className="text-sm text-ink">{event.sentence}</p>
         <div className="flex flex-wrap items-center gap-x-2 gap-y-1 text-xs text-ink-muted">
-          <Badge tone={event.family === 'payouts' || event.family === 'funding' ? 'spruce' : 'neutral'}>{familyLabel}</Badge>
+          <Badge tone={event.family === 'payouts' || event.family === 'funding' ? 'spruce' : 'neutral'}>
+            {familyLabel}
+          </Badge>
           <span>{event.name}</span>
           <span aria-hidden="true">·</span>
           <span>{event.studyTitle ?? 'Lab-wide'}</span>

@@ -57,7 +57,11 @@ export function AuditFilters({ selection, options, onChange }: AuditFiltersProps
         </form>
         <Field className={fieldRecipe.field}>
           <Label className={fieldRecipe.label}>Study</Label>
-          <Select className={cx(inputRecipe, 'pr-8')} value={selection.chain ?? ''} onChange={(event) => set({ chain: event.target.value || null })}>
+          <Select
+            className={cx(inputRecipe, 'pr-8')}
+            value={selection.chain ?? ''}
+            onChange={(event) => set({ chain: event.target.value || null })}
+          >
             <option value="">Every study and the lab</option>
             <option value={labChain}>Lab-wide events only</option>
             {options?.studies.map((study) => (
@@ -69,7 +73,11 @@ export function AuditFilters({ selection, options, onChange }: AuditFiltersProps
         </Field>
         <Field className={fieldRecipe.field}>
           <Label className={fieldRecipe.label}>Staff member</Label>
-          <Select className={cx(inputRecipe, 'pr-8')} value={selection.staff ?? ''} onChange={(event) => set({ staff: event.target.value || null })}>
+          <Select
+            className={cx(inputRecipe, 'pr-8')}
+            value={selection.staff ?? ''}
+            onChange={(event) => set({ staff: event.target.value || null })}
+          >
             <option value="">Anyone</option>
             {options?.staff.map((person) => (
               <option key={person.id} value={person.id}>
@@ -80,15 +88,32 @@ export function AuditFilters({ selection, options, onChange }: AuditFiltersProps
         </Field>
         <Field className={fieldRecipe.field}>
           <Label className={fieldRecipe.label}>From</Label>
-          <Input type="date" className={inputRecipe} value={selection.from ?? ''} max={selection.to ?? undefined} onChange={(event) => set({ from: event.target.value || null })} />
+          <Input
+            type="date"
+            className={inputRecipe}
+            value={selection.from ?? ''}
+            max={selection.to ?? undefined}
+            onChange={(event) => set({ from: event.target.value || null })}
+          />
         </Field>
         <Field className={fieldRecipe.field}>
           <Label className={fieldRecipe.label}>To</Label>
-          <Input type="date" className={inputRecipe} value={selection.to ?? ''} min={selection.from ?? undefined} onChange={(event) => set({ to: event.target.value || null })} />
+          <Input
+            type="date"
+            className={inputRecipe}
+            value={selection.to ?? ''}
+            min={selection.from ?? undefined}
+            onChange={(event) => set({ to: event.target.value || null })}
+          />
         </Field>
       </div>
       <Fieldset className="flex flex-col gap-2">
-        <Legend className={fieldRecipe.label}>Kinds of action {selection.families.length === 0 && <span className="font-normal text-ink-muted">(all shown; tick some to narrow)</span>}</Legend>
+        <Legend className={fieldRecipe.label}>
+          Kinds of action{' '}
+          {selection.families.length === 0 && (
+            <span className="font-normal text-ink-muted">(all shown; tick some to narrow)</span>
+          )}
+        </Legend>
         <div className="grid grid-cols-2 gap-x-4 gap-y-1.5 sm:grid-cols-3 lg:grid-cols-5">
           {options?.families.map((family) => (
             <CheckboxField

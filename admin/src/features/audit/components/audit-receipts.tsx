@@ -15,7 +15,8 @@ export function AuditReceipts({ canSeal }: { canSeal: boolean }) {
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-center justify-between gap-2">
         <p className="max-w-prose text-sm text-ink-muted">
-          Keep the e-mailed copies: checking the trail against a receipt held outside Evenhand shows whether anything it sealed was later removed.
+          Keep the e-mailed copies: checking the trail against a receipt held outside Evenhand shows whether anything it
+          sealed was later removed.
         </p>
         {canSeal && (
           <Button variant="primary" pending={seal.isPending} onClick={() => seal.mutate()}>
@@ -26,17 +27,27 @@ export function AuditReceipts({ canSeal }: { canSeal: boolean }) {
       <div aria-live="polite" className="empty:hidden">
         {seal.isSuccess && (
           <Notice tone="info">
-            Receipt no. {seal.data.number} sealed {seal.data.chains.length} {seal.data.chains.length === 1 ? 'chain' : 'chains'}; it is on its way to the auditors.
+            Receipt no. {seal.data.number} sealed {seal.data.chains.length}{' '}
+            {seal.data.chains.length === 1 ? 'chain' : 'chains'}; it is on its way to the auditors.
           </Notice>
         )}
-        {seal.isError && <Notice>{seal.error instanceof ApiError ? seal.error.message : 'The receipt could not be sealed. Try again.'}</Notice>}
+        {seal.isError && (
+          <Notice>
+            {seal.error instanceof ApiError ? seal.error.message : 'The receipt could not be sealed. Try again.'}
+          </Notice>
+        )}
       </div>
       {receipts.isPending ? (
         <LoadingState label="Loading receipts…" />
       ) : receipts.isError ? (
-        <ErrorState message={receipts.error instanceof ApiError ? receipts.error.message : 'The receipts could not be loaded.'} onRetry={() => void receipts.refetch()} />
+        <ErrorState
+          message={receipts.error instanceof ApiError ? receipts.error.message : 'The receipts could not be loaded.'}
+          onRetry={() => void receipts.refetch()}
+        />
       ) : receipts.data.length === 0 ? (
-        <p className="text-sm text-ink-muted">No receipt yet. One is sealed every hour when the trail has moved, or now with the button above.</p>
+        <p className="text-sm text-ink-muted">
+          No receipt yet. One is sealed every hour when the trail has moved, or now with the button above.
+        </p>
       ) : (
         <ul aria-label="Audit receipts" className="divide-y divide-line rounded-md border border-line">
           {receipts.data.slice(0, 8).map((receipt) => (
@@ -46,9 +57,15 @@ export function AuditReceipts({ canSeal }: { canSeal: boolean }) {
                 {momentFormat.format(new Date(receipt.issuedAt))}
               </time>
               <span className="text-ink-muted">
-                {receipt.reason === 'on-demand' ? 'sealed on request' : 'sealed on schedule'} · {receipt.chains} {receipt.chains === 1 ? 'chain' : 'chains'}
+                {receipt.reason === 'on-demand' ? 'sealed on request' : 'sealed on schedule'} · {receipt.chains}{' '}
+                {receipt.chains === 1 ? 'chain' : 'chains'}
               </span>
-              <a href={receiptHref(receipt.id)} download aria-label={`Download receipt no. ${receipt.number}`} className={cx(buttonRecipe.base, buttonRecipe.sizes.compact, buttonRecipe.variants.quiet, 'ml-auto')}>
+              <a
+                href={receiptHref(receipt.id)}
+                download
+                aria-label={`Download receipt no. ${receipt.number}`}
+                className={cx(buttonRecipe.base, buttonRecipe.sizes.compact, buttonRecipe.variants.quiet, 'ml-auto')}
+              >
                 Download
               </a>
             </li>

@@ -37,14 +37,35 @@ const filters = {
     { key: 'payouts', label: 'Payouts', description: '' },
     { key: 'funding', label: 'Funding', description: '' },
   ],
-  staff: [{ id: coordinatorId, name: 'Corin Vasquez-Hale', email: 'coordinator@evenhand.test', role: 'coordinator', phrase: 'Coordinator C. Vasquez-Hale' }],
+  staff: [
+    {
+      id: coordinatorId,
+      name: 'Corin Vasquez-Hale',
+      email: 'coordinator@evenhand.test',
+      role: 'coordinator',
+      phrase: 'Coordinator C. Vasquez-Hale',
+    },
+  ],
   studies: [{ id: wayfinding, title: 'Wayfinding cues', slug: 'wayfinding-cues' }],
 };
 
 const base = {
   'GET /api/audit': { status: 200, body: { items: [approval], total: 1, page: 1, pageSize: 50 } },
   'GET /api/audit/filters': { status: 200, body: filters },
-  'GET /api/audit/receipts': { status: 200, body: { items: [{ id: 'f1e2d3c4-0000-4000-8000-000000000004', number: 4, issuedAt: '2026-12-01T20:17:00.000Z', reason: 'scheduled', chains: 3 }] } },
+  'GET /api/audit/receipts': {
+    status: 200,
+    body: {
+      items: [
+        {
+          id: 'f1e2d3c4-0000-4000-8000-000000000004',
+          number: 4,
+          issuedAt: '2026-12-01T20:17:00.000Z',
+          reason: 'scheduled',
+          chains: 3,
+        },
+      ],
+    },
+  },
 };
 
 describe('AuditTrail', { timeout: 15_000 }, () => {
@@ -52,11 +73,15 @@ describe('AuditTrail', { timeout: 15_000 }, () => {
     stubApi(base);
     renderWithProviders(<AuditTrail canSeal />);
 
-    expect(await screen.findByText('Coordinator C. Vasquez-Hale approved 3 payouts, $36.00 in all.')).toBeInTheDocument();
+    expect(
+      await screen.findByText('Coordinator C. Vasquez-Hale approved 3 payouts, $36.00 in all.'),
+    ).toBeInTheDocument();
     expect(screen.queryByText('payout.approved')).not.toBeInTheDocument();
     expect(screen.queryByText(approval.hash)).not.toBeInTheDocument();
 
-    const toggle = screen.getByRole('button', { name: 'Details of “Coordinator C. Vasquez-Hale approved 3 payouts, $36.00 in all.”' });
+    const toggle = screen.getByRole('button', {
+      name: 'Details of “Coordinator C. Vasquez-Hale approved 3 payouts, $36.00 in all.”',
+    });
     await userEvent.click(toggle);
 
     expect(toggle).toHaveAttribute('aria-expanded', 'true');
@@ -72,7 +97,10 @@ describe('AuditTrail', { timeout: 15_000 }, () => {
 
     await userEvent.type(screen.getByLabelText('Participant reference'), 'p-7kq2xa');
     await userEvent.click(screen.getByRole('button', { name: 'Show' }));
-    await userEvent.selectOptions(screen.getByLabelText('Staff member'), 'Coordinator C. Vasquez-Hale (coordinator@evenhand.test)');
+    await userEvent.selectOptions(
+      screen.getByLabelText('Staff member'),
+      'Coordinator C. Vasquez-Hale (coordinator@evenhand.test)',
+    );
     await userEvent.click(screen.getByRole('checkbox', { name: 'Payouts' }));
     await userEvent.click(screen.getByRole('checkbox', { name: 'Funding' }));
 
@@ -84,8 +112,13 @@ describe('AuditTrail', { timeout: 15_000 }, () => {
     expect(last.get('page')).toBe('1');
 
     const csv = screen.getByRole('link', { name: 'Export as CSV' });
-    expect(csv).toHaveAttribute('href', `/api/audit/export.csv?participant=p-7kq2xa&staff=${coordinatorId}&family=payouts&family=funding`);
-    expect(screen.getByRole('link', { name: 'Verification summary' }).getAttribute('href')).toMatch(/^\/api\/audit\/export-summary\.txt\?participant=p-7kq2xa&/);
+    expect(csv).toHaveAttribute(
+      'href',
+      `/api/audit/export.csv?participant=p-7kq2xa&staff=${coordinatorId}&family=payouts&family=funding`,
+    );
+    expect(screen.getByRole('link', { name: 'Verification summary' }).getAttribute('href')).toMatch(
+      /^\/api\/audit\/export-summary\.txt\?participant=p-7kq2xa&/,
+    );
   });
 
   it('says in words whether the trail is intact, naming the first failing event', async () => {
@@ -96,7 +129,13 @@ describe('AuditTrail', { timeout: 15_000 }, () => {
         body: {
           intact: false,
           checkedAt: '2026-12-01T19:50:00.000Z',
-          receipt: { id: 'f1e2d3c4-0000-4000-8000-000000000004', number: 4, issuedAt: '2026-12-01T20:17:00.000Z', source: 'latest', valid: true },
+          receipt: {
+            id: 'f1e2d3c4-0000-4000-8000-000000000004',
+            number: 4,
+            issuedAt: '2026-12-01T20:17:00.000Z',
+            source: 'latest',
+            valid: true,
+          },
           chains: [
             { chain: wayfinding, events: 231, intact: false, firstBreak: { sequence: 17, reason: 'hash-mismatch' } },
             { chain: 'lab', events: 3, intact: true, firstBreak: null },
@@ -108,7 +147,11 @@ describe('AuditTrail', { timeout: 15_000 }, () => {
               sequence: 17,
               reason: 'hash-mismatch',
               message: `event 17 of chain ${wayfinding} does not match its keyed hash: a stored column was changed after it was written.`,
-              event: { at: '2026-12-01T10:00:00.000Z', name: 'Payouts approved', sentence: 'Coordinator C. Vasquez-Hale approved 3 payouts, $36.00 in all.' },
+              event: {
+                at: '2026-12-01T10:00:00.000Z',
+                name: 'Payouts approved',
+                sentence: 'Coordinator C. Vasquez-Hale approved 3 payouts, $36.00 in all.',
+              },
             },
           ],
         },
@@ -122,7 +165,9 @@ describe('AuditTrail', { timeout: 15_000 }, () => {
     expect(screen.getByText(/Checked against audit receipt no\. 4 of/)).toBeInTheDocument();
     const failed = within(screen.getByRole('list', { name: 'What failed' })).getByRole('listitem');
     expect(failed).toHaveTextContent('Wayfinding cues, event 17');
-    expect(failed).toHaveTextContent('First failing event: “Coordinator C. Vasquez-Hale approved 3 payouts, $36.00 in all.”');
+    expect(failed).toHaveTextContent(
+      'First failing event: “Coordinator C. Vasquez-Hale approved 3 payouts, $36.00 in all.”',
+    );
     const [study, lab] = within(screen.getByRole('list', { name: 'Chains checked' })).getAllByRole('listitem');
     expect(study).toHaveTextContent('BrokenWayfinding cues231 events');
     expect(lab).toHaveTextContent('IntactLab-wide3 events');
@@ -131,7 +176,20 @@ describe('AuditTrail', { timeout: 15_000 }, () => {
   it('lists receipts to download and seals a new one on request', async () => {
     const { requests } = stubApi({
       ...base,
-      'POST /api/audit/receipts': { status: 201, body: { format: 'evenhand-audit-receipt/1', id: 'r5', number: 5, issuedAt: '2026-12-01T21:00:00.000Z', reason: 'on-demand', previous: null, chains: [{}, {}], keyId: 'dev-1', mac: 'ab' } },
+      'POST /api/audit/receipts': {
+        status: 201,
+        body: {
+          format: 'evenhand-audit-receipt/1',
+          id: 'r5',
+          number: 5,
+          issuedAt: '2026-12-01T21:00:00.000Z',
+          reason: 'on-demand',
+          previous: null,
+          chains: [{}, {}],
+          keyId: 'dev-1',
+          mac: 'ab',
+        },
+      },
     });
     renderWithProviders(<AuditTrail canSeal />);
 

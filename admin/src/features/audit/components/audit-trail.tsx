@@ -29,8 +29,14 @@ export function AuditTrail({ canSeal }: AuditTrailProps) {
   const page = parsePageParam(searchParams.get('page'));
   const events = useAuditEvents(selection, page, pageSize);
   const filters = useAuditFilters();
-  const studyTitles = useMemo(() => new Map((filters.data?.studies ?? []).map((study) => [study.id, study.title])), [filters.data]);
-  const familyLabels = useMemo(() => new Map((filters.data?.families ?? []).map((family) => [family.key as string, family.label])), [filters.data]);
+  const studyTitles = useMemo(
+    () => new Map((filters.data?.studies ?? []).map((study) => [study.id, study.title])),
+    [filters.data],
+  );
+  const familyLabels = useMemo(
+    () => new Map((filters.data?.families ?? []).map((family) => [family.key as string, family.label])),
+    [filters.data],
+  );
 
   // Each change starts from the newest address, so quick clicks in a row all count.
   const select = (change: (current: AuditSelection) => AuditSelection) =>
@@ -61,7 +67,10 @@ export function AuditTrail({ canSeal }: AuditTrailProps) {
     <div className="flex flex-col gap-5">
       <div className="grid gap-4 lg:grid-cols-2">
         <Panel id="integrity" title="Is the trail as it was written?">
-          <IntegrityCheck studyTitles={studyTitles} onShowChain={(chain) => select((current) => ({ ...current, chain }))} />
+          <IntegrityCheck
+            studyTitles={studyTitles}
+            onShowChain={(chain) => select((current) => ({ ...current, chain }))}
+          />
         </Panel>
         <Panel id="receipts" title="Audit receipts">
           <AuditReceipts canSeal={canSeal} />
@@ -74,18 +83,31 @@ export function AuditTrail({ canSeal }: AuditTrailProps) {
             What happened
           </h2>
           <div className="flex flex-wrap items-center gap-2">
-            {filtered && <Button onClick={() => updateSearchParams(() => new URLSearchParams(), { replace: true })}>Clear filters</Button>}
-            <a href={exportHref('/api/audit/export.csv', selection)} download className={cx(buttonRecipe.base, buttonRecipe.sizes.regular, buttonRecipe.variants.primary)}>
+            {filtered && (
+              <Button onClick={() => updateSearchParams(() => new URLSearchParams(), { replace: true })}>
+                Clear filters
+              </Button>
+            )}
+            <a
+              href={exportHref('/api/audit/export.csv', selection)}
+              download
+              className={cx(buttonRecipe.base, buttonRecipe.sizes.regular, buttonRecipe.variants.primary)}
+            >
               Export as CSV
             </a>
-            <a href={exportHref('/api/audit/export-summary.txt', selection)} download className={cx(buttonRecipe.base, buttonRecipe.sizes.regular, buttonRecipe.variants.secondary)}>
+            <a
+              href={exportHref('/api/audit/export-summary.txt', selection)}
+              download
+              className={cx(buttonRecipe.base, buttonRecipe.sizes.regular, buttonRecipe.variants.secondary)}
+            >
               Verification summary
             </a>
           </div>
         </div>
         <AuditFilters selection={selection} options={filters.data} onChange={select} />
         <p className="text-xs text-ink-muted">
-          The export holds every event of this selection (not only this page); the summary names the file’s SHA-256 and the receipt it was checked against.
+          The export holds every event of this selection (not only this page); the summary names the file’s SHA-256 and
+          the receipt it was checked against.
         </p>
 
         {events.isPending ? (
@@ -97,18 +119,30 @@ export function AuditTrail({ canSeal }: AuditTrailProps) {
           />
         ) : events.data.items.length === 0 ? (
           page > 1 ? (
-            <EmptyState title={`Page ${page} is empty`} action={<Button onClick={() => goToPage(1)}>Go to the first page</Button>}>
+            <EmptyState
+              title={`Page ${page} is empty`}
+              action={<Button onClick={() => goToPage(1)}>Go to the first page</Button>}
+            >
               The list is shorter than this page.
             </EmptyState>
           ) : (
             <EmptyState title={filtered ? 'Nothing matches' : 'Nothing recorded yet'}>
-              {filtered ? 'No event fits every filter. Widen the dates, tick more kinds of action, or check the participant reference.' : 'Events appear here from the first sign-in.'}
+              {filtered
+                ? 'No event fits every filter. Widen the dates, tick more kinds of action, or check the participant reference.'
+                : 'Events appear here from the first sign-in.'}
             </EmptyState>
           )
         ) : (
           <>
             <AuditEventList events={events.data.items} familyLabels={familyLabels} busy={events.isFetching} />
-            <Pager label="Audit trail pages" noun={['event', 'events']} pageSize={pageSize} total={events.data.total} page={page} onPage={goToPage} />
+            <Pager
+              label="Audit trail pages"
+              noun={['event', 'events']}
+              pageSize={pageSize}
+              total={events.data.total}
+              page={page}
+              onPage={goToPage}
+            />
           </>
         )}
       </section>

@@ -20,7 +20,8 @@ export function IntegrityCheck({ studyTitles, onShowChain }: IntegrityCheckProps
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-center justify-between gap-2">
         <p className="max-w-prose text-sm text-ink-muted">
-          Every event is sealed with a key held outside the database and linked to the one before it; receipts anchor the newest ones.
+          Every event is sealed with a key held outside the database and linked to the one before it; receipts anchor
+          the newest ones.
         </p>
         <Button variant="primary" pending={verify.isPending} onClick={() => verify.mutate()}>
           Check the trail
@@ -28,7 +29,9 @@ export function IntegrityCheck({ studyTitles, onShowChain }: IntegrityCheckProps
       </div>
       <div aria-live="polite" className="empty:hidden">
         {verify.isError ? (
-          <Notice>{verify.error instanceof ApiError ? verify.error.message : 'The check could not be run. Try again.'}</Notice>
+          <Notice>
+            {verify.error instanceof ApiError ? verify.error.message : 'The check could not be run. Try again.'}
+          </Notice>
         ) : verify.data ? (
           <Verdict result={verify.data} studyTitles={studyTitles} onShowChain={onShowChain} />
         ) : null}
@@ -49,21 +52,28 @@ function Verdict({ result, studyTitles, onShowChain }: { result: AuditVerificati
     <div className="flex flex-col gap-2">
       {result.intact ? (
         <Notice tone="info">
-          <span className="font-semibold">Intact.</span> Every event in {count === 1 ? 'the one chain' : `all ${count} chains`} is as it was written, and nothing sealed by a receipt is
-          missing. {receiptWords(result.receipt)}
+          <span className="font-semibold">Intact.</span> Every event in{' '}
+          {count === 1 ? 'the one chain' : `all ${count} chains`} is as it was written, and nothing sealed by a receipt
+          is missing. {receiptWords(result.receipt)}
         </Notice>
       ) : (
         <Notice>
-          <span className="font-semibold">Not intact.</span> {result.findings.length === 1 ? 'One problem was' : `${result.findings.length} problems were`} found.{' '}
+          <span className="font-semibold">Not intact.</span>{' '}
+          {result.findings.length === 1 ? 'One problem was' : `${result.findings.length} problems were`} found.{' '}
           {receiptWords(result.receipt)}
         </Notice>
       )}
       {result.findings.length > 0 && (
         <ol aria-label="What failed" className="flex flex-col gap-2">
           {result.findings.map((finding) => (
-            <li key={`${finding.chain}-${finding.sequence}-${finding.reason}`} className="rounded-md border border-danger/30 px-3 py-2 text-sm">
+            <li
+              key={`${finding.chain}-${finding.sequence}-${finding.reason}`}
+              className="rounded-md border border-danger/30 px-3 py-2 text-sm"
+            >
               <p className="font-medium text-danger">
-                {finding.chain ? `${finding.studyTitle ?? chainLabel(finding.chain, studyTitles)}, event ${finding.sequence ?? '?'}` : 'The receipt'}
+                {finding.chain
+                  ? `${finding.studyTitle ?? chainLabel(finding.chain, studyTitles)}, event ${finding.sequence ?? '?'}`
+                  : 'The receipt'}
               </p>
               {finding.event && <p className="text-ink">First failing event: “{finding.event.sentence}”</p>}
               <p className="text-ink-muted">{finding.message}</p>

@@ -43,7 +43,10 @@ export function selectionQuery(selection: AuditSelection) {
 }
 
 /** An export link for the current selection, e.g. `/api/audit/export.csv?chain=…&family=payouts&family=steps`. */
-export function exportHref(path: '/api/audit/export.csv' | '/api/audit/export-summary.txt', selection: AuditSelection): string {
+export function exportHref(
+  path: '/api/audit/export.csv' | '/api/audit/export-summary.txt',
+  selection: AuditSelection,
+): string {
   const params = new URLSearchParams();
   for (const [key, value] of Object.entries(selectionQuery(selection))) {
     for (const item of Array.isArray(value) ? value : [value]) params.append(key, item);
@@ -53,7 +56,14 @@ export function exportHref(path: '/api/audit/export.csv' | '/api/audit/export-su
 }
 
 export function isFiltered(selection: AuditSelection): boolean {
-  return Boolean(selection.chain || selection.participant || selection.staff || selection.from || selection.to || selection.families.length);
+  return Boolean(
+    selection.chain ||
+    selection.participant ||
+    selection.staff ||
+    selection.from ||
+    selection.to ||
+    selection.families.length,
+  );
 }
 
 /** A chain as staff know it: the study's title, or "Lab-wide" for events outside any study. */

@@ -4,7 +4,11 @@ import { apiClient, unwrap } from '@/lib/api-client';
 import { meQueryKey, type Me } from './get-me';
 
 export const signInInputSchema = z.object({
-  email: z.string().trim().min(1, 'Enter your e-mail address.').pipe(z.email('Enter a valid e-mail address, like name@lab.org.')),
+  email: z
+    .string()
+    .trim()
+    .min(1, 'Enter your e-mail address.')
+    .pipe(z.email('Enter a valid e-mail address, like name@lab.org.')),
   password: z.string().min(1, 'Enter your password.'),
 });
 
@@ -12,8 +16,21 @@ export type SignInInput = z.infer<typeof signInInputSchema> & { code?: string; r
 
 /** The second step, when the account has two-factor sign-in on: a 6-digit code, or one recovery code. */
 export const secondFactorSchema = z.discriminatedUnion('kind', [
-  z.object({ kind: z.literal('code'), value: z.string().trim().regex(/^\d{3}\s?\d{3}$/, 'Enter the 6 digits your authenticator app shows.') }),
-  z.object({ kind: z.literal('recovery-code'), value: z.string().trim().min(1, 'Enter one of your recovery codes.').max(40, 'That is longer than a recovery code.') }),
+  z.object({
+    kind: z.literal('code'),
+    value: z
+      .string()
+      .trim()
+      .regex(/^\d{3}\s?\d{3}$/, 'Enter the 6 digits your authenticator app shows.'),
+  }),
+  z.object({
+    kind: z.literal('recovery-code'),
+    value: z
+      .string()
+      .trim()
+      .min(1, 'Enter one of your recovery codes.')
+      .max(40, 'That is longer than a recovery code.'),
+  }),
 ]);
 export type SecondFactorInput = z.infer<typeof secondFactorSchema>;
 

@@ -5,7 +5,15 @@ import { stubApi } from '@/test/api-stub';
 import { renderWithProviders } from '@/test/render-with-providers';
 import { SignInForm } from './sign-in-form';
 
-const coordinator = { id: '5b0c3c36-6d5e-4a43-9a57-3f2f8f3f1a11', email: 'coordinator@evenhand.test', name: 'Robin Okafor-Lind', role: 'coordinator', active: true, twoFactorEnabled: false, twoFactorSetupNeeded: false };
+const coordinator = {
+  id: '5b0c3c36-6d5e-4a43-9a57-3f2f8f3f1a11',
+  email: 'coordinator@evenhand.test',
+  name: 'Robin Okafor-Lind',
+  role: 'coordinator',
+  active: true,
+  twoFactorEnabled: false,
+  twoFactorSetupNeeded: false,
+};
 
 describe('SignInForm', () => {
   it('names each missing field and sends nothing', async () => {
@@ -42,7 +50,11 @@ describe('SignInForm', () => {
 
     await waitFor(() => expect(onSignedIn).toHaveBeenCalledWith(coordinator));
     expect(requests).toEqual([
-      expect.objectContaining({ method: 'POST', path: '/api/auth/sign-in', body: { email: 'coordinator@evenhand.test', password: 'evenhand-demo' } }),
+      expect.objectContaining({
+        method: 'POST',
+        path: '/api/auth/sign-in',
+        body: { email: 'coordinator@evenhand.test', password: 'evenhand-demo' },
+      }),
     ]);
   });
 
@@ -69,7 +81,11 @@ describe('SignInForm', () => {
     stubApi({
       'POST /api/auth/sign-in': {
         status: 429,
-        body: { statusCode: 429, code: 'RATE_LIMITED', message: 'Too many sign-in attempts. Wait a minute and try again.' },
+        body: {
+          statusCode: 429,
+          code: 'RATE_LIMITED',
+          message: 'Too many sign-in attempts. Wait a minute and try again.',
+        },
       },
     });
     renderWithProviders(<SignInForm onSignedIn={vi.fn()} />);
@@ -78,7 +94,9 @@ describe('SignInForm', () => {
     await userEvent.type(screen.getByLabelText('Password'), 'evenhand-demo');
     await userEvent.click(screen.getByRole('button', { name: 'Sign in' }));
 
-    expect(await screen.findByRole('alert')).toHaveTextContent('Too many sign-in attempts. Wait a minute and try again.');
+    expect(await screen.findByRole('alert')).toHaveTextContent(
+      'Too many sign-in attempts. Wait a minute and try again.',
+    );
   });
 
   it('asks for the authenticator code after a right password, then for a recovery code when chosen', async () => {
@@ -87,9 +105,19 @@ describe('SignInForm', () => {
         const body = request.body as { code?: string; recoveryCode?: string };
         if (body.recoveryCode === 'abcde-fghjk') return { status: 200, body: { user: coordinator } };
         if (body.code || body.recoveryCode) {
-          return { status: 401, body: { statusCode: 401, code: 'TWO_FACTOR_INVALID', message: 'That code is not right, or it was used already.' } };
+          return {
+            status: 401,
+            body: {
+              statusCode: 401,
+              code: 'TWO_FACTOR_INVALID',
+              message: 'That code is not right, or it was used already.',
+            },
+          };
         }
-        return { status: 401, body: { statusCode: 401, code: 'TWO_FACTOR_REQUIRED', message: 'Enter the 6-digit code.' } };
+        return {
+          status: 401,
+          body: { statusCode: 401, code: 'TWO_FACTOR_REQUIRED', message: 'Enter the 6-digit code.' },
+        };
       },
     });
     const onSignedIn = vi.fn();

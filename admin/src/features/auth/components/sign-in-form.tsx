@@ -6,7 +6,13 @@ import { Notice } from '@/components/ui/states';
 import { TextField } from '@/components/ui/text-field';
 import { ApiError } from '@/lib/api-error';
 import type { Me } from '../api/get-me';
-import { secondFactorSchema, signInInputSchema, useSignIn, type SecondFactorInput, type SignInInput } from '../api/sign-in';
+import {
+  secondFactorSchema,
+  signInInputSchema,
+  useSignIn,
+  type SecondFactorInput,
+  type SignInInput,
+} from '../api/sign-in';
 
 export interface SignInFormProps {
   onSignedIn: (user: Me) => void;
@@ -23,11 +29,17 @@ function describeFailure(error: unknown): string {
 /** Password first; when the account has two-factor sign-in on, the api asks for a code and the form shows step two. */
 export function SignInForm({ onSignedIn }: SignInFormProps) {
   const [credentials, setCredentials] = useState<SignInInput | null>(null);
-  if (credentials) return <SecondFactorForm credentials={credentials} onSignedIn={onSignedIn} onStartOver={() => setCredentials(null)} />;
+  if (credentials)
+    return (
+      <SecondFactorForm credentials={credentials} onSignedIn={onSignedIn} onStartOver={() => setCredentials(null)} />
+    );
   return <PasswordForm onSignedIn={onSignedIn} onCodeAsked={setCredentials} />;
 }
 
-function PasswordForm({ onSignedIn, onCodeAsked }: SignInFormProps & { onCodeAsked: (credentials: SignInInput) => void }) {
+function PasswordForm({
+  onSignedIn,
+  onCodeAsked,
+}: SignInFormProps & { onCodeAsked: (credentials: SignInInput) => void }) {
   const signIn = useSignIn();
   const {
     register,
@@ -54,7 +66,13 @@ function PasswordForm({ onSignedIn, onCodeAsked }: SignInFormProps & { onCodeAsk
           {describeFailure(signIn.error)}
         </Notice>
       )}
-      <TextField label="E-mail" type="email" autoComplete="username" error={errors.email?.message} {...register('email')} />
+      <TextField
+        label="E-mail"
+        type="email"
+        autoComplete="username"
+        error={errors.email?.message}
+        {...register('email')}
+      />
       <TextField
         label="Password"
         type="password"
@@ -69,7 +87,11 @@ function PasswordForm({ onSignedIn, onCodeAsked }: SignInFormProps & { onCodeAsk
   );
 }
 
-function SecondFactorForm({ credentials, onSignedIn, onStartOver }: SignInFormProps & { credentials: SignInInput; onStartOver: () => void }) {
+function SecondFactorForm({
+  credentials,
+  onSignedIn,
+  onStartOver,
+}: SignInFormProps & { credentials: SignInInput; onStartOver: () => void }) {
   const signIn = useSignIn();
   const {
     register,
@@ -78,7 +100,10 @@ function SecondFactorForm({ credentials, onSignedIn, onStartOver }: SignInFormPr
     setValue,
     setFocus,
     formState: { errors },
-  } = useForm<SecondFactorInput>({ resolver: zodResolver(secondFactorSchema), defaultValues: { kind: 'code', value: '' } });
+  } = useForm<SecondFactorInput>({
+    resolver: zodResolver(secondFactorSchema),
+    defaultValues: { kind: 'code', value: '' },
+  });
   const kind = watch('kind');
   // The second step (and each switch of kind) puts the caret in the one field it asks for.
   useEffect(() => setFocus('value'), [kind, setFocus]);
@@ -100,15 +125,17 @@ function SecondFactorForm({ credentials, onSignedIn, onStartOver }: SignInFormPr
       <p className="text-sm text-ink-muted">
         {kind === 'code' ? (
           <>
-            Your account asks for a second step. Open your authenticator app and enter the 6-digit code it shows for Evenhand (
-            <span className="break-all">{credentials.email}</span>).
+            Your account asks for a second step. Open your authenticator app and enter the 6-digit code it shows for
+            Evenhand (<span className="break-all">{credentials.email}</span>).
           </>
         ) : (
           'Enter one of the recovery codes you saved when you turned on two-factor sign-in. Each code works once.'
         )}
       </p>
       {signIn.isError && (
-        <Notice tone={signIn.error instanceof ApiError && signIn.error.statusCode === 429 ? 'caution' : 'danger'}>{describeFailure(signIn.error)}</Notice>
+        <Notice tone={signIn.error instanceof ApiError && signIn.error.statusCode === 429 ? 'caution' : 'danger'}>
+          {describeFailure(signIn.error)}
+        </Notice>
       )}
       {kind === 'code' ? (
         <TextField
@@ -121,16 +148,31 @@ function SecondFactorForm({ credentials, onSignedIn, onStartOver }: SignInFormPr
           {...register('value')}
         />
       ) : (
-        <TextField key="recovery" label="Recovery code" autoComplete="off" spellCheck={false} error={errors.value?.message} {...register('value')} />
+        <TextField
+          key="recovery"
+          label="Recovery code"
+          autoComplete="off"
+          spellCheck={false}
+          error={errors.value?.message}
+          {...register('value')}
+        />
       )}
       <Button type="submit" variant="primary" pending={signIn.isPending} className="mt-1 w-full">
         {signIn.isPending ? 'Checking…' : 'Sign in'}
       </Button>
       <div className="flex flex-wrap justify-between gap-2 text-sm">
-        <button type="button" onClick={switchKind} className="font-medium text-spruce-ink underline underline-offset-2 hover:text-spruce">
+        <button
+          type="button"
+          onClick={switchKind}
+          className="font-medium text-spruce-ink underline underline-offset-2 hover:text-spruce"
+        >
           {kind === 'code' ? 'Use a recovery code instead' : 'Use a code from the app instead'}
         </button>
-        <button type="button" onClick={onStartOver} className="text-ink-muted underline underline-offset-2 hover:text-ink">
+        <button
+          type="button"
+          onClick={onStartOver}
+          className="text-ink-muted underline underline-offset-2 hover:text-ink"
+        >
           Start over
         </button>
       </div>

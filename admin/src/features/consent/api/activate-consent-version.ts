@@ -6,7 +6,9 @@ import { consentVersionsKey, type ConsentVersion } from './get-consent-versions'
 
 export async function activateConsentVersion(studyId: string, versionId: string): Promise<ConsentVersion> {
   const activated = await unwrap(
-    apiClient.POST('/api/studies/{studyId}/consent-versions/{versionId}/activate', { params: { path: { studyId, versionId } } }),
+    apiClient.POST('/api/studies/{studyId}/consent-versions/{versionId}/activate', {
+      params: { path: { studyId, versionId } },
+    }),
   );
   return activated as ConsentVersion;
 }

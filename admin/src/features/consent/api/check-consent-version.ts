@@ -8,7 +8,9 @@ export type ConsentFinding = components['schemas']['ConsentFindingDto'];
 /** Runs the required-elements check on the saved text of a version. */
 export async function checkConsentVersion(studyId: string, versionId: string): Promise<ConsentCheck> {
   return unwrap(
-    apiClient.POST('/api/studies/{studyId}/consent-versions/{versionId}/check', { params: { path: { studyId, versionId } } }),
+    apiClient.POST('/api/studies/{studyId}/consent-versions/{versionId}/check', {
+      params: { path: { studyId, versionId } },
+    }),
   );
 }
 

@@ -14,7 +14,10 @@ const optionalWholeNumber = (label: string) =>
     .string()
     .trim()
     .refine((value) => value === '' || /^\d+$/.test(value), `Enter ${label} as a whole number, or leave it blank.`)
-    .refine((value) => value === '' || Number(value) >= 1, `${label[0]?.toUpperCase()}${label.slice(1)} must be at least 1.`);
+    .refine(
+      (value) => value === '' || Number(value) >= 1,
+      `${label[0]?.toUpperCase()}${label.slice(1)} must be at least 1.`,
+    );
 
 // Limits mirror ConsentFieldsDto in api/src/consent/dto/consent.dto.ts; shared with filling a draft in again.
 export const consentValuesInputSchema = z.object({
@@ -23,7 +26,10 @@ export const consentValuesInputSchema = z.object({
   contactEmail: z
     .string()
     .trim()
-    .refine((value) => value === '' || z.email().safeParse(value).success, 'Enter a valid e-mail address, like study@lab.org, or leave it blank.'),
+    .refine(
+      (value) => value === '' || z.email().safeParse(value).success,
+      'Enter a valid e-mail address, like study@lab.org, or leave it blank.',
+    ),
   contactPhone: optionalText(60, 'the telephone number'),
   ethicsBoardName: optionalText(200, 'the ethics board’s name'),
   ethicsBoardContact: optionalText(300, 'the ethics board’s contact'),
@@ -43,7 +49,16 @@ export const newConsentDraftInputSchema = consentValuesInputSchema.extend({
 
 export type NewConsentDraftInput = z.infer<typeof newConsentDraftInputSchema>;
 
-const textValueFields = ['institutionName', 'investigatorName', 'contactEmail', 'contactPhone', 'ethicsBoardName', 'ethicsBoardContact', 'studyPurpose', 'paymentMethod'] as const;
+const textValueFields = [
+  'institutionName',
+  'investigatorName',
+  'contactEmail',
+  'contactPhone',
+  'ethicsBoardName',
+  'ethicsBoardContact',
+  'studyPurpose',
+  'paymentMethod',
+] as const;
 
 /** The form's starting point from stored template values (a blank form when there are none). */
 export function consentValuesInput(stored: ConsentTemplateValues = {}): ConsentValuesInput {
@@ -55,7 +70,10 @@ export function consentValuesInput(stored: ConsentTemplateValues = {}): ConsentV
   return input;
 }
 
-export const emptyConsentDraftInput = (templateId: string): NewConsentDraftInput => ({ templateId, ...consentValuesInput() });
+export const emptyConsentDraftInput = (templateId: string): NewConsentDraftInput => ({
+  templateId,
+  ...consentValuesInput(),
+});
 
 /** The template values to send: blanks are left out so the api fills them from the study or marks them "to fill". */
 export function templateValuesFrom(input: ConsentValuesInput): ConsentTemplateValues {

@@ -2,7 +2,8 @@ import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiClient, unwrap } from '@/lib/api-client';
 import { consentVersionsKey, type ConsentVersion } from './get-consent-versions';
 
-export const consentVersionKey = (studyId: string, versionId: string) => [...consentVersionsKey(studyId), versionId] as const;
+export const consentVersionKey = (studyId: string, versionId: string) =>
+  [...consentVersionsKey(studyId), versionId] as const;
 
 export async function getConsentVersion(studyId: string, versionId: string): Promise<ConsentVersion> {
   const version = await unwrap(
@@ -12,7 +13,10 @@ export async function getConsentVersion(studyId: string, versionId: string): Pro
 }
 
 export const consentVersionQueryOptions = (studyId: string, versionId: string) =>
-  queryOptions({ queryKey: consentVersionKey(studyId, versionId), queryFn: () => getConsentVersion(studyId, versionId) });
+  queryOptions({
+    queryKey: consentVersionKey(studyId, versionId),
+    queryFn: () => getConsentVersion(studyId, versionId),
+  });
 
 export function useConsentVersion(studyId: string, versionId: string) {
   return useQuery(consentVersionQueryOptions(studyId, versionId));

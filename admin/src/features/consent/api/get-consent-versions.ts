@@ -17,7 +17,9 @@ export type ConsentVersionStatus = ConsentVersion['status'];
 export const consentVersionsKey = (studyId: string) => ['consent-versions', studyId] as const;
 
 export async function getConsentVersions(studyId: string): Promise<ConsentVersion[]> {
-  const list = await unwrap(apiClient.GET('/api/studies/{studyId}/consent-versions', { params: { path: { studyId } } }));
+  const list = await unwrap(
+    apiClient.GET('/api/studies/{studyId}/consent-versions', { params: { path: { studyId } } }),
+  );
   return list.items as ConsentVersion[];
 }
 

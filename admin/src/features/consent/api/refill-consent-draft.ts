@@ -4,7 +4,11 @@ import { templateValuesFrom, type ConsentValuesInput } from './create-consent-dr
 import { consentVersionKey } from './get-consent-version';
 import { consentVersionsKey, type ConsentVersion } from './get-consent-versions';
 
-export async function refillConsentDraft(studyId: string, versionId: string, input: ConsentValuesInput): Promise<ConsentVersion> {
+export async function refillConsentDraft(
+  studyId: string,
+  versionId: string,
+  input: ConsentValuesInput,
+): Promise<ConsentVersion> {
   const refilled = await unwrap(
     apiClient.POST('/api/studies/{studyId}/consent-versions/{versionId}/refill', {
       params: { path: { studyId, versionId } },

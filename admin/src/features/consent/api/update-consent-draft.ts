@@ -15,12 +15,19 @@ export const consentBodyInputSchema = z.object({
   body: z
     .string()
     .refine((body) => body.trim().length > 0, 'The form needs some text.')
-    .refine((body) => body.length <= maxConsentBodyLength, `Keep the form under ${maxConsentBodyLength.toLocaleString('en')} characters.`),
+    .refine(
+      (body) => body.length <= maxConsentBodyLength,
+      `Keep the form under ${maxConsentBodyLength.toLocaleString('en')} characters.`,
+    ),
 });
 export type ConsentBodyInput = z.infer<typeof consentBodyInputSchema>;
 
 export const approvalDetailsInputSchema = z.object({
-  approvalReference: z.string().trim().min(1, 'Enter the reference on the approval letter.').max(120, 'Keep the reference under 120 characters.'),
+  approvalReference: z
+    .string()
+    .trim()
+    .min(1, 'Enter the reference on the approval letter.')
+    .max(120, 'Keep the reference under 120 characters.'),
   approvedAt: z
     .string()
     .min(1, 'Enter the date on the approval letter.')
@@ -28,9 +35,16 @@ export const approvalDetailsInputSchema = z.object({
 });
 export type ApprovalDetailsInput = z.infer<typeof approvalDetailsInputSchema>;
 
-export async function updateConsentDraft(studyId: string, versionId: string, changes: ConsentDraftChanges): Promise<ConsentVersion> {
+export async function updateConsentDraft(
+  studyId: string,
+  versionId: string,
+  changes: ConsentDraftChanges,
+): Promise<ConsentVersion> {
   const updated = await unwrap(
-    apiClient.PATCH('/api/studies/{studyId}/consent-versions/{versionId}', { params: { path: { studyId, versionId } }, body: changes }),
+    apiClient.PATCH('/api/studies/{studyId}/consent-versions/{versionId}', {
+      params: { path: { studyId, versionId } },
+      body: changes,
+    }),
   );
   return updated as ConsentVersion;
 }

@@ -11,7 +11,9 @@ const activatePath = `/api/studies/${studyId}/consent-versions/${version.id}/act
 
 function renderDialog(props: Partial<React.ComponentProps<typeof ActivationDialog>> = {}) {
   const handlers = { onClose: vi.fn(), onActivated: vi.fn() };
-  renderWithProviders(<ActivationDialog studyId={studyId} version={version} activeVersionNumber={2} open {...handlers} {...props} />);
+  renderWithProviders(
+    <ActivationDialog studyId={studyId} version={version} activeVersionNumber={2} open {...handlers} {...props} />,
+  );
   return handlers;
 }
 
@@ -38,7 +40,11 @@ describe('ActivationDialog', { timeout: 15_000 }, () => {
   });
 
   it('activates on confirmation and hands back the active version', async () => {
-    const active = { ...version, status: 'active', fingerprint: 'e5b32837e18bc7456919aac1f4c156c4ce23110ee631096b85d4f44fb295094a' };
+    const active = {
+      ...version,
+      status: 'active',
+      fingerprint: 'e5b32837e18bc7456919aac1f4c156c4ce23110ee631096b85d4f44fb295094a',
+    };
     const { requests } = stubApi({ [`POST ${activatePath}`]: { status: 200, body: active } });
     const { onActivated } = renderDialog();
 

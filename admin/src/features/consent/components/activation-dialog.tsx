@@ -28,7 +28,14 @@ export interface ActivationDialogProps {
   onActivated: (version: ConsentVersion) => void;
 }
 
-export function ActivationDialog({ studyId, version, activeVersionNumber, open, onClose, onActivated }: ActivationDialogProps) {
+export function ActivationDialog({
+  studyId,
+  version,
+  activeVersionNumber,
+  open,
+  onClose,
+  onActivated,
+}: ActivationDialogProps) {
   const activate = useActivateConsentVersion(studyId, version.id);
   const [refusal, setRefusal] = useState<unknown>(null);
 
@@ -59,14 +66,14 @@ export function ActivationDialog({ studyId, version, activeVersionNumber, open, 
     >
       <ul className="flex list-disc flex-col gap-2 pl-5 text-sm text-ink">
         <li>
-          <strong className="font-semibold">The text is fixed.</strong> Its SHA-256 fingerprint is computed now and stays with every
-          signature made on it. To change the wording later, start a new draft.
+          <strong className="font-semibold">The text is fixed.</strong> Its SHA-256 fingerprint is computed now and
+          stays with every signature made on it. To change the wording later, start a new draft.
         </li>
         <li>
           {activeVersionNumber !== null ? (
             <>
-              <strong className="font-semibold">Version {activeVersionNumber} is retired.</strong> It stays on record with its
-              signatures; nothing is deleted.
+              <strong className="font-semibold">Version {activeVersionNumber} is retired.</strong> It stays on record
+              with its signatures; nothing is deleted.
             </>
           ) : (
             <>
@@ -76,8 +83,8 @@ export function ActivationDialog({ studyId, version, activeVersionNumber, open, 
         </li>
         {activeVersionNumber !== null && (
           <li>
-            <strong className="font-semibold">Everyone enrolled is asked to sign again.</strong> Each participant taking part has to
-            sign version {version.version} before their next step. You can send a reminder from the roster.
+            <strong className="font-semibold">Everyone enrolled is asked to sign again.</strong> Each participant taking
+            part has to sign version {version.version} before their next step. You can send a reminder from the roster.
           </li>
         )}
       </ul>

@@ -6,7 +6,11 @@ import { Notice } from '@/components/ui/states';
 import { TextField } from '@/components/ui/text-field';
 import { applyServerErrors } from '@/lib/form-server-errors';
 import type { ConsentVersion } from '../api/get-consent-versions';
-import { approvalDetailsInputSchema, useUpdateConsentDraft, type ApprovalDetailsInput } from '../api/update-consent-draft';
+import {
+  approvalDetailsInputSchema,
+  useUpdateConsentDraft,
+  type ApprovalDetailsInput,
+} from '../api/update-consent-draft';
 
 const formFields = ['approvalReference', 'approvedAt'] as const;
 
@@ -39,8 +43,20 @@ export function ApprovalDetailsForm({ studyId, version }: { studyId: string; ver
     <form onSubmit={onSubmit} noValidate aria-label="Ethics approval details" className="flex flex-col gap-3">
       {errors.root?.server?.message && <Notice>{errors.root.server.message}</Notice>}
       <div className="grid gap-3 sm:grid-cols-2">
-        <TextField label="Approval reference" hint="As printed on the ethics board’s letter." autoComplete="off" error={errors.approvalReference?.message} {...register('approvalReference')} />
-        <TextField label="Approval date" type="date" hint="The date on the letter." error={errors.approvedAt?.message} {...register('approvedAt')} />
+        <TextField
+          label="Approval reference"
+          hint="As printed on the ethics board’s letter."
+          autoComplete="off"
+          error={errors.approvalReference?.message}
+          {...register('approvalReference')}
+        />
+        <TextField
+          label="Approval date"
+          type="date"
+          hint="The date on the letter."
+          error={errors.approvedAt?.message}
+          {...register('approvedAt')}
+        />
       </div>
       <div className="flex items-center gap-3">
         <Button type="submit" pending={update.isPending} disabled={!isDirty}>

@@ -34,9 +34,12 @@ export function ApprovalLetterUpload({ studyId, version }: { studyId: string; ve
         if (input.current) input.current.value = '';
       },
       onError: (error) => {
-        const detail = error instanceof ApiError ? error.fieldErrors.find((item) => item.field === 'letter')?.message : undefined;
+        const detail =
+          error instanceof ApiError ? error.fieldErrors.find((item) => item.field === 'letter')?.message : undefined;
         setProblem(
-          error instanceof ApiError ? `${error.message}${detail ? ` (The file ${detail}.)` : ''}` : 'The letter could not be uploaded. Check your connection and try again.',
+          error instanceof ApiError
+            ? `${error.message}${detail ? ` (The file ${detail}.)` : ''}`
+            : 'The letter could not be uploaded. Check your connection and try again.',
         );
       },
     });
@@ -64,7 +67,11 @@ export function ApprovalLetterUpload({ studyId, version }: { studyId: string; ve
           className={fileInputClass}
           onChange={(event) => void onFile(event.target.files?.[0])}
         />
-        <p id={messageId} aria-live="polite" className={problem ? 'text-xs font-medium text-danger' : 'text-xs text-success'}>
+        <p
+          id={messageId}
+          aria-live="polite"
+          className={problem ? 'text-xs font-medium text-danger' : 'text-xs text-success'}
+        >
           {upload.isPending ? 'Uploading…' : (problem ?? uploaded ?? '')}
         </p>
       </div>
@@ -93,7 +100,12 @@ export function LetterOnRecord({ studyId, version }: { studyId: string; version:
           </p>
         )}
       </div>
-      <Button size="compact" pending={download.isPending} onClick={() => download.mutate(fileName)} aria-label={`Download the approval letter ${fileName}`}>
+      <Button
+        size="compact"
+        pending={download.isPending}
+        onClick={() => download.mutate(fileName)}
+        aria-label={`Download the approval letter ${fileName}`}
+      >
         Download letter
       </Button>
     </div>

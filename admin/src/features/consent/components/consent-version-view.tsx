@@ -18,7 +18,8 @@ export interface ConsentVersionViewProps {
 export function ConsentVersionView({ studyId, versionId, canEdit, backHref, onActivated }: ConsentVersionViewProps) {
   const version = useConsentVersion(studyId, versionId);
   const versions = useConsentVersions(studyId);
-  const activeVersionNumber = versions.data?.find((candidate) => candidate.status === 'active' && candidate.id !== versionId)?.version ?? null;
+  const activeVersionNumber =
+    versions.data?.find((candidate) => candidate.status === 'active' && candidate.id !== versionId)?.version ?? null;
 
   return (
     <div className="flex flex-col gap-4">
@@ -40,10 +41,18 @@ export function ConsentVersionView({ studyId, versionId, canEdit, backHref, onAc
             <ConsentStatusBadge status={version.data.status} />
           </div>
           {version.data.status === 'draft' && canEdit ? (
-            <DraftEditor key={version.data.id} studyId={studyId} version={version.data} activeVersionNumber={activeVersionNumber} onActivated={onActivated} />
+            <DraftEditor
+              key={version.data.id}
+              studyId={studyId}
+              version={version.data}
+              activeVersionNumber={activeVersionNumber}
+              onActivated={onActivated}
+            />
           ) : (
             <>
-              {version.data.status === 'draft' && <Notice tone="info">Drafts are edited by coordinators and researchers; you can read it here.</Notice>}
+              {version.data.status === 'draft' && (
+                <Notice tone="info">Drafts are edited by coordinators and researchers; you can read it here.</Notice>
+              )}
               <VersionRecord studyId={studyId} version={version.data} />
             </>
           )}

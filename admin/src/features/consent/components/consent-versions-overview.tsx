@@ -16,7 +16,12 @@ export interface ConsentVersionsOverviewProps {
   onDraftCreated: (version: ConsentVersion) => void;
 }
 
-export function ConsentVersionsOverview({ studyId, canEdit, versionHref, onDraftCreated }: ConsentVersionsOverviewProps) {
+export function ConsentVersionsOverview({
+  studyId,
+  canEdit,
+  versionHref,
+  onDraftCreated,
+}: ConsentVersionsOverviewProps) {
   const versions = useConsentVersions(studyId);
   const [creating, setCreating] = useState(false);
   const [draftFormKey, setDraftFormKey] = useState(0);
@@ -48,17 +53,22 @@ export function ConsentVersionsOverview({ studyId, canEdit, versionHref, onDraft
         <LoadingState label="Loading consent versions…" />
       ) : versions.isError ? (
         <ErrorState
-          message={versions.error instanceof ApiError ? versions.error.message : 'The consent versions could not be loaded.'}
+          message={
+            versions.error instanceof ApiError ? versions.error.message : 'The consent versions could not be loaded.'
+          }
           onRetry={() => void versions.refetch()}
         />
       ) : versions.data.length === 0 ? (
         <EmptyState title="No consent form yet" action={newDraftButton || undefined}>
-          Start a draft from a template, adapt it with your ethics board, upload their approval letter and activate it. Participants
-          can sign once a version is active.
+          Start a draft from a template, adapt it with your ethics board, upload their approval letter and activate it.
+          Participants can sign once a version is active.
         </EmptyState>
       ) : (
         <>
-          <ActiveVersionSummary version={versions.data.find((version) => version.status === 'active') ?? null} versionHref={versionHref} />
+          <ActiveVersionSummary
+            version={versions.data.find((version) => version.status === 'active') ?? null}
+            versionHref={versionHref}
+          />
           <ConsentVersionsTable versions={versions.data} versionHref={versionHref} />
         </>
       )}
@@ -79,7 +89,13 @@ export function ConsentVersionsOverview({ studyId, canEdit, versionHref, onDraft
   );
 }
 
-function ActiveVersionSummary({ version, versionHref }: { version: ConsentVersion | null; versionHref: (id: string) => string }) {
+function ActiveVersionSummary({
+  version,
+  versionHref,
+}: {
+  version: ConsentVersion | null;
+  versionHref: (id: string) => string;
+}) {
   if (!version) {
     return (
       <Notice tone="info">
@@ -88,12 +104,18 @@ function ActiveVersionSummary({ version, versionHref }: { version: ConsentVersio
     );
   }
   return (
-    <section aria-labelledby="active-version-heading" className="rounded-lg border border-success/30 bg-surface p-4 shadow-raised">
+    <section
+      aria-labelledby="active-version-heading"
+      className="rounded-lg border border-success/30 bg-surface p-4 shadow-raised"
+    >
       <div className="flex flex-wrap items-baseline justify-between gap-2">
         <h3 id="active-version-heading" className="font-semibold">
           Participants now sign version {version.version}
         </h3>
-        <Link to={versionHref(version.id)} className="text-sm font-medium text-spruce-ink underline-offset-2 hover:underline">
+        <Link
+          to={versionHref(version.id)}
+          className="text-sm font-medium text-spruce-ink underline-offset-2 hover:underline"
+        >
           Open version {version.version}
         </Link>
       </div>

@@ -5,18 +5,34 @@ import { formatLetterDate } from '../utils/consent-dates';
 import { shortFingerprint } from '../utils/fingerprint';
 import { ConsentStatusBadge } from './consent-status-badge';
 
-export function ConsentVersionsTable({ versions, versionHref }: { versions: readonly ConsentVersion[]; versionHref: (id: string) => string }) {
+export function ConsentVersionsTable({
+  versions,
+  versionHref,
+}: {
+  versions: readonly ConsentVersion[];
+  versionHref: (id: string) => string;
+}) {
   return (
     <div className={tableRecipe.frame}>
       <table className={tableRecipe.table}>
         <caption className="sr-only">Consent versions, newest first</caption>
         <thead>
           <tr>
-            <th scope="col" className={tableRecipe.headCell}>Version</th>
-            <th scope="col" className={tableRecipe.headCell}>Status</th>
-            <th scope="col" className={tableRecipe.headCell}>Ethics approval</th>
-            <th scope="col" className={tableRecipe.headCell}>Fingerprint</th>
-            <th scope="col" className={`${tableRecipe.headCell} text-right`}>Signatures</th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Version
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Status
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Ethics approval
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Fingerprint
+            </th>
+            <th scope="col" className={`${tableRecipe.headCell} text-right`}>
+              Signatures
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -34,7 +50,9 @@ export function ConsentVersionsTable({ versions, versionHref }: { versions: read
                 {version.approvalReference ? (
                   <>
                     <span className="font-mono text-xs text-ink">{version.approvalReference}</span>
-                    {version.approvedAt && <span className="ml-1.5 whitespace-nowrap">of {formatLetterDate(version.approvedAt)}</span>}
+                    {version.approvedAt && (
+                      <span className="ml-1.5 whitespace-nowrap">of {formatLetterDate(version.approvedAt)}</span>
+                    )}
                   </>
                 ) : (
                   'Not yet entered'

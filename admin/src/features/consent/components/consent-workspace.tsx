@@ -46,7 +46,9 @@ export function ConsentWorkspace({ studyId, canEdit, onActivated }: ConsentWorks
           canEdit={canEdit}
           backHref={hrefFor(null)}
           onActivated={(version) => {
-            setAnnouncement(`Version ${version.version} is active. Its fingerprint is fixed, and everyone enrolled is asked to sign it.`);
+            setAnnouncement(
+              `Version ${version.version} is active. Its fingerprint is fixed, and everyone enrolled is asked to sign it.`,
+            );
             onActivated?.(version);
           }}
         />

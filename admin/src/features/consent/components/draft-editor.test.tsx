@@ -12,7 +12,9 @@ const versionPath = `/api/studies/${studyId}/consent-versions/${version.id}`;
 describe('DraftEditor', { timeout: 15_000 }, () => {
   it('runs the check and moves the caret to the line a finding names', async () => {
     const { requests } = stubApi({ [`POST ${versionPath}/check`]: { status: 200, body: failingCheck } });
-    renderWithProviders(<DraftEditor studyId={studyId} version={version} activeVersionNumber={2} onActivated={vi.fn()} />);
+    renderWithProviders(
+      <DraftEditor studyId={studyId} version={version} activeVersionNumber={2} onActivated={vi.fn()} />,
+    );
 
     await userEvent.click(screen.getByRole('button', { name: 'Run the check' }));
     await userEvent.click(await screen.findByRole('button', { name: /Go to line 8/ }));
@@ -28,10 +30,15 @@ describe('DraftEditor', { timeout: 15_000 }, () => {
   it('saves edited text first when the check is asked for, and sends the whole body', async () => {
     const edited = `${draftBody}\n\n## Possible risks and discomforts\nNone beyond everyday computer use.`;
     const { requests } = stubApi({
-      [`PATCH ${versionPath}`]: ({ body }) => ({ status: 200, body: { ...version, body: (body as { body: string }).body } }),
+      [`PATCH ${versionPath}`]: ({ body }) => ({
+        status: 200,
+        body: { ...version, body: (body as { body: string }).body },
+      }),
       [`POST ${versionPath}/check`]: { status: 200, body: { passes: true, findings: [], required: [], optional: [] } },
     });
-    renderWithProviders(<DraftEditor studyId={studyId} version={version} activeVersionNumber={2} onActivated={vi.fn()} />);
+    renderWithProviders(
+      <DraftEditor studyId={studyId} version={version} activeVersionNumber={2} onActivated={vi.fn()} />,
+    );
 
     const textarea = screen.getByLabelText('Form text (Markdown)');
     await userEvent.click(textarea);
@@ -40,8 +47,15 @@ describe('DraftEditor', { timeout: 15_000 }, () => {
     expect(screen.getByText('Unsaved changes')).toBeInTheDocument();
     await userEvent.click(screen.getByRole('button', { name: 'Save and run the check' }));
 
-    expect(await screen.findByText('Every required element is present, and no placeholder is left to fill.')).toBeInTheDocument();
-    await waitFor(() => expect(requests.map((request) => `${request.method} ${request.path}`)).toEqual([`PATCH ${versionPath}`, `POST ${versionPath}/check`]));
+    expect(
+      await screen.findByText('Every required element is present, and no placeholder is left to fill.'),
+    ).toBeInTheDocument();
+    await waitFor(() =>
+      expect(requests.map((request) => `${request.method} ${request.path}`)).toEqual([
+        `PATCH ${versionPath}`,
+        `POST ${versionPath}/check`,
+      ]),
+    );
     expect(requests[0]?.body).toEqual({ body: edited });
   });
 
@@ -51,7 +65,9 @@ describe('DraftEditor', { timeout: 15_000 }, () => {
       'GET /api/consent-templates': { status: 200, body: { items: [consentTemplate] } },
       [`POST ${versionPath}/refill`]: { status: 200, body: { ...version, body: newBody } },
     });
-    renderWithProviders(<DraftEditor studyId={studyId} version={version} activeVersionNumber={2} onActivated={vi.fn()} />);
+    renderWithProviders(
+      <DraftEditor studyId={studyId} version={version} activeVersionNumber={2} onActivated={vi.fn()} />,
+    );
 
     const textarea = screen.getByLabelText('Form text (Markdown)') as HTMLTextAreaElement;
     await userEvent.click(textarea);
@@ -64,13 +80,19 @@ describe('DraftEditor', { timeout: 15_000 }, () => {
 
     await waitFor(() => expect(textarea.value).toBe(newBody));
     expect(screen.queryByText('Unsaved changes')).not.toBeInTheDocument();
-    expect(screen.getByText('Filled in again from the study and the template. The preview shows the new text.')).toBeInTheDocument();
-    expect(requests.filter((request) => request.method === 'POST').map((request) => request.path)).toEqual([`${versionPath}/refill`]);
+    expect(
+      screen.getByText('Filled in again from the study and the template. The preview shows the new text.'),
+    ).toBeInTheDocument();
+    expect(requests.filter((request) => request.method === 'POST').map((request) => request.path)).toEqual([
+      `${versionPath}/refill`,
+    ]);
   });
 
   it('keeps activation closed until the approval letter is uploaded', () => {
     stubApi({});
-    renderWithProviders(<DraftEditor studyId={studyId} version={version} activeVersionNumber={2} onActivated={vi.fn()} />);
+    renderWithProviders(
+      <DraftEditor studyId={studyId} version={version} activeVersionNumber={2} onActivated={vi.fn()} />,
+    );
 
     expect(screen.getByRole('button', { name: 'Activate version 3…' })).toBeDisabled();
     expect(screen.getByText('Approval letter uploaded').closest('li')).toHaveTextContent('(not yet)');
@@ -78,10 +100,14 @@ describe('DraftEditor', { timeout: 15_000 }, () => {
 
   it('refuses a PNG renamed to .pdf before uploading it', async () => {
     const { requests } = stubApi({});
-    renderWithProviders(<DraftEditor studyId={studyId} version={version} activeVersionNumber={2} onActivated={vi.fn()} />);
+    renderWithProviders(
+      <DraftEditor studyId={studyId} version={version} activeVersionNumber={2} onActivated={vi.fn()} />,
+    );
 
     // PNG signature bytes (ISO/IEC 15948, 5.2), named like a PDF.
-    const png = new File([new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])], 'approval.pdf', { type: 'application/pdf' });
+    const png = new File([new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])], 'approval.pdf', {
+      type: 'application/pdf',
+    });
     await userEvent.upload(screen.getByLabelText('Approval letter (PDF, up to 10 MB)'), png);
 
     expect(await screen.findByText(/This file is not a PDF/)).toBeInTheDocument();

@@ -49,7 +49,10 @@ export function DraftEditor({ studyId, version, activeVersionNumber, onActivated
     reset,
     watch,
     formState: { errors, isDirty },
-  } = useForm<ConsentBodyInput>({ resolver: zodResolver(consentBodyInputSchema), defaultValues: { body: version.body } });
+  } = useForm<ConsentBodyInput>({
+    resolver: zodResolver(consentBodyInputSchema),
+    defaultValues: { body: version.body },
+  });
   const { ref: registerBodyRef, ...bodyField } = register('body');
   const body = watch('body');
 
@@ -116,7 +119,8 @@ export function DraftEditor({ studyId, version, activeVersionNumber, onActivated
           <Field className={fieldRecipe.field}>
             <Label className={fieldRecipe.label}>Form text (Markdown)</Label>
             <Description className={fieldRecipe.hint}>
-              Headings start with #. The comment lines such as “element: b2” tell the check which required element a section covers.
+              Headings start with #. The comment lines such as “element: b2” tell the check which required element a
+              section covers.
             </Description>
             <Textarea
               {...bodyField}
@@ -128,7 +132,11 @@ export function DraftEditor({ studyId, version, activeVersionNumber, onActivated
               invalid={Boolean(errors.body)}
               className={bodyTextareaClass}
             />
-            {errors.body?.message && <p className={fieldRecipe.error} role="alert">{errors.body.message}</p>}
+            {errors.body?.message && (
+              <p className={fieldRecipe.error} role="alert">
+                {errors.body.message}
+              </p>
+            )}
             <div className="mt-1 flex items-center gap-3">
               <Button type="submit" variant="primary" pending={update.isPending} disabled={!isDirty}>
                 Save text
@@ -142,7 +150,11 @@ export function DraftEditor({ studyId, version, activeVersionNumber, onActivated
           <div className="flex flex-col gap-1">
             <p className={fieldRecipe.label}>Preview of the saved text</p>
             <p className={fieldRecipe.hint}>What participants will read, about {version.readingMinutes} minutes.</p>
-            <ConsentPreview html={version.previewHtml} label="Preview of the saved form" className="h-[34rem] bg-canvas" />
+            <ConsentPreview
+              html={version.previewHtml}
+              label="Preview of the saved form"
+              className="h-[34rem] bg-canvas"
+            />
           </div>
         </form>
       </Panel>
@@ -159,19 +171,29 @@ export function DraftEditor({ studyId, version, activeVersionNumber, onActivated
       >
         <div aria-live="polite">
           {check.isError ? (
-            <Notice>{check.error instanceof ApiError ? check.error.message : 'The check could not be run. Try again.'}</Notice>
+            <Notice>
+              {check.error instanceof ApiError ? check.error.message : 'The check could not be run. Try again.'}
+            </Notice>
           ) : check.data ? (
-            <DraftFindings check={check.data} stale={checkedBody !== null && checkedBody !== body} onJumpToLine={jumpToLine} />
+            <DraftFindings
+              check={check.data}
+              stale={checkedBody !== null && checkedBody !== body}
+              onJumpToLine={jumpToLine}
+            />
           ) : (
             <p className="text-sm text-ink-faint">Not run yet for this draft.</p>
           )}
         </div>
       </Panel>
 
-      <Panel id="ethics-approval" title="Ethics approval" description="Enter the details from the board’s approval letter and upload the letter itself.">
+      <Panel
+        id="ethics-approval"
+        title="Ethics approval"
+        description="Enter the details from the board’s approval letter and upload the letter itself."
+      >
         <div className="flex flex-col gap-4">
-        <ApprovalDetailsForm studyId={studyId} version={version} />
-        <ApprovalLetterUpload studyId={studyId} version={version} />
+          <ApprovalDetailsForm studyId={studyId} version={version} />
+          <ApprovalLetterUpload studyId={studyId} version={version} />
         </div>
       </Panel>
 
@@ -185,7 +207,10 @@ export function DraftEditor({ studyId, version, activeVersionNumber, onActivated
           <ReadinessItem done={ready.date}>Approval date entered</ReadinessItem>
           <ReadinessItem done={ready.letter}>Approval letter uploaded</ReadinessItem>
           <ReadinessItem done={!isDirty}>Text saved</ReadinessItem>
-          <ReadinessItem done={check.data?.passes === true && checkedBody === body} pendingLabel="not confirmed yet; activation runs it again">
+          <ReadinessItem
+            done={check.data?.passes === true && checkedBody === body}
+            pendingLabel="not confirmed yet; activation runs it again"
+          >
             Required-elements check passed
           </ReadinessItem>
         </ul>
@@ -225,7 +250,15 @@ export function DraftEditor({ studyId, version, activeVersionNumber, onActivated
   );
 }
 
-function ReadinessItem({ done, pendingLabel = 'not yet', children }: { done: boolean; pendingLabel?: string; children: React.ReactNode }) {
+function ReadinessItem({
+  done,
+  pendingLabel = 'not yet',
+  children,
+}: {
+  done: boolean;
+  pendingLabel?: string;
+  children: React.ReactNode;
+}) {
   return (
     <li className="flex items-center gap-2">
       <span aria-hidden="true" className={done ? 'text-success' : 'text-ink-faint'}>
@@ -233,7 +266,11 @@ function ReadinessItem({ done, pendingLabel = 'not yet', children }: { done: boo
       </span>
       <span className={done ? 'text-ink' : 'text-ink-muted'}>
         {children}
-        {done ? <span className="sr-only">: done</span> : <span className="text-xs text-ink-faint"> ({pendingLabel})</span>}
+        {done ? (
+          <span className="sr-only">: done</span>
+        ) : (
+          <span className="text-xs text-ink-faint"> ({pendingLabel})</span>
+        )}
       </span>
     </li>
   );

@@ -8,7 +8,9 @@ describe('DraftFindings', { timeout: 15_000 }, () => {
   it('lists each finding with its citation and message, in the api’s order', () => {
     render(<DraftFindings check={failingCheck} onJumpToLine={vi.fn()} />);
 
-    expect(screen.getByText('1 problem with required elements and 1 placeholder still to fill. Fix them before activation.')).toBeInTheDocument();
+    expect(
+      screen.getByText('1 problem with required elements and 1 placeholder still to fill. Fix them before activation.'),
+    ).toBeInTheDocument();
     const items = within(screen.getByRole('list', { name: 'Findings' })).getAllByRole('listitem');
     expect(items).toHaveLength(2);
     // 45 CFR 46.116(b)(2): reasonably foreseeable risks or discomforts.
@@ -33,14 +35,20 @@ describe('DraftFindings', { timeout: 15_000 }, () => {
   it('says so when every element is present, and warns when the text changed since', () => {
     render(<DraftFindings check={{ passes: true, findings: [], required: [], optional: [] }} stale />);
 
-    expect(screen.getByText('Every required element is present, and no placeholder is left to fill.')).toBeInTheDocument();
+    expect(
+      screen.getByText('Every required element is present, and no placeholder is left to fill.'),
+    ).toBeInTheDocument();
     expect(screen.getByText(/The text has changed since this check/)).toBeInTheDocument();
     expect(screen.queryByRole('list', { name: 'Findings' })).not.toBeInTheDocument();
   });
 
   it('shows which required elements the check found', () => {
     render(<DraftFindings check={failingCheck} />);
-    expect(screen.getByText('Key information', { exact: false }).closest('li')).toHaveTextContent('Key information 45 CFR 46.116(a)(5)(i): present');
-    expect(screen.getByText('Foreseeable risks and discomforts', { selector: 'li > span' }).closest('li')).toHaveTextContent(': missing');
+    expect(screen.getByText('Key information', { exact: false }).closest('li')).toHaveTextContent(
+      'Key information 45 CFR 46.116(a)(5)(i): present',
+    );
+    expect(
+      screen.getByText('Foreseeable risks and discomforts', { selector: 'li > span' }).closest('li'),
+    ).toHaveTextContent(': missing');
   });
 });

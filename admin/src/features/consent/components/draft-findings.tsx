@@ -20,7 +20,10 @@ interface ElementPresence {
 // The check's `required` list is typed loosely in the OpenAPI document; read only what this screen shows.
 function elementPresences(items: readonly Record<string, unknown>[]): ElementPresence[] {
   return items.flatMap((item) =>
-    typeof item.id === 'string' && typeof item.citation === 'string' && typeof item.name === 'string' && typeof item.present === 'boolean'
+    typeof item.id === 'string' &&
+    typeof item.citation === 'string' &&
+    typeof item.name === 'string' &&
+    typeof item.present === 'boolean'
       ? [{ id: item.id, citation: item.citation, name: item.name, present: item.present }]
       : [],
   );
@@ -41,7 +44,9 @@ export function DraftFindings({ check, stale = false, onJumpToLine }: DraftFindi
   return (
     <div className="flex flex-col gap-3">
       {stale && (
-        <p className="text-xs font-medium text-caution">The text has changed since this check. Save and run it again to be sure.</p>
+        <p className="text-xs font-medium text-caution">
+          The text has changed since this check. Save and run it again to be sure.
+        </p>
       )}
       {check.passes ? (
         <p className="rounded-md border border-success/30 bg-success-soft px-3 py-2 text-sm font-medium text-success">
@@ -81,7 +86,13 @@ export function DraftFindings({ check, stale = false, onJumpToLine }: DraftFindi
   );
 }
 
-function FindingRow({ finding, onJumpToLine }: { finding: ConsentFinding; onJumpToLine: ((line: number) => void) | undefined }) {
+function FindingRow({
+  finding,
+  onJumpToLine,
+}: {
+  finding: ConsentFinding;
+  onJumpToLine: ((line: number) => void) | undefined;
+}) {
   const body = (
     <>
       <span className="flex flex-wrap items-center gap-1.5">
@@ -97,7 +108,10 @@ function FindingRow({ finding, onJumpToLine }: { finding: ConsentFinding; onJump
     <button
       type="button"
       onClick={() => onJumpToLine(line)}
-      className={cx(frame, 'hover:border-spruce hover:bg-spruce-soft focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-spruce')}
+      className={cx(
+        frame,
+        'hover:border-spruce hover:bg-spruce-soft focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-spruce',
+      )}
     >
       {body}
       <span className="mt-1 block text-xs font-medium text-spruce-ink">Go to line {line} in the text</span>

@@ -43,8 +43,12 @@ describe('NewDraftDialog', { timeout: 15_000 }, () => {
     await userEvent.paste('study at lab');
     await userEvent.click(screen.getByRole('button', { name: 'Create draft' }));
 
-    expect(await screen.findByText('Enter the days until payment as a whole number, or leave it blank.')).toBeInTheDocument();
-    expect(screen.getByText('Enter a valid e-mail address, like study@lab.org, or leave it blank.')).toBeInTheDocument();
+    expect(
+      await screen.findByText('Enter the days until payment as a whole number, or leave it blank.'),
+    ).toBeInTheDocument();
+    expect(
+      screen.getByText('Enter a valid e-mail address, like study@lab.org, or leave it blank.'),
+    ).toBeInTheDocument();
     expect(requests.filter((request) => request.method === 'POST')).toHaveLength(0);
   });
 
@@ -53,7 +57,17 @@ describe('NewDraftDialog', { timeout: 15_000 }, () => {
       'GET /api/consent-templates': { status: 200, body: { items: [template] } },
       [`POST ${versionsPath}`]: {
         status: 400,
-        body: { statusCode: 400, code: 'VALIDATION_FAILED', message: 'Some fields are not valid.', errors: [{ field: 'values.investigatorName', message: 'investigatorName must be shorter than or equal to 200 characters' }] },
+        body: {
+          statusCode: 400,
+          code: 'VALIDATION_FAILED',
+          message: 'Some fields are not valid.',
+          errors: [
+            {
+              field: 'values.investigatorName',
+              message: 'investigatorName must be shorter than or equal to 200 characters',
+            },
+          ],
+        },
       },
     });
     renderWithProviders(<NewDraftDialog studyId={studyId} open onClose={vi.fn()} onCreated={vi.fn()} />);
@@ -62,6 +76,10 @@ describe('NewDraftDialog', { timeout: 15_000 }, () => {
     await userEvent.paste('Dr. Ilse Marrow');
     await userEvent.click(screen.getByRole('button', { name: 'Create draft' }));
 
-    await waitFor(() => expect(screen.getByLabelText('Investigator in charge')).toHaveAccessibleDescription('investigatorName must be shorter than or equal to 200 characters'));
+    await waitFor(() =>
+      expect(screen.getByLabelText('Investigator in charge')).toHaveAccessibleDescription(
+        'investigatorName must be shorter than or equal to 200 characters',
+      ),
+    );
   });
 });

@@ -6,7 +6,12 @@ import { SelectField } from '@/components/ui/select-field';
 import { ErrorState, LoadingState, Notice } from '@/components/ui/states';
 import { ApiError } from '@/lib/api-error';
 import { applyServerErrors } from '@/lib/form-server-errors';
-import { emptyConsentDraftInput, newConsentDraftInputSchema, useCreateConsentDraft, type NewConsentDraftInput } from '../api/create-consent-draft';
+import {
+  emptyConsentDraftInput,
+  newConsentDraftInputSchema,
+  useCreateConsentDraft,
+  type NewConsentDraftInput,
+} from '../api/create-consent-draft';
 import { useConsentTemplates, type ConsentTemplate } from '../api/get-consent-templates';
 import type { ConsentVersion } from '../api/get-consent-versions';
 import { fieldsForTemplate } from '../utils/template-field-labels';
@@ -88,7 +93,11 @@ function NewDraftForm({ studyId, templates, onCancel, onCreated }: NewDraftFormP
             onChange={field.onChange}
             onBlur={field.onBlur}
             buttonRef={field.ref}
-            options={templates.map((candidate) => ({ value: candidate.id, label: candidate.title, description: `Template version ${candidate.version}` }))}
+            options={templates.map((candidate) => ({
+              value: candidate.id,
+              label: candidate.title,
+              description: `Template version ${candidate.version}`,
+            }))}
             error={fieldState.error?.message}
           />
         )}

@@ -25,7 +25,14 @@ export interface RefillDraftDialogProps {
   onRefilled: (version: ConsentVersion) => void;
 }
 
-export function RefillDraftDialog({ studyId, version, open, unsavedEdits, onClose, onRefilled }: RefillDraftDialogProps) {
+export function RefillDraftDialog({
+  studyId,
+  version,
+  open,
+  unsavedEdits,
+  onClose,
+  onRefilled,
+}: RefillDraftDialogProps) {
   return (
     <ModalDialog
       open={open}
@@ -34,7 +41,13 @@ export function RefillDraftDialog({ studyId, version, open, unsavedEdits, onClos
       title={`Fill in version ${version.version} again from the study`}
       description="The template is filled in again with the study’s title, time, number of participants, contact address, steps and pay as they are now, and with the values below."
     >
-      <RefillDraftContent studyId={studyId} version={version} unsavedEdits={unsavedEdits} onCancel={onClose} onRefilled={onRefilled} />
+      <RefillDraftContent
+        studyId={studyId}
+        version={version}
+        unsavedEdits={unsavedEdits}
+        onCancel={onClose}
+        onRefilled={onRefilled}
+      />
     </ModalDialog>
   );
 }
@@ -63,12 +76,21 @@ function RefillDraftContent({ studyId, version, unsavedEdits, onCancel, onRefill
   if (!template) {
     return (
       <Notice>
-        The template this draft was made from ({version.templateId}) is no longer on this server, so the draft cannot be filled in again.
-        Edit the text by hand, or start a new draft from a current template.
+        The template this draft was made from ({version.templateId}) is no longer on this server, so the draft cannot be
+        filled in again. Edit the text by hand, or start a new draft from a current template.
       </Notice>
     );
   }
-  return <RefillDraftForm studyId={studyId} version={version} template={template} unsavedEdits={unsavedEdits} onCancel={onCancel} onRefilled={onRefilled} />;
+  return (
+    <RefillDraftForm
+      studyId={studyId}
+      version={version}
+      template={template}
+      unsavedEdits={unsavedEdits}
+      onCancel={onCancel}
+      onRefilled={onRefilled}
+    />
+  );
 }
 
 interface RefillDraftFormProps {
@@ -100,8 +122,9 @@ function RefillDraftForm({ studyId, version, template, unsavedEdits, onCancel, o
       <Notice tone="caution">
         <p className="font-semibold">This replaces the whole form text with the template’s wording.</p>
         <p className="mt-0.5">
-          Any changes you made to the wording by hand{unsavedEdits ? ', including the edits in the text box that are not saved yet,' : ''} will
-          be lost. Copy anything you want to keep before you go on.
+          Any changes you made to the wording by hand
+          {unsavedEdits ? ', including the edits in the text box that are not saved yet,' : ''} will be lost. Copy
+          anything you want to keep before you go on.
         </p>
       </Notice>
       <TemplateCaution />

@@ -6,8 +6,8 @@ export function TemplateCaution({ className }: { className?: string }) {
     <Notice tone="caution" className={className}>
       <p className="font-semibold">Templates are a starting point, not legal advice.</p>
       <p className="mt-0.5">
-        The ethics board that approves your study decides the wording. Adapt the text to your study and have the board approve it
-        before you activate it.
+        The ethics board that approves your study decides the wording. Adapt the text to your study and have the board
+        approve it before you activate it.
       </p>
     </Notice>
   );

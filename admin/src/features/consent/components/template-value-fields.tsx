@@ -13,7 +13,10 @@ export interface TemplateValueFieldsProps<Values extends ConsentValuesInput> {
 }
 
 /** The template's value inputs, grouped under legends; used by the new-draft and the fill-in-again forms. */
-export function TemplateValueFields<Values extends ConsentValuesInput>({ form, fields }: TemplateValueFieldsProps<Values>) {
+export function TemplateValueFields<Values extends ConsentValuesInput>({
+  form,
+  fields,
+}: TemplateValueFieldsProps<Values>) {
   // Every such form holds all the template values, so its template part is driven as a form of its own.
   const valuesForm = form as unknown as UseFormReturn<ConsentValuesInput>;
   return templateFieldGroups.map((group) => {
@@ -42,13 +45,29 @@ function TemplateValueField({ field, form }: { field: ConsentValueField; form: U
         control={form.control}
         name="futureUseDeidentified"
         render={({ field: checkbox }) => (
-          <CheckboxField className="sm:col-span-2" label={label} hint={hint} checked={checkbox.value} onChange={checkbox.onChange} error={error} />
+          <CheckboxField
+            className="sm:col-span-2"
+            label={label}
+            hint={hint}
+            checked={checkbox.value}
+            onChange={checkbox.onChange}
+            error={error}
+          />
         )}
       />
     );
   }
   if (kind === 'long-text') {
-    return <TextAreaField className="sm:col-span-2" label={label} hint={hint} error={error} rows={3} {...form.register(field)} />;
+    return (
+      <TextAreaField
+        className="sm:col-span-2"
+        label={label}
+        hint={hint}
+        error={error}
+        rows={3}
+        {...form.register(field)}
+      />
+    );
   }
   return (
     <TextField

@@ -9,14 +9,22 @@ export function VersionRecord({ studyId, version }: { studyId: string; version: 
     <div className="flex flex-col gap-5">
       <section aria-labelledby="record-heading" className="rounded-lg border border-line bg-surface p-4 shadow-raised">
         <h3 id="record-heading" className="font-semibold">
-          {version.status === 'active' ? 'The version participants sign now' : version.status === 'retired' ? 'A retired version, kept on record' : 'Draft'}
+          {version.status === 'active'
+            ? 'The version participants sign now'
+            : version.status === 'retired'
+              ? 'A retired version, kept on record'
+              : 'Draft'}
         </h3>
         <dl className="mt-3 grid gap-x-6 gap-y-2 text-sm sm:grid-cols-[max-content_1fr]">
           <dt className="text-ink-muted">Fingerprint (SHA-256 of the text)</dt>
           <dd className="font-mono text-xs leading-5 break-all">{version.fingerprint ?? 'Fixed at activation'}</dd>
           <dt className="text-ink-muted">Ethics approval</dt>
           <dd>
-            {version.approvalReference ? <span className="font-mono text-xs">{version.approvalReference}</span> : 'Not entered'}
+            {version.approvalReference ? (
+              <span className="font-mono text-xs">{version.approvalReference}</span>
+            ) : (
+              'Not entered'
+            )}
             {version.approvedAt && <> of {formatLetterDate(version.approvedAt)}</>}
           </dd>
           <dt className="text-ink-muted">Active</dt>
@@ -41,7 +49,11 @@ export function VersionRecord({ studyId, version }: { studyId: string; version: 
         <h3 id="text-heading" className="font-semibold">
           The text {version.status === 'draft' ? 'as saved' : 'as approved'}
         </h3>
-        <ConsentPreview html={version.previewHtml} label={`Text of version ${version.version}`} className="max-h-[40rem]" />
+        <ConsentPreview
+          html={version.previewHtml}
+          label={`Text of version ${version.version}`}
+          className="max-h-[40rem]"
+        />
       </section>
     </div>
   );

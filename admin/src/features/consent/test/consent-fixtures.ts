@@ -20,7 +20,15 @@ export const consentTemplate = {
   title: 'Consent form for a minimal-risk paid behavioural study',
   version: 1,
   // As GET /api/consent-templates lists it: more placeholders than the form asks for; the study fills the rest.
-  fields: ['studyTitle', 'institutionName', 'investigatorName', 'contactEmail', 'ethicsBoardName', 'paymentDays', 'futureUseDeidentified'],
+  fields: [
+    'studyTitle',
+    'institutionName',
+    'investigatorName',
+    'contactEmail',
+    'ethicsBoardName',
+    'paymentDays',
+    'futureUseDeidentified',
+  ],
   notice: "This template is a starting point for your ethics board's review, not legal advice.",
 };
 
@@ -35,7 +43,11 @@ export function draftVersion(overrides: Partial<ConsentVersion> = {}): ConsentVe
     previewHtml: '<h1>Consent to take part in a research study: Wayfinding cues</h1>',
     approvalReference: 'HLREB-2026-031-A2',
     approvedAt: '2026-11-20',
-    approvalLetter: { name: 'HLREB-2026-031-A2.pdf', size: 1215, sha256: '9dfbcee9216a7e44adccaf82e401bc03644b6e6cbf1406b8f15f33d18acc2f70' },
+    approvalLetter: {
+      name: 'HLREB-2026-031-A2.pdf',
+      size: 1215,
+      sha256: '9dfbcee9216a7e44adccaf82e401bc03644b6e6cbf1406b8f15f33d18acc2f70',
+    },
     fingerprint: null,
     activeFrom: null,
     activeTo: null,
@@ -67,8 +79,24 @@ export const failingCheck: ConsentCheck = {
     },
   ],
   required: [
-    { id: 'key-information', citation: '45 CFR 46.116(a)(5)(i)', name: 'Key information', present: true, heading: 'Key information about this study', line: 3, recognisedBy: 'marker' },
-    { id: 'b2', citation: '45 CFR 46.116(b)(2)', name: 'Foreseeable risks and discomforts', present: false, heading: null, line: null, recognisedBy: null },
+    {
+      id: 'key-information',
+      citation: '45 CFR 46.116(a)(5)(i)',
+      name: 'Key information',
+      present: true,
+      heading: 'Key information about this study',
+      line: 3,
+      recognisedBy: 'marker',
+    },
+    {
+      id: 'b2',
+      citation: '45 CFR 46.116(b)(2)',
+      name: 'Foreseeable risks and discomforts',
+      present: false,
+      heading: null,
+      line: null,
+      recognisedBy: null,
+    },
   ],
   optional: [],
 };

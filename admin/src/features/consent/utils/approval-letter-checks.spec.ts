@@ -29,12 +29,18 @@ describe('approval letter checks', () => {
     expect(maxApprovalLetterBytes).toBe(10_485_760);
     const header = ascii('%PDF-1.7');
     expect(approvalLetterProblem({ size: 10_485_760 }, header)).toBeNull();
-    expect(approvalLetterProblem({ size: 10_485_761 }, header)).toBe('This file (10.0 MB) is larger than 10 MB, the most an approval letter may be.');
-    expect(approvalLetterProblem({ size: 11 * 1024 * 1024 }, header)).toMatch(/^This file \(11\.0 MB\) is larger than 10 MB/);
+    expect(approvalLetterProblem({ size: 10_485_761 }, header)).toBe(
+      'This file (10.0 MB) is larger than 10 MB, the most an approval letter may be.',
+    );
+    expect(approvalLetterProblem({ size: 11 * 1024 * 1024 }, header)).toMatch(
+      /^This file \(11\.0 MB\) is larger than 10 MB/,
+    );
   });
 
   it('refuses an empty file before looking at its content', () => {
-    expect(approvalLetterProblem({ size: 0 }, new Uint8Array())).toBe('This file is empty. Choose the approval letter as a PDF.');
+    expect(approvalLetterProblem({ size: 0 }, new Uint8Array())).toBe(
+      'This file is empty. Choose the approval letter as a PDF.',
+    );
   });
 
   it('writes sizes in binary units', () => {

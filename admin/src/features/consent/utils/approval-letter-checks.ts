@@ -25,6 +25,7 @@ export function approvalLetterProblem(file: { size: number }, firstBytes: Uint8A
   if (file.size > maxApprovalLetterBytes) {
     return `This file (${formatFileSize(file.size)}) is larger than 10 MB, the most an approval letter may be.`;
   }
-  if (!startsLikePdf(firstBytes)) return 'This file is not a PDF (its content does not start like one, whatever its name). Choose the letter as a PDF.';
+  if (!startsLikePdf(firstBytes))
+    return 'This file is not a PDF (its content does not start like one, whatever its name). Choose the letter as a PDF.';
   return null;
 }

@@ -9,14 +9,44 @@ export interface TemplateFieldLabel {
 
 // Plain words for the template's placeholders (legal-templates/consent/minimal-risk-paid-study).
 export const templateFieldLabels: Record<ConsentValueField, TemplateFieldLabel> = {
-  institutionName: { label: 'Institution', hint: 'The university or organisation responsible for the study.', kind: 'text', group: 'people' },
+  institutionName: {
+    label: 'Institution',
+    hint: 'The university or organisation responsible for the study.',
+    kind: 'text',
+    group: 'people',
+  },
   investigatorName: { label: 'Investigator in charge', kind: 'text', group: 'people' },
-  contactEmail: { label: 'Contact e-mail for questions', hint: 'Leave blank to use the study’s contact address.', kind: 'email', group: 'people' },
+  contactEmail: {
+    label: 'Contact e-mail for questions',
+    hint: 'Leave blank to use the study’s contact address.',
+    kind: 'email',
+    group: 'people',
+  },
   contactPhone: { label: 'Contact telephone', kind: 'tel', group: 'people' },
-  ethicsBoardName: { label: 'Name of the ethics board', hint: 'The board that reviews and approves the study.', kind: 'text', group: 'board' },
-  ethicsBoardContact: { label: 'How to reach the ethics board', hint: 'An e-mail address or telephone number.', kind: 'text', group: 'board' },
-  studyPurpose: { label: 'Purpose of the study, in plain words', hint: 'Leave blank to use the study’s summary.', kind: 'long-text', group: 'study' },
-  paymentMethod: { label: 'How participants are paid', hint: 'For example: bank transfer through our payment provider.', kind: 'text', group: 'payment' },
+  ethicsBoardName: {
+    label: 'Name of the ethics board',
+    hint: 'The board that reviews and approves the study.',
+    kind: 'text',
+    group: 'board',
+  },
+  ethicsBoardContact: {
+    label: 'How to reach the ethics board',
+    hint: 'An e-mail address or telephone number.',
+    kind: 'text',
+    group: 'board',
+  },
+  studyPurpose: {
+    label: 'Purpose of the study, in plain words',
+    hint: 'Leave blank to use the study’s summary.',
+    kind: 'long-text',
+    group: 'study',
+  },
+  paymentMethod: {
+    label: 'How participants are paid',
+    hint: 'For example: bank transfer through our payment provider.',
+    kind: 'text',
+    group: 'payment',
+  },
   paymentDays: { label: 'Days until payment is sent', kind: 'number', group: 'payment' },
   dataRetentionYears: { label: 'Years the records are kept', kind: 'number', group: 'data' },
   futureUseDeidentified: {

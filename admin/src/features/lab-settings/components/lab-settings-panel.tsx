@@ -8,7 +8,11 @@ export function LabSettingsPanel() {
   const settings = useLabSettings();
   const update = useUpdateLabSettings();
   return (
-    <Panel id="lab-settings" title="Lab settings" description="Rules for everyone who works in this lab’s Evenhand. Each change is recorded in the audit trail.">
+    <Panel
+      id="lab-settings"
+      title="Lab settings"
+      description="Rules for everyone who works in this lab’s Evenhand. Each change is recorded in the audit trail."
+    >
       {settings.isPending ? (
         <LoadingState label="Reading the lab settings…" />
       ) : settings.isError ? (

@@ -9,7 +9,9 @@ export interface AddMembershipInput {
 }
 
 export async function addMembership({ studyId, email, role }: AddMembershipInput) {
-  return unwrap(apiClient.POST('/api/studies/{studyId}/members', { params: { path: { studyId } }, body: { email, role } }));
+  return unwrap(
+    apiClient.POST('/api/studies/{studyId}/members', { params: { path: { studyId } }, body: { email, role } }),
+  );
 }
 
 export async function removeMembership({ studyId, userId }: { studyId: string; userId: string }) {

@@ -6,7 +6,9 @@ export function useStaffChoices(search: string) {
   return useQuery({
     queryKey: ['staff-users', 'choices', search],
     queryFn: async () => {
-      const page = await unwrap(apiClient.GET('/api/users', { params: { query: { page: 1, pageSize: 50, ...(search ? { search } : {}) } } }));
+      const page = await unwrap(
+        apiClient.GET('/api/users', { params: { query: { page: 1, pageSize: 50, ...(search ? { search } : {}) } } }),
+      );
       return { items: page.items.filter((user) => user.active && user.role !== 'participant'), total: page.total };
     },
     placeholderData: keepPreviousData,

@@ -1,9 +1,13 @@
 import type { paths } from '@evenhand/contract';
 import type { StaffRole } from '@/lib/role-access';
 
-export type StudyMember = paths['/api/studies/{studyId}/members']['get']['responses'][200]['content']['application/json']['items'][number];
-export type StaffStudy = paths['/api/staff/{userId}/studies']['get']['responses'][200]['content']['application/json']['items'][number];
-export type MembershipRole = NonNullable<paths['/api/studies/{studyId}/members']['post']['requestBody']>['content']['application/json']['role'];
+export type StudyMember =
+  paths['/api/studies/{studyId}/members']['get']['responses'][200]['content']['application/json']['items'][number];
+export type StaffStudy =
+  paths['/api/staff/{userId}/studies']['get']['responses'][200]['content']['application/json']['items'][number];
+export type MembershipRole = NonNullable<
+  paths['/api/studies/{studyId}/members']['post']['requestBody']
+>['content']['application/json']['role'];
 
 export const studyMembersKey = (studyId: string) => ['study-members', studyId] as const;
 export const staffStudiesKey = (userId: string) => ['staff-studies', userId] as const;

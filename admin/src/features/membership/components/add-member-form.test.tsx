@@ -45,7 +45,9 @@ describe('AddMemberForm', () => {
 
     await userEvent.click(screen.getByRole('button', { name: 'Add to study' }));
     await waitFor(() => expect(onAdded).toHaveBeenCalledWith('Ilse Coordinator'));
-    expect(requests.find((r) => r.method === 'POST')).toMatchObject({ body: { email: 'ilse@evenhand.test', role: 'coordinator' } });
+    expect(requests.find((r) => r.method === 'POST')).toMatchObject({
+      body: { email: 'ilse@evenhand.test', role: 'coordinator' },
+    });
   });
 
   it('offers an admin every membership role and shows the api’s refusal in its own words', async () => {
@@ -73,7 +75,9 @@ describe('AddMemberForm', () => {
     expect(roles).toHaveLength(3);
     await userEvent.click(screen.getByRole('option', { name: /Auditor/ }));
     await userEvent.click(screen.getByRole('button', { name: 'Add to study' }));
-    expect(await screen.findByText('tam@evenhand.test is a coordinator; add them to the study as a coordinator.')).toBeInTheDocument();
+    expect(
+      await screen.findByText('tam@evenhand.test is a coordinator; add them to the study as a coordinator.'),
+    ).toBeInTheDocument();
   });
   it('keeps the list closed while a search is on its way, so a click cannot land on a list that is changing', async () => {
     stubApi({ 'GET /api/users': usersAnswer });

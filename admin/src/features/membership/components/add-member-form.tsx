@@ -28,13 +28,16 @@ export function AddMemberForm({ studyId, members, onAdded, onCancel }: AddMember
   const search = useDebouncedValue(searchText.trim(), 250);
   const choices = useStaffChoices(search);
   const addMembership = useAddMembership();
-  const { control, handleSubmit, setValue, formState } = useForm<AddMemberInput>({ resolver: zodResolver(addMemberInputSchema) });
+  const { control, handleSubmit, setValue, formState } = useForm<AddMemberInput>({
+    resolver: zodResolver(addMemberInputSchema),
+  });
   // Kept apart from the search results, so a new search does not forget whom was chosen.
   const [chosen, setChosen] = useState<{ name: string; email: string; role: StaffRole } | null>(null);
 
   const memberIds = new Set(members.map((member) => member.userId));
   const candidates = (choices.data?.items ?? []).filter((user) => !memberIds.has(user.id));
-  const shownPeople = chosen && !candidates.some((user) => user.email === chosen.email) ? [chosen, ...candidates] : candidates;
+  const shownPeople =
+    chosen && !candidates.some((user) => user.email === chosen.email) ? [chosen, ...candidates] : candidates;
   const personOptions: SelectOption<string>[] = shownPeople.map((user) => ({
     value: user.email,
     label: user.name || user.email,
@@ -51,7 +54,9 @@ export function AddMemberForm({ studyId, members, onAdded, onCancel }: AddMember
 
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3.5" aria-label="Add a member">
-      {addMembership.isError && <Notice>{membershipErrorMessage(addMembership.error, 'The member could not be added. Try again.')}</Notice>}
+      {addMembership.isError && (
+        <Notice>{membershipErrorMessage(addMembership.error, 'The member could not be added. Try again.')}</Notice>
+      )}
       <label className="flex flex-col gap-1">
         <span className="text-xs font-semibold text-ink">Find a staff member</span>
         <Input
@@ -75,12 +80,16 @@ export function AddMemberForm({ studyId, members, onAdded, onCancel }: AddMember
               const person = shownPeople.find((user) => user.email === next);
               setChosen(person ? { name: person.name, email: person.email, role: person.role as StaffRole } : null);
               const fitting = person ? fittingMembershipRoles(person.role as StaffRole) : [];
-              setValue('role', fitting.length === 1 ? fitting[0]! : (undefined as never), { shouldValidate: fitting.length === 1 });
+              setValue('role', fitting.length === 1 ? fitting[0]! : (undefined as never), {
+                shouldValidate: fitting.length === 1,
+              });
             }}
             onBlur={field.onBlur}
             buttonRef={field.ref}
             options={personOptions}
-            placeholder={searching ? 'Searching…' : personOptions.length === 0 ? 'No one else to add' : 'Choose a person…'}
+            placeholder={
+              searching ? 'Searching…' : personOptions.length === 0 ? 'No one else to add' : 'Choose a person…'
+            }
             disabled={searching || personOptions.length === 0}
             error={fieldState.error?.message}
           />
@@ -104,7 +113,8 @@ export function AddMemberForm({ studyId, members, onAdded, onCancel }: AddMember
         )}
       />
       <p className="text-xs text-ink-muted">
-        A member’s role in a study matches their staff role, so a coordinator joins as a coordinator; admins may join in any role.
+        A member’s role in a study matches their staff role, so a coordinator joins as a coordinator; admins may join in
+        any role.
       </p>
       <DialogActions>
         <Button onClick={onCancel}>Cancel</Button>

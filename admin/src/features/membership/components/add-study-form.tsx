@@ -40,7 +40,9 @@ export function AddStudyForm({ person, memberOf, onAdded, onCancel }: AddStudyFo
 
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3.5" aria-label={`Give ${person.name} a study`}>
-      {addMembership.isError && <Notice>{membershipErrorMessage(addMembership.error, 'The study could not be added. Try again.')}</Notice>}
+      {addMembership.isError && (
+        <Notice>{membershipErrorMessage(addMembership.error, 'The study could not be added. Try again.')}</Notice>
+      )}
       {studies.isError && <Notice>{membershipErrorMessage(studies.error, 'The studies could not be loaded.')}</Notice>}
       <Controller
         control={control}
@@ -53,7 +55,13 @@ export function AddStudyForm({ person, memberOf, onAdded, onCancel }: AddStudyFo
             onBlur={field.onBlur}
             buttonRef={field.ref}
             options={studyOptions}
-            placeholder={studies.isPending ? 'Loading studies…' : studyOptions.length === 0 ? 'They are in every study already' : 'Choose a study…'}
+            placeholder={
+              studies.isPending
+                ? 'Loading studies…'
+                : studyOptions.length === 0
+                  ? 'They are in every study already'
+                  : 'Choose a study…'
+            }
             disabled={studyOptions.length === 0}
             error={fieldState.error?.message}
           />

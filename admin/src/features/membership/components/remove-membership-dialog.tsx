@@ -49,7 +49,11 @@ export function RemoveMembershipDialog({ membership, onClose, onRemoved }: Remov
       title={`Remove ${target?.personName ?? ''} from ${target?.studyTitle ?? ''}?`}
       description="They stop seeing the study at once. What they did in it stays in its audit trail, and an admin can add them again later."
     >
-      {removeMembership.isError && <Notice>{membershipErrorMessage(removeMembership.error, 'The membership could not be removed. Try again.')}</Notice>}
+      {removeMembership.isError && (
+        <Notice>
+          {membershipErrorMessage(removeMembership.error, 'The membership could not be removed. Try again.')}
+        </Notice>
+      )}
       <DialogActions>
         <Button onClick={close}>Cancel</Button>
         <Button variant="danger" pending={removeMembership.isPending} onClick={confirm}>

@@ -27,12 +27,21 @@ export function StaffStudiesPanel({ person }: StaffStudiesPanelProps) {
   const body = () => {
     if (studies.isPending) return <LoadingState label="Loading their studies…" />;
     if (studies.isError) {
-      return <ErrorState message={membershipErrorMessage(studies.error, 'Their studies could not be loaded.')} onRetry={() => void studies.refetch()} />;
+      return (
+        <ErrorState
+          message={membershipErrorMessage(studies.error, 'Their studies could not be loaded.')}
+          onRetry={() => void studies.refetch()}
+        />
+      );
     }
     if (studies.data.items.length === 0) {
       return (
         <EmptyState title="No studies yet">
-          {name} sees no study until you add them to one{person.role === 'auditor' || person.role === 'admin' ? ', although their role already lets them read every study' : ''}.
+          {name} sees no study until you add them to one
+          {person.role === 'auditor' || person.role === 'admin'
+            ? ', although their role already lets them read every study'
+            : ''}
+          .
         </EmptyState>
       );
     }
@@ -42,8 +51,12 @@ export function StaffStudiesPanel({ person }: StaffStudiesPanelProps) {
           <caption className="sr-only">Studies {name} works on</caption>
           <thead>
             <tr>
-              <th scope="col" className={tableRecipe.headCell}>Study</th>
-              <th scope="col" className={tableRecipe.headCell}>Role in study</th>
+              <th scope="col" className={tableRecipe.headCell}>
+                Study
+              </th>
+              <th scope="col" className={tableRecipe.headCell}>
+                Role in study
+              </th>
               <th scope="col" className={tableRecipe.headCell}>
                 <span className="sr-only">Actions</span>
               </th>
@@ -53,7 +66,10 @@ export function StaffStudiesPanel({ person }: StaffStudiesPanelProps) {
             {studies.data.items.map((membership) => (
               <tr key={membership.studyId} className={tableRecipe.row}>
                 <td className={`${tableRecipe.cell} font-medium`}>
-                  <Link to={`/studies/${membership.studyId}/setup#members`} className="text-spruce-ink underline-offset-2 hover:underline">
+                  <Link
+                    to={`/studies/${membership.studyId}/setup#members`}
+                    className="text-spruce-ink underline-offset-2 hover:underline"
+                  >
                     {membership.title}
                   </Link>
                 </td>
@@ -67,7 +83,12 @@ export function StaffStudiesPanel({ person }: StaffStudiesPanelProps) {
                     aria-label={`Remove ${name} from ${membership.title}`}
                     onClick={() => {
                       setAnnouncement(null);
-                      setRemoving({ studyId: membership.studyId, studyTitle: membership.title, userId: person.id, personName: name });
+                      setRemoving({
+                        studyId: membership.studyId,
+                        studyTitle: membership.title,
+                        userId: person.id,
+                        personName: name,
+                      });
                     }}
                   >
                     Remove

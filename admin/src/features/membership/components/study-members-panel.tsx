@@ -28,12 +28,19 @@ export function StudyMembersPanel({ studyId, studyTitle, canManage }: StudyMembe
   const body = () => {
     if (members.isPending) return <LoadingState label="Loading members…" />;
     if (members.isError) {
-      return <ErrorState message={membershipErrorMessage(members.error, 'The members could not be loaded.')} onRetry={() => void members.refetch()} />;
+      return (
+        <ErrorState
+          message={membershipErrorMessage(members.error, 'The members could not be loaded.')}
+          onRetry={() => void members.refetch()}
+        />
+      );
     }
     if (members.data.items.length === 0) {
       return (
         <EmptyState title="No members yet">
-          {canManage ? 'Add the coordinators, researchers and auditors who work on this study.' : 'An admin adds the people who work on this study.'}
+          {canManage
+            ? 'Add the coordinators, researchers and auditors who work on this study.'
+            : 'An admin adds the people who work on this study.'}
         </EmptyState>
       );
     }
@@ -43,9 +50,15 @@ export function StudyMembersPanel({ studyId, studyTitle, canManage }: StudyMembe
           <caption className="sr-only">Members of {studyTitle}</caption>
           <thead>
             <tr>
-              <th scope="col" className={tableRecipe.headCell}>Name</th>
-              <th scope="col" className={tableRecipe.headCell}>E-mail</th>
-              <th scope="col" className={tableRecipe.headCell}>Role in study</th>
+              <th scope="col" className={tableRecipe.headCell}>
+                Name
+              </th>
+              <th scope="col" className={tableRecipe.headCell}>
+                E-mail
+              </th>
+              <th scope="col" className={tableRecipe.headCell}>
+                Role in study
+              </th>
               {canManage && (
                 <th scope="col" className={tableRecipe.headCell}>
                   <span className="sr-only">Actions</span>
@@ -60,7 +73,10 @@ export function StudyMembersPanel({ studyId, studyTitle, canManage }: StudyMembe
                 <tr key={member.userId} className={tableRecipe.row}>
                   <td className={`${tableRecipe.cell} font-medium`}>
                     {canManage ? (
-                      <Link to={`/staff/${member.userId}`} className="text-spruce-ink underline-offset-2 hover:underline">
+                      <Link
+                        to={`/staff/${member.userId}`}
+                        className="text-spruce-ink underline-offset-2 hover:underline"
+                      >
                         {name}
                       </Link>
                     ) : (

@@ -22,9 +22,16 @@ export class BudgetShortfallError extends ApiError {
 export async function approvePayouts(studyId: string, payoutIds: string[]): Promise<ApprovalResult> {
   let result;
   try {
-    result = await apiClient.POST('/api/studies/{studyId}/payouts/approve', { params: { path: { studyId } }, body: { payoutIds } });
+    result = await apiClient.POST('/api/studies/{studyId}/payouts/approve', {
+      params: { path: { studyId } },
+      body: { payoutIds },
+    });
   } catch {
-    throw new ApiError({ statusCode: 0, code: 'NETWORK', message: 'Could not reach the Evenhand server. Check your connection and try again.' });
+    throw new ApiError({
+      statusCode: 0,
+      code: 'NETWORK',
+      message: 'Could not reach the Evenhand server. Check your connection and try again.',
+    });
   }
   if (result.response.ok && result.data) return result.data;
   const body = result.error as Record<string, unknown> | undefined;
@@ -68,7 +75,9 @@ export async function approveInSlices(
 
 /** How many payouts of this run were approved before a refusal (0 when the first slice was refused). */
 export function approvedBeforeRefusal(error: unknown): number {
-  return typeof (error as { approvedBefore?: unknown })?.approvedBefore === 'number' ? (error as { approvedBefore: number }).approvedBefore : 0;
+  return typeof (error as { approvedBefore?: unknown })?.approvedBefore === 'number'
+    ? (error as { approvedBefore: number }).approvedBefore
+    : 0;
 }
 
 export function useApprovePayouts(studyId: string, onProgress: (progress: ApprovalProgress) => void) {

@@ -22,11 +22,17 @@ export function fundingAmountSchema(currency: string) {
         return z.NEVER;
       }
       if (parsed.minor < fundingMinimumMinor) {
-        context.addIssue({ code: 'custom', message: `Add at least ${formatMinor(fundingMinimumMinor, currency, 'en-US')}.` });
+        context.addIssue({
+          code: 'custom',
+          message: `Add at least ${formatMinor(fundingMinimumMinor, currency, 'en-US')}.`,
+        });
         return z.NEVER;
       }
       if (parsed.minor > fundingMaximumMinor) {
-        context.addIssue({ code: 'custom', message: `Add at most ${formatMinor(fundingMaximumMinor, currency, 'en-US')} at a time.` });
+        context.addIssue({
+          code: 'custom',
+          message: `Add at most ${formatMinor(fundingMaximumMinor, currency, 'en-US')} at a time.`,
+        });
         return z.NEVER;
       }
       return parsed.minor;
@@ -38,12 +44,16 @@ export type FundingAmountOutput = z.output<ReturnType<typeof fundingAmountSchema
 
 /** Opens a card payment with the provider; the card is confirmed in the browser with the returned client secret. */
 export async function createFunding(studyId: string, amountMinor: number): Promise<FundingIntent> {
-  return unwrap(apiClient.POST('/api/studies/{studyId}/funding', { params: { path: { studyId } }, body: { amountMinor } }));
+  return unwrap(
+    apiClient.POST('/api/studies/{studyId}/funding', { params: { path: { studyId } }, body: { amountMinor } }),
+  );
 }
 
 /** Asks the api to read the confirmed payment from the provider now, instead of waiting for its webhook. */
 export async function refreshFunding(studyId: string, fundingId: string): Promise<Budget> {
-  return unwrap(apiClient.POST('/api/studies/{studyId}/funding/{fundingId}/refresh', { params: { path: { studyId, fundingId } } }));
+  return unwrap(
+    apiClient.POST('/api/studies/{studyId}/funding/{fundingId}/refresh', { params: { path: { studyId, fundingId } } }),
+  );
 }
 
 export function useCreateFunding(studyId: string) {

@@ -12,9 +12,16 @@ export interface FinancePeriod {
 export async function downloadFinanceExport(studyId: string, period: FinancePeriod): Promise<string> {
   let result;
   try {
-    result = await apiClient.GET('/api/studies/{studyId}/payouts/finance-export.csv', { params: { path: { studyId }, query: period }, parseAs: 'blob' });
+    result = await apiClient.GET('/api/studies/{studyId}/payouts/finance-export.csv', {
+      params: { path: { studyId }, query: period },
+      parseAs: 'blob',
+    });
   } catch {
-    throw new ApiError({ statusCode: 0, code: 'NETWORK', message: 'Could not reach the Evenhand server. Check your connection and try again.' });
+    throw new ApiError({
+      statusCode: 0,
+      code: 'NETWORK',
+      message: 'Could not reach the Evenhand server. Check your connection and try again.',
+    });
   }
   if (!result.response.ok || !result.data) throw new ApiError(toApiProblem(result.response.status, result.error));
   const disposition = result.response.headers.get('Content-Disposition') ?? '';

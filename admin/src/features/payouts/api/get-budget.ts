@@ -10,7 +10,11 @@ export async function getBudget(studyId: string): Promise<Budget> {
 }
 
 export const budgetQueryOptions = (studyId: string, pollEveryMs: number | false = false) =>
-  queryOptions({ queryKey: payoutKeys.budget(studyId), queryFn: () => getBudget(studyId), refetchInterval: pollEveryMs });
+  queryOptions({
+    queryKey: payoutKeys.budget(studyId),
+    queryFn: () => getBudget(studyId),
+    refetchInterval: pollEveryMs,
+  });
 
 export function useBudget(studyId: string, pollEveryMs: number | false = false) {
   return useQuery(budgetQueryOptions(studyId, pollEveryMs));

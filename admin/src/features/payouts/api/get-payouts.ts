@@ -7,7 +7,9 @@ export type PayoutPage = components['schemas']['PayoutPageDto'];
 export type Payout = components['schemas']['PayoutDto'];
 export type PayoutStatus = Payout['status'];
 export type PayoutStage = Payout['stage'];
-export type PayoutSort = NonNullable<NonNullable<operations['StudyPayoutsController_list']['parameters']['query']>['sort']>;
+export type PayoutSort = NonNullable<
+  NonNullable<operations['StudyPayoutsController_list']['parameters']['query']>['sort']
+>;
 export type StageTotals = PayoutPage['stages'];
 
 export interface PayoutQuery {
@@ -21,7 +23,10 @@ export interface PayoutQuery {
   pageSize: number;
 }
 
-export async function getPayouts(studyId: string, { stage, status, conditionId, enrollmentId, search, sort, page, pageSize }: PayoutQuery): Promise<PayoutPage> {
+export async function getPayouts(
+  studyId: string,
+  { stage, status, conditionId, enrollmentId, search, sort, page, pageSize }: PayoutQuery,
+): Promise<PayoutPage> {
   const query = {
     page,
     pageSize,

@@ -12,7 +12,12 @@ export async function getReconciliation(studyId: string): Promise<Reconciliation
 
 /** Asks the provider only when someone presses the button: it lists every transfer, which takes a moment. */
 export const reconciliationQueryOptions = (studyId: string, requested: boolean) =>
-  queryOptions({ queryKey: payoutKeys.reconciliation(studyId), queryFn: () => getReconciliation(studyId), enabled: requested, staleTime: Infinity });
+  queryOptions({
+    queryKey: payoutKeys.reconciliation(studyId),
+    queryFn: () => getReconciliation(studyId),
+    enabled: requested,
+    staleTime: Infinity,
+  });
 
 export function useReconciliation(studyId: string, requested: boolean) {
   return useQuery(reconciliationQueryOptions(studyId, requested));

@@ -9,7 +9,9 @@ const studyId = 'fd81ba27-7b62-43f7-9ccb-3494ef5fcdc7';
 const fundingPath = `/api/studies/${studyId}/funding`;
 
 function openDialog() {
-  return renderWithProviders(<AddFundsDialog studyId={studyId} currency="USD" open onClose={vi.fn()} onFunded={vi.fn()} />);
+  return renderWithProviders(
+    <AddFundsDialog studyId={studyId} currency="USD" open onClose={vi.fn()} onFunded={vi.fn()} />,
+  );
 }
 
 describe('AddFundsDialog', { timeout: 15_000 }, () => {
@@ -45,7 +47,14 @@ describe('AddFundsDialog', { timeout: 15_000 }, () => {
     const { requests } = stubApi({
       [`POST ${fundingPath}`]: {
         status: 201,
-        body: { fundingId: 'a1b2c3d4-0000-4000-8000-000000000001', clientSecret: 'pi_1_secret_2', publishableKey: 'pk_test_1', scriptUrl: 'http://127.0.0.1:3200/v1/stripe.js', amountMinor: 125050, currency: 'USD' },
+        body: {
+          fundingId: 'a1b2c3d4-0000-4000-8000-000000000001',
+          clientSecret: 'pi_1_secret_2',
+          publishableKey: 'pk_test_1',
+          scriptUrl: 'http://127.0.0.1:3200/v1/stripe.js',
+          amountMinor: 125050,
+          currency: 'USD',
+        },
       },
     });
     openDialog();

@@ -57,22 +57,39 @@ export function AddFundsDialog({ studyId, currency, open, onClose, onFunded }: A
   );
 }
 
-function AmountStep({ studyId, currency, onCancel, onIntent }: { studyId: string; currency: string; onCancel: () => void; onIntent: (intent: FundingIntent) => void }) {
+function AmountStep({
+  studyId,
+  currency,
+  onCancel,
+  onIntent,
+}: {
+  studyId: string;
+  currency: string;
+  onCancel: () => void;
+  onIntent: (intent: FundingIntent) => void;
+}) {
   const createFunding = useCreateFunding(studyId);
   const {
     register,
     handleSubmit,
     setError,
     formState: { errors },
-  } = useForm<FundingAmountInput, unknown, FundingAmountOutput>({ resolver: zodResolver(fundingAmountSchema(currency)), defaultValues: { amount: '' } });
+  } = useForm<FundingAmountInput, unknown, FundingAmountOutput>({
+    resolver: zodResolver(fundingAmountSchema(currency)),
+    defaultValues: { amount: '' },
+  });
 
   const onSubmit = handleSubmit(({ amount }) =>
     createFunding.mutate(amount, {
       onSuccess: onIntent,
       onError: (error) => {
-        const fieldError = error instanceof ApiError ? error.fieldErrors.find((problem) => problem.field === 'amountMinor') : undefined;
+        const fieldError =
+          error instanceof ApiError ? error.fieldErrors.find((problem) => problem.field === 'amountMinor') : undefined;
         if (fieldError) setError('amount', { message: fieldError.message });
-        else setError('root.server', { message: error instanceof ApiError ? error.message : 'The payment could not be started. Try again.' });
+        else
+          setError('root.server', {
+            message: error instanceof ApiError ? error.message : 'The payment could not be started. Try again.',
+          });
       },
     }),
   );
@@ -98,9 +115,23 @@ function AmountStep({ studyId, currency, onCancel, onIntent }: { studyId: string
   );
 }
 
-type CardState = { phase: 'loading' } | { phase: 'ready'; complete: boolean } | { phase: 'paying' } | { phase: 'failed-to-load'; message: string };
+type CardState =
+  | { phase: 'loading' }
+  | { phase: 'ready'; complete: boolean }
+  | { phase: 'paying' }
+  | { phase: 'failed-to-load'; message: string };
 
-function CardStep({ studyId, intent, onBack, onFunded }: { studyId: string; intent: FundingIntent; onBack: () => void; onFunded: () => void }) {
+function CardStep({
+  studyId,
+  intent,
+  onBack,
+  onFunded,
+}: {
+  studyId: string;
+  intent: FundingIntent;
+  onBack: () => void;
+  onFunded: () => void;
+}) {
   const mountNode = useRef<HTMLDivElement>(null);
   const stripeRef = useRef<Stripe | null>(null);
   const cardRef = useRef<StripeCardElement | null>(null);
@@ -128,7 +159,11 @@ function CardStep({ studyId, intent, onBack, onFunded }: { studyId: string; inte
         setState({ phase: 'ready', complete: false });
       })
       .catch((error: unknown) => {
-        if (!cancelled) setState({ phase: 'failed-to-load', message: error instanceof Error ? error.message : 'The card form could not be loaded.' });
+        if (!cancelled)
+          setState({
+            phase: 'failed-to-load',
+            message: error instanceof Error ? error.message : 'The card form could not be loaded.',
+          });
       });
     return () => {
       cancelled = true;
@@ -171,7 +206,12 @@ function CardStep({ studyId, intent, onBack, onFunded }: { studyId: string; inte
         <Button onClick={onBack} disabled={paying}>
           Change amount
         </Button>
-        <Button variant="primary" onClick={() => void pay()} pending={paying} disabled={state.phase !== 'ready' && state.phase !== 'paying'}>
+        <Button
+          variant="primary"
+          onClick={() => void pay()}
+          pending={paying}
+          disabled={state.phase !== 'ready' && state.phase !== 'paying'}
+        >
           Pay {formatMinor(intent.amountMinor, intent.currency, 'en-US')}
         </Button>
       </DialogActions>

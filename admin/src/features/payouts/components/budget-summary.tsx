@@ -40,7 +40,10 @@ export function BudgetSummary({ studyId, canFund, onAddFunds, pollEveryMs = fals
       {budget.isPending ? (
         <LoadingState label="Loading the budget…" className="py-4" />
       ) : budget.isError ? (
-        <ErrorState message={budget.error instanceof ApiError ? budget.error.message : 'The budget could not be loaded.'} onRetry={() => void budget.refetch()} />
+        <ErrorState
+          message={budget.error instanceof ApiError ? budget.error.message : 'The budget could not be loaded.'}
+          onRetry={() => void budget.refetch()}
+        />
       ) : (
         <>
           <dl className="grid grid-cols-2 gap-3 sm:grid-cols-4 xl:grid-cols-7">
@@ -56,7 +59,9 @@ export function BudgetSummary({ studyId, canFund, onAddFunds, pollEveryMs = fals
           </dl>
           {budget.data.owedMinor > budget.data.remainingMinor && (
             <p className="mt-3 text-sm text-ink-muted">
-              Paying everything owed needs {formatMinor(budget.data.owedMinor - budget.data.remainingMinor, budget.data.currency, 'en-US')} more than is left.
+              Paying everything owed needs{' '}
+              {formatMinor(budget.data.owedMinor - budget.data.remainingMinor, budget.data.currency, 'en-US')} more than
+              is left.
             </p>
           )}
         </>

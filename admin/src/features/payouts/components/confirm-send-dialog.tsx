@@ -29,22 +29,29 @@ export function ConfirmSendDialog({ pending, currency, onCancel, onConfirm }: Co
       <div className="flex flex-col gap-2 text-sm text-ink">
         {retry ? (
           <p>
-            The earlier try failed: {(pending.payout.failureReason ?? 'no reason was given').replace(/\.$/, '')}. It is sent under the same key, so the participant can never be paid twice.
+            The earlier try failed: {(pending.payout.failureReason ?? 'no reason was given').replace(/\.$/, '')}. It is
+            sent under the same key, so the participant can never be paid twice.
           </p>
         ) : (
           <p>
-            {plural(pending.now.payouts, 'payout', 'payouts')} to {pending.now.participants === 1 ? '1 participant who has' : `${pending.now.participants} participants who have`} set up how
-            they get paid. Sending starts as soon as you confirm.
+            {plural(pending.now.payouts, 'payout', 'payouts')} to{' '}
+            {pending.now.participants === 1
+              ? '1 participant who has'
+              : `${pending.now.participants} participants who have`}{' '}
+            set up how they get paid. Sending starts as soon as you confirm.
           </p>
         )}
         {pending.kind === 'all' && pending.waiting.payouts > 0 && (
           <p className="text-ink-muted">
-            Not included: {plural(pending.waiting.payouts, 'payout', 'payouts')} ({money(pending.waiting.amountMinor)}) to{' '}
-            {plural(pending.waiting.participants, 'participant', 'participants')} who have not finished setting up how they get paid. They stay under “Waiting for the
-            participant’s set-up”.
+            Not included: {plural(pending.waiting.payouts, 'payout', 'payouts')} ({money(pending.waiting.amountMinor)})
+            to {plural(pending.waiting.participants, 'participant', 'participants')} who have not finished setting up
+            how they get paid. They stay under “Waiting for the participant’s set-up”.
           </p>
         )}
-        <p className="text-ink-muted">The study's funded balance must cover it; if it does not, nothing is sent and you are told how much is missing.</p>
+        <p className="text-ink-muted">
+          The study's funded balance must cover it; if it does not, nothing is sent and you are told how much is
+          missing.
+        </p>
       </div>
       <DialogActions>
         <Button onClick={onCancel}>Cancel</Button>

@@ -35,16 +35,27 @@ export function FinanceExportPanel({ studyId }: { studyId: string }) {
             onChange={(event) => setPeriod({ ...period, from: event.target.value })}
             error={shown ? problems.from : undefined}
           />
-          <TextField label="Last day" type="date" className="w-44" value={period.to} onChange={(event) => setPeriod({ ...period, to: event.target.value })} error={shown ? problems.to : undefined} />
+          <TextField
+            label="Last day"
+            type="date"
+            className="w-44"
+            value={period.to}
+            onChange={(event) => setPeriod({ ...period, to: event.target.value })}
+            error={shown ? problems.to : undefined}
+          />
           <Button type="submit" className="mt-5" pending={download.isPending}>
             Download CSV
           </Button>
         </div>
         {download.isSuccess && <Notice tone="info">Saved {download.data}.</Notice>}
-        {download.isError && <Notice tone="danger">{download.error instanceof ApiError ? download.error.message : 'The file could not be made. Try again.'}</Notice>}
+        {download.isError && (
+          <Notice tone="danger">
+            {download.error instanceof ApiError ? download.error.message : 'The file could not be made. Try again.'}
+          </Notice>
+        )}
         <p className="text-xs text-ink-muted">
-          Amounts appear in currency units and in minor units (cents). How research payments are taxed and reported is for your institution’s finance office to decide; the
-          threshold column is a screening aid, not advice.
+          Amounts appear in currency units and in minor units (cents). How research payments are taxed and reported is
+          for your institution’s finance office to decide; the threshold column is a screening aid, not advice.
         </p>
       </form>
     </Panel>

@@ -27,9 +27,22 @@ export function PayWorkspace({ studyId, currency, blinded, canManage, canReview,
 
   return (
     <div className="flex flex-col gap-5">
-      {funded !== null && <Notice tone="info">{formatMinor(funded, currency, 'en-US')} was added to the study's balance.</Notice>}
-      <BudgetSummary studyId={studyId} canFund={canManage} onAddFunds={() => setFunding(true)} pollEveryMs={batchRunning ? 1000 : false} />
-      <PayoutQueue studyId={studyId} blinded={blinded} canApprove={canManage} conditions={conditions} onBatchRunning={setBatchRunning} />
+      {funded !== null && (
+        <Notice tone="info">{formatMinor(funded, currency, 'en-US')} was added to the study's balance.</Notice>
+      )}
+      <BudgetSummary
+        studyId={studyId}
+        canFund={canManage}
+        onAddFunds={() => setFunding(true)}
+        pollEveryMs={batchRunning ? 1000 : false}
+      />
+      <PayoutQueue
+        studyId={studyId}
+        blinded={blinded}
+        canApprove={canManage}
+        conditions={conditions}
+        onBatchRunning={setBatchRunning}
+      />
       {canReview && (
         <div className="grid gap-5 lg:grid-cols-2">
           <ReconciliationPanel studyId={studyId} currency={currency} />
@@ -37,7 +50,15 @@ export function PayWorkspace({ studyId, currency, blinded, canManage, canReview,
         </div>
       )}
       {canReview && <FinanceExportPanel studyId={studyId} />}
-      {canManage && <AddFundsDialog studyId={studyId} currency={currency} open={funding} onClose={() => setFunding(false)} onFunded={setFunded} />}
+      {canManage && (
+        <AddFundsDialog
+          studyId={studyId}
+          currency={currency}
+          open={funding}
+          onClose={() => setFunding(false)}
+          onFunded={setFunded}
+        />
+      )}
     </div>
   );
 }

@@ -26,15 +26,27 @@ export function PaymentHistoryDialog({ studyId, participant, onClose }: PaymentH
   const items = history.data?.items ?? [];
   const currency = items[0]?.currency ?? 'USD';
   const money = (minor: number) => formatMinor(minor, currency, 'en-US');
-  const earned = items.filter((p) => p.status !== 'cancelled' && p.status !== 'reversed').reduce((sum, p) => sum + p.amountMinor, 0);
+  const earned = items
+    .filter((p) => p.status !== 'cancelled' && p.status !== 'reversed')
+    .reduce((sum, p) => sum + p.amountMinor, 0);
   const paid = items.filter((p) => p.status === 'paid').reduce((sum, p) => sum + p.amountMinor, 0);
   const owed = items.filter((p) => stillOwed.has(p.status)).reduce((sum, p) => sum + p.amountMinor, 0);
   return (
-    <ModalDialog open={participant !== null} onClose={onClose} title={`Payments to ${participant?.reference ?? ''}`} size="wide">
+    <ModalDialog
+      open={participant !== null}
+      onClose={onClose}
+      title={`Payments to ${participant?.reference ?? ''}`}
+      size="wide"
+    >
       {history.isPending ? (
         <LoadingState label="Loading the payment history…" className="py-4" />
       ) : history.isError ? (
-        <ErrorState message={history.error instanceof ApiError ? history.error.message : 'The payment history could not be loaded.'} onRetry={() => void history.refetch()} />
+        <ErrorState
+          message={
+            history.error instanceof ApiError ? history.error.message : 'The payment history could not be loaded.'
+          }
+          onRetry={() => void history.refetch()}
+        />
       ) : (
         <div className="flex flex-col gap-3">
           <dl className="grid grid-cols-3 gap-2 text-sm">
@@ -45,9 +57,7 @@ export function PaymentHistoryDialog({ studyId, participant, onClose }: PaymentH
             ].map(([label, value]) => (
               <div key={label} className="rounded-md border border-line px-3 py-2">
                 <dt className="text-xs font-semibold text-ink-muted">{label}</dt>
-                <dd className="font-semibold tabular-nums text-ink">
-                  {money(value as number)}
-                </dd>
+                <dd className="font-semibold tabular-nums text-ink">{money(value as number)}</dd>
               </div>
             ))}
           </dl>
@@ -57,19 +67,33 @@ export function PaymentHistoryDialog({ studyId, participant, onClose }: PaymentH
               <caption className="sr-only">Every payout of {participant?.reference}, oldest first</caption>
               <thead>
                 <tr>
-                  <th scope="col" className={tableRecipe.headCell}>Earned</th>
-                  <th scope="col" className={tableRecipe.headCell}>For</th>
-                  <th scope="col" className={cx(tableRecipe.headCell, 'text-right')}>Amount</th>
-                  <th scope="col" className={tableRecipe.headCell}>State</th>
-                  <th scope="col" className={tableRecipe.headCell}>Paid</th>
-                  <th scope="col" className={tableRecipe.headCell}>Receipt and provider reference</th>
+                  <th scope="col" className={tableRecipe.headCell}>
+                    Earned
+                  </th>
+                  <th scope="col" className={tableRecipe.headCell}>
+                    For
+                  </th>
+                  <th scope="col" className={cx(tableRecipe.headCell, 'text-right')}>
+                    Amount
+                  </th>
+                  <th scope="col" className={tableRecipe.headCell}>
+                    State
+                  </th>
+                  <th scope="col" className={tableRecipe.headCell}>
+                    Paid
+                  </th>
+                  <th scope="col" className={tableRecipe.headCell}>
+                    Receipt and provider reference
+                  </th>
                 </tr>
               </thead>
               <tbody>
                 {items.map((payout) => (
                   <tr key={payout.id} className={tableRecipe.row}>
                     <td className={cx(tableRecipe.cell, 'whitespace-nowrap')}>{formatDay(payout.createdAt)}</td>
-                    <td className={tableRecipe.cell}>{payout.kind === 'bonus' ? 'Completion bonus' : payout.stepTitle}</td>
+                    <td className={tableRecipe.cell}>
+                      {payout.kind === 'bonus' ? 'Completion bonus' : payout.stepTitle}
+                    </td>
                     <td className={cx(tableRecipe.cell, 'text-right tabular-nums')}>{money(payout.amountMinor)}</td>
                     <td className={tableRecipe.cell}>
                       <PayoutStatusBadge status={payout.status} />

@@ -23,7 +23,15 @@ const base = {
   approvedAt: null,
   paidAt: null,
 };
-const first = { ...base, id: 'fe715aac-2dc1-4ddb-8130-67daeec77106', reference: 'P-QBKST7', stepTitle: 'Session 3: finding rooms again', amountMinor: 1500, status: 'owed', stage: 'to-approve' };
+const first = {
+  ...base,
+  id: 'fe715aac-2dc1-4ddb-8130-67daeec77106',
+  reference: 'P-QBKST7',
+  stepTitle: 'Session 3: finding rooms again',
+  amountMinor: 1500,
+  status: 'owed',
+  stage: 'to-approve',
+};
 const second = {
   ...base,
   id: '6bba9194-c85b-4fec-8e29-5adc57cb4aa7',
@@ -74,10 +82,20 @@ const stages = {
 function listAnswer(request: RecordedRequest) {
   const stage = request.query.get('stage');
   const enrollmentId = request.query.get('enrollmentId');
-  const items = rows.filter((row) => (!stage || row.stage === stage) && (!enrollmentId || row.enrollmentId === enrollmentId));
+  const items = rows.filter(
+    (row) => (!stage || row.stage === stage) && (!enrollmentId || row.enrollmentId === enrollmentId),
+  );
   return {
     status: 200,
-    body: { items, total: items.length, page: 1, pageSize: 50, countsByStatus: { owed: 8, failed: 1, paid: 1 }, amountByStatus: { owed: 11100, failed: 1200, paid: 1000 }, stages },
+    body: {
+      items,
+      total: items.length,
+      page: 1,
+      pageSize: 50,
+      countsByStatus: { owed: 8, failed: 1, paid: 1 },
+      amountByStatus: { owed: 11100, failed: 1200, paid: 1000 },
+      stages,
+    },
   };
 }
 
@@ -89,8 +107,12 @@ describe('PayoutQueue', { timeout: 15_000 }, () => {
     const toApprove = await screen.findByRole('button', { name: /^Waiting for approval/ });
     expect(toApprove).toHaveAttribute('aria-expanded', 'true');
     expect(toApprove).toHaveTextContent('2 payouts · 2 participants · $25.00');
-    expect(screen.getByRole('button', { name: /^Waiting for the participant’s set-up/ })).toHaveTextContent('6 payouts · 6 participants · $86.00');
-    expect(screen.getByRole('button', { name: /^Needs attention/ })).toHaveTextContent('1 payout · 1 participant · $12.00');
+    expect(screen.getByRole('button', { name: /^Waiting for the participant’s set-up/ })).toHaveTextContent(
+      '6 payouts · 6 participants · $86.00',
+    );
+    expect(screen.getByRole('button', { name: /^Needs attention/ })).toHaveTextContent(
+      '1 payout · 1 participant · $12.00',
+    );
     expect(screen.queryByRole('group', { name: 'Show payouts by status' })).not.toBeInTheDocument();
 
     await userEvent.click(screen.getByRole('button', { name: /^Needs attention/ }));
@@ -100,10 +122,15 @@ describe('PayoutQueue', { timeout: 15_000 }, () => {
   });
 
   it('asks before approving the selected rows, counting exactly who is paid now', async () => {
-    const { requests } = stubApi({ [`GET ${listPath}`]: listAnswer, [`POST ${approvePath}`]: { status: 200, body: { approved: 1, amountMinor: 1000, remainingMinor: 9000 } } });
+    const { requests } = stubApi({
+      [`GET ${listPath}`]: listAnswer,
+      [`POST ${approvePath}`]: { status: 200, body: { approved: 1, amountMinor: 1000, remainingMinor: 9000 } },
+    });
     renderWithProviders(<PayoutQueue studyId={studyId} blinded canApprove conditions={[]} />);
 
-    await userEvent.click(await screen.findByRole('checkbox', { name: 'Select P-JMU73A, Session 1: learning the building' }));
+    await userEvent.click(
+      await screen.findByRole('checkbox', { name: 'Select P-JMU73A, Session 1: learning the building' }),
+    );
     await userEvent.click(screen.getByRole('button', { name: 'Approve selected (1)' }));
 
     // The defect this guards: "Approve selected" once sent money with no confirmation.
@@ -113,35 +140,53 @@ describe('PayoutQueue', { timeout: 15_000 }, () => {
     await userEvent.click(within(dialog).getByRole('button', { name: 'Send $10.00' }));
 
     expect(await screen.findByText(/Approved 1 payout \(\$10\.00\)/)).toBeInTheDocument();
-    expect(requests.filter((request) => request.path === approvePath).map((request) => request.body)).toEqual([{ payoutIds: [second.id] }]);
+    expect(requests.filter((request) => request.path === approvePath).map((request) => request.body)).toEqual([
+      { payoutIds: [second.id] },
+    ]);
   });
 
   it('says, before approving everything waiting, who is paid now and who waits for set-up', async () => {
-    const { requests } = stubApi({ [`GET ${listPath}`]: listAnswer, [`POST ${approvePath}`]: { status: 200, body: { approved: 2, amountMinor: 2500, remainingMinor: 0 } } });
+    const { requests } = stubApi({
+      [`GET ${listPath}`]: listAnswer,
+      [`POST ${approvePath}`]: { status: 200, body: { approved: 2, amountMinor: 2500, remainingMinor: 0 } },
+    });
     renderWithProviders(<PayoutQueue studyId={studyId} blinded canApprove conditions={[]} />);
 
     await userEvent.click(await screen.findByRole('button', { name: 'Approve all waiting (2)' }));
     const dialog = await screen.findByRole('alertdialog', { name: 'Send $25.00 now?' });
     // The defect this guards: the dialog once promised the whole owed sum to people who had not set up.
     expect(dialog).toHaveTextContent('2 payouts to 2 participants who have set up how they get paid.');
-    expect(dialog).toHaveTextContent('Not included: 6 payouts ($86.00) to 6 participants who have not finished setting up how they get paid.');
+    expect(dialog).toHaveTextContent(
+      'Not included: 6 payouts ($86.00) to 6 participants who have not finished setting up how they get paid.',
+    );
     await userEvent.click(within(dialog).getByRole('button', { name: 'Send $25.00' }));
 
     await waitFor(() => expect(requests.some((request) => request.path === approvePath)).toBe(true));
-    expect((requests.find((request) => request.path === approvePath)?.body as { payoutIds: string[] }).payoutIds.sort()).toEqual([first.id, second.id].sort());
+    expect(
+      (requests.find((request) => request.path === approvePath)?.body as { payoutIds: string[] }).payoutIds.sort(),
+    ).toEqual([first.id, second.id].sort());
     // "All waiting" lists the to-approve group only, never the ones waiting for set-up.
-    expect(requests.filter((request) => request.path === listPath && request.query.get('pageSize') === '500').every((request) => request.query.get('stage') === 'to-approve')).toBe(true);
+    expect(
+      requests
+        .filter((request) => request.path === listPath && request.query.get('pageSize') === '500')
+        .every((request) => request.query.get('stage') === 'to-approve'),
+    ).toBe(true);
   });
 
   it('asks before retrying a failed payout', async () => {
-    const { requests } = stubApi({ [`GET ${listPath}`]: listAnswer, [`POST /api/payouts/${failed.id}/retry`]: { status: 200, body: { queued: true } } });
+    const { requests } = stubApi({
+      [`GET ${listPath}`]: listAnswer,
+      [`POST /api/payouts/${failed.id}/retry`]: { status: 200, body: { queued: true } },
+    });
     renderWithProviders(<PayoutQueue studyId={studyId} blinded canApprove conditions={[]} />);
     await userEvent.click(await screen.findByRole('button', { name: /^Needs attention/ }));
     await userEvent.click(await screen.findByRole('button', { name: 'Retry P-SVVMCF, Session 2: a new floor' }));
     const dialog = await screen.findByRole('alertdialog', { name: 'Send $12.00 to P-SVVMCF again?' });
     expect(requests.some((request) => request.path.endsWith('/retry'))).toBe(false);
     await userEvent.click(within(dialog).getByRole('button', { name: 'Send again' }));
-    await waitFor(() => expect(requests.some((request) => request.path === `/api/payouts/${failed.id}/retry`)).toBe(true));
+    await waitFor(() =>
+      expect(requests.some((request) => request.path === `/api/payouts/${failed.id}/retry`)).toBe(true),
+    );
   });
 
   it('says how much is missing when the funded balance does not cover the approval', async () => {
@@ -149,18 +194,28 @@ describe('PayoutQueue', { timeout: 15_000 }, () => {
       [`GET ${listPath}`]: listAnswer,
       [`POST ${approvePath}`]: {
         status: 409,
-        body: { statusCode: 409, code: 'CONFLICT', message: "Approving 1 payout(s) needs more than the study's funded balance. Fund the study first.", neededMinor: 1500, remainingMinor: 400 },
+        body: {
+          statusCode: 409,
+          code: 'CONFLICT',
+          message: "Approving 1 payout(s) needs more than the study's funded balance. Fund the study first.",
+          neededMinor: 1500,
+          remainingMinor: 400,
+        },
       },
     });
     renderWithProviders(<PayoutQueue studyId={studyId} blinded canApprove conditions={[]} />);
 
-    await userEvent.click(await screen.findByRole('checkbox', { name: 'Select P-QBKST7, Session 3: finding rooms again' }));
+    await userEvent.click(
+      await screen.findByRole('checkbox', { name: 'Select P-QBKST7, Session 3: finding rooms again' }),
+    );
     await userEvent.click(screen.getByRole('button', { name: 'Approve selected (1)' }));
     await userEvent.click(within(await screen.findByRole('alertdialog')).getByRole('button', { name: 'Send $15.00' }));
 
     const refusal = await screen.findByText(/^Not enough funds/);
     expect(refusal).toHaveAttribute('role', 'alert');
-    expect(refusal).toHaveTextContent('Not enough funds: this needs $15.00 but only $4.00 of the funded balance is left. Add funds by card, then approve again.');
+    expect(refusal).toHaveTextContent(
+      'Not enough funds: this needs $15.00 but only $4.00 of the funded balance is left. Add funds by card, then approve again.',
+    );
     expect(screen.getByRole('button', { name: 'Approve selected (1)' })).toBeEnabled();
   });
 
@@ -181,7 +236,14 @@ describe('PayoutQueue', { timeout: 15_000 }, () => {
 
   it('flags a pay override with the caution about unequal pay, and hides approval from readers', async () => {
     stubApi({ [`GET ${listPath}`]: listAnswer });
-    renderWithProviders(<PayoutQueue studyId={studyId} blinded={false} canApprove={false} conditions={[{ id: 'c1', label: 'map cues' }]} />);
+    renderWithProviders(
+      <PayoutQueue
+        studyId={studyId}
+        blinded={false}
+        canApprove={false}
+        conditions={[{ id: 'c1', label: 'map cues' }]}
+      />,
+    );
 
     expect(await screen.findByText('Pay override')).toBeInTheDocument();
     expect(screen.getByText(/Unequal pay between conditions can change who stays/)).toBeInTheDocument();

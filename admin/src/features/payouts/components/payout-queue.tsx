@@ -9,8 +9,20 @@ import { EmptyState, ErrorState, LoadingState, Notice } from '@/components/ui/st
 import { useDebouncedValue } from '@/hooks/use-debounced-value';
 import { ApiError } from '@/lib/api-error';
 import { formatMinor } from '@/lib/money';
-import { BudgetShortfallError, approvedBeforeRefusal, useApprovePayouts, type ApprovalProgress } from '../api/approve-payouts';
-import { getPayoutIdsInStage, usePayouts, type Payout, type PayoutSort, type PayoutStage, type StageTotals } from '../api/get-payouts';
+import {
+  BudgetShortfallError,
+  approvedBeforeRefusal,
+  useApprovePayouts,
+  type ApprovalProgress,
+} from '../api/approve-payouts';
+import {
+  getPayoutIdsInStage,
+  usePayouts,
+  type Payout,
+  type PayoutSort,
+  type PayoutStage,
+  type StageTotals,
+} from '../api/get-payouts';
 import { useRetryPayout } from '../api/retry-payout';
 import { batchProgress, type StatusCounts } from '../utils/batch-progress';
 import { formatDay, payoutStages, plural, summarizeSelection, type SelectionSummary } from '../utils/payout-stages';
@@ -44,7 +56,8 @@ const sortChoices: ReadonlyArray<{ value: PayoutSort; label: string }> = [
   { value: 'participant', label: 'By participant' },
 ];
 
-const controlClass = 'h-8 rounded-md border border-line-strong bg-surface px-2 text-sm text-ink focus:outline-2 focus:outline-spruce';
+const controlClass =
+  'h-8 rounded-md border border-line-strong bg-surface px-2 text-sm text-ink focus:outline-2 focus:outline-spruce';
 
 interface RunningBatch {
   size: number;
@@ -74,7 +87,11 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
   const [historyOf, setHistoryOf] = useState<{ enrollmentId: string; reference: string } | null>(null);
   const search = useDebouncedValue(searchText, 300);
 
-  const payouts = usePayouts(studyId, { stage, conditionId: blinded ? null : conditionId, search, sort, page, pageSize }, batch ? 1000 : false);
+  const payouts = usePayouts(
+    studyId,
+    { stage, conditionId: blinded ? null : conditionId, search, sort, page, pageSize },
+    batch ? 1000 : false,
+  );
   const approve = useApprovePayouts(studyId, setSending);
   const retry = useRetryPayout(studyId);
 
@@ -130,7 +147,10 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
       onSuccess: ({ approved, amountMinor }) => {
         setSelected(new Map());
         setBatch({ size: approved, before, startedAt: Date.now() });
-        setOutcome({ tone: 'info', text: `Approved ${approved} payout${approved === 1 ? '' : 's'} (${money(amountMinor)}). Sending now…` });
+        setOutcome({
+          tone: 'info',
+          text: `Approved ${approved} payout${approved === 1 ? '' : 's'} (${money(amountMinor)}). Sending now…`,
+        });
       },
       onError: (error) => {
         const approvedFirst = approvedBeforeRefusal(error);
@@ -146,8 +166,13 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
     if (send.kind === 'retry') {
       const { payout } = send;
       retry.mutate(payout.id, {
-        onSuccess: () => setBatch({ size: 1, before: { ...counts, failed: (counts.failed ?? 1) - 1 }, startedAt: Date.now() }),
-        onError: (error) => setOutcome({ tone: 'danger', text: error instanceof ApiError ? error.message : 'The payout could not be sent again.' }),
+        onSuccess: () =>
+          setBatch({ size: 1, before: { ...counts, failed: (counts.failed ?? 1) - 1 }, startedAt: Date.now() }),
+        onError: (error) =>
+          setOutcome({
+            tone: 'danger',
+            text: error instanceof ApiError ? error.message : 'The payout could not be sent again.',
+          }),
       });
       return;
     }
@@ -158,7 +183,10 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
     try {
       startApproval(await getPayoutIdsInStage(studyId, 'to-approve'));
     } catch (error) {
-      setOutcome({ tone: 'danger', text: error instanceof ApiError ? error.message : 'The payouts waiting for approval could not be listed.' });
+      setOutcome({
+        tone: 'danger',
+        text: error instanceof ApiError ? error.message : 'The payouts waiting for approval could not be listed.',
+      });
     }
   };
 
@@ -166,7 +194,11 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
   const filtered = Boolean(search.trim()) || conditionId !== null;
 
   return (
-    <Panel id="payout-queue" title="Payout queue" description="What participants have earned, grouped by what happens next. Each payout is sent once, and only after you confirm.">
+    <Panel
+      id="payout-queue"
+      title="Payout queue"
+      description="What participants have earned, grouped by what happens next. Each payout is sent once, and only after you confirm."
+    >
       <div className="flex flex-col gap-3">
         <div aria-live="polite" className="flex flex-col gap-2">
           {sending && (
@@ -174,15 +206,24 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
               <p className="text-sm text-ink">
                 Approving {sending.sent} of {sending.total}…
               </p>
-              <ProgressMeter label="Approving payouts" share={sending.total ? sending.sent / sending.total : 0} valueText={`${sending.sent} of ${sending.total} approved`} />
+              <ProgressMeter
+                label="Approving payouts"
+                share={sending.total ? sending.sent / sending.total : 0}
+                valueText={`${sending.sent} of ${sending.total} approved`}
+              />
             </div>
           )}
           {batch && progress && (
             <div className="flex flex-col gap-1">
               <p className="text-sm text-ink" data-testid="batch-progress">
-                Sending {batch.size}: {progress.paid} paid, {progress.failed} failed, {progress.inFlight} still on the way.
+                Sending {batch.size}: {progress.paid} paid, {progress.failed} failed, {progress.inFlight} still on the
+                way.
               </p>
-              <ProgressMeter label="Payouts sent" share={progress.settledShare} valueText={`${progress.paid + progress.failed} of ${batch.size} settled`} />
+              <ProgressMeter
+                label="Payouts sent"
+                share={progress.settledShare}
+                valueText={`${progress.paid + progress.failed} of ${batch.size} settled`}
+              />
             </div>
           )}
           {outcome && <Notice tone={outcome.tone}>{outcome.text}</Notice>}
@@ -191,14 +232,20 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
         {payouts.isPending ? (
           <LoadingState label="Loading payouts…" className="py-4" />
         ) : payouts.isError ? (
-          <ErrorState message={payouts.error instanceof ApiError ? payouts.error.message : 'The payouts could not be loaded.'} onRetry={() => void payouts.refetch()} />
+          <ErrorState
+            message={payouts.error instanceof ApiError ? payouts.error.message : 'The payouts could not be loaded.'}
+            onRetry={() => void payouts.refetch()}
+          />
         ) : (
           <ol className="flex flex-col gap-2" aria-label="Payouts by what happens next">
             {payoutStages.map(({ stage: candidate, title, next }) => {
               const totals = stages?.[candidate] ?? emptyStage;
               const open = candidate === stage;
               return (
-                <li key={candidate} className={cx('rounded-lg border', open ? 'border-spruce/60 bg-surface' : 'border-line bg-canvas')}>
+                <li
+                  key={candidate}
+                  className={cx('rounded-lg border', open ? 'border-spruce/60 bg-surface' : 'border-line bg-canvas')}
+                >
                   <h3>
                     <button
                       type="button"
@@ -208,10 +255,20 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
                       className="flex w-full flex-wrap items-baseline justify-between gap-x-4 gap-y-0.5 rounded-lg px-3 py-2 text-left focus:outline-none focus-visible:outline-2 focus-visible:outline-offset-2 focus-visible:outline-spruce"
                     >
                       <span className="flex items-baseline gap-2">
-                        <span aria-hidden="true" className={cx('text-xs text-ink-muted transition-transform', open && 'inline-block rotate-90')}>
+                        <span
+                          aria-hidden="true"
+                          className={cx(
+                            'text-xs text-ink-muted transition-transform',
+                            open && 'inline-block rotate-90',
+                          )}
+                        >
                           ▸
                         </span>
-                        <span className={cx('text-sm font-semibold', totals.count === 0 ? 'text-ink-muted' : 'text-ink')}>{title}</span>
+                        <span
+                          className={cx('text-sm font-semibold', totals.count === 0 ? 'text-ink-muted' : 'text-ink')}
+                        >
+                          {title}
+                        </span>
                       </span>
                       <span className="text-xs tabular-nums text-ink-muted">
                         {totals.count === 0
@@ -236,7 +293,11 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
                         </label>
                         <label className="flex flex-col gap-1 text-xs font-semibold text-ink">
                           Order
-                          <select className={cx(controlClass, 'font-normal')} value={sort} onChange={(event) => (setSort(event.target.value as PayoutSort), setPage(1))}>
+                          <select
+                            className={cx(controlClass, 'font-normal')}
+                            value={sort}
+                            onChange={(event) => (setSort(event.target.value as PayoutSort), setPage(1))}
+                          >
                             {sortChoices.map((choice) => (
                               <option key={choice.value} value={choice.value}>
                                 {choice.label}
@@ -247,7 +308,11 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
                         {!blinded && conditions.length > 0 && (
                           <label className="flex flex-col gap-1 text-xs font-semibold text-ink">
                             Condition
-                            <select className={cx(controlClass, 'font-normal')} value={conditionId ?? ''} onChange={(event) => (setConditionId(event.target.value || null), setPage(1))}>
+                            <select
+                              className={cx(controlClass, 'font-normal')}
+                              value={conditionId ?? ''}
+                              onChange={(event) => (setConditionId(event.target.value || null), setPage(1))}
+                            >
                               <option value="">All conditions</option>
                               {conditions.map((condition) => (
                                 <option key={condition.id} value={condition.id}>
@@ -259,12 +324,23 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
                         )}
                         {canApprove && candidate === 'to-approve' && (
                           <div className="ml-auto flex flex-wrap gap-2">
-                            <Button onClick={() => setPendingSend({ kind: 'selected', now: summarizeSelection([...selected.values()]) })} disabled={selected.size === 0 || busy}>
+                            <Button
+                              onClick={() =>
+                                setPendingSend({ kind: 'selected', now: summarizeSelection([...selected.values()]) })
+                              }
+                              disabled={selected.size === 0 || busy}
+                            >
                               Approve selected ({selected.size})
                             </Button>
                             <Button
                               variant="primary"
-                              onClick={() => setPendingSend({ kind: 'all', now: stageSummary(stages, 'to-approve'), waiting: stageSummary(stages, 'awaiting-setup') })}
+                              onClick={() =>
+                                setPendingSend({
+                                  kind: 'all',
+                                  now: stageSummary(stages, 'to-approve'),
+                                  waiting: stageSummary(stages, 'awaiting-setup'),
+                                })
+                              }
                               disabled={waitingCount === 0 || busy}
                             >
                               Approve all waiting ({waitingCount})
@@ -275,15 +351,19 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
 
                       {hasOverride && (
                         <Notice tone="caution">
-                          Rows marked “Pay override” are paid differently from the study's standard amount. Unequal pay between conditions can change who stays in a
-                          study and bias the comparison.
+                          Rows marked “Pay override” are paid differently from the study's standard amount. Unequal pay
+                          between conditions can change who stays in a study and bias the comparison.
                         </Notice>
                       )}
 
                       {loadingGroup ? (
                         <LoadingState label={`Loading ${title.toLowerCase()}…`} className="py-4" />
                       ) : rows.length === 0 ? (
-                        <EmptyState title={filtered ? 'No payouts match' : 'Nothing here'}>{filtered ? 'Clear the search or choose another condition.' : 'No payout is at this point right now.'}</EmptyState>
+                        <EmptyState title={filtered ? 'No payouts match' : 'Nothing here'}>
+                          {filtered
+                            ? 'Clear the search or choose another condition.'
+                            : 'No payout is at this point right now.'}
+                        </EmptyState>
                       ) : (
                         <div className={tableRecipe.frame} tabIndex={0} role="region" aria-label={`${title}: payouts`}>
                           <table className={tableRecipe.table}>
@@ -305,13 +385,27 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
                                     </Checkbox>
                                   </th>
                                 )}
-                                <th scope="col" className={tableRecipe.headCell}>Participant</th>
-                                <th scope="col" className={tableRecipe.headCell}>{blinded ? 'Condition (coded)' : 'Condition'}</th>
-                                <th scope="col" className={tableRecipe.headCell}>Step</th>
-                                <th scope="col" className={tableRecipe.headCell}>Earned</th>
-                                <th scope="col" className={tableRecipe.headCell}>{candidate === 'paid' ? 'Paid' : 'Approved'}</th>
-                                <th scope="col" className={cx(tableRecipe.headCell, 'text-right')}>Amount</th>
-                                <th scope="col" className={tableRecipe.headCell}>State</th>
+                                <th scope="col" className={tableRecipe.headCell}>
+                                  Participant
+                                </th>
+                                <th scope="col" className={tableRecipe.headCell}>
+                                  {blinded ? 'Condition (coded)' : 'Condition'}
+                                </th>
+                                <th scope="col" className={tableRecipe.headCell}>
+                                  Step
+                                </th>
+                                <th scope="col" className={tableRecipe.headCell}>
+                                  Earned
+                                </th>
+                                <th scope="col" className={tableRecipe.headCell}>
+                                  {candidate === 'paid' ? 'Paid' : 'Approved'}
+                                </th>
+                                <th scope="col" className={cx(tableRecipe.headCell, 'text-right')}>
+                                  Amount
+                                </th>
+                                <th scope="col" className={tableRecipe.headCell}>
+                                  State
+                                </th>
                               </tr>
                             </thead>
                             <tbody>
@@ -325,8 +419,12 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
                                   onSelect={(on) => toggle(payout, on)}
                                   disabled={busy}
                                   retrying={retry.isPending && retry.variables === payout.id}
-                                  onRetry={() => setPendingSend({ kind: 'retry', payout, now: summarizeSelection([payout]) })}
-                                  onHistory={() => setHistoryOf({ enrollmentId: payout.enrollmentId, reference: payout.reference })}
+                                  onRetry={() =>
+                                    setPendingSend({ kind: 'retry', payout, now: summarizeSelection([payout]) })
+                                  }
+                                  onHistory={() =>
+                                    setHistoryOf({ enrollmentId: payout.enrollmentId, reference: payout.reference })
+                                  }
                                 />
                               ))}
                             </tbody>
@@ -343,7 +441,11 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
                             <Button size="compact" onClick={() => setPage(page - 1)} disabled={page === 1}>
                               Previous
                             </Button>
-                            <Button size="compact" onClick={() => setPage(page + 1)} disabled={page * pageSize >= payouts.data.total}>
+                            <Button
+                              size="compact"
+                              onClick={() => setPage(page + 1)}
+                              disabled={page * pageSize >= payouts.data.total}
+                            >
                               Next
                             </Button>
                           </div>
@@ -358,7 +460,12 @@ export function PayoutQueue({ studyId, blinded, canApprove, conditions, onBatchR
         )}
       </div>
 
-      <ConfirmSendDialog pending={pendingSend} currency={currency} onCancel={() => setPendingSend(null)} onConfirm={(send) => void confirmSend(send)} />
+      <ConfirmSendDialog
+        pending={pendingSend}
+        currency={currency}
+        onCancel={() => setPendingSend(null)}
+        onConfirm={(send) => void confirmSend(send)}
+      />
       <PaymentHistoryDialog studyId={studyId} participant={historyOf} onClose={() => setHistoryOf(null)} />
     </Panel>
   );
@@ -389,13 +496,29 @@ interface PayoutRowProps {
   onHistory: () => void;
 }
 
-function PayoutRow({ payout, selectable, canApprove, selected, onSelect, disabled, retrying, onRetry, onHistory }: PayoutRowProps) {
+function PayoutRow({
+  payout,
+  selectable,
+  canApprove,
+  selected,
+  onSelect,
+  disabled,
+  retrying,
+  onRetry,
+  onHistory,
+}: PayoutRowProps) {
   const what = payout.kind === 'bonus' ? 'Completion bonus' : payout.stepTitle;
   return (
     <tr className={tableRecipe.row}>
       {selectable && (
         <td className={tableRecipe.cell}>
-          <Checkbox aria-label={`Select ${payout.reference}, ${payout.stepTitle ?? 'bonus'}`} checked={selected} onChange={onSelect} disabled={disabled} className={checkboxRecipe}>
+          <Checkbox
+            aria-label={`Select ${payout.reference}, ${payout.stepTitle ?? 'bonus'}`}
+            checked={selected}
+            onChange={onSelect}
+            disabled={disabled}
+            className={checkboxRecipe}
+          >
             <Tick />
           </Checkbox>
         </td>
@@ -413,7 +536,9 @@ function PayoutRow({ payout, selectable, canApprove, selected, onSelect, disable
       <td className={tableRecipe.cell}>{payout.condition ?? '—'}</td>
       <td className={tableRecipe.cell}>{what}</td>
       <td className={cx(tableRecipe.cell, 'whitespace-nowrap tabular-nums')}>{formatDay(payout.createdAt)}</td>
-      <td className={cx(tableRecipe.cell, 'whitespace-nowrap tabular-nums')}>{formatDay(payout.status === 'paid' ? payout.paidAt : payout.approvedAt)}</td>
+      <td className={cx(tableRecipe.cell, 'whitespace-nowrap tabular-nums')}>
+        {formatDay(payout.status === 'paid' ? payout.paidAt : payout.approvedAt)}
+      </td>
       <td className={cx(tableRecipe.cell, 'text-right tabular-nums')}>
         <span className="inline-flex items-center gap-1.5">
           {payout.payOverride && <Badge tone="caution">Pay override</Badge>}
@@ -428,9 +553,16 @@ function PayoutRow({ payout, selectable, canApprove, selected, onSelect, disable
               {payout.failureReason}
             </span>
           )}
-          {payout.status === 'paid' && payout.receiptNumber && <span className="font-mono text-2xs text-ink-muted">Receipt {payout.receiptNumber}</span>}
+          {payout.status === 'paid' && payout.receiptNumber && (
+            <span className="font-mono text-2xs text-ink-muted">Receipt {payout.receiptNumber}</span>
+          )}
           {canApprove && payout.status === 'failed' && (
-            <Button size="compact" onClick={onRetry} pending={retrying} aria-label={`Retry ${payout.reference}, ${payout.stepTitle ?? 'bonus'}`}>
+            <Button
+              size="compact"
+              onClick={onRetry}
+              pending={retrying}
+              aria-label={`Retry ${payout.reference}, ${payout.stepTitle ?? 'bonus'}`}
+            >
               Retry
             </Button>
           )}
@@ -442,7 +574,12 @@ function PayoutRow({ payout, selectable, canApprove, selected, onSelect, disable
 
 function Tick() {
   return (
-    <svg className="invisible size-3 text-ink-inverse group-data-checked:visible" viewBox="0 0 16 16" fill="none" aria-hidden="true">
+    <svg
+      className="invisible size-3 text-ink-inverse group-data-checked:visible"
+      viewBox="0 0 16 16"
+      fill="none"
+      aria-hidden="true"
+    >
       <path d="m3.5 8.5 3 3 6-7" stroke="currentColor" strokeWidth="2.2" strokeLinecap="round" strokeLinejoin="round" />
     </svg>
   );

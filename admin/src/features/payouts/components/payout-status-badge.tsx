@@ -1,7 +1,15 @@
 import { Badge, type BadgeTone } from '@/components/ui/badge';
 import type { PayoutStatus } from '../api/get-payouts';
 
-export const payoutStatusOrder: readonly PayoutStatus[] = ['owed', 'approved', 'sending', 'paid', 'failed', 'reversed', 'cancelled'];
+export const payoutStatusOrder: readonly PayoutStatus[] = [
+  'owed',
+  'approved',
+  'sending',
+  'paid',
+  'failed',
+  'reversed',
+  'cancelled',
+];
 
 export const payoutStatusLabels: Record<PayoutStatus, { label: string; tone: BadgeTone }> = {
   owed: { label: 'Owed', tone: 'neutral' },

@@ -36,12 +36,16 @@ export function ReconciliationPanel({ studyId, currency }: { studyId: string; cu
         ) : check.isPending ? (
           <LoadingState label="Asking the provider…" className="py-4" />
         ) : check.isError ? (
-          <ErrorState message={check.error instanceof ApiError ? check.error.message : 'The check could not be run.'} onRetry={() => void check.refetch()} />
+          <ErrorState
+            message={check.error instanceof ApiError ? check.error.message : 'The check could not be run.'}
+            onRetry={() => void check.refetch()}
+          />
         ) : (
           <div className="flex flex-col gap-3">
             <p className="text-sm text-ink-muted">
-              Checked {new Date(check.data.checkedAt).toLocaleString('en-US')}: our ledger has {check.data.ledgerPaidCount} paid ({money(check.data.ledgerPaidMinor)}), the
-              provider has {check.data.providerTransferCount} transfers ({money(check.data.providerTransferMinor)}).
+              Checked {new Date(check.data.checkedAt).toLocaleString('en-US')}: our ledger has{' '}
+              {check.data.ledgerPaidCount} paid ({money(check.data.ledgerPaidMinor)}), the provider has{' '}
+              {check.data.providerTransferCount} transfers ({money(check.data.providerTransferMinor)}).
             </p>
             {check.data.differences.length === 0 ? (
               <Notice tone="info">Every payout matches.</Notice>
@@ -55,24 +59,45 @@ export function ReconciliationPanel({ studyId, currency }: { studyId: string; cu
   );
 }
 
-function DifferencesTable({ differences, money }: { differences: ReconciliationDifference[]; money: (minor: number | null) => string }) {
+function DifferencesTable({
+  differences,
+  money,
+}: {
+  differences: ReconciliationDifference[];
+  money: (minor: number | null) => string;
+}) {
   return (
     <div className={tableRecipe.frame}>
       <table className={tableRecipe.table}>
         <caption className="sr-only">{differences.length} differences between our ledger and the provider</caption>
         <thead>
           <tr>
-            <th scope="col" className={tableRecipe.headCell}>Difference</th>
-            <th scope="col" className={tableRecipe.headCell}>Payout</th>
-            <th scope="col" className={tableRecipe.headCell}>Transfer</th>
-            <th scope="col" className={tableRecipe.headCell}>Our ledger</th>
-            <th scope="col" className={tableRecipe.headCell}>Provider</th>
-            <th scope="col" className={tableRecipe.headCell}>Details</th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Difference
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Payout
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Transfer
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Our ledger
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Provider
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Details
+            </th>
           </tr>
         </thead>
         <tbody>
           {differences.map((difference, index) => (
-            <tr key={`${difference.kind}-${difference.payoutId ?? difference.transferId ?? index}`} className={tableRecipe.row}>
+            <tr
+              key={`${difference.kind}-${difference.payoutId ?? difference.transferId ?? index}`}
+              className={tableRecipe.row}
+            >
               <td className={tableRecipe.cell}>{differenceLabels[difference.kind] ?? difference.kind}</td>
               <td className={`${tableRecipe.cell} font-mono text-xs`}>{difference.payoutId ?? '—'}</td>
               <td className={`${tableRecipe.cell} font-mono text-xs`}>{difference.transferId ?? '—'}</td>

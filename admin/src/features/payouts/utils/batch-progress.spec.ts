@@ -5,7 +5,11 @@ import { batchProgress } from './batch-progress';
 // plain counting, checked by hand (common practice for a progress share: settled ÷ batch size).
 describe('batchProgress', () => {
   it('counts what was paid or failed since the batch began and what is still being sent', () => {
-    const progress = batchProgress(10, { owed: 12, paid: 3, failed: 1 }, { owed: 2, approved: 2, sending: 1, paid: 8, failed: 3 });
+    const progress = batchProgress(
+      10,
+      { owed: 12, paid: 3, failed: 1 },
+      { owed: 2, approved: 2, sending: 1, paid: 8, failed: 3 },
+    );
     expect(progress).toEqual({ inFlight: 3, paid: 5, failed: 2, settledShare: 0.7, finished: false });
   });
 

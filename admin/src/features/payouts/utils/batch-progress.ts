@@ -19,7 +19,8 @@ const count = (counts: StatusCounts, status: string) => counts[status] ?? 0;
  * approve other payouts while a batch runs.
  */
 export function batchProgress(batchSize: number, before: StatusCounts, now: StatusCounts): BatchProgress {
-  if (!Number.isInteger(batchSize) || batchSize < 0) throw new RangeError(`batchSize must be a whole number of payouts, got ${batchSize}`);
+  if (!Number.isInteger(batchSize) || batchSize < 0)
+    throw new RangeError(`batchSize must be a whole number of payouts, got ${batchSize}`);
   const inFlight = count(now, 'approved') + count(now, 'sending');
   const paid = Math.max(0, count(now, 'paid') - count(before, 'paid'));
   const failed = Math.max(0, count(now, 'failed') - count(before, 'failed'));

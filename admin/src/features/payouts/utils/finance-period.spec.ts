@@ -9,7 +9,11 @@ describe('finance period', () => {
   it('names the field at fault in plain words', () => {
     expect(periodProblems({ from: '2026-12-01', to: '2026-12-05' })).toEqual({});
     expect(periodProblems({ from: '', to: '2026-12-05' })).toEqual({ from: 'Choose the first day of the period.' });
-    expect(periodProblems({ from: '2026-12-05', to: '2026-12-01' })).toEqual({ to: 'The last day must be on or after the first day.' });
-    expect(periodProblems({ from: '2024-01-01', to: '2026-12-01' })).toEqual({ to: 'Choose a period of at most a year.' });
+    expect(periodProblems({ from: '2026-12-05', to: '2026-12-01' })).toEqual({
+      to: 'The last day must be on or after the first day.',
+    });
+    expect(periodProblems({ from: '2024-01-01', to: '2026-12-01' })).toEqual({
+      to: 'Choose a period of at most a year.',
+    });
   });
 });

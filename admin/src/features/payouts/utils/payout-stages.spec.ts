@@ -16,7 +16,14 @@ describe('summarizeSelection', () => {
 
 describe('payoutStages', () => {
   it('covers each stage the api knows once', () => {
-    expect(payoutStages.map((s) => s.stage).sort()).toEqual(['awaiting-setup', 'closed', 'needs-attention', 'on-its-way', 'paid', 'to-approve']);
+    expect(payoutStages.map((s) => s.stage).sort()).toEqual([
+      'awaiting-setup',
+      'closed',
+      'needs-attention',
+      'on-its-way',
+      'paid',
+      'to-approve',
+    ]);
   });
 });
 

@@ -27,23 +27,29 @@ export const reminderPlanInputSchema = z
     suggestLostAfter: z
       .string()
       .trim()
-      .refine((text) => wholeNumber(text) && Number(text) >= 1 && Number(text) <= 50, 'Enter a whole number of reminders from 1 to 50.'),
+      .refine(
+        (text) => wholeNumber(text) && Number(text) >= 1 && Number(text) <= 50,
+        'Enter a whole number of reminders from 1 to 50.',
+      ),
   })
   .superRefine((values, ctx) => {
     const seen = new Set<string>();
     values.rules.forEach((rule, index) => {
       const key = `${rule.anchor}:${Number(rule.days)}`;
-      if (seen.has(key)) ctx.addIssue({ code: 'custom', path: ['rules', index, 'days'], message: 'This reminder is already in the plan.' });
+      if (seen.has(key))
+        ctx.addIssue({
+          code: 'custom',
+          path: ['rules', index, 'days'],
+          message: 'This reminder is already in the plan.',
+        });
       seen.add(key);
     });
   })
-  .transform(
-    (values): SaveReminderPlanBody => ({
-      enabled: values.enabled,
-      rules: values.rules.map((rule) => ({ anchor: rule.anchor, days: Number(rule.days) })),
-      suggestLostAfter: Number(values.suggestLostAfter),
-    }),
-  );
+  .transform((values): SaveReminderPlanBody => ({
+    enabled: values.enabled,
+    rules: values.rules.map((rule) => ({ anchor: rule.anchor, days: Number(rule.days) })),
+    suggestLostAfter: Number(values.suggestLostAfter),
+  }));
 
 export type ReminderPlanFormValues = z.input<typeof reminderPlanInputSchema>;
 
@@ -58,7 +64,10 @@ export function useSaveReminderPlan(studyId: string) {
     mutationFn: (body: SaveReminderPlanBody) => saveReminderPlan(studyId, body),
     onSuccess: (plan) => {
       queryClient.setQueryData(studyKeys.reminderPlan(studyId), plan);
-      return queryClient.invalidateQueries({ queryKey: studyKeys.detail(studyId), predicate: (query) => query.queryKey[2] === 'roster' });
+      return queryClient.invalidateQueries({
+        queryKey: studyKeys.detail(studyId),
+        predicate: (query) => query.queryKey[2] === 'roster',
+      });
     },
   });
 }

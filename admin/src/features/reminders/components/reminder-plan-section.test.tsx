@@ -20,7 +20,15 @@ describe('ReminderPlanSection', { timeout: 30_000 }, () => {
   it('says the plan is the same for every condition, shows the e-mail and saves added reminders', async () => {
     const { requests } = stubApi({
       [`GET ${path}`]: { status: 200, body: plan },
-      [`PUT ${path}`]: (request) => ({ status: 200, body: { ...plan, ...(request.body as object), updatedAt: '2027-01-05T10:00:00.000Z', previewSubject: 'Reminder: Session 1 is due soon' } }),
+      [`PUT ${path}`]: (request) => ({
+        status: 200,
+        body: {
+          ...plan,
+          ...(request.body as object),
+          updatedAt: '2027-01-05T10:00:00.000Z',
+          previewSubject: 'Reminder: Session 1 is due soon',
+        },
+      }),
     });
     renderWithProviders(<ReminderPlanSection studyId={studyId} canEdit />);
 
@@ -46,7 +54,9 @@ describe('ReminderPlanSection', { timeout: 30_000 }, () => {
     await userEvent.clear(threshold);
     await userEvent.type(threshold, '4');
     await userEvent.click(within(form).getByRole('button', { name: 'Save the reminder plan' }));
-    expect(await screen.findByText(/The reminder plan was saved\. It applies to every participant in every condition\./)).toBeInTheDocument();
+    expect(
+      await screen.findByText(/The reminder plan was saved\. It applies to every participant in every condition\./),
+    ).toBeInTheDocument();
     expect(requests.find((request) => request.method === 'PUT')?.body).toEqual({
       enabled: true,
       rules: [
@@ -55,7 +65,9 @@ describe('ReminderPlanSection', { timeout: 30_000 }, () => {
       ],
       suggestLostAfter: 4,
     });
-    await waitFor(() => expect(screen.getByTestId('reminder-preview')).toHaveTextContent('Reminder: Session 1 is due soon'));
+    await waitFor(() =>
+      expect(screen.getByTestId('reminder-preview')).toHaveTextContent('Reminder: Session 1 is due soon'),
+    );
   });
 
   it('refuses the same reminder twice', async () => {
@@ -74,7 +86,9 @@ describe('ReminderPlanSection', { timeout: 30_000 }, () => {
     stubApi({ [`GET ${path}`]: { status: 200, body: plan } });
     renderWithProviders(<ReminderPlanSection studyId={studyId} canEdit={false} />);
 
-    expect(await screen.findByRole('list', { name: 'Planned reminders' })).toHaveTextContent('2 days after the step opens');
+    expect(await screen.findByRole('list', { name: 'Planned reminders' })).toHaveTextContent(
+      '2 days after the step opens',
+    );
     expect(screen.getByText(/after 3 unanswered reminders/)).toBeInTheDocument();
     expect(screen.queryByRole('form', { name: 'Reminder plan' })).not.toBeInTheDocument();
   });

@@ -10,7 +10,12 @@ import { TextField } from '@/components/ui/text-field';
 import { ApiError } from '@/lib/api-error';
 import { applyApiFieldErrors } from '@/lib/form-field-errors';
 import { useReminderPlan, type ReminderPlan, type ReminderRule } from '../api/get-reminder-plan';
-import { reminderPlanInputSchema, useSaveReminderPlan, type ReminderPlanFormValues, type SaveReminderPlanBody } from '../api/save-reminder-plan';
+import {
+  reminderPlanInputSchema,
+  useSaveReminderPlan,
+  type ReminderPlanFormValues,
+  type SaveReminderPlanBody,
+} from '../api/save-reminder-plan';
 
 const anchorOptions = [
   { value: 'opens', label: 'days after the step opens' },
@@ -37,14 +42,17 @@ export function ReminderPlanSection({ studyId, canEdit }: ReminderPlanSectionPro
       description="E-mails that remind participants of a step that is open or nearly due, and when Evenhand suggests marking someone lost to follow-up."
     >
       <Notice tone="info" className="mb-4">
-        <span className="font-semibold">One plan for every condition, by design.</span> Reminders that differ by condition can themselves make
-        dropout differ between conditions, which would bias the comparison the study exists to make. The dropout watch compares contacts by
-        condition to check this.
+        <span className="font-semibold">One plan for every condition, by design.</span> Reminders that differ by
+        condition can themselves make dropout differ between conditions, which would bias the comparison the study
+        exists to make. The dropout watch compares contacts by condition to check this.
       </Notice>
       {plan.isPending ? (
         <LoadingState label="Loading the reminder plan…" />
       ) : plan.isError ? (
-        <ErrorState message={plan.error instanceof ApiError ? plan.error.message : 'The reminder plan could not be loaded.'} onRetry={() => void plan.refetch()} />
+        <ErrorState
+          message={plan.error instanceof ApiError ? plan.error.message : 'The reminder plan could not be loaded.'}
+          onRetry={() => void plan.refetch()}
+        />
       ) : canEdit ? (
         <ReminderPlanForm studyId={studyId} plan={plan.data} />
       ) : (
@@ -76,7 +84,9 @@ function ReminderPlanSummary({ plan }: { plan: ReminderPlan }) {
 function EmailPreview({ plan }: { plan: ReminderPlan }) {
   return (
     <figure className="flex flex-col gap-1">
-      <figcaption className="text-xs font-semibold text-ink">The reminder e-mail, as participants receive it (filled in for the first step)</figcaption>
+      <figcaption className="text-xs font-semibold text-ink">
+        The reminder e-mail, as participants receive it (filled in for the first step)
+      </figcaption>
       <div className="rounded-md border border-line bg-canvas" data-testid="reminder-preview">
         <p className="border-b border-line px-3 py-2 text-sm">
           <span className="text-ink-muted">Subject: </span>
@@ -141,11 +151,16 @@ function ReminderPlanForm({ studyId, plan }: { studyId: string; plan: ReminderPl
       />
 
       <fieldset className="flex flex-col gap-2">
-        <legend className="mb-1 text-xs font-semibold text-ink">For each step, remind participants who have not done it</legend>
+        <legend className="mb-1 text-xs font-semibold text-ink">
+          For each step, remind participants who have not done it
+        </legend>
         {fields.length === 0 && <p className="text-sm text-ink-muted">No reminders planned. Add one below.</p>}
         <ol className="flex flex-col gap-2" aria-label="Planned reminders">
           {fields.map((field, index) => (
-            <li key={field.id} className="flex flex-wrap items-start gap-2 rounded-md border border-line bg-canvas px-3 py-2">
+            <li
+              key={field.id}
+              className="flex flex-wrap items-start gap-2 rounded-md border border-line bg-canvas px-3 py-2"
+            >
               <TextField
                 label={`Reminder ${index + 1}: days`}
                 inputMode="numeric"
@@ -168,7 +183,13 @@ function ReminderPlanForm({ studyId, plan }: { studyId: string; plan: ReminderPl
                   />
                 )}
               />
-              <Button variant="quiet" size="compact" className="mt-5" onClick={() => remove(index)} aria-label={`Remove reminder ${index + 1}`}>
+              <Button
+                variant="quiet"
+                size="compact"
+                className="mt-5"
+                onClick={() => remove(index)}
+                aria-label={`Remove reminder ${index + 1}`}
+              >
                 Remove
               </Button>
             </li>

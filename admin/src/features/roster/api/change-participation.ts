@@ -18,7 +18,10 @@ export interface ParticipationChangeRequest {
 }
 
 /** Marks someone lost to follow-up, or records their withdrawal on their behalf. The record is kept either way. */
-export async function changeParticipation(studyId: string, { change, enrollmentId, reason }: ParticipationChangeRequest): Promise<RosterEntry> {
+export async function changeParticipation(
+  studyId: string,
+  { change, enrollmentId, reason }: ParticipationChangeRequest,
+): Promise<RosterEntry> {
   const body = reason.trim() ? { reason: reason.trim() } : {};
   const params = { path: { studyId, enrollmentId } };
   return change === 'lost'

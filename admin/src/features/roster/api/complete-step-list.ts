@@ -20,12 +20,25 @@ export const stepListInputSchema = z
   .superRefine((values, ctx) => {
     if (!values.stepId) ctx.addIssue({ code: 'custom', path: ['stepId'], message: 'Choose the step to mark done.' });
     const references = parseReferenceList(values.references);
-    if (references.length === 0) ctx.addIssue({ code: 'custom', path: ['references'], message: 'Paste at least one participant reference, one per line.' });
+    if (references.length === 0)
+      ctx.addIssue({
+        code: 'custom',
+        path: ['references'],
+        message: 'Paste at least one participant reference, one per line.',
+      });
     if (references.length > maxListedReferences) {
-      ctx.addIssue({ code: 'custom', path: ['references'], message: `A list can have at most ${maxListedReferences.toLocaleString()} references; split it.` });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['references'],
+        message: `A list can have at most ${maxListedReferences.toLocaleString()} references; split it.`,
+      });
     }
     if (references.some((reference) => reference.length > 200)) {
-      ctx.addIssue({ code: 'custom', path: ['references'], message: 'A line is longer than 200 characters; put one reference on each line.' });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['references'],
+        message: 'A line is longer than 200 characters; put one reference on each line.',
+      });
     }
   })
   .transform((values) => ({ stepId: values.stepId ?? '', references: parseReferenceList(values.references) }));
@@ -33,8 +46,16 @@ export const stepListInputSchema = z
 export type StepListFormValues = z.input<typeof stepListInputSchema>;
 export type StepListInput = z.output<typeof stepListInputSchema>;
 
-export async function completeStepList(studyId: string, { stepId, references }: StepListInput): Promise<BulkCompletionResult> {
-  return unwrap(apiClient.POST('/api/studies/{studyId}/steps/{stepId}/completions', { params: { path: { studyId, stepId } }, body: { references } }));
+export async function completeStepList(
+  studyId: string,
+  { stepId, references }: StepListInput,
+): Promise<BulkCompletionResult> {
+  return unwrap(
+    apiClient.POST('/api/studies/{studyId}/steps/{stepId}/completions', {
+      params: { path: { studyId, stepId } },
+      body: { references },
+    }),
+  );
 }
 
 export function useCompleteStepList(studyId: string) {

@@ -6,7 +6,9 @@ import { rosterKey } from './get-roster';
 /** Staff mark one participant's step done; it is owed its pay at once. */
 export async function completeStep(studyId: string, enrollmentId: string, stepId: string): Promise<RosterEntry> {
   return unwrap(
-    apiClient.POST('/api/studies/{studyId}/enrollments/{enrollmentId}/steps/{stepId}/complete', { params: { path: { studyId, enrollmentId, stepId } } }),
+    apiClient.POST('/api/studies/{studyId}/enrollments/{enrollmentId}/steps/{stepId}/complete', {
+      params: { path: { studyId, enrollmentId, stepId } },
+    }),
   );
 }
 

@@ -8,7 +8,10 @@ export interface SignedCopyRequest {
   fileName: string;
 }
 
-export async function downloadSignedCopy(studyId: string, { enrollmentId, signatureId, fileName }: SignedCopyRequest): Promise<void> {
+export async function downloadSignedCopy(
+  studyId: string,
+  { enrollmentId, signatureId, fileName }: SignedCopyRequest,
+): Promise<void> {
   const pdf = await unwrap(
     apiClient.GET('/api/studies/{studyId}/enrollments/{enrollmentId}/signatures/{signatureId}/pdf', {
       params: { path: { studyId, enrollmentId, signatureId } },

@@ -6,10 +6,15 @@ import { rosterKey } from './get-roster';
 export type ContactLog = components['schemas']['ContactLogDto'];
 export type Contact = components['schemas']['ContactDto'];
 
-export const contactsKey = (studyId: string, enrollmentId: string) => [...rosterKey(studyId), 'record', enrollmentId, 'contacts'] as const;
+export const contactsKey = (studyId: string, enrollmentId: string) =>
+  [...rosterKey(studyId), 'record', enrollmentId, 'contacts'] as const;
 
 export async function getContacts(studyId: string, enrollmentId: string): Promise<ContactLog> {
-  return unwrap(apiClient.GET('/api/studies/{studyId}/enrollments/{enrollmentId}/contacts', { params: { path: { studyId, enrollmentId } } }));
+  return unwrap(
+    apiClient.GET('/api/studies/{studyId}/enrollments/{enrollmentId}/contacts', {
+      params: { path: { studyId, enrollmentId } },
+    }),
+  );
 }
 
 export const contactsQueryOptions = (studyId: string, enrollmentId: string) =>

@@ -18,7 +18,10 @@ export interface RosterQuery {
 /** Under the study's keys, so refreshing a study (or an activation) refreshes its roster too. */
 export const rosterKey = (studyId: string) => [...studyKeys.detail(studyId), 'roster'] as const;
 
-export async function getRoster(studyId: string, { status, needsReconsent, search, page, pageSize }: RosterQuery): Promise<RosterPage> {
+export async function getRoster(
+  studyId: string,
+  { status, needsReconsent, search, page, pageSize }: RosterQuery,
+): Promise<RosterPage> {
   const query = {
     page,
     pageSize,
@@ -45,6 +48,7 @@ export function useRoster(studyId: string, query: RosterQuery) {
 export function useReconsentCount(studyId: string) {
   return useQuery({
     queryKey: [...rosterKey(studyId), 'reconsent-count'],
-    queryFn: async () => (await getRoster(studyId, { status: null, needsReconsent: true, search: '', page: 1, pageSize: 1 })).total,
+    queryFn: async () =>
+      (await getRoster(studyId, { status: null, needsReconsent: true, search: '', page: 1, pageSize: 1 })).total,
   });
 }

@@ -5,10 +5,15 @@ import { rosterKey } from './get-roster';
 
 export type StepCodes = components['schemas']['StepCodesDto'];
 
-export const stepCodesKey = (studyId: string, enrollmentId: string) => [...rosterKey(studyId), 'record', enrollmentId, 'step-codes'] as const;
+export const stepCodesKey = (studyId: string, enrollmentId: string) =>
+  [...rosterKey(studyId), 'record', enrollmentId, 'step-codes'] as const;
 
 export async function getStepCodes(studyId: string, enrollmentId: string): Promise<StepCodes> {
-  return unwrap(apiClient.GET('/api/studies/{studyId}/enrollments/{enrollmentId}/step-codes', { params: { path: { studyId, enrollmentId } } }));
+  return unwrap(
+    apiClient.GET('/api/studies/{studyId}/enrollments/{enrollmentId}/step-codes', {
+      params: { path: { studyId, enrollmentId } },
+    }),
+  );
 }
 
 export const stepCodesQueryOptions = (studyId: string, enrollmentId: string) =>

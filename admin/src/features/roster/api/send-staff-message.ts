@@ -14,8 +14,17 @@ export const staffMessageInputSchema = z.object({
 });
 export type StaffMessageInput = z.infer<typeof staffMessageInputSchema>;
 
-export async function sendStaffMessage(studyId: string, enrollmentId: string, body: StaffMessageBody): Promise<ContactLog> {
-  return unwrap(apiClient.POST('/api/studies/{studyId}/enrollments/{enrollmentId}/contacts', { params: { path: { studyId, enrollmentId } }, body }));
+export async function sendStaffMessage(
+  studyId: string,
+  enrollmentId: string,
+  body: StaffMessageBody,
+): Promise<ContactLog> {
+  return unwrap(
+    apiClient.POST('/api/studies/{studyId}/enrollments/{enrollmentId}/contacts', {
+      params: { path: { studyId, enrollmentId } },
+      body,
+    }),
+  );
 }
 
 /** E-mails one participant and logs it as a contact; the answer is the whole contact log. */

@@ -13,7 +13,12 @@ export const undoCompletionInputSchema = z.object({
 });
 export type UndoCompletionInput = z.infer<typeof undoCompletionInputSchema>;
 
-export async function undoCompletion(studyId: string, enrollmentId: string, stepId: string, reason: string): Promise<RosterEntry> {
+export async function undoCompletion(
+  studyId: string,
+  enrollmentId: string,
+  stepId: string,
+  reason: string,
+): Promise<RosterEntry> {
   return unwrap(
     apiClient.DELETE('/api/studies/{studyId}/enrollments/{enrollmentId}/steps/{stepId}/complete', {
       params: { path: { studyId, enrollmentId, stepId } },
@@ -26,7 +31,8 @@ export async function undoCompletion(studyId: string, enrollmentId: string, step
 export function useUndoCompletion(studyId: string, enrollmentId: string) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ stepId, reason }: { stepId: string; reason: string }) => undoCompletion(studyId, enrollmentId, stepId, reason),
+    mutationFn: ({ stepId, reason }: { stepId: string; reason: string }) =>
+      undoCompletion(studyId, enrollmentId, stepId, reason),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: rosterKey(studyId) }),
   });
 }

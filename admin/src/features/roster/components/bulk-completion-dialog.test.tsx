@@ -52,15 +52,24 @@ describe('BulkCompletionDialog', { timeout: 30_000 }, () => {
       '1P-7KQ2MXMarked done',
       '2P-3X66FXAlready done',
     ]);
-    expect(within(report).getByRole('list', { name: 'Completion summary' })).toHaveTextContent('1marked done now1already done, left as they were1line not marked');
+    expect(within(report).getByRole('list', { name: 'Completion summary' })).toHaveTextContent(
+      '1marked done now1already done, left as they were1line not marked',
+    );
   });
 
   it('reads the first column of an uploaded CSV into the list', async () => {
-    const { requests } = stubApi({ [`POST ${completionsPath}`]: { status: 200, body: { completed: 2, alreadyDone: 0, failed: 0, rows: [] } } });
+    const { requests } = stubApi({
+      [`POST ${completionsPath}`]: { status: 200, body: { completed: 2, alreadyDone: 0, failed: 0, rows: [] } },
+    });
     renderWithProviders(<BulkCompletionDialog studyId={studyId} steps={steps} open onClose={() => {}} />);
 
-    const csv = new File(['reference,attended\r\nP-7KQ2MX,yes\r\n"P-3X66FX",yes\r\n'], 'session-2.csv', { type: 'text/csv' });
-    await userEvent.upload(screen.getByLabelText('Or read the references from a file (.csv or .txt, first column)'), csv);
+    const csv = new File(['reference,attended\r\nP-7KQ2MX,yes\r\n"P-3X66FX",yes\r\n'], 'session-2.csv', {
+      type: 'text/csv',
+    });
+    await userEvent.upload(
+      screen.getByLabelText('Or read the references from a file (.csv or .txt, first column)'),
+      csv,
+    );
     expect(await screen.findByText(/2 references from the first column/)).toBeInTheDocument();
     expect(screen.getByLabelText('Participant references, one per line')).toHaveValue('P-7KQ2MX\nP-3X66FX');
 
@@ -73,7 +82,12 @@ describe('BulkCompletionDialog', { timeout: 30_000 }, () => {
     stubApi({
       [`POST /api/studies/${studyId}/steps/${steps[0]?.id}/completions`]: {
         status: 400,
-        body: { statusCode: 400, code: 'VALIDATION_FAILED', message: 'Check the list.', errors: [{ field: 'references', message: 'references must contain no more than 5000 elements' }] },
+        body: {
+          statusCode: 400,
+          code: 'VALIDATION_FAILED',
+          message: 'Check the list.',
+          errors: [{ field: 'references', message: 'references must contain no more than 5000 elements' }],
+        },
       },
     });
     renderWithProviders(<BulkCompletionDialog studyId={studyId} steps={steps} open onClose={() => {}} />);

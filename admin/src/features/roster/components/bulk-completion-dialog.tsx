@@ -7,7 +7,12 @@ import { SelectField } from '@/components/ui/select-field';
 import { Notice } from '@/components/ui/states';
 import { TextAreaField } from '@/components/ui/text-area-field';
 import { applyServerErrors } from '@/lib/form-server-errors';
-import { stepListInputSchema, useCompleteStepList, type StepListFormValues, type StepListInput } from '../api/complete-step-list';
+import {
+  stepListInputSchema,
+  useCompleteStepList,
+  type StepListFormValues,
+  type StepListInput,
+} from '../api/complete-step-list';
 import { formatFileSize } from '../utils/file-size';
 import { parseReferenceList } from '../utils/reference-list';
 import { BulkCompletionReport } from './bulk-completion-report';
@@ -26,9 +31,11 @@ const fileInputClass =
 
 /** Why this file cannot be a list of references, or null. */
 export function referenceFileProblem(file: { name: string; size: number }): string | null {
-  if (!/\.(csv|txt|tsv)$/i.test(file.name)) return `${file.name} is not a text or CSV file. Save the list as .csv or .txt and choose that file.`;
+  if (!/\.(csv|txt|tsv)$/i.test(file.name))
+    return `${file.name} is not a text or CSV file. Save the list as .csv or .txt and choose that file.`;
   if (file.size === 0) return `${file.name} is empty.`;
-  if (file.size > maxListBytes) return `${file.name} is larger than 1 MB; a list of references is far smaller. Check you chose the right file.`;
+  if (file.size > maxListBytes)
+    return `${file.name} is larger than 1 MB; a list of references is far smaller. Check you chose the right file.`;
   return null;
 }
 
@@ -116,7 +123,10 @@ export function BulkCompletionDialog({ studyId, steps, open, onClose }: BulkComp
     >
       {completeList.isSuccess ? (
         <>
-          <BulkCompletionReport result={completeList.data} stepTitle={chosenStep ? `Step ${chosenStep.position}: ${chosenStep.title}` : 'The step'} />
+          <BulkCompletionReport
+            result={completeList.data}
+            stepTitle={chosenStep ? `Step ${chosenStep.position}: ${chosenStep.title}` : 'The step'}
+          />
           <DialogActions>
             <Button
               onClick={() => {
@@ -169,7 +179,11 @@ export function BulkCompletionDialog({ studyId, steps, open, onClose }: BulkComp
               className={fileInputClass}
               onChange={(event) => void chooseFile(event.target.files?.[0])}
             />
-            <p id={fileNoteId} aria-live="polite" className={fileNote?.problem ? 'text-xs font-medium text-danger' : 'text-xs text-ink-muted'}>
+            <p
+              id={fileNoteId}
+              aria-live="polite"
+              className={fileNote?.problem ? 'text-xs font-medium text-danger' : 'text-xs text-ink-muted'}
+            >
               {fileNote?.text ?? ''}
             </p>
           </div>
@@ -179,7 +193,11 @@ export function BulkCompletionDialog({ studyId, steps, open, onClose }: BulkComp
             spellCheck={false}
             autoComplete="off"
             placeholder={'P-7KQ2MX\nP-3X66FX'}
-            hint={listed > 0 ? `${listed} ${listed === 1 ? 'reference' : 'references'} listed.` : 'A header row such as “reference” is skipped.'}
+            hint={
+              listed > 0
+                ? `${listed} ${listed === 1 ? 'reference' : 'references'} listed.`
+                : 'A header row such as “reference” is skipped.'
+            }
             error={errors.references?.message}
             className="font-mono"
             {...register('references')}

@@ -14,7 +14,9 @@ const outcomeWording: Record<BulkCompletionRow['outcome'], { label: string; tone
 /** The api's answer to a list: one row per line, with what happened and why a line failed. */
 export function BulkCompletionReport({ result, stepTitle }: { result: BulkCompletionResult; stepTitle: string }) {
   // Failed lines first: they are the ones to act on.
-  const rows = [...result.rows].sort((a, b) => Number(b.outcome === 'failed') - Number(a.outcome === 'failed') || a.line - b.line);
+  const rows = [...result.rows].sort(
+    (a, b) => Number(b.outcome === 'failed') - Number(a.outcome === 'failed') || a.line - b.line,
+  );
   const shown = rows.slice(0, shownCompletionRows);
   return (
     <div className="flex flex-col gap-3" role="region" aria-label="Completion report">
@@ -22,12 +24,22 @@ export function BulkCompletionReport({ result, stepTitle }: { result: BulkComple
         <span className="font-semibold">{stepTitle}</span>
       </p>
       <ul className="grid gap-2 sm:grid-cols-3" aria-label="Completion summary">
-        <Tile value={result.completed} label="marked done now" className={result.completed > 0 ? 'text-success' : 'text-ink'} />
+        <Tile
+          value={result.completed}
+          label="marked done now"
+          className={result.completed > 0 ? 'text-success' : 'text-ink'}
+        />
         <Tile value={result.alreadyDone} label="already done, left as they were" className="text-ink" />
-        <Tile value={result.failed} label={result.failed === 1 ? 'line not marked' : 'lines not marked'} className={result.failed > 0 ? 'text-danger' : 'text-ink'} />
+        <Tile
+          value={result.failed}
+          label={result.failed === 1 ? 'line not marked' : 'lines not marked'}
+          className={result.failed > 0 ? 'text-danger' : 'text-ink'}
+        />
       </ul>
       {result.failed > 0 ? (
-        <p className="text-sm">Lines that failed wrote nothing. Fix them and send just those lines again; lines already done are skipped.</p>
+        <p className="text-sm">
+          Lines that failed wrote nothing. Fix them and send just those lines again; lines already done are skipped.
+        </p>
       ) : (
         <p className="text-sm text-success">Every line went through.</p>
       )}
@@ -36,10 +48,18 @@ export function BulkCompletionReport({ result, stepTitle }: { result: BulkComple
           <caption className="sr-only">Each line of the list and what happened to it, failed lines first</caption>
           <thead className="sticky top-0">
             <tr>
-              <th scope="col" className={`${tableRecipe.headCell} w-14`}>Line</th>
-              <th scope="col" className={tableRecipe.headCell}>Reference</th>
-              <th scope="col" className={tableRecipe.headCell}>Result</th>
-              <th scope="col" className={tableRecipe.headCell}>Why</th>
+              <th scope="col" className={`${tableRecipe.headCell} w-14`}>
+                Line
+              </th>
+              <th scope="col" className={tableRecipe.headCell}>
+                Reference
+              </th>
+              <th scope="col" className={tableRecipe.headCell}>
+                Result
+              </th>
+              <th scope="col" className={tableRecipe.headCell}>
+                Why
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -58,7 +78,8 @@ export function BulkCompletionReport({ result, stepTitle }: { result: BulkComple
       </div>
       {rows.length > shownCompletionRows && (
         <p className="text-xs text-ink-muted">
-          Showing {shownCompletionRows} of {rows.length} lines, failed lines first; the rest were marked done or already done.
+          Showing {shownCompletionRows} of {rows.length} lines, failed lines first; the rest were marked done or already
+          done.
         </p>
       )}
     </div>

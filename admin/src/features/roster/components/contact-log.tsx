@@ -54,20 +54,29 @@ export function ContactLog({ studyId, enrollment, canManage, onMarkLost }: Conta
       }
     >
       <div aria-live="polite" className="empty:hidden">
-        {announcement && <Notice tone="info" className="mb-3">{announcement}</Notice>}
+        {announcement && (
+          <Notice tone="info" className="mb-3">
+            {announcement}
+          </Notice>
+        )}
       </div>
       {contacts.isPending ? (
         <LoadingState label="Loading the contact log…" />
       ) : contacts.isError ? (
-        <ErrorState message={contacts.error instanceof ApiError ? contacts.error.message : 'The contact log could not be loaded.'} onRetry={() => void contacts.refetch()} />
+        <ErrorState
+          message={contacts.error instanceof ApiError ? contacts.error.message : 'The contact log could not be loaded.'}
+          onRetry={() => void contacts.refetch()}
+        />
       ) : (
         <div className="flex flex-col gap-3">
           {contacts.data.suggestLost && (
             <Notice tone="caution">
               <p>
-                <span className="font-semibold">{contacts.data.unansweredReminders} reminders have gone unanswered</span> (the plan suggests
-                marking someone lost to follow-up after {contacts.data.suggestLostAfter}). Evenhand only suggests this; decide after trying to
-                reach them another way.
+                <span className="font-semibold">
+                  {contacts.data.unansweredReminders} reminders have gone unanswered
+                </span>{' '}
+                (the plan suggests marking someone lost to follow-up after {contacts.data.suggestLostAfter}). Evenhand
+                only suggests this; decide after trying to reach them another way.
               </p>
               {canManage && mayMarkLost(enrollment.status) && (
                 <Button size="compact" className="mt-2" onClick={onMarkLost}>
@@ -83,7 +92,10 @@ export function ContactLog({ studyId, enrollment, canManage, onMarkLost }: Conta
           {contacts.data.items.length === 0 ? (
             <p className="text-sm text-ink-muted">Nothing has been sent to this person yet.</p>
           ) : (
-            <ol className="flex flex-col divide-y divide-line rounded-md border border-line" aria-label="Contacts, newest first">
+            <ol
+              className="flex flex-col divide-y divide-line rounded-md border border-line"
+              aria-label="Contacts, newest first"
+            >
               {[...contacts.data.items]
                 .sort((a, b) => Date.parse(b.sentAt) - Date.parse(a.sentAt))
                 .map((contact) => (

@@ -1,7 +1,17 @@
 import { Badge, type BadgeTone } from '@/components/ui/badge';
 import type { EnrollmentStatus } from '../api/get-roster';
 
-export const enrollmentStatusOrder: readonly EnrollmentStatus[] = ['invited', 'screened', 'excluded', 'consented', 'assigned', 'active', 'completed', 'withdrew', 'lost'];
+export const enrollmentStatusOrder: readonly EnrollmentStatus[] = [
+  'invited',
+  'screened',
+  'excluded',
+  'consented',
+  'assigned',
+  'active',
+  'completed',
+  'withdrew',
+  'lost',
+];
 
 export const enrollmentStatusLabels: Record<EnrollmentStatus, { label: string; tone: BadgeTone }> = {
   invited: { label: 'Invited', tone: 'neutral' },

@@ -30,8 +30,18 @@ export function ImportProgress({ progress }: { progress: Progress }) {
           {formatFileSize(progress.loaded)} of {formatFileSize(progress.total)} · {percent}%
         </span>
       </p>
-      <div role="progressbar" aria-label={label} aria-valuemin={0} aria-valuemax={100} aria-valuenow={percent} className={progressRecipe.track}>
-        <div className="absolute inset-y-0 left-0 rounded-full bg-spruce transition-[width] duration-150" style={{ width: `${percent}%` }} />
+      <div
+        role="progressbar"
+        aria-label={label}
+        aria-valuemin={0}
+        aria-valuemax={100}
+        aria-valuenow={percent}
+        className={progressRecipe.track}
+      >
+        <div
+          className="absolute inset-y-0 left-0 rounded-full bg-spruce transition-[width] duration-150"
+          style={{ width: `${percent}%` }}
+        />
       </div>
     </div>
   );

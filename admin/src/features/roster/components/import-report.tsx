@@ -22,9 +22,17 @@ export function ImportReport({ result, fileName }: { result: ImportResult; fileN
   return (
     <div className="flex flex-col gap-3" aria-label="Import report" role="region">
       <ul className="grid gap-2 sm:grid-cols-3" aria-label="Import summary">
-        <SummaryTile value={result.created} label={result.created === 1 ? 'person added' : 'people added'} tone="success" />
+        <SummaryTile
+          value={result.created}
+          label={result.created === 1 ? 'person added' : 'people added'}
+          tone="success"
+        />
         <SummaryTile value={result.alreadyEnrolled} label="already on the roster, left as they were" />
-        <SummaryTile value={refusedLines} label={refusedLines === 1 ? 'row refused' : 'rows refused'} tone={refusedLines > 0 ? 'danger' : undefined} />
+        <SummaryTile
+          value={refusedLines}
+          label={refusedLines === 1 ? 'row refused' : 'rows refused'}
+          tone={refusedLines > 0 ? 'danger' : undefined}
+        />
       </ul>
       {result.ignoredColumns.length > 0 && (
         <Notice tone="info">
@@ -44,12 +52,18 @@ export function ImportReport({ result, fileName }: { result: ImportResult; fileN
         <>
           <div className="flex flex-wrap items-center justify-between gap-2">
             <p className="text-sm text-ink">
-              {rowProblems.length > 0 && `Fix ${refusedLines === 1 ? 'this row' : 'these rows'} in your file and import it again; rows already added are skipped. `}
+              {rowProblems.length > 0 &&
+                `Fix ${refusedLines === 1 ? 'this row' : 'these rows'} in your file and import it again; rows already added are skipped. `}
               {headerProblems.length > 0 && `${plural(headerProblems.length, 'note', 'notes')} on the header row.`}
             </p>
             <Button
               size="compact"
-              onClick={() => saveBlob(new Blob([importReportCsv(result.errors)], { type: 'text/csv' }), `import-report${fileName ? `-${fileName.replace(/\.[^.]+$/, '')}` : ''}.csv`)}
+              onClick={() =>
+                saveBlob(
+                  new Blob([importReportCsv(result.errors)], { type: 'text/csv' }),
+                  `import-report${fileName ? `-${fileName.replace(/\.[^.]+$/, '')}` : ''}.csv`,
+                )
+              }
             >
               Download the report (CSV)
             </Button>
@@ -59,9 +73,15 @@ export function ImportReport({ result, fileName }: { result: ImportResult; fileN
               <caption className="sr-only">Problems found, row by row</caption>
               <thead className="sticky top-0">
                 <tr>
-                  <th scope="col" className={`${tableRecipe.headCell} w-16`}>Line</th>
-                  <th scope="col" className={`${tableRecipe.headCell} w-40`}>Column</th>
-                  <th scope="col" className={tableRecipe.headCell}>Problem</th>
+                  <th scope="col" className={`${tableRecipe.headCell} w-16`}>
+                    Line
+                  </th>
+                  <th scope="col" className={`${tableRecipe.headCell} w-40`}>
+                    Column
+                  </th>
+                  <th scope="col" className={tableRecipe.headCell}>
+                    Problem
+                  </th>
                 </tr>
               </thead>
               <tbody>
@@ -77,7 +97,8 @@ export function ImportReport({ result, fileName }: { result: ImportResult; fileN
           </div>
           {result.errors.length > shownReportRows && (
             <p className="text-xs text-ink-muted">
-              Showing the first {shownReportRows} of {result.errors.length} problems; the downloaded report has them all.
+              Showing the first {shownReportRows} of {result.errors.length} problems; the downloaded report has them
+              all.
             </p>
           )}
         </>
@@ -86,7 +107,15 @@ export function ImportReport({ result, fileName }: { result: ImportResult; fileN
   );
 }
 
-function SummaryTile({ value, label, tone }: { value: number; label: string; tone?: 'success' | 'danger' | undefined }) {
+function SummaryTile({
+  value,
+  label,
+  tone,
+}: {
+  value: number;
+  label: string;
+  tone?: 'success' | 'danger' | undefined;
+}) {
   const color = tone === 'success' && value > 0 ? 'text-success' : tone === 'danger' ? 'text-danger' : 'text-ink';
   return (
     <li className="rounded-md border border-line bg-canvas px-3 py-2">

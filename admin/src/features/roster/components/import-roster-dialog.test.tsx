@@ -15,7 +15,10 @@ class FakeUpload {
   status = 0;
   responseText = '';
   sent: FormData | null = null;
-  upload: { onprogress: ((event: ProgressEvent) => void) | null; onload: (() => void) | null } = { onprogress: null, onload: null };
+  upload: { onprogress: ((event: ProgressEvent) => void) | null; onload: (() => void) | null } = {
+    onprogress: null,
+    onload: null,
+  };
   onload: (() => void) | null = null;
   onerror: (() => void) | null = null;
 
@@ -47,9 +50,14 @@ const csv = 'email,name,sense_of_direction\nrowan.example@evenhand.test,Rowan Ex
 describe('ImportRosterDialog', { timeout: 15_000 }, () => {
   it('uploads the file with a determinate progress bar, then shows the row report', async () => {
     vi.stubGlobal('XMLHttpRequest', FakeUpload);
-    renderWithProviders(<ImportRosterDialog studyId={studyId} open onClose={vi.fn()} factorKeys={['sense_of_direction']} />);
+    renderWithProviders(
+      <ImportRosterDialog studyId={studyId} open onClose={vi.fn()} factorKeys={['sense_of_direction']} />,
+    );
 
-    await userEvent.upload(await screen.findByLabelText('CSV file (up to 5 MB)'), new File([csv], 'invitees.csv', { type: 'text/csv' }));
+    await userEvent.upload(
+      await screen.findByLabelText('CSV file (up to 5 MB)'),
+      new File([csv], 'invitees.csv', { type: 'text/csv' }),
+    );
     await userEvent.click(screen.getByRole('button', { name: 'Import' }));
 
     await waitFor(() => expect(FakeUpload.last?.sent).not.toBeNull());
@@ -73,7 +81,9 @@ describe('ImportRosterDialog', { timeout: 15_000 }, () => {
       }),
     );
 
-    expect(await screen.findByRole('table', { name: 'Problems found, row by row' })).toHaveTextContent('"not-an-address" is not an e-mail address');
+    expect(await screen.findByRole('table', { name: 'Problems found, row by row' })).toHaveTextContent(
+      '"not-an-address" is not an e-mail address',
+    );
     expect(screen.getByText('person added')).toBeInTheDocument();
     expect(screen.queryByRole('progressbar')).not.toBeInTheDocument();
     expect(screen.getByRole('button', { name: 'Done' })).toBeInTheDocument();
@@ -83,7 +93,9 @@ describe('ImportRosterDialog', { timeout: 15_000 }, () => {
     vi.stubGlobal('XMLHttpRequest', FakeUpload);
     renderWithProviders(<ImportRosterDialog studyId={studyId} open onClose={vi.fn()} />);
 
-    const xlsx = new File(['PK'], 'invitees.xlsx', { type: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet' });
+    const xlsx = new File(['PK'], 'invitees.xlsx', {
+      type: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+    });
     await userEvent.upload(await screen.findByLabelText('CSV file (up to 5 MB)'), xlsx, { applyAccept: false });
 
     expect(await screen.findByText(/invitees\.xlsx is not a CSV file/)).toBeInTheDocument();
@@ -95,7 +107,10 @@ describe('ImportRosterDialog', { timeout: 15_000 }, () => {
     vi.stubGlobal('XMLHttpRequest', FakeUpload);
     renderWithProviders(<ImportRosterDialog studyId={studyId} open onClose={vi.fn()} />);
 
-    await userEvent.upload(await screen.findByLabelText('CSV file (up to 5 MB)'), new File(['a,b\n'], 'odd.csv', { type: 'text/csv' }));
+    await userEvent.upload(
+      await screen.findByLabelText('CSV file (up to 5 MB)'),
+      new File(['a,b\n'], 'odd.csv', { type: 'text/csv' }),
+    );
     await userEvent.click(screen.getByRole('button', { name: 'Import' }));
     await waitFor(() => expect(FakeUpload.last?.sent).not.toBeNull());
     act(() =>

@@ -67,8 +67,8 @@ export function ImportRosterDialog({ studyId, open, onClose, factorKeys = [] }: 
                   <code className="font-mono text-xs text-ink">{column}</code>
                 </span>
               ))}
-              {factorKeys.length === 0 && ' and one column per pretest question'}. Only e-mail is required; pretest answers left out
-              are asked at screening. Nobody is e-mailed until you send invitations.
+              {factorKeys.length === 0 && ' and one column per pretest question'}. Only e-mail is required; pretest
+              answers left out are asked at screening. Nobody is e-mailed until you send invitations.
             </Description>
           </div>
           <div className="flex flex-col gap-4 px-5 py-4">
@@ -87,7 +87,11 @@ export function ImportRosterDialog({ studyId, open, onClose, factorKeys = [] }: 
                   className={fileInputClass}
                   onChange={(event) => choose(event.target.files?.[0])}
                 />
-                <p id={problemId} aria-live="polite" className={problem ? 'text-xs font-medium text-danger' : 'text-xs text-ink-faint'}>
+                <p
+                  id={problemId}
+                  aria-live="polite"
+                  className={problem ? 'text-xs font-medium text-danger' : 'text-xs text-ink-faint'}
+                >
                   {problem ?? (file ? `${file.name} · ${formatFileSize(file.size)}` : '')}
                 </p>
               </div>
@@ -97,7 +101,9 @@ export function ImportRosterDialog({ studyId, open, onClose, factorKeys = [] }: 
               {importRoster.isError && (
                 <Notice>
                   <p className="font-medium">
-                    {importRoster.error instanceof ApiError ? importRoster.error.message : 'The file could not be imported. Try again.'}
+                    {importRoster.error instanceof ApiError
+                      ? importRoster.error.message
+                      : 'The file could not be imported. Try again.'}
                   </p>
                   {importRoster.error instanceof ApiError && importRoster.error.fieldErrors.length > 0 && (
                     <ul className="mt-1 list-disc pl-5">

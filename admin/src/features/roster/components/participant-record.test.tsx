@@ -47,8 +47,22 @@ const record = {
   steps: [],
   // Deliberately out of order: the record lists events oldest first whatever order they arrive in.
   timeline: [
-    { at: '2026-12-01T19:45:19.029Z', action: 'consent.signed', name: 'Consent signed', sentence: 'Participant P-3X66FX signed consent version 1.', actorEmail: 'p048@evenhand.test', data: { version: 1 } },
-    { at: '2026-12-01T19:45:18.996Z', action: 'enrollment.joined', name: 'Joined', sentence: 'Participant P-3X66FX joined the study.', actorEmail: 'p048@evenhand.test', data: { reference: 'P-3X66FX' } },
+    {
+      at: '2026-12-01T19:45:19.029Z',
+      action: 'consent.signed',
+      name: 'Consent signed',
+      sentence: 'Participant P-3X66FX signed consent version 1.',
+      actorEmail: 'p048@evenhand.test',
+      data: { version: 1 },
+    },
+    {
+      at: '2026-12-01T19:45:18.996Z',
+      action: 'enrollment.joined',
+      name: 'Joined',
+      sentence: 'Participant P-3X66FX joined the study.',
+      actorEmail: 'p048@evenhand.test',
+      data: { reference: 'P-3X66FX' },
+    },
     {
       at: '2026-12-02T08:00:00.000Z',
       action: 'enrollment.withdrew',
@@ -68,7 +82,9 @@ describe('ParticipantRecord', { timeout: 15_000 }, () => {
       [`GET /api/studies/${studyId}/enrollments/${enrollmentId}`]: { status: 200, body: record },
       [`GET /api/studies/${studyId}/enrollments/${enrollmentId}/contacts`]: { status: 200, body: noContacts },
     });
-    renderWithProviders(<ParticipantRecord studyId={studyId} enrollmentId={enrollmentId} blinded backHref="/roster" currency="USD" />);
+    renderWithProviders(
+      <ParticipantRecord studyId={studyId} enrollmentId={enrollmentId} blinded backHref="/roster" currency="USD" />,
+    );
 
     const signature = await screen.findByRole('article', { name: 'Signature on version 1' });
     expect(signature).toHaveTextContent('Demo Participant 048');
@@ -91,20 +107,42 @@ describe('ParticipantRecord', { timeout: 15_000 }, () => {
   });
 
   it('shows what staff noted when they marked someone lost to follow-up', async () => {
-    const lost = { ...record, enrollment: { ...record.enrollment, status: 'lost' }, withdrawalReason: null, lostReason: 'No reply to three reminders' };
+    const lost = {
+      ...record,
+      enrollment: { ...record.enrollment, status: 'lost' },
+      withdrawalReason: null,
+      lostReason: 'No reply to three reminders',
+    };
     stubApi({
       [`GET /api/studies/${studyId}/enrollments/${enrollmentId}`]: { status: 200, body: lost },
       [`GET /api/studies/${studyId}/enrollments/${enrollmentId}/contacts`]: { status: 200, body: noContacts },
     });
-    renderWithProviders(<ParticipantRecord studyId={studyId} enrollmentId={enrollmentId} blinded backHref="/roster" currency="USD" />);
+    renderWithProviders(
+      <ParticipantRecord studyId={studyId} enrollmentId={enrollmentId} blinded backHref="/roster" currency="USD" />,
+    );
 
-    expect((await screen.findByText('Why lost to follow-up')).nextSibling).toHaveTextContent('No reply to three reminders');
+    expect((await screen.findByText('Why lost to follow-up')).nextSibling).toHaveTextContent(
+      'No reply to three reminders',
+    );
     expect(screen.queryByText('Reason for withdrawal')).not.toBeInTheDocument();
   });
 
   it('says so when the participant is not in this study', async () => {
-    stubApi({ [`GET /api/studies/${studyId}/enrollments/${enrollmentId}`]: { status: 404, body: { statusCode: 404, code: 'NOT_FOUND', message: 'No such participant in this study.' } } });
-    renderWithProviders(<ParticipantRecord studyId={studyId} enrollmentId={enrollmentId} blinded={false} backHref="/roster" currency="USD" />);
+    stubApi({
+      [`GET /api/studies/${studyId}/enrollments/${enrollmentId}`]: {
+        status: 404,
+        body: { statusCode: 404, code: 'NOT_FOUND', message: 'No such participant in this study.' },
+      },
+    });
+    renderWithProviders(
+      <ParticipantRecord
+        studyId={studyId}
+        enrollmentId={enrollmentId}
+        blinded={false}
+        backHref="/roster"
+        currency="USD"
+      />,
+    );
 
     expect(await screen.findByText('No such participant')).toBeInTheDocument();
     expect(screen.getByText('No such participant in this study.')).toBeInTheDocument();

@@ -6,7 +6,12 @@ import { Panel } from '@/components/ui/panel';
 import { ErrorState, LoadingState, Notice } from '@/components/ui/states';
 import { ApiError } from '@/lib/api-error';
 import { useDownloadSignedCopy } from '../api/download-signed-copy';
-import { useParticipantRecord, type ParticipantRecord as Record, type SignatureSummary, type TimelineEvent } from '../api/get-participant-record';
+import {
+  useParticipantRecord,
+  type ParticipantRecord as Record,
+  type SignatureSummary,
+  type TimelineEvent,
+} from '../api/get-participant-record';
 import { ContactLog } from './contact-log';
 import { ParticipationChangeDialog, type ParticipationChangeTarget } from './participation-change-dialog';
 import { RecordSteps } from './record-steps';
@@ -28,7 +33,15 @@ export interface ParticipantRecordProps {
   canSeeCodes?: boolean;
 }
 
-export function ParticipantRecord({ studyId, enrollmentId, blinded, backHref, currency, canManage = false, canSeeCodes = false }: ParticipantRecordProps) {
+export function ParticipantRecord({
+  studyId,
+  enrollmentId,
+  blinded,
+  backHref,
+  currency,
+  canManage = false,
+  canSeeCodes = false,
+}: ParticipantRecordProps) {
   const record = useParticipantRecord(studyId, enrollmentId);
   return (
     <div className="flex flex-col gap-4">
@@ -39,12 +52,21 @@ export function ParticipantRecord({ studyId, enrollmentId, blinded, backHref, cu
         <LoadingState label="Loading the participant’s record…" />
       ) : record.isError ? (
         <ErrorState
-          title={record.error instanceof ApiError && record.error.statusCode === 404 ? 'No such participant' : undefined}
+          title={
+            record.error instanceof ApiError && record.error.statusCode === 404 ? 'No such participant' : undefined
+          }
           message={record.error instanceof ApiError ? record.error.message : 'The record could not be loaded.'}
           onRetry={() => void record.refetch()}
         />
       ) : (
-        <RecordDetails studyId={studyId} record={record.data} blinded={blinded} currency={currency} canManage={canManage} canSeeCodes={canSeeCodes} />
+        <RecordDetails
+          studyId={studyId}
+          record={record.data}
+          blinded={blinded}
+          currency={currency}
+          canManage={canManage}
+          canSeeCodes={canSeeCodes}
+        />
       )}
     </div>
   );
@@ -96,14 +118,18 @@ function RecordDetails({ studyId, record, blinded, currency, canManage, canSeeCo
               <ul>
                 {covariates.map(([key, value]) => (
                   <li key={key}>
-                    <span className="font-mono text-xs">{key}</span>: {value === null || value === undefined ? '—' : String(value)}
+                    <span className="font-mono text-xs">{key}</span>:{' '}
+                    {value === null || value === undefined ? '—' : String(value)}
                   </li>
                 ))}
               </ul>
             )}
           </dd>
           <dt className="text-ink-muted">Consent</dt>
-          <dd>{enrollment.signedVersion !== null ? `Signed version ${enrollment.signedVersion}` : 'Not signed'}{enrollment.needsReconsent && ', must sign the newest version'}</dd>
+          <dd>
+            {enrollment.signedVersion !== null ? `Signed version ${enrollment.signedVersion}` : 'Not signed'}
+            {enrollment.needsReconsent && ', must sign the newest version'}
+          </dd>
           <dt className="text-ink-muted">Added</dt>
           <dd>{moment(enrollment.createdAt)}</dd>
           <dt className="text-ink-muted">Invitation sent</dt>
@@ -131,9 +157,20 @@ function RecordDetails({ studyId, record, blinded, currency, canManage, canSeeCo
         </dl>
       </Panel>
 
-      <RecordSteps studyId={studyId} record={record} currency={currency} canManage={canManage} canSeeCodes={canSeeCodes} />
+      <RecordSteps
+        studyId={studyId}
+        record={record}
+        currency={currency}
+        canManage={canManage}
+        canSeeCodes={canSeeCodes}
+      />
 
-      <ContactLog studyId={studyId} enrollment={enrollment} canManage={canManage} onMarkLost={() => setChange({ change: 'lost', entry: enrollment })} />
+      <ContactLog
+        studyId={studyId}
+        enrollment={enrollment}
+        canManage={canManage}
+        onMarkLost={() => setChange({ change: 'lost', entry: enrollment })}
+      />
       {canManage && (
         <ParticipationChangeDialog
           studyId={studyId}
@@ -146,14 +183,23 @@ function RecordDetails({ studyId, record, blinded, currency, canManage, canSeeCo
         />
       )}
 
-      <Panel id="signatures" title="Signatures" description="Each consent version this person signed, with what the signature meant and where it came from.">
+      <Panel
+        id="signatures"
+        title="Signatures"
+        description="Each consent version this person signed, with what the signature meant and where it came from."
+      >
         {record.signatures.length === 0 ? (
           <p className="text-sm text-ink-muted">No signature yet.</p>
         ) : (
           <ul className="flex flex-col gap-3">
             {record.signatures.map((signature) => (
               <li key={signature.id}>
-                <SignatureCard studyId={studyId} enrollmentId={enrollment.id} reference={enrollment.reference} signature={signature} />
+                <SignatureCard
+                  studyId={studyId}
+                  enrollmentId={enrollment.id}
+                  reference={enrollment.reference}
+                  signature={signature}
+                />
               </li>
             ))}
           </ul>
@@ -175,14 +221,28 @@ function RecordDetails({ studyId, record, blinded, currency, canManage, canSeeCo
   );
 }
 
-function SignatureCard({ studyId, enrollmentId, reference, signature }: { studyId: string; enrollmentId: string; reference: string; signature: SignatureSummary }) {
+function SignatureCard({
+  studyId,
+  enrollmentId,
+  reference,
+  signature,
+}: {
+  studyId: string;
+  enrollmentId: string;
+  reference: string;
+  signature: SignatureSummary;
+}) {
   const download = useDownloadSignedCopy(studyId);
   const fileName = `signed-consent-${reference}-v${signature.version}.pdf`;
   return (
-    <article aria-label={`Signature on version ${signature.version}`} className="rounded-md border border-line bg-canvas px-4 py-3">
+    <article
+      aria-label={`Signature on version ${signature.version}`}
+      className="rounded-md border border-line bg-canvas px-4 py-3"
+    >
       <div className="flex flex-wrap items-start justify-between gap-2">
         <h3 className="font-semibold">
-          Version {signature.version} <span className="font-normal text-ink-muted">· signed {moment(signature.signedAt)}</span>
+          Version {signature.version}{' '}
+          <span className="font-normal text-ink-muted">· signed {moment(signature.signedAt)}</span>
         </h3>
         {signature.pdfSha256 ? (
           <Button
@@ -236,7 +296,9 @@ function TimelineItem({ event }: { event: TimelineEvent }) {
           {details.map(([key, value]) => (
             <div key={key} className="contents">
               <dt>{key}</dt>
-              <dd className="font-mono break-all text-ink">{typeof value === 'string' ? value : JSON.stringify(value)}</dd>
+              <dd className="font-mono break-all text-ink">
+                {typeof value === 'string' ? value : JSON.stringify(value)}
+              </dd>
             </div>
           ))}
         </dl>

@@ -19,7 +19,10 @@ export interface ParticipationChangeTarget {
   entry: RosterEntry;
 }
 
-const wording: Record<ParticipationChange, { title: (who: string) => string; description: string; confirm: string; reasonHint: string }> = {
+const wording: Record<
+  ParticipationChange,
+  { title: (who: string) => string; description: string; confirm: string; reasonHint: string }
+> = {
   lost: {
     title: (who) => `Mark ${who} lost to follow-up?`,
     description:
@@ -52,7 +55,13 @@ export function ParticipationChangeDialog({ studyId, target, onClose, onChanged 
   const who = current ? (current.entry.name ?? current.entry.reference) : '';
 
   return (
-    <ModalDialog open={target !== null} onClose={onClose} role="alertdialog" title={text.title(who)} description={text.description}>
+    <ModalDialog
+      open={target !== null}
+      onClose={onClose}
+      role="alertdialog"
+      title={text.title(who)}
+      description={text.description}
+    >
       {current && (
         <ReasonForm
           key={`${current.change}-${current.entry.id}`}
@@ -84,7 +93,10 @@ function ReasonForm({ studyId, target, confirmLabel, reasonHint, onCancel, onCha
     handleSubmit,
     setError,
     formState: { errors },
-  } = useForm<ParticipationReasonInput>({ resolver: zodResolver(participationReasonInputSchema), defaultValues: { reason: '' } });
+  } = useForm<ParticipationReasonInput>({
+    resolver: zodResolver(participationReasonInputSchema),
+    defaultValues: { reason: '' },
+  });
 
   const onSubmit = handleSubmit(({ reason }) =>
     changeParticipation.mutate(

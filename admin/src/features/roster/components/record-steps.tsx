@@ -9,7 +9,13 @@ import { formatMinor } from '@/lib/money';
 import { useCompleteStep } from '../api/complete-step';
 import type { ParticipantRecord } from '../api/get-participant-record';
 import { useStepCodes } from '../api/get-step-codes';
-import { payoutStatusWording, stepStatusWording, undoUnavailableReason, verificationWording, verifiedByWording } from '../utils/step-wording';
+import {
+  payoutStatusWording,
+  stepStatusWording,
+  undoUnavailableReason,
+  verificationWording,
+  verifiedByWording,
+} from '../utils/step-wording';
 import { UndoCompletionDialog, type UndoTarget } from './undo-completion-dialog';
 
 type RecordStep = ParticipantRecord['steps'][number];
@@ -37,20 +43,36 @@ export function RecordSteps({ studyId, record, currency, canManage, canSeeCodes 
 
   const markDone = (step: RecordStep) => {
     setAnnouncement(null);
-    complete.mutate(step.stepId, { onSuccess: () => setAnnouncement(`Step ${step.position} is marked done; its pay is owed.`) });
+    complete.mutate(step.stepId, {
+      onSuccess: () => setAnnouncement(`Step ${step.position} is marked done; its pay is owed.`),
+    });
   };
 
   return (
-    <Panel id="steps" title="Steps" description="Each step with its window, how it was checked and by whom, and where its pay stands.">
+    <Panel
+      id="steps"
+      title="Steps"
+      description="Each step with its window, how it was checked and by whom, and where its pay stands."
+    >
       <div aria-live="polite" className="empty:hidden">
-        {announcement && <Notice tone="info" className="mb-3">{announcement}</Notice>}
+        {announcement && (
+          <Notice tone="info" className="mb-3">
+            {announcement}
+          </Notice>
+        )}
       </div>
       {complete.isError && (
-        <Notice className="mb-3">{complete.error instanceof ApiError ? complete.error.message : 'The step could not be marked done. Try again.'}</Notice>
+        <Notice className="mb-3">
+          {complete.error instanceof ApiError
+            ? complete.error.message
+            : 'The step could not be marked done. Try again.'}
+        </Notice>
       )}
       {record.steps.length === 0 ? (
         <p className="text-sm text-ink-muted">
-          {enrollment.assignedAt ? 'The study has no steps.' : 'Steps start once this person has signed the consent form and been assigned.'}
+          {enrollment.assignedAt
+            ? 'The study has no steps.'
+            : 'Steps start once this person has signed the consent form and been assigned.'}
         </p>
       ) : (
         <ol className="flex flex-col gap-3" aria-label="Steps of this participant">
@@ -106,12 +128,17 @@ function StepCard({
 }) {
   const status = stepStatusWording[step.status];
   const completion = step.completion;
-  const payout = completion?.payoutStatus ? (payoutStatusWording[completion.payoutStatus] ?? { label: completion.payoutStatus, tone: 'neutral' as const }) : null;
+  const payout = completion?.payoutStatus
+    ? (payoutStatusWording[completion.payoutStatus] ?? { label: completion.payoutStatus, tone: 'neutral' as const })
+    : null;
   const undoBlocked = completion ? undoUnavailableReason(completion) : null;
   const evidence = completion ? Object.entries(completion.evidence) : [];
 
   return (
-    <article aria-label={`Step ${step.position}: ${step.title}`} className="rounded-md border border-line bg-canvas px-4 py-3">
+    <article
+      aria-label={`Step ${step.position}: ${step.title}`}
+      className="rounded-md border border-line bg-canvas px-4 py-3"
+    >
       <div className="flex flex-wrap items-start justify-between gap-2">
         <div className="flex min-w-0 flex-col gap-0.5">
           <h3 className="font-semibold">
@@ -128,7 +155,13 @@ function StepCard({
         {canManage && (
           <div className="flex flex-wrap gap-2">
             {(step.status === 'open' || step.status === 'overdue') && (
-              <Button size="compact" variant="primary" pending={marking} onClick={onMarkDone} aria-label={`Mark step ${step.position} done`}>
+              <Button
+                size="compact"
+                variant="primary"
+                pending={marking}
+                onClick={onMarkDone}
+                aria-label={`Mark step ${step.position} done`}
+              >
                 Mark done
               </Button>
             )}
@@ -149,7 +182,13 @@ function StepCard({
           </>
         )}
         <dt className="text-ink-muted">Opens</dt>
-        <dd>{step.opensAt ? <time dateTime={step.opensAt}>{moment(step.opensAt)}</time> : 'Once the step before it is done'}</dd>
+        <dd>
+          {step.opensAt ? (
+            <time dateTime={step.opensAt}>{moment(step.opensAt)}</time>
+          ) : (
+            'Once the step before it is done'
+          )}
+        </dd>
         <dt className="text-ink-muted">Due</dt>
         <dd>{step.dueAt ? <time dateTime={step.dueAt}>{moment(step.dueAt)}</time> : 'No due date'}</dd>
         {completion && (
@@ -161,13 +200,17 @@ function StepCard({
             <dt className="text-ink-muted">Checked by</dt>
             <dd>
               {verifiedByWording[completion.verifiedBy]}
-              {completion.recordedByEmail && <span className="text-ink-muted"> · recorded by {completion.recordedByEmail}</span>}
+              {completion.recordedByEmail && (
+                <span className="text-ink-muted"> · recorded by {completion.recordedByEmail}</span>
+              )}
             </dd>
             {evidence.length > 0 && (
               <>
                 <dt className="text-ink-muted">Evidence</dt>
                 <dd className="font-mono text-xs leading-5 break-all">
-                  {evidence.map(([key, value]) => `${key}: ${typeof value === 'string' ? value : JSON.stringify(value)}`).join(' · ')}
+                  {evidence
+                    .map(([key, value]) => `${key}: ${typeof value === 'string' ? value : JSON.stringify(value)}`)
+                    .join(' · ')}
                 </dd>
               </>
             )}
@@ -181,7 +224,9 @@ function StepCard({
         )}
       </dl>
 
-      {canManage && completion && undoBlocked && <p className="mt-2 text-xs text-ink-muted">Undo is not available. {undoBlocked}</p>}
+      {canManage && completion && undoBlocked && (
+        <p className="mt-2 text-xs text-ink-muted">Undo is not available. {undoBlocked}</p>
+      )}
 
       {step.undone.length > 0 && (
         <div className="mt-2 border-t border-line pt-2">
@@ -208,11 +253,16 @@ function ParticipantCodes({ studyId, enrollmentId }: { studyId: string; enrollme
       <h3 id="participant-codes-heading" className="font-semibold">
         Their codes
       </h3>
-      <p className="text-sm text-ink-muted">For handing out in person or by message; each works only for this participant and step.</p>
+      <p className="text-sm text-ink-muted">
+        For handing out in person or by message; each works only for this participant and step.
+      </p>
       {codes.isPending ? (
         <LoadingState label="Loading the codes…" className="py-4" />
       ) : codes.isError ? (
-        <ErrorState message={codes.error instanceof ApiError ? codes.error.message : 'The codes could not be loaded.'} onRetry={() => void codes.refetch()} />
+        <ErrorState
+          message={codes.error instanceof ApiError ? codes.error.message : 'The codes could not be loaded.'}
+          onRetry={() => void codes.refetch()}
+        />
       ) : codes.data.items.length === 0 ? (
         <p className="mt-1 text-sm text-ink-muted">No step uses codes of its own for this participant.</p>
       ) : (

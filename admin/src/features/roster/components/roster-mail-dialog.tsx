@@ -55,7 +55,9 @@ export function RosterMailDialog({ studyId, mailing, reconsentCount, onClose, on
       }
     >
       {mutation.isError && (
-        <Notice>{mutation.error instanceof ApiError ? mutation.error.message : 'The e-mails could not be sent. Try again.'}</Notice>
+        <Notice>
+          {mutation.error instanceof ApiError ? mutation.error.message : 'The e-mails could not be sent. Try again.'}
+        </Notice>
       )}
       <DialogActions>
         <Button onClick={close}>Cancel</Button>

@@ -24,20 +24,42 @@ export function RosterTable({ entries, blinded, canManage, recordHref, onChange,
   return (
     <div className={tableRecipe.frame}>
       <table className={tableRecipe.table} aria-busy={busy}>
-        <caption className="sr-only">Roster{blinded ? '; conditions are shown as codes while the study is blinded' : ''}</caption>
+        <caption className="sr-only">
+          Roster{blinded ? '; conditions are shown as codes while the study is blinded' : ''}
+        </caption>
         <thead>
           <tr>
-            <th scope="col" className={tableRecipe.headCell}>Reference</th>
-            <th scope="col" className={tableRecipe.headCell}>E-mail</th>
-            <th scope="col" className={tableRecipe.headCell}>Name</th>
-            <th scope="col" className={tableRecipe.headCell}>Status</th>
-            <th scope="col" className={tableRecipe.headCell} title={blinded ? 'Codes only while the study is blinded' : undefined}>
+            <th scope="col" className={tableRecipe.headCell}>
+              Reference
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              E-mail
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Name
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Status
+            </th>
+            <th
+              scope="col"
+              className={tableRecipe.headCell}
+              title={blinded ? 'Codes only while the study is blinded' : undefined}
+            >
               {blinded ? 'Condition (coded)' : 'Condition'}
             </th>
-            <th scope="col" className={tableRecipe.headCell}>Next step</th>
-            <th scope="col" className={tableRecipe.headCell}>Consent</th>
-            <th scope="col" className={tableRecipe.headCell}>Invited</th>
-            <th scope="col" className={tableRecipe.headCell}>Assigned</th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Next step
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Consent
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Invited
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Assigned
+            </th>
             {canManage && (
               <th scope="col" className={tableRecipe.headCell}>
                 <span className="sr-only">Actions</span>
@@ -79,20 +101,40 @@ export function RosterTable({ entries, blinded, canManage, recordHref, onChange,
                   <NextStepCell entry={entry} />
                 </td>
                 <td className={`${tableRecipe.cell} whitespace-nowrap`}>
-                  {entry.signedVersion !== null && <span className="mr-1.5 text-ink-muted">v{entry.signedVersion}</span>}
-                  {entry.needsReconsent ? <Badge tone="caution">Re-consent needed</Badge> : entry.signedVersion === null && <span className="text-ink-faint">Not signed</span>}
+                  {entry.signedVersion !== null && (
+                    <span className="mr-1.5 text-ink-muted">v{entry.signedVersion}</span>
+                  )}
+                  {entry.needsReconsent ? (
+                    <Badge tone="caution">Re-consent needed</Badge>
+                  ) : (
+                    entry.signedVersion === null && <span className="text-ink-faint">Not signed</span>
+                  )}
                 </td>
-                <td className={`${tableRecipe.cell} whitespace-nowrap text-ink-muted tabular-nums`}>{day(entry.invitationSentAt)}</td>
-                <td className={`${tableRecipe.cell} whitespace-nowrap text-ink-muted tabular-nums`}>{day(entry.assignedAt)}</td>
+                <td className={`${tableRecipe.cell} whitespace-nowrap text-ink-muted tabular-nums`}>
+                  {day(entry.invitationSentAt)}
+                </td>
+                <td className={`${tableRecipe.cell} whitespace-nowrap text-ink-muted tabular-nums`}>
+                  {day(entry.assignedAt)}
+                </td>
                 {canManage && (
                   <td className={`${tableRecipe.cell} text-right whitespace-nowrap`}>
                     {mayMarkLost(entry.status) && (
-                      <Button variant="quiet" size="compact" onClick={() => onChange('lost', entry)} aria-label={`Mark ${who} lost to follow-up`}>
+                      <Button
+                        variant="quiet"
+                        size="compact"
+                        onClick={() => onChange('lost', entry)}
+                        aria-label={`Mark ${who} lost to follow-up`}
+                      >
                         Mark lost
                       </Button>
                     )}
                     {mayRecordWithdrawal(entry.status) && (
-                      <Button variant="quiet" size="compact" onClick={() => onChange('withdraw', entry)} aria-label={`Record a withdrawal for ${who}`}>
+                      <Button
+                        variant="quiet"
+                        size="compact"
+                        onClick={() => onChange('withdraw', entry)}
+                        aria-label={`Record a withdrawal for ${who}`}
+                      >
                         Withdraw
                       </Button>
                     )}
@@ -115,7 +157,11 @@ function NextStepCell({ entry }: { entry: RosterEntry }) {
   const timing = nextStepTimingWording[next.timing];
   const at = next.timing === 'upcoming' ? next.opensAt : next.timing === 'waiting' ? null : next.dueAt;
   const when =
-    next.timing === 'waiting' ? 'after the step before' : at ? `${next.timing === 'upcoming' ? 'opens' : 'due'} ${shortDayFormat.format(new Date(at))}` : 'no due date';
+    next.timing === 'waiting'
+      ? 'after the step before'
+      : at
+        ? `${next.timing === 'upcoming' ? 'opens' : 'due'} ${shortDayFormat.format(new Date(at))}`
+        : 'no due date';
   return (
     <span className="flex flex-col items-start gap-0.5">
       <span className="flex items-center gap-1.5 whitespace-nowrap">

@@ -23,12 +23,33 @@ const signed = {
   assignedAt: '2026-12-01T19:45:19.016Z',
   createdAt: '2026-12-01T19:45:18.994Z',
 };
-const invited = { ...signed, id: '9b1f6a2e-7c3d-4e5f-8a9b-0c1d2e3f4a5b', reference: 'P-7QW2ZK', email: 'rowan.example@evenhand.test', name: 'Rowan Example', status: 'invited', condition: null, stratumKey: null, needsReconsent: false, signedVersion: null, assignedAt: null };
+const invited = {
+  ...signed,
+  id: '9b1f6a2e-7c3d-4e5f-8a9b-0c1d2e3f4a5b',
+  reference: 'P-7QW2ZK',
+  email: 'rowan.example@evenhand.test',
+  name: 'Rowan Example',
+  status: 'invited',
+  condition: null,
+  stratumKey: null,
+  needsReconsent: false,
+  signedVersion: null,
+  assignedAt: null,
+};
 
 function rosterAnswer({ query }: RecordedRequest) {
   const needsReconsent = query.get('needsReconsent') === 'true';
   const items = needsReconsent ? [signed] : [signed, invited];
-  return { status: 200, body: { items: query.get('pageSize') === '1' ? items.slice(0, 1) : items, total: items.length, page: 1, pageSize: Number(query.get('pageSize')), countsByStatus: { assigned: 1, invited: 1 } } };
+  return {
+    status: 200,
+    body: {
+      items: query.get('pageSize') === '1' ? items.slice(0, 1) : items,
+      total: items.length,
+      page: 1,
+      pageSize: Number(query.get('pageSize')),
+      countsByStatus: { assigned: 1, invited: 1 },
+    },
+  };
 }
 
 // The shared test machines are often busy; these component tests get more time than the 5 s default.
@@ -38,7 +59,11 @@ describe('Roster', { timeout: 15_000 }, () => {
     renderWithProviders(<Roster studyId={studyId} blinded canManage recordHref={(id) => `/r/${id}`} />);
 
     const filters = await screen.findByRole('group', { name: 'Show people by status' });
-    expect(within(filters).getAllByRole('button').map((chip) => chip.textContent)).toEqual(['All statuses2', 'Invited1', 'Assigned1']);
+    expect(
+      within(filters)
+        .getAllByRole('button')
+        .map((chip) => chip.textContent),
+    ).toEqual(['All statuses2', 'Invited1', 'Assigned1']);
     expect(screen.getByRole('columnheader', { name: 'Condition (coded)' })).toBeInTheDocument();
     expect(await screen.findByRole('button', { name: 'Remind to re-consent (1)' })).toBeInTheDocument();
 
@@ -68,7 +93,9 @@ describe('Roster', { timeout: 15_000 }, () => {
     await userEvent.click(screen.getByRole('button', { name: 'Mark lost to follow-up' }));
 
     expect(await screen.findByText('P-3X66FX is marked lost to follow-up.')).toBeInTheDocument();
-    expect(requests.find((request) => request.path === lostPath)?.body).toEqual({ reason: 'No reply to three reminders' });
+    expect(requests.find((request) => request.path === lostPath)?.body).toEqual({
+      reason: 'No reply to three reminders',
+    });
   });
 
   it('hides the import, mail and row actions from people who may only read', async () => {

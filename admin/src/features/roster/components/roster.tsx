@@ -36,7 +36,15 @@ export interface RosterProps {
   canDownloadCodes?: boolean;
 }
 
-export function Roster({ studyId, blinded, canManage, recordHref, factorKeys, steps = [], canDownloadCodes = false }: RosterProps) {
+export function Roster({
+  studyId,
+  blinded,
+  canManage,
+  recordHref,
+  factorKeys,
+  steps = [],
+  canDownloadCodes = false,
+}: RosterProps) {
   const { searchParams, setSearchParams, search, page, searchText, setSearchText, goToPage } = useUrlSearch();
   const status = parseStatus(searchParams.get('status'));
   const needsReconsent = searchParams.get('reconsent') === '1';
@@ -70,7 +78,11 @@ export function Roster({ studyId, blinded, canManage, recordHref, factorKeys, st
   const announce = (text: string) => setAnnouncement(text);
   const onChanged = (entry: RosterEntry, kind: ParticipationChange) => {
     setChange(null);
-    announce(kind === 'lost' ? `${entry.reference} is marked lost to follow-up.` : `The withdrawal of ${entry.reference} is recorded.`);
+    announce(
+      kind === 'lost'
+        ? `${entry.reference} is marked lost to follow-up.`
+        : `The withdrawal of ${entry.reference} is recorded.`,
+    );
   };
 
   return (
@@ -78,7 +90,9 @@ export function Roster({ studyId, blinded, canManage, recordHref, factorKeys, st
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>
           <h2 className="text-lg font-semibold">Roster</h2>
-          <p className="text-sm text-ink-muted">Everyone invited to or enrolled in this study. Records are never deleted.</p>
+          <p className="text-sm text-ink-muted">
+            Everyone invited to or enrolled in this study. Records are never deleted.
+          </p>
         </div>
         {(canManage || canDownloadCodes) && (
           <div className="flex flex-wrap gap-2">
@@ -104,7 +118,9 @@ export function Roster({ studyId, blinded, canManage, recordHref, factorKeys, st
             {canManage && (
               <>
                 {(reconsentCount.data ?? 0) > 0 && (
-                  <Button onClick={() => setMailing('reconsent-reminders')}>Remind to re-consent ({reconsentCount.data})</Button>
+                  <Button onClick={() => setMailing('reconsent-reminders')}>
+                    Remind to re-consent ({reconsentCount.data})
+                  </Button>
                 )}
                 <Button onClick={() => setMailing('invitations')}>Send invitations</Button>
                 <Button
@@ -161,11 +177,26 @@ export function Roster({ studyId, blinded, canManage, recordHref, factorKeys, st
         />
       ) : roster.data.items.length === 0 ? (
         page > 1 ? (
-          <EmptyState title={`Page ${page} is empty`} action={<Button onClick={() => goToPage(1)}>Go to the first page</Button>}>
+          <EmptyState
+            title={`Page ${page} is empty`}
+            action={<Button onClick={() => goToPage(1)}>Go to the first page</Button>}
+          >
             The list is shorter than it was.
           </EmptyState>
         ) : filtered ? (
-          <EmptyState title="No one matches" action={<Button onClick={() => { setSearchText(''); setParams({ status: null, reconsent: null, q: null }); }}>Show everyone</Button>}>
+          <EmptyState
+            title="No one matches"
+            action={
+              <Button
+                onClick={() => {
+                  setSearchText('');
+                  setParams({ status: null, reconsent: null, q: null });
+                }}
+              >
+                Show everyone
+              </Button>
+            }
+          >
             {[
               status && `nobody is ${enrollmentStatusLabels[status].label.toLowerCase()}`,
               needsReconsent && 'nobody still needs to re-consent',
@@ -196,14 +227,33 @@ export function Roster({ studyId, blinded, canManage, recordHref, factorKeys, st
               setChange({ change: kind, entry });
             }}
           />
-          <Pager label="Roster pages" noun={['person', 'people']} pageSize={pageSize} total={roster.data.total} page={page} onPage={goToPage} />
+          <Pager
+            label="Roster pages"
+            noun={['person', 'people']}
+            pageSize={pageSize}
+            total={roster.data.total}
+            page={page}
+            onPage={goToPage}
+          />
         </>
       )}
 
       {canManage && (
         <>
-          <BulkCompletionDialog key={`list-${listKey}`} studyId={studyId} steps={steps} open={markingList} onClose={() => setMarkingList(false)} />
-          <ImportRosterDialog key={importKey} studyId={studyId} open={importing} onClose={() => setImporting(false)} factorKeys={factorKeys} />
+          <BulkCompletionDialog
+            key={`list-${listKey}`}
+            studyId={studyId}
+            steps={steps}
+            open={markingList}
+            onClose={() => setMarkingList(false)}
+          />
+          <ImportRosterDialog
+            key={importKey}
+            studyId={studyId}
+            open={importing}
+            onClose={() => setImporting(false)}
+            factorKeys={factorKeys}
+          />
           <RosterMailDialog
             studyId={studyId}
             mailing={mailing}
@@ -220,7 +270,12 @@ export function Roster({ studyId, blinded, canManage, recordHref, factorKeys, st
               );
             }}
           />
-          <ParticipationChangeDialog studyId={studyId} target={change} onClose={() => setChange(null)} onChanged={onChanged} />
+          <ParticipationChangeDialog
+            studyId={studyId}
+            target={change}
+            onClose={() => setChange(null)}
+            onChanged={onChanged}
+          />
         </>
       )}
     </div>

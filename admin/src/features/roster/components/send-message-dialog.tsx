@@ -19,7 +19,15 @@ export interface SendMessageDialogProps {
 }
 
 /** Give it a new `key` each time it opens, so each message starts empty. */
-export function SendMessageDialog({ studyId, enrollmentId, reference, email, open, onClose, onSent }: SendMessageDialogProps) {
+export function SendMessageDialog({
+  studyId,
+  enrollmentId,
+  reference,
+  email,
+  open,
+  onClose,
+  onSent,
+}: SendMessageDialogProps) {
   return (
     <ModalDialog
       open={open}
@@ -33,17 +41,33 @@ export function SendMessageDialog({ studyId, enrollmentId, reference, email, ope
   );
 }
 
-function MessageForm({ studyId, enrollmentId, onCancel, onSent }: { studyId: string; enrollmentId: string; onCancel: () => void; onSent: () => void }) {
+function MessageForm({
+  studyId,
+  enrollmentId,
+  onCancel,
+  onSent,
+}: {
+  studyId: string;
+  enrollmentId: string;
+  onCancel: () => void;
+  onSent: () => void;
+}) {
   const send = useSendStaffMessage(studyId, enrollmentId);
   const {
     register,
     handleSubmit,
     setError,
     formState: { errors },
-  } = useForm<StaffMessageInput>({ resolver: zodResolver(staffMessageInputSchema), defaultValues: { subject: '', message: '' } });
+  } = useForm<StaffMessageInput>({
+    resolver: zodResolver(staffMessageInputSchema),
+    defaultValues: { subject: '', message: '' },
+  });
 
   const onSubmit = handleSubmit((body) =>
-    send.mutate(body, { onSuccess: () => onSent(), onError: (error) => applyServerErrors(error, ['subject', 'message'], setError) }),
+    send.mutate(body, {
+      onSuccess: () => onSent(),
+      onError: (error) => applyServerErrors(error, ['subject', 'message'], setError),
+    }),
   );
 
   return (

@@ -17,9 +17,18 @@ export interface StatusFilterProps {
 }
 
 /** Filter chips with counts; statuses nobody is in are left out unless chosen. */
-export function StatusFilter({ countsByStatus, status, onStatus, needsReconsent, reconsentCount, onNeedsReconsent }: StatusFilterProps) {
+export function StatusFilter({
+  countsByStatus,
+  status,
+  onStatus,
+  needsReconsent,
+  reconsentCount,
+  onNeedsReconsent,
+}: StatusFilterProps) {
   const total = Object.values(countsByStatus).reduce((sum, count) => sum + count, 0);
-  const shown = enrollmentStatusOrder.filter((candidate) => (countsByStatus[candidate] ?? 0) > 0 || candidate === status);
+  const shown = enrollmentStatusOrder.filter(
+    (candidate) => (countsByStatus[candidate] ?? 0) > 0 || candidate === status,
+  );
   return (
     <div className="flex flex-wrap items-center gap-2">
       <div role="group" aria-label="Show people by status" className="flex flex-wrap gap-1.5">
@@ -35,16 +44,38 @@ export function StatusFilter({ countsByStatus, status, onStatus, needsReconsent,
         ))}
       </div>
       <span aria-hidden="true" className="mx-1 h-5 w-px bg-line-strong" />
-      <Chip pressed={needsReconsent} onClick={() => onNeedsReconsent(!needsReconsent)} label="Needs re-consent" count={reconsentCount} />
+      <Chip
+        pressed={needsReconsent}
+        onClick={() => onNeedsReconsent(!needsReconsent)}
+        label="Needs re-consent"
+        count={reconsentCount}
+      />
     </div>
   );
 }
 
-function Chip({ pressed, onClick, label, count }: { pressed: boolean; onClick: () => void; label: string; count: number | undefined }) {
+function Chip({
+  pressed,
+  onClick,
+  label,
+  count,
+}: {
+  pressed: boolean;
+  onClick: () => void;
+  label: string;
+  count: number | undefined;
+}) {
   return (
-    <button type="button" aria-pressed={pressed} onClick={onClick} className={cx(chipClass, pressed ? chipOn : chipOff)}>
+    <button
+      type="button"
+      aria-pressed={pressed}
+      onClick={onClick}
+      className={cx(chipClass, pressed ? chipOn : chipOff)}
+    >
       {label}
-      {count !== undefined && <span className={cx('tabular-nums text-xs', pressed ? 'text-ink-inverse/85' : 'text-ink-muted')}>{count}</span>}
+      {count !== undefined && (
+        <span className={cx('tabular-nums text-xs', pressed ? 'text-ink-inverse/85' : 'text-ink-muted')}>{count}</span>
+      )}
     </button>
   );
 }

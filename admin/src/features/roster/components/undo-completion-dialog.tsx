@@ -23,7 +23,14 @@ export interface UndoCompletionDialogProps {
   onUndone: (target: UndoTarget) => void;
 }
 
-export function UndoCompletionDialog({ studyId, enrollmentId, reference, target, onClose, onUndone }: UndoCompletionDialogProps) {
+export function UndoCompletionDialog({
+  studyId,
+  enrollmentId,
+  reference,
+  target,
+  onClose,
+  onUndone,
+}: UndoCompletionDialogProps) {
   // Keep showing the step while the dialog fades out.
   const [shown, setShown] = useState(target);
   if (target !== null && target !== shown) setShown(target);
@@ -36,7 +43,16 @@ export function UndoCompletionDialog({ studyId, enrollmentId, reference, target,
       title={current ? `Undo step ${current.position} for ${reference}?` : 'Undo the step?'}
       description="The step counts as not done again and its pay, not yet approved, is cancelled. The completion stays in the record as undone, with your reason."
     >
-      {current && <UndoForm key={current.stepId} studyId={studyId} enrollmentId={enrollmentId} target={current} onCancel={onClose} onUndone={onUndone} />}
+      {current && (
+        <UndoForm
+          key={current.stepId}
+          studyId={studyId}
+          enrollmentId={enrollmentId}
+          target={current}
+          onCancel={onClose}
+          onUndone={onUndone}
+        />
+      )}
     </ModalDialog>
   );
 }

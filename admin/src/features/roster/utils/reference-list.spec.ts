@@ -3,7 +3,11 @@ import { firstCell, parseReferenceList } from './reference-list';
 
 describe('parseReferenceList', () => {
   it('reads one reference per line, trimming spaces and skipping blank lines', () => {
-    expect(parseReferenceList('  P-ABC234\n\nP-XYZ789  \r\n\r\nP-QQQ111\n')).toEqual(['P-ABC234', 'P-XYZ789', 'P-QQQ111']);
+    expect(parseReferenceList('  P-ABC234\n\nP-XYZ789  \r\n\r\nP-QQQ111\n')).toEqual([
+      'P-ABC234',
+      'P-XYZ789',
+      'P-QQQ111',
+    ]);
   });
 
   it('takes the first column of a CSV file and drops its header row and byte-order mark', () => {

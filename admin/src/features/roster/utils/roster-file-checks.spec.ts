@@ -10,9 +10,13 @@ describe('rosterFileProblem', () => {
   });
 
   it('refuses a spreadsheet or an image with the reason', () => {
-    expect(rosterFileProblem({ name: 'invitees.xlsx', size: 120, type: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet' })).toMatch(
-      /is not a CSV file/,
-    );
+    expect(
+      rosterFileProblem({
+        name: 'invitees.xlsx',
+        size: 120,
+        type: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+      }),
+    ).toMatch(/is not a CSV file/);
     expect(rosterFileProblem({ name: 'photo.csv', size: 120, type: 'image/png' })).toMatch(/is not a CSV file/);
   });
 

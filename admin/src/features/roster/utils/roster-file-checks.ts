@@ -1,7 +1,14 @@
 /** The api's limit for a roster upload (MAX_ROSTER_BYTES in api/src/enrollments/enrollments.controller.ts). */
 export const maxRosterBytes = 5 * 1024 * 1024;
 
-const csvTypes = ['text/csv', 'application/csv', 'text/comma-separated-values', 'application/vnd.ms-excel', 'text/plain', ''];
+const csvTypes = [
+  'text/csv',
+  'application/csv',
+  'text/comma-separated-values',
+  'application/vnd.ms-excel',
+  'text/plain',
+  '',
+];
 
 /** Why this file cannot be a roster, or null when it may be sent. The api checks again and reports every row. */
 export function rosterFileProblem(file: { name: string; size: number; type: string }): string | null {
@@ -9,7 +16,8 @@ export function rosterFileProblem(file: { name: string; size: number; type: stri
     return `${file.name} is not a CSV file. Save the spreadsheet as “CSV (comma separated)” and choose that file.`;
   }
   if (file.size === 0) return `${file.name} is empty.`;
-  if (file.size > maxRosterBytes) return `${file.name} is larger than 5 MB, the most one import takes. Split it into smaller files.`;
+  if (file.size > maxRosterBytes)
+    return `${file.name} is larger than 5 MB, the most one import takes. Split it into smaller files.`;
   return null;
 }
 

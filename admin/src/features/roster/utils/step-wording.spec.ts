@@ -17,6 +17,8 @@ describe('undoUnavailableReason', () => {
   });
 
   it('explains that approved pay cannot be taken back', () => {
-    expect(undoUnavailableReason({ ...completion, payoutStatus: 'approved', canUndo: false })).toMatch(/pay has been approved/);
+    expect(undoUnavailableReason({ ...completion, payoutStatus: 'approved', canUndo: false })).toMatch(
+      /pay has been approved/,
+    );
   });
 });

@@ -6,14 +6,23 @@ type RecordCompletion = components['schemas']['RecordCompletionDto'];
 type NextStep = components['schemas']['RosterNextStepDto'];
 
 /** A step's status for one participant, in plain words. */
-export const stepStatusWording: Record<RecordStep['status'], { label: string; tone: BadgeTone; explanation: string }> = {
-  done: { label: 'Done', tone: 'success', explanation: 'Done and owed its pay.' },
-  open: { label: 'Open now', tone: 'spruce', explanation: 'Can be done now.' },
-  overdue: { label: 'Overdue', tone: 'danger', explanation: 'Past its due date; it can still be done and still counts.' },
-  upcoming: { label: 'Opens later', tone: 'neutral', explanation: 'Opens on a set day.' },
-  waiting: { label: 'Waiting', tone: 'neutral', explanation: 'Opens once the step before it is done.' },
-  locked: { label: 'Not available', tone: 'caution', explanation: 'Not taking part now, or a new consent form has to be signed first.' },
-};
+export const stepStatusWording: Record<RecordStep['status'], { label: string; tone: BadgeTone; explanation: string }> =
+  {
+    done: { label: 'Done', tone: 'success', explanation: 'Done and owed its pay.' },
+    open: { label: 'Open now', tone: 'spruce', explanation: 'Can be done now.' },
+    overdue: {
+      label: 'Overdue',
+      tone: 'danger',
+      explanation: 'Past its due date; it can still be done and still counts.',
+    },
+    upcoming: { label: 'Opens later', tone: 'neutral', explanation: 'Opens on a set day.' },
+    waiting: { label: 'Waiting', tone: 'neutral', explanation: 'Opens once the step before it is done.' },
+    locked: {
+      label: 'Not available',
+      tone: 'caution',
+      explanation: 'Not taking part now, or a new consent form has to be signed first.',
+    },
+  };
 
 /** Where the roster's next step stands. */
 export const nextStepTimingWording: Record<NextStep['timing'], { label: string; tone: BadgeTone }> = {

@@ -7,7 +7,8 @@ export async function getStaffUser(id: string) {
 }
 
 // Under the list's key, so a saved edit (which invalidates the list) refreshes the page too.
-export const staffUserQueryOptions = (id: string) => queryOptions({ queryKey: [...staffUsersKey, 'one', id], queryFn: () => getStaffUser(id) });
+export const staffUserQueryOptions = (id: string) =>
+  queryOptions({ queryKey: [...staffUsersKey, 'one', id], queryFn: () => getStaffUser(id) });
 
 export function useStaffUser(id: string) {
   return useQuery(staffUserQueryOptions(id));

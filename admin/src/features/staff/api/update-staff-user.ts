@@ -11,7 +11,9 @@ export const updateStaffUserInputSchema = z.object({
 });
 
 export type UpdateStaffUserInput = z.infer<typeof updateStaffUserInputSchema>;
-export type StaffUserChanges = NonNullable<paths['/api/users/{id}']['patch']['requestBody']>['content']['application/json'];
+export type StaffUserChanges = NonNullable<
+  paths['/api/users/{id}']['patch']['requestBody']
+>['content']['application/json'];
 
 export async function updateStaffUser(id: string, changes: StaffUserChanges): Promise<StaffUser> {
   return unwrap(apiClient.PATCH('/api/users/{id}', { params: { path: { id } }, body: changes }));

@@ -111,7 +111,9 @@ describe('CreateStaffUserForm', () => {
     await fillForm();
     await submit();
 
-    await waitFor(() => expect(screen.getByLabelText('Temporary password')).toHaveAccessibleDescription('password is too common'));
+    await waitFor(() =>
+      expect(screen.getByLabelText('Temporary password')).toHaveAccessibleDescription('password is too common'),
+    );
     expect(screen.getByLabelText('Name')).toHaveAccessibleDescription('name must not contain angle brackets');
     expect(screen.getByRole('alert')).toHaveTextContent('studyIds: studyIds is not allowed');
   });

@@ -18,7 +18,9 @@ const path = `/api/users/${member.id}`;
 
 describe('EditStaffUserForm', () => {
   it('starts from the saved values and sends only name and role', async () => {
-    const { requests } = stubApi({ [`PATCH ${path}`]: { status: 200, body: { ...member, name: 'Wren Halloway-Ives', role: 'coordinator' } } });
+    const { requests } = stubApi({
+      [`PATCH ${path}`]: { status: 200, body: { ...member, name: 'Wren Halloway-Ives', role: 'coordinator' } },
+    });
     const onSaved = vi.fn();
     renderWithProviders(<EditStaffUserForm user={member} onSaved={onSaved} onCancel={vi.fn()} />);
 
@@ -32,14 +34,21 @@ describe('EditStaffUserForm', () => {
     await userEvent.click(screen.getByRole('button', { name: 'Save changes' }));
 
     await waitFor(() => expect(onSaved).toHaveBeenCalled());
-    expect(requests).toEqual([expect.objectContaining({ method: 'PATCH', path, body: { name: 'Wren Halloway-Ives', role: 'coordinator' } })]);
+    expect(requests).toEqual([
+      expect.objectContaining({ method: 'PATCH', path, body: { name: 'Wren Halloway-Ives', role: 'coordinator' } }),
+    ]);
   });
 
   it('refuses an empty name and puts a server error on its field', async () => {
     stubApi({
       [`PATCH ${path}`]: {
         status: 400,
-        body: { statusCode: 400, code: 'VALIDATION_FAILED', message: 'Some fields are missing or invalid.', errors: [{ field: 'name', message: 'name is too long' }] },
+        body: {
+          statusCode: 400,
+          code: 'VALIDATION_FAILED',
+          message: 'Some fields are missing or invalid.',
+          errors: [{ field: 'name', message: 'name is too long' }],
+        },
       },
     });
     renderWithProviders(<EditStaffUserForm user={member} onSaved={vi.fn()} onCancel={vi.fn()} />);

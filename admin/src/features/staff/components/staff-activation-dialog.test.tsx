@@ -17,7 +17,9 @@ const member = {
 
 describe('StaffActivationDialog', () => {
   it('asks first, then patches active:false for the chosen person', async () => {
-    const { requests } = stubApi({ 'PATCH /api/users/7d1c3f52-9a4e-4c55-a1f0-5b2d8e6c4a19': { status: 200, body: { ...member, active: false } } });
+    const { requests } = stubApi({
+      'PATCH /api/users/7d1c3f52-9a4e-4c55-a1f0-5b2d8e6c4a19': { status: 200, body: { ...member, active: false } },
+    });
     const onChanged = vi.fn();
     renderWithProviders(<StaffActivationDialog user={member} onClose={vi.fn()} onChanged={onChanged} />);
 
@@ -31,8 +33,12 @@ describe('StaffActivationDialog', () => {
   });
 
   it('reactivates a deactivated person with active:true', async () => {
-    const { requests } = stubApi({ 'PATCH /api/users/7d1c3f52-9a4e-4c55-a1f0-5b2d8e6c4a19': { status: 200, body: member } });
-    renderWithProviders(<StaffActivationDialog user={{ ...member, active: false }} onClose={vi.fn()} onChanged={vi.fn()} />);
+    const { requests } = stubApi({
+      'PATCH /api/users/7d1c3f52-9a4e-4c55-a1f0-5b2d8e6c4a19': { status: 200, body: member },
+    });
+    renderWithProviders(
+      <StaffActivationDialog user={{ ...member, active: false }} onClose={vi.fn()} onChanged={vi.fn()} />,
+    );
 
     await userEvent.click(await screen.findByRole('button', { name: 'Reactivate' }));
 

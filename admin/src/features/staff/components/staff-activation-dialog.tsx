@@ -54,7 +54,9 @@ export function StaffActivationDialog({ user, onClose, onChanged }: StaffActivat
       {target && <p className="text-sm text-ink-muted">{target.email}</p>}
       {updateStaffUser.isError && (
         <Notice className="mt-3">
-          {updateStaffUser.error instanceof ApiError ? updateStaffUser.error.message : 'The change could not be saved. Try again.'}
+          {updateStaffUser.error instanceof ApiError
+            ? updateStaffUser.error.message
+            : 'The change could not be saved. Try again.'}
         </Notice>
       )}
       <DialogActions>

@@ -15,7 +15,8 @@ import { StaffTable } from './staff-table';
 
 const pageSize = 20;
 
-type OpenDialog = { kind: 'create' } | { kind: 'edit'; user: StaffUser } | { kind: 'activation'; user: StaffUser } | null;
+type OpenDialog =
+  { kind: 'create' } | { kind: 'edit'; user: StaffUser } | { kind: 'activation'; user: StaffUser } | null;
 
 export function StaffDirectory({ currentUserId }: { currentUserId: string }) {
   const { search, page, searchText, setSearchText, goToPage } = useUrlSearch();
@@ -36,8 +37,12 @@ export function StaffDirectory({ currentUserId }: { currentUserId: string }) {
     <section aria-labelledby="staff-heading" className="flex flex-col gap-4">
       <div className="flex flex-wrap items-end justify-between gap-3">
         <div>
-          <h1 id="staff-heading" className="text-xl font-semibold">Staff</h1>
-          <p className="text-sm text-ink-muted">Accounts for the people who run, analyse and review studies in this lab.</p>
+          <h1 id="staff-heading" className="text-xl font-semibold">
+            Staff
+          </h1>
+          <p className="text-sm text-ink-muted">
+            Accounts for the people who run, analyse and review studies in this lab.
+          </p>
         </div>
         <Button variant="primary" onClick={() => openDialog({ kind: 'create' })}>
           Add staff member
@@ -66,12 +71,17 @@ export function StaffDirectory({ currentUserId }: { currentUserId: string }) {
         <LoadingState label="Loading staff…" />
       ) : staffUsers.isError ? (
         <ErrorState
-          message={staffUsers.error instanceof ApiError ? staffUsers.error.message : 'The staff list could not be loaded.'}
+          message={
+            staffUsers.error instanceof ApiError ? staffUsers.error.message : 'The staff list could not be loaded.'
+          }
           onRetry={() => void staffUsers.refetch()}
         />
       ) : staffUsers.data.items.length === 0 ? (
         page > 1 ? (
-          <EmptyState title={`Page ${page} is empty`} action={<Button onClick={() => goToPage(1)}>Go to the first page</Button>}>
+          <EmptyState
+            title={`Page ${page} is empty`}
+            action={<Button onClick={() => goToPage(1)}>Go to the first page</Button>}
+          >
             The list is shorter than it was.
           </EmptyState>
         ) : search ? (
@@ -99,7 +109,14 @@ export function StaffDirectory({ currentUserId }: { currentUserId: string }) {
             onEdit={(user) => openDialog({ kind: 'edit', user })}
             onToggleActive={(user) => openDialog({ kind: 'activation', user })}
           />
-          <Pager label="Staff pages" noun={['person', 'people']} pageSize={pageSize} total={staffUsers.data.total} page={page} onPage={goToPage} />
+          <Pager
+            label="Staff pages"
+            noun={['person', 'people']}
+            pageSize={pageSize}
+            total={staffUsers.data.total}
+            page={page}
+            onPage={goToPage}
+          />
         </>
       )}
 

@@ -39,7 +39,9 @@ export function StaffMemberSummary({ user }: { user: StaffUser }) {
         </div>
         <div className="flex items-center gap-2">
           <dt className="text-ink-muted">Last sign-in</dt>
-          <dd className="tabular-nums">{user.lastSignInAt ? signInFormat.format(new Date(user.lastSignInAt)) : 'Never'}</dd>
+          <dd className="tabular-nums">
+            {user.lastSignInAt ? signInFormat.format(new Date(user.lastSignInAt)) : 'Never'}
+          </dd>
         </div>
       </dl>
       <div aria-live="polite" className="empty:hidden">

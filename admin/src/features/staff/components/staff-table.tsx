@@ -23,12 +23,24 @@ export function StaffTable({ users, currentUserId, onEdit, onToggleActive, busy 
         <caption className="sr-only">Staff accounts</caption>
         <thead>
           <tr>
-            <th scope="col" className={tableRecipe.headCell}>Name</th>
-            <th scope="col" className={tableRecipe.headCell}>E-mail</th>
-            <th scope="col" className={tableRecipe.headCell}>Role</th>
-            <th scope="col" className={tableRecipe.headCell}>Status</th>
-            <th scope="col" className={tableRecipe.headCell}>Last sign-in</th>
-            <th scope="col" className={tableRecipe.headCell}><span className="sr-only">Actions</span></th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Name
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              E-mail
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Role
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Status
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Last sign-in
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              <span className="sr-only">Actions</span>
+            </th>
           </tr>
         </thead>
         <tbody>

@@ -8,7 +8,8 @@ import type { Study } from './get-study';
 
 export type CreateStudyBody = components['schemas']['CreateStudyDto'];
 
-const optionalText = (max: number, label: string) => z.string().trim().max(max, `Keep the ${label} under ${max} characters.`);
+const optionalText = (max: number, label: string) =>
+  z.string().trim().max(max, `Keep the ${label} under ${max} characters.`);
 
 /** An optional whole number typed into a text box; empty means "not set". */
 const optionalWholeNumber = (min: number, max: number, label: string) =>
@@ -29,7 +30,10 @@ export const createStudyInputSchema = z
       .trim()
       .min(3, 'Use 3 to 60 characters for the link name.')
       .max(60, 'Use 3 to 60 characters for the link name.')
-      .regex(/^[a-z0-9]+(-[a-z0-9]+)*$/, 'Use lower-case letters and digits, with single dashes between words (like wayfinding-cues).'),
+      .regex(
+        /^[a-z0-9]+(-[a-z0-9]+)*$/,
+        'Use lower-case letters and digits, with single dashes between words (like wayfinding-cues).',
+      ),
     protocolNumber: optionalText(80, 'protocol number'),
     design: z.enum(['between', 'within'], { error: 'Choose how conditions are compared.' }),
     summary: optionalText(4000, 'summary'),
@@ -46,7 +50,10 @@ export const createStudyInputSchema = z
     contactEmail: z
       .string()
       .trim()
-      .refine((text) => text === '' || z.email().safeParse(text).success, 'Enter a valid e-mail address, like study-team@lab.org.'),
+      .refine(
+        (text) => text === '' || z.email().safeParse(text).success,
+        'Enter a valid e-mail address, like study-team@lab.org.',
+      ),
   })
   .superRefine((values, ctx) => {
     if (values.budget === '' || !isKnownCurrency(values.currency)) return;

@@ -11,7 +11,8 @@ export async function getStudy(studyId: string): Promise<Study> {
   return unwrap(apiClient.GET('/api/studies/{studyId}', { params: { path: { studyId } } }));
 }
 
-export const studyQueryOptions = (studyId: string) => queryOptions({ queryKey: studyKeys.detail(studyId), queryFn: () => getStudy(studyId) });
+export const studyQueryOptions = (studyId: string) =>
+  queryOptions({ queryKey: studyKeys.detail(studyId), queryFn: () => getStudy(studyId) });
 
 export function useStudy(studyId: string) {
   return useQuery(studyQueryOptions(studyId));

@@ -45,7 +45,10 @@ export function studyDetailsSchema(study: Study) {
       contactEmail: z
         .string()
         .trim()
-        .refine((text) => text === '' || z.email().safeParse(text).success, 'Enter a valid e-mail address, like study-team@lab.org.'),
+        .refine(
+          (text) => text === '' || z.email().safeParse(text).success,
+          'Enter a valid e-mail address, like study-team@lab.org.',
+        ),
       protocolNumber: z.string().trim().max(80, 'Keep the protocol reference under 80 characters.'),
       ethicsApprovalReference: z.string().trim().max(80, 'Keep the approval reference under 80 characters.'),
       targetSize: z
@@ -63,7 +66,11 @@ export function studyDetailsSchema(study: Study) {
       const amount = parseMajorAmount(values.budget === '' ? '0' : values.budget, study.currency);
       if (!amount.ok) ctx.addIssue({ code: 'custom', path: ['budget'], message: amount.message });
       else if (assigned > 0 && amount.minor < study.budgetMinor) {
-        ctx.addIssue({ code: 'custom', path: ['budget'], message: 'People are already assigned, so the budget may be raised but not lowered.' });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['budget'],
+          message: 'People are already assigned, so the budget may be raised but not lowered.',
+        });
       }
     });
 }
@@ -75,10 +82,13 @@ export function changedDetails(study: Study, values: StudyDetailsFormValues): Up
   const trimmed = (text: string) => text.trim();
   if (trimmed(values.title) !== before.title) body.title = trimmed(values.title);
   if (trimmed(values.summary) !== before.summary) body.summary = trimmed(values.summary);
-  if (trimmed(values.contactEmail) !== before.contactEmail && trimmed(values.contactEmail) !== '') body.contactEmail = trimmed(values.contactEmail);
+  if (trimmed(values.contactEmail) !== before.contactEmail && trimmed(values.contactEmail) !== '')
+    body.contactEmail = trimmed(values.contactEmail);
   if (trimmed(values.protocolNumber) !== before.protocolNumber) body.protocolNumber = trimmed(values.protocolNumber);
-  if (trimmed(values.ethicsApprovalReference) !== before.ethicsApprovalReference) body.ethicsApprovalReference = trimmed(values.ethicsApprovalReference);
-  if (trimmed(values.targetSize) !== before.targetSize && trimmed(values.targetSize) !== '') body.targetSize = Number(values.targetSize);
+  if (trimmed(values.ethicsApprovalReference) !== before.ethicsApprovalReference)
+    body.ethicsApprovalReference = trimmed(values.ethicsApprovalReference);
+  if (trimmed(values.targetSize) !== before.targetSize && trimmed(values.targetSize) !== '')
+    body.targetSize = Number(values.targetSize);
   const budget = parseMajorAmount(values.budget.trim() === '' ? '0' : values.budget, study.currency);
   if (budget.ok && budget.minor !== study.budgetMinor) body.budgetMinor = budget.minor;
   return body;

@@ -109,7 +109,12 @@ describe('CreateStudyForm', () => {
     stubApi({
       'POST /api/studies': {
         status: 409,
-        body: { statusCode: 409, code: 'CONFLICT', message: 'Another study already uses this link name.', errors: [{ field: 'slug', message: 'is already taken' }] },
+        body: {
+          statusCode: 409,
+          code: 'CONFLICT',
+          message: 'Another study already uses this link name.',
+          errors: [{ field: 'slug', message: 'is already taken' }],
+        },
       },
     });
     renderWithProviders(<CreateStudyForm onCreated={vi.fn()} onCancel={vi.fn()} />);

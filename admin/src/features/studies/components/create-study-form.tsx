@@ -37,12 +37,14 @@ const designOptions = [
   {
     value: 'between',
     label: 'Between subjects',
-    description: 'Each participant takes part in one condition. Evenhand assigns the condition when they sign the consent form.',
+    description:
+      'Each participant takes part in one condition. Evenhand assigns the condition when they sign the consent form.',
   },
   {
     value: 'within',
     label: 'Within subjects',
-    description: 'Each participant tries every condition, in an order Evenhand assigns so that order effects balance out.',
+    description:
+      'Each participant tries every condition, in an order Evenhand assigns so that order effects balance out.',
   },
 ] as const;
 
@@ -99,7 +101,13 @@ export function CreateStudyForm({ onCreated, onCancel, defaultLabName = '' }: Cr
 
       <fieldset className="grid gap-4 sm:grid-cols-2">
         <legend className="mb-2 text-sm font-semibold text-ink">About the study</legend>
-        <TextField label="Title" autoComplete="off" error={errors.title?.message} className="sm:col-span-2" {...title} />
+        <TextField
+          label="Title"
+          autoComplete="off"
+          error={errors.title?.message}
+          className="sm:col-span-2"
+          {...title}
+        />
         <TextField
           label="Link name"
           autoComplete="off"
@@ -121,7 +129,12 @@ export function CreateStudyForm({ onCreated, onCancel, defaultLabName = '' }: Cr
           className="sm:col-span-2"
           {...register('summary')}
         />
-        <TextField label="Lab name" autoComplete="organization" error={errors.labName?.message} {...register('labName')} />
+        <TextField
+          label="Lab name"
+          autoComplete="organization"
+          error={errors.labName?.message}
+          {...register('labName')}
+        />
         <TextField
           label="Contact e-mail"
           type="email"
@@ -164,7 +177,12 @@ export function CreateStudyForm({ onCreated, onCancel, defaultLabName = '' }: Cr
 
       <fieldset className="grid gap-4 sm:grid-cols-2">
         <legend className="mb-2 text-sm font-semibold text-ink">Size, time and budget</legend>
-        <TextField label="Target number of participants" inputMode="numeric" error={errors.targetSize?.message} {...register('targetSize')} />
+        <TextField
+          label="Target number of participants"
+          inputMode="numeric"
+          error={errors.targetSize?.message}
+          {...register('targetSize')}
+        />
         <TextField
           label="Estimated minutes per participant"
           inputMode="numeric"

@@ -8,9 +8,23 @@ import { TextField } from '@/components/ui/text-field';
 import { applyServerErrors } from '@/lib/form-server-errors';
 import { formatMinor } from '@/lib/money';
 import type { Study } from '../api/get-study';
-import { changedDetails, detailsFormValues, studyDetailsSchema, useUpdateStudyDetails, type StudyDetailsFormValues } from '../api/update-study-details';
+import {
+  changedDetails,
+  detailsFormValues,
+  studyDetailsSchema,
+  useUpdateStudyDetails,
+  type StudyDetailsFormValues,
+} from '../api/update-study-details';
 
-const formFields = ['title', 'summary', 'contactEmail', 'protocolNumber', 'ethicsApprovalReference', 'targetSize', 'budget'] as const;
+const formFields = [
+  'title',
+  'summary',
+  'contactEmail',
+  'protocolNumber',
+  'ethicsApprovalReference',
+  'targetSize',
+  'budget',
+] as const;
 
 export interface EditStudyDetailsFormProps {
   study: Study;
@@ -27,7 +41,10 @@ export function EditStudyDetailsForm({ study, onSaved, onCancel }: EditStudyDeta
     handleSubmit,
     setError,
     formState: { errors },
-  } = useForm<StudyDetailsFormValues>({ resolver: zodResolver(studyDetailsSchema(study)), defaultValues: detailsFormValues(study) });
+  } = useForm<StudyDetailsFormValues>({
+    resolver: zodResolver(studyDetailsSchema(study)),
+    defaultValues: detailsFormValues(study),
+  });
 
   const onSubmit = handleSubmit((values) => {
     const body = changedDetails(study, values);
@@ -77,7 +94,11 @@ export function EditStudyDetailsForm({ study, onSaved, onCancel }: EditStudyDeta
           label="Protocol reference"
           autoComplete="off"
           readOnly={assigned > 0}
-          hint={assigned > 0 ? 'Fixed: signed consent forms quote it.' : 'The lab’s own protocol number, e.g. HLCL-2026-014.'}
+          hint={
+            assigned > 0
+              ? 'Fixed: signed consent forms quote it.'
+              : 'The lab’s own protocol number, e.g. HLCL-2026-014.'
+          }
           error={errors.protocolNumber?.message}
           {...register('protocolNumber')}
         />
@@ -98,7 +119,11 @@ export function EditStudyDetailsForm({ study, onSaved, onCancel }: EditStudyDeta
         <TextField
           label={`Budget (${study.currency})`}
           inputMode="decimal"
-          hint={assigned > 0 ? `May be raised, not lowered below ${formatMinor(study.budgetMinor, study.currency)}.` : 'e.g. 6000 or 6,000.00'}
+          hint={
+            assigned > 0
+              ? `May be raised, not lowered below ${formatMinor(study.budgetMinor, study.currency)}.`
+              : 'e.g. 6000 or 6,000.00'
+          }
           error={errors.budget?.message}
           {...register('budget')}
         />
@@ -115,7 +140,8 @@ export function EditStudyDetailsForm({ study, onSaved, onCancel }: EditStudyDeta
 
 function renameBudget(error: unknown): unknown {
   if (error instanceof Error && 'fieldErrors' in error && Array.isArray(error.fieldErrors)) {
-    for (const fieldError of error.fieldErrors as Array<{ field: string }>) if (fieldError.field === 'budgetMinor') fieldError.field = 'budget';
+    for (const fieldError of error.fieldErrors as Array<{ field: string }>)
+      if (fieldError.field === 'budgetMinor') fieldError.field = 'budget';
   }
   return error;
 }

@@ -27,8 +27,14 @@ describe('OpeningChecklistPanel', () => {
     const items = within(list).getAllByRole('listitem');
     expect(items[0]).toHaveTextContent('At least two conditions: done');
     expect(items[1]).toHaveTextContent('At least one step: still needed');
-    expect(within(items[1] as HTMLElement).getByRole('link', { name: /Go there/ })).toHaveAttribute('href', `/studies/${studyId}/setup#steps`);
-    expect(within(items[2] as HTMLElement).getByRole('link', { name: /Go there/ })).toHaveAttribute('href', `/studies/${studyId}/consent`);
+    expect(within(items[1] as HTMLElement).getByRole('link', { name: /Go there/ })).toHaveAttribute(
+      'href',
+      `/studies/${studyId}/setup#steps`,
+    );
+    expect(within(items[2] as HTMLElement).getByRole('link', { name: /Go there/ })).toHaveAttribute(
+      'href',
+      `/studies/${studyId}/consent`,
+    );
     expect(screen.getByText('“Open study” above works once each of these is done.')).toBeInTheDocument();
   });
 });

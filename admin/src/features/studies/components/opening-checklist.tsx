@@ -12,7 +12,10 @@ export interface OpeningChecklistPanelProps {
 }
 
 /** What the study still needs before “Open study” can succeed, each item met or with what is missing. */
-export function OpeningChecklistPanel({ studyId, hrefFor = (place) => `/studies/${studyId}/${place}` }: OpeningChecklistPanelProps) {
+export function OpeningChecklistPanel({
+  studyId,
+  hrefFor = (place) => `/studies/${studyId}/${place}`,
+}: OpeningChecklistPanelProps) {
   const checklist = useOpeningChecklist(studyId);
   return (
     <Panel
@@ -28,7 +31,9 @@ export function OpeningChecklistPanel({ studyId, hrefFor = (place) => `/studies/
         <LoadingState label="Checking what the study still needs…" />
       ) : checklist.isError ? (
         <ErrorState
-          message={checklist.error instanceof ApiError ? checklist.error.message : 'The opening checklist could not be loaded.'}
+          message={
+            checklist.error instanceof ApiError ? checklist.error.message : 'The opening checklist could not be loaded.'
+          }
           onRetry={() => void checklist.refetch()}
         />
       ) : (
@@ -54,7 +59,10 @@ export function OpeningChecklistPanel({ studyId, hrefFor = (place) => `/studies/
                       {place && (
                         <>
                           {' '}
-                          <Link to={hrefFor(place)} className="font-medium text-spruce-ink underline underline-offset-2">
+                          <Link
+                            to={hrefFor(place)}
+                            className="font-medium text-spruce-ink underline underline-offset-2"
+                          >
                             Go there
                             <span className="sr-only"> ({item.label})</span>
                           </Link>

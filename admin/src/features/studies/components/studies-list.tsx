@@ -26,12 +26,17 @@ export function StudiesList({ newStudyAction, archived = false }: StudiesListPro
     );
   }
   if (studies.data.items.length === 0 && archived) {
-    return <EmptyState title="The archive is empty">Closed studies you archive appear here, with all their records.</EmptyState>;
+    return (
+      <EmptyState title="The archive is empty">
+        Closed studies you archive appear here, with all their records.
+      </EmptyState>
+    );
   }
   if (studies.data.items.length === 0) {
     return (
       <EmptyState title="No studies yet" action={newStudyAction}>
-        Studies you are a member of appear here. Whoever creates a study becomes its first member; a lab admin adds colleagues.
+        Studies you are a member of appear here. Whoever creates a study becomes its first member; a lab admin adds
+        colleagues.
       </EmptyState>
     );
   }
@@ -41,10 +46,18 @@ export function StudiesList({ newStudyAction, archived = false }: StudiesListPro
         <caption className="sr-only">{archived ? 'Archived studies' : 'Your studies'}</caption>
         <thead>
           <tr>
-            <th scope="col" className={tableRecipe.headCell}>Title</th>
-            <th scope="col" className={tableRecipe.headCell}>Link name</th>
-            <th scope="col" className={tableRecipe.headCell}>Design</th>
-            <th scope="col" className={tableRecipe.headCell}>Status</th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Title
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Link name
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Design
+            </th>
+            <th scope="col" className={tableRecipe.headCell}>
+              Status
+            </th>
           </tr>
         </thead>
         <tbody>

@@ -62,11 +62,19 @@ export function StudyDetailsActions({ study }: { study: Study }) {
         }
       >
         {setArchived.isError && (
-          <Notice>{setArchived.error instanceof ApiError ? setArchived.error.message : 'The change could not be saved. Try again.'}</Notice>
+          <Notice>
+            {setArchived.error instanceof ApiError
+              ? setArchived.error.message
+              : 'The change could not be saved. Try again.'}
+          </Notice>
         )}
         <DialogActions>
           <Button onClick={closeConfirm}>Cancel</Button>
-          <Button variant="primary" pending={setArchived.isPending} onClick={() => setArchived.mutate(!archived, { onSuccess: () => setConfirming(false) })}>
+          <Button
+            variant="primary"
+            pending={setArchived.isPending}
+            onClick={() => setArchived.mutate(!archived, { onSuccess: () => setConfirming(false) })}
+          >
             {archived ? 'Take out of the archive' : 'Archive study'}
           </Button>
         </DialogActions>

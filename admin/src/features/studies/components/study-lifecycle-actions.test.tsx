@@ -56,16 +56,19 @@ describe('StudyLifecycleActions', () => {
 
     await userEvent.click(screen.getAllByRole('button', { name: 'Open study' }).at(-1) as HTMLElement);
     const missing = await screen.findByRole('list', { name: 'Still needed before opening' });
-    expect(within(missing).getAllByRole('listitem').map((item) => item.textContent)).toEqual([
-      'Conditions: add at least two conditions',
-      'Consent form: activate a consent version',
-    ]);
+    expect(
+      within(missing)
+        .getAllByRole('listitem')
+        .map((item) => item.textContent),
+    ).toEqual(['Conditions: add at least two conditions', 'Consent form: activate a consent version']);
     // The named items, not the raw message.
     expect(screen.queryByText(/The study cannot open yet: add at least/)).not.toBeInTheDocument();
   });
 
   it('asks before closing, says the seed is revealed, then posts close', async () => {
-    const { requests } = stubApi({ [`POST /api/studies/${study.id}/close`]: { status: 200, body: { ...study, status: 'closed' } } });
+    const { requests } = stubApi({
+      [`POST /api/studies/${study.id}/close`]: { status: 200, body: { ...study, status: 'closed' } },
+    });
     renderWithProviders(<StudyLifecycleActions study={{ ...study, status: 'recruiting' }} />);
 
     expect(screen.queryByRole('button', { name: 'Open study' })).not.toBeInTheDocument();

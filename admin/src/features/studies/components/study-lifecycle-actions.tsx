@@ -16,17 +16,19 @@ const dialogs: Record<StudyTransition, { title: string; confirm: string; body: (
     confirm: 'Open study',
     body: (study) =>
       study.status === 'paused' ? (
-        <p>Participants can join and sign again. The sealed assignment sequence and its fingerprint stay as they are.</p>
+        <p>
+          Participants can join and sign again. The sealed assignment sequence and its fingerprint stay as they are.
+        </p>
       ) : (
         <>
           <p>
-            Opening draws a secret seed, seals the assignment sequence with it and publishes the sequence’s fingerprint (a
-            SHA-256 commitment) on the Assignment page and in the audit trail. The seed stays secret until the study closes or is
-            unblinded, so nobody can foresee or change who gets which condition.
+            Opening draws a secret seed, seals the assignment sequence with it and publishes the sequence’s fingerprint
+            (a SHA-256 commitment) on the Assignment page and in the audit trail. The seed stays secret until the study
+            closes or is unblinded, so nobody can foresee or change who gets which condition.
           </p>
           <p className="mt-2">
-            Conditions, stratification factors and the scheme can still change until the first person is assigned; each change
-            seals a fresh sequence under a new fingerprint.
+            Conditions, stratification factors and the scheme can still change until the first person is assigned; each
+            change seals a fresh sequence under a new fingerprint.
           </p>
         </>
       ),
@@ -34,7 +36,12 @@ const dialogs: Record<StudyTransition, { title: string; confirm: string; body: (
   pause: {
     title: 'Pause recruiting?',
     confirm: 'Pause',
-    body: () => <p>New people cannot join or sign while the study is paused. Everyone already taking part keeps their condition and steps.</p>,
+    body: () => (
+      <p>
+        New people cannot join or sign while the study is paused. Everyone already taking part keeps their condition and
+        steps.
+      </p>
+    ),
   },
   close: {
     title: 'Close the study?',
@@ -42,11 +49,12 @@ const dialogs: Record<StudyTransition, { title: string; confirm: string; body: (
     body: () => (
       <>
         <p>
-          Closing seals the study for good: conditions, steps and the scheme can no longer change, and nobody new can join.
+          Closing seals the study for good: conditions, steps and the scheme can no longer change, and nobody new can
+          join.
         </p>
         <p className="mt-2">
-          The secret seed is revealed, so anyone with access can re-derive the whole assignment sequence and check it against
-          the published fingerprint. This cannot be undone.
+          The secret seed is revealed, so anyone with access can re-derive the whole assignment sequence and check it
+          against the published fingerprint. This cannot be undone.
         </p>
       </>
     ),

@@ -17,6 +17,12 @@ export const openingRequirementPlaces: Record<string, string> = {
 };
 
 /** The items a refused opening names (409 with errors[]), each with its section's name and what is missing. */
-export function missingOpeningItems(fieldErrors: readonly ApiFieldError[]): { key: string; label: string; detail: string }[] {
-  return fieldErrors.map((error) => ({ key: error.field, label: openingRequirementLabels[error.field] ?? error.field, detail: error.message }));
+export function missingOpeningItems(
+  fieldErrors: readonly ApiFieldError[],
+): { key: string; label: string; detail: string }[] {
+  return fieldErrors.map((error) => ({
+    key: error.field,
+    label: openingRequirementLabels[error.field] ?? error.field,
+    detail: error.message,
+  }));
 }

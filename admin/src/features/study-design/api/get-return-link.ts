@@ -9,7 +9,8 @@ export async function getReturnLink(studyId: string): Promise<ReturnLinkSetup> {
   return unwrap(apiClient.GET('/api/studies/{studyId}/steps/return-link', { params: { path: { studyId } } }));
 }
 
-export const returnLinkQueryOptions = (studyId: string) => queryOptions({ queryKey: studyKeys.returnLink(studyId), queryFn: () => getReturnLink(studyId) });
+export const returnLinkQueryOptions = (studyId: string) =>
+  queryOptions({ queryKey: studyKeys.returnLink(studyId), queryFn: () => getReturnLink(studyId) });
 
 export function useReturnLink(studyId: string) {
   return useQuery(returnLinkQueryOptions(studyId));

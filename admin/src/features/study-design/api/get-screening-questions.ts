@@ -6,7 +6,9 @@ import { studyKeys } from '@/lib/study-keys';
 export type ScreeningQuestion = components['schemas']['ScreeningQuestionDto'];
 
 export async function getScreeningQuestions(studyId: string): Promise<ScreeningQuestion[]> {
-  const list = await unwrap(apiClient.GET('/api/studies/{studyId}/screening-questions', { params: { path: { studyId } } }));
+  const list = await unwrap(
+    apiClient.GET('/api/studies/{studyId}/screening-questions', { params: { path: { studyId } } }),
+  );
   return list.items;
 }
 

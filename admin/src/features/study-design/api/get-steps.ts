@@ -11,7 +11,8 @@ export async function getSteps(studyId: string): Promise<StepList> {
   return unwrap(apiClient.GET('/api/studies/{studyId}/steps', { params: { path: { studyId } } }));
 }
 
-export const stepsQueryOptions = (studyId: string) => queryOptions({ queryKey: studyKeys.steps(studyId), queryFn: () => getSteps(studyId) });
+export const stepsQueryOptions = (studyId: string) =>
+  queryOptions({ queryKey: studyKeys.steps(studyId), queryFn: () => getSteps(studyId) });
 
 export function useSteps(studyId: string) {
   return useQuery(stepsQueryOptions(studyId));

@@ -6,8 +6,13 @@ import type { ScreeningQuestion } from './get-screening-questions';
 
 export type ScreeningQuestionInput = components['schemas']['ScreeningQuestionInputDto'];
 
-export async function replaceScreeningQuestions(studyId: string, questions: ScreeningQuestionInput[]): Promise<ScreeningQuestion[]> {
-  const list = await unwrap(apiClient.PUT('/api/studies/{studyId}/screening-questions', { params: { path: { studyId } }, body: { questions } }));
+export async function replaceScreeningQuestions(
+  studyId: string,
+  questions: ScreeningQuestionInput[],
+): Promise<ScreeningQuestion[]> {
+  const list = await unwrap(
+    apiClient.PUT('/api/studies/{studyId}/screening-questions', { params: { path: { studyId } }, body: { questions } }),
+  );
   return list.items;
 }
 

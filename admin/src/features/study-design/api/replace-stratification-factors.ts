@@ -6,8 +6,16 @@ import type { StratificationFactorList } from './get-stratification-factors';
 
 export type StratificationFactorInput = components['schemas']['StratificationFactorInputDto'];
 
-export async function replaceStratificationFactors(studyId: string, factors: StratificationFactorInput[]): Promise<StratificationFactorList> {
-  return unwrap(apiClient.PUT('/api/studies/{studyId}/stratification-factors', { params: { path: { studyId } }, body: { factors } }));
+export async function replaceStratificationFactors(
+  studyId: string,
+  factors: StratificationFactorInput[],
+): Promise<StratificationFactorList> {
+  return unwrap(
+    apiClient.PUT('/api/studies/{studyId}/stratification-factors', {
+      params: { path: { studyId } },
+      body: { factors },
+    }),
+  );
 }
 
 /** Factors are asked during screening and change the strata, so screening and the assignment refresh too. */

@@ -4,7 +4,9 @@ import { studyKeys } from '@/lib/study-keys';
 import type { ReturnLinkSetup } from './get-return-link';
 
 export async function rotateReturnKey(studyId: string): Promise<ReturnLinkSetup> {
-  return unwrap(apiClient.POST('/api/studies/{studyId}/steps/return-link/rotate-key', { params: { path: { studyId } } }));
+  return unwrap(
+    apiClient.POST('/api/studies/{studyId}/steps/return-link/rotate-key', { params: { path: { studyId } } }),
+  );
 }
 
 /** New return links are signed with a fresh key; links already handed out keep working for the grace period. */

@@ -6,7 +6,10 @@ const questionRowSchema = z.object({
   key: z
     .string()
     .trim()
-    .regex(/^[a-z][a-z0-9_]{0,63}$/, 'Start with a letter; use lower-case letters, digits and _ (like adult), at most 64.'),
+    .regex(
+      /^[a-z][a-z0-9_]{0,63}$/,
+      'Start with a letter; use lower-case letters, digits and _ (like adult), at most 64.',
+    ),
   label: z.string().trim().min(1, 'Enter the question.').max(300, 'Keep the question under 300 characters.'),
   kind: z.enum(['yes-no', 'number', 'choice']),
   options: z.string(),
@@ -33,8 +36,14 @@ export function screeningFormSchema(factorKeys: readonly string[]) {
       const keys = new Set<string>();
       questions.forEach((question, i) => {
         const at = (field: keyof ScreeningRowValues) => ['questions', i, field];
-        if (keys.has(question.key)) ctx.addIssue({ code: 'custom', path: at('key'), message: `“${question.key}” is used by another question.` });
-        if (factorKeys.includes(question.key)) ctx.addIssue({ code: 'custom', path: at('key'), message: `“${question.key}” is already a stratification factor.` });
+        if (keys.has(question.key))
+          ctx.addIssue({ code: 'custom', path: at('key'), message: `“${question.key}” is used by another question.` });
+        if (factorKeys.includes(question.key))
+          ctx.addIssue({
+            code: 'custom',
+            path: at('key'),
+            message: `“${question.key}” is already a stratification factor.`,
+          });
         keys.add(question.key);
         for (const field of ['minValue', 'maxValue', 'eligibleMin', 'eligibleMax'] as const) {
           if (question.kind === 'number' && question[field] !== '' && !isNumberText(question[field])) {
@@ -42,17 +51,35 @@ export function screeningFormSchema(factorKeys: readonly string[]) {
           }
         }
         if (question.kind === 'number') {
-          if (isNumberText(question.minValue) && isNumberText(question.maxValue) && Number(question.minValue) > Number(question.maxValue)) {
-            ctx.addIssue({ code: 'custom', path: at('maxValue'), message: 'The highest answer cannot be below the lowest.' });
+          if (
+            isNumberText(question.minValue) &&
+            isNumberText(question.maxValue) &&
+            Number(question.minValue) > Number(question.maxValue)
+          ) {
+            ctx.addIssue({
+              code: 'custom',
+              path: at('maxValue'),
+              message: 'The highest answer cannot be below the lowest.',
+            });
           }
-          if (isNumberText(question.eligibleMin) && isNumberText(question.eligibleMax) && Number(question.eligibleMin) > Number(question.eligibleMax)) {
-            ctx.addIssue({ code: 'custom', path: at('eligibleMax'), message: 'The upper limit cannot be below the lower one.' });
+          if (
+            isNumberText(question.eligibleMin) &&
+            isNumberText(question.eligibleMax) &&
+            Number(question.eligibleMin) > Number(question.eligibleMax)
+          ) {
+            ctx.addIssue({
+              code: 'custom',
+              path: at('eligibleMax'),
+              message: 'The upper limit cannot be below the lower one.',
+            });
           }
         }
         if (question.kind === 'choice') {
           const options = parseLines(question.options);
-          if (options.length < 2) ctx.addIssue({ code: 'custom', path: at('options'), message: 'List at least two options, one per line.' });
-          else if (new Set(options).size !== options.length) ctx.addIssue({ code: 'custom', path: at('options'), message: 'An option is listed twice.' });
+          if (options.length < 2)
+            ctx.addIssue({ code: 'custom', path: at('options'), message: 'List at least two options, one per line.' });
+          else if (new Set(options).size !== options.length)
+            ctx.addIssue({ code: 'custom', path: at('options'), message: 'An option is listed twice.' });
         }
       });
     })
@@ -66,7 +93,9 @@ export function screeningFormSchema(factorKeys: readonly string[]) {
           ...(question.criterion ? { criterion: question.criterion } : {}),
         };
         if (question.kind === 'yes-no') {
-          return question.eligibleAnswer === 'any' ? base : { ...base, eligibleValues: [question.eligibleAnswer === 'yes'] };
+          return question.eligibleAnswer === 'any'
+            ? base
+            : { ...base, eligibleValues: [question.eligibleAnswer === 'yes'] };
         }
         if (question.kind === 'number') {
           const range = {

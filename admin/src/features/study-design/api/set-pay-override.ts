@@ -6,9 +6,17 @@ import type { StepList } from './get-steps';
 
 export type SetPayOverrideBody = components['schemas']['SetPayOverrideDto'];
 
-export async function setPayOverride(studyId: string, stepId: string, conditionId: string, body: SetPayOverrideBody): Promise<StepList> {
+export async function setPayOverride(
+  studyId: string,
+  stepId: string,
+  conditionId: string,
+  body: SetPayOverrideBody,
+): Promise<StepList> {
   return unwrap(
-    apiClient.PUT('/api/studies/{studyId}/steps/{stepId}/pay-overrides/{conditionId}', { params: { path: { studyId, stepId, conditionId } }, body }),
+    apiClient.PUT('/api/studies/{studyId}/steps/{stepId}/pay-overrides/{conditionId}', {
+      params: { path: { studyId, stepId, conditionId } },
+      body,
+    }),
   );
 }
 

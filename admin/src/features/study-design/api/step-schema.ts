@@ -44,7 +44,11 @@ export function stepInputSchema(currency: string) {
       const problem = payProblem(values.pay, currency);
       if (problem) ctx.addIssue({ code: 'custom', path: ['pay'], message: problem });
       if (values.position !== '' && !(/^\d+$/.test(values.position) && Number(values.position) >= 1)) {
-        ctx.addIssue({ code: 'custom', path: ['position'], message: 'Enter a place from 1, or leave it empty to add the step last.' });
+        ctx.addIssue({
+          code: 'custom',
+          path: ['position'],
+          message: 'Enter a place from 1, or leave it empty to add the step last.',
+        });
       }
     })
     .transform((values) => ({
@@ -61,9 +65,15 @@ export type StepFormOutput = z.output<ReturnType<typeof stepInputSchema>>;
 export function payOverrideInputSchema(currency: string) {
   return z
     .object({
-      conditionId: z.string({ error: 'Choose the condition that is paid differently.' }).min(1, 'Choose the condition that is paid differently.'),
+      conditionId: z
+        .string({ error: 'Choose the condition that is paid differently.' })
+        .min(1, 'Choose the condition that is paid differently.'),
       pay: z.string(),
-      reason: z.string().trim().min(10, 'Explain the exception in at least 10 characters; it is kept in the record.').max(1000, 'Keep the reason under 1,000 characters.'),
+      reason: z
+        .string()
+        .trim()
+        .min(10, 'Explain the exception in at least 10 characters; it is kept in the record.')
+        .max(1000, 'Keep the reason under 1,000 characters.'),
     })
     .superRefine((values, ctx) => {
       const problem = payProblem(values.pay, currency);

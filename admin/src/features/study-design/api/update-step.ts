@@ -7,7 +7,9 @@ import type { StepList } from './get-steps';
 export type UpdateStepBody = components['schemas']['UpdateStepDto'];
 
 export async function updateStep(studyId: string, stepId: string, body: UpdateStepBody): Promise<StepList> {
-  return unwrap(apiClient.PATCH('/api/studies/{studyId}/steps/{stepId}', { params: { path: { studyId, stepId } }, body }));
+  return unwrap(
+    apiClient.PATCH('/api/studies/{studyId}/steps/{stepId}', { params: { path: { studyId, stepId } }, body }),
+  );
 }
 
 export function useUpdateStep(studyId: string) {

@@ -11,7 +11,12 @@ import { useCreateCondition } from '../api/create-condition';
 import type { Condition } from '../api/get-conditions';
 import { useUpdateCondition } from '../api/update-condition';
 
-const formFields: readonly (keyof ConditionFormValues)[] = ['internalName', 'participantLabel', 'participantInstructions', 'allocationWeight'];
+const formFields: readonly (keyof ConditionFormValues)[] = [
+  'internalName',
+  'participantLabel',
+  'participantInstructions',
+  'allocationWeight',
+];
 
 export interface ConditionFormProps {
   studyId: string;
@@ -45,7 +50,9 @@ export function ConditionForm({ studyId, condition, showWeight, weightLocked, on
   });
 
   const onError = (error: unknown) =>
-    applyApiFieldErrors(error, setError, (field) => ((formFields as readonly string[]).includes(field) ? (field as keyof ConditionFormValues) : null));
+    applyApiFieldErrors(error, setError, (field) =>
+      (formFields as readonly string[]).includes(field) ? (field as keyof ConditionFormValues) : null,
+    );
 
   const onSubmit = handleSubmit((values) => {
     const weight = Number(values.allocationWeight);
@@ -62,9 +69,13 @@ export function ConditionForm({ studyId, condition, showWeight, weightLocked, on
       return;
     }
     const body = {
-      ...(values.internalName !== '' && values.internalName !== condition.internalName ? { internalName: values.internalName } : {}),
+      ...(values.internalName !== '' && values.internalName !== condition.internalName
+        ? { internalName: values.internalName }
+        : {}),
       ...(values.participantLabel !== condition.participantLabel ? { participantLabel: values.participantLabel } : {}),
-      ...(values.participantInstructions !== condition.participantInstructions ? { participantInstructions: values.participantInstructions } : {}),
+      ...(values.participantInstructions !== condition.participantInstructions
+        ? { participantInstructions: values.participantInstructions }
+        : {}),
       ...(showWeight && !weightLocked && weight !== condition.allocationWeight ? { allocationWeight: weight } : {}),
     };
     if (Object.keys(body).length === 0) {
@@ -75,7 +86,12 @@ export function ConditionForm({ studyId, condition, showWeight, weightLocked, on
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3.5" aria-label={condition ? `Edit condition ${condition.code}` : 'New condition'}>
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      className="flex flex-col gap-3.5"
+      aria-label={condition ? `Edit condition ${condition.code}` : 'New condition'}
+    >
       {errors.root?.server?.message && <Notice>{errors.root.server.message}</Notice>}
       <TextField
         label="Internal name"

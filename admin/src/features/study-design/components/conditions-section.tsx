@@ -56,7 +56,11 @@ export function ConditionsSection({ studyId, design, blinded, isDraft, permissio
         {permissions.design === 'assigned' && canEdit && 'Labels and instructions can still be corrected.'}
       </LockNotice>
       <div aria-live="polite" className="empty:hidden">
-        {announcement && <Notice tone="info" className="mb-3">{announcement}</Notice>}
+        {announcement && (
+          <Notice tone="info" className="mb-3">
+            {announcement}
+          </Notice>
+        )}
       </div>
       {blinded && (namesHidden || isDraft) && (
         <p className="mb-3 text-sm text-ink-muted">
@@ -69,13 +73,16 @@ export function ConditionsSection({ studyId, design, blinded, isDraft, permissio
         <LoadingState label="Loading conditions…" />
       ) : conditions.isError ? (
         <ErrorState
-          message={conditions.error instanceof ApiError ? conditions.error.message : 'The conditions could not be loaded.'}
+          message={
+            conditions.error instanceof ApiError ? conditions.error.message : 'The conditions could not be loaded.'
+          }
           onRetry={() => void conditions.refetch()}
         />
       ) : items.length === 0 ? (
         <EmptyState title="No conditions yet">
-          Add at least two conditions{design === 'within' ? '' : ', for example the new version and the one you compare it with'}. A
-          study cannot open with fewer.
+          Add at least two conditions
+          {design === 'within' ? '' : ', for example the new version and the one you compare it with'}. A study cannot
+          open with fewer.
         </EmptyState>
       ) : (
         <>
@@ -84,11 +91,25 @@ export function ConditionsSection({ studyId, design, blinded, isDraft, permissio
               <caption className="sr-only">Conditions</caption>
               <thead>
                 <tr>
-                  <th scope="col" className={tableRecipe.headCell}>Code</th>
-                  <th scope="col" className={tableRecipe.headCell}>Internal name</th>
-                  <th scope="col" className={tableRecipe.headCell}>Participants see</th>
-                  {showWeight && <th scope="col" className={`${tableRecipe.headCell} text-right`}>Weight</th>}
-                  {canEdit && <th scope="col" className={tableRecipe.headCell}><span className="sr-only">Actions</span></th>}
+                  <th scope="col" className={tableRecipe.headCell}>
+                    Code
+                  </th>
+                  <th scope="col" className={tableRecipe.headCell}>
+                    Internal name
+                  </th>
+                  <th scope="col" className={tableRecipe.headCell}>
+                    Participants see
+                  </th>
+                  {showWeight && (
+                    <th scope="col" className={`${tableRecipe.headCell} text-right`}>
+                      Weight
+                    </th>
+                  )}
+                  {canEdit && (
+                    <th scope="col" className={tableRecipe.headCell}>
+                      <span className="sr-only">Actions</span>
+                    </th>
+                  )}
                 </tr>
               </thead>
               <tbody>
@@ -98,15 +119,21 @@ export function ConditionsSection({ studyId, design, blinded, isDraft, permissio
                       <Badge tone="spruce">{condition.code}</Badge>
                     </td>
                     <td className={`${tableRecipe.cell} font-medium`}>
-                      {condition.internalName ?? <span className="font-normal text-ink-faint">Hidden while blinded</span>}
+                      {condition.internalName ?? (
+                        <span className="font-normal text-ink-faint">Hidden while blinded</span>
+                      )}
                     </td>
                     <td className={tableRecipe.cell}>
                       <span className="block">{condition.participantLabel}</span>
                       {condition.participantInstructions && (
-                        <span className="line-clamp-2 block max-w-md text-xs text-ink-muted">{condition.participantInstructions}</span>
+                        <span className="line-clamp-2 block max-w-md text-xs text-ink-muted">
+                          {condition.participantInstructions}
+                        </span>
                       )}
                     </td>
-                    {showWeight && <td className={`${tableRecipe.cell} text-right tabular-nums`}>{condition.allocationWeight}</td>}
+                    {showWeight && (
+                      <td className={`${tableRecipe.cell} text-right tabular-nums`}>{condition.allocationWeight}</td>
+                    )}
                     {canEdit && (
                       <td className={`${tableRecipe.cell} text-right`}>
                         <Button
@@ -126,11 +153,16 @@ export function ConditionsSection({ studyId, design, blinded, isDraft, permissio
           </div>
           {showWeight && items.length > 0 && (
             <p className="mt-2 text-sm text-ink-muted">
-              Allocation ratio <span className="font-medium text-ink tabular-nums">{items.map((c) => c.allocationWeight).join(' : ')}</span>{' '}
+              Allocation ratio{' '}
+              <span className="font-medium text-ink tabular-nums">
+                {items.map((c) => c.allocationWeight).join(' : ')}
+              </span>{' '}
               (total weight {totalWeight}). Block sizes must be multiples of {totalWeight}.
             </p>
           )}
-          {items.length === 1 && <p className="mt-2 text-sm text-caution">Add one more condition: a study needs at least two.</p>}
+          {items.length === 1 && (
+            <p className="mt-2 text-sm text-caution">Add one more condition: a study needs at least two.</p>
+          )}
         </>
       )}
 
@@ -138,7 +170,11 @@ export function ConditionsSection({ studyId, design, blinded, isDraft, permissio
         open={editing !== null}
         onClose={() => setEditing(null)}
         title={shown?.kind === 'edit' ? `Edit condition ${shown.condition.code}` : 'Add a condition'}
-        description={permissions.resealsOnChange && shown?.kind === 'add' ? 'The study is open: adding a condition seals a fresh sequence under a new fingerprint.' : undefined}
+        description={
+          permissions.resealsOnChange && shown?.kind === 'add'
+            ? 'The study is open: adding a condition seals a fresh sequence under a new fingerprint.'
+            : undefined
+        }
       >
         {shown && (
           <ConditionForm
@@ -150,7 +186,11 @@ export function ConditionsSection({ studyId, design, blinded, isDraft, permissio
             onCancel={() => setEditing(null)}
             onSaved={(condition) => {
               setEditing(null);
-              setAnnouncement(shown.kind === 'add' ? `Condition ${condition.code} was added.` : `Condition ${condition.code} was saved.`);
+              setAnnouncement(
+                shown.kind === 'add'
+                  ? `Condition ${condition.code} was added.`
+                  : `Condition ${condition.code} was saved.`,
+              );
             }}
           />
         )}

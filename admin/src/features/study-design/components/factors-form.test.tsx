@@ -10,7 +10,9 @@ const path = `PUT /api/studies/${studyId}/stratification-factors`;
 const pretestNote = 'Evenhand never assigns by a pretest cut-off (everyone above a score to one condition).';
 
 function renderForm() {
-  return renderWithProviders(<FactorsForm studyId={studyId} factors={[]} pretestNote={pretestNote} onSaved={vi.fn()} onCancel={vi.fn()} />);
+  return renderWithProviders(
+    <FactorsForm studyId={studyId} factors={[]} pretestNote={pretestNote} onSaved={vi.fn()} onCancel={vi.fn()} />,
+  );
 }
 
 describe('FactorsForm', () => {
@@ -33,7 +35,10 @@ describe('FactorsForm', () => {
     renderForm();
 
     await userEvent.click(screen.getByRole('button', { name: 'Add factor' }));
-    await userEvent.type(screen.getByLabelText('Question participants answer'), 'How good is your sense of direction (0–100)?');
+    await userEvent.type(
+      screen.getByLabelText('Question participants answer'),
+      'How good is your sense of direction (0–100)?',
+    );
     await userEvent.type(screen.getByLabelText('Key'), 'sense_of_direction');
     await userEvent.type(screen.getByLabelText('Cut points'), '50');
     expect(screen.getByText('<50 / ≥50')).toBeInTheDocument();
@@ -41,7 +46,15 @@ describe('FactorsForm', () => {
 
     await waitFor(() => expect(requests).toHaveLength(1));
     expect(requests[0]?.body).toEqual({
-      factors: [{ key: 'sense_of_direction', label: 'How good is your sense of direction (0–100)?', kind: 'numeric', cutPoints: [50], minimizationWeight: 1 }],
+      factors: [
+        {
+          key: 'sense_of_direction',
+          label: 'How good is your sense of direction (0–100)?',
+          kind: 'numeric',
+          cutPoints: [50],
+          minimizationWeight: 1,
+        },
+      ],
     });
   });
 
@@ -49,7 +62,12 @@ describe('FactorsForm', () => {
     const { requests } = stubApi({
       [path]: {
         status: 400,
-        body: { statusCode: 400, code: 'VALIDATION_FAILED', message: 'Some fields are missing or invalid.', errors: [{ field: 'factors.0.key', message: 'key must start with a letter' }] },
+        body: {
+          statusCode: 400,
+          code: 'VALIDATION_FAILED',
+          message: 'Some fields are missing or invalid.',
+          errors: [{ field: 'factors.0.key', message: 'key must start with a letter' }],
+        },
       },
     });
     renderForm();
@@ -65,6 +83,8 @@ describe('FactorsForm', () => {
     await userEvent.clear(screen.getByLabelText('Cut points'));
     await userEvent.type(screen.getByLabelText('Cut points'), '40, 65');
     await userEvent.click(screen.getByRole('button', { name: 'Save factors' }));
-    await waitFor(() => expect(screen.getByLabelText('Key')).toHaveAccessibleDescription('key must start with a letter'));
+    await waitFor(() =>
+      expect(screen.getByLabelText('Key')).toHaveAccessibleDescription('key must start with a letter'),
+    );
   });
 });

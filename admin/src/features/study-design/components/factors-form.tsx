@@ -14,7 +14,11 @@ import { numericLevels, stratumCount } from '../utils/factor-levels';
 import { PretestNote } from './pretest-note';
 
 const kindOptions = [
-  { value: 'numeric', label: 'Numeric (a score)', description: 'Split into bands at cut points, e.g. a pretest from 0 to 100' },
+  {
+    value: 'numeric',
+    label: 'Numeric (a score)',
+    description: 'Split into bands at cut points, e.g. a pretest from 0 to 100',
+  },
   { value: 'categorical', label: 'Categorical', description: 'One of a few named groups, e.g. a site or a device' },
 ] as const;
 
@@ -67,7 +71,9 @@ export function FactorsForm({ studyId, factors, pretestNote, onSaved, onCancel }
       onError: (error) =>
         applyApiFieldErrors(error, setError, (field) => {
           const match = /^factors\.(\d+)\.(\w+)/.exec(field);
-          return match && rowFields.includes(match[2] ?? '') ? (`factors.${Number(match[1])}.${match[2]}` as `factors.${number}.key`) : null;
+          return match && rowFields.includes(match[2] ?? '')
+            ? (`factors.${Number(match[1])}.${match[2]}` as `factors.${number}.key`)
+            : null;
         }),
     });
   });
@@ -77,7 +83,9 @@ export function FactorsForm({ studyId, factors, pretestNote, onSaved, onCancel }
       {errors.root?.server?.message && <Notice>{errors.root.server.message}</Notice>}
       {errors.factors?.root?.message && <Notice>{errors.factors.root.message}</Notice>}
       {fields.length === 0 && (
-        <p className="text-sm text-ink-muted">No factors: everyone is in one stratum. Add a factor to balance conditions within its levels.</p>
+        <p className="text-sm text-ink-muted">
+          No factors: everyone is in one stratum. Add a factor to balance conditions within its levels.
+        </p>
       )}
       {fields.map((field, index) => {
         const row = rows[index];
@@ -149,7 +157,12 @@ export function FactorsForm({ studyId, factors, pretestNote, onSaved, onCancel }
                   'Levels appear here as you type.'
                 )}
               </p>
-              <Button variant="quiet" size="compact" onClick={() => remove(index)} aria-label={`Remove factor ${index + 1}`}>
+              <Button
+                variant="quiet"
+                size="compact"
+                onClick={() => remove(index)}
+                aria-label={`Remove factor ${index + 1}`}
+              >
                 Remove
               </Button>
             </div>

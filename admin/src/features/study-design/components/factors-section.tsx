@@ -40,13 +40,21 @@ export function FactorsSection({ studyId, permissions }: FactorsSectionProps) {
     >
       <LockNotice lock={permissions.design} />
       <div aria-live="polite" className="empty:hidden">
-        {announcement && <Notice tone="info" className="mb-3">{announcement}</Notice>}
+        {announcement && (
+          <Notice tone="info" className="mb-3">
+            {announcement}
+          </Notice>
+        )}
       </div>
       {factors.isPending ? (
         <LoadingState label="Loading factors…" />
       ) : factors.isError ? (
         <ErrorState
-          message={factors.error instanceof ApiError ? factors.error.message : 'The stratification factors could not be loaded.'}
+          message={
+            factors.error instanceof ApiError
+              ? factors.error.message
+              : 'The stratification factors could not be loaded.'
+          }
           onRetry={() => void factors.refetch()}
         />
       ) : editing ? (
@@ -81,7 +89,10 @@ export function FactorsSection({ studyId, permissions }: FactorsSectionProps) {
                 <div className="min-w-0">
                   <p className="font-medium">{factor.label}</p>
                   <p className="text-xs text-ink-muted">
-                    <span className="font-mono">{factor.key}</span> · {factor.kind === 'numeric' ? `numeric, cut at ${(factor.cutPoints ?? []).join(', ')}` : 'categorical'}
+                    <span className="font-mono">{factor.key}</span> ·{' '}
+                    {factor.kind === 'numeric'
+                      ? `numeric, cut at ${(factor.cutPoints ?? []).join(', ')}`
+                      : 'categorical'}
                     {factor.minimizationWeight !== 1 && ` · weight ${factor.minimizationWeight} in minimization`}
                   </p>
                 </div>
@@ -96,8 +107,8 @@ export function FactorsSection({ studyId, permissions }: FactorsSectionProps) {
             ))}
           </ul>
           <p className="text-sm text-ink-muted">
-            Together these make {stratumCount(items.map((f) => f.levels.length))} strata, each with its own balanced sequence under a
-            stratified scheme.
+            Together these make {stratumCount(items.map((f) => f.levels.length))} strata, each with its own balanced
+            sequence under a stratified scheme.
           </p>
           {items.some((factor) => factor.kind === 'numeric') && <PretestNote note={factors.data.pretestNote} />}
         </div>

@@ -12,9 +12,18 @@ import type { Condition } from '../api/get-conditions';
 import type { Step } from '../api/get-steps';
 import { useSetPayOverride } from '../api/set-pay-override';
 import { conditionDisplayName } from '../utils/condition-name';
-import { payOverrideInputSchema, withPlainPayMessages, type PayOverrideFormOutput, type PayOverrideFormValues } from '../api/step-schema';
+import {
+  payOverrideInputSchema,
+  withPlainPayMessages,
+  type PayOverrideFormOutput,
+  type PayOverrideFormValues,
+} from '../api/step-schema';
 
-const apiToFormField: Record<string, keyof PayOverrideFormValues> = { payMinor: 'pay', reason: 'reason', conditionId: 'conditionId' };
+const apiToFormField: Record<string, keyof PayOverrideFormValues> = {
+  payMinor: 'pay',
+  reason: 'reason',
+  conditionId: 'conditionId',
+};
 
 export interface PayOverrideFormProps {
   studyId: string;
@@ -41,15 +50,29 @@ export function PayOverrideForm({ studyId, currency, step, conditions, onSaved, 
   const onSubmit = handleSubmit(({ conditionId, payMinor, reason }) => {
     setOverride.mutate(
       { stepId: step.id, conditionId, body: { payMinor, reason } },
-      { onSuccess: () => onSaved(), onError: (error) => applyApiFieldErrors(withPlainPayMessages(error, currency), setError, (field) => apiToFormField[field] ?? null) },
+      {
+        onSuccess: () => onSaved(),
+        onError: (error) =>
+          applyApiFieldErrors(
+            withPlainPayMessages(error, currency),
+            setError,
+            (field) => apiToFormField[field] ?? null,
+          ),
+      },
     );
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3.5" aria-label={`Pay override for step ${step.position}`}>
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      className="flex flex-col gap-3.5"
+      aria-label={`Pay override for step ${step.position}`}
+    >
       <Notice tone="caution">
-        Unequal pay can make people in one condition more likely to stay or drop out, and that difference then looks like an effect
-        of the condition. Use an exception only when the condition truly asks for more (or less), and say why.
+        Unequal pay can make people in one condition more likely to stay or drop out, and that difference then looks
+        like an effect of the condition. Use an exception only when the condition truly asks for more (or less), and say
+        why.
       </Notice>
       {errors.root?.server?.message && <Notice>{errors.root.server.message}</Notice>}
       <p className="text-sm text-ink-muted">
@@ -65,13 +88,23 @@ export function PayOverrideForm({ studyId, currency, step, conditions, onSaved, 
             onChange={field.onChange}
             onBlur={field.onBlur}
             buttonRef={field.ref}
-            options={conditions.map((condition) => ({ value: condition.id, label: conditionDisplayName(condition), description: condition.participantLabel }))}
+            options={conditions.map((condition) => ({
+              value: condition.id,
+              label: conditionDisplayName(condition),
+              description: condition.participantLabel,
+            }))}
             placeholder="Choose a condition"
             error={fieldState.error?.message}
           />
         )}
       />
-      <TextField label={`Pay in this condition (${currency})`} inputMode="decimal" error={errors.pay?.message} className="max-w-48" {...register('pay')} />
+      <TextField
+        label={`Pay in this condition (${currency})`}
+        inputMode="decimal"
+        error={errors.pay?.message}
+        className="max-w-48"
+        {...register('pay')}
+      />
       <TextAreaField
         label="Reason"
         hint="At least 10 characters. Kept in the record and shown with the flag in the dropout watch."

@@ -36,7 +36,11 @@ describe('ReturnLinkPanel', { timeout: 20_000 }, () => {
     const template = await screen.findByLabelText('Return address template');
     expect(template).toHaveValue(setup.returnAddressTemplate);
     const parameters = screen.getByLabelText('Parameters added to the task address');
-    expect(within(parameters).getAllByRole('term').map((term) => term.textContent)).toEqual(['ref', 'token', 'return', 'code']);
+    expect(
+      within(parameters)
+        .getAllByRole('term')
+        .map((term) => term.textContent),
+    ).toEqual(['ref', 'token', 'return', 'code']);
 
     const writeText = vi.fn(async () => {});
     useClipboard(writeText);
@@ -64,7 +68,10 @@ describe('ReturnLinkPanel', { timeout: 20_000 }, () => {
   it('explains the grace period before rotating the key, then shows the new key', async () => {
     const { requests } = stubApi({
       [`GET /api/studies/${studyId}/steps/return-link`]: { status: 200, body: setup },
-      [`POST /api/studies/${studyId}/steps/return-link/rotate-key`]: { status: 200, body: { ...setup, keyId: 2, rotatedAt: '2027-01-05T10:00:00.000Z' } },
+      [`POST /api/studies/${studyId}/steps/return-link/rotate-key`]: {
+        status: 200,
+        body: { ...setup, keyId: 2, rotatedAt: '2027-01-05T10:00:00.000Z' },
+      },
     });
     renderWithProviders(<ReturnLinkPanel studyId={studyId} canRotate />);
 

@@ -30,7 +30,9 @@ export function ReturnLinkPanel({ studyId, canRotate }: ReturnLinkPanelProps) {
         <LoadingState label="Loading the return address…" />
       ) : returnLink.isError ? (
         <ErrorState
-          message={returnLink.error instanceof ApiError ? returnLink.error.message : 'The return address could not be loaded.'}
+          message={
+            returnLink.error instanceof ApiError ? returnLink.error.message : 'The return address could not be loaded.'
+          }
           onRetry={() => void returnLink.refetch()}
         />
       ) : (
@@ -40,7 +42,15 @@ export function ReturnLinkPanel({ studyId, canRotate }: ReturnLinkPanelProps) {
   );
 }
 
-function ReturnLinkDetails({ studyId, setup, canRotate }: { studyId: string; setup: ReturnLinkSetup; canRotate: boolean }) {
+function ReturnLinkDetails({
+  studyId,
+  setup,
+  canRotate,
+}: {
+  studyId: string;
+  setup: ReturnLinkSetup;
+  canRotate: boolean;
+}) {
   const templateRef = useRef<HTMLTextAreaElement>(null);
   const rotate = useRotateReturnKey(studyId);
   const [confirming, setConfirming] = useState(false);
@@ -50,7 +60,9 @@ function ReturnLinkDetails({ studyId, setup, canRotate }: { studyId: string; set
     rotate.mutate(undefined, {
       onSuccess: (next) => {
         setConfirming(false);
-        setAnnouncement(`The signing key was rotated. New return links use key ${next.keyId}; links signed before keep working for ${next.graceDays} days.`);
+        setAnnouncement(
+          `The signing key was rotated. New return links use key ${next.keyId}; links signed before keep working for ${next.graceDays} days.`,
+        );
       },
     });
 
@@ -70,17 +82,28 @@ function ReturnLinkDetails({ studyId, setup, canRotate }: { studyId: string; set
             onFocus={(event) => event.currentTarget.select()}
             className={`${textareaRecipe} min-h-0! min-w-0 flex-1 basis-72 resize-none font-mono text-xs break-all [field-sizing:content] focus:border-spruce focus:outline-2 focus:-outline-offset-1 focus:outline-spruce`}
           />
-          <CopyButton value={setup.returnAddressTemplate} label="Copy" aria-label="Copy the return address template" fallbackTarget={templateRef} />
+          <CopyButton
+            value={setup.returnAddressTemplate}
+            label="Copy"
+            aria-label="Copy the return address template"
+            fallbackTarget={templateRef}
+          />
         </div>
         <p className="text-xs text-ink-muted">
-          <code className="font-mono">{'{token}'}</code> stands for the token Evenhand hands your task; each participant’s is different.
+          <code className="font-mono">{'{token}'}</code> stands for the token Evenhand hands your task; each
+          participant’s is different.
         </p>
       </div>
 
       <div>
         <h3 className="font-semibold text-ink">What Evenhand adds to your task address</h3>
-        <p className="text-ink-muted">When a participant starts the step, Evenhand opens your task’s address with these parameters added:</p>
-        <dl className="mt-2 grid gap-x-4 gap-y-1.5 sm:grid-cols-[max-content_1fr]" aria-label="Parameters added to the task address">
+        <p className="text-ink-muted">
+          When a participant starts the step, Evenhand opens your task’s address with these parameters added:
+        </p>
+        <dl
+          className="mt-2 grid gap-x-4 gap-y-1.5 sm:grid-cols-[max-content_1fr]"
+          aria-label="Parameters added to the task address"
+        >
           {setup.parameters.map((parameter) => (
             <div key={parameter.name} className="contents">
               <dt>
@@ -95,16 +118,19 @@ function ReturnLinkDetails({ studyId, setup, canRotate }: { studyId: string; set
       <div>
         <h3 className="font-semibold text-ink">What to paste where</h3>
         <ol className="mt-1 flex list-decimal flex-col gap-1 pl-5 text-ink">
-          <li>Here in Evenhand, choose “Return link from an external task” for the step and enter your task’s address.</li>
           <li>
-            In your tool, have it keep the <code className="font-mono text-xs">ref</code> and <code className="font-mono text-xs">token</code> it
-            receives in the address (often called URL variables, embedded data or query parameters). Store answers under{' '}
-            <code className="font-mono text-xs">ref</code>, never under a name or e-mail.
+            Here in Evenhand, choose “Return link from an external task” for the step and enter your task’s address.
           </li>
           <li>
-            On the tool’s last page or end-of-task redirect, paste the return address template and put the received token where it
-            says <code className="font-mono text-xs">{'{token}'}</code>. If the tool can redirect to a value it received, use{' '}
-            <code className="font-mono text-xs">return</code> as it is instead.
+            In your tool, have it keep the <code className="font-mono text-xs">ref</code> and{' '}
+            <code className="font-mono text-xs">token</code> it receives in the address (often called URL variables,
+            embedded data or query parameters). Store answers under <code className="font-mono text-xs">ref</code>,
+            never under a name or e-mail.
+          </li>
+          <li>
+            On the tool’s last page or end-of-task redirect, paste the return address template and put the received
+            token where it says <code className="font-mono text-xs">{'{token}'}</code>. If the tool can redirect to a
+            value it received, use <code className="font-mono text-xs">return</code> as it is instead.
           </li>
           <li>
             Evenhand checks the signature, marks the step done and shows the participant their steps. A link works until{' '}
@@ -139,17 +165,24 @@ function ReturnLinkDetails({ studyId, setup, canRotate }: { studyId: string; set
         {announcement && <Notice tone="info">{announcement}</Notice>}
       </div>
 
-      <ModalDialog open={confirming} onClose={() => setConfirming(false)} role="alertdialog" title="Rotate the signing key?">
+      <ModalDialog
+        open={confirming}
+        onClose={() => setConfirming(false)}
+        role="alertdialog"
+        title="Rotate the signing key?"
+      >
         <div className="flex flex-col gap-2 text-sm text-ink">
           <p>New return links are signed with a fresh key. Do this if a return link or the key may have leaked.</p>
           <p>
-            Links already handed out keep working for <strong>{setup.graceDays} days</strong>; after that they are refused and those
-            participants start the step again from Evenhand to get a new link.
+            Links already handed out keep working for <strong>{setup.graceDays} days</strong>; after that they are
+            refused and those participants start the step again from Evenhand to get a new link.
           </p>
           <p>The return address template does not change, so nothing needs to change in your external tool.</p>
         </div>
         {rotate.isError && (
-          <Notice className="mt-3">{rotate.error instanceof ApiError ? rotate.error.message : 'The key could not be rotated. Try again.'}</Notice>
+          <Notice className="mt-3">
+            {rotate.error instanceof ApiError ? rotate.error.message : 'The key could not be rotated. Try again.'}
+          </Notice>
         )}
         <DialogActions>
           <Button onClick={() => setConfirming(false)}>Cancel</Button>

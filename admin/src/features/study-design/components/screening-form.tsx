@@ -89,12 +89,16 @@ export function ScreeningForm({ studyId, questions, factorKeys, onSaved, onCance
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Screening questions">
       {questions.length > 0 && (
         <Notice tone="caution">
-          Saving replaces every eligibility question. Saved eligibility rules are not shown here, so set each question’s rule
-          again before you save.
+          Saving replaces every eligibility question. Saved eligibility rules are not shown here, so set each question’s
+          rule again before you save.
         </Notice>
       )}
       {errors.root?.server?.message && <Notice>{errors.root.server.message}</Notice>}
-      {fields.length === 0 && <p className="text-sm text-ink-muted">No eligibility questions: everyone who signs in may continue to consent.</p>}
+      {fields.length === 0 && (
+        <p className="text-sm text-ink-muted">
+          No eligibility questions: everyone who signs in may continue to consent.
+        </p>
+      )}
       {fields.map((field, index) => {
         const row = rows[index];
         const rowErrors = errors.questions?.[index];
@@ -103,13 +107,32 @@ export function ScreeningForm({ studyId, questions, factorKeys, onSaved, onCance
           <fieldset key={field.id} className="rounded-md border border-line bg-canvas p-3">
             <legend className="px-1 text-sm font-semibold">Question {index + 1}</legend>
             <div className="grid gap-3 sm:grid-cols-2">
-              <TextField label="Question" autoComplete="off" error={rowErrors?.label?.message} className="sm:col-span-2" {...register(`questions.${index}.label`)} />
-              <TextField label="Key" autoComplete="off" hint="Short name, e.g. adult." error={rowErrors?.key?.message} {...register(`questions.${index}.key`)} />
+              <TextField
+                label="Question"
+                autoComplete="off"
+                error={rowErrors?.label?.message}
+                className="sm:col-span-2"
+                {...register(`questions.${index}.label`)}
+              />
+              <TextField
+                label="Key"
+                autoComplete="off"
+                hint="Short name, e.g. adult."
+                error={rowErrors?.key?.message}
+                {...register(`questions.${index}.key`)}
+              />
               <Controller
                 control={control}
                 name={`questions.${index}.kind`}
                 render={({ field: kindField }) => (
-                  <SelectField label="Answer" value={kindField.value} onChange={kindField.onChange} onBlur={kindField.onBlur} buttonRef={kindField.ref} options={kindOptions} />
+                  <SelectField
+                    label="Answer"
+                    value={kindField.value}
+                    onChange={kindField.onChange}
+                    onBlur={kindField.onBlur}
+                    buttonRef={kindField.ref}
+                    options={kindOptions}
+                  />
                 )}
               />
               {row?.kind === 'yes-no' && (
@@ -131,8 +154,18 @@ export function ScreeningForm({ studyId, questions, factorKeys, onSaved, onCance
               )}
               {row?.kind === 'number' && (
                 <>
-                  <TextField label="Lowest possible answer" inputMode="decimal" error={rowErrors?.minValue?.message} {...register(`questions.${index}.minValue`)} />
-                  <TextField label="Highest possible answer" inputMode="decimal" error={rowErrors?.maxValue?.message} {...register(`questions.${index}.maxValue`)} />
+                  <TextField
+                    label="Lowest possible answer"
+                    inputMode="decimal"
+                    error={rowErrors?.minValue?.message}
+                    {...register(`questions.${index}.minValue`)}
+                  />
+                  <TextField
+                    label="Highest possible answer"
+                    inputMode="decimal"
+                    error={rowErrors?.maxValue?.message}
+                    {...register(`questions.${index}.maxValue`)}
+                  />
                   <TextField
                     label="Eligible from"
                     inputMode="decimal"
@@ -151,7 +184,12 @@ export function ScreeningForm({ studyId, questions, factorKeys, onSaved, onCance
               )}
               {row?.kind === 'choice' && (
                 <>
-                  <TextAreaField label="Options" hint="One per line." error={rowErrors?.options?.message} {...register(`questions.${index}.options`)} />
+                  <TextAreaField
+                    label="Options"
+                    hint="One per line."
+                    error={rowErrors?.options?.message}
+                    {...register(`questions.${index}.options`)}
+                  />
                   <Controller
                     control={control}
                     name={`questions.${index}.eligibleOptions`}
@@ -165,11 +203,17 @@ export function ScreeningForm({ studyId, questions, factorKeys, onSaved, onCance
                             label={option}
                             checked={eligibleField.value.includes(option)}
                             onChange={(checked) =>
-                              eligibleField.onChange(checked ? [...eligibleField.value, option] : eligibleField.value.filter((value) => value !== option))
+                              eligibleField.onChange(
+                                checked
+                                  ? [...eligibleField.value, option]
+                                  : eligibleField.value.filter((value) => value !== option),
+                              )
                             }
                           />
                         ))}
-                        {options.length > 0 && <p className="text-xs text-ink-faint">None ticked: every option may take part.</p>}
+                        {options.length > 0 && (
+                          <p className="text-xs text-ink-faint">None ticked: every option may take part.</p>
+                        )}
                       </fieldset>
                     )}
                   />
@@ -182,10 +226,21 @@ export function ScreeningForm({ studyId, questions, factorKeys, onSaved, onCance
                 error={rowErrors?.criterion?.message}
                 {...register(`questions.${index}.criterion`)}
               />
-              <TextField label="Help text" autoComplete="off" hint="Optional, shown under the question." error={rowErrors?.help?.message} {...register(`questions.${index}.help`)} />
+              <TextField
+                label="Help text"
+                autoComplete="off"
+                hint="Optional, shown under the question."
+                error={rowErrors?.help?.message}
+                {...register(`questions.${index}.help`)}
+              />
             </div>
             <div className="mt-3 flex justify-end">
-              <Button variant="quiet" size="compact" onClick={() => remove(index)} aria-label={`Remove question ${index + 1}`}>
+              <Button
+                variant="quiet"
+                size="compact"
+                onClick={() => remove(index)}
+                aria-label={`Remove question ${index + 1}`}
+              >
                 Remove
               </Button>
             </div>

@@ -42,13 +42,21 @@ export function ScreeningSection({ studyId, permissions }: ScreeningSectionProps
     >
       <LockNotice lock={permissions.content} />
       <div aria-live="polite" className="empty:hidden">
-        {announcement && <Notice tone="info" className="mb-3">{announcement}</Notice>}
+        {announcement && (
+          <Notice tone="info" className="mb-3">
+            {announcement}
+          </Notice>
+        )}
       </div>
       {questions.isPending ? (
         <LoadingState label="Loading screening questions…" />
       ) : questions.isError ? (
         <ErrorState
-          message={questions.error instanceof ApiError ? questions.error.message : 'The screening questions could not be loaded.'}
+          message={
+            questions.error instanceof ApiError
+              ? questions.error.message
+              : 'The screening questions could not be loaded.'
+          }
           onRetry={() => void questions.refetch()}
         />
       ) : editing ? (

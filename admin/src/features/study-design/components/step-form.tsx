@@ -12,7 +12,12 @@ import type { Step } from '../api/get-steps';
 import { stepInputSchema, withPlainPayMessages, type StepFormOutput, type StepFormValues } from '../api/step-schema';
 import { useUpdateStep } from '../api/update-step';
 
-const apiToFormField: Record<string, keyof StepFormValues> = { title: 'title', description: 'description', payMinor: 'pay', position: 'position' };
+const apiToFormField: Record<string, keyof StepFormValues> = {
+  title: 'title',
+  description: 'description',
+  payMinor: 'pay',
+  position: 'position',
+};
 
 export interface StepFormProps {
   studyId: string;
@@ -41,7 +46,8 @@ export function StepForm({ studyId, currency, step, stepCount, onSaved, onCancel
     },
   });
 
-  const onError = (error: unknown) => applyApiFieldErrors(withPlainPayMessages(error, currency), setError, (field) => apiToFormField[field] ?? null);
+  const onError = (error: unknown) =>
+    applyApiFieldErrors(withPlainPayMessages(error, currency), setError, (field) => apiToFormField[field] ?? null);
 
   const onSubmit = handleSubmit((values) => {
     if (!step) {
@@ -63,9 +69,20 @@ export function StepForm({ studyId, currency, step, stepCount, onSaved, onCancel
   });
 
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-3.5" aria-label={step ? `Edit step ${step.position}` : 'New step'}>
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      className="flex flex-col gap-3.5"
+      aria-label={step ? `Edit step ${step.position}` : 'New step'}
+    >
       {errors.root?.server?.message && <Notice>{errors.root.server.message}</Notice>}
-      <TextField label="Step title" autoComplete="off" hint="E.g. “Session 1: learning the route”." error={errors.title?.message} {...register('title')} />
+      <TextField
+        label="Step title"
+        autoComplete="off"
+        hint="E.g. “Session 1: learning the route”."
+        error={errors.title?.message}
+        {...register('title')}
+      />
       <TextAreaField
         label="Description"
         hint="What the participant does and how long it takes; shown on the study page."

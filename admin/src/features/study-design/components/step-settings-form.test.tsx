@@ -21,12 +21,22 @@ const step: Step = {
   dueWithinDays: 3,
   payOverrides: [],
 };
-const list = (changes: Partial<Step>): StepList => ({ items: [{ ...step, ...changes }], currency: 'USD', totalPayMinor: 1250, hasPayOverrides: false });
+const list = (changes: Partial<Step>): StepList => ({
+  items: [{ ...step, ...changes }],
+  currency: 'USD',
+  totalPayMinor: 1250,
+  hasPayOverrides: false,
+});
 const path = `/api/studies/${studyId}/steps/${step.id}`;
 
 describe('StepSettingsForm', { timeout: 20_000 }, () => {
   it('asks for the task address of a return-link step, then saves verification and window', async () => {
-    const { requests } = stubApi({ [`PUT ${path}`]: { status: 200, body: list({ verification: 'return-link', taskUrl: 'https://tasks.example.org/s2' }) } });
+    const { requests } = stubApi({
+      [`PUT ${path}`]: {
+        status: 200,
+        body: list({ verification: 'return-link', taskUrl: 'https://tasks.example.org/s2' }),
+      },
+    });
     const onSaved = vi.fn();
     renderWithProviders(<StepSettingsForm studyId={studyId} step={step} onSaved={onSaved} onCancel={() => {}} />);
 
@@ -46,11 +56,19 @@ describe('StepSettingsForm', { timeout: 20_000 }, () => {
     await userEvent.click(screen.getByRole('radio', { name: /No due date/ }));
     await userEvent.click(screen.getByRole('button', { name: 'Save how it is checked' }));
     await waitFor(() => expect(onSaved).toHaveBeenCalled());
-    expect(requests[0]?.body).toEqual({ verification: 'return-link', taskUrl: 'https://tasks.example.org/s2', opensAfterDays: 7, opensFrom: 'previous-step', dueWithinDays: null });
+    expect(requests[0]?.body).toEqual({
+      verification: 'return-link',
+      taskUrl: 'https://tasks.example.org/s2',
+      opensAfterDays: 7,
+      opensFrom: 'previous-step',
+      dueWithinDays: null,
+    });
   });
 
   it('warns that a shared code can be passed around and requires one when the step has none', async () => {
-    const { requests } = stubApi({ [`PUT ${path}`]: { status: 200, body: list({ verification: 'shared-code', hasCompletionCode: true }) } });
+    const { requests } = stubApi({
+      [`PUT ${path}`]: { status: 200, body: list({ verification: 'shared-code', hasCompletionCode: true }) },
+    });
     const onSaved = vi.fn();
     renderWithProviders(<StepSettingsForm studyId={studyId} step={step} onSaved={onSaved} onCancel={() => {}} />);
 
@@ -62,14 +80,24 @@ describe('StepSettingsForm', { timeout: 20_000 }, () => {
     await userEvent.type(screen.getByLabelText('The code everyone types'), 'ROOM-42');
     await userEvent.click(screen.getByRole('button', { name: 'Save how it is checked' }));
     await waitFor(() => expect(onSaved).toHaveBeenCalled());
-    expect(requests[0]?.body).toMatchObject({ verification: 'shared-code', taskUrl: null, sharedCode: 'ROOM-42', dueWithinDays: 3 });
+    expect(requests[0]?.body).toMatchObject({
+      verification: 'shared-code',
+      taskUrl: null,
+      sharedCode: 'ROOM-42',
+      dueWithinDays: 3,
+    });
   });
 
   it('shows the api’s field errors on their fields', async () => {
     stubApi({
       [`PUT ${path}`]: {
         status: 400,
-        body: { statusCode: 400, code: 'VALIDATION_FAILED', message: 'Check the highlighted fields.', errors: [{ field: 'opensAfterDays', message: 'opensAfterDays must not be greater than 3650' }] },
+        body: {
+          statusCode: 400,
+          code: 'VALIDATION_FAILED',
+          message: 'Check the highlighted fields.',
+          errors: [{ field: 'opensAfterDays', message: 'opensAfterDays must not be greater than 3650' }],
+        },
       },
     });
     renderWithProviders(<StepSettingsForm studyId={studyId} step={step} onSaved={() => {}} onCancel={() => {}} />);
@@ -86,7 +114,9 @@ describe('StepSettingsForm', { timeout: 20_000 }, () => {
     await userEvent.clear(screen.getByLabelText('Due within (days)'));
     await userEvent.type(screen.getByLabelText('Due within (days)'), '2.5');
     await userEvent.click(screen.getByRole('button', { name: 'Save how it is checked' }));
-    expect(await screen.findByText('Enter a whole number of days from 0 to 3650, or choose no due date.')).toBeInTheDocument();
+    expect(
+      await screen.findByText('Enter a whole number of days from 0 to 3650, or choose no due date.'),
+    ).toBeInTheDocument();
     expect(requests).toHaveLength(0);
   });
 });

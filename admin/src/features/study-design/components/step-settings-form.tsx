@@ -8,7 +8,12 @@ import { Notice } from '@/components/ui/states';
 import { TextField } from '@/components/ui/text-field';
 import { applyApiFieldErrors } from '@/lib/form-field-errors';
 import type { Step } from '../api/get-steps';
-import { stepSettingsInputSchema, useSaveStepSettings, type StepSettingsBody, type StepSettingsFormValues } from '../api/save-step-settings';
+import {
+  stepSettingsInputSchema,
+  useSaveStepSettings,
+  type StepSettingsBody,
+  type StepSettingsFormValues,
+} from '../api/save-step-settings';
 import { verificationOrder, verificationWording } from '../utils/step-settings-wording';
 
 const apiToFormField: Record<string, keyof StepSettingsFormValues> = {
@@ -59,12 +64,20 @@ export function StepSettingsForm({ studyId, step, onSaved, onCancel }: StepSetti
   const onSubmit = handleSubmit((body) =>
     save.mutate(
       { stepId: step.id, body },
-      { onSuccess: () => onSaved(), onError: (error) => applyApiFieldErrors(error, setError, (field) => apiToFormField[field] ?? null) },
+      {
+        onSuccess: () => onSaved(),
+        onError: (error) => applyApiFieldErrors(error, setError, (field) => apiToFormField[field] ?? null),
+      },
     ),
   );
 
   return (
-    <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label={`How step ${step.position} is checked`}>
+    <form
+      onSubmit={onSubmit}
+      noValidate
+      className="flex flex-col gap-4"
+      aria-label={`How step ${step.position} is checked`}
+    >
       {errors.root?.server?.message && <Notice>{errors.root.server.message}</Notice>}
       <Controller
         control={control}
@@ -75,7 +88,11 @@ export function StepSettingsForm({ studyId, step, onSaved, onCancel }: StepSetti
             value={field.value}
             onChange={field.onChange}
             error={errors.verification?.message}
-            options={verificationOrder.map((value) => ({ value, label: verificationWording[value].label, description: verificationWording[value].description }))}
+            options={verificationOrder.map((value) => ({
+              value,
+              label: verificationWording[value].label,
+              description: verificationWording[value].description,
+            }))}
           />
         )}
       />
@@ -96,11 +113,13 @@ export function StepSettingsForm({ studyId, step, onSaved, onCancel }: StepSetti
       {verification === 'shared-code' && (
         <div className="flex flex-col gap-2">
           <Notice tone="caution">
-            Anyone who learns this code can claim the step’s pay, including people who never did the task. Use a code for each
-            participant or a return link when the pay matters.
+            Anyone who learns this code can claim the step’s pay, including people who never did the task. Use a code
+            for each participant or a return link when the pay matters.
           </Notice>
           <TextField
-            label={step.hasCompletionCode ? 'New code (leave empty to keep the current one)' : 'The code everyone types'}
+            label={
+              step.hasCompletionCode ? 'New code (leave empty to keep the current one)' : 'The code everyone types'
+            }
             autoComplete="off"
             hint="4 to 64 characters. Evenhand keeps only a fingerprint of it, so write it down where your task shows it."
             error={errors.sharedCode?.message}
@@ -113,7 +132,13 @@ export function StepSettingsForm({ studyId, step, onSaved, onCancel }: StepSetti
       <fieldset className="flex flex-col gap-3 rounded-md border border-line px-3 pt-2 pb-3">
         <legend className="px-1 text-xs font-semibold text-ink">When it can be done</legend>
         <div className="flex flex-wrap items-start gap-3">
-          <TextField label="Opens after (days)" inputMode="numeric" error={errors.opensAfterDays?.message} className="w-32" {...register('opensAfterDays')} />
+          <TextField
+            label="Opens after (days)"
+            inputMode="numeric"
+            error={errors.opensAfterDays?.message}
+            className="w-32"
+            {...register('opensAfterDays')}
+          />
           <Controller
             control={control}
             name="opensFrom"
@@ -141,14 +166,28 @@ export function StepSettingsForm({ studyId, step, onSaved, onCancel }: StepSetti
               value={field.value}
               onChange={field.onChange}
               options={[
-                { value: 'within', label: 'Due within a number of days', description: 'Counted from the day it opens; late work still counts.' },
-                { value: 'none', label: 'No due date', description: 'The step stays open until the participant finishes.' },
+                {
+                  value: 'within',
+                  label: 'Due within a number of days',
+                  description: 'Counted from the day it opens; late work still counts.',
+                },
+                {
+                  value: 'none',
+                  label: 'No due date',
+                  description: 'The step stays open until the participant finishes.',
+                },
               ]}
             />
           )}
         />
         {dueMode === 'within' && (
-          <TextField label="Due within (days)" inputMode="numeric" error={errors.dueWithinDays?.message} className="w-32" {...register('dueWithinDays')} />
+          <TextField
+            label="Due within (days)"
+            inputMode="numeric"
+            error={errors.dueWithinDays?.message}
+            className="w-32"
+            {...register('dueWithinDays')}
+          />
         )}
       </fieldset>
 

@@ -9,12 +9,14 @@ export const verificationWording: Record<StepVerification, { label: string; desc
   'return-link': {
     label: 'Return link from an external task',
     short: 'Return link',
-    description: 'Participants start the task from Evenhand; at its end your task sends them to a signed return address, which marks the step done.',
+    description:
+      'Participants start the task from Evenhand; at its end your task sends them to a signed return address, which marks the step done.',
   },
   'participant-code': {
     label: 'A code for each participant',
     short: 'Own code',
-    description: 'Each participant gets a code of their own (staff see it on the record); typing it marks the step done.',
+    description:
+      'Each participant gets a code of their own (staff see it on the record); typing it marks the step done.',
   },
   'shared-code': {
     label: 'One code for the whole step',
@@ -28,16 +30,30 @@ export const verificationWording: Record<StepVerification, { label: string; desc
   },
 };
 
-export const verificationOrder: readonly StepVerification[] = ['return-link', 'participant-code', 'shared-code', 'staff'];
+export const verificationOrder: readonly StepVerification[] = [
+  'return-link',
+  'participant-code',
+  'shared-code',
+  'staff',
+];
 
 function days(count: number): string {
   return `${count} ${count === 1 ? 'day' : 'days'}`;
 }
 
 /** The step's window in one line, e.g. "Opens 7 days after the previous step · due within 3 days". */
-export function windowSentence(step: { opensAfterDays: number; opensFrom: StepOpensFrom; dueWithinDays: number | null }): string {
+export function windowSentence(step: {
+  opensAfterDays: number;
+  opensFrom: StepOpensFrom;
+  dueWithinDays: number | null;
+}): string {
   const from = step.opensFrom === 'assignment' ? 'assignment' : 'the previous step is done';
   const opens = step.opensAfterDays === 0 ? `Opens at ${from}` : `Opens ${days(step.opensAfterDays)} after ${from}`;
-  const due = step.dueWithinDays === null ? 'no due date' : step.dueWithinDays === 0 ? 'due the day it opens' : `due within ${days(step.dueWithinDays)}`;
+  const due =
+    step.dueWithinDays === null
+      ? 'no due date'
+      : step.dueWithinDays === 0
+        ? 'due the day it opens'
+        : `due within ${days(step.dueWithinDays)}`;
   return `${opens} · ${due}`;
 }

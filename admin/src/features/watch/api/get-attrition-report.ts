@@ -22,7 +22,10 @@ export type CoxModel = components['schemas']['CoxModelDto'];
 export type PlannedLength = components['schemas']['PlannedLengthDto'];
 export type MeanDifference = components['schemas']['MeanDifferenceDto'];
 
-export async function getAttritionReport(studyId: string, comparisonConditionId: string | null): Promise<AttritionReport> {
+export async function getAttritionReport(
+  studyId: string,
+  comparisonConditionId: string | null,
+): Promise<AttritionReport> {
   return unwrap(
     apiClient.GET('/api/studies/{studyId}/attrition', {
       params: { path: { studyId }, query: comparisonConditionId ? { comparisonConditionId } : {} },
@@ -31,9 +34,15 @@ export async function getAttritionReport(studyId: string, comparisonConditionId:
 }
 
 export const attritionReportQueryOptions = (studyId: string, comparisonConditionId: string | null) =>
-  queryOptions({ queryKey: watchKeys.report(studyId, comparisonConditionId), queryFn: () => getAttritionReport(studyId, comparisonConditionId) });
+  queryOptions({
+    queryKey: watchKeys.report(studyId, comparisonConditionId),
+    queryFn: () => getAttritionReport(studyId, comparisonConditionId),
+  });
 
 /** Keeps the last report on screen while another comparison condition loads, so the page does not jump. */
 export function useAttritionReport(studyId: string, comparisonConditionId: string | null) {
-  return useQuery({ ...attritionReportQueryOptions(studyId, comparisonConditionId), placeholderData: keepPreviousData });
+  return useQuery({
+    ...attritionReportQueryOptions(studyId, comparisonConditionId),
+    placeholderData: keepPreviousData,
+  });
 }

@@ -18,7 +18,10 @@ export const alertThresholdsSchema = (currency: string) =>
       .trim()
       .min(1, 'Enter a p-value threshold.')
       .refine((text) => /^(0?\.\d+|0|1)$/.test(text), 'Enter the p-value as a decimal, like 0.05.')
-      .refine((text) => Number(text) >= 0.0001 && Number(text) <= 0.5, 'The p-value threshold must be between 0.0001 and 0.5.'),
+      .refine(
+        (text) => Number(text) >= 0.0001 && Number(text) <= 0.5,
+        'The p-value threshold must be between 0.0001 and 0.5.',
+      ),
     payEnabled: z.boolean(),
     payAmount: z.string().superRefine((text, context) => {
       const parsed = parseMajorAmount(text, currency);
@@ -29,7 +32,11 @@ export const alertThresholdsSchema = (currency: string) =>
 
 export type AlertThresholdsValues = z.infer<ReturnType<typeof alertThresholdsSchema>>;
 
-export function toAlertsInput(values: AlertThresholdsValues, currency: string, comparisonConditionId: string | null): AttritionAlertsInput {
+export function toAlertsInput(
+  values: AlertThresholdsValues,
+  currency: string,
+  comparisonConditionId: string | null,
+): AttritionAlertsInput {
   const amount = parseMajorAmount(values.payAmount, currency);
   if (!amount.ok) throw new Error(`payAmount: ${amount.message}`);
   return {

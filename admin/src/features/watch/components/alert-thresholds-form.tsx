@@ -9,7 +9,12 @@ import { TextField } from '@/components/ui/text-field';
 import { applyServerErrors } from '@/lib/form-server-errors';
 import { minorToMajorText } from '@/lib/money';
 import type { AttritionAlerts } from '../api/get-attrition-alerts';
-import { alertThresholdsSchema, toAlertsInput, useSaveAttritionAlerts, type AlertThresholdsValues } from '../api/save-attrition-alerts';
+import {
+  alertThresholdsSchema,
+  toAlertsInput,
+  useSaveAttritionAlerts,
+  type AlertThresholdsValues,
+} from '../api/save-attrition-alerts';
 
 export interface AlertThresholdsFormProps {
   studyId: string;
@@ -22,7 +27,13 @@ export interface AlertThresholdsFormProps {
   canEdit: boolean;
 }
 
-export function AlertThresholdsForm({ studyId, alerts, comparisonConditionId, canEdit, repeatedLooks }: AlertThresholdsFormProps) {
+export function AlertThresholdsForm({
+  studyId,
+  alerts,
+  comparisonConditionId,
+  canEdit,
+  repeatedLooks,
+}: AlertThresholdsFormProps) {
   const currency = alerts.payDifference.currency;
   const save = useSaveAttritionAlerts(studyId);
   const [saved, setSaved] = useState(false);
@@ -42,7 +53,9 @@ export function AlertThresholdsForm({ studyId, alerts, comparisonConditionId, ca
   const onSubmit = form.handleSubmit(async (values) => {
     setSaved(false);
     try {
-      await save.mutateAsync(toAlertsInput(values, currency, comparisonConditionId ?? alerts.differentialAttrition.comparisonConditionId));
+      await save.mutateAsync(
+        toAlertsInput(values, currency, comparisonConditionId ?? alerts.differentialAttrition.comparisonConditionId),
+      );
       setSaved(true);
     } catch (error) {
       applyServerErrors(error, ['pValueBelow', 'payAmount', 'payBasis'], form.setError);
@@ -53,7 +66,11 @@ export function AlertThresholdsForm({ studyId, alerts, comparisonConditionId, ca
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="Alert thresholds">
       <div aria-live="polite" className="empty:hidden">
         {errors.root?.server && <Notice>{errors.root.server.message}</Notice>}
-        {saved && <Notice tone="info">Alert thresholds saved. They are checked every {alerts.evaluatedEveryMinutes} minutes.</Notice>}
+        {saved && (
+          <Notice tone="info">
+            Alert thresholds saved. They are checked every {alerts.evaluatedEveryMinutes} minutes.
+          </Notice>
+        )}
       </div>
       <Controller
         control={form.control}
@@ -76,14 +93,23 @@ export function AlertThresholdsForm({ studyId, alerts, comparisonConditionId, ca
             <SwitchField
               className="min-w-64"
               label="Log-rank p-value below"
-              hint={alerts.logRank.state.crossed ? 'Crossed at the last check.' : 'Time to dropout differs by condition.'}
+              hint={
+                alerts.logRank.state.crossed ? 'Crossed at the last check.' : 'Time to dropout differs by condition.'
+              }
               checked={field.value}
               onChange={field.onChange}
               disabled={!canEdit}
             />
           )}
         />
-        <TextField className="w-32" label="p-value threshold" inputMode="decimal" disabled={!canEdit} error={errors.pValueBelow?.message} {...form.register('pValueBelow')} />
+        <TextField
+          className="w-32"
+          label="p-value threshold"
+          inputMode="decimal"
+          disabled={!canEdit}
+          error={errors.pValueBelow?.message}
+          {...form.register('pValueBelow')}
+        />
       </div>
       <p className="max-w-prose text-xs text-ink-muted" data-testid="repeated-looks">
         {repeatedLooks}
@@ -103,7 +129,14 @@ export function AlertThresholdsForm({ studyId, alerts, comparisonConditionId, ca
             />
           )}
         />
-        <TextField className="w-32" label={`Amount (${currency})`} inputMode="decimal" disabled={!canEdit} error={errors.payAmount?.message} {...form.register('payAmount')} />
+        <TextField
+          className="w-32"
+          label={`Amount (${currency})`}
+          inputMode="decimal"
+          disabled={!canEdit}
+          error={errors.payAmount?.message}
+          {...form.register('payAmount')}
+        />
         <Controller
           control={form.control}
           name="payBasis"

@@ -38,20 +38,53 @@ function boxHeight(box: BoxText, width: number): number {
   return PAD * 2 + (title + body) * LINE_HEIGHT;
 }
 
-function FlowRect({ x, y, width, box, tone = 'plain' }: { x: number; y: number; width: number; box: BoxText; tone?: 'plain' | 'stage' }) {
+function FlowRect({
+  x,
+  y,
+  width,
+  box,
+  tone = 'plain',
+}: {
+  x: number;
+  y: number;
+  width: number;
+  box: BoxText;
+  tone?: 'plain' | 'stage';
+}) {
   const height = boxHeight(box, width);
   const title = wrap(box.title, width);
   const body = box.lines.flatMap((line) => wrap(`• ${line}`, width));
   return (
     <g>
-      <rect x={x} y={y} width={width} height={height} rx={4} fill={tone === 'stage' ? 'var(--color-spruce-soft)' : 'var(--color-surface)'} stroke="var(--color-line-strong)" />
+      <rect
+        x={x}
+        y={y}
+        width={width}
+        height={height}
+        rx={4}
+        fill={tone === 'stage' ? 'var(--color-spruce-soft)' : 'var(--color-surface)'}
+        stroke="var(--color-line-strong)"
+      />
       {title.map((line, index) => (
-        <text key={`t${index}`} x={x + PAD} y={y + PAD + (index + 0.8) * LINE_HEIGHT} fontSize={12} fontWeight={600} fill="var(--color-ink)">
+        <text
+          key={`t${index}`}
+          x={x + PAD}
+          y={y + PAD + (index + 0.8) * LINE_HEIGHT}
+          fontSize={12}
+          fontWeight={600}
+          fill="var(--color-ink)"
+        >
           {line}
         </text>
       ))}
       {body.map((line, index) => (
-        <text key={`b${index}`} x={x + PAD} y={y + PAD + (title.length + index + 0.8) * LINE_HEIGHT} fontSize={11} fill="var(--color-ink-muted)">
+        <text
+          key={`b${index}`}
+          x={x + PAD}
+          y={y + PAD + (title.length + index + 0.8) * LINE_HEIGHT}
+          fontSize={11}
+          fill="var(--color-ink-muted)"
+        >
           {line}
         </text>
       ))}
@@ -60,14 +93,32 @@ function FlowRect({ x, y, width, box, tone = 'plain' }: { x: number; y: number; 
 }
 
 function Arrow({ x1, y1, x2, y2 }: { x1: number; y1: number; x2: number; y2: number }) {
-  return <line x1={x1} y1={y1} x2={x2} y2={y2} stroke="var(--color-ink-muted)" strokeWidth={1.25} markerEnd="url(#consort-arrow)" />;
+  return (
+    <line
+      x1={x1}
+      y1={y1}
+      x2={x2}
+      y2={y2}
+      stroke="var(--color-ink-muted)"
+      strokeWidth={1.25}
+      markerEnd="url(#consort-arrow)"
+    />
+  );
 }
 
 function StageLabel({ y, height, label }: { y: number; height: number; label: string }) {
   return (
     <g>
       <rect x={0} y={y} width={22} height={height} rx={3} fill="var(--color-spruce)" />
-      <text x={11} y={y + height / 2} fontSize={11} fontWeight={600} fill="var(--color-ink-inverse)" textAnchor="middle" transform={`rotate(-90 11 ${y + height / 2})`}>
+      <text
+        x={11}
+        y={y + height / 2}
+        fontSize={11}
+        fontWeight={600}
+        fill="var(--color-ink-inverse)"
+        textAnchor="middle"
+        transform={`rotate(-90 11 ${y + height / 2})`}
+      >
         {label}
       </text>
     </g>
@@ -112,10 +163,15 @@ export function ConsortFlow({ flow, svgRef }: { flow: ConsortFlow; svgRef?: Ref<
   const enrollmentBottom = y;
   y += STAGE_GAP;
 
-  const armX = (index: number) => left + (contentWidth - (arms.length * armWidth + (arms.length - 1) * armGap)) / 2 + index * (armWidth + armGap);
+  const armX = (index: number) =>
+    left + (contentWidth - (arms.length * armWidth + (arms.length - 1) * armGap)) / 2 + index * (armWidth + armGap);
   const allocation = arms.map((arm) => ({
     title: `Allocated to ${arm.name} (n = ${arm.allocated})`,
-    lines: [arm.incompleteAtClose > 0 ? `Did not complete by the close (n = ${arm.incompleteAtClose})` : `Still in follow-up (n = ${arm.stillInFollowUp})`],
+    lines: [
+      arm.incompleteAtClose > 0
+        ? `Did not complete by the close (n = ${arm.incompleteAtClose})`
+        : `Still in follow-up (n = ${arm.stillInFollowUp})`,
+    ],
   }));
   const followUp = arms.map((arm) => ({
     title: `Withdrew (n = ${arm.withdrew.total}) · Lost (n = ${arm.lostToFollowUp.total})`,
@@ -123,13 +179,19 @@ export function ConsortFlow({ flow, svgRef }: { flow: ConsortFlow; svgRef?: Ref<
       ...reasonLines(arm.withdrew).map((line) => `Withdrew: ${line}`),
       ...reasonLines(arm.lostToFollowUp).map((line) => `Lost: ${line}`),
       ...(arm.excludedAfterRandomization.total > 0
-        ? [`Excluded after randomization (n = ${arm.excludedAfterRandomization.total})`, ...reasonLines(arm.excludedAfterRandomization).map((line) => `Excluded: ${line}`)]
+        ? [
+            `Excluded after randomization (n = ${arm.excludedAfterRandomization.total})`,
+            ...reasonLines(arm.excludedAfterRandomization).map((line) => `Excluded: ${line}`),
+          ]
         : []),
     ],
   }));
   const analysis = arms.map((arm) => ({
     title: `Analysed, intention to treat (n = ${arm.analysed})`,
-    lines: [`Completers (n = ${arm.completers})`, `Without complete outcome data (n = ${arm.analysed - arm.completers})`],
+    lines: [
+      `Completers (n = ${arm.completers})`,
+      `Without complete outcome data (n = ${arm.analysed - arm.completers})`,
+    ],
   }));
   // At least tall enough for the rotated stage label beside the row.
   const rowHeight = (boxes: BoxText[]) => Math.max(...boxes.map((box) => boxHeight(box, armWidth)), 78);
@@ -146,9 +208,27 @@ export function ConsortFlow({ flow, svgRef }: { flow: ConsortFlow; svgRef?: Ref<
   const branchY = allocationY - STAGE_GAP / 2;
 
   return (
-    <svg ref={svgRef} xmlns="http://www.w3.org/2000/svg" viewBox={`0 0 ${width} ${y}`} width={width} height={y} className="mx-auto h-auto w-full min-w-[640px]" style={{ maxWidth: width * 1.15 }} aria-hidden="true" focusable="false">
+    <svg
+      ref={svgRef}
+      xmlns="http://www.w3.org/2000/svg"
+      viewBox={`0 0 ${width} ${y}`}
+      width={width}
+      height={y}
+      className="mx-auto h-auto w-full min-w-[640px]"
+      style={{ maxWidth: width * 1.15 }}
+      aria-hidden="true"
+      focusable="false"
+    >
       <defs>
-        <marker id="consort-arrow" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="7" markerHeight="7" orient="auto-start-reverse">
+        <marker
+          id="consort-arrow"
+          viewBox="0 0 10 10"
+          refX="9"
+          refY="5"
+          markerWidth="7"
+          markerHeight="7"
+          orient="auto-start-reverse"
+        >
           <path d="M0 0 10 5 0 10z" fill="var(--color-ink-muted)" />
         </marker>
       </defs>
@@ -166,8 +246,22 @@ export function ConsortFlow({ flow, svgRef }: { flow: ConsortFlow; svgRef?: Ref<
 
       {arms.length > 0 && (
         <>
-          <line x1={centre} y1={enrollmentBottom} x2={centre} y2={branchY} stroke="var(--color-ink-muted)" strokeWidth={1.25} />
-          <line x1={armX(0) + armWidth / 2} y1={branchY} x2={armX(arms.length - 1) + armWidth / 2} y2={branchY} stroke="var(--color-ink-muted)" strokeWidth={1.25} />
+          <line
+            x1={centre}
+            y1={enrollmentBottom}
+            x2={centre}
+            y2={branchY}
+            stroke="var(--color-ink-muted)"
+            strokeWidth={1.25}
+          />
+          <line
+            x1={armX(0) + armWidth / 2}
+            y1={branchY}
+            x2={armX(arms.length - 1) + armWidth / 2}
+            y2={branchY}
+            stroke="var(--color-ink-muted)"
+            strokeWidth={1.25}
+          />
         </>
       )}
       {arms.map((arm, index) => {
@@ -204,16 +298,19 @@ export function ConsortFlowText({ flow }: { flow: ConsortFlow }) {
   return (
     <ol className="sr-only" aria-label="Participant flow, as text">
       <li>
-        Enrollment: {flow.assessedForEligibility} assessed for eligibility; {flow.excludedBeforeRandomization.total} excluded before randomization
-        {reasons(flow.excludedBeforeRandomization)}; {flow.awaitingRandomization.total} not yet randomized; {flow.randomized} randomized.
+        Enrollment: {flow.assessedForEligibility} assessed for eligibility; {flow.excludedBeforeRandomization.total}{' '}
+        excluded before randomization
+        {reasons(flow.excludedBeforeRandomization)}; {flow.awaitingRandomization.total} not yet randomized;{' '}
+        {flow.randomized} randomized.
       </li>
       {flow.arms.map((arm) => (
         <li key={arm.conditionId}>
-          Condition {arm.name}: {arm.allocated} allocated; {arm.stillInFollowUp} still in follow-up; {arm.withdrew.total} withdrew
+          Condition {arm.name}: {arm.allocated} allocated; {arm.stillInFollowUp} still in follow-up;{' '}
+          {arm.withdrew.total} withdrew
           {reasons(arm.withdrew)}; {arm.lostToFollowUp.total} lost to follow-up{reasons(arm.lostToFollowUp)};{' '}
           {arm.excludedAfterRandomization.total} excluded after randomization{reasons(arm.excludedAfterRandomization)};
-          {arm.incompleteAtClose > 0 ? ` ${arm.incompleteAtClose} did not complete by the close;` : ''} {arm.analysed} analysed by intention to treat, of
-          whom {arm.completers} completed.
+          {arm.incompleteAtClose > 0 ? ` ${arm.incompleteAtClose} did not complete by the close;` : ''} {arm.analysed}{' '}
+          analysed by intention to treat, of whom {arm.completers} completed.
         </li>
       ))}
     </ol>

@@ -14,7 +14,9 @@ function Difference({ difference }: { difference: Difference }) {
         <span className="tabular-nums">{d.toFixed(2)}</span>
         {imbalanced && <Badge tone="caution">beyond chance</Badge>}
       </span>
-      {chanceRange !== null && <span className="text-2xs text-ink-muted tabular-nums">chance ±{chanceRange.toFixed(2)}</span>}
+      {chanceRange !== null && (
+        <span className="text-2xs text-ink-muted tabular-nums">chance ±{chanceRange.toFixed(2)}</span>
+      )}
     </span>
   );
 }
@@ -40,7 +42,11 @@ function VarianceRatio({ difference }: { difference: Difference }) {
 export function CovariateBalanceTable({ report }: { report: AttritionReport }) {
   const names = new Map(report.conditions.map((condition) => [condition.conditionId, condition.name]));
   if (report.covariateBalance.length === 0) {
-    return <EmptyState title="No covariates to compare">The study records no numeric or categorical covariates, or nobody has been randomized yet.</EmptyState>;
+    return (
+      <EmptyState title="No covariates to compare">
+        The study records no numeric or categorical covariates, or nobody has been randomized yet.
+      </EmptyState>
+    );
   }
   return (
     <div className="flex flex-col gap-2">
@@ -49,11 +55,21 @@ export function CovariateBalanceTable({ report }: { report: AttritionReport }) {
           <caption className="sr-only">Standardized mean differences per covariate</caption>
           <thead>
             <tr>
-              <th scope="col" className={tableRecipe.headCell}>Covariate</th>
-              <th scope="col" className={tableRecipe.headCell}>Comparison</th>
-              <th scope="col" className={`${tableRecipe.headCell} text-right`}>All randomized</th>
-              <th scope="col" className={`${tableRecipe.headCell} text-right`}>Completers</th>
-              <th scope="col" className={`${tableRecipe.headCell} text-right`}>Variance ratio</th>
+              <th scope="col" className={tableRecipe.headCell}>
+                Covariate
+              </th>
+              <th scope="col" className={tableRecipe.headCell}>
+                Comparison
+              </th>
+              <th scope="col" className={`${tableRecipe.headCell} text-right`}>
+                All randomized
+              </th>
+              <th scope="col" className={`${tableRecipe.headCell} text-right`}>
+                Completers
+              </th>
+              <th scope="col" className={`${tableRecipe.headCell} text-right`}>
+                Variance ratio
+              </th>
             </tr>
           </thead>
           <tbody>
@@ -80,10 +96,11 @@ export function CovariateBalanceTable({ report }: { report: AttritionReport }) {
         </table>
       </div>
       <p className="text-xs text-ink-muted">
-        Standardized mean differences (Austin 2009). A difference is flagged only beyond the range that re-randomizing the same people produces 95% of
-        the time (its permutation distribution) — the usual |d| ≥ 0.1 convention would fire by chance most of the time in a small study. Variance
-        ratios (all randomized) are flagged outside their 95% range under equal variances (F distribution). With many rows, about one in twenty
-        still crosses by chance. A covariate balanced among all randomized but not among completers suggests dropout is selective.
+        Standardized mean differences (Austin 2009). A difference is flagged only beyond the range that re-randomizing
+        the same people produces 95% of the time (its permutation distribution) — the usual |d| ≥ 0.1 convention would
+        fire by chance most of the time in a small study. Variance ratios (all randomized) are flagged outside their 95%
+        range under equal variances (F distribution). With many rows, about one in twenty still crosses by chance. A
+        covariate balanced among all randomized but not among completers suggests dropout is selective.
       </p>
     </div>
   );

@@ -6,7 +6,14 @@ import { formatShare, hazardRatioSentence, logRankSentence } from '../utils/watc
 /** Follow-up is exact (fractions of a day); shown with two decimals. */
 const formatDay = (day: number) => day.toFixed(2);
 
-const palette = ['var(--color-spruce)', 'var(--color-ochre)', 'var(--color-danger)', 'var(--color-success)', 'var(--color-caution)', 'var(--color-ink-muted)'];
+const palette = [
+  'var(--color-spruce)',
+  'var(--color-ochre)',
+  'var(--color-danger)',
+  'var(--color-success)',
+  'var(--color-caution)',
+  'var(--color-ink-muted)',
+];
 const dashes = [undefined, '6 3', '2 3', '8 3 2 3', '1 2', '4 4'];
 
 export function DropoutCurves({ report }: { report: AttritionReport }) {
@@ -20,12 +27,23 @@ export function DropoutCurves({ report }: { report: AttritionReport }) {
     median: curve.median,
   }));
   const logRank = report.survival.logRank;
-  const summary = curves.map((curve) => `${curve.name}: ${formatShare(curve.steps.at(-1)?.survival)} still in at day ${formatDay(curve.steps.at(-1)?.time ?? 0)}`).join('; ');
+  const summary = curves
+    .map(
+      (curve) =>
+        `${curve.name}: ${formatShare(curve.steps.at(-1)?.survival)} still in at day ${formatDay(curve.steps.at(-1)?.time ?? 0)}`,
+    )
+    .join('; ');
 
   return (
     <figure className="flex flex-col gap-2">
-      <figcaption className="text-sm font-semibold">Share not dropped out, by days since assignment (Kaplan–Meier)</figcaption>
-      <div role="img" aria-label={`Step chart of the share not dropped out per condition. ${summary}.`} className="h-72 w-full">
+      <figcaption className="text-sm font-semibold">
+        Share not dropped out, by days since assignment (Kaplan–Meier)
+      </figcaption>
+      <div
+        role="img"
+        aria-label={`Step chart of the share not dropped out per condition. ${summary}.`}
+        className="h-72 w-full"
+      >
         <ResponsiveContainer width="100%" height="100%">
           <LineChart margin={{ top: 8, right: 16, bottom: 16, left: 0 }}>
             <CartesianGrid stroke="var(--color-line)" strokeDasharray="3 3" />
@@ -35,9 +53,20 @@ export function DropoutCurves({ report }: { report: AttritionReport }) {
               domain={[0, 'dataMax']}
               allowDecimals={false}
               tick={{ fontSize: 11, fill: 'var(--color-ink-muted)' }}
-              label={{ value: 'Days since assignment', position: 'insideBottom', offset: -10, fontSize: 11, fill: 'var(--color-ink-muted)' }}
+              label={{
+                value: 'Days since assignment',
+                position: 'insideBottom',
+                offset: -10,
+                fontSize: 11,
+                fill: 'var(--color-ink-muted)',
+              }}
             />
-            <YAxis domain={[0, 1]} tickFormatter={(value: number) => `${Math.round(value * 100)}%`} tick={{ fontSize: 11, fill: 'var(--color-ink-muted)' }} width={42} />
+            <YAxis
+              domain={[0, 1]}
+              tickFormatter={(value: number) => `${Math.round(value * 100)}%`}
+              tick={{ fontSize: 11, fill: 'var(--color-ink-muted)' }}
+              width={42}
+            />
             <Tooltip
               labelFormatter={(value) => `Day ${formatDay(Number(value))}`}
               formatter={(value) => formatShare(Number(value))}
@@ -68,28 +97,42 @@ export function DropoutCurves({ report }: { report: AttritionReport }) {
       </p>
       <p className="text-sm text-ink" data-testid="median-dropout">
         Median time to dropout:{' '}
-        {curves.map((curve) => `${curve.name} ${curve.median === null ? 'not reached (fewer than half dropped out)' : `${formatDay(curve.median)} days`}`).join('; ')}.
+        {curves
+          .map(
+            (curve) =>
+              `${curve.name} ${curve.median === null ? 'not reached (fewer than half dropped out)' : `${formatDay(curve.median)} days`}`,
+          )
+          .join('; ')}
+        .
       </p>
       <div className="text-sm text-ink" data-testid="hazard-ratios">
         <p>
-          Cox proportional-hazards model, each condition against condition {names.get(report.survival.cox.comparisonConditionId) ?? '?'} (hazard of dropping out;
-          above 1 means people leave sooner):
+          Cox proportional-hazards model, each condition against condition{' '}
+          {names.get(report.survival.cox.comparisonConditionId) ?? '?'} (hazard of dropping out; above 1 means people
+          leave sooner):
         </p>
         <ul className="list-disc pl-5">
           {report.survival.cox.hazardRatios.map((ratio) => (
             <li key={ratio.conditionId}>
-              {hazardRatioSentence(ratio, names.get(ratio.conditionId) ?? '?', names.get(report.survival.cox.comparisonConditionId) ?? '?')}
+              {hazardRatioSentence(
+                ratio,
+                names.get(ratio.conditionId) ?? '?',
+                names.get(report.survival.cox.comparisonConditionId) ?? '?',
+              )}
             </li>
           ))}
         </ul>
         <p className="text-xs text-ink-muted">
-          Fitted by Newton–Raphson on the partial likelihood; tied dropout times use {report.survival.cox.ties === 'efron' ? "Efron's" : "Breslow's"} method;
-          95% Wald intervals on the log scale. It assumes the ratio stays the same over time: when the curves cross, read the curves instead.
+          Fitted by Newton–Raphson on the partial likelihood; tied dropout times use{' '}
+          {report.survival.cox.ties === 'efron' ? "Efron's" : "Breslow's"} method; 95% Wald intervals on the log scale.
+          It assumes the ratio stays the same over time: when the curves cross, read the curves instead.
         </p>
       </div>
       <p className="text-xs text-ink-muted">
-        Follow-up times are exact (fractions of a day), not rounded to whole days. Completers are censored at completion, active participants at {new Date(report.survival.censoredAt).toLocaleString()}. Bands ({Math.round((report.survival.curves[0]?.confidenceLevel ?? 0.95) * 100)}%,
-        Greenwood) are listed in the table below.
+        Follow-up times are exact (fractions of a day), not rounded to whole days. Completers are censored at
+        completion, active participants at {new Date(report.survival.censoredAt).toLocaleString()}. Bands (
+        {Math.round((report.survival.curves[0]?.confidenceLevel ?? 0.95) * 100)}%, Greenwood) are listed in the table
+        below.
       </p>
       <details className="text-sm">
         <summary className="cursor-pointer font-medium text-spruce-ink">Curve values as a table</summary>
@@ -98,11 +141,21 @@ export function DropoutCurves({ report }: { report: AttritionReport }) {
             <caption className="text-left font-semibold">{curve.name}</caption>
             <thead>
               <tr className="text-ink-muted">
-                <th scope="col" className="text-left">Day</th>
-                <th scope="col" className="text-right">At risk</th>
-                <th scope="col" className="text-right">Dropouts</th>
-                <th scope="col" className="text-right">Still in</th>
-                <th scope="col" className="text-right">95% band</th>
+                <th scope="col" className="text-left">
+                  Day
+                </th>
+                <th scope="col" className="text-right">
+                  At risk
+                </th>
+                <th scope="col" className="text-right">
+                  Dropouts
+                </th>
+                <th scope="col" className="text-right">
+                  Still in
+                </th>
+                <th scope="col" className="text-right">
+                  95% band
+                </th>
               </tr>
             </thead>
             <tbody>
@@ -113,7 +166,9 @@ export function DropoutCurves({ report }: { report: AttritionReport }) {
                   <td className="text-right tabular-nums">{step.events}</td>
                   <td className="text-right tabular-nums">{formatShare(step.survival)}</td>
                   <td className="text-right tabular-nums">
-                    {step.lower === null || step.upper === null ? '—' : `${formatShare(step.lower)}–${formatShare(step.upper)}`}
+                    {step.lower === null || step.upper === null
+                      ? '—'
+                      : `${formatShare(step.lower)}–${formatShare(step.upper)}`}
                   </td>
                 </tr>
               ))}

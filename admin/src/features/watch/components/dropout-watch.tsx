@@ -74,7 +74,8 @@ export function DropoutWatch({ studyId, canEditAlerts, canExport }: DropoutWatch
       <div className="flex flex-col gap-5">
         {header}
         <EmptyState title="Nobody randomized yet">
-          The dropout watch fills in once participants are assigned to conditions. {data.flow.assessedForEligibility} have joined so far.
+          The dropout watch fills in once participants are assigned to conditions. {data.flow.assessedForEligibility}{' '}
+          have joined so far.
         </EmptyState>
         {cautions}
       </div>
@@ -86,17 +87,33 @@ export function DropoutWatch({ studyId, canEditAlerts, canExport }: DropoutWatch
       {header}
       {cautions}
 
-      <Panel id="verdict" title="Attrition against the WWC boundaries" description="What Works Clearinghouse attrition standard, under both boundaries.">
-        <WwcVerdicts report={data} comparisonConditionId={comparisonConditionId} onComparisonChange={setComparisonConditionId} />
+      <Panel
+        id="verdict"
+        title="Attrition against the WWC boundaries"
+        description="What Works Clearinghouse attrition standard, under both boundaries."
+      >
+        <WwcVerdicts
+          report={data}
+          comparisonConditionId={comparisonConditionId}
+          onComparisonChange={setComparisonConditionId}
+        />
       </Panel>
 
-      <Panel id="flow" title="Participant flow" description="CONSORT 2010-style: enrollment, allocation, follow-up and analysis, with counts and reasons.">
+      <Panel
+        id="flow"
+        title="Participant flow"
+        description="CONSORT 2010-style: enrollment, allocation, follow-up and analysis, with counts and reasons."
+      >
         <FlowDiagram flow={data.flow} fileStem={`participant-flow-${studyId}`} />
       </Panel>
 
       <Panel id="conditions" title="By condition" description={data.windowRule}>
         <div className="flex flex-col gap-3">
-          <ConditionTable conditions={data.conditions} studyClosed={data.studyStatus === 'closed'} plannedLength={data.survival.plannedLength} />
+          <ConditionTable
+            conditions={data.conditions}
+            studyClosed={data.studyStatus === 'closed'}
+            plannedLength={data.survival.plannedLength}
+          />
           <RateDefinitions countingRule={data.countingRule} />
           <p className="text-xs text-ink-muted" data-testid="planned-length">
             {plannedLengthExplanation(data.survival.plannedLength)}
@@ -128,13 +145,26 @@ export function DropoutWatch({ studyId, canEditAlerts, canExport }: DropoutWatch
         <ContactsByCondition report={data} />
       </Panel>
 
-      <Panel id="balance" title="Covariate balance" description={comparisonName ? `Each condition against condition ${comparisonName}.` : undefined}>
+      <Panel
+        id="balance"
+        title="Covariate balance"
+        description={comparisonName ? `Each condition against condition ${comparisonName}.` : undefined}
+      >
         <CovariateBalanceTable report={data} />
       </Panel>
 
-      <Panel id="alerts" title="Alert thresholds" description="The study's researchers get one e-mail each time a threshold is crossed, with a link to this screen.">
+      <Panel
+        id="alerts"
+        title="Alert thresholds"
+        description="The study's researchers get one e-mail each time a threshold is crossed, with a link to this screen."
+      >
         {alerts.isError ? (
-          <ErrorState message={alerts.error instanceof ApiError ? alerts.error.message : 'The alert thresholds could not be loaded.'} onRetry={() => void alerts.refetch()} />
+          <ErrorState
+            message={
+              alerts.error instanceof ApiError ? alerts.error.message : 'The alert thresholds could not be loaded.'
+            }
+            onRetry={() => void alerts.refetch()}
+          />
         ) : !alerts.data ? (
           <LoadingState label="Loading the alert thresholds…" />
         ) : (

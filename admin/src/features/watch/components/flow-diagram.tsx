@@ -12,7 +12,10 @@ export function FlowDiagram({ flow, fileStem }: { flow: ConsortFlowData; fileSte
     if (!svg.current) return;
     setProblem(null);
     if (kind === 'svg') downloadSvg(svg.current, `${fileStem}.svg`);
-    else downloadPng(svg.current, `${fileStem}.png`).catch((error: unknown) => setProblem(error instanceof Error ? error.message : 'The image could not be made.'));
+    else
+      downloadPng(svg.current, `${fileStem}.png`).catch((error: unknown) =>
+        setProblem(error instanceof Error ? error.message : 'The image could not be made.'),
+      );
   };
   return (
     <div className="flex flex-col gap-2">
@@ -31,8 +34,8 @@ export function FlowDiagram({ flow, fileStem }: { flow: ConsortFlowData; fileSte
         <ConsortFlowText flow={flow} />
       </figure>
       <p className="text-xs text-ink-muted">
-        Analysed by intention to treat counts everyone allocated, whatever happened to them; the completers beside it are those with complete outcome
-        data. How missing outcomes are handled is the analysis plan's decision.
+        Analysed by intention to treat counts everyone allocated, whatever happened to them; the completers beside it
+        are those with complete outcome data. How missing outcomes are handled is the analysis plan's decision.
       </p>
     </div>
   );

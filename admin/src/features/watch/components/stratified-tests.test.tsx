@@ -35,9 +35,17 @@ describe('StratifiedTests', () => {
       />,
     );
     const strata = screen.getByRole('list', { name: 'Randomization strata' });
-    expect(within(strata).getAllByRole('listitem').map((item) => item.textContent)).toEqual(['age <30', 'age ≥30']);
-    expect(screen.getByTestId('stratified-tests')).toHaveTextContent('Cochran–Mantel–Haenszel test of dropout by condition within strata: χ²(1) = 5.01, p = 0.025.');
-    expect(screen.getByTestId('stratified-tests')).toHaveTextContent('Stratified log-rank test of time to dropout within strata: χ²(1) = 6.50, p = 0.011.');
+    expect(
+      within(strata)
+        .getAllByRole('listitem')
+        .map((item) => item.textContent),
+    ).toEqual(['age <30', 'age ≥30']);
+    expect(screen.getByTestId('stratified-tests')).toHaveTextContent(
+      'Cochran–Mantel–Haenszel test of dropout by condition within strata: χ²(1) = 5.01, p = 0.025.',
+    );
+    expect(screen.getByTestId('stratified-tests')).toHaveTextContent(
+      'Stratified log-rank test of time to dropout within strata: χ²(1) = 6.50, p = 0.011.',
+    );
     expect(screen.getByText(/A 3 vs 6\.3, B 9 vs 5\.8/)).toBeInTheDocument();
     expect(screen.getByText(/Screening aids, not the study's analysis/)).toBeInTheDocument();
   });

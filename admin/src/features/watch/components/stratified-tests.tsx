@@ -28,12 +28,16 @@ export function StratifiedTests({ report }: { report: AttritionReport }) {
       {stratified.logRank && stratified.logRank.statistic !== null && (
         <p className="text-ink">
           Dropouts observed vs expected within strata:{' '}
-          {stratified.logRank.groups.map((group) => `${names.get(group.conditionId) ?? '?'} ${group.observed} vs ${group.expected.toFixed(1)}`).join(', ')}.
+          {stratified.logRank.groups
+            .map((group) => `${names.get(group.conditionId) ?? '?'} ${group.observed} vs ${group.expected.toFixed(1)}`)
+            .join(', ')}
+          .
         </p>
       )}
       <p className="text-xs text-ink-muted">
-        Both tests compare the conditions within each stratum and then combine the strata, so a difference that comes only from a different mix of
-        strata does not count. They count people still active the same way as every other panel. Screening aids, not the study&apos;s analysis.
+        Both tests compare the conditions within each stratum and then combine the strata, so a difference that comes
+        only from a different mix of strata does not count. They count people still active the same way as every other
+        panel. Screening aids, not the study&apos;s analysis.
       </p>
     </div>
   );

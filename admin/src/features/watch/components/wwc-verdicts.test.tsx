@@ -31,48 +31,96 @@ function pair(
 
 const severity = ['low-attrition', 'not-computable', 'outside-published-range', 'high-attrition'];
 const worst = (pairs: WwcPair[], side: 'cautious' | 'optimistic') =>
-  [...pairs].sort((x, y) => severity.indexOf(y[side].verdict) - severity.indexOf(x[side].verdict) || (y.differentialAttritionRate ?? 0) - (x.differentialAttritionRate ?? 0))[0] ?? null;
+  [...pairs].sort(
+    (x, y) =>
+      severity.indexOf(y[side].verdict) - severity.indexOf(x[side].verdict) ||
+      (y.differentialAttritionRate ?? 0) - (x.differentialAttritionRate ?? 0),
+  )[0] ?? null;
 
-function report(pairs: WwcPair[], cautious: string, optimistic: string, names = ['A', 'B'], allPairs = pairs): AttritionReport {
+function report(
+  pairs: WwcPair[],
+  cautious: string,
+  optimistic: string,
+  names = ['A', 'B'],
+  allPairs = pairs,
+): AttritionReport {
   return {
     conditions: names.map((name, index) => ({ conditionId: String.fromCharCode(97 + index), name })),
-    wwc: { comparisonConditionId: 'a', cautious, optimistic, pairs, allPairs, worstPair: { cautious: worst(allPairs, 'cautious'), optimistic: worst(allPairs, 'optimistic') } },
+    wwc: {
+      comparisonConditionId: 'a',
+      cautious,
+      optimistic,
+      pairs,
+      allPairs,
+      worstPair: { cautious: worst(allPairs, 'cautious'), optimistic: worst(allPairs, 'optimistic') },
+    },
     wwcRowRule: 'A rate between two rows is judged on the stricter of the two.',
-    overall: { randomized: 40, dropped: 10, dropoutRateSoFar: 0.25, windowEndedRandomized: 30, attrited: 7, attritionRate: 0.24 },
+    overall: {
+      randomized: 40,
+      dropped: 10,
+      dropoutRateSoFar: 0.25,
+      windowEndedRandomized: 30,
+      attrited: 7,
+      attritionRate: 0.24,
+    },
     differentialAttrition: pairs[0]?.differentialAttritionRate ?? null,
-    dropoutTest: { method: 'chi-square', statistic: 30.07, df: 2, pValue: 2.954e-7, continuityCorrection: false, tableConditionIds: [], chiSquare: null, fisherExact: null },
+    dropoutTest: {
+      method: 'chi-square',
+      statistic: 30.07,
+      df: 2,
+      pValue: 2.954e-7,
+      continuityCorrection: false,
+      tableConditionIds: [],
+      chiSquare: null,
+      fisherExact: null,
+    },
   } as unknown as AttritionReport;
 }
 
 describe('WwcVerdicts', () => {
   it('headlines the worst of every pair, even one the comparison picker does not show (20 %, 16 %, 24 %)', () => {
     // Against A: 18 % / 4 points and 22 % / 4 points, both low. B vs C: 20 % overall, 8 points: beyond 5.4 (cautious).
-    const view = [pair('b', 18, 0.04, ['low-attrition', 5.7], ['low-attrition', 10.5]), pair('c', 22, 0.04, ['low-attrition', 5.2], ['low-attrition', 9.9])];
+    const view = [
+      pair('b', 18, 0.04, ['low-attrition', 5.7], ['low-attrition', 10.5]),
+      pair('c', 22, 0.04, ['low-attrition', 5.2], ['low-attrition', 9.9]),
+    ];
     const everyPair = [...view, pair('b', 20, 0.08, ['high-attrition', 5.4], ['low-attrition', 10.2], 'c')];
     const data = report(view, 'high-attrition', 'low-attrition', ['A', 'B', 'C'], everyPair);
     renderWithProviders(<WwcVerdicts report={data} comparisonConditionId={null} onComparisonChange={() => {}} />);
     expect(screen.getByText('Differential dropout is beyond the cautious WWC boundary')).toBeInTheDocument();
-    expect(screen.getByTestId('worst-pair-cautious')).toHaveTextContent(/B vs C: Overall attrition 20\.0%, differential 8\.0 points; at 20% overall the boundary tolerates up to 5\.4 points/);
+    expect(screen.getByTestId('worst-pair-cautious')).toHaveTextContent(
+      /B vs C: Overall attrition 20\.0%, differential 8\.0 points; at 20% overall the boundary tolerates up to 5\.4 points/,
+    );
     expect(screen.getByRole('list', { name: 'Every pair' })).toHaveTextContent(/B vs C/);
     expect(screen.getByText(/judged on the stricter of the two/)).toBeInTheDocument();
   });
 
   it('says beyond the cautious and within the optimistic boundary, with the numbers', () => {
     // 7.3 points at 24% overall: above 4.9 (cautious), below 9.5 (optimistic).
-    const data = report([pair('b', 24, 0.073, ['high-attrition', 4.9], ['low-attrition', 9.5])], 'high-attrition', 'low-attrition');
+    const data = report(
+      [pair('b', 24, 0.073, ['high-attrition', 4.9], ['low-attrition', 9.5])],
+      'high-attrition',
+      'low-attrition',
+    );
     renderWithProviders(<WwcVerdicts report={data} comparisonConditionId={null} onComparisonChange={() => {}} />);
     expect(screen.getByText('Differential dropout is beyond the cautious WWC boundary')).toBeInTheDocument();
     expect(screen.getByText('Differential dropout is within the optimistic WWC boundary')).toBeInTheDocument();
     expect(screen.getByText(/at 24% overall the boundary tolerates up to 4\.9 points/)).toBeInTheDocument();
     expect(screen.getByText(/at 24% overall the boundary tolerates up to 9\.5 points/)).toBeInTheDocument();
-    expect(screen.getByTestId('dropout-test')).toHaveTextContent('without continuity correction: χ²(2) = 30.07, p < 0.001');
+    expect(screen.getByTestId('dropout-test')).toHaveTextContent(
+      'without continuity correction: χ²(2) = 30.07, p < 0.001',
+    );
     // Two conditions: no picker.
     expect(screen.queryByText('Compare the others with')).not.toBeInTheDocument();
   });
 
   it('says within both when the difference is under both lines', () => {
     // 1.0 point at 45% overall: below 1.8 and 5.1.
-    const data = report([pair('b', 45, 0.01, ['low-attrition', 1.8], ['low-attrition', 5.1])], 'low-attrition', 'low-attrition');
+    const data = report(
+      [pair('b', 45, 0.01, ['low-attrition', 1.8], ['low-attrition', 5.1])],
+      'low-attrition',
+      'low-attrition',
+    );
     renderWithProviders(<WwcVerdicts report={data} comparisonConditionId={null} onComparisonChange={() => {}} />);
     expect(screen.getByText('Differential dropout is within the cautious WWC boundary')).toBeInTheDocument();
     expect(screen.getByText('Differential dropout is within the optimistic WWC boundary')).toBeInTheDocument();
@@ -81,13 +129,18 @@ describe('WwcVerdicts', () => {
   it('explains an overall rate outside the published table and offers the comparison picker for three conditions', () => {
     // 70% overall is past the last cautious row (57%) and the last optimistic row of the handbook table.
     const data = report(
-      [pair('b', 24, 0.02, ['low-attrition', 4.9], ['low-attrition', 9.5]), pair('c', null, 0.5, ['outside-published-range', null], ['outside-published-range', null])],
+      [
+        pair('b', 24, 0.02, ['low-attrition', 4.9], ['low-attrition', 9.5]),
+        pair('c', null, 0.5, ['outside-published-range', null], ['outside-published-range', null]),
+      ],
       'outside-published-range',
       'outside-published-range',
       ['A', 'B', 'C'],
     );
     renderWithProviders(<WwcVerdicts report={data} comparisonConditionId={null} onComparisonChange={() => {}} />);
-    expect(screen.getByText('Overall attrition is outside the range the cautious WWC boundary covers')).toBeInTheDocument();
+    expect(
+      screen.getByText('Overall attrition is outside the range the cautious WWC boundary covers'),
+    ).toBeInTheDocument();
     expect(screen.getAllByText(/published table stops before this overall rate/)).toHaveLength(2);
     expect(screen.getByText('Compare the others with')).toBeInTheDocument();
     expect(screen.getByRole('button', { name: /Compare the others with/ })).toHaveTextContent('Condition A');

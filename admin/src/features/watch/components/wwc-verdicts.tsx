@@ -13,15 +13,32 @@ import {
   type WwcVerdict,
 } from '../utils/watch-format';
 
-const tone = (verdict: WwcVerdict) => (verdict === 'low-attrition' ? 'success' : verdict === 'not-computable' ? 'neutral' : 'danger');
+const tone = (verdict: WwcVerdict) =>
+  verdict === 'low-attrition' ? 'success' : verdict === 'not-computable' ? 'neutral' : 'danger';
 const badgeText = (verdict: WwcVerdict) =>
-  verdict === 'low-attrition' ? 'Low attrition' : verdict === 'high-attrition' ? 'High attrition' : verdict === 'not-computable' ? 'Not yet' : 'Outside the table';
+  verdict === 'low-attrition'
+    ? 'Low attrition'
+    : verdict === 'high-attrition'
+      ? 'High attrition'
+      : verdict === 'not-computable'
+        ? 'Not yet'
+        : 'Outside the table';
 
 function pairName(pair: WwcPair, names: Map<string, string>): string {
   return `${names.get(pair.conditionId) ?? '?'} vs ${names.get(pair.comparisonConditionId) ?? '?'}`;
 }
 
-function VerdictCard({ boundary, verdict, pair, names }: { boundary: WwcBoundary; verdict: WwcVerdict; pair: WwcPair | null; names: Map<string, string> }) {
+function VerdictCard({
+  boundary,
+  verdict,
+  pair,
+  names,
+}: {
+  boundary: WwcBoundary;
+  verdict: WwcVerdict;
+  pair: WwcPair | null;
+  names: Map<string, string>;
+}) {
   const side = pair ? pair[boundary] : undefined;
   return (
     <div className="flex flex-col gap-1 rounded-md border border-line bg-canvas px-3 py-2.5">
@@ -48,11 +65,12 @@ function PairLine({ pair, names }: { pair: WwcPair; names: Map<string, string> }
   const ratio = pair.riskRatio;
   return (
     <li>
-      <span className="font-semibold">{pairName(pair, names)}</span>: overall {formatShare(pair.overallAttritionRate)}, differential{' '}
-      {formatPoints(pair.differentialAttritionRate)} (95% CI of {names.get(pair.conditionId) ?? '?'} − {names.get(pair.comparisonConditionId) ?? '?'}:{' '}
-      {formatPointsInterval(pair.differenceInterval)}
-      {ratio ? `; risk ratio ${ratio.estimate.toFixed(2)}, ${ratio.lower.toFixed(2)}–${ratio.upper.toFixed(2)}` : ''}) — cautious{' '}
-      {badgeText(asWwcVerdict(pair.cautious.verdict)).toLowerCase()}, optimistic {badgeText(asWwcVerdict(pair.optimistic.verdict)).toLowerCase()}
+      <span className="font-semibold">{pairName(pair, names)}</span>: overall {formatShare(pair.overallAttritionRate)},
+      differential {formatPoints(pair.differentialAttritionRate)} (95% CI of {names.get(pair.conditionId) ?? '?'} −{' '}
+      {names.get(pair.comparisonConditionId) ?? '?'}: {formatPointsInterval(pair.differenceInterval)}
+      {ratio ? `; risk ratio ${ratio.estimate.toFixed(2)}, ${ratio.lower.toFixed(2)}–${ratio.upper.toFixed(2)}` : ''}) —
+      cautious {badgeText(asWwcVerdict(pair.cautious.verdict)).toLowerCase()}, optimistic{' '}
+      {badgeText(asWwcVerdict(pair.optimistic.verdict)).toLowerCase()}
     </li>
   );
 }
@@ -78,7 +96,8 @@ export function WwcVerdicts({ report, comparisonConditionId, onComparisonChange 
       </div>
       {many && (
         <p className="max-w-prose text-xs text-ink-muted">
-          With more than two conditions every pair is judged; each headline is the least favourable pair, whichever condition you compare with below.
+          With more than two conditions every pair is judged; each headline is the least favourable pair, whichever
+          condition you compare with below.
         </p>
       )}
       {report.wwc.allPairs.length > 0 && (
@@ -95,7 +114,10 @@ export function WwcVerdicts({ report, comparisonConditionId, onComparisonChange 
             label="Compare the others with"
             value={comparisonId ?? undefined}
             onChange={onComparisonChange}
-            options={report.conditions.map((condition) => ({ value: condition.conditionId, label: `Condition ${condition.name}` }))}
+            options={report.conditions.map((condition) => ({
+              value: condition.conditionId,
+              label: `Condition ${condition.name}`,
+            }))}
           />
           <ul className="flex flex-col gap-0.5 text-sm text-ink" aria-label="Each pair">
             {report.wwc.pairs.map((pair) => (
@@ -105,9 +127,10 @@ export function WwcVerdicts({ report, comparisonConditionId, onComparisonChange 
         </div>
       )}
       <p className="text-sm text-ink">
-        <span className="font-semibold">Overall attrition</span> {formatShare(report.overall.attritionRate)} ({report.overall.attrited} of{' '}
-        {report.overall.windowEndedRandomized} whose window has ended) · <span className="font-semibold">differential</span>{' '}
-        {formatPoints(report.differentialAttrition)} (largest minus smallest condition)
+        <span className="font-semibold">Overall attrition</span> {formatShare(report.overall.attritionRate)} (
+        {report.overall.attrited} of {report.overall.windowEndedRandomized} whose window has ended) ·{' '}
+        <span className="font-semibold">differential</span> {formatPoints(report.differentialAttrition)} (largest minus
+        smallest condition)
       </p>
       <p className="text-xs text-ink-muted">
         <span className="font-semibold text-ink">Table row.</span> {report.wwcRowRule}

@@ -6,12 +6,16 @@ import { saveBlob } from '@/lib/save-blob';
 const VARIABLE = /var\((--[\w-]+)\)/g;
 
 /** The diagram as a standalone SVG document, colours resolved, on a white background. */
-export function standaloneSvg(svg: SVGSVGElement, styles: Pick<CSSStyleDeclaration, 'getPropertyValue'> = getComputedStyle(document.documentElement)): string {
+export function standaloneSvg(
+  svg: SVGSVGElement,
+  styles: Pick<CSSStyleDeclaration, 'getPropertyValue'> = getComputedStyle(document.documentElement),
+): string {
   const copy = svg.cloneNode(true) as SVGSVGElement;
   copy.removeAttribute('class');
   copy.removeAttribute('style');
   copy.setAttribute('xmlns', 'http://www.w3.org/2000/svg');
-  const resolve = (value: string) => value.replace(VARIABLE, (_, name: string) => styles.getPropertyValue(name).trim() || '#000');
+  const resolve = (value: string) =>
+    value.replace(VARIABLE, (_, name: string) => styles.getPropertyValue(name).trim() || '#000');
   for (const element of [copy, ...Array.from(copy.querySelectorAll('*'))]) {
     for (const attribute of Array.from(element.attributes)) {
       if (attribute.value.includes('var(')) element.setAttribute(attribute.name, resolve(attribute.value));

@@ -11,7 +11,14 @@ const sixMp: KaplanMeierPoint[] = [
   [16, 0.6275, 11, 1],
   [22, 0.5378, 7, 1],
   [23, 0.4482, 6, 1],
-].map(([time, survival, atRisk, events]) => ({ time: time!, survival: survival!, lower: null, upper: null, atRisk: atRisk!, events: events! }));
+].map(([time, survival, atRisk, events]) => ({
+  time: time!,
+  survival: survival!,
+  lower: null,
+  upper: null,
+  atRisk: atRisk!,
+  events: events!,
+}));
 
 describe('toStepPoints', () => {
   it('starts at 1 on day 0 and keeps every published step', () => {

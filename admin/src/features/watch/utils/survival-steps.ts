@@ -24,11 +24,15 @@ export interface StepPoint {
  */
 export function toStepPoints(points: readonly KaplanMeierPoint[]): StepPoint[] {
   for (const [index, point] of points.entries()) {
-    if (point.survival < 0 || point.survival > 1) throw new RangeError(`points[${index}].survival must be between 0 and 1, got ${point.survival}`);
-    if (index > 0 && point.time < points[index - 1]!.time) throw new RangeError(`points[${index}].time goes back in time (${point.time})`);
+    if (point.survival < 0 || point.survival > 1)
+      throw new RangeError(`points[${index}].survival must be between 0 and 1, got ${point.survival}`);
+    if (index > 0 && point.time < points[index - 1]!.time)
+      throw new RangeError(`points[${index}].time goes back in time (${point.time})`);
   }
   const start: StepPoint = { time: 0, survival: 1, lower: 1, upper: 1, atRisk: points[0]?.atRisk ?? null, events: 0 };
-  const rest = points.filter((point, index) => !(index === 0 && point.time === 0 && point.events === 0 && point.survival === 1));
+  const rest = points.filter(
+    (point, index) => !(index === 0 && point.time === 0 && point.events === 0 && point.survival === 1),
+  );
   return [start, ...rest.map((point) => ({ ...point }))];
 }
 

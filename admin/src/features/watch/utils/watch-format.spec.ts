@@ -46,8 +46,12 @@ describe('WWC verdict wording', () => {
   const row24 = { overallAttritionRate: 0.238, differentialAttritionRate: 0.0727, overallPercentRow: 24 };
 
   it('says within and beyond, naming the boundary', () => {
-    expect(wwcVerdictSentence('low-attrition', 'optimistic')).toBe('Differential dropout is within the optimistic WWC boundary');
-    expect(wwcVerdictSentence('high-attrition', 'cautious')).toBe('Differential dropout is beyond the cautious WWC boundary');
+    expect(wwcVerdictSentence('low-attrition', 'optimistic')).toBe(
+      'Differential dropout is within the optimistic WWC boundary',
+    );
+    expect(wwcVerdictSentence('high-attrition', 'cautious')).toBe(
+      'Differential dropout is beyond the cautious WWC boundary',
+    );
   });
 
   it('gives the numbers behind the verdict', () => {
@@ -58,26 +62,45 @@ describe('WWC verdict wording', () => {
 
   it('explains an overall rate past the published table', () => {
     // Handbook table, cautious column: the last tolerable row is 57% overall (0.0 points); above it there is no row.
-    expect(wwcVerdictSentence('outside-published-range', 'cautious')).toBe('Overall attrition is outside the range the cautious WWC boundary covers');
-    expect(wwcVerdictDetail('outside-published-range', { overallAttritionRate: 0.7, differentialAttritionRate: 0.1, overallPercentRow: null, maxDifferentialPercent: null })).toMatch(
-      /published table stops before this overall rate/,
+    expect(wwcVerdictSentence('outside-published-range', 'cautious')).toBe(
+      'Overall attrition is outside the range the cautious WWC boundary covers',
     );
+    expect(
+      wwcVerdictDetail('outside-published-range', {
+        overallAttritionRate: 0.7,
+        differentialAttritionRate: 0.1,
+        overallPercentRow: null,
+        maxDifferentialPercent: null,
+      }),
+    ).toMatch(/published table stops before this overall rate/);
   });
 });
 
 describe('dropoutTestSentence', () => {
   it('names the chi-square test and the missing continuity correction', () => {
     // Agresti (2007) party identification by gender: X² = 30.070 on 2 df, p = 2.954e-7.
-    expect(dropoutTestSentence({ method: 'chi-square', statistic: 30.07, df: 2, pValue: 2.954e-7, continuityCorrection: false })).toBe(
-      'Chi-square test of independence, without continuity correction: χ²(2) = 30.07, p < 0.001.',
-    );
+    expect(
+      dropoutTestSentence({
+        method: 'chi-square',
+        statistic: 30.07,
+        df: 2,
+        pValue: 2.954e-7,
+        continuityCorrection: false,
+      }),
+    ).toBe('Chi-square test of independence, without continuity correction: χ²(2) = 30.07, p < 0.001.');
   });
 
   it("names Fisher's exact test when it is used", () => {
     // Tea-tasting table: two-sided p = 0.4857.
-    expect(dropoutTestSentence({ method: 'fisher-exact', statistic: null, df: null, pValue: 0.4857, continuityCorrection: false })).toMatch(
-      /^Fisher's exact test .*p = 0\.486\.$/,
-    );
+    expect(
+      dropoutTestSentence({
+        method: 'fisher-exact',
+        statistic: null,
+        df: null,
+        pValue: 0.4857,
+        continuityCorrection: false,
+      }),
+    ).toMatch(/^Fisher's exact test .*p = 0\.486\.$/);
   });
 
   it('leans on the exact r×2 test when expected counts are small with three conditions, and says why', () => {
@@ -93,7 +116,9 @@ describe('dropoutTestSentence', () => {
       chiSquare: { statistic: 6, df: 2, pValue: 0.0498 },
       exact: { method: 'freeman-halton-exact', pValue: 0.0711, replicates: null, standardError: null },
     });
-    expect(sentence).toMatch(/^Freeman–Halton exact test \(used because the smallest expected count, 4\.67, is below 5/);
+    expect(sentence).toMatch(
+      /^Freeman–Halton exact test \(used because the smallest expected count, 4\.67, is below 5/,
+    );
     expect(sentence).toMatch(/p = 0\.071\./);
     expect(sentence).toMatch(/chi-square approximation \(χ²\(2\) = 6\.00, p = 0\.050\) is not relied on/);
   });
@@ -132,14 +157,28 @@ describe('logRankSentence', () => {
 
   it('says when there were too many people to relabel', () => {
     expect(
-      logRankSentence({ statistic: 4.4, df: 1, pValue: 0.036, fewEvents: true, permutation: null, permutationSkipped: 'too-many-participants' }),
+      logRankSentence({
+        statistic: 4.4,
+        df: 1,
+        pValue: 0.036,
+        fewEvents: true,
+        permutation: null,
+        permutationSkipped: 'too-many-participants',
+      }),
     ).toMatch(/too few dropouts for the chi-square approximation/);
   });
 
   it('reads as before with enough dropouts', () => {
-    expect(logRankSentence({ statistic: 12.34, df: 2, pValue: 0.0021, fewEvents: false, permutation: null, permutationSkipped: null })).toBe(
-      'Log-rank test across conditions: χ²(2) = 12.34, p = 0.002.',
-    );
+    expect(
+      logRankSentence({
+        statistic: 12.34,
+        df: 2,
+        pValue: 0.0021,
+        fewEvents: false,
+        permutation: null,
+        permutationSkipped: null,
+      }),
+    ).toBe('Log-rank test across conditions: χ²(2) = 12.34, p = 0.002.');
   });
 });
 
@@ -153,10 +192,15 @@ describe('formatShare', () => {
 describe('welchTestSentence', () => {
   const base = { statistic: null, df1: null, df2: null, pValue: null };
   it('says in words why the test could not be computed', () => {
-    expect(welchTestSentence({ ...base, notComputable: 'no-variation-within-a-condition' }, 'everyone in a condition had the same number of contacts')).toBe(
-      "Welch's test: not computable (everyone in a condition had the same number of contacts).",
-    );
-    expect(welchTestSentence({ ...base, notComputable: 'fewer-than-two-conditions-with-two-or-more-participants' }, 'x')).toMatch(/at least two conditions with two or more/);
+    expect(
+      welchTestSentence(
+        { ...base, notComputable: 'no-variation-within-a-condition' },
+        'everyone in a condition had the same number of contacts',
+      ),
+    ).toBe("Welch's test: not computable (everyone in a condition had the same number of contacts).");
+    expect(
+      welchTestSentence({ ...base, notComputable: 'fewer-than-two-conditions-with-two-or-more-participants' }, 'x'),
+    ).toMatch(/at least two conditions with two or more/);
   });
 
   it('reports F with its degrees of freedom and the p-value', () => {
@@ -168,7 +212,9 @@ describe('welchTestSentence', () => {
 
 describe('stratified tests, hazard ratios and the planned length in words', () => {
   it('says plainly when there are no strata, and names both stratified tests when there are', () => {
-    expect(stratifiedSentences({ strata: ['all'], stratified: false, cmh: null, logRank: null })[0]).toMatch(/^This study has no randomization strata/);
+    expect(stratifiedSentences({ strata: ['all'], stratified: false, cmh: null, logRank: null })[0]).toMatch(
+      /^This study has no randomization strata/,
+    );
     const lines = stratifiedSentences({
       strata: ['age=<30', 'age=≥30'],
       stratified: true,
@@ -183,17 +229,33 @@ describe('stratified tests, hazard ratios and the planned length in words', () =
   });
 
   it('gives the hazard ratio with its interval, or why it cannot be estimated', () => {
-    expect(hazardRatioSentence({ hazardRatio: 2.3149, lower: 1.1, upper: 4.851, pValue: 0.0271, notEstimable: null }, 'B', 'A')).toBe(
-      'B vs A: hazard ratio 2.31 (95% CI 1.10–4.85), Wald p = 0.027.',
-    );
-    expect(hazardRatioSentence({ hazardRatio: null, lower: null, upper: null, pValue: null, notEstimable: 'no-dropouts' }, 'C', 'A')).toMatch(/not estimable \(nobody in it has dropped out/);
+    expect(
+      hazardRatioSentence(
+        { hazardRatio: 2.3149, lower: 1.1, upper: 4.851, pValue: 0.0271, notEstimable: null },
+        'B',
+        'A',
+      ),
+    ).toBe('B vs A: hazard ratio 2.31 (95% CI 1.10–4.85), Wald p = 0.027.');
+    expect(
+      hazardRatioSentence(
+        { hazardRatio: null, lower: null, upper: null, pValue: null, notEstimable: 'no-dropouts' },
+        'C',
+        'A',
+      ),
+    ).toMatch(/not estimable \(nobody in it has dropped out/);
   });
 
   it('shows cumulative dropout at the planned length, or how far follow-up reaches', () => {
     const planned = { days: 14, unknown: null };
-    expect(plannedLengthCell(planned, { cumulative: { cumulative: 0.25, lower: 0.1, upper: 0.4 }, longestFollowUp: 20 })).toBe('25.0% (95% CI 10.0–40.0%)');
-    expect(plannedLengthCell(planned, { cumulative: null, longestFollowUp: 9.25 })).toBe('follow-up reaches day 9.3 so far');
+    expect(
+      plannedLengthCell(planned, { cumulative: { cumulative: 0.25, lower: 0.1, upper: 0.4 }, longestFollowUp: 20 }),
+    ).toBe('25.0% (95% CI 10.0–40.0%)');
+    expect(plannedLengthCell(planned, { cumulative: null, longestFollowUp: 9.25 })).toBe(
+      'follow-up reaches day 9.3 so far',
+    );
     expect(plannedLengthCell({ days: null, unknown: 'no-steps' }, undefined)).toBe('—');
-    expect(plannedLengthExplanation({ days: null, unknown: 'a-step-has-no-due-date' })).toMatch(/some step has no due date/);
+    expect(plannedLengthExplanation({ days: null, unknown: 'a-step-has-no-due-date' })).toMatch(
+      /some step has no due date/,
+    );
   });
 });

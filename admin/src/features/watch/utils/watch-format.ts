@@ -120,7 +120,8 @@ export function dropoutTestSentence(test: DropoutTestFigures): string {
     );
   }
   if (test.method === 'chi-square') {
-    if (test.statistic === null || test.df === null) return 'Chi-square test of dropout by condition: not computable yet (nobody has dropped out, or only one condition has participants).';
+    if (test.statistic === null || test.df === null)
+      return 'Chi-square test of dropout by condition: not computable yet (nobody has dropped out, or only one condition has participants).';
     return `Chi-square test of independence, without continuity correction: χ²(${test.df}) = ${formatStatistic(test.statistic)}, ${formatPValue(test.pValue)}.`;
   }
   throw new Error(`dropoutTest.method: unknown test "${test.method}"`);
@@ -164,7 +165,13 @@ export function formatPointsInterval(interval: { lower: number; upper: number } 
 
 /** Welch's one-way ANOVA in one line, or why it could not be computed, in plain words. */
 export function welchTestSentence(
-  test: { statistic: number | null; df1: number | null; df2: number | null; pValue: number | null; notComputable: string | null },
+  test: {
+    statistic: number | null;
+    df1: number | null;
+    df2: number | null;
+    pValue: number | null;
+    notComputable: string | null;
+  },
   noVariation: string,
 ): string {
   if (test.notComputable === 'no-variation-within-a-condition') return `Welch's test: not computable (${noVariation}).`;
@@ -190,7 +197,12 @@ export function stratumLabel(key: string): string {
 }
 
 /** The two stratified tests, or why there is nothing to stratify by; one sentence each. */
-export function stratifiedSentences(stratified: { strata: string[]; stratified: boolean; cmh: ChiSquareFigures | null; logRank: ChiSquareFigures | null }): string[] {
+export function stratifiedSentences(stratified: {
+  strata: string[];
+  stratified: boolean;
+  cmh: ChiSquareFigures | null;
+  logRank: ChiSquareFigures | null;
+}): string[] {
   if (!stratified.stratified) {
     return [
       stratified.strata.length === 0
@@ -213,12 +225,19 @@ const NOT_ESTIMABLE: Record<string, string> = {
   'no-dropouts': 'nobody in it has dropped out, so the ratio would be 0',
   'comparison-has-no-dropouts': 'nobody in the comparison condition has dropped out',
   'did-not-converge': 'the model did not converge',
-  'infinite-estimate': 'the estimate runs off without bound (dropouts in one condition all fall where the other has none)',
+  'infinite-estimate':
+    'the estimate runs off without bound (dropouts in one condition all fall where the other has none)',
 };
 
 /** One condition's Cox hazard ratio against the comparison, e.g. "B vs A: hazard ratio 2.31 (95% CI 1.10–4.85), p = 0.027". */
 export function hazardRatioSentence(
-  ratio: { hazardRatio: number | null; lower: number | null; upper: number | null; pValue: number | null; notEstimable: string | null },
+  ratio: {
+    hazardRatio: number | null;
+    lower: number | null;
+    upper: number | null;
+    pValue: number | null;
+    notEstimable: string | null;
+  },
   name: string,
   comparisonName: string,
 ): string {
@@ -231,14 +250,23 @@ export function hazardRatioSentence(
 /** What the planned-length column shows for one condition. */
 export function plannedLengthCell(
   planned: { days: number | null; unknown: string | null },
-  condition: { cumulative: { cumulative: number; lower: number | null; upper: number | null } | null; longestFollowUp: number | null } | undefined,
+  condition:
+    | {
+        cumulative: { cumulative: number; lower: number | null; upper: number | null } | null;
+        longestFollowUp: number | null;
+      }
+    | undefined,
 ): string {
   if (planned.days === null) return '—';
   if (!condition || condition.cumulative === null) {
-    return condition?.longestFollowUp === null || condition === undefined ? 'nobody yet' : `follow-up reaches day ${condition.longestFollowUp.toFixed(1)} so far`;
+    return condition?.longestFollowUp === null || condition === undefined
+      ? 'nobody yet'
+      : `follow-up reaches day ${condition.longestFollowUp.toFixed(1)} so far`;
   }
   const { cumulative, lower, upper } = condition.cumulative;
-  return lower === null || upper === null ? formatShare(cumulative) : `${formatShare(cumulative)} (95% CI ${formatShareInterval({ lower, upper })})`;
+  return lower === null || upper === null
+    ? formatShare(cumulative)
+    : `${formatShare(cumulative)} (95% CI ${formatShareInterval({ lower, upper })})`;
 }
 
 /** Why no planned length is known, in plain words. */

@@ -37,9 +37,15 @@ export function CheckInbox({ email, studySlug, onChangeAddress }: CheckInboxProp
       </ul>
 
       <div aria-live="polite">
-        {resend.isSuccess ? <Notice tone="success" title="We sent you a new link.">Use the newest e-mail.</Notice> : null}
+        {resend.isSuccess ? (
+          <Notice tone="success" title="We sent you a new link.">
+            Use the newest e-mail.
+          </Notice>
+        ) : null}
         {resend.isError ? (
-          <Notice tone="error" title="We could not send another link">{describeProblem(resend.error)}</Notice>
+          <Notice tone="error" title="We could not send another link">
+            {describeProblem(resend.error)}
+          </Notice>
         ) : null}
       </div>
 

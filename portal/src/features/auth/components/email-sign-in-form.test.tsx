@@ -40,7 +40,9 @@ describe('e-mail sign-in form', () => {
 
     await user.clear(field);
     await user.type(field, 'robin.ash@example.test');
-    await waitFor(() => expect(screen.queryByText('Enter an e-mail address like name@example.com.')).not.toBeInTheDocument());
+    await waitFor(() =>
+      expect(screen.queryByText('Enter an e-mail address like name@example.com.')).not.toBeInTheDocument(),
+    );
     expect(field).not.toHaveAttribute('aria-invalid', 'true');
   });
 
@@ -125,7 +127,9 @@ describe('e-mail sign-in form', () => {
     await user.click(submit);
 
     // The api's own words name its field ("email must be …"); the person reads the form's words instead.
-    expect(await screen.findByText('Please enter your whole e-mail address, like name@example.com.')).toBeInTheDocument();
+    expect(
+      await screen.findByText('Please enter your whole e-mail address, like name@example.com.'),
+    ).toBeInTheDocument();
     expect(screen.queryByText(/must be an email/)).not.toBeInTheDocument();
     expect(field).toHaveAttribute('aria-invalid', 'true');
   });

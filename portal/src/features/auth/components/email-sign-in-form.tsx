@@ -32,9 +32,14 @@ export function EmailSignInForm({ studySlug, defaultEmail = '', onSent }: EmailS
         ? error.fieldErrors.find((fieldError) => fieldError.field === 'email')
         : undefined;
       if (emailProblem) {
-        setError('email', { message: plainFieldMessage(emailProblem, 'Please enter your whole e-mail address, like name@example.com.') }, { shouldFocus: true });
-      }
-      else setError('root.server', { message: describeProblem(error) });
+        setError(
+          'email',
+          {
+            message: plainFieldMessage(emailProblem, 'Please enter your whole e-mail address, like name@example.com.'),
+          },
+          { shouldFocus: true },
+        );
+      } else setError('root.server', { message: describeProblem(error) });
     }
   });
 
@@ -60,7 +65,11 @@ export function EmailSignInForm({ studySlug, defaultEmail = '', onSent }: EmailS
           />
         )}
       />
-      {serverProblem ? <Notice tone="error" title="We could not send your link">{serverProblem}</Notice> : null}
+      {serverProblem ? (
+        <Notice tone="error" title="We could not send your link">
+          {serverProblem}
+        </Notice>
+      ) : null}
       <Button type="submit" wide disabled={formState.isSubmitting}>
         {formState.isSubmitting ? 'Sending your link…' : 'Send me a sign-in link'}
       </Button>

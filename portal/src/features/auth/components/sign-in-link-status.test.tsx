@@ -18,7 +18,9 @@ describe('opening the e-mailed sign-in link', () => {
     expect(screen.getByText(participant.email)).toBeInTheDocument();
     expect(await screen.findByRole('heading', { name: 'No studies yet' })).toBeInTheDocument();
     // Rendered in StrictMode: effects run twice, the single-use token must still be sent once.
-    expect(fakeApi.callsTo('POST', '/api/auth/sign-in-link/consume').map((r) => r.body)).toEqual([{ token: 'tok-6b1d9e' }]);
+    expect(fakeApi.callsTo('POST', '/api/auth/sign-in-link/consume').map((r) => r.body)).toEqual([
+      { token: 'tok-6b1d9e' },
+    ]);
     expect(fakeApi.unexpected).toEqual([]);
   });
 
@@ -56,14 +58,16 @@ describe('opening the e-mailed sign-in link', () => {
     });
     renderApp('/sign-in/link?token=tok-retry');
 
-    expect(await screen.findByText('Something went wrong on our side. Please try again in a moment.')).toBeInTheDocument();
+    expect(
+      await screen.findByText('Something went wrong on our side. Please try again in a moment.'),
+    ).toBeInTheDocument();
     await user.click(screen.getByRole('button', { name: 'Try again' }));
 
     expect(await screen.findByRole('heading', { name: 'Your studies' })).toBeInTheDocument();
     expect(fakeApi.callsTo('POST', '/api/auth/sign-in-link/consume')).toHaveLength(2);
   });
 
-  it('says in plain words that a malformed link is not complete, never the api\'s field message', async () => {
+  it("says in plain words that a malformed link is not complete, never the api's field message", async () => {
     installFakeApi({
       ...signedOutHandlers,
       'POST /api/auth/sign-in-link/consume': {

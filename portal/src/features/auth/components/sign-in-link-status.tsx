@@ -51,7 +51,10 @@ export function SignInLinkStatus({ token, onSignedIn }: SignInLinkStatusProps) {
       );
     }
     return (
-      <LinkProblem title="We could not sign you in just now" onRetry={() => consume.mutate(token, { onSuccess: onSignedIn })}>
+      <LinkProblem
+        title="We could not sign you in just now"
+        onRetry={() => consume.mutate(token, { onSuccess: onSignedIn })}
+      >
         {describeProblem(consume.error)}
       </LinkProblem>
     );

@@ -21,8 +21,14 @@ export const signatureFormSchema = z.object({
     .max(200, 'Please keep your name to 200 characters or fewer.'),
   mark: z
     .string()
-    .max(MARK_MAX_CHARACTERS, 'Your drawing is too detailed to save. Please clear it and draw a simpler one, or leave it out.')
-    .refine((mark) => mark === '' || mark.startsWith('data:image/png;base64,'), 'Your drawing could not be read. Please clear it and try again.'),
+    .max(
+      MARK_MAX_CHARACTERS,
+      'Your drawing is too detailed to save. Please clear it and draw a simpler one, or leave it out.',
+    )
+    .refine(
+      (mark) => mark === '' || mark.startsWith('data:image/png;base64,'),
+      'Your drawing could not be read. Please clear it and try again.',
+    ),
 });
 
 export type SignatureFormValues = z.input<typeof signatureFormSchema>;
@@ -77,7 +83,8 @@ export function useSignConsent() {
     },
     onError: (error, { studyId }) => {
       // The form changed under the reader: fetch the new version so they can read it.
-      if (currentVersionAfterConflict(error)) void queryClient.invalidateQueries({ queryKey: queryKeys.myEnrollmentAll(studyId) });
+      if (currentVersionAfterConflict(error))
+        void queryClient.invalidateQueries({ queryKey: queryKeys.myEnrollmentAll(studyId) });
     },
   });
 }

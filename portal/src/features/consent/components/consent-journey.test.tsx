@@ -29,8 +29,13 @@ describe('reading the consent form', () => {
     expect(screen.getByText(/pays up to \$37\.50/)).toBeInTheDocument();
     expect(screen.getByText('Part 1 of 4')).toBeInTheDocument();
     expect(screen.getByText('About 6 minutes to read in all')).toBeInTheDocument();
-    expect(screen.getByRole('progressbar', { name: 'How far you have read' })).toHaveAttribute('aria-valuetext', 'Part 1 of 4');
-    expect(screen.getByText(/Ask the research team or the ethics board named in the form before you sign/)).toBeInTheDocument();
+    expect(screen.getByRole('progressbar', { name: 'How far you have read' })).toHaveAttribute(
+      'aria-valuetext',
+      'Part 1 of 4',
+    );
+    expect(
+      screen.getByText(/Ask the research team or the ethics board named in the form before you sign/),
+    ).toBeInTheDocument();
     expect(screen.getByText(/You can stop and come back later/)).toBeInTheDocument();
     expect(screen.queryByRole('button', { name: 'Back' })).not.toBeInTheDocument();
 

@@ -91,7 +91,9 @@ function ConsentReading({ studyId, consent, reconsent, changedTo, onVersionChang
       <div className="flex flex-col gap-2">
         <p className="flex flex-wrap justify-between gap-x-3 text-fine text-ink-soft">
           <span>{page ? `Part ${position + 1} of ${pages.length}` : 'Signing'}</span>
-          <span>About {consent.readingMinutes === 1 ? '1 minute' : `${consent.readingMinutes} minutes`} to read in all</span>
+          <span>
+            About {consent.readingMinutes === 1 ? '1 minute' : `${consent.readingMinutes} minutes`} to read in all
+          </span>
         </p>
         <ProgressBar
           label="How far you have read"
@@ -139,7 +141,11 @@ function ReadingScreen({ page, isFirst, nextHeading, onBack, onNext }: ReadingSc
     mounted.current = true;
   }, [page.id]);
 
-  const nextLabel = page.isKeyInformation ? 'Read the full form' : nextHeading ? `Next: ${nextHeading}` : 'Continue to signing';
+  const nextLabel = page.isKeyInformation
+    ? 'Read the full form'
+    : nextHeading
+      ? `Next: ${nextHeading}`
+      : 'Continue to signing';
 
   return (
     <section aria-labelledby="reading-heading" className="flex flex-col gap-5">

@@ -28,7 +28,12 @@ export function SignaturePadField({ onChange, error, disabled = false }: Signatu
     if (!canvas) return;
     let pad: SignaturePad;
     try {
-      pad = new SignaturePad(canvas, { penColor: '#221a14', backgroundColor: 'rgba(0,0,0,0)', minWidth: 0.8, maxWidth: 2.6 });
+      pad = new SignaturePad(canvas, {
+        penColor: '#221a14',
+        backgroundColor: 'rgba(0,0,0,0)',
+        minWidth: 0.8,
+        maxWidth: 2.6,
+      });
     } catch {
       // No 2D canvas here (very old or locked-down browsers): the typed name alone signs.
       setUnavailable(true);
@@ -102,7 +107,10 @@ export function SignaturePadField({ onChange, error, disabled = false }: Signatu
           }`}
         />
         {!hasMark ? (
-          <span aria-hidden="true" className="pointer-events-none absolute inset-x-6 bottom-10 border-b-2 border-sand-deep" />
+          <span
+            aria-hidden="true"
+            className="pointer-events-none absolute inset-x-6 bottom-10 border-b-2 border-sand-deep"
+          />
         ) : null}
       </div>
       <div className="flex items-center justify-between gap-3">

@@ -31,7 +31,10 @@ function atSigning(handlers: Parameters<typeof installFakeApi>[0] = {}) {
   return installFakeApi({
     'GET /api/auth/me': { status: 200, body: participant },
     'GET /api/public/studies/wayfinding-cues': { status: 200, body: publicStudy },
-    [`GET /api/studies/${studyId}/enrollments/me`]: { status: 200, body: enrollment({ status: 'screened', next: 'consent' }) },
+    [`GET /api/studies/${studyId}/enrollments/me`]: {
+      status: 200,
+      body: enrollment({ status: 'screened', next: 'consent' }),
+    },
     [`GET /api/studies/${studyId}/enrollments/me/consent`]: { status: 200, body: consentToSign() },
     [`POST ${signaturePath}`]: signed,
     [`GET /api/studies/${studyId}/enrollments/me/consent.pdf`]: pdf,
@@ -61,7 +64,9 @@ describe('signing the consent form', () => {
     expect(screen.getByLabelText(`Whole fingerprint: ${fingerprint}`)).toHaveTextContent(/^ba78 16bf 8f01 .* 15ad$/);
 
     const signButton = screen.getByRole('button', { name: 'Sign the form' });
-    expect(signButton).toHaveAccessibleDescription(/your signature means: “I have read this form and agree to take part”/);
+    expect(signButton).toHaveAccessibleDescription(
+      /your signature means: “I have read this form and agree to take part”/,
+    );
   });
 
   it('needs the typed full name and sends nothing without it', async () => {
@@ -102,7 +107,10 @@ describe('signing the consent form', () => {
 
   it('sends a drawn mark with the signature, and none after it is cleared', async () => {
     const fakeApi = atSigning({
-      [`POST ${signaturePath}`]: { status: 400, body: { statusCode: 400, code: 'VALIDATION_FAILED', message: 'Not saved', errors: [] } },
+      [`POST ${signaturePath}`]: {
+        status: 400,
+        body: { statusCode: 400, code: 'VALIDATION_FAILED', message: 'Not saved', errors: [] },
+      },
     });
     const user = await openSignature();
     const pad = screen.getByRole('img', { name: 'Draw your signature (optional)' });
@@ -130,7 +138,10 @@ describe('signing the consent form', () => {
     const fakeApi = atSigning({
       [`GET /api/studies/${studyId}/enrollments/me/consent`]: (_request, call) => ({
         status: 200,
-        body: call === 1 ? consentToSign() : consentToSign({ versionId: newVersionId, version: 3, fingerprint: newFingerprint }),
+        body:
+          call === 1
+            ? consentToSign()
+            : consentToSign({ versionId: newVersionId, version: 3, fingerprint: newFingerprint }),
       }),
       [`POST ${signaturePath}`]: {
         status: 409,
@@ -147,7 +158,9 @@ describe('signing the consent form', () => {
     await user.type(screen.getByLabelText('Your full name'), 'Robin Ash');
     await user.click(screen.getByRole('button', { name: 'Sign the form' }));
 
-    expect(await screen.findByText('The form was updated while you were reading: this is version 3')).toBeInTheDocument();
+    expect(
+      await screen.findByText('The form was updated while you were reading: this is version 3'),
+    ).toBeInTheDocument();
     expect(screen.getByText(/Your signature was not saved/)).toBeInTheDocument();
     expect(screen.getByRole('heading', { name: 'Key information' })).toBeInTheDocument();
     expect(screen.getByText('Part 1 of 4')).toBeInTheDocument();
@@ -187,11 +200,13 @@ describe('signing the consent form', () => {
 
     expect(await screen.findByText('Please type your full name, at least 2 letters.')).toBeInTheDocument();
     await user.type(screen.getByLabelText('Your full name'), 'obin Ash');
-    await waitFor(() => expect(screen.queryByText('Please type your full name, at least 2 letters.')).not.toBeInTheDocument());
+    await waitFor(() =>
+      expect(screen.queryByText('Please type your full name, at least 2 letters.')).not.toBeInTheDocument(),
+    );
     expect(fakeApi.callsTo('POST', signaturePath)).toHaveLength(0);
   });
 
-  it('puts the api\'s refusal of the name in plain words, without its field name', async () => {
+  it("puts the api's refusal of the name in plain words, without its field name", async () => {
     atSigning({
       [`POST ${signaturePath}`]: {
         status: 400,

@@ -54,10 +54,19 @@ export function SignatureStep({ studyId, consent, onSigned, onVersionChanged, on
       const nameProblem = fieldErrors.find((fieldError) => fieldError.field === 'typedName');
       const markProblem = fieldErrors.find((fieldError) => fieldError.field === 'mark');
       if (nameProblem) {
-        setError('typedName', { message: plainFieldMessage(nameProblem, 'Please type your full name, 2 to 200 characters.') }, { shouldFocus: true });
+        setError(
+          'typedName',
+          { message: plainFieldMessage(nameProblem, 'Please type your full name, 2 to 200 characters.') },
+          { shouldFocus: true },
+        );
       }
       if (markProblem) {
-        setError('mark', { message: plainFieldMessage(markProblem, 'Your drawing could not be saved. Please clear it and draw it again, or leave it out.') });
+        setError('mark', {
+          message: plainFieldMessage(
+            markProblem,
+            'Your drawing could not be saved. Please clear it and draw it again, or leave it out.',
+          ),
+        });
       }
       if (!nameProblem && !markProblem) setError('root.server', { message: signingProblem(error) });
     }
@@ -96,7 +105,11 @@ export function SignatureStep({ studyId, consent, onSigned, onVersionChanged, on
         name="mark"
         control={control}
         render={({ field, fieldState }) => (
-          <SignaturePadField onChange={field.onChange} error={fieldState.error?.message} disabled={formState.isSubmitting} />
+          <SignaturePadField
+            onChange={field.onChange}
+            error={fieldState.error?.message}
+            disabled={formState.isSubmitting}
+          />
         )}
       />
 

@@ -23,7 +23,11 @@ export function SignedFormDownload({ studyId, signedVersionId, enrollmentReferen
       <div aria-live="polite" className="flex flex-col gap-3">
         {fileUrl ? (
           <>
-            <a href={fileUrl} download={`signed-consent-${enrollmentReference}.pdf`} className={buttonClasses('secondary', 'w-full')}>
+            <a
+              href={fileUrl}
+              download={`signed-consent-${enrollmentReference}.pdf`}
+              className={buttonClasses('secondary', 'w-full')}
+            >
               Download your signed form (PDF)
             </a>
             <p className="text-fine text-ink-soft">We have also e-mailed you a copy. Keep it for your records.</p>

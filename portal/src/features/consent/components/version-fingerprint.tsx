@@ -26,7 +26,9 @@ export function VersionFingerprint({ version, fingerprint, approval }: VersionFi
         <div className="flex flex-wrap justify-between gap-x-3">
           <dt className="text-ink-soft">Fingerprint</dt>
           <dd className="font-mono font-semibold" title={fingerprint}>
-            <span className="sr-only">Starts with {fingerprint.slice(0, 8)}, ends with {fingerprint.slice(-8)}: </span>
+            <span className="sr-only">
+              Starts with {fingerprint.slice(0, 8)}, ends with {fingerprint.slice(-8)}:{' '}
+            </span>
             <span aria-hidden="true">{shortFingerprint(fingerprint)}</span>
           </dd>
         </div>
@@ -37,8 +39,8 @@ export function VersionFingerprint({ version, fingerprint, approval }: VersionFi
         </DisclosureButton>
         <DisclosurePanel className="flex flex-col gap-2">
           <p>
-            This code is worked out from the exact words of the form. The copy you receive shows the same code, so anyone
-            can check later that it is the form you read.
+            This code is worked out from the exact words of the form. The copy you receive shows the same code, so
+            anyone can check later that it is the form you read.
           </p>
           <p className="font-mono leading-relaxed" aria-label={`Whole fingerprint: ${fingerprint}`}>
             {groupedFingerprint(fingerprint).join(' ')}

@@ -11,7 +11,11 @@ const sections = [
 describe('reading pages of a consent form', () => {
   it('puts the key information first and does not repeat it when the first section is the same text', () => {
     const pages = readingPages({ keyInformationHtml, sections });
-    expect(pages.map((page) => page.heading)).toEqual(['Key information', 'Purpose of the study', 'Risks and discomforts']);
+    expect(pages.map((page) => page.heading)).toEqual([
+      'Key information',
+      'Purpose of the study',
+      'Risks and discomforts',
+    ]);
     expect(pages.map((page) => page.isKeyInformation)).toEqual([true, false, false]);
   });
 

@@ -23,7 +23,11 @@ describe('screening schema built from the questions', () => {
     expect(schema.parse({ q0: 'yes', q1: ' 5 ', q2: 'Public transport' })).toEqual({
       answers: { adult: true, sense_of_direction: 5, commute: 'Public transport' },
     });
-    expect(schema.parse({ q0: 'no', q1: '6,5', q2: 'Car' }).answers).toEqual({ adult: false, sense_of_direction: 6.5, commute: 'Car' });
+    expect(schema.parse({ q0: 'no', q1: '6,5', q2: 'Car' }).answers).toEqual({
+      adult: false,
+      sense_of_direction: 6.5,
+      commute: 'Car',
+    });
   });
 
   it('asks for every unanswered question in its own words', () => {
@@ -34,7 +38,7 @@ describe('screening schema built from the questions', () => {
     });
   });
 
-  it('keeps a number within the question\'s own range', () => {
+  it("keeps a number within the question's own range", () => {
     expect(messagesFor({ q0: 'yes', q1: '0', q2: 'Car' })).toEqual({ q1: 'Please enter a number from 1 to 7.' });
     expect(messagesFor({ q0: 'yes', q1: '8', q2: 'Car' })).toEqual({ q1: 'Please enter a number from 1 to 7.' });
     expect(messagesFor({ q0: 'yes', q1: '1', q2: 'Car' })).toEqual({});
@@ -49,7 +53,9 @@ describe('screening schema built from the questions', () => {
   });
 
   it('words a range with only one end', () => {
-    const ageOnly = screeningFormSchema([{ key: 'age', label: 'Your age', kind: 'number', min: 18, purpose: 'eligibility' }]);
+    const ageOnly = screeningFormSchema([
+      { key: 'age', label: 'Your age', kind: 'number', min: 18, purpose: 'eligibility' },
+    ]);
     expect(ageOnly.safeParse({ q0: '17' }).error?.issues[0]?.message).toBe('Please enter a number of 18 or more.');
     expect(numberRangeHint({ key: 'age', label: 'Your age', kind: 'number', min: 18, purpose: 'eligibility' })).toBe(
       'A number of 18 or more',

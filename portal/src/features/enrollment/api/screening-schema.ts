@@ -75,14 +75,14 @@ function answerSchema(question: ScreeningQuestion) {
 
 /** The form's schema, built from the study's questions: checks each answer and turns the form into the request body. */
 export function screeningFormSchema(questions: ScreeningQuestion[]) {
-  const shape = Object.fromEntries(questions.map((question, index) => [screeningFieldName(index), answerSchema(question)]));
-  return z.object(shape).transform(
-    (values): ScreeningRequest => ({
-      answers: Object.fromEntries(
-        questions.map((question, index) => [question.key, values[screeningFieldName(index)] as ScreeningAnswer]),
-      ),
-    }),
+  const shape = Object.fromEntries(
+    questions.map((question, index) => [screeningFieldName(index), answerSchema(question)]),
   );
+  return z.object(shape).transform((values): ScreeningRequest => ({
+    answers: Object.fromEntries(
+      questions.map((question, index) => [question.key, values[screeningFieldName(index)] as ScreeningAnswer]),
+    ),
+  }));
 }
 
 /** Earlier answers (or none) as form text. */

@@ -9,7 +9,13 @@ export type StepTaskStart =
   paths['/api/studies/{studyId}/enrollments/me/steps/{stepId}/start']['get']['responses'][200]['content']['application/json'];
 
 /** The lab's task for one step, addressed to this person: their reference and a freshly signed way back. */
-export async function getStepTaskStart({ studyId, stepId }: { studyId: string; stepId: string }): Promise<StepTaskStart> {
+export async function getStepTaskStart({
+  studyId,
+  stepId,
+}: {
+  studyId: string;
+  stepId: string;
+}): Promise<StepTaskStart> {
   const { data, error, response } = await api.GET('/api/studies/{studyId}/enrollments/me/steps/{stepId}/start', {
     params: { path: { studyId, stepId } },
   });
@@ -29,7 +35,8 @@ export function useStartStepTask() {
     onSuccess: (start) => leaveForExternalPage(start.url),
     onError: (error, { studyId }) => {
       // A 409 means the step's state moved on (not open yet, a new consent form, no longer taking part): show it as it is.
-      if (isApiError(error, 'CONFLICT')) void queryClient.invalidateQueries({ queryKey: queryKeys.myEnrollmentAll(studyId) });
+      if (isApiError(error, 'CONFLICT'))
+        void queryClient.invalidateQueries({ queryKey: queryKeys.myEnrollmentAll(studyId) });
     },
   });
 }

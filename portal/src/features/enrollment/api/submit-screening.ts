@@ -8,7 +8,13 @@ import type { ScreeningRequest } from './screening-schema';
 export type ScreeningResult =
   paths['/api/studies/{studyId}/enrollments/me/screening']['put']['responses'][200]['content']['application/json'];
 
-export async function submitScreening({ studyId, body }: { studyId: string; body: ScreeningRequest }): Promise<ScreeningResult> {
+export async function submitScreening({
+  studyId,
+  body,
+}: {
+  studyId: string;
+  body: ScreeningRequest;
+}): Promise<ScreeningResult> {
   const { data, error, response } = await api.PUT('/api/studies/{studyId}/enrollments/me/screening', {
     params: { path: { studyId } },
     body,

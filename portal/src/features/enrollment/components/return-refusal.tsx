@@ -84,7 +84,10 @@ export function ReturnRefusalExplained({ reason, studyTitle, contactEmail, actio
             <>
               {' '}
               at{' '}
-              <a href={`mailto:${contactEmail}`} className="font-semibold wrap-anywhere text-clay-ink underline decoration-2 underline-offset-4">
+              <a
+                href={`mailto:${contactEmail}`}
+                className="font-semibold wrap-anywhere text-clay-ink underline decoration-2 underline-offset-4"
+              >
                 {contactEmail}
               </a>
             </>

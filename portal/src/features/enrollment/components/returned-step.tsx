@@ -15,7 +15,10 @@ type ReturnedStepProps = Pick<MyEnrollment, 'currency' | 'earned'> & {
 export function ReturnedStep({ step, stepNumber, currency, earned, justNow }: ReturnedStepProps) {
   const pay = formatMinor(step.payMinor, currency);
   return (
-    <section aria-labelledby="returned-step-heading" className="flex flex-col gap-4 rounded-soft border border-sand-deep bg-paper-raised p-4">
+    <section
+      aria-labelledby="returned-step-heading"
+      className="flex flex-col gap-4 rounded-soft border border-sand-deep bg-paper-raised p-4"
+    >
       <h2 id="returned-step-heading" className="text-lead font-bold">
         <span className="text-ink-soft">Step {stepNumber}</span>
         {' · '}

@@ -24,7 +24,7 @@ async function openScreening() {
   return user;
 }
 
-describe('screening form built from the study\'s questions', () => {
+describe("screening form built from the study's questions", () => {
   it('shows each kind of question as its own control, with hints from the definition', async () => {
     atScreening();
     await openScreening();
@@ -139,7 +139,11 @@ describe('screening form built from the study\'s questions', () => {
         body: {
           eligible: false,
           reasons: ['18 or older'],
-          enrollment: enrollment({ status: 'excluded', next: 'excluded', screening: { questions: screeningQuestions, answers: null, exclusionReason: '18 or older' } }),
+          enrollment: enrollment({
+            status: 'excluded',
+            next: 'excluded',
+            screening: { questions: screeningQuestions, answers: null, exclusionReason: '18 or older' },
+          }),
         },
       },
     });
@@ -150,10 +154,15 @@ describe('screening form built from the study\'s questions', () => {
     await user.click(screen.getByRole('radio', { name: 'Cycling' }));
     await user.click(screen.getByRole('button', { name: 'Save my answers' }));
 
-    expect(await screen.findByRole('heading', { name: 'Thank you — this study is not the right fit this time' })).toBeInTheDocument();
+    expect(
+      await screen.findByRole('heading', { name: 'Thank you — this study is not the right fit this time' }),
+    ).toBeInTheDocument();
     expect(screen.getByText('This study is looking for people who meet these points:')).toBeInTheDocument();
     expect(screen.getByText('18 or older')).toBeInTheDocument();
-    expect(screen.getByRole('link', { name: 'wayfinding@harborlane.test' })).toHaveAttribute('href', 'mailto:wayfinding@harborlane.test');
+    expect(screen.getByRole('link', { name: 'wayfinding@harborlane.test' })).toHaveAttribute(
+      'href',
+      'mailto:wayfinding@harborlane.test',
+    );
     expect(screen.queryByRole('button', { name: 'Stop taking part' })).not.toBeInTheDocument();
   });
 
@@ -177,7 +186,10 @@ describe('screening form built from the study\'s questions', () => {
     await user.click(screen.getByRole('button', { name: 'Save my answers' }));
 
     expect(await screen.findByText('Is not one of the options.')).toBeInTheDocument();
-    expect(screen.getByRole('radiogroup', { name: 'How do you usually get around town?' })).toHaveAttribute('aria-invalid', 'true');
+    expect(screen.getByRole('radiogroup', { name: 'How do you usually get around town?' })).toHaveAttribute(
+      'aria-invalid',
+      'true',
+    );
   });
 
   it('checks a number as soon as the person leaves the question, before saving', async () => {
@@ -191,7 +203,7 @@ describe('screening form built from the study\'s questions', () => {
     expect(fakeApi.callsTo('PUT', screeningPath)).toHaveLength(0);
   });
 
-  it('puts an api refusal that names its own field in the question\'s words instead', async () => {
+  it("puts an api refusal that names its own field in the question's words instead", async () => {
     atScreening({
       [`PUT ${screeningPath}`]: {
         status: 400,

@@ -40,7 +40,11 @@ const yesNo = [
 export function ScreeningForm({ studyId, questions, answers, onScreened }: ScreeningFormProps) {
   const submitScreening = useSubmitScreening();
   const schema = useMemo(() => screeningFormSchema(questions), [questions]);
-  const { control, handleSubmit, setError, formState } = useForm<ScreeningFormValues, unknown, { answers: Record<string, ScreeningAnswer> }>({
+  const { control, handleSubmit, setError, formState } = useForm<
+    ScreeningFormValues,
+    unknown,
+    { answers: Record<string, ScreeningAnswer> }
+  >({
     resolver: zodResolver(schema),
     // Each answer is checked as soon as the person leaves it, then again as they correct it.
     mode: 'onTouched',
@@ -58,7 +62,11 @@ export function ScreeningForm({ studyId, questions, answers, onScreened }: Scree
         const name = screeningFieldForApiField(questions, fieldError.field);
         const question = questions.find((candidate) => `answers.${candidate.key}` === fieldError.field);
         if (!name || !question) continue;
-        setError(name, { message: plainFieldMessage(fieldError, answerProblemInWords(question)) }, { shouldFocus: !placed });
+        setError(
+          name,
+          { message: plainFieldMessage(fieldError, answerProblemInWords(question)) },
+          { shouldFocus: !placed },
+        );
         placed = true;
       }
       if (!placed) setError('root.server', { message: describeProblem(error) });
@@ -169,4 +177,3 @@ export function ScreeningForm({ studyId, questions, answers, onScreened }: Scree
     </form>
   );
 }
-

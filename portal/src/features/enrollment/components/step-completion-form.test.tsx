@@ -38,7 +38,9 @@ function atSteps(handlers: Parameters<typeof installFakeApi>[0] = {}) {
 async function openFirstStep() {
   const user = userEvent.setup();
   renderApp('/s/wayfinding-cues');
-  const step = (await screen.findByRole('heading', { name: 'Step 1 · First session' }, { timeout: 8_000 })).closest('li');
+  const step = (await screen.findByRole('heading', { name: 'Step 1 · First session' }, { timeout: 8_000 })).closest(
+    'li',
+  );
   if (!step) throw new Error('Step 1 is not in a list item');
   return { user, step: within(step) };
 }
@@ -60,7 +62,9 @@ describe('finishing a step with its completion code', () => {
     atSteps({ [`GET ${enrollmentPath}`]: { status: 200, body: noCode } });
     const { step } = await openFirstStep();
 
-    expect(step.getByText(/There is no code to enter for this step: the research team marks it done/)).toBeInTheDocument();
+    expect(
+      step.getByText(/There is no code to enter for this step: the research team marks it done/),
+    ).toBeInTheDocument();
     expect(step.queryByLabelText('Completion code')).not.toBeInTheDocument();
     expect(screen.queryByRole('button', { name: 'I finished this step' })).not.toBeInTheDocument();
   });
@@ -88,7 +92,9 @@ describe('finishing a step with its completion code', () => {
     expect(fakeApi.callsTo('POST', completePath).map((request) => request.body)).toEqual([{ code: 'way-1-test' }]);
     expect(thanks.closest('[tabindex="-1"]')).toHaveFocus();
     expect(step.getByText('Done')).toBeInTheDocument();
-    expect(step.getByText((_text, element) => element?.tagName === 'P' && element.textContent === '$12.50 earned')).toBeInTheDocument();
+    expect(
+      step.getByText((_text, element) => element?.tagName === 'P' && element.textContent === '$12.50 earned'),
+    ).toBeInTheDocument();
     expect(step.getByText(/\$12\.50 is added to what you have earned/)).toBeInTheDocument();
     expect(step.queryByLabelText('Completion code')).not.toBeInTheDocument();
     expect(screen.getByText('Earned so far').nextElementSibling).toHaveTextContent('$12.50');
@@ -129,7 +135,10 @@ describe('finishing a step with its completion code', () => {
 
     const pause = await step.findByText('Let’s pause for a few minutes');
     expect(pause.closest('[role="status"]')).toHaveTextContent(/paused checking codes for 15 minutes/);
-    expect(step.getByRole('link', { name: 'wayfinding@harborlane.test' })).toHaveAttribute('href', 'mailto:wayfinding@harborlane.test');
+    expect(step.getByRole('link', { name: 'wayfinding@harborlane.test' })).toHaveAttribute(
+      'href',
+      'mailto:wayfinding@harborlane.test',
+    );
     expect(step.queryByRole('alert')).not.toBeInTheDocument();
     expect(step.getByLabelText('Completion code')).not.toHaveAttribute('aria-invalid');
   });
@@ -160,7 +169,10 @@ describe('finishing a step with its completion code', () => {
 
     expect(await screen.findByText('The consent form has changed')).toBeInTheDocument();
     // Focus leaves the vanished code form for the top: the page heading, or the form's first heading once it opens.
-    const tops = [screen.getByRole('heading', { level: 1, name: publicStudy.title }), document.getElementById('reading-heading')];
+    const tops = [
+      screen.getByRole('heading', { level: 1, name: publicStudy.title }),
+      document.getElementById('reading-heading'),
+    ];
     await waitFor(() => expect(tops).toContain(document.activeElement));
     expect(screen.queryByRole('heading', { name: 'Your steps' })).not.toBeInTheDocument();
     expect(fakeApi.callsTo('GET', enrollmentPath)).toHaveLength(2);

@@ -40,7 +40,11 @@ export function StepCompletionForm({
   fallback = false,
 }: StepCompletionFormProps) {
   const completeStep = useCompleteStep();
-  const { control, handleSubmit, setError, formState } = useForm<CompletionCodeFormValues, unknown, CompleteStepRequest>({
+  const { control, handleSubmit, setError, formState } = useForm<
+    CompletionCodeFormValues,
+    unknown,
+    CompleteStepRequest
+  >({
     resolver: zodResolver(completionCodeFormSchema),
     mode: 'onTouched',
     defaultValues: { code: '' },
@@ -58,7 +62,11 @@ export function StepCompletionForm({
         ? error.fieldErrors.find((fieldError) => fieldError.field === 'code')
         : undefined;
       if (codeProblem) {
-        setError('code', { message: plainFieldMessage(codeProblem, 'That code was not accepted. Please check it and try again.') }, { shouldFocus: true });
+        setError(
+          'code',
+          { message: plainFieldMessage(codeProblem, 'That code was not accepted. Please check it and try again.') },
+          { shouldFocus: true },
+        );
         return;
       }
       const kind: RootProblem = isApiError(error, 'RATE_LIMITED') ? 'rate-limited' : 'other';
@@ -69,7 +77,12 @@ export function StepCompletionForm({
   const rootErrors = formState.errors.root;
 
   return (
-    <form noValidate onSubmit={submit} aria-labelledby={labelledBy} className="flex flex-col gap-3 border-t border-sand-deep pt-3">
+    <form
+      noValidate
+      onSubmit={submit}
+      aria-labelledby={labelledBy}
+      className="flex flex-col gap-3 border-t border-sand-deep pt-3"
+    >
       <Controller
         name="code"
         control={control}

@@ -32,7 +32,10 @@ function atSteps(handlers: Parameters<typeof installFakeApi>[0] = {}) {
     'GET /api/auth/me': { status: 200, body: participant },
     'GET /api/public/studies/wayfinding-cues': { status: 200, body: publicStudy },
     [`GET /api/studies/${studyId}/enrollments/me`]: { status: 200, body: afterFirstStep },
-    [`GET /api/studies/${studyId}/enrollments/me/consent.pdf`]: { status: 200, raw: { bytes: pdfBytes, contentType: 'application/pdf' } },
+    [`GET /api/studies/${studyId}/enrollments/me/consent.pdf`]: {
+      status: 200,
+      raw: { bytes: pdfBytes, contentType: 'application/pdf' },
+    },
     [`POST ${withdrawPath}`]: withdrawn,
     'GET /api/studies': { status: 200, body: { items: [] } },
     ...handlers,
@@ -82,7 +85,9 @@ describe('withdrawing from a study', () => {
     await user.click(screen.getByRole('button', { name: 'Yes, stop taking part' }));
 
     expect(await screen.findByRole('heading', { name: 'You have stopped taking part' })).toHaveFocus();
-    expect(fakeApi.callsTo('POST', withdrawPath).map((request) => request.body)).toEqual([{ reason: 'Moving to another city.' }]);
+    expect(fakeApi.callsTo('POST', withdrawPath).map((request) => request.body)).toEqual([
+      { reason: 'Moving to another city.' },
+    ]);
     expect(screen.getByText('You earned').nextElementSibling).toHaveTextContent('$12.50');
     expect(screen.getByText('Still to be paid to you').nextElementSibling).toHaveTextContent('$7.50');
     expect(screen.getByText(/We have sent you an e-mail to confirm/)).toBeInTheDocument();

@@ -13,7 +13,14 @@ type WithdrawnConfirmationProps = {
   children?: ReactNode;
 };
 
-export function WithdrawnConfirmation({ studyTitle, withdrewAt, currency, earnedMinor, stillToBePaidMinor, children }: WithdrawnConfirmationProps) {
+export function WithdrawnConfirmation({
+  studyTitle,
+  withdrewAt,
+  currency,
+  earnedMinor,
+  stillToBePaidMinor,
+  children,
+}: WithdrawnConfirmationProps) {
   const headingRef = useRef<HTMLHeadingElement>(null);
   // The dialog just closed; start screen-reader and keyboard users at the confirmation.
   useEffect(() => headingRef.current?.focus(), []);
@@ -39,8 +46,8 @@ export function WithdrawnConfirmation({ studyTitle, withdrewAt, currency, earned
         </div>
       </dl>
       <p>
-        We have sent you an e-mail to confirm. What you did so far stays on record, and nothing new will be collected. You
-        will not be asked to do anything more for this study.
+        We have sent you an e-mail to confirm. What you did so far stays on record, and nothing new will be collected.
+        You will not be asked to do anything more for this study.
       </p>
       {children}
       <ButtonLink to="/studies" variant="secondary" wide>

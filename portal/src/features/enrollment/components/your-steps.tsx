@@ -56,7 +56,10 @@ export function YourSteps({ studyId, steps, currency, earned, contactEmail, onNe
             const windowWords = stepWindowWords(step);
             const how = stepHowWords(step);
             return (
-              <li key={step.id} className="flex flex-col gap-2 rounded-soft border border-sand-deep bg-paper-raised p-4">
+              <li
+                key={step.id}
+                className="flex flex-col gap-2 rounded-soft border border-sand-deep bg-paper-raised p-4"
+              >
                 <div className="flex flex-wrap items-baseline justify-between gap-x-3 gap-y-1">
                   <h3 id={headingId} className="font-bold">
                     {/* The separator is a bare text node, so the heading's accessible name keeps its spaces. */}
@@ -77,7 +80,9 @@ export function YourSteps({ studyId, steps, currency, earned, contactEmail, onNe
                   {step.status === 'done' && step.completedAt ? (
                     <span className="text-ink-soft">on {formatDate(step.completedAt)}</span>
                   ) : null}
-                  {windowWords ? <span className={step.status === 'overdue' ? 'text-ink' : 'text-ink-soft'}>{windowWords}</span> : null}
+                  {windowWords ? (
+                    <span className={step.status === 'overdue' ? 'text-ink' : 'text-ink-soft'}>{windowWords}</span>
+                  ) : null}
                 </p>
                 {step.status === 'done' && step.id === justCompletedId ? (
                   <StepDoneNotice stepNumber={index + 1} pay={money(step.payMinor)} />

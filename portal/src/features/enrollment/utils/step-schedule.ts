@@ -34,7 +34,9 @@ export function stepWindowWords(step: Pick<EnrollmentStep, 'status' | 'opensAt' 
         ? `Overdue since ${formatDateTime(step.dueAt)}, but you can still do it.`
         : 'Past its date, but you can still do it.';
     case 'upcoming':
-      return [step.opensAt ? `Opens on ${formatDateTime(step.opensAt)}.` : 'Opens later.', dueBy].filter(Boolean).join(' ');
+      return [step.opensAt ? `Opens on ${formatDateTime(step.opensAt)}.` : 'Opens later.', dueBy]
+        .filter(Boolean)
+        .join(' ');
     case 'waiting':
       return 'Opens after you finish the previous step.';
     case 'locked':

@@ -1,5 +1,13 @@
 /** Why the api refused a return link (see `ReturnRefusal` in the api's step progress). */
-export const RETURN_REFUSALS = ['malformed', 'forged', 'expired', 'other-person', 'not-open', 'not-taking-part', 'consent'] as const;
+export const RETURN_REFUSALS = [
+  'malformed',
+  'forged',
+  'expired',
+  'other-person',
+  'not-open',
+  'not-taking-part',
+  'consent',
+] as const;
 export type ReturnRefusal = (typeof RETURN_REFUSALS)[number];
 
 /**

@@ -13,7 +13,10 @@ export async function getPayoutAccount(): Promise<PayoutAccount> {
   return data;
 }
 
-export const payoutAccountQueryOptions = queryOptions({ queryKey: queryKeys.myPayoutAccount, queryFn: getPayoutAccount });
+export const payoutAccountQueryOptions = queryOptions({
+  queryKey: queryKeys.myPayoutAccount,
+  queryFn: getPayoutAccount,
+});
 
 /** How often, and how many times, to ask again after someone comes back from the payment service's page. */
 export const SETUP_CHECK_INTERVAL_MS = 1_500;

@@ -80,15 +80,17 @@ export function PayoutSetup({ returnedFrom }: { returnedFrom: SetupReturn }) {
             To receive your pay, tell our payment service which bank account to send it to. It takes about two minutes.
           </p>
           <p className="text-fine text-ink-soft">
-            You will go to the payment service’s secure page, then come straight back here. Evenhand never sees your bank
-            details.
+            You will go to the payment service’s secure page, then come straight back here. Evenhand never sees your
+            bank details.
           </p>
           {setUpButton('Set up how you get paid')}
         </>
       ) : null}
       {view === 'started' ? (
         <>
-          <p>You started setting up but have not finished. Pick up where you left off; it only takes a minute or two.</p>
+          <p>
+            You started setting up but have not finished. Pick up where you left off; it only takes a minute or two.
+          </p>
           {setUpButton('Continue setting up')}
         </>
       ) : null}
@@ -102,9 +104,7 @@ export function PayoutSetup({ returnedFrom }: { returnedFrom: SetupReturn }) {
           {setUpButton('Open the payment service’s page', 'secondary')}
         </>
       ) : null}
-      {view === 'ready' ? (
-        <p>Your pay goes to the bank account you gave the payment service.</p>
-      ) : null}
+      {view === 'ready' ? <p>Your pay goes to the bank account you gave the payment service.</p> : null}
 
       {start.isError ? (
         <Notice tone="error" title="We could not open the payment service">

@@ -117,7 +117,9 @@ function PaymentList({ items }: { items: MyPayout[] }) {
           return (
             <li key={item.id} className="flex flex-col gap-2 rounded-soft border border-sand-deep bg-paper-raised p-4">
               <div className="flex flex-wrap items-baseline justify-between gap-x-3 gap-y-1">
-                <p className="font-bold">{item.kind === 'bonus' ? 'Completion bonus' : (item.stepTitle ?? 'A study step')}</p>
+                <p className="font-bold">
+                  {item.kind === 'bonus' ? 'Completion bonus' : (item.stepTitle ?? 'A study step')}
+                </p>
                 <p className="font-bold">{formatMinor(item.amountMinor, item.currency)}</p>
               </div>
               <p className="text-fine text-ink-soft">{item.studyTitle}</p>

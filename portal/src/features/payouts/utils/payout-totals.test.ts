@@ -3,7 +3,11 @@ import type { MyPayout } from '../api/get-my-payouts';
 import { amountsInOrder, payoutTotals } from './payout-totals';
 
 type Line = Pick<MyPayout, 'status' | 'amountMinor' | 'currency'>;
-const line = (status: Line['status'], amountMinor: number, currency = 'USD'): Line => ({ status, amountMinor, currency });
+const line = (status: Line['status'], amountMinor: number, currency = 'USD'): Line => ({
+  status,
+  amountMinor,
+  currency,
+});
 
 describe('what is owed, on its way and paid', () => {
   it('puts each status in its place and adds whole minor units', () => {
@@ -40,6 +44,8 @@ describe('what is owed, on its way and paid', () => {
   });
 
   it('refuses an amount that is not whole minor units, naming the field', () => {
-    expect(() => payoutTotals([line('owed', 12.5)])).toThrow('amountMinor must be a whole number of minor units, got 12.5');
+    expect(() => payoutTotals([line('owed', 12.5)])).toThrow(
+      'amountMinor must be a whole number of minor units, got 12.5',
+    );
   });
 });

@@ -8,8 +8,6 @@ export function StudyClosedNotice({ status }: { status: Exclude<PublicStudy['sta
       The research team has paused it for a while. Please come back to this page later.
     </Notice>
   ) : (
-    <Notice title="This study has finished">
-      It is no longer taking new people. Thank you for your interest.
-    </Notice>
+    <Notice title="This study has finished">It is no longer taking new people. Thank you for your interest.</Notice>
   );
 }

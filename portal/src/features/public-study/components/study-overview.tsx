@@ -47,8 +47,8 @@ export function StudyOverview({ study, action }: StudyOverviewProps) {
         ) : (
           <>
             <p>
-              {steps.length === 1 ? 'There is one step.' : `There are ${steps.length} steps.`} You are paid for each step
-              you complete, even if you stop before the end.
+              {steps.length === 1 ? 'There is one step.' : `There are ${steps.length} steps.`} You are paid for each
+              step you complete, even if you stop before the end.
             </p>
             <ol className="flex flex-col gap-3">
               {steps.map((step, index) => (

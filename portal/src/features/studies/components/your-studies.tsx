@@ -35,7 +35,12 @@ function StudyList({ studies }: { studies: StudySummary[] }) {
   return (
     <ul className="flex flex-col gap-4" aria-label="Studies you have joined">
       {studies.map((study, index) => (
-        <StudyItem key={study.id} study={study} place={places[index]?.data} placeFailed={places[index]?.isError ?? false} />
+        <StudyItem
+          key={study.id}
+          study={study}
+          place={places[index]?.data}
+          placeFailed={places[index]?.isError ?? false}
+        />
       ))}
     </ul>
   );
@@ -69,7 +74,15 @@ export function yourPartInPlainWords(place: MyPlace): string {
   }
 }
 
-function StudyItem({ study, place, placeFailed }: { study: StudySummary; place: MyPlace | null | undefined; placeFailed: boolean }) {
+function StudyItem({
+  study,
+  place,
+  placeFailed,
+}: {
+  study: StudySummary;
+  place: MyPlace | null | undefined;
+  placeFailed: boolean;
+}) {
   return (
     <li>
       <Card className="relative flex flex-col items-start gap-3">
