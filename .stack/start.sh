@@ -74,7 +74,8 @@ if [ "${EVENHAND_DEV:-}" = "1" ]; then
 else
   for app in portal admin; do
     say "Building the $app app"
-    (cd "$ROOT/$app" && npm run build --silent)
+    # NODE_ENV is "development" for the api here; left as it is, Vite would bundle React's development build.
+    (cd "$ROOT/$app" && NODE_ENV=production npm run build --silent)
   done
   VITE_MODE="preview"
 fi

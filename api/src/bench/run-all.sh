@@ -13,6 +13,7 @@ run() {
 run "allocation" bash "$HERE/run-with-local-postgres.sh"
 run "dropout watch and signing" bash "$HERE/run-with-local-postgres.sh" attrition-bench.js run-signing-bench.js
 run "payouts" bash "$HERE/run-payout-bench.sh"
+run "first load" bash "$HERE/../../../portal/bench/run-first-load.sh"
 if [ "${#failed[@]}" -gt 0 ]; then
   printf '[bench] target missed or run failed: %s\n' "${failed[@]}" >&2
   exit 1

@@ -1,4 +1,4 @@
-import { type ReactNode, useEffect, useRef, useState } from 'react';
+import { lazy, type ReactNode, Suspense, useEffect, useRef, useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { PageLayout } from '@/components/layout/page-layout';
 import { Button, ButtonLink } from '@/components/ui/button';
@@ -7,14 +7,11 @@ import { Spinner } from '@/components/ui/spinner';
 import { StageList } from '@/components/ui/stage-list';
 import { type Me, useMe } from '@/features/auth/api/get-me';
 import type { Signature } from '@/features/consent/api/sign-consent';
-import { ConsentJourney } from '@/features/consent/components/consent-journey';
 import { SignedFormDownload } from '@/features/consent/components/signed-form-download';
 import { type MyEnrollment, useMyEnrollment } from '@/features/enrollment/api/get-my-enrollment';
 import type { Withdrawal } from '@/features/enrollment/api/withdraw';
 import { JoinStudyButton } from '@/features/enrollment/components/join-study-button';
 import { NotEligible } from '@/features/enrollment/components/not-eligible';
-import { ScreeningForm } from '@/features/enrollment/components/screening-form';
-import { StopTakingPart } from '@/features/enrollment/components/stop-taking-part';
 import { WithdrawnConfirmation } from '@/features/enrollment/components/withdrawn-confirmation';
 import { YourCondition } from '@/features/enrollment/components/your-condition';
 import { YourSteps } from '@/features/enrollment/components/your-steps';
@@ -24,6 +21,18 @@ import { StudyOverview } from '@/features/public-study/components/study-overview
 import { isApiError } from '@/lib/api-problem';
 import { formatDateTime } from '@/lib/date-format';
 import { describeProblem } from '@/lib/problem-message';
+
+// What only someone taking part sees (the forms, the signature pad, the dialogs) loads when they reach it, so a
+// visitor's first load of a study's link stays small (portal/bench/first-load.mjs measures it).
+const ScreeningForm = lazy(() =>
+  import('@/features/enrollment/components/screening-form').then((module) => ({ default: module.ScreeningForm })),
+);
+const ConsentJourney = lazy(() =>
+  import('@/features/consent/components/consent-journey').then((module) => ({ default: module.ConsentJourney })),
+);
+const StopTakingPart = lazy(() =>
+  import('@/features/enrollment/components/stop-taking-part').then((module) => ({ default: module.StopTakingPart })),
+);
 
 /** `/s/:slug`: the study page for anyone, and for someone taking part the place where their journey continues. */
 export function StudyRoute() {
@@ -162,7 +171,9 @@ function EnrollmentStage({ study, enrollment }: { study: PublicStudy; enrollment
 
   const stopTakingPart =
     next === 'excluded' || next === 'withdrawn' ? null : (
-      <StopTakingPart enrollment={enrollment} onWithdrawn={setWithdrawal} />
+      <Suspense fallback={null}>
+        <StopTakingPart enrollment={enrollment} onWithdrawn={setWithdrawal} />
+      </Suspense>
     );
 
   return (
@@ -178,12 +189,14 @@ function EnrollmentStage({ study, enrollment }: { study: PublicStudy; enrollment
       </header>
 
       {next === 'screening' ? (
-        <ScreeningForm
-          studyId={enrollment.studyId}
-          questions={enrollment.screening.questions}
-          answers={enrollment.screening.answers}
-          onScreened={(result) => setScreeningReasons(result.reasons)}
-        />
+        <Suspense fallback={<Spinner label="Loading the questions…" />}>
+          <ScreeningForm
+            studyId={enrollment.studyId}
+            questions={enrollment.screening.questions}
+            answers={enrollment.screening.answers}
+            onScreened={(result) => setScreeningReasons(result.reasons)}
+          />
+        </Suspense>
       ) : null}
 
       {next === 'excluded' ? (
@@ -197,7 +210,9 @@ function EnrollmentStage({ study, enrollment }: { study: PublicStudy; enrollment
       ) : null}
 
       {next === 'consent' || next === 're-consent' ? (
-        <ConsentJourney studyId={enrollment.studyId} reconsent={next === 're-consent'} onSigned={setSignature} />
+        <Suspense fallback={<Spinner label="Loading the consent form…" />}>
+          <ConsentJourney studyId={enrollment.studyId} reconsent={next === 're-consent'} onSigned={setSignature} />
+        </Suspense>
       ) : null}
 
       {next === 'steps' || next === 'done' ? (
