@@ -38,7 +38,13 @@ export default tseslint.config(
     rules: { '@typescript-eslint/no-explicit-any': 'off' },
   },
   {
-    files: ['api/**/*.ts', 'payments-fake/**/*.{ts,mts}', '**/*.config.{ts,mts}', '.stack/**/*.{js,mjs}'],
+    files: [
+      'api/**/*.ts',
+      'payments-fake/**/*.{ts,mts}',
+      '**/*.config.{ts,mts}',
+      '.stack/**/*.{js,mjs}',
+      '*/bench/**/*.mjs',
+    ],
     languageOptions: { globals: { ...globals.node } },
   },
   {
