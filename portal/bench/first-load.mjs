@@ -5,14 +5,11 @@
 // run-first-load.sh, which starts the api with the demo scenario so each page renders as a visitor sees it.
 // Target: the portal's first load ≤ 250 KB on the wire; admin printed for information.
 // Exit 0 when met, 2 when missed, 1 when the run failed.
-import { spawn } from 'node:child_process';
 import { mkdtemp, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
-import { dirname, join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { join } from 'node:path';
 import { chromium } from 'playwright-core';
 
-const ROOT = join(dirname(fileURLToPath(import.meta.url)), '..', '..');
 const CHROMIUM = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
 const PORTAL_TARGET_KB = 250;
 
@@ -26,38 +23,6 @@ const apps = [
   },
   { name: 'admin', port: Number(process.env.BENCH_ADMIN_PORT ?? 5298), paths: ['/sign-in'], targetKb: null },
 ];
-
-function run(command, args, cwd, env) {
-  return new Promise((resolve, reject) => {
-    const child = spawn(command, args, { cwd, env, stdio: ['ignore', 'ignore', 'inherit'] });
-    child.on('error', reject);
-    child.on('exit', (code) =>
-      code === 0 ? resolve() : reject(new Error(`${command} ${args.join(' ')}: exit ${code}`)),
-    );
-  });
-}
-
-async function waitForServer(url) {
-  for (let attempt = 0; attempt < 300; attempt += 1) {
-    try {
-      const response = await fetch(url);
-      if (response.ok) return;
-    } catch {
-      // not listening yet
-    }
-    await new Promise((resolve) => setTimeout(resolve, 100));
-  }
-  throw new Error(`${url} did not answer`);
-}
-
-function startPreview(app) {
-  const vite = join(ROOT, 'node_modules', '.bin', 'vite');
-  const child = spawn(vite, ['preview', '--port', String(app.port), '--strictPort', '--host', '127.0.0.1'], {
-    cwd: join(ROOT, app.name),
-    stdio: ['ignore', 'ignore', 'inherit'],
-  });
-  return child;
-}
 
 /** Opens `url` in a fresh profile and sums the encoded sizes of the responses that are not api calls. */
 async function measurePage(url) {
@@ -89,36 +54,28 @@ async function measurePage(url) {
 async function main() {
   const verdicts = [];
   for (const app of apps) {
-    // NODE_ENV=development (which the api wants) would make Vite bundle React's development build.
-    await run('npm', ['run', 'build', '--silent'], join(ROOT, app.name), { ...process.env, NODE_ENV: 'production' });
-    const server = startPreview(app);
-    try {
-      await waitForServer(`http://127.0.0.1:${app.port}/`);
-      for (const path of app.paths) {
-        const result = await measurePage(`http://127.0.0.1:${app.port}${path}`);
-        const kb = result.bytes / 1024;
-        const met = app.targetKb === null ? null : kb <= app.targetKb;
-        console.log(
-          JSON.stringify({
-            bench: 'first-load',
-            app: app.name,
-            path,
-            files: result.files.length,
-            kilobytesOnTheWire: Number(kb.toFixed(1)),
-            apiCallsLeftOut: result.apiCalls,
-            apiKilobytes: Number((result.apiBytes / 1024).toFixed(1)),
-            largest: result.files
-              .sort((a, b) => b.bytes - a.bytes)
-              .slice(0, 4)
-              .map((file) => `${new URL(file.url).pathname} ${(file.bytes / 1024).toFixed(1)} KB`),
-            target: app.targetKb === null ? null : `≤ ${app.targetKb} KB`,
-            met,
-          }),
-        );
-        if (met !== null) verdicts.push(met);
-      }
-    } finally {
-      server.kill('SIGTERM');
+    for (const path of app.paths) {
+      const result = await measurePage(`http://127.0.0.1:${app.port}${path}`);
+      const kb = result.bytes / 1024;
+      const met = app.targetKb === null ? null : kb <= app.targetKb;
+      console.log(
+        JSON.stringify({
+          bench: 'first-load',
+          app: app.name,
+          path,
+          files: result.files.length,
+          kilobytesOnTheWire: Number(kb.toFixed(1)),
+          apiCallsLeftOut: result.apiCalls,
+          apiKilobytes: Number((result.apiBytes / 1024).toFixed(1)),
+          largest: result.files
+            .sort((a, b) => b.bytes - a.bytes)
+            .slice(0, 4)
+            .map((file) => `${new URL(file.url).pathname} ${(file.bytes / 1024).toFixed(1)} KB`),
+          target: app.targetKb === null ? null : `≤ ${app.targetKb} KB`,
+          met,
+        }),
+      );
+      if (met !== null) verdicts.push(met);
     }
   }
   const allMet = verdicts.every(Boolean);

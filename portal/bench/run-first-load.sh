@@ -46,5 +46,14 @@ say "Loading the demo scenario for the first-load benchmark"
 start_service first-load-api "$ROOT/api" node dist/main.js
 wait_for_url "http://127.0.0.1:$BENCH_API_PORT/api/health" 60
 
+for app in portal admin; do
+  # NODE_ENV=development (the api's) would make Vite bundle React's development build.
+  (cd "$ROOT/$app" && NODE_ENV=production npm run build --silent)
+done
+start_service first-load-portal "$ROOT/portal" "$ROOT/node_modules/.bin/vite" preview --port "$BENCH_PORTAL_PORT" --strictPort --host 127.0.0.1
+start_service first-load-admin "$ROOT/admin" "$ROOT/node_modules/.bin/vite" preview --port "$BENCH_ADMIN_PORT" --strictPort --host 127.0.0.1
+wait_for_url "http://127.0.0.1:$BENCH_PORTAL_PORT/" 60
+wait_for_url "http://127.0.0.1:$BENCH_ADMIN_PORT/" 60
+
 say "First-load benchmark (portal on $BENCH_PORTAL_PORT, admin on $BENCH_ADMIN_PORT)"
 node "$ROOT/portal/bench/first-load.mjs"
