@@ -45,13 +45,35 @@ export async function openBrowser(): Promise<BrowserSession> {
   };
 }
 
+/**
+ * Waits until no Headless UI element is mid-transition (they carry data-transition while fading). One still marked
+ * after 10 s is stuck, not slow: the error names it, so a failure says what was left on the screen.
+ */
+export async function transitionsSettled(page: Page): Promise<void> {
+  try {
+    await page.waitForFunction(() => document.querySelectorAll('[data-transition]').length === 0, undefined, {
+      timeout: 10_000,
+      polling: 100,
+    });
+  } catch (error) {
+    const stuck = await page
+      .evaluate(() =>
+        Array.from(document.querySelectorAll('[data-transition]'), (element) => element.outerHTML.slice(0, 300)).join(
+          '\n',
+        ),
+      )
+      .catch(() => '(could not read the page)');
+    throw new Error(`Elements still mid-transition after 10 s:\n${stuck}`, { cause: error });
+  }
+}
+
 let shotNumber = 0;
 
 /** Saves a numbered full-page PNG, e.g. `admin-staff-03-create-dialog.png`. */
 export async function screenshot(page: Page, journey: string, step: string): Promise<string> {
   mkdirSync(screenshotDir, { recursive: true });
   // Let Headless UI finish fading dialogs in or out, so the picture shows where the screen settles.
-  await page.waitForFunction(() => document.querySelectorAll('[data-transition]').length === 0);
+  await transitionsSettled(page);
   shotNumber += 1;
   const path = join(screenshotDir, `${journey}-${String(shotNumber).padStart(2, '0')}-${step}.png`);
   await page.screenshot({ path, fullPage: true });

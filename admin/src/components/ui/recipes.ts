@@ -29,7 +29,7 @@ export const listboxRecipe = {
   button:
     'flex h-8 w-full items-center justify-between gap-2 rounded-md border border-line-strong bg-surface px-2.5 text-left text-sm text-ink focus:outline-none data-focus:border-spruce data-focus:outline-2 data-focus:-outline-offset-1 data-focus:outline-spruce data-invalid:border-danger data-disabled:bg-sunken',
   options:
-    'z-50 w-(--button-width) rounded-md border border-line bg-surface p-1 shadow-overlay [--anchor-gap:4px] focus:outline-none transition duration-100 ease-out data-closed:opacity-0',
+    'z-50 w-(--button-width) rounded-md border border-line bg-surface p-1 shadow-overlay [--anchor-gap:4px] focus:outline-none',
   option:
     'group flex cursor-default items-start gap-2 rounded-sm px-2 py-1.5 text-sm text-ink select-none data-focus:bg-spruce-soft data-selected:font-semibold',
   optionDescription: 'block text-xs font-normal text-ink-muted',

@@ -55,7 +55,7 @@ export function SelectField<Value extends string>({
             />
           </svg>
         </ListboxButton>
-        <ListboxOptions anchor="bottom start" transition className={listboxRecipe.options}>
+        <ListboxOptions anchor="bottom start" className={listboxRecipe.options}>
           {options.map((option) => (
             <ListboxOption key={option.value} value={option.value} className={listboxRecipe.option}>
               <svg
