@@ -5,25 +5,15 @@
 //   error codes              https://docs.stripe.com/error-codes (balance_insufficient,
 //                            insufficient_capabilities_for_transfer, resource_missing)
 import Stripe from 'stripe';
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { onboardedAccount, startHarness, type Harness } from './support/harness';
+import { describe, expect, it } from 'vitest';
+import { onboardedAccount, useSharedHarness } from './support/harness';
 import { caught } from './support/caught';
 
-let harness: Harness;
-let stripe: Stripe;
-
-beforeAll(async () => {
-  harness = await startHarness();
-  stripe = harness.stripe();
-});
-afterAll(() => harness.close());
-beforeEach(async () => {
-  await harness.control('/reset');
-});
+const standIn = useSharedHarness();
 
 describe('balance', () => {
   it('starts at zero for the platform', async () => {
-    const balance = await stripe.balance.retrieve();
+    const balance = await standIn.stripe.balance.retrieve();
     expect(balance).toMatchObject({
       object: 'balance',
       livemode: false,
@@ -33,26 +23,26 @@ describe('balance', () => {
   });
 
   it('shows the amount set through the control route', async () => {
-    const control = await harness.control('/balance', { amount: 25_000, currency: 'USD' });
+    const control = await standIn.harness.control('/balance', { amount: 25_000, currency: 'USD' });
     expect(control.status).toBe(200);
-    const balance = await stripe.balance.retrieve();
+    const balance = await standIn.stripe.balance.retrieve();
     expect(balance.available).toEqual([{ amount: 25_000, currency: 'usd' }]);
   });
 
   it('refuses a bad control body naming the field', async () => {
-    const response = await harness.control('/balance', { amount: 12.5, currency: 'usd' });
+    const response = await standIn.harness.control('/balance', { amount: 12.5, currency: 'usd' });
     expect(response.status).toBe(400);
     expect(response.body.error.param).toBe('amount');
-    const currency = await harness.control('/balance', { amount: 100, currency: 'dollars' });
+    const currency = await standIn.harness.control('/balance', { amount: 100, currency: 'dollars' });
     expect(currency.body.error.param).toBe('currency');
   });
 });
 
 describe('transfers', () => {
   it('moves money from the platform balance to the connected account', async () => {
-    const destination = await onboardedAccount(harness, stripe);
-    await harness.control('/balance', { amount: 10_000, currency: 'usd' });
-    const transfer = await stripe.transfers.create({
+    const destination = await onboardedAccount(standIn.harness, standIn.stripe);
+    await standIn.harness.control('/balance', { amount: 10_000, currency: 'usd' });
+    const transfer = await standIn.stripe.transfers.create({
       amount: 2_500,
       currency: 'usd',
       destination: destination.id,
@@ -72,40 +62,45 @@ describe('transfers', () => {
       reversals: { object: 'list', data: [], has_more: false, url: `/v1/transfers/${transfer.id}/reversals` },
     });
     expect(transfer.id).toMatch(/^tr_/);
-    expect((await stripe.balance.retrieve()).available).toEqual([{ amount: 7_500, currency: 'usd' }]);
-    const connected = await stripe.balance.retrieve({}, { stripeAccount: destination.id });
+    expect((await standIn.stripe.balance.retrieve()).available).toEqual([{ amount: 7_500, currency: 'usd' }]);
+    const connected = await standIn.stripe.balance.retrieve({}, { stripeAccount: destination.id });
     expect(connected.available).toEqual([{ amount: 2_500, currency: 'usd' }]);
 
-    const fetched = await stripe.transfers.retrieve(transfer.id, { expand: ['destination'] });
+    const fetched = await standIn.stripe.transfers.retrieve(transfer.id, { expand: ['destination'] });
     expect((fetched.destination as Stripe.Account).id).toBe(destination.id);
     expect((fetched.destination as Stripe.Account).object).toBe('account');
   });
 
   it('fails with balance_insufficient when the platform balance is short, and changes nothing', async () => {
-    const destination = await onboardedAccount(harness, stripe);
-    await harness.control('/balance', { amount: 999, currency: 'usd' });
+    const destination = await onboardedAccount(standIn.harness, standIn.stripe);
+    await standIn.harness.control('/balance', { amount: 999, currency: 'usd' });
     const error = await caught(
-      stripe.transfers.create({ amount: 1_000, currency: 'usd', destination: destination.id }),
+      standIn.stripe.transfers.create({ amount: 1_000, currency: 'usd', destination: destination.id }),
     );
     expect(error).toBeInstanceOf(Stripe.errors.StripeInvalidRequestError);
     expect(error.statusCode).toBe(400);
     expect(error.code).toBe('balance_insufficient');
-    expect((await stripe.balance.retrieve()).available).toEqual([{ amount: 999, currency: 'usd' }]);
-    expect((await stripe.transfers.list()).data).toHaveLength(0);
+    expect((await standIn.stripe.balance.retrieve()).available).toEqual([{ amount: 999, currency: 'usd' }]);
+    expect((await standIn.stripe.transfers.list()).data).toHaveLength(0);
   });
 
   it('refuses a destination that has not finished onboarding', async () => {
-    await harness.control('/balance', { amount: 10_000, currency: 'usd' });
-    const fresh = await stripe.accounts.create({ type: 'express', capabilities: { transfers: { requested: true } } });
-    const error = await caught(stripe.transfers.create({ amount: 100, currency: 'usd', destination: fresh.id }));
+    await standIn.harness.control('/balance', { amount: 10_000, currency: 'usd' });
+    const fresh = await standIn.stripe.accounts.create({
+      type: 'express',
+      capabilities: { transfers: { requested: true } },
+    });
+    const error = await caught(
+      standIn.stripe.transfers.create({ amount: 100, currency: 'usd', destination: fresh.id }),
+    );
     expect(error.code).toBe('insufficient_capabilities_for_transfer');
     expect(error.param).toBe('destination');
   });
 
   it('refuses an unknown destination with resource_missing', async () => {
-    await harness.control('/balance', { amount: 10_000, currency: 'usd' });
+    await standIn.harness.control('/balance', { amount: 10_000, currency: 'usd' });
     const error = await caught(
-      stripe.transfers.create({ amount: 100, currency: 'usd', destination: 'acct_1234567890abcdef' }),
+      standIn.stripe.transfers.create({ amount: 100, currency: 'usd', destination: 'acct_1234567890abcdef' }),
     );
     expect(error).toBeInstanceOf(Stripe.errors.StripeInvalidRequestError);
     expect(error.code).toBe('resource_missing');
@@ -113,22 +108,24 @@ describe('transfers', () => {
   });
 
   it('refuses a non-integer amount naming it', async () => {
-    const error = await caught(stripe.transfers.create({ amount: 10.5, currency: 'usd', destination: 'acct_x' }));
+    const error = await caught(
+      standIn.stripe.transfers.create({ amount: 10.5, currency: 'usd', destination: 'acct_x' }),
+    );
     expect(error.code).toBe('parameter_invalid_integer');
     expect(error.param).toBe('amount');
   });
 
   it('answers an unknown transfer with 404 resource_missing', async () => {
-    const error = await caught(stripe.transfers.retrieve('tr_doesnotexist'));
+    const error = await caught(standIn.stripe.transfers.retrieve('tr_doesnotexist'));
     expect(error.statusCode).toBe(404);
     expect(error.code).toBe('resource_missing');
     expect(error.param).toBe('id');
   });
 
   it('lists newest first, filters by destination, and pages', async () => {
-    const first = await onboardedAccount(harness, stripe);
-    const second = await onboardedAccount(harness, stripe);
-    await harness.control('/balance', { amount: 100_000, currency: 'usd' });
+    const first = await onboardedAccount(standIn.harness, standIn.stripe);
+    const second = await onboardedAccount(standIn.harness, standIn.stripe);
+    await standIn.harness.control('/balance', { amount: 100_000, currency: 'usd' });
     const made: string[] = [];
     for (const [destination, amount] of [
       [first.id, 100],
@@ -136,31 +133,39 @@ describe('transfers', () => {
       [first.id, 300],
       [first.id, 400],
     ] as const) {
-      made.push((await stripe.transfers.create({ amount, currency: 'usd', destination })).id);
+      made.push((await standIn.stripe.transfers.create({ amount, currency: 'usd', destination })).id);
     }
-    const toFirst = await stripe.transfers.list({ destination: first.id, limit: 2 });
+    const toFirst = await standIn.stripe.transfers.list({ destination: first.id, limit: 2 });
     expect(toFirst.data.map((t) => t.amount)).toEqual([400, 300]);
     expect(toFirst.has_more).toBe(true);
-    const rest = await stripe.transfers.list({ destination: first.id, limit: 2, starting_after: toFirst.data[1]?.id });
+    const rest = await standIn.stripe.transfers.list({
+      destination: first.id,
+      limit: 2,
+      starting_after: toFirst.data[1]?.id,
+    });
     expect(rest.data.map((t) => t.amount)).toEqual([100]);
     expect(rest.has_more).toBe(false);
-    const all = await stripe.transfers.list({ limit: 3 }).autoPagingToArray({ limit: 100 });
+    const all = await standIn.stripe.transfers.list({ limit: 3 }).autoPagingToArray({ limit: 100 });
     expect(all.map((t) => t.id)).toEqual([...made].reverse());
-    const expanded = await stripe.transfers.list({ limit: 1, expand: ['data.destination'] });
+    const expanded = await standIn.stripe.transfers.list({ limit: 1, expand: ['data.destination'] });
     expect((expanded.data[0]?.destination as Stripe.Account).object).toBe('account');
   });
 
   it('refuses a limit outside 1..100', async () => {
-    const error = await caught(stripe.transfers.list({ limit: 101 }));
+    const error = await caught(standIn.stripe.transfers.list({ limit: 101 }));
     expect(error.param).toBe('limit');
   });
 
   it('reverses part and then the rest, returning the money to the platform', async () => {
-    const destination = await onboardedAccount(harness, stripe);
-    await harness.control('/balance', { amount: 5_000, currency: 'usd' });
-    const transfer = await stripe.transfers.create({ amount: 3_000, currency: 'usd', destination: destination.id });
+    const destination = await onboardedAccount(standIn.harness, standIn.stripe);
+    await standIn.harness.control('/balance', { amount: 5_000, currency: 'usd' });
+    const transfer = await standIn.stripe.transfers.create({
+      amount: 3_000,
+      currency: 'usd',
+      destination: destination.id,
+    });
 
-    const partial = await stripe.transfers.createReversal(transfer.id, {
+    const partial = await standIn.stripe.transfers.createReversal(transfer.id, {
       amount: 1_000,
       metadata: { reason: 'overpaid' },
     });
@@ -171,44 +176,48 @@ describe('transfers', () => {
       transfer: transfer.id,
     });
     expect(partial.id).toMatch(/^trr_/);
-    let after = await stripe.transfers.retrieve(transfer.id);
+    let after = await standIn.stripe.transfers.retrieve(transfer.id);
     expect(after.amount_reversed).toBe(1_000);
     expect(after.reversed).toBe(false);
     expect(after.reversals.data.map((r) => r.id)).toEqual([partial.id]);
 
-    const tooMuch = await caught(stripe.transfers.createReversal(transfer.id, { amount: 2_001 }));
+    const tooMuch = await caught(standIn.stripe.transfers.createReversal(transfer.id, { amount: 2_001 }));
     expect(tooMuch.param).toBe('amount');
 
-    const rest = await stripe.transfers.createReversal(transfer.id);
+    const rest = await standIn.stripe.transfers.createReversal(transfer.id);
     expect(rest.amount).toBe(2_000);
-    after = await stripe.transfers.retrieve(transfer.id);
+    after = await standIn.stripe.transfers.retrieve(transfer.id);
     expect(after.reversed).toBe(true);
     expect(after.amount_reversed).toBe(3_000);
-    expect((await stripe.balance.retrieve()).available).toEqual([{ amount: 5_000, currency: 'usd' }]);
-    expect((await stripe.balance.retrieve({}, { stripeAccount: destination.id })).available).toEqual([
+    expect((await standIn.stripe.balance.retrieve()).available).toEqual([{ amount: 5_000, currency: 'usd' }]);
+    expect((await standIn.stripe.balance.retrieve({}, { stripeAccount: destination.id })).available).toEqual([
       { amount: 0, currency: 'usd' },
     ]);
 
-    const reversals = await stripe.transfers.listReversals(transfer.id);
+    const reversals = await standIn.stripe.transfers.listReversals(transfer.id);
     expect(reversals.data.map((r) => r.id)).toEqual([rest.id, partial.id]);
-    const one = await stripe.transfers.retrieveReversal(transfer.id, partial.id);
+    const one = await standIn.stripe.transfers.retrieveReversal(transfer.id, partial.id);
     expect(one.metadata).toEqual({ reason: 'overpaid' });
 
-    const events = await stripe.events.list({ type: 'transfer.*' });
+    const events = await standIn.stripe.events.list({ type: 'transfer.*' });
     expect(events.data.map((e) => e.type)).toEqual(['transfer.reversed', 'transfer.reversed', 'transfer.created']);
   });
 
   it('updates a transfer description and metadata with transfer.updated', async () => {
-    const destination = await onboardedAccount(harness, stripe);
-    await harness.control('/balance', { amount: 500, currency: 'usd' });
-    const transfer = await stripe.transfers.create({ amount: 500, currency: 'usd', destination: destination.id });
-    const updated = await stripe.transfers.update(transfer.id, {
+    const destination = await onboardedAccount(standIn.harness, standIn.stripe);
+    await standIn.harness.control('/balance', { amount: 500, currency: 'usd' });
+    const transfer = await standIn.stripe.transfers.create({
+      amount: 500,
+      currency: 'usd',
+      destination: destination.id,
+    });
+    const updated = await standIn.stripe.transfers.update(transfer.id, {
       description: 'Session 1 pay',
       metadata: { batch: '3' },
     });
     expect(updated.description).toBe('Session 1 pay');
     expect(updated.metadata).toEqual({ batch: '3' });
-    const events = await stripe.events.list({ type: 'transfer.updated' });
+    const events = await standIn.stripe.events.list({ type: 'transfer.updated' });
     expect(events.data[0]?.data.previous_attributes).toEqual({ description: null, metadata: {} });
   });
 });

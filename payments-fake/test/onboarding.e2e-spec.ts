@@ -4,27 +4,16 @@
 // and https://docs.stripe.com/connect/express-accounts (details_submitted, payouts_enabled and
 // capabilities once onboarding is complete; account.updated tells the platform).
 import Stripe from 'stripe';
-import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
-import { startHarness, waitFor, WEBHOOK_SECRET, type Harness } from './support/harness';
+import { describe, expect, it } from 'vitest';
+import { useSharedHarness, waitFor, WEBHOOK_SECRET } from './support/harness';
 import { caught } from './support/caught';
 
-let harness: Harness;
-let stripe: Stripe;
+const standIn = useSharedHarness();
 const REFRESH_URL = 'http://127.0.0.1:5173/payout-setup/refresh';
 const RETURN_URL = 'http://127.0.0.1:5173/payout-setup/done';
 
-beforeAll(async () => {
-  harness = await startHarness();
-  stripe = harness.stripe();
-});
-afterAll(() => harness.close());
-beforeEach(async () => {
-  await harness.control('/reset');
-  harness.receiver.received.length = 0;
-});
-
 async function newLink(accountId: string) {
-  return stripe.accountLinks.create({
+  return standIn.stripe.accountLinks.create({
     account: accountId,
     type: 'account_onboarding',
     refresh_url: REFRESH_URL,
@@ -35,7 +24,7 @@ async function newLink(accountId: string) {
 function formAction(html: string): string {
   const action = /<form[^>]*action="([^"]+)"/.exec(html)?.[1];
   if (!action) throw new Error('no form on the page');
-  return new URL(action, harness.fake.url).toString();
+  return new URL(action, standIn.harness.fake.url).toString();
 }
 
 function submit(action: string, fields: Record<string, string>) {
@@ -49,24 +38,24 @@ function submit(action: string, fields: Record<string, string>) {
 
 describe('account links', () => {
   it('returns an account_link with a loopback URL that expires in about five minutes', async () => {
-    const account = await stripe.accounts.create({ type: 'express' });
+    const account = await standIn.stripe.accounts.create({ type: 'express' });
     const link = await newLink(account.id);
     expect(link.object).toBe('account_link');
     expect(link.expires_at - link.created).toBe(300);
-    expect(link.url.startsWith(`${harness.fake.url}/onboarding/`)).toBe(true);
+    expect(link.url.startsWith(`${standIn.harness.fake.url}/onboarding/`)).toBe(true);
   });
 
   it('refuses a missing return_url and an unknown account', async () => {
-    const account = await stripe.accounts.create({ type: 'express' });
+    const account = await standIn.stripe.accounts.create({ type: 'express' });
     const missing = await caught(
-      stripe.accountLinks.create({ account: account.id, type: 'account_onboarding', refresh_url: REFRESH_URL }),
+      standIn.stripe.accountLinks.create({ account: account.id, type: 'account_onboarding', refresh_url: REFRESH_URL }),
     );
     expect(missing.code).toBe('parameter_missing');
     expect(missing.param).toBe('return_url');
     const unknown = await caught(newLink('acct_0000000000000000'));
     expect(unknown.param).toBe('account');
     const badUrl = await caught(
-      stripe.accountLinks.create({
+      standIn.stripe.accountLinks.create({
         account: account.id,
         type: 'account_onboarding',
         refresh_url: 'not a url',
@@ -79,7 +68,7 @@ describe('account links', () => {
 
 describe('hosted onboarding', () => {
   it('completes onboarding, redirects to return_url and sends a verifiable account.updated', async () => {
-    const account = await stripe.accounts.create({
+    const account = await standIn.stripe.accounts.create({
       type: 'express',
       email: 'p020@evenhand.test',
       capabilities: { transfers: { requested: true } },
@@ -98,7 +87,7 @@ describe('hosted onboarding', () => {
     expect(done.status).toBe(303);
     expect(done.headers.get('location')).toBe(RETURN_URL);
 
-    const onboarded = await stripe.accounts.retrieve(account.id);
+    const onboarded = await standIn.stripe.accounts.retrieve(account.id);
     expect(onboarded.details_submitted).toBe(true);
     expect(onboarded.payouts_enabled).toBe(true);
     expect(onboarded.capabilities).toEqual({ transfers: 'active' });
@@ -108,12 +97,12 @@ describe('hosted onboarding', () => {
     expect(onboarded.external_accounts?.data[0]).toMatchObject({ object: 'bank_account', last4: '6789' });
 
     await waitFor(
-      () => harness.receiver.received.some((hook) => hook.type === 'account.updated'),
+      () => standIn.harness.receiver.received.some((hook) => hook.type === 'account.updated'),
       10_000,
       'account.updated',
     );
-    const hook = harness.receiver.received.find((received) => received.type === 'account.updated');
-    const event = stripe.webhooks.constructEvent(hook!.rawBody, hook!.signature, WEBHOOK_SECRET);
+    const hook = standIn.harness.receiver.received.find((received) => received.type === 'account.updated');
+    const event = standIn.stripe.webhooks.constructEvent(hook!.rawBody, hook!.signature, WEBHOOK_SECRET);
     expect(event.type).toBe('account.updated');
     expect(event.account).toBe(account.id);
     const object = event.data.object as Stripe.Account;
@@ -122,19 +111,19 @@ describe('hosted onboarding', () => {
   });
 
   it('enables charges when card_payments was requested', async () => {
-    const account = await stripe.accounts.create({
+    const account = await standIn.stripe.accounts.create({
       type: 'express',
       capabilities: { card_payments: { requested: true }, transfers: { requested: true } },
     });
     const html = await (await fetch((await newLink(account.id)).url)).text();
     await submit(formAction(html), { full_name: 'Avery Quill', confirmed: 'yes', action: 'complete' });
-    const onboarded = await stripe.accounts.retrieve(account.id);
+    const onboarded = await standIn.stripe.accounts.retrieve(account.id);
     expect(onboarded.charges_enabled).toBe(true);
     expect(onboarded.capabilities).toEqual({ card_payments: 'active', transfers: 'active' });
   });
 
   it('is single-use: a second visit goes to refresh_url', async () => {
-    const account = await stripe.accounts.create({ type: 'express' });
+    const account = await standIn.stripe.accounts.create({ type: 'express' });
     const link = await newLink(account.id);
     expect((await fetch(link.url)).status).toBe(200);
     const again = await fetch(link.url, { redirect: 'manual' });
@@ -143,17 +132,17 @@ describe('hosted onboarding', () => {
   });
 
   it('sends an expired link to refresh_url', async () => {
-    const account = await stripe.accounts.create({ type: 'express' });
+    const account = await standIn.stripe.accounts.create({ type: 'express' });
     const link = await newLink(account.id);
-    await harness.control('/clock', { advanceSeconds: 301 });
+    await standIn.harness.control('/clock', { advanceSeconds: 301 });
     const expired = await fetch(link.url, { redirect: 'manual' });
     expect(expired.status).toBe(302);
     expect(expired.headers.get('location')).toBe(REFRESH_URL);
-    expect((await stripe.accounts.retrieve(account.id)).details_submitted).toBe(false);
+    expect((await standIn.stripe.accounts.retrieve(account.id)).details_submitted).toBe(false);
   });
 
   it('shows the problems by field and keeps the account unchanged when the form is incomplete', async () => {
-    const account = await stripe.accounts.create({ type: 'express' });
+    const account = await standIn.stripe.accounts.create({ type: 'express' });
     const html = await (await fetch((await newLink(account.id)).url)).text();
     const action = formAction(html);
     const refused = await submit(action, { full_name: '  ', action: 'complete' });
@@ -163,34 +152,34 @@ describe('hosted onboarding', () => {
     expect(page).toContain('Name on your bank account: write your name.');
     expect(page).toContain('Confirmation: tick the box');
     expect(page).toContain('aria-invalid="true"');
-    expect((await stripe.accounts.retrieve(account.id)).details_submitted).toBe(false);
+    expect((await standIn.stripe.accounts.retrieve(account.id)).details_submitted).toBe(false);
     // The same session still works once corrected.
     const done = await submit(action, { full_name: 'Avery Quill', confirmed: 'yes', action: 'complete' });
     expect(done.status).toBe(303);
   });
 
   it('escapes what it shows from the account', async () => {
-    const account = await stripe.accounts.create({ type: 'express', email: 'p"<b>x</b>@evenhand.test' });
+    const account = await standIn.stripe.accounts.create({ type: 'express', email: 'p"<b>x</b>@evenhand.test' });
     const html = await (await fetch((await newLink(account.id)).url)).text();
     expect(html).not.toContain('<b>x</b>');
     expect(html).toContain('&lt;b&gt;x&lt;/b&gt;');
   });
 
   it('lets the holder leave without finishing: return_url, account unchanged, session closed', async () => {
-    const account = await stripe.accounts.create({ type: 'express' });
+    const account = await standIn.stripe.accounts.create({ type: 'express' });
     const html = await (await fetch((await newLink(account.id)).url)).text();
     const action = formAction(html);
     const left = await submit(action, { action: 'leave' });
     expect(left.status).toBe(303);
     expect(left.headers.get('location')).toBe(RETURN_URL);
-    expect((await stripe.accounts.retrieve(account.id)).details_submitted).toBe(false);
+    expect((await standIn.stripe.accounts.retrieve(account.id)).details_submitted).toBe(false);
     const reuse = await submit(action, { full_name: 'Avery Quill', confirmed: 'yes', action: 'complete' });
     expect(reuse.status).toBe(303);
     expect(reuse.headers.get('location')).toBe(REFRESH_URL);
   });
 
   it('answers an unknown link with a 404 page', async () => {
-    const response = await fetch(`${harness.fake.url}/onboarding/not-a-real-token`);
+    const response = await fetch(`${standIn.harness.fake.url}/onboarding/not-a-real-token`);
     expect(response.status).toBe(404);
     expect(await response.text()).toContain('Link not valid');
   });

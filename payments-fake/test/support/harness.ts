@@ -4,6 +4,7 @@
 import { createServer, type IncomingHttpHeaders, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import Stripe from 'stripe';
+import { afterAll, beforeAll, beforeEach } from 'vitest';
 import { startPaymentsFake, type PaymentsFakeOptions, type RunningPaymentsFake } from '../../src/app/payments-fake-app';
 
 export const TEST_SECRET_KEY = 'sk_test_evenhand_local_4242';
@@ -156,4 +157,23 @@ export async function onboardedAccount(
   });
   if (done.status !== 303) throw new Error(`onboarding did not finish (status ${done.status})`);
   return stripe.accounts.retrieve(account.id);
+}
+
+/**
+ * One stand-in for a whole test file, reset before each test (state, received webhooks, queued answers). Call it at
+ * the top of the file; the returned object's fields are filled in once the file's tests start.
+ */
+export function useSharedHarness(): { harness: Harness; stripe: Stripe } {
+  const standIn = {} as { harness: Harness; stripe: Stripe };
+  beforeAll(async () => {
+    standIn.harness = await startHarness();
+    standIn.stripe = standIn.harness.stripe();
+  });
+  afterAll(() => standIn.harness.close());
+  beforeEach(async () => {
+    await standIn.harness.control('/reset');
+    standIn.harness.receiver.received.length = 0;
+    standIn.harness.receiver.answerWith([]);
+  });
+  return standIn;
 }
