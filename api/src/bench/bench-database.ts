@@ -75,13 +75,7 @@ export class BenchDatabase {
     ).rows;
     this.createdJobQueue = !exists;
     await this.admin.query(`CREATE SCHEMA "${this.schema}"`);
-    const migrator = new DataSource(dataSourceOptions(this.url));
-    await migrator.initialize();
-    try {
-      await migrator.runMigrations({ transaction: 'each' });
-    } finally {
-      await migrator.destroy();
-    }
+    await applyMigrations(this.url);
   }
 
   async serverVersion(): Promise<string> {
@@ -107,4 +101,15 @@ function withSearchPath(databaseUrl: string, schemas: string[], applicationName:
   url.searchParams.set('options', existing ? `${existing} ${searchPath}` : searchPath);
   if (!url.searchParams.has('application_name')) url.searchParams.set('application_name', applicationName);
   return url.toString();
+}
+
+/** Applies every migration to the database (and schema) the url names, as `npm run migrate -w api` would. */
+export async function applyMigrations(url: string): Promise<void> {
+  const migrator = new DataSource(dataSourceOptions(url));
+  await migrator.initialize();
+  try {
+    await migrator.runMigrations({ transaction: 'each' });
+  } finally {
+    await migrator.destroy();
+  }
 }

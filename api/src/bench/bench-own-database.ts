@@ -1,7 +1,5 @@
 import { Client } from 'pg';
-import { DataSource } from 'typeorm';
-import { dataSourceOptions } from '../database/data-source-options';
-import { BenchSetupError } from './bench-database';
+import { applyMigrations, BenchSetupError } from './bench-database';
 
 /**
  * A throwaway database on the server DATABASE_URL names, rather than a schema inside that database: signing
@@ -53,14 +51,8 @@ export class BenchOwnDatabase {
   }
 
   /** Applies every migration, as `npm run migrate -w api` would. */
-  async migrate(): Promise<void> {
-    const migrator = new DataSource(dataSourceOptions(this.url));
-    await migrator.initialize();
-    try {
-      await migrator.runMigrations({ transaction: 'each' });
-    } finally {
-      await migrator.destroy();
-    }
+  migrate(): Promise<void> {
+    return applyMigrations(this.url);
   }
 
   async serverVersion(): Promise<string> {

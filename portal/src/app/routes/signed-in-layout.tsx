@@ -8,6 +8,7 @@ import { useMe } from '@/features/auth/api/get-me';
 import { useSignOut } from '@/features/auth/api/sign-out';
 import { describeProblem } from '@/lib/problem-message';
 import type { SignInLocationState } from './sign-in';
+import { LoadFailed } from '@/components/ui/load-failed';
 
 /** Route guard and frame for everything that needs a session. */
 export function SignedInLayout() {
@@ -28,14 +29,7 @@ export function SignedInLayout() {
   if (me.isError) {
     return (
       <PageLayout>
-        <div className="flex flex-col gap-4">
-          <Notice tone="error" title="We could not check whether you are signed in">
-            {describeProblem(me.error)}
-          </Notice>
-          <Button variant="secondary" onClick={() => void me.refetch()} disabled={me.isFetching}>
-            {me.isFetching ? 'Trying again…' : 'Try again'}
-          </Button>
-        </div>
+        <LoadFailed title="We could not check whether you are signed in" read={me} />
       </PageLayout>
     );
   }

@@ -1,7 +1,7 @@
 import { lazy, type ReactNode, Suspense, useEffect, useRef, useState } from 'react';
 import { useParams } from 'react-router-dom';
 import { PageLayout } from '@/components/layout/page-layout';
-import { Button, ButtonLink } from '@/components/ui/button';
+import { ButtonLink } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { Spinner } from '@/components/ui/spinner';
 import { StageList } from '@/components/ui/stage-list';
@@ -20,7 +20,7 @@ import { StudyClosedNotice } from '@/features/public-study/components/study-clos
 import { StudyOverview } from '@/features/public-study/components/study-overview';
 import { isApiError } from '@/lib/api-problem';
 import { formatDateTime } from '@/lib/date-format';
-import { describeProblem } from '@/lib/problem-message';
+import { LoadFailed } from '@/components/ui/load-failed';
 
 // What only someone taking part sees (the forms, the signature pad, the dialogs) loads when they reach it, so a
 // visitor's first load of a study's link stays small (portal/bench/first-load.mjs measures it).
@@ -54,15 +54,10 @@ export function StudyRoute() {
         isApiError(study.error, 'NOT_FOUND') ? (
           <StudyNotFound />
         ) : (
-          <div className="flex flex-col gap-4">
+          <>
             <title>Study · Evenhand</title>
-            <Notice tone="error" title="We could not load this study">
-              {describeProblem(study.error)}
-            </Notice>
-            <Button variant="secondary" onClick={() => void study.refetch()} disabled={study.isFetching}>
-              {study.isFetching ? 'Trying again…' : 'Try again'}
-            </Button>
-          </div>
+            <LoadFailed title="We could not load this study" read={study} />
+          </>
         )
       ) : (
         <>
@@ -99,16 +94,7 @@ function SignedInStudy({ study, me }: { study: PublicStudy; me: Me }) {
 
   if (enrollment.isPending) return <Spinner label="Finding where you are in this study…" />;
   if (enrollment.isError) {
-    return (
-      <div className="flex flex-col gap-4">
-        <Notice tone="error" title="We could not load your place in this study">
-          {describeProblem(enrollment.error)}
-        </Notice>
-        <Button variant="secondary" onClick={() => void enrollment.refetch()} disabled={enrollment.isFetching}>
-          {enrollment.isFetching ? 'Trying again…' : 'Try again'}
-        </Button>
-      </div>
-    );
+    return <LoadFailed title="We could not load your place in this study" read={enrollment} />;
   }
   if (enrollment.data === null) {
     const action =

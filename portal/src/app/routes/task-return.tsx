@@ -13,6 +13,7 @@ import { ReturnedStep } from '@/features/enrollment/components/returned-step';
 import { readTaskReturn, type TaskReturn } from '@/features/enrollment/utils/task-return';
 import { type PublicStudy, usePublicStudy } from '@/features/public-study/api/get-public-study';
 import { describeProblem } from '@/lib/problem-message';
+import { LoadFailed } from '@/components/ui/load-failed';
 
 type StudyQuery = UseQueryResult<PublicStudy>;
 type MeQuery = UseQueryResult<Me | null>;
@@ -94,14 +95,7 @@ function ReturnDone({
       {me.isPending ? (
         <Spinner label="Checking that you are signed in…" />
       ) : me.isError ? (
-        <div className="flex flex-col gap-4">
-          <Notice tone="error" title="We could not check whether you are signed in">
-            {describeProblem(me.error)}
-          </Notice>
-          <Button variant="secondary" onClick={() => void me.refetch()} disabled={me.isFetching}>
-            {me.isFetching ? 'Trying again…' : 'Try again'}
-          </Button>
-        </div>
+        <LoadFailed title="We could not check whether you are signed in" read={me} />
       ) : signedIn ? (
         <StepDetails taskReturn={taskReturn} study={study} />
       ) : (
@@ -148,14 +142,11 @@ function StepDetails({
   if (study.isError || enrollment.isError) {
     const failed = study.isError ? study : enrollment;
     return (
-      <div className="flex flex-col gap-4">
-        <Notice tone="error" title="We could not load the step’s details">
-          {describeProblem(failed.error)} Your step is done all the same.
-        </Notice>
-        <Button variant="secondary" onClick={() => void failed.refetch()} disabled={failed.isFetching}>
-          {failed.isFetching ? 'Trying again…' : 'Try again'}
-        </Button>
-      </div>
+      <LoadFailed
+        title="We could not load the step’s details"
+        read={failed}
+        afterProblem="Your step is done all the same."
+      />
     );
   }
   if (study.isPending || enrollment.isPending) return <Spinner label="Looking up your step…" />;

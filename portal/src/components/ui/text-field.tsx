@@ -1,29 +1,18 @@
-import { Description, Field, Input, Label } from '@headlessui/react';
+import { Input } from '@headlessui/react';
 import type { ComponentPropsWithRef } from 'react';
+import { LabelledField, type LabelledFieldProps } from './labelled-field';
 
-type TextFieldProps = Omit<ComponentPropsWithRef<'input'>, 'className' | 'children'> & {
-  label: string;
-  hint?: string;
-  error?: string | undefined;
-};
+type TextFieldProps = Omit<ComponentPropsWithRef<'input'>, 'className' | 'children'> & LabelledFieldProps;
 
 const inputClasses =
   'block w-full min-h-12 rounded-soft border-2 border-edge bg-paper-raised px-4 py-3 text-lead text-ink ' +
   'placeholder:text-ink-soft/70 data-focus:border-lagoon data-invalid:border-ember data-disabled:opacity-60';
 
-/** A labelled text input; hint and error are announced with it (Headless UI wires aria-describedby). */
+/** A labelled text input; hint and error are announced with it. */
 export function TextField({ label, hint, error, disabled, ...inputProps }: TextFieldProps) {
   return (
-    <Field disabled={disabled} className="flex flex-col gap-2">
-      <Label className="text-body font-semibold text-ink">{label}</Label>
-      {hint ? <Description className="text-fine text-ink-soft">{hint}</Description> : null}
+    <LabelledField label={label} hint={hint} error={error} disabled={disabled}>
       <Input {...inputProps} invalid={Boolean(error)} className={inputClasses} />
-      {error ? (
-        <Description role="alert" className="flex items-start gap-2 text-fine font-semibold text-ember">
-          <span aria-hidden="true">⚠</span>
-          <span>{error}</span>
-        </Description>
-      ) : null}
-    </Field>
+    </LabelledField>
   );
 }

@@ -3,13 +3,13 @@ import { Button } from '@/components/ui/button';
 import { Notice } from '@/components/ui/notice';
 import { ProgressBar } from '@/components/ui/progress-bar';
 import { Spinner } from '@/components/ui/spinner';
-import { describeProblem } from '@/lib/problem-message';
 import { type ConsentToSign, useConsentToSign } from '../api/get-consent';
 import type { CurrentConsentVersion, Signature } from '../api/sign-consent';
 import { useReadingPosition } from '../hooks/use-reading-position';
 import { type ReadingPage, readingPages } from '../utils/reading-pages';
 import { ConsentCaution } from './consent-caution';
 import { SignatureStep } from './signature-step';
+import { LoadFailed } from '@/components/ui/load-failed';
 
 type ConsentJourneyProps = {
   studyId: string;
@@ -25,16 +25,7 @@ export function ConsentJourney({ studyId, reconsent, onSigned }: ConsentJourneyP
 
   if (consent.isPending) return <Spinner label="Opening the consent form…" />;
   if (consent.isError) {
-    return (
-      <div className="flex flex-col gap-4">
-        <Notice tone="error" title="We could not open the consent form">
-          {describeProblem(consent.error)}
-        </Notice>
-        <Button variant="secondary" onClick={() => void consent.refetch()} disabled={consent.isFetching}>
-          {consent.isFetching ? 'Trying again…' : 'Try again'}
-        </Button>
-      </div>
-    );
+    return <LoadFailed title="We could not open the consent form" read={consent} />;
   }
   // After a 409 the new version is on its way; do not show the old one meanwhile.
   if (changedTo && consent.data.versionId !== changedTo.versionId && consent.isFetching) {

@@ -5,6 +5,7 @@ import { describeProblem } from '@/lib/problem-message';
 import { usePayoutAccount } from '../api/get-payout-account';
 import { useStartPayoutSetup } from '../api/start-payout-setup';
 import { type SetupReturn, type SetupView, setupView } from '../utils/setup-view';
+import { LoadFailed } from '@/components/ui/load-failed';
 
 const pill: Record<Exclude<SetupView, 'checking'>, { words: string; classes: string }> = {
   none: { words: 'Not set up yet', classes: 'bg-clay-tint text-clay-ink' },
@@ -21,16 +22,7 @@ export function PayoutSetup({ returnedFrom }: { returnedFrom: SetupReturn }) {
 
   if (account.isPending) return <Spinner label="Checking how you get paid…" />;
   if (account.isError) {
-    return (
-      <div className="flex flex-col gap-4">
-        <Notice tone="error" title="We could not check how you get paid">
-          {describeProblem(account.error)}
-        </Notice>
-        <Button variant="secondary" onClick={() => void account.refetch()} disabled={account.isFetching}>
-          {account.isFetching ? 'Trying again…' : 'Try again'}
-        </Button>
-      </div>
-    );
+    return <LoadFailed title="We could not check how you get paid" read={account} />;
   }
 
   const view = setupView(account.data, returnedFrom, account.checksLeft);

@@ -1,13 +1,11 @@
 import { Link } from 'react-router-dom';
-import { Button } from '@/components/ui/button';
-import { Notice } from '@/components/ui/notice';
 import { Spinner } from '@/components/ui/spinner';
 import { formatDate } from '@/lib/date-format';
 import { formatMinor } from '@/lib/money';
-import { describeProblem } from '@/lib/problem-message';
 import { type MyPayout, useMyPayouts } from '../api/get-my-payouts';
 import { type AmountsByCurrency, amountsInOrder, payoutTotals } from '../utils/payout-totals';
 import { payoutStatusWords } from './payout-status-words';
+import { LoadFailed } from '@/components/ui/load-failed';
 
 /** "$22.00", or "€15.00 + $13.00" for pay in more than one currency; `zeroIn` names the currency for nothing at all. */
 function amountsText(amounts: AmountsByCurrency, zeroIn: string): string {
@@ -22,16 +20,7 @@ export function YourPayments() {
 
   if (payouts.isPending) return <Spinner label="Loading your payments…" />;
   if (payouts.isError) {
-    return (
-      <div className="flex flex-col gap-4">
-        <Notice tone="error" title="We could not load your payments">
-          {describeProblem(payouts.error)}
-        </Notice>
-        <Button variant="secondary" onClick={() => void payouts.refetch()} disabled={payouts.isFetching}>
-          {payouts.isFetching ? 'Trying again…' : 'Try again'}
-        </Button>
-      </div>
-    );
+    return <LoadFailed title="We could not load your payments" read={payouts} />;
   }
 
   const { items, paidThisYearMinor, taxNote } = payouts.data;

@@ -1,11 +1,9 @@
 import { Link } from 'react-router-dom';
-import { Button } from '@/components/ui/button';
 import { Card } from '@/components/ui/card';
-import { Notice } from '@/components/ui/notice';
 import { Spinner } from '@/components/ui/spinner';
-import { describeProblem } from '@/lib/problem-message';
 import { type MyPlace, useMyPlaces } from '../api/get-my-place';
 import { useStudies, type StudySummary } from '../api/get-studies';
+import { LoadFailed } from '@/components/ui/load-failed';
 
 /** The participant's studies, with loading, error and a real empty state. */
 export function YourStudies() {
@@ -14,16 +12,7 @@ export function YourStudies() {
   if (studies.isPending) return <Spinner label="Loading your studies…" />;
 
   if (studies.isError) {
-    return (
-      <div className="flex flex-col gap-4">
-        <Notice tone="error" title="We could not load your studies">
-          {describeProblem(studies.error)}
-        </Notice>
-        <Button variant="secondary" onClick={() => void studies.refetch()} disabled={studies.isFetching}>
-          {studies.isFetching ? 'Trying again…' : 'Try again'}
-        </Button>
-      </div>
-    );
+    return <LoadFailed title="We could not load your studies" read={studies} />;
   }
 
   if (studies.data.length === 0) return <NoStudiesYet />;
