@@ -1,10 +1,18 @@
 import type Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { activeConsentVersion, signedInParticipant } from './support/consent-fixtures';
+import { signedUpParticipant } from './support/consent-fixtures';
 import { expectStatus } from './support/http';
 import { waitForMail } from './support/mailbox';
-import { eventually, fund, onboard, owedPayouts, providerClient, providerFaults } from './support/payout-fixtures';
-import { Browser, draftBetweenStudy, signedInStaff } from './support/study-fixtures';
+import {
+  eventually,
+  fund,
+  onboard,
+  openStudyWithCodedSteps,
+  owedPayouts,
+  providerClient,
+  providerFaults,
+} from './support/payout-fixtures';
+import { Browser, signedInStaff } from './support/study-fixtures';
 import { startTestApp, TestApp } from './support/test-app';
 
 // The api listens where the payments stand-in delivers its webhooks (npm test points it at this port).
@@ -56,34 +64,16 @@ async function allRows(studyId: string, query: Record<string, string> = {}): Pro
 
 /** One study, one coded step; Ada finishes payout set-up, Bo does not. */
 async function studyWithTwoPayees() {
-  const { studyId } = await draftBetweenStudy(coordinator);
-  const steps = await expectStatus(
-    coordinator.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 1000 }),
-    201,
-  );
-  const step = steps.items.find((s: { title: string }) => s.title === 'Session 1');
-  await expectStatus(
-    coordinator.put(`/api/studies/${studyId}/steps/${step.id}/completion-code`).send({ code: 'ONE-1111' }),
-    200,
-  );
-  const version = await activeConsentVersion(coordinator, studyId);
-  await expectStatus(coordinator.post(`/api/studies/${studyId}/open`), 200);
+  const {
+    studyId,
+    version,
+    stepIds: [stepId],
+  } = await openStudyWithCodedSteps(coordinator, [['Session 1', 1000, 'ONE-1111']]);
   const people = [];
   for (const name of ['ada', 'bo']) {
-    const { browser, email } = await signedInParticipant(testApp, name);
-    await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
+    const { browser, email } = await signedUpParticipant(testApp, studyId, version, name, `Pat ${name}`);
     await expectStatus(
-      browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 60 } }),
-      200,
-    );
-    await expectStatus(
-      browser
-        .post(`/api/studies/${studyId}/enrollments/me/signature`)
-        .send({ versionId: version.id, fingerprint: version.fingerprint, typedName: `Pat ${name}` }),
-      201,
-    );
-    await expectStatus(
-      browser.post(`/api/studies/${studyId}/enrollments/me/steps/${step.id}/complete`).send({ code: 'ONE-1111' }),
+      browser.post(`/api/studies/${studyId}/enrollments/me/steps/${stepId}/complete`).send({ code: 'ONE-1111' }),
       200,
     );
     const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);

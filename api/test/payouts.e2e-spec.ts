@@ -1,10 +1,11 @@
 import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { PayoutsService } from '../src/payouts/payouts.service';
-import { activeConsentVersion, signedInParticipant } from './support/consent-fixtures';
+import { activeConsentVersion, signedUpParticipant } from './support/consent-fixtures';
+import { eventually, openStudyWithCodedSteps } from './support/payout-fixtures';
 import { expectStatus } from './support/http';
 import { waitForMail } from './support/mailbox';
-import { Browser, draftBetweenStudy, signedInStaff } from './support/study-fixtures';
+import { Browser, signedInStaff } from './support/study-fixtures';
 import { startTestApp, TestApp } from './support/test-app';
 
 // The api listens where the payments stand-in delivers its webhooks (npm test points it at this port).
@@ -31,46 +32,14 @@ afterAll(async () => {
   await testApp.close();
 });
 
-async function eventually<T>(
-  check: () => Promise<T | undefined | false>,
-  what: string,
-  timeoutMs = 30_000,
-): Promise<T> {
-  const deadline = Date.now() + timeoutMs;
-  for (;;) {
-    const value = await check();
-    if (value) return value;
-    if (Date.now() > deadline) throw new Error(`timed out waiting for ${what}`);
-    await new Promise((resolve) => setTimeout(resolve, 200));
-  }
-}
-
 /** A recruiting study with two coded steps, and a participant who has signed and set up payouts. */
 async function paidStudyWithParticipant() {
-  const { studyId } = await draftBetweenStudy(coordinator);
-  for (const [title, payMinor, code] of [
+  const { studyId, version } = await openStudyWithCodedSteps(coordinator, [
     ['Session 1', 1000, 'ONE-1111'],
     ['Session 2', 1500, 'TWO-2222'],
-  ] as const) {
-    const steps = await expectStatus(coordinator.post(`/api/studies/${studyId}/steps`).send({ title, payMinor }), 201);
-    const step = steps.items.find((s: { title: string }) => s.title === title);
-    await expectStatus(coordinator.put(`/api/studies/${studyId}/steps/${step.id}/completion-code`).send({ code }), 200);
-  }
-  const version = await activeConsentVersion(coordinator, studyId);
-  await expectStatus(coordinator.post(`/api/studies/${studyId}/open`), 200);
-  const { browser, email } = await signedInParticipant(testApp, 'payee');
-  await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
-  await expectStatus(
-    browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 60 } }),
-    200,
-  );
-  await expectStatus(
-    browser
-      .post(`/api/studies/${studyId}/enrollments/me/signature`)
-      .send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Pat Payee' }),
-    201,
-  );
-  const steps = (await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200)).steps;
+  ]);
+  const { browser, email, me } = await signedUpParticipant(testApp, studyId, version, 'payee', 'Pat Payee');
+  const steps = me.steps;
   expect(steps.map((s: { hasCompletionCode: boolean }) => s.hasCompletionCode)).toEqual([true, true]);
   return { studyId, browser, email, steps: steps as Array<{ id: string; title: string }> };
 }

@@ -4,7 +4,7 @@ import { EnrollmentEntity } from '../src/enrollments/entities/enrollment.entity'
 import { StepProgressService } from '../src/enrollments/step-progress.service';
 import { ReminderSweepService } from '../src/reminders/reminder-sweep.service';
 import { JOB_NAMES, JobQueueService } from '../src/jobs/job-queue.service';
-import { activeConsentVersion, prepareToOpen, signedInParticipant } from './support/consent-fixtures';
+import { activeConsentVersion, prepareToOpen, signedUpParticipant } from './support/consent-fixtures';
 import { expectStatus } from './support/http';
 import { Browser, draftBetweenStudy, signedInStaff } from './support/study-fixtures';
 import { startTestApp, TestApp } from './support/test-app';
@@ -56,20 +56,7 @@ async function recruitingStudy(specs: StepSpec[]) {
 }
 
 async function signedUp(studyId: string, version: { id: string; fingerprint: string }, prefix: string) {
-  const { browser, email } = await signedInParticipant(testApp, prefix);
-  await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
-  await expectStatus(
-    browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 60 } }),
-    200,
-  );
-  await expectStatus(
-    browser
-      .post(`/api/studies/${studyId}/enrollments/me/signature`)
-      .send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Sam Tester' }),
-    201,
-  );
-  const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
-  return { browser, email, me };
+  return signedUpParticipant(testApp, studyId, version, prefix, 'Sam Tester');
 }
 
 /** Follows the start route to the task, then returns to the return address the task was given. */

@@ -59,6 +59,33 @@ export async function signedInParticipant(
   return { browser, email };
 }
 
+/**
+ * A participant who signed in, joined the study, answered its screening (pretest 60) and signed `version` with
+ * `typedName`; `me` is their enrollment as the portal reads it right after.
+ */
+export async function signedUpParticipant(
+  testApp: TestApp,
+  studyId: string,
+  version: { id: string; fingerprint: string },
+  prefix: string,
+  typedName: string,
+) {
+  const { browser, email } = await signedInParticipant(testApp, prefix);
+  await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
+  await expectStatus(
+    browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 60 } }),
+    200,
+  );
+  await expectStatus(
+    browser
+      .post(`/api/studies/${studyId}/enrollments/me/signature`)
+      .send({ versionId: version.id, fingerprint: version.fingerprint, typedName }),
+    201,
+  );
+  const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
+  return { browser, email, me };
+}
+
 /** What a study needs before it opens besides its design: a paid step (unless it has one) and an active consent form. */
 export async function prepareToOpen(browser: Browser, studyId: string) {
   const steps = await expectStatus(browser.get(`/api/studies/${studyId}/steps`), 200);

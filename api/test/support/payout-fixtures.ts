@@ -1,6 +1,6 @@
 import Stripe from 'stripe';
 import { expect } from 'vitest';
-import { activeConsentVersion, signedInParticipant } from './consent-fixtures';
+import { activeConsentVersion, signedUpParticipant } from './consent-fixtures';
 import { expectStatus } from './http';
 import { Browser, draftBetweenStudy } from './study-fixtures';
 import type { TestApp } from './test-app';
@@ -42,33 +42,28 @@ export async function eventually<T>(
   }
 }
 
-/** A recruiting study with one coded step, and a participant who has signed. */
-export async function studyWithParticipant(testApp: TestApp, coordinator: Browser, name = 'payee') {
+/** A recruiting study whose steps are each verified by one completion code, as `[title, payMinor, code]`. */
+export async function openStudyWithCodedSteps(
+  coordinator: Browser,
+  codedSteps: ReadonlyArray<readonly [title: string, payMinor: number, code: string]>,
+) {
   const { studyId } = await draftBetweenStudy(coordinator);
-  const steps = await expectStatus(
-    coordinator.post(`/api/studies/${studyId}/steps`).send({ title: 'Session 1', payMinor: 1000 }),
-    201,
-  );
-  const step = steps.items.find((s: { title: string }) => s.title === 'Session 1');
-  await expectStatus(
-    coordinator.put(`/api/studies/${studyId}/steps/${step.id}/completion-code`).send({ code: 'ONE-1111' }),
-    200,
-  );
+  const stepIds: string[] = [];
+  for (const [title, payMinor, code] of codedSteps) {
+    const steps = await expectStatus(coordinator.post(`/api/studies/${studyId}/steps`).send({ title, payMinor }), 201);
+    const step = steps.items.find((s: { title: string }) => s.title === title);
+    await expectStatus(coordinator.put(`/api/studies/${studyId}/steps/${step.id}/completion-code`).send({ code }), 200);
+    stepIds.push(step.id);
+  }
   const version = await activeConsentVersion(coordinator, studyId);
   await expectStatus(coordinator.post(`/api/studies/${studyId}/open`), 200);
-  const { browser, email } = await signedInParticipant(testApp, name);
-  await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
-  await expectStatus(
-    browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 60 } }),
-    200,
-  );
-  await expectStatus(
-    browser
-      .post(`/api/studies/${studyId}/enrollments/me/signature`)
-      .send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Pat Payee' }),
-    201,
-  );
-  const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
+  return { studyId, version, stepIds };
+}
+
+/** A recruiting study with one coded step, and a participant who has signed. */
+export async function studyWithParticipant(testApp: TestApp, coordinator: Browser, name = 'payee') {
+  const { studyId, version } = await openStudyWithCodedSteps(coordinator, [['Session 1', 1000, 'ONE-1111']]);
+  const { browser, email, me } = await signedUpParticipant(testApp, studyId, version, name, 'Pat Payee');
   return { studyId, browser, email, enrollmentId: me.id as string };
 }
 
