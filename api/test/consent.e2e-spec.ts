@@ -564,7 +564,7 @@ describe('signing', () => {
     await expectStatus(
       coordinator.post(`/api/studies/${studyId}/enrollments/${me.id}/lost`).send({ reason: 'again' }),
       409,
-      'CONFLICT',
+      'PARTICIPATION_STATE',
     );
     const report = await expectStatus(coordinator.get(`/api/studies/${studyId}/attrition`), 200);
     const arm = report.flow.arms.find((a: { lostToFollowUp: { total: number } }) => a.lostToFollowUp.total === 1);

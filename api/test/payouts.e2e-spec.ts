@@ -1,6 +1,6 @@
 import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { PayoutsService } from '../src/payouts/payouts.service';
+import { PayoutSendingService } from '../src/payouts/payout-sending.service';
 import { activeConsentVersion, signedUpParticipant } from './support/consent-fixtures';
 import { eventually, openStudyWithCodedSteps } from './support/payout-fixtures';
 import { expectStatus } from './support/http';
@@ -142,7 +142,7 @@ describe('paying', () => {
     const refused = await expectStatus(
       coordinator.post(`/api/studies/${studyId}/payouts/approve`).send({ payoutIds: [owed.id] }),
       409,
-      'CONFLICT',
+      'BALANCE_TOO_LOW',
     );
     expect(refused.remainingMinor).toBe(0);
     await onboard(browser);
@@ -185,7 +185,7 @@ describe('paying', () => {
     await onboard(browser);
     await fund(studyId, 10_000);
     const [owed] = (await expectStatus(coordinator.get(`/api/studies/${studyId}/payouts`), 200)).items;
-    const payouts = testApp.app.get(PayoutsService);
+    const payouts = testApp.app.get(PayoutSendingService);
     let crashes = 0;
     payouts.afterTransferCreated = (id) => {
       if (id === owed.id && crashes++ === 0) throw new Error('simulated crash between sending and recording');

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { EntityManager } from 'typeorm';
 import { EnrollmentEntity } from '../src/enrollments/entities/enrollment.entity';
-import { StepProgressService } from '../src/enrollments/step-progress.service';
+import { StepCompletionService } from '../src/enrollments/step-completion.service';
 import { ReminderSweepService } from '../src/reminders/reminder-sweep.service';
 import { JOB_NAMES, JobQueueService } from '../src/jobs/job-queue.service';
 import { activeConsentVersion, prepareToOpen, signedUpParticipant } from './support/consent-fixtures';
@@ -262,7 +262,7 @@ describe('windows, staff marks and undo', () => {
     const waiting = await expectStatus(
       coordinator.post(`/api/studies/${studyId}/enrollments/${person.me.id}/steps/${stepIds[1]}/complete`),
       409,
-      'CONFLICT',
+      'STEP_NOT_AVAILABLE',
     );
     expect(waiting.errors[0]).toMatchObject({ field: 'stepId' });
     await expectStatus(
@@ -272,7 +272,7 @@ describe('windows, staff marks and undo', () => {
     const upcoming = await expectStatus(
       coordinator.post(`/api/studies/${studyId}/enrollments/${person.me.id}/steps/${stepIds[1]}/complete`),
       409,
-      'CONFLICT',
+      'STEP_NOT_AVAILABLE',
     );
     expect(upcoming.message).toMatch(/opens on/);
     const me = await expectStatus(person.browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
@@ -324,7 +324,7 @@ describe('windows, staff marks and undo', () => {
         .delete(`/api/studies/${studyId}/enrollments/${person.me.id}/steps/${stepIds[0]}/complete`)
         .send({ reason: 'Too late to change' }),
       409,
-      'CONFLICT',
+      'PAYOUT_ALREADY_APPROVED',
     );
     expect(refused.message).toMatch(/approved/);
     expect(await completionsOf(person.me.id)).toBe(1);
@@ -335,7 +335,7 @@ describe('windows, staff marks and undo', () => {
     const { studyId, stepIds, version } = await recruitingStudy(twoSessions);
     const person = await signedUp(studyId, version, 'rollback');
     // The same private step the routes use, called inside a transaction that then fails.
-    const progress = testApp.app.get(StepProgressService) as unknown as {
+    const progress = testApp.app.get(StepCompletionService) as unknown as {
       completeStep(
         manager: EntityManager,
         actor: object,

@@ -23,6 +23,25 @@ export const HTTP_STATUS_BY_CODE = {
   PAYOUT_NOT_RETRYABLE: 409,
   /** A study detail that may no longer change (after the first assignment); `errors[]` names each field and why. */
   STUDY_DETAIL_FIXED: 409,
+  // Enrollments, payouts and reporting refusals (one block, see api/src/enrollments and api/src/payouts).
+  /** The participant's status does not allow this (screening after signing, signing while closed, withdrawing a completed participation…). */
+  PARTICIPATION_STATE: 409,
+  /** The study has no active consent form, so there is nothing to sign yet. */
+  NO_CONSENT_TO_SIGN: 409,
+  /** The study is closed: it takes no new participants and no more funding. */
+  STUDY_CLOSED: 409,
+  /** Pairing a cohort applies only to a study whose assignment scheme is matched pairs. */
+  PAIRING_NOT_APPLICABLE: 409,
+  /** The step cannot be completed now (not taking part, not open yet, or already all done); `errors[]` names why. */
+  STEP_NOT_AVAILABLE: 409,
+  /** The step is not done in an external task, so there is no task to open. */
+  STEP_HAS_NO_TASK: 409,
+  /** A completion whose payout was already approved cannot be undone. */
+  PAYOUT_ALREADY_APPROVED: 409,
+  /** Only owed payouts can be approved; `errors[]` names each payout that is not. */
+  PAYOUT_NOT_OWED: 409,
+  /** The study's funded balance does not cover the payouts; `neededMinor` and `remainingMinor` say by how much when approving. */
+  BALANCE_TOO_LOW: 409,
   PAYLOAD_TOO_LARGE: 413,
   UNSUPPORTED_MEDIA_TYPE: 415,
   RATE_LIMITED: 429,

@@ -18,7 +18,10 @@ import { AppModule } from '../app.module';
 import type { SessionUser } from '../common/auth/session-user';
 import { JOB_BATCH_SIZE } from '../jobs/job-queue.service';
 import { PaymentsService } from '../payments/payments.service';
-import { PayoutsService } from '../payouts/payouts.service';
+import { FundingService } from '../payouts/funding.service';
+import { PayoutAccountsService } from '../payouts/payout-accounts.service';
+import { PayoutApprovalService } from '../payouts/payout-approval.service';
+import { PayoutQueueService } from '../payouts/payout-queue.service';
 import { StepsService } from '../steps/steps.service';
 import { StudiesService } from '../studies/studies.service';
 import { BenchSetupError, DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
@@ -52,7 +55,10 @@ async function until<T>(
 
 class PayoutBench {
   private readonly dataSource: DataSource;
-  private readonly payouts: PayoutsService;
+  private readonly funding: FundingService;
+  private readonly approval: PayoutApprovalService;
+  private readonly accounts: PayoutAccountsService;
+  private readonly queue: PayoutQueueService;
   private readonly provider: Stripe;
   private coordinator!: SessionUser;
   studyId = '';
@@ -63,7 +69,10 @@ class PayoutBench {
     private readonly signal: AbortSignal,
   ) {
     this.dataSource = app.get(DataSource);
-    this.payouts = app.get(PayoutsService);
+    this.funding = app.get(FundingService);
+    this.approval = app.get(PayoutApprovalService);
+    this.accounts = app.get(PayoutAccountsService);
+    this.queue = app.get(PayoutQueueService);
     this.provider = app.get(PaymentsService).client;
   }
 
@@ -120,9 +129,9 @@ class PayoutBench {
       people.length,
       JOB_BATCH_SIZE,
       async (i) => {
-        const { url } = await this.payouts.startOnboarding(people[i]);
+        const { url } = await this.accounts.startOnboarding(people[i]);
         await completeHostedOnboarding(url, 'Bench Payee');
-        const status = await this.payouts.accountStatus(people[i]);
+        const status = await this.accounts.accountStatus(people[i]);
         if (!status.payoutsEnabled) throw new Error(`payee ${i + 1} finished onboarding but payouts are not enabled`);
       },
       this.signal,
@@ -155,11 +164,11 @@ class PayoutBench {
 
   /** Funds the study as the card form does; the test card whose money is available at once. */
   async fundStudy(amountMinor: number): Promise<void> {
-    const intent = await this.payouts.createFunding(this.coordinator, this.studyId, amountMinor);
+    const intent = await this.funding.createFunding(this.coordinator, this.studyId, amountMinor);
     await this.provider.paymentIntents.confirm(intent.clientSecret.split('_secret_')[0], {
       payment_method: 'pm_card_bypassPending',
     });
-    const budget = await this.payouts.refreshFunding(this.studyId, intent.fundingId);
+    const budget = await this.funding.refreshFunding(this.studyId, intent.fundingId);
     if (budget.fundedMinor < amountMinor)
       throw new Error(`funding did not land: funded ${budget.fundedMinor}, expected ${amountMinor}`);
   }
@@ -209,7 +218,7 @@ class PayoutBench {
       await this.dataSource.query(`SELECT id FROM payout WHERE study_id = $1 AND status = 'owed'`, [this.studyId])
     ).map((r: { id: string }) => r.id);
     const started = performance.now();
-    const approval = await this.payouts.approve(this.coordinator, this.studyId, ids);
+    const approval = await this.approval.approve(this.coordinator, this.studyId, ids);
     if (approval.approved !== count) throw new Error(`approved ${approval.approved} of ${count}`);
     const approveSeconds = (performance.now() - started) / 1000;
     log(`approved ${count} in ${approveSeconds.toFixed(1)} s; waiting for the senders`);
@@ -256,7 +265,7 @@ class PayoutBench {
       `SELECT count(*)::int AS paid, count(DISTINCT provider_transfer_id)::int AS distinct_transfers FROM payout WHERE study_id = $1 AND status = 'paid'`,
       [this.studyId],
     );
-    const reconciliation = await this.payouts.reconciliation(this.studyId);
+    const reconciliation = await this.queue.reconciliation(this.studyId);
     return {
       transfers: transfers.length,
       payoutsWithATransfer: perPayout.size,

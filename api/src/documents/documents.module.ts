@@ -1,12 +1,12 @@
 import { Module } from '@nestjs/common';
 import { ConsentModule } from '../consent';
-import { EnrollmentsModule } from '../enrollments';
+import { ReportingModule } from '../reporting';
 import { MailModule } from '../mail/mail.module';
 import { StudiesModule } from '../studies';
 import { DocumentsService } from './documents.service';
 
 @Module({
-  imports: [ConsentModule, EnrollmentsModule, StudiesModule, MailModule],
+  imports: [ConsentModule, ReportingModule, StudiesModule, MailModule],
   providers: [DocumentsService],
   exports: [DocumentsService],
 })

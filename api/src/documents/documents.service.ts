@@ -1,13 +1,14 @@
 import { Injectable, Logger, OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
+import { DomainException } from '../common/errors/domain.exception';
 import { AppConfig, DEVELOPMENT_SIGNING_PASSPHRASE } from '../config/app-config';
 import { renderEmail } from '../consent';
 import { ConsentService } from '../consent';
 import { describeSigningTime } from '../consent';
-import { EnrollmentsService } from '../enrollments';
 import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
 import { MailService } from '../mail/mail.service';
+import { SignedCopyRecipientsReadModel } from '../reporting';
 import { StudiesService } from '../studies';
 import { buildSignedConsentPdf, PdfSealIdentity } from './signed-consent-pdf';
 import { loadSigningIdentity } from './signing-certificate';
@@ -27,7 +28,7 @@ export class DocumentsService implements OnModuleInit {
     private readonly config: AppConfig,
     private readonly jobs: JobQueueService,
     private readonly consent: ConsentService,
-    private readonly enrollments: EnrollmentsService,
+    private readonly recipients: SignedCopyRecipientsReadModel,
     private readonly studies: StudiesService,
     private readonly mail: MailService,
   ) {}
@@ -55,7 +56,8 @@ export class DocumentsService implements OnModuleInit {
       this.logger.warn(`signature ${signatureId} is gone; nothing to do`);
       return;
     }
-    const enrollment = await this.enrollments.summaryOf(signature.enrollmentId);
+    const enrollment = await this.recipients.of(signature.enrollmentId);
+    if (!enrollment) throw new DomainException('NOT_FOUND', 'No such enrollment.');
     const study = await this.studies.require(enrollment.studyId);
     const version = await this.consent.get(enrollment.studyId, signature.consentVersionId);
     let pdf = signature.pdf;

@@ -51,8 +51,15 @@ import {
   WithdrawalResultDto,
   WithdrawDto,
 } from './dto/enrollment.dto';
-import { EnrollmentsService } from './enrollments.service';
+import { CohortService } from './cohort.service';
+import { InvitationsService } from './invitations.service';
+import { ParticipationService } from './participation.service';
+import { ReconsentService } from './reconsent.service';
+import { RosterService } from './roster.service';
+import { SigningService } from './signing.service';
+import { WithdrawalService } from './withdrawal.service';
 import { StepProgressService } from './step-progress.service';
+import { StepViewsService } from './step-views.service';
 import { StudyMembersOnly } from '../studies';
 import { BulkCompletionDto, BulkCompletionResultDto, CompleteStepDto } from '../steps';
 import { AppConfig } from '../config/app-config';
@@ -77,7 +84,9 @@ function sendPdf(response: Response, pdf: { bytes: Buffer; sha256: string; versi
 @Controller('studies/:studyId/enrollments/me')
 export class MyEnrollmentController {
   constructor(
-    private readonly enrollments: EnrollmentsService,
+    private readonly participation: ParticipationService,
+    private readonly signing: SigningService,
+    private readonly withdrawal: WithdrawalService,
     private readonly stepProgress: StepProgressService,
   ) {}
 
@@ -88,7 +97,7 @@ export class MyEnrollmentController {
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Res({ passthrough: true }) response: Response,
   ): Promise<MyEnrollmentDto> {
-    const { created, enrollment } = await this.enrollments.join(user, studyId);
+    const { created, enrollment } = await this.participation.join(user, studyId);
     response.status(created ? 201 : 200);
     return enrollment;
   }
@@ -99,7 +108,7 @@ export class MyEnrollmentController {
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,
   ): Promise<MyEnrollmentDto> {
-    return this.enrollments.me(user, studyId);
+    return this.participation.me(user, studyId);
   }
 
   @Put('screening')
@@ -109,7 +118,7 @@ export class MyEnrollmentController {
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Body() body: SubmitScreeningDto,
   ): Promise<ScreeningResultDto> {
-    return this.enrollments.submitScreening(user, studyId, body.answers);
+    return this.participation.submitScreening(user, studyId, body.answers);
   }
 
   @Get('consent')
@@ -118,7 +127,7 @@ export class MyEnrollmentController {
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,
   ): Promise<ConsentToSignDto> {
-    return this.enrollments.consentToSign(user, studyId);
+    return this.participation.consentToSign(user, studyId);
   }
 
   @Post('signature')
@@ -130,7 +139,7 @@ export class MyEnrollmentController {
     @Req() request: Request,
     @Res({ passthrough: true }) response: Response,
   ): Promise<SignatureResultDto> {
-    const { created, result } = await this.enrollments.sign(user, studyId, body, clientOf(request));
+    const { created, result } = await this.signing.sign(user, studyId, body, clientOf(request));
     response.status(created ? 201 : 200);
     return result;
   }
@@ -145,7 +154,7 @@ export class MyEnrollmentController {
     @Body() body: CompleteStepDto,
   ): Promise<MyEnrollmentDto> {
     await this.stepProgress.completeWithCode(user, studyId, stepId, body.code);
-    return this.enrollments.me(user, studyId);
+    return this.participation.me(user, studyId);
   }
 
   @Get('steps/:stepId/start')
@@ -168,7 +177,7 @@ export class MyEnrollmentController {
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Res() response: Response,
   ): Promise<void> {
-    const pdf = await this.enrollments.myPdf(user, studyId);
+    const pdf = await this.participation.myPdf(user, studyId);
     sendPdf(response, pdf, `signed-consent-v${pdf.version}.pdf`);
   }
 
@@ -180,7 +189,7 @@ export class MyEnrollmentController {
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Body() body: WithdrawDto,
   ): Promise<WithdrawalResultDto> {
-    return this.enrollments.withdrawSelf(user, studyId, body.reason);
+    return this.withdrawal.withdrawSelf(user, studyId, body.reason);
   }
 }
 
@@ -190,8 +199,13 @@ export class MyEnrollmentController {
 @StudyMembersOnly()
 export class RosterController {
   constructor(
-    private readonly enrollments: EnrollmentsService,
+    private readonly roster: RosterService,
+    private readonly cohort: CohortService,
+    private readonly invitations: InvitationsService,
+    private readonly reconsent: ReconsentService,
+    private readonly withdrawal: WithdrawalService,
     private readonly stepProgress: StepProgressService,
+    private readonly stepViews: StepViewsService,
   ) {}
 
   @Get()
@@ -201,7 +215,7 @@ export class RosterController {
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Query() query: RosterQueryDto,
   ): Promise<RosterPageDto> {
-    return this.enrollments.roster(studyId, query);
+    return this.roster.roster(studyId, query);
   }
 
   @Post('import')
@@ -229,7 +243,7 @@ export class RosterController {
         { field: 'file', message: 'is not a text file' },
       ]);
     }
-    return this.enrollments.importRoster(user, studyId, file.buffer.toString('utf8'));
+    return this.cohort.importRoster(user, studyId, file.buffer.toString('utf8'));
   }
 
   @Post('invite')
@@ -241,7 +255,7 @@ export class RosterController {
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Body() body: InviteDto,
   ): Promise<CountDto> {
-    return { count: await this.enrollments.invite(user, studyId, body.enrollmentIds) };
+    return { count: await this.invitations.invite(user, studyId, body.enrollmentIds) };
   }
 
   @Post('pair-cohort')
@@ -252,7 +266,7 @@ export class RosterController {
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,
   ): Promise<PairCohortResultDto> {
-    return this.enrollments.pairCohort(user, studyId);
+    return this.cohort.pairCohort(user, studyId);
   }
 
   @Post('reconsent-reminders')
@@ -263,7 +277,7 @@ export class RosterController {
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,
   ): Promise<CountDto> {
-    return { count: await this.enrollments.sendReconsentReminders(user, studyId) };
+    return { count: await this.reconsent.sendReconsentReminders(user, studyId) };
   }
 
   @Get(':enrollmentId')
@@ -273,7 +287,7 @@ export class RosterController {
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string,
   ): Promise<ParticipantRecordDto> {
-    return this.enrollments.record(studyId, enrollmentId);
+    return this.roster.record(studyId, enrollmentId);
   }
 
   @Post(':enrollmentId/steps/:stepId/complete')
@@ -287,7 +301,7 @@ export class RosterController {
     @Param('stepId', uuidParam('stepId')) stepId: string,
   ): Promise<RosterEntryDto> {
     await this.stepProgress.completeByStaff(user, studyId, enrollmentId, stepId);
-    return (await this.enrollments.record(studyId, enrollmentId)).enrollment;
+    return (await this.roster.record(studyId, enrollmentId)).enrollment;
   }
 
   @Delete(':enrollmentId/steps/:stepId/complete')
@@ -304,7 +318,7 @@ export class RosterController {
     @Body() body: UndoCompletionDto,
   ): Promise<RosterEntryDto> {
     await this.stepProgress.undo(user, studyId, enrollmentId, stepId, body.reason);
-    return (await this.enrollments.record(studyId, enrollmentId)).enrollment;
+    return (await this.roster.record(studyId, enrollmentId)).enrollment;
   }
 
   @Get(':enrollmentId/step-codes')
@@ -317,7 +331,7 @@ export class RosterController {
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string,
   ): Promise<StepCodesDto> {
-    return this.stepProgress.codesOf(studyId, enrollmentId);
+    return this.stepViews.codesOf(studyId, enrollmentId);
   }
 
   @Post(':enrollmentId/lost')
@@ -330,7 +344,7 @@ export class RosterController {
     @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string,
     @Body() body: MarkLostDto,
   ): Promise<RosterEntryDto> {
-    return this.enrollments.markLost(user, studyId, enrollmentId, body.reason);
+    return this.withdrawal.markLost(user, studyId, enrollmentId, body.reason);
   }
 
   @Post(':enrollmentId/withdraw')
@@ -343,7 +357,7 @@ export class RosterController {
     @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string,
     @Body() body: WithdrawDto,
   ): Promise<RosterEntryDto> {
-    return this.enrollments.withdrawOnBehalf(user, studyId, enrollmentId, body.reason);
+    return this.withdrawal.withdrawOnBehalf(user, studyId, enrollmentId, body.reason);
   }
 
   @Get(':enrollmentId/signatures/:signatureId/pdf')
@@ -355,7 +369,7 @@ export class RosterController {
     @Param('signatureId', uuidParam('signatureId')) signatureId: string,
     @Res() response: Response,
   ): Promise<void> {
-    const pdf = await this.enrollments.staffPdf(studyId, enrollmentId, signatureId);
+    const pdf = await this.roster.staffPdf(studyId, enrollmentId, signatureId);
     sendPdf(response, pdf, `signed-consent-${enrollmentId.slice(0, 8)}-v${pdf.version}.pdf`);
   }
 }
@@ -365,7 +379,10 @@ export class RosterController {
 @Controller('studies/:studyId')
 @StudyMembersOnly()
 export class StepCompletionsController {
-  constructor(private readonly stepProgress: StepProgressService) {}
+  constructor(
+    private readonly stepProgress: StepProgressService,
+    private readonly stepViews: StepViewsService,
+  ) {}
 
   @Post('steps/:stepId/completions')
   @HttpCode(200)
@@ -384,7 +401,7 @@ export class StepCompletionsController {
   @Roles('coordinator', 'researcher', 'admin')
   @ApiProduces('text/csv')
   async codesCsv(@Param('studyId', uuidParam('studyId')) studyId: string, @Res() response: Response): Promise<void> {
-    const csv = await this.stepProgress.codesCsv(studyId);
+    const csv = await this.stepViews.codesCsv(studyId);
     response
       .type('text/csv')
       .setHeader('Content-Disposition', 'attachment; filename="participant-codes.csv"')

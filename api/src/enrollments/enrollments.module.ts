@@ -15,7 +15,16 @@ import {
 } from './enrollments.controller';
 import { StepProgressService } from './step-progress.service';
 import { RemindersModule } from '../reminders';
-import { EnrollmentsService } from './enrollments.service';
+import { ReportingModule } from '../reporting';
+import { CohortService } from './cohort.service';
+import { InvitationsService } from './invitations.service';
+import { ParticipationService } from './participation.service';
+import { ReconsentService } from './reconsent.service';
+import { RosterService } from './roster.service';
+import { SigningService } from './signing.service';
+import { StepCompletionService } from './step-completion.service';
+import { StepViewsService } from './step-views.service';
+import { WithdrawalService } from './withdrawal.service';
 
 @Module({
   imports: [
@@ -28,9 +37,20 @@ import { EnrollmentsService } from './enrollments.service';
     MailModule,
     PayoutsModule,
     RemindersModule,
+    ReportingModule,
   ],
   controllers: [MyEnrollmentController, RosterController, StepCompletionsController, ReturnLinkController],
-  providers: [EnrollmentsService, StepProgressService],
-  exports: [EnrollmentsService],
+  providers: [
+    ParticipationService,
+    SigningService,
+    WithdrawalService,
+    ReconsentService,
+    RosterService,
+    CohortService,
+    InvitationsService,
+    StepProgressService,
+    StepCompletionService,
+    StepViewsService,
+  ],
 })
 export class EnrollmentsModule {}

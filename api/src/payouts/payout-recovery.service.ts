@@ -5,7 +5,7 @@ import { DataSource } from 'typeorm';
 import { AppConfig } from '../config/app-config';
 import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
 import { PaymentsService } from '../payments/payments.service';
-import { PayoutsService } from './payouts.service';
+import { PayoutSendingService } from './payout-sending.service';
 
 interface StuckPayout {
   id: string;
@@ -39,7 +39,7 @@ export class PayoutRecoveryService implements OnModuleInit {
     private readonly config: AppConfig,
     private readonly jobs: JobQueueService,
     private readonly payments: PaymentsService,
-    private readonly payouts: PayoutsService,
+    private readonly sending: PayoutSendingService,
   ) {}
 
   async onModuleInit(): Promise<void> {
@@ -82,9 +82,9 @@ export class PayoutRecoveryService implements OnModuleInit {
       for (const payout of group) {
         const transfer = transfers.get(payout.id);
         if (transfer) {
-          await this.payouts.settleFromTransfer(transfer);
+          await this.sending.settleFromTransfer(transfer);
           result.paid += 1;
-        } else if (await this.payouts.markFailed({ id: payout.id, studyId }, NO_TRANSFER_REASON, { idleSince })) {
+        } else if (await this.sending.markFailed({ id: payout.id, studyId }, NO_TRANSFER_REASON, { idleSince })) {
           result.failed += 1;
         }
       }

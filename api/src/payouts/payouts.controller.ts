@@ -21,14 +21,24 @@ import {
   ReconciliationDto,
   TaxThresholdDto,
 } from './dto/payout.dto';
-import { PayoutsService } from './payouts.service';
+import { FundingService } from './funding.service';
+import { PayoutAccountsService } from './payout-accounts.service';
+import { PayoutApprovalService } from './payout-approval.service';
+import { PayoutQueueService } from './payout-queue.service';
+import { PayoutReportsService } from './payout-reports.service';
+import { ProviderWebhooksService } from './provider-webhooks.service';
 
 /** The payout queue, budget and reconciliation, for a study's staff. */
 @ApiTags('pay')
 @Controller('studies/:studyId')
 @StudyMembersOnly()
 export class StudyPayoutsController {
-  constructor(private readonly payouts: PayoutsService) {}
+  constructor(
+    private readonly queue: PayoutQueueService,
+    private readonly approval: PayoutApprovalService,
+    private readonly reports: PayoutReportsService,
+    private readonly funding: FundingService,
+  ) {}
 
   @Get('payouts')
   @Roles('coordinator', 'researcher', 'auditor', 'admin')
@@ -37,7 +47,7 @@ export class StudyPayoutsController {
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Query() query: PayoutQueryDto,
   ): Promise<PayoutPageDto> {
-    return this.payouts.list(studyId, query);
+    return this.queue.list(studyId, query);
   }
 
   @Post('payouts/approve')
@@ -49,14 +59,14 @@ export class StudyPayoutsController {
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Body() body: ApprovePayoutsDto,
   ): Promise<ApprovalResultDto> {
-    return this.payouts.approve(user, studyId, body.payoutIds);
+    return this.approval.approve(user, studyId, body.payoutIds);
   }
 
   @Get('payouts/reconciliation')
   @Roles('coordinator', 'auditor', 'admin')
   @ApiOkResponse({ type: ReconciliationDto })
   reconciliation(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<ReconciliationDto> {
-    return this.payouts.reconciliation(studyId);
+    return this.queue.reconciliation(studyId);
   }
 
   @Get('payouts/finance-export.csv')
@@ -72,7 +82,7 @@ export class StudyPayoutsController {
     @Query() query: FinanceExportQueryDto,
     @Res() response: Response,
   ): Promise<void> {
-    const { fileName, csv } = await this.payouts.financeExport(studyId, query);
+    const { fileName, csv } = await this.reports.financeExport(studyId, query);
     response
       .status(200)
       .type('text/csv; charset=utf-8')
@@ -85,14 +95,14 @@ export class StudyPayoutsController {
   @Roles('coordinator', 'auditor', 'admin')
   @ApiOkResponse({ type: TaxThresholdDto })
   taxThreshold(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<TaxThresholdDto> {
-    return this.payouts.taxThreshold(studyId);
+    return this.reports.taxThreshold(studyId);
   }
 
   @Get('budget')
   @Roles('coordinator', 'researcher', 'auditor', 'admin')
   @ApiOkResponse({ type: BudgetDto })
   budget(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<BudgetDto> {
-    return this.payouts.budget(studyId);
+    return this.funding.budget(studyId);
   }
 
   @Post('funding')
@@ -103,7 +113,7 @@ export class StudyPayoutsController {
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Body() body: CreateFundingDto,
   ): Promise<FundingIntentDto> {
-    return this.payouts.createFunding(user, studyId, body.amountMinor);
+    return this.funding.createFunding(user, studyId, body.amountMinor);
   }
 
   @Post('funding/:fundingId/refresh')
@@ -114,14 +124,18 @@ export class StudyPayoutsController {
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Param('fundingId', uuidParam('fundingId')) fundingId: string,
   ): Promise<BudgetDto> {
-    return this.payouts.refreshFunding(studyId, fundingId);
+    return this.funding.refreshFunding(studyId, fundingId);
   }
 }
 
 @ApiTags('pay')
 @Controller()
 export class PayoutsController {
-  constructor(private readonly payouts: PayoutsService) {}
+  constructor(
+    private readonly approval: PayoutApprovalService,
+    private readonly accounts: PayoutAccountsService,
+    private readonly webhooks: ProviderWebhooksService,
+  ) {}
 
   @Post('payouts/:payoutId/retry')
   @HttpCode(200)
@@ -131,7 +145,7 @@ export class PayoutsController {
     @CurrentUser() user: SessionUser,
     @Param('payoutId', uuidParam('payoutId')) payoutId: string,
   ): Promise<{ queued: boolean }> {
-    await this.payouts.retry(user, payoutId);
+    await this.approval.retry(user, payoutId);
     return { queued: true };
   }
 
@@ -140,21 +154,21 @@ export class PayoutsController {
   @Roles('participant')
   @ApiOkResponse({ type: OnboardingLinkDto })
   onboard(@CurrentUser() user: SessionUser): Promise<OnboardingLinkDto> {
-    return this.payouts.startOnboarding(user);
+    return this.accounts.startOnboarding(user);
   }
 
   @Get('me/payout-account')
   @Roles('participant')
   @ApiOkResponse({ type: PayoutAccountStatusDto })
   account(@CurrentUser() user: SessionUser): Promise<PayoutAccountStatusDto> {
-    return this.payouts.accountStatus(user);
+    return this.accounts.accountStatus(user);
   }
 
   @Get('me/payouts')
   @Roles('participant')
   @ApiOkResponse({ type: MyPayoutsDto })
   mine(@CurrentUser() user: SessionUser): Promise<MyPayoutsDto> {
-    return this.payouts.myPayouts(user);
+    return this.accounts.myPayouts(user);
   }
 
   /** The provider's signed events. The raw body is kept because the signature covers its exact bytes. */
@@ -163,6 +177,6 @@ export class PayoutsController {
   @HttpCode(200)
   @ApiOkResponse({ description: 'Received (also for a duplicate, which changes nothing)' })
   webhook(@Req() request: RawBodyRequest<Request>, @Headers('stripe-signature') signature: string | undefined) {
-    return this.payouts.handleWebhook(request.rawBody, signature);
+    return this.webhooks.handleWebhook(request.rawBody, signature);
   }
 }

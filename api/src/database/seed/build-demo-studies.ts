@@ -3,7 +3,8 @@ import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { DataSource } from 'typeorm';
 import type { SessionUser } from '../../common/auth/session-user';
 import { ConsentService } from '../../consent/consent.service';
-import { EnrollmentsService } from '../../enrollments/enrollments.service';
+import { ParticipationService } from '../../enrollments/participation.service';
+import { SigningService } from '../../enrollments/signing.service';
 import { RandomizationService } from '../../randomization/randomization.service';
 import { ReminderPlanService } from '../../reminders/reminder-plan.service';
 import type { SchemeMethod } from '../../randomization/scheme-parameters';
@@ -79,7 +80,8 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
   const steps = app.get(StepsService);
   const randomization = app.get(RandomizationService);
   const consent = app.get(ConsentService);
-  const enrollments = app.get(EnrollmentsService);
+  const participation = app.get(ParticipationService);
+  const signing = app.get(SigningService);
   const reminderPlans = app.get(ReminderPlanService);
   const users = app.get(UsersService);
   const coordinatorEntity = await users.findByEmail('coordinator@evenhand.test');
@@ -146,16 +148,16 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
       const email = demoParticipantEmail(demo.participants.prefix, n);
       const { user } = await dataSource.transaction((manager) => users.findOrCreateParticipant(manager, email));
       const participant: SessionUser = { id: user.id, email: user.email, name: '', role: 'participant' };
-      await enrollments.join(participant, study.id);
+      await participation.join(participant, study.id);
       const excluded = i < demo.participants.excluded;
       const answers: Record<string, number | string | boolean> = Object.fromEntries(
         demo.screening.map((q) => [q.key, !(excluded && q.key === 'adult')]),
       );
       // A spread of self-ratings, so both strata fill.
       for (const factor of demo.factors) answers[factor.key] = (n * 37) % 101;
-      const screening = await enrollments.submitScreening(participant, study.id, answers);
+      const screening = await participation.submitScreening(participant, study.id, answers);
       if (!screening.eligible) continue;
-      await enrollments.sign(
+      await signing.sign(
         participant,
         study.id,
         {
@@ -177,7 +179,7 @@ export async function buildDemoStudies(app: INestApplicationContext): Promise<st
         ),
       );
       for (const participant of signedUp.slice(0, amendment.resign)) {
-        await enrollments.sign(
+        await signing.sign(
           participant,
           study.id,
           { versionId: second.id, fingerprint: second.fingerprint!, typedName: `Demo Participant (re-signed)` },

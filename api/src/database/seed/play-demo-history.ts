@@ -4,7 +4,7 @@ import type { SessionUser } from '../../common/auth/session-user';
 import { AppConfig } from '../../config/app-config';
 import { renderEmail } from '../../consent/consent-emails';
 import { formatDuration, formatMoney } from '../../consent/study-formatting';
-import { EnrollmentsService } from '../../enrollments/enrollments.service';
+import { WithdrawalService } from '../../enrollments/withdrawal.service';
 import { StepProgressService } from '../../enrollments/step-progress.service';
 import { ContactsService } from '../../reminders/contacts.service';
 import { ReminderPlanService } from '../../reminders/reminder-plan.service';
@@ -40,7 +40,7 @@ export async function playDemoHistory(
   const history = demo.history;
   if (!history) return;
   const dataSource = app.get(DataSource);
-  const enrollments = app.get(EnrollmentsService);
+  const withdrawal = app.get(WithdrawalService);
   const stepProgress = app.get(StepProgressService);
   const steps = app.get(StepsService);
   const contacts = app.get(ContactsService);
@@ -150,7 +150,7 @@ export async function playDemoHistory(
       if ((withdraws || marksLost) && at < now) {
         stoppedAt = at;
         if (withdraws) {
-          await enrollments.withdrawOnBehalf(
+          await withdrawal.withdrawOnBehalf(
             coordinator,
             studyId,
             row.id,
@@ -161,7 +161,7 @@ export async function playDemoHistory(
           await dataSource.query(`UPDATE enrollment SET status = 'active' WHERE id = $1 AND status = 'assigned'`, [
             row.id,
           ]);
-          await enrollments.markLost(coordinator, studyId, row.id, 'No reply to the reminders');
+          await withdrawal.markLost(coordinator, studyId, row.id, 'No reply to the reminders');
           await dataSource.query(`UPDATE enrollment SET lost_at = $1 WHERE id = $2`, [at, row.id]);
         }
       }

@@ -2,7 +2,10 @@ import type { INestApplicationContext } from '@nestjs/common';
 import { DataSource } from 'typeorm';
 import type { SessionUser } from '../../common/auth/session-user';
 import { PaymentsService } from '../../payments/payments.service';
-import { PayoutsService } from '../../payouts/payouts.service';
+import { FundingService } from '../../payouts/funding.service';
+import { PayoutAccountsService } from '../../payouts/payout-accounts.service';
+import { PayoutApprovalService } from '../../payouts/payout-approval.service';
+import { PayoutSendingService } from '../../payouts/payout-sending.service';
 import type { DemoStudy } from './demo-scenario';
 import { completeHostedOnboarding } from './hosted-onboarding';
 
@@ -24,17 +27,20 @@ export async function playDemoPayouts(
   const pay = demo.pay;
   if (!pay) return;
   const dataSource = app.get(DataSource);
-  const payouts = app.get(PayoutsService);
+  const fundingService = app.get(FundingService);
+  const approval = app.get(PayoutApprovalService);
+  const sending = app.get(PayoutSendingService);
+  const accounts = app.get(PayoutAccountsService);
   const provider = app.get(PaymentsService).client;
   const now = Date.now();
 
   for (const funding of pay.fundings) {
-    const intent = await payouts.createFunding(coordinator, studyId, funding.amountMinor);
+    const intent = await fundingService.createFunding(coordinator, studyId, funding.amountMinor);
     // The provider's test card whose money is available at once, so the older payouts below can be sent.
     await provider.paymentIntents.confirm(intent.clientSecret.split('_secret_')[0], {
       payment_method: 'pm_card_bypassPending',
     });
-    await payouts.refreshFunding(studyId, intent.fundingId);
+    await fundingService.refreshFunding(studyId, intent.fundingId);
     const at = new Date(now - funding.daysAgo * DAY_MS);
     await dataSource.query(`UPDATE study_funding SET created_at = $1, succeeded_at = $1 WHERE id = $2`, [
       at,
@@ -56,26 +62,26 @@ export async function playDemoPayouts(
   // The coordinator approved one payout before its payee had finished setting up: the send failed.
   const failing = pay.failedOnce ? due.find((p) => p.participant_id === settingUp[0]?.id) : undefined;
   if (failing) {
-    await payouts.approve(coordinator, studyId, [failing.id]);
-    await payouts.send(failing.id);
+    await approval.approve(coordinator, studyId, [failing.id]);
+    await sending.send(failing.id);
   }
 
   for (const person of settingUp) {
-    const { url } = await payouts.startOnboarding(person);
+    const { url } = await accounts.startOnboarding(person);
     await completeHostedOnboarding(url, `Demo Participant ${person.email.split('@')[0]}`);
-    const status = await payouts.accountStatus(person);
+    const status = await accounts.accountStatus(person);
     if (!status.payoutsEnabled)
       throw new Error(`demo payee ${person.email} finished onboarding but payouts are not enabled`);
   }
 
   const toPay = due.filter((p) => p.id !== failing?.id);
   if (toPay.length) {
-    await payouts.approve(
+    await approval.approve(
       coordinator,
       studyId,
       toPay.map((p) => p.id),
     );
-    for (const payout of toPay) await payouts.send(payout.id);
+    for (const payout of toPay) await sending.send(payout.id);
   }
   // Dated as if each was approved two days after it was earned and paid the same day, receipt included.
   await dataSource.query(

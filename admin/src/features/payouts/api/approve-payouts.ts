@@ -6,13 +6,13 @@ import { payoutKeys } from './payout-keys';
 
 export type ApprovalResult = components['schemas']['ApprovalResultDto'];
 
-/** The api's 409 when approving would spend more than the study's funded balance (payouts.service.ts `approve`). */
+/** The api's BALANCE_TOO_LOW when approving would spend more than the study's funded balance (payout-approval.service.ts). */
 export class BudgetShortfallError extends ApiError {
   readonly neededMinor: number;
   readonly remainingMinor: number;
 
   constructor(message: string, neededMinor: number, remainingMinor: number) {
-    super({ statusCode: 409, code: 'CONFLICT', message });
+    super({ statusCode: 409, code: 'BALANCE_TOO_LOW', message });
     this.name = 'BudgetShortfallError';
     this.neededMinor = neededMinor;
     this.remainingMinor = remainingMinor;
@@ -35,7 +35,7 @@ export async function approvePayouts(studyId: string, payoutIds: string[]): Prom
   }
   if (result.response.ok && result.data) return result.data;
   const body = result.error as Record<string, unknown> | undefined;
-  if (result.response.status === 409 && typeof body?.remainingMinor === 'number') {
+  if (body?.code === 'BALANCE_TOO_LOW' && typeof body.remainingMinor === 'number') {
     throw new BudgetShortfallError(String(body.message ?? ''), Number(body.neededMinor ?? 0), body.remainingMinor);
   }
   throw new ApiError(toApiProblem(result.response.status, result.error));

@@ -69,7 +69,7 @@ describe('AddFundsDialog', { timeout: 15_000 }, () => {
     stubApi({
       [`POST ${fundingPath}`]: {
         status: 409,
-        body: { statusCode: 409, code: 'CONFLICT', message: 'A closed study takes no more funding.' },
+        body: { statusCode: 409, code: 'STUDY_CLOSED', message: 'A closed study takes no more funding.' },
       },
     });
     openDialog();

@@ -196,7 +196,7 @@ describe('PayoutQueue', { timeout: 15_000 }, () => {
         status: 409,
         body: {
           statusCode: 409,
-          code: 'CONFLICT',
+          code: 'BALANCE_TOO_LOW',
           message: "Approving 1 payout(s) needs more than the study's funded balance. Fund the study first.",
           neededMinor: 1500,
           remainingMinor: 400,

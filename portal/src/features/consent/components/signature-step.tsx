@@ -141,7 +141,7 @@ export function SignatureStep({ studyId, consent, onSigned, onVersionChanged, on
 }
 
 function signingProblem(error: unknown): string {
-  if (isApiError(error, 'CONFLICT')) {
+  if (isApiError(error, 'PARTICIPATION_STATE') || isApiError(error, 'NO_CONSENT_TO_SIGN')) {
     return 'The study is not ready for your signature yet. Please go back to the study page and answer the questions first.';
   }
   return describeProblem(error);

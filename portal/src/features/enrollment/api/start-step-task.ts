@@ -35,7 +35,7 @@ export function useStartStepTask() {
     onSuccess: (start) => leaveForExternalPage(start.url),
     onError: (error, { studyId }) => {
       // A 409 means the step's state moved on (not open yet, a new consent form, no longer taking part): show it as it is.
-      if (isApiError(error, 'CONFLICT'))
+      if (isApiError(error, 'STEP_NOT_AVAILABLE') || isApiError(error, 'STEP_HAS_NO_TASK'))
         void queryClient.invalidateQueries({ queryKey: queryKeys.myEnrollmentAll(studyId) });
     },
   });

@@ -262,7 +262,7 @@ describe('the steps list', () => {
         status: 409,
         body: {
           statusCode: 409,
-          code: 'CONFLICT',
+          code: 'STEP_NOT_AVAILABLE',
           message: 'This step opens after the one before it is done.',
           errors: [{ field: 'stepId', message: 'This step opens after the one before it is done.' }],
         },

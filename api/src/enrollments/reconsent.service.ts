@@ -1,0 +1,106 @@
+import { Injectable, OnModuleInit } from '@nestjs/common';
+import { InjectDataSource } from '@nestjs/typeorm';
+import { DataSource, EntityManager } from 'typeorm';
+import { AuditActor, AuditService } from '../audit';
+import { AppConfig } from '../config/app-config';
+import { ConsentService, ConsentVersionEntity, renderEmail } from '../consent';
+import { MailService } from '../mail/mail.service';
+import { ContactsService } from '../reminders';
+import { RosterReadModel } from '../reporting';
+import { StudiesService } from '../studies';
+import { EnrollmentEntity } from './entities/enrollment.entity';
+
+/** A new consent version: everyone still taking part is asked to sign it, and can be reminded by e-mail. */
+@Injectable()
+export class ReconsentService implements OnModuleInit {
+  constructor(
+    @InjectDataSource() private readonly dataSource: DataSource,
+    private readonly config: AppConfig,
+    private readonly audit: AuditService,
+    private readonly studies: StudiesService,
+    private readonly consent: ConsentService,
+    private readonly mail: MailService,
+    private readonly contacts: ContactsService,
+    private readonly rosterReads: RosterReadModel,
+  ) {}
+
+  async onModuleInit(): Promise<void> {
+    this.consent.onActivation((manager, studyId, version, actor) =>
+      this.requestReconsent(manager, studyId, version, actor),
+    );
+  }
+
+  /** When a new version becomes active, everyone still taking part must sign it before their next step. */
+  private async requestReconsent(
+    manager: EntityManager,
+    studyId: string,
+    version: ConsentVersionEntity,
+    actor: AuditActor,
+  ): Promise<void> {
+    const flagged = await manager
+      .createQueryBuilder()
+      .update(EnrollmentEntity)
+      .set({ reconsentRequestedAt: () => 'now()' })
+      .where(
+        'study_id = :studyId AND status IN (:...statuses) AND signed_version_id IS NOT NULL AND signed_version_id <> :versionId',
+        {
+          studyId,
+          statuses: ['assigned', 'active'],
+          versionId: version.id,
+        },
+      )
+      .execute();
+    await this.audit.record(manager, {
+      chain: studyId,
+      actor,
+      action: 'consent.reconsent-requested',
+      subjectType: 'consent-version',
+      subjectId: version.id,
+      data: { version: version.version, enrollments: flagged.affected ?? 0 },
+    });
+  }
+
+  async sendReconsentReminders(actor: AuditActor, studyId: string): Promise<number> {
+    return this.dataSource.transaction(async (manager) => {
+      const study = await this.studies.require(studyId, manager);
+      const active = await this.consent.activeVersion(studyId, manager);
+      if (!active) return 0;
+      const recipients = await this.rosterReads.toAskForReconsent(manager, studyId, active.id);
+      for (const recipient of recipients) {
+        const email = renderEmail('email/re-consent-request', {
+          participantName: recipient.displayName,
+          studyTitle: study.title,
+          labName: study.labName || 'The research team',
+          investigatorName: study.labName || 'The research team',
+          contactEmail: study.contactEmail ?? this.config.mailFrom,
+          portalUrl: new URL(`/s/${study.slug}`, this.config.portalUrl).toString(),
+          formVersion: active.version,
+          ethicsBoardName: 'the ethics board',
+          changeSummary: 'The research team has updated the consent form for this study.',
+        });
+        await this.mail.enqueue(manager, {
+          to: recipient.email,
+          subject: email.subject,
+          text: email.text,
+          html: email.html,
+        });
+        await this.contacts.log(manager, {
+          studyId,
+          enrollmentId: recipient.enrollmentId,
+          kind: 'reconsent-request',
+          subject: email.subject,
+          sentBy: actor.id,
+        });
+      }
+      await this.audit.record(manager, {
+        chain: studyId,
+        actor,
+        action: 'consent.reconsent-reminded',
+        subjectType: 'study',
+        subjectId: studyId,
+        data: { count: recipients.length },
+      });
+      return recipients.length;
+    });
+  }
+}
