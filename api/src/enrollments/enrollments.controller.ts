@@ -52,6 +52,8 @@ import {
   WithdrawDto,
 } from './dto/enrollment.dto';
 import { EnrollmentsService } from './enrollments.service';
+import { UndoLostDto } from './dto/follow-up.dto';
+import { FollowUpService } from './follow-up.service';
 import { StepProgressService } from './step-progress.service';
 import { StudyMembersOnly } from '../studies';
 import { BulkCompletionDto, BulkCompletionResultDto, CompleteStepDto } from '../steps';
@@ -192,6 +194,7 @@ export class RosterController {
   constructor(
     private readonly enrollments: EnrollmentsService,
     private readonly stepProgress: StepProgressService,
+    private readonly followUp: FollowUpService,
   ) {}
 
   @Get()
@@ -331,6 +334,23 @@ export class RosterController {
     @Body() body: MarkLostDto,
   ): Promise<RosterEntryDto> {
     return this.enrollments.markLost(user, studyId, enrollmentId, body.reason);
+  }
+
+  @Post(':enrollmentId/lost/undo')
+  @HttpCode(200)
+  @Roles('coordinator', 'admin')
+  @ApiOkResponse({
+    type: RosterEntryDto,
+    description: 'Taking part again: active if they finished a step, else assigned',
+  })
+  async undoLost(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string,
+    @Body() body: UndoLostDto,
+  ): Promise<RosterEntryDto> {
+    await this.followUp.undoLost(user, studyId, enrollmentId, body.reason);
+    return (await this.enrollments.record(studyId, enrollmentId)).enrollment;
   }
 
   @Post(':enrollmentId/withdraw')

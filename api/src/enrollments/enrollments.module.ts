@@ -13,6 +13,7 @@ import {
   RosterController,
   StepCompletionsController,
 } from './enrollments.controller';
+import { FollowUpService } from './follow-up.service';
 import { StepProgressService } from './step-progress.service';
 import { RemindersModule } from '../reminders';
 import { EnrollmentsService } from './enrollments.service';
@@ -30,7 +31,7 @@ import { EnrollmentsService } from './enrollments.service';
     RemindersModule,
   ],
   controllers: [MyEnrollmentController, RosterController, StepCompletionsController, ReturnLinkController],
-  providers: [EnrollmentsService, StepProgressService],
+  providers: [EnrollmentsService, StepProgressService, FollowUpService],
   exports: [EnrollmentsService],
 })
 export class EnrollmentsModule {}
