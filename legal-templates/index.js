@@ -58,7 +58,7 @@ const templates = [
     title: 'Invitation to take part in a study',
     subject: 'Invitation to take part in a research study: {{studyTitle}}',
     file: 'emails/study-invitation.md',
-    fields: [...EMAIL_COMMON_FIELDS, 'institutionName', 'studySummary', 'estimatedDuration', 'stepsPhrase', 'totalPay'],
+    fields: [...EMAIL_COMMON_FIELDS, 'inviter', 'studySummary', 'estimatedDuration', 'stepsPhrase', 'totalPay'],
   },
   {
     id: 'email/step-reminder',

@@ -489,6 +489,11 @@ export const AUDIT_ACTIONS: Record<string, ActionWords> = {
     sentence: (w) =>
       `${w.who} marked ${w.participant} as lost to follow-up${w.data.reason ? `: ${quoted(w.data.reason)}` : ''}.`,
   },
+  'enrollment.lost-undone': {
+    family: 'enrollment',
+    name: 'Back from lost to follow-up',
+    sentence: (w) => `${w.who} put ${w.participant} back to taking part, because ${quoted(w.data.reason)}.`,
+  },
   'roster.imported': {
     family: 'enrollment',
     name: 'Roster imported',

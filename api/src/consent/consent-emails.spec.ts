@@ -84,6 +84,23 @@ describe('participant e-mails', () => {
     expect(invitation.text).toContain('• Pay: you are paid for each step you complete, up to $30.00 in all.');
   });
 
+  it('invitation: names the lab once when lab and institution are the same', () => {
+    const view = {
+      ...common,
+      studySummary: 'A study of how people find their way in a virtual town.',
+      estimatedDuration: '1 hour',
+      stepsPhrase: '3 steps',
+      totalPay: '$30.00',
+    };
+    const same = renderEmail('email/study-invitation', { ...view, institutionName: ' harbor lane cognition lab ' });
+    expect(same.text).toContain('Harbor Lane Cognition Lab invites you to take part in a research study');
+    expect(same.text).not.toMatch(/Harbor Lane Cognition Lab at /i);
+    const other = renderEmail('email/study-invitation', { ...view, institutionName: 'Harbor Lane Institute' });
+    expect(other.text).toContain(
+      'Harbor Lane Cognition Lab at Harbor Lane Institute invites you to take part in a research study',
+    );
+  });
+
   it('keeps a subject on one line whatever the study title holds', () => {
     const mail = renderEmail('email/signed-copy', {
       ...common,

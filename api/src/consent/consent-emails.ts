@@ -66,9 +66,18 @@ export interface RenderedEmail {
   html: string;
 }
 
+/** "Lab at Institution", or the lab alone when both are the same name (a lab that is its own institution). */
+export function inviterName(labName: string, institutionName: string): string {
+  const same = labName.trim().toLowerCase() === institutionName.trim().toLowerCase();
+  return same || !institutionName.trim() ? labName : `${labName} at ${institutionName}`;
+}
+
 export function renderEmail<K extends EmailTemplateId>(templateId: K, view: EmailViews[K]): RenderedEmail {
   const template = findTemplate(templateId);
-  const templateView = view as unknown as TemplateView;
+  const invitation = templateId === 'email/study-invitation' ? (view as StudyInvitationEmailView) : null;
+  const templateView = (invitation
+    ? { ...invitation, inviter: inviterName(invitation.labName, invitation.institutionName) }
+    : view) as unknown as TemplateView;
   const body = renderedConsentText(
     renderTemplate(readTemplateSource(templateId), templateView, 'markdown', templateId),
     templateId,

@@ -33,6 +33,7 @@ import { StudyDetailsAndArchive1764700300000 } from './migrations/1764700300000-
 import { PasswordReset1764700310000 } from './migrations/1764700310000-password-reset';
 import { ReceiptNumbers1764700400000 } from './migrations/1764700400000-receipt-numbers';
 import { TwoFactor1764700630000 } from './migrations/1764700630000-two-factor';
+import { SignedNames1764700700000 } from './migrations/1764700700000-signed-names';
 import { StudyFundingEntity } from '../payouts/entities/study-funding.entity';
 import { StepCompletionEntity } from '../steps/entities/step-completion.entity';
 import { ConsentVersionEntity } from '../consent/entities/consent-version.entity';
@@ -96,6 +97,7 @@ export const MIGRATIONS = [
   ReceiptNumbers1764700400000,
   AuditOutbox1764700500000,
   TwoFactor1764700630000,
+  SignedNames1764700700000,
 ];
 
 /** `poolMax`: connections kept open (`DATABASE_POOL_MAX`); the benchmarks boot with more, never by rebuilding the pool. */

@@ -58,6 +58,8 @@ import { ReconsentService } from './reconsent.service';
 import { RosterService } from './roster.service';
 import { SigningService } from './signing.service';
 import { WithdrawalService } from './withdrawal.service';
+import { UndoLostDto } from './dto/follow-up.dto';
+import { FollowUpService } from './follow-up.service';
 import { StepProgressService } from './step-progress.service';
 import { StepViewsService } from './step-views.service';
 import { StudyMembersOnly } from '../studies';
@@ -206,6 +208,7 @@ export class RosterController {
     private readonly withdrawal: WithdrawalService,
     private readonly stepProgress: StepProgressService,
     private readonly stepViews: StepViewsService,
+    private readonly followUp: FollowUpService,
   ) {}
 
   @Get()
@@ -345,6 +348,23 @@ export class RosterController {
     @Body() body: MarkLostDto,
   ): Promise<RosterEntryDto> {
     return this.withdrawal.markLost(user, studyId, enrollmentId, body.reason);
+  }
+
+  @Post(':enrollmentId/lost/undo')
+  @HttpCode(200)
+  @Roles('coordinator', 'admin')
+  @ApiOkResponse({
+    type: RosterEntryDto,
+    description: 'Taking part again: active if they finished a step, else assigned',
+  })
+  async undoLost(
+    @CurrentUser() user: SessionUser,
+    @Param('studyId', uuidParam('studyId')) studyId: string,
+    @Param('enrollmentId', uuidParam('enrollmentId')) enrollmentId: string,
+    @Body() body: UndoLostDto,
+  ): Promise<RosterEntryDto> {
+    await this.followUp.undoLost(user, studyId, enrollmentId, body.reason);
+    return (await this.roster.record(studyId, enrollmentId)).enrollment;
   }
 
   @Post(':enrollmentId/withdraw')

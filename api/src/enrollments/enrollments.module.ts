@@ -13,6 +13,7 @@ import {
   RosterController,
   StepCompletionsController,
 } from './enrollments.controller';
+import { FollowUpService } from './follow-up.service';
 import { StepProgressService } from './step-progress.service';
 import { RemindersModule } from '../reminders';
 import { ReportingModule } from '../reporting';
@@ -51,6 +52,7 @@ import { WithdrawalService } from './withdrawal.service';
     StepProgressService,
     StepCompletionService,
     StepViewsService,
+    FollowUpService,
   ],
 })
 export class EnrollmentsModule {}

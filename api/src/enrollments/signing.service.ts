@@ -88,6 +88,8 @@ export class SigningService {
 
       const now = new Date();
       const changes: Partial<EnrollmentEntity> = { signedVersionId: active.id, reconsentRequestedAt: null };
+      // The name typed when signing is the roster's name for someone not imported with one (shown and searched).
+      if (!enrollment.displayName) changes.displayName = input.typedName.trim();
       if (firstConsent) {
         // The allocator claims its slot before this transaction writes any audit event (see its lock-order note).
         const outcome = await this.randomization.allocate(manager, user, {

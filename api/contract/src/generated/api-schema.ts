@@ -1220,6 +1220,22 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/studies/{studyId}/enrollments/{enrollmentId}/lost/undo": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get?: never;
+        put?: never;
+        post: operations["RosterController_undoLost"];
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/studies/{studyId}/enrollments/{enrollmentId}/withdraw": {
         parameters: {
             query?: never;
@@ -2814,6 +2830,10 @@ export interface components {
         };
         MarkLostDto: {
             reason?: string;
+        };
+        UndoLostDto: {
+            /** @description Why the person is taking part again; kept in the audit trail */
+            reason: string;
         };
         BulkCompletionDto: {
             /**
@@ -5871,6 +5891,33 @@ export interface operations {
             };
         };
         responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["RosterEntryDto"];
+                };
+            };
+        };
+    };
+    RosterController_undoLost: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+                enrollmentId: string;
+            };
+            cookie?: never;
+        };
+        requestBody: {
+            content: {
+                "application/json": components["schemas"]["UndoLostDto"];
+            };
+        };
+        responses: {
+            /** @description Taking part again: active if they finished a step, else assigned */
             200: {
                 headers: {
                     [name: string]: unknown;

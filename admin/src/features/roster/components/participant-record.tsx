@@ -13,7 +13,12 @@ import {
   type TimelineEvent,
 } from '../api/get-participant-record';
 import { ContactLog } from './contact-log';
-import { ParticipationChangeDialog, type ParticipationChangeTarget } from './participation-change-dialog';
+import {
+  changeAnnouncement,
+  ParticipationChangeDialog,
+  type ParticipationChangeTarget,
+} from './participation-change-dialog';
+import { mayUndoLost } from '../utils/roster-actions';
 import { RecordSteps } from './record-steps';
 import { EnrollmentStatusBadge } from './enrollment-status-badge';
 
@@ -151,7 +156,14 @@ function RecordDetails({ studyId, record, blinded, currency, canManage, canSeeCo
           {(record.lostReason || enrollment.status === 'lost') && (
             <>
               <dt className="text-ink-muted">Why lost to follow-up</dt>
-              <dd>{record.lostReason ?? 'Nothing noted'}</dd>
+              <dd className="flex flex-wrap items-center gap-2">
+                {record.lostReason ?? 'Nothing noted'}
+                {canManage && mayUndoLost(enrollment.status) && (
+                  <Button size="compact" onClick={() => setChange({ change: 'undo-lost', entry: enrollment })}>
+                    Undo lost to follow-up
+                  </Button>
+                )}
+              </dd>
             </>
           )}
         </dl>
@@ -176,9 +188,9 @@ function RecordDetails({ studyId, record, blinded, currency, canManage, canSeeCo
           studyId={studyId}
           target={change}
           onClose={() => setChange(null)}
-          onChanged={(entry) => {
+          onChanged={(entry, kind) => {
             setChange(null);
-            setAnnouncement(`${entry.reference} is marked lost to follow-up.`);
+            setAnnouncement(changeAnnouncement(entry, kind));
           }}
         />
       )}

@@ -7,7 +7,7 @@ import { Notice } from '@/components/ui/states';
 import { TextAreaField } from '@/components/ui/text-area-field';
 import { applyServerErrors } from '@/lib/form-server-errors';
 import {
-  participationReasonInputSchema,
+  reasonSchemaFor,
   useChangeParticipation,
   type ParticipationChange,
   type ParticipationReasonInput,
@@ -21,7 +21,13 @@ export interface ParticipationChangeTarget {
 
 const wording: Record<
   ParticipationChange,
-  { title: (who: string) => string; description: string; confirm: string; reasonHint: string }
+  {
+    title: (who: string) => string;
+    description: string;
+    confirm: string;
+    reasonHint: string;
+    tone: 'danger' | 'primary';
+  }
 > = {
   lost: {
     title: (who) => `Mark ${who} lost to follow-up?`,
@@ -29,6 +35,15 @@ const wording: Record<
       'Use this when someone stopped responding without withdrawing. They count as dropout for their condition in the dropout watch. Their record, signatures and pay so far are kept.',
     confirm: 'Mark lost to follow-up',
     reasonHint: 'Optional. For example: no reply to three reminders over two weeks.',
+    tone: 'danger',
+  },
+  'undo-lost': {
+    title: (who) => `Put ${who} back to taking part?`,
+    description:
+      'Use this when someone marked lost to follow-up got in touch again or was marked by mistake. They leave the dropout count of their condition and can do their remaining steps. The earlier mark stays in their record’s history.',
+    confirm: 'Put back to taking part',
+    reasonHint: 'Required, kept in the audit trail. For example: answered the fourth reminder.',
+    tone: 'primary',
   },
   withdraw: {
     title: (who) => `Record a withdrawal for ${who}?`,
@@ -36,8 +51,16 @@ const wording: Record<
       'Use this when the person told you they want to stop. They get a confirmation e-mail and are paid for what they completed. Their record and signatures are kept; nothing is deleted.',
     confirm: 'Record withdrawal',
     reasonHint: 'Optional. Participants never have to give a reason; note one only if they offered it.',
+    tone: 'danger',
   },
 };
+
+/** What the screen announces after a change went through. */
+export function changeAnnouncement(entry: RosterEntry, change: ParticipationChange): string {
+  if (change === 'lost') return `${entry.reference} is marked lost to follow-up.`;
+  if (change === 'undo-lost') return `${entry.reference} is taking part again.`;
+  return `The withdrawal of ${entry.reference} is recorded.`;
+}
 
 export interface ParticipationChangeDialogProps {
   studyId: string;
@@ -68,6 +91,7 @@ export function ParticipationChangeDialog({ studyId, target, onClose, onChanged 
           studyId={studyId}
           target={current}
           confirmLabel={text.confirm}
+          confirmTone={text.tone}
           reasonHint={text.reasonHint}
           onCancel={onClose}
           onChanged={onChanged}
@@ -81,12 +105,13 @@ interface ReasonFormProps {
   studyId: string;
   target: ParticipationChangeTarget;
   confirmLabel: string;
+  confirmTone: 'danger' | 'primary';
   reasonHint: string;
   onCancel: () => void;
   onChanged: (entry: RosterEntry, change: ParticipationChange) => void;
 }
 
-function ReasonForm({ studyId, target, confirmLabel, reasonHint, onCancel, onChanged }: ReasonFormProps) {
+function ReasonForm({ studyId, target, confirmLabel, confirmTone, reasonHint, onCancel, onChanged }: ReasonFormProps) {
   const changeParticipation = useChangeParticipation(studyId);
   const {
     register,
@@ -94,7 +119,8 @@ function ReasonForm({ studyId, target, confirmLabel, reasonHint, onCancel, onCha
     setError,
     formState: { errors },
   } = useForm<ParticipationReasonInput>({
-    resolver: zodResolver(participationReasonInputSchema),
+    resolver: zodResolver(reasonSchemaFor(target.change)),
+    mode: 'onTouched',
     defaultValues: { reason: '' },
   });
 
@@ -117,7 +143,7 @@ function ReasonForm({ studyId, target, confirmLabel, reasonHint, onCancel, onCha
       <TextAreaField label="Reason" hint={reasonHint} error={errors.reason?.message} rows={3} {...register('reason')} />
       <DialogActions>
         <Button onClick={onCancel}>Cancel</Button>
-        <Button type="submit" variant="danger" pending={changeParticipation.isPending}>
+        <Button type="submit" variant={confirmTone} pending={changeParticipation.isPending}>
           {confirmLabel}
         </Button>
       </DialogActions>

@@ -4,7 +4,7 @@ import { Button } from '@/components/ui/button';
 import { tableRecipe } from '@/components/ui/recipes';
 import type { RosterEntry } from '../api/get-roster';
 import type { ParticipationChange } from '../api/change-participation';
-import { mayMarkLost, mayRecordWithdrawal } from '../utils/roster-actions';
+import { mayMarkLost, mayRecordWithdrawal, mayUndoLost } from '../utils/roster-actions';
 import { nextStepTimingWording } from '../utils/step-wording';
 import { EnrollmentStatusBadge } from './enrollment-status-badge';
 
@@ -126,6 +126,16 @@ export function RosterTable({ entries, blinded, canManage, recordHref, onChange,
                         aria-label={`Mark ${who} lost to follow-up`}
                       >
                         Mark lost
+                      </Button>
+                    )}
+                    {mayUndoLost(entry.status) && (
+                      <Button
+                        variant="quiet"
+                        size="compact"
+                        onClick={() => onChange('undo-lost', entry)}
+                        aria-label={`Put ${who} back to taking part`}
+                      >
+                        Undo lost
                       </Button>
                     )}
                     {mayRecordWithdrawal(entry.status) && (

@@ -11,7 +11,11 @@ import { useReconsentCount, useRoster, type EnrollmentStatus, type RosterEntry }
 import { BulkCompletionDialog, type ListableStep } from './bulk-completion-dialog';
 import { enrollmentStatusLabels, enrollmentStatusOrder } from './enrollment-status-badge';
 import { ImportRosterDialog } from './import-roster-dialog';
-import { ParticipationChangeDialog, type ParticipationChangeTarget } from './participation-change-dialog';
+import {
+  changeAnnouncement,
+  ParticipationChangeDialog,
+  type ParticipationChangeTarget,
+} from './participation-change-dialog';
 import { RosterMailDialog, type RosterMailing } from './roster-mail-dialog';
 import { RosterTable } from './roster-table';
 import { StatusFilter } from './status-filter';
@@ -78,11 +82,7 @@ export function Roster({
   const announce = (text: string) => setAnnouncement(text);
   const onChanged = (entry: RosterEntry, kind: ParticipationChange) => {
     setChange(null);
-    announce(
-      kind === 'lost'
-        ? `${entry.reference} is marked lost to follow-up.`
-        : `The withdrawal of ${entry.reference} is recorded.`,
-    );
+    announce(changeAnnouncement(entry, kind));
   };
 
   return (

@@ -1,5 +1,6 @@
 import type { Ref } from 'react';
 import type { ConsortFlow, FlowBox } from '../api/get-attrition-report';
+import { wrapBoxText } from '../utils/wrap-box-text';
 
 // Our own CONSORT 2010-style diagram: boxes sized from their wrapped text, arrows between stages.
 const CHAR_WIDTH = 6.4;
@@ -13,17 +14,7 @@ interface BoxText {
 }
 
 function wrap(text: string, width: number): string[] {
-  const max = Math.max(8, Math.floor((width - 2 * PAD) / CHAR_WIDTH));
-  const lines: string[] = [];
-  let line = '';
-  for (const word of text.split(/\s+/)) {
-    if (line && (line + ' ' + word).length > max) {
-      lines.push(line);
-      line = word;
-    } else line = line ? `${line} ${word}` : word;
-  }
-  if (line) lines.push(line);
-  return lines;
+  return wrapBoxText(text, Math.max(8, Math.floor((width - 2 * PAD) / CHAR_WIDTH)));
 }
 
 function reasonLines(box: FlowBox): string[] {
