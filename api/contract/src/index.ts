@@ -7,3 +7,4 @@ import type { components } from './generated/api-schema';
 /** A named schema of the OpenAPI document, e.g. `Schema<'StudyDto'>`. */
 export type Schema<Name extends keyof components['schemas']> = components['schemas'][Name];
 export * from './session-fetch';
+export * from './schemas';

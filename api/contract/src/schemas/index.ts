@@ -1,0 +1,5 @@
+export * from './field-errors';
+export * from './scheme-parameters';
+export * from './assignment';
+export * from './dry-run';
+export * from './consent-values';
