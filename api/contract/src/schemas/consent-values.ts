@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { checkWith, type Checked } from './field-errors';
 
 /**
  * The values a consent template is filled in with (creating a draft, filling one in again). Every field may be left
@@ -60,3 +61,11 @@ export const refillConsentDraftRequestSchema = z
 
 export type CreateConsentDraftRequest = z.output<typeof createConsentDraftRequestSchema>;
 export type RefillConsentDraftRequest = z.output<typeof refillConsentDraftRequestSchema>;
+
+export function checkCreateConsentDraftRequest(input: unknown): Checked<CreateConsentDraftRequest> {
+  return checkWith(createConsentDraftRequestSchema, input, 'body');
+}
+
+export function checkRefillConsentDraftRequest(input: unknown): Checked<RefillConsentDraftRequest> {
+  return checkWith(refillConsentDraftRequestSchema, input, 'body');
+}
