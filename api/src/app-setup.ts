@@ -2,7 +2,7 @@ import type { INestApplication } from '@nestjs/common';
 import { Reflector } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { DocumentBuilder, OpenAPIObject, SwaggerModule } from '@nestjs/swagger';
-import { contractOpenApiSchemas } from '@evenhand/contract';
+import { contractOpenApiSchemas } from '@evenhand/contract/schemas';
 import cookieParser from 'cookie-parser';
 import type { Express } from 'express';
 import { MediaTypeInterceptor, refuseForeignOrigins, refuseUnreadableInput } from './common/http/request-guards';
@@ -48,7 +48,10 @@ export function buildOpenApiDocument(app: INestApplication): OpenAPIObject {
   // Bodies whose shape depends on a field are the contract's zod schemas, published as they are.
   document.components = {
     ...document.components,
-    schemas: { ...document.components?.schemas, ...(contractOpenApiSchemas() as NonNullable<OpenAPIObject['components']>['schemas']) },
+    schemas: {
+      ...document.components?.schemas,
+      ...(contractOpenApiSchemas() as NonNullable<OpenAPIObject['components']>['schemas']),
+    },
   };
   return document;
 }

@@ -16,7 +16,7 @@ import {
   schemaRef,
   type CreateConsentDraftRequest,
   type RefillConsentDraftRequest,
-} from '@evenhand/contract';
+} from '@evenhand/contract/schemas';
 import { FileInterceptor } from '@nestjs/platform-express';
 import { ApiBody, ApiConsumes, ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';

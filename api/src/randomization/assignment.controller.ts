@@ -6,7 +6,7 @@ import {
   type AssignmentSchemeRequest,
   type DryRunRequest,
   type DryRunResult,
-} from '@evenhand/contract';
+} from '@evenhand/contract/schemas';
 import { ApiBody, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';

@@ -23,12 +23,19 @@ import {
   type StratifiedBlocksParameters,
   type WithinDesign,
   type WithinOrdersParameters,
-} from '@evenhand/contract';
+} from '@evenhand/contract/schemas';
 import { FieldError, RandomizationError, RandomizationErrorCode } from './randomization-error';
 
 // The rules of each scheme live in the contract (api/contract/src/schemas/scheme-parameters.ts), shared with the
 // admin screens and published in the OpenAPI document; the engine works on what they let through.
-export { DEFAULT_COIN_PROBABILITY, DEFAULT_IMBALANCE_MEASURE, MAX_BLOCK_SIZE, MAX_SQUARES_PER_BLOCK, SCHEME_METHODS, WITHIN_DESIGNS };
+export {
+  DEFAULT_COIN_PROBABILITY,
+  DEFAULT_IMBALANCE_MEASURE,
+  MAX_BLOCK_SIZE,
+  MAX_SQUARES_PER_BLOCK,
+  SCHEME_METHODS,
+  WITHIN_DESIGNS,
+};
 export type {
   BetweenSchemeParameters,
   CategoricalFactor,

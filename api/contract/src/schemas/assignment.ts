@@ -25,7 +25,9 @@ const blockSizesSetting = z
     z
       .int({ error: wholeBlockSize })
       .min(1, { error: wholeBlockSize })
-      .max(MAX_BLOCK_SIZE, { error: (issue) => `must be at most ${MAX_BLOCK_SIZE} (got ${describeValue(issue.input)})` }),
+      .max(MAX_BLOCK_SIZE, {
+        error: (issue) => `must be at most ${MAX_BLOCK_SIZE} (got ${describeValue(issue.input)})`,
+      }),
     { error: 'must list at least one allowed block size' },
   )
   .min(1, 'must list at least one allowed block size')
@@ -111,14 +113,19 @@ export function checkAssignmentSchemeRequest(input: unknown): Checked<Assignment
   const { method: _method, ...settings } = input;
   void _method;
   const checked = checkWith(schemeSettingsSchemaByMethod[method.data], settings, 'body');
-  return checked.ok ? { ok: true, value: { method: method.data, ...checked.value } as AssignmentSchemeRequest } : checked;
+  return checked.ok
+    ? { ok: true, value: { method: method.data, ...checked.value } as AssignmentSchemeRequest }
+    : checked;
 }
 
 /** Checks settings for a method already chosen (e.g. a dry run of another scheme). */
 export function checkSchemeSettings(method: SchemeMethod, input: unknown, field = 'settings'): Checked<SchemeSettings> {
   const checked = checkWith(schemeSettingsSchemaByMethod[method], input ?? {}, field);
   if (checked.ok) return checked;
-  return { ok: false, errors: checked.errors.map((e) => ({ ...e, field: e.field === field ? field : `${field}.${e.field}` })) };
+  return {
+    ok: false,
+    errors: checked.errors.map((e) => ({ ...e, field: e.field === field ? field : `${field}.${e.field}` })),
+  };
 }
 
 /**
@@ -127,7 +134,10 @@ export function checkSchemeSettings(method: SchemeMethod, input: unknown, field 
  */
 export function checkSchemeParameters(input: unknown): Checked<SchemeParameters> {
   if (!isRecord(input))
-    return { ok: false, errors: [{ field: 'parameters', message: 'must be an object with a method and its settings' }] };
+    return {
+      ok: false,
+      errors: [{ field: 'parameters', message: 'must be an object with a method and its settings' }],
+    };
   const method = methodSchema.safeParse(input.method);
   if (!method.success) return { ok: false, errors: [{ field: 'method', message: method.error.issues[0]!.message }] };
   return checkWith(schemeParametersSchemaByMethod[method.data], input, 'parameters') as Checked<SchemeParameters>;

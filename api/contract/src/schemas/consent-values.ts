@@ -6,18 +6,15 @@ import { checkWith, type Checked } from './field-errors';
  * out: the study's own fields fill the rest, or the text marks it "to fill".
  */
 
-const notAllowed = { error: (issue: { code?: string }) => (issue.code === 'unrecognized_keys' ? '{field} is not an allowed field' : '{field} must be an object') };
+const notAllowed = {
+  error: (issue: { code?: string }) =>
+    issue.code === 'unrecognized_keys' ? '{field} is not an allowed field' : '{field} must be an object',
+};
 
 const text = (max: number) =>
-  z
-    .string({ error: '{field} must be text' })
-    .max(max, `{field} must be at most ${max} characters`)
-    .optional();
+  z.string({ error: '{field} must be text' }).max(max, `{field} must be at most ${max} characters`).optional();
 
-const wholeNumber = z
-  .int({ error: '{field} must be a whole number' })
-  .min(1, '{field} must be 1 or more')
-  .optional();
+const wholeNumber = z.int({ error: '{field} must be a whole number' }).min(1, '{field} must be 1 or more').optional();
 
 export const consentTemplateValuesSchema = z
   .strictObject(

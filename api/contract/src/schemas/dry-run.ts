@@ -41,7 +41,9 @@ export const dryRunRequestSchema = z
         .string({ error: 'seed must be 64 hexadecimal characters' })
         .regex(/^[0-9a-fA-F]{64}$/, 'seed must be 64 hexadecimal characters')
         .optional()
-        .meta({ description: '64 hex characters; a fresh throwaway seed when omitted. Never the study’s sealed seed.' }),
+        .meta({
+          description: '64 hex characters; a fresh throwaway seed when omitted. Never the study’s sealed seed.',
+        }),
       covariateMix: z
         .record(z.string(), covariateDistributionSchema, { error: 'must be an object keyed by covariate id' })
         .meta({ description: 'One distribution per covariate the scheme uses, keyed by covariate id' }),
@@ -49,7 +51,9 @@ export const dryRunRequestSchema = z
         .enum(SCHEME_METHODS, { error: `must be one of ${SCHEME_METHODS.join(', ')}` })
         .optional()
         .meta({ description: 'Try another scheme than the saved one' }),
-      settings: schemeSettingsSchema.optional().meta({ description: 'Settings for `method`, as in PUT assignment-scheme' }),
+      settings: schemeSettingsSchema
+        .optional()
+        .meta({ description: 'Settings for `method`, as in PUT assignment-scheme' }),
     },
     { error: (issue) => (issue.code === 'unrecognized_keys' ? 'is not a dry-run setting' : 'must be an object') },
   )
@@ -65,7 +69,9 @@ export const dryRunResultSchema = z
     arrivals: z.int(),
     arms: z.array(
       z.object({
-        armId: z.string().meta({ description: 'The condition id, or "order-1", "order-2", … for within-subjects designs' }),
+        armId: z
+          .string()
+          .meta({ description: 'The condition id, or "order-1", "order-2", … for within-subjects designs' }),
         label: z.string().meta({ description: 'The condition id, or the order as "A → B → C"' }),
         count: z.int(),
         share: z.number(),
@@ -73,7 +79,12 @@ export const dryRunResultSchema = z
       }),
     ),
     strata: z.array(
-      z.object({ stratumKey: z.string(), total: z.int(), counts: z.record(z.string(), z.int()), imbalance: z.number() }),
+      z.object({
+        stratumKey: z.string(),
+        total: z.int(),
+        counts: z.record(z.string(), z.int()),
+        imbalance: z.number(),
+      }),
     ),
     factorLevels: z.array(
       z.object({
@@ -111,5 +122,7 @@ export function checkDryRunRequest(input: unknown): Checked<DryRunRequest> {
   const { method, settings } = checked.value;
   if (method === undefined || settings === undefined) return checked as Checked<DryRunRequest>;
   const settingsChecked = checkSchemeSettings(method, settings);
-  return settingsChecked.ok ? { ok: true, value: { ...checked.value, settings: settingsChecked.value } } : settingsChecked;
+  return settingsChecked.ok
+    ? { ok: true, value: { ...checked.value, settings: settingsChecked.value } }
+    : settingsChecked;
 }

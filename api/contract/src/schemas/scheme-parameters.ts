@@ -103,7 +103,9 @@ export const conditionAllocationSchema = z
     },
     {
       error: (issue) =>
-        issue.code === 'unrecognized_keys' ? 'is not a condition setting' : 'must be an object with conditionId and weight',
+        issue.code === 'unrecognized_keys'
+          ? 'is not a condition setting'
+          : 'must be an object with conditionId and weight',
     },
   )
   .meta({ description: 'A condition and its integer allocation weight (2 and 1 give a 2:1 ratio)' });
@@ -130,12 +132,18 @@ const blockSizesSchema = z
     z
       .int({ error: wholeNumberOfOneOrMore })
       .min(1, { error: wholeNumberOfOneOrMore })
-      .max(MAX_BLOCK_SIZE, { error: (issue) => `must be at most ${MAX_BLOCK_SIZE} (got ${describeValue(issue.input)})` }),
+      .max(MAX_BLOCK_SIZE, {
+        error: (issue) => `must be at most ${MAX_BLOCK_SIZE} (got ${describeValue(issue.input)})`,
+      }),
     { error: 'must list at least one allowed block size' },
   )
   .min(1, 'must list at least one allowed block size')
-  .superRefine((sizes, ctx) => duplicates(sizes, ctx, (size) => `${String(size)} is listed twice; list each allowed size once`))
-  .meta({ description: 'Allowed block sizes, each a multiple of the total weight; each block’s size is drawn from this list' });
+  .superRefine((sizes, ctx) =>
+    duplicates(sizes, ctx, (size) => `${String(size)} is listed twice; list each allowed size once`),
+  )
+  .meta({
+    description: 'Allowed block sizes, each a multiple of the total weight; each block’s size is drawn from this list',
+  });
 
 const factorIdSchema = z
   .string({ error: 'must be 1-64 letters, digits, "_", "." or "-" (the covariate key)' })
@@ -151,7 +159,11 @@ const cutPointsSchema = z
       const previous = cuts[i - 1];
       if (previous === undefined) return;
       if (cut === previous)
-        ctx.addIssue({ code: 'custom', path: [i], message: `${cut} is listed twice; each cut point must be different` });
+        ctx.addIssue({
+          code: 'custom',
+          path: [i],
+          message: `${cut} is listed twice; each cut point must be different`,
+        });
       else if (cut < previous)
         ctx.addIssue({
           code: 'custom',
@@ -179,7 +191,10 @@ const notAFactorSetting = (issue: { code?: string }) =>
   issue.code === 'unrecognized_keys' ? 'is not a setting of this factor' : factorObject.error;
 
 export const numericFactorSchema = z
-  .strictObject({ id: factorIdSchema, kind: z.literal('numeric'), cutPoints: cutPointsSchema }, { error: notAFactorSetting })
+  .strictObject(
+    { id: factorIdSchema, kind: z.literal('numeric'), cutPoints: cutPointsSchema },
+    { error: notAFactorSetting },
+  )
   .meta({ description: 'A numeric covariate split at cut points: a value at or above a cut falls in the upper level' });
 
 export const categoricalFactorSchema = z
@@ -191,12 +206,17 @@ export const categoricalFactorSchema = z
 
 const factorKind = {
   error: (issue: { input?: unknown }) => {
-    const kind = typeof issue.input === 'object' && issue.input !== null ? (issue.input as { kind?: unknown }).kind : undefined;
+    const kind =
+      typeof issue.input === 'object' && issue.input !== null ? (issue.input as { kind?: unknown }).kind : undefined;
     return `must be numeric or categorical (got ${describeValue(kind)})`;
   },
 };
 
-export const stratificationFactorSchema = z.discriminatedUnion('kind', [numericFactorSchema, categoricalFactorSchema], factorKind);
+export const stratificationFactorSchema = z.discriminatedUnion(
+  'kind',
+  [numericFactorSchema, categoricalFactorSchema],
+  factorKind,
+);
 
 const factorWeight = z
   .number({ error: (issue) => `must be a number greater than 0 (got ${describeValue(issue.input)})` })
@@ -328,7 +348,9 @@ export const squaresPerBlockSchema = z
     { error: 'must list at least one block size, in whole copies of the design' },
   )
   .min(1, 'must list at least one block size, in whole copies of the design')
-  .superRefine((counts, ctx) => duplicates(counts, ctx, (count) => `${String(count)} is listed twice; list each size once`))
+  .superRefine((counts, ctx) =>
+    duplicates(counts, ctx, (count) => `${String(count)} is listed twice; list each size once`),
+  )
   .meta({ description: 'Allowed block sizes in whole copies of the design’s orders; default [1]' });
 
 function withinParametersSchema<M extends WithinDesign>(method: M, id: string) {
@@ -341,7 +363,11 @@ function withinParametersSchema<M extends WithinDesign>(method: M, id: string) {
           .superRefine((ids, ctx) => {
             const problem = conditionCountProblem(method, ids.length);
             if (problem) ctx.addIssue({ code: 'custom', message: problem });
-            duplicates(ids, ctx, (value, first) => `"${String(value)}" is listed twice (also at conditionIds[${first}])`);
+            duplicates(
+              ids,
+              ctx,
+              (value, first) => `"${String(value)}" is listed twice (also at conditionIds[${first}])`,
+            );
           })
           .meta({ description: 'Conditions in the order that defines the design’s first row' }),
         squaresPerBlock: squaresPerBlockSchema.default([1]),

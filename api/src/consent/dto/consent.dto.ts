@@ -1,19 +1,7 @@
-import { schemaRef, type ConsentTemplateValues } from '@evenhand/contract';
+import { schemaRef, type ConsentTemplateValues } from '@evenhand/contract/schemas';
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { Transform, Type } from 'class-transformer';
-import {
-  IsBoolean,
-  IsDateString,
-  IsEmail,
-  IsInt,
-  IsObject,
-  IsOptional,
-  IsString,
-  Length,
-  MaxLength,
-  Min,
-  ValidateNested,
-} from 'class-validator';
+import { Transform } from 'class-transformer';
+import { IsDateString, IsOptional, IsString, Length } from 'class-validator';
 
 const trimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 

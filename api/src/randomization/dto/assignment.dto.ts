@@ -1,22 +1,7 @@
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
 import { Transform } from 'class-transformer';
-import {
-  ArrayMaxSize,
-  ArrayMinSize,
-  IsArray,
-  IsBoolean,
-  IsIn,
-  IsInt,
-  IsNumber,
-  IsObject,
-  IsOptional,
-  IsString,
-  Length,
-  Matches,
-  Max,
-  Min,
-} from 'class-validator';
-import { schemaRef, type SchemeParameters, type SchemeSettings } from '@evenhand/contract';
+import { IsString, Length } from 'class-validator';
+import { schemaRef, type SchemeParameters, type SchemeSettings } from '@evenhand/contract/schemas';
 import { SCHEME_METHODS } from '../scheme-parameters';
 
 export class ArmCountDto {
