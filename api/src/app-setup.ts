@@ -2,6 +2,7 @@ import type { INestApplication } from '@nestjs/common';
 import { Reflector } from '@nestjs/core';
 import type { NestExpressApplication } from '@nestjs/platform-express';
 import { DocumentBuilder, OpenAPIObject, SwaggerModule } from '@nestjs/swagger';
+import { contractOpenApiSchemas } from '@evenhand/contract/schemas';
 import cookieParser from 'cookie-parser';
 import type { Express } from 'express';
 import { MediaTypeInterceptor, refuseForeignOrigins, refuseUnreadableInput } from './common/http/request-guards';
@@ -43,5 +44,14 @@ export function buildOpenApiDocument(app: INestApplication): OpenAPIObject {
     .setVersion('0.1.0')
     .addCookieAuth('eh_access')
     .build();
-  return SwaggerModule.createDocument(app, config);
+  const document = SwaggerModule.createDocument(app, config);
+  // Bodies whose shape depends on a field are the contract's zod schemas, published as they are.
+  document.components = {
+    ...document.components,
+    schemas: {
+      ...document.components?.schemas,
+      ...(contractOpenApiSchemas() as NonNullable<OpenAPIObject['components']>['schemas']),
+    },
+  };
+  return document;
 }

@@ -331,7 +331,7 @@ describe('filling a draft in again', () => {
     const operation = document.paths['/api/studies/{studyId}/consent-versions/{versionId}/refill']?.post;
     expect(operation).toBeDefined();
     expect(operation.requestBody.content['application/json'].schema).toEqual({
-      $ref: '#/components/schemas/RefillConsentDraftDto',
+      $ref: '#/components/schemas/RefillConsentDraftRequest',
     });
     expect(operation.responses['200'].content['application/json'].schema).toEqual({
       $ref: '#/components/schemas/ConsentVersionDto',

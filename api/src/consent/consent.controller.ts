@@ -10,12 +10,20 @@ import {
   UploadedFile,
   UseInterceptors,
 } from '@nestjs/common';
+import {
+  checkCreateConsentDraftRequest,
+  checkRefillConsentDraftRequest,
+  schemaRef,
+  type CreateConsentDraftRequest,
+  type RefillConsentDraftRequest,
+} from '@evenhand/contract/schemas';
 import { FileInterceptor } from '@nestjs/platform-express';
 import { ApiBody, ApiConsumes, ApiCreatedResponse, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import type { Response } from 'express';
 import { memoryStorage } from 'multer';
 import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
+import { CheckedBody } from '../common/http/checked-body';
 import { uuidParam } from '../common/http/uuid-param';
 import { StudyMembersOnly } from '../studies';
 import { ConsentService, MAX_APPROVAL_LETTER_BYTES } from './consent.service';
@@ -24,8 +32,6 @@ import {
   ConsentTemplateListDto,
   ConsentVersionDto,
   ConsentVersionListDto,
-  CreateConsentVersionDto,
-  RefillConsentDraftDto,
   UpdateConsentVersionDto,
 } from './dto/consent.dto';
 
@@ -54,11 +60,12 @@ export class ConsentController {
   @Post('studies/:studyId/consent-versions')
   @Roles(...EDITORS)
   @StudyMembersOnly()
+  @ApiBody({ schema: schemaRef('CreateConsentDraftRequest') })
   @ApiCreatedResponse({ type: ConsentVersionDto })
   create(
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,
-    @Body() body: CreateConsentVersionDto,
+    @Body(new CheckedBody(checkCreateConsentDraftRequest)) body: CreateConsentDraftRequest,
   ): Promise<ConsentVersionDto> {
     return this.consent.createDraft(user, studyId, body.templateId, body.values);
   }
@@ -91,12 +98,13 @@ export class ConsentController {
   @HttpCode(200)
   @Roles(...EDITORS)
   @StudyMembersOnly()
+  @ApiBody({ schema: schemaRef('RefillConsentDraftRequest') })
   @ApiOkResponse({ type: ConsentVersionDto })
   refill(
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,
     @Param('versionId', uuidParam('versionId')) versionId: string,
-    @Body() body: RefillConsentDraftDto,
+    @Body(new CheckedBody(checkRefillConsentDraftRequest)) body: RefillConsentDraftRequest,
   ): Promise<ConsentVersionDto> {
     return this.consent.refillDraft(user, studyId, versionId, body.values);
   }

@@ -1,3 +1,4 @@
+import type { ConsentTemplateValues } from '@evenhand/contract';
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { templates, STAFF_NOTICE } from '@evenhand/legal-templates';
@@ -12,7 +13,7 @@ import { renderConsentHtml } from './consent-markdown';
 import { readingSections, ReadingSection } from './consent-reading';
 import { ConsentTemplateFields, DEFAULT_CONSENT_TEMPLATE_ID, fillConsentTemplate } from './consent-template';
 import { renderedConsentText, renderedTextFingerprint } from './consent-text';
-import { ConsentCheckDto, ConsentFieldsDto, ConsentVersionDto, UpdateConsentVersionDto } from './dto/consent.dto';
+import { ConsentCheckDto, ConsentVersionDto, UpdateConsentVersionDto } from './dto/consent.dto';
 import { ConsentVersionEntity } from './entities/consent-version.entity';
 import { SignatureEntity } from './entities/signature.entity';
 import { estimateReadingTime } from './reading-time';
@@ -101,7 +102,7 @@ export class ConsentService {
       id: version.id,
       version: version.version,
       templateId: version.templateId,
-      templateValues: version.templateValues as ConsentFieldsDto,
+      templateValues: version.templateValues as ConsentTemplateValues,
       status: version.status,
       body: version.body,
       previewHtml,
@@ -136,7 +137,7 @@ export class ConsentService {
     actor: AuditActor,
     studyId: string,
     templateId: string,
-    values: ConsentFieldsDto = {},
+    values: ConsentTemplateValues = {},
   ): Promise<ConsentVersionDto> {
     const known = templates.find((t) => t.id === templateId && t.kind === 'consent');
     if (!known) {
@@ -190,7 +191,7 @@ export class ConsentService {
     actor: AuditActor,
     studyId: string,
     versionId: string,
-    values: ConsentFieldsDto,
+    values: ConsentTemplateValues,
   ): Promise<ConsentVersionDto> {
     const refilled = await this.dataSource.transaction(async (manager) => {
       // The same row lock activation takes, so a draft cannot be refilled while it is being activated.
@@ -220,7 +221,7 @@ export class ConsentService {
   /** What a template is filled with: the study's fields and steps as they are now, plus the values staff gave. */
   private async templateFields(
     studyId: string,
-    values: ConsentFieldsDto,
+    values: ConsentTemplateValues,
     manager: EntityManager = this.dataSource.manager,
   ): Promise<ConsentTemplateFields> {
     const study = await this.studies.require(studyId, manager);

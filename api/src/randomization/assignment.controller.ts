@@ -1,23 +1,25 @@
 import { Body, Controller, Get, HttpCode, Param, Post, Put } from '@nestjs/common';
-import { ApiOkResponse, ApiTags } from '@nestjs/swagger';
+import {
+  checkAssignmentSchemeRequest,
+  checkDryRunRequest,
+  schemaRef,
+  type AssignmentSchemeRequest,
+  type DryRunRequest,
+  type DryRunResult,
+} from '@evenhand/contract/schemas';
+import { ApiBody, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
 import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
 import { DomainException } from '../common/errors/domain.exception';
+import { CheckedBody } from '../common/http/checked-body';
 import { uuidParam } from '../common/http/uuid-param';
 import { StudiesService } from '../studies';
 import { StudyMembersOnly } from '../studies';
-import {
-  AssignmentDto,
-  DryRunRequestDto,
-  DryRunResultDto,
-  PutAssignmentSchemeDto,
-  UnblindDto,
-  VerificationDto,
-} from './dto/assignment.dto';
+import { AssignmentDto, UnblindDto, VerificationDto } from './dto/assignment.dto';
 import { RandomizationService } from './randomization.service';
-import { SchemeMethod } from './scheme-parameters';
+import { parseSchemeParameters, SchemeMethod } from './scheme-parameters';
 import { generateSeed } from './seeded-stream';
 import { PRETEST_CUTOFF_EXPLANATION } from './strata';
 import type { SchemeSettings } from './study-design-snapshot';
@@ -34,11 +36,12 @@ export class AssignmentController {
 
   @Put('assignment-scheme')
   @Roles('coordinator', 'researcher', 'admin')
+  @ApiBody({ schema: schemaRef('AssignmentSchemeRequest') })
   @ApiOkResponse({ type: AssignmentDto })
   async putScheme(
     @CurrentUser() user: SessionUser,
     @Param('studyId', uuidParam('studyId')) studyId: string,
-    @Body() body: PutAssignmentSchemeDto,
+    @Body(new CheckedBody(checkAssignmentSchemeRequest)) body: AssignmentSchemeRequest,
   ): Promise<AssignmentDto> {
     const { method, ...settings } = body;
     await this.dataSource.transaction(async (manager) => {
@@ -60,8 +63,8 @@ export class AssignmentController {
     const scheme = await this.randomization.schemeOf(studyId);
     return {
       ...overview,
-      settings: overview.settings as Record<string, unknown>,
-      sealedParameters: scheme?.sealedParameters ?? null,
+      settings: overview.settings,
+      sealedParameters: scheme?.sealedParameters ? parseSchemeParameters(scheme.sealedParameters) : null,
       committedAt: overview.committedAt?.toISOString() ?? null,
       seedRevealedAt: overview.seedRevealedAt?.toISOString() ?? null,
       unblindedAt: overview.unblindedAt?.toISOString() ?? null,
@@ -77,11 +80,12 @@ export class AssignmentController {
   @Post('assignment/dry-run')
   @HttpCode(200)
   @Roles('coordinator', 'researcher', 'admin')
-  @ApiOkResponse({ type: DryRunResultDto })
+  @ApiBody({ schema: schemaRef('DryRunRequest') })
+  @ApiOkResponse({ schema: schemaRef('DryRunResult') })
   async dryRun(
     @Param('studyId', uuidParam('studyId')) studyId: string,
-    @Body() body: DryRunRequestDto,
-  ): Promise<DryRunResultDto> {
+    @Body(new CheckedBody(checkDryRunRequest)) body: DryRunRequest,
+  ): Promise<DryRunResult> {
     const snapshot = await this.studies.designSnapshot(studyId);
     const saved = await this.randomization.schemeOf(studyId);
     const method = (body.method ?? saved?.method) as SchemeMethod | undefined;
@@ -97,7 +101,7 @@ export class AssignmentController {
       seed,
       covariateMix: body.covariateMix,
     });
-    return { ...(result as unknown as DryRunResultDto), seed };
+    return { ...result, seed };
   }
 
   @Post('unblind')

@@ -2252,25 +2252,6 @@ export interface components {
             steps: components["schemas"]["PublicStepDto"][];
             eligibility: components["schemas"]["EligibilityCriterionDto"][];
         };
-        PutAssignmentSchemeDto: {
-            /** @enum {string} */
-            method: "simple" | "permuted-blocks" | "stratified-blocks" | "minimization" | "matched-pairs" | "counterbalanced" | "latin-square" | "williams";
-            /** @description permuted and stratified blocks: allowed block sizes, each a multiple of the total weight */
-            blockSizes?: number[];
-            /**
-             * @description minimization: how imbalance is measured
-             * @enum {string}
-             */
-            measure?: "range" | "variance";
-            /** @description minimization: probability of the least-imbalanced condition (0.5–1) */
-            coinProbability?: number;
-            /** @description matched pairs: the numeric pretest factor used to pair people */
-            pretestKey?: string;
-            /** @description within-subjects: block sizes in whole copies of the design */
-            squaresPerBlock?: number[];
-            /** @description within-subjects: hand out orders separately per stratum */
-            stratify?: boolean;
-        };
         ArmCountDto: {
             /** @description Condition id, or the order of condition ids joined by ">" */
             armId: string;
@@ -2284,17 +2265,14 @@ export interface components {
         AssignmentDto: {
             /** @enum {string|null} */
             method: "simple" | "permuted-blocks" | "stratified-blocks" | "minimization" | "matched-pairs" | "counterbalanced" | "latin-square" | "williams" | null;
-            settings: {
-                [key: string]: unknown;
-            };
+            /** @description The method’s settings as saved */
+            settings: components["schemas"]["SchemeSettings"];
             /** @description SHA-256 over the sealed seed and the canonical parameters */
             commitment: string | null;
             /** Format: date-time */
             committedAt: string | null;
             /** @description The canonical parameters the commitment covers */
-            sealedParameters: {
-                [key: string]: unknown;
-            } | null;
+            sealedParameters: components["schemas"]["SchemeParameters"] | null;
             /** @description Revealed only after closure or unblinding */
             seed: string | null;
             /** Format: date-time */
@@ -2305,49 +2283,6 @@ export interface components {
             allocated: number;
             balance: components["schemas"]["StratumBalanceDto"][];
             pretestNote: string;
-        };
-        DryRunRequestDto: {
-            arrivals: number;
-            /** @description 64 hex characters; a fresh throwaway seed when omitted. Never the study’s sealed seed. */
-            seed?: string;
-            /** @description Per covariate key: {kind:"categorical",proportions}, {kind:"numeric-values",values:[{value,probability}]} or {kind:"normal",mean,sd} */
-            covariateMix: {
-                [key: string]: unknown;
-            };
-            /**
-             * @description Try another scheme than the saved one
-             * @enum {string}
-             */
-            method?: "simple" | "permuted-blocks" | "stratified-blocks" | "minimization" | "matched-pairs" | "counterbalanced" | "latin-square" | "williams";
-            /** @description Settings for `method`, as in PUT assignment-scheme */
-            settings?: {
-                [key: string]: unknown;
-            };
-        };
-        DryRunResultDto: {
-            arrivals: number;
-            arms: {
-                [key: string]: unknown;
-            }[];
-            strata: {
-                [key: string]: unknown;
-            }[];
-            factorLevels: {
-                [key: string]: unknown;
-            }[];
-            imbalanceOverTime: {
-                [key: string]: unknown;
-            }[];
-            largestImbalance: {
-                [key: string]: unknown;
-            };
-            finalImbalance: {
-                [key: string]: unknown;
-            };
-            matchedPairs: {
-                [key: string]: unknown;
-            } | null;
-            seed: string;
         };
         UnblindDto: {
             /** @description Why the allocation is being revealed; kept in the audit trail */
@@ -2416,27 +2351,13 @@ export interface components {
         ConsentTemplateListDto: {
             items: components["schemas"]["ConsentTemplateDto"][];
         };
-        ConsentFieldsDto: {
-            institutionName?: string;
-            investigatorName?: string;
-            contactEmail?: string;
-            contactPhone?: string;
-            ethicsBoardName?: string;
-            ethicsBoardContact?: string;
-            studyPurpose?: string;
-            paymentMethod?: string;
-            paymentDays?: number;
-            dataRetentionYears?: number;
-            /** @description (b)(9): whether de-identified data may be used in future research */
-            futureUseDeidentified?: boolean;
-        };
         ConsentVersionDto: {
             /** Format: uuid */
             id: string;
             version: number;
             templateId: string;
             /** @description The values the text was last filled in with (not the study’s own fields) */
-            templateValues: components["schemas"]["ConsentFieldsDto"];
+            templateValues: components["schemas"]["ConsentTemplateValues"];
             /** @enum {string} */
             status: "draft" | "active" | "retired";
             body: string;
@@ -2458,12 +2379,6 @@ export interface components {
         ConsentVersionListDto: {
             items: components["schemas"]["ConsentVersionDto"][];
         };
-        CreateConsentVersionDto: {
-            /** @example consent/minimal-risk-paid-study */
-            templateId: string;
-            /** @description Values for the template; study fields fill the rest */
-            values?: components["schemas"]["ConsentFieldsDto"];
-        };
         UpdateConsentVersionDto: {
             /** @description The whole form as Markdown */
             body?: string;
@@ -2474,10 +2389,6 @@ export interface components {
              * @example 2026-11-20
              */
             approvedAt?: string;
-        };
-        RefillConsentDraftDto: {
-            /** @description The values to fill in, replacing the stored ones; the study’s current fields and steps fill the rest */
-            values: components["schemas"]["ConsentFieldsDto"];
         };
         ConsentFindingDto: {
             code: string;
@@ -3606,6 +3517,351 @@ export interface components {
             queue: "up" | "down";
             /** @enum {string} */
             payments: "up" | "down";
+        };
+        SimpleParameters: {
+            /** @enum {string} */
+            method: "simple";
+            conditions: {
+                conditionId: string;
+                weight: number;
+            }[];
+        };
+        PermutedBlocksParameters: {
+            /** @enum {string} */
+            method: "permuted-blocks";
+            conditions: {
+                conditionId: string;
+                weight: number;
+            }[];
+            /** @description Allowed block sizes, each a multiple of the total weight; each block’s size is drawn from this list */
+            blockSizes: number[];
+        };
+        StratifiedBlocksParameters: {
+            /** @enum {string} */
+            method: "stratified-blocks";
+            conditions: {
+                conditionId: string;
+                weight: number;
+            }[];
+            /** @description Allowed block sizes, each a multiple of the total weight; each block’s size is drawn from this list */
+            blockSizes: number[];
+            factors: ({
+                id: string;
+                /** @enum {string} */
+                kind: "numeric";
+                cutPoints: number[];
+            } | {
+                id: string;
+                /** @enum {string} */
+                kind: "categorical";
+                categories: string[];
+            })[];
+        };
+        MinimizationParameters: {
+            /** @enum {string} */
+            method: "minimization";
+            conditions: {
+                conditionId: string;
+                weight: number;
+            }[];
+            factors: ({
+                id: string;
+                /** @enum {string} */
+                kind: "numeric";
+                cutPoints: number[];
+                weight: number;
+            } | {
+                id: string;
+                /** @enum {string} */
+                kind: "categorical";
+                categories: string[];
+                weight: number;
+            })[];
+            /**
+             * @default range
+             * @enum {string}
+             */
+            measure: "range" | "variance";
+            /**
+             * @description Probability of assigning the least-imbalanced condition, from 0.5 to 1
+             * @default 0.6666666666666666
+             */
+            coinProbability: number;
+        };
+        MatchedPairsParameters: {
+            /** @enum {string} */
+            method: "matched-pairs";
+            conditions: {
+                conditionId: string;
+                weight: number;
+            }[];
+            /** @description Covariate key of the numeric pretest used for sorting */
+            pretestId: string;
+        };
+        CounterbalancedParameters: {
+            /** @enum {string} */
+            method: "counterbalanced";
+            /** @description Conditions in the order that defines the design’s first row */
+            conditionIds: string[];
+            /**
+             * @description Allowed block sizes in whole copies of the design’s orders; default [1]
+             * @default [
+             *       1
+             *     ]
+             */
+            squaresPerBlock: number[];
+            /**
+             * @description Optional stratification; empty means one sequence for the whole study
+             * @default []
+             */
+            factors: ({
+                id: string;
+                /** @enum {string} */
+                kind: "numeric";
+                cutPoints: number[];
+            } | {
+                id: string;
+                /** @enum {string} */
+                kind: "categorical";
+                categories: string[];
+            })[];
+        };
+        LatinSquareParameters: {
+            /** @enum {string} */
+            method: "latin-square";
+            /** @description Conditions in the order that defines the design’s first row */
+            conditionIds: string[];
+            /**
+             * @description Allowed block sizes in whole copies of the design’s orders; default [1]
+             * @default [
+             *       1
+             *     ]
+             */
+            squaresPerBlock: number[];
+            /**
+             * @description Optional stratification; empty means one sequence for the whole study
+             * @default []
+             */
+            factors: ({
+                id: string;
+                /** @enum {string} */
+                kind: "numeric";
+                cutPoints: number[];
+            } | {
+                id: string;
+                /** @enum {string} */
+                kind: "categorical";
+                categories: string[];
+            })[];
+        };
+        WilliamsParameters: {
+            /** @enum {string} */
+            method: "williams";
+            /** @description Conditions in the order that defines the design’s first row */
+            conditionIds: string[];
+            /**
+             * @description Allowed block sizes in whole copies of the design’s orders; default [1]
+             * @default [
+             *       1
+             *     ]
+             */
+            squaresPerBlock: number[];
+            /**
+             * @description Optional stratification; empty means one sequence for the whole study
+             * @default []
+             */
+            factors: ({
+                id: string;
+                /** @enum {string} */
+                kind: "numeric";
+                cutPoints: number[];
+            } | {
+                id: string;
+                /** @enum {string} */
+                kind: "categorical";
+                categories: string[];
+            })[];
+        };
+        SchemeParameters: components["schemas"]["SimpleParameters"] | components["schemas"]["PermutedBlocksParameters"] | components["schemas"]["StratifiedBlocksParameters"] | components["schemas"]["MinimizationParameters"] | components["schemas"]["MatchedPairsParameters"] | components["schemas"]["CounterbalancedParameters"] | components["schemas"]["LatinSquareParameters"] | components["schemas"]["WilliamsParameters"];
+        SchemeSettings: Record<string, never> | {
+            /** @description Allowed block sizes, each a multiple of the total weight of the study’s conditions */
+            blockSizes: number[];
+        } | {
+            /**
+             * @description How imbalance is measured; range when left out
+             * @enum {string}
+             */
+            measure?: "range" | "variance";
+            /** @description Probability of assigning the least-imbalanced condition, from 0.5 to 1 */
+            coinProbability?: number;
+        } | {
+            /** @description The numeric pretest factor used to pair people */
+            pretestKey?: string;
+        } | {
+            /** @description Allowed block sizes in whole copies of the design’s orders; default [1] */
+            squaresPerBlock?: number[];
+            /** @description Hand out orders separately per stratum of the study’s factors */
+            stratify?: boolean;
+        };
+        AssignmentSchemeRequest: {
+            /** @enum {string} */
+            method: "simple";
+        } | {
+            /** @description Allowed block sizes, each a multiple of the total weight of the study’s conditions */
+            blockSizes: number[];
+            /** @enum {string} */
+            method: "permuted-blocks";
+        } | {
+            /** @description Allowed block sizes, each a multiple of the total weight of the study’s conditions */
+            blockSizes: number[];
+            /** @enum {string} */
+            method: "stratified-blocks";
+        } | {
+            /**
+             * @description How imbalance is measured; range when left out
+             * @enum {string}
+             */
+            measure?: "range" | "variance";
+            /** @description Probability of assigning the least-imbalanced condition, from 0.5 to 1 */
+            coinProbability?: number;
+            /** @enum {string} */
+            method: "minimization";
+        } | {
+            /** @description The numeric pretest factor used to pair people */
+            pretestKey?: string;
+            /** @enum {string} */
+            method: "matched-pairs";
+        } | {
+            /** @description Allowed block sizes in whole copies of the design’s orders; default [1] */
+            squaresPerBlock?: number[];
+            /** @description Hand out orders separately per stratum of the study’s factors */
+            stratify?: boolean;
+            /** @enum {string} */
+            method: "counterbalanced";
+        } | {
+            /** @description Allowed block sizes in whole copies of the design’s orders; default [1] */
+            squaresPerBlock?: number[];
+            /** @description Hand out orders separately per stratum of the study’s factors */
+            stratify?: boolean;
+            /** @enum {string} */
+            method: "latin-square";
+        } | {
+            /** @description Allowed block sizes in whole copies of the design’s orders; default [1] */
+            squaresPerBlock?: number[];
+            /** @description Hand out orders separately per stratum of the study’s factors */
+            stratify?: boolean;
+            /** @enum {string} */
+            method: "williams";
+        };
+        CovariateDistribution: {
+            /** @enum {string} */
+            kind: "categorical";
+            proportions: {
+                [key: string]: number;
+            };
+        } | {
+            /** @enum {string} */
+            kind: "numeric-values";
+            values: {
+                value: number;
+                /** @description A relative share; the shares need not add up to 1 */
+                probability: number;
+            }[];
+        } | {
+            /** @enum {string} */
+            kind: "normal";
+            mean: number;
+            sd: number;
+        };
+        DryRunRequest: {
+            arrivals: number;
+            /** @description 64 hex characters; a fresh throwaway seed when omitted. Never the study’s sealed seed. */
+            seed?: string;
+            /** @description One distribution per covariate the scheme uses, keyed by covariate id */
+            covariateMix: {
+                [key: string]: components["schemas"]["CovariateDistribution"];
+            };
+            /**
+             * @description Try another scheme than the saved one
+             * @enum {string}
+             */
+            method?: "simple" | "permuted-blocks" | "stratified-blocks" | "minimization" | "matched-pairs" | "counterbalanced" | "latin-square" | "williams";
+            /** @description Settings for `method`, as in PUT assignment-scheme */
+            settings?: components["schemas"]["SchemeSettings"];
+        };
+        DryRunResult: {
+            arrivals: number;
+            arms: {
+                /** @description The condition id, or "order-1", "order-2", … for within-subjects designs */
+                armId: string;
+                /** @description The condition id, or the order as "A → B → C" */
+                label: string;
+                count: number;
+                share: number;
+                targetShare: number;
+            }[];
+            strata: {
+                stratumKey: string;
+                total: number;
+                counts: {
+                    [key: string]: number;
+                };
+                imbalance: number;
+            }[];
+            factorLevels: {
+                factorId: string;
+                level: string;
+                total: number;
+                counts: {
+                    [key: string]: number;
+                };
+                imbalance: number;
+            }[];
+            /** @description The largest imbalance reached within each sampled stretch of arrivals */
+            imbalanceOverTime: {
+                arrivals: number;
+                overall: number;
+                largestInStratum: number;
+                largestInFactorLevel: number;
+            }[];
+            largestImbalance: {
+                overall: number;
+                inStratum: number;
+                inFactorLevel: number;
+            };
+            finalImbalance: {
+                overall: number;
+                inStratum: number;
+                inFactorLevel: number;
+            };
+            matchedPairs: {
+                pairs: number;
+                leftoverParticipantId: string | null;
+            } | null;
+            /** @description The throwaway seed, to run the same simulation again */
+            seed: string;
+        };
+        ConsentTemplateValues: {
+            institutionName?: string;
+            investigatorName?: string;
+            /** Format: email */
+            contactEmail?: string;
+            contactPhone?: string;
+            ethicsBoardName?: string;
+            ethicsBoardContact?: string;
+            studyPurpose?: string;
+            paymentMethod?: string;
+            paymentDays?: number;
+            dataRetentionYears?: number;
+            /** @description (b)(9): whether de-identified data may be used in future research */
+            futureUseDeidentified?: boolean;
+        };
+        CreateConsentDraftRequest: {
+            templateId: string;
+            values?: components["schemas"]["ConsentTemplateValues"];
+        };
+        RefillConsentDraftRequest: {
+            values: components["schemas"]["ConsentTemplateValues"];
         };
     };
     responses: never;
@@ -5015,7 +5271,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["PutAssignmentSchemeDto"];
+                "application/json": components["schemas"]["AssignmentSchemeRequest"];
             };
         };
         responses: {
@@ -5061,7 +5317,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["DryRunRequestDto"];
+                "application/json": components["schemas"]["DryRunRequest"];
             };
         };
         responses: {
@@ -5070,7 +5326,7 @@ export interface operations {
                     [name: string]: unknown;
                 };
                 content: {
-                    "application/json": components["schemas"]["DryRunResultDto"];
+                    "application/json": components["schemas"]["DryRunResult"];
                 };
             };
         };
@@ -5172,7 +5428,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["CreateConsentVersionDto"];
+                "application/json": components["schemas"]["CreateConsentDraftRequest"];
             };
         };
         responses: {
@@ -5246,7 +5502,7 @@ export interface operations {
         };
         requestBody: {
             content: {
-                "application/json": components["schemas"]["RefillConsentDraftDto"];
+                "application/json": components["schemas"]["RefillConsentDraftRequest"];
             };
         };
         responses: {

@@ -1,18 +1,7 @@
+import { schemaRef, type ConsentTemplateValues } from '@evenhand/contract/schemas';
 import { ApiProperty, ApiPropertyOptional } from '@nestjs/swagger';
-import { Transform, Type } from 'class-transformer';
-import {
-  IsBoolean,
-  IsDateString,
-  IsEmail,
-  IsInt,
-  IsObject,
-  IsOptional,
-  IsString,
-  Length,
-  MaxLength,
-  Min,
-  ValidateNested,
-} from 'class-validator';
+import { Transform } from 'class-transformer';
+import { IsDateString, IsOptional, IsString, Length } from 'class-validator';
 
 const trimmed = ({ value }: { value: unknown }) => (typeof value === 'string' ? value.trim() : value);
 
@@ -26,47 +15,6 @@ export class ConsentTemplateDto {
 
 export class ConsentTemplateListDto {
   @ApiProperty({ type: [ConsentTemplateDto] }) items: ConsentTemplateDto[];
-}
-
-export class ConsentFieldsDto {
-  @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(200) institutionName?: string;
-  @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(200) investigatorName?: string;
-  @ApiPropertyOptional() @IsOptional() @IsEmail() contactEmail?: string;
-  @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(60) contactPhone?: string;
-  @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(200) ethicsBoardName?: string;
-  @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(300) ethicsBoardContact?: string;
-  @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(1000) studyPurpose?: string;
-  @ApiPropertyOptional() @IsOptional() @IsString() @MaxLength(200) paymentMethod?: string;
-  @ApiPropertyOptional() @IsOptional() @IsInt() @Min(1) paymentDays?: number;
-  @ApiPropertyOptional() @IsOptional() @IsInt() @Min(1) dataRetentionYears?: number;
-  @ApiPropertyOptional({ description: '(b)(9): whether de-identified data may be used in future research' })
-  @IsOptional()
-  @IsBoolean()
-  futureUseDeidentified?: boolean;
-}
-
-export class CreateConsentVersionDto {
-  @ApiProperty({ example: 'consent/minimal-risk-paid-study' })
-  @IsString()
-  templateId: string;
-
-  @ApiPropertyOptional({ type: ConsentFieldsDto, description: 'Values for the template; study fields fill the rest' })
-  @IsOptional()
-  @IsObject()
-  @ValidateNested()
-  @Type(() => ConsentFieldsDto)
-  values?: ConsentFieldsDto;
-}
-
-export class RefillConsentDraftDto {
-  @ApiProperty({
-    type: ConsentFieldsDto,
-    description: 'The values to fill in, replacing the stored ones; the study’s current fields and steps fill the rest',
-  })
-  @IsObject()
-  @ValidateNested()
-  @Type(() => ConsentFieldsDto)
-  values: ConsentFieldsDto;
 }
 
 export class UpdateConsentVersionDto {
@@ -115,10 +63,10 @@ export class ConsentVersionDto {
   @ApiProperty() version: number;
   @ApiProperty() templateId: string;
   @ApiProperty({
-    type: ConsentFieldsDto,
+    allOf: [schemaRef('ConsentTemplateValues')],
     description: 'The values the text was last filled in with (not the study’s own fields)',
   })
-  templateValues: ConsentFieldsDto;
+  templateValues: ConsentTemplateValues;
   @ApiProperty({ enum: ['draft', 'active', 'retired'] }) status: 'draft' | 'active' | 'retired';
   @ApiProperty() body: string;
   @ApiProperty({ description: 'Sanitised HTML preview' }) previewHtml: string;

@@ -1,4 +1,5 @@
 import { useMutation } from '@tanstack/react-query';
+import type { DryRunResult } from '@evenhand/contract';
 import { apiClient, unwrap } from '@/lib/api-client';
 import type { SchemeMethod, SchemeSettings } from '../utils/scheme-settings';
 
@@ -16,55 +17,17 @@ export interface DryRunRequest {
   settings?: SchemeSettings;
 }
 
-// The api documents these fields only as objects in its OpenAPI document; the shapes are those of
-// DryRunResult in api/src/randomization/dry-run.ts.
-export interface DryRunArm {
-  armId: string;
-  label: string;
-  count: number;
-  share: number;
-  targetShare: number;
-}
-
-export interface DryRunStratum {
-  stratumKey: string;
-  total: number;
-  counts: Record<string, number>;
-  imbalance: number;
-}
-
-export interface DryRunFactorLevel {
-  factorId: string;
-  level: string;
-  total: number;
-  counts: Record<string, number>;
-  imbalance: number;
-}
-
-export interface DryRunImbalancePoint {
-  arrivals: number;
-  overall: number;
-  largestInStratum: number;
-  largestInFactorLevel: number;
-}
-
-export interface DryRunResult {
-  arrivals: number;
-  arms: DryRunArm[];
-  strata: DryRunStratum[];
-  factorLevels: DryRunFactorLevel[];
-  imbalanceOverTime: DryRunImbalancePoint[];
-  largestImbalance: { overall: number; inStratum: number; inFactorLevel: number };
-  finalImbalance: { overall: number; inStratum: number; inFactorLevel: number };
-  matchedPairs: { pairs: number; leftoverParticipantId: string | null } | null;
-  seed: string;
-}
+export type { DryRunResult };
+export type DryRunArm = DryRunResult['arms'][number];
+export type DryRunStratum = DryRunResult['strata'][number];
+export type DryRunFactorLevel = DryRunResult['factorLevels'][number];
+export type DryRunImbalancePoint = DryRunResult['imbalanceOverTime'][number];
 
 export async function runDryRun(studyId: string, request: DryRunRequest): Promise<DryRunResult> {
   const result = await unwrap(
     apiClient.POST('/api/studies/{studyId}/assignment/dry-run', { params: { path: { studyId } }, body: request }),
   );
-  return result as unknown as DryRunResult;
+  return result;
 }
 
 /** A simulation changes nothing stored, so nothing is invalidated. */

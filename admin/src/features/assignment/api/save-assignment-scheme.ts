@@ -1,3 +1,4 @@
+import type { AssignmentSchemeRequest } from '@evenhand/contract';
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { apiClient, unwrap } from '@/lib/api-client';
 import { studyKeys } from '@/lib/study-keys';
@@ -51,7 +52,8 @@ export async function saveAssignmentScheme(
   return unwrap(
     apiClient.PUT('/api/studies/{studyId}/assignment-scheme', {
       params: { path: { studyId } },
-      body: { method, ...settings },
+      // The form's settings hold only the chosen method's fields (toSchemeSettings), as the contract's union requires.
+      body: { method, ...settings } as AssignmentSchemeRequest,
     }),
   );
 }

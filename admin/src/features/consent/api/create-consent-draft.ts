@@ -1,10 +1,10 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { apiClient, unwrap } from '@/lib/api-client';
-import type { components } from '@evenhand/contract';
+import type { ConsentTemplateValues as ContractConsentTemplateValues } from '@evenhand/contract';
 import { consentVersionsKey, type ConsentVersion } from './get-consent-versions';
 
-export type ConsentTemplateValues = components['schemas']['ConsentFieldsDto'];
+export type ConsentTemplateValues = ContractConsentTemplateValues;
 
 const optionalText = (max: number, label: string) =>
   z.string().trim().max(max, `Keep ${label} under ${max} characters.`);
