@@ -15,6 +15,7 @@ const journey = 'follow-up';
 interface RosterEntry {
   id: string;
   reference: string;
+  name: string | null;
   status: string;
 }
 
@@ -84,7 +85,8 @@ describe('lost to follow-up, and back', () => {
     await page.getByRole('heading', { name: person.reference }).waitFor();
     await page.getByRole('button', { name: 'Undo lost to follow-up' }).click();
     const undo = page.getByRole('alertdialog');
-    await undo.getByText(`Put ${person.reference} back to taking part?`).waitFor();
+    // The dialog names the person by the name they signed with, or by reference when there is none.
+    await undo.getByText(`Put ${person.name ?? person.reference} back to taking part?`).waitFor();
     await undo.getByRole('button', { name: 'Put back to taking part' }).click();
     await undo.getByText(/Say in a few words why they are taking part again/).waitFor();
     await undo.getByLabel('Reason').fill('She answered the fourth reminder and wants to go on.');

@@ -76,8 +76,11 @@ describe('a new staff member changes the temporary password, then resets a forgo
     await member.getByRole('button', { name: 'Sign out' }).click();
     await member.getByRole('heading', { name: 'Sign in' }).waitFor();
     await member.getByRole('link', { name: 'Forgot your password?' }).click();
-    await member.getByLabel('E-mail').fill(email);
-    await member.getByRole('button', { name: 'Send me a link' }).click();
+    // Fill the request form itself: the sign-in page has an E-mail field too, and it can still be on screen while the
+    // request page loads.
+    const requestForm = member.getByRole('form', { name: 'Ask for a password link' });
+    await requestForm.getByLabel('E-mail').fill(email);
+    await requestForm.getByRole('button', { name: 'Send me a link' }).click();
     await member.getByText(/a link to choose a new password is on its way/).waitFor();
     await screenshotAtBothWidths(member, journey, 'link-requested');
 
