@@ -8,8 +8,11 @@
 import 'reflect-metadata';
 import type { INestApplication } from '@nestjs/common';
 import { JwtService } from '@nestjs/jwt';
+import { ChildProcess, spawn } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
 import { Agent, request } from 'node:http';
+import { join } from 'node:path';
+import { createInterface } from 'node:readline';
 import { DataSource } from 'typeorm';
 import type { PostgresDriver } from 'typeorm/driver/postgres/PostgresDriver';
 import { newOpaqueToken } from '../auth/session-tokens';
@@ -30,6 +33,8 @@ import { abortOnInterrupt, runConcurrently, runBenchmark } from './concurrent-ru
 const CONNECTIONS = 32;
 /** Issue 17: signing at 32 concurrent clients reaches at least half the bare INSERT's rate, both over HTTP. */
 const SIGNING_TARGET = 0.5;
+/** Issue 17: with a second api process on the same database (clients spread across both) the signing rate rises. */
+const SECOND_PROCESS_TARGET = 1;
 interface SigningStudy {
   studyId: string;
   version: { versionId: string; fingerprint: string };
@@ -104,8 +109,11 @@ class SigningBench {
     );
   }
 
-  /** A fresh recruiting study per round (set up outside the timing), then n people signing at once over HTTP. */
-  async signings(n: number) {
+  /**
+   * A fresh recruiting study per round (set up outside the timing), then n people signing at once over HTTP, spread
+   * round-robin over `urls` (one api process, or several on the same database).
+   */
+  async signings(n: number, urls: readonly string[] = this.baseUrls) {
     const study = await this.recruitingStudy(n);
     const sample = await runConcurrently(
       n,
@@ -113,7 +121,7 @@ class SigningBench {
       (i) => {
         const participant = study.participants[i];
         return this.post(
-          `${this.baseUrls[i % this.baseUrls.length]}/studies/${study.studyId}/enrollments/me/signature`,
+          `${urls[i % urls.length]}/studies/${study.studyId}/enrollments/me/signature`,
           { ...study.version, typedName: `Bench Participant ${i + 1}` },
           201,
           `${ACCESS_COOKIE}=${participant.accessToken}`,
@@ -147,6 +155,16 @@ class SigningBench {
     );
     if (audit.signed !== n || audit.allocated !== n)
       throw new Error(`expected ${n} signing and ${n} allocation audit events, found ${JSON.stringify(audit)}`);
+    // No collisions: each taken slot has its own taker, and each stratum's taken positions run 1…k without a gap.
+    const [slots] = await this.dataSource.query(
+      `SELECT count(*)::int AS taken, count(DISTINCT taken_by)::int AS takers,
+              count(*) FILTER (WHERE position > per_stratum)::int AS beyond
+       FROM (SELECT taken_by, position, count(*) OVER (PARTITION BY stratum_key) AS per_stratum
+             FROM allocation_slot WHERE study_id = $1 AND taken_by IS NOT NULL) taken`,
+      [study.studyId],
+    );
+    if (slots.taken !== n || slots.takers !== n || slots.beyond !== 0)
+      throw new Error(`expected ${n} slots taken once each without gaps, found ${JSON.stringify(slots)}`);
   }
 
   /** As the admin screens do it: conditions, a pretest factor, one step, stratified blocks, open, consent active. */
@@ -238,6 +256,42 @@ class SigningBench {
   }
 }
 
+/**
+ * A second api process (serve-bench-app.js) on the same database, as a second replica would run: its own pool,
+ * chainer and HTTP server. Resolves once it listens; `stop` ends it (SIGTERM, then SIGKILL after 10 s).
+ */
+async function startSecondProcess(databaseUrl: string): Promise<{ baseUrl: string; stop: () => Promise<void> }> {
+  const child: ChildProcess = spawn(process.execPath, [join(__dirname, 'serve-bench-app.js')], {
+    env: { ...process.env, DATABASE_URL: databaseUrl, BENCH_POOL: String(CONNECTIONS) },
+    stdio: ['ignore', 'pipe', 'inherit'],
+  });
+  const exited = new Promise<void>((resolve) => child.once('exit', () => resolve()));
+  const stop = async () => {
+    if (child.exitCode !== null || child.signalCode !== null) return;
+    child.kill('SIGTERM');
+    const timer = setTimeout(() => child.kill('SIGKILL'), 10_000);
+    await exited;
+    clearTimeout(timer);
+  };
+  try {
+    const baseUrl = await new Promise<string>((resolve, reject) => {
+      child.once('exit', (code) => reject(new Error(`the second api process exited (${code}) before listening`)));
+      createInterface({ input: child.stdout! }).on('line', (line) => {
+        try {
+          const { baseUrl: url } = JSON.parse(line) as { baseUrl?: string };
+          if (url) resolve(url);
+        } catch {
+          // Not the ready line; the process may log other things.
+        }
+      });
+    });
+    return { baseUrl, stop };
+  } catch (error) {
+    await stop();
+    throw error;
+  }
+}
+
 async function main(): Promise<number> {
   const databaseUrl = process.env.DATABASE_URL;
   if (!databaseUrl) {
@@ -254,6 +308,7 @@ async function main(): Promise<number> {
   const database = await BenchOwnDatabase.create(databaseUrl);
   let app: INestApplication | null = null;
   let bench: SigningBench | null = null;
+  let second: { baseUrl: string; stop: () => Promise<void> } | null = null;
   try {
     log(`database ${database.name} created`);
     await database.migrate();
@@ -262,20 +317,29 @@ async function main(): Promise<number> {
     log(`api serving on ${served.baseUrl}`);
     const dataSource = app.get(DataSource);
 
+    second = await startSecondProcess(database.url);
+    log(`second api process serving on ${second.baseUrl}`);
+    const bothProcesses = [served.baseUrl, second.baseUrl];
+
     bench = new SigningBench(app, [served.baseUrl], interrupted);
     const warmUp = Math.min(100, signings);
     await bench.baseline(warmUp);
     await bench.signings(warmUp);
+    await bench.signings(warmUp, bothProcesses);
     log(`warm-up done (${warmUp} of each)`);
     const baseline: number[] = [];
     const signed: number[] = [];
+    const signedOnTwo: number[] = [];
     for (let round = 1; round <= rounds; round++) {
       const base = await bench.baseline(signings);
       baseline.push(base.perSecond);
       const sign = await bench.signings(signings);
       signed.push(sign.perSecond);
+      const onTwo = await bench.signings(signings, bothProcesses);
+      signedOnTwo.push(onTwo.perSecond);
       log(
-        `round ${round}/${rounds}: bare INSERT ${base.perSecond.toFixed(0)}/s, signing ${sign.perSecond.toFixed(0)}/s`,
+        `round ${round}/${rounds}: bare INSERT ${base.perSecond.toFixed(0)}/s, signing ${sign.perSecond.toFixed(0)}/s, ` +
+          `signing on two processes ${onTwo.perSecond.toFixed(0)}/s`,
       );
     }
     const pool = (dataSource.driver as PostgresDriver).master as { totalCount: number; options: { max: number } };
@@ -284,6 +348,7 @@ async function main(): Promise<number> {
     const rows = [
       reportRow('POST /bench/bare-insert (BEGIN, INSERT, COMMIT)', baseline),
       reportRow('POST …/enrollments/me/signature (stratified blocks, 2 strata)', signed, baseline),
+      reportRow('the same signing, clients spread over two api processes', signedOnTwo, baseline),
     ];
     console.log('');
     console.log(
@@ -300,6 +365,12 @@ async function main(): Promise<number> {
         ratio: rows[1].ratio!,
         bound: 'at-least',
         value: SIGNING_TARGET,
+      }),
+      judge({
+        label: 'signing on two api processes ÷ on one (0 collisions checked each round)',
+        ratio: median(signedOnTwo) / median(signed),
+        bound: 'at-least',
+        value: SECOND_PROCESS_TARGET,
       }),
     ];
     console.log(`\n${formatVerdicts(verdicts)}\n`);
@@ -319,6 +390,11 @@ async function main(): Promise<number> {
           rounds: rates(signed),
         },
         target: { atLeast: SIGNING_TARGET, met: verdicts[0].met },
+        twoProcesses: {
+          signingsPerSecond: { median: Math.round(median(signedOnTwo)), rounds: rates(signedOnTwo) },
+          overOneProcess: Number(verdicts[1].ratio.toFixed(4)),
+          target: { atLeast: SECOND_PROCESS_TARGET, met: verdicts[1].met },
+        },
         seconds: Math.round((Date.now() - started) / 100) / 10,
       }),
     );
@@ -326,6 +402,7 @@ async function main(): Promise<number> {
   } finally {
     try {
       bench?.close();
+      await second?.stop();
       await app?.close();
     } finally {
       await database.dropAndDisconnect();
