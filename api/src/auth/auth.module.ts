@@ -1,3 +1,4 @@
+import { createSecretKey } from 'node:crypto';
 import { Module } from '@nestjs/common';
 import { APP_GUARD } from '@nestjs/core';
 import { JwtModule } from '@nestjs/jwt';
@@ -17,7 +18,13 @@ import { TwoFactorService } from './two-factor.service';
     JwtModule.registerAsync({
       global: true,
       inject: [AppConfig],
-      useFactory: (config: AppConfig) => ({ secret: config.jwtSecret, signOptions: { algorithm: 'HS256' } }),
+      useFactory: (config: AppConfig) => ({
+        // One key object for every token: handed a string, jsonwebtoken first tries to read it as a PEM public or
+        // private key on every call and only then falls back to a secret key, a cost measured on each request.
+        secret: createSecretKey(Buffer.from(config.jwtSecret, 'utf8')),
+        signOptions: { algorithm: 'HS256' },
+        verifyOptions: { algorithms: ['HS256'] },
+      }),
     }),
     UsersModule,
     AuditModule,
