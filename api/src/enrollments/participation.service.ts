@@ -7,13 +7,20 @@ import { DomainException } from '../common/errors/domain.exception';
 import { ConsentService } from '../consent';
 import { PayoutsService } from '../payouts';
 import { StepsService } from '../steps';
-import { StudiesService } from '../studies';
+import { StudiesService, StudyEntity } from '../studies';
 import { MyEnrollmentDto, ScreeningResultDto } from './dto/enrollment.dto';
 import { EnrollmentException } from './enrollment.exception';
 import { CLOSED_STATUSES, insertEnrollment, requireMine } from './enrollment-lookup';
 import { EnrollmentEntity } from './entities/enrollment.entity';
 import { evaluateScreening, screeningProblemMessage } from './screening-rules';
 import { StepViewsService } from './step-views.service';
+
+/** What a caller already read in this request, so the participant's view does not read it again. */
+export interface KnownForView {
+  study?: StudyEntity;
+  activeVersionId?: string | null;
+  lastSignedAt?: Date | null;
+}
 
 /** The participant's own enrollment: joining, screening, what they see next, and their signed copy. */
 @Injectable()
@@ -57,13 +64,17 @@ export class ParticipationService {
   }
 
   /** Everything the participant's study page shows about their enrollment. */
-  async myView(enrollment: EnrollmentEntity): Promise<MyEnrollmentDto> {
-    const study = await this.studies.require(enrollment.studyId);
-    const [questions, stepList, active, signatures, conditions, earned] = await Promise.all([
+  async myView(enrollment: EnrollmentEntity, known: KnownForView = {}): Promise<MyEnrollmentDto> {
+    const [study, questions, stepList, activeVersionId, lastSignedAt, conditions, earned] = await Promise.all([
+      known.study ?? this.studies.require(enrollment.studyId),
       this.studies.screeningQuestions(enrollment.studyId),
       this.steps.list(enrollment.studyId),
-      this.consent.activeVersion(enrollment.studyId),
-      this.consent.signaturesOf(enrollment.id),
+      known.activeVersionId !== undefined
+        ? known.activeVersionId
+        : this.consent.activeVersion(enrollment.studyId).then((active) => active?.id ?? null),
+      known.lastSignedAt !== undefined
+        ? known.lastSignedAt
+        : this.consent.signaturesOf(enrollment.id).then((signatures) => signatures.at(-1)?.signedAt ?? null),
       this.studies.listConditionsForParticipant(enrollment.studyId),
       this.payouts.earnedFor(enrollment.id),
     ]);
@@ -80,8 +91,9 @@ export class ParticipationService {
           }
         : null;
     const needsSignature =
-      Boolean(active) && enrollment.signedVersionId !== active?.id && !CLOSED_STATUSES.includes(enrollment.status);
-    const lastSignature = signatures[signatures.length - 1];
+      activeVersionId !== null &&
+      enrollment.signedVersionId !== activeVersionId &&
+      !CLOSED_STATUSES.includes(enrollment.status);
     return {
       id: enrollment.id,
       reference: enrollment.reference,
@@ -93,10 +105,10 @@ export class ParticipationService {
       next: this.nextFor(enrollment, needsSignature),
       screening: { questions, answers: enrollment.screeningAnswers, exclusionReason: enrollment.exclusionReason },
       consent: {
-        activeVersionId: active?.id ?? null,
+        activeVersionId,
         signedVersionId: enrollment.signedVersionId,
         needsSignature,
-        signedAt: lastSignature?.signedAt.toISOString() ?? null,
+        signedAt: lastSignedAt?.toISOString() ?? null,
       },
       assignment,
       steps: await this.stepViews.participantSteps(enrollment, stepList, needsSignature),

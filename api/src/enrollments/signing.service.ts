@@ -54,7 +54,7 @@ export class SigningService {
     input: SignConsentDto,
     client: ClientInfo,
   ): Promise<{ created: boolean; result: SignatureResultDto }> {
-    const { signature, created } = await this.dataSource.transaction(async (manager) => {
+    const outcome = await this.dataSource.transaction(async (manager) => {
       const enrollment = await requireMine(manager, user, studyId, true);
       const terms = await this.consent.signingTerms(manager, studyId, enrollment.id);
       if (!terms) throw new EnrollmentException('NO_CONSENT_TO_SIGN', 'There is no active consent form to sign.');
@@ -69,7 +69,7 @@ export class SigningService {
           },
         );
       }
-      if (terms.existing) return { signature: terms.existing, created: false };
+      if (terms.existing) return { signature: terms.existing, created: false as const };
       const firstConsent = ['screened', 'consented'].includes(enrollment.status);
       const reconsent = ['assigned', 'active'].includes(enrollment.status);
       if (!firstConsent && !reconsent) {
@@ -80,8 +80,8 @@ export class SigningService {
             : 'Your participation is closed, so there is nothing to sign.',
         );
       }
-      if (firstConsent) {
-        const study = await this.studies.require(studyId, manager);
+      const study = firstConsent ? await this.studies.require(studyId, manager) : undefined;
+      if (study) {
         if (study.status !== 'recruiting')
           throw new DomainException('STUDY_NOT_RECRUITING', 'This study is not taking new participants right now.');
       }
@@ -137,9 +137,18 @@ export class SigningService {
         },
       });
       await this.jobs.enqueue(manager, JOB_NAMES.signedCopy, { signatureId: signature.id });
-      return { signature, created: true };
+      return { signature, created: true as const, signed: Object.assign(enrollment, changes), study, active };
     });
-    const enrollment = await this.participation.me(user, studyId);
+    const { signature, created } = outcome;
+    // The participant's view, built on what signing already holds (the enrollment as written, the study, the version
+    // just signed and when) instead of reading them again; a repeated request reads it afresh.
+    const enrollment = outcome.created
+      ? await this.participation.myView(outcome.signed, {
+          study: outcome.study,
+          activeVersionId: outcome.active.id,
+          lastSignedAt: signature.signedAt,
+        })
+      : await this.participation.me(user, studyId);
     return {
       created,
       result: {
