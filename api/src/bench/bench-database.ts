@@ -28,6 +28,28 @@ export const DATABASE_URL_HELP = [
   '    runs the benchmark in a database of its own and removes it afterwards.',
 ].join('\n');
 
+/** A checked DATABASE_URL and one plain connection to it for set-up and clean-up, with messages a person can act on. */
+export async function connectAdmin(databaseUrl: string): Promise<Client> {
+  let parsed: URL;
+  try {
+    parsed = new URL(databaseUrl);
+  } catch {
+    throw new BenchSetupError('DATABASE_URL is not a valid URL (expected postgres://user@host:port/database)');
+  }
+  if (!['postgres:', 'postgresql:'].includes(parsed.protocol)) {
+    throw new BenchSetupError(`DATABASE_URL must start with postgres:// (got ${parsed.protocol}//)`);
+  }
+  const admin = new Client({ connectionString: databaseUrl, application_name: 'evenhand-bench-admin' });
+  try {
+    await admin.connect();
+  } catch (error) {
+    throw new BenchSetupError(
+      `Cannot connect to DATABASE_URL (${parsed.host}${parsed.pathname}): ${(error as Error).message}`,
+    );
+  }
+  return admin;
+}
+
 /**
  * A schema of its own inside the given database, so the benchmark neither needs nor touches anything else
  * there. Every connection the app opens reaches it through `search_path` in the connection URL (pg passes
@@ -46,23 +68,7 @@ export class BenchDatabase {
   }
 
   static async connect(databaseUrl: string): Promise<BenchDatabase> {
-    let parsed: URL;
-    try {
-      parsed = new URL(databaseUrl);
-    } catch {
-      throw new BenchSetupError('DATABASE_URL is not a valid URL (expected postgres://user@host:port/database)');
-    }
-    if (!['postgres:', 'postgresql:'].includes(parsed.protocol)) {
-      throw new BenchSetupError(`DATABASE_URL must start with postgres:// (got ${parsed.protocol}//)`);
-    }
-    const admin = new Client({ connectionString: databaseUrl, application_name: 'evenhand-bench-admin' });
-    try {
-      await admin.connect();
-    } catch (error) {
-      throw new BenchSetupError(
-        `Cannot connect to DATABASE_URL (${parsed.host}${parsed.pathname}): ${(error as Error).message}`,
-      );
-    }
+    const admin = await connectAdmin(databaseUrl);
     return new BenchDatabase(admin, databaseUrl);
   }
 

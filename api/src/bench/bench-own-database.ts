@@ -1,5 +1,5 @@
-import { Client } from 'pg';
-import { applyMigrations, BenchSetupError } from './bench-database';
+import type { Client } from 'pg';
+import { applyMigrations, BenchSetupError, connectAdmin } from './bench-database';
 
 /**
  * A throwaway database on the server DATABASE_URL names, rather than a schema inside that database: signing
@@ -21,23 +21,7 @@ export class BenchOwnDatabase {
   }
 
   static async create(databaseUrl: string): Promise<BenchOwnDatabase> {
-    let parsed: URL;
-    try {
-      parsed = new URL(databaseUrl);
-    } catch {
-      throw new BenchSetupError('DATABASE_URL is not a valid URL (expected postgres://user@host:port/database)');
-    }
-    if (!['postgres:', 'postgresql:'].includes(parsed.protocol)) {
-      throw new BenchSetupError(`DATABASE_URL must start with postgres:// (got ${parsed.protocol}//)`);
-    }
-    const admin = new Client({ connectionString: databaseUrl, application_name: 'evenhand-bench-admin' });
-    try {
-      await admin.connect();
-    } catch (error) {
-      throw new BenchSetupError(
-        `Cannot connect to DATABASE_URL (${parsed.host}${parsed.pathname}): ${(error as Error).message}`,
-      );
-    }
+    const admin = await connectAdmin(databaseUrl);
     const database = new BenchOwnDatabase(admin, databaseUrl);
     try {
       await admin.query(`CREATE DATABASE "${database.name}"`);

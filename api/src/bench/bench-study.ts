@@ -12,6 +12,19 @@ import { StudiesService } from '../studies/studies.service';
 /** Pretest scores at or above this fall in the upper stratum: one numeric factor, so two strata. */
 export const PRETEST_CUT = 65;
 
+/** The design every benchmark study has, added as a researcher would: two conditions and the pretest factor. */
+export async function addBenchDesign(studies: StudiesService, researcher: SessionUser, studyId: string): Promise<void> {
+  for (const name of ['cue-a', 'cue-b']) {
+    await studies.createCondition(researcher, studyId, {
+      internalName: name,
+      participantLabel: `Route guide ${name.slice(-1).toUpperCase()}`,
+    });
+  }
+  await studies.replaceFactors(researcher, studyId, [
+    { key: 'pretest', label: 'Pretest score (0–100)', kind: 'numeric', cutPoints: [PRETEST_CUT] },
+  ]);
+}
+
 /** The schemes measured, with the researcher's settings for each. */
 export const BENCH_SCHEMES: Record<'stratified-blocks' | 'minimization', SchemeSettings> = {
   'stratified-blocks': { blockSizes: [2, 4] },
@@ -53,16 +66,13 @@ export class BenchStudies {
       slug: `bench-${method}-${this.created}`,
       title: `Benchmark study ${this.created} (${method})`,
       design: 'between',
+      // What the consent form states (protocol, lab, duration); without them activation refuses the form.
+      protocolNumber: `BENCH-${method}-${this.created}`,
+      labName: 'Quillmoor Benchmark Lab (invented)',
+      estimatedMinutes: 30,
+      targetSize: arrivals,
     });
-    for (const name of ['cue-a', 'cue-b']) {
-      await this.studies.createCondition(researcher, study.id, {
-        internalName: name,
-        participantLabel: `Route guide ${name.slice(-1).toUpperCase()}`,
-      });
-    }
-    await this.studies.replaceFactors(researcher, study.id, [
-      { key: 'pretest', label: 'Pretest score (0–100)', kind: 'numeric', cutPoints: [PRETEST_CUT] },
-    ]);
+    await addBenchDesign(this.studies, researcher, study.id);
     await this.saveScheme(researcher, study.id, method, BENCH_SCHEMES[method]);
     await this.app.get(StepsService).create(researcher, study.id, { title: 'Session 1', payMinor: 1000 });
     await activateBenchConsent(this.app, researcher, study.id, `QREB-ALLOC-${this.created}`);

@@ -27,7 +27,7 @@ import { DATABASE_URL_HELP, wholeNumberSetting } from './bench-database';
 import { BenchOwnDatabase } from './bench-own-database';
 import { formatTable, median, reportRow } from './bench-report';
 import { exitCodeFor, formatVerdicts, judge } from './bench-targets';
-import { BENCH_SCHEMES, PRETEST_CUT } from './bench-study';
+import { addBenchDesign, BENCH_SCHEMES } from './bench-study';
 import { abortOnInterrupt, runConcurrently, runBenchmark } from './concurrent-runner';
 
 const CONNECTIONS = 32;
@@ -180,15 +180,7 @@ class SigningBench {
       estimatedMinutes: 30,
       targetSize: n,
     });
-    for (const name of ['cue-a', 'cue-b']) {
-      await this.studies.createCondition(researcher, study.id, {
-        internalName: name,
-        participantLabel: `Route guide ${name.slice(-1).toUpperCase()}`,
-      });
-    }
-    await this.studies.replaceFactors(researcher, study.id, [
-      { key: 'pretest', label: 'Pretest score (0–100)', kind: 'numeric', cutPoints: [PRETEST_CUT] },
-    ]);
+    await addBenchDesign(this.studies, researcher, study.id);
     await this.steps.create(researcher, study.id, { title: 'Session 1', payMinor: 1000 });
     await this.dataSource.transaction(async (manager) => {
       const snapshot = await this.studies.designSnapshot(study.id, manager);
