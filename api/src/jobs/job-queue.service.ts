@@ -7,6 +7,12 @@ import { retryDelaySeconds } from './retry-delay';
 
 export type JobHandler<Payload> = (payload: Payload, jobId: string) => Promise<void>;
 
+/**
+ * Runs every job of one fetch together (so their reads and writes can be batched) and answers, in the same order,
+ * what became of each: `null` when it succeeded, or why it failed (that job alone is retried).
+ */
+export type JobBatchHandler<Payload> = (jobs: Array<{ payload: Payload; jobId: string }>) => Promise<unknown[]>;
+
 export interface JobHandlerOptions<Payload> {
   /**
    * Told once when a job of this kind has failed its last try, with the last failure, so the work it stands for
@@ -43,7 +49,6 @@ export type JobName = (typeof JOB_NAMES)[keyof typeof JOB_NAMES];
 export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
   private readonly logger = new Logger('Jobs');
   private readonly boss: PgBoss;
-  private readonly handlers = new Map<JobName, JobHandler<never>>();
   private started = false;
 
   constructor(private readonly config: AppConfig) {
@@ -73,7 +78,22 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
     handler: JobHandler<Payload>,
     options: JobHandlerOptions<Payload> = {},
   ): Promise<void> {
-    this.handlers.set(name, handler as JobHandler<never>);
+    await this.handleBatch<Payload>(
+      name,
+      async (jobs) =>
+        (await Promise.allSettled(jobs.map((job) => handler(job.payload, job.jobId)))).map((result) =>
+          result.status === 'rejected' ? result.reason : null,
+        ),
+      options,
+    );
+  }
+
+  /** Like `handle`, but the handler gets each fetch's jobs together (see JobBatchHandler). */
+  async handleBatch<Payload extends object>(
+    name: JobName,
+    handler: JobBatchHandler<Payload>,
+    options: JobHandlerOptions<Payload> = {},
+  ): Promise<void> {
     if (!this.config.runWorkers) return;
     // Up to 10 jobs per fetch run side by side; each failure is reported for its own job (retried with back-off),
     // and the worker then completes only the jobs still active, i.e. the ones that succeeded.
@@ -86,9 +106,15 @@ export class JobQueueService implements OnModuleInit, OnApplicationShutdown {
         // A full batch means more are waiting: fetch again at once instead of sleeping out the polling interval,
         // which would otherwise cap every kind of job at one batch per half second.
         if (jobs.length === JOB_BATCH_SIZE && worker.id) this.boss.notifyWorker(worker.id);
-        const results = await Promise.allSettled(jobs.map((job) => handler(job.data, job.id)));
-        for (const [i, result] of results.entries()) {
-          if (result.status === 'rejected') await this.failed(name, jobs[i], result.reason, options);
+        let failures: unknown[];
+        try {
+          failures = await handler(jobs.map((job) => ({ payload: job.data, jobId: job.id })));
+        } catch (error) {
+          failures = jobs.map(() => error);
+        }
+        for (const [i, job] of jobs.entries()) {
+          const failure = failures[i];
+          if (failure !== null && failure !== undefined) await this.failed(name, job, failure, options);
         }
       },
     );

@@ -12,6 +12,23 @@ import { PayoutsService } from './payouts.service';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
+/** An approved payout claimed for sending, with where its money goes. */
+interface ClaimedPayout {
+  id: string;
+  study_id: string;
+  amount_minor: string;
+  currency: string;
+  idempotency_key: string;
+  provider_account_id: string | null;
+  payouts_enabled: boolean | null;
+}
+
+/** A transfer the provider made for a payout, still to be recorded. */
+interface TransferMade {
+  payoutId: string;
+  transferId: string;
+}
+
 /** A send attempt that must not be retried as is: the provider refused it for a reason a person has to fix. */
 function isFinalRefusal(error: unknown): error is Stripe.errors.StripeError {
   if (!(error instanceof Stripe.errors.StripeError)) return false;
@@ -37,49 +54,73 @@ export class PayoutSendingService implements OnModuleInit {
   ) {}
 
   async onModuleInit(): Promise<void> {
-    await this.jobs.handle<{ payoutId: string }>(JOB_NAMES.sendPayout, ({ payoutId }) => this.send(payoutId), {
-      onGiveUp: ({ payoutId }, reason) => this.giveUp(payoutId, reason),
-    });
+    await this.jobs.handleBatch<{ payoutId: string }>(
+      JOB_NAMES.sendPayout,
+      (jobs) => this.sendMany(jobs.map((job) => job.payload.payoutId)),
+      { onGiveUp: ({ payoutId }, reason) => this.giveUp(payoutId, reason) },
+    );
   }
 
   private get provider(): Stripe {
     return this.payments.client;
   }
 
-  /**
-   * Sends one approved payout. The transfer's Idempotency-Key is the payout's own key, so however often this runs
-   * (a retry after a timeout, a crash between sending and recording) the provider makes one transfer.
-   */
+  /** Sends one approved payout (see sendMany); throws when it has to be tried again. */
   async send(payoutId: string): Promise<void> {
-    // Claims the payout and reads where it goes in one statement: the row lock lasts only that statement, and a
-    // payout that is no longer approved (paid meanwhile, cancelled) is left alone.
-    const [payout] = await queryRows<{
-      id: string;
-      study_id: string;
-      amount_minor: string;
-      currency: string;
-      idempotency_key: string;
-      provider_account_id: string | null;
-      payouts_enabled: boolean | null;
-    }>(
+    const [failure] = await this.sendMany([payoutId]);
+    if (failure !== null) throw failure;
+  }
+
+  /**
+   * Sends a batch of approved payouts: one statement claims them all, the provider calls go side by side, and one
+   * transaction records every transfer made. Each transfer's Idempotency-Key is its payout's own key, so however
+   * often this runs (a retry after a timeout, a crash between sending and recording) the provider makes one transfer
+   * per payout. Answers per payout, in order: null, or why it has to be tried again.
+   */
+  async sendMany(payoutIds: string[]): Promise<unknown[]> {
+    const unique = [...new Set(payoutIds)];
+    // The claim takes each row lock only for this statement; a payout no longer approved (paid meanwhile,
+    // cancelled) is not returned and is left alone.
+    const claimed = await queryRows<ClaimedPayout>(
       this.dataSource.manager,
       `WITH claimed AS (
          UPDATE payout SET status = 'sending', attempts = attempts + 1, sent_at = coalesce(sent_at, now()), updated_at = now()
-         WHERE id = $1 AND status IN ('approved', 'sending')
+         WHERE id = ANY($1::uuid[]) AND status IN ('approved', 'sending')
          RETURNING id, study_id, participant_id, amount_minor, currency, idempotency_key
        )
        SELECT claimed.*, a.provider_account_id, a.payouts_enabled FROM claimed LEFT JOIN payout_account a ON a.user_id = claimed.participant_id`,
-      [payoutId],
+      [unique],
     );
-    if (!payout) return;
+    const byId = new Map(claimed.map((payout) => [payout.id, payout]));
+    const attempts = await Promise.all(unique.map((id) => this.transferFor(byId.get(id))));
+    const made = attempts.filter((attempt): attempt is TransferMade => 'transferId' in attempt);
+    let recordingFailure: unknown = null;
+    if (made.length > 0) {
+      try {
+        await this.dataSource.transaction((manager) => this.markPaidMany(manager, made));
+      } catch (error) {
+        recordingFailure = error; // the transfers exist; the retries record them under the same keys
+      }
+    }
+    const failureOf = new Map(
+      unique.map((id, i) => {
+        const attempt = attempts[i];
+        return [id, 'transferId' in attempt ? recordingFailure : attempt.failure];
+      }),
+    );
+    return payoutIds.map((id) => failureOf.get(id) ?? null);
+  }
+
+  /** One claimed payout's transfer at the provider, or why there is none (final refusals end the payout failed). */
+  private async transferFor(payout: ClaimedPayout | undefined): Promise<TransferMade | { failure: unknown }> {
+    if (!payout) return { failure: null };
     const claimed = { id: payout.id, studyId: payout.study_id };
     if (!payout.payouts_enabled || !payout.provider_account_id) {
       await this.markFailed(claimed, 'The participant has not finished setting up how they get paid.');
-      return;
+      return { failure: null };
     }
-    let transfer: Stripe.Transfer;
     try {
-      transfer = await this.provider.transfers.create(
+      const transfer = await this.provider.transfers.create(
         {
           amount: Number(payout.amount_minor),
           currency: payout.currency.trim().toLowerCase(),
@@ -89,15 +130,15 @@ export class PayoutSendingService implements OnModuleInit {
         },
         { idempotencyKey: payout.idempotency_key },
       );
+      this.afterTransferCreated?.(payout.id);
+      return { payoutId: payout.id, transferId: transfer.id };
     } catch (error) {
       if (isFinalRefusal(error)) {
         await this.markFailed(claimed, error.message);
-        return;
+        return { failure: null };
       }
-      throw error; // a timeout, a 5xx or a rate limit: the job retries with the same key
+      return { failure: error }; // a timeout, a 5xx, a rate limit or a crash before recording: retried, same key
     }
-    this.afterTransferCreated?.(payout.id);
-    await this.markPaid(payout.id, transfer.id);
   }
 
   /**
@@ -162,39 +203,58 @@ export class PayoutSendingService implements OnModuleInit {
    * A failed payout is marked paid too: a transfer that exists is the truth, whatever we had concluded without it.
    */
   private async markPaid(payoutId: string, transferId: string, manager?: EntityManager): Promise<void> {
-    const run = async (m: EntityManager) => {
-      const [payout] = await queryRows<{ study_id: string; amount_minor: string }>(
-        m,
-        `UPDATE payout SET status = 'paid', provider_transfer_id = $2, paid_at = now(), failure_reason = NULL, updated_at = now()
-         WHERE id = $1 AND status IN ('approved', 'sending', 'failed') RETURNING study_id, amount_minor`,
-        [payoutId, transferId],
-      );
-      if (!payout) return;
-      // Numbered only once paid, under the counter row's lock, so a study's receipts count 1, 2, 3… without gaps.
+    const run = (m: EntityManager) => this.markPaidMany(m, [{ payoutId, transferId }]);
+    if (manager) await run(manager);
+    else await this.dataSource.transaction(run);
+  }
+
+  /** markPaid for many transfers in one transaction: one update, one receipt number range per study, one audit write. */
+  private async markPaidMany(manager: EntityManager, transfers: TransferMade[]): Promise<void> {
+    const paid = await queryRows<{ id: string; study_id: string; amount_minor: string; provider_transfer_id: string }>(
+      manager,
+      `UPDATE payout p SET status = 'paid', provider_transfer_id = t.transfer_id, paid_at = now(), failure_reason = NULL, updated_at = now()
+       FROM unnest($1::uuid[], $2::text[]) AS t(id, transfer_id)
+       WHERE p.id = t.id AND p.status IN ('approved', 'sending', 'failed')
+       RETURNING p.id, p.study_id, p.amount_minor, p.provider_transfer_id`,
+      [transfers.map((t) => t.payoutId), transfers.map((t) => t.transferId)],
+    );
+    if (paid.length === 0) return;
+    // Numbered only once paid, under each study's counter row lock (taken in study order, so two batches never wait
+    // on each other crosswise), so a study's receipts count 1, 2, 3… without gaps.
+    const numbers = new Map<string, string>();
+    const studies = [...new Set(paid.map((p) => p.study_id))].sort();
+    for (const studyId of studies) {
+      const ofStudy = paid.filter((p) => p.study_id === studyId);
       const [counter] = await queryRows<{ last_number: number; slug: string }>(
-        m,
+        manager,
         `WITH next AS (
-           INSERT INTO payout_receipt_counter (study_id, last_number) VALUES ($1, 1)
-           ON CONFLICT (study_id) DO UPDATE SET last_number = payout_receipt_counter.last_number + 1 RETURNING last_number
+           INSERT INTO payout_receipt_counter (study_id, last_number) VALUES ($1, $2)
+           ON CONFLICT (study_id) DO UPDATE SET last_number = payout_receipt_counter.last_number + $2 RETURNING last_number
          ) SELECT next.last_number, s.slug FROM next, study s WHERE s.id = $1`,
-        [payout.study_id],
+        [studyId, ofStudy.length],
       );
-      await m.query(`UPDATE payout SET receipt_number = $2 WHERE id = $1`, [
-        payoutId,
-        receiptNumber(counter.slug, counter.last_number),
-      ]);
-      await this.jobs.enqueue(m, JOB_NAMES.payoutReceipt, { payoutId });
-      await this.audit.record(m, {
-        chain: payout.study_id,
+      const first = counter.last_number - ofStudy.length + 1;
+      ofStudy.forEach((p, i) => numbers.set(p.id, receiptNumber(counter.slug, first + i)));
+    }
+    await manager.query(
+      `UPDATE payout p SET receipt_number = n.receipt_number FROM unnest($1::uuid[], $2::text[]) AS n(id, receipt_number) WHERE p.id = n.id`,
+      [[...numbers.keys()], [...numbers.values()]],
+    );
+    await this.jobs.enqueueMany(
+      manager,
+      JOB_NAMES.payoutReceipt,
+      paid.map((p) => ({ payoutId: p.id })),
+    );
+    for (const p of paid) {
+      await this.audit.record(manager, {
+        chain: p.study_id,
         actor: null,
         action: 'payout.delivered',
         subjectType: 'payout',
-        subjectId: payoutId,
-        data: { transferId, amountMinor: Number(payout.amount_minor) },
+        subjectId: p.id,
+        data: { transferId: p.provider_transfer_id, amountMinor: Number(p.amount_minor) },
       });
-    };
-    if (manager) await run(manager);
-    else await this.dataSource.transaction(run);
+    }
   }
 
   /** A reversed transfer: the payout is marked reversed and the money is owed again as a new payout. */
