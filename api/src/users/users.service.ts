@@ -1,7 +1,7 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import * as bcrypt from 'bcryptjs';
-import { DataSource, EntityManager } from 'typeorm';
+import { DataSource, EntityManager, In } from 'typeorm';
 import { queryRows } from '../database/raw-query';
 import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
@@ -42,6 +42,11 @@ export class UsersService {
 
   findActiveById(id: string): Promise<UserEntity | null> {
     return this.users.findOne({ where: { id, active: true } });
+  }
+
+  /** The active accounts among these ids (any order; inactive or unknown ids are left out). */
+  findActiveByIds(ids: string[]): Promise<UserEntity[]> {
+    return ids.length ? this.users.find({ where: { id: In(ids), active: true } }) : Promise.resolve([]);
   }
 
   findByEmail(email: string, manager: EntityManager = this.dataSource.manager): Promise<UserEntity | null> {
