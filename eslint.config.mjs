@@ -53,6 +53,21 @@ export default tseslint.config(
     rules: { '@typescript-eslint/no-extraneous-class': 'off' },
   },
   {
+    // Each domain refuses with its own code (see api/contract/src/problem.ts); the generic 409 'CONFLICT' is only
+    // the problem filter's fallback for a bare Nest HttpException.
+    files: ['api/src/**/*.ts'],
+    ignores: ['api/src/common/errors/problem.filter.ts', '**/*.spec.ts'],
+    rules: {
+      'no-restricted-syntax': [
+        'error',
+        {
+          selector: "Literal[value='CONFLICT']",
+          message: "Throw the domain's own exception with a code that says what happened, not the generic 'CONFLICT'.",
+        },
+      ],
+    },
+  },
+  {
     files: ['**/*.cjs'],
     languageOptions: { sourceType: 'commonjs', globals: { ...globals.node } },
   },

@@ -15,6 +15,8 @@ export default defineConfig({
   plugins: [react(), tailwindcss()],
   resolve: {
     alias: { '@': fileURLToPath(new URL('./src', import.meta.url)) },
+    // The contract's schemas import zod; one copy of it in the bundle, shared with the app's own forms.
+    dedupe: ['zod'],
   },
   server: { host: '127.0.0.1', port, strictPort: true, proxy: apiProxy },
   preview: { host: '127.0.0.1', port, strictPort: true, proxy: apiProxy },

@@ -270,17 +270,17 @@ describe('sealed sequence', () => {
     await expectStatus(
       researcher.put(`/api/studies/${studyId}/assignment-scheme`).send({ method: 'simple' }),
       409,
-      'CONFLICT',
+      'STUDY_DETAIL_FIXED',
     );
     await expectStatus(
       researcher.post(`/api/studies/${studyId}/conditions`).send({ internalName: 'late', participantLabel: 'Late' }),
       409,
-      'CONFLICT',
+      'STUDY_DETAIL_FIXED',
     );
     await expectStatus(
       researcher.put(`/api/studies/${studyId}/stratification-factors`).send({ factors: [] }),
       409,
-      'CONFLICT',
+      'STUDY_DETAIL_FIXED',
     );
     const study = await expectStatus(researcher.get(`/api/studies/${studyId}`), 200);
     expect(study.designLocked).toBe(true);
@@ -332,7 +332,7 @@ describe('sealed sequence', () => {
     });
     await prepareToOpen(researcher, studyId);
     await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 200);
-    await expectStatus(researcher.get(`/api/studies/${studyId}/assignment/verify`), 409, 'CONFLICT');
+    await expectStatus(researcher.get(`/api/studies/${studyId}/assignment/verify`), 409, 'SEED_STILL_SEALED');
     const scores = Array.from({ length: 40 }, (_, i) => (i * 53) % 100);
     const enrollments = await insertEnrollments(
       testApp,
@@ -382,7 +382,7 @@ describe('sealed sequence', () => {
       await allocateInOwnTransaction(studyId, id, { pretest: [5, 95, 65][i] });
     await expectStatus(researcher.post(`/api/studies/${studyId}/pause`), 200);
     await expectStatus(researcher.post(`/api/studies/${studyId}/close`), 200);
-    await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 409, 'CONFLICT');
+    await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 409, 'STUDY_TRANSITION_NOT_ALLOWED');
     const report = await expectStatus(researcher.get(`/api/studies/${studyId}/assignment/verify`), 200);
     expect(report).toMatchObject({ allMatch: true, commitmentMatches: true, matched: 3 });
   });
@@ -404,7 +404,11 @@ describe('matched pairs', () => {
     await testApp.dataSource.query(`UPDATE enrollment SET status = 'screened' WHERE id = ANY($1)`, [enrollments]);
     const paired = await expectStatus(researcher.post(`/api/studies/${studyId}/enrollments/pair-cohort`), 200);
     expect(paired).toMatchObject({ cohort: 7, pairs: 3, leftoverEnrollmentId: expect.any(String) });
-    await expectStatus(researcher.post(`/api/studies/${studyId}/enrollments/pair-cohort`), 409, 'CONFLICT');
+    await expectStatus(
+      researcher.post(`/api/studies/${studyId}/enrollments/pair-cohort`),
+      409,
+      'COHORT_ALREADY_PAIRED',
+    );
     // Neighbours by pretest share a pair and get different conditions.
     const slots: Array<{ stratum_key: string; condition_id: string; reserved_for: string }> =
       await testApp.dataSource.query(

@@ -94,14 +94,14 @@ describe('consent versions', () => {
     await expectStatus(
       coordinator.post(`/api/studies/${studyId}/consent-versions/${draft.id}/activate`),
       409,
-      'CONFLICT',
+      'CONSENT_VERSION_NOT_READY',
     );
     const active = await activeConsentVersion(coordinator, studyId);
     expect(active.fingerprint).toMatch(/^[0-9a-f]{64}$/);
     await expectStatus(
       coordinator.patch(`/api/studies/${studyId}/consent-versions/${active.id}`).send({ body: 'changed' }),
       409,
-      'CONFLICT',
+      'CONSENT_VERSION_NOT_DRAFT',
     );
     // The database itself refuses to edit the text of an approved version.
     await expect(
@@ -246,7 +246,7 @@ describe('filling a draft in again', () => {
     const refused = await expectStatus(
       coordinator.post(refillUrl(studyId, active.id)).send({ values: FULL_CONSENT_VALUES }),
       409,
-      'CONFLICT',
+      'CONSENT_VERSION_NOT_DRAFT',
     );
     expect(refused.message).toMatch(/version 1 is active.*create a new draft/i);
     const read = await expectStatus(coordinator.get(`/api/studies/${studyId}/consent-versions/${active.id}`), 200);

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { activeConsentVersion, signedInParticipant } from './support/consent-fixtures';
+import { activeConsentVersion, signedUpParticipant } from './support/consent-fixtures';
 import { expectStatus } from './support/http';
 import { Browser, draftBetweenStudy, signedInStaff } from './support/study-fixtures';
 import { startTestApp, TestApp } from './support/test-app';
@@ -24,19 +24,7 @@ async function studyWithSignedParticipant() {
   );
   const version = await activeConsentVersion(coordinator, studyId);
   await expectStatus(coordinator.post(`/api/studies/${studyId}/open`), 200);
-  const { browser } = await signedInParticipant(testApp);
-  await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
-  await expectStatus(
-    browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 70 } }),
-    200,
-  );
-  await expectStatus(
-    browser
-      .post(`/api/studies/${studyId}/enrollments/me/signature`)
-      .send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Sam Example' }),
-    201,
-  );
-  const me = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me`), 200);
+  const { me } = await signedUpParticipant(testApp, studyId, version, 'follow-up', 'Sam Example', { pretest: 70 });
   return { studyId, enrollmentId: me.id as string };
 }
 

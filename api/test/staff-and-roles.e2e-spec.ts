@@ -97,7 +97,11 @@ describe('staff management', () => {
 
   it('does not let an admin deactivate their own account', async () => {
     const me = await expectStatus(browsers.admin.get('/api/auth/me'), 200);
-    await expectStatus(browsers.admin.patch(`/api/users/${me.id}`).send({ active: false }), 400, 'BAD_REQUEST');
+    await expectStatus(
+      browsers.admin.patch(`/api/users/${me.id}`).send({ active: false }),
+      400,
+      'OWN_ACCOUNT_PROTECTED',
+    );
   });
 
   it('answers 404 for an unknown user id and 400 for a malformed one', async () => {

@@ -418,7 +418,7 @@ describe('opening a study', () => {
       ['steps', false],
       ['consent', false],
     ]);
-    const refused = await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 409, 'CONFLICT');
+    const refused = await expectStatus(researcher.post(`/api/studies/${studyId}/open`), 409, 'STUDY_NOT_READY_TO_OPEN');
     expect(refused.errors.map((e: { field: string }) => e.field)).toEqual(['steps', 'consent']);
     expect(refused.message).toMatch(/consent/);
     await prepareToOpen(researcher, studyId);

@@ -133,7 +133,7 @@ describe('editing study details', () => {
 describe('archiving', () => {
   it('archives only closed studies; archived studies leave the default list and can still be opened', async () => {
     const { studyId } = await draftBetweenStudy(coordinator);
-    const early = await expectStatus(coordinator.post(`/api/studies/${studyId}/archive`), 409, 'CONFLICT');
+    const early = await expectStatus(coordinator.post(`/api/studies/${studyId}/archive`), 409, 'STUDY_NOT_CLOSED');
     expect(early.message).toMatch(/close/i);
 
     await testApp.dataSource.query(`UPDATE study SET status = 'closed', closed_at = now() WHERE id = $1`, [studyId]);

@@ -105,7 +105,7 @@ describe('setting up two-factor sign-in', () => {
     expect(hashes).toHaveLength(10);
     expect(JSON.stringify(hashes)).not.toContain(recoveryCodes[0]);
 
-    await expectStatus(browser.post('/api/auth/two-factor/setup'), 409, 'CONFLICT');
+    await expectStatus(browser.post('/api/auth/two-factor/setup'), 409, 'TWO_FACTOR_ALREADY_ON');
     expect((await actions(email)).map((event) => event.action)).toContain('auth.two-factor-enabled');
   });
 });
@@ -243,7 +243,7 @@ describe('the lab requiring two-factor sign-in of admins', () => {
     const refused = await expectStatus(
       admin.patch('/api/lab-settings').send({ twoFactorRequiredForAdmins: true }),
       409,
-      'CONFLICT',
+      'TWO_FACTOR_OFF',
     );
     expect(refused.errors[0].field).toBe('twoFactorRequiredForAdmins');
     await expectStatus(
@@ -271,7 +271,11 @@ describe('the lab requiring two-factor sign-in of admins', () => {
       expect((await expectStatus(otherAdmin.browser.get('/api/auth/two-factor'), 200)).required).toBe(true);
       await expectStatus(coordinator.browser.get('/api/studies'), 200);
       await expectStatus(keeper.browser.get('/api/studies'), 200);
-      await expectStatus(keeper.browser.delete('/api/auth/two-factor').send({ password: PASSWORD }), 409, 'CONFLICT');
+      await expectStatus(
+        keeper.browser.delete('/api/auth/two-factor').send({ password: PASSWORD }),
+        409,
+        'TWO_FACTOR_REQUIRED_BY_LAB',
+      );
 
       const setup = await expectStatus(otherAdmin.browser.post('/api/auth/two-factor/setup'), 200);
       await expectStatus(

@@ -30,7 +30,11 @@ describe('placeFieldErrors', () => {
   });
 
   it('falls back to the api message when nothing fits a field', () => {
-    const error = new ApiError({ statusCode: 400, code: 'CONFLICT', message: 'You cannot deactivate yourself.' });
+    const error = new ApiError({
+      statusCode: 400,
+      code: 'OWN_ACCOUNT_PROTECTED',
+      message: 'You cannot deactivate yourself.',
+    });
     expect(placeFieldErrors(error, fields)).toEqual({ fields: [], formMessage: 'You cannot deactivate yourself.' });
   });
 

@@ -3,7 +3,7 @@ import { ModuleRef } from '@nestjs/core';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { randomUUID } from 'node:crypto';
 import { DataSource, EntityManager } from 'typeorm';
-import { DomainException } from '../common/errors/domain.exception';
+import { AuditException } from './audit.exception';
 import { AppConfig } from '../config/app-config';
 import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
 import { MailService } from '../mail/mail.service';
@@ -110,7 +110,7 @@ export class AuditReceiptsService implements OnModuleInit {
     const row = UUID.test(id)
       ? await this.dataSource.getRepository(AuditReceiptEntity).findOne({ where: { id } })
       : null;
-    if (!row) throw new DomainException('NOT_FOUND', 'There is no audit receipt with this id.');
+    if (!row) throw new AuditException('NOT_FOUND', 'There is no audit receipt with this id.');
     return row.document;
   }
 

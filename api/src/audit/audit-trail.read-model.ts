@@ -1,7 +1,7 @@
 import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
-import { DomainException } from '../common/errors/domain.exception';
+import { AuditException } from './audit.exception';
 import {
   ACTION_FAMILIES,
   actionsInFamilies,
@@ -108,7 +108,7 @@ export class AuditTrailReadModel {
       where.params,
     );
     if (total > EXPORT_ROW_LIMIT) {
-      throw new DomainException(
+      throw new AuditException(
         'VALIDATION_FAILED',
         `This selection holds ${total} events; an export holds at most ${EXPORT_ROW_LIMIT}. Narrow the dates or families.`,
         [{ field: 'from', message: `narrow the selection to at most ${EXPORT_ROW_LIMIT} events` }],

@@ -5,7 +5,7 @@ import { randomUUID } from 'node:crypto';
 import { DataSource, EntityManager } from 'typeorm';
 import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
+import { AuthException } from './auth.exception';
 import { AppConfig } from '../config/app-config';
 import { queryRows } from '../database/raw-query';
 import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
@@ -83,15 +83,12 @@ export class AuthService implements OnModuleInit {
     if (!user) {
       await this.recordRefusal(email, 'password', client);
       // One message for every cause, so the answer does not reveal which addresses have accounts.
-      throw new DomainException(
-        'INVALID_CREDENTIALS',
-        'That e-mail and password do not match an active staff account.',
-      );
+      throw new AuthException('INVALID_CREDENTIALS', 'That e-mail and password do not match an active staff account.');
     }
     if (!user.twoFactorEnabledAt)
       return this.dataSource.transaction((manager) => this.startSession(manager, user, 'password', client));
     if (!factor.code && !factor.recoveryCode) {
-      throw new DomainException(
+      throw new AuthException(
         'TWO_FACTOR_REQUIRED',
         'Enter the 6-digit code from your authenticator app, or one of your recovery codes.',
       );
@@ -102,7 +99,7 @@ export class AuthService implements OnModuleInit {
     });
     if (session) return session;
     await this.recordRefusal(email, factor.code ? 'two-factor-code' : 'recovery-code', client);
-    throw new DomainException(
+    throw new AuthException(
       'TWO_FACTOR_INVALID',
       factor.code
         ? 'That code is not right, or it was used already. Enter the newest 6-digit code your authenticator app shows.'
@@ -193,7 +190,7 @@ export class AuthService implements OnModuleInit {
       );
       const user = reset ? await this.users.findActiveById(reset.user_id) : null;
       if (!reset || !user || user.role === 'participant') {
-        throw new DomainException(
+        throw new AuthException(
           'LINK_INVALID',
           'This password link is not valid any more: it was used already, has expired, or is unknown. Ask for a new one.',
         );
@@ -220,14 +217,14 @@ export class AuthService implements OnModuleInit {
         [hashToken(token)],
       );
       if (!updated) {
-        throw new DomainException(
+        throw new AuthException(
           'LINK_INVALID',
           'This sign-in link is not valid any more: it was used already, has expired, or is unknown. Ask for a new one.',
         );
       }
       const { user, created } = await this.users.findOrCreateParticipant(manager, updated.email);
       if (user.role !== 'participant' || !user.active) {
-        throw new DomainException('LINK_INVALID', 'This sign-in link cannot be used for this account.');
+        throw new AuthException('LINK_INVALID', 'This sign-in link cannot be used for this account.');
       }
       if (created) {
         await this.audit.record(manager, {
@@ -244,7 +241,7 @@ export class AuthService implements OnModuleInit {
   }
 
   async refresh(refreshToken: string | undefined): Promise<IssuedSession> {
-    if (!refreshToken) throw new DomainException('UNAUTHENTICATED', 'Please sign in.');
+    if (!refreshToken) throw new AuthException('UNAUTHENTICATED', 'Please sign in.');
     const outcome = await this.dataSource.transaction(async (manager) => {
       const current = await manager.findOne(RefreshTokenEntity, {
         where: { tokenHash: hashToken(refreshToken) },
@@ -286,7 +283,7 @@ export class AuthService implements OnModuleInit {
       };
     });
     if (outcome.kind === 'rotated') return outcome.session;
-    throw new DomainException(
+    throw new AuthException(
       'UNAUTHENTICATED',
       outcome.kind === 'reused' ? 'This session was ended for safety. Please sign in again.' : 'Please sign in.',
     );

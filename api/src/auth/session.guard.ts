@@ -4,7 +4,7 @@ import { JwtService } from '@nestjs/jwt';
 import type { Request } from 'express';
 import { AuthService } from './auth.service';
 import type { UserRole } from '../common/auth/roles';
-import { DomainException } from '../common/errors/domain.exception';
+import { AuthException } from './auth.exception';
 import { BEFORE_TWO_FACTOR_SETUP, IS_PUBLIC, OPTIONAL_SESSION, ROLES } from '../common/auth/auth.decorators';
 import { ACCESS_COOKIE, SessionUser } from '../common/auth/session-user';
 
@@ -32,15 +32,15 @@ export class SessionGuard implements CanActivate {
     }
 
     const token: unknown = request.cookies?.[ACCESS_COOKIE];
-    if (typeof token !== 'string' || token === '') throw new DomainException('UNAUTHENTICATED', 'Please sign in.');
+    if (typeof token !== 'string' || token === '') throw new AuthException('UNAUTHENTICATED', 'Please sign in.');
     const user = await this.sessionUser(token);
     if (user === 'expired')
-      throw new DomainException('UNAUTHENTICATED', 'Your session has expired. Please sign in again.');
-    if (!user) throw new DomainException('UNAUTHENTICATED', 'Please sign in.');
+      throw new AuthException('UNAUTHENTICATED', 'Your session has expired. Please sign in again.');
+    if (!user) throw new AuthException('UNAUTHENTICATED', 'Please sign in.');
     request.user = user;
 
     if (user.twoFactorSetupNeeded && !this.reflector.getAllAndOverride<boolean>(BEFORE_TWO_FACTOR_SETUP, targets)) {
-      throw new DomainException(
+      throw new AuthException(
         'TWO_FACTOR_SETUP_REQUIRED',
         'The lab requires admins to sign in with a two-factor code. Set it up under Your account first.',
       );
@@ -48,7 +48,7 @@ export class SessionGuard implements CanActivate {
 
     const roles = this.reflector.getAllAndOverride<UserRole[] | undefined>(ROLES, targets);
     if (roles && !roles.includes(user.role)) {
-      throw new DomainException('FORBIDDEN', 'Your role does not allow this.');
+      throw new AuthException('FORBIDDEN', 'Your role does not allow this.');
     }
     return true;
   }

@@ -4,7 +4,7 @@ import * as QRCode from 'qrcode';
 import { DataSource, EntityManager } from 'typeorm';
 import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
+import { AuthException } from './auth.exception';
 import { AppConfig } from '../config/app-config';
 import { queryRows } from '../database/raw-query';
 import { UsersService } from '../users';
@@ -82,10 +82,10 @@ export class TwoFactorService {
   async beginSetup(user: SessionUser): Promise<TwoFactorSetupDto> {
     const row = await this.row(this.dataSource.manager, user.id);
     if (!row || row.role === 'participant')
-      throw new DomainException('FORBIDDEN', 'Two-factor sign-in is for staff accounts.');
+      throw new AuthException('FORBIDDEN', 'Two-factor sign-in is for staff accounts.');
     if (row.two_factor_enabled_at) {
-      throw new DomainException(
-        'CONFLICT',
+      throw new AuthException(
+        'TWO_FACTOR_ALREADY_ON',
         'Two-factor sign-in is already on. Turn it off first to set up a new authenticator app.',
       );
     }
@@ -103,17 +103,18 @@ export class TwoFactorService {
   async confirmSetup(user: SessionUser, body: ConfirmTwoFactorDto): Promise<RecoveryCodesDto> {
     return this.dataSource.transaction(async (manager) => {
       const row = await this.row(manager, user.id, true);
-      if (!row || row.two_factor_enabled_at) throw new DomainException('CONFLICT', 'Two-factor sign-in is already on.');
+      if (!row || row.two_factor_enabled_at)
+        throw new AuthException('TWO_FACTOR_ALREADY_ON', 'Two-factor sign-in is already on.');
       if (!row.two_factor_pending_secret) {
-        throw new DomainException(
-          'CONFLICT',
+        throw new AuthException(
+          'TWO_FACTOR_SETUP_NOT_STARTED',
           'Start the set-up first: choose “Set up two-factor sign-in” to get a QR code.',
         );
       }
       const secret = decryptTotpSecret(row.two_factor_pending_secret, this.config.jwtSecret);
       const step = await acceptedTotpStep(secret, body.code, Date.now() / 1000, null);
       if (step === null) {
-        throw new DomainException(
+        throw new AuthException(
           'VALIDATION_FAILED',
           'That code does not match. Enter the newest 6-digit code your authenticator app shows.',
           [{ field: 'code', message: 'does not match the authenticator app’s current code' }],
@@ -143,8 +144,8 @@ export class TwoFactorService {
       const row = await this.row(manager, user.id, true);
       if (!row?.two_factor_enabled_at) return;
       if (await this.requiredFor(manager, row.role)) {
-        throw new DomainException(
-          'CONFLICT',
+        throw new AuthException(
+          'TWO_FACTOR_REQUIRED_BY_LAB',
           'The lab requires two-factor sign-in of admins, so it cannot be turned off for your account.',
         );
       }
@@ -168,7 +169,7 @@ export class TwoFactorService {
     await this.checkPassword(user, password);
     return this.dataSource.transaction(async (manager) => {
       const row = await this.row(manager, user.id, true);
-      if (!row?.two_factor_enabled_at) throw new DomainException('CONFLICT', 'Turn on two-factor sign-in first.');
+      if (!row?.two_factor_enabled_at) throw new AuthException('TWO_FACTOR_OFF', 'Turn on two-factor sign-in first.');
       const recoveryCodes = await this.replaceRecoveryCodes(manager, user.id);
       await this.audit.record(manager, {
         actor: user,
@@ -222,7 +223,7 @@ export class TwoFactorService {
 
   private async checkPassword(user: SessionUser, password: string): Promise<void> {
     if (!(await this.users.verifyStaffPassword(user.email, password))) {
-      throw new DomainException('VALIDATION_FAILED', 'That is not your password.', [
+      throw new AuthException('VALIDATION_FAILED', 'That is not your password.', [
         { field: 'password', message: 'is not your current password' },
       ]);
     }

@@ -8,7 +8,8 @@ import { renderConsentHtml, renderConsentPlainText } from './consent-markdown';
 import { renderedConsentText } from './consent-text';
 import { TemplateView, renderTemplate } from './template-rendering';
 
-type EmailCommonView = {
+/** What every participant e-mail says about the person and the study; each template adds its own fields. */
+export type EmailCommonView = {
   /** null when the participant gave no name: the greeting is then "Hello,". */
   participantName: string | null;
   studyTitle: string;

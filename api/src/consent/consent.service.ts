@@ -5,7 +5,7 @@ import { templates, STAFF_NOTICE } from '@evenhand/legal-templates';
 import { createHash } from 'node:crypto';
 import { DataSource, EntityManager, IsNull } from 'typeorm';
 import { AuditActor, AuditService } from '../audit';
-import { DomainException } from '../common/errors/domain.exception';
+import { ConsentException } from './consent.exception';
 import { StepsService } from '../steps';
 import { StudiesService } from '../studies';
 import { approvalLetterProblem } from './approval-letter-check';
@@ -84,7 +84,7 @@ export class ConsentService {
       where: { id: versionId, studyId },
       ...(lock && { lock: { mode: 'pessimistic_write' as const } }),
     });
-    if (!version) throw new DomainException('NOT_FOUND', 'No such consent version in this study.');
+    if (!version) throw new ConsentException('NOT_FOUND', 'No such consent version in this study.');
     return version;
   }
 
@@ -141,7 +141,7 @@ export class ConsentService {
   ): Promise<ConsentVersionDto> {
     const known = templates.find((t) => t.id === templateId && t.kind === 'consent');
     if (!known) {
-      throw new DomainException('VALIDATION_FAILED', 'Unknown consent template.', [
+      throw new ConsentException('VALIDATION_FAILED', 'Unknown consent template.', [
         {
           field: 'templateId',
           message: `must be one of ${
@@ -197,8 +197,8 @@ export class ConsentService {
       // The same row lock activation takes, so a draft cannot be refilled while it is being activated.
       const version = await this.get(studyId, versionId, manager, true);
       if (version.status !== 'draft') {
-        throw new DomainException(
-          'CONFLICT',
+        throw new ConsentException(
+          'CONSENT_VERSION_NOT_DRAFT',
           `Version ${version.version} is ${version.status}, so its text is fixed; create a new draft to change the wording.`,
         );
       }
@@ -257,15 +257,15 @@ export class ConsentService {
     const updated = await this.dataSource.transaction(async (manager) => {
       const version = await this.get(studyId, versionId, manager);
       if (version.status !== 'draft')
-        throw new DomainException(
-          'CONFLICT',
+        throw new ConsentException(
+          'CONSENT_VERSION_NOT_DRAFT',
           'An approved version is fixed; create a new draft to change the wording.',
         );
       if (input.body !== undefined) {
         try {
           renderedConsentText(input.body);
         } catch (error) {
-          throw new DomainException('VALIDATION_FAILED', 'The form text cannot be used.', [
+          throw new ConsentException('VALIDATION_FAILED', 'The form text cannot be used.', [
             { field: 'body', message: (error as Error).message },
           ]);
         }
@@ -299,25 +299,28 @@ export class ConsentService {
     file: { buffer: Buffer; originalname: string; size: number } | undefined,
   ): Promise<ConsentVersionDto> {
     if (!file)
-      throw new DomainException('VALIDATION_FAILED', 'Attach the approval letter as a PDF file.', [
+      throw new ConsentException('VALIDATION_FAILED', 'Attach the approval letter as a PDF file.', [
         { field: 'letter', message: 'is required' },
       ]);
     if (file.size === 0 || file.buffer.length === 0) {
-      throw new DomainException('VALIDATION_FAILED', 'The file is empty.', [{ field: 'letter', message: 'is empty' }]);
+      throw new ConsentException('VALIDATION_FAILED', 'The file is empty.', [{ field: 'letter', message: 'is empty' }]);
     }
     if (file.size > MAX_APPROVAL_LETTER_BYTES) {
-      throw new DomainException('PAYLOAD_TOO_LARGE', 'The approval letter may be at most 10 MB.', [
+      throw new ConsentException('PAYLOAD_TOO_LARGE', 'The approval letter may be at most 10 MB.', [
         { field: 'letter', message: 'is larger than 10 MB' },
       ]);
     }
     const problem = await approvalLetterProblem(file.buffer, file.originalname);
     if (problem)
-      throw new DomainException('UNSUPPORTED_MEDIA_TYPE', 'The approval letter must be a PDF file.', [problem]);
+      throw new ConsentException('UNSUPPORTED_MEDIA_TYPE', 'The approval letter must be a PDF file.', [problem]);
     const sha256 = createHash('sha256').update(file.buffer).digest('hex');
     const updated = await this.dataSource.transaction(async (manager) => {
       const version = await this.get(studyId, versionId, manager);
       if (version.status !== 'draft')
-        throw new DomainException('CONFLICT', 'The letter of an approved version cannot be replaced.');
+        throw new ConsentException(
+          'CONSENT_VERSION_NOT_DRAFT',
+          'The letter of an approved version cannot be replaced.',
+        );
       await manager.update(
         ConsentVersionEntity,
         { id: versionId },
@@ -348,7 +351,7 @@ export class ConsentService {
       .where('v.id = :versionId AND v.study_id = :studyId', { versionId, studyId })
       .getOne();
     if (!row?.approvalLetter)
-      throw new DomainException('NOT_FOUND', 'No approval letter has been uploaded for this version.');
+      throw new ConsentException('NOT_FOUND', 'No approval letter has been uploaded for this version.');
     return { bytes: row.approvalLetter, name: row.approvalLetterName ?? `approval-letter-v${row.version}.pdf` };
   }
 
@@ -361,7 +364,10 @@ export class ConsentService {
       await this.studies.require(studyId, manager, true);
       const version = await this.get(studyId, versionId, manager, true);
       if (version.status !== 'draft')
-        throw new DomainException('CONFLICT', `Version ${version.version} is already ${version.status}.`);
+        throw new ConsentException(
+          'CONSENT_VERSION_NOT_DRAFT',
+          `Version ${version.version} is already ${version.status}.`,
+        );
       const missing = [
         !version.approvalReference && {
           field: 'approvalReference',
@@ -370,11 +376,12 @@ export class ConsentService {
         !version.approvedAt && { field: 'approvedAt', message: 'the approval date is required' },
         !version.approvalLetterSha256 && { field: 'letter', message: 'upload the approval letter (PDF) first' },
       ].filter(Boolean) as Array<{ field: string; message: string }>;
-      if (missing.length) throw new DomainException('CONFLICT', 'The version is not ready to activate.', missing);
+      if (missing.length)
+        throw new ConsentException('CONSENT_VERSION_NOT_READY', 'The version is not ready to activate.', missing);
       const report = checkRequiredElements(version.body);
       if (!report.passes) {
-        throw new DomainException(
-          'CONFLICT',
+        throw new ConsentException(
+          'CONSENT_VERSION_NOT_READY',
           'The form is missing required elements; fix them before activation.',
           report.findings.map((f) => ({ field: f.element ? `body.${f.element}` : 'body', message: f.message })),
         );

@@ -1,7 +1,7 @@
 import { Injectable, Logger, OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
-import { DomainException } from '../common/errors/domain.exception';
+import { DocumentException } from './document.exception';
 import { AppConfig, DEVELOPMENT_SIGNING_PASSPHRASE } from '../config/app-config';
 import { renderEmail } from '../consent';
 import { ConsentService } from '../consent';
@@ -57,7 +57,7 @@ export class DocumentsService implements OnModuleInit {
       return;
     }
     const enrollment = await this.recipients.of(signature.enrollmentId);
-    if (!enrollment) throw new DomainException('NOT_FOUND', 'No such enrollment.');
+    if (!enrollment) throw new DocumentException('NOT_FOUND', 'No such enrollment.');
     const study = await this.studies.require(enrollment.studyId);
     const version = await this.consent.get(enrollment.studyId, signature.consentVersionId);
     let pdf = signature.pdf;

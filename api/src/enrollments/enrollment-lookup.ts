@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { EntityManager } from 'typeorm';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
+import { EnrollmentException } from './enrollment.exception';
 import { EnrollmentEntity, EnrollmentStatus } from './entities/enrollment.entity';
 
 /** Statuses in which a person has been randomized (the denominator of attrition). */
@@ -19,7 +19,7 @@ export async function requireMine(
     where: { studyId, participantId: user.id },
     ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}),
   });
-  if (!enrollment) throw new DomainException('NOT_FOUND', 'You have not joined this study.');
+  if (!enrollment) throw new EnrollmentException('NOT_FOUND', 'You have not joined this study.');
   return enrollment;
 }
 
@@ -33,7 +33,7 @@ export async function requireOnRoster(
     where: { id: enrollmentId, studyId },
     lock: { mode: 'pessimistic_write' },
   });
-  if (!enrollment) throw new DomainException('NOT_FOUND', 'No such participant in this study.');
+  if (!enrollment) throw new EnrollmentException('NOT_FOUND', 'No such participant in this study.');
   return enrollment;
 }
 

@@ -27,7 +27,7 @@ import type { Request, Response } from 'express';
 import { memoryStorage } from 'multer';
 import { CurrentUser, PublicWithOptionalSession, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
+import { EnrollmentException } from './enrollment.exception';
 import { uuidParam } from '../common/http/uuid-param';
 import { ConsentToSignDto } from './dto/enrollment.dto';
 import {
@@ -238,11 +238,11 @@ export class RosterController {
     @UploadedFile() file: Express.Multer.File | undefined,
   ): Promise<ImportResultDto> {
     if (!file || file.size === 0)
-      throw new DomainException('VALIDATION_FAILED', 'Attach the roster as a CSV file.', [
+      throw new EnrollmentException('VALIDATION_FAILED', 'Attach the roster as a CSV file.', [
         { field: 'file', message: file ? 'is empty' : 'is required' },
       ]);
     if (file.buffer.includes(0)) {
-      throw new DomainException('UNSUPPORTED_MEDIA_TYPE', 'The roster must be a CSV text file.', [
+      throw new EnrollmentException('UNSUPPORTED_MEDIA_TYPE', 'The roster must be a CSV text file.', [
         { field: 'file', message: 'is not a text file' },
       ]);
     }

@@ -2,7 +2,6 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
 import { AuditActor, AuditService } from '../audit';
-import { DomainException } from '../common/errors/domain.exception';
 import { StepsService } from '../steps';
 import { EnrollmentException } from './enrollment.exception';
 import { EnrollmentEntity } from './entities/enrollment.entity';
@@ -26,7 +25,7 @@ export class FollowUpService {
         where: { id: enrollmentId, studyId },
         lock: { mode: 'pessimistic_write' },
       });
-      if (!enrollment) throw new DomainException('NOT_FOUND', 'No such participant in this study.');
+      if (!enrollment) throw new EnrollmentException('NOT_FOUND', 'No such participant in this study.');
       if (enrollment.status !== 'lost')
         throw new EnrollmentException(
           'PARTICIPATION_STATE',

@@ -3,7 +3,6 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
 import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
 import { ConsentService } from '../consent';
 import { PayoutsService } from '../payouts';
 import { StepsService } from '../steps';
@@ -37,13 +36,13 @@ export class ParticipationService {
 
   async join(user: SessionUser, studyId: string): Promise<{ created: boolean; enrollment: MyEnrollmentDto }> {
     if (user.role !== 'participant')
-      throw new DomainException('FORBIDDEN', 'Staff accounts cannot take part in studies.');
+      throw new EnrollmentException('FORBIDDEN', 'Staff accounts cannot take part in studies.');
     const created = await this.dataSource.transaction(async (manager) => {
       const study = await this.studies.require(studyId, manager);
       const existing = await manager.findOne(EnrollmentEntity, { where: { studyId, participantId: user.id } });
       if (existing) return false;
       if (study.status !== 'recruiting')
-        throw new DomainException('STUDY_NOT_RECRUITING', 'This study is not taking new participants right now.');
+        throw new EnrollmentException('STUDY_NOT_RECRUITING', 'This study is not taking new participants right now.');
       const enrollment = await insertEnrollment(manager, studyId, user.id, { invitedAt: new Date() });
       await this.audit.record(manager, {
         chain: studyId,
@@ -154,7 +153,11 @@ export class ParticipationService {
         const labels = Object.fromEntries(
           [...definition.eligibility, ...definition.stratification].map((q) => [q.key, q.label]),
         );
-        throw new DomainException('VALIDATION_FAILED', screeningProblemMessage(result.errors, labels), result.errors);
+        throw new EnrollmentException(
+          'VALIDATION_FAILED',
+          screeningProblemMessage(result.errors, labels),
+          result.errors,
+        );
       }
       enrollment.screeningAnswers = result.answers;
       enrollment.covariates = result.covariates;
@@ -185,7 +188,7 @@ export class ParticipationService {
   async consentToSign(user: SessionUser, studyId: string) {
     await requireMine(this.dataSource.manager, user, studyId);
     const active = await this.consent.activeVersion(studyId);
-    if (!active) throw new DomainException('NOT_FOUND', 'The consent form for this study is not available yet.');
+    if (!active) throw new EnrollmentException('NOT_FOUND', 'The consent form for this study is not available yet.');
     return this.consent.participantView(active);
   }
 
@@ -193,7 +196,10 @@ export class ParticipationService {
     const enrollment = await requireMine(this.dataSource.manager, user, studyId);
     const pdf = await this.consent.signedPdf(enrollment.id);
     if (!pdf)
-      throw new DomainException('NOT_FOUND', 'Your signed copy is still being prepared. Please try again in a moment.');
+      throw new EnrollmentException(
+        'NOT_FOUND',
+        'Your signed copy is still being prepared. Please try again in a moment.',
+      );
     return pdf;
   }
 }

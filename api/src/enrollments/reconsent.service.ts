@@ -2,9 +2,7 @@ import { Injectable, OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager } from 'typeorm';
 import { AuditActor, AuditService } from '../audit';
-import { AppConfig } from '../config/app-config';
-import { ConsentService, ConsentVersionEntity, renderEmail } from '../consent';
-import { MailService } from '../mail/mail.service';
+import { ConsentService, ConsentVersionEntity } from '../consent';
 import { ContactsService } from '../reminders';
 import { RosterReadModel } from '../reporting';
 import { StudiesService } from '../studies';
@@ -15,11 +13,9 @@ import { EnrollmentEntity } from './entities/enrollment.entity';
 export class ReconsentService implements OnModuleInit {
   constructor(
     @InjectDataSource() private readonly dataSource: DataSource,
-    private readonly config: AppConfig,
     private readonly audit: AuditService,
     private readonly studies: StudiesService,
     private readonly consent: ConsentService,
-    private readonly mail: MailService,
     private readonly contacts: ContactsService,
     private readonly rosterReads: RosterReadModel,
   ) {}
@@ -67,28 +63,16 @@ export class ReconsentService implements OnModuleInit {
       if (!active) return 0;
       const recipients = await this.rosterReads.toAskForReconsent(manager, studyId, active.id);
       for (const recipient of recipients) {
-        const email = renderEmail('email/re-consent-request', {
-          participantName: recipient.displayName,
-          studyTitle: study.title,
-          labName: study.labName || 'The research team',
-          investigatorName: study.labName || 'The research team',
-          contactEmail: study.contactEmail ?? this.config.mailFrom,
-          portalUrl: new URL(`/s/${study.slug}`, this.config.portalUrl).toString(),
-          formVersion: active.version,
-          ethicsBoardName: 'the ethics board',
-          changeSummary: 'The research team has updated the consent form for this study.',
-        });
-        await this.mail.enqueue(manager, {
-          to: recipient.email,
-          subject: email.subject,
-          text: email.text,
-          html: email.html,
-        });
-        await this.contacts.log(manager, {
-          studyId,
-          enrollmentId: recipient.enrollmentId,
+        await this.contacts.sendEmail(manager, {
+          study,
+          recipient,
+          template: 'email/re-consent-request',
+          view: {
+            formVersion: active.version,
+            ethicsBoardName: 'the ethics board',
+            changeSummary: 'The research team has updated the consent form for this study.',
+          },
           kind: 'reconsent-request',
-          subject: email.subject,
           sentBy: actor.id,
         });
       }

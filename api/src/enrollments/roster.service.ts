@@ -2,7 +2,7 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
 import { AuditService } from '../audit';
-import { DomainException } from '../common/errors/domain.exception';
+import { EnrollmentException } from './enrollment.exception';
 import { ConsentService } from '../consent';
 import { ContactsService } from '../reminders';
 import { RosterReadModel } from '../reporting';
@@ -127,7 +127,7 @@ export class RosterService {
     const enrollment = await this.dataSource
       .getRepository(EnrollmentEntity)
       .findOne({ where: { id: enrollmentId, studyId } });
-    if (!enrollment) throw new DomainException('NOT_FOUND', 'No such participant in this study.');
+    if (!enrollment) throw new EnrollmentException('NOT_FOUND', 'No such participant in this study.');
     const email = await this.rosterReads.emailOfParticipant(enrollment.participantId);
     const versions = await this.consent.list(studyId);
     const signatures = await this.consent.signaturesOf(enrollmentId);
@@ -172,9 +172,9 @@ export class RosterService {
     const enrollment = await this.dataSource
       .getRepository(EnrollmentEntity)
       .findOne({ where: { id: enrollmentId, studyId } });
-    if (!enrollment) throw new DomainException('NOT_FOUND', 'No such participant in this study.');
+    if (!enrollment) throw new EnrollmentException('NOT_FOUND', 'No such participant in this study.');
     const pdf = await this.consent.signedPdf(enrollmentId, signatureId);
-    if (!pdf) throw new DomainException('NOT_FOUND', 'This signed copy is not ready yet.');
+    if (!pdf) throw new EnrollmentException('NOT_FOUND', 'This signed copy is not ready yet.');
     return pdf;
   }
 }

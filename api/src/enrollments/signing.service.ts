@@ -5,7 +5,6 @@ import { DataSource } from 'typeorm';
 import { AuditService } from '../audit';
 import type { ClientInfo } from '../auth';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
 import { ConsentService } from '../consent';
 import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
 import { RandomizationService } from '../randomization';
@@ -60,7 +59,7 @@ export class SigningService {
       if (!terms) throw new EnrollmentException('NO_CONSENT_TO_SIGN', 'There is no active consent form to sign.');
       const active = terms.version;
       if (input.versionId !== active.id || input.fingerprint !== active.fingerprint) {
-        throw new DomainException(
+        throw new EnrollmentException(
           'CONSENT_VERSION_STALE',
           'The consent form has changed since you opened it. Please read the current version.',
           undefined,
@@ -83,7 +82,7 @@ export class SigningService {
       const study = firstConsent ? await this.studies.require(studyId, manager) : undefined;
       if (study) {
         if (study.status !== 'recruiting')
-          throw new DomainException('STUDY_NOT_RECRUITING', 'This study is not taking new participants right now.');
+          throw new EnrollmentException('STUDY_NOT_RECRUITING', 'This study is not taking new participants right now.');
       }
 
       const now = new Date();

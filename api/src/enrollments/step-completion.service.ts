@@ -2,6 +2,7 @@ import { Injectable } from '@nestjs/common';
 import { EntityManager } from 'typeorm';
 import { AuditActor, AuditService } from '../audit';
 import { DomainException } from '../common/errors/domain.exception';
+import { EnrollmentException } from './enrollment.exception';
 import { ConsentService } from '../consent';
 import { PayoutsService } from '../payouts';
 import { stepTiming, StepsService, type CompletionVerifiedBy, type StepTiming } from '../steps';
@@ -158,7 +159,7 @@ export class StepCompletionService {
     }
     const stepList = await this.steps.list(studyId, manager);
     const index = stepList.items.findIndex((s) => s.id === stepId);
-    if (index < 0) throw new DomainException('NOT_FOUND', 'No such step in this study.');
+    if (index < 0) throw new EnrollmentException('NOT_FOUND', 'No such step in this study.');
     const done = new Map(
       (await this.steps.completionsOf(enrollment.id, manager)).map((c) => [c.stepId, c.completedAt]),
     );

@@ -130,7 +130,7 @@ export class StepProgressService {
     // Only wrong codes count, so the same window store as sign-in is used directly rather than as a route guard.
     const limiter = new PostgresThrottlerStorage(this.dataSource);
     if ((await limiter.hitsInWindow(limiterKey)) >= WRONG_CODE_LIMIT) {
-      throw new DomainException(
+      throw new EnrollmentException(
         'RATE_LIMITED',
         'Too many wrong codes. Please wait 15 minutes, or ask the research team to check the step off.',
       );
@@ -146,7 +146,7 @@ export class StepProgressService {
         subjectId: enrollment.id,
         data: { stepId, verification: verifiedBy },
       });
-      throw new DomainException('VALIDATION_FAILED', 'That code does not match this step.', [
+      throw new EnrollmentException('VALIDATION_FAILED', 'That code does not match this step.', [
         { field: 'code', message: 'does not match; check it and try again' },
       ]);
     }

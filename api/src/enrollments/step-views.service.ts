@@ -2,7 +2,7 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { stringify } from 'csv-stringify/sync';
 import { DataSource, In } from 'typeorm';
-import { DomainException } from '../common/errors/domain.exception';
+import { EnrollmentException } from './enrollment.exception';
 import { PayoutsService } from '../payouts';
 import { AccountEmailsReadModel } from '../reporting';
 import { StepListDto, stepTiming, StepsService } from '../steps';
@@ -59,7 +59,7 @@ export class StepViewsService {
     const enrollment = await this.dataSource.manager.findOne(EnrollmentEntity, {
       where: { id: enrollmentId, studyId },
     });
-    if (!enrollment) throw new DomainException('NOT_FOUND', 'No such participant in this study.');
+    if (!enrollment) throw new EnrollmentException('NOT_FOUND', 'No such participant in this study.');
     return { reference: enrollment.reference, items: await this.steps.participantCodes(studyId, enrollmentId) };
   }
 

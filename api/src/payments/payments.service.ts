@@ -1,6 +1,6 @@
 import { Injectable } from '@nestjs/common';
 import type Stripe from 'stripe';
-import { DomainException } from '../common/errors/domain.exception';
+import { PaymentException } from './payment.exception';
 import { AppConfig } from '../config/app-config';
 import { createPaymentsClient } from './payments-client';
 import { isProviderUnavailable } from './provider-failure';
@@ -22,7 +22,7 @@ export class PaymentsService {
       return await request(this.client);
     } catch (error) {
       if (isProviderUnavailable(error)) {
-        throw new DomainException(
+        throw new PaymentException(
           'PROVIDER_UNAVAILABLE',
           `The payment provider is not answering right now, so ${what} did not happen. Nothing was charged or changed; try again in a few minutes.`,
         );

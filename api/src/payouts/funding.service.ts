@@ -2,7 +2,6 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager } from 'typeorm';
 import { AuditActor, AuditService } from '../audit';
-import { DomainException } from '../common/errors/domain.exception';
 import { AppConfig } from '../config/app-config';
 import { PaymentsService } from '../payments/payments.service';
 import { StudiesService } from '../studies';
@@ -71,7 +70,7 @@ export class FundingService {
     const funding = await this.dataSource
       .getRepository(StudyFundingEntity)
       .findOne({ where: { id: fundingId, studyId } });
-    if (!funding) throw new DomainException('NOT_FOUND', 'No such funding for this study.');
+    if (!funding) throw new PayoutException('NOT_FOUND', 'No such funding for this study.');
     const intent = await this.payments.call('checking the funding', (provider) =>
       provider.paymentIntents.retrieve(funding.paymentIntentId),
     );

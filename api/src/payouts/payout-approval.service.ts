@@ -3,7 +3,6 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, In } from 'typeorm';
 import { AuditActor, AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
 import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
 import { StudiesService } from '../studies';
 import { ApprovalResultDto } from './dto/payout.dto';
@@ -34,7 +33,7 @@ export class PayoutApprovalService {
       });
       const missing = unique.filter((id) => !payouts.some((p) => p.id === id));
       if (missing.length)
-        throw new DomainException(
+        throw new PayoutException(
           'NOT_FOUND',
           `${missing.length} payout(s) are not in this study.`,
           missing.map((id) => ({ field: 'payoutIds', message: `${id} is not a payout of this study` })),
@@ -91,7 +90,7 @@ export class PayoutApprovalService {
         lock: { mode: 'pessimistic_write' },
       });
       if (!payout || (actor.role !== 'admin' && !(await this.studies.isMember(actor.id, payout.studyId)))) {
-        throw new DomainException('NOT_FOUND', 'No such payout.');
+        throw new PayoutException('NOT_FOUND', 'No such payout.');
       }
       if (payout.status !== 'failed')
         throw new PayoutException(

@@ -1,5 +1,5 @@
 import { Injectable } from '@nestjs/common';
-import { DomainException } from '../common/errors/domain.exception';
+import { PayoutException } from './payout.exception';
 import { AppConfig } from '../config/app-config';
 import { FinanceReadModel } from '../reporting';
 import { StudiesService } from '../studies';
@@ -51,11 +51,11 @@ export class PayoutReportsService {
     const from = parseDay(query.from, 'from');
     const to = parseDay(query.to, 'to');
     if (to < from)
-      throw new DomainException('VALIDATION_FAILED', 'The period ends before it starts.', [
+      throw new PayoutException('VALIDATION_FAILED', 'The period ends before it starts.', [
         { field: 'to', message: 'must be on or after the first day (from)' },
       ]);
     if (to.getTime() - from.getTime() > 366 * 86_400_000) {
-      throw new DomainException('VALIDATION_FAILED', 'A period can be at most a year long.', [
+      throw new PayoutException('VALIDATION_FAILED', 'A period can be at most a year long.', [
         { field: 'to', message: 'must be within a year of the first day (from)' },
       ]);
     }
@@ -80,7 +80,7 @@ export class PayoutReportsService {
 function parseDay(value: string, field: string): Date {
   const day = new Date(`${value}T00:00:00.000Z`);
   if (Number.isNaN(day.getTime()) || day.toISOString().slice(0, 10) !== value) {
-    throw new DomainException('VALIDATION_FAILED', `${field} is not a real calendar day.`, [
+    throw new PayoutException('VALIDATION_FAILED', `${field} is not a real calendar day.`, [
       { field, message: `${value} is not a real calendar day` },
     ]);
   }

@@ -2,7 +2,7 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import Stripe from 'stripe';
 import { DataSource, EntityManager } from 'typeorm';
-import { DomainException } from '../common/errors/domain.exception';
+import { PayoutException } from './payout.exception';
 import { AppConfig } from '../config/app-config';
 import { queryRows } from '../database/raw-query';
 import { PaymentsService } from '../payments/payments.service';
@@ -38,7 +38,7 @@ export class ProviderWebhooksService {
     signature: string | undefined,
   ): Promise<{ received: true; duplicate: boolean }> {
     if (!rawBody || !signature) {
-      throw new DomainException('VALIDATION_FAILED', 'A signed webhook body is required.', [
+      throw new PayoutException('VALIDATION_FAILED', 'A signed webhook body is required.', [
         { field: 'Stripe-Signature', message: 'is missing' },
       ]);
     }
@@ -47,23 +47,23 @@ export class ProviderWebhooksService {
       body = this.provider.webhooks.constructEvent(rawBody, signature, this.config.stripeWebhookSecret, 300);
     } catch (error) {
       if (error instanceof SyntaxError) {
-        throw new DomainException('VALIDATION_FAILED', 'The webhook body is not JSON.', [
+        throw new PayoutException('VALIDATION_FAILED', 'The webhook body is not JSON.', [
           { field: 'body', message: 'must be a JSON event' },
         ]);
       }
-      throw new DomainException('VALIDATION_FAILED', 'The webhook signature does not verify.', [
+      throw new PayoutException('VALIDATION_FAILED', 'The webhook signature does not verify.', [
         { field: 'Stripe-Signature', message: (error as Error).message },
       ]);
     }
     const timeProblem = signatureTimeProblem(signature, Math.floor(Date.now() / 1000));
     if (timeProblem) {
-      throw new DomainException('VALIDATION_FAILED', 'The webhook signature is stamped outside the accepted window.', [
+      throw new PayoutException('VALIDATION_FAILED', 'The webhook signature is stamped outside the accepted window.', [
         { field: 'Stripe-Signature', message: timeProblem },
       ]);
     }
     const read = readProviderEvent(body);
     if ('errors' in read)
-      throw new DomainException('VALIDATION_FAILED', 'The webhook event is malformed.', read.errors);
+      throw new PayoutException('VALIDATION_FAILED', 'The webhook event is malformed.', read.errors);
     const { event } = read;
     return this.dataSource.transaction(async (manager) => {
       const inserted = await queryRows(

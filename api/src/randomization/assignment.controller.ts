@@ -12,7 +12,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
 import { CurrentUser, Roles } from '../common/auth/auth.decorators';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
+import { RandomizationException } from './randomization.exception';
 import { CheckedBody } from '../common/http/checked-body';
 import { uuidParam } from '../common/http/uuid-param';
 import { StudiesService } from '../studies';
@@ -47,7 +47,7 @@ export class AssignmentController {
     await this.dataSource.transaction(async (manager) => {
       const study = await this.studies.require(studyId, manager, true);
       if (study.status === 'closed')
-        throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+        throw new RandomizationException('STUDY_SEALED', 'A closed study is sealed and cannot change.');
       const snapshot = await this.studies.designSnapshot(studyId, manager);
       await this.randomization.saveScheme(manager, user, studyId, method, settings, snapshot, study.status !== 'draft');
     });
@@ -90,7 +90,7 @@ export class AssignmentController {
     const saved = await this.randomization.schemeOf(studyId);
     const method = (body.method ?? saved?.method) as SchemeMethod | undefined;
     if (!method)
-      throw new DomainException('VALIDATION_FAILED', 'Choose a scheme to simulate.', [
+      throw new RandomizationException('VALIDATION_FAILED', 'Choose a scheme to simulate.', [
         { field: 'method', message: 'is required when no scheme is saved' },
       ]);
     const settings = (body.method ? (body.settings ?? {}) : (saved?.settings ?? {})) as SchemeSettings;
@@ -117,7 +117,10 @@ export class AssignmentController {
       await this.studies.require(studyId, manager, true);
       const scheme = await this.randomization.schemeOf(studyId, manager);
       if (!scheme?.commitment)
-        throw new DomainException('CONFLICT', 'There is nothing to unblind: the study has not opened.');
+        throw new RandomizationException(
+          'SEQUENCE_NOT_SEALED',
+          'There is nothing to unblind: the study has not opened.',
+        );
       await this.randomization.revealSeed(manager, user, studyId, { kind: 'unblinded', text: body.reason });
     });
     return this.get(studyId);

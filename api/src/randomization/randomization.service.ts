@@ -2,7 +2,7 @@ import { Injectable } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager } from 'typeorm';
 import { AuditActor, AuditService } from '../audit';
-import { DomainException } from '../common/errors/domain.exception';
+import { RandomizationException } from './randomization.exception';
 import { computeCommitment } from './commitment';
 import {
   deriveSequence,
@@ -149,7 +149,7 @@ export class RandomizationService {
   ): Promise<void> {
     const scheme = await this.schemeOf(studyId, manager);
     if (!scheme) {
-      throw new DomainException('CONFLICT', 'Choose an assignment scheme before opening the study.', [
+      throw new RandomizationException('SCHEME_MISSING', 'Choose an assignment scheme before opening the study.', [
         { field: 'assignmentScheme', message: 'is not set' },
       ]);
     }
@@ -215,7 +215,8 @@ export class RandomizationService {
     if (!scheme?.commitment) return;
     const now = new Date();
     if (reason.kind === 'unblinded') {
-      if (scheme.unblindedAt) throw new DomainException('CONFLICT', 'This study has already been unblinded.');
+      if (scheme.unblindedAt)
+        throw new RandomizationException('ALREADY_UNBLINDED', 'This study has already been unblinded.');
       await manager.update(
         AssignmentSchemeEntity,
         { studyId },
@@ -250,7 +251,10 @@ export class RandomizationService {
       .where('scheme.study_id = :studyId', { studyId })
       .getOne();
     if (!row?.seed)
-      throw new DomainException('CONFLICT', 'The study has not been opened, so there is no sealed sequence yet.');
+      throw new RandomizationException(
+        'SEQUENCE_NOT_SEALED',
+        'The study has not been opened, so there is no sealed sequence yet.',
+      );
     return row.seed;
   }
 
@@ -311,7 +315,8 @@ export class RandomizationService {
         sealed = await this.sealedScheme(manager, input.studyId, true);
         claim = await this.claimSlot(manager, sealed, input);
       }
-      if (claim === 'stale') throw new DomainException('CONFLICT', 'This study is not open for assignment yet.');
+      if (claim === 'stale')
+        throw new RandomizationException('NOT_OPEN_FOR_ASSIGNMENT', 'This study is not open for assignment yet.');
       if (claim === 'already') {
         const existing = await manager.findOneOrFail(AllocationEntity, { where: { enrollmentId: input.enrollmentId } });
         return this.outcomeOf(existing, null);
@@ -353,7 +358,7 @@ export class RandomizationService {
     ]);
     if (!row?.sealed_parameters || !row.commitment || !row.seed) {
       this.sealedSchemes.delete(studyId);
-      throw new DomainException('CONFLICT', 'This study is not open for assignment yet.');
+      throw new RandomizationException('NOT_OPEN_FOR_ASSIGNMENT', 'This study is not open for assignment yet.');
     }
     const sealed = {
       parameters: parseSchemeParameters(row.sealed_parameters),
@@ -534,8 +539,8 @@ export class RandomizationService {
       lock: { mode: 'pessimistic_write' },
     });
     if (!slot) {
-      throw new DomainException(
-        'CONFLICT',
+      throw new RandomizationException(
+        'NOT_IN_PAIRED_COHORT',
         'This person is not part of the paired cohort, so matched-pairs assignment cannot place them.',
       );
     }
@@ -586,12 +591,21 @@ export class RandomizationService {
     await manager.query(`SELECT pg_advisory_xact_lock(hashtextextended($1, 0))`, [`allocation:${studyId}:*`]);
     const scheme = await this.schemeOf(studyId, manager);
     if (!scheme?.sealedParameters || scheme.method !== 'matched-pairs') {
-      throw new DomainException('CONFLICT', 'Pairing applies to an open study whose scheme is matched pairs.');
+      throw new RandomizationException(
+        'PAIRING_NOT_APPLICABLE',
+        'Pairing applies to an open study whose scheme is matched pairs.',
+      );
     }
     if (scheme.pairedCohort)
-      throw new DomainException('CONFLICT', 'The cohort has already been paired; matched pairs pair one batch.');
+      throw new RandomizationException(
+        'COHORT_ALREADY_PAIRED',
+        'The cohort has already been paired; matched pairs pair one batch.',
+      );
     if (cohort.length < 2)
-      throw new DomainException('CONFLICT', 'Pairing needs at least two pretested people on the roster.');
+      throw new RandomizationException(
+        'COHORT_TOO_SMALL',
+        'Pairing needs at least two pretested people on the roster.',
+      );
     const parameters = parseParametersOf(scheme.sealedParameters, ['matched-pairs']);
     const seed = await this.sealedSeed(manager, studyId);
     const result = assignMatchedPairs(
@@ -692,10 +706,10 @@ export class RandomizationService {
   ): Promise<VerificationReport & { commitmentMatches: boolean; seed: string; commitment: string }> {
     const scheme = await this.schemeOf(studyId);
     if (!scheme?.commitment || !scheme.sealedParameters)
-      throw new DomainException('CONFLICT', 'This study has no sealed sequence yet.');
+      throw new RandomizationException('SEQUENCE_NOT_SEALED', 'This study has no sealed sequence yet.');
     if (!scheme.seedRevealedAt) {
-      throw new DomainException(
-        'CONFLICT',
+      throw new RandomizationException(
+        'SEED_STILL_SEALED',
         'The seed is still sealed: verification is possible after closure or an audited unblinding.',
       );
     }
@@ -788,7 +802,7 @@ export class RandomizationService {
 
   private async refuseIfAllocated(manager: EntityManager, studyId: string, what: string): Promise<void> {
     if (await this.hasAllocations(studyId, manager)) {
-      throw new DomainException('CONFLICT', `${what} cannot change after the first assignment.`);
+      throw new RandomizationException('STUDY_DETAIL_FIXED', `${what} cannot change after the first assignment.`);
     }
   }
 

@@ -3,9 +3,9 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager } from 'typeorm';
 import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
+import { ReminderException } from './reminder.exception';
 import { AppConfig } from '../config/app-config';
-import { renderEmail } from '../consent';
+import { EmailCommonView, EmailTemplateId, EmailViews, renderEmail } from '../consent';
 import { MailService } from '../mail/mail.service';
 import { StudiesService } from '../studies';
 import { ContactLogDto, SendStaffMessageDto } from './dto/reminders.dto';
@@ -22,6 +22,19 @@ export interface ContactToLog {
   dedupeKey?: string | null;
   sentBy?: string | null;
   sentAt?: Date;
+}
+
+/** A participant e-mail the study sends: the greeting and study details come from `study`, the rest from `view`. */
+export interface ContactEmail<K extends EmailTemplateId> {
+  study: { id: string; title: string; labName: string | null; contactEmail: string | null; slug: string };
+  recipient: { enrollmentId: string; email: string; displayName: string | null };
+  template: K;
+  view: Omit<EmailViews[K], keyof EmailCommonView>;
+  kind: ContactKind;
+  /** The staff member who sent it; null for the system. */
+  sentBy: string | null;
+  /** What the contact log shows; the rendered subject unless given. */
+  loggedSubject?: string;
 }
 
 /** The contact log: every message the study sends a participant, which the dropout watch compares by condition. */
@@ -56,9 +69,36 @@ export class ContactsService {
     return rows.length > 0;
   }
 
+  /** Renders a participant e-mail, queues it and logs the contact, all in the caller's transaction. */
+  async sendEmail<K extends EmailTemplateId>(manager: EntityManager, contact: ContactEmail<K>): Promise<void> {
+    const { study, recipient } = contact;
+    const common: EmailCommonView = {
+      participantName: recipient.displayName,
+      studyTitle: study.title,
+      labName: study.labName || 'The research team',
+      investigatorName: study.labName || 'The research team',
+      contactEmail: study.contactEmail ?? this.config.mailFrom,
+      portalUrl: new URL(`/s/${study.slug}`, this.config.portalUrl).toString(),
+    };
+    const email = renderEmail(contact.template, { ...common, ...contact.view } as EmailViews[K]);
+    await this.mail.enqueue(manager, {
+      to: recipient.email,
+      subject: email.subject,
+      text: email.text,
+      html: email.html,
+    });
+    await this.log(manager, {
+      studyId: study.id,
+      enrollmentId: recipient.enrollmentId,
+      kind: contact.kind,
+      subject: contact.loggedSubject ?? email.subject,
+      sentBy: contact.sentBy,
+    });
+  }
+
   async logOf(studyId: string, enrollmentId: string): Promise<ContactLogDto> {
     if (!(await contactRecipient(this.dataSource.manager, studyId, enrollmentId)))
-      throw new DomainException('NOT_FOUND', 'No such participant in this study.');
+      throw new ReminderException('NOT_FOUND', 'No such participant in this study.');
     const rows: Array<{
       id: string;
       kind: ContactKind;
@@ -113,32 +153,21 @@ export class ContactsService {
     await this.dataSource.transaction(async (manager) => {
       const study = await this.studies.require(studyId, manager);
       const recipient = await contactRecipient(manager, studyId, enrollmentId);
-      if (!recipient) throw new DomainException('NOT_FOUND', 'No such participant in this study.');
+      if (!recipient) throw new ReminderException('NOT_FOUND', 'No such participant in this study.');
       if (['withdrew', 'excluded'].includes(recipient.status)) {
-        throw new DomainException('CONFLICT', 'This person is no longer taking part; the study does not contact them.');
+        throw new ReminderException(
+          'PERSON_NOT_TAKING_PART',
+          'This person is no longer taking part; the study does not contact them.',
+        );
       }
-      const email = renderEmail('email/staff-message', {
-        participantName: recipient.displayName,
-        studyTitle: study.title,
-        labName: study.labName || 'The research team',
-        investigatorName: study.labName || 'The research team',
-        contactEmail: study.contactEmail ?? this.config.mailFrom,
-        portalUrl: new URL(`/s/${study.slug}`, this.config.portalUrl).toString(),
-        subject: input.subject,
-        message: input.message,
-      });
-      await this.mail.enqueue(manager, {
-        to: recipient.email,
-        subject: email.subject,
-        text: email.text,
-        html: email.html,
-      });
-      await this.log(manager, {
-        studyId,
-        enrollmentId,
+      await this.sendEmail(manager, {
+        study,
+        recipient: { enrollmentId, email: recipient.email, displayName: recipient.displayName },
+        template: 'email/staff-message',
+        view: { subject: input.subject, message: input.message },
         kind: 'staff-message',
-        subject: input.subject,
         sentBy: actor.id,
+        loggedSubject: input.subject,
       });
       await this.audit.record(manager, {
         chain: studyId,

@@ -3,7 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager } from 'typeorm';
 import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
+import { ReminderException } from './reminder.exception';
 import { AppConfig } from '../config/app-config';
 import { renderEmail, type RenderedEmail } from '../consent';
 import { formatMoney } from '../consent';
@@ -66,13 +66,13 @@ export class ReminderPlanService {
     const keys = input.rules.map(ruleKey);
     const repeated = keys.findIndex((key, i) => keys.indexOf(key) !== i);
     if (repeated >= 0)
-      throw new DomainException('VALIDATION_FAILED', 'Each reminder may appear once.', [
+      throw new ReminderException('VALIDATION_FAILED', 'Each reminder may appear once.', [
         { field: `rules.${repeated}`, message: 'repeats an earlier reminder' },
       ]);
     await this.dataSource.transaction(async (manager) => {
       const study = await this.studies.require(studyId, manager, true);
       if (study.status === 'closed')
-        throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+        throw new ReminderException('STUDY_SEALED', 'A closed study is sealed and cannot change.');
       const rules = input.rules.map((r) => ({ anchor: r.anchor, days: r.days }));
       await manager.query(
         `INSERT INTO reminder_plan (study_id, rules, suggest_lost_after, enabled, updated_by, updated_at) VALUES ($1, $2, $3, $4, $5, now())

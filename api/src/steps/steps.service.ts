@@ -4,7 +4,7 @@ import { randomBytes, timingSafeEqual } from 'node:crypto';
 import { DataSource, EntityManager, In, IsNull } from 'typeorm';
 import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
+import { StepException } from './step.exception';
 import { StudiesService } from '../studies';
 import { AppConfig } from '../config/app-config';
 import { queryRows } from '../database/raw-query';
@@ -160,7 +160,7 @@ export class StepsService {
       await this.requireChangeable(manager, studyId);
       await this.requireStep(manager, studyId, stepId);
       if (!(await this.studies.hasCondition(studyId, conditionId, manager)))
-        throw new DomainException('NOT_FOUND', 'No such condition in this study.', [
+        throw new StepException('NOT_FOUND', 'No such condition in this study.', [
           { field: 'conditionId', message: 'is not a condition of this study' },
         ]);
       await manager.query(
@@ -242,14 +242,14 @@ export class StepsService {
       .addSelect('step.completionCodeHash')
       .where('step.id = :stepId AND step.study_id = :studyId', { stepId, studyId })
       .getOne();
-    if (!step) throw new DomainException('NOT_FOUND', 'No such step in this study.');
+    if (!step) throw new StepException('NOT_FOUND', 'No such step in this study.');
     if (step.verification === 'participant-code') {
       const key = Buffer.from((await this.keysOf(studyId)).codeKey, 'base64');
       return { matched: participantCodeMatches(key, enrollmentId, stepId, code), verifiedBy: 'participant-code' };
     }
     if (step.verification !== 'shared-code' || !step.completionCodeHash) {
-      throw new DomainException(
-        'CONFLICT',
+      throw new StepException(
+        'STEP_TAKES_NO_CODE',
         step.verification === 'return-link'
           ? 'This step is finished in its task: use the task button, and you will be brought back.'
           : 'This step has no completion code; the research team will check it off for you.',
@@ -387,7 +387,7 @@ export class StepsService {
       where: { enrollmentId: input.enrollmentId, stepId: input.stepId, undoneAt: IsNull() },
       lock: { mode: 'pessimistic_write' },
     });
-    if (!completion) throw new DomainException('NOT_FOUND', 'This step is not marked done for this participant.');
+    if (!completion) throw new StepException('NOT_FOUND', 'This step is not marked done for this participant.');
     completion.undoneAt = new Date();
     completion.undoneBy = input.undoneBy;
     completion.undoReason = input.reason;
@@ -410,15 +410,15 @@ export class StepsService {
         .addSelect('step.completionCodeHash')
         .where('step.id = :stepId AND step.study_id = :studyId', { stepId, studyId })
         .getOne();
-      if (!step) throw new DomainException('NOT_FOUND', 'No such step in this study.');
+      if (!step) throw new StepException('NOT_FOUND', 'No such step in this study.');
       const taskUrl = input.taskUrl?.trim() || null;
       if (input.verification === 'return-link' && !taskUrl) {
-        throw new DomainException('VALIDATION_FAILED', 'A return-link step needs the address of the external task.', [
+        throw new StepException('VALIDATION_FAILED', 'A return-link step needs the address of the external task.', [
           { field: 'taskUrl', message: 'is required for a return link' },
         ]);
       }
       if (input.verification === 'shared-code' && !input.sharedCode && !step.completionCodeHash) {
-        throw new DomainException('VALIDATION_FAILED', 'Set the code everyone will type for this step.', [
+        throw new StepException('VALIDATION_FAILED', 'Set the code everyone will type for this step.', [
           { field: 'sharedCode', message: 'is required for one code for the whole step' },
         ]);
       }
@@ -545,7 +545,7 @@ export class StepsService {
     now: Date;
   }): Promise<string> {
     const step = await this.requireStep(this.dataSource.manager, input.studyId, input.stepId);
-    if (!step.taskUrl) throw new DomainException('CONFLICT', 'This step is not done in an external task.');
+    if (!step.taskUrl) throw new StepException('STEP_HAS_NO_TASK', 'This step is not done in an external task.');
     const keys = await this.keysOf(input.studyId);
     const validFrom = input.dueAt && input.dueAt > input.now ? input.dueAt : input.now;
     const token = signReturnToken(
@@ -610,12 +610,13 @@ export class StepsService {
 
   private async requireChangeable(manager: EntityManager, studyId: string): Promise<void> {
     const study = await this.studies.require(studyId, manager, true);
-    if (study.status === 'closed') throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+    if (study.status === 'closed')
+      throw new StepException('STUDY_SEALED', 'A closed study is sealed and cannot change.');
   }
 
   private async requireStep(manager: EntityManager, studyId: string, stepId: string): Promise<StepEntity> {
     const step = await manager.findOne(StepEntity, { where: { id: stepId, studyId } });
-    if (!step) throw new DomainException('NOT_FOUND', 'No such step in this study.');
+    if (!step) throw new StepException('NOT_FOUND', 'No such step in this study.');
     return step;
   }
 }

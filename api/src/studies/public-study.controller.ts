@@ -1,7 +1,7 @@
 import { Controller, Get, Param } from '@nestjs/common';
 import { ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { Public } from '../common/auth/auth.decorators';
-import { DomainException } from '../common/errors/domain.exception';
+import { StudyException } from './study.exception';
 import { StepsService } from '../steps';
 import { PublicStudyDto } from './dto/screening.dto';
 import { StudiesService } from './studies.service';
@@ -21,7 +21,7 @@ export class PublicStudyController {
   async get(@Param('slug') slug: string): Promise<PublicStudyDto> {
     const study = /^[a-z0-9-]{1,80}$/.test(slug) ? await this.studies.findBySlug(slug) : null;
     if (!study || study.status === 'draft')
-      throw new DomainException('NOT_FOUND', 'There is no open study at this link.');
+      throw new StudyException('NOT_FOUND', 'There is no open study at this link.');
     const steps = await this.steps.list(study.id);
     const { eligibility } = await this.studies.screeningDefinition(study.id);
     return {

@@ -3,7 +3,8 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager } from 'typeorm';
 import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException, ValidationException } from '../common/errors/domain.exception';
+import { ValidationException } from '../common/errors/domain.exception';
+import { StudyException } from './study.exception';
 import { RandomizationService } from '../randomization';
 import type { StudyDesignSnapshot } from '../randomization';
 import { factorLevels } from '../randomization';
@@ -159,7 +160,7 @@ export class StudiesService {
       where: { id: studyId },
       ...(lock ? { lock: { mode: 'pessimistic_write' as const } } : {}),
     });
-    if (!study) throw new DomainException('NOT_FOUND', 'No such study.');
+    if (!study) throw new StudyException('NOT_FOUND', 'No such study.');
     return study;
   }
 
@@ -193,7 +194,7 @@ export class StudiesService {
   async create(actor: SessionUser, input: CreateStudyDto): Promise<StudyDto> {
     const study = await this.dataSource.transaction(async (manager) => {
       if (await manager.exists(StudyEntity, { where: { slug: input.slug } })) {
-        throw new DomainException('CONFLICT', 'Another study already uses this link name.', [
+        throw new StudyException('SLUG_TAKEN', 'Another study already uses this link name.', [
           { field: 'slug', message: 'is already taken' },
         ]);
       }
@@ -218,12 +219,12 @@ export class StudiesService {
     const study = await this.dataSource.transaction(async (manager) => {
       const current = await this.require(studyId, manager, true);
       if (current.archivedAt)
-        throw new DomainException(
-          'CONFLICT',
+        throw new StudyException(
+          'STUDY_ARCHIVED',
           'An archived study is kept as it was. Take it out of the archive to look at it; it stays closed.',
         );
       if (current.status === 'closed')
-        throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+        throw new StudyException('STUDY_SEALED', 'A closed study is sealed and cannot change.');
       const wanted = { ...input, ...(input.ethicsApprovalReference === '' ? { ethicsApprovalReference: null } : {}) };
       const assignedCount = await this.randomization.countAllocations(studyId, manager);
       const refused = refusedDetailChanges(
@@ -232,7 +233,7 @@ export class StudiesService {
         assignedCount,
       );
       if (refused.length > 0) {
-        throw new DomainException('STUDY_DETAIL_FIXED', refused.map((r) => r.message).join(' '), refused);
+        throw new StudyException('STUDY_DETAIL_FIXED', refused.map((r) => r.message).join(' '), refused);
       }
       const changes = Object.fromEntries(
         Object.entries(wanted).filter(([k, v]) => v !== undefined && (current as never)[k] !== v),
@@ -257,8 +258,8 @@ export class StudiesService {
     const study = await this.dataSource.transaction(async (manager) => {
       const current = await this.require(studyId, manager, true);
       if (!ALLOWED_TRANSITIONS[transition].includes(current.status)) {
-        throw new DomainException(
-          'CONFLICT',
+        throw new StudyException(
+          'STUDY_TRANSITION_NOT_ALLOWED',
           `A ${current.status} study cannot be ${transition === 'open' ? 'opened' : transition === 'pause' ? 'paused' : 'closed'}.`,
         );
       }
@@ -266,8 +267,8 @@ export class StudiesService {
         const checklist = await this.openingChecklist(studyId, manager);
         const missing = checklist.items.filter((item) => !item.met);
         if (missing.length > 0) {
-          throw new DomainException(
-            'CONFLICT',
+          throw new StudyException(
+            'STUDY_NOT_READY_TO_OPEN',
             `The study cannot open yet: ${missing.map((item) => item.detail).join('; ')}.`,
             missing.map((item) => ({ field: item.key, message: item.detail ?? item.label })),
           );
@@ -303,8 +304,8 @@ export class StudiesService {
     const study = await this.dataSource.transaction(async (manager) => {
       const current = await this.require(studyId, manager, true);
       if (archived && current.status !== 'closed') {
-        throw new DomainException(
-          'CONFLICT',
+        throw new StudyException(
+          'STUDY_NOT_CLOSED',
           `Only a closed study can be archived; this one is ${current.status}. Close it first.`,
         );
       }
@@ -436,7 +437,7 @@ export class StudiesService {
     const touchesAssignment = input.allocationWeight !== undefined;
     const apply = async (manager: EntityManager) => {
       const condition = await manager.findOne(ConditionEntity, { where: { id: conditionId, studyId } });
-      if (!condition) throw new DomainException('NOT_FOUND', 'No such condition in this study.');
+      if (!condition) throw new StudyException('NOT_FOUND', 'No such condition in this study.');
       if (input.internalName && input.internalName.toLowerCase() !== condition.internalName.toLowerCase()) {
         await this.refuseDuplicateConditionName(manager, studyId, input.internalName);
       }
@@ -457,7 +458,7 @@ export class StudiesService {
     return this.dataSource.transaction(async (manager) => {
       const study = await this.require(studyId, manager, true);
       if (study.status === 'closed')
-        throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+        throw new StudyException('STUDY_SEALED', 'A closed study is sealed and cannot change.');
       return apply(manager);
     });
   }
@@ -468,7 +469,7 @@ export class StudiesService {
       [studyId, name],
     );
     if (clash)
-      throw new DomainException('CONFLICT', 'Another condition already has this name.', [
+      throw new StudyException('CONDITION_NAME_TAKEN', 'Another condition already has this name.', [
         { field: 'internalName', message: 'is already used in this study' },
       ]);
   }
@@ -553,7 +554,7 @@ export class StudiesService {
     return this.dataSource.transaction(async (manager) => {
       const study = await this.require(studyId, manager, true);
       if (study.status === 'closed')
-        throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+        throw new StudyException('STUDY_SEALED', 'A closed study is sealed and cannot change.');
       await this.randomization.assertDesignUnlocked(manager, studyId, what);
       const result = await change(manager);
       if (study.status !== 'draft')
@@ -623,7 +624,7 @@ export class StudiesService {
     await this.dataSource.transaction(async (manager) => {
       const study = await this.require(studyId, manager, true);
       if (study.status === 'closed')
-        throw new DomainException('CONFLICT', 'A closed study is sealed and cannot change.');
+        throw new StudyException('STUDY_SEALED', 'A closed study is sealed and cannot change.');
       const factorKeys = (await manager.find(StratificationFactorEntity, { where: { studyId } })).map((f) => f.key);
       const clash = questions.find((q) => factorKeys.includes(q.key));
       if (clash)
@@ -678,13 +679,13 @@ export class StudiesService {
       await this.require(studyId, manager);
       const user = await manager.findOne(UserEntity, { where: { email: input.email } });
       if (!user || user.role === 'participant' || !user.active) {
-        throw new DomainException('NOT_FOUND', 'No active staff account has this e-mail.', [
+        throw new StudyException('NOT_FOUND', 'No active staff account has this e-mail.', [
           { field: 'email', message: 'is not an active staff account' },
         ]);
       }
       // A membership grants what the person's staff role allows, so the two must agree (admins may hold any).
       if (user.role !== 'admin' && user.role !== input.role) {
-        throw new DomainException(
+        throw new StudyException(
           'VALIDATION_FAILED',
           `${user.email} is a ${user.role}; add them to the study as a ${user.role}.`,
           [{ field: 'role', message: `must be ${user.role}, the person's staff role` }],
@@ -716,7 +717,7 @@ export class StudiesService {
         [studyId, userId],
       );
       if (!removed)
-        throw new DomainException('NOT_FOUND', 'This person is not a member of the study.', [
+        throw new StudyException('NOT_FOUND', 'This person is not a member of the study.', [
           { field: 'userId', message: 'is not a member' },
         ]);
       await this.audit.record(manager, {

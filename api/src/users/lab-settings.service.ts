@@ -3,7 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
 import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
+import { UserException } from './user.exception';
 import { queryRows } from '../database/raw-query';
 import { LabSettingsDto, UpdateLabSettingsDto } from './dto/lab-settings.dto';
 
@@ -44,8 +44,8 @@ export class LabSettingsService {
           [actor.id],
         );
         if (!own?.on) {
-          throw new DomainException(
-            'CONFLICT',
+          throw new UserException(
+            'TWO_FACTOR_OFF',
             'Turn on two-factor sign-in for your own account first, then require it of every admin.',
             [{ field: 'twoFactorRequiredForAdmins', message: 'needs your own two-factor sign-in turned on first' }],
           );

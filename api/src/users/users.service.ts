@@ -5,7 +5,7 @@ import { DataSource, EntityManager, In } from 'typeorm';
 import { queryRows } from '../database/raw-query';
 import { AuditService } from '../audit';
 import type { SessionUser } from '../common/auth/session-user';
-import { DomainException } from '../common/errors/domain.exception';
+import { UserException } from './user.exception';
 import {
   CreateStaffUserDto,
   ListUsersQueryDto,
@@ -71,14 +71,14 @@ export class UsersService {
   async changeOwnPassword(actor: SessionUser, currentPassword: string, newPassword: string): Promise<void> {
     const user = await this.users.findOne({ where: { id: actor.id } });
     if (!user || !user.passwordHash || user.role === 'participant')
-      throw new DomainException('FORBIDDEN', 'Only staff accounts have a password.');
+      throw new UserException('FORBIDDEN', 'Only staff accounts have a password.');
     if (!(await bcrypt.compare(currentPassword, user.passwordHash))) {
-      throw new DomainException('VALIDATION_FAILED', 'The current password is not right.', [
+      throw new UserException('VALIDATION_FAILED', 'The current password is not right.', [
         { field: 'currentPassword', message: 'is not your current password' },
       ]);
     }
     if (currentPassword === newPassword) {
-      throw new DomainException('VALIDATION_FAILED', 'Choose a password different from the current one.', [
+      throw new UserException('VALIDATION_FAILED', 'Choose a password different from the current one.', [
         { field: 'newPassword', message: 'must differ from the current password' },
       ]);
     }
@@ -145,7 +145,7 @@ export class UsersService {
 
   async getStaff(id: string): Promise<StaffUserDto> {
     const user = await this.users.findOne({ where: { id } });
-    if (!user || user.role === 'participant') throw new DomainException('NOT_FOUND', 'No staff member with this id.');
+    if (!user || user.role === 'participant') throw new UserException('NOT_FOUND', 'No staff member with this id.');
     return toStaffUserDto(user);
   }
 
@@ -153,7 +153,7 @@ export class UsersService {
     const passwordHash = await this.hashPassword(input.password);
     return this.dataSource.transaction(async (manager) => {
       if (await this.findByEmail(input.email, manager)) {
-        throw new DomainException('EMAIL_TAKEN', 'An account with this e-mail already exists.', [
+        throw new UserException('EMAIL_TAKEN', 'An account with this e-mail already exists.', [
           { field: 'email', message: 'An account with this e-mail already exists.' },
         ]);
       }
@@ -180,14 +180,14 @@ export class UsersService {
   async updateStaff(actor: SessionUser, id: string, input: UpdateStaffUserDto): Promise<StaffUserDto> {
     return this.dataSource.transaction(async (manager) => {
       const user = await manager.findOne(UserEntity, { where: { id }, lock: { mode: 'pessimistic_write' } });
-      if (!user || user.role === 'participant') throw new DomainException('NOT_FOUND', 'No staff member with this id.');
+      if (!user || user.role === 'participant') throw new UserException('NOT_FOUND', 'No staff member with this id.');
       if (user.id === actor.id && input.active === false) {
-        throw new DomainException('BAD_REQUEST', 'You cannot deactivate your own account.', [
+        throw new UserException('OWN_ACCOUNT_PROTECTED', 'You cannot deactivate your own account.', [
           { field: 'active', message: 'You cannot deactivate your own account.' },
         ]);
       }
       if (user.id === actor.id && input.role && input.role !== user.role) {
-        throw new DomainException('BAD_REQUEST', 'You cannot change your own role.', [
+        throw new UserException('OWN_ACCOUNT_PROTECTED', 'You cannot change your own role.', [
           { field: 'role', message: 'You cannot change your own role.' },
         ]);
       }

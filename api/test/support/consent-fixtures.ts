@@ -60,8 +60,8 @@ export async function signedInParticipant(
 }
 
 /**
- * A participant who signed in, joined the study, answered its screening (pretest 60) and signed `version` with
- * `typedName`; `me` is their enrollment as the portal reads it right after.
+ * A participant who signed in, joined the study, answered its screening (`screeningAnswers`, pretest 60 unless
+ * given) and signed `version` with `typedName`; `me` is their enrollment as the portal reads it right after.
  */
 export async function signedUpParticipant(
   testApp: TestApp,
@@ -69,11 +69,12 @@ export async function signedUpParticipant(
   version: { id: string; fingerprint: string },
   prefix: string,
   typedName: string,
+  screeningAnswers: Record<string, unknown> = { pretest: 60 },
 ) {
   const { browser, email } = await signedInParticipant(testApp, prefix);
   await expectStatus(browser.post(`/api/studies/${studyId}/enrollments/me`), 201);
   await expectStatus(
-    browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: { pretest: 60 } }),
+    browser.put(`/api/studies/${studyId}/enrollments/me/screening`).send({ answers: screeningAnswers }),
     200,
   );
   await expectStatus(

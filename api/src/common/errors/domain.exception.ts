@@ -1,5 +1,18 @@
 import { ErrorCode, FieldError } from './error-codes';
 
+/**
+ * Refusals any domain may answer with in the same sense: nothing there by that id, a field is wrong, the role does not
+ * allow it. A domain's own refusals get codes of their own in its exception (e.g. `study.exception.ts`).
+ */
+export type CommonRefusal =
+  | 'NOT_FOUND'
+  | 'VALIDATION_FAILED'
+  | 'FORBIDDEN'
+  | 'UNAUTHENTICATED'
+  | 'RATE_LIMITED'
+  | 'PAYLOAD_TOO_LARGE'
+  | 'UNSUPPORTED_MEDIA_TYPE';
+
 /** Base of every domain's exception; the problem filter turns it into the JSON error shape. */
 export class DomainException<Code extends ErrorCode = ErrorCode> extends Error {
   constructor(

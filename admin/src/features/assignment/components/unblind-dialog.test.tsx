@@ -75,7 +75,7 @@ describe('UnblindDialog', () => {
     stubApi({
       [unblindPath]: {
         status: 409,
-        body: { statusCode: 409, code: 'CONFLICT', message: 'This study has already been unblinded.' },
+        body: { statusCode: 409, code: 'ALREADY_UNBLINDED', message: 'This study has already been unblinded.' },
       },
     });
     const onUnblinded = vi.fn();

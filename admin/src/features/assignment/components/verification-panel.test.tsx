@@ -117,7 +117,7 @@ describe('VerificationPanel', () => {
         status: 409,
         body: {
           statusCode: 409,
-          code: 'CONFLICT',
+          code: 'SEED_STILL_SEALED',
           message: 'The seed is still sealed: verification is possible after closure or an audited unblinding.',
         },
       },

@@ -1,23 +1,24 @@
+import {
+  BETWEEN_METHODS,
+  DEFAULT_COIN_PROBABILITY,
+  MAX_BLOCK_SIZE,
+  MAX_SQUARES_PER_BLOCK,
+  WITHIN_DESIGNS,
+  blockSizeMultipleProblem,
+  conditionCountProblem,
+  isCoinProbability,
+  isWithinMethod,
+  totalWeight,
+  type SchemeMethod,
+} from '@evenhand/contract/schemas';
 import { parseWholeNumberList } from '@/lib/number-list';
 
-export type SchemeMethod =
-  | 'simple'
-  | 'permuted-blocks'
-  | 'stratified-blocks'
-  | 'minimization'
-  | 'matched-pairs'
-  | 'counterbalanced'
-  | 'latin-square'
-  | 'williams';
+// The rules themselves (limits, which sizes hold a ratio, how many conditions each design takes) are the contract's,
+// the same the api checks with; this file only words them for the form and puts each on its field.
+export { totalWeight, type SchemeMethod };
 
-export const betweenMethods: readonly SchemeMethod[] = [
-  'simple',
-  'permuted-blocks',
-  'stratified-blocks',
-  'minimization',
-  'matched-pairs',
-];
-export const withinMethods: readonly SchemeMethod[] = ['counterbalanced', 'latin-square', 'williams'];
+export const betweenMethods: readonly SchemeMethod[] = BETWEEN_METHODS;
+export const withinMethods: readonly SchemeMethod[] = WITHIN_DESIGNS;
 
 export function methodsFor(design: 'between' | 'within'): readonly SchemeMethod[] {
   return design === 'between' ? betweenMethods : withinMethods;
@@ -56,25 +57,20 @@ export interface SettingsIssue {
   message: string;
 }
 
-// Efron (1971, Biometrika 58:403–417) proposed the biased coin with p = 2/3; Pocock & Simon (1975, Biometrics
-// 31:103–115) assign the least-imbalanced treatment with such a probability. The api uses the same default
-// (api/src/randomization/scheme-parameters.ts, DEFAULT_COIN_PROBABILITY). From memory, as cited there.
+// The contract's DEFAULT_COIN_PROBABILITY (Efron's biased coin, 2/3), as the form shows it.
 export const defaultCoinProbabilityText = '2/3';
-
-export function totalWeight(weights: readonly number[]): number {
-  return weights.reduce((sum, weight) => sum + weight, 0);
-}
 
 /**
  * A block must hold every condition in its exact ratio, so its size is a multiple of the total weight: with weights
- * 1 : 1 : 1 the sizes 3, 6, 9 work and 4 does not (common practice for permuted blocks; the api refuses the same).
+ * 1 : 1 : 1 the sizes 3, 6, 9 work and 4 does not (the contract's blockSizeMultipleProblem, worded for the form).
  */
 export function blockSizeProblem(sizes: readonly number[], weights: readonly number[]): string | null {
   const total = totalWeight(weights);
   const seen = new Set<number>();
   for (const size of sizes) {
-    if (size > 1000) return `${size} is too large; use block sizes up to 1,000.`;
-    if (total > 0 && size % total !== 0) {
+    if (size > MAX_BLOCK_SIZE)
+      return `${size} is too large; use block sizes up to ${MAX_BLOCK_SIZE.toLocaleString('en-US')}.`;
+    if (blockSizeMultipleProblem(size, weights) !== null) {
       return `${size} is not a multiple of the total weight ${total} (${weights.join(' + ')}). A block must hold every condition in its ratio, so use ${[1, 2, 3].map((m) => m * total).join(', ')}, …`;
     }
     if (seen.has(size)) return `${size} is listed twice; list each size once.`;
@@ -134,7 +130,7 @@ export function checkSchemeSettings(values: SchemeFormValues, context: SchemeCon
   }
   if (method === 'minimization') {
     const p = parseProbability(values.coinProbability);
-    if (p === null || p < 0.5 || p > 1) {
+    if (p === null || !isCoinProbability(p)) {
       issues.push({
         path: 'coinProbability',
         message:
@@ -143,7 +139,7 @@ export function checkSchemeSettings(values: SchemeFormValues, context: SchemeCon
     }
   }
   if (method === 'matched-pairs') {
-    if (conditionCount !== 2)
+    if (conditionCountProblem(method, conditionCount) !== null)
       issues.push({
         path: 'method',
         message: `Matched pairs need exactly two conditions (this study has ${conditionCount}).`,
@@ -163,23 +159,27 @@ export function checkSchemeSettings(values: SchemeFormValues, context: SchemeCon
       });
     }
   }
-  if (method === 'counterbalanced' && conditionCount !== 2) {
+  const withinCountProblem = isWithinMethod(method) && conditionCountProblem(method, conditionCount) !== null;
+  if (method === 'counterbalanced' && withinCountProblem) {
     issues.push({
       path: 'method',
       message: `AB/BA counterbalancing needs exactly two conditions (this study has ${conditionCount}); use a Latin square or Williams design for three or more.`,
     });
   }
-  if ((method === 'latin-square' || method === 'williams') && conditionCount < 3) {
+  if ((method === 'latin-square' || method === 'williams') && withinCountProblem) {
     issues.push({
       path: 'method',
       message: `This design needs at least three conditions (this study has ${conditionCount}); use counterbalancing for two.`,
     });
   }
-  if (withinMethods.includes(method)) {
+  if (isWithinMethod(method)) {
     const squares = parseWholeNumberList(values.squaresPerBlock);
     if (!squares.ok) issues.push({ path: 'squaresPerBlock', message: squares.message });
-    else if (squares.values.some((count) => count > 100))
-      issues.push({ path: 'squaresPerBlock', message: 'Use at most 100 copies of the design per block.' });
+    else if (squares.values.some((count) => count > MAX_SQUARES_PER_BLOCK))
+      issues.push({
+        path: 'squaresPerBlock',
+        message: `Use at most ${MAX_SQUARES_PER_BLOCK} copies of the design per block.`,
+      });
     else if (new Set(squares.values).size !== squares.values.length)
       issues.push({ path: 'squaresPerBlock', message: 'A size is listed twice; list each once.' });
     if (values.stratify && factorCount === 0)
@@ -199,7 +199,10 @@ export function toSchemeSettings(values: SchemeFormValues): SchemeSettings {
     case 'stratified-blocks':
       return { blockSizes: whole(values.blockSizes) };
     case 'minimization':
-      return { measure: values.measure, coinProbability: parseProbability(values.coinProbability) ?? 2 / 3 };
+      return {
+        measure: values.measure,
+        coinProbability: parseProbability(values.coinProbability) ?? DEFAULT_COIN_PROBABILITY,
+      };
     case 'matched-pairs':
       return { pretestKey: values.pretestKey };
     case 'counterbalanced':
@@ -212,7 +215,7 @@ export function toSchemeSettings(values: SchemeFormValues): SchemeSettings {
 }
 
 function probabilityText(p: number | undefined): string {
-  if (p === undefined || Math.abs(p - 2 / 3) < 1e-12) return defaultCoinProbabilityText;
+  if (p === undefined || Math.abs(p - DEFAULT_COIN_PROBABILITY) < 1e-12) return defaultCoinProbabilityText;
   return String(p);
 }
 

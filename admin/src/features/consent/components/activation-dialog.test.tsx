@@ -60,7 +60,7 @@ describe('ActivationDialog', { timeout: 15_000 }, () => {
         status: 409,
         body: {
           statusCode: 409,
-          code: 'CONFLICT',
+          code: 'CONSENT_VERSION_NOT_READY',
           message: 'The version is not ready to activate.',
           errors: [
             { field: 'approvedAt', message: 'the approval date is required' },

@@ -79,7 +79,7 @@ describe('RefillDraftDialog', { timeout: 15_000 }, () => {
               status: 409,
               body: {
                 statusCode: 409,
-                code: 'CONFLICT',
+                code: 'CONSENT_VERSION_NOT_DRAFT',
                 message: 'Version 3 is active, so its text is fixed; create a new draft to change the wording.',
               },
             }

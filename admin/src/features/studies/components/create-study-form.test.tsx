@@ -111,7 +111,7 @@ describe('CreateStudyForm', () => {
         status: 409,
         body: {
           statusCode: 409,
-          code: 'CONFLICT',
+          code: 'SLUG_TAKEN',
           message: 'Another study already uses this link name.',
           errors: [{ field: 'slug', message: 'is already taken' }],
         },

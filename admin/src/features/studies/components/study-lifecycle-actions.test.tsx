@@ -38,7 +38,7 @@ describe('StudyLifecycleActions', () => {
         status: 409,
         body: {
           statusCode: 409,
-          code: 'CONFLICT',
+          code: 'STUDY_NOT_READY_TO_OPEN',
           message: 'The study cannot open yet: add at least two conditions; activate a consent version.',
           errors: [
             { field: 'conditions', message: 'add at least two conditions' },

@@ -121,7 +121,9 @@ export function StudyLifecycleActions({ study }: StudyLifecycleActionsProps) {
 
 function RefusalNotice({ error, transition }: { error: unknown; transition: StudyTransition }) {
   if (!(error instanceof ApiError)) return <Notice className="mt-3">The change could not be saved. Try again.</Notice>;
-  if (transition === 'open' && error.statusCode === 409 && error.fieldErrors.length > 0) {
+  // Both refusals name the opening checklist's items by key in errors[].
+  const checklistRefusal = error.code === 'STUDY_NOT_READY_TO_OPEN' || error.code === 'SCHEME_MISSING';
+  if (transition === 'open' && checklistRefusal && error.fieldErrors.length > 0) {
     const missing = missingOpeningItems(error.fieldErrors);
     return (
       <Notice className="mt-3">

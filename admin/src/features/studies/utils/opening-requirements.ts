@@ -16,7 +16,7 @@ export const openingRequirementPlaces: Record<string, string> = {
   consent: 'consent',
 };
 
-/** The items a refused opening names (409 with errors[]), each with its section's name and what is missing. */
+/** The items a refused opening names (STUDY_NOT_READY_TO_OPEN or SCHEME_MISSING, with errors[]), each with its section's name and what is missing. */
 export function missingOpeningItems(
   fieldErrors: readonly ApiFieldError[],
 ): { key: string; label: string; detail: string }[] {

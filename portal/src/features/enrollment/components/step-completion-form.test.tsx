@@ -182,7 +182,7 @@ describe('finishing a step with its completion code', () => {
     atSteps({
       [`POST ${completePath}`]: problemReply(
         409,
-        'CONFLICT',
+        'STEP_TAKES_NO_CODE',
         'This step has no completion code; the research team will check it off for you.',
       ),
     });
