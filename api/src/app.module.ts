@@ -19,7 +19,6 @@ import { StudiesModule } from './studies/studies.module';
 import { ConsentModule } from './consent/consent.module';
 import { RemindersModule } from './reminders/reminders.module';
 import { EnrollmentsModule } from './enrollments/enrollments.module';
-import { DocumentsModule } from './documents/documents.module';
 import { PayoutsModule } from './payouts/payouts.module';
 import { UsersModule } from './users/users.module';
 
@@ -42,7 +41,6 @@ import { UsersModule } from './users/users.module';
     ConsentModule,
     RemindersModule,
     EnrollmentsModule,
-    DocumentsModule,
     PayoutsModule,
     PaymentsModule,
     AttritionModule,

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { AuditService } from '../src/audit/audit.service';
-import { DocumentsService } from '../src/documents/documents.service';
+import { SignedCopyService } from '../src/consent/signed-copy/signed-copy.service';
 import { prepareToOpen } from './support/consent-fixtures';
 import { expectStatus } from './support/http';
 import { sessionFor } from './support/session';
@@ -31,7 +31,7 @@ describe('two api processes on one database', () => {
     const { studyId } = await draftBetweenStudy(coordinator);
     const version = await prepareToOpen(coordinator, studyId);
     await expectStatus(coordinator.post(`/api/studies/${studyId}/open`), 200);
-    const copiesMadeBy = [first, second].map((app) => vi.spyOn(app.app.get(DocumentsService), 'makeSignedCopy'));
+    const copiesMadeBy = [first, second].map((app) => vi.spyOn(app.app.get(SignedCopyService), 'makeSignedCopy'));
 
     const people = 40;
     const signers: Browser[] = [];

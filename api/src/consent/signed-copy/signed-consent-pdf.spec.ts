@@ -1,9 +1,9 @@
 import { createHash } from 'node:crypto';
 import { PNG } from 'pngjs';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { wayfindingConsentFields } from '../consent/consent-fields.fixture';
-import { fillConsentTemplate } from '../consent/consent-template';
-import { renderedConsentText, renderedTextFingerprint } from '../consent/consent-text';
+import { wayfindingConsentFields } from '../consent-fields.fixture';
+import { fillConsentTemplate } from '../consent-template';
+import { renderedConsentText, renderedTextFingerprint } from '../consent-text';
 import { DocumentError } from './document-error';
 import { extractPdfText } from './pdf-text.fixture';
 import { buildSignedConsentPdf, SignedConsentPdf, SignedConsentPdfInput } from './signed-consent-pdf';

@@ -20,10 +20,10 @@ import { pdflibAddPlaceholder } from '@signpdf/placeholder-pdf-lib';
 import { P12Signer } from '@signpdf/signer-p12';
 import { SignPdf } from '@signpdf/signpdf';
 import { PDFDocument, PDFImage } from 'pdf-lib';
-import { consentTextBlocks, TextRun } from '../consent';
-import { isFingerprint, renderedTextFingerprint } from '../consent';
-import { describeSigningTime } from '../consent';
-import type { FieldError } from '../consent';
+import { consentTextBlocks, TextRun } from '../consent-markdown';
+import { isFingerprint, renderedTextFingerprint } from '../consent-text';
+import { describeSigningTime } from '../study-formatting';
+import type { FieldError } from '../consent-error';
 import { DocumentError, DocumentErrorCode } from './document-error';
 import { MARGIN, MUTED, PdfWriter, RULE, TextStyle } from './pdf-layout';
 

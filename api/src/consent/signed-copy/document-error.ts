@@ -1,5 +1,5 @@
-import type { FieldError } from '../common/errors/error-codes';
-import { InvalidInputError } from '../common/errors/invalid-input.error';
+import type { FieldError } from '../../common/errors/error-codes';
+import { InvalidInputError } from '../../common/errors/invalid-input.error';
 
 export enum DocumentErrorCode {
   InvalidInput = 'invalid-input',

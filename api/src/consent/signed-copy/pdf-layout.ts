@@ -3,7 +3,7 @@
  * footers drawn once the page count is known.
  */
 import { PDFDocument, PDFFont, PDFPage, rgb } from 'pdf-lib';
-import type { TextRun } from '../consent';
+import type { TextRun } from '../consent-markdown';
 
 export const PAGE_SIZE: [number, number] = [612, 792]; // US Letter, in points
 export const MARGIN = { top: 64, bottom: 72, left: 64, right: 64 };

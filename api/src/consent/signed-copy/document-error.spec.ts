@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { toProblem } from '../common/errors/problem.filter';
+import { toProblem } from '../../common/errors/problem.filter';
 import { DocumentError, DocumentErrorCode } from './document-error';
 
 describe('DocumentError in the problem filter', () => {

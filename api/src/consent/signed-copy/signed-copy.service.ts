@@ -1,15 +1,15 @@
 import { Injectable, Logger, OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource } from 'typeorm';
-import { DocumentException } from './document.exception';
-import { AppConfig, DEVELOPMENT_SIGNING_PASSPHRASE } from '../config/app-config';
-import { renderEmail } from '../consent';
-import { ConsentService } from '../consent';
-import { describeSigningTime } from '../consent';
-import { JOB_NAMES, JobQueueService } from '../jobs/job-queue.service';
-import { MailService } from '../mail/mail.service';
-import { SignedCopyRecipientsReadModel } from '../reporting';
-import { StudiesService } from '../studies';
+import { ConsentException } from '../consent.exception';
+import { AppConfig, DEVELOPMENT_SIGNING_PASSPHRASE } from '../../config/app-config';
+import { renderEmail } from '../consent-emails';
+import { ConsentService } from '../consent.service';
+import { describeSigningTime } from '../study-formatting';
+import { JOB_NAMES, JobQueueService } from '../../jobs/job-queue.service';
+import { MailService } from '../../mail/mail.service';
+import { SignedCopyRecipientsReadModel } from '../../reporting';
+import { StudiesService } from '../../studies';
 import { buildSignedConsentPdf, PdfSealIdentity } from './signed-consent-pdf';
 import { loadSigningIdentity } from './signing-certificate';
 
@@ -19,8 +19,8 @@ import { loadSigningIdentity } from './signing-certificate';
  * its SHA-256 is kept. Runs as a job; each part is skipped when already done, so a retry never sends twice.
  */
 @Injectable()
-export class DocumentsService implements OnModuleInit {
-  private readonly logger = new Logger('Documents');
+export class SignedCopyService implements OnModuleInit {
+  private readonly logger = new Logger('SignedCopy');
   private identity: PdfSealIdentity | null = null;
 
   constructor(
@@ -57,7 +57,7 @@ export class DocumentsService implements OnModuleInit {
       return;
     }
     const enrollment = await this.recipients.of(signature.enrollmentId);
-    if (!enrollment) throw new DocumentException('NOT_FOUND', 'No such enrollment.');
+    if (!enrollment) throw new ConsentException('NOT_FOUND', 'No such enrollment.');
     const study = await this.studies.require(enrollment.studyId);
     const version = await this.consent.get(enrollment.studyId, signature.consentVersionId);
     let pdf = signature.pdf;

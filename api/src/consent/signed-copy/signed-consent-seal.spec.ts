@@ -2,9 +2,9 @@ import { execFileSync } from 'node:child_process';
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { wayfindingConsentFields } from '../consent/consent-fields.fixture';
-import { fillConsentTemplate } from '../consent/consent-template';
-import { renderedConsentText, renderedTextFingerprint } from '../consent/consent-text';
+import { wayfindingConsentFields } from '../consent-fields.fixture';
+import { fillConsentTemplate } from '../consent-template';
+import { renderedConsentText, renderedTextFingerprint } from '../consent-text';
 import { buildSignedConsentPdf, PdfSealIdentity, SignedConsentPdfInput } from './signed-consent-pdf';
 import { createDevelopmentP12, loadSigningIdentity } from './signing-certificate';
 
@@ -30,7 +30,7 @@ const input: SignedConsentPdfInput = {
 };
 
 // Temporary files stay in the checkout's git-ignored folder.
-const dir = mkdtempSync(join(resolve(__dirname, '../../../.local/tmp'), 'seal-'));
+const dir = mkdtempSync(join(resolve(__dirname, '../../../../.local/tmp'), 'seal-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 /** Outside check: pdfsig from Debian's poppler-utils (exits 0 either way, so its text is what counts). */
