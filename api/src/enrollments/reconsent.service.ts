@@ -3,7 +3,7 @@ import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager } from 'typeorm';
 import { AuditActor, AuditService } from '../audit';
 import { AppConfig } from '../config/app-config';
-import { ConsentService, ConsentVersionEntity, renderEmail } from '../consent';
+import { consentChangeParagraph, ConsentService, ConsentVersionEntity, renderEmail } from '../consent';
 import { MailService } from '../mail/mail.service';
 import { ContactsService } from '../reminders';
 import { RosterReadModel } from '../reporting';
@@ -66,7 +66,13 @@ export class ReconsentService implements OnModuleInit {
       const active = await this.consent.activeVersion(studyId, manager);
       if (!active) return 0;
       const recipients = await this.rosterReads.toAskForReconsent(manager, studyId, active.id);
+      // People who signed different earlier versions are told what changed since their own.
+      const summaries = new Map<string | null, string>();
       for (const recipient of recipients) {
+        if (!summaries.has(recipient.signedVersionId)) {
+          const changes = await this.consent.changesSince(recipient.signedVersionId, active, manager);
+          summaries.set(recipient.signedVersionId, consentChangeParagraph(changes));
+        }
         const email = renderEmail('email/re-consent-request', {
           participantName: recipient.displayName,
           studyTitle: study.title,
@@ -76,7 +82,7 @@ export class ReconsentService implements OnModuleInit {
           portalUrl: new URL(`/s/${study.slug}`, this.config.portalUrl).toString(),
           formVersion: active.version,
           ethicsBoardName: 'the ethics board',
-          changeSummary: 'The research team has updated the consent form for this study.',
+          changeSummary: summaries.get(recipient.signedVersionId) as string,
         });
         await this.mail.enqueue(manager, {
           to: recipient.email,
