@@ -47,18 +47,22 @@ describe('the main staff pages fit a phone', () => {
     await page.getByRole('link', { name: 'Wayfinding cues' }).first().click();
     await page.getByRole('heading', { name: 'Wayfinding cues', level: 1 }).waitFor();
     for (const [path, tab] of studyTabs) {
+      const before = await page.locator('main').innerText();
       await page.getByRole('link', { name: tab, exact: true }).first().click();
       await page.waitForURL((url) => url.pathname.endsWith(`/${path}`));
-      await page
-        .getByText(/^Loading/)
-        .first()
-        .waitFor({ state: 'detached' });
+      // The tab's own content has replaced the last one's (its code may still have been on its way).
+      await expect.poll(() => page.locator('main').innerText(), { timeout: 30_000 }).not.toBe(before);
+      // Measure the loaded page, tables included, not its loading state.
+      await page.waitForLoadState('networkidle');
+      await expect.poll(() => page.getByText(/^Loading/).count(), { timeout: 30_000 }).toBe(0);
       await screenshot(page, journey, `study-${path}`);
       expect(await pageWidth(browser), tab).toBeLessThanOrEqual(phoneViewport.width);
     }
 
     await page.getByRole('link', { name: 'Audit trail', exact: true }).click();
     await page.getByRole('heading', { level: 1 }).first().waitFor();
+    await page.waitForLoadState('networkidle');
+    await expect.poll(() => page.getByText(/^Loading/).count(), { timeout: 30_000 }).toBe(0);
     await screenshot(page, journey, 'audit');
     expect(await pageWidth(browser)).toBeLessThanOrEqual(phoneViewport.width);
   });
