@@ -453,6 +453,27 @@ describe('dry run', () => {
     for (const stratum of result.strata) expect(stratum.imbalance).toBeLessThanOrEqual(2);
   });
 
+  it('starts from an even mix before anyone is screened and from the screened people’s answers after', async () => {
+    const { studyId } = await draftBetweenStudy(researcher, { cutPoints: [40, 60] });
+    const before = await expectStatus(researcher.get(`/api/studies/${studyId}/assignment/dry-run/starting-mix`), 200);
+    expect(before).toEqual({ basis: 'even', people: 0, mix: { pretest: { kind: 'normal', mean: 50, sd: 20 } } });
+
+    await insertEnrollments(testApp, studyId, [{ pretest: 50 }, { pretest: 60 }, { pretest: 70 }, { pretest: 80 }]);
+    const after = await expectStatus(researcher.get(`/api/studies/${studyId}/assignment/dry-run/starting-mix`), 200);
+    // Mean 65; sample SD √(500 / 3) ≈ 12.91.
+    expect(after).toEqual({ basis: 'observed', people: 4, mix: { pretest: { kind: 'normal', mean: 65, sd: 12.91 } } });
+  });
+
+  it('runs with one click: no covariate mix given means the starting mix', async () => {
+    const { studyId } = await draftBetweenStudy(researcher);
+    const result = await expectStatus(
+      researcher.post(`/api/studies/${studyId}/assignment/dry-run`).send({ arrivals: 200 }),
+      200,
+    );
+    expect(result.arrivals).toBe(200);
+    expect(result.factorLevels.map((level: { factorId: string }) => level.factorId)).toContain('pretest');
+  });
+
   it('names a missing covariate distribution', async () => {
     const { studyId } = await draftBetweenStudy(researcher);
     const body = await expectStatus(

@@ -636,6 +636,87 @@ describe('signing', () => {
   });
 });
 
+describe('the ethics approval date', () => {
+  it('refuses a date after today with 400 naming the field, and keeps the draft as it was', async () => {
+    const studyId = await draftWithStep();
+    const draft = await expectStatus(
+      coordinator
+        .post(`/api/studies/${studyId}/consent-versions`)
+        .send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
+      201,
+    );
+    // Two days ahead is tomorrow in every time zone on Earth.
+    const later = new Date(Date.now() + 2 * 86_400_000).toISOString().slice(0, 10);
+    const refused = await expectStatus(
+      coordinator
+        .patch(`/api/studies/${studyId}/consent-versions/${draft.id}`)
+        .send({ approvalReference: 'HLREB-2026-099', approvedAt: later }),
+      400,
+      'VALIDATION_FAILED',
+    );
+    expect(refused.errors).toEqual([{ field: 'approvedAt', message: expect.stringMatching(/future/) }]);
+    const kept = await expectStatus(coordinator.get(`/api/studies/${studyId}/consent-versions/${draft.id}`), 200);
+    expect(kept).toMatchObject({ approvalReference: null, approvedAt: null });
+
+    const today = new Date().toISOString().slice(0, 10);
+    const saved = await expectStatus(
+      coordinator
+        .patch(`/api/studies/${studyId}/consent-versions/${draft.id}`)
+        .send({ approvalReference: 'HLREB-2026-099', approvedAt: today }),
+      200,
+    );
+    expect(saved.approvedAt).toBe(today);
+  });
+});
+
+describe('what a re-consent request says changed', () => {
+  it('lists the changes since the version the person signed, in the e-mail and with the form they are asked to sign', async () => {
+    const { studyId, version } = await recruitingStudy();
+    const { browser, email } = await signedInParticipant(testApp, 'reconsent-summary');
+    await joinAndScreen(browser, studyId);
+    await expectStatus(
+      browser
+        .post(`/api/studies/${studyId}/enrollments/me/signature`)
+        .send({ versionId: version.id, fingerprint: version.fingerprint, typedName: 'Sam Example' }),
+      201,
+    );
+    const firstView = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me/consent`), 200);
+    expect(firstView.changesSinceSigned).toEqual([]);
+
+    const draft = await expectStatus(
+      coordinator.post(`/api/studies/${studyId}/consent-versions`).send({
+        templateId: 'consent/minimal-risk-paid-study',
+        values: { ...FULL_CONSENT_VALUES, paymentDays: 7, dataRetentionYears: 10 },
+      }),
+      201,
+    );
+    await expectStatus(
+      coordinator
+        .patch(`/api/studies/${studyId}/consent-versions/${draft.id}`)
+        .send({ approvalReference: 'HLREB-2026-031-A2', approvedAt: '2026-11-27' }),
+      200,
+    );
+    await expectStatus(
+      coordinator
+        .post(`/api/studies/${studyId}/consent-versions/${draft.id}/approval-letter`)
+        .attach('letter', TINY_PDF, 'approval.pdf'),
+      200,
+    );
+    await expectStatus(coordinator.post(`/api/studies/${studyId}/consent-versions/${draft.id}/activate`), 200);
+
+    const expected = [
+      'Payment is now sent within 7 days of a confirmed step (it was 14 days).',
+      'Your records are now kept for 10 years after the study ends (it was 5 years).',
+    ];
+    const view = await expectStatus(browser.get(`/api/studies/${studyId}/enrollments/me/consent`), 200);
+    expect(view.changesSinceSigned).toEqual(expected);
+
+    await expectStatus(coordinator.post(`/api/studies/${studyId}/enrollments/reconsent-reminders`), 200);
+    const mail = await waitForMail(email, 20_000, /updated consent form/);
+    for (const line of expected) expect(mail.text.replace(/\s+/g, ' ')).toContain(line);
+  });
+});
+
 describe('roster', () => {
   it('imports a CSV with a row-by-row report, invites, and shows the record', async () => {
     const { studyId } = await recruitingStudy();

@@ -18,6 +18,8 @@ import { ConsentVersionEntity } from './entities/consent-version.entity';
 import { SignatureEntity } from './entities/signature.entity';
 import { estimateReadingTime } from './reading-time';
 import { checkRequiredElements } from './required-elements-check';
+import { isFutureApprovalDate } from './approval-date';
+import { summarizeConsentChanges } from './consent-changes';
 
 export const MAX_APPROVAL_LETTER_BYTES = 10 * 1024 * 1024;
 /** The meaning of the signature, stated beside the button and printed on the signed copy (21 CFR 11.50(a)(3)). */
@@ -270,6 +272,11 @@ export class ConsentService {
           ]);
         }
       }
+      if (input.approvedAt !== undefined && isFutureApprovalDate(input.approvedAt)) {
+        throw new ConsentException('VALIDATION_FAILED', 'The approval date cannot be in the future.', [
+          { field: 'approvedAt', message: 'is in the future: enter the date printed on the approval letter' },
+        ]);
+      }
       const changes = givenFields(input);
       Object.assign(version, changes);
       const saved = await manager.save(version);
@@ -437,6 +444,22 @@ export class ConsentService {
       .where("v.study_id = :studyId AND v.status = 'active'", { studyId });
     if (lock) builder.setLock('pessimistic_read');
     return builder.getOne();
+  }
+
+  /**
+   * What changed between the version someone signed and a newer one, in plain sentences (empty when they signed
+   * this one, or signed none).
+   */
+  async changesSince(
+    signedVersionId: string | null,
+    current: ConsentVersionEntity,
+    manager: EntityManager = this.dataSource.manager,
+  ): Promise<string[]> {
+    if (!signedVersionId || signedVersionId === current.id) return [];
+    const signed = await manager.findOne(ConsentVersionEntity, {
+      where: { id: signedVersionId, studyId: current.studyId },
+    });
+    return signed ? summarizeConsentChanges(signed, current) : [];
   }
 
   participantView(version: ConsentVersionEntity): {

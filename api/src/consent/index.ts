@@ -3,6 +3,7 @@
 export type { FieldError } from './consent-error';
 export { ConsentError, ConsentErrorCode } from './consent-error';
 export * from './consent-text';
+export * from './consent-changes';
 export * from './consent-markdown';
 export * from './consent-outline';
 export * from './consent-template';

@@ -186,10 +186,13 @@ export class ParticipationService {
   }
 
   async consentToSign(user: SessionUser, studyId: string) {
-    await requireMine(this.dataSource.manager, user, studyId);
+    const enrollment = await requireMine(this.dataSource.manager, user, studyId);
     const active = await this.consent.activeVersion(studyId);
     if (!active) throw new EnrollmentException('NOT_FOUND', 'The consent form for this study is not available yet.');
-    return this.consent.participantView(active);
+    return {
+      ...this.consent.participantView(active),
+      changesSinceSigned: await this.consent.changesSince(enrollment.signedVersionId, active),
+    };
   }
 
   async myPdf(user: SessionUser, studyId: string) {

@@ -2,7 +2,7 @@ import { Injectable, OnModuleInit } from '@nestjs/common';
 import { InjectDataSource } from '@nestjs/typeorm';
 import { DataSource, EntityManager } from 'typeorm';
 import { AuditActor, AuditService } from '../audit';
-import { ConsentService, ConsentVersionEntity } from '../consent';
+import { consentChangeParagraph, ConsentService, ConsentVersionEntity } from '../consent';
 import { ContactsService } from '../reminders';
 import { RosterReadModel } from '../reporting';
 import { StudiesService } from '../studies';
@@ -62,7 +62,13 @@ export class ReconsentService implements OnModuleInit {
       const active = await this.consent.activeVersion(studyId, manager);
       if (!active) return 0;
       const recipients = await this.rosterReads.toAskForReconsent(manager, studyId, active.id);
+      // People who signed different earlier versions are told what changed since their own.
+      const summaries = new Map<string | null, string>();
       for (const recipient of recipients) {
+        if (!summaries.has(recipient.signedVersionId)) {
+          const changes = await this.consent.changesSince(recipient.signedVersionId, active, manager);
+          summaries.set(recipient.signedVersionId, consentChangeParagraph(changes));
+        }
         await this.contacts.sendEmail(manager, {
           study,
           recipient,
@@ -70,7 +76,7 @@ export class ReconsentService implements OnModuleInit {
           view: {
             formVersion: active.version,
             ethicsBoardName: 'the ethics board',
-            changeSummary: 'The research team has updated the consent form for this study.',
+            changeSummary: summaries.get(recipient.signedVersionId) as string,
           },
           kind: 'reconsent-request',
           sentBy: actor.id,

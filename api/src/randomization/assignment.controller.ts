@@ -6,6 +6,7 @@ import {
   type AssignmentSchemeRequest,
   type DryRunRequest,
   type DryRunResult,
+  type DryRunStartingMix,
 } from '@evenhand/contract/schemas';
 import { ApiBody, ApiOkResponse, ApiTags } from '@nestjs/swagger';
 import { InjectDataSource } from '@nestjs/typeorm';
@@ -15,12 +16,14 @@ import type { SessionUser } from '../common/auth/session-user';
 import { RandomizationException } from './randomization.exception';
 import { CheckedBody } from '../common/http/checked-body';
 import { uuidParam } from '../common/http/uuid-param';
+import { ScreenedCovariatesReadModel } from '../reporting';
 import { StudiesService } from '../studies';
 import { StudyMembersOnly } from '../studies';
 import { AssignmentDto, UnblindDto, VerificationDto } from './dto/assignment.dto';
 import { RandomizationService } from './randomization.service';
 import { parseSchemeParameters, SchemeMethod } from './scheme-parameters';
 import { generateSeed } from './seeded-stream';
+import { startingCovariateMix } from './starting-mix';
 import { PRETEST_CUTOFF_EXPLANATION } from './strata';
 import type { SchemeSettings } from './study-design-snapshot';
 
@@ -32,6 +35,7 @@ export class AssignmentController {
     @InjectDataSource() private readonly dataSource: DataSource,
     private readonly randomization: RandomizationService,
     private readonly studies: StudiesService,
+    private readonly screenedCovariates: ScreenedCovariatesReadModel,
   ) {}
 
   @Put('assignment-scheme')
@@ -77,6 +81,14 @@ export class AssignmentController {
     };
   }
 
+  @Get('assignment/dry-run/starting-mix')
+  @Roles('coordinator', 'researcher', 'admin')
+  @ApiOkResponse({ schema: schemaRef('DryRunStartingMix') })
+  async startingMix(@Param('studyId', uuidParam('studyId')) studyId: string): Promise<DryRunStartingMix> {
+    const snapshot = await this.studies.designSnapshot(studyId);
+    return startingCovariateMix(snapshot.factors, await this.screenedCovariates.of(studyId));
+  }
+
   @Post('assignment/dry-run')
   @HttpCode(200)
   @Roles('coordinator', 'researcher', 'admin')
@@ -96,10 +108,13 @@ export class AssignmentController {
     const settings = (body.method ? (body.settings ?? {}) : (saved?.settings ?? {})) as SchemeSettings;
     // A throwaway seed, returned so the same simulation can be run again; never the study's sealed seed.
     const seed = body.seed?.toLowerCase() ?? generateSeed();
+    // No mix given: start from the people screened so far, or an even mix (as the starting-mix route shows).
+    const covariateMix =
+      body.covariateMix ?? startingCovariateMix(snapshot.factors, await this.screenedCovariates.of(studyId)).mix;
     const result = this.randomization.dryRun(method, settings, snapshot, {
       arrivals: body.arrivals,
       seed,
-      covariateMix: body.covariateMix,
+      covariateMix,
     });
     return { ...result, seed };
   }

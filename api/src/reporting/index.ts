@@ -6,4 +6,5 @@ export * from './participant-payouts.read-model';
 export * from './payout-queue.read-model';
 export * from './reporting.module';
 export * from './roster.read-model';
+export * from './screened-covariates.read-model';
 export * from './signed-copy-recipients.read-model';

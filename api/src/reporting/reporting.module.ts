@@ -4,6 +4,7 @@ import { FinanceReadModel } from './finance.read-model';
 import { ParticipantPayoutsReadModel } from './participant-payouts.read-model';
 import { PayoutQueueReadModel } from './payout-queue.read-model';
 import { RosterReadModel } from './roster.read-model';
+import { ScreenedCovariatesReadModel } from './screened-covariates.read-model';
 import { SignedCopyRecipientsReadModel } from './signed-copy-recipients.read-model';
 
 const READ_MODELS = [
@@ -12,6 +13,7 @@ const READ_MODELS = [
   ParticipantPayoutsReadModel,
   PayoutQueueReadModel,
   RosterReadModel,
+  ScreenedCovariatesReadModel,
   SignedCopyRecipientsReadModel,
 ];
 

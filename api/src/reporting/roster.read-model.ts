@@ -94,12 +94,18 @@ export class RosterReadModel {
     manager: EntityManager,
     studyId: string,
     activeVersionId: string,
-  ): Promise<RosterRecipient[]> {
-    const rows: Array<{ id: string; email: string; display_name: string | null }> = await manager.query(
-      `SELECT e.id, u.email, e.display_name FROM enrollment e JOIN user_account u ON u.id = e.participant_id
+  ): Promise<Array<RosterRecipient & { signedVersionId: string | null }>> {
+    const rows: Array<{ id: string; email: string; display_name: string | null; signed_version_id: string | null }> =
+      await manager.query(
+        `SELECT e.id, u.email, e.display_name, e.signed_version_id FROM enrollment e JOIN user_account u ON u.id = e.participant_id
        WHERE e.study_id = $1 AND e.status IN ('assigned','active') AND e.signed_version_id IS DISTINCT FROM $2`,
-      [studyId, activeVersionId],
-    );
-    return rows.map((r) => ({ enrollmentId: r.id, email: r.email, displayName: r.display_name }));
+        [studyId, activeVersionId],
+      );
+    return rows.map((r) => ({
+      enrollmentId: r.id,
+      email: r.email,
+      displayName: r.display_name,
+      signedVersionId: r.signed_version_id,
+    }));
   }
 }

@@ -139,6 +139,7 @@ export function consentToSign(overrides: Partial<ConsentToSign> = {}): ConsentTo
     ],
     signatureMeaning: 'I have read this form and agree to take part',
     approval: { reference: 'HLREB-2026-014', approvedAt: '2026-01-12T15:00:00.000Z' },
+    changesSinceSigned: [],
     ...overrides,
   };
 }

@@ -45,7 +45,9 @@ export const dialogRecipe = {
 };
 
 export const tableRecipe = {
-  frame: 'overflow-x-auto rounded-lg border border-line bg-surface shadow-raised',
+  // `relative`: screen-reader-only text in a cell is positioned absolutely; without a positioned frame it is placed
+  // against the page and widens it past a phone's screen instead of scrolling inside the frame.
+  frame: 'relative overflow-x-auto rounded-lg border border-line bg-surface shadow-raised',
   table: 'w-full border-collapse text-sm',
   headCell:
     'border-b border-line bg-sunken px-3 py-2 text-left text-2xs font-semibold tracking-wide text-ink-muted uppercase',

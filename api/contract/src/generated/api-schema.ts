@@ -756,6 +756,22 @@ export interface paths {
         patch?: never;
         trace?: never;
     };
+    "/api/studies/{studyId}/assignment/dry-run/starting-mix": {
+        parameters: {
+            query?: never;
+            header?: never;
+            path?: never;
+            cookie?: never;
+        };
+        get: operations["AssignmentController_startingMix"];
+        put?: never;
+        post?: never;
+        delete?: never;
+        options?: never;
+        head?: never;
+        patch?: never;
+        trace?: never;
+    };
     "/api/studies/{studyId}/assignment/dry-run": {
         parameters: {
             query?: never;
@@ -2545,6 +2561,8 @@ export interface components {
             sections: components["schemas"]["ReadingSectionDto"][];
             signatureMeaning: string;
             approval: components["schemas"]["ApprovalDto"];
+            /** @description What changed since the version this person signed, in plain sentences; empty on a first signing */
+            changesSinceSigned: string[];
         };
         SignConsentDto: {
             /** Format: uuid */
@@ -3777,8 +3795,8 @@ export interface components {
             arrivals: number;
             /** @description 64 hex characters; a fresh throwaway seed when omitted. Never the study’s sealed seed. */
             seed?: string;
-            /** @description One distribution per covariate the scheme uses, keyed by covariate id */
-            covariateMix: {
+            /** @description One distribution per covariate the scheme uses, keyed by covariate id; when omitted, the starting mix (GET …/assignment/dry-run/starting-mix) */
+            covariateMix?: {
                 [key: string]: components["schemas"]["CovariateDistribution"];
             };
             /**
@@ -3788,6 +3806,19 @@ export interface components {
             method?: "simple" | "permuted-blocks" | "stratified-blocks" | "minimization" | "matched-pairs" | "counterbalanced" | "latin-square" | "williams";
             /** @description Settings for `method`, as in PUT assignment-scheme */
             settings?: components["schemas"]["SchemeSettings"];
+        };
+        DryRunStartingMix: {
+            /**
+             * @description `observed`: the answers of the people screened so far; `even`: nobody screened yet
+             * @enum {string}
+             */
+            basis: "observed" | "even";
+            /** @description How many screened people answered at least one stratification question */
+            people: number;
+            /** @description One distribution per factor key */
+            mix: {
+                [key: string]: components["schemas"]["CovariateDistribution"];
+            };
         };
         DryRunResult: {
             arrivals: number;
@@ -5302,6 +5333,27 @@ export interface operations {
                 };
                 content: {
                     "application/json": components["schemas"]["AssignmentDto"];
+                };
+            };
+        };
+    };
+    AssignmentController_startingMix: {
+        parameters: {
+            query?: never;
+            header?: never;
+            path: {
+                studyId: string;
+            };
+            cookie?: never;
+        };
+        requestBody?: never;
+        responses: {
+            200: {
+                headers: {
+                    [name: string]: unknown;
+                };
+                content: {
+                    "application/json": components["schemas"]["DryRunStartingMix"];
                 };
             };
         };

@@ -46,7 +46,11 @@ export const dryRunRequestSchema = z
         }),
       covariateMix: z
         .record(z.string(), covariateDistributionSchema, { error: 'must be an object keyed by covariate id' })
-        .meta({ description: 'One distribution per covariate the scheme uses, keyed by covariate id' }),
+        .optional()
+        .meta({
+          description:
+            'One distribution per covariate the scheme uses, keyed by covariate id; when omitted, the starting mix (GET …/assignment/dry-run/starting-mix)',
+        }),
       method: z
         .enum(SCHEME_METHODS, { error: `must be one of ${SCHEME_METHODS.join(', ')}` })
         .optional()
@@ -60,6 +64,19 @@ export const dryRunRequestSchema = z
   .meta({ id: 'DryRunRequest' });
 
 export type DryRunRequest = z.input<typeof dryRunRequestSchema>;
+
+/** Where a dry run's covariate mix starts: the people screened so far, or an even mix before anyone is. */
+export const dryRunStartingMixSchema = z
+  .object({
+    basis: z.enum(['observed', 'even']).meta({
+      description: '`observed`: the answers of the people screened so far; `even`: nobody screened yet',
+    }),
+    people: z.int().meta({ description: 'How many screened people answered at least one stratification question' }),
+    mix: z.record(z.string(), covariateDistributionSchema).meta({ description: 'One distribution per factor key' }),
+  })
+  .meta({ id: 'DryRunStartingMix' });
+
+export type DryRunStartingMix = z.output<typeof dryRunStartingMixSchema>;
 
 const imbalanceSummary = z.object({ overall: z.number(), inStratum: z.number(), inFactorLevel: z.number() });
 

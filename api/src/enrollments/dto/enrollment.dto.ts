@@ -211,6 +211,11 @@ export class ConsentToSignDto {
   @ApiProperty({ type: [ReadingSectionDto] }) sections: ReadingSectionDto[];
   @ApiProperty() signatureMeaning: string;
   @ApiProperty({ type: ApprovalDto }) approval: ApprovalDto;
+  @ApiProperty({
+    type: [String],
+    description: 'What changed since the version this person signed, in plain sentences; empty on a first signing',
+  })
+  changesSinceSigned: string[];
 }
 
 export class SignConsentDto {

@@ -1,3 +1,4 @@
+import { useMemo } from 'react';
 import { Navigate, Outlet, useLocation, useNavigate } from 'react-router-dom';
 import { StaffLayout } from '@/components/layouts/staff-layout';
 import { Button } from '@/components/ui/button';
@@ -16,6 +17,12 @@ export function Component() {
   const signOut = useSignOut();
 
   const leave = () => signOut.mutate(undefined, { onSettled: () => navigate('/sign-in', { replace: true }) });
+  // <Navigate> navigates again whenever its `state` is a new object; a fresh literal each render looped (React's
+  // "Maximum update depth exceeded") for as long as the sign-in page's code took to load.
+  const returnState = useMemo(
+    () => ({ from: `${location.pathname}${location.search}` }),
+    [location.pathname, location.search],
+  );
 
   if (me.isPending) return <LoadingState label="Checking your session…" className="min-h-dvh" />;
   if (me.isError) {
@@ -32,7 +39,7 @@ export function Component() {
     );
   }
   if (me.data === null) {
-    return <Navigate to="/sign-in" replace state={{ from: `${location.pathname}${location.search}` }} />;
+    return <Navigate to="/sign-in" replace state={returnState} />;
   }
 
   const role = me.data.role;

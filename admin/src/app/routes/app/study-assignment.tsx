@@ -4,6 +4,7 @@ import { Button } from '@/components/ui/button';
 import { Panel } from '@/components/ui/panel';
 import { EmptyState, ErrorState, LoadingState, Notice } from '@/components/ui/states';
 import { useAssignment } from '@/features/assignment/api/get-assignment';
+import { useStartingMix } from '@/features/assignment/api/get-starting-mix';
 import { BalanceTable } from '@/features/assignment/components/balance-table';
 import { CommitmentPanel } from '@/features/assignment/components/commitment-panel';
 import { DryRunPanel } from '@/features/assignment/components/dry-run-panel';
@@ -22,6 +23,8 @@ export function Component() {
   const assignment = useAssignment(study.id, { live: study.status === 'recruiting' });
   const conditions = useConditions(study.id);
   const factors = useStratificationFactors(study.id);
+  const mayDryRun = mayDesignStudy(me.role) && study.status !== 'closed';
+  const startingMix = useStartingMix(study.id, { enabled: mayDryRun });
   const [unblinding, setUnblinding] = useState(false);
   const [announcement, setAnnouncement] = useState<string | null>(null);
   const { hash } = useLocation();
@@ -119,7 +122,9 @@ export function Component() {
 
       {assignment.data.seed && <VerificationPanel studyId={study.id} conditions={armConditions} />}
 
-      {mayDesignStudy(me.role) && study.status !== 'closed' ? (
+      {mayDryRun && startingMix.isPending ? (
+        <LoadingState label="Loading the dry run…" />
+      ) : mayDryRun ? (
         <DryRunPanel
           studyId={study.id}
           context={context}
@@ -127,6 +132,8 @@ export function Component() {
           factors={factors.data.items}
           savedMethod={assignment.data.method}
           savedSettings={assignment.data.settings}
+          // When the screened people's mix cannot be read, the panel starts from an even mix instead.
+          startingMix={startingMix.data ?? null}
         />
       ) : null}
 

@@ -5,6 +5,7 @@ import {
   type SchemeContext,
   type SchemeFormValues,
 } from '../utils/scheme-settings';
+import type { DryRunStartingMix } from './get-starting-mix';
 import type { CovariateDistribution, DryRunRequest } from './run-dry-run';
 import { schemeFormFields } from './save-assignment-scheme';
 
@@ -115,4 +116,31 @@ export function defaultMix(factors: readonly DryRunFactor[]): DryRunFormValues['
     const spread = cuts.length > 1 ? (cuts[cuts.length - 1] as number) - (cuts[0] as number) : Math.abs(mean) * 0.3;
     return { mean: String(Math.round(mean * 100) / 100), sd: String(Math.max(1, Math.round(spread))), shares: [] };
   });
+}
+
+/** The form's rows from the api's starting mix; a factor it does not cover starts from `defaultMix`. */
+export function mixFromStartingMix(
+  factors: readonly DryRunFactor[],
+  starting: DryRunStartingMix,
+): DryRunFormValues['mix'] {
+  const fallback = defaultMix(factors);
+  return factors.map((factor, i) => {
+    const distribution = starting.mix[factor.key];
+    if (factor.kind === 'numeric' && distribution?.kind === 'normal')
+      return { mean: String(distribution.mean), sd: String(distribution.sd), shares: [] };
+    if (factor.kind === 'categorical' && distribution?.kind === 'categorical')
+      return {
+        mean: '',
+        sd: '',
+        shares: (factor.categories ?? []).map((category) => String(distribution.proportions[category] ?? 0)),
+      };
+    return fallback[i] as DryRunFormValues['mix'][number];
+  });
+}
+
+/** Says on screen where the mix came from. */
+export function startingMixSentence(starting: DryRunStartingMix): string {
+  return starting.basis === 'observed'
+    ? `Using the mix of the ${starting.people.toLocaleString('en')} ${starting.people === 1 ? 'person' : 'people'} screened so far. Change it to try another.`
+    : 'No one screened yet: using an even mix (equal shares of each category, scores centred on the cut points).';
 }

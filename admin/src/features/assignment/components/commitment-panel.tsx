@@ -4,8 +4,7 @@ import { Panel } from '@/components/ui/panel';
 import { disclosureRecipe } from '@/components/ui/recipes';
 import type { Assignment } from '../api/get-assignment';
 import { SchemeSummary } from './scheme-summary';
-
-const dateTime = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+import { formatMoment } from '@/lib/dates';
 
 function Chevron() {
   return (
@@ -40,9 +39,7 @@ export function CommitmentPanel({ assignment }: { assignment: Assignment }) {
             <div className="flex flex-wrap items-center gap-3">
               <CopyButton value={assignment.commitment} label="Copy fingerprint" />
               {assignment.committedAt && (
-                <span className="text-xs text-ink-muted">
-                  Published {dateTime.format(new Date(assignment.committedAt))}
-                </span>
+                <span className="text-xs text-ink-muted">Published {formatMoment(assignment.committedAt)}</span>
               )}
             </div>
             <p className="max-w-prose text-sm text-ink-muted">
@@ -92,14 +89,12 @@ export function CommitmentPanel({ assignment }: { assignment: Assignment }) {
             <div className="flex flex-wrap items-center gap-3">
               <CopyButton value={assignment.seed} label="Copy seed" />
               {assignment.seedRevealedAt && (
-                <span className="text-xs text-ink-muted">
-                  Revealed {dateTime.format(new Date(assignment.seedRevealedAt))}
-                </span>
+                <span className="text-xs text-ink-muted">Revealed {formatMoment(assignment.seedRevealedAt)}</span>
               )}
             </div>
             {assignment.unblindedAt && (
               <p className="text-sm text-ink-muted">
-                Unblinded {dateTime.format(new Date(assignment.unblindedAt))}
+                Unblinded {formatMoment(assignment.unblindedAt)}
                 {assignment.unblindReason && (
                   <>
                     {' '}

@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { stubApi } from '@/test/api-stub';
 import { renderWithProviders } from '@/test/render-with-providers';
 import type { DryRunFactor } from '../api/dry-run-schema';
+import type { DryRunStartingMix } from '../api/get-starting-mix';
 import type { SchemeContext } from '../utils/scheme-settings';
 import { DryRunPanel } from './dry-run-panel';
 
@@ -47,9 +48,10 @@ const result = {
   seed: 'ab'.repeat(32),
 };
 
-function renderPanel(savedMethod: string | null = 'minimization') {
+function renderPanel(savedMethod: string | null = 'minimization', startingMix: DryRunStartingMix | null = null) {
   return renderWithProviders(
     <DryRunPanel
+      startingMix={startingMix}
       studyId={studyId}
       context={context}
       conditions={conditions}
@@ -108,6 +110,52 @@ describe('DryRunPanel', () => {
         name: /largest imbalance over 8 arrivals\. All participants: at most 2; Worst stratum: at most 1; Worst factor level: at most 2/,
       }),
     ).toBeInTheDocument();
+  });
+
+  it('starts from the screened people’s mix, says so, and runs with one click', async () => {
+    const { requests } = stubApi({
+      [`POST /api/studies/${studyId}/assignment/dry-run`]: { status: 200, body: result },
+    });
+    renderPanel('minimization', {
+      basis: 'observed',
+      people: 48,
+      mix: {
+        pretest: { kind: 'normal', mean: 57.25, sd: 11.4 },
+        site: { kind: 'categorical', proportions: { north: 30, south: 18 } },
+      },
+    });
+
+    expect(
+      screen.getByText('Using the mix of the 48 people screened so far. Change it to try another.'),
+    ).toBeInTheDocument();
+    expect(screen.getByLabelText('Average')).toHaveValue('57.25');
+    expect(screen.getByLabelText('Standard deviation')).toHaveValue('11.4');
+    expect(screen.getByLabelText('Share north')).toHaveValue('30');
+    await userEvent.click(screen.getByRole('button', { name: 'Run dry run' }));
+
+    await waitFor(() => expect(requests).toHaveLength(1));
+    expect(requests[0]?.body).toEqual({
+      arrivals: 1000,
+      covariateMix: {
+        pretest: { kind: 'normal', mean: 57.25, sd: 11.4 },
+        site: { kind: 'categorical', proportions: { north: 30, south: 18 } },
+      },
+    });
+    expect(await screen.findByRole('heading', { name: /Result: 8 simulated arrivals/ })).toBeInTheDocument();
+  });
+
+  it('says when nobody is screened yet and the mix is even', () => {
+    stubApi({});
+    renderPanel('minimization', {
+      basis: 'even',
+      people: 0,
+      mix: {
+        pretest: { kind: 'normal', mean: 50, sd: 20 },
+        site: { kind: 'categorical', proportions: { north: 1, south: 1 } },
+      },
+    });
+    expect(screen.getByText(/^No one screened yet: using an even mix/)).toBeInTheDocument();
+    expect(screen.getByLabelText('Share south')).toHaveValue('1');
   });
 
   it('compares another scheme with its own settings and checks them first', async () => {

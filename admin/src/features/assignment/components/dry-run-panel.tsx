@@ -11,10 +11,13 @@ import { applyApiFieldErrors } from '@/lib/form-field-errors';
 import {
   defaultMix,
   dryRunFormSchema,
+  mixFromStartingMix,
+  startingMixSentence,
   maxDryRunArrivals,
   type DryRunFactor,
   type DryRunFormValues,
 } from '../api/dry-run-schema';
+import type { DryRunStartingMix } from '../api/get-starting-mix';
 import { useRunDryRun, type DryRunRequest } from '../api/run-dry-run';
 import { useElapsedSeconds } from '../hooks/use-elapsed-seconds';
 import type { ArmCondition } from '../utils/arm-labels';
@@ -30,9 +33,19 @@ export interface DryRunPanelProps {
   factors: readonly DryRunFactor[];
   savedMethod: string | null;
   savedSettings: Record<string, unknown>;
+  /** The screened people's mix (or an even one), so the first run needs no typing; without it, an even mix. */
+  startingMix?: DryRunStartingMix | null;
 }
 
-export function DryRunPanel({ studyId, context, conditions, factors, savedMethod, savedSettings }: DryRunPanelProps) {
+export function DryRunPanel({
+  studyId,
+  context,
+  conditions,
+  factors,
+  savedMethod,
+  savedSettings,
+  startingMix = null,
+}: DryRunPanelProps) {
   const dryRun = useRunDryRun(studyId);
   const elapsed = useElapsedSeconds(dryRun.isPending);
   const hasSaved = savedMethod !== null;
@@ -42,7 +55,7 @@ export function DryRunPanel({ studyId, context, conditions, factors, savedMethod
       arrivals: '1000',
       seed: '',
       compare: !hasSaved,
-      mix: defaultMix(factors),
+      mix: startingMix ? mixFromStartingMix(factors, startingMix) : defaultMix(factors),
       ...schemeFormValuesFrom(savedMethod, savedSettings, context),
     },
   });
@@ -117,6 +130,7 @@ export function DryRunPanel({ studyId, context, conditions, factors, savedMethod
               <p className="-mt-1 text-xs text-ink-muted">
                 How the stratification answers are spread among simulated participants.
               </p>
+              {startingMix && <p className="text-sm">{startingMixSentence(startingMix)}</p>}
               {factors.map((factor, index) =>
                 factor.kind === 'numeric' ? (
                   <div

@@ -2,15 +2,9 @@ import { useState } from 'react';
 import { Badge } from '@/components/ui/badge';
 import { cx } from '@/components/ui/cx';
 import type { AuditEvent } from '../api/get-audit-events';
+import { formatDay, formatTimeOfDay } from '@/lib/dates';
 
-const dayFormat = new Intl.DateTimeFormat(undefined, {
-  weekday: 'long',
-  day: 'numeric',
-  month: 'long',
-  year: 'numeric',
-});
-// Minutes are enough to read by; the exact moment is in the details.
-const timeFormat = new Intl.DateTimeFormat(undefined, { hour: '2-digit', minute: '2-digit' });
+// Under each day's heading, minutes are enough to read by; the exact moment is in the details.
 
 export interface AuditEventListProps {
   events: readonly AuditEvent[];
@@ -22,7 +16,7 @@ export interface AuditEventListProps {
 export function AuditEventList({ events, familyLabels, busy = false }: AuditEventListProps) {
   const days: Array<{ day: string; events: AuditEvent[] }> = [];
   for (const event of events) {
-    const day = dayFormat.format(new Date(event.at));
+    const day = formatDay(event.at);
     if (days.at(-1)?.day !== day) days.push({ day, events: [] });
     days.at(-1)!.events.push(event);
   }
@@ -48,7 +42,7 @@ function EventEntry({ event, familyLabel }: { event: AuditEvent; familyLabel: st
   return (
     <li className="flex gap-3 px-3 py-2.5 sm:px-4">
       <time dateTime={event.at} className="w-16 shrink-0 pt-0.5 text-xs whitespace-nowrap text-ink-muted tabular-nums">
-        {timeFormat.format(new Date(event.at))}
+        {formatTimeOfDay(event.at)}
       </time>
       <div className="flex min-w-0 flex-1 flex-col gap-1">
         <p className="text-sm text-ink">{event.sentence}</p>

@@ -4,8 +4,7 @@ import { cx } from '@/components/ui/cx';
 import { ErrorState, LoadingState, Notice } from '@/components/ui/states';
 import { ApiError } from '@/lib/api-error';
 import { receiptHref, useAuditReceipts, useSealReceipt } from '../api/audit-receipts';
-
-const momentFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+import { formatMoment } from '@/lib/dates';
 
 /** Receipts seal every chain's newest event; each one is e-mailed to the auditors and can be downloaded here. */
 export function AuditReceipts({ canSeal }: { canSeal: boolean }) {
@@ -54,7 +53,7 @@ export function AuditReceipts({ canSeal }: { canSeal: boolean }) {
             <li key={receipt.id} className="flex flex-wrap items-center gap-x-3 gap-y-1 px-3 py-2 text-sm">
               <span className="font-semibold tabular-nums">No. {receipt.number}</span>
               <time dateTime={receipt.issuedAt} className="text-ink-muted">
-                {momentFormat.format(new Date(receipt.issuedAt))}
+                {formatMoment(receipt.issuedAt)}
               </time>
               <span className="text-ink-muted">
                 {receipt.reason === 'on-demand' ? 'sealed on request' : 'sealed on schedule'} · {receipt.chains}{' '}

@@ -4,8 +4,7 @@ import { Notice } from '@/components/ui/states';
 import { ApiError } from '@/lib/api-error';
 import { useVerifyAuditChains, type AuditVerification } from '../api/verify-audit-chains';
 import { chainLabel } from '../utils/audit-selection';
-
-const momentFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+import { formatMoment } from '@/lib/dates';
 
 export interface IntegrityCheckProps {
   studyTitles: ReadonlyMap<string, string>;
@@ -42,7 +41,7 @@ export function IntegrityCheck({ studyTitles, onShowChain }: IntegrityCheckProps
 
 function receiptWords(receipt: AuditVerification['receipt']): string {
   if (!receipt) return 'No receipt has been sealed yet, so the newest events are not anchored outside the database.';
-  const when = receipt.issuedAt ? ` of ${momentFormat.format(new Date(receipt.issuedAt))}` : '';
+  const when = receipt.issuedAt ? ` of ${formatMoment(receipt.issuedAt)}` : '';
   return `Checked against audit receipt no. ${receipt.number ?? '?'}${when}${receipt.source === 'latest' ? ', the latest' : ''}.`;
 }
 
@@ -95,7 +94,7 @@ function Verdict({ result, studyTitles, onShowChain }: { result: AuditVerificati
           </li>
         ))}
       </ul>
-      <p className="text-xs text-ink-muted">Checked {momentFormat.format(new Date(result.checkedAt))}.</p>
+      <p className="text-xs text-ink-muted">Checked {formatMoment(result.checkedAt)}.</p>
     </div>
   );
 }

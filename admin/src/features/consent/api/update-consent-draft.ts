@@ -2,7 +2,7 @@ import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { z } from 'zod';
 import { apiClient, unwrap } from '@/lib/api-client';
 import type { components } from '@evenhand/contract';
-import { isCalendarDate } from '../utils/calendar-date';
+import { isCalendarDate, localToday } from '../utils/calendar-date';
 import { consentVersionKey } from './get-consent-version';
 import { consentVersionsKey, type ConsentVersion } from './get-consent-versions';
 
@@ -31,7 +31,11 @@ export const approvalDetailsInputSchema = z.object({
   approvedAt: z
     .string()
     .min(1, 'Enter the date on the approval letter.')
-    .refine(isCalendarDate, 'Enter the date as on the letter, for example 2026-11-20.'),
+    .refine(isCalendarDate, 'Enter the date as on the letter, for example 2026-11-20.')
+    .refine(
+      (date) => !isCalendarDate(date) || date <= localToday(),
+      'The approval date cannot be in the future: enter the date printed on the letter.',
+    ),
 });
 export type ApprovalDetailsInput = z.infer<typeof approvalDetailsInputSchema>;
 

@@ -25,6 +25,8 @@ export function ApprovalDetailsForm({ studyId, version }: { studyId: string; ver
     formState: { errors, isDirty },
   } = useForm<ApprovalDetailsInput>({
     resolver: zodResolver(approvalDetailsInputSchema),
+    // A wrong date shows as soon as the field is left, not only after saving.
+    mode: 'onTouched',
     defaultValues: { approvalReference: version.approvalReference ?? '', approvedAt: version.approvedAt ?? '' },
   });
 

@@ -82,4 +82,55 @@ describe('NewDraftDialog', { timeout: 15_000 }, () => {
       ),
     );
   });
+
+  it('says in plain words, at the first try, that the study needs a paid step, and sends nothing', async () => {
+    const { requests } = stubApi({
+      'GET /api/consent-templates': { status: 200, body: { items: [template] } },
+      [`GET /api/studies/${studyId}/steps`]: { status: 200, body: { items: [], payOverrides: [] } },
+    });
+    renderWithProviders(<NewDraftDialog studyId={studyId} open onClose={vi.fn()} onCreated={vi.fn()} />);
+
+    expect(
+      await screen.findByText(/Steps and pay come from the study’s set-up: it has no steps yet/),
+    ).toBeInTheDocument();
+    await userEvent.click(screen.getByRole('button', { name: 'Create draft' }));
+
+    expect(
+      await screen.findByText(
+        'Add at least one step with its pay on the Set-up tab first: the form tells people what each step pays.',
+      ),
+    ).toBeInTheDocument();
+    expect(screen.queryByText(/steps:/)).not.toBeInTheDocument();
+    expect(requests.filter((request) => request.method === 'POST')).toHaveLength(0);
+  });
+
+  it('words the api’s "steps" refusal the same way when the steps went away meanwhile', async () => {
+    stubApi({
+      'GET /api/consent-templates': { status: 200, body: { items: [template] } },
+      [`GET /api/studies/${studyId}/steps`]: {
+        status: 200,
+        body: { items: [{ id: 'a4d1c2b3-0000-4000-8000-000000000001', title: 'Session 1' }], payOverrides: [] },
+      },
+      [`POST ${versionsPath}`]: {
+        status: 400,
+        body: {
+          statusCode: 400,
+          code: 'VALIDATION_FAILED',
+          message: 'Some fields are not valid.',
+          errors: [{ field: 'steps', message: 'must list at least one step with its pay' }],
+        },
+      },
+    });
+    renderWithProviders(<NewDraftDialog studyId={studyId} open onClose={vi.fn()} onCreated={vi.fn()} />);
+
+    expect(await screen.findByText(/Steps and pay come from the study’s set-up: 1 step/)).toBeInTheDocument();
+    await userEvent.click(screen.getByRole('button', { name: 'Create draft' }));
+
+    expect(
+      await screen.findByText(
+        'Add at least one step with its pay on the Set-up tab first: the form tells people what each step pays.',
+      ),
+    ).toBeInTheDocument();
+    expect(screen.queryByText(/must list at least one step/)).not.toBeInTheDocument();
+  });
 });

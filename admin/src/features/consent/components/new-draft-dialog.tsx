@@ -1,4 +1,5 @@
 import { zodResolver } from '@hookform/resolvers/zod';
+import { useState } from 'react';
 import { Controller, useForm } from 'react-hook-form';
 import { Button } from '@/components/ui/button';
 import { DialogActions, ModalDialog } from '@/components/ui/modal-dialog';
@@ -13,7 +14,9 @@ import {
   type NewConsentDraftInput,
 } from '../api/create-consent-draft';
 import { useConsentTemplates, type ConsentTemplate } from '../api/get-consent-templates';
+import { useStudySteps } from '../api/get-study-steps';
 import type { ConsentVersion } from '../api/get-consent-versions';
+import { isStepsProblem, noStepsMessage } from '../utils/steps-problem';
 import { fieldsForTemplate } from '../utils/template-field-labels';
 import { templateValueFieldNames, withoutValuesPrefix } from '../utils/template-value-errors';
 import { TemplateCaution } from './template-caution';
@@ -71,13 +74,24 @@ function NewDraftForm({ studyId, templates, onCancel, onCreated }: NewDraftFormP
   const { control, handleSubmit, setError, watch, formState } = form;
   const template = templates.find((candidate) => candidate.id === watch('templateId')) ?? templates[0];
   const fields = fieldsForTemplate(template?.fields ?? []);
+  const steps = useStudySteps(studyId);
+  const stepCount = steps.data?.items.length ?? null;
+  const [stepsProblem, setStepsProblem] = useState<string | null>(null);
 
-  const onSubmit = handleSubmit((input) =>
-    createDraft.mutate(input, {
-      onSuccess: (version) => onCreated(version),
-      onError: (error) => applyServerErrors(withoutValuesPrefix(error), formFields, setError),
-    }),
-  );
+  const onSubmit = (event: React.FormEvent<HTMLFormElement>) => {
+    // Said at the first try, beside the step summary, whatever else the form still lacks.
+    setStepsProblem(stepCount === 0 ? noStepsMessage : null);
+    return handleSubmit((input) => {
+      if (stepCount === 0) return;
+      createDraft.mutate(input, {
+        onSuccess: (version) => onCreated(version),
+        onError: (error) =>
+          isStepsProblem(error)
+            ? setStepsProblem(noStepsMessage)
+            : applyServerErrors(withoutValuesPrefix(error), formFields, setError),
+      });
+    })(event);
+  };
 
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-4" aria-label="New consent draft">
@@ -103,6 +117,17 @@ function NewDraftForm({ studyId, templates, onCancel, onCreated }: NewDraftFormP
         )}
       />
       <TemplateValueFields form={form} fields={fields} />
+      <div className="flex flex-col gap-1 text-sm" aria-live="polite">
+        <p id="draft-steps-summary" className="text-ink-muted">
+          Steps and pay come from the study’s set-up
+          {stepCount === null
+            ? '.'
+            : stepCount === 0
+              ? ': it has no steps yet.'
+              : `: ${stepCount} ${stepCount === 1 ? 'step' : 'steps'}.`}
+        </p>
+        {stepsProblem && <p className="font-medium text-danger">{stepsProblem}</p>}
+      </div>
       <DialogActions>
         <Button onClick={onCancel}>Cancel</Button>
         <Button type="submit" variant="primary" pending={createDraft.isPending}>

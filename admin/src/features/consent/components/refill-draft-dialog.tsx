@@ -13,6 +13,7 @@ import { fieldsForTemplate } from '../utils/template-field-labels';
 import { templateValueFieldNames, withoutValuesPrefix } from '../utils/template-value-errors';
 import { TemplateCaution } from './template-caution';
 import { TemplateValueFields } from './template-value-fields';
+import { isStepsProblem, noStepsMessage } from '../utils/steps-problem';
 
 /** Give it a new `key` each time it opens, so the form starts again from the draft's stored values. */
 export interface RefillDraftDialogProps {
@@ -113,7 +114,10 @@ function RefillDraftForm({ studyId, version, template, unsavedEdits, onCancel, o
   const onSubmit = handleSubmit((input) =>
     refill.mutate(input, {
       onSuccess: (refilled) => onRefilled(refilled),
-      onError: (error) => applyServerErrors(withoutValuesPrefix(error), templateValueFieldNames, setError),
+      onError: (error) =>
+        isStepsProblem(error)
+          ? setError('root.server', { type: 'server', message: noStepsMessage })
+          : applyServerErrors(withoutValuesPrefix(error), templateValueFieldNames, setError),
     }),
   );
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { isCalendarDate } from './calendar-date';
+import { isCalendarDate, localToday } from './calendar-date';
 
 describe('isCalendarDate', () => {
   it('accepts ISO 8601 calendar dates in the extended format (YYYY-MM-DD)', () => {
@@ -22,5 +22,12 @@ describe('isCalendarDate', () => {
     expect(isCalendarDate('20/11/2026')).toBe(false);
     expect(isCalendarDate('2026-11-20T00:00:00Z')).toBe(false);
     expect(isCalendarDate('')).toBe(false);
+  });
+});
+
+describe('localToday', () => {
+  it('writes the local calendar day as YYYY-MM-DD, zero-padded', () => {
+    expect(localToday(new Date(2026, 0, 5, 23, 30))).toBe('2026-01-05');
+    expect(localToday(new Date(2026, 11, 31, 0, 5))).toBe('2026-12-31');
   });
 });

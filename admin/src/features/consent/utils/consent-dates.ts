@@ -1,11 +1,8 @@
-const dayFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeZone: 'UTC' });
-const momentFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+import { formatCalendarDate, formatMoment } from '@/lib/dates';
 
 /** A date as written on the approval letter (YYYY-MM-DD), shown without shifting it by the viewer's time zone. */
 export function formatLetterDate(date: string): string {
-  return dayFormat.format(new Date(`${date}T00:00:00Z`));
+  return formatCalendarDate(date);
 }
 
-export function formatMoment(isoTime: string): string {
-  return momentFormat.format(new Date(isoTime));
-}
+export { formatMoment };

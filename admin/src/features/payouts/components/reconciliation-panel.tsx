@@ -6,6 +6,7 @@ import { ErrorState, LoadingState, Notice } from '@/components/ui/states';
 import { ApiError } from '@/lib/api-error';
 import { formatMinor } from '@/lib/money';
 import { useReconciliation, type ReconciliationDifference } from '../api/get-reconciliation';
+import { formatMoment } from '@/lib/dates';
 
 const differenceLabels: Record<string, string> = {
   'missing-at-provider': 'Paid here, no transfer at the provider',
@@ -43,9 +44,9 @@ export function ReconciliationPanel({ studyId, currency }: { studyId: string; cu
         ) : (
           <div className="flex flex-col gap-3">
             <p className="text-sm text-ink-muted">
-              Checked {new Date(check.data.checkedAt).toLocaleString('en-US')}: our ledger has{' '}
-              {check.data.ledgerPaidCount} paid ({money(check.data.ledgerPaidMinor)}), the provider has{' '}
-              {check.data.providerTransferCount} transfers ({money(check.data.providerTransferMinor)}).
+              Checked {formatMoment(check.data.checkedAt)}: our ledger has {check.data.ledgerPaidCount} paid (
+              {money(check.data.ledgerPaidMinor)}), the provider has {check.data.providerTransferCount} transfers (
+              {money(check.data.providerTransferMinor)}).
             </p>
             {check.data.differences.length === 0 ? (
               <Notice tone="info">Every payout matches.</Notice>

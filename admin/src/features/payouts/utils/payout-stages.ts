@@ -1,4 +1,5 @@
 import type { Payout, PayoutStage } from '../api/get-payouts';
+import { formatDay as formatDayInLocale } from '@/lib/dates';
 
 /** The queue's groups, in the order staff work through them, each named by what happens next. */
 export const payoutStages: ReadonlyArray<{ stage: PayoutStage; title: string; next: string }> = [
@@ -49,9 +50,7 @@ export function plural(count: number, one: string, many: string): string {
   return `${count} ${count === 1 ? one : many}`;
 }
 
-const dayFormat = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium' });
-
-/** Dates in the queue, one format throughout (e.g. Dec 4, 2026). */
+/** Dates in the queue, in the staff app's one date format (e.g. Dec 4, 2026). */
 export function formatDay(iso: string | null): string {
-  return iso ? dayFormat.format(new Date(iso)) : '—';
+  return iso ? formatDayInLocale(iso) : '—';
 }

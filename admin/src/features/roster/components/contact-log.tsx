@@ -8,6 +8,7 @@ import { useContacts, type Contact } from '../api/get-contacts';
 import type { RosterEntry } from '../api/get-roster';
 import { mayMarkLost } from '../utils/roster-actions';
 import { SendMessageDialog } from './send-message-dialog';
+import { formatMoment } from '@/lib/dates';
 
 const kindWording: Record<Contact['kind'], { label: string; tone: BadgeTone }> = {
   invitation: { label: 'Invitation', tone: 'neutral' },
@@ -15,8 +16,6 @@ const kindWording: Record<Contact['kind'], { label: string; tone: BadgeTone }> =
   'reconsent-request': { label: 'Re-consent request', tone: 'caution' },
   'staff-message': { label: 'Staff message', tone: 'success' },
 };
-
-const momentFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
 export interface ContactLogProps {
   studyId: string;
@@ -105,7 +104,7 @@ export function ContactLog({ studyId, enrollment, canManage, onMarkLost }: Conta
                       <span className="font-medium">{contact.subject}</span>
                     </span>
                     <span className="text-xs text-ink-muted">
-                      <time dateTime={contact.sentAt}>{momentFormat.format(new Date(contact.sentAt))}</time>
+                      <time dateTime={contact.sentAt}>{formatMoment(contact.sentAt)}</time>
                       {contact.stepTitle && ` · about ${contact.stepTitle}`}
                       {contact.sentByEmail && ` · sent by ${contact.sentByEmail}`}
                     </span>

@@ -21,9 +21,9 @@ import {
 import { mayUndoLost } from '../utils/roster-actions';
 import { RecordSteps } from './record-steps';
 import { EnrollmentStatusBadge } from './enrollment-status-badge';
+import { formatExactMoment } from '@/lib/dates';
 
-const momentFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'long' });
-const moment = (iso: string) => momentFormat.format(new Date(iso));
+const moment = (iso: string) => formatExactMoment(iso);
 
 export interface ParticipantRecordProps {
   studyId: string;

@@ -17,11 +17,11 @@ import {
   verifiedByWording,
 } from '../utils/step-wording';
 import { UndoCompletionDialog, type UndoTarget } from './undo-completion-dialog';
+import { formatMoment } from '@/lib/dates';
 
 type RecordStep = ParticipantRecord['steps'][number];
 
-const momentFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
-const moment = (iso: string) => momentFormat.format(new Date(iso));
+const moment = (iso: string) => formatMoment(iso);
 
 export interface RecordStepsProps {
   studyId: string;

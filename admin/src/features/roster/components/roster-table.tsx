@@ -7,9 +7,9 @@ import type { ParticipationChange } from '../api/change-participation';
 import { mayMarkLost, mayRecordWithdrawal, mayUndoLost } from '../utils/roster-actions';
 import { nextStepTimingWording } from '../utils/step-wording';
 import { EnrollmentStatusBadge } from './enrollment-status-badge';
+import { formatDay, formatShortDay } from '@/lib/dates';
 
-const dayFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium' });
-const day = (iso: string | null) => (iso ? dayFormat.format(new Date(iso)) : '—');
+const day = (iso: string | null) => (iso ? formatDay(iso) : '—');
 
 export interface RosterTableProps {
   entries: readonly RosterEntry[];
@@ -159,8 +159,6 @@ export function RosterTable({ entries, blinded, canManage, recordHref, onChange,
   );
 }
 
-const shortDayFormat = new Intl.DateTimeFormat(undefined, { month: 'short', day: 'numeric' });
-
 function NextStepCell({ entry }: { entry: RosterEntry }) {
   const next = entry.nextStep;
   if (!next) return <span className="text-ink-faint">—</span>;
@@ -170,7 +168,7 @@ function NextStepCell({ entry }: { entry: RosterEntry }) {
     next.timing === 'waiting'
       ? 'after the step before'
       : at
-        ? `${next.timing === 'upcoming' ? 'opens' : 'due'} ${shortDayFormat.format(new Date(at))}`
+        ? `${next.timing === 'upcoming' ? 'opens' : 'due'} ${formatShortDay(at)}`
         : 'no due date';
   return (
     <span className="flex flex-col items-start gap-0.5">

@@ -7,8 +7,7 @@ import { Notice } from '@/components/ui/states';
 import { roleLabels } from '@/lib/role-access';
 import type { StaffUser } from '../api/get-staff-users';
 import { EditStaffUserForm } from './edit-staff-user-form';
-
-const signInFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+import { formatMoment } from '@/lib/dates';
 
 /** The head of one staff member's page: who they are, their role and status, and an edit button. */
 export function StaffMemberSummary({ user }: { user: StaffUser }) {
@@ -39,9 +38,7 @@ export function StaffMemberSummary({ user }: { user: StaffUser }) {
         </div>
         <div className="flex items-center gap-2">
           <dt className="text-ink-muted">Last sign-in</dt>
-          <dd className="tabular-nums">
-            {user.lastSignInAt ? signInFormat.format(new Date(user.lastSignInAt)) : 'Never'}
-          </dd>
+          <dd className="tabular-nums">{user.lastSignInAt ? formatMoment(user.lastSignInAt) : 'Never'}</dd>
         </div>
       </dl>
       <div aria-live="polite" className="empty:hidden">

@@ -4,8 +4,7 @@ import { Button } from '@/components/ui/button';
 import { tableRecipe } from '@/components/ui/recipes';
 import { roleLabels } from '@/lib/role-access';
 import type { StaffUser } from '../api/get-staff-users';
-
-const signInFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+import { formatMoment } from '@/lib/dates';
 
 export interface StaffTableProps {
   users: readonly StaffUser[];
@@ -62,7 +61,7 @@ export function StaffTable({ users, currentUserId, onEdit, onToggleActive, busy 
                   {user.active ? <Badge tone="success">Active</Badge> : <Badge tone="danger">Deactivated</Badge>}
                 </td>
                 <td className={`${tableRecipe.cell} whitespace-nowrap text-ink-muted tabular-nums`}>
-                  {user.lastSignInAt ? signInFormat.format(new Date(user.lastSignInAt)) : 'Never'}
+                  {user.lastSignInAt ? formatMoment(user.lastSignInAt) : 'Never'}
                 </td>
                 <td className={`${tableRecipe.cell} text-right whitespace-nowrap`}>
                   <Button variant="quiet" size="compact" onClick={() => onEdit(user)} aria-label={`Edit ${user.name}`}>

@@ -8,8 +8,7 @@ import { ErrorState, LoadingState, Notice } from '@/components/ui/states';
 import { ApiError } from '@/lib/api-error';
 import { useReturnLink, type ReturnLinkSetup } from '../api/get-return-link';
 import { useRotateReturnKey } from '../api/rotate-return-key';
-
-const dayFormat = new Intl.DateTimeFormat(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+import { formatMoment } from '@/lib/dates';
 
 export interface ReturnLinkPanelProps {
   studyId: string;
@@ -144,7 +143,7 @@ function ReturnLinkDetails({
           Links are signed with key <span className="font-medium text-ink tabular-nums">{setup.keyId}</span>
           {setup.rotatedAt ? (
             <>
-              , rotated <time dateTime={setup.rotatedAt}>{dayFormat.format(new Date(setup.rotatedAt))}</time>.
+              , rotated <time dateTime={setup.rotatedAt}>{formatMoment(setup.rotatedAt)}</time>.
             </>
           ) : (
             ', never rotated.'

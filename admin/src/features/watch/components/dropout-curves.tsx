@@ -2,6 +2,7 @@ import { CartesianGrid, Legend, Line, LineChart, ResponsiveContainer, Tooltip, X
 import type { AttritionReport } from '../api/get-attrition-report';
 import { toStepPoints } from '../utils/survival-steps';
 import { formatShare, hazardRatioSentence, logRankSentence } from '../utils/watch-format';
+import { formatMoment } from '@/lib/dates';
 
 /** Follow-up is exact (fractions of a day); shown with two decimals. */
 const formatDay = (day: number) => day.toFixed(2);
@@ -130,7 +131,7 @@ export function DropoutCurves({ report }: { report: AttritionReport }) {
       </div>
       <p className="text-xs text-ink-muted">
         Follow-up times are exact (fractions of a day), not rounded to whole days. Completers are censored at
-        completion, active participants at {new Date(report.survival.censoredAt).toLocaleString()}. Bands (
+        completion, active participants at {formatMoment(report.survival.censoredAt)}. Bands (
         {Math.round((report.survival.curves[0]?.confidenceLevel ?? 0.95) * 100)}%, Greenwood) are listed in the table
         below.
       </p>

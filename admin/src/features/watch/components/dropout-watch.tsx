@@ -14,6 +14,7 @@ import { PayParityTable } from './pay-parity-table';
 import { StratifiedTests } from './stratified-tests';
 import { WwcVerdicts } from './wwc-verdicts';
 import { plannedLengthExplanation } from '../utils/watch-format';
+import { formatMoment } from '@/lib/dates';
 
 export interface DropoutWatchProps {
   studyId: string;
@@ -42,7 +43,7 @@ export function DropoutWatch({ studyId, canEditAlerts, canExport }: DropoutWatch
   const header = (
     <div className="flex flex-wrap items-center justify-between gap-3">
       <p className="text-sm text-ink-muted">
-        Computed <time dateTime={data.computedAt}>{new Date(data.computedAt).toLocaleString()}</time>
+        Computed <time dateTime={data.computedAt}>{formatMoment(data.computedAt)}</time>
         {report.isFetching && ' · refreshing…'}
         {data.blinded && ' · blinded: conditions are shown by code'}
       </p>

@@ -1,4 +1,4 @@
-import { screen } from '@testing-library/react';
+import { screen, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { stubCanvas } from '@/test/canvas-stub';
@@ -6,12 +6,15 @@ import { installFakeApi, participant } from '@/test/fake-api';
 import { consentToSign, enrollment, publicStudy, studyId } from '@/test/participant-fixtures';
 import { renderApp } from '@/test/render-app';
 
-function atConsent(next: 'consent' | 're-consent' = 'consent') {
+function atConsent(next: 'consent' | 're-consent' = 'consent', changesSinceSigned: string[] = []) {
   return installFakeApi({
     'GET /api/auth/me': { status: 200, body: participant },
     'GET /api/public/studies/wayfinding-cues': { status: 200, body: publicStudy },
     [`GET /api/studies/${studyId}/enrollments/me`]: { status: 200, body: enrollment({ status: 'screened', next }) },
-    [`GET /api/studies/${studyId}/enrollments/me/consent`]: { status: 200, body: consentToSign() },
+    [`GET /api/studies/${studyId}/enrollments/me/consent`]: {
+      status: 200,
+      body: consentToSign({ changesSinceSigned }),
+    },
   });
 }
 
@@ -80,6 +83,23 @@ describe('reading the consent form', () => {
     expect(screen.getByRole('heading', { name: 'Key information' })).toBeInTheDocument();
     expect(screen.queryByRole('heading', { name: 'Your steps' })).not.toBeInTheDocument();
     expect(screen.getByRole('button', { name: 'Stop taking part' })).toBeInTheDocument();
+  });
+
+  it('tells someone asked to sign again what changed since the version they signed', async () => {
+    atConsent('re-consent', [
+      'Pay for “Session 2: test town” changed from $15.00 to $18.00.',
+      'New section: “Sharing results with you”.',
+    ]);
+    renderApp('/s/wayfinding-cues');
+
+    const heading = await screen.findByText('What changed since you signed:', {}, { timeout: 3_000 });
+    const changes = within(heading.parentElement as HTMLElement)
+      .getAllByRole('listitem')
+      .map((item) => item.textContent);
+    expect(changes).toEqual([
+      'Pay for “Session 2: test town” changed from $15.00 to $18.00.',
+      'New section: “Sharing results with you”.',
+    ]);
   });
 
   it('says so and offers to try again when the form cannot be loaded', async () => {

@@ -76,6 +76,16 @@ function ConsentReading({ studyId, consent, reconsent, changedTo, onVersionChang
         <Notice title="The consent form has changed">
           The research team updated the form, and the ethics board approved the new version. Please read it and sign it
           again before your next step. If you would rather not go on, you can stop taking part.
+          {consent.changesSinceSigned.length > 0 && (
+            <>
+              <span className="mt-2 block font-medium">What changed since you signed:</span>
+              <ul className="mt-1 list-disc pl-5">
+                {consent.changesSinceSigned.map((change) => (
+                  <li key={change}>{change}</li>
+                ))}
+              </ul>
+            </>
+          )}
         </Notice>
       ) : null}
 
