@@ -269,15 +269,26 @@ class HistoryPlayer {
 describe('the dropout watch read from its maintained summary', () => {
   let researcher: Awaited<ReturnType<typeof signedInStaff>>;
   let runs = 0;
+  let reportsCompared = 0;
 
   beforeAll(async () => {
     researcher = await signedInStaff(testApp, 'researcher');
   });
 
+  // Where the full computation refuses a history (a within-subjects study nobody is randomized in yet has no arms
+  // to compare), the summary must refuse it with the same error.
+  async function outcome(studyId: string, source: 'summary' | 'full', now: Date): Promise<unknown> {
+    try {
+      return (await attrition.compute(studyId, undefined, { source, now })).dto;
+    } catch (error) {
+      return { refused: error instanceof Error ? `${error.name}: ${error.message}` : String(error) };
+    }
+  }
+
   async function expectSameAsFullComputation(studyId: string, now: Date): Promise<void> {
-    const fromSummary = await attrition.compute(studyId, undefined, { source: 'summary', now });
-    const full = await attrition.compute(studyId, undefined, { source: 'full', now });
-    expect(fromSummary.dto).toEqual(full.dto);
+    const full = await outcome(studyId, 'full', now);
+    expect(await outcome(studyId, 'summary', now)).toEqual(full);
+    if (!(full as { refused?: string }).refused) reportsCompared += 1;
   }
 
   it('equals the full computation after any history of joins, assignments, pay, dropouts, undo and compaction', async () => {
@@ -309,6 +320,8 @@ describe('the dropout watch read from its maintained summary', () => {
       ),
       { numRuns: 25, seed: 1_764_700_800 },
     );
+    // Most histories produce a whole report, not a refusal, so the comparison above is about figures.
+    expect(reportsCompared).toBeGreaterThan(25);
   }, 300_000);
 
   it('keeps counting the same after the study switches design and everything is compacted', async () => {
