@@ -30,8 +30,17 @@ type Step =
   | { kind: 'undo-lost'; who: number }
   | { kind: 'exclude'; who: number; day: number | null }
   | { kind: 'pay'; who: number; amount: number; foreign: boolean; override: boolean }
-  | { kind: 'payout-status'; which: number; status: 'approved' | 'sending' | 'paid' | 'failed' | 'cancelled' | 'reversed' }
-  | { kind: 'contact'; who: number; day: number; type: 'invitation' | 'reminder' | 'reconsent-request' | 'staff-message' }
+  | {
+      kind: 'payout-status';
+      which: number;
+      status: 'approved' | 'sending' | 'paid' | 'failed' | 'cancelled' | 'reversed';
+    }
+  | {
+      kind: 'contact';
+      who: number;
+      day: number;
+      type: 'invitation' | 'reminder' | 'reconsent-request' | 'staff-message';
+    }
   | { kind: 'forget-contact'; which: number }
   | { kind: 'covariates'; who: number; pretest: number }
   | { kind: 'compact' }
@@ -300,7 +309,8 @@ describe('the dropout watch read from its maintained summary', () => {
         async (history, design, checkpoints) => {
           runs += 1;
           const { studyId, conditionIds } = await draftBetweenStudy(researcher, { conditions: ['near', 'far'] });
-          if (design === 'within') await testApp.dataSource.query(`UPDATE study SET design = 'within' WHERE id = $1`, [studyId]);
+          if (design === 'within')
+            await testApp.dataSource.query(`UPDATE study SET design = 'within' WHERE id = $1`, [studyId]);
           const [{ currency }] = await testApp.dataSource.query(`SELECT currency FROM study WHERE id = $1`, [studyId]);
           const arms = [
             { conditionId: conditionIds[0], order: [conditionIds[0], conditionIds[1]] },

@@ -80,6 +80,11 @@ class AttritionBench {
       title: `Attrition benchmark (${size})`,
       design: 'between',
       currency: CURRENCY,
+      // The consent form names the protocol, the lab, the time asked and how many take part; activation needs them.
+      protocolNumber: `BENCH-ATTRITION-${size}`,
+      labName: 'Quillmoor Benchmark Lab (invented)',
+      estimatedMinutes: 30,
+      targetSize: size,
     });
     for (const name of ['audio cues', 'map cues', 'no cues']) {
       await this.studies.createCondition(researcher, study.id, {
@@ -228,7 +233,9 @@ async function main(): Promise<number> {
       const warm = await bench.attrition.report(study.studyId);
       await bench.checkReport(study.studyId, warm.overall.randomized);
       await bench.checkAgainstFullComputation(study.studyId);
-      log(`${study.size.toLocaleString('en')}: same report as the full computation; ${await bench.summaryRows(study.studyId)}`);
+      log(
+        `${study.size.toLocaleString('en')}: same report as the full computation; ${await bench.summaryRows(study.studyId)}`,
+      );
       const baseline: number[] = [];
       const report: number[] = [];
       for (let round = 0; round < ROUNDS; round++) {

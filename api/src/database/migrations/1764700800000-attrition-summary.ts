@@ -32,7 +32,12 @@ export class AttritionSummary1764700800000 implements MigrationInterface {
     await queryRunner.query(`CREATE TABLE attrition_followed_delta (${followedColumns})`);
     await queryRunner.query(`CREATE TABLE attrition_profile (${profileColumns})`);
     await queryRunner.query(`CREATE TABLE attrition_profile_delta (${profileColumns})`);
-    for (const table of ['attrition_followed', 'attrition_followed_delta', 'attrition_profile', 'attrition_profile_delta'])
+    for (const table of [
+      'attrition_followed',
+      'attrition_followed_delta',
+      'attrition_profile',
+      'attrition_profile_delta',
+    ])
       await queryRunner.query(`CREATE INDEX ${table}_study_idx ON ${table} (study_id)`);
     await queryRunner.query(`
       CREATE TABLE attrition_enrollment_state (
