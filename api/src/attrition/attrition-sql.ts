@@ -1,6 +1,8 @@
 /**
- * The SQL behind the dropout watch. Every figure is a GROUP BY in PostgreSQL, so the rows that come back grow with
- * the number of arms, statuses, days and covariate categories, never with the number of participants.
+ * The SQL behind the dropout watch, computed in full from the study's enrollments. Every figure is a GROUP BY in
+ * PostgreSQL, so the rows that come back grow with the number of arms, statuses, days and covariate categories,
+ * never with the number of participants. The report itself reads the same rows from the maintained summary
+ * (attrition-summary-sql.ts); these full passes are the reference it is tested against, and the export.
  *
  * This is a read-only report across enrollment, payout, step and step_completion: the owning domains keep writing
  * them; attrition only aggregates, which no single domain's service could do without loading every row.
@@ -175,18 +177,24 @@ export async function readAttritionAggregates(
     [study.id],
   );
 
-  const [override] = await run<{ recorded: boolean }>(
+  return { flow, survival, strata, pay, covariates, ...(await readStudyPlan(run, study.id)) };
+}
+
+/** The planned schedule and whether any pay was overridden: small reads, shared by the full and the summary paths. */
+export async function readStudyPlan(
+  run: SqlRunner,
+  studyId: string,
+): Promise<{ steps: PlannedStepRow[]; payOverrideRecorded: boolean }> {
+  // payout_pay_override_idx (partial) makes the payout half an index probe instead of a pass over the study's payouts.
+  const [plan] = await run<{ recorded: boolean; steps: PlannedStepRow[] }>(
     `SELECT EXISTS (SELECT 1 FROM step_pay_override o JOIN step s ON s.id = o.step_id WHERE s.study_id = $1)
-         OR EXISTS (SELECT 1 FROM payout p WHERE p.study_id = $1 AND p.pay_override) AS recorded`,
-    [study.id],
+         OR EXISTS (SELECT 1 FROM payout p WHERE p.study_id = $1 AND p.pay_override) AS recorded,
+            (SELECT coalesce(json_agg(json_build_object('opens_after_days', opens_after_days, 'opens_from', opens_from,
+                                                       'due_within_days', due_within_days) ORDER BY position, id), '[]')
+             FROM step WHERE study_id = $1) AS steps`,
+    [studyId],
   );
-
-  const steps = await run<PlannedStepRow>(
-    `SELECT opens_after_days, opens_from, due_within_days FROM step WHERE study_id = $1 ORDER BY position, id`,
-    [study.id],
-  );
-
-  return { flow, survival, strata, pay, steps, covariates, payOverrideRecorded: override.recorded };
+  return { steps: plan.steps, payOverrideRecorded: plan.recorded };
 }
 
 /** The export's covariate columns: every key any enrollment of the study has, sorted. */

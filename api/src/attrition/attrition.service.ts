@@ -14,6 +14,7 @@ import { type ConsortFlow, type ReportArm, consortFlow, isRandomized, toReportIn
 import { type AttritionReport, buildAttritionReport } from './attrition-report';
 import {
   type AttritionAggregates,
+  type ContactRow,
   type ExportRow,
   type SqlRunner,
   readAttritionAggregates,
@@ -21,6 +22,7 @@ import {
   readCovariateKeys,
   readExportPage,
 } from './attrition-sql';
+import { readSummaryAggregates } from './attrition-summary-sql';
 import { REPEATED_LOOKS_CAUTION } from './alerts/alert-rules';
 import { COUNTING_RULE } from './condition-counts';
 import { contactParity } from './contact-parity';
@@ -63,6 +65,9 @@ interface StudyArms {
   /** Condition id → name shown (code while blinded). */
   conditionNames: Map<string, string>;
 }
+
+/** Where the report's figures come from: the maintained summary, or a full pass over the study (the reference). */
+export type ReportSource = 'summary' | 'full';
 
 /** What the alert rules read off a report. */
 export interface AttritionFigures {
@@ -110,15 +115,23 @@ export class AttritionService {
       .join(' → ');
   }
 
-  private async readConsistently(study: StudyEntity, censorAt: Date): Promise<AttritionAggregates> {
-    // One snapshot for every aggregate: the report cross-checks the survival and pay totals against the counts.
-    return this.dataSource.transaction('REPEATABLE READ', (manager: EntityManager) => {
+  private async readConsistently(
+    study: StudyEntity,
+    censorAt: Date,
+    source: ReportSource,
+  ): Promise<{ aggregates: AttritionAggregates; contacts: ContactRow[] }> {
+    // One snapshot for every aggregate: the report cross-checks the survival and pay totals against the counts, and
+    // compaction moves summary rows between tables while we read.
+    return this.dataSource.transaction('REPEATABLE READ', async (manager: EntityManager) => {
       const run: SqlRunner = (sql, parameters) => manager.query(sql, parameters);
-      return readAttritionAggregates(
+      const closed = study.status === 'closed';
+      if (source === 'summary') return readSummaryAggregates(run, { id: study.id, closed }, censorAt);
+      const aggregates = await readAttritionAggregates(
         run,
-        { id: study.id, design: study.design, currency: study.currency, closed: study.status === 'closed' },
+        { id: study.id, design: study.design, currency: study.currency, closed },
         censorAt,
       );
+      return { aggregates, contacts: await readContactAggregates(run, { id: study.id, design: study.design }) };
     });
   }
 
@@ -127,17 +140,21 @@ export class AttritionService {
     return (await this.compute(studyId, comparisonConditionId)).dto;
   }
 
-  /** The report and the raw figures behind it, for the alert rules. */
+  /**
+   * The report and the raw figures behind it, for the alert rules. `source: 'full'` recomputes every figure from
+   * the enrollments themselves (the reference the maintained summary is tested against); `now` fixes the moment.
+   */
   async compute(
     studyId: string,
     comparisonConditionId?: string,
+    { source = 'summary', now = new Date() }: { source?: ReportSource; now?: Date } = {},
   ): Promise<{ dto: AttritionReportDto; figures: AttritionFigures }> {
     const context = await this.studyArms(studyId);
     const { study } = context;
-    const computedAt = new Date();
+    const computedAt = now;
     const censorAt =
       study.status === 'closed' && study.closedAt && study.closedAt < computedAt ? study.closedAt : computedAt;
-    const aggregates = await this.readConsistently(study, censorAt);
+    const { aggregates, contacts } = await this.readConsistently(study, censorAt, source);
     const arms = this.arms(context, aggregates.flow);
     if (comparisonConditionId !== undefined && !arms.some((arm) => arm.id === comparisonConditionId)) {
       throw new ValidationException([
@@ -215,20 +232,12 @@ export class AttritionService {
       },
       covariateBalance: report.covariateBalance,
       flow: this.flowDto(consortFlow(aggregates.flow, arms, study.status === 'closed'), nameOf),
-      contacts: await this.contacts(study, arms, nameOf),
+      contacts: this.contacts(contacts, arms, nameOf),
     };
     return { dto, figures: { report, earned } };
   }
 
-  private async contacts(
-    study: StudyEntity,
-    arms: ReportArm[],
-    nameOf: (id: string) => string,
-  ): Promise<ContactsByConditionDto> {
-    const rows = await readContactAggregates((sql, parameters) => this.dataSource.query(sql, parameters), {
-      id: study.id,
-      design: study.design,
-    });
+  private contacts(rows: ContactRow[], arms: ReportArm[], nameOf: (id: string) => string): ContactsByConditionDto {
     const byArm = new Map(rows.map((r) => [r.arm, r]));
     const parity = contactParity(
       arms.map((arm) => {

@@ -38,6 +38,9 @@ export async function activateBenchConsent(
     originalname: 'approval.pdf',
     size: TINY_PDF.length,
   });
+  const check = await consent.check(studyId, draft.id);
+  if (!check.passes)
+    throw new Error(`the bench consent form fails its check: ${check.findings.map((f) => f.message).join(' | ')}`);
   const active = await consent.activate(researcher, studyId, draft.id);
   if (!active.fingerprint) throw new Error('the activated consent version has no fingerprint');
   return { ...active, fingerprint: active.fingerprint };

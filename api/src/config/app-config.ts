@@ -244,6 +244,10 @@ export class AppConfig {
   @IsString()
   reminderSweepCron = '*/10 * * * *';
 
+  /** Cron (UTC) that folds the dropout watch's pending summary deltas into its compacted rows; empty turns it off. */
+  @IsString()
+  attritionCompactCron = '*/5 * * * *';
+
   /** Audit keys as `id=hex,id=hex` (the last signs new events); when empty, the key file below is used. */
   @IsString()
   auditKeys = '';
@@ -319,6 +323,7 @@ const ENVIRONMENT_NAMES: Record<keyof AppConfig, string> = {
   returnLinkGraceDays: 'RETURN_LINK_GRACE_DAYS',
   returnLinkValidDays: 'RETURN_LINK_VALID_DAYS',
   reminderSweepCron: 'REMINDER_SWEEP_CRON',
+  attritionCompactCron: 'ATTRITION_COMPACT_CRON',
   auditKeys: 'AUDIT_KEYS',
   auditKeyFile: 'AUDIT_KEY_FILE',
   auditReceiptCron: 'AUDIT_RECEIPT_CRON',

@@ -34,6 +34,7 @@ import { PasswordReset1764700310000 } from './migrations/1764700310000-password-
 import { ReceiptNumbers1764700400000 } from './migrations/1764700400000-receipt-numbers';
 import { TwoFactor1764700630000 } from './migrations/1764700630000-two-factor';
 import { SignedNames1764700700000 } from './migrations/1764700700000-signed-names';
+import { AttritionSummary1764700800000 } from './migrations/1764700800000-attrition-summary';
 import { StudyFundingEntity } from '../payouts/entities/study-funding.entity';
 import { StepCompletionEntity } from '../steps/entities/step-completion.entity';
 import { ConsentVersionEntity } from '../consent/entities/consent-version.entity';
@@ -98,6 +99,7 @@ export const MIGRATIONS = [
   AuditOutbox1764700500000,
   TwoFactor1764700630000,
   SignedNames1764700700000,
+  AttritionSummary1764700800000,
 ];
 
 /** `poolMax`: connections kept open (`DATABASE_POOL_MAX`); the benchmarks boot with more, never by rebuilding the pool. */

@@ -29,6 +29,7 @@ export const JOB_NAMES = {
   payoutReceipt: 'payout.receipt',
   sweepPayouts: 'payout.sweep',
   evaluateAttritionAlerts: 'attrition.evaluate-alerts',
+  compactAttritionSummary: 'attrition.compact-summary',
   sweepReminders: 'reminders.sweep',
   auditReceipt: 'audit.receipt',
   signInLinkRequest: 'auth.sign-in-link',
