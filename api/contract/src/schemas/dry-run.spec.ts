@@ -28,7 +28,7 @@ describe('checkDryRunRequest', () => {
     });
   });
 
-  it('refuses arrivals out of range, a short seed and a missing covariate mix, naming each', () => {
+  it('refuses arrivals out of range, a short seed and a covariate mix that is not an object, naming each', () => {
     const arrivals = `must be a whole number from 1 to ${MAX_DRY_RUN_ARRIVALS}`;
     expect(checkDryRunRequest({ arrivals: 0, covariateMix: {} })).toEqual({
       ok: false,
@@ -42,10 +42,14 @@ describe('checkDryRunRequest', () => {
       ok: false,
       errors: [{ field: 'seed', message: 'seed must be 64 hexadecimal characters' }],
     });
-    expect(checkDryRunRequest({ arrivals: 10 })).toEqual({
+    expect(checkDryRunRequest({ arrivals: 10, covariateMix: 'even' })).toEqual({
       ok: false,
       errors: [{ field: 'covariateMix', message: 'must be an object keyed by covariate id' }],
     });
+  });
+
+  it('takes a request without a covariate mix: the dry run then starts from the study’s observed mix', () => {
+    expect(checkDryRunRequest({ arrivals: 10 })).toEqual({ ok: true, value: { arrivals: 10 } });
   });
 
   it('refuses a distribution it does not know, a negative share and an unknown field', () => {
