@@ -73,15 +73,20 @@ async function draftWithStep() {
   return studyId;
 }
 
+/** A draft filled from the paid-study template with every value, as the admin's new-draft dialog sends it. */
+function fullDraft(studyId: string) {
+  return expectStatus(
+    coordinator
+      .post(`/api/studies/${studyId}/consent-versions`)
+      .send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
+    201,
+  );
+}
+
 describe('consent versions', () => {
   it('fills a draft from the template, passes the required-elements check, and fixes the fingerprint at activation', async () => {
     const studyId = await draftWithStep();
-    const draft = await expectStatus(
-      coordinator
-        .post(`/api/studies/${studyId}/consent-versions`)
-        .send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
-      201,
-    );
+    const draft = await fullDraft(studyId);
     expect(draft).toMatchObject({ version: 1, status: 'draft', fingerprint: null });
     expect(draft.body).toContain('Test study');
     expect(draft.notice).toMatch(/not legal advice/i);
@@ -131,12 +136,7 @@ describe('consent versions', () => {
 
   it('names a missing required element when its section is removed', async () => {
     const studyId = await draftWithStep();
-    const draft = await expectStatus(
-      coordinator
-        .post(`/api/studies/${studyId}/consent-versions`)
-        .send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
-      201,
-    );
+    const draft = await fullDraft(studyId);
     const withoutRisks = draft.body.replace(/## Possible risks and discomforts[\s\S]*?(?=\n## )/, '');
     await expectStatus(
       coordinator.patch(`/api/studies/${studyId}/consent-versions/${draft.id}`).send({ body: withoutRisks }),
@@ -639,12 +639,7 @@ describe('signing', () => {
 describe('the ethics approval date', () => {
   it('refuses a date after today with 400 naming the field, and keeps the draft as it was', async () => {
     const studyId = await draftWithStep();
-    const draft = await expectStatus(
-      coordinator
-        .post(`/api/studies/${studyId}/consent-versions`)
-        .send({ templateId: 'consent/minimal-risk-paid-study', values: FULL_CONSENT_VALUES }),
-      201,
-    );
+    const draft = await fullDraft(studyId);
     // Two days ahead is tomorrow in every time zone on Earth.
     const later = new Date(Date.now() + 2 * 86_400_000).toISOString().slice(0, 10);
     const refused = await expectStatus(
